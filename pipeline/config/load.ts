@@ -1,0 +1,76 @@
+/**
+ * Loads and validates content/atlas.yaml: YAML syntax, then the zod schema, then that the files
+ * it names exist. Every failure is a catalogued error naming the file and the key.
+ */
+import { readFile, readdir } from 'node:fs/promises';
+import { existsSync, statSync } from 'node:fs';
+import { dirname, resolve, join } from 'node:path';
+import { parse, YAMLParseError } from 'yaml';
+import { globSync } from 'tinyglobby';
+import { atlasSchema, type AtlasConfig } from './schema.ts';
+import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax } from './errors.ts';
+
+/** A validated configuration with every path resolved to an absolute one. */
+export interface ResolvedConfig {
+  config: AtlasConfig;
+  /** Absolute path of the config file. */
+  path: string;
+  /** The raw text of the config file (for its digest). */
+  text: string;
+  /** Absolute paths of the input files, sorted. */
+  inputFiles: string[];
+  /** Absolute paths of the region GeoJSON files, sorted. */
+  regionFiles: string[];
+  /** Absolute path of the output folder. */
+  outputDir: string;
+}
+
+/** Parses and validates a config text; `file` is used in error messages only. */
+export function parseConfig(text: string, file: string): AtlasConfig {
+  let raw: unknown;
+  try {
+    raw = parse(text);
+  } catch (e) {
+    if (e instanceof YAMLParseError) throw ConfigSyntax({ detail: e.message }, { file });
+    throw e;
+  }
+  const result = atlasSchema.safeParse(raw);
+  if (!result.success) {
+    const problems = result.error.issues.map((i) => {
+      const key = i.path.join('.') || '(top level)';
+      if (i.code === 'unrecognized_keys') return `${key === '(top level)' ? '' : key + ': '}unknown key(s) ${i.keys.map((k) => `"${k}"`).join(', ')}`;
+      return `${key}: ${i.message}`;
+    });
+    const firstKey = result.error.issues[0]?.path.join('.');
+    throw ConfigInvalid({ problems }, { file, key: firstKey || undefined });
+  }
+  return result.data;
+}
+
+/** Loads the config at `path`, validates it and resolves its files. */
+export async function loadConfig(path: string): Promise<ResolvedConfig> {
+  const abs = resolve(path);
+  if (!existsSync(abs)) throw ConfigNotFound({ path: abs }, { file: abs });
+  const text = await readFile(abs, 'utf8');
+  const config = parseConfig(text, abs);
+  const baseDir = dirname(abs);
+  const inputFiles: string[] = [];
+  for (const pattern of config.dataset.files) {
+    const matches = globSync(pattern, { cwd: baseDir, absolute: true }).map((m) => resolve(m)).filter((m) => statSync(m).isFile());
+    if (matches.length === 0) throw ConfigInputMissing({ pattern, baseDir }, { file: abs, key: 'dataset.files' });
+    inputFiles.push(...matches);
+  }
+  const regionsDir = resolve(baseDir, config.regions);
+  const regionFiles = existsSync(regionsDir) && statSync(regionsDir).isDirectory()
+    ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
+    : [];
+  if (regionFiles.length === 0) throw ConfigRegionsMissing({ path: regionsDir }, { file: abs, key: 'regions' });
+  return {
+    config,
+    path: abs,
+    text,
+    inputFiles: [...new Set(inputFiles)].sort(),
+    regionFiles: regionFiles.sort(),
+    outputDir: resolve(baseDir, config.output),
+  };
+}

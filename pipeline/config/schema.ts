@@ -1,0 +1,64 @@
+/**
+ * The schema of content/atlas.yaml, validated with zod before any data is read. Unknown keys are
+ * errors (a misspelt key must not be silently ignored). Paths are relative to the config file.
+ */
+import { z } from 'zod';
+
+const year = z.number().int().min(1940).max(2100);
+const yearRange = z
+  .tuple([year, year])
+  .refine(([a, b]) => a <= b, { message: 'the first year must not be after the last' });
+
+export const datasetSchema = z
+  .object({
+    /** Glob patterns of the input NetCDF files, relative to the config file. */
+    files: z.array(z.string().min(1)).min(1),
+    /** Which reanalysis the files come from: decides the accumulation convention. */
+    product: z.enum(['era5', 'era5-land']).default('era5'),
+    /** Optional land-sea mask: a variable (in the inputs) and the land fraction threshold. */
+    landSeaMask: z
+      .object({ variable: z.string().default('lsm'), threshold: z.number().min(0).max(1).default(0.5) })
+      .strict()
+      .optional(),
+    /** A free-text licence / attribution line shown on the site. */
+    attribution: z.string().optional(),
+    /** Whether the data are invented (synthetic); invented data are labelled so everywhere. */
+    invented: z.boolean().default(false),
+  })
+  .strict();
+
+export const atlasSchema = z
+  .object({
+    /** Identifier of the atlas, used in file names: lower case, digits and dashes. */
+    id: z.string().regex(/^[a-z0-9][a-z0-9-]*$/, 'use lower-case letters, digits and dashes'),
+    title: z.string().min(1),
+    description: z.string().optional(),
+    dataset: datasetSchema,
+    /** First and last year to build [calendar years, UTC]. */
+    years: yearRange,
+    /** First and last year of the baseline (the normal period). Must lie within `years`. */
+    baseline: yearRange,
+    /** IANA time zone for work shifts and local hours, e.g. "Asia/Dubai". */
+    timeZone: z.string().min(1),
+    /** Folder of region GeoJSON files, relative to the config file. */
+    regions: z.string().min(1),
+    /** Output folder of the built site, relative to the config file. */
+    output: z.string().default('../dist'),
+  })
+  .strict()
+  .superRefine((c, ctx) => {
+    if (c.baseline[0] < c.years[0] || c.baseline[1] > c.years[1]) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['baseline'],
+        message: `baseline ${c.baseline[0]}-${c.baseline[1]} lies outside years ${c.years[0]}-${c.years[1]}`,
+      });
+    }
+    try {
+      new Intl.DateTimeFormat('en', { timeZone: c.timeZone });
+    } catch {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['timeZone'], message: `unknown IANA time zone "${c.timeZone}"` });
+    }
+  });
+
+export type AtlasConfig = z.infer<typeof atlasSchema>;

@@ -1,0 +1,3 @@
+/** Imports every stage's error specs so the catalogue is complete. Add a stage's errors.ts here. */
+import './errors.ts';
+import '../config/errors.ts';

@@ -1,0 +1,75 @@
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, writeFileSync, mkdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { loadConfig, parseConfig } from '../../pipeline/config/load.ts';
+import { HeathoursError } from '../../pipeline/model/errors.ts';
+
+const demoText = readFileSync(new URL('../../content/atlas.yaml', import.meta.url), 'utf8');
+
+function expectError(fn: () => unknown, code: string, match?: RegExp): HeathoursError {
+  try {
+    fn();
+  } catch (e) {
+    expect(e).toBeInstanceOf(HeathoursError);
+    const err = e as HeathoursError;
+    expect(err.code).toBe(code);
+    if (match) expect(err.format()).toMatch(match);
+    return err;
+  }
+  throw new Error(`expected ${code}, nothing was thrown`);
+}
+
+describe('atlas configuration', () => {
+  it('the shipped demo configuration content/atlas.yaml validates', () => {
+    const c = parseConfig(demoText, 'content/atlas.yaml');
+    expect(c.id).toBe('demo');
+    expect(c.dataset.invented).toBe(true);
+    expect(c.baseline[0]).toBeGreaterThanOrEqual(c.years[0]);
+  });
+
+  it('an unknown key is a ConfigInvalid error that names the key and the file', () => {
+    const err = expectError(() => parseConfig(demoText + '\nyaers: [2020, 2021]\n', 'a.yaml'), 'ConfigInvalid', /unknown key\(s\) "yaers"/);
+    expect(err.where.file).toBe('a.yaml');
+  });
+
+  it('a misspelt nested key is named with its path', () => {
+    const bad = demoText.replace('threshold: 0.5', 'treshold: 0.5');
+    expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /dataset\.landSeaMask: unknown key\(s\) "treshold"/);
+  });
+
+  it('a value of the wrong type is a ConfigInvalid error naming the key', () => {
+    const bad = demoText.replace('years: [2020, 2024]', 'years: "2020-2024"');
+    expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /years: /);
+  });
+
+  it('a baseline outside the years is rejected', () => {
+    const bad = demoText.replace('baseline: [2020, 2023]', 'baseline: [1991, 2020]');
+    expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /baseline 1991-2020 lies outside years 2020-2024/);
+  });
+
+  it('an unknown IANA time zone is rejected', () => {
+    const bad = demoText.replace('timeZone: Etc/GMT+10', 'timeZone: Mars/Olympus');
+    expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /unknown IANA time zone "Mars\/Olympus"/);
+  });
+
+  it('broken YAML is a ConfigSyntax error', () => {
+    expectError(() => parseConfig('id: [unclosed\n', 'a.yaml'), 'ConfigSyntax');
+  });
+
+  it('a missing config file, an input pattern that matches nothing and a missing regions folder are each catalogued', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'hh-config-'));
+    await expect(loadConfig(join(dir, 'nope.yaml'))).rejects.toMatchObject({ code: 'ConfigNotFound' });
+    const cfg = join(dir, 'atlas.yaml');
+    writeFileSync(cfg, demoText.replace('../data/demo/*.nc', 'inputs/*.nc'));
+    await expect(loadConfig(cfg)).rejects.toMatchObject({ code: 'ConfigInputMissing', where: { key: 'dataset.files' } });
+    mkdirSync(join(dir, 'inputs'));
+    writeFileSync(join(dir, 'inputs', 'a.nc'), 'x');
+    await expect(loadConfig(cfg)).rejects.toMatchObject({ code: 'ConfigRegionsMissing', where: { key: 'regions' } });
+    mkdirSync(join(dir, 'regions'));
+    writeFileSync(join(dir, 'regions', 'r.geojson'), '{}');
+    const ok = await loadConfig(cfg);
+    expect(ok.inputFiles).toEqual([join(dir, 'inputs', 'a.nc')]);
+    expect(ok.regionFiles).toEqual([join(dir, 'regions', 'r.geojson')]);
+  });
+});
