@@ -1,0 +1,258 @@
+/**
+ * Where the sun is: declination, right ascension, sidereal time, hour angle, cosine of the
+ * zenith at an instant and averaged over a period, and the Earth–Sun distance.
+ *
+ * Sun position: the Astronomical Almanac's low-precision formulas (Michalsky 1988, Solar Energy
+ * 40:227–235; valid 1950–2049, about 0.01° in position), the formulas the Liljegren et al. 2008
+ * reference code uses (METHODS.md §3.2.6). Refraction: Michalsky 1988's standard-atmosphere
+ * formula (1013.25 hPa, 15 °C). Period means: METHODS.md §4.2. NOAA's Spencer-series formulas
+ * (METHODS.md §4.1) are kept for comparison and checks.
+ *
+ * Time is always milliseconds since 1970-01-01 UTC; angles in degrees at the API, radians inside.
+ */
+import { SOLAR_CONSTANT } from './constants.ts';
+
+const RAD = Math.PI / 180;
+const DEG = 180 / Math.PI;
+const MS_PER_DAY = 86_400_000;
+/** Julian date of the Unix epoch [d]. */
+const JD_UNIX_EPOCH = 2_440_587.5;
+/** Julian date of J2000.0 [d]. */
+const JD_J2000 = 2_451_545.0;
+
+/** First and last calendar year the Almanac formulas are documented for [year] (METHODS.md §3.2.6). */
+export const SOLAR_FIRST_YEAR = 1950;
+export const SOLAR_LAST_YEAR = 2049;
+
+/** Sun position at one instant, from the Almanac low-precision formulas. */
+export interface SunState {
+  /** Declination [rad]. */
+  declination: number;
+  /** Right ascension [rad], in [0, 2π). */
+  rightAscension: number;
+  /** Greenwich mean sidereal time [rad], in [0, 2π). */
+  gmst: number;
+  /** Earth–Sun distance [AU]. */
+  distanceAu: number;
+  /** sin(declination) [–] and cos(declination) [–], cached for the per-cell loop. */
+  sinDec: number;
+  cosDec: number;
+}
+
+/** Days since J2000.0 (JD 2451545.0) [d] for a time [ms since 1970 UTC]. */
+export function daysSinceJ2000(timeMs: number): number {
+  return timeMs / MS_PER_DAY + JD_UNIX_EPOCH - JD_J2000;
+}
+
+/** True when the UTC calendar year of `timeMs` [ms since 1970 UTC] lies in 1950–2049. */
+export function solarYearSupported(timeMs: number): boolean {
+  if (!Number.isFinite(timeMs)) return false;
+  const y = new Date(timeMs).getUTCFullYear();
+  return y >= SOLAR_FIRST_YEAR && y <= SOLAR_LAST_YEAR;
+}
+
+function wrap2pi(x: number): number {
+  const r = x % (2 * Math.PI);
+  return r < 0 ? r + 2 * Math.PI : r;
+}
+
+/**
+ * Sun state at an instant. Almanac low-precision formulas (Michalsky 1988, eqs. for mean
+ * longitude, mean anomaly, ecliptic longitude, obliquity, GMST; METHODS.md §3.2.6, §3.2.9 for
+ * the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`).
+ * @param timeMs instant [ms since 1970 UTC]
+ */
+export function sunState(timeMs: number): SunState {
+  const n = daysSinceJ2000(timeMs);
+  const meanLon = wrap2pi((280.46 + 0.9856474 * n) * RAD);
+  const g = wrap2pi((357.528 + 0.9856003 * n) * RAD);
+  const eclLon = meanLon + (1.915 * Math.sin(g) + 0.02 * Math.sin(2 * g)) * RAD;
+  const obliq = (23.439 - 4e-7 * n) * RAD;
+  const sinL = Math.sin(eclLon);
+  const rightAscension = wrap2pi(Math.atan2(Math.cos(obliq) * sinL, Math.cos(eclLon)));
+  const declination = Math.asin(Math.sin(obliq) * sinL);
+  // GMST [h] = 6.697375 + 0.0657098242·n + UT hours (n counted from J2000.0 including the day fraction).
+  const utHours = (((timeMs % MS_PER_DAY) + MS_PER_DAY) % MS_PER_DAY) / 3_600_000;
+  const gmstH = 6.697375 + 0.0657098242 * n + utHours;
+  const gmst = wrap2pi(gmstH * 15 * RAD);
+  const distanceAu = 1.00014 - 0.01671 * Math.cos(g) - 0.00014 * Math.cos(2 * g);
+  return { declination, rightAscension, gmst, distanceAu, sinDec: Math.sin(declination), cosDec: Math.cos(declination) };
+}
+
+/** Local hour angle [rad] in (−π, π] for a sun state and a longitude [° E]. */
+export function hourAngle(s: SunState, lonDeg: number): number {
+  let h = wrap2pi(s.gmst + lonDeg * RAD - s.rightAscension);
+  if (h > Math.PI) h -= 2 * Math.PI;
+  return h;
+}
+
+/**
+ * Geometric cosine of the solar zenith at an instant [–] (no refraction):
+ * `cos θ = sin φ sin δ + cos φ cos δ cos h` (METHODS.md §4.1).
+ * @param timeMs instant [ms since 1970 UTC]; @param latDeg latitude [° N]; @param lonDeg longitude [° E]
+ */
+export function cosZenithInstant(timeMs: number, latDeg: number, lonDeg: number): number {
+  const s = sunState(timeMs);
+  const phi = latDeg * RAD;
+  return Math.sin(phi) * s.sinDec + Math.cos(phi) * s.cosDec * Math.cos(hourAngle(s, lonDeg));
+}
+
+/**
+ * Atmospheric refraction for the standard atmosphere (1013.25 hPa, 15 °C) [°], for a geometric
+ * elevation [°]. Michalsky 1988 (the Almanac's formula):
+ * `R = 3.51561·(0.1594 + 0.0196 e + 0.00002 e²)/(1 + 0.505 e + 0.0845 e²)` for e ≥ −0.56°; below
+ * that no correction (the reference rows' night-time cosines show none is applied).
+ */
+export function refractionDeg(elevationDeg: number): number {
+  const e = elevationDeg;
+  if (e < -0.56) return 0;
+  return (3.51561 * (0.1594 + 0.0196 * e + 0.00002 * e * e)) / (1 + 0.505 * e + 0.0845 * e * e);
+}
+
+/**
+ * Cosine of the apparent (refraction-corrected) solar zenith [–] from a geometric cosine [–].
+ * The elevation is capped at 90°.
+ */
+export function apparentCosZenith(cosGeometric: number): number {
+  const c = cosGeometric > 1 ? 1 : cosGeometric < -1 ? -1 : cosGeometric;
+  const el = Math.asin(c) * DEG;
+  let app = el + refractionDeg(el);
+  if (app > 90) app = 90;
+  return Math.sin(app * RAD);
+}
+
+/** Apparent cosine of the zenith at an instant [–] (Almanac sun + Michalsky refraction). */
+export function cosZenithApparentInstant(timeMs: number, latDeg: number, lonDeg: number): number {
+  return apparentCosZenith(cosZenithInstant(timeMs, latDeg, lonDeg));
+}
+
+/** Cosines of the zenith over an averaging period (METHODS.md §4.2). */
+export interface PeriodCosines {
+  /** Whole-interval mean of max(0, cos θ) [–]; pairs with an accumulated (period-mean) flux. */
+  mean: number;
+  /** Mean of cos θ over the sunlit part only [–]; 0 when the sun never rises in the period. */
+  sunlitMean: number;
+  /** Fraction of the period with the sun above the horizon [–]. */
+  sunlitFraction: number;
+}
+
+/**
+ * Whole-period and sunlit-part mean cosines (METHODS.md §4.2): declination at mid-period,
+ * hour angle sweeping 15° h⁻¹, `∫cos θ dh = sin φ sin δ (b − a) + cos φ cos δ (sin b − sin a)`
+ * over the sunlit part `[a, b] = [h1, h2] ∩ [−h_s, h_s]` (intervals crossing ±π handled by
+ * testing the neighbouring days' sunlit windows).
+ * @param endTimeMs end of the period [ms since 1970 UTC]; @param periodMinutes its length [min]
+ * (0 gives the instant value); @param latDeg [° N]; @param lonDeg [° E]
+ */
+export function periodCosines(endTimeMs: number, periodMinutes: number, latDeg: number, lonDeg: number): PeriodCosines {
+  const mid = endTimeMs - periodMinutes * 30_000;
+  const s = sunState(mid);
+  const phi = latDeg * RAD;
+  const A = Math.sin(phi) * s.sinDec;
+  const B = Math.cos(phi) * s.cosDec;
+  const hm = hourAngle(s, lonDeg);
+  if (periodMinutes <= 0) {
+    const c = A + B * Math.cos(hm);
+    return c > 0 ? { mean: c, sunlitMean: c, sunlitFraction: 1 } : { mean: 0, sunlitMean: 0, sunlitFraction: 0 };
+  }
+  return integrateCosines(A, B, hm, (periodMinutes / 1440) * Math.PI);
+}
+
+/**
+ * Mean cosines for `cos θ = A + B cos h` over hour angles [hm − half, hm + half] [rad].
+ * Exported for the gridded geometry step, which reuses A (per row) and hm (per column).
+ */
+export function integrateCosines(A: number, B: number, hm: number, half: number): PeriodCosines {
+  // Sunset hour angle h_s: cos h_s = −A/B (polar day → π, polar night → 0).
+  let hs: number;
+  if (B <= 1e-12) hs = A > 0 ? Math.PI : 0;
+  else {
+    const x = -A / B;
+    hs = x <= -1 ? Math.PI : x >= 1 ? 0 : Math.acos(x);
+  }
+  const h1 = hm - half;
+  const h2 = hm + half;
+  let integral = 0;
+  let sunlit = 0;
+  if (hs > 0) {
+    for (let k = -1; k <= 1; k++) {
+      const off = 2 * Math.PI * k;
+      const a = Math.max(h1, off - hs);
+      const b = Math.min(h2, off + hs);
+      if (b > a) {
+        integral += A * (b - a) + B * (Math.sin(b) - Math.sin(a));
+        sunlit += b - a;
+      }
+    }
+  }
+  const width = h2 - h1;
+  if (sunlit <= 0) return { mean: 0, sunlitMean: 0, sunlitFraction: 0 };
+  const mean = Math.max(0, integral / width);
+  return { mean, sunlitMean: Math.max(0, integral / sunlit), sunlitFraction: sunlit / width };
+}
+
+/**
+ * Whole-interval mean of the cosine of the zenith [–] over the period ending at `endTimeMs`
+ * (METHODS.md §4.2; zero-clamped, so night hours give 0).
+ * @param endTimeMs end of the period [ms since 1970 UTC]; @param periodMinutes [min]
+ * @param latDeg [° N]; @param lonDeg [° E]
+ */
+export function cosZenithPeriodMean(endTimeMs: number, periodMinutes: number, latDeg: number, lonDeg: number): number {
+  return periodCosines(endTimeMs, periodMinutes, latDeg, lonDeg).mean;
+}
+
+/** Earth–Sun distance [AU] at an instant [ms since 1970 UTC] (Almanac; METHODS.md §3.2.9). */
+export function earthSunDistanceAu(timeMs: number): number {
+  return sunState(timeMs).distanceAu;
+}
+
+/**
+ * Top-of-atmosphere irradiance on a horizontal plane [W m⁻²]: `S0·max(0, cos θ)/d²`
+ * (METHODS.md §3.2.6). @param timeMs [ms since 1970 UTC]; @param cosZenith [–]
+ */
+export function topOfAtmosphereIrradiance(timeMs: number, cosZenith: number): number {
+  const d = earthSunDistanceAu(timeMs);
+  return (SOLAR_CONSTANT * Math.max(0, cosZenith)) / (d * d);
+}
+
+// ---------------------------------------------------------------------------------------------
+// NOAA "General Solar Position Calculations" (Spencer 1971 series), METHODS.md §4.1.
+
+/** NOAA fractional year γ [rad] for a time [ms since 1970 UTC] (365 or 366 days by year). */
+export function noaaFractionalYear(timeMs: number): number {
+  const d = new Date(timeMs);
+  const y = d.getUTCFullYear();
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+  const doy = Math.floor((timeMs - Date.UTC(y, 0, 1)) / MS_PER_DAY) + 1;
+  const hour = d.getUTCHours() + d.getUTCMinutes() / 60 + d.getUTCSeconds() / 3600;
+  return ((2 * Math.PI) / (leap ? 366 : 365)) * (doy - 1 + (hour - 12) / 24);
+}
+
+/** NOAA equation of time [min] (METHODS.md §4.1). @param gamma fractional year [rad] */
+export function noaaEquationOfTime(gamma: number): number {
+  return 229.18 * (0.000075 + 0.001868 * Math.cos(gamma) - 0.032077 * Math.sin(gamma) - 0.014615 * Math.cos(2 * gamma) - 0.040849 * Math.sin(2 * gamma));
+}
+
+/** NOAA declination [rad] (METHODS.md §4.1). @param gamma fractional year [rad] */
+export function noaaDeclination(gamma: number): number {
+  return (
+    0.006918 - 0.399912 * Math.cos(gamma) + 0.070257 * Math.sin(gamma) - 0.006758 * Math.cos(2 * gamma) +
+    0.000907 * Math.sin(2 * gamma) - 0.002697 * Math.cos(3 * gamma) + 0.00148 * Math.sin(3 * gamma)
+  );
+}
+
+/**
+ * NOAA cosine of the zenith [–] at an instant: true solar time `tst = 60·h_UTC + EoT + 4λ` [min],
+ * hour angle `tst/4 − 180` [°] (METHODS.md §4.1). @param timeMs [ms since 1970 UTC]
+ */
+export function noaaCosZenith(timeMs: number, latDeg: number, lonDeg: number): number {
+  const gamma = noaaFractionalYear(timeMs);
+  const eot = noaaEquationOfTime(gamma);
+  const dec = noaaDeclination(gamma);
+  const d = new Date(timeMs);
+  const minutes = d.getUTCHours() * 60 + d.getUTCMinutes() + d.getUTCSeconds() / 60;
+  const tst = minutes + eot + 4 * lonDeg;
+  const h = (tst / 4 - 180) * RAD;
+  const phi = latDeg * RAD;
+  return Math.sin(phi) * Math.sin(dec) + Math.cos(phi) * Math.cos(dec) * Math.cos(h);
+}
