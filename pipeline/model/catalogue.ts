@@ -1,3 +1,7 @@
 /** Imports every stage's error specs so the catalogue is complete. Add a stage's errors.ts here. */
 import './errors.ts';
 import '../config/errors.ts';
+import '../publish/layers/errors.ts';
+import '../work/errors.ts';
+import '../read/errors.ts';
+import '../climate/errors.ts';

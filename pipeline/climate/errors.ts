@@ -1,0 +1,55 @@
+/**
+ * Catalogued errors of the climate stage (normals across years, mean annual temperature against
+ * the human climate niche). The climate stage does no I/O: these errors name the input array or
+ * option (`variable`, `key`) that was wrong, and the lead adds the file when it has one.
+ */
+import { defineError } from '../model/errors.ts';
+
+export const ClimateProbabilityOutOfRange = defineError<{ p: number }>({
+  code: 'ClimateProbabilityOutOfRange',
+  title: 'A quantile was asked for a probability outside 0–1',
+  message: (p) => `quantile probability ${p.p} is not a number between 0 and 1`,
+  hint: () => 'pass the probability as a fraction: 0.5 for the median, 0.9 for the 90th percentile',
+});
+
+export const ClimateShapeMismatch = defineError<{ what: string; expected: number; actual: number }>({
+  code: 'ClimateShapeMismatch',
+  title: 'An array has the wrong length for its years × items layout',
+  message: (p) => `${p.what} holds ${p.actual} values; years × items needs ${p.expected}`,
+  hint: () => 'lay the stack out year-major (value[year * nItems + item]) with one row per year of `years`',
+});
+
+export const ClimateYearsNotAscending = defineError<{ index: number; previous: number; year: number }>({
+  code: 'ClimateYearsNotAscending',
+  title: 'The years of a stack are not whole, strictly ascending calendar years',
+  message: (p) => `year ${p.year} at row ${p.index} does not follow ${p.previous} (years must be integers, ascending, without repeats)`,
+  hint: () => 'give one row per calendar year, oldest first, each year once',
+});
+
+export const ClimatePeriodNotInStack = defineError<{ period: string; first: number; last: number; years: string }>({
+  code: 'ClimatePeriodNotInStack',
+  title: 'A requested period has no year in the stack',
+  message: (p) => `${p.period} ${p.first}–${p.last} shares no year with the stack (${p.years})`,
+  hint: () => 'choose a baseline (and latest years) inside the years that were built, or build those years first',
+});
+
+export const ClimateBadPeriod = defineError<{ period: string; first: number; last: number }>({
+  code: 'ClimateBadPeriod',
+  title: 'A period of years is not valid',
+  message: (p) => `${p.period} ${p.first}–${p.last} is not a pair of whole years with the first not after the last`,
+  hint: () => 'write the period as [first, last] calendar years, e.g. [1991, 2020]',
+});
+
+export const ClimateBadHourCounts = defineError<{ row: number; item: number; valid: number; expected: number }>({
+  code: 'ClimateBadHourCounts',
+  title: 'The counts of valid and expected hours do not make sense',
+  message: (p) => `year row ${p.row} (1-based), item ${p.item}: ${p.valid} valid hours against ${p.expected} expected (need 0 ≤ valid ≤ expected, whole numbers)`,
+  hint: () => 'pass, per year × item, the hours actually computed and the hours the period holds; valid can never exceed expected',
+});
+
+export const ClimateBadRule = defineError<{ detail: string }>({
+  code: 'ClimateBadRule',
+  title: 'The completeness rule is not valid',
+  message: (p) => p.detail,
+  hint: () => 'maxMissingHours is a whole number of hours ≥ 0; minYearShare is a fraction in (0, 1]',
+});
