@@ -5,3 +5,4 @@ import '../publish/layers/errors.ts';
 import '../work/errors.ts';
 import '../read/errors.ts';
 import '../climate/errors.ts';
+import '../../src/data/errors.ts';

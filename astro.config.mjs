@@ -1,0 +1,25 @@
+// The Astro site's configuration. pipeline/publish/site.ts calls Astro's build() with this file
+// plus the data folder (HEATHOURS_DATA_DIR) and the output folder. Everything the pages load is a
+// file of the site's own origin: no inline scripts or styles (they would break the
+// Content-Security-Policy in src/lib/content-security-policy.ts), no remote fonts or assets.
+import { defineConfig } from 'astro/config';
+
+export default defineConfig({
+  output: 'static',
+  trailingSlash: 'ignore',
+  build: {
+    format: 'directory',
+    inlineStylesheets: 'never',
+    assets: 'assets',
+  },
+  devToolbar: { enabled: false },
+  prefetch: false,
+  vite: {
+    build: {
+      // 0: never inline scripts, styles or images as data: URLs or inline tags.
+      assetsInlineLimit: 0,
+      // MapLibre's chunk is about 1 MB; it is loaded only on pages with a map.
+      chunkSizeWarningLimit: 1500,
+    },
+  },
+});

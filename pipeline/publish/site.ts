@@ -1,0 +1,80 @@
+/**
+ * The last step of `heathours build`: the Astro site. Takes the data folder the pipeline wrote
+ * (`dataDir/data/inventory.json`, `dataDir/data/regions.geojson`, …), builds the static site with
+ * Astro's programmatic `build()` into a temporary folder, copies `dataDir/data/` to `data/` in it,
+ * and only then replaces `outDir` (pipeline/model/effects.ts `replaceDirAtomic`): a failed build
+ * leaves the previous site as it was.
+ *
+ * Pages read their inputs at build time through src/data/*.ts, which find the data folder in the
+ * environment variable HEATHOURS_DATA_DIR; this function sets it for the duration of the build, so
+ * two builds must not run at once in one process.
+ */
+import { cp, mkdtemp, rm } from 'node:fs/promises';
+import { existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { replaceDirAtomic } from '../model/effects.ts';
+import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
+import { loadInventory } from '../../src/data/inventory.ts';
+import { loadRegions } from '../../src/data/regions.ts';
+import { SiteBuildFailed, SiteDataMissing } from '../../src/data/errors.ts';
+
+/** The project root: where astro.config.mjs and src/ live. */
+const PROJECT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+/** Files Astro's static build writes into the output folder that the site does not use. */
+const ASTRO_LEFTOVERS = ['content-assets.mjs', 'content-modules.mjs'];
+
+export interface BuildSiteOptions {
+  /** Folder holding the pipeline's `data/` subfolder. */
+  dataDir: string;
+  /** Where the site goes (replaced only after a successful build), e.g. `dist`. */
+  outDir: string;
+  /** No log lines but errors. */
+  quiet?: boolean;
+}
+
+/** Checks the data folder before the (slow) Astro build, with catalogued errors. */
+export function checkSiteData(dataDir: string): void {
+  const dataFolder = join(dataDir, 'data');
+  if (!existsSync(dataFolder)) throw SiteDataMissing({ path: dataFolder, what: 'data folder' }, { file: dataFolder });
+  loadInventory(dataDir);
+  loadRegions(dataDir);
+}
+
+/** Builds the static site from `dataDir` into `outDir` (see the file comment). */
+export async function buildSite(opts: BuildSiteOptions): Promise<void> {
+  const dataDir = resolve(opts.dataDir);
+  const outDir = resolve(opts.outDir);
+  checkSiteData(dataDir);
+  const started = Date.now();
+  await replaceDirAtomic(outDir, async (tmp) => {
+    const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
+    const previous = process.env[DATA_DIR_ENV];
+    process.env[DATA_DIR_ENV] = dataDir;
+    process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
+    try {
+      const { build } = await import('astro');
+      await build({
+        root: PROJECT_ROOT,
+        outDir: tmp,
+        cacheDir,
+        mode: 'production',
+        logLevel: opts.quiet ? 'error' : 'info',
+      });
+    } catch (e) {
+      const err = e as Error & { code?: string; hint?: string };
+      const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));
+      throw SiteBuildFailed({ detail });
+    } finally {
+      if (previous === undefined) delete process.env[DATA_DIR_ENV];
+      else process.env[DATA_DIR_ENV] = previous;
+      await rm(cacheDir, { recursive: true, force: true });
+    }
+    // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.
+    for (const leftover of ASTRO_LEFTOVERS) await rm(join(tmp, leftover), { force: true });
+    await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
+  });
+  if (!opts.quiet) process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
+}

@@ -1,0 +1,14 @@
+/** Readable names for the inventory's coded values (file formats and ERA5 layouts). */
+import type { InventoryFile } from '../../pipeline/publish/inventory-types.ts';
+
+export const FORMAT_LABELS: Record<InventoryFile['format'], string> = {
+  'netcdf3-classic': 'NetCDF-3 classic',
+  'netcdf3-64bit-offset': 'NetCDF-3 64-bit offset',
+  netcdf4: 'NetCDF-4 (HDF5)',
+};
+
+export const LAYOUT_LABELS: Record<InventoryFile['layout'], string> = {
+  'era5-legacy': 'ERA5 legacy layout (time, packed 16-bit integers)',
+  'era5-cds-2024': 'ERA5 layout of the 2024 data store (valid_time)',
+  other: 'other layout',
+};
