@@ -6,3 +6,4 @@ import '../work/errors.ts';
 import '../read/errors.ts';
 import '../climate/errors.ts';
 import '../../src/data/errors.ts';
+import '../regions/errors.ts';

@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest';
+import { CLOTHING_ENSEMBLES, HOOD_CAV, clothingAdjustment, clothingEnsemble } from '../../pipeline/work/clothing.ts';
+import { expectWorkError } from './helpers.ts';
+
+describe('clothing adjustment values', () => {
+  it('the ensemble table carries the METHODS.md §5.5 values with their provenance tags', () => {
+    // METHODS.md §5.5: [V] = Bernard et al. 2008 measured; others (from memory, ACGIH).
+    const expected: Record<string, [number, string]> = {
+      'work-clothes': [0, 'from-memory'],
+      'woven-coveralls': [0, 'verified'],
+      'double-layer-woven': [3, 'from-memory'],
+      'sms-coveralls': [0.5, 'from-memory'],
+      'polyolefin-coveralls': [1, 'verified'],
+      'microporous-coveralls': [2.5, 'verified'],
+      'vapour-barrier-coveralls': [11, 'from-memory'],
+    };
+    expect(Object.fromEntries(CLOTHING_ENSEMBLES.map((e) => [e.id, [e.cav, e.sourceTag]]))).toEqual(expected);
+    for (const e of CLOTHING_ENSEMBLES) expect(e.source).toMatch(/METHODS\.md §5\.5/);
+  });
+
+  it('a hood adds 1 °C-WBGT to any ensemble (ACGIH, from memory; METHODS.md §5.5)', () => {
+    expect(HOOD_CAV).toBe(1);
+    expect(clothingAdjustment({ ensemble: 'polyolefin-coveralls', hood: true })).toBe(2);
+    expect(clothingAdjustment({ ensemble: 'work-clothes' })).toBe(0);
+  });
+
+  it('a value given directly is used as it is', () => {
+    expect(clothingAdjustment({ cav: 4.5 })).toBe(4.5);
+  });
+
+  it('an unknown ensemble is a ClothingEnsembleUnknown error listing the known ones', () => {
+    expectWorkError(() => clothingEnsemble('tyvek', { key: 'work.clothing' }), 'ClothingEnsembleUnknown', /known: work-clothes, woven-coveralls/);
+  });
+
+  it('a negative, absurd or non-finite value is a ClothingAdjustmentOutOfRange error', () => {
+    for (const v of [-1, 25, Number.NaN]) expectWorkError(() => clothingAdjustment({ cav: v }), 'ClothingAdjustmentOutOfRange');
+  });
+});
