@@ -7,7 +7,7 @@ export { compileStyle, type LayerStyle, type ContinuousStyle, type CategoricalSt
 export type { LegendSpec, LegendStop } from './legend.ts';
 export { niceDomain, type NiceDomainOptions } from './nice-domain.ts';
 export { figureStyle } from './figure-style.ts';
-export { nicheClassStyle, NICHE_COLOURS, DEFAULT_NICHE_CODES, type NicheCodes } from './niche-style.ts';
+export { nicheClassStyle, NICHE_COLOURS } from './niche-style.ts';
 export { RAMPS, RAMP_FOR_FIGURE, type RampName, type FigureKind } from './ramps.ts';
 export { layerGeometry, type LayerGridInput, type LayerGeometry } from './layer-grid.ts';
 export { mercatorY, mercatorLat, MERCATOR_MAX_LAT } from './mercator.ts';

@@ -1,14 +1,16 @@
 /**
  * A minimal PNG encoder for 8-bit RGBA images: signature, IHDR, one zlib-deflated IDAT, IEND
- * (PNG specification, W3C Recommendation, 2nd ed. 2003, §5 datastream, §11.2 chunks). Every scanline
- * uses filter type 0 (None); deflate finds the repeated rows of a Mercator layer by itself.
+ * (PNG specification, W3C Recommendation, 2nd ed. 2003, §5 datastream, §9 filtering, §11.2 chunks;
+ * section numbers from memory). A scanline equal to the one above uses filter type 2 (Up, all
+ * zeros then), any other type 1 (Sub: runs of equal pixels become zeros), which suits a layer of
+ * flat cells repeated over many rows; deflate then uses its run-length strategy (Z_RLE).
  *
  * Why our own and not sharp: sharp's encoder is asynchronous (a Promise), while this keeps
  * `renderLayerPng` a synchronous, deterministic function of its inputs (same bytes every build,
  * so digests in the manifest are stable) at a few dozen lines. sharp decodes it in the tests as an
  * outside reader (libpng/libspng check every CRC).
  */
-import { deflateSync } from 'node:zlib';
+import { constants, deflateSync } from 'node:zlib';
 
 const SIGNATURE = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
 
@@ -57,10 +59,19 @@ export function encodePngRgba(rgba: Uint8Array, width: number, height: number): 
   const stride = width * 4;
   const raw = new Uint8Array((stride + 1) * height);
   for (let y = 0; y < height; y++) {
-    raw[y * (stride + 1)] = 0; // filter type None
-    raw.set(rgba.subarray(y * stride, (y + 1) * stride), y * (stride + 1) + 1);
+    const src = y * stride;
+    const dst = y * (stride + 1);
+    let same = y > 0;
+    for (let i = 0; same && i < stride; i++) same = rgba[src + i] === rgba[src - stride + i];
+    if (same) {
+      raw[dst] = 2; // Up: Filt(x) = Orig(x) − Orig(b) = 0 for a repeated row
+      continue; // raw is zero-filled
+    }
+    raw[dst] = 1; // Sub: Filt(x) = Orig(x) − Orig(a), a = the same channel one pixel left (0 at the row start)
+    for (let i = 0; i < 4 && i < stride; i++) raw[dst + 1 + i] = rgba[src + i];
+    for (let i = 4; i < stride; i++) raw[dst + 1 + i] = (rgba[src + i] - rgba[src + i - 4]) & 255;
   }
-  const idat = new Uint8Array(deflateSync(raw, { level: 6 }));
+  const idat = new Uint8Array(deflateSync(raw, { level: 6, strategy: constants.Z_RLE }));
 
   const parts = [SIGNATURE, chunk('IHDR', ihdr), chunk('IDAT', idat), chunk('IEND', new Uint8Array(0))];
   const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));

@@ -97,10 +97,15 @@ export const RAMP_SAMPLES = 1024;
 
 /**
  * A ramp sampled at `RAMP_SAMPLES` evenly spaced t (t_i = i / (n − 1)), packed as RGB bytes,
- * optionally reversed (t → 1 − t).
+ * optionally reversed (t → 1 − t). Cached per (ramp, reverse, n): callers must not modify it.
  */
+const sampled = new Map<string, Uint8Array>();
+
 export function sampleRamp(name: string, reverse = false, n = RAMP_SAMPLES): Uint8Array {
   const f = rampInterpolator(name);
+  const key = `${name}|${reverse}|${n}`;
+  const cached = sampled.get(key);
+  if (cached) return cached;
   const out = new Uint8Array(n * 3);
   for (let i = 0; i < n; i++) {
     const t = i / (n - 1);
@@ -109,5 +114,6 @@ export function sampleRamp(name: string, reverse = false, n = RAMP_SAMPLES): Uin
     out[i * 3 + 1] = c.g;
     out[i * 3 + 2] = c.b;
   }
+  sampled.set(key, out);
   return out;
 }

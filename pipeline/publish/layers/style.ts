@@ -46,6 +46,8 @@ export interface CategoricalStyle extends StyleCommon {
   classes: CategoryClass[];
   /** Name of the palette, recorded in the legend; default `categorical`. */
   paletteName?: string;
+  /** Codes that mean "no value" and are drawn transparent, like NaN (e.g. 255). */
+  noDataCodes?: number[];
 }
 
 export type LayerStyle = ContinuousStyle | CategoricalStyle;
@@ -151,8 +153,12 @@ function compileCategorical(style: CategoricalStyle): CompiledStyle {
     const n = parseInt(m[1], 16);
     byValue.set(c.value, pack((n >> 16) & 255, (n >> 8) & 255, n & 255));
   }
+  const transparent = new Set(style.noDataCodes ?? []);
+  for (const code of transparent) {
+    if (byValue.has(code)) throw LayerCategoriesInvalid({ problem: `code ${code} is both a class and a no-data code` }, { key: 'style.noDataCodes' });
+  }
   const colourOf = (v: number): number => {
-    if (Number.isNaN(v)) return 0;
+    if (Number.isNaN(v) || transparent.has(v)) return 0;
     const c = byValue.get(v);
     if (c === undefined) {
       throw LayerCategoriesInvalid({ problem: `a cell holds ${v}, which is not the code of any class (${[...byValue.keys()].join(', ')})` }, { variable: 'values' });

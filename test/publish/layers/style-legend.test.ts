@@ -1,0 +1,151 @@
+import { describe, expect, it } from 'vitest';
+import { interpolateCividis, interpolateInferno, interpolateViridis } from 'd3-scale-chromatic';
+import { compileStyle } from '../../../pipeline/publish/layers/style.ts';
+import { RAMPS, RAMP_FOR_FIGURE } from '../../../pipeline/publish/layers/ramps.ts';
+import { figureStyle } from '../../../pipeline/publish/layers/figure-style.ts';
+import { nicheClassStyle, NICHE_COLOURS } from '../../../pipeline/publish/layers/niche-style.ts';
+import { NICHE_CLASSES, NICHE_LABELS, NICHE_NO_CLASS, nicheClassCode } from '../../../pipeline/climate/niche.ts';
+import { renderLayerPng } from '../../../pipeline/publish/layers/render-layer-png.ts';
+import { cssToRgb, decodePng, hexToRgb, regularGrid } from './helpers.ts';
+import { DEFICIENCIES, deltaE, lab, simulate, type Rgb3 } from './colour-vision.ts';
+
+// Outside references: d3-scale-chromatic 3.1.1 interpolators (the ramps themselves); sRGB
+// (IEC 61966-2-1), CIELAB (CIE 15:2004) and Machado et al. (2009) deficiency simulation in
+// colour-vision.ts; sharp 0.34.5 decodes PNGs.
+
+function near(a: Rgb3, b: Rgb3, tol: number) {
+  for (let k = 0; k < 3; k++) expect(Math.abs(a[k] - b[k])).toBeLessThanOrEqual(tol);
+}
+
+describe('continuous legend', () => {
+  it('has 11 stops with strictly increasing values from min to max, each the d3 viridis colour at that value (within 1 of 255)', () => {
+    const { legend } = compileStyle({ kind: 'continuous', ramp: 'viridis', domain: [0, 250], units: 'h', title: 'Hours' });
+    expect(legend.kind).toBe('continuous');
+    expect(legend.stops).toHaveLength(11);
+    expect(legend.stops[0].value).toBe(0);
+    expect(legend.stops[10].value).toBe(250);
+    for (let i = 1; i < 11; i++) expect(legend.stops[i].value).toBeGreaterThan(legend.stops[i - 1].value);
+    legend.stops.forEach((s) => near(hexToRgb(s.color), cssToRgb(interpolateViridis(s.value / 250)), 1));
+    expect(legend.domain).toEqual([0, 250]);
+    expect(legend.units).toBe('h');
+    expect(legend.ramp).toBe('viridis');
+    expect(legend.labels[5]).toBe('125');
+    expect(legend.noData.color).toBe('transparent');
+    expect(legend.noData.meaning).toMatch(/no data/);
+    expect(JSON.parse(JSON.stringify(legend))).toEqual(legend); // plain JSON for the manifest
+  });
+
+  it('a reversed ramp lists the d3 colour at 1 − t and says reversed', () => {
+    const { legend } = compileStyle({ kind: 'continuous', ramp: 'inferno', reverse: true, domain: [10, 20], units: 'h' });
+    expect(legend.reversed).toBe(true);
+    near(hexToRgb(legend.stops[0].color), cssToRgb(interpolateInferno(1)), 1);
+    near(hexToRgb(legend.stops[10].color), cssToRgb(interpolateInferno(0)), 1);
+  });
+
+  it('the colours in the PNG are exactly the legend stop colours at the stop values', async () => {
+    const style = { kind: 'continuous' as const, ramp: 'cividis' as const, domain: [0, 10] as [number, number], units: 'degC' };
+    const g = regularGrid(0.5, 1, 2, 0.5, 1, 11, (_y, x) => x);
+    const layer = renderLayerPng(g, style);
+    const img = await decodePng(layer.png);
+    for (let x = 0; x < 11; x++) {
+      expect(img.at(x * 8 + 4, 2).slice(0, 3)).toEqual(hexToRgb(layer.legend.stops[x].color));
+      near(hexToRgb(layer.legend.stops[x].color), cssToRgb(interpolateCividis(x / 10)), 1);
+    }
+  });
+});
+
+describe('stepped legend', () => {
+  it('5 classes over [0, 100] give edges 0, 20, …, 100 and five flat colours sampled across the ramp', () => {
+    const c = compileStyle({ kind: 'continuous', ramp: 'viridis', domain: [0, 100], classes: 5, units: 'h' });
+    expect(c.legend.kind).toBe('stepped');
+    expect(c.legend.breaks).toEqual([0, 20, 40, 60, 80, 100]);
+    expect(c.legend.labels).toEqual(['0 – 20', '20 – 40', '40 – 60', '60 – 80', '80 – 100']);
+    c.legend.stops.forEach((s, k) => near(hexToRgb(s.color), cssToRgb(interpolateViridis(k / 4)), 0));
+    const hex = (v: number) => {
+      const p = c.colourOf(v);
+      return `#${[p & 255, (p >>> 8) & 255, (p >>> 16) & 255].map((b) => b.toString(16).padStart(2, '0')).join('')}`;
+    };
+    // a class's lower edge belongs to it; max belongs to the last class; beyond the domain clamps
+    expect(hex(19.999)).toBe(c.legend.stops[0].color);
+    expect(hex(20)).toBe(c.legend.stops[1].color);
+    expect(hex(100)).toBe(c.legend.stops[4].color);
+    expect(hex(1e6)).toBe(c.legend.stops[4].color);
+    expect(hex(-5)).toBe(c.legend.stops[0].color);
+  });
+
+  it('adjacent classes of every ramp we offer stay apart (ΔE*ab ≥ 5) under simulated protanopia, deuteranopia and tritanopia', () => {
+    for (const ramp of Object.keys(RAMPS)) {
+      const c = compileStyle({ kind: 'continuous', ramp: ramp as keyof typeof RAMPS, domain: [0, 1], classes: 7, units: '1' });
+      const cols = c.legend.stops.map((s) => hexToRgb(s.color));
+      for (const [name, m] of Object.entries(DEFICIENCIES)) {
+        for (let k = 1; k < cols.length; k++) {
+          const d = deltaE(simulate(m, cols[k - 1]), simulate(m, cols[k]));
+          expect(d, `${ramp} ${name} classes ${k - 1}/${k}`).toBeGreaterThanOrEqual(5);
+        }
+      }
+    }
+  });
+});
+
+describe('ramps', () => {
+  it('every ramp we offer is ordered in lightness: CIELAB L* is monotonic along t, also under each simulated deficiency', () => {
+    for (const [name, f] of Object.entries(RAMPS)) {
+      const cols = Array.from({ length: 33 }, (_, i) => cssToRgb(f(i / 32)));
+      for (const [vision, m] of [['normal', null], ...Object.entries(DEFICIENCIES)] as [string, number[][] | null][]) {
+        const L = cols.map((c) => lab(m ? simulate(m, c) : c)[0]);
+        const sign = Math.sign(L[32] - L[0]);
+        for (let i = 1; i < L.length; i++) expect((L[i] - L[i - 1]) * sign, `${name} ${vision} at ${i}`).toBeGreaterThan(-0.5);
+      }
+    }
+  });
+
+  it('every figure kind gets a ramp we offer, and heat figures start light (low L* means many hours)', () => {
+    for (const [kind, { ramp, reverse }] of Object.entries(RAMP_FOR_FIGURE)) {
+      expect(Object.keys(RAMPS)).toContain(ramp);
+      if (['hoursAboveLimit', 'hoursLost', 'capacityLoss'].includes(kind)) {
+        const c = compileStyle(figureStyle(kind as keyof typeof RAMP_FOR_FIGURE, [0, 1], 'h'));
+        const lo = lab(hexToRgb(c.legend.stops[0].color))[0];
+        const hi = lab(hexToRgb(c.legend.stops[10].color))[0];
+        expect(lo, `${kind} reverse=${reverse}`).toBeGreaterThan(hi);
+      }
+    }
+  });
+});
+
+describe('categorical legend (niche classes)', () => {
+  it('lists the four classes of pipeline/climate/niche.ts in code order, with their labels and colours', () => {
+    const { legend } = compileStyle(nicheClassStyle());
+    expect(legend.kind).toBe('categorical');
+    expect(legend.domain).toBeNull();
+    expect(legend.stops.map((s) => s.value)).toEqual([0, 1, 2, 3]);
+    expect(legend.labels).toEqual(NICHE_CLASSES.map((c) => NICHE_LABELS[c]));
+    expect(legend.stops.map((s) => s.color)).toEqual(NICHE_CLASSES.map((c) => NICHE_COLOURS[c]));
+    expect(legend.stops.map((s) => s.label)).toEqual(legend.labels);
+  });
+
+  it('the niche colours stay apart (ΔE*ab ≥ 12 for every pair) under simulated protanopia, deuteranopia and tritanopia', () => {
+    const cols = Object.values(NICHE_COLOURS).map(hexToRgb);
+    for (const [name, m] of Object.entries(DEFICIENCIES)) {
+      for (let i = 0; i < cols.length; i++) {
+        for (let j = i + 1; j < cols.length; j++) {
+          expect(deltaE(simulate(m, cols[i]), simulate(m, cols[j])), `${name} ${i}/${j}`).toBeGreaterThanOrEqual(12);
+        }
+      }
+    }
+  });
+
+  it('a niche layer from climate codes draws each class in its colour and the no-class code transparent', async () => {
+    const mats = [12, 22, 27, 30, NaN, 5];
+    const g = regularGrid(0.5, 1, 2, 0.5, 1, 3, (y, x) => nicheClassCode(mats[y * 3 + x]));
+    expect(g.values[4]).toBe(NICHE_NO_CLASS);
+    const layer = renderLayerPng(g, nicheClassStyle());
+    const img = await decodePng(layer.png);
+    const px = (y: number, x: number) => img.at(x * 8 + 4, y === 0 ? img.height - 2 : 1);
+    expect(px(0, 0).slice(0, 3)).toEqual(hexToRgb(NICHE_COLOURS.core));
+    expect(px(0, 1).slice(0, 3)).toEqual(hexToRgb(NICHE_COLOURS.second));
+    expect(px(0, 2).slice(0, 3)).toEqual(hexToRgb(NICHE_COLOURS.margin));
+    expect(px(1, 0).slice(0, 3)).toEqual(hexToRgb(NICHE_COLOURS.outside));
+    expect(px(1, 1)).toEqual([0, 0, 0, 0]);
+    expect(px(1, 2).slice(0, 3)).toEqual(hexToRgb(NICHE_COLOURS.margin));
+  });
+});
