@@ -1,0 +1,263 @@
+/**
+ * NetCDF-3 classic and 64-bit-offset files, read by byte range. The header is parsed with
+ * netcdfjs from the first bytes of the file only; data are read with `fs` at offsets computed
+ * from it (NetCDF format specification: a non-record variable starts at `begin`, record `t` of a
+ * record variable at `begin + t * recordSize`), so memory is bounded by what is requested.
+ */
+import { open, type FileHandle } from 'node:fs/promises';
+import { NetCDFReader } from 'netcdfjs';
+import { NetcdfFileTruncated, NetcdfHeaderInvalid, NetcdfReadFailed } from './errors.ts';
+import type { NetcdfFormat } from './format.ts';
+import { product, rawTypeBytes, type AttrValue, type RawArray, type RawType, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
+
+interface NcjsAttribute { name: string; type: string; value: number | string | number[] }
+interface NcjsVariable { name: string; dimensions: number[]; attributes: NcjsAttribute[]; type: string; size: number; offset: number; record: boolean }
+
+/** Where a classic variable's bytes lie. */
+interface ClassicLayout {
+  /** Byte offset of the first value [bytes]. */
+  begin: number;
+  record: boolean;
+  /** Size of one value [bytes]. */
+  valueBytes: number;
+}
+
+/** Largest read that gathers several runs into one window [bytes]. */
+const MAX_WINDOW = 16 << 20;
+/** Largest unused gap a window may span between two runs [bytes]. */
+const MAX_GAP = 64 << 10;
+
+/** Opens a classic or 64-bit-offset file whose size [bytes] and format are already known. */
+export async function openClassicFile(path: string, format: NetcdfFormat, bytes: number): Promise<SourceFile> {
+  const fh = await open(path, 'r');
+  try {
+    const reader = await parseHeader(fh, path, bytes);
+    return buildClassicFile(fh, reader, path, format, bytes);
+  } catch (e) {
+    await fh.close();
+    throw e;
+  }
+}
+
+/** Parses the header from the first bytes: 64 KiB first, four times more until it fits. */
+async function parseHeader(fh: FileHandle, path: string, bytes: number): Promise<NetCDFReader> {
+  let n = Math.min(bytes, 64 << 10);
+  for (;;) {
+    const head = new Uint8Array(n);
+    await fh.read(head, 0, n, 0);
+    try {
+      return new NetCDFReader(head);
+    } catch (e) {
+      const msg = (e as Error).message ?? String(e);
+      const ranOut = e instanceof RangeError || /outside the bounds|out of range|offset/i.test(msg);
+      if (ranOut && n < bytes) {
+        n = Math.min(bytes, n * 4);
+        continue;
+      }
+      if (ranOut) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the header ends before its last entry' }, { file: path });
+      throw NetcdfHeaderInvalid({ path, detail: msg }, { file: path });
+    }
+  }
+}
+
+function toRawType(t: string): RawType {
+  switch (t) {
+    case 'byte': return 'byte';
+    case 'char': return 'char';
+    case 'short': return 'short';
+    case 'int': return 'int';
+    case 'float': return 'float';
+    case 'double': return 'double';
+    default: return 'other';
+  }
+}
+
+function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, format: NetcdfFormat, bytes: number): SourceFile {
+  const header = reader.header;
+  const numRecs = header.recordDimension.length;
+  const recId = header.recordDimension.id;
+  const dims: SourceDimension[] = header.dimensions.map((d, i) => ({ name: d.name, size: i === recId ? numRecs : d.size, unlimited: i === recId }));
+  const ncVars = header.variables as unknown as NcjsVariable[];
+  const layouts = new Map<SourceVariable, ClassicLayout>();
+  const variables: SourceVariable[] = [];
+  for (const nv of ncVars) {
+    const attrs: Record<string, AttrValue> = {};
+    const attrTypes: Record<string, RawType> = {};
+    for (const a of nv.attributes) {
+      attrs[a.name] = a.value;
+      attrTypes[a.name] = toRawType(a.type);
+    }
+    const v: SourceVariable = {
+      name: nv.name,
+      dims: nv.dimensions.map((id) => dims[id].name),
+      shape: nv.dimensions.map((id) => dims[id].size),
+      type: toRawType(nv.type),
+      attrs,
+      attrTypes,
+    };
+    variables.push(v);
+    layouts.set(v, { begin: nv.offset, record: nv.record, valueBytes: rawTypeBytes(v.type) });
+  }
+  // Record size: the padded per-record sizes of all record variables, except that a file with
+  // a single record variable has no padding (NetCDF format specification, "Notes on vsize").
+  const recVars = variables.filter((v) => layouts.get(v)!.record);
+  const perRecord = (v: SourceVariable) => product(v.shape.slice(1)) * layouts.get(v)!.valueBytes;
+  const recordSize = recVars.length === 1 ? perRecord(recVars[0]) : recVars.reduce((s, v) => s + Math.ceil(perRecord(v) / 4) * 4, 0);
+
+  let expected = 0;
+  for (const v of variables) {
+    const L = layouts.get(v)!;
+    const end = L.record
+      ? (numRecs > 0 ? L.begin + (numRecs - 1) * recordSize + perRecord(v) : 0)
+      : L.begin + product(v.shape) * L.valueBytes;
+    expected = Math.max(expected, end);
+  }
+  if (bytes < expected) {
+    throw NetcdfFileTruncated({ path, bytes, expected, detail: 'the data section ends early' }, { file: path });
+  }
+
+  const globalAttrs: Record<string, AttrValue> = {};
+  for (const a of header.globalAttributes) globalAttrs[a.name] = a.value;
+
+  async function readBytes(v: SourceVariable, start: number[], count: number[]): Promise<Uint8Array> {
+    const L = layouts.get(v);
+    if (!L) throw new Error(`variable ${v.name} is not in ${path}`);
+    const B = L.valueBytes;
+    const total = product(count);
+    if (L.record && v.shape.length === 1) {
+      // A 1-D record variable: one value per record; a trailing dimension of length 1 makes
+      // the general loop below step record by record.
+      v = { ...v, shape: [...v.shape, 1] };
+      start = [...start, 0];
+      count = [...count, 1];
+    }
+    const n = v.shape.length;
+    const out = new Uint8Array(new ArrayBuffer(total * B));
+    if (total === 0) return out;
+    if (n === 0) {
+      await readAt(fh, path, out, 0, B, L.begin);
+      return out;
+    }
+    // Strides [bytes] of each dimension in the file.
+    const stride = new Array<number>(n);
+    let s = B;
+    for (let k = n - 1; k >= 0; k--) {
+      stride[k] = s;
+      s *= v.shape[k];
+    }
+    if (L.record) stride[0] = recordSize;
+    // The innermost dims that are fully selected make one contiguous run.
+    let m = n - 1;
+    let runLen = count[m];
+    const lowest = L.record ? 1 : 0;
+    while (m > lowest && count[m] === v.shape[m]) {
+      m--;
+      runLen *= count[m];
+    }
+    const runBytes = runLen * B;
+    // Enumerate run offsets over the outer dims 0..m-1 (row-major).
+    const runs: number[] = [];
+    const idx = new Array<number>(m).fill(0);
+    const baseInner = L.begin + start[m] * stride[m] + (m + 1 < n ? sumStart(start, stride, m + 1, n) : 0);
+    for (;;) {
+      let off = baseInner;
+      for (let k = 0; k < m; k++) off += (start[k] + idx[k]) * stride[k];
+      runs.push(off);
+      let k = m - 1;
+      while (k >= 0) {
+        idx[k]++;
+        if (idx[k] < count[k]) break;
+        idx[k] = 0;
+        k--;
+      }
+      if (k < 0) break;
+    }
+    // Gather runs into windows: one read per window.
+    let r = 0;
+    let dest = 0;
+    while (r < runs.length) {
+      let last = r;
+      while (
+        last + 1 < runs.length &&
+        runs[last + 1] - (runs[last] + runBytes) <= MAX_GAP &&
+        runs[last + 1] + runBytes - runs[r] <= MAX_WINDOW
+      ) last++;
+      const winStart = runs[r];
+      const winLen = runs[last] + runBytes - winStart;
+      if (last === r || winLen === (last - r + 1) * runBytes) {
+        await readAt(fh, path, out, dest, winLen, winStart);
+        dest += winLen;
+      } else {
+        const win = new Uint8Array(winLen);
+        await readAt(fh, path, win, 0, winLen, winStart);
+        for (let q = r; q <= last; q++) {
+          const o = runs[q] - winStart;
+          out.set(win.subarray(o, o + runBytes), dest);
+          dest += runBytes;
+        }
+      }
+      r = last + 1;
+    }
+    return out;
+  }
+
+  async function read(v: SourceVariable, start: number[], count: number[]): Promise<RawArray> {
+    const raw = await readBytes(v, start, count);
+    return bigEndianToNative(raw, v.type);
+  }
+
+  return {
+    path,
+    format,
+    bytes,
+    dims,
+    variables,
+    globalAttrs,
+    read,
+    async readNumbers(v) {
+      const raw = await read(v, v.shape.map(() => 0), v.shape);
+      return Float64Array.from(raw as ArrayLike<number>);
+    },
+    async readStrings(v) {
+      const raw = await readBytes(v, v.shape.map(() => 0), v.shape);
+      const len = v.shape.length > 0 ? v.shape[v.shape.length - 1] : 1;
+      const out: string[] = [];
+      const dec = new TextDecoder('latin1');
+      for (let i = 0; i < raw.length; i += len) out.push(dec.decode(raw.subarray(i, i + len)).replace(/\0+$/, '').trim());
+      return out;
+    },
+    close: () => fh.close(),
+  };
+}
+
+function sumStart(start: number[], stride: number[], from: number, to: number): number {
+  let s = 0;
+  for (let k = from; k < to; k++) s += start[k] * stride[k];
+  return s;
+}
+
+async function readAt(fh: FileHandle, path: string, buf: Uint8Array, offset: number, length: number, position: number): Promise<void> {
+  let done = 0;
+  while (done < length) {
+    const { bytesRead } = await fh.read(buf, offset + done, length - done, position + done);
+    if (bytesRead === 0) throw NetcdfReadFailed({ path, detail: `unexpected end of file at byte ${position + done}` }, { file: path });
+    done += bytesRead;
+  }
+}
+
+/**
+ * Turns big-endian bytes (NetCDF-3 stores big-endian) into a native typed array. Byte swapping
+ * uses Buffer.swap16/32/64, native code, so there is no per-value JavaScript call.
+ */
+export function bigEndianToNative(raw: Uint8Array, type: RawType): RawArray {
+  const buf = Buffer.from(raw.buffer, raw.byteOffset, raw.byteLength);
+  switch (type) {
+    case 'byte': return new Int8Array(raw.buffer, raw.byteOffset, raw.byteLength);
+    case 'char': case 'ubyte': return raw;
+    case 'short': buf.swap16(); return new Int16Array(raw.buffer, raw.byteOffset, raw.byteLength / 2);
+    case 'int': buf.swap32(); return new Int32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
+    case 'float': buf.swap32(); return new Float32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
+    case 'double': buf.swap64(); return new Float64Array(raw.buffer, raw.byteOffset, raw.byteLength / 8);
+    default: throw new Error(`cannot read values of type ${type}`);
+  }
+}

@@ -1,0 +1,410 @@
+/**
+ * `openDataset`: a set of ERA5 / ERA5-Land NetCDF files (one per month, per variable or per
+ * year, any mix of the legacy and the 2024 CDS layouts) as one dataset with one canonical grid
+ * and one continuous hourly time axis, read in blocks of hours per tile (`readBlock`) as
+ * canonical fields (pipeline/model/fields.ts). Memory is bounded by the block, not the files.
+ */
+import { isoSeconds } from './cf-time.ts';
+import { decodeRun } from './decode.ts';
+import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
+import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
+import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfGridMismatch, NetcdfNoFiles } from './errors.ts';
+import { sourceRuns } from './grid-normalize.ts';
+import { buildHourAxis, type HourAxis } from './hour-index.ts';
+import { maskSpecOf } from './cf-mask.ts';
+import { scaleOffsetOf } from './cf-scale.ts';
+import { makeDecodePlan } from './decode.ts';
+import { attrText } from './attrs.ts';
+import { checkPlausible, PLAUSIBLE } from './units.ts';
+import { CANONICAL_FIELDS, type CanonicalName, type HourlyBlock } from '../model/fields.ts';
+import { tileSize, type HorizontalGrid, type Tile } from '../model/grid.ts';
+import type { InventoryFile, InventoryVariable } from '../publish/inventory-types.ts';
+
+/** A file of the dataset as the inventory lists it (pipeline/publish/inventory-types.ts). */
+export type DatasetFileInfo = InventoryFile;
+
+export interface OpenDatasetOptions {
+  /** `era5-land` de-accumulates the since-00-UTC radiation accumulations (METHODS.md §4.4). */
+  product: 'era5' | 'era5-land';
+  /** Land-sea mask: variable name (in any input file) and land fraction threshold [1]. */
+  landSeaMask?: { variable: string; threshold: number };
+  /** Canonical fields that must be present; default {@link REQUIRED_FIELDS}. */
+  require?: CanonicalName[];
+}
+
+/** What the WBGT physics needs at least. */
+export const REQUIRED_FIELDS: CanonicalName[] = ['airTemperature', 'dewPointTemperature', 'surfacePressure', 'windSpeed10m', 'solarGlobal'];
+
+export interface Dataset {
+  /** The canonical grid (pipeline/model/grid.ts). */
+  grid: HorizontalGrid;
+  /** First hour [ms since 1970-01-01 UTC, end of hour] and number of hours. */
+  time: { start: number; count: number };
+  /** Time-varying canonical fields available. */
+  variables: CanonicalName[];
+  /** Land fraction per cell [1], canonical grid order (row-major, south to north). */
+  landFraction?: Float32Array;
+  /** 1 where the land fraction reaches the configured threshold (only with `landSeaMask`). */
+  landMask?: Uint8Array;
+  /** Cells counted as land (all cells without a mask). */
+  landCells: number;
+  files: DatasetFileInfo[];
+  /** Hours [t0, t0 + nt) (hour indices) of `tile` as canonical fields. */
+  readBlock(t0: number, nt: number, tile: Tile): Promise<HourlyBlock>;
+  /** Per canonical variable: min / max / mean / fill count over the whole dataset, streamed. */
+  summary(): Promise<InventoryVariable[]>;
+  close(): Promise<void>;
+}
+
+/** Source short names behind each canonical field. */
+const SOURCES: Record<Exclude<CanonicalName, 'landFraction'>, Era5Short[]> = {
+  airTemperature: ['t2m'],
+  dewPointTemperature: ['d2m'],
+  surfacePressure: ['sp'],
+  windSpeed10m: ['u10', 'v10'],
+  solarGlobal: ['ssrd'],
+  solarDirect: ['fdir'],
+  thermalDown: ['strd'],
+};
+type TimeField = keyof typeof SOURCES;
+
+/** Values per read while streaming the summary [values]. */
+const SUMMARY_BLOCK_VALUES = 1 << 23;
+
+export async function openDataset(paths: string[], opts: OpenDatasetOptions): Promise<Dataset> {
+  if (paths.length === 0) throw NetcdfNoFiles({});
+  const files: AnalysedFile[] = [];
+  try {
+    for (const p of paths) files.push(await analyseFile(p));
+    return await assemble(files, opts);
+  } catch (e) {
+    for (const f of files) await f.sf.close();
+    throw e;
+  }
+}
+
+function sameAxis(a: Float64Array, b: Float64Array): string | null {
+  if (a.length !== b.length) return `${a.length} against ${b.length} points`;
+  for (let i = 0; i < a.length; i++) if (Math.abs(a[i] - b[i]) > 1e-4) return `point ${i} is ${a[i]} against ${b[i]}`;
+  return null;
+}
+
+async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promise<Dataset> {
+  const ref = files[0];
+  for (const f of files.slice(1)) {
+    const dl = sameAxis(ref.lat.values, f.lat.values);
+    const dn = sameAxis(ref.lon.values, f.lon.values);
+    if (dl || dn) {
+      throw NetcdfGridMismatch({ fileA: ref.info.name, fileB: f.info.name, detail: dl ? `latitude: ${dl}` : `longitude: ${dn}` }, { file: f.sf.path });
+    }
+  }
+  const grid: HorizontalGrid = { lat: ref.lat.values, lon: ref.lon.values };
+  const ny = grid.lat.length;
+  const nx = grid.lon.length;
+  const axis = buildHourAxis(files);
+
+  // Which canonical fields are complete; required ones must be.
+  const present = (s: Era5Short) => axis.tables.has(s);
+  const variables = (Object.keys(SOURCES) as TimeField[]).filter((c) => SOURCES[c].every(present));
+  for (const c of opts.require ?? REQUIRED_FIELDS) {
+    if (c === 'landFraction') continue;
+    for (const s of SOURCES[c as TimeField] ?? []) {
+      if (!present(s)) {
+        throw MissingNetcdfVariable(
+          { name: s, detail: `needed for ${c}; none of the ${files.length} file(s) has it (${files.map((f) => f.info.name).join(', ')})` },
+          { file: files[0].sf.path, variable: s },
+        );
+      }
+    }
+  }
+
+  const era5Land = opts.product === 'era5-land';
+  const ds = new DatasetReader(files, axis, grid, era5Land);
+  // Units against values: the first hour of every variable of every file (units.ts).
+  for (const f of files) {
+    for (const fv of f.vars.values()) {
+      const first = await ds.decodeWholeField(f, fv, 0);
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (const x of first) if (x === x) { if (x < lo) lo = x; if (x > hi) hi = x; }
+      const [plo, phi] = PLAUSIBLE[fv.role.plausible];
+      const scale = era5Land && fv.conversion.accumulated ? 24 : 1; // up to 24 h accumulated
+      if (scale !== 1) {
+        if (lo < plo * scale || hi > phi * scale) checkPlausible(fv.role.plausible, fv.units, lo, hi, { file: f.sf.path, variable: fv.v.name });
+      } else checkPlausible(fv.role.plausible, fv.units, lo, hi, { file: f.sf.path, variable: fv.v.name });
+    }
+  }
+
+  // Land fraction and mask.
+  let landFraction: Float32Array | undefined;
+  const maskName = opts.landSeaMask?.variable ?? 'lsm';
+  for (const f of files) {
+    let fv = f.vars.get('lsm');
+    if (fv && opts.landSeaMask && baseName(fv.v.name) !== maskName && f.byName.has(maskName)) fv = undefined;
+    if (!fv && f.byName.has(maskName)) {
+      const v = f.byName.get(maskName)!;
+      const so = scaleOffsetOf(v);
+      const role = ERA5_ROLES.find((r) => r.short === 'lsm')!;
+      const n = v.dims.length;
+      fv = { v, role, units: attrText(v, 'units') ?? '', conversion: { k: 1, c: 0, accumulated: false }, plan: makeDecodePlan(maskSpecOf(v, so), so), tDim: n > 2 ? 0 : -1, eDim: -1, latDim: n - 2, lonDim: n - 1 };
+    }
+    if (fv) {
+      landFraction = await ds.decodeWholeField(f, fv, 0);
+      break;
+    }
+  }
+  let landMask: Uint8Array | undefined;
+  let landCells = ny * nx;
+  if (opts.landSeaMask) {
+    if (!landFraction) {
+      throw MissingNetcdfVariable(
+        { name: maskName, detail: `the configuration asks for a land-sea mask, but no input file has a variable ${maskName}` },
+        { file: files[0].sf.path, variable: maskName },
+      );
+    }
+    landMask = new Uint8Array(ny * nx);
+    landCells = 0;
+    for (let i = 0; i < landMask.length; i++) if (landFraction[i] >= opts.landSeaMask.threshold) { landMask[i] = 1; landCells++; }
+  }
+
+  const dataset: Dataset = {
+    grid,
+    time: { start: axis.start, count: axis.count },
+    variables,
+    ...(landFraction ? { landFraction } : {}),
+    ...(landMask ? { landMask } : {}),
+    landCells,
+    files: files.map((f) => f.info),
+    readBlock: (t0, nt, tile) => ds.readBlock(t0, nt, tile, variables, landFraction),
+    async summary() {
+      const full: Tile = { y0: 0, y1: ny, x0: 0, x1: nx };
+      const step = Math.max(1, Math.floor(SUMMARY_BLOCK_VALUES / (ny * nx * Math.max(1, variables.length))));
+      const acc = new Map<TimeField, { min: number; max: number; sum: number; n: number; fill: number }>();
+      for (const c of variables) acc.set(c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 });
+      for (let t0 = 0; t0 < axis.count; t0 += step) {
+        const b = await ds.readBlock(t0, Math.min(step, axis.count - t0), full, variables, undefined);
+        for (const c of variables) {
+          const a = acc.get(c)!;
+          const x = b.fields[c]!;
+          for (let i = 0; i < x.length; i++) {
+            const v = x[i];
+            if (v === v) {
+              if (v < a.min) a.min = v;
+              if (v > a.max) a.max = v;
+              a.sum += v;
+              a.n++;
+            } else a.fill++;
+          }
+        }
+      }
+      const out: InventoryVariable[] = variables.map((c) => {
+        const a = acc.get(c)!;
+        const shorts = SOURCES[c];
+        const fv = files.find((f) => f.vars.has(shorts[0]))!.vars.get(shorts[0])!;
+        return {
+          name: c,
+          source: shorts.join(','),
+          units: CANONICAL_FIELDS[c].units,
+          sourceUnits: fv.units,
+          long_name: CANONICAL_FIELDS[c].long_name,
+          min: a.n > 0 ? a.min : NaN,
+          max: a.n > 0 ? a.max : NaN,
+          mean: a.n > 0 ? a.sum / a.n : NaN,
+          fillCount: a.fill,
+        };
+      });
+      if (landFraction) {
+        let min = Infinity, max = -Infinity, sum = 0, n = 0, fill = 0;
+        for (const v of landFraction) if (v === v) { min = Math.min(min, v); max = Math.max(max, v); sum += v; n++; } else fill++;
+        out.push({ name: 'landFraction', source: maskName, units: '1', sourceUnits: '1', long_name: CANONICAL_FIELDS.landFraction.long_name, min, max, mean: n ? sum / n : NaN, fillCount: fill });
+      }
+      return out;
+    },
+    async close() {
+      for (const f of files) await f.sf.close();
+    },
+  };
+  return dataset;
+}
+
+/** Reads and decodes blocks; holds no data between calls. */
+class DatasetReader {
+  constructor(
+    private readonly files: AnalysedFile[],
+    private readonly axis: HourAxis,
+    private readonly grid: HorizontalGrid,
+    private readonly era5Land: boolean,
+  ) {}
+
+  /** One whole field (time index `t` of the file, or the static field) in canonical order. */
+  async decodeWholeField(f: AnalysedFile, fv: FileVariable, t: number): Promise<Float32Array> {
+    const ny = this.grid.lat.length;
+    const nx = this.grid.lon.length;
+    const out = new Float32Array(ny * nx);
+    await this.readRun(f, fv, fv.tDim >= 0 ? t : -1, 1, { y0: 0, y1: ny, x0: 0, x1: nx }, out, 0);
+    return out;
+  }
+
+  /**
+   * Decodes `nt` consecutive time indices from `tStart` of one file variable (or its static
+   * field when tStart < 0) for `tile` into `out`, hour by hour from hour slot `slot`.
+   */
+  async readRun(f: AnalysedFile, fv: FileVariable, tStart: number, nt: number, tile: Tile, out: Float32Array, slot: number): Promise<void> {
+    const { v } = fv;
+    const nxT = tile.x1 - tile.x0;
+    const cells = tileSize(tile);
+    let rmin = Infinity;
+    let rmax = -Infinity;
+    for (let y = tile.y0; y < tile.y1; y++) {
+      const s = f.lat.source[y];
+      if (s < rmin) rmin = s;
+      if (s > rmax) rmax = s;
+    }
+    const runs = sourceRuns(f.lon.source, tile.x0, tile.x1);
+    let cmin = Infinity;
+    let cmax = -Infinity;
+    for (const r of runs) {
+      cmin = Math.min(cmin, r.from);
+      cmax = Math.max(cmax, r.from + r.length - 1);
+    }
+    const start = v.shape.map(() => 0);
+    const count = v.shape.map(() => 1);
+    if (fv.tDim >= 0) {
+      start[fv.tDim] = Math.max(0, tStart);
+      count[fv.tDim] = tStart >= 0 ? nt : 1;
+    }
+    const ne = fv.eDim >= 0 ? v.shape[fv.eDim] : 1;
+    if (fv.eDim >= 0) count[fv.eDim] = ne;
+    start[fv.latDim] = rmin;
+    count[fv.latDim] = rmax - rmin + 1;
+    start[fv.lonDim] = cmin;
+    count[fv.lonDim] = cmax - cmin + 1;
+    const raw = await f.sf.read(v, start, count);
+    const strides = new Array<number>(count.length);
+    let s = 1;
+    for (let k = count.length - 1; k >= 0; k--) {
+      strides[k] = s;
+      s *= count[k];
+    }
+    const rowStride = strides[fv.latDim];
+    const tStride = fv.tDim >= 0 ? strides[fv.tDim] : 0;
+    const eStride = fv.eDim >= 0 ? strides[fv.eDim] : 0;
+    const order = fv.eDim >= 0 ? (f.expverOrder ?? Array.from({ length: ne }, (_, i) => i)) : [0];
+    const scratch = order.length > 1 ? new Float32Array(nxT) : null;
+    const p = fv.plan;
+    for (let t = 0; t < nt; t++) {
+      for (let y = 0; y < tile.y1 - tile.y0; y++) {
+        const sr = f.lat.source[tile.y0 + y] - rmin;
+        const dstRow = (slot + t) * cells + y * nxT;
+        for (const r of runs) {
+          const src = t * tStride + sr * rowStride + (r.from - cmin);
+          decodeRun(raw, src + order[0] * eStride, r.length, out, dstRow + r.to, p);
+          if (scratch) {
+            // expver merge: a value missing in the better expver is taken from the next one.
+            for (let q = 1; q < order.length; q++) {
+              decodeRun(raw, src + order[q] * eStride, r.length, scratch, 0, p);
+              for (let i = 0; i < r.length; i++) {
+                const o = dstRow + r.to + i;
+                if (out[o] !== out[o]) out[o] = scratch[i];
+              }
+            }
+          }
+        }
+      }
+    }
+  }
+
+  /** Decodes hours [h0, h0 + n) of one source variable into `out` (hour-major, tile cells). */
+  async readSource(short: Era5Short, h0: number, n: number, tile: Tile, out: Float32Array, slot0: number): Promise<void> {
+    const tab = this.axis.tables.get(short)!;
+    let h = h0;
+    while (h < h0 + n) {
+      const fi = tab.file[h];
+      const i0 = tab.index[h];
+      let e = h + 1;
+      while (e < h0 + n && tab.file[e] === fi && tab.index[e] === tab.index[e - 1] + 1) e++;
+      const f = this.files[fi];
+      await this.readRun(f, f.vars.get(short)!, i0, e - h, tile, out, slot0 + (h - h0));
+      h = e;
+    }
+  }
+
+  async readBlock(t0: number, nt: number, tile: Tile, variables: CanonicalName[], landFraction: Float32Array | undefined): Promise<HourlyBlock> {
+    const ny = this.grid.lat.length;
+    const nx = this.grid.lon.length;
+    if (!(Number.isInteger(t0) && Number.isInteger(nt) && t0 >= 0 && nt >= 1 && t0 + nt <= this.axis.count)) {
+      throw NetcdfBlockOutOfRange({ detail: `hours [${t0}, ${t0 + nt}) asked for; the dataset has hours [0, ${this.axis.count})` });
+    }
+    if (!(tile.y0 >= 0 && tile.y1 <= ny && tile.y0 < tile.y1 && tile.x0 >= 0 && tile.x1 <= nx && tile.x0 < tile.x1)) {
+      throw NetcdfBlockOutOfRange({ detail: `tile rows [${tile.y0}, ${tile.y1}) columns [${tile.x0}, ${tile.x1}) asked for; the grid has ${ny} rows and ${nx} columns` });
+    }
+    const cells = tileSize(tile);
+    const fields: HourlyBlock['fields'] = {};
+    for (const c of variables) {
+      if (c === 'landFraction') continue;
+      const shorts = SOURCES[c as TimeField];
+      if (c === 'windSpeed10m') {
+        const u = new Float32Array(nt * cells);
+        const w = new Float32Array(nt * cells);
+        await this.readSource('u10', t0, nt, tile, u, 0);
+        await this.readSource('v10', t0, nt, tile, w, 0);
+        for (let i = 0; i < u.length; i++) u[i] = Math.sqrt(u[i] * u[i] + w[i] * w[i]);
+        fields.windSpeed10m = u;
+        continue;
+      }
+      const short = shorts[0];
+      const fv = this.files[this.axis.tables.get(short)!.file[t0]].vars.get(short)!;
+      if (this.era5Land && fv.conversion.accumulated) fields[c as TimeField] = await this.readDeaccumulated(short, t0, nt, tile);
+      else {
+        const x = new Float32Array(nt * cells);
+        await this.readSource(short, t0, nt, tile, x, 0);
+        fields[c as TimeField] = x;
+      }
+    }
+    const lat = this.grid.lat.slice(tile.y0, tile.y1);
+    const lon = this.grid.lon.slice(tile.x0, tile.x1);
+    const time = new Float64Array(nt);
+    for (let i = 0; i < nt; i++) time[i] = this.axis.start + (t0 + i) * HOUR_MS;
+    const block: HourlyBlock = { tile, lat, lon, time, fields };
+    if (landFraction) {
+      const lf = new Float32Array(cells);
+      const nxT = tile.x1 - tile.x0;
+      for (let y = tile.y0; y < tile.y1; y++) lf.set(landFraction.subarray(y * nx + tile.x0, y * nx + tile.x1), (y - tile.y0) * nxT);
+      block.landFraction = lf;
+    }
+    return block;
+  }
+
+  /**
+   * ERA5-Land accumulations run from 00 UTC to the stamp (METHODS.md §4.4): the hour ending at
+   * t holds A(t) − A(t − 1 h), except the hour ending at 01 UTC, which is A(01) itself. Values
+   * are already mean fluxes [W m-2] here (÷ 3600 is linear). Small negative differences from
+   * packing noise are set to 0 (radiation downwards cannot be negative). The first hour of the
+   * dataset has no predecessor: unless it ends at 01 UTC it is NaN.
+   */
+  async readDeaccumulated(short: Era5Short, t0: number, nt: number, tile: Tile): Promise<Float32Array> {
+    const cells = tileSize(tile);
+    const withPrev = t0 > 0 ? 1 : 0;
+    const acc = new Float32Array((nt + 1) * cells).fill(NaN);
+    await this.readSource(short, t0 - withPrev, nt + withPrev, tile, acc, 1 - withPrev);
+    const out = new Float32Array(nt * cells);
+    for (let t = 0; t < nt; t++) {
+      const hourUtc = new Date(this.axis.start + (t0 + t) * HOUR_MS).getUTCHours();
+      const cur = (t + 1) * cells;
+      const prev = t * cells;
+      if (hourUtc === 1) out.set(acc.subarray(cur, cur + cells), t * cells);
+      else {
+        for (let i = 0; i < cells; i++) {
+          const d = acc[cur + i] - acc[prev + i];
+          out[t * cells + i] = d < 0 ? 0 : d;
+        }
+      }
+    }
+    return out;
+  }
+}
+
+/** ISO text of hour index `h` of a dataset (end of hour, UTC). */
+export function hourIso(ds: Pick<Dataset, 'time'>, h: number): string {
+  return isoSeconds(ds.time.start + h * HOUR_MS);
+}

@@ -1,0 +1,171 @@
+/**
+ * Catalogued errors of the read stage: files that are not (supported) NetCDF, CF attributes we
+ * cannot decode, units we cannot trust, and multi-file datasets that do not fit together. Every
+ * error names the file (and the variable where there is one) and says what to do.
+ */
+import { defineError } from '../model/errors.ts';
+
+export const NetcdfFileNotFound = defineError<{ path: string }>({
+  code: 'NetcdfFileNotFound',
+  title: 'An input file does not exist',
+  message: (p) => `no file at ${p.path}`,
+  hint: () => 'check the path (and the glob patterns of dataset.files in the configuration)',
+});
+
+export const NetcdfNoFiles = defineError<Record<string, never>>({
+  code: 'NetcdfNoFiles',
+  title: 'A dataset was opened without any file',
+  message: () => 'the list of input files is empty',
+  hint: () => 'name at least one NetCDF file (dataset.files in the configuration)',
+});
+
+export const NetcdfFileEmpty = defineError<{ path: string }>({
+  code: 'NetcdfFileEmpty',
+  title: 'An input file is empty',
+  message: (p) => `${p.path} has 0 bytes`,
+  hint: () => 'the download or copy probably failed; fetch the file again',
+});
+
+export const NetcdfFileTruncated = defineError<{ path: string; bytes: number; expected: number | null; detail: string }>({
+  code: 'NetcdfFileTruncated',
+  title: 'An input file is cut short',
+  message: (p) =>
+    `${p.path} has ${p.bytes} bytes` + (p.expected !== null ? ` but its header says it needs at least ${p.expected}` : '') + ` (${p.detail})`,
+  hint: () => 'the download or copy was interrupted; fetch the file again and compare its size or checksum',
+});
+
+export const NetcdfUnknownFormat = defineError<{ path: string; magic: string }>({
+  code: 'NetcdfUnknownFormat',
+  title: 'An input file is not a NetCDF file',
+  message: (p) => `${p.path} starts with bytes ${p.magic}, which is neither NetCDF-3 (CDF\\x01, CDF\\x02) nor NetCDF-4 (\\x89HDF)`,
+  hint: () => 'give a NetCDF file (.nc); `file NAME` or `ncdump -k NAME` tells what it is',
+});
+
+export const NetcdfCdf5Unsupported = defineError<{ path: string }>({
+  code: 'NetcdfCdf5Unsupported',
+  title: 'CDF-5 (64-bit data) NetCDF files are not supported',
+  message: (p) => `${p.path} is a CDF-5 file (magic CDF\\x05), which the reader cannot read`,
+  hint: (p) => `convert it to NetCDF-4 with the NetCDF tools: nccopy -k nc4 ${p.path} out.nc`,
+});
+
+export const NetcdfGribFile = defineError<{ path: string }>({
+  code: 'NetcdfGribFile',
+  title: 'An input file is GRIB, not NetCDF',
+  message: (p) => `${p.path} is a GRIB file (magic GRIB)`,
+  hint: (p) => `convert it to NetCDF first: grib_to_netcdf -o out.nc ${p.path} (ecCodes), or cdo -f nc4 copy ${p.path} out.nc`,
+});
+
+export const NetcdfNotNetcdf4 = defineError<{ path: string }>({
+  code: 'NetcdfNotNetcdf4',
+  title: 'An HDF5 file is not a NetCDF-4 file',
+  message: (p) => `${p.path} is HDF5 but carries neither dimension scales nor netCDF attributes, so its dimensions cannot be known`,
+  hint: () => 'write the file with a NetCDF library (netCDF4, xarray, nccopy -k nc4), or give the dimensions as HDF5 dimension scales',
+});
+
+export const NetcdfHeaderInvalid = defineError<{ path: string; detail: string }>({
+  code: 'NetcdfHeaderInvalid',
+  title: 'The header of a NetCDF file cannot be read',
+  message: (p) => `${p.path}: ${p.detail}`,
+  hint: () => 'check the file with `ncdump -h`; if that fails too the file is damaged and must be fetched again',
+});
+
+export const NetcdfTimeUnits = defineError<{ units: string; detail: string }>({
+  code: 'NetcdfTimeUnits',
+  title: 'The time units of a variable cannot be decoded',
+  message: (p) => `time units "${p.units}": ${p.detail}`,
+  hint: () => 'time units must read "<seconds|minutes|hours|days> since YYYY-MM-DD[ hh:mm:ss[.f]][ Z|+hh:mm]" (CF conventions §4.4)',
+});
+
+export const NetcdfCalendarUnsupported = defineError<{ calendar: string; detail: string }>({
+  code: 'NetcdfCalendarUnsupported',
+  title: 'The calendar of a time axis is not supported',
+  message: (p) => `calendar "${p.calendar}": ${p.detail}`,
+  hint: () =>
+    'supported calendars: standard / gregorian (for dates from 1582-10-15 on) and proleptic_gregorian; reanalysis files use these. Convert model calendars (noleap, 360_day, julian) with cdo setcalendar or regrid in time first',
+});
+
+export const NetcdfTimeNotHourly = defineError<{ detail: string }>({
+  code: 'NetcdfTimeNotHourly',
+  title: 'A time axis is not on whole hours',
+  message: (p) => p.detail,
+  hint: () => 'the atlas needs hourly data stamped on the hour (ERA5 / ERA5-Land hourly); monthly or daily means cannot be used',
+});
+
+export const NetcdfNoTimeAxis = defineError<{ detail: string }>({
+  code: 'NetcdfNoTimeAxis',
+  title: 'A file has no time axis that can be decoded',
+  message: (p) => p.detail,
+  hint: () => 'the file needs a time coordinate (time or valid_time) with CF units such as "hours since 1900-01-01"',
+});
+
+export const NetcdfUnitUnknown = defineError<{ units: string; expected: string }>({
+  code: 'NetcdfUnitUnknown',
+  title: 'A variable has units the reader does not know',
+  message: (p) => `units "${p.units}" are not one of the units accepted for this quantity (${p.expected})`,
+  hint: () => 'fix the units attribute (ncatted -a units,VAR,o,c,"K" file.nc) or convert the variable to one of the accepted units',
+});
+
+export const NetcdfUnitImplausible = defineError<{ units: string; min: number; max: number; detail: string }>({
+  code: 'NetcdfUnitImplausible',
+  title: 'The values of a variable do not fit its units',
+  message: (p) => `units say "${p.units}" but the values run from ${p.min} to ${p.max}: ${p.detail}`,
+  hint: () => 'the units attribute is probably wrong; correct it (ncatted -a units,VAR,o,c,"K" file.nc) after checking the values with ncdump',
+});
+
+export const MissingNetcdfVariable = defineError<{ name: string; detail: string }>({
+  code: 'MissingNetcdfVariable',
+  title: 'A required variable is missing from the dataset',
+  message: (p) => `no ${p.name}: ${p.detail}`,
+  hint: () =>
+    'request the variable from the data store for every month in the dataset (ERA5 short names t2m, d2m, sp, u10, v10, ssrd, optional fdir, strd, lsm)',
+});
+
+export const NetcdfGridMismatch = defineError<{ fileA: string; fileB: string; detail: string }>({
+  code: 'NetcdfGridMismatch',
+  title: 'The files of a dataset are on different grids',
+  message: (p) => `${p.fileA} and ${p.fileB} differ: ${p.detail}`,
+  hint: () => 'request every file with the same area and grid resolution, or regrid them to one grid (cdo remapbil) before building',
+});
+
+export const NetcdfGridUnsupported = defineError<{ detail: string }>({
+  code: 'NetcdfGridUnsupported',
+  title: 'A grid the reader cannot use',
+  message: (p) => p.detail,
+  hint: () => 'the reader needs a regular latitude/longitude grid with 1-D, strictly monotonic latitude and longitude coordinates',
+});
+
+export const NetcdfDimensionUnsupported = defineError<{ detail: string }>({
+  code: 'NetcdfDimensionUnsupported',
+  title: 'A variable has dimensions the reader cannot use',
+  message: (p) => p.detail,
+  hint: () =>
+    'dimensions other than time, latitude, longitude (and expver) must have length 1; select one member/level first (cdo sellevel, ncks -d number,0) and keep latitude, longitude as the last two dimensions (ncpdq -a time,latitude,longitude)',
+});
+
+export const NetcdfTimeGap = defineError<{ from: string; to: string; before: string; after: string }>({
+  code: 'NetcdfTimeGap',
+  title: 'The hourly time axis of the dataset has a gap',
+  message: (p) => `no data for the hours ${p.from} to ${p.to} (end of hour, UTC), between ${p.before} and ${p.after}`,
+  hint: () => 'add the file(s) for the missing months, or restrict the configuration to years without gaps',
+});
+
+export const NetcdfDuplicateHours = defineError<{ variable: string; hour: string; fileA: string; fileB: string }>({
+  code: 'NetcdfDuplicateHours',
+  title: 'The same hour appears twice in the dataset',
+  message: (p) => `${p.variable} at ${p.hour} is in ${p.fileA} and again in ${p.fileB}`,
+  hint: () => 'remove the duplicated file (the same month downloaded twice?) from the input list',
+});
+
+export const NetcdfBlockOutOfRange = defineError<{ detail: string }>({
+  code: 'NetcdfBlockOutOfRange',
+  title: 'A block was requested outside the dataset',
+  message: (p) => p.detail,
+  hint: () => 'ask for hours in [0, time.count) and a tile inside the grid',
+});
+
+export const NetcdfReadFailed = defineError<{ path: string; detail: string }>({
+  code: 'NetcdfReadFailed',
+  title: 'Reading data from a NetCDF file failed',
+  message: (p) => `${p.path}: ${p.detail}`,
+  hint: () => 'check the file with `ncdump -v VAR FILE`; a damaged file must be fetched again',
+});

@@ -1,0 +1,21 @@
+/**
+ * Which ERA5 layout a file follows (METHODS.md §4.4): the legacy CDS layout (NetCDF-3, int16
+ * packed, `time` in "hours since 1900-01-01") or the 2024 CDS layout (NetCDF-4, `valid_time` in
+ * "seconds since 1970-01-01", `expver` and `number` coordinates); anything else is `other`.
+ */
+import { attrText } from './attrs.ts';
+import { recognizeEra5 } from './era5-variables.ts';
+import type { SourceFile } from './source.ts';
+
+export type Layout = 'era5-legacy' | 'era5-cds-2024' | 'other';
+
+export function detectLayout(sf: SourceFile): Layout {
+  const era5 = sf.variables.filter((v) => v.dims.length >= 2 && recognizeEra5(v));
+  if (era5.length === 0) return 'other';
+  const vt = sf.variables.find((v) => v.name === 'valid_time');
+  if (sf.format === 'netcdf4' && vt && /^seconds since 1970-01-01/i.test(attrText(vt, 'units') ?? '')) return 'era5-cds-2024';
+  const t = sf.variables.find((v) => v.name === 'time');
+  const packed = era5.some((v) => v.type === 'short' && 'scale_factor' in v.attrs);
+  if (sf.format !== 'netcdf4' && t && /^hours since 1900-01-01/i.test(attrText(t, 'units') ?? '') && packed) return 'era5-legacy';
+  return 'other';
+}
