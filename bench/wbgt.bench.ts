@@ -1,0 +1,120 @@
+/**
+ * WBGT kernel benchmarks: `wbgt-kernel` (sun + shade WBGT with geometry and wind, one core,
+ * ns per cell-hour) and `wbgt-kernel-parallel` (the same on all cores with worker threads over
+ * shared arrays; speed-up over one core, worker start-up excluded and stated).
+ *
+ * Input: 100 hours × 100 × 100 cells = 1,000,000 cell-hours of seeded, varied synthetic weather
+ * (invented; for timing only): 30°S–40°N, two days of July 2010 and December 2010 alternating,
+ * air 0–46 °C, dew point 0.5–28 K below, 650–1040 hPa, 10 m wind 0.1–12 m/s, solar from a
+ * clearness 0.1–0.95 of the top of atmosphere, a third of the cells with ERA5-style direct solar.
+ */
+import type { Bench, BenchFigure } from './types.ts';
+import { computeHours, type PhysicsArrays } from '../pipeline/physics/block.ts';
+import { sharedFloat32, sharedUint8, startPhysicsPool } from '../pipeline/physics/parallel.ts';
+import { cosZenithInstant } from '../pipeline/physics/solar-position.ts';
+
+const NT = 100;
+const NY = 100;
+const NX = 100;
+
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function makeArrays(): PhysicsArrays {
+  const nCells = NY * NX;
+  const n = NT * nCells;
+  const rnd = mulberry32(20240521);
+  const time = new Float64Array(NT);
+  for (let t = 0; t < NT; t++) time[t] = Date.UTC(2010, t % 2 === 0 ? 6 : 11, 10 + Math.floor(t / 48), t % 24);
+  const lat = new Float64Array(NY).map((_, i) => -30 + (70 * i) / (NY - 1));
+  const lon = new Float64Array(NX).map((_, i) => -120 + (240 * i) / (NX - 1));
+  const f = () => sharedFloat32(n);
+  const a: PhysicsArrays = {
+    time, lat, lon,
+    airTemperature: f(), dewPointTemperature: f(), surfacePressure: f(), windSpeed: f(), solarGlobal: f(), solarDirect: f(),
+    cosZenith: f(), directFraction: f(), solar: f(), wind2m: f(), wbgtSun: f(), wbgtShade: f(),
+    globeSun: f(), wetBulbSun: f(), globeShade: f(), wetBulbShade: f(), status: sharedUint8(n),
+  };
+  for (let t = 0; t < NT; t++) {
+    for (let y = 0; y < NY; y++) {
+      for (let x = 0; x < NX; x++) {
+        const i = t * nCells + y * NX + x;
+        const ta = 46 * rnd();
+        a.airTemperature[i] = ta;
+        a.dewPointTemperature[i] = ta - 0.5 - 27.5 * rnd();
+        a.surfacePressure[i] = 650 + 390 * rnd();
+        a.windSpeed[i] = 0.1 + 11.9 * rnd();
+        const cz = cosZenithInstant(time[t] - 1_800_000, lat[y], lon[x]);
+        const s = cz > 0 ? (0.1 + 0.85 * rnd()) * 1367 * cz : 0;
+        a.solarGlobal[i] = s;
+        a.solarDirect![i] = (x % 3 === 0 ? 0.8 * rnd() : NaN) * s;
+      }
+    }
+  }
+  return a;
+}
+
+function checksum(a: PhysicsArrays): number {
+  let s = 0;
+  for (let i = 0; i < a.wbgtSun.length; i++) if (a.status[i] === 0) s += a.wbgtSun[i] + a.wbgtShade[i];
+  return Math.round(s * 1000) / 1000;
+}
+
+export const bench: Bench = {
+  names: ['wbgt-kernel', 'wbgt-kernel-parallel'],
+  async run(only) {
+    const a = makeArrays();
+    const n = NT * NY * NX;
+    const figs: BenchFigure[] = [];
+    // Warm-up on a few hours, then the timed run over all hours.
+    computeHours(a, 0, 4);
+    a.status.fill(0);
+    const cpu0 = process.cpuUsage();
+    const t0 = performance.now();
+    const c = computeHours(a, 0, NT);
+    const ms1 = performance.now() - t0;
+    const cpu1 = process.cpuUsage(cpu0);
+    const cpuNs = ((cpu1.user + cpu1.system) * 1e3) / n;
+    const sum1 = checksum(a);
+    const s = c.solved || 1;
+    const single = (ms1 * 1e6) / n;
+    const details = {
+      cellHours: n, cpuNsPerCellHour: +cpuNs.toFixed(1), timing: 'wall clock; machine shared with other jobs', ok: c.ok, rejected: c.rejected, notConverged: c.notConverged,
+      meanIterGlobeSun: +(c.iterations.globeSun / s).toFixed(3), meanIterWetBulbSun: +(c.iterations.wetBulbSun / s).toFixed(3),
+      meanIterGlobeShade: +(c.iterations.globeShade / s).toFixed(3), meanIterWetBulbShade: +(c.iterations.wetBulbShade / s).toFixed(3),
+      checksum: sum1,
+    };
+    if (!only || only === 'wbgt-kernel') figs.push({ bench: 'wbgt-kernel', value: +single.toFixed(1), unit: 'ns/cell-hour', ...details });
+    if (!only || only === 'wbgt-kernel-parallel') {
+      const tStart = performance.now();
+      const pool = await startPhysicsPool(a);
+      const startMs = performance.now() - tStart;
+      try {
+        a.status.fill(0);
+        await pool.run(8); // warm-up of the workers' JIT
+        a.status.fill(0);
+        const t1 = performance.now();
+        const r = await pool.run(NT);
+        const msP = performance.now() - t1;
+        const sumP = checksum(a);
+        figs.push({
+          bench: 'wbgt-kernel-parallel', value: +(ms1 / msP).toFixed(2), unit: 'x speed-up', workers: pool.size,
+          cellHours: n, nsPerCellHour: +((msP * 1e6) / n).toFixed(1), singleCoreNs: +single.toFixed(1),
+          workerStartMsExcluded: Math.round(startMs), workerMs: r.workerMs.map((m) => Math.round(m)).join('/'),
+          checksum: sumP, checksumMatchesSingle: sumP === sum1, ok: r.counts.ok,
+        });
+      } finally {
+        await pool.close();
+      }
+    }
+    return figs;
+  },
+};

@@ -1,0 +1,177 @@
+/**
+ * The WBGT kernel: per cell-hour, globe and natural wet-bulb temperatures in sun and shade by
+ * the Liljegren et al. 2008 model (METHODS.md §3.2), solved to the exact root, and
+ * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, METHODS.md §3.1). Shade is the same model with
+ * solar set to zero (long-wave exchange kept), weighted the same way.
+ *
+ * Typed arrays in, typed arrays out, no allocation per cell. Inputs out of range get a status
+ * code ({@link STATUS}) and NaN outputs; a solve that does not converge gives NaN and is counted.
+ * Dew points above the air temperature are clamped to it and counted.
+ */
+import { CellState, prepareCell, solveGlobe, solveWetBulb } from './liljegren-solve.ts';
+import { INPUT_LIMITS, STATUS } from './status.ts';
+import { KELVIN } from './constants.ts';
+
+type Num = Float32Array | Float64Array;
+
+export interface WbgtInputs {
+  /** Air temperature [°C]. */
+  airTemperature: ArrayLike<number>;
+  /** Dew point temperature [°C]. */
+  dewPointTemperature: ArrayLike<number>;
+  /** Surface pressure [hPa]. */
+  surfacePressure: ArrayLike<number>;
+  /** Wind speed at 2 m [m s⁻¹]. */
+  wind2m: ArrayLike<number>;
+  /** Solar irradiance after the cap, global horizontal [W m⁻²]. */
+  solar: ArrayLike<number>;
+  /** Cosine of the zenith for the beam geometry [–]. */
+  cosZenith: ArrayLike<number>;
+  /** Direct-beam fraction [–]. */
+  directFraction: ArrayLike<number>;
+}
+
+export interface WbgtOutputs {
+  /** WBGT in sun [°C]. */
+  wbgtSun: Num;
+  /** WBGT in shade [°C]. */
+  wbgtShade: Num;
+  /** Globe temperature in sun [°C]. */
+  globeSun?: Num;
+  /** Natural wet-bulb temperature in sun [°C]. */
+  wetBulbSun?: Num;
+  /** Globe temperature in shade [°C]. */
+  globeShade?: Num;
+  /** Natural wet-bulb temperature in shade [°C]. */
+  wetBulbShade?: Num;
+  /** Psychrometric wet bulb of the model [°C] (computed only when given). */
+  psychrometric?: Num;
+  /**
+   * Status per cell-hour ({@link STATUS}). A non-zero value already present on entry (e.g. set
+   * by the geometry step) is kept and the cell skipped.
+   */
+  status: Uint8Array;
+}
+
+/** What the kernel did, for logs and reports. */
+export interface KernelCounts {
+  cells: number;
+  ok: number;
+  /** Cell-hours rejected for inputs (any status other than ok / not converged). */
+  rejected: number;
+  notConverged: number;
+  dewPointClamped: number;
+  /** Sum of iterations per solve over the cells solved [–]; divide by `solved` for the mean. */
+  iterations: { globeSun: number; wetBulbSun: number; globeShade: number; wetBulbShade: number; psychrometric: number };
+  solved: number;
+}
+
+export function emptyCounts(): KernelCounts {
+  return {
+    cells: 0, ok: 0, rejected: 0, notConverged: 0, dewPointClamped: 0, solved: 0,
+    iterations: { globeSun: 0, wetBulbSun: 0, globeShade: 0, wetBulbShade: 0, psychrometric: 0 },
+  };
+}
+
+/** Adds `b` into `a` (for merging worker counts). */
+export function addCounts(a: KernelCounts, b: KernelCounts): KernelCounts {
+  a.cells += b.cells; a.ok += b.ok; a.rejected += b.rejected; a.notConverged += b.notConverged;
+  a.dewPointClamped += b.dewPointClamped; a.solved += b.solved;
+  for (const k of Object.keys(a.iterations) as (keyof KernelCounts['iterations'])[]) a.iterations[k] += b.iterations[k];
+  return a;
+}
+
+/** Checks one cell-hour's inputs; returns a status code (0 = usable). */
+export function checkInputs(ta: number, td: number, p: number, u: number, s: number, cz: number, f: number): number {
+  if (Number.isNaN(ta) || Number.isNaN(td) || Number.isNaN(p) || Number.isNaN(u) || Number.isNaN(s) || Number.isNaN(cz) || Number.isNaN(f)) {
+    return STATUS.missingInput;
+  }
+  const L = INPUT_LIMITS;
+  if (!(ta >= L.airTemperatureC[0] && ta <= L.airTemperatureC[1])) return STATUS.airTemperatureOutOfRange;
+  if (!(td >= L.dewPointMinC)) return STATUS.humidityOutOfRange;
+  if (!(p >= L.pressureHpa[0] && p <= L.pressureHpa[1])) return STATUS.pressureOutOfRange;
+  if (!(u >= L.windMs[0] && u <= L.windMs[1])) return STATUS.windOutOfRange;
+  if (!(s >= L.solarWm2[0] && s <= L.solarWm2[1])) return STATUS.solarOutOfRange;
+  if (!(cz >= -1 && cz <= 1)) return STATUS.cosZenithOutOfRange;
+  if (!(f >= 0 && f <= 1)) return STATUS.directFractionOutOfRange;
+  return STATUS.ok;
+}
+
+const cell = new CellState();
+
+/**
+ * Runs the kernel on cell-hours [start, end) of the arrays. Returns counts for that range.
+ * @param inputs per cell-hour inputs (units on {@link WbgtInputs})
+ * @param outputs per cell-hour outputs [°C] and status
+ */
+export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0): KernelCounts {
+  const { airTemperature: TA, dewPointTemperature: TD, surfacePressure: P, wind2m: U, solar: S, cosZenith: CZ, directFraction: FD } = inputs;
+  const { wbgtSun, wbgtShade, globeSun, wetBulbSun, globeShade, wetBulbShade, psychrometric, status } = outputs;
+  const counts = emptyCounts();
+  const it = counts.iterations;
+  const s = cell;
+  for (let i = start; i < end; i++) {
+    counts.cells++;
+    let code = status[i];
+    const ta = TA[i];
+    let td = TD[i];
+    if (code === 0) code = checkInputs(ta, td, P[i], U[i], S[i], CZ[i], FD[i]);
+    if (code !== 0) {
+      status[i] = code;
+      counts.rejected++;
+      writeNaN(outputs, i);
+      continue;
+    }
+    if (td > ta) {
+      td = ta;
+      counts.dewPointClamped++;
+    }
+    prepareCell(s, ta, td, P[i], U[i], S[i], FD[i], CZ[i]);
+    counts.solved++;
+    const tgSun = solveGlobe(s, true, s.ta);
+    it.globeSun += s.iterations;
+    const tgShade = solveGlobe(s, false, s.ta);
+    it.globeShade += s.iterations;
+    const twShade = solveWetBulb(s, true, false, s.td);
+    it.wetBulbShade += s.iterations;
+    // The sun root lies above the shade root: start one linear step above it, G_sun = G_shade − Q_w/h_w.
+    const twSun = solveWetBulb(s, true, true, twShade + (s.qw * s.lastInvHw) / s.lastSlope);
+    it.wetBulbSun += s.iterations;
+    let tpsy = 0;
+    if (psychrometric) {
+      tpsy = solveWetBulb(s, false, false, s.td);
+      it.psychrometric += s.iterations;
+    }
+    if (!(tgSun === tgSun) || !(tgShade === tgShade)) code = STATUS.globeNotConverged;
+    else if (!(twSun === twSun) || !(twShade === twShade) || !(tpsy === tpsy)) code = STATUS.wetBulbNotConverged;
+    if (code !== 0) {
+      status[i] = code;
+      counts.notConverged++;
+      writeNaN(outputs, i);
+      continue;
+    }
+    const gS = tgSun - KELVIN;
+    const wS = twSun - KELVIN;
+    const gD = tgShade - KELVIN;
+    const wD = twShade - KELVIN;
+    wbgtSun[i] = 0.7 * wS + 0.2 * gS + 0.1 * ta;
+    wbgtShade[i] = 0.7 * wD + 0.2 * gD + 0.1 * ta;
+    if (globeSun) globeSun[i] = gS;
+    if (wetBulbSun) wetBulbSun[i] = wS;
+    if (globeShade) globeShade[i] = gD;
+    if (wetBulbShade) wetBulbShade[i] = wD;
+    if (psychrometric) psychrometric[i] = tpsy - KELVIN;
+    counts.ok++;
+  }
+  return counts;
+}
+
+function writeNaN(o: WbgtOutputs, i: number): void {
+  o.wbgtSun[i] = NaN;
+  o.wbgtShade[i] = NaN;
+  if (o.globeSun) o.globeSun[i] = NaN;
+  if (o.wetBulbSun) o.wetBulbSun[i] = NaN;
+  if (o.globeShade) o.globeShade[i] = NaN;
+  if (o.wetBulbShade) o.wetBulbShade[i] = NaN;
+  if (o.psychrometric) o.psychrometric[i] = NaN;
+}

@@ -1,0 +1,67 @@
+/**
+ * Runs the physics step over the hours of one block on several worker threads. The arrays must
+ * live on SharedArrayBuffers ({@link sharedFloat32}); each worker computes whole hours in place.
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import type { PhysicsArrays, PhysicsOptions, PhysicsCounts } from './block.ts';
+import { addCounts, emptyCounts } from './kernel.ts';
+
+/** A Float32Array of length n on a SharedArrayBuffer. */
+export function sharedFloat32(n: number): Float32Array {
+  return new Float32Array(new SharedArrayBuffer(n * 4));
+}
+
+/** A Uint8Array of length n on a SharedArrayBuffer. */
+export function sharedUint8(n: number): Uint8Array {
+  return new Uint8Array(new SharedArrayBuffer(n));
+}
+
+/** A pool of physics workers holding one set of shared arrays. */
+export interface PhysicsPool {
+  size: number;
+  /** Computes hours [0, nT) split into `size` contiguous ranges; resolves with merged counts and per-worker ms. */
+  run(nT: number, opts?: PhysicsOptions): Promise<{ counts: PhysicsCounts; workerMs: number[] }>;
+  close(): Promise<void>;
+}
+
+/** Starts `size` workers (default: all cores) sharing `arrays`; resolves once all are ready. */
+export async function startPhysicsPool(arrays: PhysicsArrays, size = availableParallelism()): Promise<PhysicsPool> {
+  const url = new URL('./physics-worker.ts', import.meta.url);
+  const workers = Array.from({ length: size }, () => new Worker(url, { execArgv: ['--import', 'tsx'] }));
+  await Promise.all(
+    workers.map(
+      (w) =>
+        new Promise<void>((resolve, reject) => {
+          w.once('error', reject);
+          w.once('message', () => resolve());
+          w.postMessage({ arrays });
+        }),
+    ),
+  );
+  return {
+    size,
+    async run(nT, opts = {}) {
+      const per = Math.ceil(nT / size);
+      const jobs = workers.map((w, k) => {
+        const t0 = Math.min(nT, k * per);
+        const t1 = Math.min(nT, t0 + per);
+        return new Promise<{ counts: PhysicsCounts; ms: number }>((resolve, reject) => {
+          w.once('error', reject);
+          w.once('message', (m: { counts: PhysicsCounts; ms: number }) => resolve(m));
+          w.postMessage({ t0, t1, opts, id: k });
+        });
+      });
+      const res = await Promise.all(jobs);
+      const counts = { ...emptyCounts(), timeOutOfRange: 0 } as PhysicsCounts;
+      for (const r of res) {
+        addCounts(counts, r.counts);
+        counts.timeOutOfRange += r.counts.timeOutOfRange;
+      }
+      return { counts, workerMs: res.map((r) => r.ms) };
+    },
+    async close() {
+      await Promise.all(workers.map((w) => w.terminate()));
+    },
+  };
+}

@@ -1,0 +1,44 @@
+/**
+ * Solar inputs of the model for one cell-hour: the top-of-atmosphere check and cap, and the
+ * direct-beam fraction (METHODS.md §3.2.6; conventions of shared/reference/README.md).
+ *
+ * - Sun up (cos z ≥ 0.00873): top of atmosphere `S_toa = S0·cos z/d²`; solar is capped at
+ *   0.85·S_toa; the direct fraction is the given one (ERA5 `fdir/ssrd`, a CSV column) or else the
+ *   Liljegren estimate `exp(3 − 1.34 s* − 1.65/s*)` from the capped clearness s*, clipped to [0, 0.9].
+ * - Sun down (cos z < 0.00873): any positive solar is kept as it is, all diffuse (f_dir = 0).
+ */
+import { CZA_MIN, FDIR_MAX, NORMSOLAR_MAX, SOLAR_CONSTANT } from './constants.ts';
+
+/**
+ * Liljegren's empirical direct-beam fraction [–] from the clearness index s* [–]
+ * (METHODS.md §3.2.6): `exp(3 − 1.34 s* − 1.65/s*)` clipped to [0, 0.9]; 0 for s* ≤ 0.
+ */
+export function directFractionEstimate(clearness: number): number {
+  if (!(clearness > 0)) return 0;
+  const f = Math.exp(3 - 1.34 * clearness - 1.65 / clearness);
+  return f > FDIR_MAX ? FDIR_MAX : f;
+}
+
+/** Solar after the cap [W m⁻²] and the direct fraction [–] the model uses. */
+export interface SolarUsed {
+  solar: number;
+  directFraction: number;
+}
+
+/**
+ * Caps solar and picks the direct fraction for one cell-hour (rules above).
+ * @param solarGlobal global horizontal irradiance, period mean [W m⁻²]
+ * @param cosZenith cosine of the zenith the model uses [–]
+ * @param distanceAu Earth–Sun distance [AU]
+ * @param givenFraction direct fraction from data [–], or NaN/undefined to estimate it
+ * @param cosToa cosine for the top-of-atmosphere flux [–] (defaults to `cosZenith`)
+ */
+export function solarUsed(solarGlobal: number, cosZenith: number, distanceAu: number, givenFraction?: number, cosToa = cosZenith): SolarUsed {
+  if (!(cosZenith >= CZA_MIN) || !(cosToa > 0)) return { solar: solarGlobal, directFraction: 0 };
+  const toa = (SOLAR_CONSTANT * cosToa) / (distanceAu * distanceAu);
+  let s = solarGlobal / toa;
+  if (s > NORMSOLAR_MAX) s = NORMSOLAR_MAX;
+  const solar = s * toa;
+  const given = givenFraction !== undefined && !Number.isNaN(givenFraction);
+  return { solar, directFraction: given ? givenFraction : directFractionEstimate(s) };
+}

@@ -1,0 +1,81 @@
+/**
+ * 2 m wind from a wind measured (or modelled) at another height, by the stability-class power
+ * law of EPA-454/R-99-005 §6.2.5 as in the Liljegren et al. 2008 reference code (METHODS.md §3.2.7).
+ *
+ * Night-time stability needs the vertical temperature difference ΔT, which reanalysis does not
+ * provide. Convention: ΔT defaults to 0, i.e. the "ΔT ≥ 0" (stable) column, for gridded data and
+ * for point rows without `dt_c` alike, so a grid cell and a station row with the same inputs
+ * agree. Calm clear nights over land usually have a surface inversion (ΔT > 0), and the stable
+ * column gives the lower 2 m wind, the less optimistic choice at night.
+ */
+import { MIN_SPEED, REF_HEIGHT, WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN } from './constants.ts';
+
+/**
+ * Stability class 1 (A) … 6 (F) from the solar-radiation/ΔT table (METHODS.md §3.2.7).
+ * @param daytime cos z > 0; @param speed measured wind [m s⁻¹]; @param solar solar after the cap [W m⁻²];
+ * @param deltaT vertical temperature difference, upper minus lower [°C]
+ */
+export function stabilityClass(daytime: boolean, speed: number, solar: number, deltaT: number): number {
+  if (daytime) {
+    const j = solar >= 925 ? 0 : solar >= 675 ? 1 : solar >= 175 ? 2 : 3;
+    const i = speed < 2 ? 0 : speed < 3 ? 1 : speed < 5 ? 2 : speed < 6 ? 3 : 4;
+    return DAY_TABLE[i][j];
+  }
+  const i = speed < 2 ? 0 : speed < 2.5 ? 1 : 2;
+  return deltaT >= 0 ? NIGHT_STABLE[i] : NIGHT_UNSTABLE[i];
+}
+
+const DAY_TABLE = [
+  [1, 1, 2, 4],
+  [1, 2, 3, 4],
+  [2, 2, 3, 4],
+  [3, 3, 4, 4],
+  [3, 4, 4, 4],
+];
+const NIGHT_UNSTABLE = [5, 5, 4];
+const NIGHT_STABLE = [6, 6, 4];
+
+/**
+ * 2 m wind [m s⁻¹]: `max(u_z·(2/z)^p, 0.13)` with p by class and urban/rural set; at z = 2 m the
+ * speed is returned as is (the 0.13 m s⁻¹ floor then applies inside the heat-transfer
+ * coefficients). @param speed [m s⁻¹]; @param height [m]; @param stability 1…6; @param urban exponent set
+ */
+export function windAt2m(speed: number, height: number, stability: number, urban: boolean): number {
+  if (height === REF_HEIGHT) return speed;
+  const p = (urban ? WIND_EXPONENT_URBAN : WIND_EXPONENT_RURAL)[stability - 1];
+  const u = speed * Math.pow(REF_HEIGHT / height, p);
+  return u > MIN_SPEED ? u : MIN_SPEED;
+}
+
+/** Inputs of the array wind step. */
+export interface WindStepInputs {
+  /** Wind speed at `height` [m s⁻¹], per cell-hour. */
+  windSpeed: ArrayLike<number>;
+  /** Cosine of zenith used for day/night [–], per cell-hour. */
+  cosZenith: ArrayLike<number>;
+  /** Solar irradiance after the cap [W m⁻²], per cell-hour. */
+  solar: ArrayLike<number>;
+  /** Measurement height [m] (10 for ERA5). */
+  height: number;
+  /** Urban exponent set: one flag for all, or one per cell (length nCells; index = i % nCells). */
+  urban: boolean | Uint8Array;
+  /** Vertical temperature difference [°C], default 0 (stable column at night). */
+  deltaT?: number;
+}
+
+/**
+ * Fills `out` [m s⁻¹] with the 2 m wind of n cell-hours (time-major, `nCells` cells per hour),
+ * and optionally `stabilityOut` with the class. Returns nothing; NaN in gives NaN out.
+ */
+export function wind2mStep(inp: WindStepInputs, out: Float32Array | Float64Array, n: number, nCells: number, stabilityOut?: Uint8Array): void {
+  const dT = inp.deltaT ?? 0;
+  const urbanAll = typeof inp.urban === 'boolean' ? inp.urban : undefined;
+  const urbanCells = typeof inp.urban === 'boolean' ? undefined : inp.urban;
+  for (let i = 0; i < n; i++) {
+    const u = inp.windSpeed[i];
+    const cls = stabilityClass(inp.cosZenith[i] > 0, u, inp.solar[i], dT);
+    const urban = urbanAll ?? (urbanCells![i % nCells] !== 0);
+    out[i] = windAt2m(u, inp.height, cls, urban);
+    if (stabilityOut) stabilityOut[i] = cls;
+  }
+}
