@@ -2,7 +2,7 @@
  * Mapping a file's latitude/longitude axes onto the pipeline's one convention
  * (pipeline/model/grid.ts): latitude ascending; longitude ascending in [-180, 180), except that
  * a regional grid crossing the antimeridian keeps continuous longitudes starting west of it
- * (and may run past 180). Longitudes in 0..360 or past 360 are wrapped first. The result tells,
+ * (and may run past 180). Longitudes in 0..360 or past 360 are wrapped first. Source longitudes may wrap in any order. The result tells,
  * for each canonical row and column, which source row and column it comes from.
  */
 import { NetcdfGridUnsupported } from './errors.ts';
@@ -33,7 +33,7 @@ function strictlyMonotonic(x: ArrayLike<number>): 1 | -1 | 0 {
 /** Latitude [° N] in ascending order, flipping a descending axis. */
 export function normalizeLatitude(lat: ArrayLike<number>, where: string): AxisMap {
   const dir = strictlyMonotonic(lat);
-  if (dir === 0) throw NetcdfGridUnsupported({ detail: `${where}: latitude is not strictly monotonic` });
+  if (dir === 0) throw NetcdfGridUnsupported({ detail: `${where}: latitude is not strictly monotonic` }, { file: where });
   const n = lat.length;
   const values = new Float64Array(n);
   const source = new Int32Array(n);
@@ -42,19 +42,19 @@ export function normalizeLatitude(lat: ArrayLike<number>, where: string): AxisMa
     values[i] = lat[s];
     source[i] = s;
   }
-  if (values[0] < -90.0001 || values[n - 1] > 90.0001) throw NetcdfGridUnsupported({ detail: `${where}: latitude runs outside -90 … 90` });
+  if (values[0] < -90.0001 || values[n - 1] > 90.0001) throw NetcdfGridUnsupported({ detail: `${where}: latitude runs outside -90 … 90` }, { file: where });
   return { values, source };
 }
 
 /** Longitude [° E] in the canonical convention (see the file comment). */
 export function normalizeLongitude(lon: ArrayLike<number>, where: string): AxisMap {
   const n = lon.length;
-  if (strictlyMonotonic(lon) === 0) throw NetcdfGridUnsupported({ detail: `${where}: longitude is not strictly monotonic` });
+  // Source order may wrap (e.g. 359.5, 359.75, 0, 0.25); only repeated points are refused.
   const pairs = Array.from({ length: n }, (_, i) => ({ w: wrapLongitude(lon[i]), s: i }));
   pairs.sort((a, b) => a.w - b.w);
   for (let i = 1; i < n; i++) {
     if (Math.abs(pairs[i].w - pairs[i - 1].w) < 1e-9) {
-      throw NetcdfGridUnsupported({ detail: `${where}: longitude ${pairs[i].w} appears twice after wrapping (a grid that repeats its first column at +360?)` });
+      throw NetcdfGridUnsupported({ detail: `${where}: longitude ${pairs[i].w} appears twice after wrapping (a grid that repeats its first column at +360?)` }, { file: where });
     }
   }
   let cut = -1; // rotate so that the canonical axis starts after the widest gap
