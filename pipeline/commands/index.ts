@@ -2,5 +2,7 @@
 import type { Command } from 'commander';
 import { register as errors } from './errors.ts';
 import { register as preview } from './preview.ts';
+import { register as inspect } from './inspect.ts';
+import { register as point } from './point.ts';
 
-export const commands: Array<(program: Command) => void> = [errors, preview];
+export const commands: Array<(program: Command) => void> = [errors, preview, inspect, point];
