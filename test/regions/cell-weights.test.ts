@@ -86,6 +86,14 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     expect(w.coveredFraction).toBeCloseTo(1, 12);
   });
 
+  it('a region across Greenwich (−10…10 °E) matches a grid running 0…360 °E (ERA5 layout) once, with no cell counted twice', () => {
+    const g360 = grid(-4.5, 10, 0.5, 360);
+    const w = regionCellWeights(one([rect(-10, -2, 10, 2)]), g360);
+    expect(w.cells).toHaveLength(80);
+    for (const f of w.fraction) expect(f).toBeCloseTo(1, 12);
+    expect(w.coveredFraction).toBeCloseTo(1, 12);
+  });
+
   it('a region split at ±180 into a MultiPolygon (RFC 7946 §3.1.9) gives the same cells as the continuous one', () => {
     const gd = grid(-4.5, 10, 170.5, 20);
     const split = parseRegionGeoJson(
