@@ -7,3 +7,4 @@ import '../read/errors.ts';
 import '../climate/errors.ts';
 import '../../src/data/errors.ts';
 import '../regions/errors.ts';
+import '../physics/errors.ts';

@@ -1,0 +1,117 @@
+/**
+ * `heathours point --in IN.csv --out OUT.csv`: hourly WBGT for tabular weather data (DESIGN.md
+ * §4 "point CSV columns"). Streams the input; rows with out-of-range inputs or failed solves get
+ * empty outputs and a `status` naming the reason; the output appears atomically.
+ */
+import type { Command } from 'commander';
+import { createWriteStream, existsSync, statSync } from 'node:fs';
+import { rename, rm, mkdir } from 'node:fs/promises';
+import { dirname } from 'node:path';
+import { once } from 'node:events';
+import { temporarySibling } from '../model/effects.ts';
+import { startProgress } from '../model/progress.ts';
+import '../model/catalogue.ts';
+import { readCsvRecords, csvField } from '../physics/csv.ts';
+import { PointInputNotFound, PointMissingColumn } from '../physics/errors.ts';
+import { computePoint, type PointInput } from '../physics/point-row.ts';
+import { statusName } from '../physics/status.ts';
+
+const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
+const OUTPUT = ['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c', 'status'] as const;
+
+/** Summary of a point run. */
+export interface PointSummary {
+  rows: number;
+  ok: number;
+  byStatus: Record<string, number>;
+  dewPointClamped: number;
+}
+
+function num(v: string | undefined, dflt: number): number {
+  if (v === undefined || v.trim() === '') return dflt;
+  return Number(v);
+}
+
+/** Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file. */
+export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } = {}): Promise<PointSummary> {
+  if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const size = statSync(inPath).size;
+  const progress = startProgress('point', size, opts);
+  await mkdir(dirname(outPath), { recursive: true });
+  const tmp = temporarySibling(outPath);
+  const out = createWriteStream(tmp, { encoding: 'utf8' });
+  const summary: PointSummary = { rows: 0, ok: 0, byStatus: {}, dewPointClamped: 0 };
+  const write = async (s: string) => {
+    if (!out.write(s)) await once(out, 'drain');
+  };
+  try {
+    let header: string[] | undefined;
+    let col: Record<string, number> = {};
+    let bytes = 0;
+    for await (const [line, fields] of readCsvRecords(inPath)) {
+      bytes += fields.reduce((a, f) => a + f.length + 1, 0);
+      if (!header) {
+        header = fields.map((h) => h.trim());
+        col = Object.fromEntries(header.map((h, i) => [h, i]));
+        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inPath, row: line });
+        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inPath, row: line });
+        const extra = OUTPUT.filter((c) => !(c in col));
+        await write(`${[...header, ...extra].map(csvField).join(',')}\r\n`);
+        col.__extra = extra.length;
+        continue;
+      }
+      const get = (name: string) => (name in col ? fields[col[name]] : undefined);
+      const input: PointInput = {
+        timeMs: Date.parse(get('time_utc') ?? ''),
+        avgMinutes: num(get('avg_minutes'), 60),
+        lat: num(get('lat'), NaN), lon: num(get('lon'), NaN), ta: num(get('ta_c'), NaN),
+        rh: num(get('rh_pct'), NaN), td: num(get('td_c'), NaN), pressure: num(get('pressure_hpa'), NaN),
+        wind: num(get('wind_ms'), NaN), windHeight: num(get('wind_height_m'), 10), urban: num(get('urban'), 0) === 1,
+        dt: num(get('dt_c'), 0), solar: num(get('solar_wm2'), NaN),
+        directFraction: num(get('direct_fraction'), NaN), cosZenith: num(get('cos_zenith'), NaN),
+      };
+      const r = computePoint(input);
+      summary.rows++;
+      const name = statusName(r.status);
+      summary.byStatus[name] = (summary.byStatus[name] ?? 0) + 1;
+      if (r.status === 0) summary.ok++;
+      if (r.dewPointClamped) summary.dewPointClamped++;
+      const ok = r.status === 0;
+      const f = (v: number, d: number) => (ok && Number.isFinite(v) ? v.toFixed(d) : '');
+      const values: Record<(typeof OUTPUT)[number], string> = {
+        cos_zenith: f(r.cosZenith, 6), direct_fraction: f(r.directFraction, 6), wind_2m_ms: f(r.wind2m, 4),
+        tg_c: f(r.tg, 4), tnwb_c: f(r.tnwb, 4), tpsy_c: f(r.tpsy, 4), wbgt_c: f(r.wbgt, 4), wbgt_shade_c: f(r.wbgtShade, 4),
+        status: name,
+      };
+      const row = header.map((h, i) => (OUTPUT.includes(h as (typeof OUTPUT)[number]) ? values[h as (typeof OUTPUT)[number]] : fields[i] ?? ''));
+      for (const c of OUTPUT) if (!(c in col)) row.push(values[c]);
+      await write(`${row.map(csvField).join(',')}\r\n`);
+      progress.tick(bytes);
+      bytes = 0;
+    }
+    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inPath, row: 1 });
+    out.end();
+    await once(out, 'finish');
+    await rename(tmp, outPath);
+    progress.done();
+    return summary;
+  } catch (e) {
+    out.destroy();
+    await rm(tmp, { force: true });
+    throw e;
+  }
+}
+
+export function register(program: Command): void {
+  program
+    .command('point')
+    .description('hourly WBGT (sun and shade, Liljegren method) for tabular weather data: one row per hour')
+    .requiredOption('--in <file>', 'input CSV (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
+    .requiredOption('--out <file>', 'output CSV: the input columns plus the computed ones and a status')
+    .option('--quiet', 'no progress output')
+    .action(async (opts: { in: string; out: string; quiet?: boolean }) => {
+      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet });
+      const rest = Object.entries(s.byStatus).filter(([k]) => k !== 'ok').map(([k, v]) => `${k} ${v}`).join(', ');
+      process.stderr.write(`point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`);
+    });
+}

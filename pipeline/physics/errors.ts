@@ -1,0 +1,26 @@
+/** Catalogued errors of the physics stage (the `point` command's input file). */
+import { defineError } from '../model/errors.ts';
+
+export const PointInputNotFound = defineError<{ path: string }>({
+  code: 'PointInputNotFound',
+  title: 'The point CSV file does not exist',
+  message: (p) => `no file at ${p.path}`,
+  hint: () => 'pass --in with the path of a CSV file with one row per hour (columns: see README, "point CSV columns")',
+});
+
+export const PointMissingColumn = defineError<{ column: string; present: string[] }>({
+  code: 'PointMissingColumn',
+  title: 'The point CSV lacks a required column',
+  message: (p) => `required column "${p.column}" is missing (header has: ${p.present.join(', ') || 'nothing'})`,
+  hint: (p) =>
+    p.column === 'rh_pct or td_c'
+      ? 'add a relative humidity column rh_pct [%] or a dew point column td_c [°C]'
+      : `add a column named exactly "${p.column}" to the header row`,
+});
+
+export const PointBadRow = defineError<{ detail: string }>({
+  code: 'PointBadRow',
+  title: 'A row of the point CSV cannot be read',
+  message: (p) => p.detail,
+  hint: () => 'check the row for an unclosed quote or a wrong number of fields',
+});

@@ -1,0 +1,16 @@
+/** The physics stage: per cell-hour humidity, solar geometry, 2 m wind, globe and wet-bulb → WBGT. */
+export * from './constants.ts';
+export * from './status.ts';
+export * from './humidity.ts';
+export * from './solar-position.ts';
+export * from './solar-inputs.ts';
+export * from './geometry.ts';
+export * from './wind.ts';
+export * from './air-properties.ts';
+export { CellState, prepareCell, solveGlobe, solveWetBulb, ROOT_TOLERANCE_K, MAX_ITERATIONS } from './liljegren-solve.ts';
+export * from './kernel.ts';
+export * from './block.ts';
+export * from './parallel.ts';
+export * from './point-row.ts';
+export * from './approximations.ts';
+export * from './errors.ts';
