@@ -134,6 +134,8 @@ export interface WatchedPage {
   consoleErrors: string[];
   pageErrors: string[];
   dialogs: string[];
+  /** Opened with `javaScript: false`: its script files were aborted on purpose. */
+  scriptsBlocked: boolean;
   /** CSP violations the page reported (`securitypolicyviolation` events). */
   cspViolations(): Promise<string[]>;
 }
@@ -195,6 +197,7 @@ export async function startSiteSession(distDir: string, viewport = { width: 1200
         consoleErrors: [],
         pageErrors: [],
         dialogs: [],
+        scriptsBlocked: opts.javaScript === false,
         cspViolations: () => page.evaluate(() => [...((globalThis as unknown as { __cspViolations?: string[] }).__cspViolations ?? [])]),
       };
       page.on('console', (m) => {

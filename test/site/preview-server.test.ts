@@ -1,0 +1,127 @@
+/**
+ * The preview server: content types (IANA media types: text/javascript per RFC 9239,
+ * application/geo+json per RFC 7946, text/csv per RFC 4180, image/tiff per RFC 3302,
+ * application/wasm per the WebAssembly spec), index.html for folders, 404, no way out of its
+ * folder, the CSP header, and catalogued errors.
+ */
+import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { request } from 'node:http';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startPreviewServer, type PreviewServer } from '../../pipeline/commands/preview.ts';
+import { HeathoursError } from '../../pipeline/model/errors.ts';
+import { CONTENT_SECURITY_POLICY_HEADER } from '../../src/lib/content-security-policy.ts';
+
+let root: string;
+let site: string;
+let server: PreviewServer;
+
+/** A raw GET, so the path reaches the server exactly as written (fetch would normalise `..`). */
+function rawGet(port: number, path: string, method = 'GET'): Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: string }> {
+  return new Promise((ok, fail) => {
+    const req = request({ host: '127.0.0.1', port, path, method }, (res) => {
+      let body = '';
+      res.setEncoding('utf8');
+      res.on('data', (c: string) => (body += c));
+      res.on('end', () => ok({ status: res.statusCode ?? 0, headers: res.headers, body }));
+    });
+    req.on('error', fail);
+    req.end();
+  });
+}
+
+const FILES: Record<string, [string, string]> = {
+  'index.html': ['<!doctype html><title>home</title>', 'text/html; charset=utf-8'],
+  'inventory/index.html': ['<!doctype html><title>inventory</title>', 'text/html; charset=utf-8'],
+  'assets/app.js': ['export {};', 'text/javascript; charset=utf-8'],
+  'assets/worker.mjs': ['self.onmessage = () => {};', 'text/javascript; charset=utf-8'],
+  'assets/site.css': ['body{}', 'text/css; charset=utf-8'],
+  'data/inventory.json': ['{}', 'application/json; charset=utf-8'],
+  'data/regions.geojson': ['{"type":"FeatureCollection","features":[]}', 'application/geo+json; charset=utf-8'],
+  'data/regions/a.csv': ['a,b\n1,2\n', 'text/csv; charset=utf-8'],
+  'layers/x.png': ['\x89PNG', 'image/png'],
+  'layers/x.tif': ['II*\0', 'image/tiff'],
+  'favicon.svg': ['<svg xmlns="http://www.w3.org/2000/svg"/>', 'image/svg+xml'],
+  'assets/m.wasm': ['\0asm', 'application/wasm'],
+  'assets/blob.bin': ['x', 'application/octet-stream'],
+};
+
+beforeAll(async () => {
+  root = await mkdtemp(join(tmpdir(), 'heathours-preview-'));
+  site = join(root, 'dist');
+  for (const [rel, [body]] of Object.entries(FILES)) {
+    await mkdir(join(site, rel, '..'), { recursive: true });
+    await writeFile(join(site, rel), Buffer.from(body, 'latin1'));
+  }
+  await writeFile(join(root, 'secret.txt'), 'outside the site');
+  server = await startPreviewServer({ dir: site, port: 0 });
+});
+
+afterAll(async () => {
+  await server?.close();
+  await rm(root, { recursive: true, force: true });
+});
+
+describe('startPreviewServer', () => {
+  it('listens on 127.0.0.1 only and reports its URL', () => {
+    expect(server.url).toBe(`http://127.0.0.1:${server.port}/`);
+  });
+
+  it('serves each kind of file with its registered media type and the CSP header', async () => {
+    for (const [rel, [body, type]] of Object.entries(FILES)) {
+      const res = await fetch(new URL(rel, server.url));
+      expect(res.status, rel).toBe(200);
+      expect(res.headers.get('content-type'), rel).toBe(type);
+      expect(res.headers.get('content-security-policy'), rel).toBe(CONTENT_SECURITY_POLICY_HEADER);
+      expect(res.headers.get('x-content-type-options'), rel).toBe('nosniff');
+      expect(Buffer.from(await res.arrayBuffer()).toString('latin1'), rel).toBe(body);
+    }
+  });
+
+  it('answers a folder with its index.html, and redirects a folder without its trailing slash', async () => {
+    expect(await (await fetch(server.url)).text()).toBe(FILES['index.html'][0]);
+    expect(await (await fetch(new URL('inventory/', server.url))).text()).toBe(FILES['inventory/index.html'][0]);
+    const res = await rawGet(server.port, '/inventory');
+    expect(res.status).toBe(301);
+    expect(res.headers.location).toBe('/inventory/');
+    expect((await rawGet(server.port, '/inventory/?x=1')).status).toBe(200);
+  });
+
+  it('answers 404 for a missing file and for a folder without index.html', async () => {
+    expect((await fetch(new URL('nothing-here.html', server.url))).status).toBe(404);
+    expect((await fetch(new URL('data/', server.url))).status).toBe(404);
+    const res = await fetch(new URL('nothing-here.html', server.url));
+    expect(res.headers.get('content-security-policy')).toBe(CONTENT_SECURITY_POLICY_HEADER);
+  });
+
+  it('never serves a file outside its folder, whatever the spelling of ..', async () => {
+    for (const path of ['/../secret.txt', '/assets/../../secret.txt', '/%2e%2e/secret.txt', '/%2E%2E%2Fsecret.txt', '/assets/%2e%2e/%2e%2e/secret.txt', '/..%5csecret.txt', '/%00/index.html']) {
+      const res = await rawGet(server.port, path);
+      expect(res.status, path).toBeGreaterThanOrEqual(400);
+      expect(res.body, path).not.toContain('outside the site');
+    }
+  });
+
+  it('answers HEAD without a body and refuses other methods', async () => {
+    const head = await rawGet(server.port, '/data/inventory.json', 'HEAD');
+    expect(head.status).toBe(200);
+    expect(head.headers['content-length']).toBe('2');
+    expect(head.body).toBe('');
+    expect((await rawGet(server.port, '/index.html', 'POST')).status).toBe(405);
+  });
+
+  it('fails with PreviewDirMissing when the folder holds no built site', async () => {
+    const err = await startPreviewServer({ dir: join(root, 'no-such-dist'), port: 0 }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(HeathoursError);
+    expect((err as HeathoursError).code).toBe('PreviewDirMissing');
+    expect((err as HeathoursError).hint).toMatch(/heathours build/);
+  });
+
+  it('fails with PreviewPortBusy when the port is taken', async () => {
+    const err = await startPreviewServer({ dir: site, port: server.port }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(HeathoursError);
+    expect((err as HeathoursError).code).toBe('PreviewPortBusy');
+    expect((err as HeathoursError).message).toContain('EADDRINUSE');
+  });
+});
