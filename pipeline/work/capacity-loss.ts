@@ -64,7 +64,8 @@ export function kjellstrom2018LossInto(out: Float32Array, wbgt: Float32Array, in
 export function dunne2013Loss(wbgt: number): number {
   if (wbgt !== wbgt) return NaN;
   if (wbgt <= 25) return 0;
-  const capacityPct = 100 - 25 * Math.pow(wbgt - 25, 2 / 3);
+  const c = Math.cbrt(wbgt - 25); // (WBGT − 25)^(2/3) = cbrt(WBGT − 25)², exact at 33 °C
+  const capacityPct = 100 - 25 * c * c;
   return capacityPct <= 0 ? 1 : 1 - capacityPct / 100;
 }
 

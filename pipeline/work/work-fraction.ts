@@ -12,15 +12,15 @@
  *   (a, b from limit-curves.ts; `10^x` computed as `exp(x·ln 10)`).
  * - Rest at another WBGT (e.g. in shade while working in sun), curve model: the left side minus
  *   the right side, g(f), is increasing and concave in f (log of a linear function), so Newton's
- *   method started at f = 0 climbs monotonically to the root without overshooting; we stop when a
- *   step is below 1e-7.
+ *   method started left of the root (at the same-place fraction) climbs monotonically to it
+ *   without overshooting; we stop when a step is below 1e-7.
  *   A rest place hotter than the work place is not used: WBGT_r is taken as min(WBGT_r, WBGT_w).
  * - 1989 table model: L is piecewise linear in M (limit-curves.ts), so g is piecewise linear in f
  *   and the root is found exactly, segment by segment.
  *
  * "Above the limit" means WBGT_w + CAV > L(M_w); an hour exactly at the limit is not above it and
- * has f = 1. So an hour is above the limit exactly when f < 1. Missing inputs (NaN) give f = NaN
- * and are never "above".
+ * has f = 1. So an hour is above the limit exactly when f < 1 (the reduction may count "above"
+ * from f instead of a second pass). Missing inputs (NaN) give f = NaN and are never "above".
  */
 import { ClothingAdjustmentOutOfRange, MetabolicRateOutOfRange, RestRateNotBelowWork, WorkParameterInvalid } from './errors.ts';
 import { LIMIT_CURVE_2017, LIMIT_MODELS, ACCLIMATIZATION_STATES, limitWbgt, table1989Knots, type LimitChoice } from './limit-curves.ts';
@@ -212,10 +212,13 @@ function fractionCurve(kernel: WorkKernel, w: number, r: number | null): number 
   }
   if (r !== r) return NaN;
   if (r >= kernel.limitRest) return 0;
-  // Newton on g(f) = r + f·(w − r) − a + b·log10(M_r + f·ΔM), increasing and concave; from f = 0.
+  // Newton on g(f) = r + f·(w − r) − a + b·log10(M_r + f·ΔM), increasing and concave. Start at the
+  // same-place fraction f₀ (or 0): there g(f₀) = (1 − f₀)·(r − w) ≤ 0, i.e. left of the root, so
+  // the iterates climb monotonically to it.
   const dw = w - r;
   const base = r - k.intercept;
-  let f = 0;
+  const f0 = (Math.exp(k.c0 - k.c1 * w) - k.restRate) / k.deltaRate;
+  let f = f0 > 0 ? f0 : 0;
   for (let it = 0; it < 40; it++) {
     const m = k.restRate + f * k.deltaRate;
     const g = base + f * dw + (k.slope * Math.log(m)) / LN10;
