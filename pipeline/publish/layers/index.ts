@@ -1,5 +1,6 @@
 /** Map layers of gridded figures: PNG for the web map, GeoTIFF for GIS, legend JSON for the manifest. */
-export { renderLayerPng, type LayerPng } from './render-layer-png.ts';
+export { renderLayerPng, type LayerPng, type LayerPngPart } from './render-layer-png.ts';
+export { antimeridianParts, type RasterPart } from './antimeridian-parts.ts';
 export { writeGeoTiff, type GeoTiffMeta } from './geotiff-write.ts';
 export { writeLayerFiles, type LayerFiles } from './write-layer-files.ts';
 export { mercatorRaster, rasterSize, type MercatorRaster, type RasterOptions, type ImageCorners } from './mercator-raster.ts';

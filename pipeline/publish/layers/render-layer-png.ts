@@ -7,17 +7,38 @@ import type { LayerGridInput } from './layer-grid.ts';
 import type { LegendSpec } from './legend.ts';
 import { mercatorRaster, type ImageCorners, type RasterOptions } from './mercator-raster.ts';
 import { encodePngRgba } from './png-encode.ts';
+import { antimeridianParts } from './antimeridian-parts.ts';
 import { compileStyle, type LayerStyle } from './style.ts';
 
-export interface LayerPng {
+/** One image for a MapLibre `image` source, corners within [-180, 180] ° E. */
+export interface LayerPngPart {
   png: Uint8Array;
-  /** Top-left, top-right, bottom-right, bottom-left cell edges [° E, ° N] (Mercator-clamped). */
+  /** Top-left, top-right, bottom-right, bottom-left [° E, ° N]. */
+  coordinates: ImageCorners;
+  /** [px] */
+  width: number;
+  /** [px] */
+  height: number;
+}
+
+export interface LayerPng {
+  /** The whole layer as one image. */
+  png: Uint8Array;
+  /**
+   * Top-left, top-right, bottom-right, bottom-left cell edges [° E, ° N] (Mercator-clamped); past
+   * 180 when the grid crosses the antimeridian.
+   */
   coordinates: ImageCorners;
   /** [px] */
   width: number;
   /** [px] */
   height: number;
   legend: LegendSpec;
+  /**
+   * What to give MapLibre: one image source per part. One part (the whole image) unless the grid
+   * crosses the antimeridian, then two cut at 180 ° (antimeridian-parts.ts).
+   */
+  parts: LayerPngPart[];
 }
 
 /**
@@ -29,11 +50,12 @@ export interface LayerPng {
 export function renderLayerPng(grid: LayerGridInput, style: LayerStyle, opts: RasterOptions = {}): LayerPng {
   const compiled = compileStyle(style);
   const r = mercatorRaster(grid, compiled, opts);
-  return {
-    png: encodePngRgba(r.rgba, r.width, r.height),
-    coordinates: r.coordinates,
-    width: r.width,
-    height: r.height,
-    legend: compiled.legend,
-  };
+  const png = encodePngRgba(r.rgba, r.width, r.height);
+  const parts = antimeridianParts(r.rgba, r.width, r.height, r.coordinates).map((p) => ({
+    png: p.rgba === r.rgba ? png : encodePngRgba(p.rgba, p.width, p.height),
+    coordinates: p.coordinates,
+    width: p.width,
+    height: p.height,
+  }));
+  return { png, coordinates: r.coordinates, width: r.width, height: r.height, legend: compiled.legend, parts };
 }

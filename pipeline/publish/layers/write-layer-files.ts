@@ -12,8 +12,21 @@ import type { ImageCorners, RasterOptions } from './mercator-raster.ts';
 import { renderLayerPng } from './render-layer-png.ts';
 import type { LayerStyle } from './style.ts';
 
+/** One image for a MapLibre `image` source. */
+export interface MapImageFile {
+  /** Path relative to `dir`. */
+  path: string;
+  sha256: string;
+  /** Top-left, top-right, bottom-right, bottom-left, within [-180, 180] [° E, ° N]. */
+  coordinates: ImageCorners;
+  /** [px] */
+  width: number;
+  /** [px] */
+  height: number;
+}
+
 export interface LayerFiles {
-  /** Paths relative to `dir`. */
+  /** Paths relative to `dir`: the whole layer image and the GeoTIFF. */
   png: string;
   tif: string;
   /** SHA-256 of each file, hex. */
@@ -26,9 +39,17 @@ export interface LayerFiles {
   height: number;
   units: string;
   legend: LegendSpec;
+  /**
+   * The images for the map: `[the whole png]`, or, for a grid across the antimeridian, two files
+   * `<name>.west.png` and `<name>.east.png` cut at 180 °.
+   */
+  mapImages: MapImageFile[];
 }
 
-/** Writes `<dir>/<name>.png` and `<dir>/<name>.tif`; `name` is a plain file stem, no folders. */
+/**
+ * Writes `<dir>/<name>.png` and `<dir>/<name>.tif` (and, across the antimeridian,
+ * `<name>.west.png` and `<name>.east.png`); `name` is a plain file stem, no folders.
+ */
 export async function writeLayerFiles(
   dir: string,
   name: string,
@@ -42,6 +63,12 @@ export async function writeLayerFiles(
   const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
   await writeFileAtomic(join(dir, `${name}.png`), layer.png);
   await writeFileAtomic(join(dir, `${name}.tif`), tif);
+  const mapImages: MapImageFile[] = [];
+  for (const [i, part] of layer.parts.entries()) {
+    const path = layer.parts.length === 1 ? `${name}.png` : `${name}.${i === 0 ? 'west' : 'east'}.png`;
+    if (layer.parts.length > 1) await writeFileAtomic(join(dir, path), part.png);
+    mapImages.push({ path, sha256: sha(part.png), coordinates: part.coordinates, width: part.width, height: part.height });
+  }
   return {
     png: `${name}.png`,
     tif: `${name}.tif`,
@@ -52,5 +79,6 @@ export async function writeLayerFiles(
     height: layer.height,
     units: style.units,
     legend: layer.legend,
+    mapImages,
   };
 }
