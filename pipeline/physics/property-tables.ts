@@ -2,7 +2,7 @@
  * Tables of the wick balance's temperature-only factors, for speed. Each factor of the natural
  * wet-bulb balance that depends on temperature alone is tabulated once per process at 0.25 K
  * steps over 150–400 K with its analytic derivative, and read back by cubic Hermite
- * interpolation (relative error below 1e−9, checked in test/physics/property-tables.test.ts):
+ * interpolation (relative error below 1e−8, checked in test/physics/property-tables.test.ts):
  * - `e_s(T)` [hPa]: Buck 1981 × 1.004 (METHODS.md §1.1);
  * - `Z(T) = (ΔH(T)/RATIO)·(Pr/Sc(T))^0.56` [K] (METHODS.md §3.2.2, §3.2.5; Sc = C·T^−0.834/Ω(T));
  * - `W(T) = (T·Ω(T))^−0.4` [K^−0.4], so that `h_w = C_w·W(T)` (METHODS.md §3.2.3).
