@@ -2,7 +2,7 @@
 export { renderLayerPng, type LayerPng, type LayerPngPart } from './render-layer-png.ts';
 export { antimeridianParts, type RasterPart } from './antimeridian-parts.ts';
 export { writeGeoTiff, type GeoTiffMeta } from './geotiff-write.ts';
-export { writeLayerFiles, type LayerFiles } from './write-layer-files.ts';
+export { writeLayerFiles, type LayerFiles, type MapImageFile } from './write-layer-files.ts';
 export { mercatorRaster, rasterSize, type MercatorRaster, type RasterOptions, type ImageCorners } from './mercator-raster.ts';
 export { compileStyle, type LayerStyle, type ContinuousStyle, type CategoricalStyle, type CategoryClass, type CompiledStyle } from './style.ts';
 export type { LegendSpec, LegendStop } from './legend.ts';
