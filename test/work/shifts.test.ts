@@ -11,11 +11,11 @@ const count = (a: Uint8Array) => a.reduce((s, v) => s + v, 0);
 describe('local hours and work shifts', () => {
   afterEach(() => vi.restoreAllMocks());
 
-  it('local year, month, day, hour and ISO weekday agree with Python zoneinfo for 9 zones, 2016–2019, incl. every DST change (fixtures/zoneinfo-local-hours.csv)', () => {
+  it('local year, month, day, hour and ISO weekday agree with Python zoneinfo for 10 zones, 1940–1975 and 2016–2019, around every offset change (fixtures/zoneinfo-local-hours.csv)', () => {
     const rows = readFixture('zoneinfo-local-hours.csv');
     const byZone = new Map<string, Record<string, string>[]>();
     for (const r of rows) byZone.set(r.zone, [...(byZone.get(r.zone) ?? []), r]);
-    expect(byZone.size).toBe(9);
+    expect(byZone.size).toBe(10);
     for (const [zone, rs] of byZone) {
       const out = localHours(rs.map((r) => Number(r.end_utc_ms)), zone);
       rs.forEach((r, i) => {
@@ -48,6 +48,12 @@ describe('local hours and work shifts', () => {
     const out = localHours(hoursFrom(Date.UTC(2024, 9, 26, 22), 8), 'Europe/Berlin', { start: 1, end: 5, days: ['sun'] });
     expect(Array.from(out.hour)).toEqual([0, 1, 2, 2, 3, 4, 5, 6]);
     expect(count(out.inShift)).toBe(5);
+  });
+
+  it('a change inside an hour (Australia/Lord_Howe, 2024-10-06: +10:30 → +11 at 15:30 UTC, per Python zoneinfo) reads the local end with the new offset: a Sunday 00–03 shift holds 2 hours', () => {
+    const out = localHours(hoursFrom(Date.UTC(2024, 9, 5, 13), 4), 'Australia/Lord_Howe', { start: 0, end: 3, days: ['sun'] });
+    expect(Array.from(out.hour)).toEqual([23, 0, 1, 3]);
+    expect(Array.from(out.inShift)).toEqual([0, 1, 1, 0]);
   });
 
   it('utcOffsetMs gives +1 h and +2 h either side of the Berlin change and +5:30 for Asia/Kolkata', () => {
