@@ -27,8 +27,8 @@ export interface PhysicsPool {
 
 /** Starts `size` workers (default: all cores) sharing `arrays`; resolves once all are ready. */
 export async function startPhysicsPool(arrays: PhysicsArrays, size = availableParallelism()): Promise<PhysicsPool> {
-  const url = new URL('./physics-worker.ts', import.meta.url);
-  const workers = Array.from({ length: size }, () => new Worker(url, { execArgv: ['--import', 'tsx'] }));
+  const url = new URL('./physics-worker-boot.mjs', import.meta.url);
+  const workers = Array.from({ length: size }, () => new Worker(url));
   await Promise.all(
     workers.map(
       (w) =>
