@@ -132,7 +132,7 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
       count = [...count, 1];
     }
     const n = v.shape.length;
-    const out = new Uint8Array(new ArrayBuffer(total * B));
+    const out = new Uint8Array(Buffer.allocUnsafeSlow(total * B).buffer, 0, total * B); // own, aligned, not zero-filled
     if (total === 0) return out;
     if (n === 0) {
       await readAt(fh, path, out, 0, B, L.begin);
@@ -188,7 +188,7 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
         await readAt(fh, path, out, dest, winLen, winStart);
         dest += winLen;
       } else {
-        const win = new Uint8Array(winLen);
+        const win = Buffer.allocUnsafeSlow(winLen);
         await readAt(fh, path, win, 0, winLen, winStart);
         for (let q = r; q <= last; q++) {
           const o = runs[q] - winStart;

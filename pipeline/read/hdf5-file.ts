@@ -5,8 +5,11 @@
  * (`Dataset.slice`), so memory is bounded by what is requested.
  */
 import { open } from 'node:fs/promises';
-import h5wasm from 'h5wasm/node';
 import type { Dataset as H5Dataset, Group as H5Group, File as H5File } from 'h5wasm/node';
+
+/** h5wasm, loaded on first use: its WebAssembly heap costs hundreds of MB of RSS, so classic-only runs never load it. */
+type H5 = typeof import('h5wasm/node').default;
+let h5wasm: H5;
 import { NetcdfFileTruncated, NetcdfNotNetcdf4, NetcdfReadFailed } from './errors.ts';
 import type { AttrValue, RawArray, RawType, SourceDimension, SourceFile, SourceVariable } from './source.ts';
 
@@ -53,7 +56,10 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   const eof = hdf5EndOfFileAddress(head);
   if (eof === null && bytes < 48) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the HDF5 superblock is incomplete' }, { file: path });
   if (eof !== null && bytes < eof) throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
-  ready ??= h5wasm.ready;
+  ready ??= import('h5wasm/node').then(async (m) => {
+    h5wasm = m.default;
+    await h5wasm.ready;
+  });
   await ready;
   let f: H5File;
   try {
