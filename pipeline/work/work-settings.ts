@@ -12,7 +12,7 @@ import { WorkSettingsInvalid } from './errors.ts';
 import { clothingAdjustment, type ClothingChoice } from './clothing.ts';
 import { ACCLIMATIZATION_STATES, LIMIT_MODELS, type Acclimatization, type LimitModelId } from './limit-curves.ts';
 import { DEFAULT_SHIFT, validateShift, type WorkShift } from './shifts.ts';
-import { prepareWorkKernel, type WorkKernel } from './work-fraction.ts';
+import { prepareWorkKernel, workFractionInto, type WorkKernel } from './work-fraction.ts';
 import { selectWorkloadClasses, type RestState, type WorkloadClass, type WorkloadClasses } from './workload-classes.ts';
 
 /** Where the work is done: in the sun (WBGT with solar load) or in the shade. */
@@ -145,4 +145,14 @@ export function resolveWorkSettings(settings: WorkSettings, all: WorkloadClasses
     }
   }
   return { settings, rest: all.rest, classes, clothingAdjustment: cav, shift, evaluations };
+}
+
+/**
+ * Work fraction [0–1] of one evaluation for a block of cell-hours: picks the work WBGT by exposure
+ * (`wbgtSun` or `wbgtShade` [°C]) and the rest WBGT by the rest place, then runs
+ * {@link workFractionInto}. Above the limit ⇔ out[i] < 1. No allocation.
+ */
+export function evaluationFractionInto(out: Float32Array, wbgtSun: Float32Array, wbgtShade: Float32Array, e: WorkEvaluation): Float32Array {
+  const work = e.exposure === 'sun' ? wbgtSun : wbgtShade;
+  return workFractionInto(out, work, e.restWbgt === 'shade' ? wbgtShade : null, e.kernel);
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
-import { parseWorkSettings, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/work-settings.ts';
+import { evaluationFractionInto, parseWorkSettings, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/work-settings.ts';
+import { allowableWorkFraction } from '../../pipeline/work/work-fraction.ts';
 import { DEFAULT_WORKLOAD_CLASSES } from '../../pipeline/work/workload-classes.ts';
 import { expectWorkError } from './helpers.ts';
 
@@ -63,5 +64,17 @@ shift: { start: 6, end: 14, days: [sun, mon, tue, wed, thu] }
     expectWorkError(bad({ shift: { days: ['mon', 'Mo'] } }), 'WorkWeekdayUnknown', /"Mo"/);
     expectWorkError(bad({ clothing: { ensemble: 'chainmail' } }), 'ClothingEnsembleUnknown');
     expectWorkError(bad({ clothing: { cav: 30 } }), 'ClothingAdjustmentOutOfRange');
+  });
+
+  it('evaluationFractionInto uses the sun or shade WBGT by exposure and rests in the shade when asked', () => {
+    const r = resolveWorkSettings(parseWorkSettings({ classes: ['high'], acclimatization: ['acclimatized'], restLocation: 'shade' }), DEFAULT_WORKLOAD_CLASSES);
+    const sun = Float32Array.from([29.5, 31]);
+    const shade = Float32Array.from([26, 27]);
+    const [inSun, inShade] = r.evaluations;
+    const a = evaluationFractionInto(new Float32Array(2), sun, shade, inSun);
+    const b = evaluationFractionInto(new Float32Array(2), sun, shade, inShade);
+    expect(a[0]).toBeCloseTo(0.623, 3); // METHODS.md §5.6: 415 W at 29.5 °C resting at 26 °C
+    expect(a[1]).toBeCloseTo(allowableWorkFraction(31, 27, inSun.kernel), 6);
+    expect(b[0]).toBeCloseTo(allowableWorkFraction(26, null, inShade.kernel), 6);
   });
 });
