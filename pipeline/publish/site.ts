@@ -9,16 +9,16 @@
  * environment variable HEATHOURS_DATA_DIR; this function sets it for the duration of the build, so
  * two builds must not run at once in one process.
  */
-import { cp, mkdtemp, rm } from 'node:fs/promises';
+import { cp, mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { replaceDirAtomic } from '../model/effects.ts';
 import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
-import { SiteBuildFailed, SiteDataMissing } from '../../src/data/errors.ts';
+import { SiteBuildFailed, SiteDataMissing, SiteOutputUnwritable } from '../../src/data/errors.ts';
 
 /** The project root: where astro.config.mjs and src/ live. */
 const PROJECT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -43,11 +43,23 @@ export function checkSiteData(dataDir: string): void {
   loadRegions(dataDir);
 }
 
+/** Checks that `outDir` is a folder (or absent) whose parent exists or can be made. */
+async function checkOutput(outDir: string): Promise<void> {
+  const info = await stat(outDir).catch(() => undefined);
+  if (info && !info.isDirectory()) throw SiteOutputUnwritable({ path: outDir, detail: 'a file, not a folder, is in the way' }, { file: outDir });
+  try {
+    await mkdir(dirname(outDir), { recursive: true });
+  } catch (e) {
+    throw SiteOutputUnwritable({ path: outDir, detail: (e as Error).message }, { file: outDir });
+  }
+}
+
 /** Builds the static site from `dataDir` into `outDir` (see the file comment). */
 export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   const dataDir = resolve(opts.dataDir);
   const outDir = resolve(opts.outDir);
   checkSiteData(dataDir);
+  await checkOutput(outDir);
   const started = Date.now();
   await replaceDirAtomic(outDir, async (tmp) => {
     const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));

@@ -52,3 +52,10 @@ export const PreviewPortBusy = defineError<{ port: number; detail: string }>({
   message: (p) => `127.0.0.1:${p.port}: ${p.detail}`,
   hint: () => 'another program (maybe an earlier preview) uses the port; stop it or pass --port with another number (0 picks a free one)',
 });
+
+export const SiteOutputUnwritable = defineError<{ path: string; detail: string }>({
+  code: 'SiteOutputUnwritable',
+  title: 'The site cannot be written to its output folder',
+  message: (p) => `${p.path}: ${p.detail}`,
+  hint: () => 'pass --out (or `output` in atlas.yaml) with a folder you can write to; a file of the same name must be moved away first',
+});

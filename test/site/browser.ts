@@ -93,6 +93,16 @@ async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> 
   }
 }
 
+/** Removes cached builds of other inputs not used for a day, so test-artifacts/ does not grow without end. */
+async function pruneOldBuilds(keep: string): Promise<void> {
+  const dayAgo = Date.now() - 86_400_000;
+  for (const entry of readdirSync(BUILDS_DIR, { withFileTypes: true })) {
+    if (!entry.isDirectory() || entry.name === keep || entry.name.endsWith('.lock')) continue;
+    const path = join(BUILDS_DIR, entry.name);
+    if (statSync(path).mtimeMs < dayAgo) await rm(path, { recursive: true, force: true });
+  }
+}
+
 /** What {@link buildTestSite} did: where the site is, and whether it was built now or reused. */
 export interface TestSiteBuild {
   distDir: string;
@@ -111,6 +121,7 @@ export async function buildTestSite(dataDir: string = FIXTURE_DATA_DIR): Promise
   await mkdir(BUILDS_DIR, { recursive: true });
   return withLock(join(BUILDS_DIR, `${digest}.lock`), async () => {
     if (existsSync(join(distDir, 'index.html'))) return { distDir, reused: true, buildMs: 0 };
+    await pruneOldBuilds(digest);
     const t0 = Date.now();
     await run(process.execPath, ['--import', 'tsx', join(PROJECT_ROOT, 'test/site/build-site-child.ts'), dataDir, distDir], {
       cwd: PROJECT_ROOT,

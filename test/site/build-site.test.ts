@@ -94,6 +94,19 @@ describe('buildSite rejects a bad data folder before building', () => {
   });
 });
 
+describe('buildSite refuses an output path it cannot write', () => {
+  it('fails with SiteOutputUnwritable when a file stands where the output folder should be', async () => {
+    const blocker = join(work, 'blocker');
+    await writeFile(blocker, 'a file');
+    for (const out of [blocker, join(blocker, 'dist')]) {
+      const err = await buildSite({ dataDir, outDir: out, quiet: true }).catch((e: unknown) => e);
+      expect(err).toBeInstanceOf(HeathoursError);
+      expect((err as HeathoursError).code).toBe('SiteOutputUnwritable');
+    }
+    expect(await readFile(blocker, 'utf8')).toBe('a file');
+  });
+});
+
 describe('the typed accessors of src/data', () => {
   it('read the fixture: the inventory as written, and the regions sorted by name with their HTML-looking name intact', () => {
     const inv = loadInventory(FIXTURE_DATA_DIR);

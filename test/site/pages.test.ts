@@ -240,6 +240,27 @@ describe('safety of the built pages', () => {
     await page.close();
   });
 
+  it('loads MapLibre only on the page with a map', () => {
+    const homeHtml = readFileSync(join(build.distDir, 'index.html'), 'utf8');
+    const inventoryHtml = readFileSync(join(build.distDir, 'inventory/index.html'), 'utf8');
+    expect(homeHtml).not.toMatch(/<script\b/);
+    expect(inventoryHtml.match(/<script\b/g)).toHaveLength(1);
+  });
+
+  it('prints without the navigation and the map controls (print style)', async () => {
+    const page = inventoryPage.page;
+    await page.emulateMedia({ media: 'print' });
+    try {
+      expect(await page.isVisible('.site-header nav')).toBe(false);
+      expect(await page.isVisible('.maplibregl-ctrl-zoom-in')).toBe(false);
+      expect(await page.isVisible('#variables')).toBe(true);
+      expect(await page.isVisible('.site-footer .cautions-short')).toBe(true);
+      await screenshot(page, 'inventory-print');
+    } finally {
+      await page.emulateMedia({ media: 'screen' });
+    }
+  });
+
   it('publishes the data folder under data/ and nothing of the build machinery', () => {
     expect(readFileSync(join(build.distDir, 'data/inventory.json'), 'utf8')).toBe(readFileSync(join(FIXTURE_DATA_DIR, 'data/inventory.json'), 'utf8'));
     expect(readFileSync(join(build.distDir, 'data/regions.geojson'), 'utf8')).toBe(readFileSync(join(FIXTURE_DATA_DIR, 'data/regions.geojson'), 'utf8'));

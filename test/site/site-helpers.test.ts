@@ -1,7 +1,7 @@
 /** Pure helpers of the site: number formatting, grid geometry, the CSP string, colour blending. */
 import { describe, expect, it } from 'vitest';
 import { formatBytes, formatCount, formatFixed, formatLat, formatLon, formatUtc, formatValue } from '../../src/lib/format.ts';
-import { gridCellLines, gridEdges, gridExtentPolygon, MAX_DRAWN_CELLS } from '../../src/components/map/grid-geometry.ts';
+import { gridCellLines, gridEdges, gridExtentPolygon, gridMapEdges, MAP_LAT_LIMIT, MAX_DRAWN_CELLS } from '../../src/components/map/grid-geometry.ts';
 import { CONTENT_SECURITY_POLICY, CONTENT_SECURITY_POLICY_HEADER } from '../../src/lib/content-security-policy.ts';
 import { blendOver } from '../../src/components/map/map-colours.ts';
 import { parseShownNumber } from './browser.ts';
@@ -45,6 +45,16 @@ describe('grid geometry', () => {
   it('puts the outer edges half a step beyond the outermost cell centres', () => {
     expect(gridEdges(grid)).toEqual([59.75, 9.75, 64.25, 14.25]);
     expect(gridExtentPolygon(grid).geometry.coordinates[0]).toHaveLength(5);
+  });
+
+  it('caps a global grid at ±90° for its edges and at the Web Mercator limit for drawing (MapLibre refuses |lat| > 90)', () => {
+    // ERA5's global 0.25° grid: 721 rows of centres from −90° to 90°, 1440 columns from 0° E.
+    const global = { latMin: -90, latMax: 90, lonMin: 0, lonMax: 359.75, nLat: 721, nLon: 1440, dLat: 0.25, dLon: 0.25, landCells: 0 };
+    expect(gridEdges(global)).toEqual([-0.125, -90, 359.875, 90]);
+    expect(gridMapEdges(global)).toEqual([-0.125, -MAP_LAT_LIMIT, 359.875, MAP_LAT_LIMIT]);
+    for (const [, lat] of gridExtentPolygon(global).geometry.coordinates[0]) expect(Math.abs(lat)).toBeLessThanOrEqual(MAP_LAT_LIMIT);
+    const tall = { ...global, nLon: 10, lonMax: 2.25 };
+    for (const f of gridCellLines(tall).features) for (const [, lat] of f.geometry.coordinates) expect(Math.abs(lat)).toBeLessThanOrEqual(MAP_LAT_LIMIT);
   });
 
   it('draws nLon + 1 meridians and nLat + 1 parallels, and none for a grid above MAX_DRAWN_CELLS', () => {

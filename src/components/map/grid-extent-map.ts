@@ -12,7 +12,7 @@ import * as maplibregl from 'maplibre-gl';
 import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { GRID_FILL_OPACITY, MAP_COLOURS, cssRgb } from './map-colours.ts';
-import { gridCellLines, gridEdges, gridExtentPolygon, type GridSpec } from './grid-geometry.ts';
+import { gridCellLines, gridExtentPolygon, gridMapEdges, type GridSpec } from './grid-geometry.ts';
 
 maplibregl.setWorkerUrl(workerUrl);
 
@@ -38,7 +38,7 @@ function baseStyle(): maplibregl.StyleSpecification {
 async function startMap(container: HTMLElement): Promise<void> {
   container.dataset.mapState = 'loading';
   const grid = JSON.parse(container.dataset.grid ?? 'null') as GridSpec;
-  const [w, s, e, n] = gridEdges(grid);
+  const [w, s, e, n] = gridMapEdges(grid);
   const map = new maplibregl.Map({
     container,
     style: baseStyle(),
