@@ -3,6 +3,7 @@
  * errors (a misspelt key must not be silently ignored). Paths are relative to the config file.
  */
 import { z } from 'zod';
+import { workSettingsSchema } from '../work/work-settings.ts';
 
 const year = z.number().int().min(1940).max(2100);
 const yearRange = z
@@ -44,6 +45,8 @@ export const atlasSchema = z
     regions: z.string().min(1),
     /** Output folder of the built site, relative to the config file. */
     output: z.string().default('../dist'),
+    /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
+    work: workSettingsSchema,
   })
   .strict()
   .superRefine((c, ctx) => {

@@ -1,0 +1,216 @@
+/**
+ * The per-shard accumulator: integer counts per land cell of one tile and one (local) year,
+ * filled block by block from hourly WBGT in sun and shade and air temperature. Pure: arrays in,
+ * counts out; the orchestration (pipeline/run) reads the blocks and runs the physics.
+ */
+import {
+  aboveLimitInto,
+  workFractionInto,
+  kjellstrom2018LossInto,
+  dunne2013LossInto,
+  type LocalHours,
+  type WorkEvaluation,
+} from '../work/index.ts';
+import { CENTI, HIST_LEN, HOURS, LOSS_VIEWS, MILLI, MONTHS, N_EXPOSURES, N_LOSS, histIndex } from './layout.ts';
+
+/** Counts of one shard (tile × year). Per-cell arrays are cell-major, see layout.ts. */
+export interface ShardPartial {
+  /** Local calendar year of the shard. */
+  year: number;
+  /** Global cell indices (row-major in the dataset grid) of the land cells counted, ascending. */
+  cells: Int32Array;
+  /** Evaluation keys, in index order (`class.acclimatization.exposure`). */
+  evalKeys: string[];
+  /** Hours of each local month of the year that the data cover [h], per month. */
+  coveredHours: Uint32Array;
+  /** Hours of each local month of the year [h] (what a complete year holds), per month. */
+  expectedHours: Uint32Array;
+  /** Per cell × month: hours with a valid WBGT in sun and in shade [h]. */
+  validHours: Uint32Array;
+  /** Per cell × month: valid hours inside the work shift [h]. */
+  shiftHours: Uint32Array;
+  /** Per cell × month × evaluation: hours above the limit, all hours [h]. */
+  aboveAll: Uint32Array;
+  /** Per cell × month × evaluation: hours above the limit inside the shift [h]. */
+  aboveShift: Uint32Array;
+  /** Per cell × month × evaluation: hours lost to rest inside the shift [milli-h]. */
+  lostShift: Uint32Array;
+  /** Per cell × month × exposure × loss view: capacity-loss hours inside the shift [milli-h]. */
+  capacityLoss: Uint32Array;
+  /** Per cell × month × exposure: sum of hourly WBGT [centi-°C], integer-valued. */
+  wbgtSum: Float64Array;
+  /** Per cell × month × exposure: highest hourly WBGT [centi-°C]; −32768 when none. */
+  wbgtMax: Int16Array;
+  /** Per cell × month: sum of hourly air temperature [centi-°C] and hours counted [h]. */
+  airSum: Float64Array;
+  airHours: Uint32Array;
+  /** Per cell × month × local hour × exposure × bin: hours in each WBGT bin [h] (layout.ts HIST_EDGES). */
+  histogram: Uint16Array;
+  /** Per cell: hours whose WBGT solve failed (NaN) or whose inputs were rejected [h]. */
+  failedHours: Uint32Array;
+}
+
+/** An empty partial for `cells` of one year. */
+export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[]): ShardPartial {
+  const nc = cells.length;
+  const nE = evaluations.length;
+  const cm = nc * MONTHS;
+  return {
+    year,
+    cells,
+    evalKeys: evaluations.map((e) => e.key),
+    coveredHours: new Uint32Array(MONTHS),
+    expectedHours: expectedMonthHours(year),
+    validHours: new Uint32Array(cm),
+    shiftHours: new Uint32Array(cm),
+    aboveAll: new Uint32Array(cm * nE),
+    aboveShift: new Uint32Array(cm * nE),
+    lostShift: new Uint32Array(cm * nE),
+    capacityLoss: new Uint32Array(cm * N_EXPOSURES * N_LOSS),
+    wbgtSum: new Float64Array(cm * N_EXPOSURES),
+    wbgtMax: new Int16Array(cm * N_EXPOSURES).fill(-32768),
+    airSum: new Float64Array(cm),
+    airHours: new Uint32Array(cm),
+    histogram: new Uint16Array(cm * HOURS * N_EXPOSURES * HIST_LEN),
+    failedHours: new Uint32Array(nc),
+  };
+}
+
+/**
+ * Hours in each month of a year [h]: days × 24 (local clock; a daylight-saving day's 23 or 25
+ * hours are not distinguished, as the completeness rule works in whole days).
+ */
+export function expectedMonthHours(year: number): Uint32Array {
+  const out = new Uint32Array(MONTHS);
+  for (let m = 0; m < MONTHS; m++) out[m] = 24 * new Date(Date.UTC(year, m + 1, 0)).getUTCDate();
+  return out;
+}
+
+/** One block of hourly values for the shard's cells, time-major: `x[t * nCells + c]`. */
+export interface ReduceBlock {
+  nHours: number;
+  /** WBGT in the sun [°C]; NaN where not computed. */
+  wbgtSun: Float32Array;
+  /** WBGT in the shade [°C]; NaN where not computed. */
+  wbgtShade: Float32Array;
+  /** Air temperature [°C]. */
+  airTemperature: Float32Array;
+  /** Local calendar of each hour (pipeline/work/shifts.ts), length ≥ nHours. */
+  local: LocalHours;
+}
+
+/** Scratch arrays reused across blocks (no allocation in the hot path). */
+export interface ReduceScratch {
+  fraction: Float32Array;
+  above: Uint8Array;
+  loss: Float32Array;
+}
+
+export function createScratch(n: number): ReduceScratch {
+  return { fraction: new Float32Array(n), above: new Uint8Array(n), loss: new Float32Array(n) };
+}
+
+/**
+ * Adds one block into the partial. Hours whose local year is not the partial's year are skipped
+ * (blocks may straddle the new year in local time).
+ * @param evaluations The same list (and order) the partial was created with
+ */
+export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
+  const nc = p.cells.length;
+  const nt = block.nHours;
+  const n = nt * nc;
+  if (scratch.fraction.length < n) throw new RangeError(`scratch holds ${scratch.fraction.length} values, block needs ${n}`);
+  const { wbgtSun, wbgtShade, airTemperature, local } = block;
+  const nE = evaluations.length;
+  const fraction = scratch.fraction.subarray(0, n);
+  const above = scratch.above.subarray(0, n);
+  const loss = scratch.loss.subarray(0, n);
+
+  // Hour-level bookkeeping: which hours belong to this year, their month, shift flag.
+  const inYear = new Uint8Array(nt);
+  for (let t = 0; t < nt; t++) {
+    if (local.year[t] === p.year) {
+      inYear[t] = 1;
+      p.coveredHours[local.month[t] - 1]++;
+    }
+  }
+
+  // Per-evaluation counts: one vectorised work-fraction pass per evaluation.
+  for (let e = 0; e < nE; e++) {
+    const ev = evaluations[e];
+    const work = ev.exposure === 'sun' ? wbgtSun : wbgtShade;
+    const rest = ev.restWbgt === 'shade' ? wbgtShade : null;
+    aboveLimitInto(above, work, ev.kernel);
+    workFractionInto(fraction, work, rest, ev.kernel);
+    for (let t = 0; t < nt; t++) {
+      if (inYear[t] === 0) continue;
+      const m = local.month[t] - 1;
+      const shift = local.inShift[t];
+      const row = t * nc;
+      for (let c = 0; c < nc; c++) {
+        const i = row + c;
+        if (above[i] === 0) continue;
+        const k = (c * MONTHS + m) * nE + e;
+        p.aboveAll[k]++;
+        if (shift === 1) {
+          p.aboveShift[k]++;
+          p.lostShift[k] += Math.round((1 - fraction[i]) * MILLI);
+        }
+      }
+    }
+  }
+
+  // Capacity-loss views, inside the shift only, per exposure.
+  for (let x = 0; x < N_EXPOSURES; x++) {
+    const wbgt = x === 0 ? wbgtSun : wbgtShade;
+    for (let l = 0; l < N_LOSS; l++) {
+      const view = LOSS_VIEWS[l];
+      if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity);
+      else dunne2013LossInto(loss, wbgt);
+      for (let t = 0; t < nt; t++) {
+        if (inYear[t] === 0 || local.inShift[t] === 0) continue;
+        const m = local.month[t] - 1;
+        const row = t * nc;
+        for (let c = 0; c < nc; c++) {
+          const v = loss[row + c];
+          if (v > 0) p.capacityLoss[((c * MONTHS + m) * N_EXPOSURES + x) * N_LOSS + l] += Math.round(v * MILLI);
+        }
+      }
+    }
+  }
+
+  // Hour counts, WBGT sums/maxima, air temperature, histograms.
+  for (let t = 0; t < nt; t++) {
+    if (inYear[t] === 0) continue;
+    const m = local.month[t] - 1;
+    const h = local.hour[t];
+    const shift = local.inShift[t];
+    const row = t * nc;
+    for (let c = 0; c < nc; c++) {
+      const i = row + c;
+      const cm = c * MONTHS + m;
+      const ta = airTemperature[i];
+      if (ta === ta) {
+        p.airSum[cm] += Math.round(ta * CENTI);
+        p.airHours[cm]++;
+      }
+      const ws = wbgtSun[i];
+      const wd = wbgtShade[i];
+      if (ws !== ws || wd !== wd) {
+        p.failedHours[c]++;
+        continue;
+      }
+      p.validHours[cm]++;
+      if (shift === 1) p.shiftHours[cm]++;
+      const s = Math.round(ws * CENTI);
+      const d = Math.round(wd * CENTI);
+      p.wbgtSum[cm * 2] += s;
+      p.wbgtSum[cm * 2 + 1] += d;
+      if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
+      if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
+      const hb = ((cm * HOURS + h) * N_EXPOSURES) * HIST_LEN;
+      p.histogram[hb + histIndex(ws)]++;
+      p.histogram[hb + HIST_LEN + histIndex(wd)]++;
+    }
+  }
+}

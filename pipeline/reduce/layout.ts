@@ -1,0 +1,56 @@
+/**
+ * The layout of one shard's partial: which figures are counted per cell and month, in which
+ * order, and the histogram bins. Every count is an integer so that partials merge exactly, in any
+ * order (DESIGN.md §3): hours are whole hours, hours lost are milli-hours, temperature sums are
+ * centi-degrees held in Float64 (exact below 2^53).
+ *
+ * Index order of the per-evaluation arrays: `((cell * 12 + month) * nEval + e)`, with `e` the index
+ * into `ResolvedWork.evaluations` (class × acclimatization × exposure, pipeline/work/work-settings.ts).
+ */
+import { WBGT_BIN_EDGES, type KjellstromIntensity } from '../work/index.ts';
+
+/** Months per year; month index 0 = January (local time of the atlas). */
+export const MONTHS = 12;
+/** Local hours of the day. */
+export const HOURS = 24;
+/** Exposures counted in every partial: 0 = sun, 1 = shade. */
+export const EXPOSURE_INDEX = { sun: 0, shade: 1 } as const;
+export const N_EXPOSURES = 2;
+
+/** Milli-hours per hour: hours lost are counted in these integer units. */
+export const MILLI = 1000;
+/** Centi-degrees per degree: temperature sums and maxima are counted in these. */
+export const CENTI = 100;
+
+/**
+ * The capacity-loss views counted per exposure (METHODS.md §6): Kjellstrom et al. 2018 at 200,
+ * 300 and 400 W, and Dunne et al. 2013 (heavy work). Order of the loss index `l`.
+ */
+export const LOSS_VIEWS: ReadonlyArray<{ id: string; label: string; intensity?: KjellstromIntensity }> = [
+  { id: 'kjellstrom-200w', label: 'Capacity loss, Kjellstrom et al. 2018, 200 W', intensity: 200 },
+  { id: 'kjellstrom-300w', label: 'Capacity loss, Kjellstrom et al. 2018, 300 W', intensity: 300 },
+  { id: 'kjellstrom-400w', label: 'Capacity loss, Kjellstrom et al. 2018, 400 W', intensity: 400 },
+  { id: 'dunne-heavy', label: 'Capacity loss, Dunne et al. 2013, heavy work' },
+];
+export const N_LOSS = LOSS_VIEWS.length;
+
+/**
+ * Histogram bins of the partials: every other edge of the work model's 0.25 °C layout
+ * (pipeline/work/wbgt-bins.ts), i.e. 0.5 °C bins from 5 to 45 °C plus the two open end bins.
+ * 0.5 °C keeps the partials and the published calculator tiles small; the estimate stays within
+ * the 1 %-of-hours budget (test/reduce/histogram.test.ts).
+ */
+export const HIST_EDGES: Float64Array = WBGT_BIN_EDGES.filter((_, i) => i % 2 === 0);
+/** Length of one histogram: closed bins + two open bins. */
+export const HIST_LEN = HIST_EDGES.length + 1;
+const HIST_LOWER = HIST_EDGES[0];
+const HIST_UPPER = HIST_EDGES[HIST_EDGES.length - 1];
+const HIST_INV_WIDTH = 1 / (HIST_EDGES[1] - HIST_EDGES[0]);
+
+/** Histogram index of a WBGT value [°C]: 0 below 5 °C, HIST_LEN − 1 at or above 45 °C, −1 for NaN. */
+export function histIndex(wbgt: number): number {
+  if (wbgt !== wbgt) return -1;
+  if (wbgt < HIST_LOWER) return 0;
+  if (wbgt >= HIST_UPPER) return HIST_LEN - 1;
+  return 1 + Math.floor((wbgt - HIST_LOWER) * HIST_INV_WIDTH);
+}

@@ -1,0 +1,107 @@
+/**
+ * Merging shard partials. Partials of different tiles of one year hold disjoint cells and are
+ * scattered into one year-wide set of counts over all land cells; partials of the same cells and
+ * year (e.g. split by time) are added. Counts are integers, so any order gives identical results.
+ */
+import type { ShardPartial } from './accumulator.ts';
+import { MONTHS } from './layout.ts';
+import { PartialsIncomplete, PartialsInconsistent } from './errors.ts';
+
+/** Per-cell array fields of a partial and their values per cell. */
+const PER_CELL_FIELDS = [
+  'validHours',
+  'shiftHours',
+  'aboveAll',
+  'aboveShift',
+  'lostShift',
+  'capacityLoss',
+  'wbgtSum',
+  'airSum',
+  'airHours',
+  'histogram',
+  'failedHours',
+] as const;
+type SummedField = (typeof PER_CELL_FIELDS)[number];
+
+/** Counts of one year over all land cells, in the order of `cells`. */
+export type YearCounts = ShardPartial;
+
+/**
+ * Merges the partials of one year into counts over `cells` (all land cells, ascending global
+ * indices). Every cell must be covered; a cell covered twice is added (time split) only when
+ * `allowOverlap`, else it is an error naming the shards.
+ */
+export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], allowOverlap = false): YearCounts {
+  if (partials.length === 0) throw PartialsIncomplete({ detail: `no partial for year ${year}` });
+  const first = partials[0];
+  const pos = new Map<number, number>();
+  cells.forEach((c, i) => pos.set(c, i));
+  const out = emptyLike(first, year, cells);
+  const seen = new Int32Array(cells.length).fill(-1);
+  partials.forEach((p, pi) => {
+    if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
+    if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
+      throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
+    }
+    for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], p.coveredHours[m]);
+    for (let j = 0; j < p.cells.length; j++) {
+      const at = pos.get(p.cells[j]);
+      if (at === undefined) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
+      if (seen[at] >= 0 && !allowOverlap) {
+        throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[at]] ?? seen[at]} and ${names[pi] ?? pi}` });
+      }
+      seen[at] = pi;
+      for (const f of PER_CELL_FIELDS) addCell(out, p, f, at, j);
+      const w = per(p, 'wbgtMax');
+      for (let k = 0; k < w; k++) {
+        const v = p.wbgtMax[j * w + k];
+        if (v > out.wbgtMax[at * w + k]) out.wbgtMax[at * w + k] = v;
+      }
+    }
+  });
+  const missing: number[] = [];
+  seen.forEach((s, i) => {
+    if (s < 0) missing.push(cells[i]);
+  });
+  if (missing.length) {
+    throw PartialsIncomplete({ detail: `year ${year}: ${missing.length} land cell(s) in no partial (first: ${missing.slice(0, 5).join(', ')})` });
+  }
+  return out;
+}
+
+function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {
+  return p[f].length / p.cells.length;
+}
+
+function addCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {
+  const w = per(p, f);
+  const src = p[f];
+  const dst = out[f];
+  const s0 = j * w;
+  const d0 = at * w;
+  for (let k = 0; k < w; k++) dst[d0 + k] += src[s0 + k];
+}
+
+function emptyLike(p: ShardPartial, year: number, cells: Int32Array): ShardPartial {
+  const n = cells.length;
+  const make = <T extends { length: number }>(a: T, ctor: new (len: number) => T): T => new ctor((a.length / p.cells.length) * n);
+  return {
+    year,
+    cells,
+    evalKeys: [...p.evalKeys],
+    coveredHours: new Uint32Array(MONTHS),
+    expectedHours: Uint32Array.from(p.expectedHours),
+    validHours: make(p.validHours, Uint32Array),
+    shiftHours: make(p.shiftHours, Uint32Array),
+    aboveAll: make(p.aboveAll, Uint32Array),
+    aboveShift: make(p.aboveShift, Uint32Array),
+    lostShift: make(p.lostShift, Uint32Array),
+    capacityLoss: make(p.capacityLoss, Uint32Array),
+    wbgtSum: make(p.wbgtSum, Float64Array),
+    wbgtMax: make(p.wbgtMax, Int16Array).fill(-32768),
+    airSum: make(p.airSum, Float64Array),
+    airHours: make(p.airHours, Uint32Array),
+    histogram: make(p.histogram, Uint16Array),
+    failedHours: make(p.failedHours, Uint32Array),
+  };
+}
