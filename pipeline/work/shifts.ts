@@ -17,7 +17,7 @@
  * - Default shift: 07:00–17:00, Monday to Saturday (our choice: a daytime shift with six working
  *   days, a common pattern on building sites in hot countries — common practice).
  */
-import { WorkShiftInvalid, WorkWeekdayUnknown } from './errors.ts';
+import { WorkParameterInvalid, WorkShiftInvalid, WorkWeekdayUnknown } from './errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 import { zoneOffsets } from './time-zone.ts';
 
@@ -105,6 +105,10 @@ const DAY_MS = 86_400_000;
 /** As {@link localHours}, writing into `out` (arrays of at least endTimesUtc.length). */
 export function localHoursInto(out: LocalHours, endTimesUtc: ArrayLike<number>, timeZone: string, shift: WorkShift = DEFAULT_SHIFT): LocalHours {
   const zone = zoneOffsets(timeZone);
+  const n = endTimesUtc.length;
+  for (const [name, a] of Object.entries(out) as [string, ArrayLike<number>][]) {
+    if (a.length < n) throw WorkParameterInvalid({ name: `out.${name} length`, value: String(a.length), expected: `at least ${n} (one per hour)` });
+  }
   const dayMask = shiftDayMask(shift);
   const night = shift.end < shift.start;
   const startMs = shift.start * HOUR_MS;
@@ -112,7 +116,6 @@ export function localHoursInto(out: LocalHours, endTimesUtc: ArrayLike<number>, 
   let segFrom = Infinity;
   let segTo = -Infinity;
   let offset = 0;
-  const n = endTimesUtc.length;
   for (let i = 0; i < n; i++) {
     const te = endTimesUtc[i];
     const ts = te - HOUR_MS;

@@ -28,6 +28,8 @@ import { MAX_METABOLIC_RATE_W } from './workload-classes.ts';
 import { MAX_CAV } from './clothing.ts';
 
 const LN10 = Math.LN10;
+/** Largest float32 below 1 (1 − 2⁻²⁴): an hour above the limit never stores f = 1 in a Float32Array. */
+const F32_BELOW_ONE = 1 - 2 ** -24;
 
 /** What a work-fraction evaluation needs besides the WBGT. */
 export interface WorkFractionParams {
@@ -148,7 +150,8 @@ export function isAboveLimit(wbgtWork: number, kernel: WorkKernel): boolean {
 /**
  * Array kernel: `out[i]` = allowable work fraction [0–1] for `wbgtWork[i]` [°C] with rest at
  * `wbgtRest[i]` [°C] (or in the same place when `wbgtRest` is null), for i < out.length.
- * No allocation. NaN in → NaN out.
+ * No allocation. NaN in → NaN out. An hour above the limit stores at most 1 − 2⁻²⁴, so
+ * `out[i] < 1` ⇔ above the limit holds in Float32 too.
  */
 export function workFractionInto(out: Float32Array, wbgtWork: Float32Array, wbgtRest: Float32Array | null, kernel: WorkKernel): Float32Array {
   const n = out.length;
@@ -165,15 +168,15 @@ export function workFractionInto(out: Float32Array, wbgtWork: Float32Array, wbgt
       else if (w !== w) out[i] = NaN;
       else {
         const f = (Math.exp(c0 - c1 * w) - restRate) * inv;
-        out[i] = f > 0 ? f : 0;
+        out[i] = f <= 0 ? 0 : f < F32_BELOW_ONE ? f : F32_BELOW_ONE;
       }
     }
     return out;
   }
-  if (kernel.curve) {
-    for (let i = 0; i < n; i++) out[i] = fractionCurve(kernel, wbgtWork[i] + cav, wbgtRest![i] + cav);
-  } else {
-    for (let i = 0; i < n; i++) out[i] = fractionTable(kernel, wbgtWork[i] + cav, wbgtRest === null ? null : wbgtRest[i] + cav);
+  for (let i = 0; i < n; i++) {
+    const w = wbgtWork[i] + cav;
+    const f = kernel.curve ? fractionCurve(kernel, w, wbgtRest![i] + cav) : fractionTable(kernel, w, wbgtRest === null ? null : wbgtRest[i] + cav);
+    out[i] = f < F32_BELOW_ONE || f === 1 || f !== f ? f : F32_BELOW_ONE;
   }
   return out;
 }

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { DEFAULT_SHIFT, localHours, validateShift, type WorkShift } from '../../pipeline/work/shifts.ts';
+import { DEFAULT_SHIFT, allocLocalHours, localHours, localHoursInto, validateShift, type WorkShift } from '../../pipeline/work/shifts.ts';
 import { checkTimeZone, utcOffsetMs } from '../../pipeline/work/time-zone.ts';
 import { expectWorkError, readFixture } from './helpers.ts';
 
@@ -115,6 +115,10 @@ describe('local hours and work shifts', () => {
       expect(err.where.key).toBe('work.shift');
     });
   }
+
+  it('output arrays shorter than the input are a WorkParameterInvalid error', () => {
+    expectWorkError(() => localHoursInto(allocLocalHours(3), hoursFrom(0, 4), 'UTC'), 'WorkParameterInvalid', /out\.year length is 3/);
+  });
 
   it('an unknown time zone is a WorkTimeZoneUnknown error', () => {
     expectWorkError(() => checkTimeZone('Mars/Olympus_Mons'), 'WorkTimeZoneUnknown', /"Mars\/Olympus_Mons"/);

@@ -154,6 +154,26 @@ describe('allowable work fraction', () => {
     }
   });
 
+  it('in Float32 output too, out[i] < 1 exactly when the hour is above the limit, even one float step above it', () => {
+    for (const model of ['curve-2017', 'table-1989'] as const) {
+      for (const rest of [null, Float32Array.from([20, 20, 20])]) {
+        const k = prepareWorkKernel({ workRate: 300, restRate: 115, limit: { model, acclimatization: 'acclimatized' } });
+        const at = Math.fround(k.limitWork);
+        const up = new Float32Array(Float64Array.from([at]));
+        const bits = new Uint32Array(up.buffer);
+        const above = Float32Array.from([at, 0, 0]);
+        bits[0] += 1;
+        above[1] = up[0];
+        bits[0] += 1;
+        above[2] = up[0];
+        const out = workFractionInto(new Float32Array(3), above, rest, k);
+        const flags = aboveLimitInto(new Uint8Array(3), above, k);
+        for (let i = 0; i < 3; i++) expect(out[i] < 1, `${model} ${i}`).toBe(flags[i] === 1);
+        expect(flags[2]).toBe(1);
+      }
+    }
+  });
+
   it('missing WBGT (NaN) gives f = NaN and is not above the limit', () => {
     const k = heavy('acclimatized');
     expect(allowableWorkFraction(Number.NaN, null, k)).toBeNaN();
