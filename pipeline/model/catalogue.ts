@@ -8,3 +8,4 @@ import '../climate/errors.ts';
 import '../../src/data/errors.ts';
 import '../regions/errors.ts';
 import '../physics/errors.ts';
+import '../demo/errors.ts';

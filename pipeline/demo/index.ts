@@ -1,0 +1,134 @@
+/**
+ * The demo dataset: invented hourly ERA5-style NetCDF files for the invented territory
+ * (pipeline/demo/territory.ts), in the legacy NetCDF-3 layout, the NetCDF-4 layout, or mixed
+ * (legacy up to {@link MIXED_LAST_LEGACY_YEAR}, NetCDF-4 after).
+ *
+ * Files in `outDir`: `era5-demo-<year>.nc` (one per year, every time-varying variable) and
+ * `era5-demo-lsm.nc` (the invariant land-sea mask, one time step). A year's file depends only on
+ * (seed, year, grid, layout) and, in NetCDF-4, on whether it is the last year asked for (its
+ * last three months are then marked preliminary). Asking for a new year writes only that year;
+ * the mask file is rewritten only when its bytes would change.
+ */
+import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from '../physics/solar-position.ts';
+import { startProgress } from '../model/progress.ts';
+import { makeCellClimate } from './cell-climate.ts';
+import { DemoGridInvalid, DemoLayoutUnknown, DemoOutputUnwritable, DemoSeedInvalid, DemoYearOutOfRange } from './errors.ts';
+import { writeLegacyLandSeaMask, writeLegacyYear } from './legacy-layout.ts';
+import { h5wasmReady } from './netcdf4-writer.ts';
+import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask, writeNetcdf4Year } from './netcdf4-layout.ts';
+import { DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
+import { yearHours } from './weather.ts';
+
+export type DemoLayout = 'legacy' | 'netcdf4' | 'mixed';
+export const DEMO_LAYOUTS: readonly DemoLayout[] = ['legacy', 'netcdf4', 'mixed'];
+/** In the mixed layout, years up to this one are legacy, later ones NetCDF-4 [year]. */
+export const MIXED_LAST_LEGACY_YEAR = 2022;
+/** Seed used when none is given [–]. */
+export const DEFAULT_SEED = 7;
+/** First and last year the demo can generate [year] (the solar-position formulas' range). */
+export const DEMO_FIRST_YEAR = SOLAR_FIRST_YEAR;
+export const DEMO_LAST_YEAR = SOLAR_LAST_YEAR;
+/** Name of the invariant land-sea mask file. */
+export const LSM_FILE = 'era5-demo-lsm.nc';
+
+/** File name of a year's data. */
+export function yearFileName(year: number): string {
+  return `era5-demo-${year}.nc`;
+}
+
+/** The layout a year is written in. */
+export function layoutOfYear(layout: DemoLayout, year: number): 'legacy' | 'netcdf4' {
+  if (layout === 'mixed') return year <= MIXED_LAST_LEGACY_YEAR ? 'legacy' : 'netcdf4';
+  return layout;
+}
+
+function resolveGrid(grid: { nLat: number; nLon: number; resolution: number } | 'small' | 'default' | undefined): GridSpec {
+  if (grid === undefined || grid === 'default') return DEFAULT_GRID;
+  if (grid === 'small') return SMALL_GRID;
+  if (typeof grid === 'object' && grid !== null) {
+    const { nLat, nLon, resolution } = grid;
+    if (Number.isInteger(nLat) && Number.isInteger(nLon) && nLat >= 1 && nLon >= 1 && nLat * nLon <= 1_000_000 && resolution > 0 && resolution <= 5)
+      return { nLat, nLon, resolution };
+  }
+  throw DemoGridInvalid({ grid: JSON.stringify(grid) }, { key: 'grid' });
+}
+
+/** Fails early, before any data is generated, when `dir` cannot be created or written. */
+function checkWritable(dir: string): void {
+  try {
+    mkdirSync(dir, { recursive: true });
+    if (!statSync(dir).isDirectory()) throw new Error('not a folder');
+    const probe = join(dir, `.heathours-write-check.${process.pid}.tmp`);
+    writeFileSync(probe, '');
+    rmSync(probe, { force: true });
+  } catch (e) {
+    throw DemoOutputUnwritable({ dir, reason: (e as NodeJS.ErrnoException).code ?? (e as Error).message }, { file: dir });
+  }
+}
+
+/**
+ * Writes the invented demo dataset. Each file is written atomically (temporary name, then rename).
+ * @returns `files`: the files written; `unchanged`: files that already held the same bytes.
+ */
+export async function writeDemoDataset(opts: {
+  outDir: string;
+  years: number[];
+  layout: 'legacy' | 'netcdf4' | 'mixed';
+  grid?: { nLat: number; nLon: number; resolution: number } | 'small' | 'default';
+  seed?: number;
+  quiet?: boolean;
+}): Promise<{ files: string[]; unchanged: string[] }> {
+  const layout = opts.layout;
+  if (!DEMO_LAYOUTS.includes(layout)) throw DemoLayoutUnknown({ layout: String(layout) }, { key: 'layout' });
+  const seed = opts.seed ?? DEFAULT_SEED;
+  if (!Number.isInteger(seed) || seed < 0 || seed > 2147483647) throw DemoSeedInvalid({ seed: String(seed) }, { key: 'seed' });
+  const years = [...new Set(opts.years)].sort((a, b) => a - b);
+  if (years.length === 0) throw DemoYearOutOfRange({ year: NaN, first: DEMO_FIRST_YEAR, last: DEMO_LAST_YEAR }, { key: 'years' });
+  for (const y of years)
+    if (!Number.isInteger(y) || y < DEMO_FIRST_YEAR || y > DEMO_LAST_YEAR) throw DemoYearOutOfRange({ year: y, first: DEMO_FIRST_YEAR, last: DEMO_LAST_YEAR }, { key: 'years' });
+  const spec = resolveGrid(opts.grid);
+  checkWritable(opts.outDir);
+
+  const cc = makeCellClimate(placeGrid(spec));
+  const lastYear = years[years.length - 1];
+  const preliminaryFromMs = Date.UTC(lastYear, 12 - PRELIMINARY_MONTHS, 1) + 3_600_000;
+  if (layout !== 'legacy') await h5wasmReady();
+
+  const total = years.reduce((s, y) => s + yearHours(y).nHours * (layoutOfYear(layout, y) === 'legacy' ? 2 : 1), 0);
+  const progress = startProgress('demo-data', total, { quiet: opts.quiet });
+  const files: string[] = [];
+  const unchanged: string[] = [];
+  try {
+    // The invariant mask: written beside the years, replaced only if its bytes would change.
+    const lsmPath = join(opts.outDir, LSM_FILE);
+    const lsmNew = join(opts.outDir, `.${LSM_FILE}.${process.pid}.new`);
+    const lsmLayout = layout === 'netcdf4' ? 'netcdf4' : 'legacy';
+    try {
+      if (lsmLayout === 'legacy') writeLegacyLandSeaMask(lsmNew, cc, seed);
+      else writeNetcdf4LandSeaMask(lsmNew, cc, seed);
+      if (existsSync(lsmPath) && readFileSync(lsmPath).equals(readFileSync(lsmNew))) {
+        unchanged.push(lsmPath);
+      } else {
+        renameSync(lsmNew, lsmPath);
+        files.push(lsmPath);
+      }
+    } finally {
+      rmSync(lsmNew, { force: true });
+    }
+    for (const year of years) {
+      const path = join(opts.outDir, yearFileName(year));
+      const tick = (h: number) => progress.tick(h);
+      if (layoutOfYear(layout, year) === 'legacy') writeLegacyYear(path, cc, seed, year, tick);
+      else writeNetcdf4Year(path, cc, seed, year, year === lastYear ? preliminaryFromMs : Infinity, tick);
+      files.push(path);
+    }
+  } finally {
+    progress.done();
+  }
+  return { files, unchanged };
+}
+
+export { DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';
+export type { GridSpec } from './territory.ts';
