@@ -13,7 +13,8 @@
  * - Rest at another WBGT (e.g. in shade while working in sun), curve model: the left side minus
  *   the right side, g(f), is increasing and concave in f (log of a linear function), so Newton's
  *   method started left of the root (at the same-place fraction) climbs monotonically to it
- *   without overshooting; we stop when a step is below 1e-7.
+ *   without overshooting; we stop when a step is below 1e-5: with quadratic convergence the error
+ *   left is about 1e-10 (measured against a run to 1e-15), far below Float32 resolution.
  *   A rest place hotter than the work place is not used: WBGT_r is taken as min(WBGT_r, WBGT_w).
  * - 1989 table model: L is piecewise linear in M (limit-curves.ts), so g is piecewise linear in f
  *   and the root is found exactly, segment by segment.
@@ -228,7 +229,7 @@ function fractionCurve(kernel: WorkKernel, w: number, r: number | null): number 
     const dg = dw + k.dLogCoef / m;
     const step = -g / dg;
     f += step;
-    if (step < 1e-7) break;
+    if (step < 1e-5) break;
   }
   return f < 0 ? 0 : f > 1 ? 1 : f;
 }
