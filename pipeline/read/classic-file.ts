@@ -8,7 +8,7 @@ import { open, type FileHandle } from 'node:fs/promises';
 import { NetCDFReader } from 'netcdfjs';
 import { NetcdfFileTruncated, NetcdfHeaderInvalid, NetcdfReadFailed } from './errors.ts';
 import type { NetcdfFormat } from './format.ts';
-import { product, rawTypeBytes, type AttrValue, type RawArray, type RawType, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
+import { denseStrides, product, rawTypeBytes, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
 
 interface NcjsAttribute { name: string; type: string; value: number | string | number[] }
 interface NcjsVariable { name: string; dimensions: number[]; attributes: NcjsAttribute[]; type: string; size: number; offset: number; record: boolean }
@@ -26,6 +26,8 @@ interface ClassicLayout {
 const MAX_WINDOW = 16 << 20;
 /** Largest unused gap a window may span between two runs [bytes]. */
 const MAX_GAP = 64 << 10;
+/** A shared window is read when the wanted bytes are at least this share of it [1]. */
+const MIN_USE = 1 / 8;
 
 /** Opens a classic or 64-bit-offset file whose size [bytes] and format are already known. */
 export async function openClassicFile(path: string, format: NetcdfFormat, bytes: number): Promise<SourceFile> {
@@ -206,6 +208,91 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     return bigEndianToNative(raw, v.type);
   }
 
+  /** File strides [bytes] of each dimension of `v` (record stride for the record dimension). */
+  function fileStrides(v: SourceVariable, L: ClassicLayout): number[] {
+    const n = v.shape.length;
+    const stride = new Array<number>(n);
+    let s = L.valueBytes;
+    for (let k = n - 1; k >= 0; k--) {
+      stride[k] = s;
+      s *= v.shape[k];
+    }
+    if (L.record && n > 0) stride[0] = recordSize;
+    return stride;
+  }
+
+  // One window buffer per file, reused by every readSlabs call (no per-block allocation).
+  let win: Buffer | null = null;
+  const windowOf = (n: number): Buffer => {
+    if (!win || win.length < n) win = Buffer.allocUnsafeSlow(Math.max(n, win ? Math.ceil(win.length * 1.5) : 0));
+    return win;
+  };
+
+  /**
+   * Reads the requests in windows of whole dim-0 slices (records): one byte range per window
+   * for all requests whose dim-0 steps agree (the variables of a record interleave per record),
+   * decoded by the caller straight from the big-endian bytes.
+   */
+  async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
+    const g = reqs.map(({ v, start, count }) => {
+      const L = layouts.get(v);
+      if (!L) throw new Error(`variable ${v.name} is not in ${path}`);
+      const st = fileStrides(v, L);
+      let lo = L.begin;
+      let inner = L.valueBytes;
+      for (let k = 0; k < st.length; k++) {
+        lo += start[k] * st[k];
+        if (k > 0) inner += (count[k] - 1) * st[k];
+      }
+      const n0 = st.length > 0 ? count[0] : 1;
+      const wanted = (st.length > 0 ? product(count.slice(1)) : 1) * L.valueBytes;
+      return { v, L, st, lo, inner, n0, s0: st.length > 0 ? st[0] : 0, wanted, total: product(count) };
+    });
+    // Requests that step alike along dim 0 share windows (record variables of the same hours).
+    const byStep = new Map<string, typeof g>();
+    for (const x of g) {
+      const key = `${x.n0}|${x.s0}`;
+      const list = byStep.get(key);
+      if (list) list.push(x);
+      else byStep.set(key, [x]);
+    }
+    const groups = [...byStep.values()];
+    for (const grp of groups) {
+      const n0 = grp[0].n0;
+      const s0 = grp[0].s0;
+      if (grp.some((x) => x.total === 0)) continue;
+      const lo = Math.min(...grp.map((x) => x.lo));
+      const hi1 = Math.max(...grp.map((x) => x.lo + x.inner)); // end of the first slice's span
+      const wanted = grp.reduce((s, x) => s + x.wanted, 0);
+      const perSlice = n0 > 1 ? Math.max(s0, hi1 - lo) : hi1 - lo;
+      if (wanted < MIN_USE * perSlice && perSlice > MAX_GAP) {
+        // Sparse selection (a small tile of a large grid): gather runs, then native values.
+        if (grp.length > 1) {
+          for (const x of grp) await readSlabs([{ v: x.v, start: reqs[g.indexOf(x)].start, count: reqs[g.indexOf(x)].count }], (_i, slab, from, n) => sink(g.indexOf(x), slab, from, n));
+          continue;
+        }
+        const x = grp[0];
+        const r = reqs[g.indexOf(x)];
+        const data = await read(x.v, r.start, r.count);
+        sink(g.indexOf(x), { data, view: null, type: x.v.type, base: 0, strides: denseStrides(r.count) }, 0, n0);
+        continue;
+      }
+      const k = s0 > 0 ? Math.max(1, Math.min(n0, Math.floor(MAX_WINDOW / s0))) : n0;
+      for (let j = 0; j < n0; j += k) {
+        const kk = Math.min(k, n0 - j);
+        const winLo = lo + j * s0;
+        const winLen = hi1 + (j + kk - 1) * s0 - winLo;
+        const buf = windowOf(winLen);
+        await readAt(fh, path, buf, 0, winLen, winLo);
+        const bytes = new Uint8Array(buf.buffer, buf.byteOffset, winLen);
+        const view = new DataView(buf.buffer, buf.byteOffset, winLen);
+        for (const x of grp) {
+          sink(g.indexOf(x), { data: bytes, view, type: x.v.type, base: x.lo + j * s0 - winLo, strides: x.st }, j, kk);
+        }
+      }
+    }
+  }
+
   return {
     path,
     format,
@@ -214,6 +301,7 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     variables,
     globalAttrs,
     read,
+    readSlabs,
     async readNumbers(v) {
       const raw = await read(v, v.shape.map(() => 0), v.shape);
       return Float64Array.from(raw as ArrayLike<number>);

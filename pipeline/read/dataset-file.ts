@@ -78,18 +78,21 @@ function findAxisVar(sf: SourceFile, kind: 'lat' | 'lon' | 'time'): SourceVariab
   return cands.find((v) => v.dims[0] === v.name) ?? cands[0];
 }
 
-/** Opens and analyses one file of a dataset. Closes the file again when it throws. */
-export async function analyseFile(path: string): Promise<AnalysedFile> {
+/**
+ * Opens and analyses one file of a dataset (`digest`: hash its bytes, default true). Closes the
+ * file again when it throws.
+ */
+export async function analyseFile(path: string, opts: { digest?: boolean } = {}): Promise<AnalysedFile> {
   const sf = await openSourceFile(path);
   try {
-    return await analyse(sf);
+    return await analyse(sf, opts.digest ?? true);
   } catch (e) {
     await sf.close();
     throw e;
   }
 }
 
-async function analyse(sf: SourceFile): Promise<AnalysedFile> {
+async function analyse(sf: SourceFile, digest: boolean): Promise<AnalysedFile> {
   const file = sf.path;
   const latVar = findAxisVar(sf, 'lat');
   const lonVar = findAxisVar(sf, 'lon');
@@ -177,7 +180,7 @@ async function analyse(sf: SourceFile): Promise<AnalysedFile> {
   const info: InventoryFile = {
     name: basename(file),
     bytes: sf.bytes,
-    sha256: await sha256File(file),
+    sha256: digest ? await sha256File(file) : '',
     format: sf.format,
     layout: detectLayout(sf),
     timeStart: times && times.length > 0 ? isoSeconds(times[0]) : '',

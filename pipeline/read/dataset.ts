@@ -5,7 +5,8 @@
  * canonical fields (pipeline/model/fields.ts). Memory is bounded by the block, not the files.
  */
 import { isoSeconds } from './cf-time.ts';
-import { decodeRun } from './decode.ts';
+import { decodeSlab, type SlabLayout } from './decode.ts';
+import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
 import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfGridMismatch, NetcdfNoFiles } from './errors.ts';
@@ -30,6 +31,16 @@ export interface OpenDatasetOptions {
   landSeaMask?: { variable: string; threshold: number };
   /** Canonical fields that must be present; default {@link REQUIRED_FIELDS}. */
   require?: CanonicalName[];
+  /**
+   * SHA-256 of every file (`DatasetFileInfo.sha256`); default true. Workers that reopen a
+   * dataset the main process has already hashed pass false (`sha256` is then '').
+   */
+  digests?: boolean;
+  /**
+   * `readBlock` returns fields in buffers owned by the dataset and reused by the next
+   * `readBlock` call (no per-block allocation); default false (fresh arrays each block).
+   */
+  reuseBlockBuffers?: boolean;
 }
 
 /** What the WBGT physics needs at least. */
@@ -75,7 +86,7 @@ export async function openDataset(paths: string[], opts: OpenDatasetOptions): Pr
   if (paths.length === 0) throw NetcdfNoFiles({});
   const files: AnalysedFile[] = [];
   try {
-    for (const p of paths) files.push(await analyseFile(p));
+    for (const p of paths) files.push(await analyseFile(p, { digest: opts.digests ?? true }));
     return await assemble(files, opts);
   } catch (e) {
     for (const f of files) await f.sf.close();
@@ -119,7 +130,7 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
   }
 
   const era5Land = opts.product === 'era5-land';
-  const ds = new DatasetReader(files, axis, grid, era5Land);
+  const ds = new DatasetReader(files, axis, grid, era5Land, opts.reuseBlockBuffers ?? false);
   // Units against values: the first hour of every variable of every file (units.ts).
   for (const f of files) {
     for (const fv of f.vars.values()) {
@@ -227,96 +238,140 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
   return dataset;
 }
 
-/** Reads and decodes blocks; holds no data between calls. */
+/** One decoding job: time indices of one file variable into an output array. */
+interface Job {
+  f: AnalysedFile;
+  fv: FileVariable;
+  /** First time index in the file, or -1 for the static field. */
+  tStart: number;
+  nt: number;
+  out: Float32Array;
+  /** Hour slot of `out` the job starts at. */
+  slot: number;
+}
+
+/**
+ * Reads and decodes blocks. Holds no data between calls except reused buffers: scratch arrays
+ * (u/v, accumulations) always, and the returned fields too with `reuseBlockBuffers`.
+ */
 class DatasetReader {
+  private readonly pool = new Map<string, Float32Array>();
+
   constructor(
     private readonly files: AnalysedFile[],
     private readonly axis: HourAxis,
     private readonly grid: HorizontalGrid,
     private readonly era5Land: boolean,
+    private readonly reuseOutput: boolean,
   ) {}
+
+  /** A buffer of `n` values: pooled (reused, contents undefined) or fresh. */
+  private buffer(name: string, n: number, pooled: boolean): Float32Array {
+    if (!pooled) return new Float32Array(n);
+    let b = this.pool.get(name);
+    if (!b || b.length < n) {
+      b = new Float32Array(Math.max(n, b ? Math.ceil(b.length * 1.25) : 0));
+      this.pool.set(name, b);
+    }
+    return b.subarray(0, n);
+  }
 
   /** One whole field (time index `t` of the file, or the static field) in canonical order. */
   async decodeWholeField(f: AnalysedFile, fv: FileVariable, t: number): Promise<Float32Array> {
     const ny = this.grid.lat.length;
     const nx = this.grid.lon.length;
     const out = new Float32Array(ny * nx);
-    await this.readRun(f, fv, fv.tDim >= 0 ? t : -1, 1, { y0: 0, y1: ny, x0: 0, x1: nx }, out, 0);
+    await this.runJobs([{ f, fv, tStart: fv.tDim >= 0 ? t : -1, nt: 1, out, slot: 0 }], { y0: 0, y1: ny, x0: 0, x1: nx });
     return out;
   }
 
   /**
-   * Decodes `nt` consecutive time indices from `tStart` of one file variable (or its static
-   * field when tStart < 0) for `tile` into `out`, hour by hour from hour slot `slot`.
+   * Runs decoding jobs for `tile`: per file, one `readSlabs` call for all of its jobs (a classic
+   * file's record variables then share one byte range per window of records), each piece
+   * decoded straight into the job's output with the row flip and longitude rotation folded in.
    */
-  async readRun(f: AnalysedFile, fv: FileVariable, tStart: number, nt: number, tile: Tile, out: Float32Array, slot: number): Promise<void> {
-    const { v } = fv;
-    const nxT = tile.x1 - tile.x0;
+  async runJobs(jobs: Job[], tile: Tile): Promise<void> {
     const cells = tileSize(tile);
-    let rmin = Infinity;
-    let rmax = -Infinity;
-    for (let y = tile.y0; y < tile.y1; y++) {
-      const s = f.lat.source[y];
-      if (s < rmin) rmin = s;
-      if (s > rmax) rmax = s;
+    const byFile = new Map<AnalysedFile, Job[]>();
+    for (const j of jobs) {
+      const list = byFile.get(j.f);
+      if (list) list.push(j);
+      else byFile.set(j.f, [j]);
     }
-    const runs = sourceRuns(f.lon.source, tile.x0, tile.x1);
-    let cmin = Infinity;
-    let cmax = -Infinity;
-    for (const r of runs) {
-      cmin = Math.min(cmin, r.from);
-      cmax = Math.max(cmax, r.from + r.length - 1);
-    }
-    const start = v.shape.map(() => 0);
-    const count = v.shape.map(() => 1);
-    if (fv.tDim >= 0) {
-      start[fv.tDim] = Math.max(0, tStart);
-      count[fv.tDim] = tStart >= 0 ? nt : 1;
-    }
-    const ne = fv.eDim >= 0 ? v.shape[fv.eDim] : 1;
-    if (fv.eDim >= 0) count[fv.eDim] = ne;
-    start[fv.latDim] = rmin;
-    count[fv.latDim] = rmax - rmin + 1;
-    start[fv.lonDim] = cmin;
-    count[fv.lonDim] = cmax - cmin + 1;
-    const raw = await f.sf.read(v, start, count);
-    const strides = new Array<number>(count.length);
-    let s = 1;
-    for (let k = count.length - 1; k >= 0; k--) {
-      strides[k] = s;
-      s *= count[k];
-    }
-    const rowStride = strides[fv.latDim];
-    const tStride = fv.tDim >= 0 ? strides[fv.tDim] : 0;
-    const eStride = fv.eDim >= 0 ? strides[fv.eDim] : 0;
-    const order = fv.eDim >= 0 ? (f.expverOrder ?? Array.from({ length: ne }, (_, i) => i)) : [0];
-    const scratch = order.length > 1 ? new Float32Array(nxT) : null;
-    const p = fv.plan;
-    for (let t = 0; t < nt; t++) {
-      for (let y = 0; y < tile.y1 - tile.y0; y++) {
-        const sr = f.lat.source[tile.y0 + y] - rmin;
-        const dstRow = (slot + t) * cells + y * nxT;
-        for (const r of runs) {
-          const src = t * tStride + sr * rowStride + (r.from - cmin);
-          decodeRun(raw, src + order[0] * eStride, r.length, out, dstRow + r.to, p);
-          if (scratch) {
-            // expver merge: a value missing in the better expver is taken from the next one.
-            for (let q = 1; q < order.length; q++) {
-              decodeRun(raw, src + order[q] * eStride, r.length, scratch, 0, p);
-              for (let i = 0; i < r.length; i++) {
-                const o = dstRow + r.to + i;
-                if (out[o] !== out[o]) out[o] = scratch[i];
-              }
-            }
-          }
+    for (const [f, list] of byFile) {
+      let rmin = Infinity;
+      let rmax = -Infinity;
+      for (let y = tile.y0; y < tile.y1; y++) {
+        const s = f.lat.source[y];
+        if (s < rmin) rmin = s;
+        if (s > rmax) rmax = s;
+      }
+      const runs = sourceRuns(f.lon.source, tile.x0, tile.x1);
+      let cmin = Infinity;
+      let cmax = -Infinity;
+      for (const r of runs) {
+        cmin = Math.min(cmin, r.from);
+        cmax = Math.max(cmax, r.from + r.length - 1);
+      }
+      const reqs: SlabRequest[] = [];
+      const direct: Job[] = [];
+      const slabJobs: Job[] = [];
+      for (const j of list) {
+        const { v } = j.fv;
+        const start = v.shape.map(() => 0);
+        const count = v.shape.map(() => 1);
+        if (j.fv.tDim >= 0) {
+          start[j.fv.tDim] = Math.max(0, j.tStart);
+          count[j.fv.tDim] = j.tStart >= 0 ? j.nt : 1;
         }
+        if (j.fv.eDim >= 0) count[j.fv.eDim] = v.shape[j.fv.eDim];
+        start[j.fv.latDim] = rmin;
+        count[j.fv.latDim] = rmax - rmin + 1;
+        start[j.fv.lonDim] = cmin;
+        count[j.fv.lonDim] = cmax - cmin + 1;
+        // Pieces come along the first dimension: fine when it is time or of length 1.
+        if (j.fv.tDim === 0 || count[0] === 1) {
+          reqs.push({ v, start, count });
+          slabJobs.push(j);
+        } else direct.push(Object.assign(j, { start, count }));
+      }
+      const decodePiece = (j: Job, slab: RawSlab, from: number, n: number, count: number[]) => {
+        const fv = j.fv;
+        const st = slab.strides;
+        const rowStride = st[fv.latDim];
+        const colStride = st[fv.lonDim];
+        const rowOff = new Int32Array(tile.y1 - tile.y0);
+        for (let y = 0; y < rowOff.length; y++) rowOff[y] = (f.lat.source[tile.y0 + y] - rmin) * rowStride;
+        const rr = new Int32Array(runs.length * 2);
+        runs.forEach((r, k) => {
+          rr[2 * k] = (r.from - cmin) * colStride;
+          rr[2 * k + 1] = r.length;
+        });
+        const ne = fv.eDim >= 0 ? fv.v.shape[fv.eDim] : 1;
+        const layout: SlabLayout = {
+          tStride: fv.tDim >= 0 ? st[fv.tDim] : 0,
+          eStride: fv.eDim >= 0 ? st[fv.eDim] : 0,
+          order: fv.eDim >= 0 ? (f.expverOrder ?? Array.from({ length: ne }, (_, i) => i)) : [0],
+          rowOff,
+          runs: rr,
+          colStride,
+        };
+        const nt = fv.tDim === 0 ? n : fv.tDim >= 0 ? count[fv.tDim] : 1;
+        const slot = j.slot + (fv.tDim === 0 ? from : 0);
+        decodeSlab(slab, layout, nt, fv.plan, j.out, slot * cells);
+      };
+      if (reqs.length > 0) await f.sf.readSlabs(reqs, (i, slab, from, n) => decodePiece(slabJobs[i], slab, from, n, reqs[i].count));
+      for (const j of direct as Array<Job & { start: number[]; count: number[] }>) {
+        const data = await f.sf.read(j.fv.v, j.start, j.count);
+        decodePiece(j, { data, view: null, type: j.fv.v.type, base: 0, strides: denseStrides(j.count) }, 0, j.count[0], j.count);
       }
     }
   }
 
-  /** Decodes hours [h0, h0 + n) of one source variable into `out` (hour-major, tile cells). */
-  async readSource(short: Era5Short, h0: number, n: number, tile: Tile, out: Float32Array, slot0: number): Promise<void> {
+  /** Jobs that decode hours [h0, h0 + n) of one source variable into `out` from slot `slot0`. */
+  jobsFor(short: Era5Short, h0: number, n: number, out: Float32Array, slot0: number): Job[] {
     const tab = this.axis.tables.get(short)!;
+    const jobs: Job[] = [];
     let h = h0;
     while (h < h0 + n) {
       const fi = tab.file[h];
@@ -324,9 +379,10 @@ class DatasetReader {
       let e = h + 1;
       while (e < h0 + n && tab.file[e] === fi && tab.index[e] === tab.index[e - 1] + 1) e++;
       const f = this.files[fi];
-      await this.readRun(f, f.vars.get(short)!, i0, e - h, tile, out, slot0 + (h - h0));
+      jobs.push({ f, fv: f.vars.get(short)!, tStart: i0, nt: e - h, out, slot: slot0 + (h - h0) });
       h = e;
     }
+    return jobs;
   }
 
   async readBlock(t0: number, nt: number, tile: Tile, variables: CanonicalName[], landFraction: Float32Array | undefined): Promise<HourlyBlock> {
@@ -340,27 +396,36 @@ class DatasetReader {
     }
     const cells = tileSize(tile);
     const fields: HourlyBlock['fields'] = {};
+    const jobs: Job[] = [];
+    const after: Array<() => void> = [];
     for (const c of variables) {
       if (c === 'landFraction') continue;
-      const shorts = SOURCES[c as TimeField];
-      if (c === 'windSpeed10m') {
-        const u = new Float32Array(nt * cells);
-        const w = new Float32Array(nt * cells);
-        await this.readSource('u10', t0, nt, tile, u, 0);
-        await this.readSource('v10', t0, nt, tile, w, 0);
-        for (let i = 0; i < u.length; i++) u[i] = Math.sqrt(u[i] * u[i] + w[i] * w[i]);
-        fields.windSpeed10m = u;
+      const field = c as TimeField;
+      if (field === 'windSpeed10m') {
+        const u = this.buffer('u10', nt * cells, true);
+        const w = this.buffer('v10', nt * cells, true);
+        jobs.push(...this.jobsFor('u10', t0, nt, u, 0), ...this.jobsFor('v10', t0, nt, w, 0));
+        const out = this.buffer(field, nt * cells, this.reuseOutput);
+        fields.windSpeed10m = out;
+        after.push(() => {
+          for (let i = 0; i < out.length; i++) out[i] = Math.sqrt(u[i] * u[i] + w[i] * w[i]);
+        });
         continue;
       }
-      const short = shorts[0];
+      const short = SOURCES[field][0];
       const fv = this.files[this.axis.tables.get(short)!.file[t0]].vars.get(short)!;
-      if (this.era5Land && fv.conversion.accumulated) fields[c as TimeField] = await this.readDeaccumulated(short, t0, nt, tile);
-      else {
-        const x = new Float32Array(nt * cells);
-        await this.readSource(short, t0, nt, tile, x, 0);
-        fields[c as TimeField] = x;
-      }
+      const out = this.buffer(field, nt * cells, this.reuseOutput);
+      fields[field] = out;
+      if (this.era5Land && fv.conversion.accumulated) {
+        const withPrev = t0 > 0 ? 1 : 0;
+        const acc = this.buffer(`${short}:acc`, (nt + 1) * cells, true);
+        if (!withPrev) acc.fill(NaN, 0, cells);
+        jobs.push(...this.jobsFor(short, t0 - withPrev, nt + withPrev, acc, 1 - withPrev));
+        after.push(() => this.deaccumulate(acc, t0, nt, cells, out));
+      } else jobs.push(...this.jobsFor(short, t0, nt, out, 0));
     }
+    await this.runJobs(jobs, tile);
+    for (const fn of after) fn();
     const lat = this.grid.lat.slice(tile.y0, tile.y1);
     const lon = this.grid.lon.slice(tile.x0, tile.x1);
     const time = new Float64Array(nt);
@@ -380,14 +445,10 @@ class DatasetReader {
    * t holds A(t) − A(t − 1 h), except the hour ending at 01 UTC, which is A(01) itself. Values
    * are already mean fluxes [W m-2] here (÷ 3600 is linear). Small negative differences from
    * packing noise are set to 0 (radiation downwards cannot be negative). The first hour of the
-   * dataset has no predecessor: unless it ends at 01 UTC it is NaN.
+   * dataset has no predecessor: unless it ends at 01 UTC it is NaN. `acc` holds hour slots
+   * t0 − 1 … t0 + nt − 1 (the first NaN when t0 = 0).
    */
-  async readDeaccumulated(short: Era5Short, t0: number, nt: number, tile: Tile): Promise<Float32Array> {
-    const cells = tileSize(tile);
-    const withPrev = t0 > 0 ? 1 : 0;
-    const acc = new Float32Array((nt + 1) * cells).fill(NaN);
-    await this.readSource(short, t0 - withPrev, nt + withPrev, tile, acc, 1 - withPrev);
-    const out = new Float32Array(nt * cells);
+  private deaccumulate(acc: Float32Array, t0: number, nt: number, cells: number, out: Float32Array): void {
     for (let t = 0; t < nt; t++) {
       const hourUtc = new Date(this.axis.start + (t0 + t) * HOUR_MS).getUTCHours();
       const cur = (t + 1) * cells;
@@ -400,7 +461,6 @@ class DatasetReader {
         }
       }
     }
-    return out;
   }
 }
 

@@ -10,15 +10,39 @@ import type { Dataset as H5Dataset, Group as H5Group, File as H5File } from 'h5w
 /** h5wasm, loaded on first use: its WebAssembly heap costs hundreds of MB of RSS, so classic-only runs never load it. */
 type H5 = typeof import('h5wasm/node').default;
 let h5wasm: H5;
+/** The Emscripten module behind h5wasm (its heap and the raw hyperslab reader). */
+interface H5Module {
+  HEAPU8: Uint8Array;
+  _malloc(n: number): number;
+  _free(p: number): void;
+  get_dataset_data(fileId: bigint, path: string, count: bigint[], offset: bigint[], stride: bigint[], ptr: bigint): number;
+}
+let h5module: H5Module;
 import { NetcdfFileTruncated, NetcdfNotNetcdf4, NetcdfReadFailed } from './errors.ts';
-import type { AttrValue, RawArray, RawType, SourceDimension, SourceFile, SourceVariable } from './source.ts';
+import { denseStrides, product, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
 
 /** HDF5 attributes that belong to the NetCDF-4 / dimension-scale machinery, not to the user. */
 const HIDDEN_ATTRS = new Set(['CLASS', 'NAME', 'REFERENCE_LIST', 'DIMENSION_LIST', '_Netcdf4Coordinates', '_Netcdf4Dimid', '_NCProperties', '_nc3_strict']);
 /** NAME of a dimension scale that is a dimension without a coordinate variable (netCDF-C). */
 const PURE_DIMENSION = 'This is a netCDF dimension but not a netCDF variable';
 
-interface H5Metadata { type: number; size: number; signed?: boolean; vlen?: boolean; shape?: number[] | null; maxshape?: number[] | null }
+interface H5Metadata { type: number; size: number; signed?: boolean; vlen?: boolean; littleEndian?: boolean; shape?: number[] | null; maxshape?: number[] | null; chunks?: number[] | null }
+
+/** Typed-array constructor for values read straight from the wasm heap, by raw type. */
+const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => RawArray>> = {
+  byte: Int8Array, ubyte: Uint8Array, short: Int16Array, ushort: Uint16Array, int: Int32Array, uint: Uint32Array, float: Float32Array, double: Float64Array,
+};
+
+/** The last chunk(s) read of a variable along its first dimension, kept for the next block. */
+interface Carry {
+  /** Start and count of the other dimensions, as text. */
+  key: string;
+  /** First-dimension indices [from, to) held. */
+  from: number;
+  to: number;
+  data: RawArray;
+  strides: number[];
+}
 
 let ready: Promise<unknown> | undefined;
 
@@ -59,6 +83,7 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   ready ??= import('h5wasm/node').then(async (m) => {
     h5wasm = m.default;
     await h5wasm.ready;
+    h5module = m.Module as unknown as H5Module;
   });
   await ready;
   let f: H5File;
@@ -178,6 +203,92 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
   const fail = (v: SourceVariable, e: unknown) =>
     NetcdfReadFailed({ path, detail: `variable ${v.name}: ${(e as Error).message ?? e}` }, { file: path, variable: v.name });
 
+  async function read(v: SourceVariable, start: number[], count: number[]): Promise<RawArray> {
+    const ds = dsOf(v);
+    let out: unknown;
+    try {
+      out = v.shape.length === 0 ? ds.value : ds.slice(start.map((s, i) => [s, s + count[i]]));
+    } catch (e) {
+      throw fail(v, e);
+    }
+    if (out instanceof BigInt64Array || out instanceof BigUint64Array) return Float64Array.from(out, (x) => Number(x));
+    if (typeof out === 'number') return Float64Array.of(out);
+    if (typeof out === 'bigint') return Float64Array.of(Number(out));
+    if (ArrayBuffer.isView(out)) return out as RawArray;
+    throw fail(v, new Error(`values of type ${v.type} are not numbers`));
+  }
+
+  // A wasm heap buffer reused by every hyperslab read of this file, and the carried chunks.
+  let heapPtr = 0;
+  let heapBytes = 0;
+  const carry = new Map<SourceVariable, Carry>();
+
+  /**
+   * Reads a hyperslab into the reused heap buffer and returns a view on it (valid until the next
+   * read or allocation in wasm); falls back to `slice` (a copy) for other value types.
+   */
+  function readDirect(v: SourceVariable, off: number[], cnt: number[]): RawArray | null {
+    const ds = dsOf(v);
+    const meta = ds.metadata as unknown as H5Metadata;
+    const View = HEAP_VIEW[v.type];
+    if (!View || meta.vlen || meta.littleEndian === false) return null;
+    const total = product(cnt);
+    const nbytes = total * meta.size;
+    if (heapBytes < nbytes) {
+      if (heapPtr) h5module._free(heapPtr);
+      heapBytes = 0;
+      heapPtr = h5module._malloc(nbytes);
+      if (!heapPtr) throw fail(v, new Error(`could not allocate ${nbytes} bytes`));
+      heapBytes = nbytes;
+    }
+    const ds0 = ds as unknown as { file_id: bigint; path: string };
+    let status: number;
+    try {
+      status = h5module.get_dataset_data(ds0.file_id, ds0.path, cnt.map(BigInt), off.map(BigInt), cnt.map(() => 1n), BigInt(heapPtr));
+    } catch (e) {
+      throw fail(v, e);
+    }
+    if (status < 0) throw fail(v, new Error(`HDF5 read failed (status ${status})`));
+    return new View(h5module.HEAPU8.buffer, heapPtr, total);
+  }
+
+  async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
+    for (let i = 0; i < reqs.length; i++) {
+      const { v, start, count } = reqs[i];
+      if (v.shape.length === 0 || count.some((c) => c === 0)) {
+        if (v.shape.length === 0) sink(i, { data: await read(v, start, count), view: null, type: v.type, base: 0, strides: [] }, 0, 1);
+        continue;
+      }
+      const key = `${start.slice(1).join(',')}|${count.slice(1).join(',')}`;
+      let s0 = start[0];
+      const e0 = start[0] + count[0];
+      let done = 0;
+      const c = carry.get(v);
+      if (c && c.key === key && s0 >= c.from && s0 < c.to) {
+        const upto = Math.min(e0, c.to);
+        sink(i, { data: c.data, view: null, type: v.type, base: (s0 - c.from) * c.strides[0], strides: c.strides }, 0, upto - s0);
+        done = upto - s0;
+        s0 = upto;
+      }
+      if (s0 >= e0) continue;
+      // Whole chunks along the first dimension: each chunk is inflated once per block, and the
+      // last one is kept for the block after (blocks rarely end on a chunk boundary).
+      const meta = dsOf(v).metadata as unknown as H5Metadata;
+      const C = meta.chunks?.[0] ?? 1;
+      const a0 = C > 1 ? Math.floor(s0 / C) * C : s0;
+      const a1 = C > 1 ? Math.min(v.shape[0], Math.ceil(e0 / C) * C) : e0;
+      const off = [a0, ...start.slice(1)];
+      const cnt = [a1 - a0, ...count.slice(1)];
+      const strides = denseStrides(cnt);
+      const data = readDirect(v, off, cnt) ?? (await read(v, off, cnt));
+      sink(i, { data, view: null, type: v.type, base: (s0 - a0) * strides[0], strides }, done, e0 - s0);
+      if (a1 > e0) {
+        const k0 = Math.max(a0, Math.floor((a1 - 1) / C) * C);
+        carry.set(v, { key, from: k0, to: a1, data: data.slice((k0 - a0) * strides[0], (a1 - a0) * strides[0]), strides });
+      } else carry.delete(v);
+    }
+  }
+
   return {
     path,
     format: 'netcdf4',
@@ -185,20 +296,8 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
     dims: [...dimSizes.values()],
     variables,
     globalAttrs,
-    async read(v, start, count) {
-      const ds = dsOf(v);
-      let out: unknown;
-      try {
-        out = v.shape.length === 0 ? ds.value : ds.slice(start.map((s, i) => [s, s + count[i]]));
-      } catch (e) {
-        throw fail(v, e);
-      }
-      if (out instanceof BigInt64Array || out instanceof BigUint64Array) return Float64Array.from(out, (x) => Number(x));
-      if (typeof out === 'number') return Float64Array.of(out);
-      if (typeof out === 'bigint') return Float64Array.of(Number(out));
-      if (ArrayBuffer.isView(out)) return out as RawArray;
-      throw fail(v, new Error(`values of type ${v.type} are not numbers`));
-    },
+    read,
+    readSlabs,
     async readNumbers(v) {
       const raw = await this.read(v, v.shape.map(() => 0), v.shape);
       return raw instanceof Float64Array ? raw : Float64Array.from(raw);
@@ -222,6 +321,10 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
       return [];
     },
     async close() {
+      if (heapPtr) h5module._free(heapPtr);
+      heapPtr = 0;
+      heapBytes = 0;
+      carry.clear();
       f.close();
     },
   };

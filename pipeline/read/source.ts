@@ -14,6 +14,46 @@ export type RawType = 'byte' | 'ubyte' | 'char' | 'short' | 'ushort' | 'int' | '
 /** Raw values of a hyperslab, native byte order, row-major over the requested dims. */
 export type RawArray = Int8Array | Uint8Array | Int16Array | Uint16Array | Int32Array | Uint32Array | Float32Array | Float64Array;
 
+/** One hyperslab wanted by {@link SourceFile.readSlabs}. */
+export interface SlabRequest {
+  v: SourceVariable;
+  start: number[];
+  count: number[];
+}
+
+/**
+ * Raw values of (part of) a hyperslab, without copies: either a native typed array (`view`
+ * null; positions in elements), or big-endian file bytes read through `view` (positions in
+ * bytes). Value at index vector `i` (relative to the piece): `base + Σ i[k] * strides[k]`.
+ */
+export interface RawSlab {
+  data: RawArray;
+  /** Big-endian bytes of a classic file when non-null; `data` is then a Uint8Array. */
+  view: DataView | null;
+  type: RawType;
+  /** Position of the piece's first value [elements, or bytes with `view`]. */
+  base: number;
+  /** Step of each requested dimension [elements, or bytes with `view`]. */
+  strides: number[];
+}
+
+/**
+ * Receives request `i`'s indices [`from`, `from + n`) along its first dimension (relative to
+ * the request's start) as `slab`.
+ */
+export type SlabSink = (i: number, slab: RawSlab, from: number, n: number) => void;
+
+/** Row-major strides [elements] of a dense array of shape `count`. */
+export function denseStrides(count: readonly number[]): number[] {
+  const s = new Array<number>(count.length);
+  let m = 1;
+  for (let k = count.length - 1; k >= 0; k--) {
+    s[k] = m;
+    m *= count[k];
+  }
+  return s;
+}
+
 export interface SourceDimension {
   /** Name, with its group path for NetCDF-4 groups (`grp1/time`); plain in the root group. */
   name: string;
@@ -47,6 +87,13 @@ export interface SourceFile {
    * row-major order. Numeric types only.
    */
   read(v: SourceVariable, start: number[], count: number[]): Promise<RawArray>;
+  /**
+   * Reads several hyperslabs at once and hands each over in pieces along its first requested
+   * dimension, as a view that is only valid during the `sink` call (buffers are reused). Classic
+   * files read one byte range per window of records for all requests together; NetCDF-4 files
+   * read one chunk-aligned hyperslab per request.
+   */
+  readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void>;
   /** Reads a whole variable as numbers (coordinates), int64 included, as Float64Array. */
   readNumbers(v: SourceVariable): Promise<Float64Array>;
   /** Reads a text variable (char or string) as one string per outer index. */
