@@ -28,7 +28,7 @@ function mulberry32(seed: number): () => number {
   };
 }
 
-function makeArrays(): PhysicsArrays {
+export function makeArrays(): PhysicsArrays {
   const nCells = NY * NX;
   const n = NT * nCells;
   const rnd = mulberry32(20240521);

@@ -8,7 +8,9 @@
  * code ({@link STATUS}) and NaN outputs; a solve that does not converge gives NaN and is counted.
  * Dew points above the air temperature are clamped to it and counted.
  */
-import { CellState, prepareCell, solveGlobe, solveWetBulb } from './liljegren-solve.ts';
+import {
+  CellState, prepareCell, solveGlobe, solveWetBulb, globeShadeGuess, globeSunGuess, wetBulbShadeGuess, wetBulbSunGuess,
+} from './liljegren-solve.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
 import { KELVIN } from './constants.ts';
 
@@ -61,7 +63,11 @@ export interface KernelCounts {
   rejected: number;
   notConverged: number;
   dewPointClamped: number;
-  /** Sum of iterations per solve over the cells solved [–]; divide by `solved` for the mean. */
+  /**
+   * Sum of iterations (function evaluations) per solve over the cells solved [–]; divide by
+   * `solved` for the mean per cell-hour. Sun solves are skipped (0 iterations) where the solar
+   * load is zero, since sun then equals shade.
+   */
   iterations: { globeSun: number; wetBulbSun: number; globeShade: number; wetBulbShade: number; psychrometric: number };
   solved: number;
 }
@@ -128,18 +134,25 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
     }
     prepareCell(s, ta, td, P[i], U[i], S[i], FD[i], CZ[i]);
     counts.solved++;
-    const tgSun = solveGlobe(s, true, s.ta);
-    it.globeSun += s.iterations;
-    const tgShade = solveGlobe(s, false, s.ta);
+    // Shade first; the sun solves start one quadratic step off the shade roots, and where there
+    // is no solar load the sun balances are the shade balances (same root, not solved again).
+    const tgShade = solveGlobe(s, false, globeShadeGuess(s));
     it.globeShade += s.iterations;
-    const twShade = solveWetBulb(s, true, false, s.td);
+    let tgSun = tgShade;
+    if (s.qg > 0 && tgShade === tgShade) {
+      tgSun = solveGlobe(s, true, globeSunGuess(s, tgShade));
+      it.globeSun += s.iterations;
+    }
+    const twShade = solveWetBulb(s, true, false, wetBulbShadeGuess(s, true));
     it.wetBulbShade += s.iterations;
-    // The sun root lies above the shade root: start one linear step above it, G_sun = G_shade − Q_w/h_w.
-    const twSun = solveWetBulb(s, true, true, twShade + (s.qw * s.lastInvHw) / s.lastSlope);
-    it.wetBulbSun += s.iterations;
+    let twSun = twShade;
+    if (s.qw > 0 && twShade === twShade) {
+      twSun = solveWetBulb(s, true, true, wetBulbSunGuess(s, twShade));
+      it.wetBulbSun += s.iterations;
+    }
     let tpsy = 0;
     if (psychrometric) {
-      tpsy = solveWetBulb(s, false, false, s.td);
+      tpsy = solveWetBulb(s, false, false, wetBulbShadeGuess(s, false));
       it.psychrometric += s.iterations;
     }
     if (!(tgSun === tgSun) || !(tgShade === tgShade)) code = STATUS.globeNotConverged;

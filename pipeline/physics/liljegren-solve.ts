@@ -3,8 +3,18 @@
  * §3.2.5), solved to the exact root by safeguarded Newton iteration with analytic derivatives.
  *
  * The reference code stops a damped fixed-point loop at a 0.02 K step and so sits up to
- * ~0.015 °C above the root; here the same equations are solved until the Newton step is below
- * {@link ROOT_TOLERANCE_K}, after which the error is of the order of that step squared.
+ * ~0.015 °C above the root; here the same equations are solved until a Newton step is below
+ * {@link ROOT_TOLERANCE_K}. Newton's error after a step δ is about (|f''|/2|f'|)·δ², and
+ * |f''/f'| stays below 0.05 K⁻¹ for both balances over the accepted inputs, so a last step under
+ * 0.01 K leaves under 3e−6 K (test/physics/solver.test.ts checks 1e−5 K against bisection).
+ *
+ * First guesses (so most solves need one or two evaluations): the shade globe from a quadratic
+ * model of its balance at the air temperature (h_g at T_a is computed once per cell and shared);
+ * the sun globe from a quadratic step off the shade root (the two balances differ only by the
+ * solar load); the shade wick from a quadratic model at the dew point (where e_w = e_a, so the
+ * vapour term vanishes and e_s'(T_d) is known from the cell's humidity); the sun wick from a
+ * quadratic step off the shade wick root. Where the solar load is zero, sun equals shade and is
+ * not solved again.
  *
  * Everything that does not change between iterations is computed once per cell in
  * {@link prepareCell}: the air temperature's fourth power, the long-wave and solar loads, and
@@ -16,14 +26,14 @@
  * - `(Pr/Sc)^0.56 = C_s·(T^0.834·Ω)^0.56` (pressure cancels in Sc).
  * A test pins these against the readable forms in `air-properties.ts`.
  */
-import { ES_TABLE, Z_TABLE, W_TABLE, lookup, exact } from './property-tables.ts';
+import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12 } from './property-tables.ts';
 import {
-  STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, M_H2O, PRANDTL, RATIO, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
-  EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, WICK_EXPONENT, MOIST_AIR_FACTOR, KELVIN,
+  STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, PRANDTL, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
+  EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, KELVIN,
   SIGMA_LJ_AIR, EPS_K_AIR, CZA_MIN,
 } from './constants.ts';
 
-/** Newton stops when a step is smaller than this [K]. */
+/** Newton stops when a step is smaller than this [K] (remaining error < 3e−6 K, see above). */
 export const ROOT_TOLERANCE_K = 1e-3;
 /** Largest number of iterations per solve before giving up (NaN, counted) [–]. */
 export const MAX_ITERATIONS = 50;
@@ -33,21 +43,12 @@ const C_MU = (2.6693e-6 * Math.sqrt(M_AIR)) / (SIGMA_LJ_AIR * SIGMA_LJ_AIR);
 const OMEGA_A = 1.048 + (0.034 * 2.9) / 0.4;
 const OMEGA_B = 0.034 / (0.4 * EPS_K_AIR);
 const C_K = CP_AIR + 1.25 * R_AIR;
-/** D_v = K_D·T^2.334/P [m² s⁻¹] with T [K], P [hPa]. */
-const TCRIT = 132 * 647.3;
-const K_D =
-  3.64e-4 * Math.pow(1 / Math.sqrt(TCRIT), 2.334) * Math.pow(36.4 * 218, 1 / 3) * Math.pow(TCRIT, 5 / 12) *
-  Math.sqrt(1 / M_AIR + 1 / M_H2O) * 1013.25 * 1e-4;
-/** Sc = C_SC·T^−0.834/Ω. */
-const C_SC = (C_MU * R_AIR) / (100 * K_D);
-const SC_EXP = 2.334 - 1.5; // 0.834
-/** (Pr/Sc)^a = PR_SC·exp(a·(0.834·ln T + ln Ω)). */
-const PR_SC = Math.pow(PRANDTL / C_SC, WICK_EXPONENT);
 const PR_G = 0.6 * Math.pow(PRANDTL, 0.3333);
 const PR_W = 0.281 * Math.pow(PRANDTL, 0.44);
-const ES_A = 6.1121 * MOIST_AIR_FACTOR;
-const ES_B = 17.502;
-const ES_C = 273.15 - 32.18; // 240.97
+/** cg = CG0·√(u·P): √(u·100P·D_g·C_μ/R_air)·0.6·Pr^0.3333 [SI, see {@link CellState.cg}]. */
+const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
+/** cw = CW0·(u·P)^0.6 = CW0·pow12(√(u·P)): (c_k/D_w)·0.281·Pr^0.44·C_μ^0.4·(100·D_w/R_air)^0.6. */
+const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
 const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
 const EW_SB = EMIS_WICK * SB;
 const CAP = D_WICK / (4 * L_WICK);
@@ -63,8 +64,9 @@ export class CellState {
   td = 0;
   /** Pressure [hPa]. */
   p = 0;
-  /** Vapour pressure of the air [hPa]. */
+  /** Vapour pressure of the air [hPa] and d e_s/dT at the dew point [hPa K⁻¹]. */
   ea = 0;
+  desTd = 0;
   /** Atmospheric emissivity [–]. */
   emisAtm = 0;
   /** ½(ε_a·Ta⁴ + ε_sfc·Tsfc⁴) with Tsfc = Ta [K⁴]. */
@@ -73,15 +75,38 @@ export class CellState {
   qg = 0;
   /** Wick solar gain (1−α_w)S[…] [W m⁻²]. */
   qw = 0;
-  /** √(u·100P·D_g/R_air)·0.6·Pr^0.3333 [–·(kg m⁻¹ s⁻¹ K⁻¹)^−½ absorbed]. */
+  /** √(u·100P·D_g/R_air)·0.6·Pr^0.3333·√C_μ [(kg m⁻¹ s⁻¹)^½ K^¼ absorbed], h_g = (c_k/D_g)(2μ + cg/√(√T·Ω)). */
   cg = 0;
-  /** Wick h factor C_w [W m⁻² K⁻¹ (K)^0.4]. */
+  /** Wick h factor C_w [W m⁻² K⁻¹ (K)^0.4]: h_w = C_w·(T·Ω)^−0.4; and 1/C_w. */
   cw = 0;
-  /** Slope dG/dTw [–] and 1/h_w [m² K W⁻¹] at the last wet-bulb iterate (for a next first guess). */
+  invCw = 0;
+  /** h_g at the film temperature T_a [W m⁻² K⁻¹] and its derivative in the film temperature [W m⁻² K⁻²]. */
+  hg0 = 0;
+  dhg0 = 0;
+  /** Globe: slope dF/dTg [K³] and curvature estimate [K²] at the last iterate (for the sun guess). */
+  globeSlope = 1;
+  globeCurv = 0;
+  /** Wick: slope dG/dTw [–], curvature estimate [K⁻¹], 1/h_w and its derivative at the last iterate. */
   lastSlope = 1;
+  lastCurv = 0;
   lastInvHw = 0;
-  /** Iterations of the last solve [–]. */
+  lastDInvHw = 0;
+  /** Iterations (function evaluations) of the last solve [–]. */
   iterations = 0;
+}
+
+/** Scratch for the globe factors M, M', R, R' (property-tables.ts). */
+const GK = new Float64Array(4);
+
+/**
+ * h_g [W m⁻² K⁻¹] at film temperature t [K] for a cell factor cg, `h_g = M(t) + cg·R(t)` (tables);
+ * also writes dh_g/dt [W m⁻² K⁻²] into GK[1].
+ */
+function globeH(t: number, cg: number): number {
+  const G = GK;
+  if (!lookup2(GLOBE_TABLE, t, G, 0)) exact2(GLOBE_TABLE, t, G, 0);
+  G[1] += cg * G[3];
+  return G[0] + cg * G[2];
 }
 
 /**
@@ -96,34 +121,63 @@ export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u
   s.ta4 = ta2 * ta2;
   s.td = tdC + KELVIN;
   s.p = p;
-  const ea = ES_A * Math.exp((ES_B * tdC) / (tdC + 240.97));
-  s.ea = ea;
-  s.emisAtm = 0.575 * Math.exp(0.143 * Math.log(ea));
+  // e_a = e_s(T_d), e_s'(T_d) and ε_a(T_d) from one table read (property-tables.ts).
+  const L = LK;
+  if (!lookup2(DEW_TABLE, s.td, L, 0)) exact2(DEW_TABLE, s.td, L, 0);
+  s.ea = L[0];
+  s.desTd = L[1];
+  s.emisAtm = L[2];
   s.lrad = 0.5 * (s.emisAtm + EMIS_SFC) * s.ta4;
   let qg = 0;
   let qw = 0;
   if (solar > 0) {
     const fdir = cz >= CZA_MIN ? fdirIn : 0;
-    const beamG = fdir > 0 ? fdir * (1 / (2 * cz) - 1) : 0;
+    const beamG = fdir > 0 ? fdir * (0.5 / cz - 1) : 0;
     qg = ((solar * (1 - ALB_GLOBE)) / (2 * EMIS_GLOBE * SB)) * (beamG + 1 + ALB_SFC);
-    const tanOverPi = fdir > 0 ? Math.sqrt(Math.max(0, 1 - cz * cz)) / cz / Math.PI : 0;
+    const tanOverPi = fdir > 0 ? Math.sqrt(Math.max(0, 1 - cz * cz)) / (cz * Math.PI) : 0;
     qw = (1 - ALB_WICK) * solar * ((1 - fdir) * (1 + CAP) + fdir * (tanOverPi + CAP) + ALB_SFC);
   }
   s.qg = qg;
   s.qw = qw;
-  const u = u2 > MIN_SPEED ? u2 : MIN_SPEED;
-  const kre = (u * 100 * p) / R_AIR;
-  s.cg = PR_G * Math.sqrt(kre * D_GLOBE * C_MU);
-  // h_w = (c_k/D_w)·PR_W·μ·Re^0.6, μ·Re^0.6 = C_MU^0.4·(kre·D_w)^0.6·(T·Ω)^−0.4.
-  s.cw = (C_K / D_WICK) * PR_W * Math.pow(C_MU, 0.4) * Math.pow(kre * D_WICK, 0.6);
+  const up = (u2 > MIN_SPEED ? u2 : MIN_SPEED) * p;
+  const y = Math.sqrt(up);
+  s.cg = CG0 * y;
+  s.cw = CW0 * pow12(y);
+  s.invCw = 1 / s.cw;
+  s.hg0 = globeH(ta, s.cg);
+  s.dhg0 = GK[1];
+}
+
+/**
+ * A quadratic step: the δ solving f + f'·δ + ½f''·δ² = 0 nearest 0 (f' > 0), or the Newton step
+ * when the quadratic has no real root.
+ */
+function quadraticStep(f: number, fp: number, fpp: number): number {
+  const disc = fp * fp - 2 * fpp * f;
+  return disc > 0 ? (-2 * f) / (fp + Math.sqrt(disc)) : -f / fp;
+}
+
+/** First guess for the shade globe [K]: quadratic model of F at Tg = Ta (h_g(Ta) shared). */
+export function globeShadeGuess(s: CellState): number {
+  const ta = s.ta;
+  const a0 = s.hg0 * INV_EG_SB;
+  const fp = 4 * ta * ta * ta + a0;
+  const fpp = 12 * ta * ta + s.dhg0 * INV_EG_SB;
+  return ta + quadraticStep(s.ta4 - s.lrad, fp, fpp);
+}
+
+/** First guess for the sun globe [K] from the shade root `tgShade` [K] (call right after that solve). */
+export function globeSunGuess(s: CellState, tgShade: number): number {
+  return tgShade + quadraticStep(-s.qg, s.globeSlope, s.globeCurv);
 }
 
 /**
  * Globe temperature [K]: the root of
  * `F(Tg) = Tg⁴ − ½(ε_a Ta⁴ + ε_sfc Ta⁴) + h_g(T_ref)/(ε_g σ)·(Tg − Ta) − Q_g`, T_ref = (Tg + Ta)/2
- * (METHODS.md §3.2.4). `withSun` false drops Q_g (shade). Starts from `x0` [K]; NaN if no convergence.
+ * (METHODS.md §3.2.4). `withSun` false drops Q_g (shade). Starts from `x0` [K]; NaN if no
+ * convergence. `tol` [K] is the step below which it stops.
  */
-export function solveGlobe(s: CellState, withSun: boolean, x0: number): number {
+export function solveGlobe(s: CellState, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
   const ta = s.ta;
   const c = s.lrad + (withSun ? s.qg : 0);
   const cg = s.cg;
@@ -131,16 +185,8 @@ export function solveGlobe(s: CellState, withSun: boolean, x0: number): number {
   let lo = -Infinity;
   let hi = Infinity;
   for (let it = 1; it <= MAX_ITERATIONS; it++) {
-    const t = 0.5 * (x + ta);
-    const omega = OMEGA_A - OMEGA_B * t;
-    const sqrtT = Math.sqrt(t);
-    const mu = (C_MU * sqrtT) / omega;
-    // √(μ/T)·√C_MU⁻¹ folded into cg: √(μ/T) = √(C_MU/(√T·Ω)); cg holds √C_MU, so use 1/√(√T·Ω).
-    const r = 1 / Math.sqrt(sqrtT * omega);
-    const hg = (C_K / D_GLOBE) * (2 * mu + cg * r);
-    const dLnMu = 0.5 / t + OMEGA_B / omega;
-    const dLnR = -0.5 * (0.5 / t - OMEGA_B / omega);
-    const dhg = (C_K / D_GLOBE) * (2 * mu * dLnMu + cg * r * dLnR);
+    const hg = globeH(0.5 * (x + ta), cg);
+    const dhg = GK[1];
     const x2 = x * x;
     const dx = x - ta;
     const f = x2 * x2 - c + hg * INV_EG_SB * dx;
@@ -148,14 +194,18 @@ export function solveGlobe(s: CellState, withSun: boolean, x0: number): number {
     if (f < 0) lo = x;
     else hi = x;
     let xn = x - f / fp;
+    let newton = true;
     if (!(fp > 0) || !(xn >= lo && xn <= hi)) {
+      newton = false;
       if (lo > -Infinity && hi < Infinity) xn = 0.5 * (lo + hi);
       else xn = f < 0 ? x + 10 : x - 10;
     }
     const step = xn - x;
     x = xn;
-    if (step < ROOT_TOLERANCE_K && step > -ROOT_TOLERANCE_K) {
+    if (newton && step < tol && step > -tol) {
       s.iterations = it;
+      s.globeSlope = fp;
+      s.globeCurv = 12 * x2 + dhg * INV_EG_SB;
       return x;
     }
   }
@@ -164,19 +214,65 @@ export function solveGlobe(s: CellState, withSun: boolean, x0: number): number {
 }
 
 /**
+ * First guess for the shade natural wet bulb [K] (`radiative` true) or the psychrometric wet
+ * bulb (false): quadratic model of G at Tw = Td, where e_w = e_a, so G(Td) needs no e_s read and
+ * G'(Td), G''(Td) follow from e_s'(Td) (METHODS.md §1.1 derivatives of Buck's form).
+ */
+export function wetBulbShadeGuess(s: CellState, radiative: boolean): number {
+  const x = s.td;
+  const ta = s.ta;
+  const t = 0.5 * (x + ta);
+  const L = LK;
+  if (!lookup2(ZV_TABLE, t, L, 2)) exact2(ZV_TABLE, t, L, 2);
+  const den = s.p - s.ea;
+  if (!(den > 0)) return x;
+  const de = s.desTd;
+  // e_s'' = e_s'·(d ln e_s/dT − 2/(T − 32.18)) for Buck's form.
+  const dde = de * (de / s.ea - 2 / (x - 32.18));
+  const z = L[2];
+  const dq = de / den;
+  const ddq = dde / den + (2 * de * de) / (den * den);
+  let g = x - ta;
+  let gp = 1 + z * dq;
+  let gpp = z * ddq + L[3] * dq;
+  if (radiative) {
+    // 1/h_w = V(T)/C_w, d(1/h_w)/dx = ½·V'(T)/C_w.
+    const invHw = s.invCw * L[4];
+    const dInvHw = 0.5 * s.invCw * L[5];
+    const x2 = x * x;
+    const df = EW_SB * (s.lrad - x2 * x2);
+    const ddf = -4 * EW_SB * x2 * x;
+    g -= df * invHw;
+    gp -= ddf * invHw + df * dInvHw;
+    gpp += 12 * EW_SB * x2 * invHw - 2 * ddf * dInvHw;
+  }
+  if (!(gp > 0)) return x;
+  return x + quadraticStep(g, gp, gpp);
+}
+
+/** First guess for the sun natural wet bulb [K] from the shade root `twShade` [K] (call right after that solve). */
+export function wetBulbSunGuess(s: CellState, twShade: number): number {
+  const qw = s.qw;
+  const gp = s.lastSlope - qw * s.lastDInvHw;
+  return twShade + quadraticStep(-qw * s.lastInvHw, gp > 0 ? gp : s.lastSlope, s.lastCurv);
+}
+
+/**
  * Natural wet-bulb temperature [K] (`radiative` true; METHODS.md §3.2.5), or the psychrometric
  * wet bulb of the model (`radiative` false: no radiation term): the root of
  * `G(Tw) = Tw − Ta + (ΔH/RATIO)·(e_w − e_a)/(P − e_w)·(Pr/Sc)^0.56 − ΔF/h_w`,
  * `ΔF = σ ε_w (½(ε_a Ta⁴ + ε_sfc Ta⁴) − Tw⁴) + Q_w`, properties at T_ref = (Tw + Ta)/2.
- * `withSun` false drops Q_w (shade). Starts from `x0` [K]; NaN if no convergence.
+ * `withSun` false drops Q_w (shade). Starts from `x0` [K]; NaN if no convergence. `tol` [K] is
+ * the step below which it stops.
  */
-export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean, x0: number): number {
+export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
   const ta = s.ta;
   const p = s.p;
   const ea = s.ea;
   const lrad = s.lrad;
   const qw = withSun ? s.qw : 0;
-  const invCw = 1 / s.cw;
+  const invCw = s.invCw;
+  const pea = p - ea;
   const L = LK;
   let x = x0;
   let lo = -Infinity;
@@ -184,27 +280,29 @@ export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean,
   for (let it = 1; it <= MAX_ITERATIONS; it++) {
     const t = 0.5 * (x + ta);
     if (!lookup(ES_TABLE, x, L, 0)) { L[0] = exact.es(x); L[1] = exact.esDeriv(x); }
-    if (!lookup(Z_TABLE, t, L, 2)) { L[2] = exact.z(t); L[3] = exact.zDeriv(t); }
+    if (!lookup2(ZV_TABLE, t, L, 2)) exact2(ZV_TABLE, t, L, 2);
     const ew = L[0];
     const den = p - ew;
     let g: number;
     let gp: number;
+    let invHw = 0;
+    let dInvHw = 0;
+    let dq = 0;
     if (den <= 0) {
       g = Infinity;
       gp = NaN;
     } else {
       const dew = L[1];
-      const q = (ew - ea) / den;
-      const dq = (dew * (p - ea)) / (den * den);
+      const rden = 1 / den;
+      const q = (ew - ea) * rden;
+      dq = dew * pea * rden * rden;
       const z = L[2];
-      const e1 = z * q;
-      g = x - ta + e1;
+      g = x - ta + z * q;
       gp = 1 + 0.5 * L[3] * q + z * dq;
       if (radiative) {
-        if (!lookup(W_TABLE, t, L, 4)) { L[4] = exact.w(t); L[5] = exact.wDeriv(t); }
-        // 1/h_w = 1/(C_w·W(T)); d(1/h_w)/dx = −½·W'/(C_w·W²).
-        const invHw = invCw / L[4];
-        const dInvHw = -0.5 * L[5] * invHw / L[4];
+        // 1/h_w = V(T)/C_w; d(1/h_w)/dx = ½·V'(T)/C_w.
+        invHw = invCw * L[4];
+        dInvHw = 0.5 * invCw * L[5];
         const x2 = x * x;
         const df = EW_SB * (lrad - x2 * x2) + qw;
         const ddf = -4 * EW_SB * x2 * x;
@@ -215,16 +313,22 @@ export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean,
     if (g < 0) lo = x;
     else hi = x;
     let xn = x - g / gp;
+    let newton = true;
     if (!(gp > 0) || !(xn >= lo && xn <= hi)) {
+      newton = false;
       if (lo > -Infinity && hi < Infinity) xn = 0.5 * (lo + hi);
       else xn = g < 0 ? x + 10 : x - 10;
     }
     const step = xn - x;
     x = xn;
-    s.lastSlope = gp;
-    s.lastInvHw = radiative ? invCw / L[4] : 0;
-    if (step < ROOT_TOLERANCE_K && step > -ROOT_TOLERANCE_K) {
+    if (newton && step < tol && step > -tol) {
       s.iterations = it;
+      s.lastSlope = gp;
+      s.lastInvHw = invHw;
+      s.lastDInvHw = dInvHw;
+      // Curvature estimate for the next guess: the vapour term's e_s'' (dominant) and the T⁴ term.
+      const dde = L[1] * (L[1] / L[0] - 2 / (x - 32.18));
+      s.lastCurv = L[2] * ((dde * pea) / (den * den) + (2 * dq * L[1]) / den) + (radiative ? 12 * EW_SB * x * x * invHw : 0);
       return x;
     }
   }

@@ -19,32 +19,34 @@ export function stabilityClass(daytime: boolean, speed: number, solar: number, d
   if (daytime) {
     const j = solar >= 925 ? 0 : solar >= 675 ? 1 : solar >= 175 ? 2 : 3;
     const i = speed < 2 ? 0 : speed < 3 ? 1 : speed < 5 ? 2 : speed < 6 ? 3 : 4;
-    return DAY_TABLE[i][j];
+    return DAY_TABLE[4 * i + j];
   }
   const i = speed < 2 ? 0 : speed < 2.5 ? 1 : 2;
   return deltaT >= 0 ? NIGHT_STABLE[i] : NIGHT_UNSTABLE[i];
 }
 
-const DAY_TABLE = [
-  [1, 1, 2, 4],
-  [1, 2, 3, 4],
-  [2, 2, 3, 4],
-  [3, 3, 4, 4],
-  [3, 4, 4, 4],
-];
-const NIGHT_UNSTABLE = [5, 5, 4];
-const NIGHT_STABLE = [6, 6, 4];
+/** Day classes by wind row (5) × solar column (4), flattened: index 4·row + column. */
+const DAY_TABLE = Uint8Array.of(
+  1, 1, 2, 4,
+  1, 2, 3, 4,
+  2, 2, 3, 4,
+  3, 3, 4, 4,
+  3, 4, 4, 4,
+);
+const NIGHT_UNSTABLE = Uint8Array.of(5, 5, 4);
+const NIGHT_STABLE = Uint8Array.of(6, 6, 4);
 
 /**
- * 2 m wind [m s⁻¹]: `max(u_z·(2/z)^p, 0.13)` with p by class and urban/rural set; at z = 2 m the
+ * 2 m wind [m s⁻¹]: `max(u_z·(2/z)^p, 0.13)` with p by class and urban/rural set (a negative or
+ * NaN speed is passed through for the kernel to reject); at z = 2 m the
  * speed is returned as is (the 0.13 m s⁻¹ floor then applies inside the heat-transfer
  * coefficients). @param speed [m s⁻¹]; @param height [m]; @param stability 1…6; @param urban exponent set
  */
 export function windAt2m(speed: number, height: number, stability: number, urban: boolean): number {
   if (height === REF_HEIGHT) return speed;
   const p = (urban ? WIND_EXPONENT_URBAN : WIND_EXPONENT_RURAL)[stability - 1];
-  const u = speed * Math.pow(REF_HEIGHT / height, p);
-  return u > MIN_SPEED ? u : MIN_SPEED;
+  const u = speed * Math.exp(p * Math.log(REF_HEIGHT / height));
+  return u > MIN_SPEED ? u : u >= 0 ? MIN_SPEED : u;
 }
 
 /** Inputs of the array wind step. */
@@ -71,11 +73,25 @@ export function wind2mStep(inp: WindStepInputs, out: Float32Array | Float64Array
   const dT = inp.deltaT ?? 0;
   const urbanAll = typeof inp.urban === 'boolean' ? inp.urban : undefined;
   const urbanCells = typeof inp.urban === 'boolean' ? undefined : inp.urban;
+  const { windSpeed: W, cosZenith: CZ, solar: S, height } = inp;
+  // (2/z)^p per class and exponent set, hoisted: one multiply per cell instead of a power.
+  // Index (class − 1) + 6·urban. At z = 2 m the speed is kept as is (see windAt2m).
+  const factor = new Float64Array(12);
+  for (let k = 0; k < 6; k++) {
+    factor[k] = Math.exp(WIND_EXPONENT_RURAL[k] * Math.log(REF_HEIGHT / height));
+    factor[6 + k] = Math.exp(WIND_EXPONENT_URBAN[k] * Math.log(REF_HEIGHT / height));
+  }
+  const atRef = height === REF_HEIGHT;
   for (let i = 0; i < n; i++) {
-    const u = inp.windSpeed[i];
-    const cls = stabilityClass(inp.cosZenith[i] > 0, u, inp.solar[i], dT);
+    const u = W[i];
+    const cls = stabilityClass(CZ[i] > 0, u, S[i], dT);
     const urban = urbanAll ?? (urbanCells![i % nCells] !== 0);
-    out[i] = windAt2m(u, inp.height, cls, urban);
+    if (atRef) out[i] = u;
+    else {
+      const v = u * factor[cls - 1 + (urban ? 6 : 0)];
+      // Floor at 0.13 m/s; a negative or NaN speed passes through so the kernel rejects it.
+      out[i] = v > MIN_SPEED ? v : v >= 0 ? MIN_SPEED : v;
+    }
     if (stabilityOut) stabilityOut[i] = cls;
   }
 }
