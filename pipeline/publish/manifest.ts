@@ -1,0 +1,72 @@
+/**
+ * `data/manifest.json`: what this build is (atlas, inputs with digests, years, code version,
+ * configuration digest, build time) and every artefact it published with its path, kind, units
+ * and digest. The site and users read it to find and trust the files.
+ */
+import { createHash } from 'node:crypto';
+import { readFile, readdir, stat } from 'node:fs/promises';
+import { join, relative } from 'node:path';
+import type { InventoryFile } from './inventory-types.ts';
+import type { LayerEntry } from './atlas-layers.ts';
+
+export interface ArtefactEntry {
+  /** Path relative to the site root, e.g. `data/regions/north-coast.csv`. */
+  path: string;
+  kind: 'table' | 'layer-png' | 'layer-geotiff' | 'json' | 'geojson' | 'histogram';
+  units?: string;
+  description: string;
+  bytes: number;
+  sha256: string;
+}
+
+export interface Manifest {
+  manifestVersion: 1;
+  atlas: { id: string; title: string; invented: boolean; attribution?: string };
+  buildTime: string;
+  codeVersion: string;
+  configDigest: string;
+  inputs: InventoryFile[];
+  years: [number, number];
+  baseline: [number, number];
+  latestYear: number;
+  timeZone: string;
+  work: unknown;
+  figures: Array<{ id: string; label: string; units: string; combos: string[] }>;
+  statistics: Record<string, string>;
+  counts: Record<string, number>;
+  layers: LayerEntry[];
+  artefacts: ArtefactEntry[];
+}
+
+export const STATISTIC_RULES: Record<string, string> = {
+  mean: 'mean over the baseline years that count (completeness: at most 240 missing hours per month or year, at least 80 % of the baseline years)',
+  median: 'median of the baseline years, Hyndman-Fan type 7 (linear interpolation)',
+  p90: '90th-percentile year of the baseline, Hyndman-Fan type 7: exceeded in about 1 year in 10',
+  min: 'lowest baseline year',
+  max: 'highest baseline year',
+  latest: 'the latest year built, for comparison with the baseline',
+  'worst-cell-mean': 'highest baseline mean of any grid cell of the region',
+};
+
+export async function sha256OfFile(path: string): Promise<string> {
+  return createHash('sha256').update(await readFile(path)).digest('hex');
+}
+
+/** Lists every file under `root/data` as artefacts, with kinds guessed from the path. */
+export async function listArtefacts(root: string, describe: (path: string) => { kind: ArtefactEntry['kind']; description: string; units?: string }): Promise<ArtefactEntry[]> {
+  const out: ArtefactEntry[] = [];
+  async function walk(dir: string): Promise<void> {
+    for (const name of (await readdir(dir)).sort()) {
+      const p = join(dir, name);
+      const s = await stat(p);
+      if (s.isDirectory()) await walk(p);
+      else {
+        const path = relative(root, p).split('\\').join('/');
+        if (path === 'data/manifest.json') continue;
+        out.push({ path, ...describe(path), bytes: s.size, sha256: await sha256OfFile(p) });
+      }
+    }
+  }
+  await walk(join(root, 'data'));
+  return out;
+}

@@ -1,0 +1,50 @@
+/**
+ * The region table (`data/regions/<region-id>.csv`), tidy: one row per period (month 01–12 or
+ * `year`) × figure × workload class × acclimatization × exposure × method × statistic. Values are
+ * statistics across years of the region's area-weighted mean; `worst-cell-mean` is the highest
+ * baseline mean of any cell of the region. Units are in the `unit` column.
+ */
+import type { FigureNormals } from '../run/climate-step.ts';
+import { PERIODS, ANNUAL } from '../run/figures.ts';
+import { comboColumns } from './combo.ts';
+import { csvLine, roundTo } from './csv.ts';
+
+export const REGION_TABLE_COLUMNS = [
+  'region_id', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit', 'years_used', 'baseline',
+] as const;
+
+export const STATISTICS = ['mean', 'median', 'p90', 'min', 'max', 'latest', 'worst-cell-mean'] as const;
+
+/** Decimals per unit: hours to 0.01 h, temperatures to 0.01 °C. */
+const DIGITS: Record<string, number> = { h: 2, degC: 2 };
+
+export function periodLabel(p: number): string {
+  return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');
+}
+
+export function regionTableCsv(regionIndex: number, regionId: string, figures: readonly FigureNormals[], baseline: [number, number], latestYear: number): string {
+  let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
+  const base = `${baseline[0]}-${baseline[1]}`;
+  for (let p = 0; p < PERIODS; p++) {
+    for (const fn of figures) {
+      const def = fn.series.def;
+      const nC = def.combos.length;
+      const digits = DIGITS[def.units] ?? 3;
+      for (let k = 0; k < nC; k++) {
+        const i = (regionIndex * PERIODS + p) * nC + k;
+        const cc = comboColumns(def.id, def.combos[k]);
+        const r = fn.region;
+        const stats: Record<(typeof STATISTICS)[number], number> = {
+          mean: r.mean[i], median: r.median[i], p90: r.p90[i], min: r.min[i], max: r.max[i], latest: r.latest[i], 'worst-cell-mean': fn.worstValue[i],
+        };
+        for (const s of STATISTICS) {
+          out += csvLine([
+            regionId, periodLabel(p), def.id, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, s,
+            roundTo(stats[s], digits), def.units, s === 'latest' ? 1 : r.yearsUsed[i], s === 'latest' ? String(latestYear) : base,
+          ]);
+        }
+      }
+    }
+  }
+  return out;
+}

@@ -1,0 +1,270 @@
+/**
+ * `heathours build`: the whole atlas. Configuration → dataset → shards on worker threads
+ * (physics, work, reduce) → exact merge → normals, the niche, regions → published files → the
+ * static site. Everything is written into a staging folder first; the output folder is replaced
+ * only when the whole build succeeded, so a failed build publishes nothing.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { mkdir, rm, writeFile } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
+import { basename, dirname, join, resolve } from 'node:path';
+import { createHash } from 'node:crypto';
+import { parse as parseYaml } from 'yaml';
+import { loadConfig } from '../config/load.ts';
+import { openDataset } from '../read/index.ts';
+import { parseWorkloadClasses, resolveWorkSettings, CAUTIONS } from '../work/index.ts';
+import { parseRegionFile, checkUniqueRegionIds, allRegionCellWeights, applyLandMask, type Region } from '../regions/index.ts';
+import { NICHE_CAVEAT, NICHE_LABELS, nicheClassCode, NICHE_CLASSES } from '../climate/index.ts';
+import { mergeYear, type YearCounts } from '../reduce/merge.ts';
+import type { ShardPartial } from '../reduce/accumulator.ts';
+import { emptyCounts, addCounts } from '../physics/index.ts';
+import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
+import { startProgress } from '../model/progress.ts';
+import { CODE_VERSION } from '../model/version.ts';
+import { planShards } from './plan.ts';
+import { runShards } from './shard-pool.ts';
+import { computeFigures } from './figures.ts';
+import { figureNormals, nicheStep, type FigureNormals, type NicheResult } from './climate-step.ts';
+import { NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
+import { makeInventory } from '../publish/inventory.ts';
+import { regionTableCsv } from '../publish/region-table.ts';
+import { cellTableCsv } from '../publish/cell-table.ts';
+import { writeAtlasLayers } from '../publish/atlas-layers.ts';
+import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
+import { buildSite } from '../publish/site.ts';
+import { figureDefs } from './figures.ts';
+
+const HOUR_MS = 3_600_000;
+
+export interface BuildAtlasOptions {
+  configPath: string;
+  /** Output folder; default the config's `output`. */
+  outDir?: string;
+  /** Worker threads; default all cores. */
+  jobs?: number;
+  quiet?: boolean;
+  /** Skip the Astro site (publish data files only, into outDir/data). */
+  dataOnly?: boolean;
+  logger?: Logger;
+}
+
+export interface BuildReport {
+  outDir: string;
+  shards: number;
+  /** Land cell-hours computed [–]. */
+  cellHours: number;
+  /** Seconds spent computing shards (wall clock) [s]. */
+  computeSeconds: number;
+  totalSeconds: number;
+  physics: ReturnType<typeof emptyCounts>;
+}
+
+export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
+  const t0 = Date.now();
+  const log = o.logger ?? (o.quiet ? silentLogger : consoleLogger);
+  const rc = await loadConfig(o.configPath);
+  const cfg = rc.config;
+  const outDir = resolve(o.outDir ?? rc.outputDir);
+
+  // Work settings and regions are checked before any data is read.
+  const classesPath = resolve(dirname(rc.path), cfg.work.classesFile);
+  if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
+  const classesText = readFileSync(classesPath, 'utf8');
+  const allClasses = parseWorkloadClasses(parseYaml(classesText), classesPath);
+  const work = resolveWorkSettings(cfg.work, allClasses, { file: rc.path });
+  const regions: Region[] = rc.regionFiles.flatMap((f) => parseRegionFile(readFileSync(f, 'utf8'), f));
+  checkUniqueRegionIds(regions);
+
+  log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
+  const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
+  const ds = await openDataset(rc.inputFiles, datasetOptions);
+  try {
+    checkYears(ds.time, cfg.years, 'years', rc.path);
+    const nLat = ds.grid.lat.length;
+    const nLon = ds.grid.lon.length;
+    const nGrid = nLat * nLon;
+    const land = ds.landMask ?? new Uint8Array(nGrid).fill(1);
+    const cellList: number[] = [];
+    for (let i = 0; i < nGrid; i++) if (land[i] === 1) cellList.push(i);
+    if (cellList.length === 0) throw NoLandCells({ detail: `the land-sea mask leaves none of the ${nGrid} cells` }, { file: rc.path, key: 'dataset.landSeaMask' });
+    const cells = Int32Array.from(cellList);
+    const weights = allRegionCellWeights(regions, ds.grid).map((w) => applyLandMask(w, land));
+
+    // Shards on all cores.
+    const years = range(cfg.years[0], cfg.years[1]);
+    const shards = planShards(nLat, nLon, land, years);
+    const jobs = Math.max(1, o.jobs ?? availableParallelism());
+    log.info(`computing ${shards.length} shards (${cells.length} land cells × ${years.length} years) on ${jobs} worker(s)`);
+    const byYear = new Map<number, { partials: ShardPartial[]; names: string[] }>(years.map((y) => [y, { partials: [], names: [] }]));
+    const physics = emptyCounts();
+    let cellHours = 0;
+    const progress = startProgress('shards', shards.length, { quiet: o.quiet });
+    const tc = Date.now();
+    await runShards(
+      shards,
+      { files: rc.inputFiles, datasetOptions: { ...datasetOptions, digests: false } as typeof datasetOptions, context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon } },
+      jobs,
+      (shard, result) => {
+        const slot = byYear.get(shard.year)!;
+        slot.partials.push(result.partial);
+        slot.names.push(shard.id);
+        addCounts(physics, result.physics);
+        cellHours += result.cellHours;
+        progress.tick();
+      },
+    );
+    progress.done();
+    const computeSeconds = (Date.now() - tc) / 1000;
+    log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${computeSeconds.toFixed(1)} s (${(cellHours / computeSeconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
+
+    // Merge, normals, niche.
+    const yearCounts: YearCounts[] = years.map((y) => mergeYear(y, cells, byYear.get(y)!.partials, byYear.get(y)!.names));
+    const ctx = { years, baseline: cfg.baseline, latestYear: years[years.length - 1], cells, nGrid, regions: weights };
+    const figures = computeFigures(yearCounts).map((s) => figureNormals(s, ctx));
+    const niche = nicheStep(yearCounts, ctx);
+
+    // Publish into a staging folder, then build the site from it.
+    const stage = join(dirname(outDir), `.${basename(outDir)}.stage-${process.pid}`);
+    await rm(stage, { recursive: true, force: true });
+    const dataDir = join(stage, 'data');
+    await mkdir(join(dataDir, 'regions'), { recursive: true });
+    try {
+      const generated = process.env.HEATHOURS_BUILD_TIME ?? new Date().toISOString();
+      log.info('summarising the inputs for the inventory');
+      const inventory = makeInventory(cfg, ds, await ds.summary(), generated);
+      await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
+      await writeFile(join(dataDir, 'regions.geojson'), regionsGeoJson(regions));
+      for (let r = 0; r < regions.length; r++) {
+        await writeFile(join(dataDir, 'regions', `${regions[r].id}.csv`), regionTableCsv(r, regions[r].id, figures, cfg.baseline, ctx.latestYear));
+        await writeFile(join(dataDir, 'regions', `${regions[r].id}.json`), JSON.stringify(regionSummary(r, regions[r], weights[r], niche, figures)));
+      }
+      await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
+      await writeFile(join(dataDir, 'niche.json'), JSON.stringify(nicheJson(niche, cells, ds.grid)));
+      const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
+      const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
+      layerProgress.done();
+      const artefacts = await listArtefacts(stage, describeArtefact);
+      const manifest: Manifest = {
+        manifestVersion: 1,
+        atlas: { id: cfg.id, title: cfg.title, invented: cfg.dataset.invented, attribution: cfg.dataset.attribution },
+        buildTime: generated,
+        codeVersion: CODE_VERSION,
+        configDigest: createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex'),
+        inputs: ds.files,
+        years: cfg.years,
+        baseline: cfg.baseline,
+        latestYear: ctx.latestYear,
+        timeZone: cfg.timeZone,
+        work: { ...work.settings, clothingAdjustment: work.clothingAdjustment, rest: work.rest, classes: work.classes, cautions: CAUTIONS },
+        figures: figureDefs(work.evaluations.map((e) => e.key)).map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
+        statistics: STATISTIC_RULES,
+        counts: { shards: shards.length, landCells: cells.length, cellHours, notConverged: physics.notConverged, rejected: physics.rejected, dewPointClamped: physics.dewPointClamped },
+        layers,
+        artefacts,
+      };
+      await writeFile(join(dataDir, 'manifest.json'), JSON.stringify(manifest, null, 1));
+      if (o.dataOnly) {
+        const { replaceDirAtomic } = await import('../model/effects.ts');
+        const { cp } = await import('node:fs/promises');
+        await replaceDirAtomic(outDir, async (tmp) => cp(dataDir, join(tmp, 'data'), { recursive: true }));
+      } else {
+        log.info('building the site');
+        await buildSite({ dataDir: stage, outDir, quiet: o.quiet });
+      }
+    } finally {
+      await rm(stage, { recursive: true, force: true });
+    }
+    const totalSeconds = (Date.now() - t0) / 1000;
+    log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s`);
+    return { outDir, shards: shards.length, cellHours, computeSeconds, totalSeconds, physics };
+  } finally {
+    await ds.close();
+  }
+}
+
+function range(a: number, b: number): number[] {
+  return Array.from({ length: b - a + 1 }, (_, i) => a + i);
+}
+
+/** Each configured local year must be held by the data, up to the completeness margin (10 days). */
+function checkYears(time: { start: number; count: number }, years: [number, number], key: string, file: string): void {
+  const end = time.start + (time.count - 1) * HOUR_MS;
+  const margin = 10 * 24 * HOUR_MS;
+  if (time.start > Date.UTC(years[0], 0, 1) + margin || end < Date.UTC(years[1] + 1, 0, 1) - margin) {
+    throw YearsOutsideData(
+      { key, first: years[0], last: years[1], dataFirst: new Date(time.start).toISOString(), dataLast: new Date(end).toISOString() },
+      { file, key },
+    );
+  }
+}
+
+function regionsGeoJson(regions: Region[]): string {
+  return JSON.stringify({
+    type: 'FeatureCollection',
+    features: regions.map((r) => ({
+      type: 'Feature',
+      properties: { id: r.id, name: r.name },
+      geometry: r.polygons.length === 1 ? { type: 'Polygon', coordinates: r.polygons[0] } : { type: 'MultiPolygon', coordinates: r.polygons },
+    })),
+  });
+}
+
+function regionSummary(r: number, region: Region, w: { cells: Uint32Array; coveredFraction: number; regionArea: number }, niche: NicheResult, figures: readonly FigureNormals[]) {
+  void figures;
+  const mat = niche.regionBaselineMat[r];
+  const latest = niche.regionLatestMat[r];
+  return {
+    id: region.id,
+    name: region.name,
+    cells: Array.from(w.cells),
+    coveredFraction: w.coveredFraction,
+    areaKm2: w.regionArea,
+    niche: {
+      baselineMat: mat,
+      latestMat: latest,
+      shift: latest - mat,
+      baselineClass: Number.isFinite(mat) ? NICHE_CLASSES[nicheClassCode(mat)] : null,
+      latestClass: Number.isFinite(latest) ? NICHE_CLASSES[nicheClassCode(latest)] : null,
+      labels: NICHE_LABELS,
+      caveat: NICHE_CAVEAT,
+    },
+  };
+}
+
+function nicheJson(n: NicheResult, cells: Int32Array, grid: { lat: Float64Array; lon: Float64Array }) {
+  const nLon = grid.lon.length;
+  const a = n.assessment;
+  return {
+    caveat: NICHE_CAVEAT,
+    labels: NICHE_LABELS,
+    cells: Array.from(cells, (g, c) => ({
+      cell: g,
+      lat: grid.lat[Math.floor(g / nLon)],
+      lon: grid.lon[g % nLon],
+      baselineMat: round2(a.baselineMat[c]),
+      latestMat: round2(a.latestMat[c]),
+      shift: round2(a.shift[c]),
+      baselineClass: Number.isFinite(a.baselineMat[c]) ? NICHE_CLASSES[a.baselineClass[c]] : null,
+      distanceToMainMode: round2(a.baselineDistance[c]),
+    })),
+  };
+}
+
+const round2 = (v: number) => (Number.isFinite(v) ? Math.round(v * 100) / 100 : null);
+
+function countLayers(figures: readonly FigureNormals[]): number {
+  const per: Record<string, number> = { 'hours-above-limit-shift': 2, 'hours-lost-shift': 2, 'capacity-loss-shift': 1, 'wbgt-mean': 1 };
+  return figures.reduce((n, f) => n + (per[f.series.def.id] ?? 0) * f.series.def.combos.length * 13, 0) + 2;
+}
+
+function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
+  if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
+  if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF, EPSG:4326', };
+  if (path.endsWith('.csv')) {
+    return path.includes('/regions/')
+      ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
+      : { kind: 'table', description: 'per-cell table: shift hours above the limit and hours lost', units: 'h' };
+  }
+  if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
+  return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
+}
