@@ -7,5 +7,7 @@ import '../read/errors.ts';
 import '../climate/errors.ts';
 import '../../src/data/errors.ts';
 import '../regions/errors.ts';
+import '../reduce/errors.ts';
 import '../physics/errors.ts';
 import '../demo/errors.ts';
+import '../run/errors.ts';
