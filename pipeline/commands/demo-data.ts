@@ -5,6 +5,7 @@
 import type { Command } from 'commander';
 import { statSync } from 'node:fs';
 import { DEFAULT_SEED, writeDemoDataset, type DemoLayout, DEMO_LAYOUTS } from '../demo/index.ts';
+import { UsageError } from '../model/errors.ts';
 import { DemoGridInvalid, DemoLayoutUnknown, DemoSeedInvalid, DemoYearsInvalid } from '../demo/errors.ts';
 
 /** Parses "2020-2024", "2025" or "2020,2022" into years. */
@@ -36,6 +37,11 @@ function parseSeed(text: string): number {
   return Number(text);
 }
 
+function parseJobs(text: string): number {
+  if (!/^\d{1,3}$/.test(text) || Number(text) < 1) throw UsageError({ message: `--jobs "${text}" is not a whole number from 1`, hint: 'pass --jobs 1 to write the years one after another, or the number of cores to use' }, { key: '--jobs' });
+  return Number(text);
+}
+
 export function register(program: Command): void {
   program
     .command('demo-data')
@@ -45,14 +51,16 @@ export function register(program: Command): void {
     .option('--layout <layout>', 'legacy (NetCDF-3, packed int16) | netcdf4 (NetCDF-4, float32) | mixed (legacy to 2022, NetCDF-4 after)', 'mixed')
     .option('--grid <grid>', 'default (32 × 34 cells at 0.25°) | small (8 × 10 cells at 1°)', 'default')
     .option('--seed <n>', 'random seed; the same seed gives the same bytes', String(DEFAULT_SEED))
+    .option('--jobs <n>', 'years written at once, each in a worker thread (default: number of cores)')
     .option('--quiet', 'no progress output')
-    .action(async (opts: { out: string; years: string; layout: string; grid: string; seed: string; quiet?: boolean }) => {
+    .action(async (opts: { out: string; years: string; layout: string; grid: string; seed: string; jobs?: string; quiet?: boolean }) => {
       const t0 = Date.now();
       const years = parseYears(opts.years);
       const layout = parseLayout(opts.layout);
       const grid = parseGrid(opts.grid);
       const seed = parseSeed(opts.seed);
-      const { files, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet });
+      const jobs = opts.jobs === undefined ? undefined : parseJobs(opts.jobs);
+      const { files, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet, jobs });
       for (const f of files) process.stdout.write(`wrote ${f} (${(statSync(f).size / 1e6).toFixed(1)} MB)\n`);
       for (const f of unchanged) process.stdout.write(`unchanged ${f}\n`);
       process.stdout.write(`invented demo data: ${files.length} file(s) written in ${((Date.now() - t0) / 1000).toFixed(1)} s (seed ${seed}, layout ${layout})\n`);

@@ -11,13 +11,16 @@
  */
 import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
 import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from '../physics/solar-position.ts';
 import { startProgress } from '../model/progress.ts';
 import { makeCellClimate } from './cell-climate.ts';
 import { DemoGridInvalid, DemoLayoutUnknown, DemoOutputUnwritable, DemoSeedInvalid, DemoYearOutOfRange } from './errors.ts';
-import { writeLegacyLandSeaMask, writeLegacyYear } from './legacy-layout.ts';
+import { writeLegacyLandSeaMask } from './legacy-layout.ts';
 import { h5wasmReady } from './netcdf4-writer.ts';
-import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask, writeNetcdf4Year } from './netcdf4-layout.ts';
+import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask } from './netcdf4-layout.ts';
+import { runYearJob, type YearJob } from './year-job.ts';
 import { DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
 import { yearHours } from './weather.ts';
 
@@ -79,6 +82,8 @@ export async function writeDemoDataset(opts: {
   grid?: { nLat: number; nLon: number; resolution: number } | 'small' | 'default';
   seed?: number;
   quiet?: boolean;
+  /** Years written at once, each in a worker thread [–]; default: the number of cores. 1 = in this thread. */
+  jobs?: number;
 }): Promise<{ files: string[]; unchanged: string[] }> {
   const layout = opts.layout;
   if (!DEMO_LAYOUTS.includes(layout)) throw DemoLayoutUnknown({ layout: String(layout) }, { key: 'layout' });
@@ -94,7 +99,7 @@ export async function writeDemoDataset(opts: {
   const cc = makeCellClimate(placeGrid(spec));
   const lastYear = years[years.length - 1];
   const preliminaryFromMs = Date.UTC(lastYear, 12 - PRELIMINARY_MONTHS, 1) + 3_600_000;
-  if (layout !== 'legacy') await h5wasmReady();
+  if (layout === 'netcdf4') await h5wasmReady();
 
   const total = years.reduce((s, y) => s + yearHours(y).nHours * (layoutOfYear(layout, y) === 'legacy' ? 2 : 1), 0);
   const progress = startProgress('demo-data', total, { quiet: opts.quiet });
@@ -117,17 +122,55 @@ export async function writeDemoDataset(opts: {
     } finally {
       rmSync(lsmNew, { force: true });
     }
-    for (const year of years) {
-      const path = join(opts.outDir, yearFileName(year));
-      const tick = (h: number) => progress.tick(h);
-      if (layoutOfYear(layout, year) === 'legacy') writeLegacyYear(path, cc, seed, year, tick);
-      else writeNetcdf4Year(path, cc, seed, year, year === lastYear ? preliminaryFromMs : Infinity, tick);
-      files.push(path);
-    }
+    const jobs: YearJob[] = years.map((year) => ({
+      path: join(opts.outDir, yearFileName(year)),
+      grid: spec,
+      seed,
+      year,
+      layout: layoutOfYear(layout, year),
+      preliminaryFromMs: year === lastYear ? preliminaryFromMs : Infinity,
+    }));
+    const parallel = Math.max(1, Math.min(opts.jobs ?? availableParallelism(), jobs.length));
+    const tick = (h: number) => progress.tick(h);
+    if (parallel === 1) for (const job of jobs) await runYearJob(job, tick);
+    else await runInWorkers(jobs, parallel, tick);
+    files.push(...jobs.map((j) => j.path));
   } finally {
     progress.done();
   }
   return { files, unchanged };
+}
+
+/** Runs year jobs in up to `parallel` worker threads, NetCDF-4 years (the slowest) first. */
+async function runInWorkers(jobs: YearJob[], parallel: number, tick: (h: number) => void): Promise<void> {
+  const queue = [...jobs].sort((a, b) => (a.layout === b.layout ? a.year - b.year : a.layout === 'netcdf4' ? -1 : 1));
+  const workerUrl = new URL('./year-worker-boot.mjs', import.meta.url);
+  let failure: Error | undefined;
+  const lane = async (): Promise<void> => {
+    for (let job = queue.shift(); job && !failure; job = queue.shift()) {
+      const current = job;
+      await new Promise<void>((resolve) => {
+        const w = new Worker(workerUrl, { workerData: current });
+        let settled = false;
+        const finish = (err?: Error) => {
+          if (settled) return;
+          settled = true;
+          if (err && !failure) failure = err;
+          void w.terminate();
+          resolve();
+        };
+        w.on('message', (m: { tick?: number; done?: boolean; error?: string }) => {
+          if (m.tick) tick(m.tick);
+          else if (m.done) finish();
+          else if (m.error) finish(new Error(`demo year ${current.year}: ${m.error}`));
+        });
+        w.on('error', (e) => finish(e));
+        w.on('exit', (code) => finish(code === 0 ? undefined : new Error(`demo year ${current.year}: worker exited with ${code}`)));
+      });
+    }
+  };
+  await Promise.all(Array.from({ length: parallel }, lane));
+  if (failure) throw failure;
 }
 
 export { DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';

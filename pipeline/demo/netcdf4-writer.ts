@@ -22,7 +22,6 @@
  * the clock emscripten's `time()` reads. The file is written to a temporary sibling and renamed
  * into place by {@link Netcdf4Writer.close}.
  */
-import h5wasm from 'h5wasm/node';
 import type { Dataset, File as H5File } from 'h5wasm';
 import { mkdirSync, renameSync, rmSync } from 'node:fs';
 import { dirname } from 'node:path';
@@ -94,8 +93,15 @@ function putAttrs(target: { create_attribute: H5File['create_attribute'] }, attr
   }
 }
 
-/** Loads the h5wasm module once. */
+type H5wasmModule = (typeof import('h5wasm/node'))['default'];
+let h5wasm: H5wasmModule | undefined;
+
+/**
+ * Loads the h5wasm module once. Loaded on demand: instantiating it reserves several hundred MB,
+ * which a run that writes only legacy files does not need.
+ */
 export async function h5wasmReady(): Promise<void> {
+  if (!h5wasm) h5wasm = (await import('h5wasm/node')).default;
   await h5wasm.ready;
 }
 
@@ -113,7 +119,9 @@ export class Netcdf4Writer {
     mkdirSync(dirname(path), { recursive: true });
     this.tmp = temporarySibling(path);
     const dimLength = new Map(spec.dims.map((d) => [d.name, d.values.length]));
-    this.file = atFixedClock(() => new h5wasm.File(this.tmp, 'w', { track_order: true }));
+    const lib = h5wasm;
+    if (!lib) throw new Error('netcdf4-writer: call h5wasmReady() first');
+    this.file = atFixedClock(() => new lib.File(this.tmp, 'w', { track_order: true }));
     try {
       atFixedClock(() => {
         const f = this.file;

@@ -72,6 +72,7 @@ describe('demo-data: bad options give catalogued errors and write nothing', () =
       [['--layout', 'foo'], 'DemoLayoutUnknown'],
       [['--seed', 'x'], 'DemoSeedInvalid'],
       [['--grid', 'huge'], 'DemoGridInvalid'],
+      [['--jobs', '0'], 'UsageError'],
     ] as const) {
       const r = spawnSync(process.execPath, [BIN, 'demo-data', '--out', out, ...args], { encoding: 'utf8' });
       expect(r.status).toBe(2);

@@ -22,9 +22,10 @@ let filesA: string[];
 beforeAll(async () => {
   dirA = mkdtempSync(join(tmpdir(), 'heathours-demo-a-'));
   dirB = mkdtempSync(join(tmpdir(), 'heathours-demo-b-'));
-  // mixed: 2022 is written in the legacy layout, 2023 in the NetCDF-4 layout.
-  filesA = (await writeDemoDataset({ outDir: dirA, years: [2022, 2023], layout: 'mixed', grid: 'small', seed: 11, quiet: true })).files;
-  await writeDemoDataset({ outDir: dirB, years: [2022, 2023], layout: 'mixed', grid: 'small', seed: 11, quiet: true });
+  // mixed: 2022 is written in the legacy layout, 2023 in the NetCDF-4 layout; A in this thread,
+  // B in two worker threads (same bytes expected).
+  filesA = (await writeDemoDataset({ outDir: dirA, years: [2022, 2023], layout: 'mixed', grid: 'small', seed: 11, quiet: true, jobs: 1 })).files;
+  await writeDemoDataset({ outDir: dirB, years: [2022, 2023], layout: 'mixed', grid: 'small', seed: 11, quiet: true, jobs: 2 });
 }, 300_000);
 
 describe('writeDemoDataset, small grid, mixed layout', () => {
@@ -130,7 +131,7 @@ describe('writeDemoDataset, small grid, mixed layout', () => {
     for (let i = 0; i < 48 * 80; i++) expect(Math.abs(t2m[i] - block.t2m[i])).toBeLessThanOrEqual(step / 2 + 1e-4);
   });
 
-  it('the same seed gives the same bytes in every file (both layouts)', () => {
+  it('the same seed gives the same bytes in every file (both layouts), whether years are written in worker threads or not', () => {
     for (const f of readdirSync(dirA)) expect(sha(join(dirB, f))).toBe(sha(join(dirA, f)));
   });
 
