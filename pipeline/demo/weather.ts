@@ -29,6 +29,7 @@ import { beamTransmittance, cloudGlobalFactor } from './clear-sky.ts';
 import type { CellClimate } from './cell-climate.ts';
 import { LAPSE_RATE } from './cell-climate.ts';
 import { normal } from './random.ts';
+import { diurnalShape, latticeWeights, N_NODES, seaBreezeShape } from './weather-shapes.ts';
 
 /** The time-varying variables of the demo, ERA5 short names. */
 export const DEMO_VARIABLES = ['t2m', 'd2m', 'u10', 'v10', 'sp', 'ssrd', 'fdir', 'strd'] as const;
@@ -52,11 +53,6 @@ const SINC_HALF = Math.sin(HALF_HOUR_ANGLE) / HALF_HOUR_ANGLE;
 /** ln of the Buck (1981) prefactor 6.1121 hPa (METHODS.md §1.1). */
 const LN_BUCK_A = Math.log(6.1121);
 
-/** Node lattice of the day-to-day weather [° N] × [° E]. */
-const NODE_LAT = [15.5, 18.6, 21.7, 24.8];
-const NODE_LON = [-151.0, -147.6, -144.2, -140.8];
-const N_NODES = NODE_LAT.length * NODE_LON.length;
-
 /** Daily AR(1) streams: persistence per day [–] and days of spin-up before the year [d]. */
 const DAILY_PHI = 0.75;
 const SPIN_UP_DAYS = 40;
@@ -73,50 +69,6 @@ export function yearHours(year: number): { firstStampMs: number; nHours: number 
   const start = Date.UTC(year, 0, 1);
   const end = Date.UTC(year + 1, 0, 1);
   return { firstStampMs: start + MS_HOUR, nHours: (end - start) / MS_HOUR };
-}
-
-/** Bilinear weights of the node lattice for each cell (clamped at the lattice edges). */
-function latticeWeights(cc: CellClimate): { idx: Int32Array; w: Float32Array } {
-  const idx = new Int32Array(4 * cc.nCells);
-  const w = new Float32Array(4 * cc.nCells);
-  const locate = (x: number, axis: number[]): [number, number] => {
-    const n = axis.length;
-    if (x <= axis[0]) return [0, 0];
-    if (x >= axis[n - 1]) return [n - 2, 1];
-    let k = 0;
-    while (x > axis[k + 1]) k++;
-    return [k, (x - axis[k]) / (axis[k + 1] - axis[k])];
-  };
-  for (let c = 0; c < cc.nCells; c++) {
-    const [a, fy] = locate(cc.lat[c], NODE_LAT);
-    const [b, fx] = locate(cc.lon[c], NODE_LON);
-    const nl = NODE_LON.length;
-    idx[4 * c] = a * nl + b;
-    idx[4 * c + 1] = a * nl + b + 1;
-    idx[4 * c + 2] = (a + 1) * nl + b;
-    idx[4 * c + 3] = (a + 1) * nl + b + 1;
-    w[4 * c] = (1 - fy) * (1 - fx);
-    w[4 * c + 1] = (1 - fy) * fx;
-    w[4 * c + 2] = fy * (1 - fx);
-    w[4 * c + 3] = fy * fx;
-  }
-  return { idx, w };
-}
-
-/** Diurnal temperature shape [–]: −1 at 06 local solar time, +1 at 14:30, smooth. */
-function diurnalShape(lst: number): number {
-  const h = ((lst % 24) + 24) % 24;
-  if (h >= 6 && h < 14.5) return -Math.cos((Math.PI * (h - 6)) / 8.5);
-  const since = h >= 14.5 ? h - 14.5 : h + 9.5;
-  return Math.cos((Math.PI * since) / 15.5);
-}
-
-/** Sea-breeze strength [–]: onshore 09–19 local solar time (peak 14), weak offshore 21–05. */
-function seaBreezeShape(lst: number): number {
-  const h = ((lst % 24) + 24) % 24;
-  if (h >= 9 && h <= 19) return Math.sin((Math.PI * (h - 9)) / 10);
-  const n = h >= 21 ? h - 21 : h + 3;
-  return n <= 8 ? -0.3 * Math.sin((Math.PI * n) / 8) : 0;
 }
 
 /** Derived daily fields per cell, stored per day (from day0) and cell. */

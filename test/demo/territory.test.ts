@@ -75,6 +75,24 @@ describe('the invented territory and its districts', () => {
     }
   });
 
+  it('every district lies inside both the default and the small grid (within the outer cell edges)', () => {
+    for (const spec of [DEFAULT_GRID, SMALL_GRID]) {
+      const g = placeGrid(spec);
+      const half = spec.resolution / 2;
+      const north = g.lat[0] + half;
+      const south = g.lat[g.nLat - 1] - half;
+      const west = g.lon360[0] - 360 - half;
+      const east = g.lon360[g.nLon - 1] - 360 + half;
+      for (const d of DISTRICTS)
+        for (const [lon, lat] of d.ring) {
+          expect(lat).toBeLessThan(north);
+          expect(lat).toBeGreaterThan(south);
+          expect(lon).toBeGreaterThan(west);
+          expect(lon).toBeLessThan(east);
+        }
+    }
+  });
+
   it('the small test grid is 8 × 10 cells around the island centre with land and sea cells', () => {
     const cc = makeCellClimate(placeGrid(SMALL_GRID));
     expect(cc.nCells).toBe(80);
