@@ -14,7 +14,8 @@
  */
 import { STATUS } from './status.ts';
 import { apparentCosZenith, hourAngle, integrateCosines, solarYearSupported, sunState } from './solar-position.ts';
-import { solarUsed } from './solar-inputs.ts';
+import { directFractionEstimate } from './solar-inputs.ts';
+import { CZA_MIN, NORMSOLAR_MAX, SOLAR_CONSTANT } from './constants.ts';
 
 export type CosineConvention = 'middle' | 'period-mean';
 
@@ -69,6 +70,10 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
   const ha = new Float64Array(nCols);
   const cosHa = new Float64Array(nCols);
   const direct = inp.solarDirect;
+  const SG = inp.solarGlobal;
+  const CZ = out.cosZenith;
+  const SU = out.solar;
+  const FD = out.directFraction;
   let bad = 0;
   for (let t = 0; t < nT; t++) {
     const base = t * nCells;
@@ -83,8 +88,10 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
       bad += nCells;
       continue;
     }
+    // Per hour: sun position (declination, right ascension, sidereal time) and the Earth–Sun
+    // distance; per column: the hour angle; per row: the latitude terms; per cell: one cosine.
     const s = sunState(mid);
-    const d = s.distanceAu;
+    const toa1 = SOLAR_CONSTANT / (s.distanceAu * s.distanceAu);
     for (let k = 0; k < nCols; k++) {
       ha[k] = hourAngle(s, inp.lon[k]);
       cosHa[k] = Math.cos(ha[k]);
@@ -95,7 +102,7 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
       const rowBase = base + r * nCols;
       for (let k = 0; k < nCols; k++) {
         const i = rowBase + k;
-        const sg = inp.solarGlobal[i];
+        const sg = SG[i];
         let cz: number;
         let cToa: number;
         if (mean) {
@@ -107,11 +114,23 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
           cz = cg > -0.0098 ? apparentCosZenith(cg) : cg;
           cToa = cz;
         }
-        const given = direct && sg > 0 ? Math.min(1, Math.max(0, direct[i] / sg)) : NaN;
-        const su = solarUsed(sg, cz, d, given, cToa);
-        out.cosZenith[i] = cz;
-        out.solar[i] = su.solar;
-        out.directFraction[i] = su.directFraction;
+        CZ[i] = cz;
+        // The cap and direct fraction (solar-inputs.ts `solarUsed`, inlined: no object per cell).
+        if (!(cz >= CZA_MIN) || !(cToa > 0)) {
+          SU[i] = sg;
+          FD[i] = 0;
+          continue;
+        }
+        const toa = toa1 * cToa;
+        let clear = sg / toa;
+        if (clear > NORMSOLAR_MAX) clear = NORMSOLAR_MAX;
+        SU[i] = clear * toa;
+        let f = NaN;
+        if (direct !== undefined && sg > 0) {
+          const g = direct[i] / sg;
+          f = g > 1 ? 1 : g < 0 ? 0 : g;
+        }
+        FD[i] = f === f ? f : directFractionEstimate(clear);
       }
     }
   }

@@ -104,6 +104,15 @@ export function checkInputs(ta: number, td: number, p: number, u: number, s: num
 }
 
 const cell = new CellState();
+const TA_MIN = INPUT_LIMITS.airTemperatureC[0];
+const TA_MAX = INPUT_LIMITS.airTemperatureC[1];
+const TD_MIN = INPUT_LIMITS.dewPointMinC;
+const P_MIN = INPUT_LIMITS.pressureHpa[0];
+const P_MAX = INPUT_LIMITS.pressureHpa[1];
+const U_MIN = INPUT_LIMITS.windMs[0];
+const U_MAX = INPUT_LIMITS.windMs[1];
+const S_MIN = INPUT_LIMITS.solarWm2[0];
+const S_MAX = INPUT_LIMITS.solarWm2[1];
 
 /**
  * Runs the kernel on cell-hours [start, end) of the arrays. Returns counts for that range.
@@ -113,53 +122,68 @@ const cell = new CellState();
 export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0): KernelCounts {
   const { airTemperature: TA, dewPointTemperature: TD, surfacePressure: P, wind2m: U, solar: S, cosZenith: CZ, directFraction: FD } = inputs;
   const { wbgtSun, wbgtShade, globeSun, wetBulbSun, globeShade, wetBulbShade, psychrometric, status } = outputs;
-  const counts = emptyCounts();
-  const it = counts.iterations;
   const s = cell;
+  // Counters as locals (written to the counts object once at the end).
+  let rejected = 0;
+  let notConverged = 0;
+  let clamped = 0;
+  let solved = 0;
+  let ok = 0;
+  let itGs = 0;
+  let itGd = 0;
+  let itWs = 0;
+  let itWd = 0;
+  let itPsy = 0;
   for (let i = start; i < end; i++) {
-    counts.cells++;
     let code = status[i];
     const ta = TA[i];
     let td = TD[i];
-    if (code === 0) code = checkInputs(ta, td, P[i], U[i], S[i], CZ[i], FD[i]);
-    if (code !== 0) {
+    const p = P[i];
+    const u = U[i];
+    const sol = S[i];
+    const cz = CZ[i];
+    const fd = FD[i];
+    // One combined range test (NaN fails it); the reason is looked up only for a bad cell.
+    if (code !== 0 || !(ta >= TA_MIN && ta <= TA_MAX && td >= TD_MIN && p >= P_MIN && p <= P_MAX && u >= U_MIN && u <= U_MAX &&
+      sol >= S_MIN && sol <= S_MAX && cz >= -1 && cz <= 1 && fd >= 0 && fd <= 1)) {
+      if (code === 0) code = checkInputs(ta, td, p, u, sol, cz, fd);
       status[i] = code;
-      counts.rejected++;
+      rejected++;
       writeNaN(outputs, i);
       continue;
     }
     if (td > ta) {
       td = ta;
-      counts.dewPointClamped++;
+      clamped++;
     }
-    prepareCell(s, ta, td, P[i], U[i], S[i], FD[i], CZ[i]);
-    counts.solved++;
+    prepareCell(s, ta, td, p, u, sol, fd, cz);
+    solved++;
     // Shade first; the sun solves start one quadratic step off the shade roots, and where there
     // is no solar load the sun balances are the shade balances (same root, not solved again).
     const tgShade = solveGlobe(s, false, globeShadeGuess(s));
-    it.globeShade += s.iterations;
+    itGd += s.iterations;
     let tgSun = tgShade;
     if (s.qg > 0 && tgShade === tgShade) {
       tgSun = solveGlobe(s, true, globeSunGuess(s, tgShade));
-      it.globeSun += s.iterations;
+      itGs += s.iterations;
     }
     const twShade = solveWetBulb(s, true, false, wetBulbShadeGuess(s, true));
-    it.wetBulbShade += s.iterations;
+    itWd += s.iterations;
     let twSun = twShade;
     if (s.qw > 0 && twShade === twShade) {
       twSun = solveWetBulb(s, true, true, wetBulbSunGuess(s, twShade));
-      it.wetBulbSun += s.iterations;
+      itWs += s.iterations;
     }
     let tpsy = 0;
     if (psychrometric) {
       tpsy = solveWetBulb(s, false, false, wetBulbShadeGuess(s, false));
-      it.psychrometric += s.iterations;
+      itPsy += s.iterations;
     }
     if (!(tgSun === tgSun) || !(tgShade === tgShade)) code = STATUS.globeNotConverged;
     else if (!(twSun === twSun) || !(twShade === twShade) || !(tpsy === tpsy)) code = STATUS.wetBulbNotConverged;
     if (code !== 0) {
       status[i] = code;
-      counts.notConverged++;
+      notConverged++;
       writeNaN(outputs, i);
       continue;
     }
@@ -174,8 +198,21 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
     if (globeShade) globeShade[i] = gD;
     if (wetBulbShade) wetBulbShade[i] = wD;
     if (psychrometric) psychrometric[i] = tpsy - KELVIN;
-    counts.ok++;
+    ok++;
   }
+  const counts = emptyCounts();
+  counts.cells = end > start ? end - start : 0;
+  counts.ok = ok;
+  counts.rejected = rejected;
+  counts.notConverged = notConverged;
+  counts.dewPointClamped = clamped;
+  counts.solved = solved;
+  const it = counts.iterations;
+  it.globeSun = itGs;
+  it.globeShade = itGd;
+  it.wetBulbSun = itWs;
+  it.wetBulbShade = itWd;
+  it.psychrometric = itPsy;
   return counts;
 }
 

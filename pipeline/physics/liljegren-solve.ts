@@ -50,6 +50,9 @@ const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
 /** cw = CW0·(u·P)^0.6 = CW0·pow12(√(u·P)): (c_k/D_w)·0.281·Pr^0.44·C_μ^0.4·(100·D_w/R_air)^0.6. */
 const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
 const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
+/** (1 − α_g)/(2ε_gσ) [K⁴ per W m⁻²] (METHODS.md §3.2.4). */
+const QG_K = (1 - ALB_GLOBE) / (2 * EMIS_GLOBE * SB);
+const INV_PI = 1 / Math.PI;
 const EW_SB = EMIS_WICK * SB;
 const CAP = D_WICK / (4 * L_WICK);
 /** Scratch for table reads: e_s, e_s', Z, Z', W, W'. */
@@ -132,9 +135,14 @@ export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u
   let qw = 0;
   if (solar > 0) {
     const fdir = cz >= CZA_MIN ? fdirIn : 0;
-    const beamG = fdir > 0 ? fdir * (0.5 / cz - 1) : 0;
-    qg = ((solar * (1 - ALB_GLOBE)) / (2 * EMIS_GLOBE * SB)) * (beamG + 1 + ALB_SFC);
-    const tanOverPi = fdir > 0 ? Math.sqrt(Math.max(0, 1 - cz * cz)) / (cz * Math.PI) : 0;
+    let beamG = 0;
+    let tanOverPi = 0;
+    if (fdir > 0) {
+      const icz = 1 / cz;
+      beamG = fdir * (0.5 * icz - 1);
+      tanOverPi = Math.sqrt(Math.max(0, 1 - cz * cz)) * icz * INV_PI;
+    }
+    qg = solar * QG_K * (beamG + 1 + ALB_SFC);
     qw = (1 - ALB_WICK) * solar * ((1 - fdir) * (1 + CAP) + fdir * (tanOverPi + CAP) + ALB_SFC);
   }
   s.qg = qg;
@@ -326,9 +334,13 @@ export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean,
       s.lastSlope = gp;
       s.lastInvHw = invHw;
       s.lastDInvHw = dInvHw;
-      // Curvature estimate for the next guess: the vapour term's e_s'' (dominant) and the T⁴ term.
-      const dde = L[1] * (L[1] / L[0] - 2 / (x - 32.18));
-      s.lastCurv = L[2] * ((dde * pea) / (den * den) + (2 * dq * L[1]) / den) + (radiative ? 12 * EW_SB * x * x * invHw : 0);
+      // Curvature estimate for the sun guess (after a shade solve): the vapour term's e_s''
+      // (dominant) and the T⁴ term.
+      if (!withSun) {
+        const dde = L[1] * (L[1] / L[0] - 2 / (x - 32.18));
+        const rden = 1 / den;
+        s.lastCurv = L[2] * rden * (dde * pea * rden + 2 * dq * L[1]) + (radiative ? 12 * EW_SB * x * x * invHw : 0);
+      }
       return x;
     }
   }

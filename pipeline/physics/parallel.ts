@@ -17,12 +17,33 @@ export function sharedUint8(n: number): Uint8Array {
   return new Uint8Array(new SharedArrayBuffer(n));
 }
 
+/** What one {@link PhysicsPool.run} did. */
+export interface PoolRun {
+  counts: PhysicsCounts;
+  workerMs: number[];
+  workerCpuNs: number[];
+  workerStartMs: number[];
+  workerEndMs: number[];
+}
+
 /** A pool of physics workers holding one set of shared arrays. */
 export interface PhysicsPool {
   size: number;
-  /** Computes hours [0, nT) split into `size` contiguous ranges; resolves with merged counts and per-worker ms. */
-  run(nT: number, opts?: PhysicsOptions): Promise<{ counts: PhysicsCounts; workerMs: number[] }>;
+  /**
+   * Computes hours [0, nT) split into `size` contiguous, disjoint ranges, one per worker, all at
+   * once; resolves with merged counts and, per worker, wall ms, thread CPU ns, start and end
+   * [epoch ms].
+   */
+  run(nT: number, opts?: PhysicsOptions): Promise<PoolRun>;
   close(): Promise<void>;
+}
+
+interface WorkerReply {
+  counts: PhysicsCounts;
+  ms: number;
+  cpuNs: number;
+  startMs: number;
+  endMs: number;
 }
 
 /** Starts `size` workers (default: all cores) sharing `arrays`; resolves once all are ready. */
@@ -46,9 +67,9 @@ export async function startPhysicsPool(arrays: PhysicsArrays, size = availablePa
       const jobs = workers.map((w, k) => {
         const t0 = Math.min(nT, k * per);
         const t1 = Math.min(nT, t0 + per);
-        return new Promise<{ counts: PhysicsCounts; ms: number }>((resolve, reject) => {
+        return new Promise<WorkerReply>((resolve, reject) => {
           w.once('error', reject);
-          w.once('message', (m: { counts: PhysicsCounts; ms: number }) => resolve(m));
+          w.once('message', (m: WorkerReply) => resolve(m));
           w.postMessage({ t0, t1, opts, id: k });
         });
       });
@@ -58,7 +79,10 @@ export async function startPhysicsPool(arrays: PhysicsArrays, size = availablePa
         addCounts(counts, r.counts);
         counts.timeOutOfRange += r.counts.timeOutOfRange;
       }
-      return { counts, workerMs: res.map((r) => r.ms) };
+      return {
+        counts, workerMs: res.map((r) => r.ms), workerCpuNs: res.map((r) => r.cpuNs),
+        workerStartMs: res.map((r) => r.startMs), workerEndMs: res.map((r) => r.endMs),
+      };
     },
     async close() {
       await Promise.all(workers.map((w) => w.terminate()));

@@ -1,9 +1,11 @@
 /**
  * Worker side of {@link runPhysicsParallel}: receives the shared arrays once, then computes the
- * hour ranges it is sent and replies with the counts. Started with `execArgv: ['--import', 'tsx']`.
+ * hour ranges it is sent and replies with the counts, its wall and thread CPU time, and when it
+ * started and ended. Loaded through physics-worker-boot.mjs, which registers the TypeScript loader.
  */
 import { parentPort } from 'node:worker_threads';
 import { computeHours, type PhysicsArrays, type PhysicsOptions } from './block.ts';
+import { threadCpuNs } from './thread-cpu.ts';
 
 let arrays: PhysicsArrays | undefined;
 parentPort!.on('message', (m: { arrays?: PhysicsArrays; t0?: number; t1?: number; opts?: PhysicsOptions; id?: number }) => {
@@ -12,7 +14,11 @@ parentPort!.on('message', (m: { arrays?: PhysicsArrays; t0?: number; t1?: number
     parentPort!.postMessage({ ready: true });
     return;
   }
+  const c0 = threadCpuNs();
   const t = performance.now();
   const counts = computeHours(arrays!, m.t0!, m.t1!, m.opts);
-  parentPort!.postMessage({ id: m.id, counts, ms: performance.now() - t });
+  const t1 = performance.now();
+  const cpuNs = threadCpuNs() - c0;
+  // Start and end as epoch ms so the caller can check that the workers ran at the same time.
+  parentPort!.postMessage({ id: m.id, counts, ms: t1 - t, cpuNs, startMs: performance.timeOrigin + t, endMs: performance.timeOrigin + t1 });
 });

@@ -116,9 +116,16 @@ export function refractionDeg(elevationDeg: number): number {
 export function apparentCosZenith(cosGeometric: number): number {
   const c = cosGeometric > 1 ? 1 : cosGeometric < -1 ? -1 : cosGeometric;
   const el = Math.asin(c) * DEG;
-  let app = el + refractionDeg(el);
-  if (app > 90) app = 90;
-  return Math.sin(app * RAD);
+  if (el < -0.56) return c;
+  const R = (3.51561 * (0.1594 + 0.0196 * el + 0.00002 * el * el)) / (1 + 0.505 * el + 0.0845 * el * el);
+  if (el + R >= 90) return 1;
+  // sin(el + R) = sin el·cos R + cos el·sin R, with cos el = √(1 − c²) ≥ 0 and R ≤ 0.6° (series to
+  // R⁵, error < 1e−14): one square root instead of a sine.
+  const r = R * RAD;
+  const r2 = r * r;
+  const cosR = 1 - r2 * (0.5 - r2 / 24);
+  const sinR = r * (1 - r2 * (1 / 6 - r2 / 120));
+  return c * cosR + Math.sqrt(1 - c * c) * sinR;
 }
 
 /** Apparent cosine of the zenith at an instant [–] (Almanac sun + Michalsky refraction). */
