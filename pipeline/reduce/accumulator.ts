@@ -8,7 +8,14 @@ import {
   workFractionInto,
   kjellstrom2018LossInto,
   dunne2013LossInto,
+  groupEvaluations,
+  allowedMetabolicRate,
+  memberWorkFraction,
+  prepareLoss,
+  lossPrepared,
+  type EvaluationGroup,
   type LocalHours,
+  type PreparedLoss,
   type WorkEvaluation,
 } from '../work/index.ts';
 import { CENTI, HIST_LEN, HOURS, LOSS_VIEWS, MILLI, MONTHS, N_EXPOSURES, N_LOSS, histIndex } from './layout.ts';
@@ -86,6 +93,23 @@ export function expectedMonthHours(year: number): Uint32Array {
   return out;
 }
 
+/** Moves the scratch histograms into the partial (cell-major layout) and clears them. */
+export function finishPartial(p: ShardPartial, scratch: ReduceScratch): ShardPartial {
+  const nc = p.cells.length;
+  const w = N_EXPOSURES * HIST_LEN;
+  for (let m = 0; m < MONTHS; m++) {
+    for (let h = 0; h < HOURS; h++) {
+      for (let c = 0; c < nc; c++) {
+        const src = ((m * HOURS + h) * nc + c) * w;
+        const dst = ((c * MONTHS + m) * HOURS + h) * w;
+        p.histogram.set(scratch.hist.subarray(src, src + w), dst);
+      }
+    }
+  }
+  scratch.hist.fill(0);
+  return p;
+}
+
 /** One block of hourly values for the shard's cells, time-major: `x[t * nCells + c]`. */
 export interface ReduceBlock {
   nHours: number;
@@ -104,10 +128,29 @@ export interface ReduceScratch {
   fraction: Float32Array;
   above: Uint8Array;
   loss: Float32Array;
+  /** Evaluation groups for the fused path, or null when the general path is needed. */
+  groups: EvaluationGroup[] | null;
+  losses: PreparedLoss[];
+  /**
+   * Histograms while accumulating, month × hour × cell × exposure × bin (cells adjacent, so the
+   * hot loop over cells stays in cache); {@link finishPartial} moves them into the partial.
+   */
+  hist: Uint16Array;
 }
 
-export function createScratch(n: number): ReduceScratch {
-  return { fraction: new Float32Array(n), above: new Uint8Array(n), loss: new Float32Array(n) };
+/**
+ * Scratch for blocks of up to `n` cell-hours. `general` forces the per-evaluation path (tests
+ * compare the two paths).
+ */
+export function createScratch(n: number, evaluations: readonly WorkEvaluation[], nCells: number, general = false): ReduceScratch {
+  return {
+    hist: new Uint16Array(MONTHS * HOURS * nCells * N_EXPOSURES * HIST_LEN),
+    fraction: new Float32Array(n),
+    above: new Uint8Array(n),
+    loss: new Float32Array(n),
+    groups: general ? null : groupEvaluations(evaluations),
+    losses: LOSS_VIEWS.map((v) => prepareLoss(v.intensity)),
+  };
 }
 
 /**
@@ -116,7 +159,84 @@ export function createScratch(n: number): ReduceScratch {
  * @param evaluations The same list (and order) the partial was created with
  */
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
+  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.hist);
+  else accumulateGeneral(p, block, evaluations, scratch);
+}
+
+/**
+ * The fused path: one pass over the cell-hours; per group one exponential, and only when the
+ * hour is above the group's lowest limit. Gives the same counts as the general path.
+ */
+function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], hist: Uint16Array): void {
   const nc = p.cells.length;
+  const { wbgtSun, wbgtShade, airTemperature, local } = block;
+  const nG = groups.length;
+  for (let t = 0; t < block.nHours; t++) {
+    if (local.year[t] !== p.year) continue;
+    const m = local.month[t] - 1;
+    p.coveredHours[m]++;
+    const h = local.hour[t];
+    const shift = local.inShift[t] === 1;
+    const row = t * nc;
+    for (let c = 0; c < nc; c++) {
+      const i = row + c;
+      const cm = c * MONTHS + m;
+      const ta = airTemperature[i];
+      if (ta === ta) {
+        p.airSum[cm] += Math.round(ta * CENTI);
+        p.airHours[cm]++;
+      }
+      const ws = wbgtSun[i];
+      const wd = wbgtShade[i];
+      if (ws !== ws || wd !== wd) {
+        p.failedHours[c]++;
+        continue;
+      }
+      p.validHours[cm]++;
+      const s = Math.round(ws * CENTI);
+      const d = Math.round(wd * CENTI);
+      p.wbgtSum[cm * 2] += s;
+      p.wbgtSum[cm * 2 + 1] += d;
+      if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
+      if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
+      const hb = ((m * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
+      hist[hb + histIndex(ws)]++;
+      hist[hb + HIST_LEN + histIndex(wd)]++;
+      const base = cm * nE;
+      for (let gi = 0; gi < nG; gi++) {
+        const g = groups[gi];
+        const w = (g.exposure === 'sun' ? ws : wd) + g.cav;
+        if (!(w > g.lowestLimit)) continue;
+        const mLim = allowedMetabolicRate(g, w);
+        const members = g.members;
+        for (let j = 0; j < members.length; j++) {
+          if (!(w > g.limitWork[j])) continue;
+          const k = base + members[j];
+          p.aboveAll[k]++;
+          if (shift) {
+            p.aboveShift[k]++;
+            p.lostShift[k] += Math.round((1 - memberWorkFraction(g, j, mLim)) * MILLI);
+          }
+        }
+      }
+      if (shift) {
+        p.shiftHours[cm]++;
+        const lb = cm * N_EXPOSURES * N_LOSS;
+        for (let l = 0; l < N_LOSS; l++) {
+          const a = lossPrepared(ws, losses[l]);
+          if (a > 0) p.capacityLoss[lb + l] += Math.round(a * MILLI);
+          const b = lossPrepared(wd, losses[l]);
+          if (b > 0) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
+        }
+      }
+    }
+  }
+}
+
+/** The general path: one vectorised work-fraction pass per evaluation (any limit model, any rest place). */
+function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
+  const nc = p.cells.length;
+  const hist = scratch.hist;
   const nt = block.nHours;
   const n = nt * nc;
   if (scratch.fraction.length < n) throw new RangeError(`scratch holds ${scratch.fraction.length} values, block needs ${n}`);
@@ -149,7 +269,7 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
       const row = t * nc;
       for (let c = 0; c < nc; c++) {
         const i = row + c;
-        if (above[i] === 0) continue;
+        if (above[i] === 0 || wbgtSun[i] !== wbgtSun[i] || wbgtShade[i] !== wbgtShade[i]) continue;
         const k = (c * MONTHS + m) * nE + e;
         p.aboveAll[k]++;
         if (shift === 1) {
@@ -172,6 +292,7 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
         const m = local.month[t] - 1;
         const row = t * nc;
         for (let c = 0; c < nc; c++) {
+          if (wbgtSun[row + c] !== wbgtSun[row + c] || wbgtShade[row + c] !== wbgtShade[row + c]) continue;
           const v = loss[row + c];
           if (v > 0) p.capacityLoss[((c * MONTHS + m) * N_EXPOSURES + x) * N_LOSS + l] += Math.round(v * MILLI);
         }
@@ -208,9 +329,9 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
       p.wbgtSum[cm * 2 + 1] += d;
       if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
       if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
-      const hb = ((cm * HOURS + h) * N_EXPOSURES) * HIST_LEN;
-      p.histogram[hb + histIndex(ws)]++;
-      p.histogram[hb + HIST_LEN + histIndex(wd)]++;
+      const hb = ((m * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
+      hist[hb + histIndex(ws)]++;
+      hist[hb + HIST_LEN + histIndex(wd)]++;
     }
   }
 }

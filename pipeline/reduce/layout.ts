@@ -7,7 +7,7 @@
  * Index order of the per-evaluation arrays: `((cell * 12 + month) * nEval + e)`, with `e` the index
  * into `ResolvedWork.evaluations` (class × acclimatization × exposure, pipeline/work/work-settings.ts).
  */
-import { WBGT_BIN_EDGES, type KjellstromIntensity } from '../work/index.ts';
+import { WBGT_BIN_EDGES, WBGT_HISTOGRAM_LENGTH, wbgtBinIndex, type KjellstromIntensity } from '../work/index.ts';
 
 /** Months per year; month index 0 = January (local time of the atlas). */
 export const MONTHS = 12;
@@ -35,22 +35,14 @@ export const LOSS_VIEWS: ReadonlyArray<{ id: string; label: string; intensity?: 
 export const N_LOSS = LOSS_VIEWS.length;
 
 /**
- * Histogram bins of the partials: every other edge of the work model's 0.25 °C layout
- * (pipeline/work/wbgt-bins.ts), i.e. 0.5 °C bins from 5 to 45 °C plus the two open end bins.
- * 0.5 °C keeps the partials and the published calculator tiles small; the estimate stays within
- * the 1 %-of-hours budget (test/reduce/histogram.test.ts).
+ * Histogram bins of the partials: the work model's layout (pipeline/work/wbgt-bins.ts), 0.25 °C
+ * bins from 5 to 45 °C plus the two open end bins. With them the calculator's estimate for a
+ * small region's month of shift hours stays within 1 % of the hours of the hourly computation
+ * (test/reduce/accumulator.test.ts); 0.5 °C bins missed that budget for single cells.
  */
-export const HIST_EDGES: Float64Array = WBGT_BIN_EDGES.filter((_, i) => i % 2 === 0);
+export const HIST_EDGES: Float64Array = WBGT_BIN_EDGES;
 /** Length of one histogram: closed bins + two open bins. */
-export const HIST_LEN = HIST_EDGES.length + 1;
-const HIST_LOWER = HIST_EDGES[0];
-const HIST_UPPER = HIST_EDGES[HIST_EDGES.length - 1];
-const HIST_INV_WIDTH = 1 / (HIST_EDGES[1] - HIST_EDGES[0]);
+export const HIST_LEN = WBGT_HISTOGRAM_LENGTH;
 
 /** Histogram index of a WBGT value [°C]: 0 below 5 °C, HIST_LEN − 1 at or above 45 °C, −1 for NaN. */
-export function histIndex(wbgt: number): number {
-  if (wbgt !== wbgt) return -1;
-  if (wbgt < HIST_LOWER) return 0;
-  if (wbgt >= HIST_UPPER) return HIST_LEN - 1;
-  return 1 + Math.floor((wbgt - HIST_LOWER) * HIST_INV_WIDTH);
-}
+export const histIndex = wbgtBinIndex;

@@ -6,7 +6,7 @@
 import type { Dataset } from '../read/index.ts';
 import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
 import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
-import { accumulateBlock, createPartial, createScratch, type ShardPartial } from '../reduce/accumulator.ts';
+import { accumulateBlock, createPartial, createScratch, finishPartial, type ShardPartial } from '../reduce/accumulator.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
@@ -23,6 +23,8 @@ export interface ShardContext {
 
 export interface ShardResult {
   partial: ShardPartial;
+  /** Wall-clock milliseconds spent reading, in physics and in the reduction [ms]. */
+  timing: { read: number; physics: number; reduce: number };
   physics: KernelCounts;
   /** Cell-hours computed (land cells × hours of the year read) [–]. */
   cellHours: number;
@@ -49,7 +51,7 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
   for (const p of pos) isLand[p] = 1;
 
   const partial = createPartial(shard.year, cells, ctx.evaluations);
-  const scratch = createScratch(BLOCK_HOURS * nLand);
+  const scratch = createScratch(BLOCK_HOURS * nLand, ctx.evaluations, nLand);
   const physics = emptyCounts();
   const local: LocalHours = allocLocalHours(BLOCK_HOURS);
   const n = BLOCK_HOURS * nTile;
@@ -61,11 +63,20 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
   const gShade = new Float32Array(BLOCK_HOURS * nLand);
   const gAir = new Float32Array(BLOCK_HOURS * nLand);
   let cellHours = 0;
+  const timing = { read: 0, physics: 0, reduce: 0 };
+  let tick = performance.now();
+  const lap = (k: keyof typeof timing) => {
+    const now = performance.now();
+    timing[k] += now - tick;
+    tick = now;
+  };
 
   const [h0, h1] = hourRangeForYear(ds, shard.year);
   for (let t0 = h0; t0 < h1; t0 += BLOCK_HOURS) {
     const nt = Math.min(BLOCK_HOURS, h1 - t0);
+    tick = performance.now();
     const block = await ds.readBlock(t0, nt, tile);
+    lap('read');
     const f = block.fields;
     const air = f.airTemperature!;
     // Ocean cells are not computed: a missing input makes the kernel skip them.
@@ -83,6 +94,7 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
     const counts = computeHours(arrays, 0, nt, { windHeight: 10 });
     counts.rejected -= (nTile - nLand) * nt; // ocean cells are skipped on purpose, not rejected
     addCounts(physics, counts);
+    lap('physics');
     // Gather the land cells into compact arrays for the reduction.
     for (let t = 0; t < nt; t++) {
       const src = t * nTile;
@@ -102,6 +114,8 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
       scratch,
     );
     for (let t = 0; t < nt; t++) if (local.year[t] === shard.year) cellHours += nLand;
+    lap('reduce');
   }
-  return { partial, physics, cellHours };
+  finishPartial(partial, scratch);
+  return { partial, physics, cellHours, timing };
 }

@@ -81,3 +81,23 @@ function checkLength(out: Float32Array, wbgt: Float32Array): void {
     throw WorkParameterInvalid({ name: 'input length', value: String(wbgt.length), expected: `at least out.length = ${out.length} values` });
   }
 }
+
+/** A capacity-loss function prepared for hot loops (constants hoisted). */
+export interface PreparedLoss {
+  kind: 'kjellstrom-2018' | 'dunne-2013';
+  /** Kjellstrom μ [°C] and 1/σ [1/°C]; unused for Dunne. */
+  mean: number;
+  invSd: number;
+}
+
+/** Kjellstrom et al. 2018 at `intensity` [W], or Dunne et al. 2013 when `intensity` is undefined. */
+export function prepareLoss(intensity?: KjellstromIntensity): PreparedLoss {
+  if (intensity === undefined) return { kind: 'dunne-2013', mean: NaN, invSd: NaN };
+  const { mean, sd } = params(intensity);
+  return { kind: 'kjellstrom-2018', mean, invSd: 1 / sd };
+}
+
+/** Loss [0–1] at WBGT `wbgt` [°C] for a prepared function; same values as the array kernels above. */
+export function lossPrepared(wbgt: number, p: PreparedLoss): number {
+  return p.kind === 'kjellstrom-2018' ? normalCdfFast((wbgt - p.mean) * p.invSd) : dunne2013Loss(wbgt);
+}

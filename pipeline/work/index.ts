@@ -15,4 +15,5 @@ export * from './shifts.ts';
 export * from './wbgt-bins.ts';
 export * from './histogram-estimate.ts';
 export * from './work-settings.ts';
+export * from './evaluation-groups.ts';
 export * from './cautions.ts';

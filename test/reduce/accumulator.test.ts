@@ -1,0 +1,181 @@
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { parse } from 'yaml';
+import { accumulateBlock, createPartial, createScratch, finishPartial, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
+import { mergeYear } from '../../pipeline/reduce/merge.ts';
+import { HIST_EDGES, HIST_LEN, HOURS, MILLI, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
+import {
+  allowableWorkFraction,
+  estimateFromHistogram,
+  localHours,
+  parseWorkloadClasses,
+  resolveWorkSettings,
+  workSettingsSchema,
+  type WorkEvaluation,
+} from '../../pipeline/work/index.ts';
+import { HeathoursError } from '../../pipeline/model/errors.ts';
+
+const classes = parseWorkloadClasses(parse(readFileSync(new URL('../../content/workload-classes.yaml', import.meta.url), 'utf8')));
+const work = resolveWorkSettings(workSettingsSchema.parse(undefined), classes);
+const HOUR = 3_600_000;
+
+/** Seeded invented hourly WBGT for `nc` cells over `nt` hours from `start` (a diurnal cycle plus noise). */
+function inventedBlock(nc: number, nt: number, start: number, seed: number, nanEvery = 0) {
+  let s = seed >>> 0;
+  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const time = Float64Array.from({ length: nt }, (_, t) => start + (t + 1) * HOUR);
+  const sun = new Float32Array(nt * nc);
+  const shade = new Float32Array(nt * nc);
+  const air = new Float32Array(nt * nc);
+  for (let t = 0; t < nt; t++) {
+    for (let c = 0; c < nc; c++) {
+      const i = t * nc + c;
+      const d = Math.sin((((t + 14) % 24) / 24) * 2 * Math.PI);
+      shade[i] = 24 + 4 * d + c * 0.5 + 5 * (rnd() - 0.5); // day-to-day spread of ±2.5 °C
+      sun[i] = shade[i] + Math.max(0, 3.5 * d) + rnd();
+      air[i] = shade[i] + 4;
+      if (nanEvery && i % nanEvery === 0) sun[i] = NaN;
+    }
+  }
+  return { time, sun, shade, air };
+}
+
+function run(evals: readonly WorkEvaluation[], general: boolean, nc: number, nt: number, seed: number, tz = 'Etc/GMT+10'): ShardPartial {
+  const start = Date.UTC(2021, 5, 20);
+  const b = inventedBlock(nc, nt, start, seed, 97);
+  const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => i * 3), evals);
+  const scratch = createScratch(nt * nc, evals, nc, general);
+  const local = localHours(b.time, tz, work.shift);
+  accumulateBlock(p, { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local }, evals, scratch);
+  return finishPartial(p, scratch);
+}
+
+describe('per-shard accumulation', () => {
+  it('the fused path gives exactly the counts of the general per-evaluation path (invented data, NaN hours included)', () => {
+    const a = run(work.evaluations, false, 7, 24 * 40, 11);
+    const b = run(work.evaluations, true, 7, 24 * 40, 11);
+    for (const k of Object.keys(a) as (keyof ShardPartial)[]) expect(a[k], k).toEqual(b[k]);
+    expect(a.aboveShift.reduce((x, y) => x + y, 0)).toBeGreaterThan(0);
+    expect(a.failedHours.reduce((x, y) => x + y, 0)).toBeGreaterThan(0);
+  });
+
+  it('counts hours above the limit and milli-hours lost exactly as the work model computes them hour by hour', () => {
+    const nc = 3;
+    const nt = 24 * 10;
+    const p = run(work.evaluations, false, nc, nt, 5);
+    const b = inventedBlock(nc, nt, Date.UTC(2021, 5, 20), 5, 97);
+    const local = localHours(b.time, 'Etc/GMT+10', work.shift);
+    const nE = work.evaluations.length;
+    work.evaluations.forEach((ev, e) => {
+      for (let c = 0; c < nc; c++) {
+        let above = 0;
+        let lost = 0;
+        for (let t = 0; t < nt; t++) {
+          if (local.year[t] !== 2021 || local.inShift[t] !== 1) continue;
+          const i = t * nc + c;
+          if (Number.isNaN(b.sun[i])) continue;
+          const w = ev.exposure === 'sun' ? b.sun[i] : b.shade[i];
+          const f = allowableWorkFraction(w, null, ev.kernel);
+          if (f < 1) {
+            above++;
+            lost += Math.round((1 - f) * MILLI);
+          }
+        }
+        const k = (c * MONTHS + 5) * nE + e; // June
+        expect(p.aboveShift[k], ev.key).toBe(above);
+        expect(Math.abs(p.lostShift[k] - lost), ev.key).toBeLessThanOrEqual(above); // f in float32 vs float64: at most 1 milli-hour per hour
+      }
+    });
+  });
+
+  it('hours are assigned to the local month and only to the partial\'s local year (Etc/GMT+10: 31 Dec 14:00 UTC is still December)', () => {
+    const evals = work.evaluations;
+    const nc = 1;
+    const start = Date.UTC(2021, 11, 31, 0);
+    const b = inventedBlock(nc, 24, start, 3);
+    const p = createPartial(2021, Int32Array.of(0), evals);
+    const scratch = createScratch(24, evals, nc);
+    accumulateBlock(p, { nHours: 24, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local: localHours(b.time, 'Etc/GMT+10', work.shift) }, evals, scratch);
+    // Hours ending 01:00 … 24:00 UTC on 31 Dec start 14:00 on 30 Dec … 13:00 on 31 Dec local: all December 2021.
+    expect(p.coveredHours[11]).toBe(24);
+    expect(p.validHours[11]).toBe(24);
+  });
+});
+
+describe('merging partials', () => {
+  it('two tiles merged in either order equal the counts of both cells computed as one tile', () => {
+    const evals = work.evaluations;
+    const whole = run(evals, false, 4, 24 * 5, 9);
+    const split = (from: number, to: number) => {
+      const q = createPartial(2021, whole.cells.slice(from, to), evals);
+      const per = (f: keyof ShardPartial) => (whole[f] as ArrayLike<number>).length / whole.cells.length;
+      for (const f of ['validHours', 'shiftHours', 'aboveAll', 'aboveShift', 'lostShift', 'capacityLoss', 'wbgtSum', 'wbgtMax', 'airSum', 'airHours', 'histogram', 'failedHours'] as const) {
+        const w = per(f);
+        (q[f] as unknown as { set(a: ArrayLike<number>): void }).set((whole[f] as unknown as { subarray(a: number, b: number): ArrayLike<number> }).subarray(from * w, to * w));
+      }
+      q.coveredHours.set(whole.coveredHours);
+      return q;
+    };
+    const a = mergeYear(2021, whole.cells, [split(0, 1), split(1, 4)]);
+    const b = mergeYear(2021, whole.cells, [split(1, 4), split(0, 1)]);
+    expect(a).toEqual(b);
+    expect(a.aboveShift).toEqual(whole.aboveShift);
+    expect(a.histogram).toEqual(whole.histogram);
+    expect(a.wbgtMax).toEqual(whole.wbgtMax);
+  });
+
+  it('a cell in two partials and a cell in none are catalogued errors naming the shards', () => {
+    const evals = work.evaluations;
+    const p = run(evals, false, 2, 24, 1);
+    try {
+      mergeYear(2021, p.cells, [p, p], ['t00-y2021', 't01-y2021']);
+      throw new Error('no error');
+    } catch (e) {
+      expect(e).toBeInstanceOf(HeathoursError);
+      expect((e as HeathoursError).code).toBe('PartialsInconsistent');
+      expect((e as HeathoursError).message).toContain('t00-y2021');
+    }
+    expect(() => mergeYear(2021, Int32Array.of(0, 3, 99), [p])).toThrow(/1 land cell\(s\) in no partial/);
+  });
+});
+
+describe('histograms of the partials', () => {
+  it('hours above the limit and hours lost estimated from the month × hour histograms (0.25 °C bins) of a small region (6 cells, one month of shift hours) are within 1 % of the hours of the hourly computation', () => {
+    const nc = 6;
+    const nt = 24 * 30;
+    const p = run(work.evaluations, false, nc, nt, 21);
+    const b = inventedBlock(nc, nt, Date.UTC(2021, 5, 20), 21, 97);
+    const local = localHours(b.time, 'Etc/GMT+10', work.shift);
+    // The calculator's view: the histograms of the shift's local hours of June, pooled over the cells.
+    const shiftHoursOfDay = new Set<number>();
+    for (let t = 0; t < nt; t++) if (local.inShift[t] === 1) shiftHoursOfDay.add(local.hour[t]);
+    for (const ev of work.evaluations) {
+      const x = ev.exposure === 'sun' ? 0 : 1;
+      let above = 0;
+      let lost = 0;
+      let hours = 0;
+      const counts = new Float64Array(HIST_LEN);
+      for (let c = 0; c < nc; c++) {
+        for (let t = 0; t < nt; t++) {
+          if (local.month[t] !== 6 || local.year[t] !== 2021 || !shiftHoursOfDay.has(local.hour[t])) continue;
+          const i = t * nc + c;
+          if (Number.isNaN(b.sun[i])) continue;
+          hours++;
+          const f = allowableWorkFraction(ev.exposure === 'sun' ? b.sun[i] : b.shade[i], null, ev.kernel);
+          if (f < 1) {
+            above++;
+            lost += 1 - f;
+          }
+        }
+        for (const h of shiftHoursOfDay) {
+          const base = (((c * MONTHS + 5) * HOURS + h) * N_EXPOSURES + x) * HIST_LEN;
+          for (let j = 0; j < HIST_LEN; j++) counts[j] += p.histogram[base + j];
+        }
+      }
+      const est = estimateFromHistogram(HIST_EDGES, counts, ev.kernel);
+      expect(est.hours).toBe(hours);
+      expect(Math.abs(est.hoursAbove - above), `${ev.key} above`).toBeLessThanOrEqual(0.01 * hours);
+      expect(Math.abs(est.hoursLost - lost), `${ev.key} lost`).toBeLessThanOrEqual(0.01 * hours);
+    }
+  });
+});
