@@ -221,12 +221,6 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     return stride;
   }
 
-  // One window buffer per file, reused by every readSlabs call (no per-block allocation).
-  let win: Buffer | null = null;
-  const windowOf = (n: number): Buffer => {
-    if (!win || win.length < n) win = Buffer.allocUnsafeSlow(Math.max(n, win ? Math.ceil(win.length * 1.5) : 0));
-    return win;
-  };
 
   /**
    * Reads the requests in windows of whole dim-0 slices (records): one byte range per window
@@ -278,17 +272,25 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
         continue;
       }
       const k = s0 > 0 ? Math.max(1, Math.min(n0, Math.floor(MAX_WINDOW / s0))) : n0;
-      for (let j = 0; j < n0; j += k) {
-        const kk = Math.min(k, n0 - j);
-        const winLo = lo + j * s0;
-        const winLen = hi1 + (j + kk - 1) * s0 - winLo;
-        const buf = windowOf(winLen);
-        await readAt(fh, path, buf, 0, winLen, winLo);
-        const bytes = new Uint8Array(buf.buffer, buf.byteOffset, winLen);
-        const view = new DataView(buf.buffer, buf.byteOffset, winLen);
-        for (const x of grp) {
-          sink(g.indexOf(x), { data: bytes, view, type: x.v.type, base: x.lo + j * s0 - winLo, strides: x.st }, j, kk);
+      let buf = takeWindow(0);
+      try {
+        for (let j = 0; j < n0; j += k) {
+          const kk = Math.min(k, n0 - j);
+          const winLo = lo + j * s0;
+          const winLen = hi1 + (j + kk - 1) * s0 - winLo;
+          if (buf.length < winLen) {
+            giveWindow(buf);
+            buf = takeWindow(winLen);
+          }
+          await readAt(fh, path, buf, 0, winLen, winLo);
+          const bytes = new Uint8Array(buf.buffer, buf.byteOffset, winLen);
+          const view = new DataView(buf.buffer, buf.byteOffset, winLen);
+          for (const x of grp) {
+            sink(g.indexOf(x), { data: bytes, view, type: x.v.type, base: x.lo + j * s0 - winLo, strides: x.st }, j, kk);
+          }
         }
+      } finally {
+        giveWindow(buf);
       }
     }
   }
@@ -316,6 +318,28 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     },
     close: () => fh.close(),
   };
+}
+
+/**
+ * Window buffers shared by all classic files of the process: a read takes one (the largest
+ * free one, grown when too small) and gives it back, so sequential reads reuse the same memory
+ * (no per-block allocation, and no buffer per open file) while concurrent reads never share.
+ */
+const freeWindows: Buffer[] = [];
+
+function takeWindow(n: number): Buffer {
+  freeWindows.sort((a, b) => a.length - b.length);
+  const b = freeWindows.pop();
+  if (b && b.length >= n) return b;
+  return Buffer.allocUnsafeSlow(Math.max(n, b ? Math.ceil(b.length * 1.5) : 0, 1));
+}
+
+function giveWindow(b: Buffer): void {
+  freeWindows.push(b);
+  if (freeWindows.length > 4) {
+    freeWindows.sort((a, c) => a.length - c.length);
+    freeWindows.shift();
+  }
 }
 
 function sumStart(start: number[], stride: number[], from: number, to: number): number {

@@ -407,9 +407,7 @@ class DatasetReader {
         jobs.push(...this.jobsFor('u10', t0, nt, u, 0), ...this.jobsFor('v10', t0, nt, w, 0));
         const out = this.buffer(field, nt * cells, this.reuseOutput);
         fields.windSpeed10m = out;
-        after.push(() => {
-          for (let i = 0; i < out.length; i++) out[i] = Math.sqrt(u[i] * u[i] + w[i] * w[i]);
-        });
+        after.push(() => windSpeedInto(out, u, w));
         continue;
       }
       const short = SOURCES[field][0];
@@ -461,6 +459,16 @@ class DatasetReader {
         }
       }
     }
+  }
+}
+
+/** 10 m wind speed [m/s] from its components [m/s], into `out` (a plain function: its arguments stay in registers). */
+function windSpeedInto(out: Float32Array, u: Float32Array, v: Float32Array): void {
+  const n = out.length;
+  for (let i = 0; i < n; i++) {
+    const a = u[i];
+    const b = v[i];
+    out[i] = Math.sqrt(a * a + b * b);
   }
 }
 
