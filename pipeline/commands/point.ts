@@ -1,7 +1,15 @@
 /**
- * `heathours point --in IN.csv --out OUT.csv`: hourly WBGT for tabular weather data (DESIGN.md
- * §4 "point CSV columns"). Streams the input; rows with out-of-range inputs or failed solves get
- * empty outputs and a `status` naming the reason; the output appears atomically.
+ * `heathours point --in IN.csv --out OUT.csv [--classes FILE] [--unacclimatized] [--cav X]`:
+ * hourly WBGT and work figures for tabular weather data (DESIGN.md §4 "point CSV columns").
+ * Streams the input; rows with out-of-range inputs or failed solves get empty outputs and a
+ * `status` naming the reason; the output appears atomically.
+ *
+ * Work columns, per workload class (default: content/workload-classes.yaml): `limit_<class>_c`,
+ * the WBGT limit at the class's rate as a measured WBGT, L(M_w) − CAV [°C] (METHODS.md §5.3,
+ * curve-2017, acclimatized unless `--unacclimatized`), and `work_fraction_<class>`, the allowable
+ * work fraction of the hour [0–1] (METHODS.md §5.6) with the work in the sun (`wbgt_c`) and rest
+ * in the same place, clothing adjustment `--cav` (default 0). Screening values only: local
+ * regulations and a competent person decide (METHODS.md §9).
  */
 import type { Command } from 'commander';
 import { createWriteStream, existsSync, statSync } from 'node:fs';
@@ -12,12 +20,70 @@ import { temporarySibling } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import '../model/catalogue.ts';
 import { readCsvRecords, csvField } from '../physics/csv.ts';
-import { PointInputNotFound, PointMissingColumn } from '../physics/errors.ts';
+import { PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid } from '../physics/errors.ts';
 import { computePoint, type PointInput } from '../physics/point-row.ts';
 import { statusName } from '../physics/status.ts';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { parse as parseYaml, YAMLParseError } from 'yaml';
+import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type WorkKernel, type WorkloadClasses } from '../work/index.ts';
 
 const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
-const OUTPUT = ['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c', 'status'] as const;
+const PHYSICS_OUTPUT = ['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c'] as const;
+
+/** The shipped workload classes (content/workload-classes.yaml), the default of `--classes`. */
+export const DEFAULT_CLASSES_FILE = fileURLToPath(new URL('../../content/workload-classes.yaml', import.meta.url));
+
+/** Options of the work columns. */
+export interface PointWorkOptions {
+  /** Workload-classes YAML file; default {@link DEFAULT_CLASSES_FILE}. */
+  classesFile?: string;
+  /** Use the unacclimatized limit curve (default: acclimatized). */
+  unacclimatized?: boolean;
+  /** Clothing adjustment value [°C-WBGT], default 0. */
+  cav?: number;
+}
+
+/**
+ * Column names of one class: `limit_<id>_c`, `work_fraction_<id>`, with the dashes of the class id
+ * turned into underscores (`very-high` → `limit_very_high_c`). Class ids are lower-case letters,
+ * digits and dashes (pipeline/work/workload-classes.ts), so two ids never give the same column.
+ */
+export function classColumns(id: string): [string, string] {
+  const k = id.replace(/-/g, '_');
+  return [`limit_${k}_c`, `work_fraction_${k}`];
+}
+
+/** Reads and validates a workload-classes file (catalogued errors for a missing or bad file). */
+export function loadWorkloadClasses(file: string): WorkloadClasses {
+  if (!existsSync(file)) throw PointClassesNotFound({ path: file });
+  let raw: unknown;
+  try {
+    raw = parseYaml(readFileSync(file, 'utf8'));
+  } catch (e) {
+    if (e instanceof YAMLParseError) throw PointClassesSyntax({ detail: e.message }, { file });
+    throw e;
+  }
+  return parseWorkloadClasses(raw, file);
+}
+
+/**
+ * One prepared work-fraction kernel per class (METHODS.md §5.6, pipeline/work): curve-2017 limits,
+ * acclimatized unless asked, rest in the same place, the given clothing adjustment.
+ */
+export function prepareClassKernels(opts: PointWorkOptions = {}): { id: string; columns: [string, string]; kernel: WorkKernel }[] {
+  const cav = opts.cav ?? 0;
+  if (!Number.isFinite(cav)) throw PointOptionInvalid({ option: '--cav', value: String(opts.cav), expected: 'a number of °C-WBGT from 0 to 20' });
+  const classes = loadWorkloadClasses(opts.classesFile ?? DEFAULT_CLASSES_FILE);
+  return classes.classes.map((c) => ({
+    id: c.id,
+    columns: classColumns(c.id),
+    kernel: prepareWorkKernel({
+      workRate: c.metabolicRate, restRate: classes.rest.metabolicRate, clothingAdjustment: cav,
+      limit: { model: 'curve-2017', acclimatization: opts.unacclimatized ? 'unacclimatized' : 'acclimatized' },
+    }),
+  }));
+}
 
 /** Summary of a point run. */
 export interface PointSummary {
@@ -33,8 +99,10 @@ function num(v: string | undefined, dflt: number): number {
 }
 
 /** Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file. */
-export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } = {}): Promise<PointSummary> {
+export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
   if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const work = prepareClassKernels(opts);
+  const OUTPUT: string[] = [...PHYSICS_OUTPUT, ...work.flatMap((w) => w.columns), 'status'];
   const size = statSync(inPath).size;
   const progress = startProgress('point', size, opts);
   await mkdir(dirname(outPath), { recursive: true });
@@ -78,12 +146,18 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       if (r.dewPointClamped) summary.dewPointClamped++;
       const ok = r.status === 0;
       const f = (v: number, d: number) => (ok && Number.isFinite(v) ? v.toFixed(d) : '');
-      const values: Record<(typeof OUTPUT)[number], string> = {
+      const values: Record<string, string> = {
         cos_zenith: f(r.cosZenith, 6), direct_fraction: f(r.directFraction, 6), wind_2m_ms: f(r.wind2m, 4),
         tg_c: f(r.tg, 4), tnwb_c: f(r.tnwb, 4), tpsy_c: f(r.tpsy, 4), wbgt_c: f(r.wbgt, 4), wbgt_shade_c: f(r.wbgtShade, 4),
         status: name,
       };
-      const row = header.map((h, i) => (OUTPUT.includes(h as (typeof OUTPUT)[number]) ? values[h as (typeof OUTPUT)[number]] : fields[i] ?? ''));
+      // Work columns: the limit as a measured WBGT, L(M_w) − CAV, and the allowable work fraction
+      // with exposure in the sun (wbgt_c) and rest in the same place.
+      for (const w of work) {
+        values[w.columns[0]] = ok ? w.kernel.threshold.toFixed(3) : '';
+        values[w.columns[1]] = f(allowableWorkFraction(r.wbgt, null, w.kernel), 4);
+      }
+      const row = header.map((h, i) => (OUTPUT.includes(h) ? values[h] : fields[i] ?? ''));
       for (const c of OUTPUT) if (!(c in col)) row.push(values[c]);
       await write(`${row.map(csvField).join(',')}\r\n`);
       progress.tick(bytes);
@@ -108,9 +182,16 @@ export function register(program: Command): void {
     .description('hourly WBGT (sun and shade, Liljegren method) for tabular weather data: one row per hour')
     .requiredOption('--in <file>', 'input CSV (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
     .requiredOption('--out <file>', 'output CSV: the input columns plus the computed ones and a status')
+    .option('--classes <file>', 'workload classes (YAML like content/workload-classes.yaml); default: the shipped classes')
+    .option('--unacclimatized', 'use the limit curve for unacclimatized workers (default: acclimatized)')
+    .option('--cav <value>', 'clothing adjustment value added to the WBGT [°C-WBGT], default 0')
     .option('--quiet', 'no progress output')
-    .action(async (opts: { in: string; out: string; quiet?: boolean }) => {
-      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet });
+    .action(async (opts: { in: string; out: string; quiet?: boolean; classes?: string; unacclimatized?: boolean; cav?: string }) => {
+      const cav = opts.cav === undefined ? 0 : Number(opts.cav);
+      if (opts.cav !== undefined && (opts.cav.trim() === '' || !Number.isFinite(cav))) {
+        throw PointOptionInvalid({ option: '--cav', value: opts.cav, expected: 'a number of °C-WBGT from 0 to 20' });
+      }
+      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav });
       const rest = Object.entries(s.byStatus).filter(([k]) => k !== 'ok').map(([k, v]) => `${k} ${v}`).join(', ');
       process.stderr.write(`point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`);
     });

@@ -24,3 +24,24 @@ export const PointBadRow = defineError<{ detail: string }>({
   message: (p) => p.detail,
   hint: () => 'check the row for an unclosed quote or a wrong number of fields',
 });
+
+export const PointClassesNotFound = defineError<{ path: string }>({
+  code: 'PointClassesNotFound',
+  title: 'The workload-classes file for `point` does not exist',
+  message: (p) => `no workload-classes file at ${p.path}`,
+  hint: () => 'pass --classes with the path of a YAML file shaped like content/workload-classes.yaml, or leave it out for the default classes',
+});
+
+export const PointClassesSyntax = defineError<{ detail: string }>({
+  code: 'PointClassesSyntax',
+  title: 'The workload-classes file for `point` is not valid YAML',
+  message: (p) => p.detail,
+  hint: () => 'fix the YAML syntax at the line shown (indentation with spaces, a colon after each key)',
+});
+
+export const PointOptionInvalid = defineError<{ option: string; value: string; expected: string }>({
+  code: 'PointOptionInvalid',
+  title: 'An option of `point` has an invalid value',
+  message: (p) => `${p.option} is "${p.value}"; expected ${p.expected}`,
+  hint: (p) => (p.option === '--cav' ? 'give the clothing adjustment value in °C-WBGT, e.g. --cav 2 (0 for work clothes)' : 'see `heathours point --help`'),
+});
