@@ -33,6 +33,8 @@ import { writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
 import { buildSite } from '../publish/site.ts';
 import { figureDefs } from './figures.ts';
+import { regionHistograms } from '../reduce/region-histograms.ts';
+import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -95,19 +97,34 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     const shards = planShards(nLat, nLon, land, years);
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
     log.info(`computing ${shards.length} shards (${cells.length} land cells × ${years.length} years) on ${jobs} worker(s)`);
-    const byYear = new Map<number, { partials: ShardPartial[]; names: string[] }>(years.map((y) => [y, { partials: [], names: [] }]));
+    const byYear = new Map<number, { partials: ShardPartial[]; names: string[]; expected: number }>(
+      years.map((y) => [y, { partials: [], names: [], expected: shards.filter((s) => s.year === y).length }]),
+    );
+    // A year is merged as soon as its last shard arrives, and its cell histograms are folded into
+    // region histograms and dropped: memory holds one year of histograms, not the record.
+    const landIndex = new Int32Array(nGrid).fill(-1);
+    cells.forEach((g, i) => (landIndex[g] = i));
+    const merged = new Map<number, YearCounts>();
+    const regionHist = new Map<number, Float32Array[]>();
     const physics = emptyCounts();
     let cellHours = 0;
     const progress = startProgress('shards', shards.length, { quiet: o.quiet });
     const tc = Date.now();
     await runShards(
       shards,
-      { files: rc.inputFiles, datasetOptions: { ...datasetOptions, digests: false } as typeof datasetOptions, context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon } },
+      { files: rc.inputFiles, datasetOptions: { ...datasetOptions, digests: false, reuseBlockBuffers: true }, context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon } },
       jobs,
       (shard, result) => {
         const slot = byYear.get(shard.year)!;
         slot.partials.push(result.partial);
         slot.names.push(shard.id);
+        if (slot.partials.length === slot.expected) {
+          const yc = mergeYear(shard.year, cells, slot.partials, slot.names);
+          regionHist.set(shard.year, regionHistograms(yc, weights, landIndex));
+          yc.histogram = new Uint16Array(0);
+          merged.set(shard.year, yc);
+          slot.partials = [];
+        }
         addCounts(physics, result.physics);
         cellHours += result.cellHours;
         progress.tick();
@@ -118,7 +135,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${computeSeconds.toFixed(1)} s (${(cellHours / computeSeconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
 
     // Merge, normals, niche.
-    const yearCounts: YearCounts[] = years.map((y) => mergeYear(y, cells, byYear.get(y)!.partials, byYear.get(y)!.names));
+    const yearCounts: YearCounts[] = years.map((y) => merged.get(y)!);
     const ctx = { years, baseline: cfg.baseline, latestYear: years[years.length - 1], cells, nGrid, regions: weights };
     const figures = computeFigures(yearCounts).map((s) => figureNormals(s, ctx));
     const niche = nicheStep(yearCounts, ctx);
@@ -140,6 +157,11 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
       await writeFile(join(dataDir, 'niche.json'), JSON.stringify(nicheJson(niche, cells, ds.grid)));
+      await mkdir(join(dataDir, 'calculator'), { recursive: true });
+      await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(years, cfg.baseline, regions)));
+      for (let r = 0; r < regions.length; r++) {
+        await writeFile(join(dataDir, 'calculator', `${regions[r].id}.bin`), encodeHistogramTile(years.map((y) => regionHist.get(y)![r])));
+      }
       const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
       const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
       layerProgress.done();
@@ -265,6 +287,7 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
       : { kind: 'table', description: 'per-cell table: shift hours above the limit and hours lost', units: 'h' };
   }
+  if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
 }

@@ -1,0 +1,188 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, writeFileSync, existsSync, readdirSync, mkdirSync, copyFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { createHash } from 'node:crypto';
+import { writeDemoDataset } from '../../pipeline/demo/index.ts';
+import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
+import { HeathoursError } from '../../pipeline/model/errors.ts';
+import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
+import { HIST_EDGES, HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
+import { estimateFromHistogram, prepareWorkKernel, limitCurve2017 } from '../../pipeline/work/index.ts';
+import type { Manifest } from '../../pipeline/publish/manifest.ts';
+
+const ROOT = new URL('../../', import.meta.url).pathname;
+let dir = '';
+
+function atlasYaml(extra = '', regions = join(ROOT, 'content/regions')): string {
+  return `id: small
+title: Small test atlas (invented data)
+dataset:
+  files: [inputs/*.nc]
+  landSeaMask: { variable: lsm, threshold: 0.5 }
+  invented: true
+years: [2022, 2023]
+baseline: [2022, 2023]
+timeZone: Etc/GMT+10
+regions: ${regions}
+output: out
+work:
+  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
+${extra}`;
+}
+
+function parseCsv(text: string): Record<string, string>[] {
+  const [head, ...rows] = text.trim().split('\n');
+  const cols = head.split(',');
+  return rows.map((r) => Object.fromEntries(r.split(',').map((v, i) => [cols[i], v])));
+}
+
+async function expectBuildError(yaml: string, code: string, name: string): Promise<HeathoursError> {
+  const cfg = join(dir, `${name}.yaml`);
+  writeFileSync(cfg, yaml);
+  const out = join(dir, `out-${name}`);
+  try {
+    await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true });
+  } catch (e) {
+    expect(e).toBeInstanceOf(HeathoursError);
+    expect((e as HeathoursError).code).toBe(code);
+    expect(existsSync(out), 'nothing is published after a failed build').toBe(false);
+    expect(readdirSync(dir).filter((f) => f.includes('.stage-')), 'no staging folder is left').toEqual([]);
+    return e as HeathoursError;
+  }
+  throw new Error(`expected ${code}`);
+}
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), 'hh-build-'));
+  // Invented demo data, small grid, one legacy (2022) and one NetCDF-4 (2023) year.
+  await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2022, 2023], layout: 'mixed', grid: 'small', quiet: true });
+  writeFileSync(join(dir, 'atlas.yaml'), atlasYaml());
+  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out1'), jobs: 1, quiet: true, dataOnly: true });
+  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out2'), jobs: 2, quiet: true, dataOnly: true });
+}, 300_000);
+
+describe('heathours build on the invented small demo', () => {
+  it('publishes the same tables and layers with 1 and 2 worker threads', () => {
+    const m1 = JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest;
+    const m2 = JSON.parse(readFileSync(join(dir, 'out2/data/manifest.json'), 'utf8')) as Manifest;
+    const digests = (m: Manifest) => m.artefacts.filter((a) => !a.path.endsWith('inventory.json')).map((a) => `${a.path} ${a.sha256}`);
+    expect(digests(m1)).toEqual(digests(m2));
+    expect(m1.artefacts.length).toBeGreaterThan(100);
+  });
+
+  it('the manifest lists every published file with its true SHA-256 and the inputs with theirs', () => {
+    const m = JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest;
+    for (const a of m.artefacts.slice(0, 50)) {
+      const bytes = readFileSync(join(dir, 'out1', a.path));
+      expect(createHash('sha256').update(bytes).digest('hex'), a.path).toBe(a.sha256);
+      expect(bytes.length).toBe(a.bytes);
+    }
+    expect(m.inputs.map((i) => i.name).sort()).toEqual(readdirSync(join(dir, 'inputs')).sort());
+    for (const i of m.inputs) expect(i.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'inputs', i.name))).digest('hex'));
+    expect(m.atlas.invented).toBe(true);
+    expect(m.counts.cellHours).toBeGreaterThan(0);
+  });
+
+  it('region tables are tidy, state units, and hold consistent statistics (hours lost ≤ hours above ≤ shift hours, median ≤ P90 ≤ max)', () => {
+    const files = readdirSync(join(dir, 'out1/data/regions')).filter((f) => f.endsWith('.csv'));
+    expect(files.length).toBe(5);
+    for (const f of files) {
+      const rows = parseCsv(readFileSync(join(dir, 'out1/data/regions', f), 'utf8'));
+      const get = (period: string, figure: string, key: string, stat: string) =>
+        Number(rows.find((r) => r.period === period && r.figure === figure && `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key && r.statistic === stat)?.value);
+      for (const key of ['moderate.acclimatized.sun', 'very-high.unacclimatized.shade']) {
+        for (const period of ['07', 'year']) {
+          const lost = get(period, 'hours-lost-shift', key, 'mean');
+          const above = get(period, 'hours-above-limit-shift', key, 'mean');
+          expect(lost).toBeLessThanOrEqual(above + 1e-9);
+          expect(get(period, 'hours-above-limit-shift', key, 'median')).toBeLessThanOrEqual(get(period, 'hours-above-limit-shift', key, 'p90') + 1e-9);
+          expect(get(period, 'hours-above-limit-shift', key, 'p90')).toBeLessThanOrEqual(get(period, 'hours-above-limit-shift', key, 'max') + 1e-9);
+        }
+        expect(get('07', 'hours-above-limit-shift', key, 'mean')).toBeLessThanOrEqual(31 * 10);
+      }
+      expect(new Set(rows.map((r) => r.unit))).toEqual(new Set(['h', 'degC']));
+      // More work, more hours above the limit (same exposure and acclimatization).
+      expect(get('year', 'hours-above-limit-shift', 'very-high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(get('year', 'hours-above-limit-shift', 'low.acclimatized.sun', 'mean'));
+      // Sun is never kinder than shade.
+      expect(get('year', 'hours-lost-shift', 'high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(get('year', 'hours-lost-shift', 'high.acclimatized.shade', 'mean'));
+    }
+  });
+
+  it('the calculator histogram tile of a region reproduces its table: hours above the limit over all hours of July within 1 % of the hours', () => {
+    const index = JSON.parse(readFileSync(join(dir, 'out1/data/calculator/index.json'), 'utf8'));
+    const id = index.regions[0].id as string;
+    const years = decodeHistogramTile(readFileSync(join(dir, 'out1/data/calculator', `${id}.bin`)), index.years.length);
+    const rows = parseCsv(readFileSync(join(dir, 'out1/data/regions', `${id}.csv`), 'utf8'));
+    const tableValue = Number(rows.find((r) => r.period === '07' && r.figure === 'hours-above-limit-all' && r.workload_class === 'high' && r.acclimatization === 'acclimatized' && r.exposure === 'sun' && r.statistic === 'mean')!.value);
+    const kernel = prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'curve-2017', acclimatization: 'acclimatized' } });
+    expect(kernel.limitWork).toBeCloseTo(limitCurve2017(415, 'acclimatized'), 12);
+    let total = 0;
+    let hours = 0;
+    for (const hist of years) {
+      const counts = new Float64Array(HIST_LEN);
+      for (let h = 0; h < HOURS; h++) {
+        const base = ((6 * HOURS + h) * N_EXPOSURES) * HIST_LEN;
+        for (let b = 0; b < HIST_LEN; b++) counts[b] += hist[base + b];
+      }
+      const e = estimateFromHistogram(HIST_EDGES, counts, kernel);
+      total += e.hoursAbove;
+      hours += e.hours;
+    }
+    const mean = total / years.length;
+    expect(Math.abs(mean - tableValue)).toBeLessThanOrEqual(0.01 * (hours / years.length));
+  });
+
+  it('writes real map layers: a PNG and a GeoTIFF per month for the baseline mean of shift hours lost', () => {
+    const m = JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest;
+    const lost = m.layers.filter((l) => l.figure === 'hours-lost-shift' && l.combo === 'high.acclimatized.sun' && l.statistic === 'mean');
+    expect(lost.map((l) => l.period)).toEqual(['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']);
+    for (const l of lost) {
+      expect(readFileSync(join(dir, 'out1', l.png)).subarray(1, 4).toString()).toBe('PNG');
+      expect(readFileSync(join(dir, 'out1', l.tif)).subarray(0, 2).toString()).toBe('II');
+      expect(l.legend.units).toBe('h');
+    }
+  });
+});
+
+describe('heathours build refuses bad input and publishes nothing', () => {
+  it('an unknown workload class', async () => {
+    await expectBuildError(atlasYaml('  classes: [low, heavy-ish]\n'), 'WorkloadClassUnknown', 'unknown-class');
+  });
+
+  it('a negative metabolic rate in the workload-classes file', async () => {
+    const classes = readFileSync(join(ROOT, 'content/workload-classes.yaml'), 'utf8').replace('metabolicRate: 300', 'metabolicRate: -300');
+    writeFileSync(join(dir, 'bad-classes.yaml'), classes);
+    const yaml = atlasYaml().replace(join(ROOT, 'content/workload-classes.yaml'), join(dir, 'bad-classes.yaml'));
+    const e = await expectBuildError(yaml, 'MetabolicRateOutOfRange', 'negative-rate');
+    expect(e.message).toContain('-300 W');
+  });
+
+  it('a shift outside 0-24 h', async () => {
+    await expectBuildError(atlasYaml('  shift: { start: 7, end: 25 }\n'), 'WorkShiftInvalid', 'bad-shift');
+  });
+
+  it('an unknown time zone', async () => {
+    await expectBuildError(atlasYaml().replace('Etc/GMT+10', 'Pacific/Atlantis'), 'ConfigInvalid', 'bad-zone');
+  });
+
+  it('years outside the data', async () => {
+    await expectBuildError(atlasYaml().replace('years: [2022, 2023]', 'years: [2022, 2025]'), 'YearsOutsideData', 'years-outside');
+  });
+
+  it('a region outside the grid', async () => {
+    const regions = join(dir, 'far-regions');
+    mkdirSync(regions, { recursive: true });
+    writeFileSync(join(regions, 'far.geojson'), JSON.stringify({ type: 'Feature', properties: { id: 'far-away', name: 'Far away' }, geometry: { type: 'Polygon', coordinates: [[[10, 10], [11, 10], [11, 11], [10, 11], [10, 10]]] } }));
+    await expectBuildError(atlasYaml('', regions), 'RegionOutsideGrid', 'region-outside');
+  });
+
+  it('a self-intersecting region polygon', async () => {
+    const regions = join(dir, 'bowtie-regions');
+    mkdirSync(regions, { recursive: true });
+    copyFileSync(join(ROOT, 'content/regions/drovan-basin.geojson'), join(regions, 'drovan-basin.geojson'));
+    writeFileSync(join(regions, 'bowtie.geojson'), JSON.stringify({ type: 'Feature', properties: { id: 'bowtie', name: 'Bow tie' }, geometry: { type: 'Polygon', coordinates: [[[-146, 19], [-145, 20], [-145, 19], [-146, 20], [-146, 19]]] } }));
+    const e = await expectBuildError(atlasYaml('', regions), 'RegionSelfIntersecting', 'bowtie');
+    expect(e.where.file).toContain('bowtie.geojson');
+  });
+});
