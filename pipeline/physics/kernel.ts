@@ -9,7 +9,7 @@
  * Dew points above the air temperature are clamped to it and counted.
  */
 import {
-  CellState, prepareCell, solveGlobe, solveWetBulb, globeShadeGuess, globeSunGuess, wetBulbShadeGuess, wetBulbSunGuess,
+  CellState, prepareFields, globeRoot, wetBulbRoot, globeShadeGuess, globeSunGuess, wetBulbShadeGuess, wetBulbSunGuess,
 } from './liljegren-solve.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
 import { KELVIN } from './constants.ts';
@@ -156,28 +156,41 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
       td = ta;
       clamped++;
     }
-    prepareCell(s, ta, td, p, u, sol, fd, cz);
+    // Inputs go through the cell's fields (no boxed number arguments, see CellState).
+    s.taC = ta;
+    s.tdC = td;
+    s.p = p;
+    s.u2 = u;
+    s.solar = sol;
+    s.fdirIn = fd;
+    s.cz = cz;
+    prepareFields(s);
     solved++;
     // Shade first; the sun solves start one quadratic step off the shade roots, and where there
     // is no solar load the sun balances are the shade balances (same root, not solved again).
-    const tgShade = solveGlobe(s, false, globeShadeGuess(s));
-    itGd += s.iterations;
+    globeShadeGuess(s);
+    itGd += globeRoot(s, false);
+    const tgShade = s.x;
     let tgSun = tgShade;
     if (s.qg > 0 && tgShade === tgShade) {
-      tgSun = solveGlobe(s, true, globeSunGuess(s, tgShade));
-      itGs += s.iterations;
+      globeSunGuess(s);
+      itGs += globeRoot(s, true);
+      tgSun = s.x;
     }
-    const twShade = solveWetBulb(s, true, false, wetBulbShadeGuess(s, true));
-    itWd += s.iterations;
+    wetBulbShadeGuess(s, true);
+    itWd += wetBulbRoot(s, true, false);
+    const twShade = s.x;
     let twSun = twShade;
     if (s.qw > 0 && twShade === twShade) {
-      twSun = solveWetBulb(s, true, true, wetBulbSunGuess(s, twShade));
-      itWs += s.iterations;
+      wetBulbSunGuess(s);
+      itWs += wetBulbRoot(s, true, true);
+      twSun = s.x;
     }
     let tpsy = 0;
     if (psychrometric) {
-      tpsy = solveWetBulb(s, false, false, wetBulbShadeGuess(s, false));
-      itPsy += s.iterations;
+      wetBulbShadeGuess(s, false);
+      itPsy += wetBulbRoot(s, false, false);
+      tpsy = s.x;
     }
     if (!(tgSun === tgSun) || !(tgShade === tgShade)) code = STATUS.globeNotConverged;
     else if (!(twSun === twSun) || !(twShade === twShade) || !(tpsy === tpsy)) code = STATUS.wetBulbNotConverged;

@@ -34,7 +34,7 @@ import {
 } from './constants.ts';
 
 /** Newton stops when a step is smaller than this [K] (remaining error < 3e−6 K, see above). */
-export const ROOT_TOLERANCE_K = 1e-3;
+export const ROOT_TOLERANCE_K = 3e-3;
 /** Largest number of iterations per solve before giving up (NaN, counted) [–]. */
 export const MAX_ITERATIONS = 50;
 
@@ -58,8 +58,24 @@ const CAP = D_WICK / (4 * L_WICK);
 /** Scratch for table reads: e_s, e_s', Z, Z', W, W'. */
 const LK = new Float64Array(6);
 
-/** Per-cell values hoisted out of the iterations (all SI, temperatures [K]). */
+/**
+ * Per-cell values hoisted out of the iterations (all SI, temperatures [K]).
+ *
+ * Doubles cross the kernel's calls through these fields, not as arguments or return values: a
+ * call V8 does not inline passes numbers boxed, i.e. one small heap allocation per number per call.
+ */
 export class CellState {
+  /** Raw inputs of the cell (set by the kernel, read by {@link prepareFields}): air temperature and dew point [°C], 2 m wind [m s⁻¹], solar [W m⁻²], direct fraction [–], cos zenith [–]. */
+  taC = 0;
+  tdC = 0;
+  u2 = 0;
+  solar = 0;
+  fdirIn = 0;
+  cz = 0;
+  /** Start [K] in, root [K] out, of {@link globeRoot} / {@link wetBulbRoot}. */
+  x = 0;
+  /** Newton stops at a step below this [K]. */
+  tol = ROOT_TOLERANCE_K;
   /** Air temperature [K] and its fourth power [K⁴]. */
   ta = 0;
   ta4 = 0;
@@ -118,12 +134,30 @@ function globeH(t: number, cg: number): number {
  * Below cos z = 0.00873 the beam is treated as diffuse (METHODS.md §3.2.6).
  */
 export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u2: number, solar: number, fdirIn: number, cz: number): void {
+  s.taC = taC;
+  s.tdC = tdC;
+  s.p = p;
+  s.u2 = u2;
+  s.solar = solar;
+  s.fdirIn = fdirIn;
+  s.cz = cz;
+  prepareFields(s);
+}
+
+/** {@link prepareCell} on the raw inputs already in `s` (taC, tdC, p, u2, solar, fdirIn, cz). */
+export function prepareFields(s: CellState): void {
+  const taC = s.taC;
+  const tdC = s.tdC;
+  const p = s.p;
+  const u2 = s.u2;
+  const solar = s.solar;
+  const fdirIn = s.fdirIn;
+  const cz = s.cz;
   const ta = taC + KELVIN;
   s.ta = ta;
   const ta2 = ta * ta;
   s.ta4 = ta2 * ta2;
   s.td = tdC + KELVIN;
-  s.p = p;
   // e_a = e_s(T_d), e_s'(T_d) and ε_a(T_d) from one table read (property-tables.ts).
   const L = LK;
   if (!lookup2(DEW_TABLE, s.td, L, 0)) exact2(DEW_TABLE, s.td, L, 0);
@@ -165,18 +199,18 @@ function quadraticStep(f: number, fp: number, fpp: number): number {
   return disc > 0 ? (-2 * f) / (fp + Math.sqrt(disc)) : -f / fp;
 }
 
-/** First guess for the shade globe [K]: quadratic model of F at Tg = Ta (h_g(Ta) shared). */
-export function globeShadeGuess(s: CellState): number {
+/** First guess for the shade globe [K] into `s.x`: quadratic model of F at Tg = Ta (h_g(Ta) shared). */
+export function globeShadeGuess(s: CellState): void {
   const ta = s.ta;
   const a0 = s.hg0 * INV_EG_SB;
   const fp = 4 * ta * ta * ta + a0;
   const fpp = 12 * ta * ta + s.dhg0 * INV_EG_SB;
-  return ta + quadraticStep(s.ta4 - s.lrad, fp, fpp);
+  s.x = ta + quadraticStep(s.ta4 - s.lrad, fp, fpp);
 }
 
-/** First guess for the sun globe [K] from the shade root `tgShade` [K] (call right after that solve). */
-export function globeSunGuess(s: CellState, tgShade: number): number {
-  return tgShade + quadraticStep(-s.qg, s.globeSlope, s.globeCurv);
+/** First guess for the sun globe [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
+export function globeSunGuess(s: CellState): void {
+  s.x += quadraticStep(-s.qg, s.globeSlope, s.globeCurv);
 }
 
 /**
@@ -186,6 +220,20 @@ export function globeSunGuess(s: CellState, tgShade: number): number {
  * convergence. `tol` [K] is the step below which it stops.
  */
 export function solveGlobe(s: CellState, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
+  s.x = x0;
+  s.tol = tol;
+  const ok = globeRoot(s, withSun) > 0;
+  s.tol = ROOT_TOLERANCE_K;
+  return ok ? s.x : NaN;
+}
+
+/**
+ * {@link solveGlobe} in place: starts at `s.x`, leaves the root in `s.x` [K]; returns the
+ * iterations, or 0 if it did not converge (then `s.x` is NaN).
+ */
+export function globeRoot(s: CellState, withSun: boolean): number {
+  const x0 = s.x;
+  const tol = s.tol;
   const ta = s.ta;
   const c = s.lrad + (withSun ? s.qg : 0);
   const cg = s.cg;
@@ -214,11 +262,13 @@ export function solveGlobe(s: CellState, withSun: boolean, x0: number, tol = ROO
       s.iterations = it;
       s.globeSlope = fp;
       s.globeCurv = 12 * x2 + dhg * INV_EG_SB;
-      return x;
+      s.x = x;
+      return it;
     }
   }
   s.iterations = MAX_ITERATIONS;
-  return NaN;
+  s.x = NaN;
+  return 0;
 }
 
 /**
@@ -226,14 +276,15 @@ export function solveGlobe(s: CellState, withSun: boolean, x0: number, tol = ROO
  * bulb (false): quadratic model of G at Tw = Td, where e_w = e_a, so G(Td) needs no e_s read and
  * G'(Td), G''(Td) follow from e_s'(Td) (METHODS.md §1.1 derivatives of Buck's form).
  */
-export function wetBulbShadeGuess(s: CellState, radiative: boolean): number {
+export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const x = s.td;
+  s.x = x;
   const ta = s.ta;
   const t = 0.5 * (x + ta);
   const L = LK;
   if (!lookup2(ZV_TABLE, t, L, 2)) exact2(ZV_TABLE, t, L, 2);
   const den = s.p - s.ea;
-  if (!(den > 0)) return x;
+  if (!(den > 0)) return;
   const de = s.desTd;
   // e_s'' = e_s'·(d ln e_s/dT − 2/(T − 32.18)) for Buck's form.
   const dde = de * (de / s.ea - 2 / (x - 32.18));
@@ -254,15 +305,14 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): number {
     gp -= ddf * invHw + df * dInvHw;
     gpp += 12 * EW_SB * x2 * invHw - 2 * ddf * dInvHw;
   }
-  if (!(gp > 0)) return x;
-  return x + quadraticStep(g, gp, gpp);
+  if (gp > 0) s.x = x + quadraticStep(g, gp, gpp);
 }
 
-/** First guess for the sun natural wet bulb [K] from the shade root `twShade` [K] (call right after that solve). */
-export function wetBulbSunGuess(s: CellState, twShade: number): number {
+/** First guess for the sun natural wet bulb [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
+export function wetBulbSunGuess(s: CellState): void {
   const qw = s.qw;
   const gp = s.lastSlope - qw * s.lastDInvHw;
-  return twShade + quadraticStep(-qw * s.lastInvHw, gp > 0 ? gp : s.lastSlope, s.lastCurv);
+  s.x += quadraticStep(-qw * s.lastInvHw, gp > 0 ? gp : s.lastSlope, s.lastCurv);
 }
 
 /**
@@ -274,6 +324,20 @@ export function wetBulbSunGuess(s: CellState, twShade: number): number {
  * the step below which it stops.
  */
 export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
+  s.x = x0;
+  s.tol = tol;
+  const ok = wetBulbRoot(s, radiative, withSun) > 0;
+  s.tol = ROOT_TOLERANCE_K;
+  return ok ? s.x : NaN;
+}
+
+/**
+ * {@link solveWetBulb} in place: starts at `s.x`, leaves the root in `s.x` [K]; returns the
+ * iterations, or 0 if it did not converge (then `s.x` is NaN).
+ */
+export function wetBulbRoot(s: CellState, radiative: boolean, withSun: boolean): number {
+  const x0 = s.x;
+  const tol = s.tol;
   const ta = s.ta;
   const p = s.p;
   const ea = s.ea;
@@ -341,9 +405,11 @@ export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean,
         const rden = 1 / den;
         s.lastCurv = L[2] * rden * (dde * pea * rden + 2 * dq * L[1]) + (radiative ? 12 * EW_SB * x * x * invHw : 0);
       }
-      return x;
+      s.x = x;
+      return it;
     }
   }
   s.iterations = MAX_ITERATIONS;
-  return NaN;
+  s.x = NaN;
+  return 0;
 }
