@@ -6,7 +6,8 @@
  * ~0.015 °C above the root; here the same equations are solved until a Newton step is below
  * {@link ROOT_TOLERANCE_K}. Newton's error after a step δ is about (|f''|/2|f'|)·δ², and
  * |f''/f'| stays below 0.05 K⁻¹ for both balances over the accepted inputs, so a last step under
- * 0.01 K leaves under 3e−6 K (test/physics/solver.test.ts checks 1e−5 K against bisection).
+ * 3e−3 K leaves under ~2e−7 K (test/physics/solver.test.ts checks 1e−5 K against bisection on
+ * the readable forms; the worst seen is ~3e−8 K).
  *
  * First guesses (so most solves need one or two evaluations): the shade globe from a quadratic
  * model of its balance at the air temperature (h_g at T_a is computed once per cell and shared);
@@ -33,7 +34,7 @@ import {
   SIGMA_LJ_AIR, EPS_K_AIR, CZA_MIN,
 } from './constants.ts';
 
-/** Newton stops when a step is smaller than this [K] (remaining error < 3e−6 K, see above). */
+/** Newton stops when a step is smaller than this [K] (remaining error ~2e−7 K, see above). */
 export const ROOT_TOLERANCE_K = 3e-3;
 /** Largest number of iterations per solve before giving up (NaN, counted) [–]. */
 export const MAX_ITERATIONS = 50;
@@ -108,6 +109,8 @@ export class CellState {
   /** Wick: slope dG/dTw [–], curvature estimate [K⁻¹], 1/h_w and its derivative at the last iterate. */
   lastSlope = 1;
   lastCurv = 0;
+  /** Third-derivative estimate dG³/dTw³ [K⁻²] at the last shade iterate. */
+  lastCurv3 = 0;
   lastInvHw = 0;
   lastDInvHw = 0;
   /** Iterations (function evaluations) of the last solve [–]. */
@@ -210,7 +213,15 @@ export function globeShadeGuess(s: CellState): void {
 
 /** First guess for the sun globe [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
 export function globeSunGuess(s: CellState): void {
-  s.x += quadraticStep(-s.qg, s.globeSlope, s.globeCurv);
+  const x = s.x;
+  const fp = s.globeSlope;
+  const fpp = s.globeCurv;
+  let d = quadraticStep(-s.qg, fp, fpp);
+  // One Newton step on the cubic model, F''' ≈ 24·Tg from the Tg⁴ term (no table read).
+  const pc = -s.qg + d * (fp + d * (0.5 * fpp + d * 4 * x));
+  const pd = fp + d * (fpp + 12 * x * d);
+  if (pd > 0) d -= pc / pd;
+  s.x = x + d;
 }
 
 /**
@@ -286,14 +297,21 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const den = s.p - s.ea;
   if (!(den > 0)) return;
   const de = s.desTd;
-  // e_s'' = e_s'·(d ln e_s/dT − 2/(T − 32.18)) for Buck's form.
-  const dde = de * (de / s.ea - 2 / (x - 32.18));
+  // Buck's form: with L1 = d ln e_s/dT and w = T − 32.18, e_s'' = e_s'·(L1 − 2/w) and
+  // e_s''' = e_s'·(L1² − 6·L1/w + 6/w²).
+  const l1 = de / s.ea;
+  const iw = 1 / (x - 32.18);
+  const dde = de * (l1 - 2 * iw);
+  const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
   const z = L[2];
-  const dq = de / den;
-  const ddq = dde / den + (2 * de * de) / (den * den);
+  const iden = 1 / den;
+  const dq = de * iden;
+  const ddq = (dde + 2 * de * dq) * iden;
+  const dddq = (ddde + 6 * dq * (dde + de * dq)) * iden;
   let g = x - ta;
   let gp = 1 + z * dq;
   let gpp = z * ddq + L[3] * dq;
+  let gppp = z * dddq + 1.5 * L[3] * ddq;
   if (radiative) {
     // 1/h_w = V(T)/C_w, d(1/h_w)/dx = ½·V'(T)/C_w.
     const invHw = s.invCw * L[4];
@@ -304,15 +322,31 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
     g -= df * invHw;
     gp -= ddf * invHw + df * dInvHw;
     gpp += 12 * EW_SB * x2 * invHw - 2 * ddf * dInvHw;
+    gppp += 24 * EW_SB * x * invHw;
   }
-  if (gp > 0) s.x = x + quadraticStep(g, gp, gpp);
+  if (!(gp > 0)) return;
+  // Quadratic root, then one Newton step on the cubic model (no table read).
+  let d = quadraticStep(g, gp, gpp);
+  const pc = g + d * (gp + d * (0.5 * gpp + d * (gppp / 6)));
+  const pd = gp + d * (gpp + 0.5 * d * gppp);
+  if (pd > 0) d -= pc / pd;
+  s.x = x + d;
 }
 
 /** First guess for the sun natural wet bulb [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
 export function wetBulbSunGuess(s: CellState): void {
   const qw = s.qw;
   const gp = s.lastSlope - qw * s.lastDInvHw;
-  s.x += quadraticStep(-qw * s.lastInvHw, gp > 0 ? gp : s.lastSlope, s.lastCurv);
+  const g = -qw * s.lastInvHw;
+  const fp = gp > 0 ? gp : s.lastSlope;
+  const fpp = s.lastCurv;
+  const fppp = s.lastCurv3;
+  let d = quadraticStep(g, fp, fpp);
+  // One Newton step on the cubic model (no table read).
+  const pc = g + d * (fp + d * (0.5 * fpp + d * (fppp / 6)));
+  const pd = fp + d * (fpp + 0.5 * d * fppp);
+  if (pd > 0) d -= pc / pd;
+  s.x += d;
 }
 
 /**
@@ -401,9 +435,16 @@ export function wetBulbRoot(s: CellState, radiative: boolean, withSun: boolean):
       // Curvature estimate for the sun guess (after a shade solve): the vapour term's e_s''
       // (dominant) and the T⁴ term.
       if (!withSun) {
-        const dde = L[1] * (L[1] / L[0] - 2 / (x - 32.18));
+        const de = L[1];
+        const l1 = de / L[0];
+        const iw = 1 / (x - 32.18);
+        const dde = de * (l1 - 2 * iw);
+        const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
         const rden = 1 / den;
-        s.lastCurv = L[2] * rden * (dde * pea * rden + 2 * dq * L[1]) + (radiative ? 12 * EW_SB * x * x * invHw : 0);
+        const ddq = pea * rden * rden * (dde + 2 * de * de * rden);
+        const dddq = pea * rden * rden * (ddde + 6 * de * rden * (dde + de * de * rden));
+        s.lastCurv = L[2] * ddq + (radiative ? 12 * EW_SB * x * x * invHw : 0);
+        s.lastCurv3 = L[2] * dddq + 1.5 * L[3] * ddq + (radiative ? 24 * EW_SB * x * invHw : 0);
       }
       s.x = x;
       return it;
