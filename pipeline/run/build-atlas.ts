@@ -108,6 +108,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     const regionHist = new Map<number, Float32Array[]>();
     const physics = emptyCounts();
     let cellHours = 0;
+    const timing = { read: 0, physics: 0, reduce: 0 };
     const progress = startProgress('shards', shards.length, { quiet: o.quiet });
     const tc = Date.now();
     await runShards(
@@ -127,12 +128,17 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
         }
         addCounts(physics, result.physics);
         cellHours += result.cellHours;
+        timing.read += result.timing.read;
+        timing.physics += result.timing.physics;
+        timing.reduce += result.timing.reduce;
         progress.tick();
       },
     );
     progress.done();
     const computeSeconds = (Date.now() - tc) / 1000;
     log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${computeSeconds.toFixed(1)} s (${(cellHours / computeSeconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
+    const perCellHour = (ms: number) => ((ms * 1e6) / Math.max(1, cellHours)).toFixed(0);
+    log.info(`worker time per land cell-hour: read ${perCellHour(timing.read)} ns, physics ${perCellHour(timing.physics)} ns, reduce ${perCellHour(timing.reduce)} ns`);
 
     // Merge, normals, niche.
     const yearCounts: YearCounts[] = years.map((y) => merged.get(y)!);

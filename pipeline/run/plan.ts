@@ -17,8 +17,11 @@ export interface ShardSpec {
   cells: Int32Array;
 }
 
-/** Land cells aimed at per tile: enough to amortise a block read, small enough to balance cores. */
-export const TARGET_CELLS_PER_TILE = 160;
+/**
+ * Land cells aimed at per tile: enough to amortise a block read (a NetCDF-4 chunk usually spans
+ * the whole grid, so every tile of a year inflates it again), small enough to balance cores.
+ */
+export const TARGET_CELLS_PER_TILE = 512;
 
 /**
  * Cuts the grid into bands of whole rows holding about {@link TARGET_CELLS_PER_TILE} land
