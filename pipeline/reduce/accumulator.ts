@@ -171,6 +171,7 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
   const nc = p.cells.length;
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
   const nG = groups.length;
+  const sunGroup = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 1 : 0));
   for (let t = 0; t < block.nHours; t++) {
     if (local.year[t] !== p.year) continue;
     const m = local.month[t] - 1;
@@ -205,12 +206,13 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       const base = cm * nE;
       for (let gi = 0; gi < nG; gi++) {
         const g = groups[gi];
-        const w = (g.exposure === 'sun' ? ws : wd) + g.cav;
+        const w = (sunGroup[gi] === 1 ? ws : wd) + g.cav;
         if (!(w > g.lowestLimit)) continue;
         const mLim = allowedMetabolicRate(g, w);
         const members = g.members;
+        const limits = g.limitWork;
         for (let j = 0; j < members.length; j++) {
-          if (!(w > g.limitWork[j])) continue;
+          if (!(w > limits[j])) continue;
           const k = base + members[j];
           p.aboveAll[k]++;
           if (shift) {
@@ -223,10 +225,11 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
         p.shiftHours[cm]++;
         const lb = cm * N_EXPOSURES * N_LOSS;
         for (let l = 0; l < N_LOSS; l++) {
-          const a = lossPrepared(ws, losses[l]);
-          if (a > 0) p.capacityLoss[lb + l] += Math.round(a * MILLI);
-          const b = lossPrepared(wd, losses[l]);
-          if (b > 0) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
+          const prep = losses[l];
+          const a = lossPrepared(ws, prep);
+          if (a >= 0.0005) p.capacityLoss[lb + l] += Math.round(a * MILLI);
+          const b = lossPrepared(wd, prep);
+          if (b >= 0.0005) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
         }
       }
     }
