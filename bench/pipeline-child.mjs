@@ -1,0 +1,17 @@
+// Child process of bench/pipeline.bench.ts: one `heathours build --data-only` in this process,
+// then one JSON line with the build report, this process's peak RSS (all threads) and a checksum
+// of the published region tables. Loaded like bin/heathours.mjs (h5wasm first, then tsx).
+import '../pipeline/model/preload-native.mjs';
+import { register } from 'tsx/esm/api';
+import { createHash } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+
+register();
+const [config, out, jobs] = process.argv.slice(2);
+const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
+const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true });
+const h = createHash('sha256');
+const dir = join(out, 'data', 'regions');
+for (const f of readdirSync(dir).filter((f) => f.endsWith('.csv')).sort()) h.update(readFileSync(join(dir, f)));
+process.stdout.write(`${JSON.stringify({ ...report, maxRssKb: process.resourceUsage().maxRSS, checksum: h.digest('hex').slice(0, 16) })}\n`);

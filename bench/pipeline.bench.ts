@@ -1,0 +1,91 @@
+/**
+ * pipeline: land cell-hours per second of `heathours build` end to end (decode + physics + work +
+ * reduce over all shards, sun and shade, the four default classes × acclimatization), on the
+ * invented demo dataset (pipeline/demo: 0.25° grid of 32 × 34 cells, 655 land cells, 2020–2024,
+ * legacy and NetCDF-4 files), with 1 worker and with all cores. The figure is the compute phase
+ * (the shards); the whole build's wall time is in the details.
+ * pipeline-peak-rss: peak resident memory [MB] of the whole build process (all threads), for
+ * 1 year and for 5 years of the same dataset: memory is bounded by the shard, not the record.
+ * Each build runs in a child process (bench/pipeline-child.mjs).
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { writeDemoDataset } from '../pipeline/demo/index.ts';
+import type { Bench, BenchFigure } from './types.ts';
+
+const ROOT = fileURLToPath(new URL('../', import.meta.url));
+const DIR = join(ROOT, '.cache', 'bench', 'pipeline');
+const YEARS = [2020, 2021, 2022, 2023, 2024];
+
+interface ChildReport { cellHours: number; computeSeconds: number; totalSeconds: number; shards: number; maxRssKb: number; checksum: string }
+
+async function inputs(): Promise<void> {
+  const data = join(DIR, 'data');
+  if (!YEARS.every((y) => existsSync(join(data, `era5-demo-${y}.nc`)))) {
+    await writeDemoDataset({ outDir: data, years: YEARS, layout: 'mixed', quiet: true });
+  }
+  for (const [name, years] of [['atlas-5y.yaml', [2020, 2024]], ['atlas-1y.yaml', [2021, 2021]]] as const) {
+    writeFileSync(join(DIR, name), `id: bench
+title: Benchmark atlas (invented data)
+dataset:
+  files: [data/*.nc]
+  landSeaMask: { variable: lsm, threshold: 0.5 }
+  invented: true
+years: [${years[0]}, ${years[1]}]
+baseline: [${years[0]}, ${years[1]}]
+timeZone: Etc/GMT+10
+regions: ${join(ROOT, 'content/regions')}
+output: out
+work:
+  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
+`);
+  }
+}
+
+function build(config: string, jobs: number): ChildReport {
+  const r = spawnSync(process.execPath, [join(ROOT, 'bench/pipeline-child.mjs'), join(DIR, config), join(DIR, `out-${config}-${jobs}`), String(jobs)], { encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (r.status !== 0) throw new Error(`pipeline bench child failed: ${r.stderr}`);
+  return JSON.parse(r.stdout.trim().split('\n').pop()!);
+}
+
+export const bench: Bench = {
+  names: ['pipeline', 'pipeline-peak-rss'],
+  async run(only) {
+    mkdirSync(DIR, { recursive: true });
+    await inputs();
+    const all = availableParallelism();
+    const out: BenchFigure[] = [];
+    const many = build('atlas-5y.yaml', all);
+    if (only !== 'pipeline-peak-rss') {
+      const one = build('atlas-5y.yaml', 1);
+      const rate = (r: ChildReport) => r.cellHours / r.computeSeconds;
+      out.push({
+        bench: 'pipeline',
+        value: Math.round(rate(many)),
+        unit: 'cell-hours/s',
+        workers: all,
+        input: `invented demo dataset, 655 land cells x 5 years hourly (${many.cellHours} land cell-hours), ${many.shards} shards, 16 evaluations`,
+        oneWorker: Math.round(rate(one)),
+        speedup: Math.round((rate(many) / rate(one)) * 100) / 100,
+        buildSeconds: Math.round(many.totalSeconds * 10) / 10,
+        checksum: many.checksum,
+        sameResultWithOneWorker: one.checksum === many.checksum,
+      });
+    }
+    if (only !== 'pipeline') {
+      const oneYear = build('atlas-1y.yaml', all);
+      out.push({
+        bench: 'pipeline-peak-rss',
+        value: Math.round(many.maxRssKb / 1024),
+        unit: 'MB',
+        input: `the 5-year demo build with ${all} workers (process peak RSS, all threads)`,
+        oneYearMB: Math.round(oneYear.maxRssKb / 1024),
+        checksum: many.checksum,
+      });
+    }
+    return out;
+  },
+};
