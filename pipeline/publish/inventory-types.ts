@@ -31,7 +31,7 @@ export interface InventoryFile {
   format: 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';
   /** Which ERA5 layout was recognised. */
   layout: 'era5-legacy' | 'era5-cds-2024' | 'other';
-  /** First and last hour in the file (ISO 8601, UTC, end of hour). */
+  /** First and last hour in the file (ISO 8601, UTC, end of hour); '' for a file with no time axis (a static field). */
   timeStart: string;
   timeEnd: string;
   /** Source short names of the variables the file contributes. */

@@ -15,6 +15,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { replaceDirAtomic } from '../model/effects.ts';
+import { withProcessLock } from '../model/lock.ts';
 import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
@@ -68,13 +69,17 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
     try {
       const { build } = await import('astro');
-      await build({
-        root: PROJECT_ROOT,
-        outDir: tmp,
-        cacheDir,
-        mode: 'production',
-        logLevel: opts.quiet ? 'error' : 'info',
-      });
+      // Astro writes .astro/ in the project root: one Astro build at a time on this machine.
+      await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
+        build({
+          root: PROJECT_ROOT,
+          outDir: tmp,
+          cacheDir,
+          mode: 'production',
+          logLevel: opts.quiet ? 'error' : 'info',
+        }),
+        { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
+      );
     } catch (e) {
       const err = e as Error & { code?: string; hint?: string };
       const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));

@@ -226,13 +226,26 @@ function checkYears(time: { start: number; count: number }, years: [number, numb
   }
 }
 
+/** RFC 7946 coordinates of a parsed polygon: rings closed again, longitudes as parsed (continuous). */
+function polygonCoordinates(p: Region['polygons'][number]): number[][][] {
+  return p.rings.map((ring) => {
+    const pts: number[][] = [];
+    for (let i = 0; i < ring.length; i += 2) pts.push([ring[i], ring[i + 1]]);
+    pts.push([ring[0], ring[1]]);
+    return pts;
+  });
+}
+
 function regionsGeoJson(regions: Region[]): string {
   return JSON.stringify({
     type: 'FeatureCollection',
     features: regions.map((r) => ({
       type: 'Feature',
       properties: { id: r.id, name: r.name },
-      geometry: r.polygons.length === 1 ? { type: 'Polygon', coordinates: r.polygons[0] } : { type: 'MultiPolygon', coordinates: r.polygons },
+      geometry:
+        r.polygons.length === 1
+          ? { type: 'Polygon', coordinates: polygonCoordinates(r.polygons[0]) }
+          : { type: 'MultiPolygon', coordinates: r.polygons.map(polygonCoordinates) },
     })),
   });
 }

@@ -10,6 +10,7 @@ import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { estimateFromHistogram, prepareWorkKernel, limitCurve2017 } from '../../pipeline/work/index.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
+import { buildSite } from '../../pipeline/publish/site.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
@@ -143,6 +144,23 @@ describe('heathours build on the invented small demo', () => {
       expect(l.legend.units).toBe('h');
     }
   });
+});
+
+describe('the site built from the pipeline output', () => {
+  it('the home and data inventory pages show the dataset the pipeline read: file names, digests, variables and the invented-data label', async () => {
+    const site = join(dir, 'site');
+    await buildSite({ dataDir: join(dir, 'out1'), outDir: site, quiet: true });
+    const inventory = JSON.parse(readFileSync(join(dir, 'out1/data/inventory.json'), 'utf8'));
+    const page = readFileSync(join(site, 'inventory/index.html'), 'utf8');
+    for (const f of inventory.files) {
+      expect(page).toContain(f.name);
+      expect(page).toContain(f.sha256.slice(0, 12));
+    }
+    for (const v of inventory.variables) expect(page).toContain(v.source);
+    expect(readFileSync(join(site, 'index.html'), 'utf8').toLowerCase()).toContain('invented');
+    expect(existsSync(join(site, 'data/manifest.json'))).toBe(true);
+    expect(existsSync(join(site, 'data/regions/drovan-basin.csv'))).toBe(true);
+  }, 300_000);
 });
 
 describe('heathours build refuses bad input and publishes nothing', () => {
