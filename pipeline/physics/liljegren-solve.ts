@@ -47,15 +47,15 @@ const C_K = CP_AIR + 1.25 * R_AIR;
 const PR_G = 0.6 * Math.pow(PRANDTL, 0.3333);
 const PR_W = 0.281 * Math.pow(PRANDTL, 0.44);
 /** cg = CG0·√(u·P): √(u·100P·D_g·C_μ/R_air)·0.6·Pr^0.3333 [SI, see {@link CellState.cg}]. */
-const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
+export const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
 /** cw = CW0·(u·P)^0.6 = CW0·pow12(√(u·P)): (c_k/D_w)·0.281·Pr^0.44·C_μ^0.4·(100·D_w/R_air)^0.6. */
-const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
-const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
+export const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
+export const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
 /** (1 − α_g)/(2ε_gσ) [K⁴ per W m⁻²] (METHODS.md §3.2.4). */
-const QG_K = (1 - ALB_GLOBE) / (2 * EMIS_GLOBE * SB);
-const INV_PI = 1 / Math.PI;
-const EW_SB = EMIS_WICK * SB;
-const CAP = D_WICK / (4 * L_WICK);
+export const QG_K = (1 - ALB_GLOBE) / (2 * EMIS_GLOBE * SB);
+export const INV_PI = 1 / Math.PI;
+export const EW_SB = EMIS_WICK * SB;
+export const CAP = D_WICK / (4 * L_WICK);
 /** Scratch for table reads: e_s, e_s', Z, Z', W, W'. */
 const LK = new Float64Array(6);
 
