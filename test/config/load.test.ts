@@ -3,22 +3,9 @@ import { mkdtempSync, writeFileSync, mkdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { loadConfig, parseConfig } from '../../pipeline/config/load.ts';
-import { HeathoursError } from '../../pipeline/model/errors.ts';
+import { expectCatalogued as expectError } from '../helpers/catalogued.ts';
 
 const demoText = readFileSync(new URL('../../content/atlas.yaml', import.meta.url), 'utf8');
-
-function expectError(fn: () => unknown, code: string, match?: RegExp): HeathoursError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(HeathoursError);
-    const err = e as HeathoursError;
-    expect(err.code).toBe(code);
-    if (match) expect(err.format()).toMatch(match);
-    return err;
-  }
-  throw new Error(`expected ${code}, nothing was thrown`);
-}
 
 describe('atlas configuration', () => {
   it('the shipped demo configuration content/atlas.yaml validates', () => {

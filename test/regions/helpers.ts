@@ -1,20 +1,5 @@
-import { expect } from 'vitest';
-import { HeathoursError } from '../../pipeline/model/errors.ts';
+export { expectCatalogued } from '../helpers/catalogued.ts';
 import type { HorizontalGrid } from '../../pipeline/model/grid.ts';
-
-/** Runs `fn`, expects a catalogued HeathoursError with `code`, returns it. */
-export function expectCatalogued(fn: () => unknown, code: string, match?: RegExp): HeathoursError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(HeathoursError);
-    const err = e as HeathoursError;
-    expect(err.code).toBe(code);
-    if (match) expect(err.format()).toMatch(match);
-    return err;
-  }
-  throw new Error(`expected ${code}, nothing was thrown`);
-}
 
 /** A regular grid of cell centres: nLat rows from lat0, nLon columns from lon0, spacing d [°]. */
 export function grid(lat0: number, nLat: number, lon0: number, nLon: number, d = 1): HorizontalGrid {

@@ -1,7 +1,6 @@
 /** Shared helpers of the layer tests: grids, catalogued-error expectation, sharp decoding. */
-import { expect } from 'vitest';
+export { expectCatalogued } from '../../helpers/catalogued.ts';
 import sharp from 'sharp';
-import { HeathoursError } from '../../../pipeline/model/errors.ts';
 
 /** A regular grid of cell centres: first centre, step and count along each axis [°]. */
 export function regularGrid(lat0: number, dLat: number, ny: number, lon0: number, dLon: number, nx: number, value: (y: number, x: number) => number) {
@@ -12,19 +11,6 @@ export function regularGrid(lat0: number, dLat: number, ny: number, lon0: number
   return { lat, lon, values };
 }
 
-export function expectCatalogued(fn: () => unknown, code: string, match?: RegExp): HeathoursError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(HeathoursError);
-    const err = e as HeathoursError;
-    expect(err.code).toBe(code);
-    expect(err.hint.length).toBeGreaterThan(10);
-    if (match) expect(err.format()).toMatch(match);
-    return err;
-  }
-  throw new Error(`expected ${code}, nothing was thrown`);
-}
 
 export interface Decoded {
   width: number;
