@@ -30,6 +30,28 @@ export interface ShardResult {
   cellHours: number;
 }
 
+/** A run of land cells in one grid row: land indices [j0, j1) and the row inside the tile. */
+export interface LandRun {
+  row: number;
+  j0: number;
+  j1: number;
+}
+
+/**
+ * Splits ascending global cell indices (row-major, `nLon` columns) into one run per grid row;
+ * `y0` is the tile's first row.
+ */
+export function landRuns(cells: Int32Array, nLon: number, y0: number): LandRun[] {
+  const runs: LandRun[] = [];
+  for (let j = 0; j < cells.length; j++) {
+    const row = Math.floor(cells[j] / nLon) - y0;
+    const last = runs[runs.length - 1];
+    if (last !== undefined && last.row === row) last.j1 = j + 1;
+    else runs.push({ row, j0: j, j1: j + 1 });
+  }
+  return runs;
+}
+
 /** Hour indices [h0, h1) of the dataset that may belong to local year `year` (±1 day margin). */
 export function hourRangeForYear(ds: Pick<Dataset, 'time'>, year: number): [number, number] {
   const from = Date.UTC(year, 0, 1) - 26 * HOUR_MS;
@@ -47,21 +69,26 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
   const nLand = cells.length;
   // Position of each land cell inside the tile.
   const pos = Int32Array.from(cells, (c) => (Math.floor(c / ctx.nLon) - tile.y0) * nCols + ((c % ctx.nLon) - tile.x0));
-  const isLand = new Uint8Array(nTile);
-  for (const p of pos) isLand[p] = 1;
+  const runs = landRuns(cells, ctx.nLon, tile.y0);
 
   const partial = createPartial(shard.year, cells, ctx.evaluations);
   const scratch = createScratch(BLOCK_HOURS * nLand, ctx.evaluations, nLand);
   const physics = emptyCounts();
   const local: LocalHours = allocLocalHours(BLOCK_HOURS);
-  const n = BLOCK_HOURS * nTile;
+  // Physics runs on the land cells only, one grid row at a time: each row's land cells form a
+  // grid of 1 row × its land columns (the columns need not be adjacent: geometry takes the
+  // longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
+  const n = BLOCK_HOURS * nLand;
+  const mk = () => new Float32Array(n);
+  const inp = { air: mk(), dew: mk(), sp: mk(), wind: mk(), sg: mk(), sd: mk() };
   const out = {
-    cosZenith: new Float32Array(n), directFraction: new Float32Array(n), solar: new Float32Array(n), wind2m: new Float32Array(n),
-    wbgtSun: new Float32Array(n), wbgtShade: new Float32Array(n), status: new Uint8Array(n),
+    cosZenith: mk(), directFraction: mk(), solar: mk(), wind2m: mk(), wbgtSun: mk(), wbgtShade: mk(), status: new Uint8Array(n),
   };
-  const gSun = new Float32Array(BLOCK_HOURS * nLand);
-  const gShade = new Float32Array(BLOCK_HOURS * nLand);
-  const gAir = new Float32Array(BLOCK_HOURS * nLand);
+  const gSun = mk();
+  const gShade = mk();
+  const gAir = mk();
+  const rowLat = new Float64Array(1);
+  const runLon = runs.map((r) => new Float64Array(r.j1 - r.j0));
   let cellHours = 0;
   const timing = { read: 0, physics: 0, reduce: 0 };
   let tick = performance.now();
@@ -79,31 +106,64 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
     lap('read');
     const f = block.fields;
     const air = f.airTemperature!;
-    // Ocean cells are not computed: a missing input makes the kernel skip them.
-    for (let t = 0; t < nt; t++) for (let i = 0; i < nTile; i++) if (isLand[i] === 0) air[t * nTile + i] = NaN;
-    const m = nt * nTile;
-    out.status.fill(0, 0, m);
-    const arrays: PhysicsArrays = {
-      time: block.time, lat: block.lat, lon: block.lon,
-      airTemperature: air, dewPointTemperature: f.dewPointTemperature!, surfacePressure: f.surfacePressure!,
-      windSpeed: f.windSpeed10m!, solarGlobal: f.solarGlobal!, solarDirect: f.solarDirect,
-      cosZenith: out.cosZenith.subarray(0, m), directFraction: out.directFraction.subarray(0, m), solar: out.solar.subarray(0, m),
-      wind2m: out.wind2m.subarray(0, m), wbgtSun: out.wbgtSun.subarray(0, m), wbgtShade: out.wbgtShade.subarray(0, m),
-      status: out.status.subarray(0, m),
-    };
-    const counts = computeHours(arrays, 0, nt, { windHeight: 10 });
-    counts.rejected -= (nTile - nLand) * nt; // ocean cells are skipped on purpose, not rejected
-    addCounts(physics, counts);
-    lap('physics');
-    // Gather the land cells into compact arrays for the reduction.
+    const dew = f.dewPointTemperature!;
+    const sp = f.surfacePressure!;
+    const wind = f.windSpeed10m!;
+    const sg = f.solarGlobal!;
+    const sd = f.solarDirect;
+    // Gather the land cells: row-segment-major for the physics, time-major air for the reduction.
     for (let t = 0; t < nt; t++) {
       const src = t * nTile;
       const dst = t * nLand;
-      for (let j = 0; j < nLand; j++) {
-        const i = src + pos[j];
-        gSun[dst + j] = out.wbgtSun[i];
-        gShade[dst + j] = out.wbgtShade[i];
-        gAir[dst + j] = air[i];
+      for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+    }
+    for (const r of runs) {
+      const nr = r.j1 - r.j0;
+      const o = r.j0 * nt;
+      for (let t = 0; t < nt; t++) {
+        const src = t * nTile;
+        const dst = o + t * nr;
+        for (let k = 0; k < nr; k++) {
+          const i = src + pos[r.j0 + k];
+          inp.air[dst + k] = air[i];
+          inp.dew[dst + k] = dew[i];
+          inp.sp[dst + k] = sp[i];
+          inp.wind[dst + k] = wind[i];
+          inp.sg[dst + k] = sg[i];
+        }
+        if (sd !== undefined) for (let k = 0; k < nr; k++) inp.sd[dst + k] = sd[src + pos[r.j0 + k]];
+      }
+    }
+    out.status.fill(0, 0, nt * nLand);
+    for (let ri = 0; ri < runs.length; ri++) {
+      const r = runs[ri];
+      const lon = runLon[ri];
+      for (let k = 0; k < lon.length; k++) lon[k] = block.lon[(cells[r.j0 + k] % ctx.nLon) - tile.x0];
+      rowLat[0] = block.lat[r.row];
+      const a = r.j0 * nt;
+      const e = r.j1 * nt;
+      const arrays: PhysicsArrays = {
+        time: block.time, lat: rowLat, lon,
+        airTemperature: inp.air.subarray(a, e), dewPointTemperature: inp.dew.subarray(a, e), surfacePressure: inp.sp.subarray(a, e),
+        windSpeed: inp.wind.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
+        cosZenith: out.cosZenith.subarray(a, e), directFraction: out.directFraction.subarray(a, e), solar: out.solar.subarray(a, e),
+        wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
+        status: out.status.subarray(a, e),
+      };
+      addCounts(physics, computeHours(arrays, 0, nt, { windHeight: 10 }));
+    }
+    lap('physics');
+    // Back to time-major over the land cells for the reduction.
+    for (const r of runs) {
+      const nr = r.j1 - r.j0;
+      const o = r.j0 * nt;
+      for (let t = 0; t < nt; t++) {
+        const src = o + t * nr;
+        const dst = t * nLand + r.j0;
+        for (let k = 0; k < nr; k++) {
+          gSun[dst + k] = out.wbgtSun[src + k];
+          gShade[dst + k] = out.wbgtShade[src + k];
+        }
       }
     }
     localHoursInto(local, block.time, ctx.timeZone, ctx.shift);
