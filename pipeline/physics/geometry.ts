@@ -13,7 +13,7 @@
  *   behaved in hours that contain sunrise or sunset; no refraction.
  */
 import { STATUS } from './status.ts';
-import { apparentCosZenith, hourAngle, integrateCosines, solarYearSupported, sunState } from './solar-position.ts';
+import { apparentCosZenithFast, hourAngle, integrateCosines, solarYearSupported, sunState } from './solar-position.ts';
 import { directFractionEstimate } from './solar-inputs.ts';
 import { CZA_MIN, NORMSOLAR_MAX, SOLAR_CONSTANT } from './constants.ts';
 
@@ -111,7 +111,7 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
           cToa = pc.mean;
         } else {
           const cg = A + B * cosHa[k];
-          cz = cg > -0.0098 ? apparentCosZenith(cg) : cg;
+          cz = cg > -0.0098 ? apparentCosZenithFast(cg) : cg;
           cToa = cz;
         }
         CZ[i] = cz;

@@ -263,3 +263,78 @@ export function noaaCosZenith(timeMs: number, latDeg: number, lonDeg: number): n
   const phi = latDeg * RAD;
   return Math.sin(phi) * Math.sin(dec) + Math.cos(phi) * Math.cos(dec) * Math.cos(h);
 }
+
+/**
+ * {@link apparentCosZenith} without the arcsine, for the gridded geometry step: the refraction
+ * correction Δ = cos θ_app − cos θ [–] is read by cubic Hermite interpolation from two tables
+ * built once from the exact form: in c = cos θ for the low sun (c < 0.75, where the elevation is
+ * a smooth function of c) and in s = √(1 − c²) for the high sun (where it is a smooth function
+ * of s). Below the refraction cut-off (elevation −0.56°) the geometric cosine is kept, and where
+ * el + R reaches 90° the result is 1, as in the exact form. Absolute error below 1e−12
+ * (test/physics/humidity-and-sun.test.ts), far under the Float32 outputs' resolution.
+ * @param cosGeometric geometric cosine of the zenith [–]
+ */
+export function apparentCosZenithFast(cosGeometric: number): number {
+  const c = cosGeometric > 1 ? 1 : cosGeometric < -1 ? -1 : cosGeometric;
+  if (!(c >= REFR_C0)) return c;
+  let u: number;
+  let tab: Float64Array;
+  if (c < REFR_C_SPLIT) {
+    u = (c - REFR_C0) * REFR_INV_HC;
+    tab = REFR_LOW;
+  } else {
+    const s = Math.sqrt(1 - c * c);
+    if (s <= REFR_S_TOP) return 1;
+    u = s * REFR_INV_HS;
+    tab = REFR_HIGH;
+  }
+  const k = u | 0;
+  const t = u - k;
+  const j = 2 * k;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  return c + (2 * t3 - 3 * t2 + 1) * tab[j] + (t3 - 2 * t2 + t) * tab[j + 1] + (3 * t2 - 2 * t3) * tab[j + 2] + (t3 - t2) * tab[j + 3];
+}
+
+/** Refraction correction of the exact form as a smooth function of the elevation [° → –] (no clamps). */
+function refractionDelta(el: number): number {
+  const R = (3.51561 * (0.1594 + 0.0196 * el + 0.00002 * el * el)) / (1 + 0.505 * el + 0.0845 * el * el);
+  return Math.sin((el + R) * RAD) - Math.sin(el * RAD);
+}
+/** d/dx of refractionDelta(el(x)) by a central difference of step h in x (for the table slopes). */
+function slope(el: (x: number) => number, x: number, h: number): number {
+  return (refractionDelta(el(x + h)) - refractionDelta(el(x - h))) / (2 * h);
+}
+/** Lowest cosine refracted (elevation −0.56°), split between the two tables, nodes per table. */
+const REFR_C0 = Math.sin(-0.56 * RAD);
+const REFR_C_SPLIT = 0.75;
+const REFR_N = 4096;
+const REFR_HC = (REFR_C_SPLIT - REFR_C0) / (REFR_N - 1);
+const REFR_INV_HC = 1 / REFR_HC;
+/** s = √(1 − c²) at the split (plus one node of margin). */
+const REFR_S_MAX = Math.sqrt(1 - REFR_C_SPLIT * REFR_C_SPLIT);
+const REFR_HS = REFR_S_MAX / (REFR_N - 2);
+const REFR_INV_HS = 1 / REFR_HS;
+function buildRefraction(x0: number, h: number, el: (x: number) => number): Float64Array {
+  const tab = new Float64Array(2 * REFR_N);
+  const d = h * 1e-3;
+  for (let k = 0; k < REFR_N; k++) {
+    const x = x0 + k * h;
+    tab[2 * k] = refractionDelta(el(x));
+    tab[2 * k + 1] = slope(el, x, d) * h;
+  }
+  return tab;
+}
+const REFR_LOW = buildRefraction(REFR_C0, REFR_HC, (c) => Math.asin(c) * DEG);
+const REFR_HIGH = buildRefraction(0, REFR_HS, (s) => Math.acos(s) * DEG);
+/** s below which el + R ≥ 90° (the exact form returns 1), by bisection on the exact form. */
+const REFR_S_TOP = (() => {
+  let lo = 0;
+  let hi = 0.01;
+  for (let k = 0; k < 200; k++) {
+    const m = 0.5 * (lo + hi);
+    if (apparentCosZenith(Math.sqrt(1 - m * m)) === 1) lo = m;
+    else hi = m;
+  }
+  return lo;
+})();

@@ -6,6 +6,7 @@ import {
 import {
   cosZenithInstant, cosZenithApparentInstant, noaaCosZenith, noaaDeclination, noaaEquationOfTime, noaaFractionalYear,
   periodCosines, cosZenithPeriodMean, solarYearSupported, earthSunDistanceAu, topOfAtmosphereIrradiance,
+  apparentCosZenith, apparentCosZenithFast,
 } from '../../pipeline/physics/solar-position.ts';
 
 // CRC Handbook of Chemistry and Physics 1992–93, "Vapor pressure of water" [kPa] (METHODS.md §1.3).
@@ -79,5 +80,17 @@ describe('solar geometry', () => {
     expect(solarYearSupported(Date.UTC(2049, 11, 31))).toBe(true);
     expect(solarYearSupported(Date.UTC(2050, 0, 1))).toBe(false);
     expect(solarYearSupported(NaN)).toBe(false);
+  });
+  it('apparentCosZenithFast (tabulated refraction, no arcsine) equals the exact apparentCosZenith within 1e-12 from below the horizon to the zenith', () => {
+    // Reference: the exact form in the same file (Michalsky 1988 refraction); dense sweep plus the
+    // cut-off at −0.56°, the split between the tables, and the top where the result is 1.
+    let worst = 0;
+    const check = (c: number) => { worst = Math.max(worst, Math.abs(apparentCosZenithFast(c) - apparentCosZenith(c))); };
+    for (let k = 0; k <= 200_000; k++) check(-0.02 + (1.02 * k) / 200_000 + 1e-9 * Math.sin(k));
+    for (const c of [-1, -0.0098, Math.sin((-0.56 * Math.PI) / 180), 0, 0.01, 0.7499999999, 0.75, 0.99999999, 1 - 1e-12, 1, 1.0000001]) check(c);
+    expect(worst).toBeLessThan(1e-12);
+    expect(apparentCosZenithFast(1)).toBe(1);
+    expect(apparentCosZenithFast(-0.5)).toBe(-0.5);
+    expect(apparentCosZenithFast(NaN)).toBeNaN();
   });
 });
