@@ -137,7 +137,7 @@ export const bench: Bench = {
         const maxCpu = Math.max(...r.workerCpuNs);
         figs.push({
           bench: 'wbgt-kernel-parallel', value: +(ms1 / r.wall).toFixed(2), unit: 'x speed-up', workers: pool.size,
-          cellHours: n, hoursPerWorker: r.counts.cells > 0 ? `${Math.ceil(NT / pool.size)} (disjoint ranges of shared arrays)` : '0',
+          cellHours: n, hoursPerWorker: r.counts.cells > 0 ? `${Math.ceil(NT / pool.size)} (interleaved 4-hour blocks of shared arrays)` : '0',
           nsPerCellHour: +((r.wall * 1e6) / n).toFixed(1), singleCoreNs: +single.toFixed(1), singleCoreCpuNs: perCell(cpu1),
           cpuBasedSpeedup: +(cpu1 / maxCpu).toFixed(2),
           workerCpuNsPerCellHour: r.workerCpuNs.map((v) => ((v * pool.size) / n).toFixed(0)).join('/'),

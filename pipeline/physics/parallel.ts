@@ -46,6 +46,9 @@ interface WorkerReply {
   endMs: number;
 }
 
+/** Hours per interleaved block handed to a worker. */
+const INTERLEAVE_HOURS = 4;
+
 /** Starts `size` workers (default: all cores) sharing `arrays`; resolves once all are ready. */
 export async function startPhysicsPool(arrays: PhysicsArrays, size = availableParallelism()): Promise<PhysicsPool> {
   const url = new URL('./physics-worker-boot.mjs', import.meta.url);
@@ -63,14 +66,16 @@ export async function startPhysicsPool(arrays: PhysicsArrays, size = availablePa
   return {
     size,
     async run(nT, opts = {}) {
-      const per = Math.ceil(nT / size);
+      // Hours are dealt out in small interleaved blocks (worker k takes blocks k, k + size, …), so
+      // each worker gets a like share of day and night hours, whose costs differ.
+      const block = Math.max(1, Math.min(INTERLEAVE_HOURS, Math.ceil(nT / size)));
+      const ranges: Array<Array<[number, number]>> = workers.map(() => []);
+      for (let t0 = 0, b = 0; t0 < nT; t0 += block, b++) ranges[b % size].push([t0, Math.min(nT, t0 + block)]);
       const jobs = workers.map((w, k) => {
-        const t0 = Math.min(nT, k * per);
-        const t1 = Math.min(nT, t0 + per);
         return new Promise<WorkerReply>((resolve, reject) => {
           w.once('error', reject);
           w.once('message', (m: WorkerReply) => resolve(m));
-          w.postMessage({ t0, t1, opts, id: k });
+          w.postMessage({ ranges: ranges[k], opts, id: k });
         });
       });
       const res = await Promise.all(jobs);
