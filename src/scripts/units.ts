@@ -1,0 +1,61 @@
+/**
+ * The °C/°F switch of every page (loaded by components/UnitSwitch.astro). The chosen unit comes
+ * from the `?units=F` query parameter, else localStorage, else °C; it is written to
+ * `<html data-units>`, applied to every element of the src/lib/units.ts convention, kept in
+ * localStorage, and announced with the `heathours:units` event for scripts that draw their own
+ * temperatures.
+ */
+import {
+  UNIT_EVENT,
+  UNIT_QUERY_PARAM,
+  UNIT_STORAGE_KEY,
+  formatTemperature,
+  formatTemperatureDelta,
+  parseUnit,
+  unitSymbol,
+  type TemperatureUnit,
+} from '../lib/units.ts';
+
+function stored(): string | null {
+  try {
+    return localStorage.getItem(UNIT_STORAGE_KEY);
+  } catch {
+    return null;
+  }
+}
+
+/** Rewrites every temperature of the convention inside `root` in `unit`. */
+export function applyUnits(unit: TemperatureUnit, root: ParentNode = document): void {
+  for (const el of root.querySelectorAll<HTMLElement>('[data-temp-c]')) {
+    const digits = Number(el.dataset.digits ?? 1);
+    el.textContent = formatTemperature(Number(el.dataset.tempC), unit, digits, el.hasAttribute('data-temp-signed'));
+  }
+  for (const el of root.querySelectorAll<HTMLElement>('[data-temp-delta-c]')) {
+    const digits = Number(el.dataset.digits ?? 1);
+    el.textContent = formatTemperatureDelta(Number(el.dataset.tempDeltaC), unit, digits);
+  }
+  for (const el of root.querySelectorAll<HTMLElement>('[data-unit-label]')) el.textContent = unitSymbol(unit);
+}
+
+function setUnit(unit: TemperatureUnit, persist: boolean): void {
+  document.documentElement.dataset.units = unit;
+  applyUnits(unit);
+  for (const b of document.querySelectorAll<HTMLButtonElement>('[data-unit-choice]')) {
+    b.setAttribute('aria-pressed', String(b.dataset.unitChoice === unit));
+  }
+  if (persist) {
+    try {
+      localStorage.setItem(UNIT_STORAGE_KEY, unit);
+    } catch {
+      // Storage may be off (private mode): the choice then lasts for this page only.
+    }
+  }
+  document.dispatchEvent(new CustomEvent(UNIT_EVENT, { detail: { unit } }));
+}
+
+const query = new URLSearchParams(location.search).get(UNIT_QUERY_PARAM);
+setUnit(parseUnit(query ?? stored()), query !== null);
+for (const b of document.querySelectorAll<HTMLButtonElement>('[data-unit-choice]')) {
+  b.hidden = false;
+  b.addEventListener('click', () => setUnit(parseUnit(b.dataset.unitChoice), true));
+}
