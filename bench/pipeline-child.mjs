@@ -10,7 +10,7 @@ import { join } from 'node:path';
 register();
 const [config, out, jobs] = process.argv.slice(2);
 const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
-const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true });
+const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true, cache: false });
 const h = createHash('sha256');
 const dir = join(out, 'data', 'regions');
 for (const f of readdirSync(dir).filter((f) => f.endsWith('.csv')).sort()) h.update(readFileSync(join(dir, f)));

@@ -1,7 +1,32 @@
-/** `heathours build`: the whole atlas, pipeline then site (pipeline/run/build-atlas.ts). */
+/**
+ * `heathours build`: the whole atlas, pipeline then site (pipeline/run/build-atlas.ts); or one
+ * slice of a distributed run (`--shard K/N --partials DIR`), or the merge of one (`--merge DIR`).
+ */
 import type { Command } from 'commander';
 import { buildAtlas } from '../run/build-atlas.ts';
+import { ShardSliceInvalid } from '../run/errors.ts';
 import { UsageError } from '../model/errors.ts';
+
+/** Parses "K/N" (1 ≤ K ≤ N ≤ 100 000). */
+export function parseShardSlice(text: string): { k: number; n: number } {
+  const m = /^\s*(\d{1,6})\s*\/\s*(\d{1,6})\s*$/.exec(text);
+  const k = m ? Number(m[1]) : NaN;
+  const n = m ? Number(m[2]) : NaN;
+  if (!m || k < 1 || n < 1 || k > n || n > 100_000) throw ShardSliceInvalid({ text }, { key: '--shard' });
+  return { k, n };
+}
+
+interface BuildOpts {
+  config: string;
+  out?: string;
+  jobs?: string;
+  dataOnly?: boolean;
+  quiet?: boolean;
+  shard?: string;
+  partials?: string;
+  merge?: string;
+  cache?: string | boolean;
+}
 
 export function register(program: Command): void {
   program
@@ -11,8 +36,13 @@ export function register(program: Command): void {
     .option('--out <dir>', 'output folder (default: the configuration\'s `output`)')
     .option('--jobs <n>', 'worker threads (default: all cores)')
     .option('--data-only', 'publish the data files into OUT/data without building the site')
+    .option('--shard <K/N>', 'distributed run: compute slice K of N of the shards into --partials, publish nothing')
+    .option('--partials <dir>', 'folder (shared by all slices) where --shard writes its partials')
+    .option('--merge <dir>', 'distributed run: merge the partials under DIR (from every --shard K/N) and publish')
+    .option('--cache <dir>', 'partial cache folder (default: the configuration\'s `cache`, else .heathours-cache beside the output)')
+    .option('--no-cache', 'compute every shard and keep no partials')
     .option('--quiet', 'no progress output')
-    .action(async (opts: { config: string; out?: string; jobs?: string; dataOnly?: boolean; quiet?: boolean }) => {
+    .action(async (opts: BuildOpts) => {
       let jobs: number | undefined;
       if (opts.jobs !== undefined) {
         jobs = Number(opts.jobs);
@@ -20,6 +50,22 @@ export function register(program: Command): void {
           throw UsageError({ message: `--jobs ${opts.jobs} is not a whole number from 1 to 256`, hint: 'pass the number of worker threads, e.g. --jobs 2' });
         }
       }
-      await buildAtlas({ configPath: opts.config, outDir: opts.out, jobs, quiet: opts.quiet, dataOnly: opts.dataOnly });
+      if (opts.shard !== undefined && opts.merge !== undefined) {
+        throw UsageError({ message: '--shard and --merge are two steps of a distributed run, not one', hint: 'run every --shard K/N --partials DIR first, then one --merge DIR' });
+      }
+      if ((opts.shard === undefined) !== (opts.partials === undefined)) {
+        throw UsageError({ message: '--shard K/N needs --partials DIR, and --partials needs --shard', hint: 'e.g. heathours build --shard 3/8 --partials /shared/partials' });
+      }
+      const shard = opts.shard !== undefined ? { ...parseShardSlice(opts.shard), partialsDir: opts.partials! } : undefined;
+      await buildAtlas({
+        configPath: opts.config,
+        outDir: opts.out,
+        jobs,
+        quiet: opts.quiet,
+        dataOnly: opts.dataOnly,
+        shard,
+        mergeDir: opts.merge,
+        cache: opts.cache === false ? false : typeof opts.cache === 'string' ? opts.cache : undefined,
+      });
     });
 }

@@ -23,6 +23,8 @@ export interface ResolvedConfig {
   regionFiles: string[];
   /** Absolute path of the output folder. */
   outputDir: string;
+  /** Absolute path of the partial cache folder (`cache`, default `.heathours-cache` beside the output). */
+  cacheDir: string;
 }
 
 /** Parses and validates a config text; `file` is used in error messages only. */
@@ -72,5 +74,6 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     inputFiles: [...new Set(inputFiles)].sort(),
     regionFiles: regionFiles.sort(),
     outputDir: resolve(baseDir, config.output),
+    cacheDir: config.cache !== undefined ? resolve(baseDir, config.cache) : join(dirname(resolve(baseDir, config.output)), '.heathours-cache'),
   };
 }

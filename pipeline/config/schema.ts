@@ -47,6 +47,19 @@ export const atlasSchema = z
     output: z.string().default('../dist'),
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
     work: workSettingsSchema,
+    /**
+     * Folder of the partial cache (pipeline/run/partial-store.ts), relative to the config file;
+     * default `.heathours-cache` beside the output folder.
+     */
+    cache: z.string().min(1).optional(),
+    /** How the grid is cut into shards (pipeline/run/plan.ts). Results do not depend on it. */
+    shards: z
+      .object({
+        /** Land cells aimed at per spatial tile [cells]. */
+        cellsPerTile: z.number().int().min(1).max(1_000_000).default(512),
+      })
+      .strict()
+      .default({}),
   })
   .strict()
   .superRefine((c, ctx) => {

@@ -21,17 +21,22 @@ import { emptyCounts, addCounts } from '../physics/index.ts';
 import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import { CODE_VERSION } from '../model/version.ts';
-import { planShards } from './plan.ts';
+import { planShards, sliceShards } from './plan.ts';
+import { shardProvenance } from './shard-key.ts';
+import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
+import { partialPath, readPartialFile } from './partial-store.ts';
+import { withProcessLock } from '../model/lock.ts';
 import { runShards } from './shard-pool.ts';
 import { computeFigures } from './figures.ts';
 import { figureNormals, nicheStep, type FigureNormals, type NicheResult } from './climate-step.ts';
-import { NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
+import { BuildLocked, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
 import { makeInventory } from '../publish/inventory.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
 import { cellTableCsv } from '../publish/cell-table.ts';
 import { writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
 import { buildSite } from '../publish/site.ts';
+import { compareBuilds, type BuildFacts } from '../publish/changes.ts';
 import { figureDefs } from './figures.ts';
 import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
@@ -48,25 +53,49 @@ export interface BuildAtlasOptions {
   /** Skip the Astro site (publish data files only, into outDir/data). */
   dataOnly?: boolean;
   logger?: Logger;
+  /** Partial cache folder; default the config's `cache`; `false` computes every shard and keeps nothing. */
+  cache?: string | false;
+  /** Distributed run: compute slice `k` of `n` of the shards into `partialsDir`; publish nothing. */
+  shard?: { k: number; n: number; partialsDir: string };
+  /** Distributed run: merge the partials under this folder and publish (computes nothing). */
+  mergeDir?: string;
 }
 
 export interface BuildReport {
   outDir: string;
   shards: number;
-  /** Land cell-hours computed [–]. */
+  /** Shards computed in this run, and reused (cache) or merged (partial files) [–]. */
+  computed: number;
+  reused: number;
+  /** Land cell-hours computed in this run [–]. */
   cellHours: number;
   /** Seconds spent computing shards (wall clock) [s]. */
   computeSeconds: number;
+  /** Seconds spent merging the partials, from the first merge to the last [s]. */
+  mergeSeconds: number;
+  /** Bytes of partial files written in this run [B]. */
+  partialBytes: number;
   totalSeconds: number;
   physics: ReturnType<typeof emptyCounts>;
 }
 
 export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
+  const rc = await loadConfig(o.configPath);
+  const outDir = resolve(o.outDir ?? rc.outputDir);
+  if (o.shard) return runBuild(o, rc, outDir);
+  await mkdir(dirname(outDir), { recursive: true });
+  // Two builds into one output folder must not interleave: the second stops with a clear error.
+  return withProcessLock(`${outDir}.build-lock`, () => runBuild(o, rc, outDir), {
+    onWait: (pid) => {
+      throw BuildLocked({ outDir, pid }, { file: rc.path });
+    },
+  });
+}
+
+async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof loadConfig>>, outDir: string): Promise<BuildReport> {
   const t0 = Date.now();
   const log = o.logger ?? (o.quiet ? silentLogger : consoleLogger);
-  const rc = await loadConfig(o.configPath);
   const cfg = rc.config;
-  const outDir = resolve(o.outDir ?? rc.outputDir);
 
   // Work settings and regions are checked before any data is read.
   const classesPath = resolve(dirname(rc.path), cfg.work.classesFile);
@@ -92,53 +121,125 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     const cells = Int32Array.from(cellList);
     const weights = allRegionCellWeights(regions, ds.grid).map((w) => applyLandMask(w, land));
 
-    // Shards on all cores.
+    // The plan, each shard's provenance, and where its partial comes from.
     const years = range(cfg.years[0], cfg.years[1]);
-    const shards = planShards(nLat, nLon, land, years);
+    const shards = planShards(nLat, nLon, land, years, cfg.shards.cellsPerTile);
+    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations };
+    const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, settings) }));
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
-    log.info(`computing ${shards.length} shards (${cells.length} land cells × ${years.length} years) on ${jobs} worker(s)`);
-    const byYear = new Map<number, { partials: ShardPartial[]; names: string[]; expected: number }>(
-      years.map((y) => [y, { partials: [], names: [], expected: shards.filter((s) => s.year === y).length }]),
-    );
-    // A year is merged as soon as its last shard arrives, and its cell histograms are folded into
-    // region histograms and dropped: memory holds one year of histograms, not the record.
+    const workerInit = (returnPartials: boolean) => ({
+      files: rc.inputFiles,
+      datasetOptions: { ...datasetOptions, digests: false, reuseBlockBuffers: true },
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon },
+      returnPartials,
+    });
+    const physics = emptyCounts();
+    const timing = { read: 0, physics: 0, reduce: 0 };
+    let cellHours = 0;
+    let partialBytes = 0;
+    const taskMeta = (k: KeyedShard) => ({ shardId: k.shard.id, year: k.shard.year, tileIndex: k.shard.tileIndex, key: k.key, provenance: k.provenance as unknown as Record<string, unknown> });
+    const addTiming = (r: { timing: typeof timing }) => {
+      timing.read += r.timing.read;
+      timing.physics += r.timing.physics;
+      timing.reduce += r.timing.reduce;
+    };
+
+    if (o.shard) {
+      // One slice of a distributed run: compute its shards into DIR/slice-K-of-N, publish nothing.
+      const { k, n, partialsDir } = o.shard;
+      const sliceDir = join(resolve(partialsDir), `slice-${k}-of-${n}`);
+      const slice = sliceShards(shards, k, n).map((s) => keyed.find((x) => x.shard.id === s.id)!);
+      const sources = sourcesFromCache(slice, sliceDir);
+      for (const line of describeSources(slice, sources)) log.info(line);
+      const tasks = slice.flatMap((kd, i) => (sources[i].kind === 'compute' ? [{ shard: kd.shard, store: { path: partialPath(sliceDir, kd.shard.id), meta: taskMeta(kd) } }] : []));
+      log.info(`slice ${k}/${n}: ${slice.length} of ${shards.length} shards, ${tasks.length} to compute on ${jobs} worker(s), into ${sliceDir}`);
+      const progress = startProgress('shards', tasks.length, { quiet: o.quiet });
+      const tc = Date.now();
+      await runShards(tasks, workerInit(false), jobs, (_shard, out) => {
+        addCounts(physics, out.result.physics);
+        cellHours += out.result.cellHours;
+        partialBytes += out.storedBytes;
+        addTiming(out.result);
+        progress.tick();
+      });
+      progress.done();
+      const computeSeconds = (Date.now() - tc) / 1000;
+      const totalSeconds = (Date.now() - t0) / 1000;
+      log.info(`slice ${k}/${n} done: ${tasks.length} computed, ${slice.length - tasks.length} reused, ${(partialBytes / 1e6).toFixed(1)} MB of partials, ${totalSeconds.toFixed(1)} s`);
+      return { outDir: sliceDir, shards: slice.length, computed: tasks.length, reused: slice.length - tasks.length, cellHours, computeSeconds, mergeSeconds: 0, partialBytes, totalSeconds, physics };
+    }
+
+    let sources: ShardSource[];
+    if (o.mergeDir) {
+      sources = sourcesFromPartials(keyed, resolve(o.mergeDir)).sources;
+    } else {
+      const cacheRoot = o.cache === false ? undefined : resolve(o.cache ?? rc.cacheDir);
+      sources = sourcesFromCache(keyed, cacheRoot === undefined ? undefined : join(cacheRoot, cfg.id));
+    }
+    for (const line of describeSources(keyed, sources)) log.info(line);
+
+    // Each year is merged as soon as its last partial is there (computed now, or read from a
+    // file), and its cell histograms are folded into region histograms and dropped: memory
+    // holds one year of histograms, not the record.
     const landIndex = new Int32Array(nGrid).fill(-1);
     cells.forEach((g, i) => (landIndex[g] = i));
     const merged = new Map<number, YearCounts>();
     const regionHist = new Map<number, Float32Array[]>();
-    const physics = emptyCounts();
-    let cellHours = 0;
-    const timing = { read: 0, physics: 0, reduce: 0 };
-    const progress = startProgress('shards', shards.length, { quiet: o.quiet });
-    const tc = Date.now();
-    await runShards(
-      shards,
-      { files: rc.inputFiles, datasetOptions: { ...datasetOptions, digests: false, reuseBlockBuffers: true }, context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon } },
-      jobs,
-      (shard, result) => {
-        const slot = byYear.get(shard.year)!;
-        slot.partials.push(result.partial);
-        slot.names.push(shard.id);
-        if (slot.partials.length === slot.expected) {
-          const yc = mergeYear(shard.year, cells, slot.partials, slot.names);
-          regionHist.set(shard.year, regionHistograms(yc, weights, landIndex));
-          yc.histogram = new Uint16Array(0);
-          merged.set(shard.year, yc);
-          slot.partials = [];
-        }
-        addCounts(physics, result.physics);
-        cellHours += result.cellHours;
-        timing.read += result.timing.read;
-        timing.physics += result.timing.physics;
-        timing.reduce += result.timing.reduce;
-        progress.tick();
-      },
+    const pending = new Map<number, { partials: Array<{ id: string; partial: ShardPartial }>; toCompute: number }>(
+      years.map((y) => [y, { partials: [], toCompute: 0 }]),
     );
+    sources.forEach((s, i) => {
+      if (s.kind === 'compute') pending.get(keyed[i].shard.year)!.toCompute += 1;
+    });
+    let mergeMs = 0;
+    const finishYear = (year: number) => {
+      const tm = Date.now();
+      const slot = pending.get(year)!;
+      keyed.forEach((kd, i) => {
+        const s = sources[i];
+        if (kd.shard.year !== year || s.kind !== 'file') return;
+        const { partial, meta } = readPartialFile(s.path);
+        addCounts(physics, meta.report.physics as unknown as ReturnType<typeof emptyCounts>);
+        slot.partials.push({ id: kd.shard.id, partial });
+      });
+      slot.partials.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+      const yc = mergeYear(year, cells, slot.partials.map((p) => p.partial), slot.partials.map((p) => p.id));
+      regionHist.set(year, regionHistograms(yc, weights, landIndex));
+      yc.histogram = new Uint16Array(0);
+      merged.set(year, yc);
+      slot.partials = [];
+      mergeMs += Date.now() - tm;
+    };
+    for (const y of years) if (pending.get(y)!.toCompute === 0) finishYear(y);
+
+    const tasks = keyed.flatMap((kd, i) => {
+      const s = sources[i];
+      return s.kind === 'compute' ? [{ shard: kd.shard, store: s.storePath ? { path: s.storePath, meta: taskMeta(kd) } : undefined }] : [];
+    });
+    log.info(`computing ${tasks.length} of ${shards.length} shards (${cells.length} land cells × ${years.length} years in all) on ${jobs} worker(s)`);
+    const progress = startProgress('shards', tasks.length, { quiet: o.quiet });
+    const tc = Date.now();
+    await runShards(tasks, workerInit(true), jobs, (shard, out) => {
+      const slot = pending.get(shard.year)!;
+      slot.partials.push({ id: shard.id, partial: out.result.partial! });
+      slot.toCompute -= 1;
+      addCounts(physics, out.result.physics);
+      cellHours += out.result.cellHours;
+      partialBytes += out.storedBytes;
+      addTiming(out.result);
+      if (slot.toCompute === 0) finishYear(shard.year);
+      progress.tick();
+    });
     progress.done();
     const computeSeconds = (Date.now() - tc) / 1000;
-    log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${computeSeconds.toFixed(1)} s (${(cellHours / computeSeconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
-    const perCellHour = (ms: number) => ((ms * 1e6) / Math.max(1, cellHours)).toFixed(0);
-    log.info(`worker time per land cell-hour: read ${perCellHour(timing.read)} ns, physics ${perCellHour(timing.physics)} ns, reduce ${perCellHour(timing.reduce)} ns`);
+    if (tasks.length > 0) {
+      log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${computeSeconds.toFixed(1)} s (${(cellHours / computeSeconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
+      const perCellHour = (ms: number) => ((ms * 1e6) / Math.max(1, cellHours)).toFixed(0);
+      log.info(`worker time per land cell-hour: read ${perCellHour(timing.read)} ns, physics ${perCellHour(timing.physics)} ns, reduce ${perCellHour(timing.reduce)} ns`);
+    }
+    const reused = shards.length - tasks.length;
+    // Counts of the whole record (reused shards report what their computation counted).
+    const allCellHours = sources.reduce((n, s) => n + (s.kind === 'file' ? s.meta.report.cellHours : 0), cellHours);
 
     // Merge, normals, niche.
     const yearCounts: YearCounts[] = years.map((y) => merged.get(y)!);
@@ -153,12 +254,13 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     await mkdir(join(dataDir, 'regions'), { recursive: true });
     try {
       const generated = process.env.HEATHOURS_BUILD_TIME ?? new Date().toISOString();
+      const regionTables = new Map(regions.map((rg, r) => [rg.id, regionTableCsv(r, rg.id, figures, cfg.baseline, ctx.latestYear)]));
       log.info('summarising the inputs for the inventory');
       const inventory = makeInventory(cfg, ds, await ds.summary(), generated);
       await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
       await writeFile(join(dataDir, 'regions.geojson'), regionsGeoJson(regions));
       for (let r = 0; r < regions.length; r++) {
-        await writeFile(join(dataDir, 'regions', `${regions[r].id}.csv`), regionTableCsv(r, regions[r].id, figures, cfg.baseline, ctx.latestYear));
+        await writeFile(join(dataDir, 'regions', `${regions[r].id}.csv`), regionTables.get(regions[r].id)!);
         await writeFile(join(dataDir, 'regions', `${regions[r].id}.json`), JSON.stringify(regionSummary(r, regions[r], weights[r], niche, figures)));
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
@@ -167,6 +269,16 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
       await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(years, cfg.baseline, regions)));
       for (let r = 0; r < regions.length; r++) {
         await writeFile(join(dataDir, 'calculator', `${regions[r].id}.bin`), encodeHistogramTile(years.map((y) => regionHist.get(y)![r])));
+      }
+      // What changed since the build now in outDir (if any), for the site.
+      const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
+      const changes = compareBuilds(readPreviousFacts(join(outDir, 'data')), {
+        buildTime: generated, codeVersion: CODE_VERSION, configDigest, years: cfg.years, baseline: cfg.baseline,
+        inputs: ds.files, regionTables, regionNames: new Map(regions.map((rg) => [rg.id, rg.name])),
+      });
+      await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
+      if (changes.hasPrevious) {
+        log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.moves.length} figure moves listed`);
       }
       const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
       const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
@@ -177,7 +289,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
         atlas: { id: cfg.id, title: cfg.title, invented: cfg.dataset.invented, attribution: cfg.dataset.attribution },
         buildTime: generated,
         codeVersion: CODE_VERSION,
-        configDigest: createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex'),
+        configDigest,
         inputs: ds.files,
         years: cfg.years,
         baseline: cfg.baseline,
@@ -186,7 +298,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
         work: { ...work.settings, clothingAdjustment: work.clothingAdjustment, rest: work.rest, classes: work.classes, cautions: CAUTIONS },
         figures: figureDefs(work.evaluations.map((e) => e.key)).map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
         statistics: STATISTIC_RULES,
-        counts: { shards: shards.length, landCells: cells.length, cellHours, notConverged: physics.notConverged, rejected: physics.rejected, dewPointClamped: physics.dewPointClamped },
+        counts: { shards: shards.length, landCells: cells.length, cellHours: allCellHours, notConverged: physics.notConverged, rejected: physics.rejected, dewPointClamped: physics.dewPointClamped },
         layers,
         artefacts,
       };
@@ -204,9 +316,27 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     }
     const totalSeconds = (Date.now() - t0) / 1000;
     log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s`);
-    return { outDir, shards: shards.length, cellHours, computeSeconds, totalSeconds, physics };
+    return { outDir, shards: shards.length, computed: tasks.length, reused, cellHours, computeSeconds, mergeSeconds: mergeMs / 1000, partialBytes, totalSeconds, physics };
   } finally {
     await ds.close();
+  }
+}
+
+/** The facts of the build published in `dataDir`, or null when there is none (or it cannot be read). */
+function readPreviousFacts(dataDir: string): BuildFacts | null {
+  try {
+    const m = JSON.parse(readFileSync(join(dataDir, 'manifest.json'), 'utf8')) as Manifest;
+    const regionTables = new Map<string, string>();
+    const regionNames = new Map<string, string>();
+    const gj = JSON.parse(readFileSync(join(dataDir, 'regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> };
+    for (const f of gj.features) {
+      const p = join(dataDir, 'regions', `${f.properties.id}.csv`);
+      if (existsSync(p)) regionTables.set(f.properties.id, readFileSync(p, 'utf8'));
+      regionNames.set(f.properties.id, f.properties.name);
+    }
+    return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables, regionNames };
+  } catch {
+    return null;
   }
 }
 
@@ -308,5 +438,6 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
   }
   if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
+  if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
 }

@@ -21,3 +21,31 @@ export const WorkloadClassesFileMissing = defineError<{ path: string }>({
   message: (p) => `no workload-classes file at ${p.path}`,
   hint: () => 'set work.classesFile (relative to the atlas configuration) or copy content/workload-classes.yaml beside it',
 });
+
+export const PartialsDuplicated = defineError<{ shardId: string; files: string[] }>({
+  code: 'PartialsDuplicated',
+  title: 'A shard has more than one partial',
+  message: (p) => `shard ${p.shardId} is in ${p.files.length} partial files: ${p.files.join(', ')}`,
+  hint: () => 'the slices overlap (runs with different --shard N into one folder?): keep one run\'s slice-K-of-N folders and delete the others',
+});
+
+export const PartialsForeign = defineError<{ file: string; shardId: string; why: string }>({
+  code: 'PartialsForeign',
+  title: 'A partial was made from other inputs, settings or code',
+  message: (p) => `${p.file} (shard ${p.shardId}) does not fit this build: ${p.why}`,
+  hint: () => 'rerun its slice with the same configuration, input files and heathours version as the merge',
+});
+
+export const BuildLocked = defineError<{ outDir: string; pid: number }>({
+  code: 'BuildLocked',
+  title: 'Another build is writing the same output',
+  message: (p) => `a heathours build (process ${p.pid}) is already writing ${p.outDir}`,
+  hint: () => 'wait for it to finish, or build into another folder with --out; a lock left by a process that no longer runs is taken over by itself',
+});
+
+export const ShardSliceInvalid = defineError<{ text: string }>({
+  code: 'ShardSliceInvalid',
+  title: 'The --shard value is not K/N',
+  message: (p) => `--shard "${p.text}" is not K/N with 1 ≤ K ≤ N (e.g. 3/8)`,
+  hint: () => 'pass the slice as K/N, e.g. --shard 1/4 … --shard 4/4; with a Slurm array use --shard $((SLURM_ARRAY_TASK_ID))/N',
+});

@@ -28,8 +28,9 @@ export const TARGET_CELLS_PER_TILE = 512;
  * cells each and crosses them with the years. Tiles without land are dropped.
  * @param nLat rows, nLon columns of the grid
  * @param land 1 where a cell is computed (row-major), or undefined for all cells
+ * @param cellsPerTile land cells aimed at per tile [cells] (config `shards.cellsPerTile`)
  */
-export function planShards(nLat: number, nLon: number, land: Uint8Array | undefined, years: readonly number[]): ShardSpec[] {
+export function planShards(nLat: number, nLon: number, land: Uint8Array | undefined, years: readonly number[], cellsPerTile = TARGET_CELLS_PER_TILE): ShardSpec[] {
   const landInRow = new Int32Array(nLat);
   for (let y = 0; y < nLat; y++) {
     let n = 0;
@@ -41,7 +42,7 @@ export function planShards(nLat: number, nLon: number, land: Uint8Array | undefi
   while (y0 < nLat) {
     let y1 = y0;
     let n = 0;
-    while (y1 < nLat && (n === 0 || n + landInRow[y1] <= TARGET_CELLS_PER_TILE)) n += landInRow[y1++];
+    while (y1 < nLat && (n === 0 || n + landInRow[y1] <= cellsPerTile)) n += landInRow[y1++];
     if (n > 0) {
       const cells: number[] = [];
       for (let y = y0; y < y1; y++) for (let x = 0; x < nLon; x++) if (!land || land[y * nLon + x] === 1) cells.push(y * nLon + x);

@@ -8,6 +8,23 @@ import { HeathoursError } from '../model/errors.ts';
 import type { ShardSpec } from './plan.ts';
 import type { ShardResult } from './compute-shard.ts';
 import type { WorkerInit } from './shard-worker.ts';
+import type { PartialMeta } from '../reduce/partial-codec.ts';
+
+/** One shard to compute, and where to write its partial file (optional). */
+export interface ShardTask {
+  shard: ShardSpec;
+  store?: { path: string; meta: Omit<PartialMeta, 'report'> };
+}
+
+/** What the pool hands over per shard: the result (without its partial when not returned). */
+export interface ShardOutcome {
+  result: Omit<ShardResult, 'partial'> & { partial?: ShardResult['partial'] };
+  /** Wall time of the task in the worker [ms]; of which encoding and writing the partial [ms]. */
+  ms: number;
+  storeMs: number;
+  /** Size of the partial file written [B]; 0 without a store. */
+  storedBytes: number;
+}
 
 interface WorkerError {
   catalogued: boolean;
@@ -24,36 +41,40 @@ function toError(e: WorkerError, shardId?: string): Error {
 }
 
 export async function runShards(
-  shards: readonly ShardSpec[],
+  tasks: readonly ShardTask[],
   init: WorkerInit,
   jobs: number,
-  onResult: (shard: ShardSpec, result: ShardResult, ms: number) => void,
+  onResult: (shard: ShardSpec, outcome: ShardOutcome) => void,
 ): Promise<void> {
-  if (shards.length === 0) return;
-  const size = Math.max(1, Math.min(jobs, shards.length));
+  if (tasks.length === 0) return;
+  const size = Math.max(1, Math.min(jobs, tasks.length));
   const url = new URL('./shard-worker.ts', import.meta.url);
   const workers = Array.from({ length: size }, () => startTsWorker(url));
-  const queue = [...shards];
+  const queue = [...tasks];
   try {
     await Promise.all(
       workers.map(
         (w) =>
           new Promise<void>((resolve, reject) => {
             const next = () => {
-              const shard = queue.shift();
-              if (!shard) return resolve();
-              w.postMessage({ shard });
+              const task = queue.shift();
+              if (!task) return resolve();
+              w.postMessage({ task });
             };
             w.on('error', reject);
             w.on('exit', (code) => {
               if (code !== 0) reject(new Error(`a shard worker exited with code ${code}`));
             });
-            w.on('message', (m: { ready?: boolean; error?: WorkerError; shardId?: string; result?: ShardResult; ms?: number }) => {
+            w.on('message', (m: { ready?: boolean; error?: WorkerError; shardId?: string; result?: ShardOutcome['result']; ms?: number; storeMs?: number; storedBytes?: number }) => {
               if (m.error) return reject(toError(m.error, m.shardId));
               if (m.ready) return next();
               if (m.result) {
-                const shard = shards.find((s) => s.id === m.shardId)!;
-                onResult(shard, m.result, m.ms ?? 0);
+                const shard = tasks.find((t) => t.shard.id === m.shardId)!.shard;
+                try {
+                  onResult(shard, { result: m.result, ms: m.ms ?? 0, storeMs: m.storeMs ?? 0, storedBytes: m.storedBytes ?? 0 });
+                } catch (e) {
+                  return reject(e);
+                }
                 next();
               }
             });

@@ -1,34 +1,49 @@
 /**
- * Worker side of the shard pool: opens the dataset once, then computes the shards it is sent
- * and posts each partial back (its arrays transferred, not copied). Started by shard-pool.ts with
+ * Worker side of the shard pool: opens the dataset once, then computes the shards it is sent.
+ * A task with a `storePath` also writes its partial file there (pipeline/run/partial-store.ts;
+ * encoding runs here, in parallel); the partial is posted back (its arrays transferred, not
+ * copied) unless the pool was started with `returnPartials: false`. Started by shard-pool.ts with
  * startTsWorker (pipeline/model/ts-worker.ts), since the sources are TypeScript.
  */
 import { parentPort } from 'node:worker_threads';
 import { openDataset, type Dataset, type OpenDatasetOptions } from '../read/index.ts';
 import { computeShard, type ShardContext } from './compute-shard.ts';
-import type { ShardSpec } from './plan.ts';
+import type { ShardTask } from './shard-pool.ts';
 import { partialBuffers } from './partial-transfer.ts';
+import { writePartialFile } from './partial-store.ts';
 import { HeathoursError } from '../model/errors.ts';
 
 export interface WorkerInit {
   files: string[];
   datasetOptions: OpenDatasetOptions;
   context: ShardContext;
+  /** Post each partial back to the main thread (false when it is only written to a store). */
+  returnPartials?: boolean;
 }
 
 let ds: Dataset | undefined;
-let ctx: ShardContext | undefined;
+let init: WorkerInit | undefined;
 
-parentPort!.on('message', async (m: { init?: WorkerInit; shard?: ShardSpec; close?: boolean }) => {
+parentPort!.on('message', async (m: { init?: WorkerInit; task?: ShardTask; close?: boolean }) => {
   try {
     if (m.init) {
       ds = await openDataset(m.init.files, { ...m.init.datasetOptions });
-      ctx = m.init.context;
+      init = m.init;
       parentPort!.postMessage({ ready: true });
-    } else if (m.shard) {
+    } else if (m.task) {
+      const { shard, store } = m.task;
       const t = performance.now();
-      const r = await computeShard(ds!, m.shard, ctx!);
-      parentPort!.postMessage({ shardId: m.shard.id, result: r, ms: performance.now() - t }, partialBuffers(r.partial));
+      const r = await computeShard(ds!, shard, init!.context);
+      let storedBytes = 0;
+      const te = performance.now();
+      if (store) {
+        const physics = { ...r.physics } as unknown as Record<string, number>;
+        storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics } });
+      }
+      const storeMs = performance.now() - te;
+      const keep = init!.returnPartials !== false;
+      const result = keep ? r : { ...r, partial: undefined };
+      parentPort!.postMessage({ shardId: shard.id, result, ms: performance.now() - t, storedBytes, storeMs }, keep ? partialBuffers(r.partial) : []);
     } else if (m.close) {
       await ds?.close();
       parentPort!.postMessage({ closed: true });
@@ -37,6 +52,6 @@ parentPort!.on('message', async (m: { init?: WorkerInit; shard?: ShardSpec; clos
     const err = e instanceof HeathoursError
       ? { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where }
       : { catalogued: false, message: (e as Error)?.stack ?? String(e) };
-    parentPort!.postMessage({ error: err, shardId: m.shard?.id });
+    parentPort!.postMessage({ error: err, shardId: m.task?.shard.id });
   }
 });

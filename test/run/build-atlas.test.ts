@@ -43,7 +43,7 @@ async function expectBuildError(yaml: string, code: string, name: string): Promi
   writeFileSync(cfg, yaml);
   const out = join(dir, `out-${name}`);
   try {
-    await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true });
+    await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false });
   } catch (e) {
     expect(e).toBeInstanceOf(HeathoursError);
     expect((e as HeathoursError).code).toBe(code);
@@ -59,8 +59,8 @@ beforeAll(async () => {
   // Invented demo data, small grid, one legacy (2022) and one NetCDF-4 (2023) year.
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2022, 2023], layout: 'mixed', grid: 'small', quiet: true });
   writeFileSync(join(dir, 'atlas.yaml'), atlasYaml());
-  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out1'), jobs: 1, quiet: true, dataOnly: true });
-  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out2'), jobs: 2, quiet: true, dataOnly: true });
+  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out1'), jobs: 1, quiet: true, dataOnly: true, cache: false });
+  await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'out2'), jobs: 2, quiet: true, dataOnly: true, cache: false });
 }, 300_000);
 
 describe('heathours build on the invented small demo', () => {

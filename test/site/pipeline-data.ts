@@ -112,7 +112,7 @@ work:
 `,
     );
     process.env.HEATHOURS_BUILD_TIME ??= '2026-01-01T00:00:00.000Z';
-    await buildAtlas({ configPath, outDir: dataDir, jobs: 2, quiet: true, dataOnly: true });
+    await buildAtlas({ configPath, outDir: dataDir, jobs: 2, quiet: true, dataOnly: true, cache: false });
     return { dataDir, configPath, reused: false };
   });
 }

@@ -1,0 +1,130 @@
+/**
+ * What changed since the previous build (`data/changes.json`), so a team sees the effect of the
+ * yearly update: years and input files added, changed or removed, code and configuration
+ * changes, and the region figures (annual, per workload class, acclimatization and exposure)
+ * that moved most. Pure: the previous and the new build's manifest facts and region tables in,
+ * the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts).
+ */
+
+/** The facts of one build the comparison needs. */
+export interface BuildFacts {
+  buildTime: string;
+  codeVersion: string;
+  configDigest: string;
+  years: [number, number];
+  baseline: [number, number];
+  inputs: Array<{ name: string; sha256: string }>;
+  /** Region id → its published CSV text. */
+  regionTables: Map<string, string>;
+  /** Region id → name. */
+  regionNames: Map<string, string>;
+}
+
+/** One figure's move between the builds. */
+export interface FigureMove {
+  regionId: string;
+  regionName: string;
+  figure: string;
+  workloadClass: string;
+  acclimatization: string;
+  exposure: string;
+  method: string;
+  /** `mean` (baseline normal), `p90`, or `latest` (the latest year). */
+  statistic: string;
+  before: number;
+  after: number;
+  /** after − before [unit]. */
+  change: number;
+  unit: string;
+}
+
+export interface BuildChanges {
+  version: 1;
+  /** false for a first build (nothing to compare with); the rest is then empty. */
+  hasPrevious: boolean;
+  previous?: { buildTime: string; codeVersion: string; years: [number, number]; baseline: [number, number] };
+  yearsAdded: number[];
+  yearsRemoved: number[];
+  baselineChanged: boolean;
+  inputs: { added: string[]; changed: string[]; removed: string[] };
+  codeChanged: boolean;
+  configChanged: boolean;
+  /** The largest annual moves, per unit, largest |change| first (at most `limit` per unit). */
+  moves: FigureMove[];
+  regionsAdded: string[];
+  regionsRemoved: string[];
+}
+
+/** Statistics compared (annual rows only). */
+const COMPARED_STATISTICS = new Set(['mean', 'p90', 'latest']);
+
+const years = (r: [number, number]) => Array.from({ length: r[1] - r[0] + 1 }, (_, i) => r[0] + i);
+
+/** Annual rows of a region CSV, keyed by figure|class|acclimatization|exposure|method|statistic. */
+function annualRows(csv: string): Map<string, { value: number; unit: string; cols: string[] }> {
+  const out = new Map<string, { value: number; unit: string; cols: string[] }>();
+  const lines = csv.trim().split('\n');
+  const head = lines[0].split(',');
+  const at = (name: string) => head.indexOf(name);
+  const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = ['period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit'].map(at);
+  for (const line of lines.slice(1)) {
+    const c = line.split(',');
+    if (c[iP] !== 'year' || !COMPARED_STATISTICS.has(c[iS]) || c[iV] === '') continue;
+    const cols = [c[iF], c[iC], c[iA], c[iE], c[iM], c[iS]];
+    out.set(cols.join('|'), { value: Number(c[iV]), unit: c[iU], cols });
+  }
+  return out;
+}
+
+/** Compares the new build with the previous one (null for a first build). */
+export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit = 10): BuildChanges {
+  const empty: BuildChanges = {
+    version: 1, hasPrevious: false, yearsAdded: [], yearsRemoved: [], baselineChanged: false,
+    inputs: { added: [], changed: [], removed: [] }, codeChanged: false, configChanged: false, moves: [], regionsAdded: [], regionsRemoved: [],
+  };
+  if (!prev) return empty;
+  const py = new Set(years(prev.years));
+  const ny = new Set(years(next.years));
+  const pin = new Map(prev.inputs.map((f) => [f.name, f.sha256]));
+  const nin = new Map(next.inputs.map((f) => [f.name, f.sha256]));
+  const moves: FigureMove[] = [];
+  for (const [id, csv] of next.regionTables) {
+    const before = prev.regionTables.get(id);
+    if (before === undefined) continue;
+    const a = annualRows(before);
+    for (const [key, row] of annualRows(csv)) {
+      const old = a.get(key);
+      if (!old || old.unit !== row.unit || !Number.isFinite(old.value) || !Number.isFinite(row.value) || old.value === row.value) continue;
+      const [figure, workloadClass, acclimatization, exposure, method, statistic] = row.cols;
+      moves.push({
+        regionId: id, regionName: next.regionNames.get(id) ?? id, figure, workloadClass, acclimatization, exposure, method, statistic,
+        before: old.value, after: row.value, change: Math.round((row.value - old.value) * 1e6) / 1e6, unit: row.unit,
+      });
+    }
+  }
+  const byUnit = new Map<string, FigureMove[]>();
+  for (const m of moves) byUnit.set(m.unit, [...(byUnit.get(m.unit) ?? []), m]);
+  const top = [...byUnit.keys()].sort().flatMap((u) =>
+    byUnit.get(u)!
+      .sort((x, y) => Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1))
+      .slice(0, limit),
+  );
+  return {
+    version: 1,
+    hasPrevious: true,
+    previous: { buildTime: prev.buildTime, codeVersion: prev.codeVersion, years: prev.years, baseline: prev.baseline },
+    yearsAdded: [...ny].filter((y) => !py.has(y)),
+    yearsRemoved: [...py].filter((y) => !ny.has(y)),
+    baselineChanged: prev.baseline[0] !== next.baseline[0] || prev.baseline[1] !== next.baseline[1],
+    inputs: {
+      added: [...nin.keys()].filter((n) => !pin.has(n)).sort(),
+      changed: [...nin.keys()].filter((n) => pin.has(n) && pin.get(n) !== nin.get(n)).sort(),
+      removed: [...pin.keys()].filter((n) => !nin.has(n)).sort(),
+    },
+    codeChanged: prev.codeVersion !== next.codeVersion,
+    configChanged: prev.configDigest !== next.configDigest,
+    moves: top,
+    regionsAdded: [...next.regionTables.keys()].filter((id) => !prev.regionTables.has(id)).sort(),
+    regionsRemoved: [...prev.regionTables.keys()].filter((id) => !next.regionTables.has(id)).sort(),
+  };
+}

@@ -1,0 +1,160 @@
+/**
+ * What a shard's partial depends on, and the cache key made from it. A partial is reused only
+ * when every part is the same; when one differs, {@link explainChange} names it, so each build
+ * step can say why it recomputed.
+ *
+ * Parts (DESIGN.md §3):
+ * - the code: package version and a digest of the sources that compute a shard (read, physics,
+ *   work, reduce, model, compute-shard.ts) and the partial file format;
+ * - the inputs: name and SHA-256 of each file whose hours reach into the shard's local year
+ *   (± 26 h, as compute-shard.ts reads), and of the static files (the land-sea mask);
+ * - the configuration parts the counts depend on: product and land-sea mask, time zone, work
+ *   shift, and the work evaluations (class id and metabolic rate, acclimatization, exposure,
+ *   rest place, the prepared limit kernel with the clothing adjustment);
+ * - the shard itself: year, tile and its land cells.
+ * Titles, descriptions, regions, baseline years and publishing options are not parts: changing
+ * them reuses every partial.
+ */
+import { createHash } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { DatasetFileInfo } from '../read/index.ts';
+import type { WorkEvaluation, WorkShift } from '../work/index.ts';
+import { CODE_VERSION } from '../model/version.ts';
+import { PARTIAL_FORMAT } from '../reduce/partial-codec.ts';
+import type { ShardSpec } from './plan.ts';
+
+const HOUR_MS = 3_600_000;
+const PIPELINE = new URL('../', import.meta.url).pathname;
+/** Folders (under pipeline/) and files whose sources decide a shard's counts. */
+const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-shard.ts'];
+
+function sourceFiles(path: string): string[] {
+  if (path.endsWith('.ts') || path.endsWith('.mjs')) return [path];
+  return readdirSync(join(PIPELINE, path), { withFileTypes: true })
+    .filter((e) => e.isDirectory() || /\.(ts|mjs)$/.test(e.name))
+    .flatMap((e) => sourceFiles(join(path, e.name)))
+    .sort();
+}
+
+/** SHA-256 of the shard-computing sources [hex, 16 digits]; same sources, same digest. */
+export const COMPUTE_CODE_DIGEST: string = (() => {
+  const h = createHash('sha256');
+  for (const f of COMPUTE_SOURCES.flatMap(sourceFiles)) h.update(f).update('\0').update(readFileSync(join(PIPELINE, f))).update('\0');
+  return h.digest('hex').slice(0, 16);
+})();
+
+/** The configuration parts every shard depends on. */
+export interface ComputeSettings {
+  product: string;
+  landSeaMask: unknown;
+  timeZone: string;
+  shift: WorkShift;
+  evaluations: readonly WorkEvaluation[];
+}
+
+/** The provenance of one shard's partial: the parts listed in the file comment. */
+export interface ShardProvenance {
+  code: { version: string; sources: string; partialFormat: number };
+  inputs: Array<{ name: string; sha256: string }>;
+  settings: {
+    product: string;
+    landSeaMask: unknown;
+    timeZone: string;
+    shift: WorkShift;
+    evaluations: Array<{ key: string; workloadClass: { id: string; metabolicRate: number }; restWbgt: string | null; kernel: unknown }>;
+  };
+  shard: { year: number; tile: ShardSpec['tile']; cells: string };
+}
+
+/** Digest of the settings alone [hex, 16 digits]: what the merge compares across partials. */
+export function settingsDigest(s: ComputeSettings): string {
+  return sha(JSON.stringify(settingsPart(s))).slice(0, 16);
+}
+
+function settingsPart(s: ComputeSettings): ShardProvenance['settings'] {
+  return {
+    product: s.product,
+    landSeaMask: s.landSeaMask ?? null,
+    timeZone: s.timeZone,
+    shift: s.shift,
+    evaluations: s.evaluations.map((e) => ({
+      key: e.key,
+      workloadClass: { id: e.workloadClass.id, metabolicRate: e.workloadClass.metabolicRate },
+      restWbgt: e.restWbgt,
+      kernel: e.kernel,
+    })),
+  };
+}
+
+function sha(text: string | Uint8Array): string {
+  return createHash('sha256').update(text).digest('hex');
+}
+
+/** Files whose hours reach into local year `year` (± 26 h), and the files without a time axis. */
+export function inputsForYear(files: readonly DatasetFileInfo[], year: number): Array<{ name: string; sha256: string }> {
+  const from = Date.UTC(year, 0, 1) - 26 * HOUR_MS;
+  const to = Date.UTC(year + 1, 0, 1) + 26 * HOUR_MS;
+  return files
+    .filter((f) => {
+      if (!f.timeStart) return true;
+      const a = Date.parse(f.timeStart);
+      const b = Date.parse(f.timeEnd);
+      return b >= from && a <= to;
+    })
+    .map((f) => ({ name: f.name, sha256: f.sha256 }))
+    .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+}
+
+/** The provenance of `shard` and its cache key [hex]. */
+export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], s: ComputeSettings): { provenance: ShardProvenance; key: string } {
+  const provenance: ShardProvenance = {
+    code: { version: CODE_VERSION, sources: COMPUTE_CODE_DIGEST, partialFormat: PARTIAL_FORMAT },
+    inputs: inputsForYear(files, shard.year),
+    settings: settingsPart(s),
+    shard: { year: shard.year, tile: shard.tile, cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16) },
+  };
+  return { provenance, key: sha(JSON.stringify(provenance)) };
+}
+
+/** Why a stored partial of provenance `old` does not serve `now`, in words; [] when it does. */
+export function explainChange(old: ShardProvenance, now: ShardProvenance): string[] {
+  const why: string[] = [];
+  if (old.code?.version !== now.code.version) why.push(`code version ${old.code?.version} → ${now.code.version}`);
+  else if (old.code?.sources !== now.code.sources) why.push('the computing code changed (source digest)');
+  if (old.code?.partialFormat !== now.code.partialFormat) why.push('partial format changed');
+  const before = new Map((old.inputs ?? []).map((f) => [f.name, f.sha256]));
+  const after = new Map(now.inputs.map((f) => [f.name, f.sha256]));
+  for (const [name, digest] of after) {
+    if (!before.has(name)) why.push(`input ${name} is new to this year`);
+    else if (before.get(name) !== digest) why.push(`input ${name} changed`);
+  }
+  for (const name of before.keys()) if (!after.has(name)) why.push(`input ${name} is gone`);
+  const os = old.settings;
+  const ns = now.settings;
+  if (os?.product !== ns.product || JSON.stringify(os?.landSeaMask) !== JSON.stringify(ns.landSeaMask)) why.push('dataset product or land-sea mask changed');
+  if (os?.timeZone !== ns.timeZone) why.push(`time zone ${os?.timeZone} → ${ns.timeZone}`);
+  if (JSON.stringify(os?.shift) !== JSON.stringify(ns.shift)) why.push('work shift changed');
+  if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
+  if (JSON.stringify(old.shard) !== JSON.stringify(now.shard)) why.push('the tile holds other cells (grid, mask or tiling changed)');
+  return why;
+}
+
+function describeEvaluationChange(a: ShardProvenance['settings']['evaluations'], b: ShardProvenance['settings']['evaluations']): string {
+  const byKey = (l: typeof a) => new Map(l.map((e) => [e.key, JSON.stringify(e)]));
+  const ma = byKey(a);
+  const mb = byKey(b);
+  const changed = [...mb.keys()].filter((k) => ma.has(k) && ma.get(k) !== mb.get(k));
+  const added = [...mb.keys()].filter((k) => !ma.has(k));
+  const removed = [...ma.keys()].filter((k) => !mb.has(k));
+  const classes = (keys: string[]) => [...new Set(keys.map((k) => k.split('.')[0]))].join(', ');
+  const parts = [
+    changed.length ? `changed: ${classes(changed)}` : '',
+    added.length ? `added: ${classes(added)}` : '',
+    removed.length ? `removed: ${classes(removed)}` : '',
+  ].filter(Boolean);
+  return (
+    `work evaluations changed (${parts.join('; ') || 'order'}); every class is counted in the same pass over the hourly WBGT, ` +
+    'so the shard recomputes whole (the physics, shared by all classes, is most of its cost)'
+  );
+}
