@@ -1,7 +1,8 @@
 /**
  * Merging shard partials. Partials of different tiles of one year hold disjoint cells and are
  * scattered into one year-wide set of counts over all land cells; partials of the same cells and
- * year (e.g. split by time) are added. Counts are integers, so any order gives identical results.
+ * year (a tile's pieces of the year, split by time) are added. Counts are integers, so any order
+ * gives identical results.
  */
 import type { ShardPartial } from './accumulator.ts';
 import { MONTHS } from './layout.ts';
@@ -28,8 +29,10 @@ export type YearCounts = ShardPartial;
 
 /**
  * Merges the partials of one year into counts over `cells` (all land cells, ascending global
- * indices). Every cell must be covered; a cell covered twice is added (time split) only when
- * `allowOverlap`, else it is an error naming the shards.
+ * indices). Partials with the same cells (one tile's pieces of the year, split by time) are
+ * added, their covered hours summed; partials of different tiles must hold disjoint cells (a
+ * cell in two tiles is an error naming the shards, unless `allowOverlap`), and the covered hours
+ * are the most any tile has. Every cell must be covered.
  */
 export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], allowOverlap = false): YearCounts {
   if (partials.length === 0) throw PartialsIncomplete({ detail: `no partial for year ${year}` });
@@ -38,27 +41,47 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
   cells.forEach((c, i) => pos.set(c, i));
   const out = emptyLike(first, year, cells);
   const seen = new Int32Array(cells.length).fill(-1);
+  // Group the pieces of each tile: same cells, in the same order.
+  const groups: number[][] = [];
+  const bySignature = new Map<string, number[][]>();
   partials.forEach((p, pi) => {
-    if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
-    if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
-      throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
-    }
-    for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], p.coveredHours[m]);
-    for (let j = 0; j < p.cells.length; j++) {
-      const at = pos.get(p.cells[j]);
-      if (at === undefined) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
-      if (seen[at] >= 0 && !allowOverlap) {
-        throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[at]] ?? seen[at]} and ${names[pi] ?? pi}` });
-      }
-      seen[at] = pi;
-      for (const f of PER_CELL_FIELDS) addCell(out, p, f, at, j);
-      const w = per(p, 'wbgtMax');
-      for (let k = 0; k < w; k++) {
-        const v = p.wbgtMax[j * w + k];
-        if (v > out.wbgtMax[at * w + k]) out.wbgtMax[at * w + k] = v;
-      }
+    const sig = `${p.cells.length}:${p.cells[0]}:${p.cells[p.cells.length - 1]}`;
+    const cands = bySignature.get(sig) ?? [];
+    const g = cands.find((grp) => sameCells(partials[grp[0]].cells, p.cells));
+    if (g) g.push(pi);
+    else {
+      const grp = [pi];
+      cands.push(grp);
+      groups.push(grp);
+      bySignature.set(sig, cands);
     }
   });
+  for (const grp of groups) {
+    const covered = new Uint32Array(MONTHS);
+    for (const pi of grp) {
+      const p = partials[pi];
+      if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
+      if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
+        throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
+      }
+      for (let m = 0; m < MONTHS; m++) covered[m] += p.coveredHours[m];
+      for (let j = 0; j < p.cells.length; j++) {
+        const at = pos.get(p.cells[j]);
+        if (at === undefined) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
+        if (seen[at] >= 0 && !allowOverlap && !grp.includes(seen[at])) {
+          throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[at]] ?? seen[at]} and ${names[pi] ?? pi}` });
+        }
+        seen[at] = pi;
+        for (const f of PER_CELL_FIELDS) addCell(out, p, f, at, j);
+        const w = per(p, 'wbgtMax');
+        for (let k = 0; k < w; k++) {
+          const v = p.wbgtMax[j * w + k];
+          if (v > out.wbgtMax[at * w + k]) out.wbgtMax[at * w + k] = v;
+        }
+      }
+    }
+    for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], covered[m]);
+  }
   const missing: number[] = [];
   seen.forEach((s, i) => {
     if (s < 0) missing.push(cells[i]);
@@ -67,6 +90,12 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
     throw PartialsIncomplete({ detail: `year ${year}: ${missing.length} land cell(s) in no partial (first: ${missing.slice(0, 5).join(', ')})` });
   }
   return out;
+}
+
+function sameCells(a: Int32Array, b: Int32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {

@@ -21,7 +21,7 @@ import { emptyCounts, addCounts } from '../physics/index.ts';
 import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import { CODE_VERSION } from '../model/version.ts';
-import { planShards, sliceShards } from './plan.ts';
+import { planShards, sliceShards, yearPieces } from './plan.ts';
 import { shardProvenance } from './shard-key.ts';
 import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
 import { partialPath, readPartialFile } from './partial-store.ts';
@@ -123,9 +123,9 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
 
     // The plan, each shard's provenance, and where its partial comes from.
     const years = range(cfg.years[0], cfg.years[1]);
-    const shards = planShards(nLat, nLon, land, years, cfg.shards.cellsPerTile);
+    const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone), cfg.shards.cellsPerTile);
     const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations };
-    const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, settings) }));
+    const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
     const workerInit = (returnPartials: boolean) => ({
       files: rc.inputFiles,

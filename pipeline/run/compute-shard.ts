@@ -52,15 +52,6 @@ export function landRuns(cells: Int32Array, nLon: number, y0: number): LandRun[]
   return runs;
 }
 
-/** Hour indices [h0, h1) of the dataset that may belong to local year `year` (±1 day margin). */
-export function hourRangeForYear(ds: Pick<Dataset, 'time'>, year: number): [number, number] {
-  const from = Date.UTC(year, 0, 1) - 26 * HOUR_MS;
-  const to = Date.UTC(year + 1, 0, 1) + 26 * HOUR_MS;
-  const h0 = Math.max(0, Math.ceil((from - ds.time.start) / HOUR_MS));
-  const h1 = Math.min(ds.time.count, Math.floor((to - ds.time.start) / HOUR_MS) + 1);
-  return [h0, Math.max(h0, h1)];
-}
-
 export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardContext): Promise<ShardResult> {
   const { tile, cells } = shard;
   const nRows = tile.y1 - tile.y0;
@@ -98,7 +89,7 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
     tick = now;
   };
 
-  const [h0, h1] = hourRangeForYear(ds, shard.year);
+  const [h0, h1] = shard.hours;
   for (let t0 = h0; t0 < h1; t0 += BLOCK_HOURS) {
     const nt = Math.min(BLOCK_HOURS, h1 - t0);
     tick = performance.now();

@@ -1,9 +1,54 @@
 /**
  * The shard plan: the build is cut into shards, each one spatial tile (a band of grid rows) ×
- * one local calendar year. Shards are independent; their partials are integer counts, so any
- * partition of the plan merges to identical results (DESIGN.md §3).
+ * one piece of a local calendar year. A local year is cut where the UTC calendar year of the
+ * data changes, so that a new year of data (files of one UTC year) touches only the pieces that
+ * read it: with local time UTC−10, local 2023 is the piece `y2023` (hours starting in UTC 2023)
+ * and the 10-hour piece `y2023-u2024`. Shards are independent; their partials are integer
+ * counts, and pieces of one tile and year add up, so any partition of the plan merges to
+ * identical results (DESIGN.md §3).
  */
 import type { Tile } from '../model/grid.ts';
+import { localHours } from '../work/index.ts';
+
+const HOUR_MS = 3_600_000;
+
+/** One piece of a local year: the hours [h0, h1) (dataset hour indices) that start in UTC year `utcYear`. */
+export interface YearPiece {
+  utcYear: number;
+  hours: [number, number];
+}
+
+/**
+ * Hour indices [h0, h1) of the dataset that may belong to local year `year`: the UTC year ± 26 h
+ * (wider than any time zone's offset), clipped to the data.
+ */
+export function hourRangeForYear(time: { start: number; count: number }, year: number): [number, number] {
+  const from = Date.UTC(year, 0, 1) - 26 * HOUR_MS;
+  const to = Date.UTC(year + 1, 0, 1) + 26 * HOUR_MS;
+  const h0 = Math.max(0, Math.ceil((from - time.start) / HOUR_MS));
+  const h1 = Math.min(time.count, Math.floor((to - time.start) / HOUR_MS) + 1);
+  return [h0, Math.max(h0, h1)];
+}
+
+/**
+ * The pieces of local year `year`: its hour range cut where the UTC year in which the hours
+ * start changes (stamps are hour ends [ms]), keeping the pieces that hold at least one hour of
+ * the local year (local years follow time, so the first and last hours decide).
+ */
+export function yearPieces(time: { start: number; count: number }, year: number, timeZone: string): YearPiece[] {
+  const [h0, h1] = hourRangeForYear(time, year);
+  const stamp = (h: number) => time.start + h * HOUR_MS;
+  const pieces: YearPiece[] = [];
+  for (let a = h0; a < h1; ) {
+    // An hour belongs to the UTC year it starts in (its stamp is its end).
+    const u = new Date(stamp(a) - HOUR_MS).getUTCFullYear();
+    const b = Math.min(h1, Math.ceil((Date.UTC(u + 1, 0, 1) + HOUR_MS - time.start) / HOUR_MS));
+    const ends = localHours([stamp(a), stamp(b - 1)], timeZone);
+    if (ends.year[0] <= year && ends.year[1] >= year) pieces.push({ utcYear: u, hours: [a, b] });
+    a = b;
+  }
+  return pieces;
+}
 
 /** One unit of work. */
 export interface ShardSpec {
@@ -13,6 +58,10 @@ export interface ShardSpec {
   tile: Tile;
   /** Local calendar year [year]. */
   year: number;
+  /** UTC year of the hours' time stamps in this piece of the local year [year]. */
+  utcYear: number;
+  /** Dataset hour indices [h0, h1) of the piece. */
+  hours: [number, number];
   /** Global indices (row-major in the dataset grid) of the land cells of the tile, ascending. */
   cells: Int32Array;
 }
@@ -25,12 +74,20 @@ export const TARGET_CELLS_PER_TILE = 512;
 
 /**
  * Cuts the grid into bands of whole rows holding about {@link TARGET_CELLS_PER_TILE} land
- * cells each and crosses them with the years. Tiles without land are dropped.
+ * cells each and crosses them with the pieces of the years. Tiles without land are dropped.
  * @param nLat rows, nLon columns of the grid
  * @param land 1 where a cell is computed (row-major), or undefined for all cells
+ * @param pieces the pieces of each local year ({@link yearPieces})
  * @param cellsPerTile land cells aimed at per tile [cells] (config `shards.cellsPerTile`)
  */
-export function planShards(nLat: number, nLon: number, land: Uint8Array | undefined, years: readonly number[], cellsPerTile = TARGET_CELLS_PER_TILE): ShardSpec[] {
+export function planShards(
+  nLat: number,
+  nLon: number,
+  land: Uint8Array | undefined,
+  years: readonly number[],
+  pieces: (year: number) => YearPiece[],
+  cellsPerTile = TARGET_CELLS_PER_TILE,
+): ShardSpec[] {
   const landInRow = new Int32Array(nLat);
   for (let y = 0; y < nLat; y++) {
     let n = 0;
@@ -52,7 +109,12 @@ export function planShards(nLat: number, nLon: number, land: Uint8Array | undefi
   }
   const shards: ShardSpec[] = [];
   for (const year of years) {
-    tiles.forEach((t, i) => shards.push({ id: `t${String(i).padStart(2, '0')}-y${year}`, tileIndex: i, tile: t.tile, year, cells: t.cells }));
+    for (const piece of pieces(year)) {
+      const suffix = piece.utcYear === year ? '' : `-u${piece.utcYear}`;
+      tiles.forEach((t, i) =>
+        shards.push({ id: `t${String(i).padStart(2, '0')}-y${year}${suffix}`, tileIndex: i, tile: t.tile, year, utcYear: piece.utcYear, hours: piece.hours, cells: t.cells }),
+      );
+    }
   }
   return shards;
 }

@@ -6,12 +6,12 @@
  * Parts (DESIGN.md §3):
  * - the code: package version and a digest of the sources that compute a shard (read, physics,
  *   work, reduce, model, compute-shard.ts) and the partial file format;
- * - the inputs: name and SHA-256 of each file whose hours reach into the shard's local year
- *   (± 26 h, as compute-shard.ts reads), and of the static files (the land-sea mask);
+ * - the inputs: name and SHA-256 of each file holding any hour of the shard's piece of its local
+ *   year (pipeline/run/plan.ts), and of the static files (the land-sea mask);
  * - the configuration parts the counts depend on: product and land-sea mask, time zone, work
  *   shift, and the work evaluations (class id and metabolic rate, acclimatization, exposure,
  *   rest place, the prepared limit kernel with the clothing adjustment);
- * - the shard itself: year, tile and its land cells.
+ * - the shard itself: year, piece (hours), tile and its land cells.
  * Titles, descriptions, regions, baseline years and publishing options are not parts: changing
  * them reuses every partial.
  */
@@ -64,7 +64,8 @@ export interface ShardProvenance {
     shift: WorkShift;
     evaluations: Array<{ key: string; workloadClass: { id: string; metabolicRate: number }; restWbgt: string | null; kernel: unknown }>;
   };
-  shard: { year: number; tile: ShardSpec['tile']; cells: string };
+  /** `hours`: first and last hour of the piece as UTC time stamps (ISO 8601), not indices, so adding earlier data keeps keys. */
+  shard: { year: number; utcYear: number; hours: [string, string]; tile: ShardSpec['tile']; cells: string };
 }
 
 /** Digest of the settings alone [hex, 16 digits]: what the merge compares across partials. */
@@ -91,30 +92,29 @@ function sha(text: string | Uint8Array): string {
   return createHash('sha256').update(text).digest('hex');
 }
 
-/** Files whose hours reach into local year `year` (± 26 h), and the files without a time axis. */
-export function inputsForYear(files: readonly DatasetFileInfo[], year: number): Array<{ name: string; sha256: string }> {
-  const from = Date.UTC(year, 0, 1) - 26 * HOUR_MS;
-  const to = Date.UTC(year + 1, 0, 1) + 26 * HOUR_MS;
+/** Files holding any of the hours [h0, h1) (dataset hour indices), and the files without a time axis. */
+export function inputsForHours(files: readonly DatasetFileInfo[], time: { start: number }, hours: [number, number]): Array<{ name: string; sha256: string }> {
+  const from = time.start + hours[0] * HOUR_MS;
+  const to = time.start + (hours[1] - 1) * HOUR_MS;
   return files
-    .filter((f) => {
-      if (!f.timeStart) return true;
-      const a = Date.parse(f.timeStart);
-      const b = Date.parse(f.timeEnd);
-      return b >= from && a <= to;
-    })
+    .filter((f) => !f.timeStart || (Date.parse(f.timeEnd) >= from && Date.parse(f.timeStart) <= to))
     .map((f) => ({ name: f.name, sha256: f.sha256 }))
     .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
 }
 
 /** The provenance of `shard` and its cache key [hex]. */
-export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], s: ComputeSettings): { provenance: ShardProvenance; key: string } {
+export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], time: { start: number }, s: ComputeSettings): { provenance: ShardProvenance; key: string } {
   const provenance: ShardProvenance = {
     code: { version: CODE_VERSION, sources: COMPUTE_CODE_DIGEST, partialFormat: PARTIAL_FORMAT },
-    inputs: inputsForYear(files, shard.year),
+    inputs: inputsForHours(files, time, shard.hours),
     settings: settingsPart(s),
-    shard: { year: shard.year, tile: shard.tile, cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16) },
+    shard: { year: shard.year, utcYear: shard.utcYear, hours: hoursIso(time, shard.hours), tile: shard.tile, cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16) },
   };
   return { provenance, key: sha(JSON.stringify(provenance)) };
+}
+
+function hoursIso(time: { start: number }, hours: [number, number]): [string, string] {
+  return [new Date(time.start + hours[0] * HOUR_MS).toISOString(), new Date(time.start + (hours[1] - 1) * HOUR_MS).toISOString()];
 }
 
 /** Why a stored partial of provenance `old` does not serve `now`, in words; [] when it does. */
@@ -136,7 +136,8 @@ export function explainChange(old: ShardProvenance, now: ShardProvenance): strin
   if (os?.timeZone !== ns.timeZone) why.push(`time zone ${os?.timeZone} → ${ns.timeZone}`);
   if (JSON.stringify(os?.shift) !== JSON.stringify(ns.shift)) why.push('work shift changed');
   if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
-  if (JSON.stringify(old.shard) !== JSON.stringify(now.shard)) why.push('the tile holds other cells (grid, mask or tiling changed)');
+  if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours)) why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
+  if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile)) why.push('the tile holds other cells (grid, mask or tiling changed)');
   return why;
 }
 

@@ -124,11 +124,33 @@ describe('merging partials', () => {
     expect(a.wbgtMax).toEqual(whole.wbgtMax);
   });
 
-  it('a cell in two partials and a cell in none are catalogued errors naming the shards', () => {
+  it('the pieces of a tile\'s year (split by time) add up to the tile computed whole, covered hours summed', () => {
+    const evals = work.evaluations;
+    const nc = 3;
+    const nt = 24 * 6;
+    const start = Date.UTC(2021, 5, 20);
+    const b = inventedBlock(nc, nt, start, 9, 53);
+    const cells = Int32Array.from({ length: nc }, (_, i) => i * 3);
+    const piece = (t0: number, t1: number) => {
+      const p = createPartial(2021, cells, evals);
+      const n = t1 - t0;
+      const scratch = createScratch(n * nc, evals, nc);
+      const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
+      accumulateBlock(p, { nHours: n, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local: localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift) }, evals, scratch);
+      return finishPartial(p, scratch);
+    };
+    const whole = mergeYear(2021, cells, [piece(0, nt)]);
+    const split = mergeYear(2021, cells, [piece(50, nt), piece(0, 50)], ['t00-y2021-u2022', 't00-y2021']);
+    expect(split).toEqual(whole);
+    expect(Array.from(split.coveredHours).reduce((x, y) => x + y, 0)).toBe(nt);
+  });
+
+  it('a cell in two tiles and a cell in none are catalogued errors naming the shards', () => {
     const evals = work.evaluations;
     const p = run(evals, false, 2, 24, 1);
+    const q = run(evals, false, 3, 24, 1);
     try {
-      mergeYear(2021, p.cells, [p, p], ['t00-y2021', 't01-y2021']);
+      mergeYear(2021, q.cells, [p, q], ['t00-y2021', 't01-y2021']);
       throw new Error('no error');
     } catch (e) {
       expect(e).toBeInstanceOf(HeathoursError);
