@@ -1,6 +1,9 @@
-// Child process of bench/pipeline.bench.ts: one `heathours build --data-only` in this process,
-// then one JSON line with the build report, this process's peak RSS (all threads) and a checksum
-// of the published region tables. Loaded like bin/heathours.mjs (h5wasm first, then tsx).
+// Child process of the pipeline benches (bench/pipeline.bench.ts, bench/rebuild.bench.ts): one
+// `heathours build --data-only` in this process, then one JSON line with the build report, this
+// process's peak RSS (all threads) and a checksum of the published region tables. Loaded like
+// bin/heathours.mjs (h5wasm first, then tsx).
+// Usage: node bench/pipeline-child.mjs CONFIG OUT JOBS [OPTIONS_JSON]; OPTIONS_JSON is merged
+// into the buildAtlas options (default {"cache": false}: compute every shard).
 import '../pipeline/model/preload-native.mjs';
 import { register } from 'tsx/esm/api';
 import { createHash } from 'node:crypto';
@@ -8,9 +11,10 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 
 register();
-const [config, out, jobs] = process.argv.slice(2);
+const [config, out, jobs, options] = process.argv.slice(2);
 const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
-const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true, cache: false });
+const extra = options ? JSON.parse(options) : { cache: false };
+const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true, ...extra });
 const h = createHash('sha256');
 const dir = join(out, 'data', 'regions');
 for (const f of readdirSync(dir).filter((f) => f.endsWith('.csv')).sort()) h.update(readFileSync(join(dir, f)));

@@ -4,6 +4,7 @@
  * and one continuous hourly time axis, read in blocks of hours per tile (`readBlock`) as
  * canonical fields (pipeline/model/fields.ts). Memory is bounded by the block, not the files.
  */
+import { createHash } from 'node:crypto';
 import { isoSeconds } from './cf-time.ts';
 import { decodeSlab, type SlabLayout } from './decode.ts';
 import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
@@ -62,8 +63,12 @@ export interface Dataset {
   files: DatasetFileInfo[];
   /** Hours [t0, t0 + nt) (hour indices) of `tile` as canonical fields. */
   readBlock(t0: number, nt: number, tile: Tile): Promise<HourlyBlock>;
-  /** Per canonical variable: min / max / mean / fill count over the whole dataset, streamed. */
-  summary(): Promise<InventoryVariable[]>;
+  /**
+   * Per canonical variable: min / max / mean / fill count over the whole dataset, streamed in
+   * UTC-year chunks; `cache` keeps each chunk's sums under the digests of its files (the yearly
+   * rebuild then reads only the new year). Needs the files' digests (`digests`, default on).
+   */
+  summary(cache?: SummaryChunkCache): Promise<InventoryVariable[]>;
   close(): Promise<void>;
 }
 
@@ -78,6 +83,34 @@ const SOURCES: Record<Exclude<CanonicalName, 'landFraction'>, Era5Short[]> = {
   thermalDown: ['strd'],
 };
 type TimeField = keyof typeof SOURCES;
+
+/** Running min, max, sum and counts of one variable over some hours [canonical units]. */
+export interface SummaryAccumulator {
+  min: number;
+  max: number;
+  sum: number;
+  n: number;
+  fill: number;
+}
+
+/** Where {@link Dataset.summary} keeps its chunks' accumulators, by key (variable → accumulator). */
+export interface SummaryChunkCache {
+  get(key: string): Record<string, SummaryAccumulator> | undefined;
+  set(key: string, value: Record<string, SummaryAccumulator>): void;
+}
+
+
+/** Hour-index ranges [c0, c1) of the hours (stamps are hour ends [ms]) that start in one UTC year. */
+export function utcYearChunks(start: number, count: number): Array<[number, number]> {
+  const out: Array<[number, number]> = [];
+  for (let a = 0; a < count; ) {
+    const u = new Date(start + a * HOUR_MS - HOUR_MS).getUTCFullYear();
+    const b = Math.min(count, Math.ceil((Date.UTC(u + 1, 0, 1) + HOUR_MS - start) / HOUR_MS));
+    out.push([a, b]);
+    a = b;
+  }
+  return out;
+}
 
 /** Values per read while streaming the summary [values]. */
 const SUMMARY_BLOCK_VALUES = 1 << 23;
@@ -178,6 +211,18 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     for (let i = 0; i < landMask.length; i++) if (landFraction[i] >= opts.landSeaMask.threshold) { landMask[i] = 1; landCells++; }
   }
 
+  // A summary chunk's key: its hours, the variables, and the files (name, SHA-256) holding them.
+  const chunkKey = (c0: number, c1: number): string => {
+    const from = axis.start + c0 * HOUR_MS;
+    const to = axis.start + (c1 - 1) * HOUR_MS;
+    const held = files
+      .map((f) => f.info)
+      .filter((f) => f.timeStart && Date.parse(f.timeEnd) >= from && Date.parse(f.timeStart) <= to)
+      .map((f) => `${f.name}:${f.sha256}`)
+      .sort();
+    return createHash('sha256').update(JSON.stringify({ version: 1, from, to, variables, held })).digest('hex');
+  };
+
   const dataset: Dataset = {
     grid,
     time: { start: axis.start, count: axis.count },
@@ -187,25 +232,44 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     landCells,
     files: files.map((f) => f.info),
     readBlock: (t0, nt, tile) => ds.readBlock(t0, nt, tile, variables, landFraction),
-    async summary() {
+    async summary(cache?: SummaryChunkCache) {
       const full: Tile = { y0: 0, y1: ny, x0: 0, x1: nx };
       const step = Math.max(1, Math.floor(SUMMARY_BLOCK_VALUES / (ny * nx * Math.max(1, variables.length))));
-      const acc = new Map<TimeField, { min: number; max: number; sum: number; n: number; fill: number }>();
+      const acc = new Map<TimeField, SummaryAccumulator>();
       for (const c of variables) acc.set(c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 });
-      for (let t0 = 0; t0 < axis.count; t0 += step) {
-        const b = await ds.readBlock(t0, Math.min(step, axis.count - t0), full, variables, undefined);
+      // Streamed in chunks of the hours that start in one UTC year, each summarised on its own
+      // (and, with a cache, kept under the digests of the files it read), then combined in order.
+      for (const [c0, c1] of utcYearChunks(axis.start, axis.count)) {
+        const key = cache ? chunkKey(c0, c1) : '';
+        let part = cache ? cache.get(key) : undefined;
+        if (!part) {
+          part = Object.fromEntries(variables.map((c) => [c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 }])) as Record<string, SummaryAccumulator>;
+          for (let t0 = c0; t0 < c1; t0 += step) {
+            const b = await ds.readBlock(t0, Math.min(step, c1 - t0), full, variables, undefined);
+            for (const c of variables) {
+              const a = part[c];
+              const x = b.fields[c]!;
+              for (let i = 0; i < x.length; i++) {
+                const v = x[i];
+                if (v === v) {
+                  if (v < a.min) a.min = v;
+                  if (v > a.max) a.max = v;
+                  a.sum += v;
+                  a.n++;
+                } else a.fill++;
+              }
+            }
+          }
+          cache?.set(key, part);
+        }
         for (const c of variables) {
           const a = acc.get(c)!;
-          const x = b.fields[c]!;
-          for (let i = 0; i < x.length; i++) {
-            const v = x[i];
-            if (v === v) {
-              if (v < a.min) a.min = v;
-              if (v > a.max) a.max = v;
-              a.sum += v;
-              a.n++;
-            } else a.fill++;
-          }
+          const p = part[c];
+          a.min = Math.min(a.min, p.min);
+          a.max = Math.max(a.max, p.max);
+          a.sum += p.sum;
+          a.n += p.n;
+          a.fill += p.fill;
         }
       }
       const out: InventoryVariable[] = variables.map((c) => {

@@ -25,6 +25,7 @@ import { planShards, sliceShards, yearPieces } from './plan.ts';
 import { shardProvenance } from './shard-key.ts';
 import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
 import { partialPath, readPartialFile } from './partial-store.ts';
+import { fileSummaryCache } from './summary-cache.ts';
 import { withProcessLock } from '../model/lock.ts';
 import { runShards } from './shard-pool.ts';
 import { computeFigures } from './figures.ts';
@@ -75,6 +76,8 @@ export interface BuildReport {
   mergeSeconds: number;
   /** Bytes of partial files written in this run [B]. */
   partialBytes: number;
+  /** Seconds from the merged years to the published output: normals, tables, layers, site [s]. */
+  publishSeconds: number;
   totalSeconds: number;
   physics: ReturnType<typeof emptyCounts>;
 }
@@ -94,7 +97,10 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
 
 async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof loadConfig>>, outDir: string): Promise<BuildReport> {
   const t0 = Date.now();
-  const log = o.logger ?? (o.quiet ? silentLogger : consoleLogger);
+  const base = o.logger ?? (o.quiet ? silentLogger : consoleLogger);
+  // Every line carries the seconds since the start, so a slow step shows itself.
+  const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
+  const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
 
   // Work settings and regions are checked before any data is read.
@@ -166,16 +172,14 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       const computeSeconds = (Date.now() - tc) / 1000;
       const totalSeconds = (Date.now() - t0) / 1000;
       log.info(`slice ${k}/${n} done: ${tasks.length} computed, ${slice.length - tasks.length} reused, ${(partialBytes / 1e6).toFixed(1)} MB of partials, ${totalSeconds.toFixed(1)} s`);
-      return { outDir: sliceDir, shards: slice.length, computed: tasks.length, reused: slice.length - tasks.length, cellHours, computeSeconds, mergeSeconds: 0, partialBytes, totalSeconds, physics };
+      return { outDir: sliceDir, shards: slice.length, computed: tasks.length, reused: slice.length - tasks.length, cellHours, computeSeconds, mergeSeconds: 0, partialBytes, publishSeconds: 0, totalSeconds, physics };
     }
 
     let sources: ShardSource[];
-    if (o.mergeDir) {
-      sources = sourcesFromPartials(keyed, resolve(o.mergeDir)).sources;
-    } else {
-      const cacheRoot = o.cache === false ? undefined : resolve(o.cache ?? rc.cacheDir);
-      sources = sourcesFromCache(keyed, cacheRoot === undefined ? undefined : join(cacheRoot, cfg.id));
-    }
+    const cacheDir = o.cache === false || o.mergeDir ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);
+    if (o.mergeDir) sources = sourcesFromPartials(keyed, resolve(o.mergeDir)).sources;
+    else sources = sourcesFromCache(keyed, cacheDir);
+    log.info(`dataset opened (${ds.files.length} files, SHA-256 of each), ${shards.length} shards planned`);
     for (const line of describeSources(keyed, sources)) log.info(line);
 
     // Each year is merged as soon as its last partial is there (computed now, or read from a
@@ -211,6 +215,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       mergeMs += Date.now() - tm;
     };
     for (const y of years) if (pending.get(y)!.toCompute === 0) finishYear(y);
+    if (mergeMs > 0) log.info(`years whose shards were all reused merged (${(mergeMs / 1000).toFixed(1)} s)`);
 
     const tasks = keyed.flatMap((kd, i) => {
       const s = sources[i];
@@ -241,11 +246,13 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
     // Counts of the whole record (reused shards report what their computation counted).
     const allCellHours = sources.reduce((n, s) => n + (s.kind === 'file' ? s.meta.report.cellHours : 0), cellHours);
 
+    const tp = Date.now();
     // Merge, normals, niche.
     const yearCounts: YearCounts[] = years.map((y) => merged.get(y)!);
     const ctx = { years, baseline: cfg.baseline, latestYear: years[years.length - 1], cells, nGrid, regions: weights };
     const figures = computeFigures(yearCounts).map((s) => figureNormals(s, ctx));
     const niche = nicheStep(yearCounts, ctx);
+    log.info('normals, percentiles and the niche computed');
 
     // Publish into a staging folder, then build the site from it.
     const stage = join(dirname(outDir), `.${basename(outDir)}.stage-${process.pid}`);
@@ -256,7 +263,8 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       const generated = process.env.HEATHOURS_BUILD_TIME ?? new Date().toISOString();
       const regionTables = new Map(regions.map((rg, r) => [rg.id, regionTableCsv(r, rg.id, figures, cfg.baseline, ctx.latestYear)]));
       log.info('summarising the inputs for the inventory');
-      const inventory = makeInventory(cfg, ds, await ds.summary(), generated);
+      const inventory = makeInventory(cfg, ds, await ds.summary(cacheDir ? fileSummaryCache(join(cacheDir, 'summary')) : undefined), generated);
+      log.info('inventory summarised');
       await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
       await writeFile(join(dataDir, 'regions.geojson'), regionsGeoJson(regions));
       for (let r = 0; r < regions.length; r++) {
@@ -280,6 +288,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       if (changes.hasPrevious) {
         log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.moves.length} figure moves listed`);
       }
+      log.info('tables, niche and calculator tiles written; drawing the layers');
       const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
       const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
       layerProgress.done();
@@ -316,7 +325,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
     }
     const totalSeconds = (Date.now() - t0) / 1000;
     log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s`);
-    return { outDir, shards: shards.length, computed: tasks.length, reused, cellHours, computeSeconds, mergeSeconds: mergeMs / 1000, partialBytes, totalSeconds, physics };
+    return { outDir, shards: shards.length, computed: tasks.length, reused, cellHours, computeSeconds, mergeSeconds: mergeMs / 1000, partialBytes, publishSeconds: (Date.now() - tp) / 1000, totalSeconds, physics };
   } finally {
     await ds.close();
   }
