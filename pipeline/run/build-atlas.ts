@@ -35,6 +35,7 @@ import { buildSite } from '../publish/site.ts';
 import { figureDefs } from './figures.ts';
 import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
+import { writeCellFigures } from '../publish/cell-figures.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -163,6 +164,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
       await writeFile(join(dataDir, 'niche.json'), JSON.stringify(nicheJson(niche, cells, ds.grid)));
+      await writeCellFigures(dataDir, figures, cells, ds.grid, niche);
       await mkdir(join(dataDir, 'calculator'), { recursive: true });
       await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(years, cfg.baseline, regions)));
       for (let r = 0; r < regions.length; r++) {
@@ -308,5 +310,6 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
   }
   if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
+  if (path.startsWith('data/cells/')) return { kind: 'json', description: 'per-cell figures for the map, in tiles (the numbers of atlas-cells.csv, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)', units: 'per figure in data/cells/index.json' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
 }
