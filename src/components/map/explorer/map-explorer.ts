@@ -123,6 +123,8 @@ async function start(root: HTMLElement): Promise<void> {
     if (token !== selectToken) return;
     selected = { cell, record };
     renderPanel();
+    const [lon, lat] = cellCentre(grid, cell);
+    status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
   }
 
   function renderAll(): void {
