@@ -41,6 +41,7 @@ import { compareBuilds, type BuildFacts } from '../publish/changes.ts';
 import { figureDefs } from './figures.ts';
 import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
+import { writeCellFigures } from '../publish/cell-figures.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -273,6 +274,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
       await writeFile(join(dataDir, 'niche.json'), JSON.stringify(nicheJson(niche, cells, ds.grid)));
+      await writeCellFigures(dataDir, figures, cells, ds.grid, niche);
       await mkdir(join(dataDir, 'calculator'), { recursive: true });
       await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(years, cfg.baseline, regions)));
       for (let r = 0; r < regions.length; r++) {
@@ -448,5 +450,6 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
   if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
   if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };
+  if (path.startsWith('data/cells/')) return { kind: 'json', description: 'per-cell figures for the map, in tiles (the numbers of atlas-cells.csv, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)', units: 'per figure in data/cells/index.json' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
 }

@@ -1,0 +1,107 @@
+/**
+ * What the map explorer (`/map/`) knows about the published layers: the catalogue the page's
+ * build-time endpoint `/map/explorer.json` writes (src/lib/explorer-catalogue.ts makes it from
+ * data/manifest.json, the region tables and the region summaries) and the browser reads. Plain
+ * JSON types only, no imports, so both sides share them.
+ */
+
+/** The legend of a layer, as the manifest carries it (pipeline/publish/layers/legend.ts). */
+export interface ExplorerLegend {
+  kind: 'continuous' | 'stepped' | 'categorical';
+  title?: string;
+  /** Units of the values: `h`, `degC`, `1` (class codes). */
+  units: string;
+  ramp: string;
+  reversed: boolean;
+  /** Values at the ramp's ends [units]; null for categorical layers. */
+  domain: [number, number] | null;
+  /** Ascending: value (continuous) or class code (categorical) and its exact PNG colour. */
+  stops: Array<{ value: number; color: string; label?: string }>;
+  breaks?: number[];
+  labels: string[];
+  outOfDomain: 'clamped' | 'error';
+  noData: { color: 'transparent'; meaning: string };
+}
+
+/** The choices that pick one layer of a figure; a choice a figure does not have is absent. */
+export interface LayerView {
+  /** Workload class id (hours figures). */
+  workloadClass?: string;
+  acclimatization?: string;
+  /** `sun` or `shade` (hours figures, capacity loss, mean WBGT). */
+  exposure?: string;
+  /** Loss function id (capacity loss), e.g. `kjellstrom-300w`. */
+  loss?: string;
+}
+
+/** One image MapLibre draws: a PNG in Web Mercator rows and its four corners [° E, ° N]. */
+export interface ExplorerImage {
+  /** Path below the site's base, e.g. `data/layers/…/mean-07.png`. */
+  path: string;
+  /** Top-left, top-right, bottom-right, bottom-left. */
+  coordinates: [[number, number], [number, number], [number, number], [number, number]];
+}
+
+export interface ExplorerLayer {
+  /** The manifest's layer id, e.g. `hours-lost-shift/moderate.acclimatized.sun/mean-07`. */
+  id: string;
+  figure: string;
+  view: LayerView;
+  /** `mean`, `p90`, `baseline` (mean annual temperature) or `class` (niche class). */
+  statistic: string;
+  /** `01`–`12` or `year`. */
+  period: string;
+  units: string;
+  images: ExplorerImage[];
+  /** Index into {@link ExplorerCatalogue.legends}. */
+  legend: number;
+  /** Path of the GeoTIFF below the site's base (for download). */
+  tif: string;
+}
+
+export interface ExplorerFigure {
+  id: string;
+  /** Our short name for the layer menu, e.g. "Hours lost to rest breaks". */
+  label: string;
+  /** The pipeline's description, e.g. "Shift hours lost to the rest breaks the limit requires, per worker". */
+  description: string;
+  units: string;
+}
+
+export interface ExplorerChoice {
+  id: string;
+  label: string;
+}
+
+export interface ExplorerRegion {
+  id: string;
+  name: string;
+  /** [west, south, east, north] of the region's outline [° E, ° N]. */
+  bbox: [number, number, number, number];
+}
+
+export interface ExplorerCatalogue {
+  version: 1;
+  /** False when the data folder has no manifest (no layers published): the page shows a note only. */
+  available: boolean;
+  invented: boolean;
+  baseline: [number, number];
+  latestYear: number;
+  figures: ExplorerFigure[];
+  /** Options of each choice, in menu order, with our labels. */
+  choices: {
+    workloadClass: ExplorerChoice[];
+    acclimatization: ExplorerChoice[];
+    exposure: ExplorerChoice[];
+    loss: ExplorerChoice[];
+    statistic: ExplorerChoice[];
+    period: ExplorerChoice[];
+  };
+  legends: ExplorerLegend[];
+  layers: ExplorerLayer[];
+  regions: ExplorerRegion[];
+  /** Layer id → value per region (order of {@link regions}); null where the region has none. */
+  regionValues: Record<string, Array<number | null>>;
+  /** The view shown when the URL asks for nothing. */
+  defaults: { figure: string; view: LayerView; statistic: string; period: string };
+}

@@ -1,0 +1,40 @@
+/**
+ * A view in words, for the legend title, the region table's caption and the map's label:
+ * "Hours lost to rest breaks · Moderate work rate (300 W), acclimatized, in the sun · Whole
+ * year · Mean of the baseline years 2021–2022". Pure.
+ */
+import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
+
+function label(catalogue: ExplorerCatalogue, key: keyof ExplorerCatalogue['choices'], id: string | undefined): string | undefined {
+  if (id === undefined) return undefined;
+  return catalogue.choices[key].find((c) => c.id === id)?.label ?? id;
+}
+
+/** The figure's menu name. */
+export function figureLabel(catalogue: ExplorerCatalogue, figure: string): string {
+  return catalogue.figures.find((f) => f.id === figure)?.label ?? figure;
+}
+
+/** Parts of a layer's description: figure, the choices that picked it, period, statistic. */
+export function describeLayer(catalogue: ExplorerCatalogue, layer: ExplorerLayer): { figure: string; view: string; period: string; statistic: string } {
+  const v = layer.view;
+  const acc = label(catalogue, 'acclimatization', v.acclimatization);
+  const exp = label(catalogue, 'exposure', v.exposure);
+  const parts = [label(catalogue, 'workloadClass', v.workloadClass), label(catalogue, 'loss', v.loss), acc?.toLowerCase(), exp?.toLowerCase()].filter(
+    (s): s is string => s !== undefined,
+  );
+  const [b0, b1] = catalogue.baseline;
+  const stat = label(catalogue, 'statistic', layer.statistic) ?? layer.statistic;
+  return {
+    figure: figureLabel(catalogue, layer.figure),
+    view: parts.join(', '),
+    period: label(catalogue, 'period', layer.period) ?? layer.period,
+    statistic: `${stat}, baseline ${b0}–${b1}`,
+  };
+}
+
+/** One line: the parts joined with " · ". */
+export function describeLayerLine(catalogue: ExplorerCatalogue, layer: ExplorerLayer): string {
+  const d = describeLayer(catalogue, layer);
+  return [d.figure, d.view, d.period, d.statistic].filter((s) => s !== '').join(' · ');
+}

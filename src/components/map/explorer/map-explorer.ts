@@ -1,0 +1,295 @@
+/**
+ * Browser script of the map page (src/pages/map/index.astro): wires the catalogue
+ * (`/map/explorer.json`), the URL view state, the controls, the MapLibre map, the legend, the
+ * month player, the cell cursor and panel, and the region table. Inputs come from data
+ * attributes of `#map-explorer`; nothing is inline. The map container reports
+ * `data-map-state` (`loading` → `idle` | `error`) and `data-layer-id` (the layer drawn) for the
+ * tests; `#cell-panel` reports `data-cell` and `data-state` (`loading`, `ready`, `no-data`).
+ */
+import type { CellChunk, CellFiguresIndex, CellRecord } from '../../../../pipeline/publish/cell-figures.ts';
+import type { DatasetInventory } from '../../../../pipeline/publish/inventory-types.ts';
+import { sitePath } from '../../../lib/nav.ts';
+import { UNIT_EVENT, currentUnit } from '../../../lib/units.ts';
+import { formatLat, formatLon } from '../../../lib/format.ts';
+import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
+import { parseViewState, viewQuery, type ViewState } from './view-state.ts';
+import { CHOICE_KEYS, resolveView } from './layer-choice.ts';
+import { findControls, syncControls } from './controls.ts';
+import { renderLegend } from './legend-view.ts';
+import { describeLayer, describeLayerLine } from './describe-view.ts';
+import { updateRegionTable } from './region-table.ts';
+import { renderCellPanel } from './cell-panel.ts';
+import { cellAt, cellCentre, cellPolygon, chunkOfCell, isCell, moveCell, type CellGrid } from './cell-grid.ts';
+import { regionsForPoint, type RegionShape } from './nearest-region.ts';
+import { ExplorerMap } from './explorer-map.ts';
+
+/** Pause between months while playing, after the month is drawn [ms]. */
+const PLAY_STEP_MS = 1200;
+
+async function fetchJson<T>(url: string): Promise<T> {
+  const res = await fetch(url);
+  if (!res.ok) throw new Error(`${url}: HTTP ${res.status}`);
+  return (await res.json()) as T;
+}
+
+function must<T extends Element>(root: ParentNode, selector: string): T {
+  const el = root.querySelector<T>(selector);
+  if (!el) throw new Error(`map page: missing ${selector}`);
+  return el;
+}
+
+async function start(root: HTMLElement): Promise<void> {
+  const base = root.dataset.base ?? '/';
+  const mapBox = must<HTMLElement>(root, '#explorer-map');
+  mapBox.dataset.mapState = 'loading';
+  const form = must<HTMLFormElement>(root, '#map-controls');
+  const legendBox = must<HTMLElement>(root, '#map-legend');
+  const status = must<HTMLElement>(root, '#map-status');
+  const panel = must<HTMLElement>(document, '#cell-panel');
+  const regionTable = document.querySelector<HTMLTableElement>('#region-values');
+  const playButton = must<HTMLButtonElement>(form, '#map-play');
+  const outlines = must<HTMLInputElement>(form, '#map-outlines');
+  const picker = must<HTMLFormElement>(document, '#cell-picker');
+  const inv = JSON.parse(root.dataset.grid ?? 'null') as DatasetInventory['grid'];
+  const grid: CellGrid = { nLat: inv.nLat, nLon: inv.nLon, lat0: inv.latMin, lon0: inv.lonMin, dLat: inv.dLat, dLon: inv.dLon };
+
+  const [catalogue, cellsIndex, land, borders, regions] = await Promise.all([
+    fetchJson<ExplorerCatalogue>(root.dataset.catalogueUrl ?? ''),
+    fetchJson<CellFiguresIndex>(root.dataset.cellsUrl ?? ''),
+    fetchJson<unknown>(root.dataset.landUrl ?? ''),
+    fetchJson<unknown>(root.dataset.bordersUrl ?? ''),
+    fetchJson<GeoJSON.FeatureCollection>(root.dataset.regionsUrl ?? ''),
+  ]);
+  if (!catalogue.available) throw new Error('no map layers are published in this atlas');
+  const shapes: RegionShape[] = regions.features.map((f) => ({ id: String(f.properties?.id), geometry: f.geometry as RegionShape['geometry'] }));
+
+  let state: ViewState = resolveView(catalogue, parseViewState(location.search, catalogue)).state;
+  let layer: ExplorerLayer | undefined;
+  const regionBox = (id: string | undefined) => catalogue.regions.find((r) => r.id === id)?.bbox;
+  const [w, s, e, n] = [grid.lon0 - grid.dLon / 2, grid.lat0 - grid.dLat / 2, grid.lon0 + (grid.nLon - 0.5) * grid.dLon, grid.lat0 + (grid.nLat - 0.5) * grid.dLat];
+  const explorer = new ExplorerMap({
+    container: mapBox,
+    base,
+    bounds: regionBox(state.region) ?? [w, Math.max(-85, s), e, Math.min(85, n)],
+    centre: state.centre,
+    zoom: state.zoom,
+    land,
+    borders,
+    regions,
+    attribution: catalogue.invented ? 'Heat layers: invented data' : 'Heat layers: this atlas',
+  });
+  const map = explorer.map;
+  explorer.setFocusRegion(state.region);
+  const controls = findControls(form);
+  form.hidden = false;
+  for (const note of document.querySelectorAll<HTMLElement>('[data-no-js-note]')) note.hidden = true;
+  picker.hidden = false;
+
+  const writeUrl = () => history.replaceState(null, '', `${location.pathname}${viewQuery(state, location.search)}${location.hash}`);
+
+  // The selected cell and its record (null: not a land cell), and the keyboard cursor.
+  let selected: { cell: number; record: CellRecord | null } | undefined;
+  let cursor: number | undefined;
+  const chunks = new Map<string, Promise<CellChunk>>();
+  const chunkIds = new Set(cellsIndex.chunks.map((c) => c.id));
+  async function recordOf(cell: number): Promise<CellRecord | null> {
+    const id = chunkOfCell(cellsIndex, cell);
+    if (!chunkIds.has(id)) return null;
+    let p = chunks.get(id);
+    if (!p) {
+      p = fetchJson<CellChunk>(sitePath(base, `data/cells/${id}.json`));
+      chunks.set(id, p);
+    }
+    return (await p).cells.find((c) => c.cell === cell) ?? null;
+  }
+
+  function renderPanel(): void {
+    if (!selected) return;
+    const centre = cellCentre(grid, selected.cell);
+    renderCellPanel(panel, { base, catalogue, index: cellsIndex, state, layer, unit: currentUnit(), regions: regionsForPoint(shapes, centre) }, selected.cell, centre, selected.record);
+  }
+
+  let selectToken = 0;
+  async function selectCell(cell: number): Promise<void> {
+    if (!isCell(grid, cell)) return;
+    const token = ++selectToken;
+    state.cell = cell;
+    writeUrl();
+    explorer.setSelected(cellPolygon(grid, cell));
+    panel.hidden = false;
+    panel.dataset.state = 'loading';
+    panel.dataset.cell = String(cell);
+    const record = await recordOf(cell);
+    if (token !== selectToken) return;
+    selected = { cell, record };
+    renderPanel();
+    const [lon, lat] = cellCentre(grid, cell);
+    status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
+  }
+
+  function renderAll(): void {
+    const unit = currentUnit();
+    if (!layer) return;
+    const legend = catalogue.legends[layer.legend];
+    const d = describeLayer(catalogue, layer);
+    renderLegend(legendBox, legend, `${d.figure}, ${d.period}`, unit, catalogue.invented);
+    const sub = document.createElement('p');
+    sub.className = 'legend-view';
+    sub.textContent = [d.view, d.statistic].filter((x) => x).join(' · ');
+    legendBox.append(sub);
+    const tif = document.createElement('p');
+    tif.className = 'legend-download';
+    const a = document.createElement('a');
+    a.href = sitePath(base, layer.tif);
+    a.textContent = 'This layer as GeoTIFF (for GIS)';
+    a.setAttribute('download', '');
+    tif.append(a);
+    legendBox.append(tif);
+    if (regionTable) updateRegionTable(regionTable, catalogue, layer, unit);
+    map.getCanvas().setAttribute('aria-label', `Map: ${describeLayerLine(catalogue, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`);
+    renderPanel();
+  }
+
+  let drawToken = 0;
+  async function apply(wish: ViewState): Promise<void> {
+    const r = resolveView(catalogue, wish);
+    state = r.state;
+    syncControls(controls, catalogue, r.options, state);
+    playButton.disabled = r.options.period.filter((p) => p !== 'year').length < 2;
+    writeUrl();
+    const next = r.layer;
+    if (!next) return;
+    const changed = next !== layer;
+    layer = next;
+    renderAll();
+    if (!changed && mapBox.dataset.layerId === next.id) return;
+    const token = ++drawToken;
+    mapBox.dataset.mapState = 'loading';
+    const current = await explorer.showLayer(next);
+    if (current && token === drawToken) {
+      mapBox.dataset.layerId = next.id;
+      mapBox.dataset.mapState = 'idle';
+    }
+  }
+
+  // Controls.
+  controls.figure.addEventListener('change', () => void apply({ ...state, figure: controls.figure.value }));
+  for (const key of CHOICE_KEYS) {
+    controls.selects[key].addEventListener('change', () => void apply({ ...state, [key]: controls.selects[key].value }));
+  }
+  form.addEventListener('submit', (ev) => ev.preventDefault());
+  outlines.addEventListener('change', () => explorer.setOutlines(outlines.checked));
+
+  // The month player: steps through the months of the shown view, one per PLAY_STEP_MS once drawn.
+  let playing = false;
+  const setPlaying = (on: boolean) => {
+    playing = on;
+    playButton.setAttribute('aria-pressed', String(on));
+    playButton.textContent = on ? 'Pause' : 'Play the months';
+  };
+  playButton.addEventListener('click', async () => {
+    if (playing) return setPlaying(false);
+    setPlaying(true);
+    while (playing) {
+      const months = resolveView(catalogue, state).options.period.filter((p) => p !== 'year');
+      if (months.length < 2) break;
+      const i = months.indexOf(state.period);
+      await apply({ ...state, period: months[(i + 1) % months.length] });
+      await explorer.drawn();
+      await new Promise((r) => setTimeout(r, PLAY_STEP_MS));
+    }
+    setPlaying(false);
+  });
+
+  // Camera in the URL.
+  map.on('moveend', () => {
+    const c = map.getCenter();
+    state.centre = [c.lng, c.lat];
+    state.zoom = map.getZoom();
+    writeUrl();
+  });
+
+  // Pointer and keyboard selection.
+  const announce = (text: string) => (status.textContent = text);
+  const showCursor = (cell: number) => {
+    cursor = cell;
+    explorer.setCursor(cellPolygon(grid, cell));
+    const [lon, lat] = cellCentre(grid, cell);
+    if (!map.getBounds().contains([lon, lat])) map.panTo([lon, lat]);
+    announce(`Cursor on grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}). Press Enter for its figures.`);
+  };
+  map.on('click', (ev) => {
+    const hit = cellAt(grid, ev.lngLat.lng, ev.lngLat.lat);
+    if (!hit) return announce('That point is outside the atlas grid.');
+    cursor = hit.id;
+    explorer.setCursor(null);
+    void selectCell(hit.id);
+  });
+  const canvas = map.getCanvas();
+  canvas.setAttribute('tabindex', '0');
+  canvas.setAttribute('aria-describedby', 'map-keys');
+  canvas.addEventListener('keydown', (ev) => {
+    const steps: Record<string, [number, number]> = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
+    if (ev.key in steps) {
+      ev.preventDefault();
+      const start = cursor ?? state.cell ?? cellAt(grid, map.getCenter().lng, map.getCenter().lat)?.id ?? Math.floor((grid.nLat * grid.nLon) / 2);
+      const [dx, dy] = steps[ev.key];
+      showCursor(cursor === undefined ? start : moveCell(grid, start, dx, dy));
+    } else if ((ev.key === 'Enter' || ev.key === ' ') && cursor !== undefined) {
+      ev.preventDefault();
+      void selectCell(cursor);
+    } else if (ev.key === '+' || ev.key === '=') {
+      ev.preventDefault();
+      map.zoomIn();
+    } else if (ev.key === '-') {
+      ev.preventDefault();
+      map.zoomOut();
+    } else if (ev.key === 'Escape') {
+      cursor = undefined;
+      explorer.setCursor(null);
+    }
+  });
+
+  // The cell picker form: a latitude and longitude.
+  picker.addEventListener('submit', (ev) => {
+    ev.preventDefault();
+    const lat = Number(must<HTMLInputElement>(picker, '[name="lat"]').value);
+    const lon = Number(must<HTMLInputElement>(picker, '[name="lon"]').value);
+    const hit = cellAt(grid, lon, lat);
+    if (!hit) return announce('That point is outside the atlas grid.');
+    cursor = hit.id;
+    explorer.setCursor(null);
+    map.panTo(cellCentre(grid, hit.id));
+    void selectCell(hit.id);
+  });
+
+  // "Show on the map" links of the region table fit the region without leaving the page.
+  for (const link of document.querySelectorAll<HTMLAnchorElement>('a[data-fit-region]')) {
+    link.addEventListener('click', (ev) => {
+      const id = link.dataset.fitRegion;
+      const box = regionBox(id);
+      if (!box) return;
+      ev.preventDefault();
+      state.region = id;
+      explorer.setFocusRegion(id);
+      map.fitBounds(box, { padding: 30, maxZoom: 8, duration: 0 });
+      mapBox.scrollIntoView({ block: 'nearest' });
+      writeUrl();
+    });
+  }
+
+  document.addEventListener(UNIT_EVENT, () => renderAll());
+  await apply(state);
+  if (state.cell !== undefined) void selectCell(state.cell);
+}
+
+const root = document.getElementById('map-explorer');
+if (root) {
+  start(root).catch((err: unknown) => {
+    const box = root.querySelector<HTMLElement>('#explorer-map');
+    if (box) box.dataset.mapState = 'error';
+    const status = root.querySelector<HTMLElement>('#map-status');
+    if (status) status.textContent = `The map could not be drawn: ${(err as Error).message}`;
+    console.error('map explorer:', err);
+  });
+}

@@ -1,0 +1,183 @@
+/**
+ * Builds the map explorer's catalogue (components/map/explorer/catalogue.ts) from the manifest's
+ * layers, the regions and their values: our plain labels for each figure and choice, the layers
+ * with the choices that pick them, the legends (each once), and the default view. Pure.
+ */
+import type { RegionCollection } from '../data/regions.ts';
+import type { ManifestLayers } from '../data/manifest-layers.ts';
+import { comboColumns } from '../../pipeline/publish/combo.ts';
+import { LOSS_VIEWS } from '../../pipeline/reduce/layout.ts';
+import type {
+  ExplorerCatalogue,
+  ExplorerChoice,
+  ExplorerFigure,
+  ExplorerLayer,
+  ExplorerLegend,
+  ExplorerRegion,
+  LayerView,
+} from '../components/map/explorer/catalogue.ts';
+
+/** Our names for the figures the map shows, in menu order. */
+export const MAP_FIGURE_LABELS: Readonly<Record<string, string>> = {
+  'hours-above-limit-shift': 'Hours above the limit',
+  'hours-lost-shift': 'Hours lost to rest breaks',
+  'wbgt-mean': 'Mean WBGT',
+  'capacity-loss-shift': 'Capacity loss',
+  'mean-annual-temperature': 'Mean annual temperature',
+  'niche-class': 'Human climate niche class',
+};
+
+export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclimatized: 'Acclimatized', unacclimatized: 'Not acclimatized' };
+export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade' };
+export const STATISTIC_LABELS: Readonly<Record<string, string>> = {
+  mean: 'Mean year',
+  p90: 'P90 (a hot year, 1 in 10)',
+  baseline: 'Baseline mean',
+  class: 'Class of the baseline mean',
+};
+export const MONTH_NAMES = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+
+/** "January" … "December" for `01`–`12`, "Whole year" for `year`. */
+export function periodName(period: string): string {
+  return period === 'year' ? 'Whole year' : (MONTH_NAMES[Number(period) - 1] ?? period);
+}
+
+function bboxOf(feature: RegionCollection['features'][number]): [number, number, number, number] {
+  let w = Infinity;
+  let s = Infinity;
+  let e = -Infinity;
+  let n = -Infinity;
+  const polygons = feature.geometry.type === 'Polygon' ? [feature.geometry.coordinates] : feature.geometry.coordinates;
+  for (const poly of polygons) {
+    for (const ring of poly) {
+      for (const [x, y] of ring) {
+        w = Math.min(w, x);
+        e = Math.max(e, x);
+        s = Math.min(s, y);
+        n = Math.max(n, y);
+      }
+    }
+  }
+  return [w, s, e, n];
+}
+
+function viewOf(figure: string, combo: string): LayerView {
+  if (figure === 'mean-annual-temperature' || figure === 'niche-class') return {};
+  const cc = comboColumns(figure, combo);
+  const view: LayerView = {};
+  if (cc.workload_class) view.workloadClass = cc.workload_class;
+  if (cc.acclimatization) view.acclimatization = cc.acclimatization;
+  if (cc.exposure) view.exposure = cc.exposure;
+  if (cc.method && cc.method !== 'limit') view.loss = cc.method;
+  return view;
+}
+
+/** The ids present, in the order of `order` first, then any others in order of appearance. */
+function ordered(present: Iterable<string>, order: readonly string[]): string[] {
+  const set = new Set(present);
+  return [...order.filter((id) => set.has(id)), ...[...set].filter((id) => !order.includes(id))];
+}
+
+/** An empty catalogue: the data folder publishes no layers. */
+export function emptyCatalogue(invented: boolean): ExplorerCatalogue {
+  return {
+    version: 1,
+    available: false,
+    invented,
+    baseline: [0, 0],
+    latestYear: 0,
+    figures: [],
+    choices: { workloadClass: [], acclimatization: [], exposure: [], loss: [], statistic: [], period: [] },
+    legends: [],
+    layers: [],
+    regions: [],
+    regionValues: {},
+    defaults: { figure: '', view: {}, statistic: '', period: '' },
+  };
+}
+
+export function explorerCatalogue(
+  manifest: ManifestLayers,
+  regions: RegionCollection,
+  regionValues: Record<string, Array<number | null>>,
+): ExplorerCatalogue {
+  const legendIndex = new Map<string, number>();
+  const legends: ExplorerLegend[] = [];
+  const layers: ExplorerLayer[] = manifest.layers.map((l) => {
+    const k = JSON.stringify(l.legend);
+    let li = legendIndex.get(k);
+    if (li === undefined) {
+      li = legends.length;
+      legends.push(l.legend);
+      legendIndex.set(k, li);
+    }
+    return {
+      id: l.id,
+      figure: l.figure,
+      view: viewOf(l.figure, l.combo),
+      statistic: l.statistic,
+      period: l.period,
+      units: l.units,
+      images: l.mapImages.map((m) => ({ path: m.path, coordinates: m.coordinates })),
+      legend: li,
+      tif: l.tif,
+    };
+  });
+
+  const figureIds = ordered(
+    layers.map((l) => l.figure),
+    Object.keys(MAP_FIGURE_LABELS),
+  );
+  const figures: ExplorerFigure[] = figureIds.map((id) => {
+    const def = manifest.figures.find((f) => f.id === id);
+    const first = layers.find((l) => l.figure === id)!;
+    const title = legends[first.legend].title ?? id;
+    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units };
+  });
+
+  const classes = manifest.work.classes;
+  const pick = (get: (v: LayerView) => string | undefined) => layers.map((l) => get(l.view)).filter((v): v is string => v !== undefined);
+  const choice = (ids: string[], label: (id: string) => string): ExplorerChoice[] => ids.map((id) => ({ id, label: label(id) }));
+  const lossLabel = (id: string) => (LOSS_VIEWS.find((v) => v.id === id)?.label ?? id).replace(/^Capacity loss, /, '');
+  const classIds = ordered(pick((v) => v.workloadClass), classes.map((c) => c.id));
+  const choices: ExplorerCatalogue['choices'] = {
+    workloadClass: choice(classIds, (id) => {
+      const c = classes.find((x) => x.id === id);
+      return c ? `${c.name} (${c.metabolicRate} W)` : id;
+    }),
+    acclimatization: choice(ordered(pick((v) => v.acclimatization), manifest.work.acclimatization), (id) => ACCLIMATIZATION_LABELS[id] ?? id),
+    exposure: choice(ordered(pick((v) => v.exposure), manifest.work.exposures), (id) => EXPOSURE_LABELS[id] ?? id),
+    loss: choice(ordered(pick((v) => v.loss), LOSS_VIEWS.map((v) => v.id)), lossLabel),
+    statistic: choice(ordered(layers.map((l) => l.statistic), Object.keys(STATISTIC_LABELS)), (id) => STATISTIC_LABELS[id] ?? id),
+    period: choice(ordered(layers.map((l) => l.period), [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year']), periodName),
+  };
+
+  const regionList: ExplorerRegion[] = regions.features.map((f) => ({ id: f.properties.id, name: f.properties.name, bbox: bboxOf(f) }));
+  const defaultFigure = figureIds.includes('hours-lost-shift') ? 'hours-lost-shift' : (figureIds[0] ?? '');
+  const defaults = {
+    figure: defaultFigure,
+    view: {
+      // The middle workload class (e.g. "moderate" of four): a map that is neither all zero nor all saturated.
+      workloadClass: classIds[Math.floor((classIds.length - 1) / 2)],
+      acclimatization: choices.acclimatization[0]?.id,
+      exposure: choices.exposure[0]?.id,
+      loss: choices.loss[0]?.id,
+    },
+    statistic: choices.statistic.some((c) => c.id === 'mean') ? 'mean' : (choices.statistic[0]?.id ?? ''),
+    period: choices.period.some((c) => c.id === 'year') ? 'year' : (choices.period[0]?.id ?? ''),
+  };
+  return {
+    version: 1,
+    available: layers.length > 0,
+    invented: manifest.atlas.invented,
+    baseline: manifest.baseline,
+    latestYear: manifest.latestYear,
+    figures,
+    choices,
+    legends,
+    layers,
+    regions: regionList,
+    regionValues,
+    defaults,
+  };
+}
