@@ -2,6 +2,7 @@
 import './errors.ts';
 import '../config/errors.ts';
 import '../publish/layers/errors.ts';
+import '../publish/point-tile-errors.ts';
 import '../work/errors.ts';
 import '../read/errors.ts';
 import '../climate/errors.ts';

@@ -35,6 +35,7 @@ import { buildSite } from '../publish/site.ts';
 import { figureDefs } from './figures.ts';
 import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
+import { PointTileStore } from '../publish/point-tiles.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -106,6 +107,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
     cells.forEach((g, i) => (landIndex[g] = i));
     const merged = new Map<number, YearCounts>();
     const regionHist = new Map<number, Float32Array[]>();
+    const pointTiles = new PointTileStore(cells);
     const physics = emptyCounts();
     let cellHours = 0;
     const timing = { read: 0, physics: 0, reduce: 0 };
@@ -122,6 +124,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
         if (slot.partials.length === slot.expected) {
           const yc = mergeYear(shard.year, cells, slot.partials, slot.names);
           regionHist.set(shard.year, regionHistograms(yc, weights, landIndex));
+          pointTiles.addYear(yc);
           yc.histogram = new Uint16Array(0);
           merged.set(shard.year, yc);
           slot.partials = [];
@@ -168,6 +171,7 @@ export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
       for (let r = 0; r < regions.length; r++) {
         await writeFile(join(dataDir, 'calculator', `${regions[r].id}.bin`), encodeHistogramTile(years.map((y) => regionHist.get(y)![r])));
       }
+      await pointTiles.write(dataDir, { years, grid: ds.grid });
       const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
       const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
       layerProgress.done();
@@ -306,6 +310,7 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
       : { kind: 'table', description: 'per-cell table: shift hours above the limit and hours lost', units: 'h' };
   }
+  if (path.includes('/calculator/cells/')) return { kind: path.endsWith('.bin') ? 'histogram' : 'json', description: 'calculator histograms of hourly WBGT per grid cell (whole hours per year, month, local hour and exposure; format in pipeline/publish/point-tile-codec.ts, chunks in calculator/cells/index.json)', units: 'h' };
   if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
