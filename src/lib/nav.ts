@@ -11,6 +11,7 @@ export interface NavEntry {
 
 export const NAV: NavEntry[] = [
   { path: '', label: 'Overview' },
+  { path: 'estimate/', label: 'Estimate' },
   { path: 'inventory/', label: 'Data inventory' },
 ];
 
