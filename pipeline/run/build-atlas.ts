@@ -42,6 +42,7 @@ import { figureDefs } from './figures.ts';
 import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
 import { writeCellFigures } from '../publish/cell-figures.ts';
+import { PointTileStore } from '../publish/point-tiles.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -190,6 +191,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
     cells.forEach((g, i) => (landIndex[g] = i));
     const merged = new Map<number, YearCounts>();
     const regionHist = new Map<number, Float32Array[]>();
+    const pointTiles = new PointTileStore(cells);
     const pending = new Map<number, { partials: Array<{ id: string; partial: ShardPartial }>; toCompute: number }>(
       years.map((y) => [y, { partials: [], toCompute: 0 }]),
     );
@@ -210,6 +212,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       slot.partials.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
       const yc = mergeYear(year, cells, slot.partials.map((p) => p.partial), slot.partials.map((p) => p.id));
       regionHist.set(year, regionHistograms(yc, weights, landIndex));
+      pointTiles.addYear(yc);
       yc.histogram = new Uint16Array(0);
       merged.set(year, yc);
       slot.partials = [];
@@ -290,6 +293,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       if (changes.hasPrevious) {
         log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.moves.length} figure moves listed`);
       }
+      await pointTiles.write(dataDir, { years, grid: ds.grid });
       log.info('tables, niche and calculator tiles written; drawing the layers');
       const layerProgress = startProgress('layers', countLayers(figures), { quiet: o.quiet });
       const layers = await writeAtlasLayers(dataDir, ds.grid, cells, figures, niche, () => layerProgress.tick());
@@ -447,6 +451,7 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
       : { kind: 'table', description: 'per-cell table: shift hours above the limit and hours lost', units: 'h' };
   }
+  if (path.includes('/calculator/cells/')) return { kind: path.endsWith('.bin') ? 'histogram' : 'json', description: 'calculator histograms of hourly WBGT per grid cell (whole hours per year, month, local hour and exposure; format in pipeline/publish/point-tile-codec.ts, chunks in calculator/cells/index.json)', units: 'h' };
   if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
   if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };

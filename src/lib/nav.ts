@@ -12,6 +12,7 @@ export interface NavEntry {
 export const NAV: NavEntry[] = [
   { path: '', label: 'Overview' },
   { path: 'map/', label: 'Map' },
+  { path: 'estimate/', label: 'Estimate' },
   { path: 'inventory/', label: 'Data inventory' },
 ];
 

@@ -203,7 +203,7 @@ describe('safety of the built pages', () => {
 
   it('puts the Content-Security-Policy meta tag on every page and no inline script, style or event handler anywhere', () => {
     const pages = htmlFiles(build.distDir);
-    expect(pages.sort()).toEqual(['index.html', 'inventory/index.html', 'map/index.html']);
+    expect(pages.sort()).toEqual(['estimate/index.html', 'index.html', 'inventory/index.html', 'map/index.html']);
     for (const rel of pages) {
       const html = readFileSync(join(build.distDir, rel), 'utf8');
       const meta = html.match(/<meta http-equiv="Content-Security-Policy" content="([^"]*)"/);

@@ -1,0 +1,56 @@
+/**
+ * Which share of each month × local-hour slot of a year falls in the work shift, from the same
+ * shift code the pipeline counts with (pipeline/work/shifts.ts: local time in the atlas's IANA
+ * zone, whole hours, night shifts counted for the day they start, daylight saving via Intl).
+ *
+ * Why: the histogram tiles hold every hour of a slot (all days of the month), not the weekday of
+ * each hour. The calculator therefore takes a slot's WBGT distribution as the same on work days
+ * and on rest days, and scales the slot's estimate by
+ *
+ *   share(y, m, h) = (hours of slot m, h in year y that lie in the shift) / (hours of the slot),
+ *
+ * i.e. the fraction of that month's days that are work days (for a day shift), counted on the
+ * real calendar of each year. The error this makes is the difference between the WBGT of the
+ * work days and of all days of a month; it is measured against the region tables in
+ * test/site/estimate-logic.test.ts and stated on the page.
+ */
+import { localHours, type WorkShift } from '../../../pipeline/work/index.ts';
+
+const HOUR_MS = 3_600_000;
+/** Slots per year: 12 months × 24 local hours. */
+export const MONTH_HOUR_SLOTS = 12 * 24;
+
+/** Shares of one year: `share[m * 24 + h]` [0–1], m = 0 for January. */
+export interface YearShiftShares {
+  year: number;
+  share: Float64Array;
+  /** Hours of each slot on the calendar [h] and of those in the shift [h]. */
+  slotHours: Uint16Array;
+  shiftHours: Uint16Array;
+}
+
+/**
+ * Shift shares per slot for each local calendar year in `years`, in IANA zone `timeZone`.
+ * Catalogued errors from pipeline/work: WorkTimeZoneUnknown (and the shift must be validated
+ * with validateShift first).
+ */
+export function shiftShares(years: readonly number[], timeZone: string, shift: WorkShift): YearShiftShares[] {
+  return years.map((year) => {
+    // Every hour that could start in local year `year`: from two days before to two days after (any UTC offset).
+    const t0 = Date.UTC(year, 0, 1) - 2 * 24 * HOUR_MS;
+    const n = (Date.UTC(year + 1, 0, 1) - Date.UTC(year, 0, 1)) / HOUR_MS + 4 * 24;
+    const ends = new Float64Array(n);
+    for (let i = 0; i < n; i++) ends[i] = t0 + (i + 1) * HOUR_MS;
+    const local = localHours(ends, timeZone, shift);
+    const slotHours = new Uint16Array(MONTH_HOUR_SLOTS);
+    const shiftHours = new Uint16Array(MONTH_HOUR_SLOTS);
+    for (let i = 0; i < n; i++) {
+      if (local.year[i] !== year) continue;
+      const s = (local.month[i] - 1) * 24 + local.hour[i];
+      slotHours[s]++;
+      if (local.inShift[i] === 1) shiftHours[s]++;
+    }
+    const share = Float64Array.from(slotHours, (h, s) => (h > 0 ? shiftHours[s] / h : 0));
+    return { year, share, slotHours, shiftHours };
+  });
+}
