@@ -13,6 +13,8 @@
 /** One published source. */
 export interface Source {
   id: SourceId;
+  /** Short citation, e.g. "Liljegren et al. 2008". */
+  cite: string;
   /** Authors or issuing body, as they are usually cited. */
   authors: string;
   year: number | null;
@@ -56,6 +58,7 @@ export type SourceId = (typeof SOURCE_IDS)[number];
 export const SOURCES: readonly Source[] = [
   {
     id: 'liljegren2008',
+    cite: 'Liljegren et al. 2008',
     authors: 'Liljegren, J. C., Carhart, R. A., Lawday, P., Tschopp, S. and Sharp, R.',
     year: 2008,
     title: 'Modeling the wet bulb globe temperature using standard meteorological measurements',
@@ -64,6 +67,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'buck1981',
+    cite: 'Buck 1981',
     authors: 'Buck, A. L.',
     year: 1981,
     title: 'New equations for computing vapor pressure and enhancement factor',
@@ -72,6 +76,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'bsl1960',
+    cite: 'Bird, Stewart & Lightfoot 1960',
     authors: 'Bird, R. B., Stewart, W. E. and Lightfoot, E. N.',
     year: 1960,
     title: 'Transport Phenomena',
@@ -80,6 +85,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'bedingfield1950',
+    cite: 'Bedingfield & Drew 1950',
     authors: 'Bedingfield, C. H. and Drew, T. B.',
     year: 1950,
     title: 'Analogy between heat transfer and mass transfer: a psychrometric study',
@@ -88,6 +94,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'oke1987',
+    cite: 'Oke 1987',
     authors: 'Oke, T. R.',
     year: 1987,
     title: 'Boundary Layer Climates (2nd edition)',
@@ -96,6 +103,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'michalsky1988',
+    cite: 'Michalsky 1988',
     authors: 'Michalsky, J. J.',
     year: 1988,
     title: "The Astronomical Almanac's algorithm for approximate solar position (1950–2050)",
@@ -104,6 +112,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'epa2000',
+    cite: 'US EPA 2000',
     authors: 'U.S. Environmental Protection Agency',
     year: 2000,
     title: 'Meteorological Monitoring Guidance for Regulatory Modeling Applications',
@@ -112,6 +121,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'iso7243-2017',
+    cite: 'ISO 7243:2017',
     authors: 'International Organization for Standardization',
     year: 2017,
     title: 'Ergonomics of the thermal environment — Assessment of heat stress using the WBGT (wet bulb globe temperature) index',
@@ -120,6 +130,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'iso7243-1989',
+    cite: 'ISO 7243:1989',
     authors: 'International Organization for Standardization',
     year: 1989,
     title: 'Hot environments — Estimation of the heat stress on working man, based on the WBGT-index (wet bulb globe temperature)',
@@ -128,6 +139,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'iso8996',
+    cite: 'ISO 8996',
     authors: 'International Organization for Standardization',
     year: 2004,
     title: 'Ergonomics of the thermal environment — Determination of metabolic rate',
@@ -136,6 +148,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'niosh2016',
+    cite: 'NIOSH 2016',
     authors: 'Jacklitsch, B. et al. (National Institute for Occupational Safety and Health)',
     year: 2016,
     title: 'Criteria for a Recommended Standard: Occupational Exposure to Heat and Hot Environments',
@@ -144,6 +157,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'acgih-tlv',
+    cite: 'ACGIH TLV',
     authors: 'American Conference of Governmental Industrial Hygienists',
     year: null,
     title: 'Heat Stress and Strain: TLV® documentation (clothing adjustment values)',
@@ -152,6 +166,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'bernard2008',
+    cite: 'Bernard et al. 2008',
     authors: 'Bernard, T. E. et al.',
     year: 2008,
     title: 'Clothing adjustment factors for heat stress evaluation',
@@ -160,6 +175,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'kjellstrom2018',
+    cite: 'Kjellstrom et al. 2018',
     authors: 'Kjellstrom, T. et al.',
     year: 2018,
     title: 'Estimating population heat exposure and impacts on working people in conjunction with climate change',
@@ -169,6 +185,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'dunne2013',
+    cite: 'Dunne et al. 2013',
     authors: 'Dunne, J. P., Stouffer, R. J. and John, J. G.',
     year: 2013,
     title: 'Reductions in labour capacity from heat stress under climate warming',
@@ -177,6 +194,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'hyndman1996',
+    cite: 'Hyndman & Fan 1996',
     authors: 'Hyndman, R. J. and Fan, Y.',
     year: 1996,
     title: 'Sample quantiles in statistical packages',
@@ -185,6 +203,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'wmo1203',
+    cite: 'WMO-No. 1203',
     authors: 'World Meteorological Organization',
     year: 2017,
     title: 'WMO Guidelines on the Calculation of Climate Normals',
@@ -193,6 +212,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'xu2020',
+    cite: 'Xu et al. 2020',
     authors: 'Xu, C., Kohler, T. A., Lenton, T. M., Svenning, J.-C. and Scheffer, M.',
     year: 2020,
     title: 'Future of the human climate niche',
@@ -202,6 +222,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'lenton2023',
+    cite: 'Lenton et al. 2023',
     authors: 'Lenton, T. M. et al.',
     year: 2023,
     title: 'Quantifying the human cost of global warming',
@@ -211,6 +232,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'ecmwf-era5',
+    cite: 'ECMWF ERA5 documentation',
     authors: 'European Centre for Medium-Range Weather Forecasts',
     year: null,
     title: 'ERA5 and ERA5-Land data documentation (accumulations, grids, parameters)',
@@ -219,6 +241,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'hersbach2020',
+    cite: 'Hersbach et al. 2020',
     authors: 'Hersbach, H. et al.',
     year: 2020,
     title: 'The ERA5 global reanalysis',
@@ -228,6 +251,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'munoz-sabater2021',
+    cite: 'Muñoz-Sabater et al. 2021',
     authors: 'Muñoz-Sabater, J. et al.',
     year: 2021,
     title: 'ERA5-Land: a state-of-the-art global reanalysis dataset for land applications',
@@ -237,6 +261,7 @@ export const SOURCES: readonly Source[] = [
   },
   {
     id: 'natural-earth',
+    cite: 'Natural Earth',
     authors: 'Natural Earth',
     year: null,
     title: 'Natural Earth 1:110m land and country outlines (via the world-atlas 2.0.2 package)',

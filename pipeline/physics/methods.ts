@@ -56,7 +56,7 @@ const ES_C = literal('c', 'Buck 1981 coefficient', 240.97, '°C', HUM);
 const ES_F = exported('f_w', 'moist-air factor (the reference code\u2019s constant where pressure is not used)', MOIST_AIR_FACTOR, '–', 'MOIST_AIR_FACTOR');
 
 // Properties of air.
-const MU0 = literal('μ₀', 'viscosity prefactor', 2.6693e-6, 'kg m⁻¹ s⁻¹ (K kmol kg⁻¹)^−½ Å²', VISC);
+const MU0 = literal('μ₀', 'viscosity prefactor (gives μ in kg m⁻¹ s⁻¹ with T in K, M_a in kg kmol⁻¹ and σ_LJ in Å)', 2.6693e-6, '–', VISC);
 const OM0 = literal('Ω₀', 'collision-integral intercept', 1.048, '–', VISC);
 const OM1 = literal('Ω₁', 'collision-integral slope', 0.034, '–', VISC);
 const OM2 = literal('Ω₂', 'collision-integral offset', 2.9, '–', VISC);

@@ -8,7 +8,8 @@
  * the pages rely on: paths stay inside `data/` (they become links), digests are SHA-256 hex, each
  * layer's PNG and GeoTIFF are listed among the artefacts, no path is listed twice.
  */
-import { statSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
@@ -163,4 +164,10 @@ export function loadManifest(dataDir: string = siteDataDir()): SiteManifest {
   const manifest = readValidatedJson(path, manifestSchema, 'build manifest (data/manifest.json)');
   cache.set(path, { stamp, manifest });
   return manifest;
+}
+
+/** Size [bytes] and SHA-256 of the manifest file itself (it cannot list its own digest). */
+export function manifestFileFacts(dataDir: string = siteDataDir()): { bytes: number; sha256: string } {
+  const bytes = readFileSync(manifestPath(dataDir));
+  return { bytes: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex') };
 }

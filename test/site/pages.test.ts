@@ -18,7 +18,6 @@ import {
   PROJECT_ROOT,
   buildTestSite,
   colourDistance,
-  htmlFiles,
   mapPixelAt,
   parseShownNumber,
   readDataTable,
@@ -62,8 +61,9 @@ afterAll(async () => {
 
 /** Shown values are rounded to the printed decimals; within half the last digit (+ float slack). */
 function expectShown(text: string, value: number): void {
-  const decimals = (text.split('.')[1] ?? '').replace(/\D/g, '').length;
-  expect(Math.abs(parseShownNumber(text) - value)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-9);
+  const number = text.replace(/\s*°C$/, '');
+  const decimals = (number.split('.')[1] ?? '').replace(/\D/g, '').length;
+  expect(Math.abs(parseShownNumber(number) - value)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-9);
 }
 
 describe('the home page', () => {
@@ -113,6 +113,9 @@ describe('the data inventory page', () => {
       expect(r.long_name).toBe(v.long_name);
       expect(r.source).toBe(v.source);
       expect(r.units).toBe(formatUnits(v.units));
+      // Temperatures carry their unit (the °C/°F convention); other values are bare numbers.
+      if (v.units === 'degC') expect(r.min).toMatch(/ °C$/);
+      else expect(r.min).not.toMatch(/°/);
       expect(r.sourceUnits).toBe(v.sourceUnits);
       expectShown(r.min, v.min);
       expectShown(r.max, v.max);
