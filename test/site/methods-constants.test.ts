@@ -12,8 +12,6 @@
  * The rendered page is checked against the same exports in methods-page.test.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { pathToFileURL } from 'node:url';
-import { join } from 'node:path';
 import { PHYSICS_METHODS } from '../../pipeline/physics/methods.ts';
 import { WORK_METHODS } from '../../pipeline/work/methods.ts';
 import { CLIMATE_METHODS } from '../../pipeline/climate/methods.ts';
@@ -28,18 +26,11 @@ import { computePoint } from '../../pipeline/physics/point-row.ts';
 import { dunne2013Loss } from '../../pipeline/work/capacity-loss.ts';
 import { computeNormals } from '../../pipeline/climate/normals.ts';
 import { quantileSorted } from '../../pipeline/climate/quantile.ts';
-import { PROJECT_ROOT } from './browser.ts';
+import { resolveExport } from './method-exports.ts';
 
 const GROUPS = [PHYSICS_METHODS, WORK_METHODS, CLIMATE_METHODS, REGION_METHODS];
 const METHODS: MethodDescriptor[] = GROUPS.flatMap((g) => g.methods);
 const ALL_CONSTANTS: Array<{ method: MethodDescriptor; c: MethodConstant }> = METHODS.flatMap((m) => m.constants.map((c) => ({ method: m, c })));
-
-/** Reads `module#NAME.key.0` from the module itself. */
-export async function resolveExport(code: string): Promise<unknown> {
-  const [file, path] = code.split('#');
-  const mod = (await import(pathToFileURL(join(PROJECT_ROOT, file)).href)) as Record<string, unknown>;
-  return path.split('.').reduce<unknown>((v, key) => (v as Record<string, unknown>)[key], mod);
-}
 
 /** The listed value of the constant `symbol` of method `id`. */
 function k(id: string, symbol: string): number {
