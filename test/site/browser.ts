@@ -11,7 +11,7 @@
  */
 import { createHash } from 'node:crypto';
 import { execFile } from 'node:child_process';
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, relative, resolve } from 'node:path';
@@ -72,15 +72,33 @@ export function siteInputsDigest(dataDir: string): string {
   return h.digest('hex').slice(0, 16);
 }
 
+/** Whether the process that took a lock folder (its `pid` file) has gone, so the lock is stale. */
+function lockOwnerGone(lockDir: string): boolean {
+  let pid: number;
+  try {
+    pid = Number(readFileSync(join(lockDir, 'pid'), 'utf8'));
+  } catch {
+    return false; // just being created, or an older lock without a pid: fall back to its age
+  }
+  try {
+    process.kill(pid, 0);
+    return false;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'ESRCH';
+  }
+}
+
 async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> {
   const deadline = Date.now() + 300_000;
   for (;;) {
     try {
       await mkdir(lockDir);
+      writeFileSync(join(lockDir, 'pid'), String(process.pid));
       break;
     } catch {
       const age = await stat(lockDir).then((s) => Date.now() - s.mtimeMs, () => 0);
-      if (age > 300_000) await rm(lockDir, { recursive: true, force: true });
+      // A test run killed while building leaves its lock behind: take it over at once.
+      if (age > 300_000 || lockOwnerGone(lockDir)) await rm(lockDir, { recursive: true, force: true });
       if (Date.now() > deadline) throw new Error(`timed out waiting for the site build lock ${lockDir}`);
       await new Promise((r) => setTimeout(r, 250));
     }
