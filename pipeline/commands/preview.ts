@@ -14,7 +14,10 @@ import { CONTENT_SECURITY_POLICY_HEADER } from '../../src/lib/content-security-p
 import { PreviewDirMissing, PreviewPortBusy } from '../../src/data/errors.ts';
 import { UsageError } from '../model/errors.ts';
 
-/** Content types by file extension; anything else is served as application/octet-stream. */
+/**
+ * Content types by file extension (IANA media types), for every kind of file the site publishes;
+ * anything else is served as application/octet-stream.
+ */
 export const CONTENT_TYPES: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
   '.css': 'text/css; charset=utf-8',
@@ -34,6 +37,7 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.tif': 'image/tiff',
   '.tiff': 'image/tiff',
   '.wasm': 'application/wasm',
+  '.bin': 'application/octet-stream',
   '.woff2': 'font/woff2',
   '.pbf': 'application/x-protobuf',
   '.map': 'application/json; charset=utf-8',

@@ -88,6 +88,15 @@ export const EPS_K_AIR = 97;
 export const WIND_EXPONENT_URBAN = [0.15, 0.15, 0.2, 0.25, 0.3, 0.3] as const;
 export const WIND_EXPONENT_RURAL = [0.07, 0.07, 0.1, 0.15, 0.35, 0.55] as const;
 
+/**
+ * WBGT weights outdoors (in the sun; the shade WBGT uses the same weights) [–]:
+ * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, METHODS.md §3.1). The kernel writes the same
+ * numbers inline in its hot loop; test/physics/methods.test.ts pins its output to these.
+ */
+export const WBGT_WEIGHT_WET_BULB = 0.7;
+export const WBGT_WEIGHT_GLOBE = 0.2;
+export const WBGT_WEIGHT_AIR = 0.1;
+
 /** The table the methods page shows. */
 export const PHYSICS_CONSTANTS: readonly PhysicsConstant[] = [
   { name: 'Stefan–Boltzmann constant (as coded)', symbol: 'σ', value: STEFAN_BOLTZMANN, unit: 'W m⁻² K⁻⁴', source: 'liljegren2008' },
@@ -119,7 +128,7 @@ export const PHYSICS_CONSTANTS: readonly PhysicsConstant[] = [
   { name: 'Lennard-Jones well depth of air', symbol: 'ε/κ', value: EPS_K_AIR, unit: 'K', source: 'liljegren2008' },
   ...WIND_EXPONENT_URBAN.map((v, i) => ({ name: `wind power-law exponent, urban, class ${'ABCDEF'[i]}`, symbol: `p_u,${i + 1}`, value: v, unit: '–', source: 'epa2000' as const })),
   ...WIND_EXPONENT_RURAL.map((v, i) => ({ name: `wind power-law exponent, rural, class ${'ABCDEF'[i]}`, symbol: `p_r,${i + 1}`, value: v, unit: '–', source: 'epa2000' as const })),
-  { name: 'WBGT weight of natural wet bulb (sun)', symbol: 'w_nw', value: 0.7, unit: '–', source: 'iso7243' },
-  { name: 'WBGT weight of globe temperature (sun)', symbol: 'w_g', value: 0.2, unit: '–', source: 'iso7243' },
-  { name: 'WBGT weight of air temperature (sun)', symbol: 'w_a', value: 0.1, unit: '–', source: 'iso7243' },
+  { name: 'WBGT weight of natural wet bulb (sun)', symbol: 'w_nw', value: WBGT_WEIGHT_WET_BULB, unit: '–', source: 'iso7243' },
+  { name: 'WBGT weight of globe temperature (sun)', symbol: 'w_g', value: WBGT_WEIGHT_GLOBE, unit: '–', source: 'iso7243' },
+  { name: 'WBGT weight of air temperature (sun)', symbol: 'w_a', value: WBGT_WEIGHT_AIR, unit: '–', source: 'iso7243' },
 ];

@@ -1,6 +1,6 @@
 /**
  * The last step of `heathours build`: the Astro site. Takes the data folder the pipeline wrote
- * (`dataDir/data/inventory.json`, `dataDir/data/regions.geojson`, …), builds the static site with
+ * (`dataDir/data/manifest.json`, `inventory.json`, `regions.geojson`, …), builds the static site with
  * Astro's programmatic `build()` into a temporary folder, copies `dataDir/data/` to `data/` in it,
  * and only then replaces `outDir` (pipeline/model/effects.ts `replaceDirAtomic`): a failed build
  * leaves the previous site as it was.
@@ -19,6 +19,7 @@ import { withProcessLock } from '../model/lock.ts';
 import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
+import { loadManifest } from '../../src/data/manifest.ts';
 import { SiteBuildFailed, SiteDataMissing, SiteOutputUnwritable } from '../../src/data/errors.ts';
 
 /** The project root: where astro.config.mjs and src/ live. */
@@ -40,6 +41,7 @@ export interface BuildSiteOptions {
 export function checkSiteData(dataDir: string): void {
   const dataFolder = join(dataDir, 'data');
   if (!existsSync(dataFolder)) throw SiteDataMissing({ path: dataFolder, what: 'data folder' }, { file: dataFolder });
+  loadManifest(dataDir);
   loadInventory(dataDir);
   loadRegions(dataDir);
 }

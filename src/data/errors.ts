@@ -8,14 +8,14 @@ export const SiteDataDirUnset = defineError<Record<string, never>>({
   code: 'SiteDataDirUnset',
   title: 'The site was built without a data folder',
   message: () => 'the environment variable HEATHOURS_DATA_DIR is not set, so the pages have nothing to read',
-  hint: () => 'build the site with `heathours build` (it calls buildSite), or set HEATHOURS_DATA_DIR to a folder holding data/inventory.json',
+  hint: () => 'build the site with `heathours build` (it calls buildSite), or set HEATHOURS_DATA_DIR to a folder holding data/manifest.json',
 });
 
 export const SiteDataMissing = defineError<{ path: string; what: string }>({
   code: 'SiteDataMissing',
   title: 'A file the site reads is missing from the data folder',
   message: (p) => `no ${p.what} at ${p.path}`,
-  hint: () => 'run the pipeline first (`heathours build`); it writes data/inventory.json and data/regions.geojson before the site is built',
+  hint: () => 'run the pipeline first (`heathours build`); it writes data/manifest.json, data/inventory.json and data/regions.geojson before the site is built',
 });
 
 export const SiteDataUnreadable = defineError<{ path: string; detail: string }>({

@@ -1,6 +1,7 @@
 /**
- * The site's navigation: one entry per page that exists. Later pages (map explorer, region
- * reports, downloads, methods, estimate) add their entry here.
+ * The site's navigation: one entry per page that exists, in the order Overview, Map, Estimate,
+ * Downloads, Methods, Data inventory (region pages have no entry). Each page's helper adds its
+ * own entry here.
  */
 
 export interface NavEntry {
@@ -13,6 +14,8 @@ export const NAV: NavEntry[] = [
   { path: '', label: 'Overview' },
   { path: 'map/', label: 'Map' },
   { path: 'estimate/', label: 'Estimate' },
+  { path: 'downloads/', label: 'Downloads' },
+  { path: 'methods/', label: 'Methods' },
   { path: 'inventory/', label: 'Data inventory' },
 ];
 

@@ -3,7 +3,8 @@
  * from the `?units=F` query parameter, else localStorage, else °C; it is written to
  * `<html data-units>`, applied to every element of the src/lib/units.ts convention, kept in
  * localStorage, and announced with the `heathours:units` event for scripts that draw their own
- * temperatures.
+ * temperatures. A choice made in another tab (the `storage` event) or while the page sat in the
+ * back/forward cache (`pageshow` with `persisted`) is followed too.
  */
 import {
   UNIT_EVENT,
@@ -59,3 +60,17 @@ for (const b of document.querySelectorAll<HTMLButtonElement>('[data-unit-choice]
   b.hidden = false;
   b.addEventListener('click', () => setUnit(parseUnit(b.dataset.unitChoice), true));
 }
+
+/** Shows the stored choice if it differs from the page's (without writing it back). */
+function followStored(): void {
+  const unit = parseUnit(stored());
+  if (unit !== document.documentElement.dataset.units) setUnit(unit, false);
+}
+// A choice made in another tab or window of the site.
+window.addEventListener('storage', (e) => {
+  if (e.key === UNIT_STORAGE_KEY) followStored();
+});
+// A page restored from the back/forward cache keeps the unit it had; the choice may have changed since.
+window.addEventListener('pageshow', (e) => {
+  if (e.persisted) followStored();
+});

@@ -1,7 +1,7 @@
 /**
  * The browser-test harness of the site, for every issue's page tests:
  * - {@link buildTestSite} builds a site from a data folder once per content digest (of src/,
- *   public/, astro.config.mjs, the site builder and the data folder) and shares it between test
+ *   public/, astro.config.mjs, pipeline/ and the data folder) and shares it between test
  *   files and runs (test-artifacts/site-builds/<digest>/dist, with a lock folder);
  * - {@link startSiteSession} serves it with `startPreviewServer` on 127.0.0.1 (port 0) and
  *   launches Debian's /usr/bin/chromium through playwright-core exactly as STACK.md says (never a
@@ -11,7 +11,7 @@
  */
 import { createHash } from 'node:crypto';
 import { execFile } from 'node:child_process';
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, relative, resolve } from 'node:path';
@@ -23,7 +23,6 @@ import type { Rgb } from '../../src/components/map/map-colours.ts';
 const run = promisify(execFile);
 
 export const PROJECT_ROOT = resolve(import.meta.dirname, '../..');
-export const FIXTURE_DATA_DIR = join(PROJECT_ROOT, 'test/fixtures/site');
 export const ARTIFACTS_DIR = join(PROJECT_ROOT, 'test-artifacts/site');
 const BUILDS_DIR = join(PROJECT_ROOT, 'test-artifacts/site-builds');
 
@@ -52,15 +51,15 @@ function listFiles(dir: string): string[] {
   return out.sort();
 }
 
-/** Digest of everything a site build depends on (sources, static files, config, data). */
+/** Digest of everything a site build depends on (sources, static files, config, pipeline code, data). */
 export function siteInputsDigest(dataDir: string): string {
   const h = createHash('sha256');
   const inputs = [
     ...listFiles(join(PROJECT_ROOT, 'src')),
     ...listFiles(join(PROJECT_ROOT, 'public')),
     join(PROJECT_ROOT, 'astro.config.mjs'),
-    join(PROJECT_ROOT, 'pipeline/publish/site.ts'),
-    join(PROJECT_ROOT, 'pipeline/publish/inventory-types.ts'),
+    // Pages import pipeline modules (the methods page renders the pipeline's constants).
+    ...listFiles(join(PROJECT_ROOT, 'pipeline')),
     join(PROJECT_ROOT, 'package-lock.json'),
     ...listFiles(dataDir),
   ];
@@ -73,15 +72,33 @@ export function siteInputsDigest(dataDir: string): string {
   return h.digest('hex').slice(0, 16);
 }
 
+/** Whether the process that took a lock folder (its `pid` file) has gone, so the lock is stale. */
+function lockOwnerGone(lockDir: string): boolean {
+  let pid: number;
+  try {
+    pid = Number(readFileSync(join(lockDir, 'pid'), 'utf8'));
+  } catch {
+    return false; // just being created, or an older lock without a pid: fall back to its age
+  }
+  try {
+    process.kill(pid, 0);
+    return false;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'ESRCH';
+  }
+}
+
 async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> {
   const deadline = Date.now() + 300_000;
   for (;;) {
     try {
       await mkdir(lockDir);
+      writeFileSync(join(lockDir, 'pid'), String(process.pid));
       break;
     } catch {
       const age = await stat(lockDir).then((s) => Date.now() - s.mtimeMs, () => 0);
-      if (age > 300_000) await rm(lockDir, { recursive: true, force: true });
+      // A test run killed while building leaves its lock behind: take it over at once.
+      if (age > 300_000 || lockOwnerGone(lockDir)) await rm(lockDir, { recursive: true, force: true });
       if (Date.now() > deadline) throw new Error(`timed out waiting for the site build lock ${lockDir}`);
       await new Promise((r) => setTimeout(r, 250));
     }
@@ -113,9 +130,10 @@ export interface TestSiteBuild {
 
 /**
  * Builds the site from `dataDir` with `buildSite` (in a child process), or reuses the build of
- * the same inputs from an earlier test file or run.
+ * the same inputs from an earlier test file or run. `dataDir` is usually the pipeline-made test
+ * data (`(await buildPipelineData()).dataDir`, test/site/pipeline-data.ts).
  */
-export async function buildTestSite(dataDir: string = FIXTURE_DATA_DIR): Promise<TestSiteBuild> {
+export async function buildTestSite(dataDir: string): Promise<TestSiteBuild> {
   const digest = siteInputsDigest(dataDir);
   const distDir = join(BUILDS_DIR, digest, 'dist');
   await mkdir(BUILDS_DIR, { recursive: true });

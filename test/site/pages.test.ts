@@ -1,9 +1,11 @@
 /**
- * Browser tests of the home and data inventory pages, built once from the invented fixture
- * (test/fixtures/site) and served on 127.0.0.1, in Debian's headless Chromium.
+ * Browser tests of the home and data inventory pages, built once from the data folder the real
+ * pipeline makes for the site tests (pipeline-data.ts: the invented small demo) and served on
+ * 127.0.0.1, in Debian's headless Chromium. Expected values come from that folder's
+ * inventory.json and regions.geojson.
  * External checks: the land/sea pixels are checked against Natural Earth outlines from
- * world-atlas 2.0.2 with d3-geo's `geoContains` (a general-purpose reference library); the
- * escaping check follows the HTML standard (text content is never parsed as markup).
+ * world-atlas 2.0.2 with d3-geo's `geoContains` (a general-purpose reference library).
+ * Escaping, the CSP and budgets of every page: safety.test.ts and budgets.test.ts.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -13,11 +15,9 @@ import { feature } from 'topojson-client';
 import type { Topology, GeometryObject } from 'topojson-specification';
 import type { DatasetInventory } from '../../pipeline/publish/inventory-types.ts';
 import {
-  FIXTURE_DATA_DIR,
   PROJECT_ROOT,
   buildTestSite,
   colourDistance,
-  htmlFiles,
   mapPixelAt,
   parseShownNumber,
   readDataTable,
@@ -30,17 +30,15 @@ import {
   type WatchedPage,
 } from './browser.ts';
 import { GRID_FILL_OPACITY, MAP_COLOURS, blendOver } from '../../src/components/map/map-colours.ts';
-import { CONTENT_SECURITY_POLICY } from '../../src/lib/content-security-policy.ts';
+import { gridEdges } from '../../src/components/map/grid-geometry.ts';
 import { CAUTIONS } from '../../src/lib/cautions.ts';
 import { FORMAT_LABELS, LAYOUT_LABELS } from '../../src/lib/labels.ts';
-import { formatBytes, formatUnits, formatUtc } from '../../src/lib/format.ts';
+import { formatBytes, formatCount, formatFixed, formatLat, formatLon, formatUnits, formatUtc } from '../../src/lib/format.ts';
+import { buildPipelineData } from './pipeline-data.ts';
 
-const inventory = JSON.parse(readFileSync(join(FIXTURE_DATA_DIR, 'data/inventory.json'), 'utf8')) as DatasetInventory;
-const regions = JSON.parse(readFileSync(join(FIXTURE_DATA_DIR, 'data/regions.geojson'), 'utf8')) as {
-  features: Array<{ properties: { id: string; name: string } }>;
-};
-const HOSTILE_NAME = '<img src=x onerror=alert(1)><script>alert(2)</script>';
-
+let dataDir: string;
+let inventory: DatasetInventory;
+let regions: { features: Array<{ properties: { id: string; name: string } }> };
 let build: TestSiteBuild;
 let session: SiteSession;
 /** One visit of each page with JavaScript, shared by the tests that only read it. */
@@ -48,7 +46,10 @@ let home: WatchedPage;
 let inventoryPage: WatchedPage;
 
 beforeAll(async () => {
-  build = await buildTestSite();
+  dataDir = (await buildPipelineData()).dataDir;
+  inventory = JSON.parse(readFileSync(join(dataDir, 'data/inventory.json'), 'utf8')) as DatasetInventory;
+  regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8'));
+  build = await buildTestSite(dataDir);
   session = await startSiteSession(build.distDir);
   [home, inventoryPage] = await Promise.all([session.open('/'), session.open('/inventory/')]);
   process.stderr.write(`site tests: build ${build.reused ? 'reused' : `took ${(build.buildMs / 1000).toFixed(1)} s`}\n`);
@@ -60,8 +61,9 @@ afterAll(async () => {
 
 /** Shown values are rounded to the printed decimals; within half the last digit (+ float slack). */
 function expectShown(text: string, value: number): void {
-  const decimals = (text.split('.')[1] ?? '').replace(/\D/g, '').length;
-  expect(Math.abs(parseShownNumber(text) - value)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-9);
+  const number = text.replace(/\s*°C$/, '');
+  const decimals = (number.split('.')[1] ?? '').replace(/\D/g, '').length;
+  expect(Math.abs(parseShownNumber(number) - value)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-9);
 }
 
 describe('the home page', () => {
@@ -71,8 +73,10 @@ describe('the home page', () => {
     const facts = await page.$$eval('#coverage dd[data-key]', (dds) => Object.fromEntries(dds.map((d) => [d.getAttribute('data-key'), (d.textContent ?? '').trim()])));
     expect(facts.years).toBe(`${inventory.atlas.years[0]}–${inventory.atlas.years[1]}`);
     expect(facts.baseline).toBe(`${inventory.atlas.baseline[0]}–${inventory.atlas.baseline[1]}`);
-    // Outer edges = cell centres ± half a step (9.75–14.25° N, 59.75–64.25° E for the fixture).
-    expect(facts.extent).toContain('9.75° N to 14.25° N, 59.75° E to 64.25° E');
+    // Outer edges = cell centres ± half a step.
+    const [west, south, east, north] = gridEdges(inventory.grid);
+    expect(west).toBe(inventory.grid.lonMin - inventory.grid.dLon / 2);
+    expect(facts.extent).toContain(`${formatLat(south)} to ${formatLat(north)}, ${formatLon(west)} to ${formatLon(east)}`);
     expect(facts.grid).toContain(`${inventory.grid.nLat} × ${inventory.grid.nLon} cells`);
     expect(facts.source).toContain('Invented data');
     expect(facts.attribution).toBe(inventory.atlas.attribution);
@@ -109,20 +113,22 @@ describe('the data inventory page', () => {
       expect(r.long_name).toBe(v.long_name);
       expect(r.source).toBe(v.source);
       expect(r.units).toBe(formatUnits(v.units));
+      // Temperatures carry their unit (the °C/°F convention); other values are bare numbers.
+      if (v.units === 'degC') expect(r.min).toMatch(/ °C$/);
+      else expect(r.min).not.toMatch(/°/);
       expect(r.sourceUnits).toBe(v.sourceUnits);
       expectShown(r.min, v.min);
       expectShown(r.max, v.max);
       expectShown(r.mean, v.mean);
       expect(parseShownNumber(r.fillCount)).toBe(v.fillCount);
     });
-    // A negative value keeps its sign: the fixture's dew-point minimum is −3.75 °C.
-    expect(rows[1].min).toBe('\u22123.75');
   });
 
   it('shows the provenance of every file: name, size, full SHA-256, format, layout, time range, variables', async () => {
     const { page } = inventoryPage;
     const rows = await readDataTable(page, '#files');
     expect(rows).toHaveLength(inventory.files.length);
+    expect(inventory.files.some((f) => f.timeStart === '')).toBe(true);
     inventory.files.forEach((f, i) => {
       const r = rows[i];
       expect(r.name).toBe(f.name);
@@ -130,8 +136,10 @@ describe('the data inventory page', () => {
       expect(r.sha256).toBe(f.sha256);
       expect(r.format).toBe(FORMAT_LABELS[f.format]);
       expect(r.layout).toBe(LAYOUT_LABELS[f.layout]);
-      expect(r.timeStart).toBe(formatUtc(f.timeStart));
-      expect(r.timeEnd).toBe(formatUtc(f.timeEnd));
+      // The land-sea mask file has no time axis.
+      const when = (t: string) => (t === '' ? 'static (no time axis)' : formatUtc(t));
+      expect(r.timeStart).toBe(when(f.timeStart));
+      expect(r.timeEnd).toBe(when(f.timeEnd));
       expect(r.variables.split(', ')).toEqual(f.variables);
     });
   });
@@ -139,12 +147,15 @@ describe('the data inventory page', () => {
   it('shows the grid and the time coverage, and all tables are there without JavaScript', async () => {
     const { page } = await session.open('/inventory/', { javaScript: false });
     const grid = await readKeyValueTable(page, '#grid-summary');
-    expect(grid['lat-range']).toBe('10.000° N to 14.000° N');
-    expect(grid['lon-range']).toBe('60.000° E to 64.000° E');
-    expect(grid.spacing).toBe('0.500° latitude × 0.500° longitude');
-    expect(grid.cells).toBe(`${inventory.grid.nLat} rows × ${inventory.grid.nLon} columns = ${inventory.grid.nLat * inventory.grid.nLon}`);
-    expect(parseShownNumber(grid['land-cells'])).toBe(inventory.grid.landCells);
+    const g = inventory.grid;
+    expect(grid['lat-range']).toBe(`${formatLat(g.latMin, 3)} to ${formatLat(g.latMax, 3)}`);
+    expect(grid['lon-range']).toBe(`${formatLon(g.lonMin, 3)} to ${formatLon(g.lonMax, 3)}`);
+    expect(grid.spacing).toBe(`${formatFixed(g.dLat, 3)}° latitude × ${formatFixed(g.dLon, 3)}° longitude`);
+    expect(grid.cells).toBe(`${g.nLat} rows × ${g.nLon} columns = ${formatCount(g.nLat * g.nLon)}`);
+    expect(parseShownNumber(grid['land-cells'])).toBe(g.landCells);
     const time = await readKeyValueTable(page, '#time-coverage');
+    // The invented demo's three years, as hour-end stamps (ERA5 convention).
+    expect(time.start).toBe(formatUtc(inventory.time.start));
     expect(time.start).toBe('2021-01-01 01:00 UTC');
     expect(time.end).toBe('2024-01-01 00:00 UTC');
     expect(parseShownNumber(time.hours)).toBe(inventory.time.hours);
@@ -161,15 +172,19 @@ describe('the data inventory page', () => {
       JSON.parse(readFileSync(join(PROJECT_ROOT, 'node_modules/world-atlas/land-110m.json'), 'utf8')) as Topology,
       (JSON.parse(readFileSync(join(PROJECT_ROOT, 'node_modules/world-atlas/land-110m.json'), 'utf8')) as Topology).objects.land as GeometryObject,
     );
-    // Test points, classified by world-atlas itself: the horn of Africa and peninsular India are
-    // land, the open Arabian Sea south-east of the grid is sea.
-    const landPoints: Array<[number, number]> = [[45, 8], [76, 15]];
-    const seaPoint: [number, number] = [66, 6];
+    // Test points, classified by world-atlas itself: the island of Hawaii, west of the invented
+    // territory, is land (three points well inside its 1:110m outline); the open Pacific south-east
+    // of the grid is sea.
+    const landPoints: Array<[number, number]> = [[-155.5, 19.6], [-155.6, 19.5], [-155.3, 19.7]];
+    const seaPoint: [number, number] = [-137.5, 15];
     for (const p of landPoints) expect(geoContains(land, p)).toBe(true);
     expect(geoContains(land, seaPoint)).toBe(false);
 
-    // The grid's central cell (62° E, 12° N) is away from cell edges and region outlines.
-    const centre = await mapPixelAt(page, 'inventory-map', [62, 12]);
+    // A point in the grid's north-east cell, away from the cell edges and the region outlines.
+    const g = inventory.grid;
+    const inGrid: [number, number] = [g.lonMax + 0.2 * g.dLon, g.latMax + 0.2 * g.dLat];
+    expect(inGrid[0] < g.lonMax + g.dLon / 2 && inGrid[1] < g.latMax + g.dLat / 2).toBe(true);
+    const centre = await mapPixelAt(page, 'inventory-map', inGrid);
     const sea = await mapPixelAt(page, 'inventory-map', seaPoint);
     expect(centre.inside && sea.inside).toBe(true);
     expect(colourDistance(sea.rgb, MAP_COLOURS.sea)).toBeLessThanOrEqual(3);
@@ -185,84 +200,7 @@ describe('the data inventory page', () => {
   });
 });
 
-describe('safety of the built pages', () => {
-  it('shows a region named with HTML as plain text, and nothing in it runs', async () => {
-    const watched = home;
-    const { page } = watched;
-    const item = page.locator('#regions li[data-region-id="odd-name"] .region-name');
-    expect(await item.textContent()).toBe(HOSTILE_NAME);
-    expect(await item.locator('img, script').count()).toBe(0);
-    expect(await page.locator('main img').count()).toBe(0);
-    // Give an injected handler time to fire, if there were one.
-    await page.waitForTimeout(300);
-    expect(watched.dialogs).toEqual([]);
-    const raw = readFileSync(join(build.distDir, 'index.html'), 'utf8');
-    expect(raw).not.toContain(HOSTILE_NAME);
-    expect(raw).toContain('&lt;img src=x onerror=alert(1)&gt;&lt;script&gt;alert(2)&lt;/script&gt;');
-  });
-
-  it('puts the Content-Security-Policy meta tag on every page and no inline script, style or event handler anywhere', () => {
-    const pages = htmlFiles(build.distDir);
-    expect(pages.sort()).toEqual(['estimate/index.html', 'index.html', 'inventory/index.html', 'map/index.html']);
-    for (const rel of pages) {
-      const html = readFileSync(join(build.distDir, rel), 'utf8');
-      const meta = html.match(/<meta http-equiv="Content-Security-Policy" content="([^"]*)"/);
-      expect(meta?.[1].replace(/&#39;/g, "'"), rel).toBe(CONTENT_SECURITY_POLICY);
-      for (const tag of html.match(/<script\b[^>]*>/g) ?? []) {
-        expect(/\bsrc="\/[^"]+"/.test(tag) || /type="application\/json"/.test(tag), `${rel}: ${tag}`).toBe(true);
-      }
-      expect(html.match(/<script\b[^>]*\bsrc=[^>]*>([\s\S]*?)<\/script>/g)?.every((s) => /><\/script>$/.test(s)) ?? true).toBe(true);
-      expect(html, rel).not.toMatch(/<style\b/);
-      expect(html, rel).not.toMatch(/\sstyle="/);
-      expect(html, rel).not.toMatch(/\son[a-z]+="/);
-      expect(html, rel).not.toMatch(/(src|href)="(https?:)?\/\//);
-    }
-  });
-
-  it('has its Content-Security-Policy in force: an injected inline script and a remote image are blocked and reported', async () => {
-    // A page outside session.pages, so the violations provoked here do not count against the site.
-    const page = await session.context.newPage();
-    await page.goto(session.baseUrl, { waitUntil: 'load' });
-    const ran = await page.evaluate(async () => {
-      const s = document.createElement('script');
-      s.textContent = 'globalThis.__inlineRan = true;';
-      document.head.append(s);
-      const img = document.createElement('img');
-      img.src = 'https://example.org/x.png';
-      document.body.append(img);
-      await new Promise((r) => setTimeout(r, 200));
-      return (globalThis as unknown as { __inlineRan?: boolean }).__inlineRan === true;
-    });
-    expect(ran).toBe(false);
-    const violations = await page.evaluate(() => (globalThis as unknown as { __cspViolations: string[] }).__cspViolations);
-    expect(violations.some((v) => v.startsWith('script-src'))).toBe(true);
-    expect(violations.some((v) => v.startsWith('img-src'))).toBe(true);
-    await page.close();
-  });
-
-  it('loads MapLibre only on the page with a map', () => {
-    const homeHtml = readFileSync(join(build.distDir, 'index.html'), 'utf8');
-    const inventoryHtml = readFileSync(join(build.distDir, 'inventory/index.html'), 'utf8');
-    // The script files a page loads, with the chunks they import (Vite's static imports).
-    const scriptGraph = (html: string): string => {
-      const seen = new Set<string>();
-      const queue = [...html.matchAll(/<script[^>]*\bsrc="([^"]+)"/g)].map((m) => m[1]);
-      let code = '';
-      while (queue.length > 0) {
-        const src = queue.shift()!;
-        if (seen.has(src)) continue;
-        seen.add(src);
-        const text = readFileSync(join(build.distDir, src), 'utf8');
-        code += text;
-        for (const m of text.matchAll(/from\s*"\.\/([^"]+\.js)"/g)) queue.push(`/assets/${m[1]}`);
-      }
-      return code;
-    };
-    expect(scriptGraph(homeHtml)).not.toMatch(/maplibre/i);
-    expect(scriptGraph(homeHtml).length, 'the home page loads only the small unit switch').toBeLessThan(20_000);
-    expect(scriptGraph(inventoryHtml)).toMatch(/maplibre/i);
-  });
-
+describe('the built site as a whole', () => {
   it('prints without the navigation and the map controls (print style)', async () => {
     const page = inventoryPage.page;
     await page.emulateMedia({ media: 'print' });
@@ -278,8 +216,9 @@ describe('safety of the built pages', () => {
   });
 
   it('publishes the data folder under data/ and nothing of the build machinery', () => {
-    expect(readFileSync(join(build.distDir, 'data/inventory.json'), 'utf8')).toBe(readFileSync(join(FIXTURE_DATA_DIR, 'data/inventory.json'), 'utf8'));
-    expect(readFileSync(join(build.distDir, 'data/regions.geojson'), 'utf8')).toBe(readFileSync(join(FIXTURE_DATA_DIR, 'data/regions.geojson'), 'utf8'));
+    for (const rel of ['data/manifest.json', 'data/inventory.json', 'data/regions.geojson']) {
+      expect(readFileSync(join(build.distDir, rel), 'utf8'), rel).toBe(readFileSync(join(dataDir, rel), 'utf8'));
+    }
     expect(() => readFileSync(join(build.distDir, 'content-assets.mjs'))).toThrow();
   });
 

@@ -9,9 +9,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { request } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startPreviewServer, type PreviewServer } from '../../pipeline/commands/preview.ts';
+import { CONTENT_TYPES, startPreviewServer, type PreviewServer } from '../../pipeline/commands/preview.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { CONTENT_SECURITY_POLICY_HEADER } from '../../src/lib/content-security-policy.ts';
+import { buildTestSite, htmlFiles } from './browser.ts';
+import { buildPipelineData } from './pipeline-data.ts';
+import { readdirSync } from 'node:fs';
+import { extname } from 'node:path';
 
 let root: string;
 let site: string;
@@ -45,6 +49,27 @@ const FILES: Record<string, [string, string]> = {
   'favicon.svg': ['<svg xmlns="http://www.w3.org/2000/svg"/>', 'image/svg+xml'],
   'assets/m.wasm': ['\0asm', 'application/wasm'],
   'assets/blob.bin': ['x', 'application/octet-stream'],
+  'data/calculator/r.bin': ['\x01\x02', 'application/octet-stream'],
+  'data/layers/a/b/mean-01.tif': ['MM\0*', 'image/tiff'],
+};
+
+/**
+ * The media type each kind of file of a built site must be served with: RFC 9239 (JavaScript,
+ * also .mjs for the MapLibre worker), RFC 7946 (GeoJSON), RFC 4180 with the charset (CSV),
+ * RFC 3302 (TIFF), RFC 2083 / W3C (PNG), W3C SVG, RFC 8259 (JSON), RFC 2046 (unknown binary).
+ */
+const IANA: Record<string, string> = {
+  '.html': 'text/html; charset=utf-8',
+  '.css': 'text/css; charset=utf-8',
+  '.js': 'text/javascript; charset=utf-8',
+  '.mjs': 'text/javascript; charset=utf-8',
+  '.json': 'application/json; charset=utf-8',
+  '.geojson': 'application/geo+json; charset=utf-8',
+  '.csv': 'text/csv; charset=utf-8',
+  '.tif': 'image/tiff',
+  '.png': 'image/png',
+  '.svg': 'image/svg+xml',
+  '.bin': 'application/octet-stream',
 };
 
 beforeAll(async () => {
@@ -111,6 +136,10 @@ describe('startPreviewServer', () => {
     expect((await rawGet(server.port, '/index.html', 'POST')).status).toBe(405);
   });
 
+  it('registers a media type for every extension the site publishes (none falls back to the default)', () => {
+    for (const [ext, type] of Object.entries(IANA)) expect(CONTENT_TYPES[ext], ext).toBe(type);
+  });
+
   it('fails with PreviewDirMissing when the folder holds no built site', async () => {
     const err = await startPreviewServer({ dir: join(root, 'no-such-dist'), port: 0 }).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(HeathoursError);
@@ -123,5 +152,36 @@ describe('startPreviewServer', () => {
     expect(err).toBeInstanceOf(HeathoursError);
     expect((err as HeathoursError).code).toBe('PreviewPortBusy');
     expect((err as HeathoursError).message).toContain('EADDRINUSE');
+  });
+});
+
+describe('the preview server on a built site', () => {
+  let distDir: string;
+  beforeAll(async () => {
+    distDir = (await buildTestSite((await buildPipelineData()).dataDir)).distDir;
+  });
+
+  it('serves one file of every extension in the built site with its registered media type', async () => {
+    const byExt = new Map<string, string>();
+    const walk = (dir: string, rel: string): void => {
+      for (const e of readdirSync(dir, { withFileTypes: true })) {
+        if (e.isDirectory()) walk(join(dir, e.name), `${rel}${e.name}/`);
+        else if (!byExt.has(extname(e.name).toLowerCase())) byExt.set(extname(e.name).toLowerCase(), `${rel}${e.name}`);
+      }
+    };
+    walk(distDir, '');
+    expect(htmlFiles(distDir).length).toBeGreaterThanOrEqual(4);
+    for (const ext of ['.html', '.css', '.js', '.mjs', '.json', '.geojson', '.csv', '.tif', '.png', '.svg', '.bin']) expect(byExt.has(ext), `the built site has a ${ext} file`).toBe(true);
+    const built = await startPreviewServer({ dir: distDir, port: 0 });
+    try {
+      for (const [ext, rel] of byExt) {
+        expect(IANA[ext], `${ext} (${rel}) has an expected media type in this test`).toBeDefined();
+        const res = await fetch(new URL(rel, built.url), { method: 'HEAD' });
+        expect(res.status, rel).toBe(200);
+        expect(res.headers.get('content-type'), rel).toBe(IANA[ext]);
+      }
+    } finally {
+      await built.close();
+    }
   });
 });

@@ -1,0 +1,391 @@
+/**
+ * The physics stage's formulas as the methods page shows them: equation, symbols, constants and
+ * sources (pipeline/model/sources.ts). Exported constants are imported, never copied. Numbers the
+ * code writes inside a function are listed with that function as `code`, and
+ * test/physics/methods.test.ts evaluates each such method with the listed values against the
+ * function; equations print the listed constants themselves (`eq`), so the page cannot drift
+ * from the code.
+ */
+import { eq, type MethodConstant, type MethodGroup } from '../model/sources.ts';
+import {
+  ALB_GLOBE, ALB_SFC, ALB_WICK, CP_AIR, CZA_MIN, D_GLOBE, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
+  L_WICK, MIN_SPEED, MOIST_AIR_FACTOR, M_AIR, M_H2O, NORMSOLAR_MAX, PRANDTL, RATIO, REF_HEIGHT, R_AIR, R_GAS, SIGMA_LJ_AIR,
+  SOLAR_CONSTANT, STEFAN_BOLTZMANN, WBGT_WEIGHT_AIR, WBGT_WEIGHT_GLOBE, WBGT_WEIGHT_WET_BULB, WICK_EXPONENT,
+  WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN,
+} from './constants.ts';
+import { MAX_ITERATIONS, ROOT_TOLERANCE_K } from './liljegren-solve.ts';
+import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from './solar-position.ts';
+
+const C = 'pipeline/physics/constants.ts';
+const HUM = 'pipeline/physics/humidity.ts saturationVaporPressureBuck1981()';
+const VISC = 'pipeline/physics/air-properties.ts airViscosity()';
+const COND = 'pipeline/physics/air-properties.ts airThermalConductivity()';
+const DIFF = 'pipeline/physics/air-properties.ts vaporDiffusivity()';
+const LAT = 'pipeline/physics/air-properties.ts latentHeat()';
+const EMIS = 'pipeline/physics/air-properties.ts atmosphericEmissivity()';
+const SPH = 'pipeline/physics/air-properties.ts sphereHeatTransfer()';
+const CYL = 'pipeline/physics/air-properties.ts cylinderHeatTransfer()';
+const SUN = 'pipeline/physics/solar-position.ts sunState()';
+const REFR = 'pipeline/physics/solar-position.ts refractionDeg()';
+const FDIR = 'pipeline/physics/solar-inputs.ts directFractionExact()';
+
+/** A constant exported by constants.ts. */
+function exported(symbol: string, name: string, value: number, unit: string, exportName: string, derived?: string): MethodConstant {
+  return { symbol, name, value, unit, code: `${C}#${exportName}`, ...(derived ? { derived } : {}) };
+}
+
+/** A number written inside `code` (a function). */
+function literal(symbol: string, name: string, value: number, unit: string, code: string): MethodConstant {
+  return { symbol, name, value, unit, code };
+}
+
+// Shared constants.
+const SIGMA = exported('σ', 'Stefan–Boltzmann constant (as coded in the reference)', STEFAN_BOLTZMANN, 'W m⁻² K⁻⁴', 'STEFAN_BOLTZMANN');
+const EPS_SFC = exported('ε_sfc', 'ground emissivity', EMIS_SFC, '–', 'EMIS_SFC');
+const A_SFC = exported('α_sfc', 'ground albedo', ALB_SFC, '–', 'ALB_SFC');
+const U_MIN = exported('u_min', 'lowest wind speed used', MIN_SPEED, 'm s⁻¹', 'MIN_SPEED');
+const CZA = exported('CZA_min', 'cosine of zenith below which the sun counts as down, cos 89.5°', CZA_MIN, '–', 'CZA_MIN');
+const D_W = exported('D_w', 'wick diameter', D_WICK, 'm', 'D_WICK');
+const TOL: MethodConstant = { symbol: 'δ', name: 'Newton step below which a solve stops', value: ROOT_TOLERANCE_K, unit: 'K', code: 'pipeline/physics/liljegren-solve.ts#ROOT_TOLERANCE_K' };
+const ITER: MethodConstant = { symbol: 'n_max', name: 'most iterations per solve (then no value, counted)', value: MAX_ITERATIONS, unit: '–', code: 'pipeline/physics/liljegren-solve.ts#MAX_ITERATIONS' };
+
+// Saturation vapour pressure (Buck 1981 × moist-air factor).
+const ES_A = literal('a', 'Buck 1981 prefactor', 6.1121, 'hPa', HUM);
+const ES_B = literal('b', 'Buck 1981 coefficient', 17.502, '–', HUM);
+const ES_C = literal('c', 'Buck 1981 coefficient', 240.97, '°C', HUM);
+const ES_F = exported('f_w', 'moist-air factor (the reference code\u2019s constant where pressure is not used)', MOIST_AIR_FACTOR, '–', 'MOIST_AIR_FACTOR');
+
+// Properties of air.
+const MU0 = literal('μ₀', 'viscosity prefactor (gives μ in kg m⁻¹ s⁻¹ with T in K, M_a in kg kmol⁻¹ and σ_LJ in Å)', 2.6693e-6, '–', VISC);
+const OM0 = literal('Ω₀', 'collision-integral intercept', 1.048, '–', VISC);
+const OM1 = literal('Ω₁', 'collision-integral slope', 0.034, '–', VISC);
+const OM2 = literal('Ω₂', 'collision-integral offset', 2.9, '–', VISC);
+const OM3 = literal('Ω₃', 'collision-integral divisor', 0.4, '–', VISC);
+const K125 = literal('k₁', 'factor on R_air in the conductivity (Eucken form, as coded)', 1.25, '–', COND);
+const DV0 = literal('D₀', 'diffusivity prefactor', 3.64e-4, '–', DIFF);
+const DV1 = literal('n_D', 'diffusivity temperature exponent', 2.334, '–', DIFF);
+const TC_A = literal('T_c,a', 'critical temperature of air', 132, 'K', DIFF);
+const TC_W = literal('T_c,w', 'critical temperature of water', 647.3, 'K', DIFF);
+const PC_A = literal('P_c,a', 'critical pressure of air', 36.4, 'atm', DIFF);
+const PC_W = literal('P_c,w', 'critical pressure of water', 218, 'atm', DIFF);
+const P0 = literal('P₀', 'standard pressure', 1013.25, 'hPa', DIFF);
+const LH0 = literal('ΔH₀', 'latent heat at 313.15 K', 2.4073e6, 'J kg⁻¹', LAT);
+const LH1 = literal('ΔH₁', 'change of latent heat per 30 K', 71100, 'J kg⁻¹', LAT);
+const LH2 = literal('T_ΔH', 'reference temperature of the latent heat', 313.15, 'K', LAT);
+
+// Sky emissivity.
+const EA0 = literal('a_ε', 'emissivity prefactor', 0.575, '–', EMIS);
+const EA1 = literal('b_ε', 'emissivity exponent', 0.143, '–', EMIS);
+
+// Convective heat transfer.
+const SPH_A = literal('a_s', 'sphere: coefficient of the Reynolds term', 0.6, '–', SPH);
+const SPH_N = literal('n_s', 'sphere: Prandtl exponent', 0.3333, '–', SPH);
+const CYL_A = literal('a_c', 'cylinder: coefficient', 0.281, '–', CYL);
+const CYL_M = literal('m_c', 'cylinder: Reynolds exponent', 0.6, '–', CYL);
+const CYL_N = literal('n_c', 'cylinder: Prandtl exponent', 0.44, '–', CYL);
+
+// WBGT weights.
+const W_NW = exported('w_nw', 'weight of the natural wet bulb', WBGT_WEIGHT_WET_BULB, '–', 'WBGT_WEIGHT_WET_BULB');
+const W_G = exported('w_g', 'weight of the globe temperature', WBGT_WEIGHT_GLOBE, '–', 'WBGT_WEIGHT_GLOBE');
+const W_A = exported('w_a', 'weight of the air temperature', WBGT_WEIGHT_AIR, '–', 'WBGT_WEIGHT_AIR');
+
+// Sun position (Almanac low-precision formulas).
+const JD0 = literal('JD₀', 'Julian date of J2000.0', 2451545.0, 'd', SUN);
+const L0 = literal('L₀', 'mean longitude at J2000.0', 280.46, '°', SUN);
+const L1 = literal('L₁', 'rate of the mean longitude', 0.9856474, '° d⁻¹', SUN);
+const G0 = literal('g₀', 'mean anomaly at J2000.0', 357.528, '°', SUN);
+const G1 = literal('g₁', 'rate of the mean anomaly', 0.9856003, '° d⁻¹', SUN);
+const EC1 = literal('c₁', 'equation of centre, first term', 1.915, '°', SUN);
+const EC2 = literal('c₂', 'equation of centre, second term', 0.02, '°', SUN);
+const OB0 = literal('ε₀', 'obliquity at J2000.0', 23.439, '°', SUN);
+const OB1 = literal('ε₁', 'rate of the obliquity', 4e-7, '° d⁻¹', SUN);
+const GM0 = literal('G₀', 'sidereal time at J2000.0', 6.697375, 'h', SUN);
+const GM1 = literal('G₁', 'rate of the sidereal time', 0.0657098242, 'h d⁻¹', SUN);
+const DS0 = literal('d₀', 'distance, constant term', 1.00014, 'AU', SUN);
+const DS1 = literal('d₁', 'distance, cos g term', 0.01671, 'AU', SUN);
+const DS2 = literal('d₂', 'distance, cos 2g term', 0.00014, 'AU', SUN);
+
+// Refraction.
+const R0 = literal('r₀', 'overall factor', 3.51561, '°', REFR);
+const R1 = literal('r₁', 'numerator constant', 0.1594, '–', REFR);
+const R2 = literal('r₂', 'numerator, e term', 0.0196, '°⁻¹', REFR);
+const R3 = literal('r₃', 'numerator, e² term', 0.00002, '°⁻²', REFR);
+const R4 = literal('r₄', 'denominator, e term', 0.505, '°⁻¹', REFR);
+const R5 = literal('r₅', 'denominator, e² term', 0.0845, '°⁻²', REFR);
+const R6 = literal('e_min', 'lowest elevation corrected', -0.56, '°', REFR);
+
+// Solar load and the direct share.
+const S0 = exported('S₀', 'solar constant', SOLAR_CONSTANT, 'W m⁻²', 'SOLAR_CONSTANT');
+const SMAX = exported('s_max', 'cap on solar / top-of-atmosphere solar', NORMSOLAR_MAX, '–', 'NORMSOLAR_MAX');
+const FMAX = exported('f_max', 'largest estimated direct share', FDIR_MAX, '–', 'FDIR_MAX');
+const K0 = literal('k₀', 'direct-share estimate, constant', 3, '–', FDIR);
+const K1 = literal('k₁', 'direct-share estimate, s* term', 1.34, '–', FDIR);
+const K2 = literal('k₂', 'direct-share estimate, 1/s* term', 1.65, '–', FDIR);
+
+// Wind.
+const ZREF = exported('z_ref', 'height of the instruments', REF_HEIGHT, 'm', 'REF_HEIGHT');
+
+export const PHYSICS_METHODS: MethodGroup = {
+  id: 'physics',
+  title: 'From weather to WBGT',
+  intro:
+    'Every land cell and hour: humidity, the position of the sun, the wind at 2 m, then the globe and natural wet-bulb temperatures of the Liljegren et al. (2008) model, solved to the exact root, and the WBGT in the sun and in the shade.',
+  methods: [
+    {
+      id: 'saturation-vapour-pressure',
+      name: 'Saturation vapour pressure and the air\u2019s vapour pressure',
+      summary: 'Vapour pressure over liquid water at a temperature; the air\u2019s vapour pressure is its value at the dew point.',
+      equation: [
+        eq`e_s(T) = ${ES_F} · ${ES_A} · exp(${ES_B}·T / (T + ${ES_C}))`,
+        'e_a = e_s(T_d),   RH = 100 · e_s(T_d) / e_s(T_a)',
+        'T_d is set to T_a where the data give a dew point above the air temperature (the build counts these hours)',
+      ],
+      symbols: [
+        { symbol: 'T', meaning: 'temperature', unit: '°C' },
+        { symbol: 'T_a, T_d', meaning: 'air temperature and dew point at 2 m', unit: '°C' },
+        { symbol: 'e_s, e_a', meaning: 'saturation and actual vapour pressure', unit: 'hPa' },
+        { symbol: 'RH', meaning: 'relative humidity', unit: '%' },
+      ],
+      constants: [ES_A, ES_B, ES_C, ES_F],
+      sources: ['buck1981', 'liljegren2008'],
+      code: ['pipeline/physics/humidity.ts saturationVaporPressureModel()', 'pipeline/physics/property-tables.ts (tabulated for the kernel)'],
+      notes: ['The moist-air factor cancels in RH; it matters in the wick balance, where e_s enters an absolute balance.'],
+    },
+    {
+      id: 'air-properties',
+      name: 'Properties of air',
+      summary:
+        'Density, viscosity, thermal conductivity, vapour diffusivity and latent heat of the air around the globe and the wick, at the film temperature T (the mean of the surface and air temperatures).',
+      equation: [
+        'ρ = 100·P / (R_air·T)',
+        eq`Ω = ${OM0} − ${OM1}·(T/(ε/κ) − ${OM2})/${OM3},   μ = ${MU0}·√(M_a·T) / (σ_LJ²·Ω)`,
+        eq`k = (c_p + ${K125}·R_air)·μ`,
+        eq`D_v = ${DV0}·(T/√(${TC_A}·${TC_W}))^${DV1}·(${PC_A}·${PC_W})^(1/3)·(${TC_A}·${TC_W})^(5/12)·√(1/M_a + 1/M_w) / (P/${P0})·10⁻⁴`,
+        eq`ΔH = ${LH0} − ${LH1}·(${LH2} − T)/30`,
+      ],
+      symbols: [
+        { symbol: 'T', meaning: 'film temperature', unit: 'K' },
+        { symbol: 'P', meaning: 'surface pressure', unit: 'hPa' },
+        { symbol: 'ρ', meaning: 'air density', unit: 'kg m⁻³' },
+        { symbol: 'μ', meaning: 'dynamic viscosity', unit: 'kg m⁻¹ s⁻¹' },
+        { symbol: 'k', meaning: 'thermal conductivity', unit: 'W m⁻¹ K⁻¹' },
+        { symbol: 'D_v', meaning: 'diffusivity of water vapour in air', unit: 'm² s⁻¹' },
+        { symbol: 'ΔH', meaning: 'latent heat of vaporisation', unit: 'J kg⁻¹' },
+      ],
+      constants: [
+        exported('c_p', 'specific heat of dry air', CP_AIR, 'J kg⁻¹ K⁻¹', 'CP_AIR'),
+        exported('M_a', 'molar mass of dry air', M_AIR, 'kg kmol⁻¹', 'M_AIR'),
+        exported('M_w', 'molar mass of water', M_H2O, 'kg kmol⁻¹', 'M_H2O'),
+        exported('R', 'universal gas constant', R_GAS, 'J kmol⁻¹ K⁻¹', 'R_GAS'),
+        exported('R_air', 'gas constant of dry air', R_AIR, 'J kg⁻¹ K⁻¹', 'R_AIR', 'R/M_a'),
+        exported('σ_LJ', 'Lennard-Jones collision diameter of air', SIGMA_LJ_AIR, 'Å', 'SIGMA_LJ_AIR'),
+        exported('ε/κ', 'Lennard-Jones well depth of air', EPS_K_AIR, 'K', 'EPS_K_AIR'),
+        MU0, OM0, OM1, OM2, OM3, K125, DV0, DV1, TC_A, TC_W, PC_A, PC_W, P0, LH0, LH1, LH2,
+      ],
+      sources: ['bsl1960', 'liljegren2008'],
+      code: [
+        'pipeline/physics/air-properties.ts airDensity(), airViscosity(), airThermalConductivity(), vaporDiffusivity(), latentHeat()',
+        'pipeline/physics/property-tables.ts (tabulated at 0.25 K)',
+      ],
+    },
+    {
+      id: 'atmospheric-emissivity',
+      name: 'Emissivity of the sky',
+      summary: 'The long-wave radiation the globe and the wick receive from the sky, from the air\u2019s vapour pressure.',
+      equation: [eq`ε_a = ${EA0} · e_a^${EA1}`, 'long-wave load ½·(ε_a + ε_sfc)·σ·T_a⁴ (the ground is taken at the air temperature)'],
+      symbols: [
+        { symbol: 'ε_a', meaning: 'emissivity of the atmosphere', unit: '–' },
+        { symbol: 'e_a', meaning: 'vapour pressure of the air', unit: 'hPa' },
+      ],
+      constants: [EA0, EA1, EPS_SFC, SIGMA],
+      sources: ['oke1987', 'liljegren2008'],
+      code: [`${EMIS}`, 'pipeline/physics/property-tables.ts (with the dew-point table)'],
+    },
+    {
+      id: 'heat-transfer',
+      name: 'Convective heat transfer of the globe and the wick',
+      summary: 'How fast the air carries heat to or from the 2-inch globe (a sphere) and the wick (a cylinder across the flow).',
+      equation: [
+        'Re = u·ρ·D/μ   with u = max(u₂, u_min)',
+        eq`globe (sphere):   Nu = 2 + ${SPH_A}·√Re·Pr^${SPH_N}`,
+        eq`wick (cylinder):   Nu = ${CYL_A}·Re^${CYL_M}·Pr^${CYL_N}`,
+        'h = Nu·k/D,   Pr = c_p/(c_p + 1.25·R_air)',
+      ],
+      symbols: [
+        { symbol: 'u₂', meaning: 'wind speed at 2 m', unit: 'm s⁻¹' },
+        { symbol: 'D', meaning: 'globe or wick diameter', unit: 'm' },
+        { symbol: 'Re, Nu, Pr', meaning: 'Reynolds, Nusselt and Prandtl numbers', unit: '–' },
+        { symbol: 'h', meaning: 'heat-transfer coefficient', unit: 'W m⁻² K⁻¹' },
+      ],
+      constants: [
+        U_MIN,
+        exported('D_g', 'globe diameter (the model\u2019s 2-inch globe, not the ISO 150 mm globe)', D_GLOBE, 'm', 'D_GLOBE'),
+        D_W,
+        exported('Pr', 'Prandtl number of air', PRANDTL, '–', 'PRANDTL', 'c_p/(c_p + 1.25·R_air)'),
+        K125,
+        SPH_A, SPH_N, CYL_A, CYL_M, CYL_N,
+      ],
+      sources: ['bsl1960', 'bedingfield1950', 'liljegren2008'],
+      code: ['pipeline/physics/air-properties.ts sphereHeatTransfer(), cylinderHeatTransfer()', 'pipeline/physics/liljegren-solve.ts (the same, with terms hoisted per cell)'],
+    },
+    {
+      id: 'globe-temperature',
+      name: 'Globe temperature',
+      summary: 'The temperature of a black globe in the sun (in the shade: S = 0), the root of its energy balance.',
+      equation: [
+        'T_g⁴ = ½·(ε_a + ε_sfc)·T_a⁴ − h_g/(ε_g·σ)·(T_g − T_a) + (1 − α_g)/(2·ε_g·σ) · S · [f_dir·(1/(2·cos θ) − 1) + 1 + α_sfc]',
+        'h_g at the film temperature (T_g + T_a)/2; below cos θ = CZA_min the beam counts as diffuse (f_dir = 0)',
+      ],
+      symbols: [
+        { symbol: 'T_g, T_a', meaning: 'globe and air temperature (T [K] = T [°C] + K)', unit: 'K' },
+        { symbol: 'S', meaning: 'global horizontal solar irradiance, hour mean, after the cap', unit: 'W m⁻²' },
+        { symbol: 'f_dir', meaning: 'direct-beam share of S', unit: '–' },
+        { symbol: 'θ', meaning: 'solar zenith angle', unit: '°' },
+      ],
+      constants: [
+        SIGMA,
+        exported('ε_g', 'globe emissivity', EMIS_GLOBE, '–', 'EMIS_GLOBE'),
+        exported('α_g', 'globe albedo', ALB_GLOBE, '–', 'ALB_GLOBE'),
+        EPS_SFC,
+        A_SFC,
+        CZA,
+        exported('K', 'kelvin offset', KELVIN, 'K', 'KELVIN'),
+        TOL,
+        ITER,
+      ],
+      sources: ['liljegren2008'],
+      code: ['pipeline/physics/liljegren-solve.ts solveGlobe(), globeRoot()', 'pipeline/physics/kernel.ts wbgtKernel()'],
+      notes: ['Solved to the exact root by safeguarded Newton iteration with analytic derivatives; the reference code\u2019s damped loop stops up to about 0.015 °C away from it.'],
+    },
+    {
+      id: 'natural-wet-bulb',
+      name: 'Natural wet-bulb temperature',
+      summary: 'The temperature of a wet wick exposed to the air and the sun (in the shade: S = 0), not ventilated: the root of its energy and mass balance.',
+      equation: [
+        'T_w = T_a − (ΔH/RATIO) · (e_w − e_a)/(P − e_w) · (Pr/Sc)^a + ΔF/h_w',
+        'ΔF = σ·ε_w·(½·(ε_a + ε_sfc)·T_a⁴ − T_w⁴) + (1 − α_w)·S·[(1 − f_dir)·(1 + D_w/(4·L_w)) + f_dir·(tan θ/π + D_w/(4·L_w)) + α_sfc]',
+        'e_w = e_s(T_w); properties at (T_w + T_a)/2; the psychrometric wet bulb is the same balance without ΔF',
+      ],
+      symbols: [
+        { symbol: 'T_w', meaning: 'natural wet-bulb temperature', unit: 'K' },
+        { symbol: 'Sc', meaning: 'Schmidt number μ/(ρ·D_v)', unit: '–' },
+        { symbol: 'h_w', meaning: 'heat-transfer coefficient of the wick', unit: 'W m⁻² K⁻¹' },
+        { symbol: 'ΔF', meaning: 'net radiation gained by the wick', unit: 'W m⁻²' },
+      ],
+      constants: [
+        SIGMA,
+        exported('ε_w', 'wick emissivity', EMIS_WICK, '–', 'EMIS_WICK'),
+        exported('α_w', 'wick albedo', ALB_WICK, '–', 'ALB_WICK'),
+        D_W,
+        exported('L_w', 'wick length', L_WICK, 'm', 'L_WICK'),
+        exported('a', 'exponent of Pr/Sc (mass-transfer analogy)', WICK_EXPONENT, '–', 'WICK_EXPONENT'),
+        exported('RATIO', 'c_p·M_a/M_w', RATIO, 'J kg⁻¹ K⁻¹', 'RATIO', 'c_p·M_a/M_w'),
+        EPS_SFC,
+        A_SFC,
+        TOL,
+        ITER,
+      ],
+      sources: ['liljegren2008'],
+      code: ['pipeline/physics/liljegren-solve.ts solveWetBulb(), wetBulbRoot()', 'pipeline/physics/kernel.ts wbgtKernel()'],
+    },
+    {
+      id: 'wbgt',
+      name: 'Wet-bulb globe temperature (WBGT)',
+      summary: 'The outdoor WBGT from the three temperatures; the shade WBGT is the same model with no solar load (long-wave exchange kept).',
+      equation: [eq`WBGT = ${W_NW}·T_nw + ${W_G}·T_g + ${W_A}·T_a`],
+      symbols: [
+        { symbol: 'T_nw', meaning: 'natural wet-bulb temperature', unit: '°C' },
+        { symbol: 'T_g', meaning: 'globe temperature', unit: '°C' },
+        { symbol: 'T_a', meaning: 'air temperature', unit: '°C' },
+      ],
+      constants: [W_NW, W_G, W_A],
+      sources: ['iso7243-2017', 'liljegren2008'],
+      code: ['pipeline/physics/kernel.ts wbgtKernel()'],
+    },
+    {
+      id: 'sun-position',
+      name: 'Position of the sun',
+      summary: 'Declination, right ascension, sidereal time and Earth–Sun distance at the middle of each hour, and the cosine of the zenith angle per cell.',
+      equation: [
+        eq`n = JD − ${JD0}`,
+        eq`L = ${L0} + ${L1}·n,   g = ${G0} + ${G1}·n   (degrees)`,
+        eq`λ = L + ${EC1}·sin g + ${EC2}·sin 2g,   ε = ${OB0} − ${OB1}·n`,
+        'sin δ = sin ε·sin λ,   α = atan2(cos ε·sin λ, cos λ)',
+        eq`GMST = ${GM0} + ${GM1}·n + UT   (hours),   h = 15·GMST + lon − α`,
+        'cos θ = sin φ·sin δ + cos φ·cos δ·cos h',
+        eq`d = ${DS0} − ${DS1}·cos g − ${DS2}·cos 2g`,
+      ],
+      symbols: [
+        { symbol: 'JD', meaning: 'Julian date', unit: 'd' },
+        { symbol: 'δ, α', meaning: 'declination and right ascension', unit: '°' },
+        { symbol: 'h, φ, lon', meaning: 'hour angle, latitude, longitude', unit: '°' },
+        { symbol: 'd', meaning: 'Earth–Sun distance', unit: 'AU' },
+      ],
+      constants: [
+        JD0, L0, L1, G0, G1, EC1, EC2, OB0, OB1, GM0, GM1, DS0, DS1, DS2,
+        { symbol: 'Y₀', name: 'first year the formulas are used for', value: SOLAR_FIRST_YEAR, unit: 'year', code: 'pipeline/physics/solar-position.ts#SOLAR_FIRST_YEAR' },
+        { symbol: 'Y₁', name: 'last year the formulas are used for', value: SOLAR_LAST_YEAR, unit: 'year', code: 'pipeline/physics/solar-position.ts#SOLAR_LAST_YEAR' },
+      ],
+      sources: ['michalsky1988', 'liljegren2008'],
+      code: [`${SUN}, hourAngle(), cosZenithInstant()`, 'pipeline/physics/geometry.ts geometryBlock()'],
+      notes: ['Hours outside the years the formulas are documented for get no value (status "time out of range").'],
+    },
+    {
+      id: 'refraction',
+      name: 'Refraction near the horizon',
+      summary: 'The apparent elevation of the sun, for the standard atmosphere (1013.25 hPa, 15 °C).',
+      equation: [
+        eq`R = ${R0}·(${R1} + ${R2}·e + ${R3}·e²) / (1 + ${R4}·e + ${R5}·e²)   for e ≥ ${R6}°, else 0`,
+        'apparent elevation = e + R (at most 90°)',
+      ],
+      symbols: [
+        { symbol: 'e', meaning: 'geometric elevation of the sun', unit: '°' },
+        { symbol: 'R', meaning: 'refraction', unit: '°' },
+      ],
+      constants: [R0, R1, R2, R3, R4, R5, R6],
+      sources: ['michalsky1988'],
+      code: [`${REFR}, apparentCosZenith()`],
+    },
+    {
+      id: 'solar-load',
+      name: 'Solar load and its direct share',
+      summary:
+        'The reanalysis hour-mean irradiance is capped against the top of the atmosphere; the direct share comes from the data (ERA5 fdir/ssrd) or, without it, from the clearness.',
+      equation: [
+        'S_toa = S₀·cos θ/d²,   S = min(S_data, s_max·S_toa),   s* = S/S_toa',
+        eq`f_dir = fdir/ssrd (ERA5), or without it min(exp(${K0} − ${K1}·s* − ${K2}/s*), f_max)`,
+        'cos θ < CZA_min: S kept as given, f_dir = 0 (all diffuse)',
+      ],
+      symbols: [
+        { symbol: 'S_data', meaning: 'global horizontal irradiance, hour mean (ssrd/3600)', unit: 'W m⁻²' },
+        { symbol: 's*', meaning: 'clearness index after the cap', unit: '–' },
+      ],
+      constants: [S0, SMAX, FMAX, CZA, K0, K1, K2],
+      sources: ['liljegren2008', 'ecmwf-era5'],
+      code: ['pipeline/physics/solar-inputs.ts solarUsed(), directFractionEstimate()', 'pipeline/physics/geometry.ts geometryBlock()'],
+      notes: ['ERA5 radiation is an accumulation over the hour ending at the time stamp; the sun\u2019s position is taken at the middle of that hour.'],
+    },
+    {
+      id: 'wind-2m',
+      name: 'Wind at 2 m',
+      summary: 'The reanalysis 10 m wind brought down to the 2 m of the instruments by a power law whose exponent depends on the stability of the air.',
+      equation: [
+        'u₂ = max(u_z · (z_ref/z)^p, u_min),   z = 10 m',
+        'p by stability class A–F (day: from wind and solar; night: from wind, with ΔT = 0, i.e. the stable column)',
+      ],
+      symbols: [
+        { symbol: 'u_z', meaning: 'wind speed at height z (from u10, v10)', unit: 'm s⁻¹' },
+        { symbol: 'p', meaning: 'power-law exponent', unit: '–' },
+      ],
+      constants: [
+        ZREF,
+        U_MIN,
+        ...WIND_EXPONENT_RURAL.map((v, i) => exported(`p_rural,${'ABCDEF'[i]}`, `exponent, rural, class ${'ABCDEF'[i]}`, v, '–', `WIND_EXPONENT_RURAL.${i}`)),
+        ...WIND_EXPONENT_URBAN.map((v, i) => exported(`p_urban,${'ABCDEF'[i]}`, `exponent, urban, class ${'ABCDEF'[i]}`, v, '–', `WIND_EXPONENT_URBAN.${i}`)),
+      ],
+      sources: ['epa2000', 'liljegren2008'],
+      code: ['pipeline/physics/wind.ts stabilityClass(), windAt2m(), wind2mStep()'],
+      notes: ['The rural exponents are used unless a cell is flagged urban. Reanalysis has no vertical temperature difference, so nights use the stable column (the lower 2 m wind).'],
+    },
+  ],
+};

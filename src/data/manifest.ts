@@ -1,0 +1,173 @@
+/**
+ * Typed access to `data/manifest.json` (type {@link Manifest}, written by the pipeline's publish
+ * step, pipeline/publish/manifest.ts): what this build is (atlas, inputs with digests, years,
+ * code version, configuration digest, build time), the work settings, the figures, the layers with
+ * their legends, and every published file with its kind, units, size and digest.
+ *
+ * A zod schema that mirrors the interface (checked against it at compile time), with the checks
+ * the pages rely on: paths stay inside `data/` (they become links), digests are SHA-256 hex, each
+ * layer's PNG and GeoTIFF are listed among the artefacts, no path is listed twice.
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { z } from 'zod';
+import type { Manifest } from '../../pipeline/publish/manifest.ts';
+import { siteDataDir } from './data-dir.ts';
+import { readValidatedJson } from './read-json.ts';
+
+const isoInstant = z.string().refine((s) => !Number.isNaN(Date.parse(s)), 'not an ISO 8601 date-time');
+const yearRange = z.tuple([z.number().int(), z.number().int()]).refine(([a, b]) => a <= b, 'first year after last year');
+const sha256 = z.string().regex(/^[0-9a-f]{64}$/, 'not a lower-case hex SHA-256');
+/** A path below the site root inside data/, without `..`, backslashes or a scheme: it becomes a link. */
+const dataPath = z
+  .string()
+  .regex(/^data\/[A-Za-z0-9._\/-]+$/, 'not a path inside data/ (letters, digits, . _ - /)')
+  .refine((p) => !p.split('/').includes('..'), 'a path may not contain ..');
+const lonLat = z.tuple([z.number(), z.number()]);
+const corners = z.tuple([lonLat, lonLat, lonLat, lonLat]);
+
+const legendSchema = z.object({
+  kind: z.enum(['continuous', 'stepped', 'categorical']),
+  title: z.string().optional(),
+  units: z.string(),
+  ramp: z.string(),
+  reversed: z.boolean(),
+  domain: z.tuple([z.number(), z.number()]).nullable(),
+  stops: z.array(z.object({ value: z.number(), color: z.string().regex(/^#[0-9a-f]{6}$/i, 'not a #rrggbb colour'), label: z.string().optional() })),
+  breaks: z.array(z.number()).optional(),
+  labels: z.array(z.string()),
+  outOfDomain: z.enum(['clamped', 'error']),
+  noData: z.object({ color: z.literal('transparent'), meaning: z.string() }),
+});
+
+const layerSchema = z.object({
+  id: z.string().min(1),
+  figure: z.string().min(1),
+  combo: z.string().min(1),
+  statistic: z.enum(['mean', 'p90', 'baseline', 'class']),
+  period: z.string().regex(/^(0[1-9]|1[0-2]|year)$/, 'period must be 01–12 or year'),
+  units: z.string(),
+  png: dataPath,
+  tif: dataPath,
+  pngSha256: sha256,
+  tifSha256: sha256,
+  coordinates: corners,
+  mapImages: z.array(z.object({ path: dataPath, sha256, coordinates: corners, width: z.number().int().positive(), height: z.number().int().positive() })).min(1),
+  legend: legendSchema,
+});
+
+const artefactSchema = z.object({
+  path: dataPath,
+  kind: z.enum(['table', 'layer-png', 'layer-geotiff', 'json', 'geojson', 'histogram']),
+  units: z.string().optional(),
+  description: z.string(),
+  bytes: z.number().int().nonnegative(),
+  sha256,
+});
+
+const inputSchema = z.object({
+  name: z.string().min(1),
+  bytes: z.number().int().nonnegative(),
+  sha256,
+  format: z.enum(['netcdf3-classic', 'netcdf3-64bit-offset', 'netcdf4']),
+  layout: z.enum(['era5-legacy', 'era5-cds-2024', 'other']),
+  timeStart: isoInstant.or(z.literal('')),
+  timeEnd: isoInstant.or(z.literal('')),
+  variables: z.array(z.string()),
+});
+
+const rateSchema = z.number().positive();
+
+/** The work settings as the build resolved them (pipeline/run/build-atlas.ts writes them). */
+export const manifestWorkSchema = z.object({
+  classesFile: z.string(),
+  classes: z.array(z.object({ id: z.string().min(1), name: z.string().min(1), metabolicRate: rateSchema, description: z.string() })).min(1),
+  limitModel: z.enum(['curve-2017', 'table-1989']),
+  airMovement: z.boolean(),
+  acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
+  exposures: z.array(z.enum(['sun', 'shade'])).min(1),
+  restLocation: z.enum(['same-place', 'shade']),
+  clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
+  shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()) }),
+  /** Clothing adjustment value used [°C-WBGT]. */
+  clothingAdjustment: z.number(),
+  rest: z.object({ name: z.string(), metabolicRate: rateSchema, description: z.string() }),
+  cautions: z.array(z.object({ id: z.string().min(1), text: z.string().min(1), basis: z.string() })),
+});
+
+export type ManifestWork = z.infer<typeof manifestWorkSchema>;
+
+export const manifestSchema = z
+  .object({
+    manifestVersion: z.literal(1),
+    atlas: z.object({ id: z.string().min(1), title: z.string().min(1), invented: z.boolean(), attribution: z.string().optional() }),
+    buildTime: isoInstant,
+    codeVersion: z.string().min(1),
+    configDigest: sha256,
+    inputs: z.array(inputSchema),
+    years: yearRange,
+    baseline: yearRange,
+    latestYear: z.number().int(),
+    timeZone: z.string().min(1),
+    work: manifestWorkSchema,
+    figures: z.array(z.object({ id: z.string().min(1), label: z.string().min(1), units: z.string(), combos: z.array(z.string().min(1)) })),
+    statistics: z.record(z.string()),
+    counts: z.record(z.number()),
+    layers: z.array(layerSchema),
+    artefacts: z.array(artefactSchema),
+  })
+  .superRefine((m, ctx) => {
+    const paths = new Set<string>();
+    m.artefacts.forEach((a, i) => {
+      if (paths.has(a.path)) ctx.addIssue({ code: 'custom', message: `${a.path} is listed twice`, path: ['artefacts', i, 'path'] });
+      paths.add(a.path);
+    });
+    m.layers.forEach((l, i) => {
+      for (const key of ['png', 'tif'] as const) {
+        if (!paths.has(l[key])) ctx.addIssue({ code: 'custom', message: `${l[key]} is not among the artefacts`, path: ['layers', i, key] });
+      }
+    });
+  });
+
+/** The manifest as the pages see it: {@link Manifest} with its work settings typed. */
+export type SiteManifest = z.infer<typeof manifestSchema>;
+export type ManifestLayer = SiteManifest['layers'][number];
+export type ManifestArtefact = SiteManifest['artefacts'][number];
+
+// Compile-time proof that the schema and the published interface describe the same thing
+// (the interface types `work` as unknown; the schema says what it holds).
+type Parsed = z.infer<typeof manifestSchema>;
+const _toInterface = (v: Parsed): Manifest => v;
+const _fromInterface = (v: Omit<Manifest, 'work'>): Omit<Parsed, 'work'> => v;
+void _toInterface;
+void _fromInterface;
+
+/** Path of the manifest inside a data folder. */
+export function manifestPath(dataDir: string): string {
+  return join(dataDir, 'data', 'manifest.json');
+}
+
+const cache = new Map<string, { stamp: string; manifest: SiteManifest }>();
+
+/**
+ * Reads and validates the manifest of `dataDir` (default: the build's data folder). Catalogued
+ * errors: SiteDataMissing, SiteDataUnreadable, SiteDataInvalid (with the key). Every page reads
+ * it and the file is large, so it is parsed once per path, size and modification time.
+ */
+export function loadManifest(dataDir: string = siteDataDir()): SiteManifest {
+  const path = manifestPath(dataDir);
+  const info = statSync(path, { throwIfNoEntry: false });
+  const stamp = info ? `${info.size}:${info.mtimeMs}` : '';
+  const hit = cache.get(path);
+  if (hit && info && hit.stamp === stamp) return hit.manifest;
+  const manifest = readValidatedJson(path, manifestSchema, 'build manifest (data/manifest.json)');
+  cache.set(path, { stamp, manifest });
+  return manifest;
+}
+
+/** Size [bytes] and SHA-256 of the manifest file itself (it cannot list its own digest). */
+export function manifestFileFacts(dataDir: string = siteDataDir()): { bytes: number; sha256: string } {
+  const bytes = readFileSync(manifestPath(dataDir));
+  return { bytes: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex') };
+}

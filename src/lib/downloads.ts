@@ -1,0 +1,98 @@
+/**
+ * The downloads page's grouping of the manifest: tables, map layers by figure and combination
+ * (each with its GeoTIFF and PNG), and every other file, so that every artefact of the manifest
+ * is listed exactly once. Pure: manifest in, groups out.
+ */
+import type { SiteManifest, ManifestArtefact, ManifestLayer } from '../data/manifest.ts';
+import { comboLabel, periodOrder } from './layer-labels.ts';
+
+/** One layer's two files. */
+export interface LayerDownload {
+  layer: ManifestLayer;
+  tif: ManifestArtefact;
+  png: ManifestArtefact;
+}
+
+/** The layers of one figure × combination, by period (rows) and statistic (columns). */
+export interface ComboGroup {
+  combo: string;
+  label: string;
+  statistics: string[];
+  periods: string[];
+  /** `${period}|${statistic}` → the layer. */
+  cells: Map<string, LayerDownload>;
+  bytes: number;
+}
+
+export interface FigureGroup {
+  id: string;
+  label: string;
+  units: string;
+  combos: ComboGroup[];
+  layerCount: number;
+  bytes: number;
+}
+
+export interface DownloadGroups {
+  tables: ManifestArtefact[];
+  figures: FigureGroup[];
+  /** Every artefact that is neither a table nor a layer's GeoTIFF or PNG. */
+  others: ManifestArtefact[];
+  totalBytes: number;
+}
+
+const STAT_ORDER = ['mean', 'median', 'p90', 'baseline', 'class'];
+const byStat = (a: string, b: string) => (STAT_ORDER.indexOf(a) + 99 * Number(!STAT_ORDER.includes(a))) - (STAT_ORDER.indexOf(b) + 99 * Number(!STAT_ORDER.includes(b))) || a.localeCompare(b);
+
+/** Groups the manifest for the downloads page (see the file comment). */
+export function downloadGroups(m: SiteManifest): DownloadGroups {
+  const byPath = new Map(m.artefacts.map((a) => [a.path, a]));
+  const used = new Set<string>();
+  const figureLabels = new Map(m.figures.map((f) => [f.id, f]));
+  const comboOrder = new Map(m.figures.map((f) => [f.id, f.combos]));
+  const figures = new Map<string, FigureGroup>();
+  for (const layer of m.layers) {
+    const tif = byPath.get(layer.tif);
+    const png = byPath.get(layer.png);
+    if (!tif || !png) continue; // the manifest schema refuses this; kept for the types
+    used.add(tif.path);
+    used.add(png.path);
+    let fig = figures.get(layer.figure);
+    if (!fig) {
+      const def = figureLabels.get(layer.figure);
+      fig = { id: layer.figure, label: def?.label ?? layer.legend.title ?? layer.figure, units: def?.units ?? layer.units, combos: [], layerCount: 0, bytes: 0 };
+      figures.set(layer.figure, fig);
+    }
+    let combo = fig.combos.find((c) => c.combo === layer.combo);
+    if (!combo) {
+      combo = { combo: layer.combo, label: comboLabel(layer.combo, m.work.classes), statistics: [], periods: [], cells: new Map(), bytes: 0 };
+      fig.combos.push(combo);
+    }
+    if (!combo.statistics.includes(layer.statistic)) combo.statistics.push(layer.statistic);
+    if (!combo.periods.includes(layer.period)) combo.periods.push(layer.period);
+    combo.cells.set(`${layer.period}|${layer.statistic}`, { layer, tif, png });
+    combo.bytes += tif.bytes + png.bytes;
+    fig.layerCount += 1;
+    fig.bytes += tif.bytes + png.bytes;
+  }
+  for (const fig of figures.values()) {
+    const order = comboOrder.get(fig.id) ?? [];
+    fig.combos.sort((a, b) => (order.indexOf(a.combo) + 1 || 1e9) - (order.indexOf(b.combo) + 1 || 1e9) || a.combo.localeCompare(b.combo));
+    for (const c of fig.combos) {
+      c.statistics.sort(byStat);
+      c.periods.sort((a, b) => periodOrder(a) - periodOrder(b));
+    }
+  }
+  const figOrder = m.figures.map((f) => f.id);
+  const figureList = [...figures.values()].sort((a, b) => (figOrder.indexOf(a.id) + 1 || 1e9) - (figOrder.indexOf(b.id) + 1 || 1e9) || a.id.localeCompare(b.id));
+  const tables = m.artefacts.filter((a) => a.kind === 'table' && !used.has(a.path));
+  for (const t of tables) used.add(t.path);
+  const others = m.artefacts.filter((a) => !used.has(a.path));
+  return { tables, figures: figureList, others, totalBytes: m.artefacts.reduce((s, a) => s + a.bytes, 0) };
+}
+
+/** The region id of a per-region file (`data/regions/<id>.csv`, `data/calculator/<id>.bin`), or undefined. */
+export function regionOfPath(path: string): string | undefined {
+  const m = path.match(/^data\/(?:regions|calculator)\/([a-z0-9-]+)\.(csv|json|bin)$/);
+  return m ? m[1] : undefined;
+}
