@@ -3,7 +3,7 @@
  * per year [h per worker] for each workload class × acclimatization × exposure, read from each
  * region's table (data/regions/<id>.csv, the `year` rows of `hours-lost-shift`).
  */
-import { loadRegionTable } from './region-table.ts';
+import { loadRegionYearRows } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
 import { FIGURE_HOURS_LOST, YEAR_PERIOD } from '../lib/report/region-figures.ts';
 
@@ -23,7 +23,7 @@ export function comboKey(workloadClass: string, acclimatization: string, exposur
 export function loadRegionAnnuals(regions: ReadonlyArray<{ id: string; name: string }>, dataDir: string = siteDataDir()): RegionAnnual[] {
   return regions.map((r) => {
     const hoursLost = new Map<string, number>();
-    for (const row of loadRegionTable(r.id, dataDir)) {
+    for (const row of loadRegionYearRows(r.id, dataDir, (period, figure, statistic) => period === YEAR_PERIOD && figure === FIGURE_HOURS_LOST && statistic === 'mean')) {
       if (row.period === YEAR_PERIOD && row.figure === FIGURE_HOURS_LOST && row.statistic === 'mean') {
         hoursLost.set(comboKey(row.workloadClass, row.acclimatization, row.exposure), row.value);
       }

@@ -3,12 +3,13 @@
  * `data/calculator/<region-id>.bin` (format and decoder in pipeline/publish/histogram-tiles.ts):
  * per year, month, local hour and exposure, the region's area-weighted hours of WBGT in each bin
  * of pipeline/work/wbgt-bins.ts [h]. The report pages read them at build time for the
- * month × hour table of typical WBGT.
+ * month × hour table of typical WBGT (baseline years, one exposure, pooled).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
-import { HISTOGRAM_TILE_VERSION, decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
+import { HISTOGRAM_TILE_VERSION } from '../../pipeline/publish/histogram-tiles.ts';
+import { EXPOSURE_INDEX, HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { WBGT_BIN_EDGES } from '../../pipeline/work/wbgt-bins.ts';
 import { siteDataDir } from './data-dir.ts';
 import { SiteDataInvalid, SiteDataMissing, SiteDataUnreadable } from './errors.ts';
@@ -30,14 +31,13 @@ export const histogramIndexSchema = z.object({
 
 export type HistogramIndex = z.infer<typeof histogramIndexSchema>;
 
-/** A region's decoded tiles. */
-export interface RegionHistograms {
-  /** Years of the tiles, in file order [year]. */
+/** A region's hours per WBGT bin, pooled over the baseline years, for one exposure. */
+export interface PooledHistograms {
+  /** The years pooled [year]. */
   years: number[];
-  /** Baseline of the normals [first, last year]. */
-  baseline: [number, number];
-  /** Per year: month × local hour × exposure × bin [h] (pipeline/reduce/layout.ts order). */
-  perYear: Float64Array[];
+  exposure: 'sun' | 'shade';
+  /** Month × local hour × bin [h] (pipeline/reduce/layout.ts order without the exposure axis). */
+  counts: Float64Array;
 }
 
 /** Path of the tile index inside a data folder. */
@@ -50,18 +50,48 @@ export function loadHistogramIndex(dataDir: string = siteDataDir()): HistogramIn
   return readValidatedJson(histogramIndexPath(dataDir), histogramIndexSchema, 'calculator index (data/calculator/index.json)');
 }
 
-/** Reads and decodes the tile of region `regionId`. */
-export function loadRegionHistograms(regionId: string, dataDir: string = siteDataDir(), index: HistogramIndex = loadHistogramIndex(dataDir)): RegionHistograms {
+/**
+ * Reads the tile of region `regionId` and adds up, per month × local hour × bin, the hours of the
+ * baseline years for one exposure. Walks the format of pipeline/publish/histogram-tiles.ts
+ * (per year, month, hour, exposure: uint8 first bin, uint8 bin count, that many uint16 hours × scale)
+ * without decoding the other years and exposure into arrays: a report page needs a sixth of it.
+ */
+export function loadPooledHistograms(
+  regionId: string,
+  dataDir: string = siteDataDir(),
+  index: HistogramIndex = loadHistogramIndex(dataDir),
+  exposure: 'sun' | 'shade' = 'sun',
+): PooledHistograms {
   const indexPath = histogramIndexPath(dataDir);
   const entry = index.regions.find((r) => r.id === regionId);
   if (!entry) throw SiteDataInvalid({ path: indexPath, problems: [`regions: no entry for region "${regionId}"`] }, { file: indexPath, key: 'regions' });
   const path = join(dataDir, entry.path);
   if (!existsSync(path)) throw SiteDataMissing({ path, what: `histogram tile of region "${regionId}" (${entry.path})` }, { file: path });
-  let perYear: Float64Array[];
-  try {
-    perYear = decodeHistogramTile(new Uint8Array(readFileSync(path)), index.years.length);
-  } catch (e) {
-    throw SiteDataUnreadable({ path, detail: (e as Error).message }, { file: path });
+  const bytes = new Uint8Array(readFileSync(path));
+  const [b0, b1] = index.baseline;
+  const wanted = EXPOSURE_INDEX[exposure];
+  const counts = new Float64Array(MONTHS * HOURS * HIST_LEN);
+  const scale = index.scale;
+  const years: number[] = [];
+  let p = 0;
+  const broken = (detail: string) => SiteDataUnreadable({ path, detail }, { file: path });
+  for (const year of index.years) {
+    const use = year >= b0 && year <= b1;
+    if (use) years.push(year);
+    for (let s = 0; s < MONTHS * HOURS * N_EXPOSURES; s++) {
+      if (p + 2 > bytes.length) throw broken(`the tile ends inside year ${year} (byte ${p} of ${bytes.length}); expected ${index.years.length} years`);
+      const first = bytes[p];
+      const n = bytes[p + 1];
+      p += 2;
+      if (first + n > HIST_LEN) throw broken(`bins ${first}–${first + n - 1} of year ${year} lie beyond the ${HIST_LEN} bins`);
+      if (p + 2 * n > bytes.length) throw broken(`the tile ends inside year ${year} (byte ${p} of ${bytes.length}); expected ${index.years.length} years`);
+      if (use && s % N_EXPOSURES === wanted) {
+        const base = ((s - wanted) / N_EXPOSURES) * HIST_LEN + first;
+        for (let b = 0; b < n; b++) counts[base + b] += (bytes[p + 2 * b] | (bytes[p + 2 * b + 1] << 8)) / scale;
+      }
+      p += 2 * n;
+    }
   }
-  return { years: index.years, baseline: index.baseline, perYear };
+  if (p !== bytes.length) throw broken(`${bytes.length - p} bytes after the last of ${index.years.length} years`);
+  return { years, exposure, counts };
 }

@@ -5,10 +5,10 @@
  */
 import { loadAtlasManifest, type AtlasManifest } from './atlas-manifest.ts';
 import { loadRegionDetail, type RegionDetail } from './region-detail.ts';
-import { loadHistogramIndex, loadRegionHistograms, type HistogramIndex } from './region-histograms.ts';
+import { loadHistogramIndex, loadPooledHistograms, type HistogramIndex } from './region-histograms.ts';
 import { loadRegionTable } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
-import { indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
+import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
 import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
 
 export interface RegionReport {
@@ -21,14 +21,18 @@ export interface RegionReport {
   matrix: HourMatrix;
 }
 
+/** The figures and statistics of the table a report shows (the niche comes from the region's JSON). */
+const REPORT_FIGURES = new Set([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST]);
+const REPORT_STATISTICS = new Set(['mean', 'p90']);
+
 let indexCache: { dir: string; index: HistogramIndex } | undefined;
 
 /** Loads the report of region `regionId` from `dataDir` (default: the build's data folder). */
 export function loadRegionReport(regionId: string, dataDir: string = siteDataDir()): RegionReport {
   const manifest = loadAtlasManifest(dataDir);
   const detail = loadRegionDetail(regionId, dataDir);
-  const figures = indexRegionTable(loadRegionTable(regionId, dataDir));
+  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, (_period, figure, statistic) => REPORT_FIGURES.has(figure) && REPORT_STATISTICS.has(statistic)));
   if (indexCache?.dir !== dataDir) indexCache = { dir: dataDir, index: loadHistogramIndex(dataDir) };
-  const matrix = typicalWbgtMatrix(loadRegionHistograms(regionId, dataDir, indexCache.index), 'sun');
+  const matrix = typicalWbgtMatrix(loadPooledHistograms(regionId, dataDir, indexCache.index, 'sun'));
   return { id: regionId, name: detail.name, manifest, detail, figures, matrix };
 }

@@ -115,7 +115,7 @@ describe('the region report page', () => {
     }
     // The default class is open, the others are in closed <details>.
     expect(await report.page.getAttribute('[data-default-class]', 'data-class')).toBe('moderate');
-    expect(await report.page.$$eval('details.class-tables', (ds) => ds.map((d) => [d.getAttribute('data-class'), d.open]))).toEqual(
+    expect(await report.page.$$eval('details.class-tables', (ds) => ds.map((d) => [d.getAttribute('data-class'), (d as HTMLDetailsElement).open]))).toEqual(
       manifest.work.classes.filter((c) => c.id !== 'moderate').map((c) => [c.id, false]),
     );
   });
@@ -231,8 +231,9 @@ describe('the region report page', () => {
     const page = (await session.open(`/regions/${REGION}/?units=F`)).page;
     const spans = await page.$$eval('[data-temp-c]', (els) => els.map((e) => [e.getAttribute('data-temp-c'), e.getAttribute('data-digits'), (e.textContent ?? '').trim()]));
     expect(spans.length).toBeGreaterThan(300);
-    for (const [c, digits, text] of spans) {
+    for (const [c, digits, shownText] of spans) {
       if (c === 'NaN') continue;
+      const text = shownText ?? '';
       expect(text.endsWith('°F')).toBe(true);
       expectShown(text.replace(' °F', ''), (Number(c) * 9) / 5 + 32);
       expect((text.replace(' °F', '').split('.')[1] ?? '').length).toBe(Number(digits));
@@ -259,7 +260,17 @@ describe('the region report page', () => {
     expect(hrefs).toContain(`/data/regions/${REGION}.csv`);
     const tifs = hrefs.filter((h) => h.endsWith('.tif'));
     expect(tifs).toContain('/data/layers/hours-lost-shift/moderate.acclimatized.sun/mean-year.tif');
-    expect(tifs.length).toBeGreaterThanOrEqual(manifest.work.classes.length * 4 * 2);
+    // The default class's annual layers: 2 figures × 2 statistics × every acclimatization × exposure, and the climate layers.
+    for (const fig of ['hours-lost-shift', 'hours-above-limit-shift']) {
+      for (const acc of manifest.work.acclimatization) {
+        for (const exp of manifest.work.exposures) {
+          for (const stat of ['mean', 'p90']) expect(tifs).toContain(`/data/layers/${fig}/moderate.${acc}.${exp}/${stat}-year.tif`);
+        }
+      }
+    }
+    expect(tifs).toContain('/data/layers/mean-annual-temperature/air/baseline-year.tif');
+    expect(tifs.filter((t) => /\/(low|high|very-high)\./.test(t))).toEqual([]);
+    expect(await page.getAttribute('#more-layers a', 'href')).toBe('/downloads/');
     for (const [href, bytes] of links) {
       expect(statSync(join(build.distDir, href)).size).toBe(bytes);
     }

@@ -27,9 +27,17 @@ export interface LayerDownload extends DownloadItem {
   primary: boolean;
 }
 
+const sizes = new WeakMap<AtlasManifest, Map<string, number>>();
+
+/** Bytes of each published file, indexed once per manifest (every report page asks). */
 function sizeOf(manifest: AtlasManifest): (path: string) => number {
-  const bytes = new Map(manifest.artefacts.map((a) => [a.path, a.bytes]));
-  return (path) => bytes.get(path) ?? NaN;
+  let bytes = sizes.get(manifest);
+  if (!bytes) {
+    bytes = new Map(manifest.artefacts.map((a) => [a.path, a.bytes]));
+    sizes.set(manifest, bytes);
+  }
+  const b = bytes;
+  return (path) => b.get(path) ?? NaN;
 }
 
 /** The region's own files. */

@@ -1,16 +1,16 @@
 /**
  * Typical WBGT per month and local hour for a region, from its calculator histogram tiles
- * (src/data/region-histograms.ts): for each month and local clock hour (the hour starting then),
- * the hours of all baseline years are pooled (area-weighted over the region's grid cells, as the
+ * (src/data/region-histograms.ts `loadPooledHistograms`): for each month and local clock hour
+ * (the hour starting then), the hours of all baseline years are pooled (area-weighted over the region's grid cells, as the
  * tile stores them) and their median is taken. Within a 0.25 °C bin the hours are taken as spread
  * evenly, as pipeline/work/histogram-estimate.ts does; the median is then the grouped-data
  * median `lo + (N/2 − F)/f · w` (lower edge of the median bin, hours below it F, hours in it f,
  * width w; the textbook formula for grouped data). A median in an open end bin is ±Infinity
  * (below 5 °C, at or above 45 °C). Pure.
  */
-import { EXPOSURE_INDEX, HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../../../pipeline/reduce/layout.ts';
+import { HIST_LEN, HOURS, MONTHS } from '../../../pipeline/reduce/layout.ts';
 import { WBGT_BIN_EDGES } from '../../../pipeline/work/wbgt-bins.ts';
-import type { RegionHistograms } from '../../data/region-histograms.ts';
+import type { PooledHistograms } from '../../data/region-histograms.ts';
 
 /**
  * The `p` quantile of binned hours (layout of pipeline/work/wbgt-bins.ts: an open bin below
@@ -57,30 +57,16 @@ export function matrixIndex(month0: number, hour: number): number {
   return month0 * HOURS + hour;
 }
 
-/**
- * The median WBGT per month × local hour over the baseline years of the tile (years outside the
- * baseline are left out).
- */
-export function typicalWbgtMatrix(h: RegionHistograms, exposure: 'sun' | 'shade' = 'sun'): HourMatrix {
-  const [b0, b1] = h.baseline;
-  const use = h.years.map((y, i) => ({ y, i })).filter(({ y }) => y >= b0 && y <= b1);
-  const pooled = new Float64Array(HIST_LEN);
+/** The median WBGT per month × local hour of hours pooled over the baseline years. */
+export function typicalWbgtMatrix(h: PooledHistograms): HourMatrix {
   const values = new Float64Array(MONTHS * HOURS);
   const hours = new Float64Array(MONTHS * HOURS);
-  const e = EXPOSURE_INDEX[exposure];
-  for (let m = 0; m < MONTHS; m++) {
-    for (let hr = 0; hr < HOURS; hr++) {
-      pooled.fill(0);
-      const base = ((m * HOURS + hr) * N_EXPOSURES + e) * HIST_LEN;
-      for (const { i } of use) {
-        const src = h.perYear[i];
-        for (let b = 0; b < HIST_LEN; b++) pooled[b] += src[base + b];
-      }
-      let n = 0;
-      for (let b = 0; b < HIST_LEN; b++) n += pooled[b];
-      values[matrixIndex(m, hr)] = binnedQuantile(pooled, 0.5);
-      hours[matrixIndex(m, hr)] = n;
-    }
+  for (let k = 0; k < MONTHS * HOURS; k++) {
+    const offset = k * HIST_LEN;
+    let n = 0;
+    for (let b = 0; b < HIST_LEN; b++) n += h.counts[offset + b];
+    values[k] = binnedQuantile(h.counts, 0.5, WBGT_BIN_EDGES, offset);
+    hours[k] = n;
   }
-  return { statistic: 'median', exposure, years: use.map((u) => u.y), values, hours };
+  return { statistic: 'median', exposure: h.exposure, years: h.years, values, hours };
 }
