@@ -110,6 +110,24 @@ describe('heat map of typical WBGT', () => {
     expect(at(11, 23).y + at(11, 23).height).toBeLessThanOrEqual(g.plot.bottom + 1e-9);
   });
 
+  it('draws the cells as one path per colour whose rectangles are the cells, to 0.1 px', () => {
+    expect(g.paths.reduce((n, p) => n + p.cells, 0)).toBe(288);
+    expect(new Set(g.paths.map((p) => p.fill)).size).toBe(g.paths.length);
+    for (const p of g.paths) {
+      const rects = [...p.d.matchAll(/M([\d.]+),([\d.]+)h([\d.]+)v([\d.]+)h-([\d.]+)Z/g)];
+      expect(rects).toHaveLength(p.cells);
+      expect(rects.map((m) => m[0]).join('')).toBe(p.d);
+      for (const m of rects) {
+        const [x, y, w, h] = [1, 2, 3, 4].map((i) => Number(m[i]));
+        const cell = g.cells.find((c) => c.fill === p.fill && Math.abs(c.x - x) <= 0.05 && Math.abs(c.y - y) <= 0.05)!;
+        expect(cell).toBeDefined();
+        expect(Math.abs(x + w - (cell.x + cell.width))).toBeLessThanOrEqual(0.1 + 1e-9);
+        expect(Math.abs(y + h - (cell.y + cell.height))).toBeLessThanOrEqual(0.1 + 1e-9);
+        expect(Number(m[5])).toBe(w);
+      }
+    }
+  });
+
   it('puts legend ticks and the limit mark where a linear map of the domain onto the legend puts them', () => {
     const { x, width } = g.legend;
     const pos = (v: number) => x + ((v - 10) / 25) * width;

@@ -205,7 +205,7 @@ describe('the region report page', () => {
     expect(await page.$$eval('#hour-table tbody td', (r) => r.length)).toBe(288);
     expect(await page.$$eval('#hour-ranges tbody tr', (r) => r.length)).toBe(12);
     expect(await page.$$eval('svg.monthly-bars .bars rect', (r) => r.length)).toBe(12 * manifest.work.acclimatization.length);
-    expect(await page.$$eval('svg.heat-map .cells rect', (r) => r.length)).toBe(288);
+    expect(await page.$$eval('svg.heat-map .cells path', (ps) => ps.reduce((n, p) => n + (p.getAttribute('d')!.match(/M/g) ?? []).length, 0))).toBe(288);
     expect(await page.$$eval('svg.niche-strip .bands rect', (r) => r.length)).toBeGreaterThanOrEqual(5);
     expect(await page.isVisible('svg.heat-map')).toBe(true);
     // Bars are the CSV means: the July bar of acclimatized workers.
@@ -300,6 +300,9 @@ describe('the region report page', () => {
     const after = await page.$eval('#region-files a', (a) => getComputedStyle(a, '::after').content);
     expect(after).toContain(`/data/regions/${REGION}.csv`);
     expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
+    // Nothing is wider than an A4 page inside the report's margins: 210 − 2 × 12 mm = 186 mm = 703 px at 96 px/in.
+    await page.setViewportSize({ width: 703, height: 1000 });
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(703);
     const pdf = await page.pdf({ path: join(ARTIFACTS_DIR, 'region-report.pdf'), format: 'A4', printBackground: true });
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
     await page.emulateMedia({ media: 'screen' });
