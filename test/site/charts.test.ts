@@ -17,7 +17,9 @@ import { NO_DATA_COLOUR } from '../../src/lib/charts/ramp.ts';
 import { dataNumber, px } from '../../src/lib/charts/svg-number.ts';
 import { binnedQuantile } from '../../src/lib/report/hour-matrix.ts';
 import { formatRuns, hoursAbove, runHours } from '../../src/lib/report/hour-ranges.ts';
-import { isAbove, type ClassLimit } from '../../src/lib/report/limits.ts';
+import { classLimits, isAbove, type ClassLimit } from '../../src/lib/report/limits.ts';
+import { classesDefaultFirst, defaultWorkloadClass } from '../../src/lib/report/selection.ts';
+import type { AtlasManifest } from '../../src/data/atlas-manifest.ts';
 import { compareForRanking, rankBy } from '../../src/lib/report/ranking.ts';
 import { NICHE_BOUNDS } from '../../pipeline/climate/niche.ts';
 import { NICHE_COLOURS } from '../../pipeline/publish/layers/niche-style.ts';
@@ -260,6 +262,32 @@ describe('figures behind the charts', () => {
     expect(formatRuns(runs)).toBe('10:00–14:00, 16:00–17:00, 23:00–24:00');
     expect(runHours(runs)).toBe(6);
     expect(formatRuns([])).toBe('none');
+  });
+
+  it("takes the class limits from the atlas's limit model and clothing adjustment (ISO 7243:1989 table, METHODS.md §5.2)", () => {
+    const work = {
+      classes: [
+        { id: 'light', name: 'Light', metabolicRate: 180 },
+        { id: 'heavy', name: 'Heavy', metabolicRate: 415 },
+      ],
+      limitModel: 'table-1989',
+      airMovement: false,
+      acclimatization: ['acclimatized', 'unacclimatized'],
+      clothingAdjustment: 2,
+    };
+    const limits = classLimits({ work } as unknown as AtlasManifest);
+    // ISO 7243:1989 reference values: class 1 30 / 29 °C, class 3 (no air movement) 25 / 22 °C.
+    expect(limits.map((l) => [l.workloadClass, l.acclimatization, l.limit, l.threshold])).toEqual([
+      ['light', 'acclimatized', 30, 28],
+      ['light', 'unacclimatized', 29, 27],
+      ['heavy', 'acclimatized', 25, 23],
+      ['heavy', 'unacclimatized', 22, 20],
+    ]);
+    expect(isAbove(23.01, limits[2])).toBe(true);
+    expect(isAbove(23, limits[2])).toBe(false);
+    // No class called moderate: the first class is the default, and it comes first.
+    expect(defaultWorkloadClass({ work } as unknown as AtlasManifest).id).toBe('light');
+    expect(classesDefaultFirst({ work: { ...work, classes: [...work.classes, { id: 'moderate', name: 'M', metabolicRate: 300 }] } } as unknown as AtlasManifest).map((c) => c.id)).toEqual(['moderate', 'light', 'heavy']);
   });
 
   it('ranks most hours first, regions without a value last, equal values by name', () => {
