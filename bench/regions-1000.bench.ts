@@ -104,8 +104,16 @@ export const bench: Bench = {
     const dist = join(DIR, 'dist');
     rmSync(out, { recursive: true, force: true });
     rmSync(dist, { recursive: true, force: true });
-    const p = child(['pipeline', config, out, String(jobs)]);
-    const s = child(['site', out, dist]);
+    let p: Record<string, number | string>;
+    let s: Record<string, number | string>;
+    try {
+      p = child(['pipeline', config, out, String(jobs)]);
+      s = child(['site', out, dist]);
+    } finally {
+      // About 1 GB of tables and pages: keep only the inputs.
+      rmSync(out, { recursive: true, force: true });
+      rmSync(dist, { recursive: true, force: true });
+    }
     const figure: BenchFigure = {
       bench: 'site-1000-regions',
       value: round1(Number(p.seconds) + Number(s.seconds)),
