@@ -1,0 +1,53 @@
+// Child process of bench/regions-1000.bench.ts. Loaded like bin/heathours.mjs (h5wasm first, then tsx).
+//   node bench/regions-1000-child.mjs pipeline CONFIG OUT JOBS  → `heathours build --data-only`, with the
+//       time of each logged stage
+//   node bench/regions-1000-child.mjs site DATA_DIR DIST        → the Astro site from that data folder
+// Prints one JSON line: wall and CPU seconds (all threads), and details.
+import '../pipeline/model/preload-native.mjs';
+import { register } from 'tsx/esm/api';
+import { createHash } from 'node:crypto';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+
+register();
+const [mode, a, b, jobs] = process.argv.slice(2);
+const t0 = performance.now();
+/** CPU time of this process, all threads (getrusage) [s]. */
+const cpu = () => {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1e6;
+};
+if (mode === 'pipeline') {
+  const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
+  const marks = [];
+  const logger = { info: (m) => marks.push([performance.now() - t0, m]), warn: (m) => marks.push([performance.now() - t0, `warning: ${m}`]) };
+  const report = await buildAtlas({ configPath: a, outDir: b, jobs: Number(jobs), quiet: true, dataOnly: true, logger });
+  const seconds = (performance.now() - t0) / 1000;
+  const at = (re) => (marks.find(([, m]) => re.test(m))?.[0] ?? NaN) / 1000;
+  const h = createHash('sha256');
+  const dir = join(b, 'data', 'regions');
+  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv')).sort();
+  for (const f of csvs) h.update(readFileSync(join(dir, f)));
+  process.stdout.write(`${JSON.stringify({
+    seconds,
+    cpuSeconds: cpu(),
+    setupSeconds: at(/^computing /),
+    computeSeconds: report.computeSeconds,
+    normalsSeconds: at(/^summarising/) - at(/^computed /),
+    publishSeconds: seconds - at(/^summarising/),
+    regions: csvs.length,
+    cellHours: report.cellHours,
+    checksum: h.digest('hex').slice(0, 16),
+  })}\n`);
+} else if (mode === 'site') {
+  const { buildSite } = await import('../pipeline/publish/site.ts');
+  await buildSite({ dataDir: a, outDir: b, quiet: true });
+  const seconds = (performance.now() - t0) / 1000;
+  const pages = readdirSync(join(b, 'regions')).filter((d) => statSync(join(b, 'regions', d, 'index.html'), { throwIfNoEntry: false }));
+  const biggest = Math.max(...pages.map((d) => statSync(join(b, 'regions', d, 'index.html')).size));
+  const h = createHash('sha256').update(readFileSync(join(b, 'index.html')));
+  process.stdout.write(`${JSON.stringify({ seconds, cpuSeconds: cpu(), regionPages: pages.length, largestRegionHtmlBytes: biggest, homeBytes: statSync(join(b, 'index.html')).size, homeChecksum: h.digest('hex').slice(0, 16) })}\n`);
+} else {
+  process.stderr.write(`unknown mode ${mode}\n`);
+  process.exit(2);
+}

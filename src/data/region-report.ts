@@ -1,0 +1,38 @@
+/**
+ * Everything one region report page shows, read at build time: the manifest (work settings,
+ * classes, layers), the region's table indexed by meaning, its summary (niche), and the typical
+ * WBGT per month × local hour from its histogram tile. The pure pieces live in src/lib/report/.
+ */
+import { loadAtlasManifest, type AtlasManifest } from './atlas-manifest.ts';
+import { loadRegionDetail, type RegionDetail } from './region-detail.ts';
+import { loadHistogramIndex, loadPooledHistograms, type HistogramIndex } from './region-histograms.ts';
+import { loadRegionTable } from './region-table.ts';
+import { siteDataDir } from './data-dir.ts';
+import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
+import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
+
+export interface RegionReport {
+  id: string;
+  name: string;
+  manifest: AtlasManifest;
+  detail: RegionDetail;
+  figures: RegionFigures;
+  /** Median WBGT in the sun per month × local hour over the baseline years [°C]. */
+  matrix: HourMatrix;
+}
+
+/** The figures and statistics of the table a report shows (the niche comes from the region's JSON). */
+const REPORT_FIGURES = new Set([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST]);
+const REPORT_STATISTICS = new Set(['mean', 'p90']);
+
+let indexCache: { dir: string; index: HistogramIndex } | undefined;
+
+/** Loads the report of region `regionId` from `dataDir` (default: the build's data folder). */
+export function loadRegionReport(regionId: string, dataDir: string = siteDataDir()): RegionReport {
+  const manifest = loadAtlasManifest(dataDir);
+  const detail = loadRegionDetail(regionId, dataDir);
+  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, (_period, figure, statistic) => REPORT_FIGURES.has(figure) && REPORT_STATISTICS.has(statistic)));
+  if (indexCache?.dir !== dataDir) indexCache = { dir: dataDir, index: loadHistogramIndex(dataDir) };
+  const matrix = typicalWbgtMatrix(loadPooledHistograms(regionId, dataDir, indexCache.index, 'sun'));
+  return { id: regionId, name: detail.name, manifest, detail, figures, matrix };
+}

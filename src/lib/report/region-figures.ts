@@ -1,0 +1,49 @@
+/**
+ * Looking up values in a region's tidy table (src/data/region-table.ts) by what they mean: figure,
+ * period, workload class, acclimatization, exposure and statistic. Pure.
+ */
+import type { RegionTableRow } from '../../data/region-table.ts';
+
+/** The figures the report shows (ids as in the manifest and the table's `figure` column). */
+export const FIGURE_HOURS_ABOVE = 'hours-above-limit-shift';
+export const FIGURE_HOURS_LOST = 'hours-lost-shift';
+export const FIGURE_AIR_TEMPERATURE = 'air-temperature-mean';
+
+/** The twelve month periods of the table, then the year. */
+export const MONTH_PERIODS = ['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12'] as const;
+export const YEAR_PERIOD = 'year';
+
+/** What one value is. Empty strings for columns a figure does not use (e.g. air temperature). */
+export interface FigureKey {
+  figure: string;
+  period: string;
+  workloadClass?: string;
+  acclimatization?: string;
+  exposure?: string;
+  statistic: string;
+}
+
+function keyOf(k: FigureKey): string {
+  return `${k.figure}|${k.period}|${k.workloadClass ?? ''}|${k.acclimatization ?? ''}|${k.exposure ?? ''}|${k.statistic}`;
+}
+
+/** A region's table indexed for lookups. */
+export interface RegionFigures {
+  /** The value [h or °C], NaN when the table has no such row or an empty value. */
+  get(k: FigureKey): number;
+  /** Whether the table has a row for `k`. */
+  has(k: FigureKey): boolean;
+}
+
+/** Indexes the rows of one region's table. Only the `limit` method and blank methods are figures here. */
+export function indexRegionTable(rows: readonly RegionTableRow[]): RegionFigures {
+  const map = new Map<string, number>();
+  for (const r of rows) {
+    if (r.method !== 'limit' && r.method !== '') continue;
+    map.set(keyOf({ figure: r.figure, period: r.period, workloadClass: r.workloadClass, acclimatization: r.acclimatization, exposure: r.exposure, statistic: r.statistic }), r.value);
+  }
+  return {
+    get: (k) => map.get(keyOf(k)) ?? NaN,
+    has: (k) => map.has(keyOf(k)),
+  };
+}

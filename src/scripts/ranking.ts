@@ -1,0 +1,36 @@
+/**
+ * The home page's ranking switch (the table works without it, ranked by the default column):
+ * re-sorts the rows by the chosen column, most hours first, rows without a value last, equal
+ * values in name order (the server's `data-name-order`), as src/lib/report/ranking.ts does.
+ */
+import { compareForRanking } from '../lib/report/ranking.ts';
+
+const form = document.querySelector<HTMLFormElement>('[data-ranking-control]');
+const table = document.querySelector<HTMLTableElement>('#ranking');
+if (form && table) {
+  const body = table.tBodies[0];
+  const select = form.elements.namedItem('column') as HTMLSelectElement;
+  const valueOf = (tr: HTMLTableRowElement, key: string) => {
+    const raw = tr.querySelector<HTMLElement>(`td[data-col="${CSS.escape(key)}"]`)?.dataset.value ?? '';
+    return raw === '' ? NaN : Number(raw);
+  };
+  const apply = () => {
+    const key = select.value;
+    const rows = [...body.rows].sort(
+      (a, b) => compareForRanking(valueOf(a, key), valueOf(b, key)) || Number(a.dataset.nameOrder) - Number(b.dataset.nameOrder),
+    );
+    rows.forEach((tr, i) => {
+      const rank = tr.querySelector('td.rank');
+      if (rank) rank.textContent = String(i + 1);
+      body.appendChild(tr);
+    });
+    table.dataset.sortKey = key;
+    for (const cell of table.querySelectorAll<HTMLElement>('[data-col], thead th[data-key]')) {
+      const k = cell.dataset.col ?? cell.dataset.key;
+      cell.classList.toggle('sorted', k === key);
+    }
+  };
+  form.hidden = false;
+  select.addEventListener('change', apply);
+  form.addEventListener('submit', (e) => e.preventDefault());
+}

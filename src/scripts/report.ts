@@ -1,0 +1,45 @@
+/**
+ * The region report's small script (the page works without it):
+ * - the hour table's "mark hours above the limit for" control: shown only with JavaScript; it
+ *   marks the cells whose `data-above-<state>` lists the chosen class (class `above`);
+ * - before printing, every closed <details> is opened (and closed again afterwards), and the
+ *   source line gets the page's full address.
+ */
+
+function setupMarking(): void {
+  const form = document.querySelector<HTMLFormElement>('[data-mark-control]');
+  const table = document.querySelector<HTMLTableElement>('#hour-table');
+  if (!form || !table) return;
+  const names = JSON.parse(table.dataset.classNames ?? '{}') as Record<string, string>;
+  const label = table.querySelector<HTMLElement>('[data-mark-label]');
+  const apply = () => {
+    const cls = (form.elements.namedItem('class') as HTMLSelectElement).value;
+    const state = (form.querySelector<HTMLInputElement>('input[name="state"]:checked')?.value ?? table.dataset.markState) as string;
+    table.dataset.markClass = cls;
+    table.dataset.markState = state;
+    for (const td of table.querySelectorAll<HTMLTableCellElement>('tbody td')) {
+      const above = (td.getAttribute(`data-above-${state}`) ?? '').split(' ').includes(cls);
+      td.classList.toggle('above', above);
+    }
+    if (label) label.textContent = `${names[cls] ?? cls}, ${state} workers`;
+  };
+  form.hidden = false;
+  form.addEventListener('change', apply);
+  form.addEventListener('submit', (e) => e.preventDefault());
+}
+
+function setupPrint(): void {
+  let opened: HTMLDetailsElement[] = [];
+  window.addEventListener('beforeprint', () => {
+    opened = [...document.querySelectorAll<HTMLDetailsElement>('details:not([open])')];
+    for (const d of opened) d.open = true;
+  });
+  window.addEventListener('afterprint', () => {
+    for (const d of opened) d.open = false;
+    opened = [];
+  });
+  for (const el of document.querySelectorAll<HTMLElement>('[data-page-url]')) el.textContent = location.href.split('?')[0];
+}
+
+setupMarking();
+setupPrint();
