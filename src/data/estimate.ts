@@ -2,8 +2,8 @@
  * What the estimate calculator needs from the data folder, read at build time: the work settings
  * and time zone from `data/manifest.json`, years and region tiles from
  * `data/calculator/index.json`, and the grid and cell chunks from `data/calculator/cells/index.json`
- * (optional: without it the calculator offers regions only). Validated with zod; catalogued errors
- * from errors.ts. Returns null when the atlas publishes no calculator index at all (an older or a
+ * (optional: without it the calculator offers regions only). Validated with zod (the manifest by
+ * the site's one reader, manifest.ts); catalogued errors from errors.ts. Returns null when the atlas publishes no calculator index at all (an older or a
  * fixture data folder): the page then says so instead of failing the build.
  */
 import { existsSync } from 'node:fs';
@@ -13,31 +13,11 @@ import { validateShift } from '../../pipeline/work/index.ts';
 import type { EstimateContext } from '../lib/estimate/context.ts';
 import { siteDataDir } from './data-dir.ts';
 import { readValidatedJson } from './read-json.ts';
+import { loadManifest, manifestPath } from './manifest.ts';
 import { SiteDataInvalid } from './errors.ts';
 
 const slug = z.string().regex(/^[a-z0-9][a-z0-9-]*$/);
 const year = z.number().int();
-
-const manifestSchema = z
-  .object({
-    atlas: z.object({ title: z.string(), invented: z.boolean() }).passthrough(),
-    timeZone: z.string().min(1),
-    baseline: z.tuple([year, year]),
-    work: z
-      .object({
-        classes: z.array(z.object({ id: slug, name: z.string(), metabolicRate: z.number().positive(), description: z.string() }).passthrough()).min(1),
-        rest: z.object({ metabolicRate: z.number().positive() }).passthrough(),
-        limitModel: z.enum(['curve-2017', 'table-1989']),
-        airMovement: z.boolean(),
-        acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
-        exposures: z.array(z.enum(['sun', 'shade'])).min(1),
-        restLocation: z.enum(['same-place', 'shade']),
-        clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
-        shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),
-      })
-      .passthrough(),
-  })
-  .passthrough();
 
 const calculatorSchema = z
   .object({
@@ -62,8 +42,7 @@ export function loadEstimateContext(dataDir: string = siteDataDir()): { ctx: Est
   const calcPath = join(dataDir, 'data', 'calculator', 'index.json');
   if (!existsSync(calcPath)) return null;
   const calc = readValidatedJson(calcPath, calculatorSchema, 'calculator index (data/calculator/index.json)');
-  const manifestPath = join(dataDir, 'data', 'manifest.json');
-  const m = readValidatedJson(manifestPath, manifestSchema, 'manifest (data/manifest.json)');
+  const m = loadManifest(dataDir);
   const cellsPath = join(dataDir, 'data', 'calculator', 'cells', 'index.json');
   const cells = existsSync(cellsPath) ? readValidatedJson(cellsPath, cellsSchema, 'cell tile index (data/calculator/cells/index.json)') : null;
   if (cells && cells.years.join() !== calc.years.join()) {
@@ -87,7 +66,7 @@ export function loadEstimateContext(dataDir: string = siteDataDir()): { ctx: Est
       exposure: w.exposures[0],
       restLocation: w.restLocation,
       clothing,
-      shift: validateShift(w.shift, { file: manifestPath, key: 'work.shift' }),
+      shift: validateShift(w.shift, { file: manifestPath(dataDir), key: 'work.shift' }),
     },
     regions: calc.regions.map((r) => ({ id: r.id, name: r.name, path: r.path })),
     cells: cells ? { grid: cells.grid, chunks: cells.chunks.map((c) => ({ path: c.path, firstCell: c.firstCell, lastCell: c.lastCell })) } : null,

@@ -4,12 +4,19 @@
  * code version, configuration digest, build time), the work settings, the figures, the layers with
  * their legends, and every published file with its kind, units, size and digest.
  *
+ * The site's one reader of the file: buildSite's pre-check, the downloads and methods pages, the
+ * region reports and home (atlas-manifest.ts), the map explorer (manifest-layers.ts) and the
+ * estimate calculator (estimate.ts) all go through {@link loadManifest}, which parses and
+ * validates it once per build (keyed by path, size and modification time).
+ *
  * A zod schema that mirrors the interface (checked against it at compile time), with the checks
  * the pages rely on: paths stay inside `data/` (they become links), digests are SHA-256 hex, each
- * layer's PNG and GeoTIFF are listed among the artefacts, no path is listed twice.
+ * layer's PNG and GeoTIFF are listed among the artefacts, no path is listed twice, workload class
+ * ids are slugs (they become URL parts and element ids), corners are longitude [°] in ±540 and
+ * latitude [°] in ±90, every legend has a stop, the shift has a work day.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync, statSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
@@ -24,7 +31,9 @@ const dataPath = z
   .string()
   .regex(/^data\/[A-Za-z0-9._\/-]+$/, 'not a path inside data/ (letters, digits, . _ - /)')
   .refine((p) => !p.split('/').includes('..'), 'a path may not contain ..');
-const lonLat = z.tuple([z.number(), z.number()]);
+/** [longitude °, latitude °]; longitudes may run past ±180 on an atlas across the antimeridian. */
+const lonLat = z.tuple([z.number().min(-540).max(540), z.number().min(-90).max(90)]);
+const slug = z.string().regex(/^[a-z0-9][a-z0-9-]*$/, 'not a slug (lower-case letters, digits and -, not starting with -)');
 const corners = z.tuple([lonLat, lonLat, lonLat, lonLat]);
 
 const legendSchema = z.object({
@@ -34,7 +43,7 @@ const legendSchema = z.object({
   ramp: z.string(),
   reversed: z.boolean(),
   domain: z.tuple([z.number(), z.number()]).nullable(),
-  stops: z.array(z.object({ value: z.number(), color: z.string().regex(/^#[0-9a-f]{6}$/i, 'not a #rrggbb colour'), label: z.string().optional() })),
+  stops: z.array(z.object({ value: z.number(), color: z.string().regex(/^#[0-9a-f]{6}$/i, 'not a #rrggbb colour'), label: z.string().optional() })).min(1),
   breaks: z.array(z.number()).optional(),
   labels: z.array(z.string()),
   outOfDomain: z.enum(['clamped', 'error']),
@@ -82,14 +91,14 @@ const rateSchema = z.number().positive();
 /** The work settings as the build resolved them (pipeline/run/build-atlas.ts writes them). */
 export const manifestWorkSchema = z.object({
   classesFile: z.string(),
-  classes: z.array(z.object({ id: z.string().min(1), name: z.string().min(1), metabolicRate: rateSchema, description: z.string() })).min(1),
+  classes: z.array(z.object({ id: slug, name: z.string().min(1), metabolicRate: rateSchema, description: z.string() })).min(1),
   limitModel: z.enum(['curve-2017', 'table-1989']),
   airMovement: z.boolean(),
   acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
   exposures: z.array(z.enum(['sun', 'shade'])).min(1),
   restLocation: z.enum(['same-place', 'shade']),
   clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
-  shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()) }),
+  shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),
   /** Clothing adjustment value used [°C-WBGT]. */
   clothingAdjustment: z.number(),
   rest: z.object({ name: z.string(), metabolicRate: rateSchema, description: z.string() }),
@@ -148,12 +157,23 @@ export function manifestPath(dataDir: string): string {
   return join(dataDir, 'data', 'manifest.json');
 }
 
+/**
+ * Whether the data folder carries the atlas figures (a manifest). A folder made only of the
+ * inventory and the regions (an earlier stage, or the site's own fixture) has none: the home page
+ * then lists the regions without figures, no region report is built and the map says that no
+ * layers are published.
+ */
+export function hasManifest(dataDir: string = siteDataDir()): boolean {
+  return existsSync(manifestPath(dataDir));
+}
+
 const cache = new Map<string, { stamp: string; manifest: SiteManifest }>();
 
 /**
  * Reads and validates the manifest of `dataDir` (default: the build's data folder). Catalogued
  * errors: SiteDataMissing, SiteDataUnreadable, SiteDataInvalid (with the key). Every page reads
- * it and the file is large, so it is parsed once per path, size and modification time.
+ * it and the file is large, so it is parsed once per path, size and modification time. The
+ * result is shared by every caller: read it, never change it.
  */
 export function loadManifest(dataDir: string = siteDataDir()): SiteManifest {
   const path = manifestPath(dataDir);

@@ -7,7 +7,7 @@
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
 import { HIST_LEN } from '../../pipeline/reduce/layout.ts';
 import { parseCsv } from '../../src/data/csv.ts';
@@ -15,6 +15,9 @@ import { loadRegionTable, loadRegionYearRows, parseRegionTable } from '../../src
 import { loadRegionDetail } from '../../src/data/region-detail.ts';
 import { loadHistogramIndex, loadPooledHistograms } from '../../src/data/region-histograms.ts';
 import { loadAtlasManifest } from '../../src/data/atlas-manifest.ts';
+import { loadManifest } from '../../src/data/manifest.ts';
+import { loadManifestLayers } from '../../src/data/manifest-layers.ts';
+import { loadEstimateContext } from '../../src/data/estimate.ts';
 import { loadRegionReport } from '../../src/data/region-report.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 import { buildPipelineData } from './pipeline-data.ts';
@@ -172,5 +175,44 @@ describe('bad data files are catalogued errors naming the file and where', () =>
     writeFileSync(file, JSON.stringify(m));
     const e = expectCatalogued(() => loadAtlasManifest(dir), 'SiteDataInvalid', /work\.classes/);
     expect(e.where).toMatchObject({ file, key: 'work.classes' });
+  });
+
+  it('the report, map, calculator and downloads readers share one parse of the manifest, and a rewritten manifest is read afresh', () => {
+    const dir = copy();
+    const file = join(dir, 'data/manifest.json');
+    const text = readFileSync(file, 'utf8');
+    const first = loadManifest(dir);
+    const parse = vi.spyOn(JSON, 'parse');
+    try {
+      expect(loadAtlasManifest(dir)).toBe(first);
+      expect(loadManifestLayers(dir)).toBe(first);
+      expect(loadEstimateContext(dir)?.atlasTitle).toBe(first.atlas.title);
+      expect(parse.mock.calls.filter(([arg]) => arg === text)).toHaveLength(0);
+    } finally {
+      parse.mockRestore();
+    }
+    const m = JSON.parse(text);
+    m.atlas.title = `${m.atlas.title} (rewritten)`;
+    writeFileSync(file, JSON.stringify(m));
+    const second = loadAtlasManifest(dir);
+    expect(second).not.toBe(first);
+    expect(second.atlas.title).toBe(m.atlas.title);
+    expect(loadManifestLayers(dir)).toBe(second);
+  });
+
+  it.each([
+    ['a workload class id that is not a slug', (m: any) => (m.work.classes[0].id = 'Heavy work'), 'work.classes.0.id'],
+    ['a shift without work days', (m: any) => (m.work.shift.days = []), 'work.shift.days'],
+    ['a legend without stops', (m: any) => (m.layers[1].legend.stops = []), 'layers.1.legend.stops'],
+    ['a map image corner north of the pole', (m: any) => (m.layers[0].mapImages[0].coordinates[0][1] = 91), 'layers.0.mapImages.0.coordinates.0.1'],
+  ])('a manifest with %s: SiteDataInvalid at the key, from the one reader behind every view', (_what, spoil, key) => {
+    const dir = copy();
+    const file = join(dir, 'data/manifest.json');
+    const m = JSON.parse(readFileSync(file, 'utf8'));
+    spoil(m);
+    writeFileSync(file, JSON.stringify(m));
+    for (const load of [loadManifest, loadAtlasManifest, loadManifestLayers]) {
+      expect(expectCatalogued(() => load(dir), 'SiteDataInvalid').where).toMatchObject({ file, key });
+    }
   });
 });
