@@ -10,8 +10,9 @@ import { fileURLToPath } from 'node:url';
 import { wbgtKernel } from '../../pipeline/physics/kernel.ts';
 import { computePoint } from '../../pipeline/physics/point-row.ts';
 import { dewPointFromRelativeHumidity } from '../../pipeline/physics/humidity.ts';
+import { sharedPath } from '../helpers/shared-dir.ts';
 
-const csv = readFileSync(fileURLToPath(new URL('../../../shared/reference/liljegren-wbgt-public.csv', import.meta.url)), 'utf8').trim().split('\n');
+const csv = readFileSync(sharedPath('reference', 'liljegren-wbgt-public.csv'), 'utf8').trim().split('\n');
 const head = csv[0].split(',');
 const rows = csv.slice(1).map((l) => {
   const v = l.split(',');

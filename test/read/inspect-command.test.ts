@@ -4,9 +4,10 @@ import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tempDir } from '../fixtures/read/era5-cdl.ts';
+import { sharedPath } from '../helpers/shared-dir.ts';
 
 const root = new URL('../../', import.meta.url).pathname;
-const REAL = new URL('../../../shared/realdata/', import.meta.url).pathname;
+const REAL = `${sharedPath('realdata')}/`;
 const run = (...args: string[]) => spawnSync(process.execPath, [join(root, 'bin/heathours.mjs'), 'inspect', ...args], { encoding: 'utf8' });
 
 describe('heathours inspect', () => {

@@ -6,8 +6,9 @@
 import { describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { inspectFile, type FileInspection } from '../../pipeline/read/index.ts';
+import { sharedPath } from '../helpers/shared-dir.ts';
 
-const REAL = new URL('../../../shared/realdata/', import.meta.url).pathname;
+const REAL = `${sharedPath('realdata')}/`;
 const byName = (r: FileInspection, n: string) => {
   const v = r.variables.find((x) => x.name === n);
   if (!v) throw new Error(`no ${n}`);
