@@ -71,8 +71,10 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
         if (seen[at] >= 0 && !allowOverlap && !grp.includes(seen[at])) {
           throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[at]] ?? seen[at]} and ${names[pi] ?? pi}` });
         }
+        // A cell's first partial is copied (the year's counts start at zero), later pieces added.
+        const first = seen[at] < 0;
         seen[at] = pi;
-        for (const f of PER_CELL_FIELDS) addCell(out, p, f, at, j);
+        for (const f of PER_CELL_FIELDS) (first ? copyCell : addCell)(out, p, f, at, j);
         const w = per(p, 'wbgtMax');
         for (let k = 0; k < w; k++) {
           const v = p.wbgtMax[j * w + k];
@@ -100,6 +102,12 @@ function sameCells(a: Int32Array, b: Int32Array): boolean {
 
 function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {
   return p[f].length / p.cells.length;
+}
+
+function copyCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {
+  const w = per(p, f);
+  const src = p[f] as Uint32Array;
+  (out[f] as Uint32Array).set(src.subarray(j * w, j * w + w), at * w);
 }
 
 function addCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {

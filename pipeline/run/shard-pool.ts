@@ -51,6 +51,7 @@ export async function runShards(
   const url = new URL('./shard-worker.ts', import.meta.url);
   const workers = Array.from({ length: size }, () => startTsWorker(url));
   const queue = [...tasks];
+  let failure: unknown;
   try {
     await Promise.all(
       workers.map(
@@ -70,18 +71,23 @@ export async function runShards(
               if (m.ready) return next();
               if (m.result) {
                 const shard = tasks.find((t) => t.shard.id === m.shardId)!.shard;
+                // The worker gets its next shard first: the main thread's work on this result
+                // (merging a finished year) then overlaps the worker's computing.
+                next();
                 try {
                   onResult(shard, { result: m.result, ms: m.ms ?? 0, storeMs: m.storeMs ?? 0, storedBytes: m.storedBytes ?? 0 });
                 } catch (e) {
+                  // This worker's promise may have resolved already (no shard left): keep the error.
+                  failure ??= e;
                   return reject(e);
                 }
-                next();
               }
             });
             w.postMessage({ init });
           }),
       ),
     );
+    if (failure !== undefined) throw failure;
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
