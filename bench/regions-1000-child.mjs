@@ -20,7 +20,9 @@ const cpu = () => {
 if (mode === 'pipeline') {
   const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
   const marks = [];
-  const logger = { info: (m) => marks.push([performance.now() - t0, m]), warn: (m) => marks.push([performance.now() - t0, `warning: ${m}`]) };
+  // Build log lines start with the elapsed time, `[  1.2 s] `: drop it before matching.
+  const bare = (m) => m.replace(/^\[[^\]]*\] /, '');
+  const logger = { info: (m) => marks.push([performance.now() - t0, bare(m)]), warn: (m) => marks.push([performance.now() - t0, `warning: ${bare(m)}`]) };
   const report = await buildAtlas({ configPath: a, outDir: b, jobs: Number(jobs), quiet: true, dataOnly: true, logger });
   const seconds = (performance.now() - t0) / 1000;
   const at = (re) => (marks.find(([, m]) => re.test(m))?.[0] ?? NaN) / 1000;

@@ -68,6 +68,7 @@ function annualRows(csv: string): Map<string, { value: number; unit: string; col
   const at = (name: string) => head.indexOf(name);
   const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = ['period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit'].map(at);
   for (const line of lines.slice(1)) {
+    if (!line.includes(',year,')) continue; // annual rows only (cheap test before splitting)
     const c = line.split(',');
     if (c[iP] !== 'year' || !COMPARED_STATISTICS.has(c[iS]) || c[iV] === '') continue;
     const cols = [c[iF], c[iC], c[iA], c[iE], c[iM], c[iS]];

@@ -27,14 +27,47 @@ function key(period: string, figure: string, cls: string, accl: string, exposure
   return [period, figure, cls, accl, exposure, method, statistic].join('|');
 }
 
-/** One region's table as a map from row key to value (NaN for an empty value). */
-function readRegionTable(path: string): Map<string, number> {
+/**
+ * One region's table as a map from row key to value (NaN for an empty value), keeping only the
+ * rows of `statistics` (a region table has seven statistics; the layers use one or two). Lines
+ * without quotes are split directly (the pipeline writes no quotes in these tables); others go
+ * through the CSV parser.
+ */
+function readRegionTable(path: string, statistics: ReadonlySet<string>): Map<string, number> {
   if (!existsSync(path)) throw SiteDataMissing({ path, what: 'region table' }, { file: path });
-  const rows = parseCsvObjects(readFileSync(path, 'utf8'));
+  const text = readFileSync(path, 'utf8');
+  const nl = text.indexOf('\n');
+  const header = (nl < 0 ? text : text.slice(0, nl)).replace(/\r$/, '');
+  const cols = header.split(',');
+  const at = Object.fromEntries(REGION_TABLE_KEYS.map((k) => [k, cols.indexOf(k)])) as Record<(typeof REGION_TABLE_KEYS)[number], number>;
+  const missing = REGION_TABLE_KEYS.filter((k) => at[k] < 0);
+  if (missing.length > 0) throw SiteDataInvalid({ path, problems: [`row 2: no column ${missing.join(', ')}`] }, { file: path, row: 2 });
+  if (header.includes('"')) return readRegionTableSlow(path, text, statistics);
+  const out = new Map<string, number>();
+  const lines = text.slice(nl + 1).split('\n');
+  for (let i = 0; i < lines.length; i++) {
+    const line = lines[i].replace(/\r$/, '');
+    if (line === '') continue;
+    if (line.includes('"')) return readRegionTableSlow(path, text, statistics);
+    const c = line.split(',');
+    if (c.length !== cols.length) throw SiteDataInvalid({ path, problems: [`row ${i + 2}: ${c.length} fields, the header has ${cols.length}`] }, { file: path, row: i + 2 });
+    if (!statistics.has(c[at.statistic])) continue;
+    const raw = c[at.value];
+    const v = raw === '' ? NaN : Number(raw);
+    if (Number.isNaN(v) && raw !== '') throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${raw}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
+    out.set(key(c[at.period], c[at.figure], c[at.workload_class], c[at.acclimatization], c[at.exposure], c[at.method], c[at.statistic]), v);
+  }
+  return out;
+}
+
+/** The general path (quoted fields), with the same checks. */
+function readRegionTableSlow(path: string, text: string, statistics: ReadonlySet<string>): Map<string, number> {
+  const rows = parseCsvObjects(text);
   const out = new Map<string, number>();
   rows.forEach((r, i) => {
     const missing = REGION_TABLE_KEYS.filter((k) => r[k] === undefined);
     if (missing.length > 0) throw SiteDataInvalid({ path, problems: [`row ${i + 2}: no column ${missing.join(', ')}`] }, { file: path, row: i + 2 });
+    if (!statistics.has(r.statistic)) return;
     const v = r.value === '' ? NaN : Number(r.value);
     if (Number.isNaN(v) && r.value !== '') throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${r.value}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
     out.set(key(r.period, r.figure, r.workload_class, r.acclimatization, r.exposure, r.method, r.statistic), v);
@@ -45,26 +78,28 @@ function readRegionTable(path: string): Map<string, number> {
 /**
  * For each layer, the value per region (in `regionIds` order) [units of the layer]; null where
  * the region has no value. Niche-class layers give the class code (index in NICHE_CLASSES).
+ * Reads one region's files at a time.
  */
 export function regionLayerValues(dataDir: string, regionIds: string[], layers: ManifestLayer[]): Record<string, Array<number | null>> {
-  const tables = regionIds.map((id) => readRegionTable(join(dataDir, 'data', 'regions', `${id}.csv`)));
-  const summaries = regionIds.map((id) =>
-    readValidatedJson(join(dataDir, 'data', 'regions', `${id}.json`), regionSummarySchema, `region summary (data/regions/${id}.json)`),
-  );
-  const out: Record<string, Array<number | null>> = {};
-  for (const layer of layers) {
-    out[layer.id] = regionIds.map((_, r) => {
+  const statistics = new Set(layers.map((l) => l.statistic));
+  const keys = layers.map((layer) => {
+    if (layer.figure === 'mean-annual-temperature' || layer.figure === 'niche-class') return '';
+    const cc = comboColumns(layer.figure, layer.combo);
+    return key(layer.period, layer.figure, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, layer.statistic);
+  });
+  const out: Record<string, Array<number | null>> = Object.fromEntries(layers.map((l) => [l.id, new Array<number | null>(regionIds.length).fill(null)]));
+  regionIds.forEach((id, r) => {
+    const table = readRegionTable(join(dataDir, 'data', 'regions', `${id}.csv`), statistics);
+    const summary = readValidatedJson(join(dataDir, 'data', 'regions', `${id}.json`), regionSummarySchema, `region summary (data/regions/${id}.json)`);
+    layers.forEach((layer, li) => {
       let v: number | null | undefined;
-      if (layer.figure === 'mean-annual-temperature') v = summaries[r].niche.baselineMat;
+      if (layer.figure === 'mean-annual-temperature') v = summary.niche.baselineMat;
       else if (layer.figure === 'niche-class') {
-        const c = summaries[r].niche.baselineClass;
+        const c = summary.niche.baselineClass;
         v = c === null ? null : NICHE_CLASSES.indexOf(c);
-      } else {
-        const cc = comboColumns(layer.figure, layer.combo);
-        v = tables[r].get(key(layer.period, layer.figure, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, layer.statistic));
-      }
-      return v === undefined || v === null || !Number.isFinite(v) ? null : v;
+      } else v = table.get(keys[li]);
+      out[layer.id][r] = v === undefined || v === null || !Number.isFinite(v) ? null : v;
     });
-  }
+  });
   return out;
 }
