@@ -8,25 +8,18 @@
  * 1 year and for 5 years of the same dataset: memory is bounded by the shard, not the record.
  * Each build runs in a child process (bench/pipeline-child.mjs).
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { writeDemoDataset } from '../pipeline/demo/index.ts';
+import { buildInChild, ensureDemoData, type ChildReport } from './pipeline-runs.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
 const DIR = join(ROOT, '.cache', 'bench', 'pipeline');
-const YEARS = [2020, 2021, 2022, 2023, 2024];
-
-interface ChildReport { cellHours: number; computeSeconds: number; totalSeconds: number; shards: number; maxRssKb: number; checksum: string }
 
 async function inputs(): Promise<void> {
-  const data = join(DIR, 'data');
-  if (!YEARS.every((y) => existsSync(join(data, `era5-demo-${y}.nc`)))) {
-    await writeDemoDataset({ outDir: data, years: YEARS, layout: 'mixed', quiet: true });
-  }
+  await ensureDemoData();
   for (const [name, years] of [['atlas-5y.yaml', [2020, 2024]], ['atlas-1y.yaml', [2021, 2021]]] as const) {
     writeFileSync(join(DIR, name), `id: bench
 title: Benchmark atlas (invented data)
@@ -46,9 +39,7 @@ work:
 }
 
 function build(config: string, jobs: number): ChildReport {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bench/pipeline-child.mjs'), join(DIR, config), join(DIR, `out-${config}-${jobs}`), String(jobs)], { encoding: 'utf8', maxBuffer: 1 << 24 });
-  if (r.status !== 0) throw new Error(`pipeline bench child failed: ${r.stderr}`);
-  return JSON.parse(r.stdout.trim().split('\n').pop()!);
+  return buildInChild(join(DIR, config), join(DIR, `out-${config}-${jobs}`), jobs);
 }
 
 export const bench: Bench = {

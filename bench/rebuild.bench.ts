@@ -11,36 +11,18 @@
  * Every build runs in a child process (bench/pipeline-child.mjs), one after another, so their
  * ratios come from one run on the same (noisy, shared) machine.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { mkdirSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { writeDemoDataset } from '../pipeline/demo/index.ts';
+import { buildInChild, DEMO_DATA_DIR as DATA, DEMO_YEARS as YEARS, ensureDemoData, type ChildReport } from './pipeline-runs.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
-const DATA = join(ROOT, '.cache', 'bench', 'pipeline', 'data');
 const DIR = join(ROOT, '.cache', 'bench', 'rebuild');
-const YEARS = [2020, 2021, 2022, 2023, 2024];
-
-interface ChildReport {
-  shards: number;
-  computed: number;
-  reused: number;
-  cellHours: number;
-  computeSeconds: number;
-  mergeSeconds: number;
-  publishSeconds: number;
-  partialBytes: number;
-  totalSeconds: number;
-  checksum: string;
-}
 
 async function setUp(): Promise<void> {
-  if (!YEARS.every((y) => existsSync(join(DATA, `era5-demo-${y}.nc`)))) {
-    await writeDemoDataset({ outDir: DATA, years: YEARS, layout: 'mixed', quiet: true });
-  }
+  await ensureDemoData();
   // Two views of the same files: the first four years, and all five (the new year arrives).
   for (const [name, years] of [['data-4y', YEARS.slice(0, 4)], ['data-5y', YEARS]] as const) {
     const d = join(DIR, name);
@@ -67,12 +49,7 @@ work:
 }
 
 function build(config: string, out: string, jobs: number, options: Record<string, unknown>): ChildReport {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bench/pipeline-child.mjs'), join(DIR, config), join(DIR, out), String(jobs), JSON.stringify(options)], {
-    encoding: 'utf8',
-    maxBuffer: 1 << 24,
-  });
-  if (r.status !== 0) throw new Error(`rebuild bench child failed: ${r.stderr}`);
-  return JSON.parse(r.stdout.trim().split('\n').pop()!) as ChildReport;
+  return buildInChild(join(DIR, config), join(DIR, out), jobs, options);
 }
 
 const round = (x: number, d = 3) => Math.round(x * 10 ** d) / 10 ** d;

@@ -6,7 +6,8 @@
 import { mkdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 
-function alive(pid: number): boolean {
+/** Whether process `pid` runs on this machine (signal 0; EPERM means it runs as another user). */
+export function processAlive(pid: number): boolean {
   try {
     process.kill(pid, 0);
     return true;
@@ -30,7 +31,7 @@ export async function withProcessLock<T>(lockDir: string, work: () => Promise<T>
     } catch (e) {
       if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
       const owner = Number(await readFile(join(lockDir, 'pid'), 'utf8').catch(() => 'NaN'));
-      if (Number.isInteger(owner) && !alive(owner)) {
+      if (Number.isInteger(owner) && !processAlive(owner)) {
         await rm(lockDir, { recursive: true, force: true });
         continue;
       }

@@ -9,6 +9,7 @@ import { join, relative } from 'node:path';
 import { decodePartial, encodePartial, readPartialHeader, type PartialMeta } from '../reduce/partial-codec.ts';
 import type { ShardPartial } from '../reduce/accumulator.ts';
 import { HeathoursError } from '../model/errors.ts';
+import { processAlive } from '../model/lock.ts';
 import { explainChange, type ShardProvenance } from './shard-key.ts';
 
 export const PARTIAL_EXTENSION = '.hhp';
@@ -47,15 +48,6 @@ export function removeAbandonedTemporaries(dir: string): number {
     n++;
   }
   return n;
-}
-
-function processAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (e) {
-    return (e as NodeJS.ErrnoException).code === 'EPERM';
-  }
 }
 
 /** Reads and decodes a partial file (checksum verified). */

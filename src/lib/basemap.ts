@@ -11,6 +11,7 @@ import type { GeoStream } from 'd3-geo';
 import { feature, mesh } from 'topojson-client';
 import type { Topology, GeometryObject } from 'topojson-specification';
 import type { Feature, FeatureCollection, MultiLineString, MultiPolygon, Position } from 'geojson';
+import { ringContains } from './ring-contains.ts';
 
 /** Largest latitude Web Mercator draws [° N]; the poles are clamped to it. */
 export const MERCATOR_LAT_LIMIT = 85.05112878;
@@ -28,17 +29,6 @@ function ringArea2(ring: Ring): number {
   return s;
 }
 
-/** Even-odd point-in-ring test in the plane (lon, lat). */
-function ringContains(ring: Ring, [x, y]: Position): boolean {
-  let inside = false;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const [xi, yi] = ring[i];
-    const [xj, yj] = ring[j];
-    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
-}
-
 /** A point of `ring` away from the cut meridians, to test nesting with. */
 function probePoint(ring: Ring): Position {
   return ring.find(([x]) => Math.abs(x) < 179.999) ?? ring[0];
@@ -52,7 +42,7 @@ function nestRings(rings: Ring[]): Position[][][] {
   sorted.forEach((ring, i) => {
     const probe = probePoint(ring);
     const containers: number[] = [];
-    for (let j = 0; j < i; j++) if (ringContains(sorted[j], probe)) containers.push(j);
+    for (let j = 0; j < i; j++) if (ringContains(sorted[j], probe[0], probe[1])) containers.push(j);
     if (containers.length % 2 === 1) {
       const parent = containers[containers.length - 1];
       polygons[outerOf[parent]].push(ring);

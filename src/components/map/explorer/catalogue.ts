@@ -2,26 +2,12 @@
  * What the map explorer (`/map/`) knows about the published layers: the catalogue the page's
  * build-time endpoint `/map/explorer.json` writes (src/lib/explorer-catalogue.ts makes it from
  * data/manifest.json, the region tables and the region summaries) and the browser reads. Plain
- * JSON types only, no imports, so both sides share them.
+ * JSON types with type-only imports, so both sides share them.
  */
+import type { LegendSpec } from '../../../../pipeline/publish/layers/legend.ts';
 
-/** The legend of a layer, as the manifest carries it (pipeline/publish/layers/legend.ts). */
-export interface ExplorerLegend {
-  kind: 'continuous' | 'stepped' | 'categorical';
-  title?: string;
-  /** Units of the values: `h`, `degC`, `1` (class codes). */
-  units: string;
-  ramp: string;
-  reversed: boolean;
-  /** Values at the ramp's ends [units]; null for categorical layers. */
-  domain: [number, number] | null;
-  /** Ascending: value (continuous) or class code (categorical) and its exact PNG colour. */
-  stops: Array<{ value: number; color: string; label?: string }>;
-  breaks?: number[];
-  labels: string[];
-  outOfDomain: 'clamped' | 'error';
-  noData: { color: 'transparent'; meaning: string };
-}
+/** The legend of a layer, as the manifest carries it: the pipeline's own type (a type-only import, nothing is bundled). */
+export type ExplorerLegend = LegendSpec;
 
 /** The choices that pick one layer of a figure; a choice a figure does not have is absent. */
 export interface LayerView {

@@ -7,6 +7,7 @@
  * 6371.0088 km, IUGG, from memory). Pure.
  */
 import type { MultiPolygon, Polygon, Position } from 'geojson';
+import { ringContains } from '../../../lib/ring-contains.ts';
 
 const KM_PER_DEGREE = (6371.0088 * Math.PI) / 180;
 
@@ -17,16 +18,6 @@ export interface RegionShape {
 
 function polygons(g: Polygon | MultiPolygon): Position[][][] {
   return g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-}
-
-function ringContains(ring: Position[], x: number, y: number): boolean {
-  let inside = false;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const [xi, yi] = ring[i];
-    const [xj, yj] = ring[j];
-    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
 }
 
 /** Whether the outline holds the point (inside an outer ring and outside its holes). */
