@@ -56,7 +56,13 @@ export const atlasSchema = z
     shards: z
       .object({
         /** Land cells aimed at per spatial tile [cells]. */
-        cellsPerTile: z.number().int().min(1).max(1_000_000).default(512),
+        cellsPerTile: z.number().int().min(1).max(1_000_000).default(1024),
+        /** Local months per piece of a year [months]: 1, 2, 3, 4, 6 or 12. */
+        monthsPerPiece: z
+          .number()
+          .int()
+          .refine((n) => [1, 2, 3, 4, 6, 12].includes(n), { message: 'must be 1, 2, 3, 4, 6 or 12 (a divisor of 12)' })
+          .default(3),
       })
       .strict()
       .default({}),

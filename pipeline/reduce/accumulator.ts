@@ -93,20 +93,26 @@ export function expectedMonthHours(year: number): Uint32Array {
   return out;
 }
 
-/** Moves the scratch histograms into the partial (cell-major layout) and clears them. */
+/**
+ * Moves the scratch histograms into the partial (cell-major layout) and clears them. Only the
+ * scratch's month window is moved, and of it only the months the partial covers: the others
+ * hold no count.
+ */
 export function finishPartial(p: ShardPartial, scratch: ReduceScratch): ShardPartial {
   const nc = p.cells.length;
   const w = N_EXPOSURES * HIST_LEN;
-  for (let m = 0; m < MONTHS; m++) {
+  const [m0, m1] = scratch.months;
+  for (let m = m0; m < m1; m++) {
+    if (p.coveredHours[m] === 0) continue;
     for (let h = 0; h < HOURS; h++) {
       for (let c = 0; c < nc; c++) {
-        const src = ((m * HOURS + h) * nc + c) * w;
+        const src = (((m - m0) * HOURS + h) * nc + c) * w;
         const dst = ((c * MONTHS + m) * HOURS + h) * w;
         p.histogram.set(scratch.hist.subarray(src, src + w), dst);
       }
     }
   }
-  scratch.hist.fill(0);
+  scratch.hist.fill(0, 0, (m1 - m0) * HOURS * nc * w);
   return p;
 }
 
@@ -123,7 +129,7 @@ export interface ReduceBlock {
   local: LocalHours;
 }
 
-/** Scratch arrays reused across blocks (no allocation in the hot path). */
+/** Scratch arrays reused across blocks and shards (no allocation in the hot path). */
 export interface ReduceScratch {
   fraction: Float32Array;
   above: Uint8Array;
@@ -131,26 +137,66 @@ export interface ReduceScratch {
   /** Evaluation groups for the fused path, or null when the general path is needed. */
   groups: EvaluationGroup[] | null;
   losses: PreparedLoss[];
+  /** The evaluations the groups were made for (a scratch serves one list). */
+  evaluations: readonly WorkEvaluation[];
   /**
-   * Histograms while accumulating, month × hour × cell × exposure × bin (cells adjacent, so the
-   * hot loop over cells stays in cache); {@link finishPartial} moves them into the partial.
+   * Local months [m0, m1) (0 = January) the histograms hold: a shard that is a piece of a year
+   * only needs its own months.
+   */
+  months: [number, number];
+  /**
+   * Histograms while accumulating, month (of the window) × hour × cell × exposure × bin (cells
+   * adjacent, so the hot loop over cells stays in cache); {@link finishPartial} moves them into
+   * the partial.
    */
   hist: Uint16Array;
 }
 
+/** Histogram values one month of `nCells` cells needs in the scratch. */
+const histPerMonth = (nCells: number) => HOURS * nCells * N_EXPOSURES * HIST_LEN;
+
 /**
- * Scratch for blocks of up to `n` cell-hours. `general` forces the per-evaluation path (tests
+ * Scratch for blocks of up to `n` cell-hours of `nCells` cells, with histograms for the local
+ * months [m0, m1) (default the whole year). `general` forces the per-evaluation path (tests
  * compare the two paths).
  */
-export function createScratch(n: number, evaluations: readonly WorkEvaluation[], nCells: number, general = false): ReduceScratch {
+export function createScratch(n: number, evaluations: readonly WorkEvaluation[], nCells: number, general = false, months: [number, number] = [0, MONTHS]): ReduceScratch {
   return {
-    hist: new Uint16Array(MONTHS * HOURS * nCells * N_EXPOSURES * HIST_LEN),
+    hist: new Uint16Array((months[1] - months[0]) * histPerMonth(nCells)),
     fraction: new Float32Array(n),
     above: new Uint8Array(n),
     loss: new Float32Array(n),
     groups: general ? null : groupEvaluations(evaluations),
     losses: LOSS_VIEWS.map((v) => prepareLoss(v.intensity)),
+    evaluations,
+    months: [months[0], months[1]],
   };
+}
+
+/**
+ * A scratch for the next shard: `prev` itself (cleared by the last {@link finishPartial}) when
+ * it is large enough and made for the same evaluations, with its month window set, else a new
+ * one. Workers keep one scratch for all their shards, so its pages are not faulted in again.
+ */
+export function reuseScratch(prev: ReduceScratch | undefined, n: number, evaluations: readonly WorkEvaluation[], nCells: number, months: [number, number]): ReduceScratch {
+  const fits =
+    prev !== undefined &&
+    prev.groups !== null &&
+    prev.evaluations === evaluations &&
+    prev.fraction.length >= n &&
+    prev.hist.length >= (months[1] - months[0]) * histPerMonth(nCells);
+  if (!fits) return createScratch(n, evaluations, nCells, false, months);
+  prev.months = [months[0], months[1]];
+  return prev;
+}
+
+/** The scratch month of local month `m` (0-based), or a RangeError outside the window. */
+function windowMonth(scratch: ReduceScratch, m: number): number {
+  const i = m - scratch.months[0];
+  if (i < 0 || m >= scratch.months[1]) {
+    throw new RangeError(`an hour of local month ${m + 1} fell outside the shard's months ${scratch.months[0] + 1}-${scratch.months[1]}`);
+  }
+  return i;
 }
 
 /**
@@ -159,7 +205,7 @@ export function createScratch(n: number, evaluations: readonly WorkEvaluation[],
  * @param evaluations The same list (and order) the partial was created with
  */
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
-  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.hist);
+  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch);
   else accumulateGeneral(p, block, evaluations, scratch);
 }
 
@@ -167,14 +213,16 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
  * The fused path: one pass over the cell-hours; per group one exponential, and only when the
  * hour is above the group's lowest limit. Gives the same counts as the general path.
  */
-function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], hist: Uint16Array): void {
+function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], scratch: ReduceScratch): void {
   const nc = p.cells.length;
+  const hist = scratch.hist;
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
   const nG = groups.length;
   const sunGroup = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 1 : 0));
   for (let t = 0; t < block.nHours; t++) {
     if (local.year[t] !== p.year) continue;
     const m = local.month[t] - 1;
+    const mw = windowMonth(scratch, m);
     p.coveredHours[m]++;
     const h = local.hour[t];
     const shift = local.inShift[t] === 1;
@@ -200,7 +248,7 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       p.wbgtSum[cm * 2 + 1] += d;
       if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
       if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
-      const hb = ((m * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
+      const hb = ((mw * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
       hist[hb + histIndex(ws)]++;
       hist[hb + HIST_LEN + histIndex(wd)]++;
       const base = cm * nE;
@@ -309,6 +357,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
   for (let t = 0; t < nt; t++) {
     if (inYear[t] === 0) continue;
     const m = local.month[t] - 1;
+    const mw = windowMonth(scratch, m);
     const h = local.hour[t];
     const shift = local.inShift[t];
     const row = t * nc;
@@ -334,7 +383,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
       p.wbgtSum[cm * 2 + 1] += d;
       if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
       if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
-      const hb = ((m * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
+      const hb = ((mw * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
       hist[hb + histIndex(ws)]++;
       hist[hb + HIST_LEN + histIndex(wd)]++;
     }

@@ -110,13 +110,64 @@ function copyCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number
   (out[f] as Uint32Array).set(src.subarray(j * w, j * w + w), at * w);
 }
 
+/**
+ * Adds a cell's counts of partial `p` into `out`. Fields per cell × month skip the months the
+ * partial does not cover (they hold no count): a quarter's piece adds a quarter of the year.
+ */
 function addCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {
   const w = per(p, f);
   const src = p[f];
   const dst = out[f];
   const s0 = j * w;
   const d0 = at * w;
-  for (let k = 0; k < w; k++) dst[d0 + k] += src[s0 + k];
+  if (f === 'failedHours') {
+    for (let k = 0; k < w; k++) dst[d0 + k] += src[s0 + k];
+    return;
+  }
+  const inner = w / MONTHS;
+  if (f === 'histogram') return addHistogramCell(out.histogram, p, at, j, inner);
+  for (let m = 0; m < MONTHS; m++) {
+    if (p.coveredHours[m] === 0) continue;
+    const a = m * inner;
+    for (let k = a; k < a + inner; k++) dst[d0 + k] += src[s0 + k];
+  }
+}
+
+/** Uint32 views of histograms (two bins per element), made once per array. */
+const pairs = new WeakMap<Uint16Array, Uint32Array>();
+function pairView(h: Uint16Array): Uint32Array {
+  let v = pairs.get(h);
+  if (v === undefined) {
+    v = new Uint32Array(h.buffer, h.byteOffset, h.length >> 1);
+    pairs.set(h, v);
+  }
+  return v;
+}
+
+/**
+ * Adds a cell's histogram two bins at a time, as uint32 pairs of uint16 bins: exact, since a
+ * bin counts the hours of one local hour of the day in one month (at most 32, with a
+ * daylight-saving day), so no bin's sum carries into its neighbour. Falls back to bin by bin
+ * when the arrays are not 4-byte aligned.
+ */
+function addHistogramCell(dst: Uint16Array, p: ShardPartial, at: number, j: number, inner: number): void {
+  const src = p.histogram;
+  const w = inner * MONTHS;
+  const aligned = (src.byteOffset & 3) === 0 && (dst.byteOffset & 3) === 0 && (inner & 1) === 0;
+  for (let m = 0; m < MONTHS; m++) {
+    if (p.coveredHours[m] === 0) continue;
+    const s0 = j * w + m * inner;
+    const d0 = at * w + m * inner;
+    if (aligned) {
+      const s2 = pairView(src);
+      const d2 = pairView(dst);
+      const a = s0 >> 1;
+      const b = d0 >> 1;
+      for (let k = 0; k < inner >> 1; k++) d2[b + k] += s2[a + k];
+    } else {
+      for (let k = 0; k < inner; k++) dst[d0 + k] += src[s0 + k];
+    }
+  }
 }
 
 function emptyLike(p: ShardPartial, year: number, cells: Int32Array): ShardPartial {

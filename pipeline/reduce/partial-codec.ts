@@ -90,9 +90,9 @@ function sparseHistogram(h: Uint16Array): Uint16Array {
   for (let s = 0; s < slots; s++) {
     out[p++] = firsts[s];
     out[p++] = ns[s];
+    // Element by element: a subarray per slot (hundreds of thousands) costs more than the copy.
     const b0 = s * HIST_LEN + firsts[s];
-    out.set(h.subarray(b0, b0 + ns[s]), p);
-    p += ns[s];
+    for (let k = 0; k < ns[s]; k++) out[p++] = h[b0 + k];
   }
   return out;
 }
@@ -106,8 +106,8 @@ function denseHistogram(sparse: Uint16Array, length: number, file: string): Uint
     const first = sparse[p++];
     const n = sparse[p++];
     if (first + n > HIST_LEN || p + n > sparse.length) throw PartialCorrupt({ file, detail: `histogram slot ${s} runs past its bins` });
-    out.set(sparse.subarray(p, p + n), s * HIST_LEN + first);
-    p += n;
+    const b0 = s * HIST_LEN + first;
+    for (let k = 0; k < n; k++) out[b0 + k] = sparse[p++];
   }
   if (p !== sparse.length) throw PartialCorrupt({ file, detail: `${sparse.length - p} histogram values left over` });
   return out;

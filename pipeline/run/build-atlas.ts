@@ -131,7 +131,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
 
     // The plan, each shard's provenance, and where its partial comes from.
     const years = range(cfg.years[0], cfg.years[1]);
-    const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone), cfg.shards.cellsPerTile);
+    const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
     const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations };
     const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
@@ -218,9 +218,6 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       slot.partials = [];
       mergeMs += Date.now() - tm;
     };
-    for (const y of years) if (pending.get(y)!.toCompute === 0) finishYear(y);
-    if (mergeMs > 0) log.info(`years whose shards were all reused merged (${(mergeMs / 1000).toFixed(1)} s)`);
-
     const tasks = keyed.flatMap((kd, i) => {
       const s = sources[i];
       return s.kind === 'compute' ? [{ shard: kd.shard, store: s.storePath ? { path: s.storePath, meta: taskMeta(kd) } : undefined }] : [];
@@ -228,7 +225,8 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
     log.info(`computing ${tasks.length} of ${shards.length} shards (${cells.length} land cells × ${years.length} years in all) on ${jobs} worker(s)`);
     const progress = startProgress('shards', tasks.length, { quiet: o.quiet });
     const tc = Date.now();
-    await runShards(tasks, workerInit(true), jobs, (shard, out) => {
+    const stop = new AbortController();
+    const computing = runShards(tasks, workerInit(true), jobs, (shard, out) => {
       const slot = pending.get(shard.year)!;
       slot.partials.push({ id: shard.id, partial: out.result.partial! });
       slot.toCompute -= 1;
@@ -238,7 +236,26 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       addTiming(out.result);
       if (slot.toCompute === 0) finishYear(shard.year);
       progress.tick();
-    });
+    }, stop.signal);
+    computing.catch(() => undefined); // awaited below; a failure meanwhile is not unhandled
+    // Years whose shards are all reused are merged meanwhile (the workers have their first
+    // shards already), one year per turn of the event loop so that results are taken in between.
+    const reusedYears = years.filter((y) => pending.get(y)!.toCompute === 0);
+    let reusedMs = 0;
+    try {
+      for (const y of reusedYears) {
+        await new Promise((r) => setImmediate(r));
+        const tm = Date.now();
+        finishYear(y);
+        reusedMs += Date.now() - tm;
+      }
+    } catch (e) {
+      stop.abort(e);
+      await computing.catch(() => undefined);
+      throw e;
+    }
+    if (reusedYears.length > 0) log.info(`${reusedYears.length} year(s) whose shards were all reused merged (${(reusedMs / 1000).toFixed(1)} s)`);
+    await computing;
     progress.done();
     const computeSeconds = (Date.now() - tc) / 1000;
     if (tasks.length > 0) {

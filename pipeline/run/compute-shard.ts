@@ -6,7 +6,7 @@
 import type { Dataset } from '../read/index.ts';
 import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
 import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
-import { accumulateBlock, createPartial, createScratch, finishPartial, type ShardPartial } from '../reduce/accumulator.ts';
+import { accumulateBlock, createPartial, finishPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
@@ -52,6 +52,42 @@ export function landRuns(cells: Int32Array, nLon: number, y0: number): LandRun[]
   return runs;
 }
 
+/** The arrays one shard's blocks are computed in: inputs, physics outputs, reduction scratch. */
+interface BlockBuffers {
+  scratch: ReduceScratch;
+  local: LocalHours;
+  inp: Record<'air' | 'dew' | 'sp' | 'wind' | 'sg' | 'sd', Float32Array>;
+  out: Record<'cosZenith' | 'directFraction' | 'solar' | 'wind2m' | 'wbgtSun' | 'wbgtShade', Float32Array> & { status: Uint8Array };
+  gSun: Float32Array;
+  gShade: Float32Array;
+  gAir: Float32Array;
+}
+
+/**
+ * The buffers of the last shard, kept for the next one in this thread (a worker computes many
+ * shards): allocating and faulting in ~100 MB per shard cost more than a short piece's work.
+ */
+let kept: BlockBuffers | undefined;
+
+function blockBuffers(n: number, evaluations: readonly WorkEvaluation[], nLand: number, months: [number, number]): BlockBuffers {
+  const scratch = reuseScratch(kept?.scratch, n, evaluations, nLand, months);
+  if (kept !== undefined && kept.gAir.length >= n) {
+    kept.scratch = scratch;
+    return kept;
+  }
+  const mk = () => new Float32Array(n);
+  kept = {
+    scratch,
+    local: allocLocalHours(BLOCK_HOURS),
+    inp: { air: mk(), dew: mk(), sp: mk(), wind: mk(), sg: mk(), sd: mk() },
+    out: { cosZenith: mk(), directFraction: mk(), solar: mk(), wind2m: mk(), wbgtSun: mk(), wbgtShade: mk(), status: new Uint8Array(n) },
+    gSun: mk(),
+    gShade: mk(),
+    gAir: mk(),
+  };
+  return kept;
+}
+
 export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardContext): Promise<ShardResult> {
   const { tile, cells } = shard;
   const nRows = tile.y1 - tile.y0;
@@ -63,21 +99,14 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
   const runs = landRuns(cells, ctx.nLon, tile.y0);
 
   const partial = createPartial(shard.year, cells, ctx.evaluations);
-  const scratch = createScratch(BLOCK_HOURS * nLand, ctx.evaluations, nLand);
+  const n = BLOCK_HOURS * nLand;
+  const buf = blockBuffers(n, ctx.evaluations, nLand, shard.months);
+  const { scratch, inp, out, gSun, gShade, gAir } = buf;
   const physics = emptyCounts();
-  const local: LocalHours = allocLocalHours(BLOCK_HOURS);
+  const local: LocalHours = buf.local;
   // Physics runs on the land cells only, one grid row at a time: each row's land cells form a
   // grid of 1 row × its land columns (the columns need not be adjacent: geometry takes the
   // longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
-  const n = BLOCK_HOURS * nLand;
-  const mk = () => new Float32Array(n);
-  const inp = { air: mk(), dew: mk(), sp: mk(), wind: mk(), sg: mk(), sd: mk() };
-  const out = {
-    cosZenith: mk(), directFraction: mk(), solar: mk(), wind2m: mk(), wbgtSun: mk(), wbgtShade: mk(), status: new Uint8Array(n),
-  };
-  const gSun = mk();
-  const gShade = mk();
-  const gAir = mk();
   const rowLat = new Float64Array(1);
   const runLon = runs.map((r) => new Float64Array(r.j1 - r.j0));
   let cellHours = 0;

@@ -3,7 +3,9 @@
  * one piece of a local calendar year. A local year is cut where the UTC calendar year of the
  * data changes, so that a new year of data (files of one UTC year) touches only the pieces that
  * read it: with local time UTC−10, local 2023 is the piece `y2023` (hours starting in UTC 2023)
- * and the 10-hour piece `y2023-u2024`. Shards are independent; their partials are integer
+ * and the 10-hour piece `y2023-u2024`. Inside a UTC year the pieces are cut further into groups
+ * of local months (`shards.monthsPerPiece`, a quarter by default: `y2023-m01` … `y2023-m10`,
+ * `y2023-u2024-m12`). Shards are independent; their partials are integer
  * counts, and pieces of one tile and year add up, so any partition of the plan merges to
  * identical results (DESIGN.md §3).
  */
@@ -12,11 +14,25 @@ import { localHours } from '../work/index.ts';
 
 const HOUR_MS = 3_600_000;
 
-/** One piece of a local year: the hours [h0, h1) (dataset hour indices) that start in UTC year `utcYear`. */
+/**
+ * One piece of a local year: the hours [h0, h1) (dataset hour indices) that start in UTC year
+ * `utcYear` and fall in one group of `monthsPerPiece` local months.
+ */
 export interface YearPiece {
   utcYear: number;
   hours: [number, number];
+  /** Local months [m0, m1) of the year (0 = January) that the piece's hours of the year fall in. */
+  months: [number, number];
 }
+
+/** Allowed `shards.monthsPerPiece`: the divisors of 12, so groups never straddle a year. */
+export const MONTHS_PER_PIECE = [1, 2, 3, 4, 6, 12] as const;
+/**
+ * Local months per piece of a year: a quarter. Pieces of one tile and year read disjoint hours,
+ * so a year of a NetCDF-4 file (whose chunks usually span the whole grid) is inflated once, and
+ * the pieces are small enough to keep every core busy to the end.
+ */
+export const DEFAULT_MONTHS_PER_PIECE = 3;
 
 /**
  * Hour indices [h0, h1) of the dataset that may belong to local year `year`: the UTC year ± 26 h
@@ -32,10 +48,12 @@ export function hourRangeForYear(time: { start: number; count: number }, year: n
 
 /**
  * The pieces of local year `year`: its hour range cut where the UTC year in which the hours
- * start changes (stamps are hour ends [ms]), keeping the pieces that hold at least one hour of
- * the local year (local years follow time, so the first and last hours decide).
+ * start changes (stamps are hour ends [ms]), and inside each UTC year where the local month
+ * enters a new group of `monthsPerPiece` months, keeping the pieces that hold at least one hour
+ * of the local year. Hours of the neighbouring local years stay with the first or last piece
+ * (the accumulator skips them).
  */
-export function yearPieces(time: { start: number; count: number }, year: number, timeZone: string): YearPiece[] {
+export function yearPieces(time: { start: number; count: number }, year: number, timeZone: string, monthsPerPiece = 12): YearPiece[] {
   const [h0, h1] = hourRangeForYear(time, year);
   const stamp = (h: number) => time.start + h * HOUR_MS;
   const pieces: YearPiece[] = [];
@@ -43,8 +61,27 @@ export function yearPieces(time: { start: number; count: number }, year: number,
     // An hour belongs to the UTC year it starts in (its stamp is its end).
     const u = new Date(stamp(a) - HOUR_MS).getUTCFullYear();
     const b = Math.min(h1, Math.ceil((Date.UTC(u + 1, 0, 1) + HOUR_MS - time.start) / HOUR_MS));
-    const ends = localHours([stamp(a), stamp(b - 1)], timeZone);
-    if (ends.year[0] <= year && ends.year[1] >= year) pieces.push({ utcYear: u, hours: [a, b] });
+    const local = localHours(Float64Array.from({ length: b - a }, (_, i) => stamp(a + i)), timeZone);
+    let from = a;
+    let group = -1;
+    let m0 = 0;
+    let m1 = 0;
+    for (let h = a; h < b; h++) {
+      if (local.year[h - a] !== year) continue;
+      const m = local.month[h - a] - 1;
+      const g = Math.floor(m / monthsPerPiece);
+      if (group >= 0 && g !== group) {
+        pieces.push({ utcYear: u, hours: [from, h], months: [m0, m1] });
+        from = h;
+        group = -1;
+      }
+      if (group < 0) {
+        group = g;
+        m0 = m;
+      }
+      m1 = m + 1;
+    }
+    if (group >= 0) pieces.push({ utcYear: u, hours: [from, b], months: [m0, m1] });
     a = b;
   }
   return pieces;
@@ -52,7 +89,11 @@ export function yearPieces(time: { start: number; count: number }, year: number,
 
 /** One unit of work. */
 export interface ShardSpec {
-  /** Stable name, e.g. `t03-y2021`: used in logs, partial file names and error messages. */
+  /**
+   * Stable name, e.g. `t03-y2021-m04` (tile 3, local 2021, the piece from local April) or
+   * `t03-y2021-u2022-m12` (its hours in UTC 2022); without `-mMM` when a piece is a whole year.
+   * Used in logs, partial file names and error messages.
+   */
   id: string;
   tileIndex: number;
   tile: Tile;
@@ -62,15 +103,19 @@ export interface ShardSpec {
   utcYear: number;
   /** Dataset hour indices [h0, h1) of the piece. */
   hours: [number, number];
+  /** Local months [m0, m1) of the year (0 = January) the piece's hours of the year fall in. */
+  months: [number, number];
   /** Global indices (row-major in the dataset grid) of the land cells of the tile, ascending. */
   cells: Int32Array;
 }
 
 /**
  * Land cells aimed at per tile: enough to amortise a block read (a NetCDF-4 chunk usually spans
- * the whole grid, so every tile of a year inflates it again), small enough to balance cores.
+ * the whole grid, so every tile of a year inflates it again; the demo's 655 land cells are one
+ * tile). Cores are balanced by cutting years into pieces ({@link DEFAULT_MONTHS_PER_PIECE}), not
+ * by small tiles. A tile's scratch histograms take about 48 kB per cell and month of the piece.
  */
-export const TARGET_CELLS_PER_TILE = 512;
+export const TARGET_CELLS_PER_TILE = 1024;
 
 /**
  * Cuts the grid into bands of whole rows holding about {@link TARGET_CELLS_PER_TILE} land
@@ -79,6 +124,7 @@ export const TARGET_CELLS_PER_TILE = 512;
  * @param land 1 where a cell is computed (row-major), or undefined for all cells
  * @param pieces the pieces of each local year ({@link yearPieces})
  * @param cellsPerTile land cells aimed at per tile [cells] (config `shards.cellsPerTile`)
+ * @param monthsPerPiece the months per piece the pieces were cut with [months], for the names
  */
 export function planShards(
   nLat: number,
@@ -87,6 +133,7 @@ export function planShards(
   years: readonly number[],
   pieces: (year: number) => YearPiece[],
   cellsPerTile = TARGET_CELLS_PER_TILE,
+  monthsPerPiece = 12,
 ): ShardSpec[] {
   const landInRow = new Int32Array(nLat);
   for (let y = 0; y < nLat; y++) {
@@ -110,9 +157,10 @@ export function planShards(
   const shards: ShardSpec[] = [];
   for (const year of years) {
     for (const piece of pieces(year)) {
-      const suffix = piece.utcYear === year ? '' : `-u${piece.utcYear}`;
+      const month = monthsPerPiece < 12 ? `-m${String(piece.months[0] + 1).padStart(2, '0')}` : '';
+      const suffix = `${piece.utcYear === year ? '' : `-u${piece.utcYear}`}${month}`;
       tiles.forEach((t, i) =>
-        shards.push({ id: `t${String(i).padStart(2, '0')}-y${year}${suffix}`, tileIndex: i, tile: t.tile, year, utcYear: piece.utcYear, hours: piece.hours, cells: t.cells }),
+        shards.push({ id: `t${String(i).padStart(2, '0')}-y${year}${suffix}`, tileIndex: i, tile: t.tile, year, utcYear: piece.utcYear, hours: piece.hours, months: piece.months, cells: t.cells }),
       );
     }
   }

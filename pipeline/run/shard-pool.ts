@@ -45,6 +45,7 @@ export async function runShards(
   init: WorkerInit,
   jobs: number,
   onResult: (shard: ShardSpec, outcome: ShardOutcome) => void,
+  signal?: AbortSignal,
 ): Promise<void> {
   if (tasks.length === 0) return;
   const size = Math.max(1, Math.min(jobs, tasks.length));
@@ -57,19 +58,33 @@ export async function runShards(
       workers.map(
         (w) =>
           new Promise<void>((resolve, reject) => {
+            // Up to two shards in flight per worker while the queue is long: the worker starts
+            // its next shard at once, even while the main thread is busy merging a year. Near
+            // the end one at a time, so no worker sits on a shard another could take.
+            let inFlight = 0;
             const next = () => {
-              const task = queue.shift();
-              if (!task) return resolve();
-              w.postMessage({ task });
+              const depth = queue.length > workers.length ? 2 : 1;
+              while (inFlight < depth && queue.length > 0) {
+                inFlight += 1;
+                w.postMessage({ task: queue.shift()! });
+              }
+              if (inFlight === 0) resolve();
             };
             w.on('error', reject);
+            // The caller gave up (its own work failed): no more shards, the workers are stopped.
+            signal?.addEventListener('abort', () => {
+              queue.length = 0;
+              reject(signal.reason);
+            });
             w.on('exit', (code) => {
               if (code !== 0) reject(new Error(`a shard worker exited with code ${code}`));
             });
             w.on('message', (m: { ready?: boolean; error?: WorkerError; shardId?: string; result?: ShardOutcome['result']; ms?: number; storeMs?: number; storedBytes?: number }) => {
               if (m.error) return reject(toError(m.error, m.shardId));
-              if (m.ready) return next();
+              if (m.ready) return;
               if (m.result) {
+                if (signal?.aborted) return;
+                inFlight -= 1;
                 const shard = tasks.find((t) => t.shard.id === m.shardId)!.shard;
                 // The worker gets its next shard first: the main thread's work on this result
                 // (merging a finished year) then overlaps the worker's computing.
@@ -83,7 +98,10 @@ export async function runShards(
                 }
               }
             });
+            // The first shards go with the set-up: the worker starts on them as soon as it has
+            // opened the dataset, whatever the main thread is doing then.
             w.postMessage({ init });
+            next();
           }),
       ),
     );

@@ -24,7 +24,14 @@ export interface WorkerInit {
 let ds: Dataset | undefined;
 let init: WorkerInit | undefined;
 
-parentPort!.on('message', async (m: { init?: WorkerInit; task?: ShardTask; close?: boolean }) => {
+// Messages are handled one after another (the pool may send the next shard before this one is
+// done; computeShard awaits reads, and two shards must not share the block buffers at once).
+let chain: Promise<void> = Promise.resolve();
+parentPort!.on('message', (m: { init?: WorkerInit; task?: ShardTask; close?: boolean }) => {
+  chain = chain.then(() => handle(m));
+});
+
+async function handle(m: { init?: WorkerInit; task?: ShardTask; close?: boolean }): Promise<void> {
   try {
     if (m.init) {
       ds = await openDataset(m.init.files, { ...m.init.datasetOptions });
@@ -54,4 +61,4 @@ parentPort!.on('message', async (m: { init?: WorkerInit; task?: ShardTask; close
       : { catalogued: false, message: (e as Error)?.stack ?? String(e) };
     parentPort!.postMessage({ error: err, shardId: m.task?.shard.id });
   }
-});
+}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
-import { accumulateBlock, createPartial, createScratch, finishPartial, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
+import { accumulateBlock, createPartial, createScratch, finishPartial, reuseScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
 import { mergeYear } from '../../pipeline/reduce/merge.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, MILLI, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import {
@@ -143,6 +143,38 @@ describe('merging partials', () => {
     const split = mergeYear(2021, cells, [piece(50, nt), piece(0, 50)], ['t00-y2021-u2022', 't00-y2021']);
     expect(split).toEqual(whole);
     expect(Array.from(split.coveredHours).reduce((x, y) => x + y, 0)).toBe(nt);
+  });
+
+  it('monthly pieces counted in one reused scratch holding only their month add up to the whole, and an hour outside the scratch\'s months is refused', () => {
+    const evals = work.evaluations;
+    const nc = 4;
+    const nt = 24 * 70;
+    const start = Date.UTC(2021, 5, 20);
+    const b = inventedBlock(nc, nt, start, 5, 41);
+    const cells = Int32Array.from({ length: nc }, (_, i) => i * 2);
+    const local = localHours(b.time, 'Etc/GMT+10', work.shift);
+    const count = (t0: number, t1: number, scratch: ReturnType<typeof createScratch>) => {
+      const p = createPartial(2021, cells, evals);
+      const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
+      accumulateBlock(p, { nHours: t1 - t0, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local: localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift) }, evals, scratch);
+      return finishPartial(p, scratch);
+    };
+    const whole = mergeYear(2021, cells, [count(0, nt, createScratch(nt * nc, evals, nc))]);
+    // Cut where the local month changes (June, July, August): one scratch of one month, reused.
+    const cuts = [0];
+    for (let t = 1; t < nt; t++) if (local.month[t] !== local.month[t - 1]) cuts.push(t);
+    cuts.push(nt);
+    expect(cuts.length).toBe(4);
+    let scratch = createScratch(nt * nc, evals, nc, false, [5, 6]);
+    const pieces = cuts.slice(0, -1).map((t0, i) => {
+      const m = local.month[t0] - 1;
+      scratch = reuseScratch(scratch, nt * nc, evals, nc, [m, m + 1]);
+      return count(t0, cuts[i + 1], scratch);
+    });
+    expect(scratch.hist.length).toBe(HOURS * nc * N_EXPOSURES * HIST_LEN);
+    expect(mergeYear(2021, cells, pieces)).toEqual(whole);
+    // July's hours into a scratch for June: a RangeError, not counts in the wrong month.
+    expect(() => count(cuts[1], cuts[2], reuseScratch(scratch, nt * nc, evals, nc, [5, 6]))).toThrow(/local month 7 fell outside the shard's months 6-6/);
   });
 
   it('a cell in two tiles and a cell in none are catalogued errors naming the shards', () => {

@@ -72,6 +72,18 @@ describe('heathours build on the invented small demo', () => {
     expect(m1.artefacts.length).toBeGreaterThan(100);
   });
 
+  it('publishes the same tables and layers whether years are cut into months, quarters (the default) or whole years, and tiles into bands of 8 cells or one', async () => {
+    const digests = (m: Manifest) => m.artefacts.filter((a) => !a.path.endsWith('inventory.json')).map((a) => `${a.path} ${a.sha256}`);
+    const ref = digests(JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest);
+    for (const [name, shards] of [['months', '{ monthsPerPiece: 1, cellsPerTile: 8 }'], ['years', '{ monthsPerPiece: 12 }']] as const) {
+      writeFileSync(join(dir, `atlas-${name}.yaml`), atlasYaml(`shards: ${shards}\n`));
+      const r = await buildAtlas({ configPath: join(dir, `atlas-${name}.yaml`), outDir: join(dir, `out-${name}`), jobs: 2, quiet: true, dataOnly: true, cache: false });
+      expect(r.shards, name).toBeGreaterThan(name === 'months' ? 24 : 2);
+      const m = JSON.parse(readFileSync(join(dir, `out-${name}/data/manifest.json`), 'utf8')) as Manifest;
+      expect(digests(m), name).toEqual(ref);
+    }
+  }, 300_000);
+
   it('the manifest lists every published file with its true SHA-256 and the inputs with theirs', () => {
     const m = JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest;
     for (const a of m.artefacts.slice(0, 50)) {

@@ -1,6 +1,7 @@
 /**
  * Distributed runs, the partial cache and the yearly rebuild, on the invented small demo
- * (8 × 10 cells at 1°, cut into tiles of about 8 land cells so there are many shards). Shard
+ * (8 × 10 cells at 1°, cut into tiles of about 16 land cells and years into quarters, so there are
+ * many shards). Shard
  * commands run as separate processes, as a Kubernetes Indexed Job or a Slurm array would run them.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -33,7 +34,7 @@ baseline: [${b0}, ${b1}]
 timeZone: Etc/GMT+10
 regions: ${join(ROOT, 'content/regions')}
 output: out
-shards: { cellsPerTile: 8 }
+shards: { cellsPerTile: 16 }
 work:
   classesFile: ${opts.classesFile ?? join(ROOT, 'content/workload-classes.yaml')}
 `;
@@ -128,7 +129,7 @@ describe('distributed runs: heathours build --shard K/N --partials DIR, then --m
       mkdirSync(join(d, 'again'));
       cpSync(join(d, 'slice-1-of-4', f), join(d, 'again', f));
     });
-    await expectCataloguedAsync(merge(dup, 'o-dup'), 'PartialsDuplicated', /shard t\d\d-y20\d\d is in 2 partial files: again\/.*slice-1-of-4\//);
+    await expectCataloguedAsync(merge(dup, 'o-dup'), 'PartialsDuplicated', /shard t\d\d-y20\d\d(-m\d\d)? is in 2 partial files: again\/.*slice-1-of-4\//);
     const bad = variant('parts-bad', (d) => {
       const f = join(d, 'slice-3-of-4', readdirSync(join(d, 'slice-3-of-4'))[0]);
       truncateSync(f, statSync(f).size - 7);
@@ -161,15 +162,16 @@ describe('the partial cache and the yearly rebuild', () => {
     const log = logged();
     const second = await buildAtlas({ configPath: join(y, 'atlas.yaml'), jobs: 2, dataOnly: true, logger: log.logger, quiet: true });
     // Local years are UTC−10: local 2022 ends at 2023-01-01 10:00 UTC, in the new file. Its
-    // shards are cut where the UTC year changes (plan.ts), so only the 10-hour pieces
-    // y2022-u2023 and the new year's y2023 are computed; y2021, y2021-u2022 and y2022 are reused.
-    const tiles = second.shards / 5;
-    expect(first.shards).toBe(3 * tiles);
-    expect(second.computed).toBe(2 * tiles);
-    expect(second.reused).toBe(3 * tiles);
+    // shards are cut where the UTC year changes (plan.ts), and each UTC year into local quarters,
+    // so only the 10-hour pieces y2022-u2023-m12 and the new year's four quarters are computed;
+    // 2021's five pieces and 2022's four quarters are reused.
+    const tiles = second.shards / 14;
+    expect(first.shards).toBe(9 * tiles);
+    expect(second.computed).toBe(5 * tiles);
+    expect(second.reused).toBe(9 * tiles);
     const said = log.lines.join('\n');
-    expect(said).toMatch(/shards reused: \d+ — t00-y2021, /);
-    expect(said).toMatch(/recomputed \(not computed before\): \d+ — t00-y2022-u2023, /);
+    expect(said).toMatch(/shards reused: \d+ — t00-y2021-m01, /);
+    expect(said).toMatch(/recomputed \(not computed before\): \d+ — t00-y2022-u2023-m12, /);
     expect(said).not.toMatch(/reused: .*y2023/);
     expectSameTree(join(dir, 'ref/data'), join(y, 'out/data'), ['changes.json']);
     const changes = JSON.parse(readFileSync(join(y, 'out/data/changes.json'), 'utf8'));
@@ -204,12 +206,12 @@ describe('the partial cache and the yearly rebuild', () => {
     writeFileSync(join(y, 'atlas.yaml'), atlasYaml());
     await buildAtlas({ configPath: join(y, 'atlas.yaml'), jobs: 2, quiet: true, dataOnly: true });
     const cache = join(y, '.heathours-cache/dist');
-    const victim = join(cache, 't01-y2022.hhp');
+    const victim = join(cache, 't01-y2022-m04.hhp');
     truncateSync(victim, Math.floor(statSync(victim).size / 2));
     const log = logged();
     const r = await buildAtlas({ configPath: join(y, 'atlas.yaml'), jobs: 2, quiet: true, dataOnly: true, logger: log.logger });
     expect(r.computed).toBe(1);
-    expect(log.lines.join('\n')).toMatch(/recomputed \(cache entry damaged: .*t01-y2022\.hhp: checksum mismatch.*\): 1 — t01-y2022/);
+    expect(log.lines.join('\n')).toMatch(/recomputed \(cache entry damaged: .*t01-y2022-m04\.hhp: checksum mismatch.*\): 1 — t01-y2022-m04/);
     expectSameTree(join(dir, 'ref/data'), join(y, 'out/data'), ['changes.json']);
   }, 300_000);
 

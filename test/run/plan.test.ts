@@ -30,4 +30,29 @@ describe('the shard plan', () => {
     expect(sliceShards(shards, 2, 3).map((s) => s.id)).toEqual(['t01-y2022']);
     expect([1, 2, 3].flatMap((k) => sliceShards(shards, k, 3)).length).toBe(shards.length);
   });
+
+  it('cuts each UTC year into local quarters: the pieces cover every hour of the range once, each inside one quarter, named by its first local month', () => {
+    const p = yearPieces(time, 2022, 'Etc/GMT+10', 3);
+    expect(p.map((x) => [x.utcYear, x.months])).toEqual([
+      [2022, [0, 3]], [2022, [3, 6]], [2022, [6, 9]], [2022, [9, 12]], [2023, [11, 12]],
+    ]);
+    // Contiguous and complete: the same hours as the whole-year pieces.
+    const whole = yearPieces(time, 2022, 'Etc/GMT+10');
+    expect(p[0].hours[0]).toBe(whole[0].hours[0]);
+    expect(p[p.length - 1].hours[1]).toBe(whole[whole.length - 1].hours[1]);
+    for (let i = 1; i < p.length; i++) expect(p[i].hours[0]).toBe(p[i - 1].hours[1]);
+    // The second quarter starts at local 1 April 00:00 = 10:00 UTC (its first hour ends 11:00).
+    expect(stamp(p[1].hours[0])).toBe('2022-04-01T11:00:00.000Z');
+    const land = Uint8Array.from({ length: 4 * 3 }, () => 1);
+    const shards = planShards(4, 3, land, [2022], (y) => yearPieces(time, y, 'Etc/GMT+10', 3), 1024, 3);
+    expect(shards.map((s) => s.id)).toEqual(['t00-y2022-m01', 't00-y2022-m04', 't00-y2022-m07', 't00-y2022-m10', 't00-y2022-u2023-m12']);
+  });
+
+  it('with daylight saving (Europe/Berlin) a quarter still starts at local midnight of its first day', () => {
+    const p = yearPieces(time, 2022, 'Europe/Berlin', 3);
+    // Local 1 April 2022 00:00 is 31 March 22:00 UTC (summer time, UTC+2): the first hour ends 23:00.
+    expect(stamp(p.find((x) => x.months[0] === 3)!.hours[0])).toBe('2022-03-31T23:00:00.000Z');
+    // Local 1 October 00:00 is 30 September 22:00 UTC.
+    expect(stamp(p.find((x) => x.months[0] === 9)!.hours[0])).toBe('2022-09-30T23:00:00.000Z');
+  });
 });

@@ -1,0 +1,56 @@
+/**
+ * The shard pool (pipeline/run/shard-pool.ts): workers hold up to two shards at a time, results
+ * arrive whatever the main thread does meanwhile, and a caller that gives up stops the workers.
+ * Invented small demo data (pipeline/demo).
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { writeDemoDataset } from '../../pipeline/demo/index.ts';
+import { openDataset } from '../../pipeline/read/index.ts';
+import { planShards, yearPieces, type ShardSpec } from '../../pipeline/run/plan.ts';
+import { runShards } from '../../pipeline/run/shard-pool.ts';
+import type { WorkerInit } from '../../pipeline/run/shard-worker.ts';
+import { parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
+import { parse } from 'yaml';
+
+const ROOT = new URL('../../', import.meta.url).pathname;
+let init: WorkerInit;
+let shards: ShardSpec[] = [];
+
+beforeAll(async () => {
+  const dir = mkdtempSync(join(tmpdir(), 'hh-pool-'));
+  const { files: paths } = await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2022], layout: 'legacy', grid: 'small', quiet: true });
+  const options = { product: 'era5' as const, landSeaMask: { variable: 'lsm', threshold: 0.5 } };
+  const ds = await openDataset(paths, options);
+  const classes = parseWorkloadClasses(parse(readFileSync(join(ROOT, 'content/workload-classes.yaml'), 'utf8')));
+  const work = resolveWorkSettings(workSettingsSchema.parse(undefined), classes);
+  const nLon = ds.grid.lon.length;
+  shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
+  await ds.close();
+  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, nLon }, returnPartials: true };
+}, 120_000);
+
+describe('the shard pool', () => {
+  it('computes every shard once with two workers, each result handed over with its partial', async () => {
+    expect(shards.length).toBe(12);
+    const got: string[] = [];
+    await runShards(shards.map((shard) => ({ shard })), init, 2, (s, out) => {
+      expect(out.result.partial?.cells.length).toBe(s.cells.length);
+      got.push(s.id);
+    });
+    expect([...got].sort()).toEqual(shards.map((s) => s.id).sort());
+  }, 120_000);
+
+  it('stops when the caller aborts: the promise rejects with the reason and no shard is handed over after it', async () => {
+    const stop = new AbortController();
+    let after = 0;
+    const run = runShards(shards.map((shard) => ({ shard })), init, 2, () => {
+      if (stop.signal.aborted) after += 1;
+      else stop.abort(new Error('the caller gave up'));
+    }, stop.signal);
+    await expect(run).rejects.toThrow('the caller gave up');
+    expect(after).toBe(0);
+  }, 120_000);
+});
