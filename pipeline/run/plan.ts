@@ -113,7 +113,7 @@ export interface ShardSpec {
  * Land cells aimed at per tile: enough to amortise a block read (a NetCDF-4 chunk usually spans
  * the whole grid, so every tile of a year inflates it again; the demo's 655 land cells are one
  * tile). Cores are balanced by cutting years into pieces ({@link DEFAULT_MONTHS_PER_PIECE}), not
- * by small tiles. A tile's scratch histograms take about 48 kB per cell and month of the piece.
+ * by small tiles. A tile's scratch histograms take about 16 kB per cell and month of the piece.
  */
 export const TARGET_CELLS_PER_TILE = 1024;
 
