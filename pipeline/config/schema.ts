@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { workSettingsSchema } from '../work/work-settings.ts';
+import { DEFAULT_MONTHS_PER_PIECE, MONTHS_PER_PIECE, TARGET_CELLS_PER_TILE } from '../run/plan.ts';
 
 const year = z.number().int().min(1940).max(2100);
 const yearRange = z
@@ -56,13 +57,15 @@ export const atlasSchema = z
     shards: z
       .object({
         /** Land cells aimed at per spatial tile [cells]. */
-        cellsPerTile: z.number().int().min(1).max(1_000_000).default(1024),
-        /** Local months per piece of a year [months]: 1, 2, 3, 4, 6 or 12. */
+        cellsPerTile: z.number().int().min(1).max(1_000_000).default(TARGET_CELLS_PER_TILE),
+        /** Local months per piece of a year [months]: a divisor of 12 (pipeline/run/plan.ts). */
         monthsPerPiece: z
           .number()
           .int()
-          .refine((n) => [1, 2, 3, 4, 6, 12].includes(n), { message: 'must be 1, 2, 3, 4, 6 or 12 (a divisor of 12)' })
-          .default(3),
+          .refine((n) => (MONTHS_PER_PIECE as readonly number[]).includes(n), {
+            message: `must be ${MONTHS_PER_PIECE.slice(0, -1).join(', ')} or ${MONTHS_PER_PIECE[MONTHS_PER_PIECE.length - 1]} (a divisor of 12)`,
+          })
+          .default(DEFAULT_MONTHS_PER_PIECE),
       })
       .strict()
       .default({}),

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
-import { accumulateBlock, createPartial, createScratch, finishPartial, reuseScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
+import { accumulateBlock, createPartial, createScratch, finishPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
 import { mergeYear } from '../../pipeline/reduce/merge.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, MILLI, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import {
@@ -47,6 +47,16 @@ function run(evals: readonly WorkEvaluation[], general: boolean, nc: number, nt:
   const scratch = createScratch(nt * nc, evals, nc, general);
   const local = localHours(b.time, tz, work.shift);
   accumulateBlock(p, { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local }, evals, scratch);
+  return finishPartial(p, scratch);
+}
+
+/** Counts hours [t0, t1) of invented block `b` (UTC−10) for `cells` into a new partial of 2021, with `scratch`. */
+function countPiece(b: ReturnType<typeof inventedBlock>, cells: Int32Array, t0: number, t1: number, scratch: ReduceScratch): ShardPartial {
+  const nc = cells.length;
+  const p = createPartial(2021, cells, work.evaluations);
+  const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
+  const local = localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift);
+  accumulateBlock(p, { nHours: t1 - t0, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local }, work.evaluations, scratch);
   return finishPartial(p, scratch);
 }
 
@@ -131,14 +141,7 @@ describe('merging partials', () => {
     const start = Date.UTC(2021, 5, 20);
     const b = inventedBlock(nc, nt, start, 9, 53);
     const cells = Int32Array.from({ length: nc }, (_, i) => i * 3);
-    const piece = (t0: number, t1: number) => {
-      const p = createPartial(2021, cells, evals);
-      const n = t1 - t0;
-      const scratch = createScratch(n * nc, evals, nc);
-      const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
-      accumulateBlock(p, { nHours: n, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local: localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift) }, evals, scratch);
-      return finishPartial(p, scratch);
-    };
+    const piece = (t0: number, t1: number) => countPiece(b, cells, t0, t1, createScratch((t1 - t0) * nc, evals, nc));
     const whole = mergeYear(2021, cells, [piece(0, nt)]);
     const split = mergeYear(2021, cells, [piece(50, nt), piece(0, 50)], ['t00-y2021-u2022', 't00-y2021']);
     expect(split).toEqual(whole);
@@ -153,12 +156,7 @@ describe('merging partials', () => {
     const b = inventedBlock(nc, nt, start, 5, 41);
     const cells = Int32Array.from({ length: nc }, (_, i) => i * 2);
     const local = localHours(b.time, 'Etc/GMT+10', work.shift);
-    const count = (t0: number, t1: number, scratch: ReturnType<typeof createScratch>) => {
-      const p = createPartial(2021, cells, evals);
-      const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
-      accumulateBlock(p, { nHours: t1 - t0, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local: localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift) }, evals, scratch);
-      return finishPartial(p, scratch);
-    };
+    const count = (t0: number, t1: number, scratch: ReduceScratch) => countPiece(b, cells, t0, t1, scratch);
     const whole = mergeYear(2021, cells, [count(0, nt, createScratch(nt * nc, evals, nc))]);
     // Cut where the local month changes (June, July, August): one scratch of one month, reused.
     const cuts = [0];
