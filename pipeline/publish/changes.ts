@@ -3,8 +3,23 @@
  * yearly update: years and input files added, changed or removed, code and configuration
  * changes, and the region figures (annual, per workload class, acclimatization and exposure)
  * that moved most. Pure: the previous and the new build's manifest facts and region tables in,
- * the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts).
+ * the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts),
+ * one region at a time (the tables are read through `regionTables.get`, so a build with many
+ * regions never holds them all), keeping only the largest moves.
  */
+
+/** Region tables by id, read one at a time. */
+export interface RegionTables {
+  ids(): Iterable<string>;
+  /** The region's published CSV text, or undefined when the build has no such region. */
+  get(id: string): string | undefined;
+  has(id: string): boolean;
+}
+
+/** Region tables held in memory (tests, small builds). */
+export function tablesInMemory(m: Map<string, string>): RegionTables {
+  return { ids: () => m.keys(), get: (id) => m.get(id), has: (id) => m.has(id) };
+}
 
 /** The facts of one build the comparison needs. */
 export interface BuildFacts {
@@ -15,7 +30,7 @@ export interface BuildFacts {
   baseline: [number, number];
   inputs: Array<{ name: string; sha256: string }>;
   /** Region id → its published CSV text. */
-  regionTables: Map<string, string>;
+  regionTables: RegionTables;
   /** Region id → name. */
   regionNames: Map<string, string>;
 }
@@ -88,28 +103,32 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
   const ny = new Set(years(next.years));
   const pin = new Map(prev.inputs.map((f) => [f.name, f.sha256]));
   const nin = new Map(next.inputs.map((f) => [f.name, f.sha256]));
-  const moves: FigureMove[] = [];
-  for (const [id, csv] of next.regionTables) {
+  const byUnit = new Map<string, FigureMove[]>();
+  const order = (x: FigureMove, y: FigureMove) =>
+    Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
+  // Only the largest moves per unit are kept: the list is cut back to `limit` whenever it doubles.
+  const keep = (m: FigureMove) => {
+    const list = byUnit.get(m.unit) ?? [];
+    list.push(m);
+    if (list.length >= 2 * limit + 64) list.sort(order).length = limit;
+    byUnit.set(m.unit, list);
+  };
+  for (const id of next.regionTables.ids()) {
     const before = prev.regionTables.get(id);
     if (before === undefined) continue;
+    const csv = next.regionTables.get(id)!;
     const a = annualRows(before);
     for (const [key, row] of annualRows(csv)) {
       const old = a.get(key);
       if (!old || old.unit !== row.unit || !Number.isFinite(old.value) || !Number.isFinite(row.value) || old.value === row.value) continue;
       const [figure, workloadClass, acclimatization, exposure, method, statistic] = row.cols;
-      moves.push({
+      keep({
         regionId: id, regionName: next.regionNames.get(id) ?? id, figure, workloadClass, acclimatization, exposure, method, statistic,
         before: old.value, after: row.value, change: Math.round((row.value - old.value) * 1e6) / 1e6, unit: row.unit,
       });
     }
   }
-  const byUnit = new Map<string, FigureMove[]>();
-  for (const m of moves) byUnit.set(m.unit, [...(byUnit.get(m.unit) ?? []), m]);
-  const top = [...byUnit.keys()].sort().flatMap((u) =>
-    byUnit.get(u)!
-      .sort((x, y) => Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1))
-      .slice(0, limit),
-  );
+  const top = [...byUnit.keys()].sort().flatMap((u) => byUnit.get(u)!.sort(order).slice(0, limit));
   return {
     version: 1,
     hasPrevious: true,
@@ -125,7 +144,7 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
     codeChanged: prev.codeVersion !== next.codeVersion,
     configChanged: prev.configDigest !== next.configDigest,
     moves: top,
-    regionsAdded: [...next.regionTables.keys()].filter((id) => !prev.regionTables.has(id)).sort(),
-    regionsRemoved: [...prev.regionTables.keys()].filter((id) => !next.regionTables.has(id)).sort(),
+    regionsAdded: [...next.regionTables.ids()].filter((id) => !prev.regionTables.has(id)).sort(),
+    regionsRemoved: [...prev.regionTables.ids()].filter((id) => !next.regionTables.has(id)).sort(),
   };
 }

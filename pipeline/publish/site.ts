@@ -9,7 +9,7 @@
  * environment variable HEATHOURS_DATA_DIR; this function sets it for the duration of the build, so
  * two builds must not run at once in one process.
  */
-import { cp, mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
+import { cp, mkdir, mkdtemp, rename, rm, stat } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
@@ -35,6 +35,11 @@ export interface BuildSiteOptions {
   outDir: string;
   /** No log lines but errors. */
   quiet?: boolean;
+  /**
+   * Move `dataDir/data` into the site instead of copying it (a build's staging folder, on the same
+   * disk as `outDir`): no second copy of a large atlas's data.
+   */
+  moveData?: boolean;
 }
 
 /** Checks the data folder before the (slow) Astro build, with catalogued errors. */
@@ -93,7 +98,8 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.
     for (const leftover of ASTRO_LEFTOVERS) await rm(join(tmp, leftover), { force: true });
-    await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
+    if (opts.moveData) await rename(join(dataDir, 'data'), join(tmp, 'data'));
+    else await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
   });
   if (!opts.quiet) process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
 }

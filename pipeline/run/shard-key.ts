@@ -5,7 +5,7 @@
  *
  * Parts (DESIGN.md §3):
  * - the code: package version and a digest of the sources that compute a shard (read, physics,
- *   work, reduce, model, compute-shard.ts) and the partial file format;
+ *   work, reduce, model, run/compute-task.ts) and the partial file format;
  * - the inputs: name and SHA-256 of each file holding any hour of the shard's piece of its local
  *   year (pipeline/run/plan.ts), and of the static files (the land-sea mask);
  * - the configuration parts the counts depend on: product and land-sea mask, time zone, work
@@ -21,13 +21,13 @@ import { join } from 'node:path';
 import type { DatasetFileInfo } from '../read/index.ts';
 import type { WorkEvaluation, WorkShift } from '../work/index.ts';
 import { CODE_VERSION } from '../model/version.ts';
-import { PARTIAL_FORMAT } from '../reduce/partial-codec.ts';
+import { PARTIAL_FORMAT } from '../formats/partial-file.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
 const PIPELINE = new URL('../', import.meta.url).pathname;
 /** Folders (under pipeline/) and files whose sources decide a shard's counts. */
-const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-shard.ts'];
+const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-task.ts'];
 
 function sourceFiles(path: string): string[] {
   if (path.endsWith('.ts') || path.endsWith('.mjs')) return [path];

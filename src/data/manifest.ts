@@ -68,7 +68,7 @@ const layerSchema = z.object({
 
 const artefactSchema = z.object({
   path: dataPath,
-  kind: z.enum(['table', 'layer-png', 'layer-geotiff', 'json', 'geojson', 'histogram']),
+  kind: z.enum(['table', 'layer-png', 'layer-geotiff', 'json', 'geojson', 'histogram', 'netcdf']),
   units: z.string().optional(),
   description: z.string(),
   bytes: z.number().int().nonnegative(),

@@ -21,7 +21,7 @@ import {
   parsePointChunk,
 } from '../../pipeline/publish/point-tile-codec.ts';
 import { PointTileStore, type PointTileIndex } from '../../pipeline/publish/point-tiles.ts';
-import { accumulateBlock, createPartial, createScratch, finishPartial } from '../../pipeline/reduce/accumulator.ts';
+import { accumulateBlock, createPartial, createScratch } from '../../pipeline/reduce/accumulator.ts';
 import { mergeYear, type YearCounts } from '../../pipeline/reduce/merge.ts';
 import { HIST_LEN } from '../../pipeline/reduce/layout.ts';
 import { localHours, parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
@@ -69,10 +69,10 @@ function inventedYear(year: number, cells: Int32Array, seed: number): YearCounts
     }
   }
   const p = createPartial(year, cells, work.evaluations);
-  const scratch = createScratch(nt * nc, work.evaluations, nc, false);
+  const scratch = createScratch(nt * nc, work.evaluations);
   const local = localHours(time, 'Etc/GMT+10', work.shift);
   accumulateBlock(p, { nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local }, work.evaluations, scratch);
-  return mergeYear(year, cells, [finishPartial(p, scratch)]);
+  return mergeYear(year, cells, [p]);
 }
 
 describe('per-cell histogram tile codec', () => {

@@ -7,22 +7,23 @@
  * Layout (all integers little-endian):
  *   8 bytes   magic "HHPART\x01\n" (the 7th byte is the format version)
  *   4 bytes   uint32 length H of the header
- *   H bytes   header, UTF-8 JSON: { format, meta, fields: [{ name, type, length }], payloadBytes }
+ *   H bytes   header, UTF-8 JSON: { format, meta, evalKeys, months, fields: [{ name, type, length }], payloadBytes }
  *   P bytes   payload: raw DEFLATE (RFC 1951, zlib level 1) of the fields' bytes in header order;
- *             the histogram is stored sparse first (per cell × month × hour × exposure slot:
- *             uint16 first bin, uint16 n, then n uint16 counts), since most bins are empty
+ *             the histogram (months of the piece only, month-major) is stored sparse first (per
+ *             month × hour × cell × exposure slot: uint16 first bin, uint16 n, then n uint16
+ *             counts), since most bins are empty
  *   32 bytes  SHA-256 of everything before it
  * A truncated, corrupt or foreign file fails the checksum or the structure checks with
  * PartialCorrupt (naming the file); a file of another format version with PartialFormatUnknown.
  */
 import { createHash } from 'node:crypto';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
-import type { ShardPartial } from './accumulator.ts';
-import { HIST_LEN } from './layout.ts';
-import { PartialCorrupt, PartialFormatUnknown } from './errors.ts';
+import type { ShardPartial } from '../reduce/accumulator.ts';
+import { HIST_LEN, MONTHS } from '../reduce/layout.ts';
+import { PartialCorrupt, PartialFormatUnknown } from '../reduce/errors.ts';
 
 /** Version of the file layout; bump on any change of the bytes written. */
-export const PARTIAL_FORMAT = 1;
+export const PARTIAL_FORMAT = 2;
 const MAGIC = Buffer.from([0x48, 0x48, 0x50, 0x41, 0x52, 0x54, PARTIAL_FORMAT, 0x0a]);
 const DIGEST_BYTES = 32;
 
@@ -38,7 +39,7 @@ export interface PartialMeta {
   report: { cellHours: number; physics: Record<string, number> };
 }
 
-type ArrayField = Exclude<keyof ShardPartial, 'year' | 'evalKeys'>;
+type ArrayField = Exclude<keyof ShardPartial, 'year' | 'evalKeys' | 'months'>;
 type TypeName = 'Int32Array' | 'Uint32Array' | 'Float64Array' | 'Int16Array' | 'Uint16Array';
 const CTORS = { Int32Array, Uint32Array, Float64Array, Int16Array, Uint16Array } as const;
 
@@ -61,6 +62,8 @@ interface Header {
   format: number;
   meta: PartialMeta;
   evalKeys: string[];
+  /** Local months [m0, m1) of the histogram (0 = January). */
+  months: [number, number];
   fields: FieldEntry[];
   payloadBytes: number;
 }
@@ -128,7 +131,7 @@ export function encodePartial(p: ShardPartial, meta: PartialMeta): Uint8Array {
     return { name, type: a.constructor.name as TypeName, length: a.length, bytes: buf.length };
   });
   const payload = deflateRawSync(Buffer.concat(parts), { level: 1 });
-  const header: Header = { format: PARTIAL_FORMAT, meta, evalKeys: p.evalKeys, fields, payloadBytes: payload.length };
+  const header: Header = { format: PARTIAL_FORMAT, meta, evalKeys: p.evalKeys, months: p.months, fields, payloadBytes: payload.length };
   const headerBytes = Buffer.from(JSON.stringify(header), 'utf8');
   const len = Buffer.alloc(4);
   len.writeUInt32LE(headerBytes.length);
@@ -157,6 +160,10 @@ export function readPartialHeader(bytes: Uint8Array, file: string): { meta: Part
   }
   if (header.format !== PARTIAL_FORMAT) throw PartialFormatUnknown({ file, format: header.format, expected: PARTIAL_FORMAT });
   if (hStart + hLen + header.payloadBytes !== body.length) throw PartialCorrupt({ file, detail: 'payload length does not match the header' });
+  const m = header.months;
+  if (!Array.isArray(m) || m.length !== 2 || !Number.isInteger(m[0]) || !Number.isInteger(m[1]) || m[0] < 0 || m[1] > MONTHS || m[0] >= m[1]) {
+    throw PartialCorrupt({ file, detail: `its months ${JSON.stringify(m)} are not a range of local months` });
+  }
   return { meta: header.meta, header, payloadStart: hStart + hLen };
 }
 
@@ -189,5 +196,5 @@ export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialM
   }
   if (off !== raw.length) throw PartialCorrupt({ file, detail: `${raw.length - off} payload bytes left over` });
   for (const name of FIELDS) if (!out[name]) throw PartialCorrupt({ file, detail: `field ${name} is missing` });
-  return { meta, partial: { ...(out as Omit<ShardPartial, 'year' | 'evalKeys'>), year: meta.year, evalKeys: header.evalKeys } as ShardPartial };
+  return { meta, partial: { ...(out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'months'>), year: meta.year, evalKeys: header.evalKeys, months: [header.months[0], header.months[1]] } };
 }

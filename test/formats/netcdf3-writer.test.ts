@@ -3,7 +3,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { NetCDFReader } from 'netcdfjs';
-import { Netcdf3Writer, type Nc3Header } from '../../pipeline/demo/netcdf3-writer.ts';
+import { Netcdf3Writer, type Nc3Header } from '../../pipeline/formats/netcdf3-writer.ts';
 import { dataValues, ncdump } from './ncdump.ts';
 
 // Reference: the NetCDF classic format specification (Unidata NetCDF User's Guide, "File Format

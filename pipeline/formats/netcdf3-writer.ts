@@ -1,5 +1,5 @@
 /**
- * A streaming writer of NetCDF-3 classic files (CDF-1), written from the published format
+ * A streaming writer of NetCDF-3 classic (CDF-1) and 64-bit-offset (CDF-2) files, written from the published format
  * specification ("The NetCDF Classic Format Specification", Unidata NetCDF User's Guide,
  * appendix "File Format Specifications"): magic `CDF\x01`, the number of records, the dimension,
  * global-attribute and variable lists, then the data of the fixed-size variables, then the
@@ -7,7 +7,10 @@
  * big-endian; names, attribute values and variable slabs are padded to 4 bytes.
  *
  * The header is written first (the number of records is known in advance), then fixed variables
- * one by one, then records one by one, so a year of data is never held in memory at once.
+ * one by one (each whole, or appended in consecutive pieces: {@link Netcdf3Writer.appendFixed}),
+ * then records one by one, so a year of data, or a country's grid of figures, is never held in
+ * memory at once. The 64-bit-offset variant (magic `CDF\x02`) differs only in 8-byte `begin`
+ * offsets, so files past 2 GiB are possible.
  * The file is written to a temporary sibling and renamed into place by {@link Netcdf3Writer.close};
  * {@link Netcdf3Writer.abort} removes the temporary file.
  */
@@ -36,7 +39,8 @@ export interface Nc3Dim {
 
 export interface Nc3Var {
   name: string;
-  type: Exclude<Nc3Type, 'char'>;
+  /** External type; `char` variables take their values as character codes (0–255). */
+  type: Nc3Type;
   /** Dimension names, outermost first. A record variable has the record dimension first. */
   dims: string[];
   attrs: Nc3Attr[];
@@ -48,6 +52,8 @@ export interface Nc3Header {
   vars: Nc3Var[];
   /** Number of records that will be written [–] (0 when there is no record dimension). */
   numRecords: number;
+  /** `classic` (CDF-1, default) or `64bit-offset` (CDF-2). */
+  format?: 'classic' | '64bit-offset';
 }
 
 /** Values of one variable slab, in the variable's type (converted on write). */
@@ -58,6 +64,8 @@ const NC_VARIABLE = 0x0b;
 const NC_ATTRIBUTE = 0x0c;
 /** Largest begin offset of CDF-1 (32-bit signed) [bytes]. */
 const MAX_OFFSET_CDF1 = 2 ** 31 - 1;
+/** Largest vsize field (32-bit unsigned); larger variables write this value (spec). */
+const MAX_VSIZE = 2 ** 32 - 1;
 
 const pad4 = (n: number): number => (n + 3) & ~3;
 
@@ -77,6 +85,16 @@ class HeaderBytes {
     this.ensure(4);
     this.view.setInt32(this.length, v);
     this.length += 4;
+  }
+  uint(v: number): void {
+    this.ensure(4);
+    this.view.setUint32(this.length, v);
+    this.length += 4;
+  }
+  int64(v: number): void {
+    this.ensure(8);
+    this.view.setBigInt64(this.length, BigInt(v));
+    this.length += 8;
   }
   bytes(b: Uint8Array): void {
     this.ensure(pad4(b.length));
@@ -180,9 +198,10 @@ function layoutOf(header: Nc3Header): { bytes: Uint8Array; vars: VarLayout[]; re
   if (recordVars.length === 1) recordVars[0].vsize = recordVars[0].count * TYPE_SIZE[recordVars[0].v.type];
   const recordSize = recordVars.reduce((s, l) => s + l.vsize, 0);
 
+  const wide = header.format === '64bit-offset';
   const build = (): HeaderBytes => {
     const h = new HeaderBytes();
-    h.bytes(new Uint8Array([0x43, 0x44, 0x46, 0x01]));
+    h.bytes(new Uint8Array([0x43, 0x44, 0x46, wide ? 0x02 : 0x01]));
     h.int(unlimited.length ? header.numRecords : 0);
     if (header.dims.length === 0) {
       h.int(0);
@@ -208,8 +227,10 @@ function layoutOf(header: Nc3Header): { bytes: Uint8Array; vars: VarLayout[]; re
         for (const d of l.v.dims) h.int(dimIndex.get(d)!);
         writeAttrList(h, l.v.attrs);
         h.int(NC3_TYPES[l.v.type]);
-        h.int(Math.min(l.vsize, MAX_OFFSET_CDF1));
-        h.int(l.begin);
+        if (wide) h.uint(Math.min(l.vsize, MAX_VSIZE));
+        else h.int(Math.min(l.vsize, MAX_OFFSET_CDF1));
+        if (wide) h.int64(l.begin);
+        else h.int(l.begin);
       }
     }
     return h;
@@ -225,7 +246,7 @@ function layoutOf(header: Nc3Header): { bytes: Uint8Array; vars: VarLayout[]; re
     offset += l.vsize;
   }
   const last = offset + recordSize * Math.max(0, header.numRecords - 1);
-  if (last > MAX_OFFSET_CDF1) throw new Error(`netcdf3-writer: ${last} bytes do not fit the CDF-1 format (2 GiB offsets)`);
+  if (!wide && last > MAX_OFFSET_CDF1) throw new Error(`netcdf3-writer: ${last} bytes do not fit the CDF-1 format (2 GiB offsets); use format '64bit-offset'`);
   return { bytes: build().result(), vars, recordSize };
 }
 
@@ -240,6 +261,8 @@ export class Netcdf3Writer {
   private readonly recordBuf: Uint8Array;
   private readonly numRecords: number;
   private nextFixed = 0;
+  /** Values of the current fixed variable written so far by appendFixed [–]. */
+  private fixedDone = 0;
   private recordsWritten = 0;
   private closed = false;
 
@@ -274,10 +297,32 @@ export class Netcdf3Writer {
     const l = this.fixedOrder[this.nextFixed];
     if (!l || l.v.name !== name) throw new Error(`netcdf3-writer: expected fixed variable ${l?.v.name ?? '(none left)'}, got ${name}`);
     if (values.length !== l.count) throw new Error(`netcdf3-writer: ${name} needs ${l.count} values, got ${values.length}`);
+    if (this.fixedDone !== 0) throw new Error(`netcdf3-writer: ${name} was begun with appendFixed`);
     const b = new Uint8Array(l.vsize);
     encodeValues(l.v.type, values, b, 0);
     this.put(b);
     this.nextFixed++;
+  }
+
+  /**
+   * Appends the next values of the next fixed-size variable (C order); the variable is done, and
+   * its padding written, when all its values have come. Must follow header order like writeFixed.
+   */
+  appendFixed(name: string, values: Nc3Values): void {
+    const l = this.fixedOrder[this.nextFixed];
+    if (!l || l.v.name !== name) throw new Error(`netcdf3-writer: expected fixed variable ${l?.v.name ?? '(none left)'}, got ${name}`);
+    if (this.fixedDone + values.length > l.count) throw new Error(`netcdf3-writer: ${name} needs ${l.count} values, got ${this.fixedDone + values.length}`);
+    const size = TYPE_SIZE[l.v.type];
+    const b = new Uint8Array(values.length * size);
+    encodeValues(l.v.type, values, b, 0);
+    this.put(b);
+    this.fixedDone += values.length;
+    if (this.fixedDone === l.count) {
+      const padding = l.vsize - l.count * size;
+      if (padding > 0) this.put(new Uint8Array(padding));
+      this.fixedDone = 0;
+      this.nextFixed++;
+    }
   }
 
   /** Writes the next record: one slab per record variable, keyed by variable name. */

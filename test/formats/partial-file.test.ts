@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
-import { accumulateBlock, createPartial, createScratch, finishPartial, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
-import { decodePartial, encodePartial, readPartialHeader, PARTIAL_FORMAT, type PartialMeta } from '../../pipeline/reduce/partial-codec.ts';
+import { accumulateBlock, createPartial, createScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
+import { decodePartial, encodePartial, readPartialHeader, PARTIAL_FORMAT, type PartialMeta } from '../../pipeline/formats/partial-file.ts';
 import { localHours, parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
@@ -26,9 +26,9 @@ function inventedPartial(nc = 9, nt = 24 * 50): ShardPartial {
     air[i] = shade[i] + 4;
   }
   const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => 10 + i * 2), work.evaluations);
-  const scratch = createScratch(nt * nc, work.evaluations, nc);
+  const scratch = createScratch(nt * nc, work.evaluations);
   accumulateBlock(p, { nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local: localHours(time, 'Etc/GMT+10', work.shift) }, work.evaluations, scratch);
-  return finishPartial(p, scratch);
+  return p;
 }
 
 const meta: PartialMeta = { shardId: 't00-y2021', year: 2021, tileIndex: 0, key: 'k'.repeat(64), provenance: { a: 1 }, report: { cellHours: 10, physics: { notConverged: 0 } } };
