@@ -21,7 +21,7 @@ import { writeLegacyLandSeaMask } from './legacy-layout.ts';
 import { h5wasmReady } from './netcdf4-writer.ts';
 import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask } from './netcdf4-layout.ts';
 import { runYearJob, type YearJob } from './year-job.ts';
-import { DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
+import { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
 import { yearHours } from './weather.ts';
 
 export type DemoLayout = 'legacy' | 'netcdf4' | 'mixed';
@@ -47,9 +47,13 @@ export function layoutOfYear(layout: DemoLayout, year: number): 'legacy' | 'netc
   return layout;
 }
 
-function resolveGrid(grid: { nLat: number; nLon: number; resolution: number } | 'small' | 'default' | undefined): GridSpec {
+/** A grid by name, or by size: `NLATxNLON@RESOLUTION`, e.g. `300x300@0.1`. */
+export type DemoGridChoice = { nLat: number; nLon: number; resolution: number } | 'small' | 'default' | 'country';
+
+function resolveGrid(grid: DemoGridChoice | undefined): GridSpec {
   if (grid === undefined || grid === 'default') return DEFAULT_GRID;
   if (grid === 'small') return SMALL_GRID;
+  if (grid === 'country') return COUNTRY_GRID;
   if (typeof grid === 'object' && grid !== null) {
     const { nLat, nLon, resolution } = grid;
     if (Number.isInteger(nLat) && Number.isInteger(nLon) && nLat >= 1 && nLon >= 1 && nLat * nLon <= 1_000_000 && resolution > 0 && resolution <= 5)
@@ -79,7 +83,7 @@ export async function writeDemoDataset(opts: {
   outDir: string;
   years: number[];
   layout: 'legacy' | 'netcdf4' | 'mixed';
-  grid?: { nLat: number; nLon: number; resolution: number } | 'small' | 'default';
+  grid?: DemoGridChoice;
   seed?: number;
   quiet?: boolean;
   /** Years written at once, each in a worker thread [–]; default: the number of cores. 1 = in this thread. */
@@ -173,5 +177,5 @@ async function runInWorkers(jobs: YearJob[], parallel: number, tick: (h: number)
   if (failure) throw failure;
 }
 
-export { DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';
+export { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';
 export type { GridSpec } from './territory.ts';

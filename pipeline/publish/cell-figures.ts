@@ -71,6 +71,12 @@ export interface CellFiguresIndex {
   figures: Array<{ id: string; label: string; units: string; combos: string[]; inCellTable: boolean }>;
   /** Chunks that exist (tiles with at least one land cell): id, path below the site, cell count. */
   chunks: Array<{ id: string; path: string; cells: number }>;
+  /**
+   * The per-cell tables, one per band of grid rows [y0, y1) (row 0 the southernmost), and the
+   * NetCDF file of every cell: the downloads a cell's figures come from.
+   */
+  tables: Array<{ path: string; rows: [number, number] }>;
+  netcdf: string;
   /** Land cells in all chunks. */
   landCells: number;
 }
@@ -184,6 +190,7 @@ export function cellFiguresIndex(
   grid: HorizontalGrid,
   chunks: ReadonlyArray<CellChunkEntry & { firstCell: number }>,
   tile: { rows: number; cols: number } = DEFAULT_CELL_TILE,
+  tables: ReadonlyArray<{ path: string; rows: [number, number] }> = [],
 ): CellFiguresIndex {
   checkTile(tile);
   const chosen = chosenCellFigures(defs.map((def) => ({ def })));
@@ -197,5 +204,11 @@ export function cellFiguresIndex(
     figures: chosen.map(({ def }) => ({ id: def.id, label: def.label, units: def.units, combos: [...def.combos], inCellTable: CELL_TABLE_FIGURES.includes(def.id) })),
     chunks: sorted.map((c) => ({ id: c.id, path: c.path, cells: c.cells })),
     landCells: sorted.reduce((s, c) => s + c.cells, 0),
+    tables: [...tables].sort((a, b) => a.rows[0] - b.rows[0]).map((t) => ({ path: t.path, rows: [t.rows[0], t.rows[1]] })),
+    netcdf: CELL_NETCDF_PATH,
   };
 }
+
+/** Path of the per-cell NetCDF below the site root. */
+export const CELL_NETCDF_PATH = 'data/atlas-cells.nc';
+

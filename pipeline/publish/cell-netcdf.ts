@@ -8,8 +8,9 @@
  * together from the merge bands' pieces), so the file is never in memory.
  *
  * CF conventions: CF Metadata Conventions 1.8 (units, long_name, standard_name of the coordinates,
- * _FillValue, flag_values / flag_meanings for the class), from the CF document's sections 3 and
- * 4 (from memory; the file is checked with ncdump and netCDF-C in test/publish/cell-netcdf.test.ts).
+ * _FillValue, flag_values / flag_meanings for the class, cell_methods `time: mean`), from the CF
+ * document's sections 3, 4 and 7.3 (from memory; the file is read back with ncdump and netCDF-C in
+ * test/publish/cell-netcdf.test.ts). How a statistic was made across years is said in `comment`.
  */
 import { Netcdf3Writer, type Nc3Attr, type Nc3Var } from '../formats/netcdf3-writer.ts';
 import { NICHE_CLASSES } from '../climate/index.ts';
@@ -76,7 +77,9 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
           attr('long_name', text(`${def.label}: ${STAT_WORDS[statistic]}`)),
           attr('units', text(years ? '1' : def.units)),
           attr('_FillValue', years ? { type: 'short', values: [-1] } : { type: 'float', values: [CELL_NETCDF_FILL] }),
-          attr('cell_methods', text(years ? 'period: sum' : `period: sum (per year) year: ${statistic === 'mean' ? 'mean' : statistic === 'median' ? 'median' : 'percentile'} over the baseline ${meta.baseline[0]}-${meta.baseline[1]}`)),
+          attr('comment', text(years
+            ? `number of baseline years ${meta.baseline[0]}-${meta.baseline[1]} whose value counted (completeness rule in the atlas manifest)`
+            : `each year's value over the period (a local month, or the year), then the ${STAT_WORDS[statistic]} of the baseline years ${meta.baseline[0]}-${meta.baseline[1]} that count`)),
         ],
       });
       order.push({ name, fields: fs, type: years ? 'short' : 'float' });
@@ -96,6 +99,7 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
         attr('units', text('degC')),
         attr('_FillValue', { type: 'float', values: [CELL_NETCDF_FILL] }),
         attr('cell_methods', text('time: mean')),
+        attr('comment', text('mean of the annual means of the baseline years that count')),
       ],
     });
     order.push({ name: 'mean_annual_temperature', fields: [mat], type: 'float' });

@@ -48,23 +48,28 @@ export class PointTileStore {
   /** @param cells global indices of the land cells, ascending (the order of the merged counts) */
   constructor(readonly cells: Int32Array) {}
 
-  /** Encodes one merged year's cell histograms (`yc.histogram`, whole hours). Catalogued errors: PointTileCellsMismatch, PointTileCountTooLarge. */
-  addYear(yc: YearCounts): void {
+  /**
+   * Encodes one merged year's cell histograms (`yc.histogram`, whole hours) of the store's cells,
+   * which are the cells `from`, `from + 1`, … of `yc` (default 0: all of them). Catalogued errors:
+   * PointTileCellsMismatch, PointTileCountTooLarge.
+   */
+  addYear(yc: YearCounts, from = 0): void {
     const n = this.cells.length;
-    if (yc.cells.length !== n || yc.cells.some((c, i) => c !== this.cells[i])) {
-      throw PointTileCellsMismatch({ year: yc.year, detail: `${yc.cells.length} cells given, ${n} land cells expected in the same order` });
+    const nYc = yc.cells.length;
+    if (from < 0 || from + n > nYc || this.cells.some((c, i) => c !== yc.cells[from + i])) {
+      throw PointTileCellsMismatch({ year: yc.year, detail: `${nYc} cells given, ${n} land cells expected in the same order${from > 0 ? ` from position ${from}` : ''}` });
     }
-    if (yc.histogram.length !== n * POINT_YEAR_SIZE) {
-      throw PointTileCellsMismatch({ year: yc.year, detail: `histogram holds ${yc.histogram.length} values; ${n} cells × ${POINT_YEAR_SIZE} expected` });
+    if (yc.histogram.length !== nYc * POINT_YEAR_SIZE) {
+      throw PointTileCellsMismatch({ year: yc.year, detail: `histogram holds ${yc.histogram.length} values; ${nYc} cells × ${POINT_YEAR_SIZE} expected` });
     }
     const w = new ByteWriter();
     const offsets = new Uint32Array(n + 1);
     // The merged year is month-major (pipeline/reduce/merge.ts): a cell's slots lie one row of
     // cells apart.
-    const stride = n * N_EXPOSURES * HIST_LEN;
+    const stride = nYc * N_EXPOSURES * HIST_LEN;
     for (let c = 0; c < n; c++) {
       offsets[c] = w.length;
-      encodeCellYear(yc.histogram, c * N_EXPOSURES * HIST_LEN, w, this.cells[c], yc.year, stride);
+      encodeCellYear(yc.histogram, (from + c) * N_EXPOSURES * HIST_LEN, w, this.cells[c], yc.year, stride);
     }
     offsets[n] = w.length;
     this.years.set(yc.year, { bytes: w.bytes(), offsets });

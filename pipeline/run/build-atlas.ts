@@ -64,6 +64,8 @@ export interface BuildReport {
   publishSeconds: number;
   totalSeconds: number;
   physics: KernelCounts;
+  /** Worker time per land cell-hour computed: read, physics, reduction [ns]. */
+  perCellHour: { read: number; physics: number; reduce: number };
   /** The plan's estimate of the whole build, for comparison with what it took. */
   estimate: BuildPlan['estimate'];
 }
@@ -110,6 +112,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       publishSeconds,
       totalSeconds: (Date.now() - t0) / 1000,
       physics: compute.physics,
+      perCellHour: compute.perCellHour,
       estimate: plan.estimate,
     });
     if (o.shard) {

@@ -51,8 +51,12 @@ export interface MemoryInput {
   combos: number;
   /** Gridded fields per cell (grid-fields.ts) [–]. */
   gridFields: number;
-  /** Rows a merge band is cut at multiples of (the map's cell chunks) [rows]. */
-  rowAlign: number;
+  /**
+   * The publication blocks: bands of whole rows [y0, y1) whose cells' files (tables, calculator
+   * tiles) are published together, fixed by the grid alone ({@link publicationBlocks}); a merge
+   * band is one or more consecutive blocks.
+   */
+  blocks: ReadonlyArray<[number, number]>;
   /** Largest block of hours a compute task reads [h]. */
   maxBlockHours: number;
 }
@@ -89,6 +93,34 @@ export function mergeTileBytes(land: number, rows: number, m: MemoryInput): numb
   return year + stacks + normals + point + piece;
 }
 
+/** Land cells aimed at per publication block [cells]. */
+export const CELLS_PER_BLOCK = 1024;
+
+/**
+ * The publication blocks of a grid: bands of whole multiples of `rowAlign` rows (the map's cell
+ * chunks) holding about {@link CELLS_PER_BLOCK} land cells, rows without land left out. They
+ * depend on the grid and its land cells only, so the published files are the same whatever the
+ * memory budget, the number of workers or the machine.
+ */
+export function publicationBlocks(landInRow: Int32Array, rowAlign: number, target = CELLS_PER_BLOCK): Array<[number, number]> {
+  const nLat = landInRow.length;
+  const out: Array<[number, number]> = [];
+  for (let y0 = 0; y0 < nLat; ) {
+    let y1 = Math.min(nLat, y0 + rowAlign);
+    let land = sum(landInRow, y0, y1);
+    while (y1 < nLat) {
+      const next = Math.min(nLat, y1 + rowAlign);
+      const more = land + sum(landInRow, y1, next);
+      if (land > 0 && more > target) break;
+      land = more;
+      y1 = next;
+    }
+    if (land > 0) out.push([y0, y1]);
+    y0 = y1;
+  }
+  return out;
+}
+
 /** Chooses compute groups, block hours and merge bands for the budget; a catalogued error when nothing fits. */
 export function planMemory(m: MemoryInput): MemoryPlan {
   const perWorker = (m.budget - MAIN_BASE) / m.jobs - WORKER_BASE;
@@ -117,27 +149,29 @@ export function planMemory(m: MemoryInput): MemoryPlan {
     groups.push(Array.from({ length: j - i }, (_, k) => i + k));
     i = j;
   }
-  // Merge: bands of whole chunk rows, as many land cells as fit.
-  const nLat = m.landInRow.length;
+  // Merge: bands of consecutive publication blocks, as many land cells as fit.
   const mergeBands: Array<[number, number]> = [];
   let mergePeakTile = 0;
-  for (let y0 = 0; y0 < nLat; ) {
-    let y1 = Math.min(nLat, y0 + m.rowAlign);
-    let land = sum(m.landInRow, y0, y1);
+  const landOf = (b: readonly [number, number]) => sum(m.landInRow, b[0], b[1]);
+  for (let i = 0; i < m.blocks.length; ) {
+    const [y0] = m.blocks[i];
+    let y1 = m.blocks[i][1];
+    let land = landOf(m.blocks[i]);
     if (mergeTileBytes(land, y1 - y0, m) > perWorker) {
       const need = MAIN_BASE + m.jobs * (WORKER_BASE + mergeTileBytes(land, y1 - y0, m));
-      throw MemoryBudgetTooSmall({ budget: m.budget, need, what: `merging ${m.rowAlign} grid rows (${land} land cells) over ${m.years} years on ${m.jobs} worker(s)` });
+      throw MemoryBudgetTooSmall({ budget: m.budget, need, what: `merging grid rows ${y0}-${y1 - 1} (${land} land cells) over ${m.years} years on ${m.jobs} worker(s)` });
     }
-    while (y1 < nLat) {
-      const next = Math.min(nLat, y1 + m.rowAlign);
-      const more = land + sum(m.landInRow, y1, next);
-      if (mergeTileBytes(more, next - y0, m) > perWorker) break;
-      y1 = next;
+    let j = i + 1;
+    while (j < m.blocks.length) {
+      const more = land + landOf(m.blocks[j]);
+      if (mergeTileBytes(more, m.blocks[j][1] - y0, m) > perWorker) break;
       land = more;
+      y1 = m.blocks[j][1];
+      j++;
     }
-    if (land > 0) mergeBands.push([y0, y1]);
+    mergeBands.push([y0, y1]);
     mergePeakTile = Math.max(mergePeakTile, mergeTileBytes(land, y1 - y0, m));
-    y0 = y1;
+    i = j;
   }
   let computePeakTask = 0;
   for (const g of groups) {

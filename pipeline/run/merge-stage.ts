@@ -28,6 +28,7 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
   const inputs: MergeTileInput[] = plan.bands.map((band) => ({
     id: band.id,
     rows: band.rows,
+    blocks: band.blocks,
     cells: band.cells,
     subset: band.subset,
     years: plan.years,

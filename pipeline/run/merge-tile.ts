@@ -36,6 +36,7 @@ import { cellFigureChunks, writeCellChunks, DEFAULT_CELL_TILE, type CellChunkEnt
 import { PointTileStore, type PointChunkEntry } from '../publish/point-tiles.ts';
 import { nicheCellsJson } from '../publish/niche-json.ts';
 import type { CellFigureNormals, CellNiche } from '../publish/figure-normals.ts';
+import { rowsId } from './rows-id.ts';
 
 /** What a worker needs to merge one tile (structured-cloneable). */
 export interface MergeTileInput {
@@ -43,6 +44,8 @@ export interface MergeTileInput {
   id: string;
   /** Grid rows [y0, y1) of the tile. */
   rows: [number, number];
+  /** The publication blocks (rows) the tile is made of: its cells' tables and calculator tiles are written per block. */
+  blocks: Array<[number, number]>;
   /** Land cells of the tile (global indices, ascending). */
   cells: Int32Array;
   /** Partials may hold cells outside the tile (the tile is part of a shard's tile). */
@@ -72,7 +75,8 @@ export interface MergeTileSummary {
   regionParts: { path: string; records: RegionRecordRef[] };
   cellChunks: Array<CellChunkEntry & { firstCell: number }>;
   pointChunks: PointChunkEntry[];
-  cellTable: { path: string; bytes: number };
+  /** One per publication block: the table's path below the site and its rows. */
+  cellTables: Array<{ path: string; rows: [number, number]; bytes: number }>;
   /** The tile's entries of niche.json, comma-separated JSON objects, in a scratch file. */
   nicheFragment: string;
 }
@@ -105,11 +109,47 @@ class TextFile {
   }
 }
 
+/** The normals of items [a, b) (every array of `Normals` is per item). */
+function sliceNormals(n: Normals, a: number, b: number): Normals {
+  return {
+    ...n,
+    nItems: b - a,
+    mean: n.mean.subarray(a, b),
+    median: n.median.subarray(a, b),
+    p90: n.p90.subarray(a, b),
+    min: n.min.subarray(a, b),
+    max: n.max.subarray(a, b),
+    yearsUsed: n.yearsUsed.subarray(a, b),
+    yearsMissing: n.yearsMissing.subarray(a, b),
+    latest: n.latest.subarray(a, b),
+    latestDifference: n.latestDifference.subarray(a, b),
+    latestRank: n.latestRank.subarray(a, b),
+  };
+}
+
+/** First index of a sorted array whose value is ≥ x. */
+function lowerBound(a: Int32Array, x: number): number {
+  let lo = 0;
+  let hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
 export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary> {
   const nCells = t.cells.length;
   const nY = t.years.length;
   const rule = MONTHLY_COMPLETENESS;
-  const point = new PointTileStore(t.cells);
+  // The cells of each publication block: positions [c0, c1) in the tile's cells.
+  const nLon = t.grid.lon.length;
+  const blockCells = t.blocks.map((rows) => {
+    const c0 = lowerBound(t.cells, rows[0] * nLon);
+    const c1 = lowerBound(t.cells, rows[1] * nLon);
+    return { rows, c0, c1, point: new PointTileStore(t.cells.slice(c0, c1)) };
+  });
   const regionFile = new RegionPartWriter(join(t.scratchDir, `${t.id}.regions`));
   const hist = t.regions.length > 0 ? new Float64Array(2 * CELL_YEAR_HIST) : new Float64Array(0);
   let defs: FigureDef[] | undefined;
@@ -139,7 +179,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
           expectedHours[k] = yc.expectedHours[m];
         }
       }
-      point.addYear(yc);
+      for (const b of blockCells) b.point.addYear(yc, b.c0);
       for (const rc of t.regions) {
         hist.fill(0);
         addWeightedHistograms(hist, yc.histogram, nCells, MONTHS * HOURS, N_EXPOSURES * HIST_LEN, rc);
@@ -181,10 +221,17 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
 
     // Cell outputs: the table, the map's chunks, the niche entries, the calculator's point tiles.
     mkdirSync(join(t.dataDir, 'cell-tables'), { recursive: true });
-    const tablePath = join(t.dataDir, 'cell-tables', `${t.id}.csv`);
-    const table = new TextFile(tablePath);
-    cellTableCsv(normals, t.cells, t.grid.lat, t.grid.lon, (s) => table.add(s));
-    table.close();
+    const cellTables: MergeTileSummary['cellTables'] = [];
+    const pointChunks: PointChunkEntry[] = [];
+    for (const b of blockCells) {
+      const id = rowsId(b.rows);
+      const table = new TextFile(join(t.dataDir, 'cell-tables', `${id}.csv`));
+      const sub = normals.map((n) => ({ def: n.def, cell: sliceNormals(n.cell, b.c0 * PERIODS * n.def.combos.length, b.c1 * PERIODS * n.def.combos.length) }));
+      cellTableCsv(sub, t.cells.slice(b.c0, b.c1), t.grid.lat, t.grid.lon, (s) => table.add(s));
+      table.close();
+      cellTables.push({ path: `data/cell-tables/${id}.csv`, rows: b.rows, bytes: table.bytes });
+      pointChunks.push(...(await b.point.write(t.dataDir, { years: t.years, prefix: `${id}-` })));
+    }
     const chunks = cellFigureChunks(normals, t.cells, t.grid, niche, DEFAULT_CELL_TILE);
     const written = await writeCellChunks(t.dataDir, chunks);
     const cellChunks = written.map((w, i) => ({ ...w, firstCell: chunks[i].cells[0].cell }));
@@ -192,11 +239,9 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
     const nf = new TextFile(nicheFragment);
     nf.add(nicheCellsJson(a, t.cells, t.grid));
     nf.close();
-    const pointChunks = await point.write(t.dataDir, { years: t.years, prefix: `${t.id}-` });
 
     // The tile's rows of every gridded field.
     const fields = gridFields(defs);
-    const nLon = t.grid.lon.length;
     const piece = new GridPiece(t.rows, nLon, fields.length);
     for (const f of fields) {
       if (f.figure === 'mean-annual-temperature') {
@@ -240,7 +285,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       regionParts: { path: regionFile.path, records: regionFile.records },
       cellChunks,
       pointChunks,
-      cellTable: { path: tablePath, bytes: table.bytes },
+      cellTables,
       nicheFragment,
     };
   } finally {

@@ -14,7 +14,7 @@ import { openDataset, type Dataset } from '../read/index.ts';
 import { parseWorkloadClasses, resolveWorkSettings, type ResolvedWork } from '../work/index.ts';
 import { parseRegionFile, checkUniqueRegionIds, allRegionCellWeights, applyLandMask, type CellWeights, type Region } from '../regions/index.ts';
 import type { RegionTileCells } from '../regions/region-sums.ts';
-import { figureDefs, PERIODS, type FigureDef } from '../reduce/figures.ts';
+import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
@@ -22,8 +22,9 @@ import { planShards, yearPieces, type ShardSpec } from './plan.ts';
 import { shardProvenance } from './shard-key.ts';
 import type { KeyedShard } from './shard-sources.ts';
 import { BLOCK_HOURS, type ComputeTask, type ShardContext } from './compute-task.ts';
-import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, type MemoryPlan } from './memory-plan.ts';
+import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, publicationBlocks, type MemoryPlan } from './memory-plan.ts';
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
+import { rowsId } from './rows-id.ts';
 import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
 
 const HOUR_MS = 3_600_000;
@@ -39,6 +40,8 @@ export interface PlanOptions {
 export interface MergeBand {
   id: string;
   rows: [number, number];
+  /** The publication blocks the band is made of (rows), whose files it writes. */
+  blocks: Array<[number, number]>;
   cells: Int32Array;
   /** Shard tiles (indices) holding the band's cells. */
   tiles: number[];
@@ -125,6 +128,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     // What fits the memory budget.
     const defs = figureDefs(work.evaluations.map((e) => e.key));
     const fields = gridFields(defs);
+    const blocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows);
     const memory = planMemory({
       budget,
       jobs,
@@ -136,11 +140,11 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       evaluations: work.evaluations.length,
       combos: defs.reduce((s, d) => s + d.combos.length, 0),
       gridFields: fields.length,
-      rowAlign: DEFAULT_CELL_TILE.rows,
+      blocks,
       maxBlockHours: BLOCK_HOURS,
     });
     const tasks = computeTasks(shards, memory);
-    const bands = mergeBands(memory.mergeBands, cells, nLon, tiles, weights, regions);
+    const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
     const latestYear = years[years.length - 1];
     const estimate = estimateBuild({ shards, cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length });
     log.info(
@@ -187,19 +191,19 @@ function computeTasks(shards: readonly ShardSpec[], memory: MemoryPlan): Compute
 }
 
 /** The merge bands with their cells, the shard tiles they read and the regions they overlap. */
-function mergeBands(rows: ReadonlyArray<[number, number]>, cells: Int32Array, nLon: number, tiles: BuildPlan['tiles'], weights: readonly CellWeights[], regions: readonly Region[]): MergeBand[] {
+function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray<[number, number]>, cells: Int32Array, nLon: number, tiles: BuildPlan['tiles'], weights: readonly CellWeights[]): MergeBand[] {
   // Which band each land cell is in, and its position there.
   const bands: MergeBand[] = rows.map(([y0, y1]) => {
     const a = lowerBound(cells, y0 * nLon);
     const b = lowerBound(cells, y1 * nLon);
     const tileIdx = tiles.flatMap((t, i) => (t.y0 < y1 && t.y1 > y0 ? [i] : []));
     const subset = tileIdx.some((i) => tiles[i].y0 < y0 || tiles[i].y1 > y1);
-    return { id: `rows-${String(y0).padStart(4, '0')}-${String(y1 - 1).padStart(4, '0')}`, rows: [y0, y1], cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
+    const mine = blocks.filter(([b0, b1]) => b0 >= y0 && b1 <= y1).map(([b0, b1]): [number, number] => [b0, b1]);
+    return { id: rowsId([y0, y1]), rows: [y0, y1], blocks: mine, cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
   });
   const bandOfRow = new Int32Array(rows.length ? rows[rows.length - 1][1] : 0).fill(-1);
   rows.forEach(([y0, y1], i) => bandOfRow.fill(i, y0, y1));
   weights.forEach((w, r) => {
-    void regions[r];
     // The region's land weights, their sum for its histograms (in the order of its cells).
     let total = 0;
     for (let j = 0; j < w.cells.length; j++) total += w.weight[j];
@@ -253,4 +257,3 @@ function checkYears(time: { start: number; count: number }, years: [number, numb
   }
 }
 
-export { PERIODS };

@@ -16,7 +16,7 @@ import { startProgress } from '../model/progress.ts';
 import { closePieces, readGridField } from '../formats/grid-pieces.ts';
 import { addFieldRange, countLayers, emptyFieldRange, writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { writeCellNetcdf } from '../publish/cell-netcdf.ts';
-import { cellFiguresIndex, DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
+import { cellFiguresIndex, CELL_NETCDF_PATH, DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import { writePointTileIndex } from '../publish/point-tiles.ts';
 import { histogramIndex } from '../publish/histogram-tiles.ts';
 import { nicheJsonHead, NICHE_JSON_TAIL } from '../publish/niche-json.ts';
@@ -63,7 +63,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
     layers = await writeAtlasLayers(dataDir, grid, plan.defs, plan.fields, range, field, () => progress.tick());
     progress.done();
     log.info(`${layers.length} map layers drawn (PNG and tiled GeoTIFF); writing the per-cell NetCDF`);
-    writeCellNetcdf(join(dataDir, 'atlas-cells.nc'), grid, plan.defs, plan.fields, {
+    writeCellNetcdf(join(p.stage, CELL_NETCDF_PATH), grid, plan.defs, plan.fields, {
       title: cfg.title,
       invented: cfg.dataset.invented,
       source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})`,
@@ -75,7 +75,8 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
   }
 
   // Indexes of the per-cell files, and niche.json from the bands' entries.
-  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify(cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE)));
+  const tables = tiles.flatMap((t) => t.cellTables.map((c) => ({ path: c.path, rows: c.rows })));
+  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify(cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE, tables)));
   await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks) });
   await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(plan.years, cfg.baseline, plan.regions)));
   await joinFiles(join(dataDir, 'niche.json'), nicheJsonHead(), tiles.map((t) => t.nicheFragment), ',', NICHE_JSON_TAIL);

@@ -10,7 +10,7 @@ import { computeNormals, MONTHLY_COMPLETENESS, NICHE_CAVEAT, NICHE_CLASSES, NICH
 import { CELL_YEAR_HIST } from '../reduce/merge.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums } from '../regions/region-sums.ts';
-import { ddAddPair } from '../regions/double-double.ts';
+import { ddAddAll, ddAddPair } from '../regions/double-double.ts';
 import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, type RegionRecordRef } from '../formats/region-parts.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
 import { encodeHistogramTile } from '../publish/histogram-tiles.ts';
@@ -19,7 +19,6 @@ import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
 import type { BuildPlan } from './plan-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
-import { ddAddAll } from '../regions/double-double.ts';
 
 export interface RegionOutcome {
   seconds: number;

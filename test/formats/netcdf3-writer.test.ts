@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { NetCDFReader } from 'netcdfjs';
 import { Netcdf3Writer, type Nc3Header } from '../../pipeline/formats/netcdf3-writer.ts';
-import { dataValues, ncdump } from './ncdump.ts';
+import { dataValues, ncdump } from '../demo/ncdump.ts';
 
 // Reference: the NetCDF classic format specification (Unidata NetCDF User's Guide, "File Format
 // Specifications"); checked with Debian's ncdump (the reference C library) and netcdfjs 4.0.0.

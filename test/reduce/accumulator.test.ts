@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
 import { accumulateBlock, createPartial, createScratch, type ReduceScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
-import { CELL_YEAR_HIST, mergeYear } from '../../pipeline/reduce/merge.ts';
+import { CELL_YEAR_HIST, histogramSlot, mergeYear } from '../../pipeline/reduce/merge.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, MILLI, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import {
   allowableWorkFraction,
@@ -148,7 +148,13 @@ describe('merging partials', () => {
     const sub = mergeYear(2021, some, [whole], ['t00-y2021'], { subset: true });
     const per = all.aboveShift.length / whole.cells.length;
     expect(sub.aboveShift).toEqual(all.aboveShift.slice(per, 3 * per));
-    expect(sub.histogram).toEqual(all.histogram.slice(CELL_YEAR_HIST, 3 * CELL_YEAR_HIST));
+    // Histograms are month × hour × cell: each (month, hour) row of the subset is cells 1–2 of the whole.
+    expect(sub.histogram.length).toBe(2 * CELL_YEAR_HIST);
+    for (let m = 0; m < MONTHS; m++) {
+      for (let h = 0; h < HOURS; h++) {
+        expect(sub.histogram.subarray(histogramSlot(m, h, 0, 2), histogramSlot(m, h, 2, 2))).toEqual(all.histogram.subarray(histogramSlot(m, h, 1, 4), histogramSlot(m, h, 3, 4)));
+      }
+    }
     expect(() => mergeYear(2021, some, [whole], ['t00-y2021'])).toThrow(/holds cell 0, which is not a land cell/);
   });
 

@@ -3,7 +3,7 @@
  * the shift shares, the allowable-work-fraction formula of METHODS.md §5.6 and its worked example,
  * the quantile check values of METHODS.md §8), and the published data: with the atlas's own
  * settings the calculator reproduces the region tables (data/regions/<id>.csv) and the cell table
- * (data/atlas-cells.csv) within measured tolerances, and its rest-in-shade approximation a
+ * (the per-cell tables, data/cell-tables/*.csv) within measured tolerances, and its rest-in-shade approximation a
  * pipeline build with `work.restLocation: shade`. Every bad input gets its catalogued error.
  *
  * External checks: weekday counts from the Gregorian calendar (2021-01-01 was a Friday, 2021-07-01
@@ -29,6 +29,7 @@ import { cellTileHistograms, chunkForCell, regionTileHistograms } from '../../sr
 import { HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { POINT_YEAR_SIZE } from '../../pipeline/publish/point-tile-codec.ts';
 import { CAUTION_SUMMARY, DEFAULT_SHIFT, prepareWorkKernel, wbgtBinIndex } from '../../pipeline/work/index.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
 let dataDir = '';
@@ -246,8 +247,8 @@ describe('against the published tables of the invented small demo', () => {
     expect(w.share).toBeLessThanOrEqual(0.002);
   });
 
-  it('a grid cell’s tile with the atlas settings matches data/atlas-cells.csv within 3.5 % (mean) and 4.2 % (P90) of shift hours for hours above the limit, 1.3 % and 2.2 % for hours lost', () => {
-    const rows = readCsv(join(dataDir, 'data/atlas-cells.csv'));
+  it('a grid cell’s tile with the atlas settings matches its per-cell table (data/cell-tables) within 3.5 % (mean) and 4.2 % (P90) of shift hours for hours above the limit, 1.3 % and 2.2 % for hours lost', () => {
+    const rows = readCsvText(readCellTables(join(dataDir, 'data')));
     const index = new Map(rows.map((r) => [`${r.cell_id}|${r.period}|${r.figure}|${r.workload_class}.${r.acclimatization}.${r.exposure}`, r]));
     const cells = [...new Set(rows.map((r) => Number(r.cell_id)))];
     expect(cells.length).toBeGreaterThan(30);

@@ -18,6 +18,7 @@ import { parseInputs } from '../../src/lib/estimate/inputs.ts';
 import { runEstimate } from '../../src/lib/estimate/estimate.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../src/lib/estimate/table.ts';
 import { regionTileHistograms } from '../../src/lib/estimate/tiles.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
 import { CONTENT_SECURITY_POLICY } from '../../src/lib/content-security-policy.ts';
 
 let session: SiteSession;
@@ -190,14 +191,14 @@ describe('the estimate page', () => {
     await screenshot(p, 'estimate');
   });
 
-  it('?cell=<cell_id> estimates a grid cell (matching data/atlas-cells.csv within the measured tolerance); a sea or unknown cell shows the catalogued error', async () => {
+  it('?cell=<cell_id> estimates a grid cell (matching its per-cell table within the measured tolerance); a sea or unknown cell shows the catalogued error', async () => {
     const cell = ctx.cells!.chunks[0].firstCell;
     const p = await session.open(`/estimate/?cell=${cell}`);
     await settled(p.page, 0);
     expect(await p.page.textContent('#estimate-status')).toContain(`Grid cell ${cell}`);
     expect(await p.page.inputValue('#cell')).toBe(String(cell));
     const rows = await readDataTable(p.page, '#estimate-table');
-    const cells = readCsv(readFileSync(join(dataDir, 'data/atlas-cells.csv'), 'utf8'));
+    const cells = readCsv(readCellTables(join(dataDir, 'data')));
     for (let m = 0; m < 12; m++) {
       const r = cells.find((x) => x.cell_id === String(cell) && x.period === pad(m) && x.figure === 'hours-above-limit-shift' && x.workload_class === 'moderate' && x.acclimatization === 'acclimatized' && x.exposure === 'sun')!;
       expect(Math.abs(parseShownNumber(rows[m].above_mean) - Number(r.mean))).toBeLessThanOrEqual(0.035 * parseShownNumber(rows[m].shift_hours) + 0.05);

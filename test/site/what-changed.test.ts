@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildTestSite } from './browser.ts';
-import { compareBuilds, type BuildChanges, type BuildFacts } from '../../pipeline/publish/changes.ts';
+import { compareBuilds, tablesInMemory, type BuildChanges, type BuildFacts } from '../../pipeline/publish/changes.ts';
 
 let firstHtml = '';
 let updatedHtml = '';
@@ -24,7 +24,7 @@ function facts(dataDir: string, transform: (csv: string) => string = (c) => c): 
   for (const f of readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv'))) {
     tables.set(f.replace(/\.csv$/, ''), transform(readFileSync(join(dataDir, 'data/regions', f), 'utf8')));
   }
-  return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tables, regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])) };
+  return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tablesInMemory(tables), regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])) };
 }
 
 beforeAll(async () => {

@@ -19,7 +19,7 @@ export const EstimateCellInvalid = defineError<{ value: string; problem: string 
   title: 'The grid cell is not a land cell of this atlas',
   message: (p) => `cell "${p.value}": ${p.problem}`,
   hint: () =>
-    'a cell id is the row-major grid index (row × number of columns + column) as in data/atlas-cells.csv; pick a land cell on the map, or give a latitude and longitude inside the atlas',
+    'a cell id is the row-major grid index (row × number of columns + column) as in the per-cell tables (data/cell-tables); pick a land cell on the map, or give a latitude and longitude inside the atlas',
 });
 
 export const EstimatePointOutsideGrid = defineError<{ lat: number; lon: number; extent: string }>({
