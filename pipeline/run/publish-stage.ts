@@ -67,7 +67,8 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
       title: cfg.title,
       invented: cfg.dataset.invented,
       source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})`,
-      history: `${p.generated} heathours build`,
+      // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
+      history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
       baseline: cfg.baseline,
     }, field);
   } finally {
