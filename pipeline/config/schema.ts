@@ -78,6 +78,11 @@ export const atlasSchema = z
       .object({
         /** Land cells aimed at per spatial tile [cells]. */
         cellsPerTile: z.number().int().min(1).max(1_000_000).default(TARGET_CELLS_PER_TILE),
+        /**
+         * Land cells aimed at per block of grid rows whose per-cell files (tables, calculator
+         * tiles) are published together, and the unit a distributed merge is sliced by [cells].
+         */
+        cellsPerBlock: z.number().int().min(1).max(1_000_000).default(TARGET_CELLS_PER_TILE),
         /** Local months per piece of a year [months]: a divisor of 12 (pipeline/run/plan.ts). */
         monthsPerPiece: z
           .number()

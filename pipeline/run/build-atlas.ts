@@ -6,6 +6,10 @@
  *   the merge, normals, niche and cell files) → regions (region-stage.ts) → publish
  *   (publish-stage.ts: layers, NetCDF, indexes, manifest) → site (pipeline/publish/site.ts)
  *
+ * A distributed run cuts the same flow into array jobs: `--shard K/N` runs compute for a slice of
+ * the compute tasks; `--merge DIR --tile K/N` runs merge for a slice of the blocks of rows, each
+ * band kept in DIR/bands (band-store.ts); `--assemble DIR` runs regions, publish and site on them.
+ *
  * Everything is written into a staging folder first; the output folder is replaced only when the
  * whole build succeeded, so a failed build publishes nothing. Partials go to the cache (or, with
  * `--no-cache`, to a scratch folder removed at the end); so do the merge bands' scratch files.
@@ -21,7 +25,9 @@ import { withProcessLock } from '../model/lock.ts';
 import { buildSite } from '../publish/site.ts';
 import { planBuild, type BuildPlan } from './plan-stage.ts';
 import { computeStage, type ComputeMode } from './compute-stage.ts';
-import { mergeStage } from './merge-stage.ts';
+import { mergeStage, stagingTarget } from './merge-stage.ts';
+import type { MergeTileSummary } from './merge-tile.ts';
+import { bandDir, bandDone, bandsKey, linkBandData, readBands, writeBand } from './band-store.ts';
 import { regionStage } from './region-stage.ts';
 import { publishStage } from './publish-stage.ts';
 import { BuildLocked, DiskFull } from './errors.ts';
@@ -42,8 +48,14 @@ export interface BuildAtlasOptions {
   cache?: string | false;
   /** Distributed run: compute slice `k` of `n` of the compute tasks into `partialsDir`; publish nothing. */
   shard?: { k: number; n: number; partialsDir: string };
-  /** Distributed run: merge the partials under this folder and publish (computes nothing). */
+  /**
+   * Distributed run: merge the partials under this folder (computes nothing) and publish; with
+   * `mergeSlice`, only merge the bands of slice K of N into `mergeDir/bands` and publish nothing.
+   */
   mergeDir?: string;
+  mergeSlice?: { k: number; n: number };
+  /** Distributed run: join the merged bands under this folder (its `bands/`, from every `--tile K/N`) and publish. */
+  assembleDir?: string;
 }
 
 export interface BuildReport {
@@ -73,7 +85,7 @@ export interface BuildReport {
 export async function buildAtlas(o: BuildAtlasOptions): Promise<BuildReport> {
   const rc = await loadConfig(o.configPath);
   const outDir = resolve(o.outDir ?? rc.outputDir);
-  if (o.shard) return runBuild(o, rc, outDir);
+  if (o.shard || o.mergeSlice) return runBuild(o, rc, outDir);
   await mkdir(dirname(outDir), { recursive: true });
   // Two builds into one output folder must not interleave: the second stops with a clear error.
   return withProcessLock(`${outDir}.build-lock`, () => runBuild(o, rc, outDir), {
@@ -90,14 +102,15 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
   const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
-  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory }, log);
+  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined }, log);
   const scratch = join(dirname(outDir), `.${basename(outDir)}.scratch-${process.pid}`);
-  const cacheDir = o.cache === false || o.mergeDir ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);
+  const shared = o.mergeDir ?? o.assembleDir;
+  const cacheDir = o.cache === false || shared ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);
   try {
     const mode: ComputeMode = o.shard
       ? { kind: 'slice', ...o.shard }
-      : o.mergeDir
-        ? { kind: 'merge', partialsDir: o.mergeDir }
+      : shared
+        ? { kind: 'merge', partialsDir: shared }
         : { kind: 'cache', cacheDir, scratchDir: join(scratch, 'partials') };
     const compute = await computeStage(plan, mode, log, o.quiet);
     const report = (publishSeconds: number, mergeSeconds: number): BuildReport => ({
@@ -119,6 +132,19 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       log.info(`slice ${o.shard.k}/${o.shard.n} done: ${compute.computed} computed, ${compute.partials.size - compute.computed} reused, ${(compute.partialBytes / 1e6).toFixed(1)} MB of partials`);
       return report(0, 0);
     }
+    if (o.mergeSlice && o.mergeDir) {
+      // One task of a distributed merge: its bands into DIR/bands, each finished with band.json.
+      const dir = o.mergeDir;
+      const key = bandsKey(plan);
+      const merged = await mergeStage(plan, compute.partials, {
+        dataDir: (b) => join(bandDir(dir, b.rows), 'data'),
+        scratchDir: (b) => join(bandDir(dir, b.rows), 'scratch'),
+        done: (b) => bandDone(dir, key, b.rows),
+        finished: (b, s) => writeBand(dir, key, b.blocks, s),
+      }, log, o.quiet);
+      log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
+      return report(0, merged.seconds);
+    }
 
     // Publish into a staging folder, then build the site from it.
     const tp = Date.now();
@@ -128,9 +154,21 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
     await mkdir(dataDir, { recursive: true });
     try {
       const generated = process.env.HEATHOURS_BUILD_TIME ?? new Date().toISOString();
-      const merged = await mergeStage(plan, compute.partials, dataDir, join(scratch, 'bands'), log, o.quiet);
-      await regionStage(plan, merged.tiles, dataDir, log, o.quiet);
-      await publishStage({ plan, tiles: merged.tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
+      let tiles: MergeTileSummary[];
+      let mergeSeconds = 0;
+      if (o.assembleDir) {
+        // The last step of a distributed run: the merged bands, checked, their files linked in.
+        const bands = readBands(o.assembleDir, plan);
+        for (const b of bands) linkBandData(b, dataDir);
+        tiles = bands.map((b) => b.summary);
+        log.info(`assembling ${bands.length} merged band(s) from ${join(resolve(o.assembleDir), 'bands')}`);
+      } else {
+        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet);
+        tiles = merged.tiles;
+        mergeSeconds = merged.seconds;
+      }
+      await regionStage(plan, tiles, dataDir, log, o.quiet);
+      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {
         const { replaceDirAtomic } = await import('../model/effects.ts');
@@ -141,7 +179,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       }
       const totalSeconds = (Date.now() - t0) / 1000;
       log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s (estimated ${plan.estimate.seconds.total.toFixed(0)} s)`);
-      return report((Date.now() - tp) / 1000, merged.seconds);
+      return report((Date.now() - tp) / 1000, mergeSeconds);
     } catch (e) {
       throw diskFull(e, stage);
     } finally {

@@ -70,3 +70,31 @@ export const DiskFull = defineError<{ path: string; what: string }>({
   message: (p) => `no space left on the device while ${p.what} (${p.path}); nothing was published and the previous output is untouched`,
   hint: () => 'free space on that disk or build elsewhere (--out, and --cache for the partials); `heathours build` prints the disk it expects to need before it starts',
 });
+
+export const BandsIncomplete = defineError<{ missing: number; blocks: number; first: string[]; dir: string }>({
+  code: 'BandsIncomplete',
+  title: 'Merged bands are missing',
+  message: (p) => `${p.missing} of the ${p.blocks} blocks of rows have no merged band under ${p.dir}: ${p.first.join(', ')}${p.missing > p.first.length ? ', …' : ''}`,
+  hint: () => 'run every merge task (`heathours build --merge DIR --tile K/N` for K = 1 … N) to the end before `--assemble DIR`; a task that failed can be run again and keeps the bands it finished',
+});
+
+export const BandsDuplicated = defineError<{ block: string; bands: string[] }>({
+  code: 'BandsDuplicated',
+  title: 'Two merged bands hold the same rows',
+  message: (p) => `the block of rows ${p.block} is in the bands ${p.bands.join(' and ')}`,
+  hint: () => 'merge tasks of two different --tile K/N splits wrote into one folder: keep one run\'s bands (delete DIR/bands) and run the merge tasks of one N again',
+});
+
+export const BandsForeign = defineError<{ band: string; why: string }>({
+  code: 'BandsForeign',
+  title: 'A merged band belongs to another build',
+  message: (p) => `band ${p.band} does not fit this build: ${p.why}`,
+  hint: () => 'merge and assemble with the same configuration, input files, partials and heathours version; delete DIR/bands and run the merge tasks again',
+});
+
+export const MergeSliceInvalid = defineError<{ text: string }>({
+  code: 'MergeSliceInvalid',
+  title: 'The --tile value is not K/N',
+  message: (p) => `--tile "${p.text}" is not K/N with 1 ≤ K ≤ N (e.g. 2/4)`,
+  hint: () => 'pass the merge slice as K/N with --merge DIR, e.g. --merge /shared/partials --tile 1/4 … --tile 4/4; with a Slurm array use --tile "${SLURM_ARRAY_TASK_ID}/N"',
+});

@@ -93,16 +93,13 @@ export function mergeTileBytes(land: number, rows: number, m: MemoryInput): numb
   return year + stacks + normals + point + piece;
 }
 
-/** Land cells aimed at per publication block [cells]. */
-export const CELLS_PER_BLOCK = 1024;
-
 /**
  * The publication blocks of a grid: bands of whole multiples of `rowAlign` rows (the map's cell
- * chunks) holding about {@link CELLS_PER_BLOCK} land cells, rows without land left out. They
- * depend on the grid and its land cells only, so the published files are the same whatever the
- * memory budget, the number of workers or the machine.
+ * chunks) holding about `target` land cells (config `shards.cellsPerBlock`), rows without land left
+ * out. They depend on the grid, its land cells and that setting only, so the published files are
+ * the same whatever the memory budget, the number of workers or the machine.
  */
-export function publicationBlocks(landInRow: Int32Array, rowAlign: number, target = CELLS_PER_BLOCK): Array<[number, number]> {
+export function publicationBlocks(landInRow: Int32Array, rowAlign: number, target: number): Array<[number, number]> {
   const nLat = landInRow.length;
   const out: Array<[number, number]> = [];
   for (let y0 = 0; y0 < nLat; ) {

@@ -8,7 +8,7 @@ import { mkdirSync } from 'node:fs';
 import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
 import { runTasks, type PoolTask } from './shard-pool.ts';
-import type { BuildPlan } from './plan-stage.ts';
+import type { BuildPlan, MergeBand } from './plan-stage.ts';
 import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
 import { workerInit } from './compute-stage.ts';
 
@@ -18,14 +18,34 @@ export interface MergeOutcome {
   seconds: number;
 }
 
+/** Where each band's files go: its published files and its scratch files. */
+export interface BandTarget {
+  dataDir(band: MergeBand): string;
+  scratchDir(band: MergeBand): string;
+  /** A band already merged (by an earlier run of a distributed task) is skipped. */
+  done?(band: MergeBand): boolean;
+  /** Called as each band is finished. */
+  finished?(band: MergeBand, summary: MergeTileSummary): void;
+}
+
+/** One machine: every band's published files straight into the staging data folder. */
+export function stagingTarget(dataDir: string, scratchDir: string): BandTarget {
+  return { dataDir: () => dataDir, scratchDir: () => scratchDir };
+}
+
 /**
- * Merges every band. `partials` maps shard ids to their files; outputs go to `dataDir` (the
- * staging data folder) and scratch files to `scratchDir`.
+ * Merges every band of the plan. `partials` maps shard ids to their files; `target` says where
+ * each band's files go.
  */
-export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, string>, dataDir: string, scratchDir: string, log: Logger, quiet?: boolean): Promise<MergeOutcome> {
-  mkdirSync(scratchDir, { recursive: true });
+export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, string>, target: BandTarget, log: Logger, quiet?: boolean): Promise<MergeOutcome> {
   const cfg = plan.rc.config;
-  const inputs: MergeTileInput[] = plan.bands.map((band) => ({
+  const todo = plan.bands.filter((b) => !target.done?.(b));
+  if (todo.length < plan.bands.length) log.info(`${plan.bands.length - todo.length} band(s) already merged by an earlier run: kept`);
+  for (const band of todo) {
+    mkdirSync(target.dataDir(band), { recursive: true });
+    mkdirSync(target.scratchDir(band), { recursive: true });
+  }
+  const inputs: MergeTileInput[] = todo.map((band) => ({
     id: band.id,
     rows: band.rows,
     blocks: band.blocks,
@@ -42,8 +62,8 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
     ),
     grid: plan.ds.grid,
     regions: band.regions,
-    dataDir,
-    scratchDir,
+    dataDir: target.dataDir(band),
+    scratchDir: target.scratchDir(band),
   }));
   const byId = new Map<string, MergeTileSummary>();
   const progress = startProgress('merge', inputs.length, { quiet });
@@ -56,6 +76,7 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
     {
       onTask: (id, summary) => {
         byId.set(id, summary!);
+        target.finished?.(todo.find((b) => b.id === id)!, summary!);
         progress.tick();
       },
     },

@@ -34,6 +34,13 @@ export interface PlanOptions {
   jobs?: number;
   /** Memory budget text (`4G`); default the config's `memory`, else 3 G. */
   memory?: string;
+  /**
+   * Distributed merge: plan only slice K of N of the publication blocks (a contiguous run of
+   * them, {@link sliceBlocks}) as merge bands.
+   */
+  mergeSlice?: { k: number; n: number };
+  /** Plan no merge bands (the assemble step of a distributed run merges nothing). */
+  noMerge?: boolean;
 }
 
 /** One merge band: its rows, land cells, the shards holding them and the regions it overlaps. */
@@ -69,6 +76,8 @@ export interface BuildPlan {
   /** The shard tiles: rows and land cells. */
   tiles: Array<{ y0: number; y1: number; cells: number }>;
   tasks: ComputeTask[];
+  /** Every publication block of the grid (rows), and the merge bands planned (of a slice's blocks with `mergeSlice`). */
+  blocks: Array<[number, number]>;
   bands: MergeBand[];
   defs: FigureDef[];
   fields: GridField[];
@@ -128,7 +137,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     // What fits the memory budget.
     const defs = figureDefs(work.evaluations.map((e) => e.key));
     const fields = gridFields(defs);
-    const blocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows);
+    const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
+    const blocks = o.noMerge ? [] : o.mergeSlice ? sliceBlocks(allBlocks, o.mergeSlice.k, o.mergeSlice.n) : allBlocks;
     const memory = planMemory({
       budget,
       jobs,
@@ -157,7 +167,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     );
     log.info(`estimate: ${estimate.text}`);
     return {
-      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, bands, defs, fields, memory, jobs,
+      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
       context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon },
       estimate,
       close: () => ds.close(),
@@ -166,6 +176,15 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     await ds.close();
     throw e;
   }
+}
+
+/**
+ * Slice K of N of the publication blocks for a distributed merge: the contiguous run
+ * [⌊(K − 1)·B/N⌋, ⌊K·B/N⌋) of the B blocks, so a task's blocks lie together and form few bands
+ * (a slice may be empty when N > B).
+ */
+export function sliceBlocks<T>(blocks: readonly T[], k: number, n: number): T[] {
+  return blocks.slice(Math.floor(((k - 1) * blocks.length) / n), Math.floor((k * blocks.length) / n));
 }
 
 /** The compute tasks: per piece of a year, one task per group of tiles (the plan's groups). */
@@ -201,7 +220,8 @@ function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray
     const mine = blocks.filter(([b0, b1]) => b0 >= y0 && b1 <= y1).map(([b0, b1]): [number, number] => [b0, b1]);
     return { id: rowsId([y0, y1]), rows: [y0, y1], blocks: mine, cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
   });
-  const bandOfRow = new Int32Array(rows.length ? rows[rows.length - 1][1] : 0).fill(-1);
+  const nLat = cells.length > 0 ? Math.floor(cells[cells.length - 1] / nLon) + 1 : 0;
+  const bandOfRow = new Int32Array(nLat).fill(-1);
   rows.forEach(([y0, y1], i) => bandOfRow.fill(i, y0, y1));
   weights.forEach((w, r) => {
     // The region's land weights, their sum for its histograms (in the order of its cells).
@@ -209,7 +229,7 @@ function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray
     for (let j = 0; j < w.cells.length; j++) total += w.weight[j];
     const byBand = new Map<number, number[]>();
     for (let j = 0; j < w.cells.length; j++) {
-      const bi = bandOfRow[Math.floor(w.cells[j] / nLon)];
+      const bi = bandOfRow[Math.floor(w.cells[j] / nLon)] ?? -1;
       if (bi < 0) continue;
       const list = byBand.get(bi) ?? [];
       list.push(j);
