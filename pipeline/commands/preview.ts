@@ -36,6 +36,8 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.ico': 'image/x-icon',
   '.tif': 'image/tiff',
   '.tiff': 'image/tiff',
+  // Not an IANA registration: the type the netCDF documentation gives for NetCDF files (common practice).
+  '.nc': 'application/x-netcdf',
   '.wasm': 'application/wasm',
   '.bin': 'application/octet-stream',
   '.woff2': 'font/woff2',

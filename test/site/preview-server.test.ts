@@ -70,6 +70,8 @@ const IANA: Record<string, string> = {
   '.png': 'image/png',
   '.svg': 'image/svg+xml',
   '.bin': 'application/octet-stream',
+  // No IANA registration exists; the type netCDF's own documentation uses (common practice).
+  '.nc': 'application/x-netcdf',
 };
 
 beforeAll(async () => {
