@@ -13,10 +13,12 @@ const PLACEHOLDERS = new Proxy({}, {
 
 /** The hint of an error for any case, with the case's values as ‹name›. */
 export function genericHint(hint: (p: never) => string): string {
+  const specific = '(specific to each case; printed with the error)';
   try {
-    return String(hint(PLACEHOLDERS as never));
+    const text = String(hint(PLACEHOLDERS as never));
+    return /^‹\w+›$/.test(text) ? specific : text;
   } catch {
-    return '(the hint depends on the case; it is printed with the error)';
+    return specific;
   }
 }
 

@@ -103,15 +103,17 @@ export const STANDARD_STREAM = '-';
 
 /**
  * Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file.
- * `-` reads standard input (through /dev/stdin) or writes standard output (streamed as rows are
- * computed, so not atomic: a failure leaves the rows written so far).
+ * `-` reads standard input or writes standard output (streamed as rows are computed, so not
+ * atomic: a failure leaves the rows written so far).
  */
 export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
-  if (inPath === STANDARD_STREAM) inPath = '/dev/stdin';
-  if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const fromStdin = inPath === STANDARD_STREAM;
+  if (fromStdin) process.stdin.setEncoding('utf8');
+  else if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
   const work = prepareClassKernels(opts);
   const OUTPUT: string[] = [...PHYSICS_OUTPUT, ...work.flatMap((w) => w.columns), 'status'];
-  const size = statSync(inPath).size;
+  const inName = fromStdin ? 'standard input' : inPath;
+  const size = fromStdin ? 0 : statSync(inPath).size;
   const progress = startProgress('point', size, { quiet: opts.quiet, unit: 'MB read', scale: 1e6 });
   const toStdout = outPath === STANDARD_STREAM;
   if (!toStdout) await mkdir(dirname(outPath), { recursive: true });
@@ -125,13 +127,13 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
     let header: string[] | undefined;
     let col: Record<string, number> = {};
     let bytes = 0;
-    for await (const [line, fields] of readCsvRecords(inPath)) {
+    for await (const [line, fields] of readCsvRecords(inName, fromStdin ? process.stdin : undefined)) {
       bytes += fields.reduce((a, f) => a + f.length + 1, 0);
       if (!header) {
         header = fields.map((h) => h.trim());
         col = Object.fromEntries(header.map((h, i) => [h, i]));
-        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inPath, row: line });
-        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inPath, row: line });
+        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inName, row: line });
+        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inName, row: line });
         const extra = OUTPUT.filter((c) => !(c in col));
         await write(`${[...header, ...extra].map(csvField).join(',')}\r\n`);
         col.__extra = extra.length;
@@ -172,7 +174,7 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       progress.tick(bytes);
       bytes = 0;
     }
-    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inPath, row: 1 });
+    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inName, row: 1 });
     if (!toStdout) {
       out.end();
       await once(out, 'finish');
