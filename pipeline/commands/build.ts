@@ -5,7 +5,6 @@
  * publish on one machine (`--merge DIR`).
  */
 import type { Command } from 'commander';
-import { buildAtlas } from '../run/build-atlas.ts';
 import { MergeSliceInvalid, ShardSliceInvalid } from '../run/errors.ts';
 import { UsageError } from '../model/errors.ts';
 
@@ -84,6 +83,7 @@ export function register(program: Command): void {
         throw UsageError({ message: '--shard K/N needs --partials DIR, and --partials needs --shard', hint: 'e.g. heathours build --shard 3/8 --partials /shared/partials' });
       }
       const shard = opts.shard !== undefined ? { ...parseShardSlice(opts.shard), partialsDir: opts.partials! } : undefined;
+      const { buildAtlas } = await import('../run/build-atlas.ts');
       await buildAtlas({
         configPath: opts.config,
         outDir: opts.out,

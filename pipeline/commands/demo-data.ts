@@ -4,7 +4,7 @@
  */
 import type { Command } from 'commander';
 import { statSync } from 'node:fs';
-import { DEFAULT_SEED, writeDemoDataset, type DemoGridChoice, type DemoLayout, DEMO_LAYOUTS } from '../demo/index.ts';
+import { DEFAULT_SEED, type DemoGridChoice, type DemoLayout, DEMO_LAYOUTS } from '../demo/choices.ts';
 import { UsageError } from '../model/errors.ts';
 import { DemoGridInvalid, DemoLayoutUnknown, DemoSeedInvalid, DemoYearsInvalid } from '../demo/errors.ts';
 
@@ -63,6 +63,7 @@ export function register(program: Command): void {
       const grid = parseGrid(opts.grid);
       const seed = parseSeed(opts.seed);
       const jobs = opts.jobs === undefined ? undefined : parseJobs(opts.jobs);
+      const { writeDemoDataset } = await import('../demo/index.ts');
       const { files, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet, jobs });
       for (const f of files) process.stdout.write(`wrote ${f} (${(statSync(f).size / 1e6).toFixed(1)} MB)\n`);
       for (const f of unchanged) process.stdout.write(`unchanged ${f}\n`);

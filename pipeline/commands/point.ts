@@ -24,7 +24,7 @@ import { PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMiss
 import { computePoint, type PointInput } from '../physics/point-row.ts';
 import { statusName } from '../physics/status.ts';
 import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
+import { packagePath } from '../model/package-root.ts';
 import { parse as parseYaml, YAMLParseError } from 'yaml';
 import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type WorkKernel, type WorkloadClasses } from '../work/index.ts';
 
@@ -32,7 +32,7 @@ const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', '
 const PHYSICS_OUTPUT = ['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c'] as const;
 
 /** The shipped workload classes (content/workload-classes.yaml), the default of `--classes`. */
-export const DEFAULT_CLASSES_FILE = fileURLToPath(new URL('../../content/workload-classes.yaml', import.meta.url));
+export const DEFAULT_CLASSES_FILE = packagePath('content', 'workload-classes.yaml');
 
 /** Options of the work columns. */
 export interface PointWorkOptions {
@@ -98,16 +98,27 @@ function num(v: string | undefined, dflt: number): number {
   return Number(v);
 }
 
-/** Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file. */
+/** `-` for `--in` / `--out`: standard input / output. */
+export const STANDARD_STREAM = '-';
+
+/**
+ * Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file.
+ * `-` reads standard input or writes standard output (streamed as rows are computed, so not
+ * atomic: a failure leaves the rows written so far).
+ */
 export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
-  if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const fromStdin = inPath === STANDARD_STREAM;
+  if (fromStdin) process.stdin.setEncoding('utf8');
+  else if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
   const work = prepareClassKernels(opts);
   const OUTPUT: string[] = [...PHYSICS_OUTPUT, ...work.flatMap((w) => w.columns), 'status'];
-  const size = statSync(inPath).size;
-  const progress = startProgress('point', size, opts);
-  await mkdir(dirname(outPath), { recursive: true });
-  const tmp = temporarySibling(outPath);
-  const out = createWriteStream(tmp, { encoding: 'utf8' });
+  const inName = fromStdin ? 'standard input' : inPath;
+  const size = fromStdin ? 0 : statSync(inPath).size;
+  const progress = startProgress('point', size, { quiet: opts.quiet, unit: 'MB read', scale: 1e6 });
+  const toStdout = outPath === STANDARD_STREAM;
+  if (!toStdout) await mkdir(dirname(outPath), { recursive: true });
+  const tmp = toStdout ? '' : temporarySibling(outPath);
+  const out: NodeJS.WritableStream = toStdout ? process.stdout : createWriteStream(tmp, { encoding: 'utf8' });
   const summary: PointSummary = { rows: 0, ok: 0, byStatus: {}, dewPointClamped: 0 };
   const write = async (s: string) => {
     if (!out.write(s)) await once(out, 'drain');
@@ -116,13 +127,13 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
     let header: string[] | undefined;
     let col: Record<string, number> = {};
     let bytes = 0;
-    for await (const [line, fields] of readCsvRecords(inPath)) {
+    for await (const [line, fields] of readCsvRecords(inName, fromStdin ? process.stdin : undefined)) {
       bytes += fields.reduce((a, f) => a + f.length + 1, 0);
       if (!header) {
         header = fields.map((h) => h.trim());
         col = Object.fromEntries(header.map((h, i) => [h, i]));
-        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inPath, row: line });
-        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inPath, row: line });
+        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inName, row: line });
+        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inName, row: line });
         const extra = OUTPUT.filter((c) => !(c in col));
         await write(`${[...header, ...extra].map(csvField).join(',')}\r\n`);
         col.__extra = extra.length;
@@ -163,15 +174,19 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       progress.tick(bytes);
       bytes = 0;
     }
-    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inPath, row: 1 });
-    out.end();
-    await once(out, 'finish');
-    await rename(tmp, outPath);
+    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inName, row: 1 });
+    if (!toStdout) {
+      out.end();
+      await once(out, 'finish');
+      await rename(tmp, outPath);
+    }
     progress.done();
     return summary;
   } catch (e) {
-    out.destroy();
-    await rm(tmp, { force: true });
+    if (!toStdout) {
+      (out as ReturnType<typeof createWriteStream>).destroy();
+      await rm(tmp, { force: true });
+    }
     throw e;
   }
 }
@@ -180,8 +195,8 @@ export function register(program: Command): void {
   program
     .command('point')
     .description('hourly WBGT (sun and shade, Liljegren method) for tabular weather data: one row per hour')
-    .requiredOption('--in <file>', 'input CSV (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
-    .requiredOption('--out <file>', 'output CSV: the input columns plus the computed ones and a status')
+    .requiredOption('--in <file>', 'input CSV, - for standard input (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
+    .requiredOption('--out <file>', 'output CSV, - for standard output: the input columns plus the computed ones and a status')
     .option('--classes <file>', 'workload classes (YAML like content/workload-classes.yaml); default: the shipped classes')
     .option('--unacclimatized', 'use the limit curve for unacclimatized workers (default: acclimatized)')
     .option('--cav <value>', 'clothing adjustment value added to the WBGT [°C-WBGT], default 0')

@@ -10,7 +10,6 @@ export * from './air-properties.ts';
 export { CellState, prepareCell, solveGlobe, solveWetBulb, ROOT_TOLERANCE_K, MAX_ITERATIONS } from './liljegren-solve.ts';
 export * from './kernel.ts';
 export * from './block.ts';
-export * from './parallel.ts';
 export * from './point-row.ts';
 export * from './approximations.ts';
 export * from './errors.ts';

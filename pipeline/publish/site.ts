@@ -13,9 +13,9 @@ import { cp, mkdir, mkdtemp, rename, rm, stat } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { replaceDirAtomic } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
+import { PACKAGE_ROOT } from '../model/package-root.ts';
 import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
@@ -23,7 +23,7 @@ import { loadManifest } from '../../src/data/manifest.ts';
 import { SiteBuildFailed, SiteDataMissing, SiteOutputUnwritable } from '../../src/data/errors.ts';
 
 /** The project root: where astro.config.mjs and src/ live. */
-const PROJECT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const PROJECT_ROOT = `${PACKAGE_ROOT}/`;
 
 /** Files Astro's static build writes into the output folder that the site does not use. */
 const ASTRO_LEFTOVERS = ['content-assets.mjs', 'content-modules.mjs'];

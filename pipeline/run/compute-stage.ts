@@ -78,6 +78,7 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   const progress = startProgress('shards', nShards, { quiet });
   const t0 = Date.now();
   await runTasks(work, workerInit(plan), plan.jobs, {
+    onShardProgress: () => progress.tick(),
     onShard: (_id, r) => {
       addCounts(physics, r.physics);
       cellHours += r.cellHours;
@@ -85,7 +86,6 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
       timing.read += r.timing.read;
       timing.physics += r.timing.physics;
       timing.reduce += r.timing.reduce;
-      progress.tick();
     },
   });
   progress.done();

@@ -21,11 +21,13 @@ import { join } from 'node:path';
 import type { DatasetFileInfo } from '../read/index.ts';
 import type { WorkEvaluation, WorkShift } from '../work/index.ts';
 import { CODE_VERSION } from '../model/version.ts';
+import { packagePath } from '../model/package-root.ts';
 import { PARTIAL_FORMAT } from '../formats/partial-file.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
-const PIPELINE = new URL('../', import.meta.url).pathname;
+/** The TypeScript sources of the pipeline, also when the compiled bundle runs: the digest is the same either way. */
+const PIPELINE = packagePath('pipeline');
 /** Folders (under pipeline/) and files whose sources decide a shard's counts. */
 const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-task.ts'];
 

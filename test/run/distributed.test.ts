@@ -13,10 +13,11 @@ import { promisify } from 'node:util';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas, type BuildReport } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { CLI_TS } from '../helpers/cli.ts';
 
 const run = promisify(execFile);
 const ROOT = new URL('../../', import.meta.url).pathname;
-const CLI = join(ROOT, 'bin/heathours.mjs');
+const CLI = CLI_TS;
 const BUILD_TIME = '2026-06-01T00:00:00.000Z';
 let dir = '';
 
