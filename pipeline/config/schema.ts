@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { workSettingsSchema } from '../work/work-settings.ts';
+import { physicsSettingsSchema } from '../physics/settings.ts';
 import { DEFAULT_MONTHS_PER_PIECE, MONTHS_PER_PIECE, TARGET_CELLS_PER_TILE } from '../run/plan.ts';
 
 const year = z.number().int().min(1940).max(2100);
@@ -46,6 +47,8 @@ export const atlasSchema = z
     regions: z.string().min(1),
     /** Output folder of the built site, relative to the config file. */
     output: z.string().default('../dist'),
+    /** Modelling choices of the physics: the globe diameter (pipeline/physics/settings.ts). */
+    physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
     work: workSettingsSchema,
     /**

@@ -8,7 +8,8 @@
 import type { HourlyBlock } from '../model/fields.ts';
 import { geometryBlock, type CosineConvention } from './geometry.ts';
 import { wind2mStep } from './wind.ts';
-import { wbgtKernel, type KernelCounts } from './kernel.ts';
+import { wbgtKernel, REFERENCE_GLOBE, type KernelCounts } from './kernel.ts';
+import { globeFactors } from './liljegren-solve.ts';
 
 type Num = Float32Array | Float64Array;
 
@@ -54,6 +55,8 @@ export interface PhysicsOptions {
   convention?: CosineConvention;
   /** Height of the wind [m], default 10. */
   windHeight?: number;
+  /** Globe diameter [m] (`physics.globeDiameter`); default the reference implementation's 2 in. */
+  globeDiameter?: number;
 }
 
 /** Counts of one physics run. */
@@ -96,6 +99,8 @@ export function computeHours(a: PhysicsArrays, t0: number, t1: number, opts: Phy
       status,
     },
     i1 - i0,
+    0,
+    opts.globeDiameter === undefined ? REFERENCE_GLOBE : globeFactors(opts.globeDiameter),
   );
   return { ...k, timeOutOfRange: g.timeOutOfRange };
 }

@@ -97,6 +97,13 @@ export const REF_HEIGHT = 2.0;
 export const MIN_SPEED = 0.13;
 /** Exponent on Pr/Sc in the wick's mass-transfer analogy [–]. */
 export const WICK_EXPONENT = 0.56;
+/**
+ * Buck (1981) saturation vapour pressure over water, `e_s = a·exp(b·T/(T + c))` with T [°C]:
+ * a [hPa], b [–], c [°C] (Buck 1981 eq. 3, as the Liljegren et al. 2008 reference code uses it).
+ * The one table of these coefficients: humidity, the property tables, the solver's derivatives
+ * and the demo weather read them from here.
+ */
+export const BUCK_1981 = { a: 6.1121, b: 17.502, c: 240.97 } as const;
 /** Moist-air factor applied to Buck 1981 in the model [–]. */
 export const MOIST_AIR_FACTOR = 1.004;
 /** Kelvin offset [K]. */

@@ -13,7 +13,7 @@ import {
   CW0, QG_K, INV_PI, EW_SB, CAP, globeFactors, type GlobeFactors,
 } from './liljegren-solve.ts';
 import {
-  ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2,
+  ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2, BUCK_T_OFFSET_K,
 } from './property-tables.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
 import { KELVIN, EMIS_SFC, ALB_SFC, ALB_WICK, CZA_MIN, MIN_SPEED, D_GLOBE, EMIS_SHELTER } from './constants.ts';
@@ -450,7 +450,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
         if (pea > 0) {
           const de = desTd;
           const l1 = de / ea;
-          const iw = 1 / (tdK - 32.18);
+          const iw = 1 / (tdK - BUCK_T_OFFSET_K);
           const dde = de * (l1 - 2 * iw);
           const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
           const iden = 1 / pea;
@@ -593,7 +593,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
               // Curvature estimates for the sun guess (wetBulbRoot after a shade solve).
               const de = dew;
               const l1 = de / ew;
-              const iw = 1 / (x - 32.18);
+              const iw = 1 / (x - BUCK_T_OFFSET_K);
               const dde = de * (l1 - 2 * iw);
               const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
               const rden = 1 / den;

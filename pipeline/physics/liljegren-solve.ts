@@ -27,7 +27,7 @@
  * - `(Pr/Sc)^0.56 = C_s·(T^0.834·Ω)^0.56` (pressure cancels in Sc).
  * A test pins these against the readable forms in `air-properties.ts`.
  */
-import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12 } from './property-tables.ts';
+import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12, BUCK_T_OFFSET_K } from './property-tables.ts';
 import {
   STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, PRANDTL, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
   EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, KELVIN,
@@ -345,10 +345,10 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const den = s.p - s.ea;
   if (!(den > 0)) return;
   const de = s.desTd;
-  // Buck's form: with L1 = d ln e_s/dT and w = T − 32.18, e_s'' = e_s'·(L1 − 2/w) and
+  // Buck's form: with L1 = d ln e_s/dT and w = T − T_c (BUCK_T_OFFSET_K), e_s'' = e_s'·(L1 − 2/w) and
   // e_s''' = e_s'·(L1² − 6·L1/w + 6/w²).
   const l1 = de / s.ea;
-  const iw = 1 / (x - 32.18);
+  const iw = 1 / (x - BUCK_T_OFFSET_K);
   const dde = de * (l1 - 2 * iw);
   const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
   const z = L[2];
@@ -478,7 +478,7 @@ export function wetBulbRoot(s: CellState, radiative: boolean, exposure: Exposure
         s.shadeDInvHw = dInvHw;
         const de = L[1];
         const l1 = de / L[0];
-        const iw = 1 / (x - 32.18);
+        const iw = 1 / (x - BUCK_T_OFFSET_K);
         const dde = de * (l1 - 2 * iw);
         const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
         const rden = 1 / den;

@@ -8,7 +8,7 @@
  */
 import { eq, type MethodConstant, type MethodGroup } from '../model/sources.ts';
 import {
-  ALB_GLOBE, ALB_SFC, ALB_WICK, CP_AIR, CZA_MIN, D_GLOBE, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
+  ALB_GLOBE, ALB_SFC, ALB_WICK, BUCK_1981, CP_AIR, CZA_MIN, D_GLOBE, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
   L_WICK, MIN_SPEED, MOIST_AIR_FACTOR, M_AIR, M_H2O, NORMSOLAR_MAX, PRANDTL, RATIO, REF_HEIGHT, R_AIR, R_GAS, SIGMA_LJ_AIR,
   SOLAR_CONSTANT, STEFAN_BOLTZMANN, WBGT_WEIGHT_AIR, WBGT_WEIGHT_GLOBE, WBGT_WEIGHT_WET_BULB, WICK_EXPONENT,
   WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN,
@@ -17,7 +17,6 @@ import { MAX_ITERATIONS, ROOT_TOLERANCE_K } from './liljegren-solve.ts';
 import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from './solar-position.ts';
 
 const C = 'pipeline/physics/constants.ts';
-const HUM = 'pipeline/physics/humidity.ts saturationVaporPressureBuck1981()';
 const VISC = 'pipeline/physics/air-properties.ts airViscosity()';
 const COND = 'pipeline/physics/air-properties.ts airThermalConductivity()';
 const DIFF = 'pipeline/physics/air-properties.ts vaporDiffusivity()';
@@ -50,9 +49,9 @@ const TOL: MethodConstant = { symbol: 'δ', name: 'Newton step below which a sol
 const ITER: MethodConstant = { symbol: 'n_max', name: 'most iterations per solve (then no value, counted)', value: MAX_ITERATIONS, unit: '–', code: 'pipeline/physics/liljegren-solve.ts#MAX_ITERATIONS' };
 
 // Saturation vapour pressure (Buck 1981 × moist-air factor).
-const ES_A = literal('a', 'Buck 1981 prefactor', 6.1121, 'hPa', HUM);
-const ES_B = literal('b', 'Buck 1981 coefficient', 17.502, '–', HUM);
-const ES_C = literal('c', 'Buck 1981 coefficient', 240.97, '°C', HUM);
+const ES_A = exported('a', 'Buck 1981 prefactor', BUCK_1981.a, 'hPa', 'BUCK_1981.a');
+const ES_B = exported('b', 'Buck 1981 coefficient', BUCK_1981.b, '–', 'BUCK_1981.b');
+const ES_C = exported('c', 'Buck 1981 coefficient', BUCK_1981.c, '°C', 'BUCK_1981.c');
 const ES_F = exported('f_w', 'moist-air factor (the reference code\u2019s constant where pressure is not used)', MOIST_AIR_FACTOR, '–', 'MOIST_AIR_FACTOR');
 
 // Properties of air.

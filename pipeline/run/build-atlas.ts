@@ -132,13 +132,13 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
     // The plan, each shard's provenance, and where its partial comes from.
     const years = range(cfg.years[0], cfg.years[1]);
     const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
-    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations };
+    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations, physics: cfg.physics };
     const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
     const workerInit = (returnPartials: boolean) => ({
       files: rc.inputFiles,
       datasetOptions: { ...datasetOptions, digests: false, reuseBlockBuffers: true },
-      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon },
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon },
       returnPartials,
     });
     const physics = emptyCounts();

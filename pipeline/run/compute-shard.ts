@@ -7,6 +7,7 @@ import type { Dataset } from '../read/index.ts';
 import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
 import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
 import { accumulateBlock, createPartial, finishPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
+import type { PhysicsSettings } from '../physics/settings.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
@@ -17,6 +18,8 @@ export interface ShardContext {
   evaluations: readonly WorkEvaluation[];
   timeZone: string;
   shift: WorkShift;
+  /** Modelling choices of the physics (globe diameter). */
+  physics: PhysicsSettings;
   /** Grid columns (to turn global cell indices into tile positions). */
   nLon: number;
 }
@@ -170,7 +173,7 @@ export async function computeShard(ds: Dataset, shard: ShardSpec, ctx: ShardCont
         wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
         status: out.status.subarray(a, e),
       };
-      addCounts(physics, computeHours(arrays, 0, nt, { windHeight: 10 }));
+      addCounts(physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
     }
     lap('physics');
     // Back to time-major over the land cells for the reduction.

@@ -13,6 +13,7 @@ import { planShards, yearPieces, type ShardSpec } from '../../pipeline/run/plan.
 import { runShards } from '../../pipeline/run/shard-pool.ts';
 import type { WorkerInit } from '../../pipeline/run/shard-worker.ts';
 import { parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
+import { physicsSettingsSchema } from '../../pipeline/physics/settings.ts';
 import { parse } from 'yaml';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
@@ -29,7 +30,7 @@ beforeAll(async () => {
   const nLon = ds.grid.lon.length;
   shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
-  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, nLon }, returnPartials: true };
+  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon }, returnPartials: true };
 }, 120_000);
 
 describe('the shard pool', () => {

@@ -18,7 +18,6 @@ import { CLIMATE_METHODS } from '../../pipeline/climate/methods.ts';
 import { REGION_METHODS } from '../../pipeline/regions/methods.ts';
 import { SOURCES, SOURCE_IDS, formatMethodNumber, parseMethodNumber, type MethodConstant, type MethodDescriptor } from '../../pipeline/model/sources.ts';
 import { PHYSICS_CONSTANTS } from '../../pipeline/physics/constants.ts';
-import { saturationVaporPressureBuck1981 } from '../../pipeline/physics/humidity.ts';
 import { airThermalConductivity, airViscosity, atmosphericEmissivity, cylinderHeatTransfer, latentHeat, reynoldsNumber, sphereHeatTransfer, vaporDiffusivity } from '../../pipeline/physics/air-properties.ts';
 import { refractionDeg, sunState } from '../../pipeline/physics/solar-position.ts';
 import { directFractionExact } from '../../pipeline/physics/solar-inputs.ts';
@@ -52,12 +51,6 @@ const wrap = (x: number) => ((x % 360) + 360) % 360;
  * values, compared with the function at several inputs. Keyed by the descriptors' `code`.
  */
 const LITERAL_CHECKS: Record<string, () => void> = {
-  'pipeline/physics/humidity.ts saturationVaporPressureBuck1981()': () => {
-    const id = 'saturation-vapour-pressure';
-    for (const t of [-30, -5, 0, 12.5, 25, 40, 55]) {
-      expect(close(k(id, 'a') * Math.exp((k(id, 'b') * t) / (t + k(id, 'c'))), saturationVaporPressureBuck1981(t))).toBe(true);
-    }
-  },
   'pipeline/physics/air-properties.ts airViscosity()': () => {
     const id = 'air-properties';
     for (const T of [250, 290, 320, 350]) {
