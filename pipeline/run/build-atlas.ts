@@ -327,6 +327,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
         baseline: cfg.baseline,
         latestYear: ctx.latestYear,
         timeZone: cfg.timeZone,
+        physics: cfg.physics,
         work: { ...work.settings, clothingAdjustment: work.clothingAdjustment, rest: work.rest, classes: work.classes, cautions: CAUTIONS },
         figures: figureDefs(work.evaluations.map((e) => e.key)).map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
         statistics: STATISTIC_RULES,
