@@ -26,8 +26,8 @@ describe('out-of-range inputs get a status, not a number', () => {
     ['solar above 1500', { solar: 1600 }, STATUS.solarOutOfRange],
     ['cos zenith above 1', { cosZenith: 1.2 }, STATUS.cosZenithOutOfRange],
     ['direct fraction above 1', { directFraction: 1.5 }, STATUS.directFractionOutOfRange],
-    ['year 1949', { timeMs: Date.UTC(1949, 6, 1, 12) }, STATUS.timeOutOfRange],
-    ['year 2050', { timeMs: Date.UTC(2050, 6, 1, 12) }, STATUS.timeOutOfRange],
+    ['year 1899', { timeMs: Date.UTC(1899, 6, 1, 12) }, STATUS.timeOutOfRange],
+    ['year 2101', { timeMs: Date.UTC(2101, 6, 1, 12) }, STATUS.timeOutOfRange],
     ['unparseable time', { timeMs: NaN }, STATUS.timeOutOfRange],
     ['no humidity at all', { rh: undefined, td: undefined }, STATUS.missingInput],
   ];
