@@ -13,7 +13,7 @@ import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, e
 import { join } from 'node:path';
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
-import { ALMANAC_FIRST_YEAR as SOLAR_FIRST_YEAR, ALMANAC_LAST_YEAR as SOLAR_LAST_YEAR } from '../physics/solar-position.ts';
+import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from '../physics/solar-position.ts';
 import { startProgress } from '../model/progress.ts';
 import { makeCellClimate } from './cell-climate.ts';
 import { DemoGridInvalid, DemoLayoutUnknown, DemoOutputUnwritable, DemoSeedInvalid, DemoYearOutOfRange } from './errors.ts';

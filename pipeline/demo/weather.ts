@@ -23,7 +23,7 @@
  * - downward thermal flux: Brutsaert 1975 clear-sky emissivity `1.24 (e/T)^(1/7)` (from memory)
  *   raised toward 1 with cloud (invented).
  */
-import { hourAngle, integrateCosines, sunStateAlmanac as sunState } from '../physics/solar-position.ts';
+import { hourAngle, integrateCosines, sunState } from '../physics/solar-position.ts';
 import { BUCK_1981, SOLAR_CONSTANT } from '../physics/constants.ts';
 import { beamTransmittance, cloudGlobalFactor } from './clear-sky.ts';
 import type { CellClimate } from './cell-climate.ts';

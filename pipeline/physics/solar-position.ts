@@ -12,8 +12,8 @@
  * The Julian date comes exactly from the time in ms, not from the spreadsheet's calendar
  * shortcut that limits NOAA's spreadsheet to 1901–2099. The Astronomical Almanac's low-precision
  * formulas (Michalsky 1988, Solar Energy 40:227–235; 1950–2049), which the Liljegren et al. 2008
- * reference code uses, are kept as {@link sunStateAlmanac} for the comparison over their years
- * and for the invented demo weather. Refraction: Michalsky 1988's standard-atmosphere formula
+ * reference code uses, are kept as {@link sunStateAlmanac} for the comparison over their years.
+ * Refraction: Michalsky 1988's standard-atmosphere formula
  * (1013.25 hPa, 15 °C). Period means: METHODS.md §4.2. NOAA's Spencer-series formulas (METHODS.md
  * §4.1) are kept for comparison and checks.
  *
@@ -114,8 +114,7 @@ export function sunState(timeMs: number): SunState {
  * eqs. for mean longitude, mean anomaly, ecliptic longitude, obliquity, GMST; METHODS.md §3.2.6,
  * §3.2.9 for the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`), the formulas of the
  * Liljegren et al. 2008 reference code, documented for 1950–2049. Kept for the comparison with
- * {@link sunState} over those years and for the invented demo weather (pipeline/demo), whose
- * files stay byte for byte what they were.
+ * {@link sunState} over those years (test/physics/sun-position.test.ts).
  * @param timeMs instant [ms since 1970 UTC]
  */
 export function sunStateAlmanac(timeMs: number): SunState {
