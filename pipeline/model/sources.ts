@@ -344,6 +344,32 @@ export const SOURCES: readonly Source[] = [
   },
 ];
 
+/** One value or statement the pipeline uses that was not verified against its source text. */
+export interface UnverifiedItem {
+  /** What it is, in a few words. */
+  what: string;
+  /** The source it should be checked against. */
+  source: SourceId;
+  /** What is known and how. */
+  status: string;
+}
+
+/**
+ * What is still unverified, in one list (the methods page shows it under that title; the
+ * clothing values from memory are added there from pipeline/work/clothing.ts).
+ */
+export const UNVERIFIED: readonly UnverifiedItem[] = [
+  { what: 'WBGT weights 0.7 / 0.2 / 0.1 and the standard globe of ISO 7243', source: 'iso7243-2017', status: 'read in Parsons (2006), which describes the standard; the standard\'s text was not read' },
+  { what: 'Screening limit curves L(M) = 56.7 − 11.5·log₁₀ M (acclimatized) and 59.9 − 14.1·log₁₀ M (unacclimatized)', source: 'niosh2016', status: 'read in public code and in code comments citing the criteria document; not read in the document' },
+  { what: 'Capacity-loss means and standard deviations per work intensity', source: 'kjellstrom2018', status: 'read in two independent public research codes; the paper was not read' },
+  { what: 'Capacity loss for heavy work, 100 − 25·(WBGT − 25)^(2/3) %, and its basis', source: 'dunne2013', status: 'formula read in a public library; the paper was not read' },
+  { what: 'The indoor/in-shade WBGT takes the globe at the air temperature (the sheltered exposure\'s assumption)', source: 'lemke2012', status: 'abstract read; the assumption is from memory of the paper and of public code citing it' },
+  { what: 'Coefficients of the low-accuracy solar coordinates', source: 'meeus1998', status: 'from memory; their results agree with the NREL SPA example and with PyEphem over 1900–2100 (tested)' },
+  { what: 'Typical metabolic rates per ISO class and the task examples of the workload classes', source: 'iso8996', status: 'class boundaries read via ISO 7243:1989; typical values and examples from memory' },
+  { what: 'Completeness rules for normals (≤ 10 missing days a month, ≥ 80 % of the years)', source: 'wmo1203', status: 'from memory' },
+  { what: 'Stability-class power-law exponents of the 2 m wind', source: 'epa2000', status: 'as coded in the Liljegren reference code; the guidance document was not read' },
+];
+
 /** The source with this id (every id of {@link SOURCE_IDS} has one; a test checks it). */
 export function sourceById(id: SourceId): Source {
   const s = SOURCES.find((x) => x.id === id);

@@ -44,6 +44,10 @@ export interface PhysicsArrays {
   wetBulbSun?: Num;
   globeShade?: Num;
   wetBulbShade?: Num;
+  /** WBGT, globe and natural wet bulb under a shelter at the air temperature [°C] (optional; computed when `wbgtShelter` is given). */
+  wbgtShelter?: Num;
+  globeShelter?: Num;
+  wetBulbShelter?: Num;
   /** Status per cell-hour (pipeline/physics/status.ts); must start zeroed. */
   status: Uint8Array;
 }
@@ -96,6 +100,8 @@ export function computeHours(a: PhysicsArrays, t0: number, t1: number, opts: Phy
       wbgtSun: sub(a.wbgtSun, i0, i1), wbgtShade: sub(a.wbgtShade, i0, i1),
       globeSun: a.globeSun && sub(a.globeSun, i0, i1), wetBulbSun: a.wetBulbSun && sub(a.wetBulbSun, i0, i1),
       globeShade: a.globeShade && sub(a.globeShade, i0, i1), wetBulbShade: a.wetBulbShade && sub(a.wetBulbShade, i0, i1),
+      wbgtShelter: a.wbgtShelter && sub(a.wbgtShelter, i0, i1), globeShelter: a.globeShelter && sub(a.globeShelter, i0, i1),
+      wetBulbShelter: a.wetBulbShelter && sub(a.wetBulbShelter, i0, i1),
       status,
     },
     i1 - i0,

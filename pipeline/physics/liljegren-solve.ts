@@ -56,7 +56,7 @@ export const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
  * The globe diameter's two factors in the globe balance. The tables of `property-tables.ts` and
  * {@link CG0} hold h_g for the reference diameter D_ref = {@link D_GLOBE}; for a diameter D,
  * `h_g(D) = (D_ref/D)·(M(T) + c_g·√(D/D_ref)·R(T))` (the Nu = 2 term scales with 1/D, the
- * Reynolds term with 1/√D; METHODS: sphere correlation of Bird, Stewart & Lightfoot). So `cg0`
+ * Reynolds term with 1/√D: the sphere correlation of Bird, Stewart & Lightfoot). So `cg0`
  * replaces CG0 and `invEgSb` = (D_ref/D)/(ε_g σ) replaces {@link INV_EG_SB}. At D = D_ref both are
  * exactly the reference factors (the results are the same to the bit).
  */
