@@ -31,7 +31,7 @@ import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, ex
 import {
   STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, PRANDTL, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
   EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, KELVIN,
-  SIGMA_LJ_AIR, EPS_K_AIR, CZA_MIN, EMIS_SHELTER,
+  SIGMA_LJ_AIR, CZA_MIN, EMIS_SHELTER,
 } from './constants.ts';
 
 /** Newton stops when a step is smaller than this [K] (remaining error ~2e−7 K, see above). */
@@ -41,16 +41,14 @@ export const MAX_ITERATIONS = 50;
 
 // Property constants (METHODS.md §3.2.2), hoisted once per process.
 const C_MU = (2.6693e-6 * Math.sqrt(M_AIR)) / (SIGMA_LJ_AIR * SIGMA_LJ_AIR);
-const OMEGA_A = 1.048 + (0.034 * 2.9) / 0.4;
-const OMEGA_B = 0.034 / (0.4 * EPS_K_AIR);
 const C_K = CP_AIR + 1.25 * R_AIR;
 const PR_G = 0.6 * Math.pow(PRANDTL, 0.3333);
 const PR_W = 0.281 * Math.pow(PRANDTL, 0.44);
 /** cg = CG0·√(u·P): √(u·100P·D_g·C_μ/R_air)·0.6·Pr^0.3333 [SI, see {@link CellState.cg}]. */
-export const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
+const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
 /** cw = CW0·(u·P)^0.6 = CW0·pow12(√(u·P)): (c_k/D_w)·0.281·Pr^0.44·C_μ^0.4·(100·D_w/R_air)^0.6. */
 export const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
-export const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
+const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
 
 /**
  * The globe diameter's two factors in the globe balance. The tables of `property-tables.ts` and
@@ -162,8 +160,7 @@ export function setGlobe(s: CellState, g: GlobeFactors): void {
 }
 
 /** Where the globe and wick are: open sky in the shade (0), open sky in the sun (1), under a shelter at the air temperature (2). */
-export const EXPOSURE_CODE = { shade: 0, sun: 1, shelter: 2 } as const;
-export type ExposureCode = (typeof EXPOSURE_CODE)[keyof typeof EXPOSURE_CODE];
+export type ExposureCode = 0 | 1 | 2;
 
 /** Scratch for the globe factors M, M', R, R' (property-tables.ts). */
 const GK = new Float64Array(4);
@@ -196,7 +193,7 @@ export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u
 }
 
 /** {@link prepareCell} on the raw inputs already in `s` (taC, tdC, p, u2, solar, fdirIn, cz). */
-export function prepareFields(s: CellState): void {
+function prepareFields(s: CellState): void {
   const taC = s.taC;
   const tdC = s.tdC;
   const p = s.p;
@@ -252,7 +249,7 @@ function quadraticStep(f: number, fp: number, fpp: number): number {
 }
 
 /** First guess for the shade globe [K] into `s.x`: quadratic model of F at Tg = Ta (h_g(Ta) shared). */
-export function globeShadeGuess(s: CellState): void {
+function globeShadeGuess(s: CellState): void {
   globeGuessAtAir(s, s.lrad);
 }
 
@@ -261,7 +258,7 @@ export function globeShadeGuess(s: CellState): void {
  * long-wave load `lw` [K⁴] and no solar: the open-sky shade ({@link globeShadeGuess}) or the
  * shelter (`s.lradShelter`).
  */
-export function globeGuessAtAir(s: CellState, lw: number): void {
+function globeGuessAtAir(s: CellState, lw: number): void {
   const ta = s.ta;
   const k = s.invEgSb;
   const fp = 4 * ta * ta * ta + s.hg0 * k;
@@ -270,7 +267,7 @@ export function globeGuessAtAir(s: CellState, lw: number): void {
 }
 
 /** First guess for the sun globe [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
-export function globeSunGuess(s: CellState): void {
+function globeSunGuess(s: CellState): void {
   const x = s.x;
   const fp = s.globeSlope;
   const fpp = s.globeCurv;
@@ -335,7 +332,7 @@ export function globeRoot(s: CellState, exposure: ExposureCode): number {
  * bulb (false): quadratic model of G at Tw = Td, where e_w = e_a, so G(Td) needs no e_s read and
  * G'(Td), G''(Td) follow from e_s'(Td) (METHODS.md §1.1 derivatives of Buck's form).
  */
-export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
+function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const x = s.td;
   s.x = x;
   const ta = s.ta;
@@ -387,7 +384,7 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
  * and one Newton step on the cubic model, no table read): the sun (q = Q_w) and the shelter
  * (q = σ·ε_w·(L_shelter − L), the shelter's extra long-wave) into `s.x`.
  */
-export function wetBulbGuessFromShade(s: CellState, x: number, q: number): void {
+function wetBulbGuessFromShade(s: CellState, x: number, q: number): void {
   const gp = s.shadeSlope - q * s.shadeDInvHw;
   const g = -q * s.shadeInvHw;
   const fp = gp > 0 ? gp : s.shadeSlope;
