@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { workSettingsSchema } from '../work/work-settings.ts';
+import { physicsSettingsSchema } from '../physics/settings.ts';
 
 /** Allowed `shards.monthsPerPiece`: the divisors of 12, so groups never straddle a year. */
 export const MONTHS_PER_PIECE = [1, 2, 3, 4, 6, 12] as const;
@@ -60,6 +61,8 @@ export const atlasSchema = z
     regions: z.string().min(1),
     /** Output folder of the built site, relative to the config file. */
     output: z.string().default('../dist'),
+    /** Modelling choices of the physics: the globe diameter (pipeline/physics/settings.ts). */
+    physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
     work: workSettingsSchema,
     /**

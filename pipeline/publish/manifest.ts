@@ -31,6 +31,8 @@ export interface Manifest {
   baseline: [number, number];
   latestYear: number;
   timeZone: string;
+  /** Modelling choices of the physics (pipeline/physics/settings.ts): globe diameter [m]. */
+  physics: { globeDiameter: number };
   work: unknown;
   figures: Array<{ id: string; label: string; units: string; combos: string[] }>;
   statistics: Record<string, string>;

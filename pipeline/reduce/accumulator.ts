@@ -130,8 +130,27 @@ export interface ReduceScratch {
   /** Evaluation groups for the fused path, or null when the general path is needed. */
   groups: EvaluationGroup[] | null;
   losses: PreparedLoss[];
+  /**
+   * Clothing adjustment value added to the WBGT before the capacity-loss functions [°C-WBGT]: the
+   * functions relate capacity to the WBGT of workers in ordinary work clothes, and WBGT + CAV is
+   * the WBGT at which such workers carry the same load (pipeline/work/capacity-loss.ts). One
+   * value per build: every evaluation carries the same clothing.
+   */
+  lossCav: number;
   /** The evaluations the groups were made for (a scratch serves one list). */
   evaluations: readonly WorkEvaluation[];
+}
+
+/**
+ * The clothing adjustment value of the evaluations [°C-WBGT] (0 without evaluations); a
+ * RangeError if they differ (the work settings give every evaluation the same clothing).
+ */
+export function buildCav(evaluations: readonly WorkEvaluation[]): number {
+  const cav = evaluations.length > 0 ? evaluations[0].kernel.k.cav : 0;
+  for (const e of evaluations) {
+    if (e.kernel.k.cav !== cav) throw new RangeError(`evaluation ${e.key} has clothing adjustment ${e.kernel.k.cav}, ${evaluations[0].key} has ${cav}: a build has one clothing`);
+  }
+  return cav;
 }
 
 /**
@@ -145,6 +164,7 @@ export function createScratch(n: number, evaluations: readonly WorkEvaluation[],
     loss: new Float32Array(n),
     groups: general ? null : groupEvaluations(evaluations),
     losses: LOSS_VIEWS.map((v) => prepareLoss(v.intensity)),
+    lossCav: buildCav(evaluations),
     evaluations,
   };
 }
@@ -173,7 +193,7 @@ function windowMonth(p: ShardPartial, m: number): number {
  * @param evaluations The same list (and order) the partial was created with
  */
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
-  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses);
+  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.lossCav);
   else accumulateGeneral(p, block, evaluations, scratch);
 }
 
@@ -181,7 +201,7 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
  * The fused path: one pass over the cell-hours; per group one exponential, and only when the
  * hour is above the group's lowest limit. Gives the same counts as the general path.
  */
-function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[]): void {
+function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], cav: number): void {
   const nc = p.cells.length;
   const hist = p.histogram;
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
@@ -240,11 +260,14 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       if (shift) {
         p.shiftHours[cm]++;
         const lb = cm * N_EXPOSURES * N_LOSS;
+        // Capacity loss at the effective WBGT (WBGT + CAV; see ReduceScratch.lossCav).
+        const wsEff = ws + cav;
+        const wdEff = wd + cav;
         for (let l = 0; l < N_LOSS; l++) {
           const prep = losses[l];
-          const a = lossPrepared(ws, prep);
+          const a = lossPrepared(wsEff, prep);
           if (a >= 0.0005) p.capacityLoss[lb + l] += Math.round(a * MILLI);
-          const b = lossPrepared(wd, prep);
+          const b = lossPrepared(wdEff, prep);
           if (b >= 0.0005) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
         }
       }
@@ -299,13 +322,14 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
     }
   }
 
-  // Capacity-loss views, inside the shift only, per exposure.
+  // Capacity-loss views at the effective WBGT (WBGT + CAV), inside the shift only, per exposure.
+  const cav = scratch.lossCav;
   for (let x = 0; x < N_EXPOSURES; x++) {
     const wbgt = x === 0 ? wbgtSun : wbgtShade;
     for (let l = 0; l < N_LOSS; l++) {
       const view = LOSS_VIEWS[l];
-      if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity);
-      else dunne2013LossInto(loss, wbgt);
+      if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity, cav);
+      else dunne2013LossInto(loss, wbgt, cav);
       for (let t = 0; t < nt; t++) {
         if (inYear[t] === 0 || local.inShift[t] === 0) continue;
         const m = local.month[t] - 1;

@@ -10,6 +10,7 @@ import type { Dataset } from '../read/index.ts';
 import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
 import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
 import { accumulateBlock, createPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
+import type { PhysicsSettings } from '../physics/settings.ts';
 import type { ShardSpec } from './plan.ts';
 
 /** Hours per block by default: one month and a little, so a block never spans more than two local months. */
@@ -19,6 +20,8 @@ export interface ShardContext {
   evaluations: readonly WorkEvaluation[];
   timeZone: string;
   shift: WorkShift;
+  /** Modelling choices of the physics (globe diameter). */
+  physics: PhysicsSettings;
   /** Grid columns (to turn global cell indices into block positions). */
   nLon: number;
 }
@@ -220,7 +223,7 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
       wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
       status: out.status.subarray(a, e),
     };
-    addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10 }));
+    addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
   }
   lap('physics');
   // Back to time-major over the land cells for the reduction.

@@ -128,7 +128,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     // The shards, each with its provenance and cache key.
     const years = range(cfg.years[0], cfg.years[1]);
     const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
-    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations };
+    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations, physics: cfg.physics };
     const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
     const tiles: BuildPlan['tiles'] = [];
     for (const s of shards) if (!tiles[s.tileIndex]) tiles[s.tileIndex] = { y0: s.tile.y0, y1: s.tile.y1, cells: s.cells.length };
@@ -168,7 +168,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     log.info(`estimate: ${estimate.text}`);
     return {
       rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
-      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, nLon },
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon },
       estimate,
       close: () => ds.close(),
     };

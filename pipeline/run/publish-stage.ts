@@ -116,6 +116,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
     baseline: cfg.baseline,
     latestYear: plan.latestYear,
     timeZone: cfg.timeZone,
+    physics: cfg.physics,
     work: { ...work.settings, clothingAdjustment: work.clothingAdjustment, rest: work.rest, classes: work.classes, cautions: CAUTIONS },
     figures: plan.defs.map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
     statistics: STATISTIC_RULES,

@@ -14,6 +14,7 @@ import { runTasks, type PoolTask } from '../../pipeline/run/shard-pool.ts';
 import { readPartialFile } from '../../pipeline/run/partial-store.ts';
 import type { WorkerInit } from '../../pipeline/run/shard-worker.ts';
 import { parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
+import { physicsSettingsSchema } from '../../pipeline/physics/settings.ts';
 import { parse } from 'yaml';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
@@ -41,7 +42,7 @@ beforeAll(async () => {
   const nLon = ds.grid.lon.length;
   shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
-  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, nLon } };
+  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon } };
 }, 120_000);
 
 describe('the build pool', () => {

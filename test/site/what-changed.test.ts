@@ -60,8 +60,9 @@ describe('what changed since the previous build, on the home page', () => {
     expect(rows.length).toBe(hourMoves.length);
     expect(hourMoves.length).toBeGreaterThan(0);
     rows.forEach((r, i) => {
-      expect(Number(r[4].replace('\u2212', '-'))).toBeCloseTo(hourMoves[i].after, 1);
-      expect(Number(r[5].replace('+', '').replace('\u2212', '-'))).toBeCloseTo(hourMoves[i].change, 1);
+      // Shown to one decimal: within half a unit of the last digit (a value ending in 5 rounds either way).
+      expect(Math.abs(Number(r[4].replace('\u2212', '-')) - hourMoves[i].after)).toBeLessThanOrEqual(0.05 + 1e-6);
+      expect(Math.abs(Number(r[5].replace('+', '').replace('\u2212', '-')) - hourMoves[i].change)).toBeLessThanOrEqual(0.05 + 1e-6);
     });
     // Region names are escaped like every other text (the odd-name region is HTML).
     expect(section).not.toContain('<script>alert(2)</script>');

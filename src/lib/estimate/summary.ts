@@ -62,7 +62,7 @@ export function summaryLines(r: EstimateResult, ctx: EstimateContext): SummaryLi
       label: 'Clothing',
       parts: [`${ens ? ens.name : 'Clothing adjustment value typed in'}${i.clothing.hood ? ` with hood (+${HOOD_CAV})` : ''}, adjustment `, { deltaC: i.clothing.cav }],
     },
-    { key: 'exposure', label: 'Exposure', parts: [i.exposure === 'sun' ? 'work in the sun' : 'work in the shade'] },
+    { key: 'exposure', label: 'Exposure', parts: [i.exposure === 'sun' ? 'work in the sun' : 'work in the shade (open sky, sun removed)'] },
     { key: 'rest', label: 'Breaks', parts: rest },
     { key: 'shift', label: 'Shift', parts: [`${pad(i.shift.start)}:00–${pad(i.shift.end % 24)}:00 local time (${ctx.timeZone}), ${i.shift.days.map((d) => DAY_NAMES[d]).join(' ')}`] },
     { key: 'months', label: 'Work months', parts: [months] },

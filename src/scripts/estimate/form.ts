@@ -99,6 +99,6 @@ export function convertTemperatureFields(form: HTMLFormElement, from: Temperatur
   }
   for (const option of form.querySelectorAll<HTMLOptionElement>('select[name="clothing"] option')) {
     const e = CLOTHING_ENSEMBLES.find((x) => x.id === option.value);
-    if (e) option.textContent = `${e.name} (${formatTemperatureDelta(e.cav, to, 1)}${e.sourceTag === 'from-memory' ? ', value not verified' : ''})`;
+    if (e) option.textContent = `${e.name} (${formatTemperatureDelta(e.cav, to, 1)})`;
   }
 }

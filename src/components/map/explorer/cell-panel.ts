@@ -12,6 +12,7 @@ import { sitePath } from '../../../lib/nav.ts';
 import type { CellFiguresIndex, CellRecord } from '../../../../pipeline/publish/cell-figures.ts';
 import { cellTableOfRow } from './cell-grid.ts';
 import { NICHE_CLASSES } from '../../../../pipeline/climate/niche.ts';
+import { baselineLength, nicheBaselineCaution } from '../../../lib/niche-baseline.ts';
 import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
 import type { ViewState } from './view-state.ts';
 import { describeLayer } from './describe-view.ts';
@@ -173,10 +174,12 @@ export function renderCellPanel(panel: HTMLElement, ctx: PanelContext, cell: num
   const nicheLegend = nicheLayer ? ctx.catalogue.legends[nicheLayer.legend] : undefined;
   const code = n.baselineClass ? NICHE_CODES.indexOf(n.baselineClass) : -1;
   const label = code >= 0 && nicheLegend ? formatLayerValue(code, '1', ctx.unit, nicheLegend) : undefined;
+  const caution = nicheBaselineCaution(ctx.catalogue.baseline);
   niche.textContent =
-    `Mean annual air temperature over the baseline: ${formatTemperature(n.baselineMat ?? NaN, ctx.unit, 2)}` +
-    (n.latestMat !== null ? `; in ${ctx.catalogue.latestYear}: ${formatTemperature(n.latestMat, ctx.unit, 2)}` : '') +
-    (label ? `. Against the human climate niche: ${label}.` : '.');
+    `Mean annual air temperature over the baseline (${baselineLength(ctx.catalogue.baseline)}): ${formatTemperature(n.baselineMat ?? NaN, ctx.unit, 2)}` +
+    (n.latestMat !== null ? `; in ${ctx.catalogue.latestYear} (1 year): ${formatTemperature(n.latestMat, ctx.unit, 2)}` : '') +
+    (label ? `. Against the human climate niche: ${label}.` : '.') +
+    (caution ? ` ${caution}` : '');
   panel.append(niche);
   panel.append(
     el(
