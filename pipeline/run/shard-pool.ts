@@ -38,7 +38,7 @@ export interface PoolHandlers {
   onShard?: (shardId: string, report: ShardReport) => void;
   /** One more shard done, while its task still runs (for progress). */
   onShardProgress?: () => void;
-  /** A merge band is done. */
+  /** A task is done (a merge band's summary with it). */
   onTask?: (taskId: string, summary: MergeTileSummary | undefined) => void;
 }
 
@@ -60,7 +60,7 @@ export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, job
     onProgress: () => handlers.onShardProgress?.(),
     onResult: (t, r) => {
       if (r.kind === 'compute') for (const s of r.shards) handlers.onShard?.(s.shardId, s);
-      else handlers.onTask?.(taskId(t), r.summary);
+      handlers.onTask?.(taskId(t), r.kind === 'merge' ? r.summary : undefined);
     },
     // The caller gave up (its own work failed): no more tasks, the workers are stopped.
     signal,
