@@ -34,6 +34,7 @@ import { BuildLocked, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData 
 import { makeInventory } from '../publish/inventory.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
 import { cellTableCsv } from '../publish/cell-table.ts';
+import { regionSheetInfo, writeRegionSpreadsheets } from '../publish/region-spreadsheets.ts';
 import { writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
 import { buildSite } from '../publish/site.ts';
@@ -288,8 +289,11 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       log.info('inventory summarised');
       await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
       await writeFile(join(dataDir, 'regions.geojson'), regionsGeoJson(regions));
+      const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
+      const sheetInfo = regionSheetInfo({ ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest, inputFiles: ds.files.length, work, figures: figureDefs([]), statistics: STATISTIC_RULES, cautions: CAUTIONS });
       for (let r = 0; r < regions.length; r++) {
         await writeFile(join(dataDir, 'regions', `${regions[r].id}.csv`), regionTables.get(regions[r].id)!);
+        await writeRegionSpreadsheets(dataDir, regions[r], regionTables.get(regions[r].id)!, sheetInfo);
         await writeFile(join(dataDir, 'regions', `${regions[r].id}.json`), JSON.stringify(regionSummary(r, regions[r], weights[r], niche, figures)));
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
@@ -301,7 +305,6 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
         await writeFile(join(dataDir, 'calculator', `${regions[r].id}.bin`), encodeHistogramTile(years.map((y) => regionHist.get(y)![r])));
       }
       // What changed since the build now in outDir (if any), for the site.
-      const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
       const changes = compareBuilds(readPreviousFacts(join(outDir, 'data')), {
         buildTime: generated, codeVersion: CODE_VERSION, configDigest, years: cfg.years, baseline: cfg.baseline,
         inputs: ds.files, regionTables, regionNames: new Map(regions.map((rg) => [rg.id, rg.name])),
@@ -463,6 +466,8 @@ function countLayers(figures: readonly FigureNormals[]): number {
 function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF, EPSG:4326', };
+  if (path.endsWith('.wide.csv')) return { kind: 'table', description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic', units: 'h per worker (in each month header)' };
+  if (path.endsWith('.xlsx')) return { kind: 'table', description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions', units: 'h per worker, °C (in the headers)' };
   if (path.endsWith('.csv')) {
     return path.includes('/regions/')
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }

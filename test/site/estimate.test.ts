@@ -13,11 +13,11 @@ import type { Page } from 'playwright-core';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
-import type { EstimateContext } from '../../src/lib/estimate/context.ts';
-import { parseInputs } from '../../src/lib/estimate/inputs.ts';
+import type { EstimateContext } from '../../pipeline/schedule/context.ts';
+import { parseInputs } from '../../pipeline/schedule/inputs.ts';
 import { runEstimate } from '../../src/lib/estimate/estimate.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../src/lib/estimate/table.ts';
-import { regionTileHistograms } from '../../src/lib/estimate/tiles.ts';
+import { regionTileHistograms } from '../../pipeline/schedule/tiles.ts';
 import { CONTENT_SECURITY_POLICY } from '../../src/lib/content-security-policy.ts';
 
 let session: SiteSession;
