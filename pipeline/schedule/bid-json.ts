@@ -58,8 +58,8 @@ export function bidJson(run: BidRun, inputs: EstimateInputs, ctx: EstimateContex
     atlas: { title: ctx.build.title, buildTime: ctx.build.buildTime, codeVersion: ctx.build.codeVersion, configDigest: ctx.build.configDigest, inputFiles: ctx.build.inputs, timeZone: ctx.timeZone },
     place:
       place.kind === 'region'
-        ? { kind: 'region', id: place.id, name: place.name }
-        : { kind: 'cell', cell: place.cell, lat: place.centre.lat, lon: place.centre.lon, requested: place.requested, distanceKm: r2(place.distanceKm), movedToLand: place.movedToLand },
+        ? { kind: 'region' as const, id: place.id, name: place.name }
+        : { kind: 'cell' as const, cell: place.cell, lat: place.centre.lat, lon: place.centre.lon, requested: place.requested, distanceKm: r2(place.distanceKm), movedToLand: place.movedToLand },
     settings: Object.fromEntries([...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, a.weatherYears, run.weather.skipped)].map((l) => [l.key, lineTextC(l)])),
     job: {
       start: formatDay(inputs.job.start),
