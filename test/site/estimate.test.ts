@@ -6,12 +6,12 @@
  * °C/°F switch, and no request leaves 127.0.0.1, no console error, no CSP violation.
  * Tolerances are those measured in estimate-logic.test.ts (weekday scaling of the histograms).
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildPipelineData } from './pipeline-data.ts';
-import { buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
+import { ARTIFACTS_DIR, buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
 import type { EstimateContext } from '../../pipeline/schedule/context.ts';
 import { JOB_DEFAULTS, parseInputs } from '../../pipeline/schedule/inputs.ts';
@@ -321,18 +321,21 @@ describe('the estimate page', () => {
     for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv']) expect(await p.isVisible(sel), sel).toBe(false);
     expect(await p.textContent('.bid-print-title')).toContain('INVENTED DATA');
     expect(await p.textContent('#bid-build')).toContain(ctx.build.buildTime);
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'estimate-print.png'), fullPage: true });
     const pdf = await p.pdf({ format: 'A4', printBackground: false });
+    writeFileSync(join(ARTIFACTS_DIR, 'estimate-print.pdf'), pdf);
     const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? []).length;
     expect(pages).toBe(1);
     await p.emulateMedia({ media: 'screen' });
   });
 
   it('bad job inputs show the catalogued error with its hint, and a deadline that cannot be met is said in the crew line without losing the schedule', async () => {
-    const w = await session.open('/estimate/?region=sollent-coast&start=2027-02-30');
+    // (A date field cannot hold 30 February; the holiday list can.)
+    const w = await session.open('/estimate/?region=sollent-coast&holidays=2027-06-01%0A2027-02-30');
     await settled(w.page, 0);
     expect(await w.page.getAttribute('#estimate-app', 'data-state')).toBe('error');
-    expect(await w.page.getAttribute('#estimate-error', 'data-code')).toBe('ScheduleDateInvalid');
-    expect(await w.page.textContent('#estimate-error')).toMatch(/What to do: write dates as YYYY-MM-DD/);
+    expect(await w.page.getAttribute('#estimate-error', 'data-code')).toBe('ScheduleHolidayInvalid');
+    expect(await w.page.textContent('#estimate-error')).toMatch(/line 2[\s\S]*What to do: list one non-working date per line/);
     const d = await session.open('/estimate/?region=sollent-coast&start=2027-05-03&deadline=2027-05-01');
     await settled(d.page, 0);
     expect(await d.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
