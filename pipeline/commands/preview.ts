@@ -38,6 +38,7 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.tiff': 'image/tiff',
   '.wasm': 'application/wasm',
   '.bin': 'application/octet-stream',
+  '.xlsx': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
   '.woff2': 'font/woff2',
   '.pbf': 'application/x-protobuf',
   '.map': 'application/json; charset=utf-8',
