@@ -40,6 +40,7 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.nc': 'application/x-netcdf',
   '.wasm': 'application/wasm',
   '.bin': 'application/octet-stream',
+  '.xlsx': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
   '.woff2': 'font/woff2',
   '.pbf': 'application/x-protobuf',
   '.map': 'application/json; charset=utf-8',

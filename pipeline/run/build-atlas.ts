@@ -167,7 +167,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }
-      await regionStage(plan, tiles, dataDir, log, o.quiet);
+      await regionStage(plan, tiles, dataDir, generated, log, o.quiet);
       await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {

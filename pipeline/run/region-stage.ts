@@ -1,8 +1,9 @@
 /**
  * Stage 4 of a build, the regions: one region at a time, its parts from every merge band it
  * overlaps are added (double-double sums, so the result does not depend on the bands), its
- * per-year area-weighted means become normals (pipeline/climate/normals.ts), and its table, its
- * summary and its calculator tile are written. Memory holds one region.
+ * per-year area-weighted means become normals (pipeline/climate/normals.ts), and its table (tidy
+ * CSV, the wide CSV and the workbook for spreadsheets), its summary and its calculator tile are
+ * written. Memory holds one region.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -13,6 +14,10 @@ import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums }
 import { ddAddAll, ddAddPair } from '../regions/double-double.ts';
 import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, type RegionRecordRef } from '../formats/region-parts.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
+import { regionSheetInfo, writeRegionSpreadsheets } from '../publish/region-spreadsheets.ts';
+import { STATISTIC_RULES } from '../publish/manifest.ts';
+import { CAUTIONS } from '../work/index.ts';
+import { CODE_VERSION } from '../model/version.ts';
 import { encodeHistogramTile } from '../publish/histogram-tiles.ts';
 import type { RegionFigureNormals } from '../publish/figure-normals.ts';
 import { startProgress } from '../model/progress.ts';
@@ -24,9 +29,14 @@ export interface RegionOutcome {
   seconds: number;
 }
 
-export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSummary[], dataDir: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
+export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSummary[], dataDir: string, generated: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
   const t0 = Date.now();
   const cfg = plan.rc.config;
+  // What the region workbooks' assumptions sheet says of the build.
+  const sheetInfo = regionSheetInfo({
+    ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
+    work: plan.work, figures: plan.defs, statistics: STATISTIC_RULES, cautions: CAUTIONS,
+  });
   // Which records of which band files belong to each region.
   const refs = plan.regions.map(() => [] as Array<{ path: string; ref: RegionRecordRef }>);
   for (const t of tiles) for (const ref of t.regionParts.records) refs[ref.region].push({ path: t.regionParts.path, ref });
@@ -55,7 +65,9 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
       const normals = computeNormals({ years: plan.years, values, nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
       return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN) };
     });
-    writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear));
+    const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear);
+    writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
+    await writeRegionSpreadsheets(dataDir, region, table, sheetInfo);
     // Mean annual temperature against the niche.
     const [mat, latest] = weightedMeans(means, 2);
     writeFileSync(

@@ -3,8 +3,8 @@
  * decoders: region tiles (pipeline/publish/histogram-tiles.ts) and per-cell chunks
  * (pipeline/publish/point-tile-codec.ts). Pure: the browser script fetches, these decode.
  */
-import { decodeHistogramTile } from '../../../pipeline/publish/histogram-tiles.ts';
-import { cellHistograms, parsePointChunk } from '../../../pipeline/publish/point-tile-codec.ts';
+import { decodeHistogramTile } from '../publish/histogram-tiles.ts';
+import { cellHistograms, parsePointChunk } from '../publish/point-tile-codec.ts';
 import type { EstimateChunk, EstimateContext } from './context.ts';
 import { EstimateCellInvalid, EstimateDataUnavailable, EstimateYearsMismatch } from './errors.ts';
 
