@@ -77,16 +77,26 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     try {
       const { build } = await import('astro');
       // Astro writes .astro/ in the project root: one Astro build at a time on this machine.
-      await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
-        build({
-          root: PROJECT_ROOT,
-          outDir: tmp,
-          cacheDir,
-          mode: 'production',
-          logLevel: opts.quiet ? 'error' : 'info',
-        }),
-        { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
-      );
+      // Astro runs the pages' server code from the output folder, and that code finds its npm
+      // packages from the working folder: the build runs in the project root wherever the command
+      // was started (an output folder outside the project, e.g. /srv/site, failed with "Cannot
+      // find package" when started elsewhere).
+      const cwd = process.cwd();
+      process.chdir(PROJECT_ROOT);
+      try {
+        await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
+          build({
+            root: PROJECT_ROOT,
+            outDir: tmp,
+            cacheDir,
+            mode: 'production',
+            logLevel: opts.quiet ? 'error' : 'info',
+          }),
+          { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
+        );
+      } finally {
+        process.chdir(cwd);
+      }
     } catch (e) {
       const err = e as Error & { code?: string; hint?: string };
       const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));
