@@ -7,10 +7,17 @@
  */
 import { runInWorkers } from '../infra/worker-pool.ts';
 import type { KernelCounts } from '../physics/index.ts';
-import type { ComputeTask } from './compute-task.ts';
-import type { WorkerInit } from './shard-worker.ts';
+import type { OpenDatasetOptions } from '../read/index.ts';
+import type { ComputeTask, ShardContext } from './compute-task.ts';
 import type { PartialMeta } from '../formats/partial-file.ts';
 import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
+
+/** What every worker is started with: the input files, how to open them, the shard context. */
+export interface WorkerInit {
+  files: string[];
+  datasetOptions: OpenDatasetOptions;
+  context: ShardContext;
+}
 
 /** Where a compute task writes each shard's partial file. */
 export type ShardStores = Record<string, { path: string; meta: Omit<PartialMeta, 'report'> }>;

@@ -5,19 +5,13 @@
  * its file here (encoding runs in parallel), and merge bands (./merge-tile.ts). Only small
  * reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
  */
-import { openDataset, type Dataset, type OpenDatasetOptions } from '../read/index.ts';
-import { computeTask, type ShardContext } from './compute-task.ts';
-import type { PoolResult, PoolTask, ShardReport } from './shard-pool.ts';
+import { openDataset, type Dataset } from '../read/index.ts';
+import { computeTask } from './compute-task.ts';
+import type { PoolResult, PoolTask, ShardReport, WorkerInit } from './shard-pool.ts';
 import { writePartialFile } from './partial-store.ts';
 import { runMergeTile } from './merge-tile.ts';
 import { serveTasks } from '../infra/worker-side.ts';
 import { DiskFull } from './errors.ts';
-
-export interface WorkerInit {
-  files: string[];
-  datasetOptions: OpenDatasetOptions;
-  context: ShardContext;
-}
 
 let ds: Dataset | undefined;
 let init: WorkerInit | undefined;

@@ -17,7 +17,7 @@ import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { SMALL_GRID } from '../../pipeline/demo/index.ts';
 import type { YearJob } from '../../pipeline/demo/year-job.ts';
 import { runTasks } from '../../pipeline/run/shard-pool.ts';
-import type { WorkerInit } from '../../pipeline/run/shard-worker.ts';
+import type { WorkerInit } from '../../pipeline/run/shard-pool.ts';
 import type { ShardSpec } from '../../pipeline/run/plan.ts';
 
 /** A small seeded block of weather on shared arrays: 30 hours × 6 × 7 cells, July 2021, 0–40 °C. */

@@ -12,7 +12,7 @@ import { openDataset } from '../../pipeline/read/index.ts';
 import { planShards, yearPieces, type ShardSpec } from '../../pipeline/run/plan.ts';
 import { runTasks, type PoolTask } from '../../pipeline/run/shard-pool.ts';
 import { readPartialFile } from '../../pipeline/run/partial-store.ts';
-import type { WorkerInit } from '../../pipeline/run/shard-worker.ts';
+import type { WorkerInit } from '../../pipeline/run/shard-pool.ts';
 import { parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
 import { physicsSettingsSchema } from '../../pipeline/physics/settings.ts';
 import { parse } from 'yaml';
