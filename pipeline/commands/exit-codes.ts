@@ -29,7 +29,9 @@ export const USAGE_ERRORS: readonly string[] = [
   'LayerRampUnknown', 'LayerClassesInvalid', 'LayerDomainInvalid', 'LayerNoDataValueInvalid', 'LayerCategoriesInvalid',
   'PreviewDirMissing', 'PreviewPortBusy', 'SiteOutputUnwritable', 'SiteDataDirUnset',
   'EstimateNumberInvalid', 'EstimateChoiceUnknown', 'EstimateMonthsEmpty', 'EstimatePeriodInvalid', 'EstimateRegionUnknown',
-  'EstimateCellInvalid', 'EstimatePointOutsideGrid',
+  'EstimateCellInvalid', 'EstimatePointOutsideGrid', 'EstimateAtlasNotFound',
+  'ScheduleDateInvalid', 'ScheduleNumberInvalid', 'ScheduleShiftInvalid', 'ScheduleDaysInvalid', 'ScheduleHolidayInvalid',
+  'ScheduleTooManyPatterns', 'ScheduleNotFinished', 'ScheduleDeadlineUnreachable',
 ];
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
@@ -40,6 +42,7 @@ export const DATA_ERRORS: readonly string[] = [
   'NetcdfDimensionUnsupported', 'NetcdfTimeGap', 'NetcdfDuplicateHours', 'NetcdfBlockOutOfRange', 'NetcdfReadFailed',
   'PartialsIncomplete', 'PartialsInconsistent', 'PartialCorrupt', 'PartialFormatUnknown', 'PartialsDuplicated', 'PartialsForeign',
   'BandsIncomplete', 'BandsDuplicated', 'BandsForeign',
+  'EstimateAtlasInvalid', 'ScheduleNoWeatherYears',
   'PointInputNotFound', 'PointMissingColumn', 'PointBadRow',
   'PointTileCountTooLarge', 'PointTileCorrupt', 'PointTileYearsIncomplete', 'PointTileCellsMismatch',
   'RegionNotGeoJson', 'RegionNoFeatures', 'RegionWrongGeometry', 'RegionMissingId', 'RegionBadId', 'RegionMissingName',

@@ -120,7 +120,9 @@ work:
     const regions = readdirSync(join(dir, 'out-ts/data/regions')).filter((f) => f.endsWith('.csv')).sort();
     expect(regions.length).toBeGreaterThan(0);
     expect(readdirSync(join(dir, 'out-compiled/data/regions')).filter((f) => f.endsWith('.csv')).sort()).toEqual(regions);
-    for (const f of [...regions.map((r) => `regions/${r}`), 'atlas-cells.csv']) {
+    const tables = readdirSync(join(dir, 'out-ts/data/cell-tables')).map((t) => `cell-tables/${t}`);
+    expect(tables.length).toBeGreaterThan(0);
+    for (const f of [...regions.map((r) => `regions/${r}`), ...tables, 'atlas-cells.nc']) {
       expect(readFileSync(join(dir, 'out-compiled/data', f)).equals(readFileSync(join(dir, 'out-ts/data', f))), f).toBe(true);
     }
   }, 240_000);

@@ -43,7 +43,7 @@ describe('atlas configuration', () => {
   it('months per piece of a year must divide 12: 5 is a ConfigInvalid error naming shards.monthsPerPiece', () => {
     expectError(() => parseConfig(demoText + '\nshards: { monthsPerPiece: 5 }\n', 'a.yaml'), 'ConfigInvalid', /shards\.monthsPerPiece: must be 1, 2, 3, 4, 6 or 12/);
     expect(parseConfig(demoText + '\nshards: { monthsPerPiece: 12 }\n', 'a.yaml').shards.monthsPerPiece).toBe(12);
-    expect(parseConfig(demoText, 'a.yaml').shards).toEqual({ cellsPerTile: 1024, monthsPerPiece: 3 });
+    expect(parseConfig(demoText, 'a.yaml').shards).toEqual({ cellsPerTile: 1024, cellsPerBlock: 1024, monthsPerPiece: 3 });
   });
 
   it('broken YAML is a ConfigSyntax error', () => {

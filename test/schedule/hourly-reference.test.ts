@@ -11,7 +11,7 @@
  * month's expected loss at that hour. The largest differences found are printed and must stay
  * within what pipeline/schedule/approximation.ts states on the page and in the CLI help.
  */
-import { readdirSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from '../site/pipeline-data.ts';
@@ -30,10 +30,13 @@ import { MEASURED } from '../../pipeline/schedule/approximation.ts';
 
 let atlas: EstimateAtlas;
 let inputs: string[] = [];
+/** The globe diameter the atlas was built with [m] (its manifest): the reference uses the same physics. */
+let globeDiameter = 0;
 
 beforeAll(async () => {
   const data = await buildPipelineData();
   atlas = await openEstimateAtlas(data.dataDir);
+  globeDiameter = (JSON.parse(readFileSync(join(data.dataDir, 'data', 'manifest.json'), 'utf8')) as { physics: { globeDiameter: number } }).physics.globeDiameter;
   const dir = join(dirname(data.configPath), 'inputs');
   inputs = readdirSync(dir).filter((f) => f.endsWith('.nc')).map((f) => join(dir, f));
 }, 600_000);
@@ -51,7 +54,7 @@ async function hourlyWbgt(cell: number): Promise<Map<number, number>> {
   try {
     for (let t0 = 0; t0 < ds.time.count; t0 += step) {
       const block = await ds.readBlock(t0, Math.min(step, ds.time.count - t0), tile);
-      const phys = computeHourlyBlock(block);
+      const phys = computeHourlyBlock(block, { globeDiameter });
       const local = localHours(block.time, atlas.ctx.timeZone);
       for (let i = 0; i < block.time.length; i++) {
         if (Number.isFinite(phys.wbgtSun[i])) out.set(key(local.year[i], local.month[i], local.day[i], local.hour[i]), phys.wbgtSun[i]);
