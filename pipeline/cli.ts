@@ -12,6 +12,7 @@ export function makeProgram(): Command {
   const program = new Command('heathours')
     .description('Build an atlas of working hours lost to heat stress from ERA5 / ERA5-Land reanalysis NetCDF files.')
     .version(CODE_VERSION)
+    .option('--verbose', 'with an error, also print its details (e.g. the HDF5 library\'s own diagnostics)')
     .showHelpAfterError('(run with --help for usage)')
     .exitOverride();
   for (const register of commands) register(program);
@@ -28,7 +29,7 @@ export async function main(argv: string[]): Promise<void> {
       return;
     }
     if (e instanceof HeathoursError) {
-      process.stderr.write(`${e.format()}\n`);
+      process.stderr.write(`${e.format(program.opts().verbose === true || argv.includes('--verbose'))}\n`);
       process.exitCode = 2;
       return;
     }

@@ -33,10 +33,11 @@ interface WorkerError {
   message: string;
   hint?: string;
   where?: Record<string, unknown>;
+  details?: string;
 }
 
 function toError(e: WorkerError, shardId?: string): Error {
-  if (e.catalogued) return new HeathoursError(e.code!, e.title!, e.message, e.hint!, e.where ?? {});
+  if (e.catalogued) return new HeathoursError(e.code!, e.title!, e.message, e.hint!, e.where ?? {}, e.details);
   return new Error(`shard ${shardId ?? '(start-up)'} failed in a worker: ${e.message}`);
 }
 

@@ -57,7 +57,7 @@ async function handle(m: { init?: WorkerInit; task?: ShardTask; close?: boolean 
     }
   } catch (e) {
     const err = e instanceof HeathoursError
-      ? { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where }
+      ? { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where, details: e.details }
       : { catalogued: false, message: (e as Error)?.stack ?? String(e) };
     parentPort!.postMessage({ error: err, shardId: m.task?.shard.id });
   }
