@@ -19,13 +19,15 @@ import { once } from 'node:events';
 import { temporarySibling } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import '../model/catalogue.ts';
-import { readCsvRecords, csvField } from '../physics/csv.ts';
-import { PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid } from '../physics/errors.ts';
-import { computePoint, type PointInput } from '../physics/point-row.ts';
+import { HeathoursError } from '../model/errors.ts';
+import { readCsvRecords, csvField } from '../formats/csv.ts';
+import { PointBadRow, PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid, PointOutputFailed } from '../physics/errors.ts';
+import { computePoint } from '../physics/point-row.ts';
+import { pointInputFromCells } from '../physics/point-input.ts';
 import { statusName } from '../physics/status.ts';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { parse as parseYaml, YAMLParseError } from 'yaml';
+import { parseYamlStrict } from '../config/load.ts';
 import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type WorkKernel, type WorkloadClasses } from '../work/index.ts';
 
 const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
@@ -57,13 +59,7 @@ export function classColumns(id: string): [string, string] {
 /** Reads and validates a workload-classes file (catalogued errors for a missing or bad file). */
 export function loadWorkloadClasses(file: string): WorkloadClasses {
   if (!existsSync(file)) throw PointClassesNotFound({ path: file });
-  let raw: unknown;
-  try {
-    raw = parseYaml(readFileSync(file, 'utf8'));
-  } catch (e) {
-    if (e instanceof YAMLParseError) throw PointClassesSyntax({ detail: e.message }, { file });
-    throw e;
-  }
+  const raw = parseYamlStrict(readFileSync(file, 'utf8'), (detail) => PointClassesSyntax({ detail }, { file }));
   return parseWorkloadClasses(raw, file);
 }
 
@@ -93,23 +89,29 @@ export interface PointSummary {
   dewPointClamped: number;
 }
 
-function num(v: string | undefined, dflt: number): number {
-  if (v === undefined || v.trim() === '') return dflt;
-  return Number(v);
-}
-
 /** Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file. */
 export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
-  if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  if (!existsSync(inPath) || !statSync(inPath).isFile()) throw PointInputNotFound({ path: inPath }, { file: inPath });
   const work = prepareClassKernels(opts);
   const OUTPUT: string[] = [...PHYSICS_OUTPUT, ...work.flatMap((w) => w.columns), 'status'];
   const size = statSync(inPath).size;
   const progress = startProgress('point', size, opts);
-  await mkdir(dirname(outPath), { recursive: true });
+  try {
+    await mkdir(dirname(outPath), { recursive: true });
+  } catch (e) {
+    throw PointOutputFailed({ path: outPath, reason: (e as Error).message }, { file: outPath });
+  }
   const tmp = temporarySibling(outPath);
   const out = createWriteStream(tmp, { encoding: 'utf8' });
+  // A write error (a full disk, a folder that cannot be written) is kept and reported, never left
+  // as an unhandled stream event.
+  let writeError: Error | undefined;
+  out.on('error', (e) => {
+    writeError ??= e;
+  });
   const summary: PointSummary = { rows: 0, ok: 0, byStatus: {}, dewPointClamped: 0 };
   const write = async (s: string) => {
+    if (writeError) throw PointOutputFailed({ path: outPath, reason: writeError.message }, { file: outPath });
     if (!out.write(s)) await once(out, 'drain');
   };
   try {
@@ -120,6 +122,11 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       bytes += fields.reduce((a, f) => a + f.length + 1, 0);
       if (!header) {
         header = fields.map((h) => h.trim());
+        const seen = new Set<string>();
+        for (const h of header) {
+          if (h !== '' && seen.has(h)) throw PointBadRow({ detail: `the header names column "${h}" twice` }, { file: inPath, row: line });
+          seen.add(h);
+        }
         col = Object.fromEntries(header.map((h, i) => [h, i]));
         for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inPath, row: line });
         if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inPath, row: line });
@@ -128,16 +135,10 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
         col.__extra = extra.length;
         continue;
       }
-      const get = (name: string) => (name in col ? fields[col[name]] : undefined);
-      const input: PointInput = {
-        timeMs: Date.parse(get('time_utc') ?? ''),
-        avgMinutes: num(get('avg_minutes'), 60),
-        lat: num(get('lat'), NaN), lon: num(get('lon'), NaN), ta: num(get('ta_c'), NaN),
-        rh: num(get('rh_pct'), NaN), td: num(get('td_c'), NaN), pressure: num(get('pressure_hpa'), NaN),
-        wind: num(get('wind_ms'), NaN), windHeight: num(get('wind_height_m'), 10), urban: num(get('urban'), 0) === 1,
-        dt: num(get('dt_c'), 0), solar: num(get('solar_wm2'), NaN),
-        directFraction: num(get('direct_fraction'), NaN), cosZenith: num(get('cos_zenith'), NaN),
-      };
+      if (fields.length !== header.length) {
+        throw PointBadRow({ detail: `line ${line} has ${fields.length} field(s), the header has ${header.length}` }, { file: inPath, row: line });
+      }
+      const input = pointInputFromCells((name) => (name in col ? fields[col[name]] : undefined), { path: inPath, row: line });
       const r = computePoint(input);
       summary.rows++;
       const name = statusName(r.status);
@@ -166,12 +167,21 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
     if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inPath, row: 1 });
     out.end();
     await once(out, 'finish');
+    if (writeError) throw PointOutputFailed({ path: outPath, reason: writeError.message }, { file: outPath });
     await rename(tmp, outPath);
     progress.done();
     return summary;
   } catch (e) {
-    out.destroy();
+    // Nothing half-written: the stream is closed before its temporary file is removed.
+    if (!out.closed) {
+      const closed = once(out, 'close').catch(() => undefined);
+      out.destroy();
+      await closed;
+    }
     await rm(tmp, { force: true });
+    if (e instanceof Error && !(e instanceof HeathoursError) && 'code' in e && typeof e.code === 'string' && /^E[A-Z]+$/.test(e.code)) {
+      throw PointOutputFailed({ path: outPath, reason: e.message }, { file: outPath });
+    }
     throw e;
   }
 }

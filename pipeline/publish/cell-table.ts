@@ -6,7 +6,7 @@
 import type { FigureNormals } from '../run/climate-step.ts';
 import { PERIODS } from '../run/figures.ts';
 import { comboColumns } from './combo.ts';
-import { csvLine, roundTo } from './csv.ts';
+import { csvLine, roundTo } from '../formats/csv.ts';
 import { periodLabel } from './region-table.ts';
 
 export const CELL_TABLE_FIGURES = ['hours-above-limit-shift', 'hours-lost-shift'];

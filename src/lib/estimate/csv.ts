@@ -1,11 +1,11 @@
 /**
- * The CSV download of an estimate (RFC 4180, pipeline/publish/csv.ts): first `#` lines with the
+ * The CSV download of an estimate (RFC 4180, pipeline/formats/csv.ts): first `#` lines with the
  * title, the invented-data label, the settings (temperatures in °C) and the cautions, then a
  * header with the unit in each column name and one line per row of the page's table.
  * Readers skip the `#` lines (pandas `comment="#"`, R `comment.char = "#"`).
  */
 import { CAUTION_SUMMARY } from '../../../pipeline/work/index.ts';
-import { csvLine, roundTo } from '../../../pipeline/publish/csv.ts';
+import { csvLine, roundTo } from '../../../pipeline/formats/csv.ts';
 import type { EstimateContext } from './context.ts';
 import type { EstimateResult } from './estimate.ts';
 import { summaryLines, summaryText } from './summary.ts';
