@@ -6,21 +6,25 @@
  */
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { prepareBases, type BasePaths } from './bases.ts';
-import { FORMATS, type FormatId } from './mutate.ts';
+import { loadBase, prepareBases, type BasePaths } from './bases.ts';
+import { FORMATS, truncationPoints, type FormatId } from './mutate.ts';
 import { GOOD, OUTCOMES, type Outcome } from './outcome.ts';
 import { runFuzzPool, type TaskResult } from './pool.ts';
+import type { Depth } from './targets.ts';
 
 export interface CampaignOptions {
   formats?: readonly FormatId[];
-  /** Mutants per format [–]. */
+  /** Mutants per format [–] (the truncation sweep first); `counts` overrides it per format. */
   count: number;
+  counts?: Partial<Record<FormatId, number>>;
   seed: number;
   workers: number;
   /** Time limit per mutant [ms]. */
   timeoutMs: number;
   /** Folder for the bases and the mutants. */
   dir: string;
+  /** How much of each NetCDF mutant the build step reads (test/fuzz/targets.ts); default full. */
+  depth?: Depth;
   onResult?: (r: TaskResult) => void;
 }
 
@@ -33,6 +37,9 @@ export interface FormatSummary {
   slowest: string;
   /** Mutants whose outcome is a defect. */
   defects: TaskResult[];
+  /** Mutants of the truncation sweep, and how many of them were read without an error. */
+  sweep: number;
+  sweepRead: number;
 }
 
 export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePaths; summaries: FormatSummary[]; seconds: number }> {
@@ -43,10 +50,14 @@ export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePath
   const formats = o.formats ?? FORMATS;
   // Interleaved, so slow and fast formats share the workers evenly.
   const tasks = [];
-  for (let i = 0; i < o.count; i++) for (const format of formats) tasks.push({ format, seed: o.seed, index: i });
-  const results = await runFuzzPool(tasks, { workers: o.workers, timeoutMs: o.timeoutMs, setup: { bases, workDir }, onResult: o.onResult });
+  const n = (f: FormatId) => o.counts?.[f] ?? o.count;
+  const most = Math.max(...formats.map(n));
+  for (let i = 0; i < most; i++) for (const format of formats) if (i < n(format)) tasks.push({ format, seed: o.seed, index: i });
+  const results = await runFuzzPool(tasks, { workers: o.workers, timeoutMs: o.timeoutMs, setup: { bases, workDir, depth: o.depth }, onResult: o.onResult });
   const summaries = formats.map((format) => {
     const mine = results.filter((r) => r.format === format);
+    const cuts = truncationPoints(loadBase(format, bases.base[format])).length;
+    const sweep = mine.filter((r) => r.index < cuts);
     const counts = Object.fromEntries(OUTCOMES.map((k) => [k, 0])) as Record<Outcome, number>;
     for (const r of mine) counts[r.outcome]++;
     const slow = mine.reduce((a, b) => (b.ms > a.ms ? b : a), mine[0]);
@@ -57,6 +68,8 @@ export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePath
       slowestMs: slow?.ms ?? 0,
       slowest: slow ? `index ${slow.index}: ${slow.recipe.join('; ')}` : '',
       defects: mine.filter((r) => !GOOD.has(r.outcome)),
+      sweep: sweep.length,
+      sweepRead: sweep.filter((r) => r.outcome === 'read').length,
     };
   });
   return { bases, summaries, seconds: (performance.now() - t0) / 1000 };

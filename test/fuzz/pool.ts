@@ -75,11 +75,11 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
           };
           const fail = (outcome: Outcome, message: string) =>
             finish({ ...task, outcome, steps: [{ step: 'worker', outcome, message, ms: performance.now() - t0 }], ms: performance.now() - t0, ...started }, true);
-          const onMsg = (m: { started?: { path: string; recipe: string[] }; done?: TaskResult; failed?: string }) => {
+          const onMsg = (m: { started?: { path: string; recipe: string[] }; done?: TaskResult; restart?: boolean; failed?: string }) => {
             if (m.started) {
               started = { path: m.started.path, recipe: m.started.recipe };
               timer = setTimeout(() => fail('hang', `no answer within ${o.timeoutMs} ms`), o.timeoutMs);
-            } else if (m.done) finish(m.done, false);
+            } else if (m.done) finish(m.done, m.restart === true);
             else if (m.failed) fail('crash', `the fuzz worker failed: ${m.failed}`);
           };
           const onError = (e: Error) => fail('crash', `the worker thread died: ${e?.stack ?? e}`);

@@ -28,7 +28,14 @@ export interface Step {
   run: () => Promise<void>;
 }
 
-export function stepsFor(format: FormatId, path: string, bases: BasePaths): Step[] {
+/**
+ * `full` reads every hour of the grid in the build step (the benchmark); `quick` (the suite)
+ * reads the first and last month only: inspect has read every value already, and the build's
+ * own path through a damaged chunk has its own test (damaged-build.test.ts).
+ */
+export type Depth = 'full' | 'quick';
+
+export function stepsFor(format: FormatId, path: string, bases: BasePaths, depth: Depth = 'full'): Step[] {
   if (format === 'point-csv') {
     return [{
       name: 'point',
@@ -66,7 +73,9 @@ export function stepsFor(format: FormatId, path: string, bases: BasePaths): Step
         const ds = await openDataset([path, lsm], { product: 'era5', landSeaMask: { variable: 'lsm', threshold: 0.5 }, digests: false, reuseBlockBuffers: true });
         try {
           const tile = { y0: 0, y1: ds.grid.lat.length, x0: 0, x1: ds.grid.lon.length };
-          for (let t0 = 0; t0 < ds.time.count; t0 += BLOCK_HOURS) await ds.readBlock(t0, Math.min(BLOCK_HOURS, ds.time.count - t0), tile);
+          const n = ds.time.count;
+          const starts = depth === 'full' ? Array.from({ length: Math.ceil(n / BLOCK_HOURS) }, (_, k) => k * BLOCK_HOURS) : [...new Set([0, Math.max(0, n - BLOCK_HOURS)])];
+          for (const t0 of starts) await ds.readBlock(t0, Math.min(BLOCK_HOURS, n - t0), tile);
         } finally {
           await ds.close();
         }

@@ -11,10 +11,20 @@ import { join } from 'node:path';
 import { loadBase, type BasePaths } from './bases.ts';
 import { makeMutant, type Base, type FormatId } from './mutate.ts';
 import { classify, GOOD, worst, type StepResult } from './outcome.ts';
-import { stepsFor } from './targets.ts';
+import { stepsFor, type Depth } from './targets.ts';
+import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+
+/**
+ * The reader's time limit for NetCDF-4 metadata [ms], lowered from its default so that a mutant
+ * on which HDF5 loops ends (as the catalogued NetcdfReadStuck) well inside the pool's limit.
+ */
+export const FUZZ_METADATA_TIMEOUT_MS = 4000;
+setHdf5MetadataTimeout(FUZZ_METADATA_TIMEOUT_MS);
 
 export interface WorkerSetup {
   bases: BasePaths;
+  /** How much of a NetCDF mutant the build step reads (targets.ts). */
+  depth?: Depth;
   /** Folder for the mutant files. */
   workDir: string;
 }
@@ -71,7 +81,7 @@ async function handle(t: FuzzTask): Promise<void> {
   parentPort!.postMessage({ started: { ...t, path, recipe: m.recipe, bytes: m.bytes.length } });
   const steps: StepResult[] = [];
   const t0 = performance.now();
-  for (const step of stepsFor(t.format, path, s.bases)) {
+  for (const step of stepsFor(t.format, path, s.bases, s.depth)) {
     noise = '';
     const ts = performance.now();
     let thrown: unknown;
@@ -89,7 +99,10 @@ async function handle(t: FuzzTask): Promise<void> {
   }
   const outcome = worst(steps.map((r) => r.outcome));
   if (GOOD.has(outcome)) rmSync(path, { force: true });
-  parentPort!.postMessage({ done: { ...t, path, recipe: m.recipe, outcome, steps, ms: performance.now() - t0 } });
+  // After HDF5 aborted in this thread its instance is gone (the reader says so for every later
+  // file): ask for a fresh worker, so later mutants are not judged by this one.
+  const restart = steps.some((r) => /library stopped|Aborted\(/.test(r.message ?? ''));
+  parentPort!.postMessage({ done: { ...t, path, recipe: m.recipe, outcome, steps, ms: performance.now() - t0 }, restart });
 }
 
 parentPort!.on('message', (msg: { setup?: WorkerSetup; task?: FuzzTask }) => {
