@@ -61,8 +61,11 @@ async function ask(req: MetaQuery, what: string): Promise<unknown> {
   w.ref();
   const answer = await new Promise<MetaAnswer | 'timeout'>((resolve, reject) => {
     pending.set(id, resolve);
-    timer = setTimeout(() => resolve('timeout'), timeoutMs);
-    ready.then(() => w.postMessage({ ...req, id }), reject);
+    // The limit runs from the request, not from the worker's start (seconds on a busy machine).
+    ready.then(() => {
+      timer = setTimeout(() => resolve('timeout'), timeoutMs);
+      w.postMessage({ ...req, id });
+    }, reject);
   }).finally(() => {
     clearTimeout(timer);
     if (pending.size === 0) w.unref();
