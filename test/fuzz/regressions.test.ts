@@ -7,13 +7,14 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
 import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { parseConfig } from '../../pipeline/config/load.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
+import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync, expectCatalogued } from '../helpers/catalogued.ts';
 
 const FX = new URL('../fixtures/fuzz/', import.meta.url).pathname;
@@ -94,6 +95,17 @@ describe('text inputs', () => {
     const o = join(out, 'quote.csv');
     await expectCataloguedAsync(runPoint(join(FX, 'point-unclosed-quote.csv'), o, { quiet: true }), 'CsvMalformed', /opened on line 2 is never closed[^]*row 2/);
     expect(readdirSync(out)).toEqual([]);
+  });
+
+  it('a workload-classes file that is not YAML stops `build` with ConfigSyntax naming it (was: internal YAMLParseError), before any data is read', async () => {
+    const classes = join(out, 'classes.yaml');
+    writeFileSync(classes, 'classes:\n  - id: low\n   metabolicRate: [180\n');
+    writeFileSync(join(out, 'x.nc'), '');
+    const cfg = join(out, 'atlas.yaml');
+    writeFileSync(cfg, readFileSync(join(ROOT, 'content/atlas.yaml'), 'utf8').replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`));
+    const e = await expectCataloguedAsync(buildAtlas({ configPath: cfg, outDir: join(out, 'dist'), jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ConfigSyntax');
+    expect(e.where.file).toBe(classes);
+    for (const f of ['classes.yaml', 'x.nc', 'atlas.yaml']) rmSync(join(out, f));
   });
 
   it('aliases that expand too far, or come before their anchor (was: ReferenceError), are ConfigSyntax naming the file', () => {

@@ -10,10 +10,10 @@
  */
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
-import { parse as parseYaml } from 'yaml';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
-import { loadConfig } from '../../pipeline/config/load.ts';
+import { loadConfig, parseYamlStrict } from '../../pipeline/config/load.ts';
+import { ConfigSyntax } from '../../pipeline/config/errors.ts';
 import { parseWorkloadClasses, resolveWorkSettings } from '../../pipeline/work/index.ts';
 import { WorkloadClassesFileMissing } from '../../pipeline/run/errors.ts';
 import type { FormatId } from './mutate.ts';
@@ -59,7 +59,7 @@ export function stepsFor(format: FormatId, path: string, bases: BasePaths, depth
         const rc = await loadConfig(path);
         const classesPath = resolve(dirname(rc.path), rc.config.work.classesFile);
         if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
-        const classes = parseWorkloadClasses(parseYaml(readFileSync(classesPath, 'utf8')), classesPath);
+        const classes = parseWorkloadClasses(parseYamlStrict(readFileSync(classesPath, 'utf8'), (detail) => ConfigSyntax({ detail }, { file: classesPath })), classesPath);
         resolveWorkSettings(rc.config.work, classes, { file: rc.path });
       },
     }];
