@@ -3,14 +3,14 @@
  * pipeline. Fields are separated by commas; a field holding a comma, a quote or a line break is
  * enclosed in double quotes, with a quote inside written twice.
  *
- * Reading streams a file record by record (memory bounded by one record, at most
+ * Reading (here the parser, pure, as the browser's estimate page also loads this file; the file
+ * reader is csv-file.ts) goes record by record (memory bounded by one record, at most
  * {@link MAX_RECORD_CHARS}), tolerates what spreadsheets and other systems add (a UTF-8 byte
  * order mark, CRLF or CR line ends, blank lines), and refuses what would shift or merge values
  * with the catalogued `CsvMalformed`, naming the file and the line: a quote that is never
  * closed, text after a closing quote, a quote inside an unquoted field, a record too long to be
  * real. Writing quotes only what needs quoting.
  */
-import { createReadStream } from 'node:fs';
 import { CsvMalformed } from './errors.ts';
 
 /** Longest record the reader accepts [characters]: far beyond any real row, short of a whole file. */
@@ -21,7 +21,7 @@ export type CsvRecord = [line: number, fields: string[]];
 
 /**
  * Parses CSV text fed in pieces; `push` returns the records completed so far and `end` the last
- * one. Pure: the caller does the reading (see {@link readCsvRecords}).
+ * one. Pure: the caller does the reading (csv-file.ts `readCsvRecords`).
  */
 export class CsvParser {
   private fields: string[] = [];
@@ -122,15 +122,6 @@ export class CsvParser {
     if (c !== 0) this.newLine(c);
     this.recordLine = this.line;
   }
-}
-
-/** Yields every record of a CSV file with the line it starts on, streamed. */
-export async function* readCsvRecords(path: string): AsyncGenerator<CsvRecord> {
-  const parser = new CsvParser(path);
-  for await (const chunk of createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 16 })) {
-    yield* parser.push(chunk as string);
-  }
-  yield* parser.end();
 }
 
 /** Quotes a field if it needs it; numbers are written as they print, non-finite ones empty. */

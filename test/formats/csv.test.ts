@@ -8,7 +8,8 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { CsvParser, MAX_RECORD_CHARS, csvLine, readCsvRecords, type CsvRecord } from '../../pipeline/formats/csv.ts';
+import { CsvParser, MAX_RECORD_CHARS, csvLine, type CsvRecord } from '../../pipeline/formats/csv.ts';
+import { readCsvRecords } from '../../pipeline/formats/csv-file.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'hh-csv-'));
