@@ -17,6 +17,7 @@ export function makeProgram(): Command {
     .description('Build an atlas of working hours lost to heat stress from ERA5 / ERA5-Land reanalysis NetCDF files.')
     .version(CODE_VERSION, '-v, --version', 'print the version')
     .helpOption('-h, --help', 'show help (`heathours COMMAND --help` for a command)')
+    .option('--verbose', 'with an error, also print its details (e.g. the HDF5 library\'s own diagnostics)')
     .showHelpAfterError('(run with --help for usage)')
     .addHelpText('after', `\n${EXIT_STATUS_HELP}\n\n\`heathours errors\` lists every error with its exit status and what to do.`)
     .exitOverride();
@@ -48,7 +49,7 @@ export async function main(argv: string[]): Promise<void> {
       return;
     }
     if (e instanceof HeathoursError) {
-      process.stderr.write(`${e.format()}\n`);
+      process.stderr.write(`${e.format(program.opts().verbose === true || argv.includes('--verbose'))}\n`);
       process.exitCode = exitCodeOf(e.code);
       return;
     }

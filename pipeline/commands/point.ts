@@ -20,15 +20,18 @@ import { once } from 'node:events';
 import { temporarySibling } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import '../model/catalogue.ts';
-import { readCsvRecords, csvField } from '../physics/csv.ts';
-import { PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid } from '../physics/errors.ts';
-import { computePoint, type PointInput } from '../physics/point-row.ts';
+import { HeathoursError } from '../model/errors.ts';
+import { csvField } from '../formats/csv.ts';
+import { readCsvRecords } from '../formats/csv-file.ts';
+import { PointBadRow, PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid, PointOutputFailed } from '../physics/errors.ts';
+import { computePoint } from '../physics/point-row.ts';
+import { pointInputFromCells } from '../physics/point-input.ts';
 import { statusName } from '../physics/status.ts';
 import { globeFactors, GLOBE_DIAMETER_RANGE } from '../physics/liljegren-solve.ts';
 import { D_GLOBE_STANDARD } from '../physics/constants.ts';
 import { readFileSync } from 'node:fs';
 import { packagePath } from '../model/package-root.ts';
-import { parse as parseYaml, YAMLParseError } from 'yaml';
+import { parseYamlStrict } from '../config/load.ts';
 import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type WorkKernel, type WorkloadClasses } from '../work/index.ts';
 
 const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
@@ -88,13 +91,7 @@ export function classColumns(id: string): [string, string] {
 /** Reads and validates a workload-classes file (catalogued errors for a missing or bad file). */
 export function loadWorkloadClasses(file: string): WorkloadClasses {
   if (!existsSync(file)) throw PointClassesNotFound({ path: file });
-  let raw: unknown;
-  try {
-    raw = parseYaml(readFileSync(file, 'utf8'));
-  } catch (e) {
-    if (e instanceof YAMLParseError) throw PointClassesSyntax({ detail: e.message }, { file });
-    throw e;
-  }
+  const raw = parseYamlStrict(readFileSync(file, 'utf8'), (detail) => PointClassesSyntax({ detail }, { file }));
   return parseWorkloadClasses(raw, file);
 }
 
@@ -124,11 +121,6 @@ export interface PointSummary {
   dewPointClamped: number;
 }
 
-function num(v: string | undefined, dflt: number): number {
-  if (v === undefined || v.trim() === '') return dflt;
-  return Number(v);
-}
-
 /** `-` for `--in` / `--out`: standard input / output. */
 export const STANDARD_STREAM = '-';
 
@@ -140,7 +132,7 @@ export const STANDARD_STREAM = '-';
 export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
   const fromStdin = inPath === STANDARD_STREAM;
   if (fromStdin) process.stdin.setEncoding('utf8');
-  else if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  else if (!existsSync(inPath) || !statSync(inPath).isFile()) throw PointInputNotFound({ path: inPath }, { file: inPath });
   const d = opts.globeDiameter ?? D_GLOBE_STANDARD;
   if (!(d >= GLOBE_DIAMETER_RANGE[0] && d <= GLOBE_DIAMETER_RANGE[1])) {
     throw PointOptionInvalid({ option: '--globe-diameter', value: String(opts.globeDiameter), expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}` });
@@ -152,11 +144,26 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
   const size = fromStdin ? 0 : statSync(inPath).size;
   const progress = startProgress('point', size, { quiet: opts.quiet, unit: 'MB read', scale: 1e6 });
   const toStdout = outPath === STANDARD_STREAM;
-  if (!toStdout) await mkdir(dirname(outPath), { recursive: true });
+  if (!toStdout) {
+    try {
+      await mkdir(dirname(outPath), { recursive: true });
+    } catch (e) {
+      throw PointOutputFailed({ path: outPath, reason: (e as Error).message }, { file: outPath });
+    }
+  }
   const tmp = toStdout ? '' : temporarySibling(outPath);
   const out: NodeJS.WritableStream = toStdout ? process.stdout : createWriteStream(tmp, { encoding: 'utf8' });
+  // A write error (a full disk, a folder that cannot be written) is kept and reported, never left
+  // as an unhandled stream event.
+  let writeError: Error | undefined;
+  if (!toStdout) {
+    out.on('error', (e: Error) => {
+      writeError ??= e;
+    });
+  }
   const summary: PointSummary = { rows: 0, ok: 0, byStatus: {}, dewPointClamped: 0 };
   const write = async (s: string) => {
+    if (writeError) throw PointOutputFailed({ path: outPath, reason: writeError.message }, { file: outPath });
     if (!out.write(s)) await once(out, 'drain');
   };
   try {
@@ -167,6 +174,11 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       bytes += fields.reduce((a, f) => a + f.length + 1, 0);
       if (!header) {
         header = fields.map((h) => h.trim());
+        const seen = new Set<string>();
+        for (const h of header) {
+          if (h !== '' && seen.has(h)) throw PointBadRow({ detail: `the header names column "${h}" twice` }, { file: inName, row: line });
+          seen.add(h);
+        }
         col = Object.fromEntries(header.map((h, i) => [h, i]));
         for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inName, row: line });
         if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inName, row: line });
@@ -175,16 +187,10 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
         col.__extra = extra.length;
         continue;
       }
-      const get = (name: string) => (name in col ? fields[col[name]] : undefined);
-      const input: PointInput = {
-        timeMs: Date.parse(get('time_utc') ?? ''),
-        avgMinutes: num(get('avg_minutes'), 60),
-        lat: num(get('lat'), NaN), lon: num(get('lon'), NaN), ta: num(get('ta_c'), NaN),
-        rh: num(get('rh_pct'), NaN), td: num(get('td_c'), NaN), pressure: num(get('pressure_hpa'), NaN),
-        wind: num(get('wind_ms'), NaN), windHeight: num(get('wind_height_m'), 10), urban: num(get('urban'), 0) === 1,
-        dt: num(get('dt_c'), 0), solar: num(get('solar_wm2'), NaN),
-        directFraction: num(get('direct_fraction'), NaN), cosZenith: num(get('cos_zenith'), NaN),
-      };
+      if (fields.length !== header.length) {
+        throw PointBadRow({ detail: `line ${line} has ${fields.length} field(s), the header has ${header.length}` }, { file: inName, row: line });
+      }
+      const input = pointInputFromCells((name) => (name in col ? fields[col[name]] : undefined), { path: inName, row: line });
       const r = computePoint(input, globe);
       summary.rows++;
       const name = statusName(r.status);
@@ -216,14 +222,24 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
     if (!toStdout) {
       out.end();
       await once(out, 'finish');
+      if (writeError) throw PointOutputFailed({ path: outPath, reason: writeError.message }, { file: outPath });
       await rename(tmp, outPath);
     }
     progress.done();
     return summary;
   } catch (e) {
+    // Nothing half-written: the stream is closed before its temporary file is removed.
     if (!toStdout) {
-      (out as ReturnType<typeof createWriteStream>).destroy();
+      const file = out as ReturnType<typeof createWriteStream>;
+      if (!file.closed) {
+        const closed = once(file, 'close').catch(() => undefined);
+        file.destroy();
+        await closed;
+      }
       await rm(tmp, { force: true });
+    }
+    if (!toStdout && e instanceof Error && !(e instanceof HeathoursError) && 'code' in e && typeof e.code === 'string' && /^E[A-Z]+$/.test(e.code)) {
+      throw PointOutputFailed({ path: outPath, reason: e.message }, { file: outPath });
     }
     throw e;
   }

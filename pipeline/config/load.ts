@@ -5,7 +5,7 @@
 import { readFile, readdir } from 'node:fs/promises';
 import { existsSync, statSync } from 'node:fs';
 import { dirname, resolve, join } from 'node:path';
-import { parse, YAMLParseError } from 'yaml';
+import { parseDocument } from 'yaml';
 import { globSync } from 'tinyglobby';
 import { atlasSchema, type AtlasConfig } from './schema.ts';
 import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax } from './errors.ts';
@@ -27,15 +27,30 @@ export interface ResolvedConfig {
   cacheDir: string;
 }
 
+/**
+ * Parses YAML text strictly: syntax errors, warnings (an unknown tag such as `!!js/function`),
+ * aliases that do not resolve or expand too far (the library's limit against alias bombs), and
+ * nesting too deep to read all become `fail(detail)`, a catalogued error of the caller.
+ */
+export function parseYamlStrict(text: string, fail: (detail: string) => Error): unknown {
+  let doc;
+  try {
+    doc = parseDocument(text, { prettyErrors: true, logLevel: 'silent' });
+  } catch (e) {
+    throw fail((e as Error).message ?? String(e));
+  }
+  const problem = doc.errors[0] ?? doc.warnings[0];
+  if (problem) throw fail(problem.message);
+  try {
+    return doc.toJS({ maxAliasCount: 100 });
+  } catch (e) {
+    throw fail(e instanceof RangeError ? 'the values are nested too deeply to read' : ((e as Error).message ?? String(e)));
+  }
+}
+
 /** Parses and validates a config text; `file` is used in error messages only. */
 export function parseConfig(text: string, file: string): AtlasConfig {
-  let raw: unknown;
-  try {
-    raw = parse(text);
-  } catch (e) {
-    if (e instanceof YAMLParseError) throw ConfigSyntax({ detail: e.message }, { file });
-    throw e;
-  }
+  const raw = parseYamlStrict(text, (detail) => ConfigSyntax({ detail }, { file }));
   const result = atlasSchema.safeParse(raw);
   if (!result.success) {
     const problems = result.error.issues.map((i) => {

@@ -18,6 +18,7 @@ export const WORKER_ENTRIES = {
   shard: 'run/shard-worker',
   physics: 'run/physics-worker',
   'demo-year': 'demo/year-worker',
+  'hdf5-meta': 'read/hdf5-meta-worker',
 } as const;
 
 export type WorkerName = keyof typeof WORKER_ENTRIES;

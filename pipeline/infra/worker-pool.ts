@@ -26,7 +26,7 @@ export function startWorker(name: WorkerName): Worker {
 
 /** A catalogued error stays catalogued across the thread boundary; anything else names the task. */
 function toError(f: WorkerFailure, what: string): Error {
-  if (f.catalogued) return new HeathoursError(f.code!, f.title!, f.message, f.hint!, f.where ?? {});
+  if (f.catalogued) return new HeathoursError(f.code!, f.title!, f.message, f.hint!, f.where ?? {}, f.details);
   return new Error(`${what} failed in a worker: ${f.message}`);
 }
 

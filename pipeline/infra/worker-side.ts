@@ -15,6 +15,8 @@ export interface WorkerFailure {
   message: string;
   hint?: string;
   where?: ErrorWhere;
+  /** Text kept for `--verbose` (e.g. the HDF5 library's diagnostics). */
+  details?: string;
 }
 
 /** Messages from a worker to the pool. */
@@ -35,7 +37,7 @@ export interface TaskHandler<I, T, R> {
 }
 
 function failure(e: unknown): WorkerFailure {
-  if (e instanceof HeathoursError) return { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where };
+  if (e instanceof HeathoursError) return { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where, details: e.details };
   return { catalogued: false, message: (e as Error)?.stack ?? String(e) };
 }
 

@@ -30,24 +30,28 @@ export class HeathoursError extends Error {
   readonly title: string;
   readonly hint: string;
   readonly where: ErrorWhere;
+  /** Text for `--verbose` (e.g. a library's own diagnostics), not printed by default. */
+  readonly details?: string;
 
-  constructor(code: string, title: string, message: string, hint: string, where: ErrorWhere = {}) {
+  constructor(code: string, title: string, message: string, hint: string, where: ErrorWhere = {}, details?: string) {
     super(message);
     this.name = 'HeathoursError';
     this.code = code;
     this.title = title;
     this.hint = hint;
     this.where = where;
+    if (details) this.details = details;
   }
 
-  /** The text the CLI prints: title, message, where, hint. */
-  format(): string {
+  /** The text the CLI prints: title, message, where, hint; with `verbose`, the details too. */
+  format(verbose = false): string {
     const at = formatWhere(this.where);
     return [
       `error [${this.code}] ${this.title}`,
       `  ${this.message}`,
       ...(at ? [`  at: ${at}`] : []),
       `  hint: ${this.hint}`,
+      ...(this.details ? [verbose ? `  details:\n${this.details.replace(/^/gm, '    ')}` : '  (run with --verbose for details)'] : []),
     ].join('\n');
   }
 }
@@ -71,11 +75,11 @@ const registry = new Map<string, ErrorSpec<never>>();
  *     message: (p) => `no variable ${p.name}`, hint: () => 'add it to the request' });
  *   throw MissingVariable({ name: 't2m' }, { file: 'a.nc' });
  */
-export function defineError<P>(spec: ErrorSpec<P>): ((p: P, where?: ErrorWhere) => HeathoursError) & { code: string } {
+export function defineError<P>(spec: ErrorSpec<P>): ((p: P, where?: ErrorWhere, details?: string) => HeathoursError) & { code: string } {
   if (registry.has(spec.code)) throw new Error(`error code ${spec.code} is defined twice`);
   registry.set(spec.code, spec as ErrorSpec<never>);
-  const make = (p: P, where: ErrorWhere = {}) =>
-    new HeathoursError(spec.code, spec.title, spec.message(p), spec.hint(p), where);
+  const make = (p: P, where: ErrorWhere = {}, details?: string) =>
+    new HeathoursError(spec.code, spec.title, spec.message(p), spec.hint(p), where, details);
   return Object.assign(make, { code: spec.code });
 }
 

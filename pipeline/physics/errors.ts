@@ -22,7 +22,28 @@ export const PointBadRow = defineError<{ detail: string }>({
   code: 'PointBadRow',
   title: 'A row of the point CSV cannot be read',
   message: (p) => p.detail,
-  hint: () => 'check the row for an unclosed quote or a wrong number of fields',
+  hint: () => 'every row needs as many fields as the header (leave a missing value empty: 1,,3); a text field holding a comma must be quoted',
+});
+
+export const PointBadValue = defineError<{ column: string; value: string; expected: string }>({
+  code: 'PointBadValue',
+  title: 'A cell of the point CSV is not a number',
+  message: (p) => `${p.column} is "${p.value.length > 60 ? `${p.value.slice(0, 60)}…` : p.value}"; expected ${p.expected}`,
+  hint: () => 'write numbers with a decimal point and no thousands separators (1013.25, -3.5, 1.2e3); leave a missing value empty (NA and NaN are read as missing too)',
+});
+
+export const PointBadTime = defineError<{ value: string; detail: string }>({
+  code: 'PointBadTime',
+  title: 'A time of the point CSV cannot be read',
+  message: (p) => `time_utc "${p.value.length > 60 ? `${p.value.slice(0, 60)}…` : p.value}": ${p.detail}`,
+  hint: () => 'write time_utc as ISO 8601 in UTC, the end of the averaging period: 2024-07-15T12:00Z (or 2024-07-15 12:00, read as UTC)',
+});
+
+export const PointTimeNotUtc = defineError<{ value: string; offset: string }>({
+  code: 'PointTimeNotUtc',
+  title: 'A time of the point CSV is not in UTC',
+  message: (p) => `time_utc "${p.value}" carries the offset ${p.offset}, but the column holds UTC`,
+  hint: () => 'convert the times to UTC (12:00+09:00 is 03:00Z) and write them with Z or without an offset',
 });
 
 export const PointClassesNotFound = defineError<{ path: string }>({
@@ -49,4 +70,11 @@ export const PointOptionInvalid = defineError<{ option: string; value: string; e
       : p.option === '--globe-diameter'
         ? 'give the diameter in metres, e.g. --globe-diameter 0.15 for the 150 mm standard globe'
         : 'see `heathours point --help`',
+});
+
+export const PointOutputFailed = defineError<{ path: string; reason: string }>({
+  code: 'PointOutputFailed',
+  title: 'The point output file cannot be written',
+  message: (p) => `writing ${p.path} failed: ${p.reason}`,
+  hint: () => 'check that the folder of --out exists and can be written and that the disk has room; nothing was left behind',
 });

@@ -24,7 +24,7 @@ import type { HorizontalGrid } from '../model/grid.ts';
 import { writeFileAtomic } from '../model/effects.ts';
 import { NICHE_CLASSES } from '../climate/index.ts';
 import { CELL_TABLE_FIGURES } from './cell-table.ts';
-import { roundTo } from './csv.ts';
+import { roundTo } from '../formats/csv.ts';
 import { periodLabel } from './region-table.ts';
 import { CellFigureMissing, CellOutsideGrid, CellTileInvalid } from './cell-figures-errors.ts';
 

@@ -8,7 +8,7 @@
 import type { CellFigureNormals } from './figure-normals.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
-import { csvLine, roundTo } from './csv.ts';
+import { csvLine, roundTo } from '../formats/csv.ts';
 import { periodLabel } from './region-table.ts';
 
 export const CELL_TABLE_FIGURES = ['hours-above-limit-shift', 'hours-lost-shift'];

@@ -7,7 +7,7 @@
 import type { RegionFigureNormals } from './figure-normals.ts';
 import { PERIODS, ANNUAL } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
-import { csvLine, roundTo } from './csv.ts';
+import { csvLine, roundTo } from '../formats/csv.ts';
 
 export const REGION_TABLE_COLUMNS = [
   'region_id', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit', 'years_used', 'baseline',

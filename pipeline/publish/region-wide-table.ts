@@ -7,8 +7,8 @@
  * header carries one unit. Pure: the tidy text in, rows out; the CSV and workbook writers are
  * region-spreadsheets.ts.
  */
-import { splitCsvRecord } from '../physics/csv.ts';
-import { csvLine } from './csv.ts';
+import { splitCsvRecord } from '../formats/csv.ts';
+import { csvLine } from '../formats/csv.ts';
 
 const MONTH_ABBR = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 const PERIODS = [...MONTH_ABBR.map((_, i) => String(i + 1).padStart(2, '0')), 'year'];

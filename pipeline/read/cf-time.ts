@@ -12,7 +12,7 @@
  * agrees with it there), so an axis reaching before that date is refused. noleap, 365_day,
  * all_leap, 366_day, 360_day, julian and none are refused with a catalogued error.
  */
-import { NetcdfCalendarUnsupported, NetcdfTimeUnits } from './errors.ts';
+import { NetcdfCalendarUnsupported, NetcdfTimeUnits, NetcdfTimeValueInvalid } from './errors.ts';
 
 /** A decoded time coding: `ms = referenceMs + value * unitMs`. */
 export interface TimeCoding {
@@ -103,7 +103,11 @@ function checkCalendar(cal: string, referenceMs: number, units: string): void {
 /** Decodes time values [units of the coding] into ms since 1970-01-01 UTC (rounded to 1 ms). */
 export function decodeTimes(values: ArrayLike<number>, c: TimeCoding): Float64Array {
   const out = new Float64Array(values.length);
-  for (let i = 0; i < values.length; i++) out[i] = c.referenceMs + Math.round(values[i] * c.unitMs);
+  for (let i = 0; i < values.length; i++) {
+    out[i] = c.referenceMs + Math.round(values[i] * c.unitMs);
+    // ECMAScript dates reach ±8.64e15 ms (±273,790 years) around 1970: beyond is no date at all.
+    if (!(Math.abs(out[i]) <= MAX_DATE_MS)) throw NetcdfTimeValueInvalid({ index: i, value: String(values[i]), detail: 'not a date any calendar holds (a missing or damaged time value?)' });
+  }
   if ((c.calendar === 'standard' || c.calendar === 'gregorian') && out.some((t) => t < GREGORIAN_START_MS)) {
     throw NetcdfCalendarUnsupported({ calendar: c.calendar, detail: 'some times lie before 1582-10-15, where this calendar is Julian' });
   }
@@ -117,8 +121,12 @@ export function encodeTimes(ms: ArrayLike<number>, c: TimeCoding): Float64Array 
   return out;
 }
 
-/** ISO 8601 text of an instant, to the second, with Z (e.g. `2020-01-01T01:00:00Z`). */
+/** Largest distance from 1970 of an ECMAScript date [ms] (ECMA-262 §21.4.1.1 "Time Values and Time Range"). */
+const MAX_DATE_MS = 8.64e15;
+
+/** ISO 8601 text of an instant, to the second, with Z (e.g. `2020-01-01T01:00:00Z`); outside the date range, the number. */
 export function isoSeconds(ms: number): string {
+  if (!(Math.abs(ms) <= MAX_DATE_MS)) return `(${ms} ms from 1970, no date)`;
   const s = new Date(ms).toISOString();
   return s.replace(/\.\d{3}Z$/, 'Z');
 }

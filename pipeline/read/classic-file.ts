@@ -1,17 +1,16 @@
 /**
- * NetCDF-3 classic and 64-bit-offset files, read by byte range. The header is parsed with
- * netcdfjs from the first bytes of the file only; data are read with `fs` at offsets computed
- * from it (NetCDF format specification: a non-record variable starts at `begin`, record `t` of a
- * record variable at `begin + t * recordSize`), so memory is bounded by what is requested.
+ * NetCDF-3 classic and 64-bit-offset files, read by byte range. The header is parsed by
+ * classic-header.ts from the first bytes of the file only; data are read with `fs` at offsets
+ * computed from it (NetCDF format specification: a non-record variable starts at `begin`, record
+ * `t` of a record variable at `begin + t * recordSize`), so memory is bounded by what is
+ * requested. Before any data is read, the layout the header describes is checked: every
+ * variable's data lie after the header, none overlap, and the file is long enough.
  */
 import { open, type FileHandle } from 'node:fs/promises';
-import { NetCDFReader } from 'netcdfjs';
+import { HeaderNeedsBytes, parseClassicHeader, type ClassicHeader } from './classic-header.ts';
 import { NetcdfFileTruncated, NetcdfHeaderInvalid, NetcdfReadFailed } from './errors.ts';
 import type { NetcdfFormat } from './format.ts';
 import { denseStrides, product, rawTypeBytes, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
-
-interface NcjsAttribute { name: string; type: string; value: number | string | number[] }
-interface NcjsVariable { name: string; dimensions: number[]; attributes: NcjsAttribute[]; type: string; size: number; offset: number; record: boolean }
 
 /** Where a classic variable's bytes lie. */
 interface ClassicLayout {
@@ -33,78 +32,58 @@ const MIN_USE = 1 / 8;
 export async function openClassicFile(path: string, format: NetcdfFormat, bytes: number): Promise<SourceFile> {
   const fh = await open(path, 'r');
   try {
-    const reader = await parseHeader(fh, path, bytes);
-    return buildClassicFile(fh, reader, path, format, bytes);
+    const header = await readHeader(fh, path, bytes);
+    return buildClassicFile(fh, header, path, format, bytes);
   } catch (e) {
     await fh.close();
     throw e;
   }
 }
 
-/** Parses the header from the first bytes: 64 KiB first, four times more until it fits. */
-async function parseHeader(fh: FileHandle, path: string, bytes: number): Promise<NetCDFReader> {
+/** Reads and parses the header from the first bytes: 64 KiB first, more when it asks for more. */
+async function readHeader(fh: FileHandle, path: string, bytes: number): Promise<ClassicHeader> {
   let n = Math.min(bytes, 64 << 10);
   for (;;) {
     const head = new Uint8Array(n);
-    await fh.read(head, 0, n, 0);
+    await readAt(fh, path, head, 0, n, 0);
     try {
-      return new NetCDFReader(head);
+      return parseClassicHeader(head, bytes, path);
     } catch (e) {
-      const msg = (e as Error).message ?? String(e);
-      const ranOut = e instanceof RangeError || /outside the bounds|out of range|offset/i.test(msg);
-      if (ranOut && n < bytes) {
-        n = Math.min(bytes, n * 4);
-        continue;
-      }
-      if (ranOut) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the header ends before its last entry' }, { file: path });
-      throw NetcdfHeaderInvalid({ path, detail: msg }, { file: path });
+      if (!(e instanceof HeaderNeedsBytes)) throw e;
+      n = e.bytes;
     }
   }
 }
 
-function toRawType(t: string): RawType {
-  switch (t) {
-    case 'byte': return 'byte';
-    case 'char': return 'char';
-    case 'short': return 'short';
-    case 'int': return 'int';
-    case 'float': return 'float';
-    case 'double': return 'double';
-    default: return 'other';
-  }
-}
-
-function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, format: NetcdfFormat, bytes: number): SourceFile {
-  const header = reader.header;
-  const numRecs = header.recordDimension.length;
-  const recId = header.recordDimension.id;
-  const dims: SourceDimension[] = header.dimensions.map((d, i) => ({ name: d.name, size: i === recId ? numRecs : d.size, unlimited: i === recId }));
-  const ncVars = header.variables as unknown as NcjsVariable[];
+function buildClassicFile(fh: FileHandle, header: ClassicHeader, path: string, format: NetcdfFormat, bytes: number): SourceFile {
+  const numRecs = header.numRecs;
+  const dims: SourceDimension[] = header.dims.map((d) => ({ name: d.name, size: d.size, unlimited: d.unlimited }));
   const layouts = new Map<SourceVariable, ClassicLayout>();
   const variables: SourceVariable[] = [];
-  for (const nv of ncVars) {
+  for (const nv of header.variables) {
     const attrs: Record<string, AttrValue> = {};
     const attrTypes: Record<string, RawType> = {};
     for (const a of nv.attributes) {
       attrs[a.name] = a.value;
-      attrTypes[a.name] = toRawType(a.type);
+      attrTypes[a.name] = a.type;
     }
     const v: SourceVariable = {
       name: nv.name,
-      dims: nv.dimensions.map((id) => dims[id].name),
-      shape: nv.dimensions.map((id) => dims[id].size),
-      type: toRawType(nv.type),
+      dims: nv.dimIds.map((id) => dims[id].name),
+      shape: nv.dimIds.map((id) => dims[id].size),
+      type: nv.type,
       attrs,
       attrTypes,
     };
     variables.push(v);
-    layouts.set(v, { begin: nv.offset, record: nv.record, valueBytes: rawTypeBytes(v.type) });
+    layouts.set(v, { begin: nv.begin, record: nv.record, valueBytes: rawTypeBytes(v.type) });
   }
   // Record size: the padded per-record sizes of all record variables, except that a file with
   // a single record variable has no padding (NetCDF format specification, "Notes on vsize").
   const recVars = variables.filter((v) => layouts.get(v)!.record);
   const perRecord = (v: SourceVariable) => product(v.shape.slice(1)) * layouts.get(v)!.valueBytes;
   const recordSize = recVars.length === 1 ? perRecord(recVars[0]) : recVars.reduce((s, v) => s + Math.ceil(perRecord(v) / 4) * 4, 0);
+  checkLayout(path, header.end, variables, layouts, recordSize, perRecord);
 
   let expected = 0;
   for (const v of variables) {
@@ -115,7 +94,7 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     expected = Math.max(expected, end);
   }
   if (bytes < expected) {
-    throw NetcdfFileTruncated({ path, bytes, expected, detail: 'the data section ends early' }, { file: path });
+    throw NetcdfFileTruncated({ path, bytes, expected, detail: 'the data section ends early, or a length in the header is damaged' }, { file: path });
   }
 
   const globalAttrs: Record<string, AttrValue> = {};
@@ -190,12 +169,16 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
         await readAt(fh, path, out, dest, winLen, winStart);
         dest += winLen;
       } else {
-        const win = Buffer.allocUnsafeSlow(winLen);
-        await readAt(fh, path, win, 0, winLen, winStart);
-        for (let q = r; q <= last; q++) {
-          const o = runs[q] - winStart;
-          out.set(win.subarray(o, o + runBytes), dest);
-          dest += runBytes;
+        const win = takeWindow(winLen);
+        try {
+          await readAt(fh, path, win, 0, winLen, winStart);
+          for (let q = r; q <= last; q++) {
+            const o = runs[q] - winStart;
+            out.set(win.subarray(o, o + runBytes), dest);
+            dest += runBytes;
+          }
+        } finally {
+          giveWindow(win);
         }
       }
       r = last + 1;
@@ -318,6 +301,46 @@ function buildClassicFile(fh: FileHandle, reader: NetCDFReader, path: string, fo
     },
     close: () => fh.close(),
   };
+}
+
+/**
+ * The data layout the header describes must make sense before any byte is read: every
+ * variable's data start after the header, fixed-size variables do not overlap each other or the
+ * record section, and record variables do not overlap inside a record (NetCDF format
+ * specification: fixed-size data first, then the records, each record holding every record
+ * variable once). A damaged size or offset shows up here as a catalogued error.
+ */
+function checkLayout(
+  path: string,
+  headerEnd: number,
+  variables: SourceVariable[],
+  layouts: Map<SourceVariable, ClassicLayout>,
+  recordSize: number,
+  perRecord: (v: SourceVariable) => number,
+): void {
+  const bad = (v: SourceVariable, detail: string): never => {
+    throw NetcdfHeaderInvalid({ path, detail: `variable ${v.name}: ${detail}` }, { file: path, variable: v.name });
+  };
+  const spans: Array<{ v: SourceVariable; from: number; to: number }> = [];
+  let recStart = Infinity;
+  for (const v of variables) {
+    const L = layouts.get(v)!;
+    if (L.begin < headerEnd) bad(v, `its data offset ${L.begin} lies inside the header (which ends at byte ${headerEnd})`);
+    const size = L.record ? perRecord(v) : product(v.shape) * L.valueBytes;
+    if (!Number.isSafeInteger(size)) bad(v, `its shape [${v.shape.join(', ')}] is too large to be real`);
+    if (L.record) recStart = Math.min(recStart, L.begin);
+    else spans.push({ v, from: L.begin, to: L.begin + size });
+  }
+  spans.sort((a, b) => a.from - b.from);
+  for (let i = 1; i < spans.length; i++) {
+    if (spans[i].from < spans[i - 1].to) bad(spans[i].v, `its data (bytes ${spans[i].from}-${spans[i].to}) overlap those of ${spans[i - 1].v.name} (bytes ${spans[i - 1].from}-${spans[i - 1].to})`);
+  }
+  const last = spans[spans.length - 1];
+  if (last && Number.isFinite(recStart) && last.to > recStart) bad(last.v, `its data (bytes ${last.from}-${last.to}) run into the records, which start at byte ${recStart}`);
+  for (const v of variables) {
+    const L = layouts.get(v)!;
+    if (L.record && L.begin - recStart + perRecord(v) > recordSize) bad(v, `its data offset ${L.begin} puts it outside the record of ${recordSize} bytes that starts at byte ${recStart}`);
+  }
 }
 
 /**

@@ -10,7 +10,8 @@ import { decodeSlab, type SlabLayout } from './decode.ts';
 import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
-import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfGridMismatch, NetcdfNoFiles } from './errors.ts';
+import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfDataUnreadable, NetcdfGridMismatch, NetcdfNoFiles, NetcdfReadFailed } from './errors.ts';
+import { HeathoursError } from '../model/errors.ts';
 import { sourceRuns } from './grid-normalize.ts';
 import { buildHourAxis, type HourAxis } from './hour-index.ts';
 import { maskSpecOf } from './cf-mask.ts';
@@ -424,10 +425,14 @@ class DatasetReader {
         const slot = j.slot + (fv.tDim === 0 ? from : 0);
         decodeSlab(slab, layout, nt, fv.plan, j.out, slot * cells);
       };
-      if (reqs.length > 0) await f.sf.readSlabs(reqs, (i, slab, from, n) => decodePiece(slabJobs[i], slab, from, n, reqs[i].count));
-      for (const j of direct as Array<Job & { start: number[]; count: number[] }>) {
-        const data = await f.sf.read(j.fv.v, j.start, j.count);
-        decodePiece(j, { data, view: null, type: j.fv.v.type, base: 0, strides: denseStrides(j.count) }, 0, j.count[0], j.count);
+      try {
+        if (reqs.length > 0) await f.sf.readSlabs(reqs, (i, slab, from, n) => decodePiece(slabJobs[i], slab, from, n, reqs[i].count));
+        for (const j of direct as Array<Job & { start: number[]; count: number[] }>) {
+          const data = await f.sf.read(j.fv.v, j.start, j.count);
+          decodePiece(j, { data, view: null, type: j.fv.v.type, base: 0, strides: denseStrides(j.count) }, 0, j.count[0], j.count);
+        }
+      } catch (e) {
+        throw withHours(e, f, list);
       }
     }
   }
@@ -524,6 +529,21 @@ class DatasetReader {
       }
     }
   }
+}
+
+/**
+ * A read error of a file's data, restated with the variable and the hours being read (a
+ * damaged chunk shows up only when a block reaches it), with the reader's details kept.
+ */
+function withHours(e: unknown, f: AnalysedFile, jobs: Job[]): unknown {
+  if (!(e instanceof HeathoursError) || e.code !== NetcdfReadFailed.code) return e;
+  const mine = jobs.filter((j) => j.fv.v.name === e.where.variable);
+  const pick = mine.length > 0 ? mine : jobs;
+  const variable = e.where.variable ?? pick.map((j) => j.fv.v.name).join(', ');
+  const stamp = (i: number) => (f.times && i >= 0 && i < f.times.length ? isoSeconds(f.times[i]) : 'the static field');
+  const first = Math.min(...pick.map((j) => j.tStart));
+  const last = Math.max(...pick.map((j) => j.tStart + j.nt - 1));
+  return NetcdfDataUnreadable({ path: f.sf.path, variable, from: stamp(first), to: stamp(last), detail: e.message.replace(`${f.sf.path}: `, '') }, { file: f.sf.path, variable }, e.details);
 }
 
 /** 10 m wind speed [m/s] from its components [m/s], into `out` (a plain function: its arguments stay in registers). */

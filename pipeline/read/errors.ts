@@ -76,6 +76,13 @@ export const NetcdfTimeUnits = defineError<{ units: string; detail: string }>({
   hint: () => 'time units must read "<seconds|minutes|hours|days> since YYYY-MM-DD[ hh:mm:ss[.f]][ Z|+hh:mm]" (CF conventions §4.4)',
 });
 
+export const NetcdfTimeValueInvalid = defineError<{ index: number; value: string; detail: string }>({
+  code: 'NetcdfTimeValueInvalid',
+  title: 'A value of a time axis is not a date',
+  message: (p) => `time value ${p.value} (step ${p.index + 1}): ${p.detail}`,
+  hint: () => 'the time coordinate is damaged or holds missing values; fetch the file again, or check it with `ncdump -v time FILE`',
+});
+
 export const NetcdfCalendarUnsupported = defineError<{ calendar: string; detail: string }>({
   code: 'NetcdfCalendarUnsupported',
   title: 'The calendar of a time axis is not supported',
@@ -142,11 +149,11 @@ export const NetcdfDimensionUnsupported = defineError<{ detail: string }>({
     'dimensions other than time, latitude, longitude (and expver) must have length 1; select one member/level first (cdo sellevel, ncks -d number,0) and keep latitude, longitude as the last two dimensions (ncpdq -a time,latitude,longitude)',
 });
 
-export const NetcdfTimeGap = defineError<{ from: string; to: string; before: string; after: string }>({
+export const NetcdfTimeGap = defineError<{ from: string; to: string; where: string }>({
   code: 'NetcdfTimeGap',
   title: 'The hourly time axis of the dataset has a gap',
-  message: (p) => `no data for the hours ${p.from} to ${p.to} (end of hour, UTC), between ${p.before} and ${p.after}`,
-  hint: () => 'add the file(s) for the missing months, or restrict the configuration to years without gaps',
+  message: (p) => `no data for the hours ${p.from} to ${p.to} (end of hour, UTC), ${p.where}`,
+  hint: () => 'add the file(s) for the missing months, or restrict the configuration to years without gaps; a gap inside one file means a time value of it is damaged (fetch it again)',
 });
 
 export const NetcdfDuplicateHours = defineError<{ variable: string; hour: string; fileA: string; fileB: string }>({
@@ -168,4 +175,18 @@ export const NetcdfReadFailed = defineError<{ path: string; detail: string }>({
   title: 'Reading data from a NetCDF file failed',
   message: (p) => `${p.path}: ${p.detail}`,
   hint: () => 'check the file with `ncdump -v VAR FILE`; a damaged file must be fetched again',
+});
+
+export const NetcdfReadStuck = defineError<{ path: string; what: string; seconds: number }>({
+  code: 'NetcdfReadStuck',
+  title: 'Reading a NetCDF-4 file did not finish',
+  message: (p) => `${p.path}: ${p.what} did not finish within ${p.seconds} s; the HDF5 library loops on damaged metadata of this file`,
+  hint: () => 'the file is damaged: fetch it again and compare its size or checksum with the source (netCDF-C\'s ncdump loops on such a file too)',
+});
+
+export const NetcdfDataUnreadable = defineError<{ path: string; variable: string; from: string; to: string; detail: string }>({
+  code: 'NetcdfDataUnreadable',
+  title: 'Values of a NetCDF file cannot be read',
+  message: (p) => `${p.path}: ${p.variable} for the hours ${p.from} to ${p.to} (end of hour, UTC) cannot be read: ${p.detail}`,
+  hint: () => 'the file is damaged in its data (a compressed chunk does not inflate, or its index points nowhere): fetch it again; `ncdump -v VAR FILE` stops at the same place',
 });

@@ -1,11 +1,13 @@
 /**
- * NetCDF-4 files, read through HDF5 with h5wasm. Dimensions come from HDF5 dimension scales
- * (the NetCDF-4 storage model: a coordinate variable is a dimension scale, other variables carry
- * DIMENSION_LIST), groups are walked recursively, and data are read by hyperslab
- * (`Dataset.slice`), so memory is bounded by what is requested.
+ * NetCDF-4 files, read through HDF5 with h5wasm. What the file holds (dimensions from HDF5
+ * dimension scales, groups, variables, attributes) is described by the metadata worker
+ * (hdf5-meta.ts, hdf5-describe.ts) under a time limit, since HDF5 can loop for ever on damaged
+ * metadata; values are read here by hyperslab (`get_dataset_data` into the wasm heap), so memory
+ * is bounded by what is requested. Every h5wasm call runs quietly (hdf5-quiet.ts): HDF5's own
+ * diagnostics never reach the terminal; they become the details of the catalogued error.
  */
 import { open } from 'node:fs/promises';
-import type { Dataset as H5Dataset, Group as H5Group, File as H5File } from 'h5wasm/node';
+import type { Dataset as H5Dataset, File as H5File } from 'h5wasm/node';
 
 /** h5wasm, loaded on first use: its WebAssembly heap costs hundreds of MB of RSS, so classic-only runs never load it. */
 type H5 = typeof import('h5wasm/node').default;
@@ -18,15 +20,13 @@ interface H5Module {
   get_dataset_data(fileId: bigint, path: string, count: bigint[], offset: bigint[], stride: bigint[], ptr: bigint): number;
 }
 let h5module: H5Module;
-import { NetcdfFileTruncated, NetcdfNotNetcdf4, NetcdfReadFailed } from './errors.ts';
-import { denseStrides, product, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
-
-/** HDF5 attributes that belong to the NetCDF-4 / dimension-scale machinery, not to the user. */
-const HIDDEN_ATTRS = new Set(['CLASS', 'NAME', 'REFERENCE_LIST', 'DIMENSION_LIST', '_Netcdf4Coordinates', '_Netcdf4Dimid', '_NCProperties', '_nc3_strict']);
-/** NAME of a dimension scale that is a dimension without a coordinate variable (netCDF-C). */
-const PURE_DIMENSION = 'This is a netCDF dimension but not a netCDF variable';
-
-interface H5Metadata { type: number; size: number; signed?: boolean; vlen?: boolean; littleEndian?: boolean; shape?: number[] | null; maxshape?: number[] | null; chunks?: number[] | null }
+/** Set when HDF5 aborted in this thread: its WebAssembly instance cannot be used again. */
+let stopped = '';
+import { NetcdfFileTruncated, NetcdfReadFailed } from './errors.ts';
+import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
+import type { Hdf5Variable } from './hdf5-describe.ts';
+import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
+import { denseStrides, product, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceFile, type SourceVariable } from './source.ts';
 
 /** Typed-array constructor for values read straight from the wasm heap, by raw type. */
 const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => RawArray>> = {
@@ -80,142 +80,67 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   const eof = hdf5EndOfFileAddress(head);
   if (eof === null && bytes < 48) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the HDF5 superblock is incomplete' }, { file: path });
   if (eof !== null && bytes < eof) throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
+  const d = await describeNetcdf4(path);
   ready ??= import('h5wasm/node').then(async (m) => {
     h5wasm = m.default;
     await h5wasm.ready;
     h5module = m.Module as unknown as H5Module;
   });
   await ready;
-  let f: H5File;
+  const f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
   try {
-    f = new h5wasm.File(path, 'r');
+    return buildHdf5File(f, path, bytes, d);
   } catch (e) {
-    throw NetcdfReadFailed({ path, detail: `the HDF5 library could not open it (${(e as Error).message ?? e})` }, { file: path });
-  }
-  try {
-    return buildHdf5File(f, path, bytes);
-  } catch (e) {
-    f.close();
+    quietly(() => f.close());
     throw e;
   }
 }
 
-function rawType(m: H5Metadata): RawType {
-  if (m.type === 0) {
-    const s = m.signed !== false;
-    switch (m.size) {
-      case 1: return s ? 'byte' : 'ubyte';
-      case 2: return s ? 'short' : 'ushort';
-      case 4: return s ? 'int' : 'uint';
-      case 8: return s ? 'int64' : 'uint64';
-    }
-  }
-  if (m.type === 1) return m.size === 4 ? 'float' : m.size === 8 ? 'double' : 'other';
-  if (m.type === 3) return 'string';
-  return 'other';
+/**
+ * Runs an h5wasm call quietly; a failure becomes `NetcdfReadFailed` naming the file (and the
+ * variable), with HDF5's diagnostics as its details. After an abort the instance is unusable,
+ * and every later call says so.
+ */
+function h5call<T>(path: string, what: string, fn: () => T, variable?: string): T {
+  const where = variable ? { file: path, variable } : { file: path };
+  if (stopped) throw NetcdfReadFailed({ path, detail: `${what}: the HDF5 library stopped earlier in this run (${stopped}); run the command again without the damaged file` }, where);
+  const r = quietly(fn);
+  if (r.error === undefined) return r.value as T;
+  if (isAbort(r.error)) stopped = `on ${path}`;
+  throw NetcdfReadFailed({ path, detail: `${what}${variable ? ` of variable ${variable}` : ''}: ${hdf5Reason(r.error, r.printed)}` }, where, r.printed || undefined);
 }
 
-/** An attribute or dataset value as plain numbers or text; 1-element arrays become scalars. */
-function plainValue(v: unknown): AttrValue | undefined {
-  if (v === null || v === undefined) return undefined;
-  if (typeof v === 'string' || typeof v === 'number') return v;
-  if (typeof v === 'bigint') return Number(v);
-  if (typeof v === 'boolean') return v ? 1 : 0;
-  if (ArrayBuffer.isView(v)) {
-    const arr = Array.from(v as unknown as ArrayLike<number | bigint>, (x) => Number(x));
-    return arr.length === 1 ? arr[0] : arr;
-  }
-  if (Array.isArray(v)) {
-    if (v.every((x) => typeof x === 'string')) return v.length === 1 ? (v[0] as string) : (v as string[]);
-    if (v.every((x) => typeof x === 'number' || typeof x === 'bigint')) {
-      const arr = v.map((x) => Number(x));
-      return arr.length === 1 ? arr[0] : arr;
-    }
-  }
-  return undefined;
-}
-
-function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
-  const datasets: Array<{ name: string; ds: H5Dataset }> = [];
-  const walk = (g: H5Group, prefix: string) => {
-    for (const key of g.keys()) {
-      const e = g.get(key);
-      if (e instanceof h5wasm.Group) walk(e, `${prefix}${key}/`);
-      else if (e instanceof h5wasm.Dataset) datasets.push({ name: `${prefix}${key}`, ds: e });
-    }
-  };
-  walk(f, '');
-  const rootAttrs = f.attrs;
-  let netcdf = '_NCProperties' in rootAttrs;
-  const dimSizes = new Map<string, SourceDimension>();
+function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<ReturnType<typeof describeNetcdf4>>): SourceFile {
   const variables: SourceVariable[] = [];
-  const byVar = new Map<SourceVariable, H5Dataset>();
-  for (const { name, ds } of datasets) {
-    const meta = ds.metadata as unknown as H5Metadata;
-    const shape = ds.shape ?? [];
-    const attrs: Record<string, AttrValue> = {};
-    const attrTypes: Record<string, RawType> = {};
-    const raw = ds.attrs;
-    const isScale = raw.CLASS !== undefined && plainValue(safe(() => raw.CLASS.value)) === 'DIMENSION_SCALE';
-    if (isScale || 'DIMENSION_LIST' in raw || '_Netcdf4Dimid' in raw || '_Netcdf4Coordinates' in raw) netcdf = true;
-    for (const [an, a] of Object.entries(raw)) {
-      if (HIDDEN_ATTRS.has(an)) continue;
-      const val = plainValue(safe(() => a.value));
-      if (val === undefined) continue;
-      attrs[an] = val;
-      attrTypes[an] = rawType(a.metadata as unknown as H5Metadata);
-    }
-    const dims: string[] = [];
-    for (let i = 0; i < shape.length; i++) {
-      let dn: string | undefined;
-      if (isScale && shape.length === 1) dn = name;
-      else {
-        const scales = safe(() => ds.get_attached_scales(i)) ?? [];
-        if (scales.length > 0) dn = scales[0].replace(/^\//, '');
-      }
-      dn ??= `${name}_dim${i}`;
-      dims.push(dn);
-      const maxshape = meta.maxshape ?? ds.shape ?? [];
-      const unlimited = (maxshape[i] ?? 0) > Number.MAX_SAFE_INTEGER || (maxshape[i] ?? 0) < 0;
-      if (!dimSizes.has(dn)) dimSizes.set(dn, { name: dn, size: shape[i], unlimited });
-    }
-    const nameAttr = isScale ? plainValue(safe(() => raw.NAME.value)) : undefined;
-    if (typeof nameAttr === 'string' && nameAttr.startsWith(PURE_DIMENSION)) continue;
-    const v: SourceVariable = { name, dims, shape, type: rawType(meta), attrs, attrTypes };
+  const info = new Map<SourceVariable, Hdf5Variable>();
+  for (const hv of d.variables) {
+    const v: SourceVariable = { name: hv.name, dims: hv.dims, shape: hv.shape, type: hv.type, attrs: hv.attrs, attrTypes: hv.attrTypes };
     variables.push(v);
-    byVar.set(v, ds);
+    info.set(v, hv);
   }
-  if (!netcdf) {
-    f.close();
-    throw NetcdfNotNetcdf4({ path }, { file: path });
-  }
-  const globalAttrs: Record<string, AttrValue> = {};
-  for (const [an, a] of Object.entries(rootAttrs)) {
-    if (HIDDEN_ATTRS.has(an)) continue;
-    const val = plainValue(safe(() => a.value));
-    if (val !== undefined) globalAttrs[an] = val;
-  }
+  const infoOf = (v: SourceVariable): Hdf5Variable => {
+    const hv = info.get(v);
+    if (!hv) throw new Error(`variable ${v.name} is not in ${path}`);
+    return hv;
+  };
+  const datasets = new Map<SourceVariable, H5Dataset>();
   const dsOf = (v: SourceVariable): H5Dataset => {
-    const ds = byVar.get(v);
-    if (!ds) throw new Error(`variable ${v.name} is not in ${path}`);
+    let ds = datasets.get(v);
+    if (!ds) {
+      ds = new h5wasm.Dataset(f.file_id, `/${v.name}`);
+      datasets.set(v, ds);
+    }
     return ds;
   };
-  const fail = (v: SourceVariable, e: unknown) =>
-    NetcdfReadFailed({ path, detail: `variable ${v.name}: ${(e as Error).message ?? e}` }, { file: path, variable: v.name });
 
   async function read(v: SourceVariable, start: number[], count: number[]): Promise<RawArray> {
     const ds = dsOf(v);
-    let out: unknown;
-    try {
-      out = v.shape.length === 0 ? ds.value : ds.slice(start.map((s, i) => [s, s + count[i]]));
-    } catch (e) {
-      throw fail(v, e);
-    }
+    const out = h5call(path, 'reading values', () => (v.shape.length === 0 ? ds.value : ds.slice(start.map((s, i) => [s, s + count[i]]))), v.name) as unknown;
     if (out instanceof BigInt64Array || out instanceof BigUint64Array) return Float64Array.from(out, (x) => Number(x));
     if (typeof out === 'number') return Float64Array.of(out);
     if (typeof out === 'bigint') return Float64Array.of(Number(out));
     if (ArrayBuffer.isView(out)) return out as RawArray;
-    throw fail(v, new Error(`values of type ${v.type} are not numbers`));
+    throw NetcdfReadFailed({ path, detail: `variable ${v.name}: values of type ${v.type} are not numbers` }, { file: path, variable: v.name });
   }
 
   // A wasm heap buffer reused by every hyperslab read of this file, and the carried chunks.
@@ -228,27 +153,24 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
    * read or allocation in wasm); falls back to `slice` (a copy) for other value types.
    */
   function readDirect(v: SourceVariable, off: number[], cnt: number[]): RawArray | null {
-    const ds = dsOf(v);
-    const meta = ds.metadata as unknown as H5Metadata;
+    const hv = infoOf(v);
     const View = HEAP_VIEW[v.type];
-    if (!View || meta.vlen || meta.littleEndian === false) return null;
+    if (!View || !hv.plain) return null;
     const total = product(cnt);
-    const nbytes = total * meta.size;
+    const nbytes = total * hv.valueBytes;
     if (heapBytes < nbytes) {
       if (heapPtr) h5module._free(heapPtr);
       heapBytes = 0;
       heapPtr = h5module._malloc(nbytes);
-      if (!heapPtr) throw fail(v, new Error(`could not allocate ${nbytes} bytes`));
+      if (!heapPtr) throw NetcdfReadFailed({ path, detail: `variable ${v.name}: could not allocate ${nbytes} bytes for a read` }, { file: path, variable: v.name });
       heapBytes = nbytes;
     }
-    const ds0 = ds as unknown as { file_id: bigint; path: string };
-    let status: number;
-    try {
-      status = h5module.get_dataset_data(ds0.file_id, ds0.path, cnt.map(BigInt), off.map(BigInt), cnt.map(() => 1n), BigInt(heapPtr));
-    } catch (e) {
-      throw fail(v, e);
-    }
-    if (status < 0) throw fail(v, new Error(`HDF5 read failed (status ${status})`));
+    const slab = `[${off.map((o, i) => `${o}:${o + cnt[i]}`).join(', ')}]`;
+    const status = h5call(path, `reading hyperslab ${slab}`, () => {
+      const st = h5module.get_dataset_data(f.file_id, `/${v.name}`, cnt.map(BigInt), off.map(BigInt), cnt.map(() => 1n), BigInt(heapPtr));
+      if (st < 0) throw new Error(`status ${st}`);
+      return st;
+    }, v.name);
     return new View(h5module.HEAPU8.buffer, heapPtr, total);
   }
 
@@ -273,8 +195,7 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
       if (s0 >= e0) continue;
       // Whole chunks along the first dimension: each chunk is inflated once per block, and the
       // last one is kept for the block after (blocks rarely end on a chunk boundary).
-      const meta = dsOf(v).metadata as unknown as H5Metadata;
-      const C = meta.chunks?.[0] ?? 1;
+      const C = infoOf(v).chunk0;
       const a0 = C > 1 ? Math.floor(s0 / C) * C : s0;
       const a1 = C > 1 ? Math.min(v.shape[0], Math.ceil(e0 / C) * C) : e0;
       const off = [a0, ...start.slice(1)];
@@ -293,47 +214,24 @@ function buildHdf5File(f: H5File, path: string, bytes: number): SourceFile {
     path,
     format: 'netcdf4',
     bytes,
-    dims: [...dimSizes.values()],
+    dims: d.dims,
     variables,
-    globalAttrs,
+    globalAttrs: d.globalAttrs,
     read,
     readSlabs,
     async readNumbers(v) {
       const raw = await this.read(v, v.shape.map(() => 0), v.shape);
       return raw instanceof Float64Array ? raw : Float64Array.from(raw);
     },
-    async readStrings(v) {
-      let out: unknown;
-      try {
-        out = dsOf(v).value;
-      } catch (e) {
-        throw fail(v, e);
-      }
-      if (typeof out === 'string') return [out];
-      if (Array.isArray(out)) return out.map((x) => String(x));
-      if (out instanceof Uint8Array || out instanceof Int8Array) {
-        const len = v.shape.length > 0 ? v.shape[v.shape.length - 1] : 1;
-        const dec = new TextDecoder('latin1');
-        const res: string[] = [];
-        for (let i = 0; i < out.length; i += len) res.push(dec.decode(new Uint8Array(out.buffer, out.byteOffset + i, len)).replace(/\0+$/, '').trim());
-        return res;
-      }
-      return [];
-    },
+    // Text lives in HDF5's global heap, where damage can make the library loop: read it in the
+    // metadata worker, under its time limit.
+    readStrings: (v) => readNetcdf4Strings(path, v.name, v.shape),
     async close() {
-      if (heapPtr) h5module._free(heapPtr);
+      if (heapPtr && !stopped) h5module._free(heapPtr);
       heapPtr = 0;
       heapBytes = 0;
       carry.clear();
-      f.close();
+      if (!stopped) quietly(() => f.close());
     },
   };
-}
-
-function safe<T>(fn: () => T): T | undefined {
-  try {
-    return fn();
-  } catch {
-    return undefined;
-  }
 }

@@ -77,11 +77,18 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
     if (covered[h]) continue;
     let e = h;
     while (e + 1 < count && !covered[e + 1]) e++;
-    const fileAt = (k: number) => {
-      for (const tab of tables.values()) if (tab.file[k] >= 0) return name(files[tab.file[k]]);
-      return '?';
+    // The files holding the hours on either side of the gap.
+    const fileAt = (k: number): AnalysedFile | undefined => {
+      for (const tab of tables.values()) if (tab.file[k] >= 0) return files[tab.file[k]];
+      return undefined;
     };
-    throw NetcdfTimeGap({ from: isoSeconds(lo + h * HOUR_MS), to: isoSeconds(lo + e * HOUR_MS), before: fileAt(h - 1), after: fileAt(e + 1) }, { file: files[0].sf.path });
+    const before = fileAt(h - 1)!;
+    const after = fileAt(e + 1)!;
+    const where = before === after
+      ? `inside ${name(before)}: its time axis jumps from ${isoSeconds(lo + (h - 1) * HOUR_MS)} to ${isoSeconds(lo + (e + 1) * HOUR_MS)}`
+      : `between ${name(before)} (ending ${isoSeconds(lo + (h - 1) * HOUR_MS)}) and ${name(after)} (starting ${isoSeconds(lo + (e + 1) * HOUR_MS)}); no input file holds these hours`;
+    const at = before === after ? before.sf.path : `${before.sf.path}, ${after.sf.path}`;
+    throw NetcdfTimeGap({ from: isoSeconds(lo + h * HOUR_MS), to: isoSeconds(lo + e * HOUR_MS), where }, { file: at });
   }
   // Every variable present anywhere must cover every hour.
   for (const [short, tab] of tables) {

@@ -1,5 +1,5 @@
 /**
- * The estimate as one tidy CSV (RFC 4180 through pipeline/publish/csv.ts), UTF-8 with a byte
+ * The estimate as one tidy CSV (RFC 4180 through pipeline/formats/csv.ts), UTF-8 with a byte
  * order mark. First come comment lines `#,"text"` (the title, the invented-data label, every
  * setting, the approximation, the cautions): a reader that skips `#` lines (pandas
  * `comment="#"`, R `comment.char = "#"`) skips them, a spreadsheet shows each text whole in its
@@ -10,7 +10,7 @@
  * `section` is `schedule` (the job), `year` (case = the weather year), `start-month` (case = the
  * start date), `shift-pattern` (case = the pattern), `heat-free`, or `crew-for-deadline`.
  */
-import { csvLine } from '../publish/csv.ts';
+import { csvLine } from '../formats/csv.ts';
 import type { BidJson } from './bid-json.ts';
 import { SCHEDULE_ROWS, STATISTICS, rowUnit, scheduleValue } from './bid-table.ts';
 

@@ -1,5 +1,5 @@
 /**
- * A small RFC 4180 CSV reader for the tables the pipeline publishes (pipeline/publish/csv.ts
+ * A small RFC 4180 CSV reader for the tables the pipeline publishes (pipeline/formats/csv.ts
  * writes them): comma-separated, fields with a comma, quote or line break in double quotes, `""`
  * for a quote inside one, LF or CRLF line ends. Pure.
  */

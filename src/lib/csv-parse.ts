@@ -1,7 +1,7 @@
 /**
  * Parses CSV text (RFC 4180: comma-separated, fields with a comma, quote or line break in double
  * quotes, `""` for a quote inside) into rows of strings. Used at build time to read the
- * pipeline's tables; the writer is pipeline/publish/csv.ts.
+ * pipeline's tables; the writer is pipeline/formats/csv.ts.
  */
 
 /** All records of `text`, the header included; a final line break ends the last record. */

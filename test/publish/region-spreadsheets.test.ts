@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from '../site/pipeline-data.ts';
-import { splitCsvRecord } from '../../pipeline/physics/csv.ts';
+import { splitCsvRecord } from '../../pipeline/formats/csv.ts';
 import { regionWideTables } from '../../pipeline/publish/region-wide-table.ts';
 
 const run = promisify(execFile);

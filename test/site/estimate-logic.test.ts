@@ -13,7 +13,7 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
-import { splitCsvRecord } from '../../pipeline/physics/csv.ts';
+import { splitCsvRecord } from '../../pipeline/formats/csv.ts';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from './pipeline-data.ts';

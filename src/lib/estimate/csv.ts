@@ -1,12 +1,12 @@
 /**
- * The CSV download of the monthly table (RFC 4180, pipeline/publish/csv.ts), UTF-8 with a byte
+ * The CSV download of the monthly table (RFC 4180, pipeline/formats/csv.ts), UTF-8 with a byte
  * order mark (it holds ° and −, which spreadsheets otherwise misread). First come comment lines,
  * each `#,"text"`: a reader that skips `#` lines (pandas `comment="#"`, R `comment.char = "#"`)
  * skips them, and a spreadsheet shows the text whole in the second column (commas inside are
  * quoted); then a header with the unit in each column name and one line per row of the table.
  */
 import { CAUTION_SUMMARY } from '../../../pipeline/work/cautions.ts';
-import { csvLine, roundTo } from '../../../pipeline/publish/csv.ts';
+import { csvLine, roundTo } from '../../../pipeline/formats/csv.ts';
 import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
 import type { ResolvedPlace } from '../../../pipeline/schedule/place.ts';
 import type { EstimateResult } from './estimate.ts';

@@ -1,0 +1,94 @@
+/**
+ * Asks the NetCDF-4 metadata worker (hdf5-meta-worker.ts) to describe a file or read a text
+ * variable, under a time limit: HDF5 can loop for ever on a damaged global heap (where NetCDF-4
+ * keeps DIMENSION_LIST and text), and a loop inside WebAssembly cannot be interrupted in the
+ * thread that runs it. A request that takes too long stops the worker and ends in the catalogued
+ * `NetcdfReadStuck`; the next request starts a new worker. One worker per thread, started on
+ * first use, not keeping the process alive when idle.
+ */
+import type { Worker } from 'node:worker_threads';
+import { startWorker } from '../infra/worker-pool.ts';
+import { NetcdfNotNetcdf4, NetcdfReadFailed, NetcdfReadStuck } from './errors.ts';
+import type { Hdf5Description } from './hdf5-describe.ts';
+import type { MetaAnswer, MetaQuery } from './hdf5-meta-worker.ts';
+
+/** Time limit of one metadata request [ms]; reading metadata takes milliseconds on sound files. */
+let timeoutMs = 30_000;
+
+/** Sets the time limit of a metadata request [ms] (the fuzz test lowers it). */
+export function setHdf5MetadataTimeout(ms: number): void {
+  timeoutMs = ms;
+}
+
+let worker: { w: Worker; ready: Promise<void> } | undefined;
+let nextId = 1;
+const pending = new Map<number, (a: MetaAnswer) => void>();
+
+function start(): { w: Worker; ready: Promise<void> } {
+  const w = startWorker('hdf5-meta');
+  const ready = new Promise<void>((resolve, reject) => {
+    w.on('message', (m: MetaAnswer | { ready: true }) => {
+      if ('ready' in m) return resolve();
+      const done = pending.get(m.id);
+      pending.delete(m.id);
+      done?.(m);
+    });
+    w.on('error', (e: Error) => {
+      reject(e);
+      fail(w, `the metadata worker failed: ${e.message}`);
+    });
+    w.on('exit', () => fail(w, 'the metadata worker stopped'));
+  });
+  // Idle, the worker does not keep the process alive (ask() holds it while a request waits).
+  w.unref();
+  return { w, ready };
+}
+
+/** Ends every request still waiting on worker `w` (it died). */
+function fail(w: Worker, why: string): void {
+  if (worker?.w !== w) return;
+  worker = undefined;
+  for (const [id, done] of pending) done({ id, ok: false, reason: why, printed: '', stopped: true });
+  pending.clear();
+}
+
+async function ask(req: MetaQuery, what: string): Promise<unknown> {
+  worker ??= start();
+  const { w, ready } = worker;
+  const id = nextId++;
+  const seconds = Math.round(timeoutMs / 100) / 10;
+  let timer: NodeJS.Timeout | undefined;
+  w.ref();
+  const answer = await new Promise<MetaAnswer | 'timeout'>((resolve, reject) => {
+    pending.set(id, resolve);
+    // The limit runs from the request, not from the worker's start (seconds on a busy machine).
+    ready.then(() => {
+      timer = setTimeout(() => resolve('timeout'), timeoutMs);
+      w.postMessage({ ...req, id });
+    }, reject);
+  }).finally(() => {
+    clearTimeout(timer);
+    if (pending.size === 0) w.unref();
+  });
+  if (answer === 'timeout') {
+    pending.delete(id);
+    if (worker?.w === w) worker = undefined;
+    await w.terminate();
+    throw NetcdfReadStuck({ path: req.path, what, seconds }, { file: req.path });
+  }
+  const where = req.op === 'strings' ? { file: req.path, variable: req.variable } : { file: req.path };
+  if (!answer.ok) throw NetcdfReadFailed({ path: req.path, detail: `${what}: ${answer.reason}` }, where, answer.printed || undefined);
+  return answer.result;
+}
+
+/** Describes a NetCDF-4 file (dimensions, variables, attributes); refuses HDF5 that is not NetCDF-4. */
+export async function describeNetcdf4(path: string): Promise<Hdf5Description> {
+  const d = (await ask({ op: 'describe', path }, 'reading the metadata')) as Hdf5Description;
+  if (!d.netcdf) throw NetcdfNotNetcdf4({ path }, { file: path });
+  return d;
+}
+
+/** Reads a text variable of a NetCDF-4 file, one string per outer index. */
+export async function readNetcdf4Strings(path: string, variable: string, shape: number[]): Promise<string[]> {
+  return (await ask({ op: 'strings', path, variable, shape }, `reading the text of variable ${variable}`)) as string[];
+}

@@ -1,0 +1,117 @@
+/**
+ * One test per defect class the fuzzer found, each on the smallest damaged file that showed it
+ * (test/fixtures/fuzz, made by make-fixtures.ts from the invented demo files; README there).
+ * Before the fixes each ended in an internal error, a hang, HDF5's diagnostics on the terminal,
+ * a crash or a wrong error; now each is the catalogued error named here, and nothing is printed.
+ * Debian's netCDF-C tools (ncdump) agree that each NetCDF fixture is damaged.
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
+import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { parseConfig } from '../../pipeline/config/load.ts';
+import { runPoint } from '../../pipeline/commands/point.ts';
+import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
+import { expectCataloguedAsync, expectCatalogued } from '../helpers/catalogued.ts';
+
+const FX = new URL('../fixtures/fuzz/', import.meta.url).pathname;
+const ROOT = new URL('../../', import.meta.url).pathname;
+const out = mkdtempSync(join(tmpdir(), 'hh-regressions-'));
+afterAll(() => rmSync(out, { recursive: true, force: true }));
+
+/** Runs the CLI's `inspect` on a fixture: exit status and what it printed to stderr. */
+function cliInspect(file: string, ...flags: string[]): { status: number | null; stderr: string } {
+  const r = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'inspect', ...flags, file], { encoding: 'utf8', timeout: 120_000 });
+  return { status: r.status, stderr: r.stderr };
+}
+
+/** netCDF-C's ncdump fails (or does not finish within 10 s) on the file. */
+function ncdumpRefuses(file: string): boolean {
+  const r = spawnSync('ncdump', ['-h', file], { timeout: 10_000, stdio: 'ignore' });
+  return r.status !== 0;
+}
+
+describe('NetCDF-3 header damage', () => {
+  it('a variable naming a dimension the file lacks (was: TypeError reading "name") is NetcdfHeaderInvalid naming the variable and byte', async () => {
+    const f = join(FX, 'classic-dimension-id-out-of-range.nc');
+    expect(ncdumpRefuses(f)).toBe(true);
+    const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /variable lsm names dimension 7, but the file has 3 dimension\(s\) \(header byte \d+\)/);
+    expect(e.where).toMatchObject({ file: f, variable: 'lsm' });
+  });
+
+  it('a name length beyond the file (was: reported as a file cut short) is NetcdfHeaderInvalid, not NetcdfFileTruncated', async () => {
+    const f = join(FX, 'classic-name-length-beyond-file.nc');
+    expect(ncdumpRefuses(f)).toBe(true);
+    await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /is 32767 bytes long \(1 to 256 allowed\)/);
+  });
+
+  it('a time value beyond any date (was: RangeError) is NetcdfTimeValueInvalid at the file and time variable; inspect lists it as the axis\'s problem', async () => {
+    const f = join(FX, 'classic-time-beyond-any-date.nc');
+    const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'] }), 'NetcdfTimeValueInvalid', /time value 1e\+300 \(step 2\)/);
+    expect(e.where).toMatchObject({ file: f, variable: 'time' });
+    const r = await inspectFile(f);
+    expect(r.timeAxes[0].problem?.code).toBe('NetcdfTimeValueInvalid');
+  });
+});
+
+describe('NetCDF-4 (HDF5) damage', () => {
+  it('a flipped bit in an object header (was: "error - name not defined!" as an internal error, HDF5-DIAG on the terminal) is NetcdfReadFailed with HDF5\'s reason; its diagnostics only with --verbose', async () => {
+    const f = join(FX, 'netcdf4-object-header-bit-flip.nc');
+    expect(ncdumpRefuses(f)).toBe(true);
+    const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfReadFailed', /the HDF5 library says: .*checksum/);
+    expect(e.details).toMatch(/HDF5-DIAG: Error detected/);
+    const plain = cliInspect(f);
+    expect(plain.status).toBe(2);
+    expect(plain.stderr).toMatch(/^error \[NetcdfReadFailed\][^]*run with --verbose for details/);
+    expect(plain.stderr).not.toMatch(/HDF5-DIAG|major:|minor:|internal error/);
+    const verbose = cliInspect(f, '--verbose');
+    expect(verbose.status).toBe(2);
+    expect(verbose.stderr).toMatch(/details:\n {4}HDF5-DIAG: Error detected[^]*minor:/);
+  });
+
+  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, and the next file reads', async () => {
+    const f = join(FX, 'netcdf4-global-heap-empty-free-space.nc');
+    const nc = spawnSync('ncdump', ['-h', f], { timeout: 5_000, stdio: 'ignore' });
+    expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
+    setHdf5MetadataTimeout(3_000);
+    try {
+      const t0 = performance.now();
+      await expectCataloguedAsync(inspectFile(f), 'NetcdfReadStuck', /did not finish within 3 s/);
+      expect(performance.now() - t0).toBeLessThan(20_000);
+      // A sound file right after: the metadata worker was replaced.
+      const ok = await inspectFile(join(FX, 'netcdf4-object-header-bit-flip.nc')).catch((e) => e);
+      expect(ok.code).toBe('NetcdfReadFailed');
+    } finally {
+      setHdf5MetadataTimeout(30_000);
+    }
+  });
+});
+
+describe('text inputs', () => {
+  it('a quote never closed after the header (was: the process died of an unhandled stream error) is CsvMalformed naming line 2, with no output left', async () => {
+    const o = join(out, 'quote.csv');
+    await expectCataloguedAsync(runPoint(join(FX, 'point-unclosed-quote.csv'), o, { quiet: true }), 'CsvMalformed', /opened on line 2 is never closed[^]*row 2/);
+    expect(readdirSync(out)).toEqual([]);
+  });
+
+  it('a workload-classes file that is not YAML stops `build` with ConfigSyntax naming it (was: internal YAMLParseError), before any data is read', async () => {
+    const classes = join(out, 'classes.yaml');
+    writeFileSync(classes, 'classes:\n  - id: low\n   metabolicRate: [180\n');
+    writeFileSync(join(out, 'x.nc'), '');
+    const cfg = join(out, 'atlas.yaml');
+    writeFileSync(cfg, readFileSync(join(ROOT, 'content/atlas.yaml'), 'utf8').replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`));
+    const e = await expectCataloguedAsync(buildAtlas({ configPath: cfg, outDir: join(out, 'dist'), jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ConfigSyntax');
+    expect(e.where.file).toBe(classes);
+    for (const f of ['classes.yaml', 'x.nc', 'atlas.yaml']) rmSync(join(out, f));
+  });
+
+  it('aliases that expand too far, or come before their anchor (was: ReferenceError), are ConfigSyntax naming the file', () => {
+    for (const [name, re] of [['atlas-alias-bomb.yaml', /alias/i], ['atlas-alias-before-anchor.yaml', /alias|anchor/i]] as const) {
+      const f = join(FX, name);
+      expectCatalogued(() => parseConfig(readFileSync(f, 'utf8'), f), 'ConfigSyntax', re);
+    }
+  });
+});
