@@ -26,7 +26,7 @@ export interface PoolOptions {
   onResult?: (r: TaskResult) => void;
 }
 
-const BOOT = new URL('../../pipeline/model/ts-worker-boot.mjs', import.meta.url);
+const BOOT = new URL('../../pipeline/infra/ts-boot.mjs', import.meta.url);
 const ENTRY = new URL('./worker.ts', import.meta.url);
 
 /** Runs every task; resolves with one result per task, in task order. */
@@ -37,7 +37,7 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
     let w: Worker | undefined;
     let ready: Promise<void> | undefined;
     const start = () => {
-      w = new Worker(BOOT, { workerData: { entry: ENTRY.href }, resourceLimits: { maxOldGenerationSizeMb: 1536 } });
+      w = new Worker(BOOT, { workerData: { tsEntry: ENTRY.href }, resourceLimits: { maxOldGenerationSizeMb: 1536 } });
       const ww = w;
       ready = new Promise<void>((res, rej) => {
         const onMsg = (m: { ready?: boolean }) => {

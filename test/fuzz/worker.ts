@@ -1,5 +1,5 @@
 /**
- * A fuzzing worker thread (started by pool.ts through pipeline/model/ts-worker-boot.mjs): makes
+ * A fuzzing worker thread (started by pool.ts through pipeline/infra/ts-boot.mjs): makes
  * the mutants it is sent, writes each to a file, runs the format's steps (targets.ts) in this
  * thread and reports how each ended. Anything written to stdout or stderr while a mutant runs
  * (HDF5 diagnostics, stray logging) is captured and reported as noise. The mutant file is
