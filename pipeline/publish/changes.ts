@@ -1,9 +1,11 @@
 /**
  * What changed since the previous build (`data/changes.json`), so a team sees the effect of the
- * yearly update: years and input files added, changed or removed, code and configuration
- * changes, and the region figures (annual, per workload class, acclimatization and exposure)
- * that moved most. Pure: the previous and the new build's manifest facts and region tables in,
- * the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts).
+ * yearly update: first what moved in the normals a bid uses (annual shift hours lost and hours
+ * above the limit, baseline mean and P90, per region, workload class, acclimatization and
+ * exposure) and whether the baseline is the same; then the latest year, whose change is
+ * year-to-year weather; then years and input files added, changed or removed, code and
+ * configuration changes. Pure: the previous and the new build's manifest facts and region tables
+ * in, the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts).
  */
 
 /** The facts of one build the comparison needs. */
@@ -38,8 +40,25 @@ export interface FigureMove {
   unit: string;
 }
 
+/** The figures a bid uses, whose normals lead the comparison. */
+export const BID_FIGURES: readonly string[] = ['hours-lost-shift', 'hours-above-limit-shift'];
+/** The normals of those figures that are compared (the latest year is weather, not a normal). */
+export const NORMAL_STATISTICS: readonly string[] = ['mean', 'p90'];
+
+/** How the normals a bid uses moved. */
+export interface NormalsChange {
+  /** Annual normals of {@link BID_FIGURES} present in both builds [count]. */
+  compared: number;
+  /** Of those, how many changed [count]. */
+  moved: number;
+  /** Largest |change| among them [h]; 0 when none moved. */
+  largest: number;
+  /** The largest moves, largest |change| first (at most `limit`). */
+  moves: FigureMove[];
+}
+
 export interface BuildChanges {
-  version: 1;
+  version: 2;
   /** false for a first build (nothing to compare with); the rest is then empty. */
   hasPrevious: boolean;
   previous?: { buildTime: string; codeVersion: string; years: [number, number]; baseline: [number, number] };
@@ -49,7 +68,11 @@ export interface BuildChanges {
   inputs: { added: string[]; changed: string[]; removed: string[] };
   codeChanged: boolean;
   configChanged: boolean;
-  /** The largest annual moves, per unit, largest |change| first (at most `limit` per unit). */
+  /** The normals a bid uses: lead the page. */
+  normals: NormalsChange;
+  /** The latest year's annual values of {@link BID_FIGURES} that moved most (year-to-year weather when the latest year changed). */
+  latest: FigureMove[];
+  /** The largest annual moves of every figure and statistic compared, per unit, largest |change| first (at most `limit` per unit). */
   moves: FigureMove[];
   regionsAdded: string[];
   regionsRemoved: string[];
@@ -77,11 +100,14 @@ function annualRows(csv: string): Map<string, { value: number; unit: string; col
   return out;
 }
 
+const isBidNormal = (figure: string, statistic: string) => BID_FIGURES.includes(figure) && NORMAL_STATISTICS.includes(statistic);
+
 /** Compares the new build with the previous one (null for a first build). */
 export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit = 10): BuildChanges {
   const empty: BuildChanges = {
-    version: 1, hasPrevious: false, yearsAdded: [], yearsRemoved: [], baselineChanged: false,
-    inputs: { added: [], changed: [], removed: [] }, codeChanged: false, configChanged: false, moves: [], regionsAdded: [], regionsRemoved: [],
+    version: 2, hasPrevious: false, yearsAdded: [], yearsRemoved: [], baselineChanged: false,
+    inputs: { added: [], changed: [], removed: [] }, codeChanged: false, configChanged: false,
+    normals: { compared: 0, moved: 0, largest: 0, moves: [] }, latest: [], moves: [], regionsAdded: [], regionsRemoved: [],
   };
   if (!prev) return empty;
   const py = new Set(years(prev.years));
@@ -89,29 +115,36 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
   const pin = new Map(prev.inputs.map((f) => [f.name, f.sha256]));
   const nin = new Map(next.inputs.map((f) => [f.name, f.sha256]));
   const moves: FigureMove[] = [];
+  let normalsCompared = 0;
   for (const [id, csv] of next.regionTables) {
     const before = prev.regionTables.get(id);
     if (before === undefined) continue;
     const a = annualRows(before);
     for (const [key, row] of annualRows(csv)) {
       const old = a.get(key);
-      if (!old || old.unit !== row.unit || !Number.isFinite(old.value) || !Number.isFinite(row.value) || old.value === row.value) continue;
+      if (!old || old.unit !== row.unit || !Number.isFinite(old.value) || !Number.isFinite(row.value)) continue;
       const [figure, workloadClass, acclimatization, exposure, method, statistic] = row.cols;
+      if (isBidNormal(figure, statistic)) normalsCompared += 1;
+      if (old.value === row.value) continue;
       moves.push({
         regionId: id, regionName: next.regionNames.get(id) ?? id, figure, workloadClass, acclimatization, exposure, method, statistic,
         before: old.value, after: row.value, change: Math.round((row.value - old.value) * 1e6) / 1e6, unit: row.unit,
       });
     }
   }
+  const largestFirst = (x: FigureMove, y: FigureMove) =>
+    Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
+  const normalMoves = moves.filter((m) => isBidNormal(m.figure, m.statistic)).sort(largestFirst);
+  const latest = moves.filter((m) => BID_FIGURES.includes(m.figure) && m.statistic === 'latest').sort(largestFirst).slice(0, limit);
   const byUnit = new Map<string, FigureMove[]>();
-  for (const m of moves) byUnit.set(m.unit, [...(byUnit.get(m.unit) ?? []), m]);
-  const top = [...byUnit.keys()].sort().flatMap((u) =>
-    byUnit.get(u)!
-      .sort((x, y) => Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1))
-      .slice(0, limit),
-  );
+  for (const m of moves) {
+    const list = byUnit.get(m.unit);
+    if (list) list.push(m);
+    else byUnit.set(m.unit, [m]);
+  }
+  const top = [...byUnit.keys()].sort().flatMap((u) => byUnit.get(u)!.sort(largestFirst).slice(0, limit));
   return {
-    version: 1,
+    version: 2,
     hasPrevious: true,
     previous: { buildTime: prev.buildTime, codeVersion: prev.codeVersion, years: prev.years, baseline: prev.baseline },
     yearsAdded: [...ny].filter((y) => !py.has(y)),
@@ -124,6 +157,13 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
     },
     codeChanged: prev.codeVersion !== next.codeVersion,
     configChanged: prev.configDigest !== next.configDigest,
+    normals: {
+      compared: normalsCompared,
+      moved: normalMoves.length,
+      largest: normalMoves.length > 0 ? Math.abs(normalMoves[0].change) : 0,
+      moves: normalMoves.slice(0, limit),
+    },
+    latest,
     moves: top,
     regionsAdded: [...next.regionTables.keys()].filter((id) => !prev.regionTables.has(id)).sort(),
     regionsRemoved: [...prev.regionTables.keys()].filter((id) => !next.regionTables.has(id)).sort(),

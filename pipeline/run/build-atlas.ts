@@ -43,6 +43,9 @@ import { regionHistograms } from '../reduce/region-histograms.ts';
 import { encodeHistogramTile, histogramIndex } from '../publish/histogram-tiles.ts';
 import { writeCellFigures } from '../publish/cell-figures.ts';
 import { PointTileStore } from '../publish/point-tiles.ts';
+import { shortBaselineWarning } from '../publish/baseline-length.ts';
+import { DATA_DICTIONARY_PATH, dataDictionaryCsv } from '../publish/data-dictionary.ts';
+import { LOSS_VIEWS } from '../reduce/layout.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -115,6 +118,8 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
   checkUniqueRegionIds(regions);
 
   log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
+  const baselineWarning = shortBaselineWarning(cfg.baseline);
+  if (baselineWarning) log.warn(baselineWarning);
   const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
   const ds = await openDataset(rc.inputFiles, datasetOptions);
   try {
@@ -293,6 +298,10 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
         await writeFile(join(dataDir, 'regions', `${regions[r].id}.json`), JSON.stringify(regionSummary(r, regions[r], weights[r], niche, figures)));
       }
       await writeFile(join(dataDir, 'atlas-cells.csv'), cellTableCsv(figures, cells, ds.grid.lat, ds.grid.lon));
+      await writeFile(join(stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
+        figures: figures.map((f) => f.series.def), classes: work.classes, acclimatization: work.settings.acclimatization, exposures: work.settings.exposures,
+        lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: ctx.latestYear,
+      }));
       await writeFile(join(dataDir, 'niche.json'), JSON.stringify(nicheJson(niche, cells, ds.grid)));
       await writeCellFigures(dataDir, figures, cells, ds.grid, niche);
       await mkdir(join(dataDir, 'calculator'), { recursive: true });
@@ -308,7 +317,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
       });
       await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
       if (changes.hasPrevious) {
-        log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.moves.length} figure moves listed`);
+        log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`);
       }
       await pointTiles.write(dataDir, { years, grid: ds.grid });
       log.info('tables, niche and calculator tiles written; drawing the layers');
@@ -463,6 +472,7 @@ function countLayers(figures: readonly FigureNormals[]): number {
 function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF, EPSG:4326', };
+  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell table' };
   if (path.endsWith('.csv')) {
     return path.includes('/regions/')
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
