@@ -35,7 +35,12 @@ export interface BuildSiteOptions {
   outDir: string;
   /** No log lines but errors. */
   quiet?: boolean;
+  /** URL path the site is served under (config `site.base`), e.g. `/atlas/`; default `/`. */
+  base?: string;
 }
+
+/** Environment variable that carries the site's base path into astro.config.mjs. */
+export const SITE_BASE_ENV = 'HEATHOURS_SITE_BASE';
 
 /** Checks the data folder before the (slow) Astro build, with catalogued errors. */
 export function checkSiteData(dataDir: string): void {
@@ -67,7 +72,9 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   await replaceDirAtomic(outDir, async (tmp) => {
     const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
     const previous = process.env[DATA_DIR_ENV];
+    const previousBase = process.env[SITE_BASE_ENV];
     process.env[DATA_DIR_ENV] = dataDir;
+    process.env[SITE_BASE_ENV] = opts.base ?? '/';
     process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
     try {
       const { build } = await import('astro');
@@ -78,6 +85,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
           outDir: tmp,
           cacheDir,
           mode: 'production',
+          base: opts.base ?? '/',
           logLevel: opts.quiet ? 'error' : 'info',
         }),
         { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
@@ -89,6 +97,8 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     } finally {
       if (previous === undefined) delete process.env[DATA_DIR_ENV];
       else process.env[DATA_DIR_ENV] = previous;
+      if (previousBase === undefined) delete process.env[SITE_BASE_ENV];
+      else process.env[SITE_BASE_ENV] = previousBase;
       await rm(cacheDir, { recursive: true, force: true });
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.

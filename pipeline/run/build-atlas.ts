@@ -350,7 +350,7 @@ async function runBuild(o: BuildAtlasOptions, rc: Awaited<ReturnType<typeof load
         await replaceDirAtomic(outDir, async (tmp) => cp(dataDir, join(tmp, 'data'), { recursive: true }));
       } else {
         log.info('building the site');
-        await buildSite({ dataDir: stage, outDir, quiet: o.quiet });
+        await buildSite({ dataDir: stage, outDir, quiet: o.quiet, base: cfg.site.base });
       }
     } finally {
       await rm(stage, { recursive: true, force: true });
