@@ -164,7 +164,7 @@ export function explorerCatalogue(
     acclimatization: choice(ordered(pick((v) => v.acclimatization), manifest.work.acclimatization), (id) => ACCLIMATIZATION_LABELS[id] ?? id),
     exposure: choice(ordered(pick((v) => v.exposure), manifest.work.exposures), (id) => EXPOSURE_LABELS[id] ?? id),
     loss: choice(ordered(pick((v) => v.loss), LOSS_VIEWS.map((v) => v.id)), lossLabel),
-    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', ...Object.keys(STATISTIC_LABELS)]), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
+    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', 'baseline', 'class']), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
     period: choice(ordered(layers.map((l) => l.period), [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year']), periodName),
   };
 

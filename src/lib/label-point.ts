@@ -36,7 +36,8 @@ export function labelPoint(geometry: Polygon | MultiPolygon): [number, number] {
   let bestLength = -1;
   const lines = 15;
   for (let k = 1; k <= lines; k++) {
-    const y = s + ((n - s) * k) / (lines + 1);
+    // Lines sit off the simple fractions, so they miss the vertices of outlines drawn on a grid.
+    const y = s + ((n - s) * (k + 0.0731)) / (lines + 1);
     const xs = crossings(poly, y);
     for (let i = 0; i + 1 < xs.length; i += 2) {
       // Prefer lines near the middle: a segment counts less the farther its line is from it.

@@ -5,7 +5,7 @@
  * drawn as a row of swatches with tick values from the same d3 scale. Pure.
  */
 import { scaleLinear, scaleSequential, type ScaleSequential } from 'd3-scale';
-import { COLOUR_KINDS, rampInterpolator, type ColourKind } from '../../../pipeline/publish/layers/ramps.ts';
+import { COLOUR_KINDS, parseCssColour, rampInterpolator, toHex, type ColourKind } from '../../../pipeline/publish/layers/ramps.ts';
 
 /** A ramp as the pages name it: "Reds (d3-scale-chromatic): white for no hours, dark red for many". */
 export function rampName(kind: ColourKind): string {
@@ -15,11 +15,12 @@ export function rampName(kind: ColourKind): string {
 /** Ramp names as the pages state them. */
 export const WBGT_RAMP_NAME = rampName(COLOUR_KINDS.temperature);
 export const HOURS_RAMP_NAME = rampName(COLOUR_KINDS.hours);
+export const CHANGE_RAMP_NAME = rampName(COLOUR_KINDS.change);
 
-/** t in [0, 1] → colour of a colour kind (its direction applied). */
+/** t in [0, 1] → `#rrggbb` of a colour kind (its direction applied). */
 export function kindInterpolator(kind: ColourKind): (t: number) => string {
   const f = rampInterpolator(kind.ramp);
-  return kind.reverse ? (t) => f(1 - t) : f;
+  return (t) => toHex(parseCssColour(f(kind.reverse ? 1 - t : t)));
 }
 
 /** Colour for a missing value. */
@@ -33,6 +34,16 @@ export function wbgtColourScale(domain: [number, number]): ScaleSequential<strin
 /** Sequential hours colour scale over `domain` [h], clamped: the hours ramp, light for few hours, dark for many. */
 export function hoursColourScale(domain: [number, number]): ScaleSequential<string> {
   return scaleSequential(kindInterpolator(COLOUR_KINDS.hours)).domain(domain).clamp(true);
+}
+
+/**
+ * Colour of a change `v` on the diverging change ramp, symmetric about no change over
+ * [−`largest`, +`largest`] [units of the change]: blue for less, white for none, red for more.
+ */
+export function changeColour(v: number, largest: number): string {
+  if (!Number.isFinite(v)) return NO_DATA_COLOUR;
+  const m = largest > 0 ? largest : 1;
+  return kindInterpolator(COLOUR_KINDS.change)(Math.min(1, Math.max(0, 0.5 + v / (2 * m))));
 }
 
 /** A colour of a scale, or {@link NO_DATA_COLOUR} for a value that is not finite. */
