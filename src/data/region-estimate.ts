@@ -13,11 +13,19 @@ import { regionTileHistograms } from '../lib/estimate/tiles.ts';
 import { estimateDifference, type EstimateDifference } from '../lib/report/estimate-difference.ts';
 import type { RegionFigures } from '../lib/report/region-figures.ts';
 
-let cached: { dir: string; ctx: ReturnType<typeof loadEstimateContext> } | undefined;
+let cached: { dir: string; ctx: ReturnType<typeof loadEstimateContext>; byRegion: Map<string, EstimateDifference | null> } | undefined;
 
+/** The comparison for one region, computed once per build (the report and its summary both show it). */
 export function loadEstimateDifference(regionId: string, figures: RegionFigures, dataDir: string = siteDataDir()): EstimateDifference | null {
-  if (cached?.dir !== dataDir) cached = { dir: dataDir, ctx: loadEstimateContext(dataDir) };
-  const loaded = cached.ctx;
+  if (cached?.dir !== dataDir) cached = { dir: dataDir, ctx: loadEstimateContext(dataDir), byRegion: new Map() };
+  const known = cached.byRegion.get(regionId);
+  if (known !== undefined) return known;
+  const result = computeDifference(regionId, figures, dataDir, cached.ctx);
+  cached.byRegion.set(regionId, result);
+  return result;
+}
+
+function computeDifference(regionId: string, figures: RegionFigures, dataDir: string, loaded: ReturnType<typeof loadEstimateContext>): EstimateDifference | null {
   if (!loaded) return null;
   const entry = loaded.ctx.regions.find((r) => r.id === regionId);
   if (!entry) return null;

@@ -14,9 +14,10 @@ import { CELL_TABLE_COLUMNS, DATA_DICTIONARY_COLUMNS, DATA_DICTIONARY_PATH, data
 import { REGION_TABLE_COLUMNS } from '../../pipeline/publish/region-table.ts';
 
 let dataDir = '';
+let warningsPath = '';
 
 beforeAll(async () => {
-  dataDir = (await buildPipelineData()).dataDir;
+  ({ dataDir, warningsPath } = await buildPipelineData());
 }, 600_000);
 
 /** Rows of CSV files as Python's csv.DictReader reads them, with the header of each. */
@@ -77,6 +78,12 @@ describe('the data dictionary beside the tables', () => {
     expect(p90.label).toBe('P90 of 2 years (near the highest)');
     expect(p90.description).toContain('it is not a 1-in-10 year');
     expect(p90.description).not.toContain('exceeded in about 1 year in 10');
+  });
+
+  it("the build warned about the test atlas's 2-year baseline, once, naming it and the rule", () => {
+    const lines = readFileSync(warningsPath, 'utf8').split('\n').filter((l) => /baseline/.test(l));
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/the baseline 2021–2022 has 2 years, fewer than the 10 a 90th-percentile \(P90\) year needs/);
   });
 
   it('a label with a comma or a quote is quoted, so a spreadsheet keeps it in one cell (RFC 4180, read back by Python)', () => {

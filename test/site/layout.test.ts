@@ -85,7 +85,7 @@ describe('no page scrolls sideways', () => {
     const groups = await page.$$eval('details.file-group', (ds) => ds.map((d) => ({ id: d.getAttribute('data-file-group'), open: (d as HTMLDetailsElement).open, rows: d.querySelectorAll('tbody tr').length })));
     expect(groups.map((g) => g.id)).toEqual(['site', 'region-summaries', 'region-tiles', 'cell-tiles', 'cell-figures']);
     expect(groups.filter((g) => g.open).map((g) => g.id)).toEqual(['site']);
-    expect(groups.find((g) => g.id === 'cell-figures')!.rows).toBeGreaterThan(5);
+    for (const g of groups) expect(g.rows, g.id!).toBeGreaterThan(0);
     expect(await page.$$eval('details.layer-figure-combos', (ds) => ds.every((d) => !(d as HTMLDetailsElement).open))).toBe(true);
   });
 });

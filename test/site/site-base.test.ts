@@ -5,7 +5,7 @@
  * from a parent folder at http://127.0.0.1/sub/atlas/ in Chromium, its pages, map, calculator and
  * downloads load with no request that fails or leaves the base.
  */
-import { cpSync, existsSync, mkdirSync, readFileSync, readdirSync, statSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildTestSite, PROJECT_ROOT, startSiteSession, type SiteSession } from './browser.ts';
@@ -31,6 +31,8 @@ beforeAll(async () => {
   if (!existsSync(join(target, 'index.html'))) {
     mkdirSync(target, { recursive: true });
     cpSync(distDir, target, { recursive: true });
+    // The host's own page at its root (the preview server wants one); the atlas lives below.
+    writeFileSync(join(rootDir, 'index.html'), '<!doctype html><title>Host</title><p>The atlas is under /sub/atlas/.</p>\n');
   }
   session = await startSiteSession(rootDir, { width: 1200, height: 900 });
 }, 900_000);
