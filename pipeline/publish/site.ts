@@ -73,6 +73,10 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
     const previous = process.env[DATA_DIR_ENV];
     const previousBase = process.env[SITE_BASE_ENV];
+    // Vite lets a BASE_URL variable of the environment (vitest sets one, so may a CI) win over
+    // Astro's base in import.meta.env.BASE_URL: it is taken away for the build.
+    const previousBaseUrl = process.env.BASE_URL;
+    delete process.env.BASE_URL;
     process.env[DATA_DIR_ENV] = dataDir;
     process.env[SITE_BASE_ENV] = opts.base ?? '/';
     process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
@@ -99,6 +103,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
       else process.env[DATA_DIR_ENV] = previous;
       if (previousBase === undefined) delete process.env[SITE_BASE_ENV];
       else process.env[SITE_BASE_ENV] = previousBase;
+      if (previousBaseUrl !== undefined) process.env.BASE_URL = previousBaseUrl;
       await rm(cacheDir, { recursive: true, force: true });
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.
