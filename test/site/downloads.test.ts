@@ -123,7 +123,9 @@ describe('the downloads page', () => {
             expect(cell.text).toBe(`GeoTIFF ${formatBytes(size.get(layer.tif)!)} · PNG ${formatBytes(size.get(layer.png)!)}`);
           });
         }
-        expect(combo.statLabels).toEqual(combo.stats.map(statisticLabel));
+        // The P90 names the test atlas's 2 baseline years.
+        expect(combo.statLabels).toEqual(combo.stats.map((st) => statisticLabel(st, manifest.baseline[1] - manifest.baseline[0] + 1)));
+        if (combo.stats.includes('p90')) expect(combo.statLabels).toContain('P90 of 2 years (near the highest)');
       }
     }
     expect(cellsSeen).toBe(manifest.layers.length);
