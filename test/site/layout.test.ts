@@ -2,7 +2,9 @@
  * Pages that fit: every built page of the pipeline-made test atlas, in Chromium at 1366 px (a
  * laptop) and 390 px (a phone) wide, scrolls only up and down. Nothing sticks out past the
  * window's right edge unless it sits in a box that scrolls sideways itself (the wide tables'
- * `.table-scroll`), and such boxes really scroll (the region report's hour table at 390 px).
+ * `.table-scroll`), and such boxes really scroll (the region report's hour table at 390 px); at
+ * 1366 px no table even needs its box to scroll (the home ranking, the report's hour ranges and the
+ * inventory's file list were clipped there).
  * The downloads page folds its many files: far shorter than the 23,328 px it was.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -39,6 +41,11 @@ const PROBE = `(() => {
   return { documentWidth: document.documentElement.scrollWidth, windowWidth: vw, sticking: out.slice(0, 10) };
 })()`;
 
+/** Runs in the page: the visible sideways-scrolling boxes whose table is wider than the box. */
+const HIDDEN_COLUMNS = `[...document.querySelectorAll('.table-scroll')]
+  .filter((b) => b.offsetParent !== null && b.scrollWidth > b.clientWidth + 1)
+  .map((b) => (b.querySelector('table') && (b.querySelector('table').id || b.querySelector('table').className)) + ' ' + b.scrollWidth + ' > ' + b.clientWidth + ' px')`;
+
 const pagePath = (f: string) => `/${f.replace(/index\.html$/, '')}`;
 
 describe('no page scrolls sideways', () => {
@@ -55,6 +62,11 @@ describe('no page scrolls sideways', () => {
         if (path === '/estimate/') await page.waitForTimeout(500);
         const r = (await page.evaluate(PROBE)) as { documentWidth: number; windowWidth: number; sticking: string[] };
         if (r.documentWidth > r.windowWidth || r.sticking.length > 0) problems.push(`${path}: ${r.documentWidth} px wide in a ${r.windowWidth} px window; ${r.sticking.join(', ')}`);
+        if (width === 1366) {
+          // On a laptop no table hides columns (or its caption) behind its own scroll bar.
+          const hidden = (await page.evaluate(HIDDEN_COLUMNS)) as string[];
+          if (hidden.length > 0) problems.push(`${path}: tables wider than their box: ${hidden.join(', ')}`);
+        }
         if (width === 390 && (path === '/' || path.startsWith('/regions/sollent-coast/'))) await screenshot(page, `layout-390${path.replace(/\//g, '-').replace(/-$/, '')}`);
         await page.close();
       }
