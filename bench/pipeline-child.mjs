@@ -1,16 +1,14 @@
 // Child process of the pipeline benches (bench/pipeline.bench.ts, bench/rebuild.bench.ts): one
 // `heathours build --data-only` in this process, then one JSON line with the build report, this
-// process's peak RSS (all threads) and a checksum of the published region tables. Loaded like
-// bin/heathours.mjs (h5wasm first, then tsx).
+// process's peak RSS (all threads) and a checksum of the published region tables. Runs the TypeScript
+// sources through pipeline/infra/ts-boot.mjs (h5wasm first, then tsx).
 // Usage: node bench/pipeline-child.mjs CONFIG OUT JOBS [OPTIONS_JSON]; OPTIONS_JSON is merged
 // into the buildAtlas options (default {"cache": false}: compute every shard).
-import '../pipeline/model/preload-native.mjs';
-import { register } from 'tsx/esm/api';
+import '../pipeline/infra/ts-boot.mjs';
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 
-register();
 const [config, out, jobs, options] = process.argv.slice(2);
 const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
 const extra = options ? JSON.parse(options) : { cache: false };

@@ -1,15 +1,13 @@
-// Child process of bench/regions-1000.bench.ts. Loaded like bin/heathours.mjs (h5wasm first, then tsx).
+// Child process of bench/regions-1000.bench.ts. Runs the TypeScript sources through pipeline/infra/ts-boot.mjs.
 //   node bench/regions-1000-child.mjs pipeline CONFIG OUT JOBS  → `heathours build --data-only`, with the
 //       time of each logged stage
 //   node bench/regions-1000-child.mjs site DATA_DIR DIST        → the Astro site from that data folder
 // Prints one JSON line: wall and CPU seconds (all threads), and details.
-import '../pipeline/model/preload-native.mjs';
-import { register } from 'tsx/esm/api';
+import '../pipeline/infra/ts-boot.mjs';
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
-register();
 const [mode, a, b, jobs] = process.argv.slice(2);
 const t0 = performance.now();
 /** CPU time of this process, all threads (getrusage) [s]. */

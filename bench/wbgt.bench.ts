@@ -11,8 +11,9 @@
  */
 import type { Bench, BenchFigure } from './types.ts';
 import { computeHours, type PhysicsArrays } from '../pipeline/physics/block.ts';
-import { sharedFloat32, sharedUint8, startPhysicsPool, type PoolRun } from '../pipeline/physics/parallel.ts';
-import { threadCpuNs } from '../pipeline/physics/thread-cpu.ts';
+import { startPhysicsPool, type PoolRun } from '../pipeline/run/physics-pool.ts';
+import { sharedFloat32, sharedUint8 } from '../pipeline/infra/shared-memory.ts';
+import { threadCpuNs } from '../pipeline/infra/thread-cpu.ts';
 import { cosZenithInstant } from '../pipeline/physics/solar-position.ts';
 
 const NT = 100;

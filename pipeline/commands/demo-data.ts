@@ -4,7 +4,7 @@
  */
 import type { Command } from 'commander';
 import { statSync } from 'node:fs';
-import { DEFAULT_SEED, writeDemoDataset, type DemoLayout, DEMO_LAYOUTS } from '../demo/index.ts';
+import { DEFAULT_SEED, type DemoGridChoice, type DemoLayout, DEMO_LAYOUTS } from '../demo/choices.ts';
 import { UsageError } from '../model/errors.ts';
 import { DemoGridInvalid, DemoLayoutUnknown, DemoSeedInvalid, DemoYearsInvalid } from '../demo/errors.ts';
 
@@ -27,8 +27,11 @@ function parseLayout(text: string): DemoLayout {
   return text as DemoLayout;
 }
 
-function parseGrid(text: string): 'small' | 'default' {
-  if (text === 'small' || text === 'default') return text;
+/** `default`, `small`, `country`, or a size `NLATxNLON@RESOLUTION` (e.g. `300x300@0.1`). */
+export function parseGrid(text: string): DemoGridChoice {
+  if (text === 'small' || text === 'default' || text === 'country') return text;
+  const m = /^(\d{1,4})x(\d{1,4})@(\d+(?:\.\d+)?)$/.exec(text.trim());
+  if (m) return { nLat: Number(m[1]), nLon: Number(m[2]), resolution: Number(m[3]) };
   throw DemoGridInvalid({ grid: text }, { key: '--grid' });
 }
 
@@ -49,7 +52,7 @@ export function register(program: Command): void {
     .requiredOption('--out <dir>', 'output folder (created if missing)')
     .option('--years <years>', 'years to write: a range 2020-2024, one year 2025, or a list 2020,2022', '2020-2024')
     .option('--layout <layout>', 'legacy (NetCDF-3, packed int16) | netcdf4 (NetCDF-4, float32) | mixed (legacy to 2022, NetCDF-4 after)', 'mixed')
-    .option('--grid <grid>', 'default (32 × 34 cells at 0.25°) | small (8 × 10 cells at 1°)', 'default')
+    .option('--grid <grid>', 'default (32 × 34 cells at 0.25°) | small (8 × 10 cells at 1°) | country (160 × 160 cells at 0.1°, for scale runs without a land-sea mask) | NLATxNLON@RES, e.g. 300x300@0.1', 'default')
     .option('--seed <n>', 'random seed; the same seed gives the same bytes', String(DEFAULT_SEED))
     .option('--jobs <n>', 'years written at once, each in a worker thread (default: number of cores)')
     .option('--quiet', 'no progress output')
@@ -60,6 +63,7 @@ export function register(program: Command): void {
       const grid = parseGrid(opts.grid);
       const seed = parseSeed(opts.seed);
       const jobs = opts.jobs === undefined ? undefined : parseJobs(opts.jobs);
+      const { writeDemoDataset } = await import('../demo/index.ts');
       const { files, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet, jobs });
       for (const f of files) process.stdout.write(`wrote ${f} (${(statSync(f).size / 1e6).toFixed(1)} MB)\n`);
       for (const f of unchanged) process.stdout.write(`unchanged ${f}\n`);

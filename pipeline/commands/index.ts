@@ -6,5 +6,6 @@ import { register as demoData } from './demo-data.ts';
 import { register as preview } from './preview.ts';
 import { register as inspect } from './inspect.ts';
 import { register as point } from './point.ts';
+import { register as estimate } from './estimate.ts';
 
-export const commands: Array<(program: Command) => void> = [errors, build, demoData, preview, inspect, point];
+export const commands: Array<(program: Command) => void> = [errors, build, demoData, preview, inspect, point, estimate];

@@ -1,6 +1,6 @@
 /** `heathours inspect FILE... [--json]`: what is in NetCDF files, decoded (pipeline/read/inspect.ts). */
 import type { Command } from 'commander';
-import { inspectFile, type FileInspection } from '../read/index.ts';
+import type { FileInspection } from '../read/index.ts';
 import { startProgress } from '../model/progress.ts';
 
 function fmt(x: number | null): string {
@@ -39,7 +39,8 @@ export function register(program: Command): void {
     .argument('<files...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4)')
     .option('--json', 'one JSON object per file')
     .action(async (files: string[], opts: { json?: boolean }) => {
-      const progress = startProgress('inspect', files.length, { quiet: files.length < 3 || opts.json === true });
+      const { inspectFile } = await import('../read/index.ts');
+      const progress = startProgress('inspect', files.length, { quiet: files.length < 3 || opts.json === true, unit: 'files' });
       for (const f of files) {
         const r = await inspectFile(f);
         process.stdout.write(opts.json ? `${JSON.stringify(r)}\n` : `${formatInspection(r)}\n`);

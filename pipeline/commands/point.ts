@@ -1,6 +1,7 @@
 /**
- * `heathours point --in IN.csv --out OUT.csv [--classes FILE] [--unacclimatized] [--cav X]`:
- * hourly WBGT and work figures for tabular weather data (DESIGN.md §4 "point CSV columns").
+ * `heathours point --in IN.csv --out OUT.csv [--classes FILE] [--unacclimatized] [--cav X] [--globe-diameter M]`:
+ * hourly WBGT (sun, open-sky shade, shelter) and work figures for tabular weather data
+ * (input and output columns: {@link POINT_HELP}, pipeline/physics/README.md).
  * Streams the input; rows with out-of-range inputs or failed solves get empty outputs and a
  * `status` naming the reason; the output appears atomically.
  *
@@ -23,16 +24,44 @@ import { readCsvRecords, csvField } from '../physics/csv.ts';
 import { PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid } from '../physics/errors.ts';
 import { computePoint, type PointInput } from '../physics/point-row.ts';
 import { statusName } from '../physics/status.ts';
+import { globeFactors, GLOBE_DIAMETER_RANGE } from '../physics/liljegren-solve.ts';
+import { D_GLOBE_STANDARD } from '../physics/constants.ts';
 import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
+import { packagePath } from '../model/package-root.ts';
 import { parse as parseYaml, YAMLParseError } from 'yaml';
 import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type WorkKernel, type WorkloadClasses } from '../work/index.ts';
 
 const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
-const PHYSICS_OUTPUT = ['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c'] as const;
+const PHYSICS_OUTPUT = [
+  'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
+  'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
+] as const;
+
+/** The columns `point` reads and writes, as `heathours point --help` prints them after the options. */
+export const POINT_HELP = `
+Input columns (header names; order is free; one row per hour):
+  required  time_utc       end of the averaging period, ISO 8601 (e.g. 2024-07-15T12:00:00Z)
+            lat, lon       position [degrees north, degrees east]
+            ta_c           air temperature [°C]
+            rh_pct | td_c  relative humidity [%] or dew point [°C] (rh_pct is used when both are given)
+            pressure_hpa   surface pressure [hPa]
+            wind_ms        wind speed at wind_height_m [m/s]
+            solar_wm2      global horizontal solar irradiance, mean over the period [W/m²]
+  optional  avg_minutes    length of the averaging period [min] (default 60)
+            wind_height_m  height of the wind measurement [m] (default 10; 2 = used as is)
+            urban          1 for the urban wind-profile exponents, 0 rural (default 0)
+            dt_c           vertical temperature difference for night stability [°C] (default 0)
+            direct_fraction  direct-beam share of the solar [0-1] (default: estimated)
+            cos_zenith     cosine of the solar zenith (default: computed for the period's middle)
+
+Output: the input columns, then cos_zenith, direct_fraction, wind_2m_ms; in the sun tg_c, tnwb_c,
+tpsy_c, wbgt_c; in the open-sky shade (the sun removed) tg_shade_c, tnwb_shade_c, wbgt_shade_c;
+under a shelter at air temperature (roof, canopy) tg_shelter_c, tnwb_shelter_c, wbgt_shelter_c
+[°C]; per workload class limit_<class>_c and work_fraction_<class>; status (ok, or why a row has
+no values). Screening values for fit, hydrated workers; a competent person decides work/rest.`;
 
 /** The shipped workload classes (content/workload-classes.yaml), the default of `--classes`. */
-export const DEFAULT_CLASSES_FILE = fileURLToPath(new URL('../../content/workload-classes.yaml', import.meta.url));
+export const DEFAULT_CLASSES_FILE = packagePath('content', 'workload-classes.yaml');
 
 /** Options of the work columns. */
 export interface PointWorkOptions {
@@ -42,6 +71,8 @@ export interface PointWorkOptions {
   unacclimatized?: boolean;
   /** Clothing adjustment value [°C-WBGT], default 0. */
   cav?: number;
+  /** Globe diameter [m], default 0.15 (the standard globe, as the atlas: physics.globeDiameter). */
+  globeDiameter?: number;
 }
 
 /**
@@ -98,16 +129,32 @@ function num(v: string | undefined, dflt: number): number {
   return Number(v);
 }
 
-/** Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file. */
+/** `-` for `--in` / `--out`: standard input / output. */
+export const STANDARD_STREAM = '-';
+
+/**
+ * Runs the point computation from `inPath` to `outPath`; throws catalogued errors for a bad file.
+ * `-` reads standard input or writes standard output (streamed as rows are computed, so not
+ * atomic: a failure leaves the rows written so far).
+ */
 export async function runPoint(inPath: string, outPath: string, opts: { quiet?: boolean } & PointWorkOptions = {}): Promise<PointSummary> {
-  if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const fromStdin = inPath === STANDARD_STREAM;
+  if (fromStdin) process.stdin.setEncoding('utf8');
+  else if (!existsSync(inPath)) throw PointInputNotFound({ path: inPath });
+  const d = opts.globeDiameter ?? D_GLOBE_STANDARD;
+  if (!(d >= GLOBE_DIAMETER_RANGE[0] && d <= GLOBE_DIAMETER_RANGE[1])) {
+    throw PointOptionInvalid({ option: '--globe-diameter', value: String(opts.globeDiameter), expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}` });
+  }
+  const globe = globeFactors(d);
   const work = prepareClassKernels(opts);
   const OUTPUT: string[] = [...PHYSICS_OUTPUT, ...work.flatMap((w) => w.columns), 'status'];
-  const size = statSync(inPath).size;
-  const progress = startProgress('point', size, opts);
-  await mkdir(dirname(outPath), { recursive: true });
-  const tmp = temporarySibling(outPath);
-  const out = createWriteStream(tmp, { encoding: 'utf8' });
+  const inName = fromStdin ? 'standard input' : inPath;
+  const size = fromStdin ? 0 : statSync(inPath).size;
+  const progress = startProgress('point', size, { quiet: opts.quiet, unit: 'MB read', scale: 1e6 });
+  const toStdout = outPath === STANDARD_STREAM;
+  if (!toStdout) await mkdir(dirname(outPath), { recursive: true });
+  const tmp = toStdout ? '' : temporarySibling(outPath);
+  const out: NodeJS.WritableStream = toStdout ? process.stdout : createWriteStream(tmp, { encoding: 'utf8' });
   const summary: PointSummary = { rows: 0, ok: 0, byStatus: {}, dewPointClamped: 0 };
   const write = async (s: string) => {
     if (!out.write(s)) await once(out, 'drain');
@@ -116,13 +163,13 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
     let header: string[] | undefined;
     let col: Record<string, number> = {};
     let bytes = 0;
-    for await (const [line, fields] of readCsvRecords(inPath)) {
+    for await (const [line, fields] of readCsvRecords(inName, fromStdin ? process.stdin : undefined)) {
       bytes += fields.reduce((a, f) => a + f.length + 1, 0);
       if (!header) {
         header = fields.map((h) => h.trim());
         col = Object.fromEntries(header.map((h, i) => [h, i]));
-        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inPath, row: line });
-        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inPath, row: line });
+        for (const c of REQUIRED) if (!(c in col)) throw PointMissingColumn({ column: c, present: header }, { file: inName, row: line });
+        if (!('rh_pct' in col) && !('td_c' in col)) throw PointMissingColumn({ column: 'rh_pct or td_c', present: header }, { file: inName, row: line });
         const extra = OUTPUT.filter((c) => !(c in col));
         await write(`${[...header, ...extra].map(csvField).join(',')}\r\n`);
         col.__extra = extra.length;
@@ -138,7 +185,7 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
         dt: num(get('dt_c'), 0), solar: num(get('solar_wm2'), NaN),
         directFraction: num(get('direct_fraction'), NaN), cosZenith: num(get('cos_zenith'), NaN),
       };
-      const r = computePoint(input);
+      const r = computePoint(input, globe);
       summary.rows++;
       const name = statusName(r.status);
       summary.byStatus[name] = (summary.byStatus[name] ?? 0) + 1;
@@ -148,7 +195,9 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       const f = (v: number, d: number) => (ok && Number.isFinite(v) ? v.toFixed(d) : '');
       const values: Record<string, string> = {
         cos_zenith: f(r.cosZenith, 6), direct_fraction: f(r.directFraction, 6), wind_2m_ms: f(r.wind2m, 4),
-        tg_c: f(r.tg, 4), tnwb_c: f(r.tnwb, 4), tpsy_c: f(r.tpsy, 4), wbgt_c: f(r.wbgt, 4), wbgt_shade_c: f(r.wbgtShade, 4),
+        tg_c: f(r.tg, 4), tnwb_c: f(r.tnwb, 4), tpsy_c: f(r.tpsy, 4), wbgt_c: f(r.wbgt, 4),
+        tg_shade_c: f(r.tgShade, 4), tnwb_shade_c: f(r.tnwbShade, 4), wbgt_shade_c: f(r.wbgtShade, 4),
+        tg_shelter_c: f(r.tgShelter, 4), tnwb_shelter_c: f(r.tnwbShelter, 4), wbgt_shelter_c: f(r.wbgtShelter, 4),
         status: name,
       };
       // Work columns: the limit as a measured WBGT, L(M_w) − CAV, and the allowable work fraction
@@ -163,15 +212,19 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       progress.tick(bytes);
       bytes = 0;
     }
-    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inPath, row: 1 });
-    out.end();
-    await once(out, 'finish');
-    await rename(tmp, outPath);
+    if (!header) throw PointMissingColumn({ column: 'time_utc', present: [] }, { file: inName, row: 1 });
+    if (!toStdout) {
+      out.end();
+      await once(out, 'finish');
+      await rename(tmp, outPath);
+    }
     progress.done();
     return summary;
   } catch (e) {
-    out.destroy();
-    await rm(tmp, { force: true });
+    if (!toStdout) {
+      (out as ReturnType<typeof createWriteStream>).destroy();
+      await rm(tmp, { force: true });
+    }
     throw e;
   }
 }
@@ -179,19 +232,25 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
 export function register(program: Command): void {
   program
     .command('point')
-    .description('hourly WBGT (sun and shade, Liljegren method) for tabular weather data: one row per hour')
-    .requiredOption('--in <file>', 'input CSV (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
-    .requiredOption('--out <file>', 'output CSV: the input columns plus the computed ones and a status')
+    .description('hourly WBGT (sun, open-sky shade and shelter; Liljegren method) and work limits for tabular weather data: one row per hour')
+    .requiredOption('--in <file>', 'input CSV, - for standard input (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
+    .requiredOption('--out <file>', 'output CSV, - for standard output: the input columns plus the computed ones and a status')
     .option('--classes <file>', 'workload classes (YAML like content/workload-classes.yaml); default: the shipped classes')
     .option('--unacclimatized', 'use the limit curve for unacclimatized workers (default: acclimatized)')
     .option('--cav <value>', 'clothing adjustment value added to the WBGT [°C-WBGT], default 0')
+    .option('--globe-diameter <m>', 'diameter of the black globe [m]: 0.15 the standard globe (default), 0.0508 the 2-inch globe of the reference implementation')
     .option('--quiet', 'no progress output')
-    .action(async (opts: { in: string; out: string; quiet?: boolean; classes?: string; unacclimatized?: boolean; cav?: string }) => {
+    .addHelpText('after', POINT_HELP)
+    .action(async (opts: { in: string; out: string; quiet?: boolean; classes?: string; unacclimatized?: boolean; cav?: string; globeDiameter?: string }) => {
       const cav = opts.cav === undefined ? 0 : Number(opts.cav);
       if (opts.cav !== undefined && (opts.cav.trim() === '' || !Number.isFinite(cav))) {
         throw PointOptionInvalid({ option: '--cav', value: opts.cav, expected: 'a number of °C-WBGT from 0 to 20' });
       }
-      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav });
+      const globeDiameter = opts.globeDiameter === undefined ? undefined : Number(opts.globeDiameter);
+      if (opts.globeDiameter !== undefined && (opts.globeDiameter.trim() === '' || !Number.isFinite(globeDiameter))) {
+        throw PointOptionInvalid({ option: '--globe-diameter', value: opts.globeDiameter, expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}` });
+      }
+      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav, globeDiameter });
       const rest = Object.entries(s.byStatus).filter(([k]) => k !== 'ok').map(([k, v]) => `${k} ${v}`).join(', ');
       process.stderr.write(`point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`);
     });

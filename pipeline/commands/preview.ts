@@ -36,8 +36,11 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.ico': 'image/x-icon',
   '.tif': 'image/tiff',
   '.tiff': 'image/tiff',
+  // Not an IANA registration: the type the netCDF documentation gives for NetCDF files (common practice).
+  '.nc': 'application/x-netcdf',
   '.wasm': 'application/wasm',
   '.bin': 'application/octet-stream',
+  '.xlsx': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
   '.woff2': 'font/woff2',
   '.pbf': 'application/x-protobuf',
   '.map': 'application/json; charset=utf-8',

@@ -4,7 +4,22 @@
  */
 import { z } from 'zod';
 import { workSettingsSchema } from '../work/work-settings.ts';
-import { DEFAULT_MONTHS_PER_PIECE, MONTHS_PER_PIECE, TARGET_CELLS_PER_TILE } from '../run/plan.ts';
+import { physicsSettingsSchema } from '../physics/settings.ts';
+
+/** Allowed `shards.monthsPerPiece`: the divisors of 12, so groups never straddle a year. */
+export const MONTHS_PER_PIECE = [1, 2, 3, 4, 6, 12] as const;
+/**
+ * Local months per piece of a year: a quarter. Pieces of one tile and year read disjoint hours,
+ * so a year of a NetCDF-4 file (whose chunks usually span the whole grid) is inflated once, and
+ * the pieces are small enough to keep every core busy to the end.
+ */
+export const DEFAULT_MONTHS_PER_PIECE = 3;
+/**
+ * Land cells aimed at per shard tile: enough to amortise a block read, small enough that a tile's
+ * partials stay small; the demo's 655 land cells are one tile. Cores are balanced by cutting years
+ * into pieces, not by small tiles, and reads are shared by the tiles of a compute group.
+ */
+export const TARGET_CELLS_PER_TILE = 1024;
 
 const year = z.number().int().min(1940).max(2100);
 const yearRange = z
@@ -59,6 +74,8 @@ export const atlasSchema = z
     output: z.string().default('../dist'),
     /** How the site is hosted: `base`, the URL path it is served under (default `/`). */
     site: z.object({ base: siteBaseSchema.default('/') }).strict().default({}),
+    /** Modelling choices of the physics: the globe diameter (pipeline/physics/settings.ts). */
+    physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
     work: workSettingsSchema,
     /**
@@ -66,11 +83,22 @@ export const atlasSchema = z
      * default `.heathours-cache` beside the output folder.
      */
     cache: z.string().min(1).optional(),
+    /**
+     * Memory the build may use, main thread and workers together, e.g. `4G` (binary units; default
+     * 3 G, for a machine of 4 GB). The build cuts its work to fit (pipeline/run/memory-plan.ts);
+     * `--memory` overrides it. Results do not depend on it.
+     */
+    memory: z.string().min(1).optional(),
     /** How the grid is cut into shards (pipeline/run/plan.ts). Results do not depend on it. */
     shards: z
       .object({
         /** Land cells aimed at per spatial tile [cells]. */
         cellsPerTile: z.number().int().min(1).max(1_000_000).default(TARGET_CELLS_PER_TILE),
+        /**
+         * Land cells aimed at per block of grid rows whose per-cell files (tables, calculator
+         * tiles) are published together, and the unit a distributed merge is sliced by [cells].
+         */
+        cellsPerBlock: z.number().int().min(1).max(1_000_000).default(TARGET_CELLS_PER_TILE),
         /** Local months per piece of a year [months]: a divisor of 12 (pipeline/run/plan.ts). */
         monthsPerPiece: z
           .number()

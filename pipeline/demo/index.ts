@@ -12,7 +12,7 @@
 import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
+import { runInWorkers } from '../infra/worker-pool.ts';
 import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from '../physics/solar-position.ts';
 import { startProgress } from '../model/progress.ts';
 import { makeCellClimate } from './cell-climate.ts';
@@ -21,15 +21,15 @@ import { writeLegacyLandSeaMask } from './legacy-layout.ts';
 import { h5wasmReady } from './netcdf4-writer.ts';
 import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask } from './netcdf4-layout.ts';
 import { runYearJob, type YearJob } from './year-job.ts';
-import { DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
+import { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
 import { yearHours } from './weather.ts';
 
-export type DemoLayout = 'legacy' | 'netcdf4' | 'mixed';
-export const DEMO_LAYOUTS: readonly DemoLayout[] = ['legacy', 'netcdf4', 'mixed'];
+import { DEFAULT_SEED, DEMO_LAYOUTS, type DemoGridChoice, type DemoLayout } from './choices.ts';
+export type { DemoGridChoice } from './choices.ts';
+
+export { DEFAULT_SEED, DEMO_LAYOUTS, type DemoLayout };
 /** In the mixed layout, years up to this one are legacy, later ones NetCDF-4 [year]. */
 export const MIXED_LAST_LEGACY_YEAR = 2022;
-/** Seed used when none is given [–]. */
-export const DEFAULT_SEED = 7;
 /** First and last year the demo can generate [year] (the solar-position formulas' range). */
 export const DEMO_FIRST_YEAR = SOLAR_FIRST_YEAR;
 export const DEMO_LAST_YEAR = SOLAR_LAST_YEAR;
@@ -47,9 +47,11 @@ export function layoutOfYear(layout: DemoLayout, year: number): 'legacy' | 'netc
   return layout;
 }
 
-function resolveGrid(grid: { nLat: number; nLon: number; resolution: number } | 'small' | 'default' | undefined): GridSpec {
+
+function resolveGrid(grid: DemoGridChoice | undefined): GridSpec {
   if (grid === undefined || grid === 'default') return DEFAULT_GRID;
   if (grid === 'small') return SMALL_GRID;
+  if (grid === 'country') return COUNTRY_GRID;
   if (typeof grid === 'object' && grid !== null) {
     const { nLat, nLon, resolution } = grid;
     if (Number.isInteger(nLat) && Number.isInteger(nLon) && nLat >= 1 && nLon >= 1 && nLat * nLon <= 1_000_000 && resolution > 0 && resolution <= 5)
@@ -79,7 +81,7 @@ export async function writeDemoDataset(opts: {
   outDir: string;
   years: number[];
   layout: 'legacy' | 'netcdf4' | 'mixed';
-  grid?: { nLat: number; nLon: number; resolution: number } | 'small' | 'default';
+  grid?: DemoGridChoice;
   seed?: number;
   quiet?: boolean;
   /** Years written at once, each in a worker thread [–]; default: the number of cores. 1 = in this thread. */
@@ -102,7 +104,9 @@ export async function writeDemoDataset(opts: {
   if (layout === 'netcdf4') await h5wasmReady();
 
   const total = years.reduce((s, y) => s + yearHours(y).nHours * (layoutOfYear(layout, y) === 'legacy' ? 2 : 1), 0);
-  const progress = startProgress('demo-data', total, { quiet: opts.quiet });
+  // Counted in hours of weather generated: a legacy year is generated twice (once for the
+  // packing ranges of its int16 variables, once to write them).
+  const progress = startProgress('demo-data', total, { quiet: opts.quiet, unit: 'hours generated' });
   const files: string[] = [];
   const unchanged: string[] = [];
   try {
@@ -133,7 +137,7 @@ export async function writeDemoDataset(opts: {
     const parallel = Math.max(1, Math.min(opts.jobs ?? availableParallelism(), jobs.length));
     const tick = (h: number) => progress.tick(h);
     if (parallel === 1) for (const job of jobs) await runYearJob(job, tick);
-    else await runInWorkers(jobs, parallel, tick);
+    else await runInParallel(jobs, parallel, tick);
     files.push(...jobs.map((j) => j.path));
   } finally {
     progress.done();
@@ -141,37 +145,20 @@ export async function writeDemoDataset(opts: {
   return { files, unchanged };
 }
 
-/** Runs year jobs in up to `parallel` worker threads, NetCDF-4 years (the slowest) first. */
-async function runInWorkers(jobs: YearJob[], parallel: number, tick: (h: number) => void): Promise<void> {
+/**
+ * Runs year jobs in up to `parallel` worker threads (pipeline/infra/worker-pool.ts), NetCDF-4
+ * years (the slowest) first. After a failure no new year starts, and the years being written
+ * finish (each file appears whole or not at all), then the first error is thrown.
+ */
+async function runInParallel(jobs: YearJob[], parallel: number, tick: (h: number) => void): Promise<void> {
   const queue = [...jobs].sort((a, b) => (a.layout === b.layout ? a.year - b.year : a.layout === 'netcdf4' ? -1 : 1));
-  const workerUrl = new URL('./year-worker-boot.mjs', import.meta.url);
-  let failure: Error | undefined;
-  const lane = async (): Promise<void> => {
-    for (let job = queue.shift(); job && !failure; job = queue.shift()) {
-      const current = job;
-      await new Promise<void>((resolve) => {
-        const w = new Worker(workerUrl, { workerData: current });
-        let settled = false;
-        const finish = (err?: Error) => {
-          if (settled) return;
-          settled = true;
-          if (err && !failure) failure = err;
-          void w.terminate();
-          resolve();
-        };
-        w.on('message', (m: { tick?: number; done?: boolean; error?: string }) => {
-          if (m.tick) tick(m.tick);
-          else if (m.done) finish();
-          else if (m.error) finish(new Error(`demo year ${current.year}: ${m.error}`));
-        });
-        w.on('error', (e) => finish(e));
-        w.on('exit', (code) => finish(code === 0 ? undefined : new Error(`demo year ${current.year}: worker exited with ${code}`)));
-      });
-    }
-  };
-  await Promise.all(Array.from({ length: parallel }, lane));
-  if (failure) throw failure;
+  await runInWorkers<YearJob, void>('demo-year', queue, {
+    size: parallel,
+    describe: (job) => `demo year ${job.year}`,
+    onProgress: (_job, hours) => tick(hours),
+    onFailure: 'drain',
+  });
 }
 
-export { DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';
+export { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid } from './territory.ts';
 export type { GridSpec } from './territory.ts';

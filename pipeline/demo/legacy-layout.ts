@@ -14,7 +14,7 @@
  */
 import type { CellClimate } from './cell-climate.ts';
 import { ERA5_VARIABLES, inventedLabels } from './era5-variables.ts';
-import { Netcdf3Writer, type Nc3Attr, type Nc3Var } from './netcdf3-writer.ts';
+import { Netcdf3Writer, type Nc3Attr, type Nc3Var } from '../formats/netcdf3-writer.ts';
 import { DEMO_VARIABLES, YearWeather, type DemoVariable } from './weather.ts';
 
 /** Fill value of packed legacy variables [–]. */

@@ -112,6 +112,13 @@ export interface GridSpec {
 export const DEFAULT_GRID: GridSpec = { nLat: 32, nLon: 34, resolution: 0.25 };
 /** A small grid for tests: 8 × 10 cells at 1°, the whole island with a ring of sea. */
 export const SMALL_GRID: GridSpec = { nLat: 8, nLon: 10, resolution: 1 };
+/**
+ * A country-size grid for scale tests and benchmarks: 160 × 160 cells at 0.1° (ERA5-Land's
+ * spacing), 16° × 16° centred on the island (about 3,600 cells of island, the rest open ocean with
+ * its own invented marine weather). Built without a land-sea mask, every one of its 25,600 cells
+ * is computed, as a country of that many land cells would be.
+ */
+export const COUNTRY_GRID: GridSpec = { nLat: 160, nLon: 160, resolution: 0.1 };
 
 /** Cell-centre coordinates of a grid, ERA5 legacy order: latitude descending, longitude 0..360. */
 export interface DemoGrid extends GridSpec {

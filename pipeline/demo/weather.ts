@@ -24,7 +24,7 @@
  *   raised toward 1 with cloud (invented).
  */
 import { hourAngle, integrateCosines, sunState } from '../physics/solar-position.ts';
-import { SOLAR_CONSTANT } from '../physics/constants.ts';
+import { BUCK_1981, SOLAR_CONSTANT } from '../physics/constants.ts';
 import { beamTransmittance, cloudGlobalFactor } from './clear-sky.ts';
 import type { CellClimate } from './cell-climate.ts';
 import { LAPSE_RATE } from './cell-climate.ts';
@@ -50,8 +50,8 @@ const GRAVITY = 9.80665;
 /** Half the hour angle swept in one hour [rad] and sin(half)/half [–]. */
 const HALF_HOUR_ANGLE = Math.PI / 24;
 const SINC_HALF = Math.sin(HALF_HOUR_ANGLE) / HALF_HOUR_ANGLE;
-/** ln of the Buck (1981) prefactor 6.1121 hPa (METHODS.md §1.1). */
-const LN_BUCK_A = Math.log(6.1121);
+/** ln of the Buck (1981) prefactor [ln hPa] (pipeline/physics/constants.ts BUCK_1981). */
+const LN_BUCK_A = Math.log(BUCK_1981.a);
 
 /** Daily AR(1) streams: persistence per day [–] and days of spin-up before the year [d]. */
 const DAILY_PHI = 0.75;
@@ -344,7 +344,7 @@ export class YearWeather {
 
         // Downward thermal radiation over the hour [J m⁻²]; ln e from the Buck (1981) exponent.
         const tk = ta + 273.15;
-        const lnE = LN_BUCK_A + (17.502 * td) / (td + 240.97);
+        const lnE = LN_BUCK_A + (BUCK_1981.b * td) / (td + BUCK_1981.c);
         const eps0 = 1.24 * Math.exp((lnE - Math.log(tk)) / 7);
         const epsC = eps0 + (1 - eps0) * 0.85 * cloud;
         const eps = epsC < 1 ? epsC : 1;

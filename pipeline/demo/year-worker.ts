@@ -1,15 +1,11 @@
 /**
- * Worker thread that writes one demo year ({@link runYearJob}). Started by ./index.ts through
- * ./year-worker-boot.mjs, which registers the TypeScript loader in the worker thread. Messages to the parent:
- * `{ tick: hours }` while working, then `{ done: true }` or `{ error: message }`.
+ * Worker thread that writes demo years ({@link runYearJob}), the entry `demo-year` of the pool
+ * (pipeline/infra/worker-pool.ts) started by ./index.ts: one year per task, reporting the hours
+ * written as progress.
  */
-import { parentPort, workerData } from 'node:worker_threads';
+import { serveTasks } from '../infra/worker-side.ts';
 import { runYearJob, type YearJob } from './year-job.ts';
 
-const job = workerData as YearJob;
-try {
-  await runYearJob(job, (hours) => parentPort!.postMessage({ tick: hours }));
-  parentPort!.postMessage({ done: true });
-} catch (e) {
-  parentPort!.postMessage({ error: (e as Error)?.stack ?? String(e) });
-}
+serveTasks<never, YearJob, void>({
+  run: (job, progress) => runYearJob(job, progress),
+});

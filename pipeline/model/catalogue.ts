@@ -8,7 +8,7 @@ import '../work/errors.ts';
 import '../read/errors.ts';
 import '../climate/errors.ts';
 import '../../src/data/errors.ts';
-import '../../src/lib/estimate/errors.ts';
+import '../schedule/errors.ts';
 import '../regions/errors.ts';
 import '../reduce/errors.ts';
 import '../physics/errors.ts';

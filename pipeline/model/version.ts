@@ -1,6 +1,7 @@
 /** The code version recorded in manifests and cache keys: package version. */
 import { readFileSync } from 'node:fs';
+import { packagePath } from './package-root.ts';
 
-const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
+const pkg = JSON.parse(readFileSync(packagePath('package.json'), 'utf8')) as { version: string };
 
 export const CODE_VERSION: string = pkg.version;

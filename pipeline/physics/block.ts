@@ -8,7 +8,8 @@
 import type { HourlyBlock } from '../model/fields.ts';
 import { geometryBlock, type CosineConvention } from './geometry.ts';
 import { wind2mStep } from './wind.ts';
-import { wbgtKernel, type KernelCounts } from './kernel.ts';
+import { wbgtKernel, REFERENCE_GLOBE, type KernelCounts } from './kernel.ts';
+import { globeFactors } from './liljegren-solve.ts';
 
 type Num = Float32Array | Float64Array;
 
@@ -43,6 +44,10 @@ export interface PhysicsArrays {
   wetBulbSun?: Num;
   globeShade?: Num;
   wetBulbShade?: Num;
+  /** WBGT, globe and natural wet bulb under a shelter at the air temperature [°C] (optional; computed when `wbgtShelter` is given). */
+  wbgtShelter?: Num;
+  globeShelter?: Num;
+  wetBulbShelter?: Num;
   /** Status per cell-hour (pipeline/physics/status.ts); must start zeroed. */
   status: Uint8Array;
 }
@@ -54,6 +59,8 @@ export interface PhysicsOptions {
   convention?: CosineConvention;
   /** Height of the wind [m], default 10. */
   windHeight?: number;
+  /** Globe diameter [m] (`physics.globeDiameter`); default the reference implementation's 2 in. */
+  globeDiameter?: number;
 }
 
 /** Counts of one physics run. */
@@ -93,9 +100,13 @@ export function computeHours(a: PhysicsArrays, t0: number, t1: number, opts: Phy
       wbgtSun: sub(a.wbgtSun, i0, i1), wbgtShade: sub(a.wbgtShade, i0, i1),
       globeSun: a.globeSun && sub(a.globeSun, i0, i1), wetBulbSun: a.wetBulbSun && sub(a.wetBulbSun, i0, i1),
       globeShade: a.globeShade && sub(a.globeShade, i0, i1), wetBulbShade: a.wetBulbShade && sub(a.wetBulbShade, i0, i1),
+      wbgtShelter: a.wbgtShelter && sub(a.wbgtShelter, i0, i1), globeShelter: a.globeShelter && sub(a.globeShelter, i0, i1),
+      wetBulbShelter: a.wetBulbShelter && sub(a.wetBulbShelter, i0, i1),
       status,
     },
     i1 - i0,
+    0,
+    opts.globeDiameter === undefined ? REFERENCE_GLOBE : globeFactors(opts.globeDiameter),
   );
   return { ...k, timeOutOfRange: g.timeOutOfRange };
 }

@@ -16,6 +16,7 @@ export const PHYSICS_SOURCES = {
   bom: 'Australian Bureau of Meteorology simplified WBGT (METHODS.md §3.4)',
   bernard1999: 'Bernard & Pourmoghani 1999; Lemke & Kjellstrom 2012 (METHODS.md §3.3)',
   stull2011: 'Stull 2011, J. Appl. Meteor. Climatol. 50:2267–2269 (METHODS.md §2.1)',
+  lemke2012: 'Lemke & Kjellstrom 2012, Industrial Health 50:267–278 (indoor WBGT, globe at air temperature)',
 } as const;
 
 export type PhysicsSourceKey = keyof typeof PHYSICS_SOURCES;
@@ -59,8 +60,27 @@ export const L_WICK = 0.0254;
 export const EMIS_GLOBE = 0.95;
 /** Globe albedo [–]. */
 export const ALB_GLOBE = 0.05;
-/** Globe diameter [m] (2 in, the model's globe, not the ISO 150 mm). */
+/**
+ * Globe diameter of the reference implementation [m] (2 in). The property tables are built for it;
+ * the diameter in use is a physics setting (`physics.globeDiameter`, default
+ * {@link D_GLOBE_STANDARD}), and the reference-table checks run at this one.
+ */
 export const D_GLOBE = 0.0508;
+/**
+ * Diameter of the standard black globe the WBGT screening limits are defined with [m]: 150 mm
+ * (6 in) (Parsons 2006, Industrial Health 44:368–379, describing ISO 7243; OSHA Technical Manual
+ * Section III Chapter 4, the WBGT instrument: a 15 cm (6-inch) hollow copper sphere painted matte
+ * black). The default of `physics.globeDiameter`.
+ */
+export const D_GLOBE_STANDARD = 0.15;
+/**
+ * Emissivity of a shelter (roof, canopy) seen by the globe and the wick in the sheltered exposure
+ * [–]: a black enclosure at the air temperature, the surroundings that the indoor/shaded WBGT
+ * methods assume (no radiant heat source, globe at about the air temperature: Lemke & Kjellstrom
+ * 2012, Industrial Health 50:267–278, indoor WBGT after Bernard et al.). 1 is our choice of the
+ * simplest such enclosure.
+ */
+export const EMIS_SHELTER = 1;
 /** Ground emissivity [–]. */
 export const EMIS_SFC = 0.999;
 /** Ground albedo [–]. */
@@ -77,6 +97,13 @@ export const REF_HEIGHT = 2.0;
 export const MIN_SPEED = 0.13;
 /** Exponent on Pr/Sc in the wick's mass-transfer analogy [–]. */
 export const WICK_EXPONENT = 0.56;
+/**
+ * Buck (1981) saturation vapour pressure over water, `e_s = a·exp(b·T/(T + c))` with T [°C]:
+ * a [hPa], b [–], c [°C] (Buck 1981 eq. 3, as the Liljegren et al. 2008 reference code uses it).
+ * The one table of these coefficients: humidity, the property tables, the solver's derivatives
+ * and the demo weather read them from here.
+ */
+export const BUCK_1981 = { a: 6.1121, b: 17.502, c: 240.97 } as const;
 /** Moist-air factor applied to Buck 1981 in the model [–]. */
 export const MOIST_AIR_FACTOR = 1.004;
 /** Kelvin offset [K]. */
@@ -114,7 +141,9 @@ export const PHYSICS_CONSTANTS: readonly PhysicsConstant[] = [
   { name: 'wick length', symbol: 'L_w', value: L_WICK, unit: 'm', source: 'liljegren2008' },
   { name: 'globe emissivity', symbol: 'ε_g', value: EMIS_GLOBE, unit: '–', source: 'liljegren2008' },
   { name: 'globe albedo', symbol: 'α_g', value: ALB_GLOBE, unit: '–', source: 'liljegren2008' },
-  { name: 'globe diameter', symbol: 'D_g', value: D_GLOBE, unit: 'm', source: 'liljegren2008' },
+  { name: 'globe diameter of the reference implementation (2 in)', symbol: 'D_g,ref', value: D_GLOBE, unit: 'm', source: 'liljegren2008' },
+  { name: 'standard black globe diameter (default)', symbol: 'D_g,std', value: D_GLOBE_STANDARD, unit: 'm', source: 'iso7243' },
+  { name: 'emissivity of a shelter at air temperature', symbol: 'ε_shelter', value: EMIS_SHELTER, unit: '–', source: 'lemke2012' },
   { name: 'ground emissivity', symbol: 'ε_sfc', value: EMIS_SFC, unit: '–', source: 'liljegren2008' },
   { name: 'ground albedo', symbol: 'α_sfc', value: ALB_SFC, unit: '–', source: 'liljegren2008' },
   { name: 'sun-down threshold cos(89.5°)', symbol: 'CZA_MIN', value: CZA_MIN, unit: '–', source: 'liljegren2008' },

@@ -32,9 +32,12 @@ export function splitCsvRecord(text: string): string[] | null {
   return out;
 }
 
-/** Yields [lineNumber (1-based, of the record's first line), fields] for every record of a file. */
-export async function* readCsvRecords(path: string): AsyncGenerator<[number, string[]]> {
-  const rl = createInterface({ input: createReadStream(path, { encoding: 'utf8' }), crlfDelay: Infinity });
+/**
+ * Yields [lineNumber (1-based, of the record's first line), fields] for every record of a file,
+ * or of a stream (`input`, e.g. standard input; `path` then only names it in errors).
+ */
+export async function* readCsvRecords(path: string, input?: NodeJS.ReadableStream): AsyncGenerator<[number, string[]]> {
+  const rl = createInterface({ input: input ?? createReadStream(path, { encoding: 'utf8' }), crlfDelay: Infinity });
   let pending = '';
   let startLine = 0;
   let line = 0;

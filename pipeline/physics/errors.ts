@@ -43,5 +43,10 @@ export const PointOptionInvalid = defineError<{ option: string; value: string; e
   code: 'PointOptionInvalid',
   title: 'An option of `point` has an invalid value',
   message: (p) => `${p.option} is "${p.value}"; expected ${p.expected}`,
-  hint: (p) => (p.option === '--cav' ? 'give the clothing adjustment value in °C-WBGT, e.g. --cav 2 (0 for work clothes)' : 'see `heathours point --help`'),
+  hint: (p) =>
+    p.option === '--cav'
+      ? 'give the clothing adjustment value in °C-WBGT, e.g. --cav 2 (0 for work clothes)'
+      : p.option === '--globe-diameter'
+        ? 'give the diameter in metres, e.g. --globe-diameter 0.15 for the 150 mm standard globe'
+        : 'see `heathours point --help`',
 });

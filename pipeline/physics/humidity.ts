@@ -2,7 +2,9 @@
  * Humidity: saturation vapour pressure over liquid water, vapour pressure, relative humidity
  * and dew point. Temperatures [°C], pressures [hPa] unless a name says otherwise.
  */
-import { MOIST_AIR_FACTOR } from './constants.ts';
+import { BUCK_1981, MOIST_AIR_FACTOR } from './constants.ts';
+
+const { a: BUCK_A, b: BUCK_B, c: BUCK_C } = BUCK_1981;
 
 /**
  * Saturation vapour pressure, Buck (1981) [hPa]: `6.1121·exp(17.502·T/(T + 240.97))`
@@ -10,7 +12,7 @@ import { MOIST_AIR_FACTOR } from './constants.ts';
  * @param t temperature [°C]
  */
 export function saturationVaporPressureBuck1981(t: number): number {
-  return 6.1121 * Math.exp((17.502 * t) / (t + 240.97));
+  return BUCK_A * Math.exp((BUCK_B * t) / (t + BUCK_C));
 }
 
 /**
@@ -64,8 +66,8 @@ export function vaporPressureFromDewPoint(td: number): number {
  * @param e vapour pressure [hPa], > 0
  */
 export function dewPointFromVaporPressure(e: number): number {
-  const z = Math.log(e / (6.1121 * MOIST_AIR_FACTOR));
-  return (240.97 * z) / (17.502 - z);
+  const z = Math.log(e / (BUCK_A * MOIST_AIR_FACTOR));
+  return (BUCK_C * z) / (BUCK_B - z);
 }
 
 /**

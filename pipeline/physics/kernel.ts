@@ -9,14 +9,14 @@
  * Dew points above the air temperature are clamped to it and counted.
  */
 import {
-  CellState, prepareCell, wetBulbRoot, wetBulbShadeGuess, ROOT_TOLERANCE_K, MAX_ITERATIONS,
-  CG0, CW0, INV_EG_SB, QG_K, INV_PI, EW_SB, CAP,
+  CellState, prepareCell, psychrometricWetBulb, ROOT_TOLERANCE_K, MAX_ITERATIONS,
+  CW0, QG_K, INV_PI, EW_SB, CAP, globeFactors, type GlobeFactors,
 } from './liljegren-solve.ts';
 import {
-  ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2,
+  ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2, BUCK_T_OFFSET_K,
 } from './property-tables.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
-import { KELVIN, EMIS_SFC, ALB_SFC, ALB_WICK, CZA_MIN, MIN_SPEED } from './constants.ts';
+import { KELVIN, EMIS_SFC, ALB_SFC, ALB_WICK, CZA_MIN, MIN_SPEED, D_GLOBE, EMIS_SHELTER } from './constants.ts';
 
 type Num = Float32Array | Float64Array;
 
@@ -50,6 +50,14 @@ export interface WbgtOutputs {
   globeShade?: Num;
   /** Natural wet-bulb temperature in shade [°C]. */
   wetBulbShade?: Num;
+  /**
+   * Under a shelter at the air temperature (roof, canopy; no solar, the globe and wick see the
+   * shelter instead of the sky): WBGT, globe and natural wet bulb [°C]. Computed only when
+   * `wbgtShelter` is given.
+   */
+  wbgtShelter?: Num;
+  globeShelter?: Num;
+  wetBulbShelter?: Num;
   /** Psychrometric wet bulb of the model [°C] (computed only when given). */
   psychrometric?: Num;
   /**
@@ -72,14 +80,14 @@ export interface KernelCounts {
    * `solved` for the mean per cell-hour. Sun solves are skipped (0 iterations) where the solar
    * load is zero, since sun then equals shade.
    */
-  iterations: { globeSun: number; wetBulbSun: number; globeShade: number; wetBulbShade: number; psychrometric: number };
+  iterations: { globeSun: number; wetBulbSun: number; globeShade: number; wetBulbShade: number; globeShelter: number; wetBulbShelter: number; psychrometric: number };
   solved: number;
 }
 
 export function emptyCounts(): KernelCounts {
   return {
     cells: 0, ok: 0, rejected: 0, notConverged: 0, dewPointClamped: 0, solved: 0,
-    iterations: { globeSun: 0, wetBulbSun: 0, globeShade: 0, wetBulbShade: 0, psychrometric: 0 },
+    iterations: { globeSun: 0, wetBulbSun: 0, globeShade: 0, wetBulbShade: 0, globeShelter: 0, wetBulbShelter: 0, psychrometric: 0 },
   };
 }
 
@@ -108,6 +116,8 @@ export function checkInputs(ta: number, td: number, p: number, u: number, s: num
 }
 
 const cell = new CellState();
+/** The reference implementation's 2-inch globe ({@link D_GLOBE}): the default of {@link wbgtKernel}. */
+export const REFERENCE_GLOBE: GlobeFactors = globeFactors(D_GLOBE);
 const TA_MIN = INPUT_LIMITS.airTemperatureC[0];
 const TA_MAX = INPUT_LIMITS.airTemperatureC[1];
 const TD_MIN = INPUT_LIMITS.dewPointMinC;
@@ -137,12 +147,20 @@ const XS = new Float64Array(4);
  * inlining budget), and every number passed to or returned from a call that is not inlined is
  * boxed (one heap allocation each). Each balance's loop runs twice, shade then sun, so the code
  * is there once.
+ * The shelter pass (when asked) is the shade balance with the long-wave load of a black shelter
+ * at the air temperature: its globe starts from the quadratic model at Tg = Ta, its wick from the
+ * shade root with the shelter's extra long-wave as a load (like the sun's solar load).
  * @param inputs per cell-hour inputs (units on {@link WbgtInputs})
  * @param outputs per cell-hour outputs [°C] and status
+ * @param globe globe diameter factors ({@link globeFactors}); default the reference 2-inch globe
  */
-export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0): KernelCounts {
+export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE): KernelCounts {
   const { airTemperature: TA, dewPointTemperature: TD, surfacePressure: P, wind2m: U, solar: S, cosZenith: CZ, directFraction: FD } = inputs;
   const { wbgtSun, wbgtShade, globeSun, wetBulbSun, globeShade, wetBulbShade, psychrometric, status } = outputs;
+  const { wbgtShelter, globeShelter, wetBulbShelter } = outputs;
+  const shelter = wbgtShelter !== undefined;
+  const CG = globe.cg0;
+  const INV_EG_SB = globe.invEgSb;
   const DT = DEW_TABLE;
   const GT = GLOBE_TABLE;
   const ZT = ZV_TABLE;
@@ -159,6 +177,8 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
   let itGd = 0;
   let itWs = 0;
   let itWd = 0;
+  let itGh = 0;
+  let itWh = 0;
   let itPsy = 0;
   for (let i = start; i < end; i++) {
     let code = status[i];
@@ -219,6 +239,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
       }
     }
     const lrad = 0.5 * (emisAtm + EMIS_SFC) * ta4;
+    const lradShelter = 0.5 * (EMIS_SHELTER + EMIS_SFC) * ta4;
     let qg = 0;
     let qw = 0;
     if (sol > 0) {
@@ -234,7 +255,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
       qw = (1 - ALB_WICK) * sol * ((1 - fdir) * (1 + CAP) + fdir * (tanOverPi + CAP) + ALB_SFC);
     }
     const y = Math.sqrt((u > MIN_SPEED ? u : MIN_SPEED) * p);
-    const cg = CG0 * y;
+    const cg = CG * y;
     // (u·P)^0.6 = y^1.2 (pow12).
     let y12: number;
     {
@@ -254,6 +275,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
     // --- Globe: shade, then sun (globeShadeGuess, globeRoot, globeSunGuess). ---
     let tgShade = NaN;
     let tgSun = NaN;
+    let tgShelter = NaN;
     {
       // h_g and dh_g/dT at the film temperature T_a (globeH).
       let hg0: number;
@@ -291,7 +313,8 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
       const disc0 = fp0 * fp0 - 2 * fpp0 * f0;
       let x = taK + (disc0 > 0 ? (-2 * f0) / (fp0 + Math.sqrt(disc0)) : -f0 / fp0);
       let c = lrad;
-      for (let pass = 0; ; pass++) {
+      // Passes: 0 shade, 1 sun (only with a solar load), 2 shelter (only when asked).
+      for (let pass = 0; ;) {
         let lo = -Infinity;
         let hi = Infinity;
         let root = NaN;
@@ -354,7 +377,15 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
           itGd += its;
           tgShade = root;
           tgSun = root;
-          if (!(qg > 0 && root === root)) break;
+        } else if (pass === 1) {
+          itGs += its;
+          tgSun = root;
+        } else {
+          itGh += its;
+          tgShelter = root;
+          break;
+        }
+        if (pass === 0 && qg > 0 && root === root) {
           // Sun guess: quadratic step off the shade root, then one Newton step on the cubic
           // model, third derivative ≈ 24·Tg (globeSunGuess).
           const fq = -qg;
@@ -365,17 +396,22 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
           if (pd > 0) d -= pc / pd;
           x = root + d;
           c = lrad + qg;
-        } else {
-          itGs += its;
-          tgSun = root;
-          break;
-        }
+          pass = 1;
+        } else if (shelter) {
+          // Shelter guess: the quadratic model at Tg = Ta with the shelter's load (globeGuessAtAir).
+          const fs = ta4 - lradShelter;
+          const discS = fp0 * fp0 - 2 * fpp0 * fs;
+          x = taK + (discS > 0 ? (-2 * fs) / (fp0 + Math.sqrt(discS)) : -fs / fp0);
+          c = lradShelter;
+          pass = 2;
+        } else break;
       }
     }
 
     // --- Natural wet bulb: shade, then sun (wetBulbShadeGuess, wetBulbRoot, wetBulbSunGuess). ---
     let twShade = NaN;
     let twSun = NaN;
+    let twShelter = NaN;
     {
       const pea = p - ea;
       // Shade guess: quadratic + cubic model of G at Tw = Td, where e_w = e_a.
@@ -414,7 +450,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
         if (pea > 0) {
           const de = desTd;
           const l1 = de / ea;
-          const iw = 1 / (tdK - 32.18);
+          const iw = 1 / (tdK - BUCK_T_OFFSET_K);
           const dde = de * (l1 - 2 * iw);
           const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
           const iden = 1 / pea;
@@ -445,16 +481,20 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
         }
       }
       let q = 0;
-      for (let pass = 0; ; pass++) {
+      let lw = lrad;
+      // Shade root's slope, 1/h_w and its derivative, curvatures (for the sun and shelter guesses).
+      let slope0 = 1;
+      let invHw0 = 0;
+      let dInvHw0 = 0;
+      let curv = 0;
+      let curv3 = 0;
+      let shadeRoot = NaN;
+      // Passes: 0 shade, 1 sun (only with a solar load), 2 shelter (only when asked).
+      for (let pass = 0; ;) {
         let lo = -Infinity;
         let hi = Infinity;
         let root = NaN;
         let its = 0;
-        let slope = 1;
-        let lastInvHw = 0;
-        let lastDInvHw = 0;
-        let curv = 0;
-        let curv3 = 0;
         for (let it = 1; it <= MAX_ITERATIONS; it++) {
           const film = 0.5 * (x + taK);
           // e_s(x) and e_s'(x) (lookup on ES_TABLE).
@@ -528,7 +568,7 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
             invHw = invCw * v;
             dInvHw = 0.5 * invCw * vp;
             const x2 = x * x;
-            const df = EW_SB * (lrad - x2 * x2) + q;
+            const df = EW_SB * (lw - x2 * x2) + q;
             const ddf = -4 * EW_SB * x2 * x;
             g -= df * invHw;
             gp -= ddf * invHw + df * dInvHw;
@@ -546,14 +586,14 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
           x = xn;
           if (newton && step < tol && step > -tol) {
             its = it;
-            slope = gp;
-            lastInvHw = invHw;
-            lastDInvHw = dInvHw;
             if (pass === 0) {
+              slope0 = gp;
+              invHw0 = invHw;
+              dInvHw0 = dInvHw;
               // Curvature estimates for the sun guess (wetBulbRoot after a shade solve).
               const de = dew;
               const l1 = de / ew;
-              const iw = 1 / (x - 32.18);
+              const iw = 1 / (x - BUCK_T_OFFSET_K);
               const dde = de * (l1 - 2 * iw);
               const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
               const rden = 1 / den;
@@ -570,23 +610,38 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
           itWd += its;
           twShade = root;
           twSun = root;
-          if (!(qw > 0 && root === root)) break;
-          // Sun guess: quadratic + cubic step off the shade root (wetBulbSunGuess).
-          const gps = slope - qw * lastDInvHw;
-          const gs = -qw * lastInvHw;
-          const fp = gps > 0 ? gps : slope;
-          const disc = fp * fp - 2 * curv * gs;
-          let d = disc > 0 ? (-2 * gs) / (fp + Math.sqrt(disc)) : -gs / fp;
-          const pc = gs + d * (fp + d * (0.5 * curv + d * (curv3 / 6)));
-          const pd = fp + d * (curv + 0.5 * d * curv3);
-          if (pd > 0) d -= pc / pd;
-          x = root + d;
-          q = qw;
-        } else {
+          shadeRoot = root;
+          if (!(root === root)) break;
+        } else if (pass === 1) {
           itWs += its;
           twSun = root;
+        } else {
+          itWh += its;
+          twShelter = root;
           break;
         }
+        // Next pass: the sun (a solar load) after the shade, then the shelter when asked. Both
+        // start from the shade root with their extra load (wetBulbGuessFromShade).
+        let load: number;
+        if (pass === 0 && qw > 0) {
+          load = qw;
+          q = qw;
+          pass = 1;
+        } else if (shelter) {
+          load = EW_SB * (lradShelter - lrad);
+          q = 0;
+          lw = lradShelter;
+          pass = 2;
+        } else break;
+        const gps = slope0 - load * dInvHw0;
+        const gs = -load * invHw0;
+        const fp = gps > 0 ? gps : slope0;
+        const disc = fp * fp - 2 * curv * gs;
+        let d = disc > 0 ? (-2 * gs) / (fp + Math.sqrt(disc)) : -gs / fp;
+        const pc = gs + d * (fp + d * (0.5 * curv + d * (curv3 / 6)));
+        const pd = fp + d * (curv + 0.5 * d * curv3);
+        if (pd > 0) d -= pc / pd;
+        x = shadeRoot + d;
       }
     }
     let tpsy = 0;
@@ -594,12 +649,11 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
       // Rare path (the point command's extra column): the split functions on a CellState.
       const s = cell;
       prepareCell(s, ta, td, p, u, sol, fd, cz);
-      wetBulbShadeGuess(s, false);
-      itPsy += wetBulbRoot(s, false, false);
-      tpsy = s.x;
+      tpsy = psychrometricWetBulb(s);
+      itPsy += s.iterations;
     }
-    if (!(tgSun === tgSun) || !(tgShade === tgShade)) code = STATUS.globeNotConverged;
-    else if (!(twSun === twSun) || !(twShade === twShade) || !(tpsy === tpsy)) code = STATUS.wetBulbNotConverged;
+    if (!(tgSun === tgSun) || !(tgShade === tgShade) || (shelter && !(tgShelter === tgShelter))) code = STATUS.globeNotConverged;
+    else if (!(twSun === twSun) || !(twShade === twShade) || !(tpsy === tpsy) || (shelter && !(twShelter === twShelter))) code = STATUS.wetBulbNotConverged;
     if (code !== 0) {
       status[i] = code;
       notConverged++;
@@ -617,6 +671,13 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
     if (globeShade) globeShade[i] = gD;
     if (wetBulbShade) wetBulbShade[i] = wD;
     if (psychrometric) psychrometric[i] = tpsy - KELVIN;
+    if (shelter) {
+      const gH = tgShelter - KELVIN;
+      const wH = twShelter - KELVIN;
+      wbgtShelter[i] = 0.7 * wH + 0.2 * gH + 0.1 * ta;
+      if (globeShelter) globeShelter[i] = gH;
+      if (wetBulbShelter) wetBulbShelter[i] = wH;
+    }
     ok++;
   }
   const counts = emptyCounts();
@@ -631,6 +692,8 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
   it.globeShade = itGd;
   it.wetBulbSun = itWs;
   it.wetBulbShade = itWd;
+  it.globeShelter = itGh;
+  it.wetBulbShelter = itWh;
   it.psychrometric = itPsy;
   return counts;
 }
@@ -643,4 +706,7 @@ function writeNaN(o: WbgtOutputs, i: number): void {
   if (o.globeShade) o.globeShade[i] = NaN;
   if (o.wetBulbShade) o.wetBulbShade[i] = NaN;
   if (o.psychrometric) o.psychrometric[i] = NaN;
+  if (o.wbgtShelter) o.wbgtShelter[i] = NaN;
+  if (o.globeShelter) o.globeShelter[i] = NaN;
+  if (o.wetBulbShelter) o.wetBulbShelter[i] = NaN;
 }

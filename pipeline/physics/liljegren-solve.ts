@@ -27,11 +27,11 @@
  * - `(Pr/Sc)^0.56 = C_s·(T^0.834·Ω)^0.56` (pressure cancels in Sc).
  * A test pins these against the readable forms in `air-properties.ts`.
  */
-import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12 } from './property-tables.ts';
+import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12, BUCK_T_OFFSET_K } from './property-tables.ts';
 import {
   STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, PRANDTL, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
   EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, KELVIN,
-  SIGMA_LJ_AIR, EPS_K_AIR, CZA_MIN,
+  SIGMA_LJ_AIR, CZA_MIN, EMIS_SHELTER,
 } from './constants.ts';
 
 /** Newton stops when a step is smaller than this [K] (remaining error ~2e−7 K, see above). */
@@ -41,16 +41,39 @@ export const MAX_ITERATIONS = 50;
 
 // Property constants (METHODS.md §3.2.2), hoisted once per process.
 const C_MU = (2.6693e-6 * Math.sqrt(M_AIR)) / (SIGMA_LJ_AIR * SIGMA_LJ_AIR);
-const OMEGA_A = 1.048 + (0.034 * 2.9) / 0.4;
-const OMEGA_B = 0.034 / (0.4 * EPS_K_AIR);
 const C_K = CP_AIR + 1.25 * R_AIR;
 const PR_G = 0.6 * Math.pow(PRANDTL, 0.3333);
 const PR_W = 0.281 * Math.pow(PRANDTL, 0.44);
 /** cg = CG0·√(u·P): √(u·100P·D_g·C_μ/R_air)·0.6·Pr^0.3333 [SI, see {@link CellState.cg}]. */
-export const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
+const CG0 = PR_G * Math.sqrt((100 * D_GLOBE * C_MU) / R_AIR);
 /** cw = CW0·(u·P)^0.6 = CW0·pow12(√(u·P)): (c_k/D_w)·0.281·Pr^0.44·C_μ^0.4·(100·D_w/R_air)^0.6. */
 export const CW0 = (C_K / D_WICK) * PR_W * Math.exp(0.4 * Math.log(C_MU) + 0.6 * Math.log((100 * D_WICK) / R_AIR));
-export const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
+const INV_EG_SB = 1 / (EMIS_GLOBE * SB);
+
+/**
+ * The globe diameter's two factors in the globe balance. The tables of `property-tables.ts` and
+ * {@link CG0} hold h_g for the reference diameter D_ref = {@link D_GLOBE}; for a diameter D,
+ * `h_g(D) = (D_ref/D)·(M(T) + c_g·√(D/D_ref)·R(T))` (the Nu = 2 term scales with 1/D, the
+ * Reynolds term with 1/√D: the sphere correlation of Bird, Stewart & Lightfoot). So `cg0`
+ * replaces CG0 and `invEgSb` = (D_ref/D)/(ε_g σ) replaces {@link INV_EG_SB}. At D = D_ref both are
+ * exactly the reference factors (the results are the same to the bit).
+ */
+export interface GlobeFactors {
+  /** Globe diameter [m]. */
+  diameter: number;
+  /** CG0·√(D/D_ref) [see {@link CG0}]. */
+  cg0: number;
+  /** (D_ref/D)/(ε_g·σ) [K⁴ per W m⁻² K⁻¹·K]. */
+  invEgSb: number;
+}
+
+/** {@link GlobeFactors} for a globe diameter [m] (checked by the caller: {@link GLOBE_DIAMETER_RANGE}). */
+export function globeFactors(diameter: number): GlobeFactors {
+  return { diameter, cg0: CG0 * Math.sqrt(diameter / D_GLOBE), invEgSb: (D_GLOBE / diameter) * INV_EG_SB };
+}
+
+/** Globe diameters accepted [m]: from a 1-inch globe to twice the 150 mm standard globe. */
+export const GLOBE_DIAMETER_RANGE = [0.025, 0.3] as const;
 /** (1 − α_g)/(2ε_gσ) [K⁴ per W m⁻²] (METHODS.md §3.2.4). */
 export const QG_K = (1 - ALB_GLOBE) / (2 * EMIS_GLOBE * SB);
 export const INV_PI = 1 / Math.PI;
@@ -106,16 +129,38 @@ export class CellState {
   /** Globe: slope dF/dTg [K³] and curvature estimate [K²] at the last iterate (for the sun guess). */
   globeSlope = 1;
   globeCurv = 0;
-  /** Wick: slope dG/dTw [–], curvature estimate [K⁻¹], 1/h_w and its derivative at the last iterate. */
-  lastSlope = 1;
+  /** Wick: curvature estimate [K⁻¹] at the last shade iterate. */
   lastCurv = 0;
   /** Third-derivative estimate dG³/dTw³ [K⁻²] at the last shade iterate. */
   lastCurv3 = 0;
-  lastInvHw = 0;
-  lastDInvHw = 0;
+  /** Wick at the shade root: slope dG/dTw [–], 1/h_w [m² K W⁻¹] and its derivative (for the sun and shelter guesses). */
+  shadeSlope = 1;
+  shadeInvHw = 0;
+  shadeDInvHw = 0;
   /** Iterations (function evaluations) of the last solve [–]. */
   iterations = 0;
+  /** Globe factors of the diameter in use ({@link globeFactors}); default the reference 2-inch globe. */
+  cg0 = CG0;
+  invEgSb = INV_EG_SB;
+  /** Long-wave load under a shelter at the air temperature: ½(ε_shelter + ε_sfc)·Ta⁴ [K⁴]. */
+  lradShelter = 0;
+  /** Roots of {@link solveCell} [K]: globe and natural wet bulb in the shade, the sun and the shelter (NaN if not converged or not asked). */
+  tgShade = NaN;
+  twShade = NaN;
+  tgSun = NaN;
+  twSun = NaN;
+  tgShelter = NaN;
+  twShelter = NaN;
 }
+
+/** Sets the globe diameter [m] a {@link CellState} solves for (the factors of {@link globeFactors}). */
+export function setGlobe(s: CellState, g: GlobeFactors): void {
+  s.cg0 = g.cg0;
+  s.invEgSb = g.invEgSb;
+}
+
+/** Where the globe and wick are: open sky in the shade (0), open sky in the sun (1), under a shelter at the air temperature (2). */
+export type ExposureCode = 0 | 1 | 2;
 
 /** Scratch for the globe factors M, M', R, R' (property-tables.ts). */
 const GK = new Float64Array(4);
@@ -148,7 +193,7 @@ export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u
 }
 
 /** {@link prepareCell} on the raw inputs already in `s` (taC, tdC, p, u2, solar, fdirIn, cz). */
-export function prepareFields(s: CellState): void {
+function prepareFields(s: CellState): void {
   const taC = s.taC;
   const tdC = s.tdC;
   const p = s.p;
@@ -168,6 +213,7 @@ export function prepareFields(s: CellState): void {
   s.desTd = L[1];
   s.emisAtm = L[2];
   s.lrad = 0.5 * (s.emisAtm + EMIS_SFC) * s.ta4;
+  s.lradShelter = 0.5 * (EMIS_SHELTER + EMIS_SFC) * s.ta4;
   let qg = 0;
   let qw = 0;
   if (solar > 0) {
@@ -186,7 +232,7 @@ export function prepareFields(s: CellState): void {
   s.qw = qw;
   const up = (u2 > MIN_SPEED ? u2 : MIN_SPEED) * p;
   const y = Math.sqrt(up);
-  s.cg = CG0 * y;
+  s.cg = s.cg0 * y;
   s.cw = CW0 * pow12(y);
   s.invCw = 1 / s.cw;
   s.hg0 = globeH(ta, s.cg);
@@ -203,16 +249,25 @@ function quadraticStep(f: number, fp: number, fpp: number): number {
 }
 
 /** First guess for the shade globe [K] into `s.x`: quadratic model of F at Tg = Ta (h_g(Ta) shared). */
-export function globeShadeGuess(s: CellState): void {
+function globeShadeGuess(s: CellState): void {
+  globeGuessAtAir(s, s.lrad);
+}
+
+/**
+ * First guess for the globe [K] into `s.x` from a quadratic model of its balance at Tg = Ta with
+ * long-wave load `lw` [K⁴] and no solar: the open-sky shade ({@link globeShadeGuess}) or the
+ * shelter (`s.lradShelter`).
+ */
+function globeGuessAtAir(s: CellState, lw: number): void {
   const ta = s.ta;
-  const a0 = s.hg0 * INV_EG_SB;
-  const fp = 4 * ta * ta * ta + a0;
-  const fpp = 12 * ta * ta + s.dhg0 * INV_EG_SB;
-  s.x = ta + quadraticStep(s.ta4 - s.lrad, fp, fpp);
+  const k = s.invEgSb;
+  const fp = 4 * ta * ta * ta + s.hg0 * k;
+  const fpp = 12 * ta * ta + s.dhg0 * k;
+  s.x = ta + quadraticStep(s.ta4 - lw, fp, fpp);
 }
 
 /** First guess for the sun globe [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
-export function globeSunGuess(s: CellState): void {
+function globeSunGuess(s: CellState): void {
   const x = s.x;
   const fp = s.globeSlope;
   const fpp = s.globeCurv;
@@ -225,29 +280,19 @@ export function globeSunGuess(s: CellState): void {
 }
 
 /**
- * Globe temperature [K]: the root of
- * `F(Tg) = Tg⁴ − ½(ε_a Ta⁴ + ε_sfc Ta⁴) + h_g(T_ref)/(ε_g σ)·(Tg − Ta) − Q_g`, T_ref = (Tg + Ta)/2
- * (METHODS.md §3.2.4). `withSun` false drops Q_g (shade). Starts from `x0` [K]; NaN if no
- * convergence. `tol` [K] is the step below which it stops.
+ * Globe temperature [K] in place: the root of
+ * `F(Tg) = Tg⁴ − L + h_g(T_ref)/(ε_g σ)·(Tg − Ta) − Q_g`, T_ref = (Tg + Ta)/2 (METHODS.md §3.2.4),
+ * with the long-wave load L = ½(ε_a + ε_sfc)·Ta⁴ under the open sky and ½(ε_shelter + ε_sfc)·Ta⁴
+ * under a shelter, and the solar load Q_g in the sun only. Starts at `s.x`, leaves the root in
+ * `s.x` [K]; returns the iterations, or 0 if it did not converge (then `s.x` is NaN).
  */
-export function solveGlobe(s: CellState, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
-  s.x = x0;
-  s.tol = tol;
-  const ok = globeRoot(s, withSun) > 0;
-  s.tol = ROOT_TOLERANCE_K;
-  return ok ? s.x : NaN;
-}
-
-/**
- * {@link solveGlobe} in place: starts at `s.x`, leaves the root in `s.x` [K]; returns the
- * iterations, or 0 if it did not converge (then `s.x` is NaN).
- */
-export function globeRoot(s: CellState, withSun: boolean): number {
+export function globeRoot(s: CellState, exposure: ExposureCode): number {
   const x0 = s.x;
   const tol = s.tol;
   const ta = s.ta;
-  const c = s.lrad + (withSun ? s.qg : 0);
+  const c = exposure === 2 ? s.lradShelter : s.lrad + (exposure === 1 ? s.qg : 0);
   const cg = s.cg;
+  const k = s.invEgSb;
   let x = x0;
   let lo = -Infinity;
   let hi = Infinity;
@@ -256,8 +301,8 @@ export function globeRoot(s: CellState, withSun: boolean): number {
     const dhg = GK[1];
     const x2 = x * x;
     const dx = x - ta;
-    const f = x2 * x2 - c + hg * INV_EG_SB * dx;
-    const fp = 4 * x2 * x + (hg + 0.5 * dhg * dx) * INV_EG_SB;
+    const f = x2 * x2 - c + hg * k * dx;
+    const fp = 4 * x2 * x + (hg + 0.5 * dhg * dx) * k;
     if (f < 0) lo = x;
     else hi = x;
     let xn = x - f / fp;
@@ -272,7 +317,7 @@ export function globeRoot(s: CellState, withSun: boolean): number {
     if (newton && step < tol && step > -tol) {
       s.iterations = it;
       s.globeSlope = fp;
-      s.globeCurv = 12 * x2 + dhg * INV_EG_SB;
+      s.globeCurv = 12 * x2 + dhg * k;
       s.x = x;
       return it;
     }
@@ -287,7 +332,7 @@ export function globeRoot(s: CellState, withSun: boolean): number {
  * bulb (false): quadratic model of G at Tw = Td, where e_w = e_a, so G(Td) needs no e_s read and
  * G'(Td), G''(Td) follow from e_s'(Td) (METHODS.md §1.1 derivatives of Buck's form).
  */
-export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
+function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const x = s.td;
   s.x = x;
   const ta = s.ta;
@@ -297,10 +342,10 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const den = s.p - s.ea;
   if (!(den > 0)) return;
   const de = s.desTd;
-  // Buck's form: with L1 = d ln e_s/dT and w = T − 32.18, e_s'' = e_s'·(L1 − 2/w) and
+  // Buck's form: with L1 = d ln e_s/dT and w = T − T_c (BUCK_T_OFFSET_K), e_s'' = e_s'·(L1 − 2/w) and
   // e_s''' = e_s'·(L1² − 6·L1/w + 6/w²).
   const l1 = de / s.ea;
-  const iw = 1 / (x - 32.18);
+  const iw = 1 / (x - BUCK_T_OFFSET_K);
   const dde = de * (l1 - 2 * iw);
   const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
   const z = L[2];
@@ -333,50 +378,43 @@ export function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   s.x = x + d;
 }
 
-/** First guess for the sun natural wet bulb [K] into `s.x`, from the shade root in `s.x` (call right after that solve). */
-export function wetBulbSunGuess(s: CellState): void {
-  const qw = s.qw;
-  const gp = s.lastSlope - qw * s.lastDInvHw;
-  const g = -qw * s.lastInvHw;
-  const fp = gp > 0 ? gp : s.lastSlope;
+/**
+ * First guess for the natural wet bulb with an extra radiative load `q` [W m⁻²] on the wick, from
+ * the shade root `x` [K] and the slope and curvatures the shade solve left in `s` (a quadratic step
+ * and one Newton step on the cubic model, no table read): the sun (q = Q_w) and the shelter
+ * (q = σ·ε_w·(L_shelter − L), the shelter's extra long-wave) into `s.x`.
+ */
+function wetBulbGuessFromShade(s: CellState, x: number, q: number): void {
+  const gp = s.shadeSlope - q * s.shadeDInvHw;
+  const g = -q * s.shadeInvHw;
+  const fp = gp > 0 ? gp : s.shadeSlope;
   const fpp = s.lastCurv;
   const fppp = s.lastCurv3;
   let d = quadraticStep(g, fp, fpp);
-  // One Newton step on the cubic model (no table read).
   const pc = g + d * (fp + d * (0.5 * fpp + d * (fppp / 6)));
   const pd = fp + d * (fpp + 0.5 * d * fppp);
   if (pd > 0) d -= pc / pd;
-  s.x += d;
+  s.x = x + d;
 }
 
 /**
- * Natural wet-bulb temperature [K] (`radiative` true; METHODS.md §3.2.5), or the psychrometric
- * wet bulb of the model (`radiative` false: no radiation term): the root of
+ * Natural wet-bulb temperature [K] in place (`radiative` true; METHODS.md §3.2.5), or the
+ * psychrometric wet bulb of the model (`radiative` false: no radiation term): the root of
  * `G(Tw) = Tw − Ta + (ΔH/RATIO)·(e_w − e_a)/(P − e_w)·(Pr/Sc)^0.56 − ΔF/h_w`,
- * `ΔF = σ ε_w (½(ε_a Ta⁴ + ε_sfc Ta⁴) − Tw⁴) + Q_w`, properties at T_ref = (Tw + Ta)/2.
- * `withSun` false drops Q_w (shade). Starts from `x0` [K]; NaN if no convergence. `tol` [K] is
- * the step below which it stops.
+ * `ΔF = σ ε_w (L − Tw⁴) + Q_w`, properties at T_ref = (Tw + Ta)/2, with the long-wave load L of
+ * the open sky or of the shelter ({@link globeRoot}) and the solar load Q_w in the sun only.
+ * Starts at `s.x`, leaves the root in `s.x` [K]; returns the iterations, or 0 if it did not
+ * converge (then `s.x` is NaN). After a shade solve it keeps the slope and curvatures for
+ * {@link wetBulbGuessFromShade}.
  */
-export function solveWetBulb(s: CellState, radiative: boolean, withSun: boolean, x0: number, tol = ROOT_TOLERANCE_K): number {
-  s.x = x0;
-  s.tol = tol;
-  const ok = wetBulbRoot(s, radiative, withSun) > 0;
-  s.tol = ROOT_TOLERANCE_K;
-  return ok ? s.x : NaN;
-}
-
-/**
- * {@link solveWetBulb} in place: starts at `s.x`, leaves the root in `s.x` [K]; returns the
- * iterations, or 0 if it did not converge (then `s.x` is NaN).
- */
-export function wetBulbRoot(s: CellState, radiative: boolean, withSun: boolean): number {
+export function wetBulbRoot(s: CellState, radiative: boolean, exposure: ExposureCode): number {
   const x0 = s.x;
   const tol = s.tol;
   const ta = s.ta;
   const p = s.p;
   const ea = s.ea;
-  const lrad = s.lrad;
-  const qw = withSun ? s.qw : 0;
+  const lrad = exposure === 2 ? s.lradShelter : s.lrad;
+  const qw = exposure === 1 ? s.qw : 0;
   const invCw = s.invCw;
   const pea = p - ea;
   const L = LK;
@@ -429,15 +467,15 @@ export function wetBulbRoot(s: CellState, radiative: boolean, withSun: boolean):
     x = xn;
     if (newton && step < tol && step > -tol) {
       s.iterations = it;
-      s.lastSlope = gp;
-      s.lastInvHw = invHw;
-      s.lastDInvHw = dInvHw;
-      // Curvature estimate for the sun guess (after a shade solve): the vapour term's e_s''
-      // (dominant) and the T⁴ term.
-      if (!withSun) {
+      // Slope and curvature estimates for the sun and shelter guesses (after a shade solve): the
+      // vapour term's e_s'' (dominant) and the T⁴ term.
+      if (exposure === 0) {
+        s.shadeSlope = gp;
+        s.shadeInvHw = invHw;
+        s.shadeDInvHw = dInvHw;
         const de = L[1];
         const l1 = de / L[0];
-        const iw = 1 / (x - 32.18);
+        const iw = 1 / (x - BUCK_T_OFFSET_K);
         const dde = de * (l1 - 2 * iw);
         const ddde = de * (l1 * l1 - 6 * l1 * iw + 6 * iw * iw);
         const rden = 1 / den;
@@ -453,4 +491,51 @@ export function wetBulbRoot(s: CellState, radiative: boolean, withSun: boolean):
   s.iterations = MAX_ITERATIONS;
   s.x = NaN;
   return 0;
+}
+
+/**
+ * The readable form of what the kernel does for one cell (`kernel.ts` runs the same operations in
+ * one function, and test/physics/kernel-vs-solver.test.ts holds them equal): after
+ * {@link prepareCell}, the globe and natural wet-bulb roots in the shade, in the sun (solved only
+ * where the solar load is positive, else equal to the shade roots) and, when `shelter` is true,
+ * under a shelter at the air temperature, into `s.tgShade` … `s.twShelter` [K] (NaN where a solve
+ * did not converge).
+ */
+export function solveCell(s: CellState, shelter: boolean): void {
+  s.tgSun = s.tgShelter = s.twSun = s.twShelter = NaN;
+  globeShadeGuess(s);
+  globeRoot(s, 0);
+  const tgShade = s.x;
+  s.tgShade = s.tgSun = tgShade;
+  if (s.qg > 0 && tgShade === tgShade) {
+    globeSunGuess(s);
+    globeRoot(s, 1);
+    s.tgSun = s.x;
+  }
+  if (shelter) {
+    globeGuessAtAir(s, s.lradShelter);
+    globeRoot(s, 2);
+    s.tgShelter = s.x;
+  }
+  wetBulbShadeGuess(s, true);
+  wetBulbRoot(s, true, 0);
+  const twShade = s.x;
+  s.twShade = s.twSun = twShade;
+  if (s.qw > 0 && twShade === twShade) {
+    wetBulbGuessFromShade(s, twShade, s.qw);
+    wetBulbRoot(s, true, 1);
+    s.twSun = s.x;
+  }
+  if (shelter && twShade === twShade) {
+    wetBulbGuessFromShade(s, twShade, EW_SB * (s.lradShelter - s.lrad));
+    wetBulbRoot(s, true, 2);
+    s.twShelter = s.x;
+  }
+}
+
+/** The model's psychrometric wet bulb [K] (the wick balance without radiation) after {@link prepareCell}; NaN if not converged. */
+export function psychrometricWetBulb(s: CellState): number {
+  wetBulbShadeGuess(s, false);
+  wetBulbRoot(s, false, 0);
+  return s.x;
 }

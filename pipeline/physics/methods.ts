@@ -8,16 +8,15 @@
  */
 import { eq, type MethodConstant, type MethodGroup } from '../model/sources.ts';
 import {
-  ALB_GLOBE, ALB_SFC, ALB_WICK, CP_AIR, CZA_MIN, D_GLOBE, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
+  ALB_GLOBE, ALB_SFC, ALB_WICK, BUCK_1981, CP_AIR, CZA_MIN, D_GLOBE, D_GLOBE_STANDARD, EMIS_SHELTER, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
   L_WICK, MIN_SPEED, MOIST_AIR_FACTOR, M_AIR, M_H2O, NORMSOLAR_MAX, PRANDTL, RATIO, REF_HEIGHT, R_AIR, R_GAS, SIGMA_LJ_AIR,
   SOLAR_CONSTANT, STEFAN_BOLTZMANN, WBGT_WEIGHT_AIR, WBGT_WEIGHT_GLOBE, WBGT_WEIGHT_WET_BULB, WICK_EXPONENT,
   WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN,
 } from './constants.ts';
-import { MAX_ITERATIONS, ROOT_TOLERANCE_K } from './liljegren-solve.ts';
+import { GLOBE_DIAMETER_RANGE, MAX_ITERATIONS, ROOT_TOLERANCE_K } from './liljegren-solve.ts';
 import { SOLAR_FIRST_YEAR, SOLAR_LAST_YEAR } from './solar-position.ts';
 
 const C = 'pipeline/physics/constants.ts';
-const HUM = 'pipeline/physics/humidity.ts saturationVaporPressureBuck1981()';
 const VISC = 'pipeline/physics/air-properties.ts airViscosity()';
 const COND = 'pipeline/physics/air-properties.ts airThermalConductivity()';
 const DIFF = 'pipeline/physics/air-properties.ts vaporDiffusivity()';
@@ -50,9 +49,9 @@ const TOL: MethodConstant = { symbol: 'δ', name: 'Newton step below which a sol
 const ITER: MethodConstant = { symbol: 'n_max', name: 'most iterations per solve (then no value, counted)', value: MAX_ITERATIONS, unit: '–', code: 'pipeline/physics/liljegren-solve.ts#MAX_ITERATIONS' };
 
 // Saturation vapour pressure (Buck 1981 × moist-air factor).
-const ES_A = literal('a', 'Buck 1981 prefactor', 6.1121, 'hPa', HUM);
-const ES_B = literal('b', 'Buck 1981 coefficient', 17.502, '–', HUM);
-const ES_C = literal('c', 'Buck 1981 coefficient', 240.97, '°C', HUM);
+const ES_A = exported('a', 'Buck 1981 prefactor', BUCK_1981.a, 'hPa', 'BUCK_1981.a');
+const ES_B = exported('b', 'Buck 1981 coefficient', BUCK_1981.b, '–', 'BUCK_1981.b');
+const ES_C = exported('c', 'Buck 1981 coefficient', BUCK_1981.c, '°C', 'BUCK_1981.c');
 const ES_F = exported('f_w', 'moist-air factor (the reference code\u2019s constant where pressure is not used)', MOIST_AIR_FACTOR, '–', 'MOIST_AIR_FACTOR');
 
 // Properties of air.
@@ -89,21 +88,38 @@ const W_NW = exported('w_nw', 'weight of the natural wet bulb', WBGT_WEIGHT_WET_
 const W_G = exported('w_g', 'weight of the globe temperature', WBGT_WEIGHT_GLOBE, '–', 'WBGT_WEIGHT_GLOBE');
 const W_A = exported('w_a', 'weight of the air temperature', WBGT_WEIGHT_AIR, '–', 'WBGT_WEIGHT_AIR');
 
-// Sun position (Almanac low-precision formulas).
+// Sun position (Meeus 1998 low-accuracy solar coordinates, as NOAA's solar calculator uses them).
 const JD0 = literal('JD₀', 'Julian date of J2000.0', 2451545.0, 'd', SUN);
-const L0 = literal('L₀', 'mean longitude at J2000.0', 280.46, '°', SUN);
-const L1 = literal('L₁', 'rate of the mean longitude', 0.9856474, '° d⁻¹', SUN);
-const G0 = literal('g₀', 'mean anomaly at J2000.0', 357.528, '°', SUN);
-const G1 = literal('g₁', 'rate of the mean anomaly', 0.9856003, '° d⁻¹', SUN);
-const EC1 = literal('c₁', 'equation of centre, first term', 1.915, '°', SUN);
-const EC2 = literal('c₂', 'equation of centre, second term', 0.02, '°', SUN);
-const OB0 = literal('ε₀', 'obliquity at J2000.0', 23.439, '°', SUN);
-const OB1 = literal('ε₁', 'rate of the obliquity', 4e-7, '° d⁻¹', SUN);
-const GM0 = literal('G₀', 'sidereal time at J2000.0', 6.697375, 'h', SUN);
-const GM1 = literal('G₁', 'rate of the sidereal time', 0.0657098242, 'h d⁻¹', SUN);
-const DS0 = literal('d₀', 'distance, constant term', 1.00014, 'AU', SUN);
-const DS1 = literal('d₁', 'distance, cos g term', 0.01671, 'AU', SUN);
-const DS2 = literal('d₂', 'distance, cos 2g term', 0.00014, 'AU', SUN);
+const JC = literal('N_c', 'days per Julian century', 36525, 'd', SUN);
+const L0 = literal('L₀,₀', 'mean longitude at J2000.0', 280.46646, '°', SUN);
+const L1 = literal('L₀,₁', 'mean longitude, T term', 36000.76983, '°', SUN);
+const L2 = literal('L₀,₂', 'mean longitude, T² term', 0.0003032, '°', SUN);
+const M0 = literal('M₀', 'mean anomaly at J2000.0', 357.52911, '°', SUN);
+const M1 = literal('M₁', 'mean anomaly, T term', 35999.05029, '°', SUN);
+const M2 = literal('M₂', 'mean anomaly, T² term', 0.0001537, '°', SUN);
+const E0 = literal('e₀', 'eccentricity at J2000.0', 0.016708634, '–', SUN);
+const E1 = literal('e₁', 'eccentricity, T term', 0.000042037, '–', SUN);
+const E2 = literal('e₂', 'eccentricity, T² term', 0.0000001267, '–', SUN);
+const C10 = literal('C₁,₀', 'equation of the centre, sin M', 1.914602, '°', SUN);
+const C11 = literal('C₁,₁', 'equation of the centre, T·sin M', 0.004817, '°', SUN);
+const C12 = literal('C₁,₂', 'equation of the centre, T²·sin M', 0.000014, '°', SUN);
+const C20 = literal('C₂,₀', 'equation of the centre, sin 2M', 0.019993, '°', SUN);
+const C21 = literal('C₂,₁', 'equation of the centre, T·sin 2M', 0.000101, '°', SUN);
+const C3 = literal('C₃', 'equation of the centre, sin 3M', 0.000289, '°', SUN);
+const RA = literal('a_R', 'semi-major axis factor of the distance', 1.000001018, 'AU', SUN);
+const ND0 = literal('Ω₀', 'longitude of the Moon\u2019s ascending node at J2000.0', 125.04, '°', SUN);
+const ND1 = literal('Ω₁', 'node, T term', 1934.136, '°', SUN);
+const AB = literal('κ', 'aberration', 0.00569, '°', SUN);
+const NU = literal('ψ₁', 'nutation in longitude, main term', 0.00478, '°', SUN);
+const EP0 = literal('ε₀,₀', 'obliquity at J2000.0 (23°26′21.448″)', 23 + 26 / 60 + 21.448 / 3600, '°', SUN);
+const EP1 = literal('ε₀,₁', 'obliquity, T term', 46.815, '″', SUN);
+const EP2 = literal('ε₀,₂', 'obliquity, T² term', 0.00059, '″', SUN);
+const EP3 = literal('ε₀,₃', 'obliquity, T³ term', 0.001813, '″', SUN);
+const EPN = literal('ε₁', 'nutation in obliquity, main term', 0.00256, '°', SUN);
+const TH0 = literal('θ₀,₀', 'mean sidereal time at J2000.0', 280.46061837, '°', SUN);
+const TH1 = literal('θ₀,₁', 'sidereal rate', 360.98564736629, '° d⁻¹', SUN);
+const TH2 = literal('θ₀,₂', 'sidereal time, T² term', 0.000387933, '°', SUN);
+const TH3 = literal('θ₀,₃', 'sidereal time, T³ divisor', 38710000, '–', SUN);
 
 // Refraction.
 const R0 = literal('r₀', 'overall factor', 3.51561, '°', REFR);
@@ -204,7 +220,7 @@ export const PHYSICS_METHODS: MethodGroup = {
     {
       id: 'heat-transfer',
       name: 'Convective heat transfer of the globe and the wick',
-      summary: 'How fast the air carries heat to or from the 2-inch globe (a sphere) and the wick (a cylinder across the flow).',
+      summary: 'How fast the air carries heat to or from the black globe (a sphere of the configured diameter) and the wick (a cylinder across the flow).',
       equation: [
         'Re = u·ρ·D/μ   with u = max(u₂, u_min)',
         eq`globe (sphere):   Nu = 2 + ${SPH_A}·√Re·Pr^${SPH_N}`,
@@ -219,14 +235,20 @@ export const PHYSICS_METHODS: MethodGroup = {
       ],
       constants: [
         U_MIN,
-        exported('D_g', 'globe diameter (the model\u2019s 2-inch globe, not the ISO 150 mm globe)', D_GLOBE, 'm', 'D_GLOBE'),
+        exported('D_g', 'globe diameter of the reference implementation (2 in), used for the reference-table checks', D_GLOBE, 'm', 'D_GLOBE'),
+        exported('D_std', 'diameter of the standard black globe, the default globe (physics.globeDiameter)', D_GLOBE_STANDARD, 'm', 'D_GLOBE_STANDARD'),
+        { symbol: 'D_min', name: 'smallest globe diameter accepted', value: GLOBE_DIAMETER_RANGE[0], unit: 'm', code: 'pipeline/physics/liljegren-solve.ts#GLOBE_DIAMETER_RANGE.0' },
+        { symbol: 'D_max', name: 'largest globe diameter accepted', value: GLOBE_DIAMETER_RANGE[1], unit: 'm', code: 'pipeline/physics/liljegren-solve.ts#GLOBE_DIAMETER_RANGE.1' },
         D_W,
         exported('Pr', 'Prandtl number of air', PRANDTL, '–', 'PRANDTL', 'c_p/(c_p + 1.25·R_air)'),
         K125,
         SPH_A, SPH_N, CYL_A, CYL_M, CYL_N,
       ],
       sources: ['bsl1960', 'bedingfield1950', 'liljegren2008'],
-      code: ['pipeline/physics/air-properties.ts sphereHeatTransfer(), cylinderHeatTransfer()', 'pipeline/physics/liljegren-solve.ts (the same, with terms hoisted per cell)'],
+      code: ['pipeline/physics/air-properties.ts sphereHeatTransfer(), cylinderHeatTransfer()', 'pipeline/physics/liljegren-solve.ts globeFactors() (the same, with terms hoisted per cell)'],
+      notes: [
+        'The globe\u2019s h_g falls with its diameter (the Nu = 2 term as 1/D, the Reynolds term as 1/√D), so a larger globe sheds less of its solar gain to the air and reads warmer in the sun. The code holds h_g for the 2-inch globe and scales it for the configured one: h_g(D) = (D_g/D)·(M(T) + c_g·√(D/D_g)·R(T)).',
+      ],
     },
     {
       id: 'globe-temperature',
@@ -255,7 +277,10 @@ export const PHYSICS_METHODS: MethodGroup = {
       ],
       sources: ['liljegren2008'],
       code: ['pipeline/physics/liljegren-solve.ts solveGlobe(), globeRoot()', 'pipeline/physics/kernel.ts wbgtKernel()'],
-      notes: ['Solved to the exact root by safeguarded Newton iteration with analytic derivatives; the reference code\u2019s damped loop stops up to about 0.015 °C away from it.'],
+      notes: [
+        'Solved to the exact root by safeguarded Newton iteration with analytic derivatives; the reference code\u2019s damped loop stops up to 0.0172 °C away from it (largest difference over the 150 rows of the reference table, with its geometry fed in: globe 0.0172 °C, natural wet bulb 0.0153 °C, WBGT 0.0138 °C).',
+        'Globe diameter: the screening limits (ISO 7243, NIOSH, ACGIH) are defined for WBGT measured with the standard 150 mm black globe (Parsons 2006 describing ISO 7243; the OSHA Technical Manual\u2019s 15 cm (6-inch) hollow copper sphere). The Liljegren reference implementation models a 2-inch globe, which reads cooler in the sun. The atlas computes the globe the limits assume: physics.globeDiameter = 0.15 m by default (0.0508 m reproduces the reference implementation; its table is checked at that diameter). The effect on the demo is under "Modelling choices and their effect on the demo".',
+      ],
     },
     {
       id: 'natural-wet-bulb',
@@ -291,7 +316,8 @@ export const PHYSICS_METHODS: MethodGroup = {
     {
       id: 'wbgt',
       name: 'Wet-bulb globe temperature (WBGT)',
-      summary: 'The outdoor WBGT from the three temperatures; the shade WBGT is the same model with no solar load (long-wave exchange kept).',
+      summary:
+        'The outdoor WBGT from the three temperatures. Three exposures: in the sun; in the shade, modelled as the open sky with the sun removed (no solar load, the globe and wick still exchange long-wave radiation with the sky and the ground); and under a shelter (see the next method).',
       equation: [eq`WBGT = ${W_NW}·T_nw + ${W_G}·T_g + ${W_A}·T_a`],
       symbols: [
         { symbol: 'T_nw', meaning: 'natural wet-bulb temperature', unit: '°C' },
@@ -299,36 +325,65 @@ export const PHYSICS_METHODS: MethodGroup = {
         { symbol: 'T_a', meaning: 'air temperature', unit: '°C' },
       ],
       constants: [W_NW, W_G, W_A],
-      sources: ['iso7243-2017', 'liljegren2008'],
+      sources: ['iso7243-2017', 'parsons2006', 'liljegren2008'],
       code: ['pipeline/physics/kernel.ts wbgtKernel()'],
+    },
+    {
+      id: 'sheltered',
+      name: 'Sheltered exposure (under a roof or canopy)',
+      summary:
+        'Work under a roof, an awning or a dense canopy open at the sides: no solar load, and the globe and wick see the shelter, taken as a black surface at the air temperature, instead of the sky (the ground is at the air temperature in every exposure). The same balances as in the open, with the sky\u2019s long-wave load replaced.',
+      equation: [
+        'L_shelter = ½·(ε_shelter + ε_sfc)·T_a⁴   in place of   L = ½·(ε_a + ε_sfc)·T_a⁴,   S = 0',
+        eq`T_g and T_w from the globe and wick balances with L_shelter;   WBGT_shelter = ${W_NW}·T_nw + ${W_G}·T_g + ${W_A}·T_a`,
+      ],
+      symbols: [
+        { symbol: 'ε_shelter', meaning: 'emissivity of the shelter', unit: '–' },
+        { symbol: 'L, L_shelter', meaning: 'long-wave load on the globe and wick, open sky and shelter', unit: 'K⁴' },
+      ],
+      constants: [exported('ε_shelter', 'emissivity of the shelter (a black surface at the air temperature)', EMIS_SHELTER, '–', 'EMIS_SHELTER'), EPS_SFC, W_NW, W_G, W_A],
+      sources: ['lemke2012', 'iso7243-2017', 'liljegren2008'],
+      code: ['pipeline/physics/liljegren-solve.ts solveCell(), globeRoot(), wetBulbRoot() (exposure 2)', 'pipeline/physics/kernel.ts wbgtKernel() (wbgtShelter)'],
+      notes: [
+        'The radiation assumption is the one of the indoor and in-shade WBGT of Lemke & Kjellstrom (2012): no radiant heat source, the globe at about the air temperature. With it the globe reads within a few hundredths of a degree of the air temperature, so WBGT_shelter ≈ 0.7·T_nw + 0.3·T_g, the weighting ISO 7243 gives without solar load. The open-sky shade is cooler than this because a clear sky radiates like a body well below the air temperature.',
+        'Not modelled: diffuse daylight and warm surfaces under or beside the shelter (a sun-heated roof, walls, machinery); where such sources exist, measure on site.',
+      ],
     },
     {
       id: 'sun-position',
       name: 'Position of the sun',
-      summary: 'Declination, right ascension, sidereal time and Earth–Sun distance at the middle of each hour, and the cosine of the zenith angle per cell.',
+      summary:
+        'Declination, right ascension, sidereal time and Earth–Sun distance at the middle of each hour (low-accuracy solar coordinates, about 0.01°), and the cosine of the zenith angle per cell. Used for 1900–2100, which covers ERA5 from 1940.',
       equation: [
-        eq`n = JD − ${JD0}`,
-        eq`L = ${L0} + ${L1}·n,   g = ${G0} + ${G1}·n   (degrees)`,
-        eq`λ = L + ${EC1}·sin g + ${EC2}·sin 2g,   ε = ${OB0} − ${OB1}·n`,
+        eq`T = (JD − ${JD0})/${JC}   (Julian centuries; UT used for TT)`,
+        eq`L₀ = ${L0} + ${L1}·T + ${L2}·T²,   M = ${M0} + ${M1}·T − ${M2}·T²   (degrees)`,
+        eq`e = ${E0} − ${E1}·T − ${E2}·T²`,
+        eq`C = (${C10} − ${C11}·T − ${C12}·T²)·sin M + (${C20} − ${C21}·T)·sin 2M + ${C3}·sin 3M`,
+        eq`R = ${RA}·(1 − e²)/(1 + e·cos(M + C))   (AU)`,
+        eq`Ω = ${ND0} − ${ND1}·T,   λ = L₀ + C − ${AB} − ${NU}·sin Ω`,
+        eq`ε = ${EP0} − (${EP1}·T + ${EP2}·T² − ${EP3}·T³)/3600 + ${EPN}·cos Ω`,
         'sin δ = sin ε·sin λ,   α = atan2(cos ε·sin λ, cos λ)',
-        eq`GMST = ${GM0} + ${GM1}·n + UT   (hours),   h = 15·GMST + lon − α`,
-        'cos θ = sin φ·sin δ + cos φ·cos δ·cos h',
-        eq`d = ${DS0} − ${DS1}·cos g − ${DS2}·cos 2g`,
+        eq`θ = ${TH0} + ${TH1}·(JD − ${JD0}) + ${TH2}·T² − T³/${TH3} − ${NU}·sin Ω·cos ε`,
+        'h = θ + lon − α,   cos θ_z = sin φ·sin δ + cos φ·cos δ·cos h',
       ],
       symbols: [
-        { symbol: 'JD', meaning: 'Julian date', unit: 'd' },
-        { symbol: 'δ, α', meaning: 'declination and right ascension', unit: '°' },
+        { symbol: 'JD', meaning: 'Julian date (exact, from the time in UTC)', unit: 'd' },
+        { symbol: 'L₀, M, C, λ', meaning: 'mean longitude, mean anomaly, equation of the centre, apparent longitude', unit: '°' },
+        { symbol: 'e, R', meaning: 'eccentricity of the Earth\u2019s orbit, Earth–Sun distance', unit: '–, AU' },
+        { symbol: 'ε, δ, α, θ', meaning: 'obliquity, declination, right ascension, apparent sidereal time', unit: '°' },
         { symbol: 'h, φ, lon', meaning: 'hour angle, latitude, longitude', unit: '°' },
-        { symbol: 'd', meaning: 'Earth–Sun distance', unit: 'AU' },
       ],
       constants: [
-        JD0, L0, L1, G0, G1, EC1, EC2, OB0, OB1, GM0, GM1, DS0, DS1, DS2,
+        JD0, JC, L0, L1, L2, M0, M1, M2, E0, E1, E2, C10, C11, C12, C20, C21, C3, RA, ND0, ND1, AB, NU, EP0, EP1, EP2, EP3, EPN, TH0, TH1, TH2, TH3,
         { symbol: 'Y₀', name: 'first year the formulas are used for', value: SOLAR_FIRST_YEAR, unit: 'year', code: 'pipeline/physics/solar-position.ts#SOLAR_FIRST_YEAR' },
         { symbol: 'Y₁', name: 'last year the formulas are used for', value: SOLAR_LAST_YEAR, unit: 'year', code: 'pipeline/physics/solar-position.ts#SOLAR_LAST_YEAR' },
       ],
-      sources: ['michalsky1988', 'liljegren2008'],
+      sources: ['meeus1998', 'reda2008'],
       code: [`${SUN}, hourAngle(), cosZenithInstant()`, 'pipeline/physics/geometry.ts geometryBlock()'],
-      notes: ['Hours outside the years the formulas are documented for get no value (status "time out of range").'],
+      notes: [
+        'Checked against the example of the NREL solar position algorithm report (Reda & Andreas 2008: declination within 0.0015°, hour angle within 0.0033°), against PyEphem 4.1.4 at 50 instants of 1900–2100 (cos θ_z within 10⁻⁴), and against the Astronomical Almanac formulas of the Liljegren reference code (Michalsky 1988) over their years 1950–2049 (cos θ_z within 0.75·10⁻⁴).',
+        'Hours outside 1900–2100 get no value (status "time out of range").',
+      ],
     },
     {
       id: 'refraction',

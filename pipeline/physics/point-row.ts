@@ -7,7 +7,8 @@ import { dewPointFromRelativeHumidity } from './humidity.ts';
 import { cosZenithApparentInstant, solarYearSupported, sunState } from './solar-position.ts';
 import { solarUsed } from './solar-inputs.ts';
 import { stabilityClass, windAt2m } from './wind.ts';
-import { wbgtKernel } from './kernel.ts';
+import { wbgtKernel, REFERENCE_GLOBE } from './kernel.ts';
+import type { GlobeFactors } from './liljegren-solve.ts';
 import { STATUS } from './status.ts';
 
 /** One row's inputs (DESIGN.md §4 point CSV columns). */
@@ -48,27 +49,42 @@ export interface PointOutput {
   solarUsed: number;
   wind2m: number;
   stabilityClass: number;
+  /** Globe, natural wet bulb, psychrometric wet bulb and WBGT in the sun [°C]. */
   tg: number;
   tnwb: number;
   tpsy: number;
   wbgt: number;
+  /** Globe, natural wet bulb and WBGT in the open-sky shade (the sun removed) [°C]. */
+  tgShade: number;
+  tnwbShade: number;
   wbgtShade: number;
+  /** Globe, natural wet bulb and WBGT under a shelter at the air temperature [°C]. */
+  tgShelter: number;
+  tnwbShelter: number;
+  wbgtShelter: number;
   dewPointClamped: boolean;
 }
 
 const one = () => new Float64Array(1);
 const I = { ta: one(), td: one(), p: one(), u: one(), s: one(), cz: one(), f: one() };
-const O = { sun: one(), shade: one(), tg: one(), tw: one(), psy: one(), status: new Uint8Array(1) };
+const O = {
+  sun: one(), shade: one(), shelter: one(), tg: one(), tw: one(), tgShade: one(), twShade: one(), tgShelter: one(), twShelter: one(), psy: one(),
+  status: new Uint8Array(1),
+};
 
 function fail(status: number, partial: Partial<PointOutput> = {}): PointOutput {
   return {
     status, cosZenith: NaN, directFraction: NaN, solarUsed: NaN, wind2m: NaN, stabilityClass: 0,
-    tg: NaN, tnwb: NaN, tpsy: NaN, wbgt: NaN, wbgtShade: NaN, dewPointClamped: false, ...partial,
+    tg: NaN, tnwb: NaN, tpsy: NaN, wbgt: NaN, tgShade: NaN, tnwbShade: NaN, wbgtShade: NaN, tgShelter: NaN, tnwbShelter: NaN, wbgtShelter: NaN,
+    dewPointClamped: false, ...partial,
   };
 }
 
-/** Computes one row; never throws for bad values, returns a status instead. */
-export function computePoint(r: PointInput): PointOutput {
+/**
+ * Computes one row; never throws for bad values, returns a status instead.
+ * @param globe globe diameter factors (`globeFactors(d)`); default the reference implementation's 2-inch globe
+ */
+export function computePoint(r: PointInput, globe: GlobeFactors = REFERENCE_GLOBE): PointOutput {
   if (!Number.isFinite(r.timeMs)) return fail(STATUS.timeOutOfRange);
   if (!(r.avgMinutes >= 0 && r.avgMinutes <= 1440)) return fail(STATUS.periodOutOfRange);
   if (!(r.lat >= -90 && r.lat <= 90 && r.lon >= -360 && r.lon <= 360)) return fail(STATUS.positionOutOfRange);
@@ -95,13 +111,20 @@ export function computePoint(r: PointInput): PointOutput {
   O.status[0] = 0;
   const counts = wbgtKernel(
     { airTemperature: I.ta, dewPointTemperature: I.td, surfacePressure: I.p, wind2m: I.u, solar: I.s, cosZenith: I.cz, directFraction: I.f },
-    { wbgtSun: O.sun, wbgtShade: O.shade, globeSun: O.tg, wetBulbSun: O.tw, psychrometric: O.psy, status: O.status },
+    {
+      wbgtSun: O.sun, wbgtShade: O.shade, globeSun: O.tg, wetBulbSun: O.tw, globeShade: O.tgShade, wetBulbShade: O.twShade,
+      wbgtShelter: O.shelter, globeShelter: O.tgShelter, wetBulbShelter: O.twShelter, psychrometric: O.psy, status: O.status,
+    },
     1,
+    0,
+    globe,
   );
   const geo = { cosZenith: cz, directFraction: su.directFraction, solarUsed: su.solar, wind2m: u2, stabilityClass: r.windHeight === 2 ? 0 : cls };
   if (O.status[0] !== 0) return fail(O.status[0], geo);
   return {
-    status: 0, ...geo, tg: O.tg[0], tnwb: O.tw[0], tpsy: O.psy[0], wbgt: O.sun[0], wbgtShade: O.shade[0],
+    status: 0, ...geo, tg: O.tg[0], tnwb: O.tw[0], tpsy: O.psy[0], wbgt: O.sun[0],
+    tgShade: O.tgShade[0], tnwbShade: O.twShade[0], wbgtShade: O.shade[0],
+    tgShelter: O.tgShelter[0], tnwbShelter: O.twShelter[0], wbgtShelter: O.shelter[0],
     dewPointClamped: counts.dewPointClamped > 0,
   };
 }

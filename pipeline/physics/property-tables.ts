@@ -12,7 +12,7 @@
  * Z with V = 1/W for the wick, the two parts of h_g for the globe, and e_s with the sky
  * emissivity at the dew point; and `(u·P)^0.6` of the wick coefficient from {@link pow12}.
  */
-import { RATIO, WICK_EXPONENT, MOIST_AIR_FACTOR, PRANDTL, R_AIR, M_AIR, M_H2O, SIGMA_LJ_AIR, EPS_K_AIR, CP_AIR, D_GLOBE } from './constants.ts';
+import { RATIO, WICK_EXPONENT, MOIST_AIR_FACTOR, PRANDTL, R_AIR, M_AIR, M_H2O, SIGMA_LJ_AIR, EPS_K_AIR, CP_AIR, D_GLOBE, BUCK_1981, KELVIN } from './constants.ts';
 
 export const TABLE_T_MIN = 150;
 export const TABLE_STEP = 0.25;
@@ -29,14 +29,21 @@ const K_D =
 const C_SC = (C_MU * R_AIR) / (100 * K_D);
 const SC_EXP = 0.834;
 const PR_SC = Math.pow(PRANDTL / C_SC, WICK_EXPONENT);
-const ES_A = 6.1121 * MOIST_AIR_FACTOR;
+const ES_A = BUCK_1981.a * MOIST_AIR_FACTOR;
+const ES_B = BUCK_1981.b;
+/**
+ * Buck's form in kelvin: `b·(T − 273.15)/(T − T_c)` with T_c = 273.15 − c [K] (32.18 K); the
+ * solver's e_s derivatives use the same offset ({@link BUCK_T_OFFSET_K}).
+ */
+export const BUCK_T_OFFSET_K = KELVIN - BUCK_1981.c;
+const ES_BC = BUCK_1981.b * BUCK_1981.c;
 
 /** e_s(T) [hPa] and d e_s/dT [hPa K⁻¹], exact. */
 export function esExact(T: number): number {
-  return ES_A * Math.exp((17.502 * (T - 273.15)) / (T - 32.18));
+  return ES_A * Math.exp((ES_B * (T - KELVIN)) / (T - BUCK_T_OFFSET_K));
 }
 function esDeriv(T: number): number {
-  return (esExact(T) * 17.502 * 240.97) / ((T - 32.18) * (T - 32.18));
+  return (esExact(T) * ES_BC) / ((T - BUCK_T_OFFSET_K) * (T - BUCK_T_OFFSET_K));
 }
 /** Z(T) [K], exact. */
 export function zExact(T: number): number {

@@ -2,11 +2,20 @@
  * Where the sun is: declination, right ascension, sidereal time, hour angle, cosine of the
  * zenith at an instant and averaged over a period, and the Earth–Sun distance.
  *
- * Sun position: the Astronomical Almanac's low-precision formulas (Michalsky 1988, Solar Energy
- * 40:227–235; valid 1950–2049, about 0.01° in position), the formulas the Liljegren et al. 2008
- * reference code uses (METHODS.md §3.2.6). Refraction: Michalsky 1988's standard-atmosphere
- * formula (1013.25 hPa, 15 °C). Period means: METHODS.md §4.2. NOAA's Spencer-series formulas
- * (METHODS.md §4.1) are kept for comparison and checks.
+ * Sun position ({@link sunState}): the low-accuracy solar coordinates of Meeus (1998),
+ * Astronomical Algorithms 2nd ed., ch. 25 (mean longitude, mean anomaly, equation of the centre,
+ * eccentricity, apparent longitude with the main nutation and aberration terms, obliquity eq.
+ * 22.2 with the nutation correction) and the mean sidereal time of ch. 12 (eq. 12.4) made
+ * apparent with the same nutation term: the formulas of NOAA's solar calculator. About 0.01° in
+ * position; used for 1900–2100 ({@link SOLAR_FIRST_YEAR}–{@link SOLAR_LAST_YEAR}), checked against
+ * the NREL SPA report's example (Reda & Andreas 2008) and PyEphem 4.1.4 (test/physics/sun-position.test.ts).
+ * The Julian date comes exactly from the time in ms, not from the spreadsheet's calendar
+ * shortcut that limits NOAA's spreadsheet to 1901–2099. The Astronomical Almanac's low-precision
+ * formulas (Michalsky 1988, Solar Energy 40:227–235; 1950–2049), which the Liljegren et al. 2008
+ * reference code uses, are kept as {@link sunStateAlmanac} for the comparison over their years.
+ * Refraction: Michalsky 1988's standard-atmosphere formula
+ * (1013.25 hPa, 15 °C). Period means: METHODS.md §4.2. NOAA's Spencer-series formulas (METHODS.md
+ * §4.1) are kept for comparison and checks.
  *
  * Time is always milliseconds since 1970-01-01 UTC; angles in degrees at the API, radians inside.
  */
@@ -20,11 +29,14 @@ const JD_UNIX_EPOCH = 2_440_587.5;
 /** Julian date of J2000.0 [d]. */
 const JD_J2000 = 2_451_545.0;
 
-/** First and last calendar year the Almanac formulas are documented for [year] (METHODS.md §3.2.6). */
-export const SOLAR_FIRST_YEAR = 1950;
-export const SOLAR_LAST_YEAR = 2049;
+/** First and last calendar year the sun position is used for [year] (Meeus low-accuracy formulas, checked over 1900–2100). */
+export const SOLAR_FIRST_YEAR = 1900;
+export const SOLAR_LAST_YEAR = 2100;
+/** First and last year of the Astronomical Almanac's low-precision formulas (Michalsky 1988) [year]. */
+export const ALMANAC_FIRST_YEAR = 1950;
+export const ALMANAC_LAST_YEAR = 2049;
 
-/** Sun position at one instant, from the Almanac low-precision formulas. */
+/** Sun position at one instant. */
 export interface SunState {
   /** Declination [rad]. */
   declination: number;
@@ -44,7 +56,7 @@ export function daysSinceJ2000(timeMs: number): number {
   return timeMs / MS_PER_DAY + JD_UNIX_EPOCH - JD_J2000;
 }
 
-/** True when the UTC calendar year of `timeMs` [ms since 1970 UTC] lies in 1950–2049. */
+/** True when the UTC calendar year of `timeMs` [ms since 1970 UTC] lies in 1900–2100. */
 export function solarYearSupported(timeMs: number): boolean {
   if (!Number.isFinite(timeMs)) return false;
   const y = new Date(timeMs).getUTCFullYear();
@@ -57,12 +69,55 @@ function wrap2pi(x: number): number {
 }
 
 /**
- * Sun state at an instant. Almanac low-precision formulas (Michalsky 1988, eqs. for mean
- * longitude, mean anomaly, ecliptic longitude, obliquity, GMST; METHODS.md §3.2.6, §3.2.9 for
- * the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`).
+ * Sun state at an instant, Meeus (1998) low-accuracy formulas, with T in Julian centuries from
+ * J2000.0 (UT used for TT: ΔT of a minute or two moves the sun by under 0.001°):
+ * - mean longitude `L₀ = 280.46646 + 36000.76983·T + 0.0003032·T²`, mean anomaly
+ *   `M = 357.52911 + 35999.05029·T − 0.0001537·T²`, eccentricity
+ *   `e = 0.016708634 − 0.000042037·T − 0.0000001267·T²` (eqs. 25.2–25.4) [°, –];
+ * - equation of the centre `C = (1.914602 − 0.004817·T − 0.000014·T²)·sin M +
+ *   (0.019993 − 0.000101·T)·sin 2M + 0.000289·sin 3M`; true longitude ⊙ = L₀ + C, true anomaly
+ *   ν = M + C; distance `R = 1.000001018·(1 − e²)/(1 + e·cos ν)` [AU] (eq. 25.5);
+ * - apparent longitude `λ = ⊙ − 0.00569 − 0.00478·sin Ω`, `Ω = 125.04 − 1934.136·T`; obliquity
+ *   `ε = ε₀ + 0.00256·cos Ω`, ε₀ = 23°26′21.448″ − 46.8150″·T − 0.00059″·T² + 0.001813″·T³
+ *   (eq. 22.2) [°];
+ * - `α = atan2(cos ε·sin λ, cos λ)`, `δ = asin(sin ε·sin λ)` (eqs. 25.6, 25.7);
+ * - sidereal time `θ₀ = 280.46061837 + 360.98564736629·(JD − 2451545) + 0.000387933·T² − T³/38710000`
+ *   (eq. 12.4), made apparent with the nutation in longitude of the same approximation,
+ *   `Δψ ≈ −0.00478·sin Ω`: `θ = θ₀ + Δψ·cos ε` [°].
  * @param timeMs instant [ms since 1970 UTC]
  */
 export function sunState(timeMs: number): SunState {
+  const n = daysSinceJ2000(timeMs);
+  const T = n / 36525;
+  const L0 = 280.46646 + T * (36000.76983 + 0.0003032 * T);
+  const M = (357.52911 + T * (35999.05029 - 0.0001537 * T)) * RAD;
+  const e = 0.016708634 - T * (0.000042037 + 0.0000001267 * T);
+  const C = Math.sin(M) * (1.914602 - T * (0.004817 + 0.000014 * T)) + Math.sin(2 * M) * (0.019993 - 0.000101 * T) + Math.sin(3 * M) * 0.000289;
+  const nu = M + C * RAD;
+  const distanceAu = (1.000001018 * (1 - e * e)) / (1 + e * Math.cos(nu));
+  const omega = (125.04 - 1934.136 * T) * RAD;
+  const nutation = -0.00478 * Math.sin(omega);
+  const lambda = (L0 + C - 0.00569 + nutation) * RAD;
+  const eps0 = 23 + (26 + (21.448 - T * (46.815 + T * (0.00059 - T * 0.001813))) / 60) / 60;
+  const eps = (eps0 + 0.00256 * Math.cos(omega)) * RAD;
+  const sinL = Math.sin(lambda);
+  const rightAscension = wrap2pi(Math.atan2(Math.cos(eps) * sinL, Math.cos(lambda)));
+  const declination = Math.asin(Math.sin(eps) * sinL);
+  // θ₀ in degrees: the day count's whole turns are taken out first (360.98564736629·n = 360·n + 0.98564736629·n).
+  const theta0 = 280.46061837 + 0.98564736629 * n + 360 * (n - Math.floor(n)) + T * T * (0.000387933 - T / 38710000);
+  const gmst = wrap2pi((theta0 + nutation * Math.cos(eps)) * RAD);
+  return { declination, rightAscension, gmst, distanceAu, sinDec: Math.sin(declination), cosDec: Math.cos(declination) };
+}
+
+/**
+ * Sun state at an instant by the Astronomical Almanac's low-precision formulas (Michalsky 1988,
+ * eqs. for mean longitude, mean anomaly, ecliptic longitude, obliquity, GMST; METHODS.md §3.2.6,
+ * §3.2.9 for the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`), the formulas of the
+ * Liljegren et al. 2008 reference code, documented for 1950–2049. Kept for the comparison with
+ * {@link sunState} over those years (test/physics/sun-position.test.ts).
+ * @param timeMs instant [ms since 1970 UTC]
+ */
+export function sunStateAlmanac(timeMs: number): SunState {
   const n = daysSinceJ2000(timeMs);
   const meanLon = wrap2pi((280.46 + 0.9856474 * n) * RAD);
   const g = wrap2pi((357.528 + 0.9856003 * n) * RAD);

@@ -1,15 +1,16 @@
 /**
  * Which gridded figures become map layers (PNG for the map, GeoTIFF for GIS) and where they go:
  * `data/layers/<figure>/<combo>/<statistic>-<period>.{png,tif}`. Months of one figure ×
- * combination × statistic share one colour domain, so the map compares months honestly.
+ * combination × statistic share one colour domain, so the map compares months honestly. Each
+ * layer's grid is put together from the merge tiles' pieces (`field`), one layer in memory at a
+ * time; the domains come from the tiles' per-field minima and maxima.
  */
 import { join } from 'node:path';
 import { figureStyle, nicheClassStyle, niceDomain, writeLayerFiles, type FigureKind, type LayerFiles, type LegendSpec } from './layers/index.ts';
-import type { FigureNormals, NicheResult } from '../run/climate-step.ts';
-import { PERIODS } from '../run/figures.ts';
+import { PERIODS, type FigureDef } from '../reduce/figures.ts';
 import { periodLabel } from './region-table.ts';
-import { nicheClassCode } from '../climate/index.ts';
 import type { HorizontalGrid } from '../model/grid.ts';
+import { MAPPED, NICHE_FIGURE, type GridField } from './grid-fields.ts';
 
 /** A published layer, as the manifest lists it. */
 export interface LayerEntry {
@@ -35,53 +36,66 @@ const KIND: Record<string, FigureKind> = {
   'wbgt-mean': 'meanWbgt',
 };
 
-/** Statistics mapped per figure. */
-const MAPPED: Record<string, Array<'mean' | 'p90'>> = {
-  'hours-above-limit-shift': ['mean', 'p90'],
-  'hours-lost-shift': ['mean', 'p90'],
-  'capacity-loss-shift': ['mean'],
-  'wbgt-mean': ['mean'],
-};
-
-function gridValues(values: Float64Array, nFields: number, field: number, cells: Int32Array, nGrid: number): Float32Array {
-  const out = new Float32Array(nGrid).fill(NaN);
-  for (let c = 0; c < cells.length; c++) out[cells[c]] = values[c * nFields + field];
-  return out;
+/** Smallest and largest finite value of each field over the grid (NaN, NaN when none) [unit of the field]. */
+export interface FieldRange {
+  min: Float64Array;
+  max: Float64Array;
 }
 
+/** An empty range for `n` fields. */
+export function emptyFieldRange(n: number): FieldRange {
+  return { min: new Float64Array(n).fill(NaN), max: new Float64Array(n).fill(NaN) };
+}
+
+/** Folds range `b` (one tile's) into `a`. */
+export function addFieldRange(a: FieldRange, b: FieldRange): void {
+  for (let f = 0; f < a.min.length; f++) {
+    if (!(b.min[f] >= a.min[f])) a.min[f] = Number.isNaN(b.min[f]) ? a.min[f] : b.min[f];
+    if (!(b.max[f] <= a.max[f])) a.max[f] = Number.isNaN(b.max[f]) ? a.max[f] : b.max[f];
+  }
+}
+
+/** Layers to draw, for the progress bar [–]. */
+export function countLayers(fields: readonly GridField[]): number {
+  return fields.filter((f) => f.layer).length;
+}
+
+/**
+ * Draws every layer in the order the manifest lists them (figures in definition order, then
+ * combination, statistic, period; the niche last).
+ * @param field the whole grid of field `index`, row-major [unit of the field], NaN = no data
+ */
 export async function writeAtlasLayers(
   dataDir: string,
   grid: HorizontalGrid,
-  cells: Int32Array,
-  figures: readonly FigureNormals[],
-  niche: NicheResult,
+  defs: readonly FigureDef[],
+  fields: readonly GridField[],
+  range: FieldRange,
+  field: (index: number) => Float32Array,
   onLayer: () => void = () => {},
 ): Promise<LayerEntry[]> {
-  const nGrid = grid.lat.length * grid.lon.length;
   const entries: LayerEntry[] = [];
   const g = (values: Float32Array) => ({ lat: grid.lat, lon: grid.lon, values });
-  for (const fn of figures) {
-    const def = fn.series.def;
+  const find = (figure: string, comboIndex: number, statistic: string, period: number) =>
+    fields.find((f) => f.figure === figure && f.comboIndex === comboIndex && f.statistic === statistic && f.period === period && f.layer)!;
+  for (const def of defs) {
     const stats = MAPPED[def.id];
     if (!stats) continue;
-    const nC = def.combos.length;
-    const nFields = PERIODS * nC;
-    for (let k = 0; k < nC; k++) {
+    for (let k = 0; k < def.combos.length; k++) {
       for (const stat of stats) {
-        const source = stat === 'mean' ? fn.cell.mean : fn.cell.p90;
-        const monthly = Array.from({ length: PERIODS - 1 }, (_, p) => gridValues(source, nFields, p * nC + k, cells, nGrid));
-        const annual = gridValues(source, nFields, (PERIODS - 1) * nC + k, cells, nGrid);
+        const months = Array.from({ length: PERIODS - 1 }, (_, p) => find(def.id, k, stat, p));
+        const year = find(def.id, k, stat, PERIODS - 1);
         const fromZero = def.units === 'h';
-        const monthDomain = safeDomain(monthly, fromZero);
-        const yearDomain = safeDomain([annual], fromZero);
+        const monthDomain = safeDomain(months.map((f) => f.index), range, fromZero);
+        const yearDomain = safeDomain([year.index], range, fromZero);
         for (let p = 0; p < PERIODS; p++) {
-          const values = p < PERIODS - 1 ? monthly[p] : annual;
+          const f = p < PERIODS - 1 ? months[p] : year;
           const domain = p < PERIODS - 1 ? monthDomain : yearDomain;
           const period = periodLabel(p);
           const dir = join(dataDir, 'layers', def.id, def.combos[k]);
           const name = `${stat}-${period}`;
           const style = figureStyle(KIND[def.id], domain, def.units, { title: `${def.label} (${stat === 'p90' ? '90th-percentile year' : 'baseline mean'})` });
-          const files = await writeLayerFiles(dir, name, g(values), style, { description: `${def.label}, ${def.combos[k]}, ${stat}, period ${period}`, noData: -9999 });
+          const files = await writeLayerFiles(dir, name, g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, ${stat}, period ${period}`, noData: -9999 });
           entries.push(entry(`${def.id}/${def.combos[k]}/${name}`, def.id, def.combos[k], stat, period, def.units, `layers/${def.id}/${def.combos[k]}/`, files));
           onLayer();
         }
@@ -89,24 +103,27 @@ export async function writeAtlasLayers(
     }
   }
   // Mean annual temperature over the baseline, and its niche class.
-  const mat = new Float32Array(nGrid).fill(NaN);
-  const cls = new Float32Array(nGrid).fill(NaN);
-  for (let c = 0; c < cells.length; c++) {
-    mat[cells[c]] = niche.assessment.baselineMat[c];
-    const v = niche.assessment.baselineMat[c];
-    cls[cells[c]] = Number.isFinite(v) ? nicheClassCode(v) : NaN;
-  }
+  const mat = find(NICHE_FIGURE, 0, 'baseline', PERIODS - 1);
+  const cls = find(NICHE_FIGURE, 0, 'class', PERIODS - 1);
   const dir = join(dataDir, 'layers', 'mean-annual-temperature', 'air');
-  const matFiles = await writeLayerFiles(dir, 'baseline-year', g(mat), figureStyle('meanAnnualTemperature', safeDomain([mat], false), 'degC', { title: 'Mean annual temperature, baseline' }), { description: 'Mean annual air temperature over the baseline years', noData: -9999 });
+  const matFiles = await writeLayerFiles(dir, 'baseline-year', g(field(mat.index)), figureStyle('meanAnnualTemperature', safeDomain([mat.index], range, false), 'degC', { title: 'Mean annual temperature, baseline' }), { description: 'Mean annual air temperature over the baseline years', noData: -9999 });
   entries.push(entry('mean-annual-temperature/air/baseline-year', 'mean-annual-temperature', 'air', 'baseline', 'year', 'degC', 'layers/mean-annual-temperature/air/', matFiles));
-  const clsFiles = await writeLayerFiles(dir, 'class-year', g(cls), nicheClassStyle(), { description: 'Class of the baseline mean annual temperature against the human climate niche', noData: -9999 });
+  onLayer();
+  const clsFiles = await writeLayerFiles(dir, 'class-year', g(field(cls.index)), nicheClassStyle(), { description: 'Class of the baseline mean annual temperature against the human climate niche', noData: -9999 });
   entries.push(entry('mean-annual-temperature/air/class-year', 'niche-class', 'air', 'class', 'year', '1', 'layers/mean-annual-temperature/air/', clsFiles));
+  onLayer();
   return entries;
 }
 
-function safeDomain(layers: Float32Array[], fromZero: boolean): [number, number] {
+/**
+ * The nice domain over some fields: niceDomain of their smallest and largest finite values (the
+ * domain spans min to max), [0, 1] when none has a value.
+ */
+function safeDomain(indices: readonly number[], range: FieldRange, fromZero: boolean): [number, number] {
+  const ends: number[] = [];
+  for (const i of indices) if (Number.isFinite(range.min[i])) ends.push(range.min[i], range.max[i]);
   try {
-    return niceDomain(layers, { fromZero });
+    return niceDomain([Float32Array.from(ends)], { fromZero });
   } catch {
     return [0, 1];
   }

@@ -18,8 +18,8 @@
  * atlas-cells.csv and niche.json.
  */
 import { join } from 'node:path';
-import type { FigureNormals, NicheResult } from '../run/climate-step.ts';
-import { PERIODS } from '../run/figures.ts';
+import type { CellFigureNormals, CellNiche } from './figure-normals.ts';
+import { PERIODS, type FigureDef } from '../reduce/figures.ts';
 import type { HorizontalGrid } from '../model/grid.ts';
 import { writeFileAtomic } from '../model/effects.ts';
 import { NICHE_CLASSES } from '../climate/index.ts';
@@ -71,6 +71,12 @@ export interface CellFiguresIndex {
   figures: Array<{ id: string; label: string; units: string; combos: string[]; inCellTable: boolean }>;
   /** Chunks that exist (tiles with at least one land cell): id, path below the site, cell count. */
   chunks: Array<{ id: string; path: string; cells: number }>;
+  /**
+   * The per-cell tables, one per band of grid rows [y0, y1) (row 0 the southernmost), and the
+   * NetCDF file of every cell: the downloads a cell's figures come from.
+   */
+  tables: Array<{ path: string; rows: [number, number] }>;
+  netcdf: string;
   /** Land cells in all chunks. */
   landCells: number;
 }
@@ -86,27 +92,32 @@ function step(v: Float64Array): number {
 
 const finiteOrNull = (v: number): number | null => (Number.isFinite(v) ? v : null);
 
-/** The index and chunks of the per-cell figures (pure; see the file comment). */
+/** The figures the chunks hold, in {@link CELL_FIGURES} order; a catalogued error names a missing one. */
+export function chosenCellFigures<T extends { def: FigureDef }>(figures: readonly T[]): T[] {
+  return CELL_FIGURES.map((id) => {
+    const fn = figures.find((f) => f.def.id === id);
+    if (!fn) throw CellFigureMissing({ figure: id, present: figures.map((f) => f.def.id) });
+    return fn;
+  });
+}
+
+/**
+ * The chunks of the per-cell figures of `cells` (pure; see the file comment). `cells` must hold
+ * every land cell of each chunk it touches: merge tiles are cut at multiples of the chunk rows.
+ */
 export function cellFigureChunks(
-  figures: readonly FigureNormals[],
+  figures: readonly CellFigureNormals[],
   cells: Int32Array,
   grid: HorizontalGrid,
-  niche: NicheResult,
+  niche: CellNiche,
   tile: { rows: number; cols: number } = DEFAULT_CELL_TILE,
-): { index: CellFiguresIndex; chunks: CellChunk[] } {
-  if (!Number.isInteger(tile.rows) || !Number.isInteger(tile.cols) || tile.rows < 1 || tile.cols < 1) {
-    throw CellTileInvalid({ rows: tile.rows, cols: tile.cols }, { key: 'tile' });
-  }
+): CellChunk[] {
+  checkTile(tile);
   const nLat = grid.lat.length;
   const nLon = grid.lon.length;
   const nGrid = nLat * nLon;
-  const chosen = CELL_FIGURES.map((id) => {
-    const fn = figures.find((f) => f.series.def.id === id);
-    if (!fn) throw CellFigureMissing({ figure: id, present: figures.map((f) => f.series.def.id) });
-    return fn;
-  });
+  const chosen = chosenCellFigures(figures);
   const byChunk = new Map<string, CellRecord[]>();
-  const a = niche.assessment;
   for (let c = 0; c < cells.length; c++) {
     const g = cells[c];
     if (!Number.isInteger(g) || g < 0 || g >= nGrid) throw CellOutsideGrid({ cell: g, nGrid }, { key: `cells[${c}]` });
@@ -118,13 +129,13 @@ export function cellFigureChunks(
       lon: roundTo(grid.lon[x], 4),
       figures: {},
       niche: {
-        baselineMat: finiteOrNull(roundTo(a.baselineMat[c], 2)),
-        latestMat: finiteOrNull(roundTo(a.latestMat[c], 2)),
-        baselineClass: Number.isFinite(a.baselineMat[c]) ? NICHE_CLASSES[a.baselineClass[c]] : null,
+        baselineMat: finiteOrNull(roundTo(niche.baselineMat[c], 2)),
+        latestMat: finiteOrNull(roundTo(niche.latestMat[c], 2)),
+        baselineClass: Number.isFinite(niche.baselineMat[c]) ? NICHE_CLASSES[niche.baselineClass[c]] : null,
       },
     };
     for (const fn of chosen) {
-      const nC = fn.series.def.combos.length;
+      const nC = fn.def.combos.length;
       const perCombo: CellValues[][] = [];
       for (let k = 0; k < nC; k++) {
         const periods: CellValues[] = [];
@@ -139,46 +150,65 @@ export function cellFigureChunks(
         }
         perCombo.push(periods);
       }
-      record.figures[fn.series.def.id] = perCombo;
+      record.figures[fn.def.id] = perCombo;
     }
     const id = cellChunkId(y, x, tile);
     const list = byChunk.get(id);
     if (list) list.push(record);
     else byChunk.set(id, [record]);
   }
-  const chunks = [...byChunk.entries()]
+  return [...byChunk.entries()]
     .map(([id, list]) => ({ id, cells: list.sort((p, q) => p.cell - q.cell) }))
     .sort((p, q) => p.cells[0].cell - q.cells[0].cell);
-  const index: CellFiguresIndex = {
+}
+
+function checkTile(tile: { rows: number; cols: number }): void {
+  if (!Number.isInteger(tile.rows) || !Number.isInteger(tile.cols) || tile.rows < 1 || tile.cols < 1) {
+    throw CellTileInvalid({ rows: tile.rows, cols: tile.cols }, { key: 'tile' });
+  }
+}
+
+/** A written chunk, as the index lists it. */
+export type CellChunkEntry = CellFiguresIndex['chunks'][number];
+
+/** Writes the chunks of some cells as `dataDir/cells/<chunk>.json` and returns their index entries. */
+export async function writeCellChunks(dataDir: string, chunks: readonly CellChunk[]): Promise<CellChunkEntry[]> {
+  const out: CellChunkEntry[] = [];
+  for (const ch of chunks) {
+    await writeFileAtomic(join(dataDir, 'cells', `${ch.id}.json`), JSON.stringify(ch));
+    out.push({ id: ch.id, path: `data/cells/${ch.id}.json`, cells: ch.cells.length });
+  }
+  return out;
+}
+
+/**
+ * The index of the per-cell figures (pure): the grid, the tile size, the periods, statistics and
+ * figures, and every tile's chunks (listed by their first cell, as written).
+ */
+export function cellFiguresIndex(
+  defs: readonly FigureDef[],
+  grid: HorizontalGrid,
+  chunks: ReadonlyArray<CellChunkEntry & { firstCell: number }>,
+  tile: { rows: number; cols: number } = DEFAULT_CELL_TILE,
+  tables: ReadonlyArray<{ path: string; rows: [number, number] }> = [],
+): CellFiguresIndex {
+  checkTile(tile);
+  const chosen = chosenCellFigures(defs.map((def) => ({ def })));
+  const sorted = [...chunks].sort((a, b) => a.firstCell - b.firstCell);
+  return {
     version: 1,
-    grid: { nLat, nLon, lat0: grid.lat[0], lon0: grid.lon[0], dLat: step(grid.lat), dLon: step(grid.lon) },
+    grid: { nLat: grid.lat.length, nLon: grid.lon.length, lat0: grid.lat[0], lon0: grid.lon[0], dLat: step(grid.lat), dLon: step(grid.lon) },
     tile: { rows: tile.rows, cols: tile.cols },
     periods: Array.from({ length: PERIODS }, (_, p) => periodLabel(p)),
     statistics: [...CELL_STATISTICS],
-    figures: chosen.map((fn) => ({
-      id: fn.series.def.id,
-      label: fn.series.def.label,
-      units: fn.series.def.units,
-      combos: [...fn.series.def.combos],
-      inCellTable: CELL_TABLE_FIGURES.includes(fn.series.def.id),
-    })),
-    chunks: chunks.map((ch) => ({ id: ch.id, path: `data/cells/${ch.id}.json`, cells: ch.cells.length })),
-    landCells: cells.length,
+    figures: chosen.map(({ def }) => ({ id: def.id, label: def.label, units: def.units, combos: [...def.combos], inCellTable: CELL_TABLE_FIGURES.includes(def.id) })),
+    chunks: sorted.map((c) => ({ id: c.id, path: c.path, cells: c.cells })),
+    landCells: sorted.reduce((s, c) => s + c.cells, 0),
+    tables: [...tables].sort((a, b) => a.rows[0] - b.rows[0]).map((t) => ({ path: t.path, rows: [t.rows[0], t.rows[1]] })),
+    netcdf: CELL_NETCDF_PATH,
   };
-  return { index, chunks };
 }
 
-/** Writes `dataDir/cells/index.json` and one file per chunk, each atomically. */
-export async function writeCellFigures(
-  dataDir: string,
-  figures: readonly FigureNormals[],
-  cells: Int32Array,
-  grid: HorizontalGrid,
-  niche: NicheResult,
-  tile: { rows: number; cols: number } = DEFAULT_CELL_TILE,
-): Promise<CellFiguresIndex> {
-  const { index, chunks } = cellFigureChunks(figures, cells, grid, niche, tile);
-  for (const ch of chunks) await writeFileAtomic(join(dataDir, 'cells', `${ch.id}.json`), JSON.stringify(ch));
-  await writeFileAtomic(join(dataDir, 'cells', 'index.json'), JSON.stringify(index));
-  return index;
-}
+/** Path of the per-cell NetCDF below the site root. */
+export const CELL_NETCDF_PATH = 'data/atlas-cells.nc';
+

@@ -1,27 +1,36 @@
 /**
- * The atlas-wide table (`data/atlas-cells.csv`): per land cell, period and work evaluation, the
- * baseline mean, median and 90th-percentile year of shift hours above the limit and shift hours
- * lost per worker [h]. One row per cell × period × figure × evaluation; statistics as columns.
+ * The per-cell tables (`data/cell-tables/<tile>.csv`, one per merge tile, for spreadsheets): per
+ * land cell, period and work evaluation, the baseline mean, median and 90th-percentile year of
+ * shift hours above the limit and shift hours lost per worker [h]. One row per cell × period ×
+ * figure × evaluation; statistics as columns. Rows are handed to `emit` in pieces, so a tile's
+ * table is never one string.
  */
-import type { FigureNormals } from '../run/climate-step.ts';
-import { PERIODS } from '../run/figures.ts';
+import type { CellFigureNormals } from './figure-normals.ts';
+import { PERIODS } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
 import { csvLine, roundTo } from './csv.ts';
 import { periodLabel } from './region-table.ts';
 
 export const CELL_TABLE_FIGURES = ['hours-above-limit-shift', 'hours-lost-shift'];
 
-export function cellTableCsv(figures: readonly FigureNormals[], cells: Int32Array, lat: Float64Array, lon: Float64Array): string {
+export const CELL_TABLE_COLUMNS = ['cell_id', 'lat', 'lon', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'mean', 'median', 'p90', 'unit', 'years_used'];
+
+/**
+ * Emits the table of `cells` (with a header line when `header`), one cell's rows at a time.
+ * @param emit receives consecutive pieces of the CSV text
+ */
+export function cellTableCsv(figures: readonly CellFigureNormals[], cells: Int32Array, lat: Float64Array, lon: Float64Array, emit: (text: string) => void, header = true): void {
   const nLon = lon.length;
-  const parts: string[] = [csvLine(['cell_id', 'lat', 'lon', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'mean', 'median', 'p90', 'unit', 'years_used'])];
-  const chosen = figures.filter((f) => CELL_TABLE_FIGURES.includes(f.series.def.id));
+  if (header) emit(csvLine(CELL_TABLE_COLUMNS));
+  const chosen = figures.filter((f) => CELL_TABLE_FIGURES.includes(f.def.id));
   for (let c = 0; c < cells.length; c++) {
+    const parts: string[] = [];
     const g = cells[c];
     const la = lat[Math.floor(g / nLon)];
     const lo = lon[g % nLon];
     for (let p = 0; p < PERIODS; p++) {
       for (const fn of chosen) {
-        const def = fn.series.def;
+        const def = fn.def;
         const nC = def.combos.length;
         for (let k = 0; k < nC; k++) {
           const i = (c * PERIODS + p) * nC + k;
@@ -31,6 +40,6 @@ export function cellTableCsv(figures: readonly FigureNormals[], cells: Int32Arra
         }
       }
     }
+    emit(parts.join(''));
   }
-  return parts.join('');
 }

@@ -5,8 +5,23 @@
  * exposure) and whether the baseline is the same; then the latest year, whose change is
  * year-to-year weather; then years and input files added, changed or removed, code and
  * configuration changes. Pure: the previous and the new build's manifest facts and region tables
- * in, the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts).
+ * in, the comparison out. Compares the region CSVs as published (pipeline/publish/region-table.ts),
+ * one region at a time (the tables are read through `regionTables.get`, so a build with many
+ * regions never holds them all), keeping only the largest moves of each list.
  */
+
+/** Region tables by id, read one at a time. */
+export interface RegionTables {
+  ids(): Iterable<string>;
+  /** The region's published CSV text, or undefined when the build has no such region. */
+  get(id: string): string | undefined;
+  has(id: string): boolean;
+}
+
+/** Region tables held in memory (tests, small builds). */
+export function tablesInMemory(m: Map<string, string>): RegionTables {
+  return { ids: () => m.keys(), get: (id) => m.get(id), has: (id) => m.has(id) };
+}
 
 /** The facts of one build the comparison needs. */
 export interface BuildFacts {
@@ -17,7 +32,7 @@ export interface BuildFacts {
   baseline: [number, number];
   inputs: Array<{ name: string; sha256: string }>;
   /** Region id → its published CSV text. */
-  regionTables: Map<string, string>;
+  regionTables: RegionTables;
   /** Region id → name. */
   regionNames: Map<string, string>;
 }
@@ -114,11 +129,40 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
   const ny = new Set(years(next.years));
   const pin = new Map(prev.inputs.map((f) => [f.name, f.sha256]));
   const nin = new Map(next.inputs.map((f) => [f.name, f.sha256]));
-  const moves: FigureMove[] = [];
+  const order = (x: FigureMove, y: FigureMove) =>
+    Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
+  // Only the largest moves of each list are kept: a list is cut back to `limit` whenever it doubles.
+  const keeper = () => {
+    const list: FigureMove[] = [];
+    return {
+      list,
+      add(m: FigureMove) {
+        list.push(m);
+        if (list.length >= 2 * limit + 64) list.sort(order).length = limit;
+      },
+      top: () => list.sort(order).slice(0, limit),
+    };
+  };
+  const byUnit = new Map<string, ReturnType<typeof keeper>>();
+  const normals = keeper();
+  const latest = keeper();
   let normalsCompared = 0;
-  for (const [id, csv] of next.regionTables) {
+  let normalsMoved = 0;
+  let normalsLargest = 0;
+  const keep = (m: FigureMove) => {
+    let k = byUnit.get(m.unit);
+    if (!k) byUnit.set(m.unit, (k = keeper()));
+    k.add(m);
+    if (isBidNormal(m.figure, m.statistic)) {
+      normalsMoved += 1;
+      normalsLargest = Math.max(normalsLargest, Math.abs(m.change));
+      normals.add(m);
+    } else if (BID_FIGURES.includes(m.figure) && m.statistic === 'latest') latest.add(m);
+  };
+  for (const id of next.regionTables.ids()) {
     const before = prev.regionTables.get(id);
     if (before === undefined) continue;
+    const csv = next.regionTables.get(id)!;
     const a = annualRows(before);
     for (const [key, row] of annualRows(csv)) {
       const old = a.get(key);
@@ -126,23 +170,13 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
       const [figure, workloadClass, acclimatization, exposure, method, statistic] = row.cols;
       if (isBidNormal(figure, statistic)) normalsCompared += 1;
       if (old.value === row.value) continue;
-      moves.push({
+      keep({
         regionId: id, regionName: next.regionNames.get(id) ?? id, figure, workloadClass, acclimatization, exposure, method, statistic,
         before: old.value, after: row.value, change: Math.round((row.value - old.value) * 1e6) / 1e6, unit: row.unit,
       });
     }
   }
-  const largestFirst = (x: FigureMove, y: FigureMove) =>
-    Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
-  const normalMoves = moves.filter((m) => isBidNormal(m.figure, m.statistic)).sort(largestFirst);
-  const latest = moves.filter((m) => BID_FIGURES.includes(m.figure) && m.statistic === 'latest').sort(largestFirst).slice(0, limit);
-  const byUnit = new Map<string, FigureMove[]>();
-  for (const m of moves) {
-    const list = byUnit.get(m.unit);
-    if (list) list.push(m);
-    else byUnit.set(m.unit, [m]);
-  }
-  const top = [...byUnit.keys()].sort().flatMap((u) => byUnit.get(u)!.sort(largestFirst).slice(0, limit));
+  const top = [...byUnit.keys()].sort().flatMap((u) => byUnit.get(u)!.top());
   return {
     version: 2,
     hasPrevious: true,
@@ -157,15 +191,10 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
     },
     codeChanged: prev.codeVersion !== next.codeVersion,
     configChanged: prev.configDigest !== next.configDigest,
-    normals: {
-      compared: normalsCompared,
-      moved: normalMoves.length,
-      largest: normalMoves.length > 0 ? Math.abs(normalMoves[0].change) : 0,
-      moves: normalMoves.slice(0, limit),
-    },
-    latest,
+    normals: { compared: normalsCompared, moved: normalsMoved, largest: normalsLargest, moves: normals.top() },
+    latest: latest.top(),
     moves: top,
-    regionsAdded: [...next.regionTables.keys()].filter((id) => !prev.regionTables.has(id)).sort(),
-    regionsRemoved: [...prev.regionTables.keys()].filter((id) => !next.regionTables.has(id)).sort(),
+    regionsAdded: [...next.regionTables.ids()].filter((id) => !prev.regionTables.has(id)).sort(),
+    regionsRemoved: [...prev.regionTables.ids()].filter((id) => !next.regionTables.has(id)).sort(),
   };
 }

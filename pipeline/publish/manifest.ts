@@ -4,7 +4,8 @@
  * and digest. The site and users read it to find and trust the files.
  */
 import { createHash } from 'node:crypto';
-import { readFile, readdir, stat } from 'node:fs/promises';
+import { createReadStream } from 'node:fs';
+import { readdir, stat } from 'node:fs/promises';
 import { join, relative } from 'node:path';
 import type { InventoryFile } from './inventory-types.ts';
 import type { LayerEntry } from './atlas-layers.ts';
@@ -12,7 +13,7 @@ import type { LayerEntry } from './atlas-layers.ts';
 export interface ArtefactEntry {
   /** Path relative to the site root, e.g. `data/regions/north-coast.csv`. */
   path: string;
-  kind: 'table' | 'layer-png' | 'layer-geotiff' | 'json' | 'geojson' | 'histogram';
+  kind: 'table' | 'layer-png' | 'layer-geotiff' | 'json' | 'geojson' | 'histogram' | 'netcdf';
   units?: string;
   description: string;
   bytes: number;
@@ -30,6 +31,8 @@ export interface Manifest {
   baseline: [number, number];
   latestYear: number;
   timeZone: string;
+  /** Modelling choices of the physics (pipeline/physics/settings.ts): globe diameter [m]. */
+  physics: { globeDiameter: number };
   work: unknown;
   figures: Array<{ id: string; label: string; units: string; combos: string[] }>;
   statistics: Record<string, string>;
@@ -48,8 +51,11 @@ export const STATISTIC_RULES: Record<string, string> = {
   'worst-cell-mean': 'highest baseline mean of any grid cell of the region',
 };
 
+/** SHA-256 of a file [hex], streamed (a large file is never held in memory). */
 export async function sha256OfFile(path: string): Promise<string> {
-  return createHash('sha256').update(await readFile(path)).digest('hex');
+  const h = createHash('sha256');
+  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) h.update(chunk as Buffer);
+  return h.digest('hex');
 }
 
 /** Lists every file under `root/data` as artefacts, with kinds guessed from the path. */

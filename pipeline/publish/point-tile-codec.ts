@@ -65,19 +65,23 @@ function slotName(s: number): string {
 }
 
 /**
- * Appends one cell-year to `out`: `hist[offset …]` holds {@link POINT_YEAR_SIZE} whole-hour
- * counts [h] in slot order. `cell` and `year` are for the error message only.
- * Catalogued error: PointTileCountTooLarge.
+ * Encodes one cell-year of counts [h] into `out`. The cell's slot s (month × hour × exposure) starts
+ * at `offset + ⌊s / N_EXPOSURES⌋ · mhStride + (s mod N_EXPOSURES) · HIST_LEN`: with the default
+ * stride the cell-year is contiguous; a month-major year of many cells (pipeline/reduce/merge.ts)
+ * passes its cells' count × exposures × bins as the stride. Catalogued error:
+ * PointTileCountTooLarge for a count above {@link POINT_MAX_COUNT} or not a whole number.
  */
-export function encodeCellYear(hist: ArrayLike<number>, offset: number, out: ByteWriter, cell = -1, year = 0): void {
+export function encodeCellYear(hist: ArrayLike<number>, offset: number, out: ByteWriter, cell = -1, year = 0, mhStride = N_EXPOSURES * HIST_LEN): void {
+  const whole = hist instanceof Uint16Array || hist instanceof Uint8Array;
   for (let s = 0; s < POINT_SLOTS; s++) {
-    const base = offset + s * HIST_LEN;
+    const x = s % N_EXPOSURES;
+    const base = offset + ((s - x) / N_EXPOSURES) * mhStride + x * HIST_LEN;
     let first = -1;
     let last = -1;
     for (let b = 0; b < HIST_LEN; b++) {
       const c = hist[base + b];
       if (c !== 0) {
-        if (!(Number.isInteger(c) && c > 0 && c <= POINT_MAX_COUNT)) throw PointTileCountTooLarge({ cell, year, slot: slotName(s), count: c });
+        if (c > POINT_MAX_COUNT || (!whole && !(Number.isInteger(c) && c > 0))) throw PointTileCountTooLarge({ cell, year, slot: slotName(s), count: c });
         if (first < 0) first = b;
         last = b;
       }
@@ -89,25 +93,31 @@ export function encodeCellYear(hist: ArrayLike<number>, offset: number, out: Byt
     }
     out.push(first);
     out.push(last - first + 1);
+    // `count` one-bits, then a zero-bit, least significant bit first: gathered in `acc`, whole
+    // bytes written as they fill.
     let acc = 0;
     let bits = 0;
     for (let b = first; b <= last; b++) {
-      // `count` one-bits, then a zero-bit.
-      for (let k = hist[base + b]; k > 0; k--) {
-        acc |= 1 << bits;
-        if (++bits === 8) {
-          out.push(acc);
-          acc = 0;
-          bits = 0;
+      let k = hist[base + b];
+      while (k > 0) {
+        const take = Math.min(k, 24 - bits);
+        acc |= ((1 << take) - 1) << bits;
+        bits += take;
+        k -= take;
+        while (bits >= 8) {
+          out.push(acc & 0xff);
+          acc >>>= 8;
+          bits -= 8;
         }
       }
-      if (++bits === 8) {
-        out.push(acc);
-        acc = 0;
-        bits = 0;
+      bits += 1;
+      if (bits >= 8) {
+        out.push(acc & 0xff);
+        acc >>>= 8;
+        bits -= 8;
       }
     }
-    if (bits > 0) out.push(acc);
+    if (bits > 0) out.push(acc & 0xff);
   }
 }
 

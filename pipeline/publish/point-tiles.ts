@@ -13,6 +13,7 @@
 import { join } from 'node:path';
 import { writeFileAtomic } from '../model/effects.ts';
 import type { YearCounts } from '../reduce/merge.ts';
+import { HIST_LEN, N_EXPOSURES } from '../reduce/layout.ts';
 import { ByteWriter, POINT_TILE_VERSION, POINT_YEAR_SIZE, assemblePointChunk, encodeCellYear } from './point-tile-codec.ts';
 import { PointTileCellsMismatch, PointTileYearsIncomplete } from './point-tile-errors.ts';
 
@@ -26,14 +27,8 @@ interface EncodedYear {
   offsets: Uint32Array;
 }
 
-/** What {@link PointTileStore.write} published. */
-export interface PointTileSummary {
-  chunks: number;
-  /** Bytes of all chunk files [B]. */
-  bytes: number;
-  /** Bytes of the index [B]. */
-  indexBytes: number;
-}
+/** One chunk file as the index lists it. */
+export type PointChunkEntry = PointTileIndex['chunks'][number];
 
 /** The index the calculator reads to find a cell's chunk. */
 export interface PointTileIndex {
@@ -53,30 +48,40 @@ export class PointTileStore {
   /** @param cells global indices of the land cells, ascending (the order of the merged counts) */
   constructor(readonly cells: Int32Array) {}
 
-  /** Encodes one merged year's cell histograms (`yc.histogram`, whole hours). Catalogued errors: PointTileCellsMismatch, PointTileCountTooLarge. */
-  addYear(yc: YearCounts): void {
+  /**
+   * Encodes one merged year's cell histograms (`yc.histogram`, whole hours) of the store's cells,
+   * which are the cells `from`, `from + 1`, … of `yc` (default 0: all of them). Catalogued errors:
+   * PointTileCellsMismatch, PointTileCountTooLarge.
+   */
+  addYear(yc: YearCounts, from = 0): void {
     const n = this.cells.length;
-    if (yc.cells.length !== n || yc.cells.some((c, i) => c !== this.cells[i])) {
-      throw PointTileCellsMismatch({ year: yc.year, detail: `${yc.cells.length} cells given, ${n} land cells expected in the same order` });
+    const nYc = yc.cells.length;
+    if (from < 0 || from + n > nYc || this.cells.some((c, i) => c !== yc.cells[from + i])) {
+      throw PointTileCellsMismatch({ year: yc.year, detail: `${nYc} cells given, ${n} land cells expected in the same order${from > 0 ? ` from position ${from}` : ''}` });
     }
-    if (yc.histogram.length !== n * POINT_YEAR_SIZE) {
-      throw PointTileCellsMismatch({ year: yc.year, detail: `histogram holds ${yc.histogram.length} values; ${n} cells × ${POINT_YEAR_SIZE} expected` });
+    if (yc.histogram.length !== nYc * POINT_YEAR_SIZE) {
+      throw PointTileCellsMismatch({ year: yc.year, detail: `histogram holds ${yc.histogram.length} values; ${nYc} cells × ${POINT_YEAR_SIZE} expected` });
     }
     const w = new ByteWriter();
     const offsets = new Uint32Array(n + 1);
+    // The merged year is month-major (pipeline/reduce/merge.ts): a cell's slots lie one row of
+    // cells apart.
+    const stride = nYc * N_EXPOSURES * HIST_LEN;
     for (let c = 0; c < n; c++) {
       offsets[c] = w.length;
-      encodeCellYear(yc.histogram, c * POINT_YEAR_SIZE, w, this.cells[c], yc.year);
+      encodeCellYear(yc.histogram, (from + c) * N_EXPOSURES * HIST_LEN, w, this.cells[c], yc.year, stride);
     }
     offsets[n] = w.length;
     this.years.set(yc.year, { bytes: w.bytes(), offsets });
   }
 
   /**
-   * Writes the chunks and the index under `dataDir/calculator/cells/` (`dataDir` is the `data`
-   * folder). `years` must all have been added. Catalogued error: PointTileYearsIncomplete.
+   * Writes the chunks under `dataDir/calculator/cells/` (`dataDir` is the `data` folder), named
+   * `<prefix><nnnn>.bin`, and returns their index entries; {@link writePointTileIndex} writes the
+   * index once every tile's chunks are there. `years` must all have been added. Catalogued error:
+   * PointTileYearsIncomplete.
    */
-  async write(dataDir: string, o: { years: readonly number[]; grid: { lat: ArrayLike<number>; lon: ArrayLike<number> }; targetBytes?: number }): Promise<PointTileSummary> {
+  async write(dataDir: string, o: { years: readonly number[]; prefix?: string; targetBytes?: number }): Promise<PointChunkEntry[]> {
     const years = [...o.years].sort((a, b) => a - b);
     const got = [...this.years.keys()].sort((a, b) => a - b);
     if (years.length !== got.length || years.some((y, i) => y !== got[i])) throw PointTileYearsIncomplete({ expected: years, got });
@@ -85,39 +90,47 @@ export class PointTileStore {
     const n = this.cells.length;
     const cellBytes = (c: number) => encoded.reduce((s, e) => s + e.offsets[c + 1] - e.offsets[c], 0);
     const dir = join(dataDir, 'calculator', 'cells');
-    const index: PointTileIndex = {
-      version: POINT_TILE_VERSION,
-      years,
-      layout:
-        'per chunk: "HHPT", version, nYears, nCells, cell ids, offsets; per cell × year × month (1-12) × local hour (0-23) × exposure (sun, shade): uint8 first bin, uint8 n bins, counts in unary bit-packed (pipeline/publish/point-tile-codec.ts); bins as in ../index.json',
-      grid: gridOf(o.grid),
-      landCells: n,
-      chunks: [],
-    };
+    const chunks: PointChunkEntry[] = [];
     // As few chunks as the target allows, cut where the running size passes equal shares.
     const sizes = Array.from({ length: n }, (_, c) => cellBytes(c));
     const all = sizes.reduce((s, x) => s + x, 0);
     const nChunks = Math.max(1, Math.ceil(all / target));
-    let total = 0;
     let c0 = 0;
     let before = 0;
     while (c0 < n) {
-      const share = (all * (index.chunks.length + 1)) / nChunks;
+      const share = (all * (chunks.length + 1)) / nChunks;
       let c1 = c0;
       while (c1 < n && (c1 === c0 || before + sizes[c1] / 2 <= share)) before += sizes[c1++];
       const cells = this.cells.subarray(c0, c1);
       const parts = Array.from(cells, (_, i) => encoded.map((e) => e.bytes.subarray(e.offsets[c0 + i], e.offsets[c0 + i + 1])));
       const file = assemblePointChunk(years.length, cells, parts);
-      const name = `${String(index.chunks.length).padStart(4, '0')}.bin`;
+      const name = `${o.prefix ?? ''}${String(chunks.length).padStart(4, '0')}.bin`;
       await writeFileAtomic(join(dir, name), file);
-      index.chunks.push({ path: `data/calculator/cells/${name}`, firstCell: cells[0], lastCell: cells[cells.length - 1], cells: cells.length, bytes: file.length });
-      total += file.length;
+      chunks.push({ path: `data/calculator/cells/${name}`, firstCell: cells[0], lastCell: cells[cells.length - 1], cells: cells.length, bytes: file.length });
       c0 = c1;
     }
-    const json = JSON.stringify(index);
-    await writeFileAtomic(join(dir, 'index.json'), json);
-    return { chunks: index.chunks.length, bytes: total, indexBytes: Buffer.byteLength(json) };
+    return chunks;
   }
+}
+
+/**
+ * Writes `dataDir/calculator/cells/index.json` for the chunks of every tile (in any order; listed
+ * by first cell) and returns its size [B].
+ */
+export async function writePointTileIndex(dataDir: string, o: { years: readonly number[]; grid: { lat: ArrayLike<number>; lon: ArrayLike<number> }; chunks: readonly PointChunkEntry[] }): Promise<number> {
+  const chunks = [...o.chunks].sort((a, b) => a.firstCell - b.firstCell);
+  const index: PointTileIndex = {
+    version: POINT_TILE_VERSION,
+    years: [...o.years].sort((a, b) => a - b),
+    layout:
+      'per chunk: "HHPT", version, nYears, nCells, cell ids, offsets; per cell × year × month (1-12) × local hour (0-23) × exposure (sun, shade): uint8 first bin, uint8 n bins, counts in unary bit-packed (pipeline/publish/point-tile-codec.ts); bins as in ../index.json',
+    grid: gridOf(o.grid),
+    landCells: chunks.reduce((s, c) => s + c.cells, 0),
+    chunks,
+  };
+  const json = JSON.stringify(index);
+  await writeFileAtomic(join(dataDir, 'calculator', 'cells', 'index.json'), json);
+  return Buffer.byteLength(json);
 }
 
 /** The regular grid of cell centres (pipeline/model/grid.ts keeps grids regular and ascending). */

@@ -4,8 +4,8 @@
  * statistics across years of the region's area-weighted mean; `worst-cell-mean` is the highest
  * baseline mean of any cell of the region. Units are in the `unit` column.
  */
-import type { FigureNormals } from '../run/climate-step.ts';
-import { PERIODS, ANNUAL } from '../run/figures.ts';
+import type { RegionFigureNormals } from './figure-normals.ts';
+import { PERIODS, ANNUAL } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
 import { csvLine, roundTo } from './csv.ts';
 
@@ -22,16 +22,17 @@ export function periodLabel(p: number): string {
   return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');
 }
 
-export function regionTableCsv(regionIndex: number, regionId: string, figures: readonly FigureNormals[], baseline: [number, number], latestYear: number): string {
+/** The table of one region (its figures' normals hold that region alone: items period · nCombo + combo). */
+export function regionTableCsv(regionId: string, figures: readonly RegionFigureNormals[], baseline: [number, number], latestYear: number): string {
   let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
   const base = `${baseline[0]}-${baseline[1]}`;
   for (let p = 0; p < PERIODS; p++) {
     for (const fn of figures) {
-      const def = fn.series.def;
+      const def = fn.def;
       const nC = def.combos.length;
       const digits = DIGITS[def.units] ?? 3;
       for (let k = 0; k < nC; k++) {
-        const i = (regionIndex * PERIODS + p) * nC + k;
+        const i = p * nC + k;
         const cc = comboColumns(def.id, def.combos[k]);
         const r = fn.region;
         const stats: Record<(typeof STATISTICS)[number], number> = {

@@ -9,13 +9,13 @@
  * environment variable HEATHOURS_DATA_DIR; this function sets it for the duration of the build, so
  * two builds must not run at once in one process.
  */
-import { cp, mkdir, mkdtemp, rm, stat } from 'node:fs/promises';
+import { cp, mkdir, mkdtemp, rename, rm, stat } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { replaceDirAtomic } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
+import { PACKAGE_ROOT } from '../model/package-root.ts';
 import { DATA_DIR_ENV } from '../../src/data/data-dir.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
@@ -23,7 +23,7 @@ import { loadManifest } from '../../src/data/manifest.ts';
 import { SiteBuildFailed, SiteDataMissing, SiteOutputUnwritable } from '../../src/data/errors.ts';
 
 /** The project root: where astro.config.mjs and src/ live. */
-const PROJECT_ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const PROJECT_ROOT = `${PACKAGE_ROOT}/`;
 
 /** Files Astro's static build writes into the output folder that the site does not use. */
 const ASTRO_LEFTOVERS = ['content-assets.mjs', 'content-modules.mjs'];
@@ -37,6 +37,11 @@ export interface BuildSiteOptions {
   quiet?: boolean;
   /** URL path the site is served under (config `site.base`), e.g. `/atlas/`; default `/`. */
   base?: string;
+  /**
+   * Move `dataDir/data` into the site instead of copying it (a build's staging folder, on the same
+   * disk as `outDir`): no second copy of a large atlas's data.
+   */
+  moveData?: boolean;
 }
 
 /** Environment variable that carries the site's base path into astro.config.mjs. */
@@ -83,17 +88,27 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     try {
       const { build } = await import('astro');
       // Astro writes .astro/ in the project root: one Astro build at a time on this machine.
-      await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
-        build({
-          root: PROJECT_ROOT,
-          outDir: tmp,
-          cacheDir,
-          mode: 'production',
-          base: opts.base ?? '/',
-          logLevel: opts.quiet ? 'error' : 'info',
-        }),
-        { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
-      );
+      // Astro runs the pages' server code from the output folder, and that code finds its npm
+      // packages from the working folder: the build runs in the project root wherever the command
+      // was started (an output folder outside the project, e.g. /srv/site, failed with "Cannot
+      // find package" when started elsewhere).
+      const cwd = process.cwd();
+      process.chdir(PROJECT_ROOT);
+      try {
+        await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
+          build({
+            root: PROJECT_ROOT,
+            outDir: tmp,
+            cacheDir,
+            mode: 'production',
+            base: opts.base ?? '/',
+            logLevel: opts.quiet ? 'error' : 'info',
+          }),
+          { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
+        );
+      } finally {
+        process.chdir(cwd);
+      }
     } catch (e) {
       const err = e as Error & { code?: string; hint?: string };
       const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));
@@ -108,7 +123,8 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.
     for (const leftover of ASTRO_LEFTOVERS) await rm(join(tmp, leftover), { force: true });
-    await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
+    if (opts.moveData) await rename(join(dataDir, 'data'), join(tmp, 'data'));
+    else await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
   });
   if (!opts.quiet) process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
 }

@@ -182,11 +182,13 @@ export async function streamStats(sf: SourceFile, v: SourceVariable): Promise<{ 
       const m = raw.length;
       const out = m <= buf.length ? buf : new Float32Array(m);
       missing += decodeRun(raw, 0, m, out, 0, plan);
+      // Selects rather than branches: real fields are noisy, and a mispredicted branch per value
+      // costs more than the select.
       for (let i = 0; i < m; i++) {
         const x = out[i];
         if (x === x) {
-          if (x < min) min = x;
-          if (x > max) max = x;
+          min = x < min ? x : min;
+          max = x > max ? x : max;
           sum += x;
           valid++;
         }

@@ -51,14 +51,29 @@ export interface ShardPartial {
   /** Per cell × month: sum of hourly air temperature [centi-°C] and hours counted [h]. */
   airSum: Float64Array;
   airHours: Uint32Array;
-  /** Per cell × month × local hour × exposure × bin: hours in each WBGT bin [h] (layout.ts HIST_EDGES). */
+  /**
+   * Local months [m0, m1) (0 = January) the histograms hold: a shard that is a piece of a year
+   * only needs its own months.
+   */
+  months: [number, number];
+  /**
+   * Hours in each WBGT bin [h] (layout.ts HIST_EDGES), per month of `months` × local hour × cell
+   * × exposure × bin: month-major, so that one hour's cells sit together in the hot loop and a
+   * piece of a year holds only its own months (the merge turns it cell-major, see merge.ts).
+   */
   histogram: Uint16Array;
   /** Per cell: hours whose WBGT solve failed (NaN) or whose inputs were rejected [h]. */
   failedHours: Uint32Array;
 }
 
-/** An empty partial for `cells` of one year. */
-export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[]): ShardPartial {
+/** Histogram values one month of `nCells` cells holds in a partial. */
+export const histPerMonth = (nCells: number): number => HOURS * nCells * N_EXPOSURES * HIST_LEN;
+
+/**
+ * An empty partial for `cells` of one year, its histograms for the local months [m0, m1)
+ * (default the whole year).
+ */
+export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS]): ShardPartial {
   const nc = cells.length;
   const nE = evaluations.length;
   const cm = nc * MONTHS;
@@ -78,7 +93,8 @@ export function createPartial(year: number, cells: Int32Array, evaluations: read
     wbgtMax: new Int16Array(cm * N_EXPOSURES).fill(-32768),
     airSum: new Float64Array(cm),
     airHours: new Uint32Array(cm),
-    histogram: new Uint16Array(cm * HOURS * N_EXPOSURES * HIST_LEN),
+    months: [months[0], months[1]],
+    histogram: new Uint16Array((months[1] - months[0]) * histPerMonth(nc)),
     failedHours: new Uint32Array(nc),
   };
 }
@@ -91,29 +107,6 @@ export function expectedMonthHours(year: number): Uint32Array {
   const out = new Uint32Array(MONTHS);
   for (let m = 0; m < MONTHS; m++) out[m] = 24 * new Date(Date.UTC(year, m + 1, 0)).getUTCDate();
   return out;
-}
-
-/**
- * Moves the scratch histograms into the partial (cell-major layout) and clears them. Only the
- * scratch's month window is moved, and of it only the months the partial covers: the others
- * hold no count.
- */
-export function finishPartial(p: ShardPartial, scratch: ReduceScratch): ShardPartial {
-  const nc = p.cells.length;
-  const w = N_EXPOSURES * HIST_LEN;
-  const [m0, m1] = scratch.months;
-  for (let m = m0; m < m1; m++) {
-    if (p.coveredHours[m] === 0) continue;
-    for (let h = 0; h < HOURS; h++) {
-      for (let c = 0; c < nc; c++) {
-        const src = (((m - m0) * HOURS + h) * nc + c) * w;
-        const dst = ((c * MONTHS + m) * HOURS + h) * w;
-        p.histogram.set(scratch.hist.subarray(src, src + w), dst);
-      }
-    }
-  }
-  scratch.hist.fill(0, 0, (m1 - m0) * HOURS * nc * w);
-  return p;
 }
 
 /** One block of hourly values for the shard's cells, time-major: `x[t * nCells + c]`. */
@@ -137,64 +130,59 @@ export interface ReduceScratch {
   /** Evaluation groups for the fused path, or null when the general path is needed. */
   groups: EvaluationGroup[] | null;
   losses: PreparedLoss[];
+  /**
+   * Clothing adjustment value added to the WBGT before the capacity-loss functions [°C-WBGT]: the
+   * functions relate capacity to the WBGT of workers in ordinary work clothes, and WBGT + CAV is
+   * the WBGT at which such workers carry the same load (pipeline/work/capacity-loss.ts). One
+   * value per build: every evaluation carries the same clothing.
+   */
+  lossCav: number;
   /** The evaluations the groups were made for (a scratch serves one list). */
   evaluations: readonly WorkEvaluation[];
-  /**
-   * Local months [m0, m1) (0 = January) the histograms hold: a shard that is a piece of a year
-   * only needs its own months.
-   */
-  months: [number, number];
-  /**
-   * Histograms while accumulating, month (of the window) × hour × cell × exposure × bin (cells
-   * adjacent, so the hot loop over cells stays in cache); {@link finishPartial} moves them into
-   * the partial.
-   */
-  hist: Uint16Array;
 }
 
-/** Histogram values one month of `nCells` cells needs in the scratch. */
-const histPerMonth = (nCells: number) => HOURS * nCells * N_EXPOSURES * HIST_LEN;
+/**
+ * The clothing adjustment value of the evaluations [°C-WBGT] (0 without evaluations); a
+ * RangeError if they differ (the work settings give every evaluation the same clothing).
+ */
+export function buildCav(evaluations: readonly WorkEvaluation[]): number {
+  const cav = evaluations.length > 0 ? evaluations[0].kernel.k.cav : 0;
+  for (const e of evaluations) {
+    if (e.kernel.k.cav !== cav) throw new RangeError(`evaluation ${e.key} has clothing adjustment ${e.kernel.k.cav}, ${evaluations[0].key} has ${cav}: a build has one clothing`);
+  }
+  return cav;
+}
 
 /**
- * Scratch for blocks of up to `n` cell-hours of `nCells` cells, with histograms for the local
- * months [m0, m1) (default the whole year). `general` forces the per-evaluation path (tests
+ * Scratch for blocks of up to `n` cell-hours. `general` forces the per-evaluation path (tests
  * compare the two paths).
  */
-export function createScratch(n: number, evaluations: readonly WorkEvaluation[], nCells: number, general = false, months: [number, number] = [0, MONTHS]): ReduceScratch {
+export function createScratch(n: number, evaluations: readonly WorkEvaluation[], general = false): ReduceScratch {
   return {
-    hist: new Uint16Array((months[1] - months[0]) * histPerMonth(nCells)),
     fraction: new Float32Array(n),
     above: new Uint8Array(n),
     loss: new Float32Array(n),
     groups: general ? null : groupEvaluations(evaluations),
     losses: LOSS_VIEWS.map((v) => prepareLoss(v.intensity)),
+    lossCav: buildCav(evaluations),
     evaluations,
-    months: [months[0], months[1]],
   };
 }
 
 /**
- * A scratch for the next shard: `prev` itself (cleared by the last {@link finishPartial}) when
- * it is large enough and made for the same evaluations, with its month window set, else a new
- * one. Workers keep one scratch for all their shards, so its pages are not faulted in again.
+ * A scratch for the next shard: `prev` itself when it is large enough and made for the same
+ * evaluations, else a new one. Workers keep one scratch for all their shards.
  */
-export function reuseScratch(prev: ReduceScratch | undefined, n: number, evaluations: readonly WorkEvaluation[], nCells: number, months: [number, number]): ReduceScratch {
-  const fits =
-    prev !== undefined &&
-    prev.groups !== null &&
-    prev.evaluations === evaluations &&
-    prev.fraction.length >= n &&
-    prev.hist.length >= (months[1] - months[0]) * histPerMonth(nCells);
-  if (!fits) return createScratch(n, evaluations, nCells, false, months);
-  prev.months = [months[0], months[1]];
-  return prev;
+export function reuseScratch(prev: ReduceScratch | undefined, n: number, evaluations: readonly WorkEvaluation[]): ReduceScratch {
+  const fits = prev !== undefined && prev.groups !== null && prev.evaluations === evaluations && prev.fraction.length >= n;
+  return fits ? prev : createScratch(n, evaluations, false);
 }
 
-/** The scratch month of local month `m` (0-based), or a RangeError outside the window. */
-function windowMonth(scratch: ReduceScratch, m: number): number {
-  const i = m - scratch.months[0];
-  if (i < 0 || m >= scratch.months[1]) {
-    throw new RangeError(`an hour of local month ${m + 1} fell outside the shard's months ${scratch.months[0] + 1}-${scratch.months[1]}`);
+/** The histogram month of local month `m` (0-based) in partial `p`, or a RangeError outside its months. */
+function windowMonth(p: ShardPartial, m: number): number {
+  const i = m - p.months[0];
+  if (i < 0 || m >= p.months[1]) {
+    throw new RangeError(`an hour of local month ${m + 1} fell outside the shard's months ${p.months[0] + 1}-${p.months[1]}`);
   }
   return i;
 }
@@ -205,7 +193,7 @@ function windowMonth(scratch: ReduceScratch, m: number): number {
  * @param evaluations The same list (and order) the partial was created with
  */
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
-  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch);
+  if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.lossCav);
   else accumulateGeneral(p, block, evaluations, scratch);
 }
 
@@ -213,16 +201,16 @@ export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations
  * The fused path: one pass over the cell-hours; per group one exponential, and only when the
  * hour is above the group's lowest limit. Gives the same counts as the general path.
  */
-function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], scratch: ReduceScratch): void {
+function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups: EvaluationGroup[], losses: PreparedLoss[], cav: number): void {
   const nc = p.cells.length;
-  const hist = scratch.hist;
+  const hist = p.histogram;
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
   const nG = groups.length;
   const sunGroup = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 1 : 0));
   for (let t = 0; t < block.nHours; t++) {
     if (local.year[t] !== p.year) continue;
     const m = local.month[t] - 1;
-    const mw = windowMonth(scratch, m);
+    const mw = windowMonth(p, m);
     p.coveredHours[m]++;
     const h = local.hour[t];
     const shift = local.inShift[t] === 1;
@@ -272,11 +260,14 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       if (shift) {
         p.shiftHours[cm]++;
         const lb = cm * N_EXPOSURES * N_LOSS;
+        // Capacity loss at the effective WBGT (WBGT + CAV; see ReduceScratch.lossCav).
+        const wsEff = ws + cav;
+        const wdEff = wd + cav;
         for (let l = 0; l < N_LOSS; l++) {
           const prep = losses[l];
-          const a = lossPrepared(ws, prep);
+          const a = lossPrepared(wsEff, prep);
           if (a >= 0.0005) p.capacityLoss[lb + l] += Math.round(a * MILLI);
-          const b = lossPrepared(wd, prep);
+          const b = lossPrepared(wdEff, prep);
           if (b >= 0.0005) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
         }
       }
@@ -287,7 +278,7 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
 /** The general path: one vectorised work-fraction pass per evaluation (any limit model, any rest place). */
 function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
   const nc = p.cells.length;
-  const hist = scratch.hist;
+  const hist = p.histogram;
   const nt = block.nHours;
   const n = nt * nc;
   if (scratch.fraction.length < n) throw new RangeError(`scratch holds ${scratch.fraction.length} values, block needs ${n}`);
@@ -331,13 +322,14 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
     }
   }
 
-  // Capacity-loss views, inside the shift only, per exposure.
+  // Capacity-loss views at the effective WBGT (WBGT + CAV), inside the shift only, per exposure.
+  const cav = scratch.lossCav;
   for (let x = 0; x < N_EXPOSURES; x++) {
     const wbgt = x === 0 ? wbgtSun : wbgtShade;
     for (let l = 0; l < N_LOSS; l++) {
       const view = LOSS_VIEWS[l];
-      if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity);
-      else dunne2013LossInto(loss, wbgt);
+      if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity, cav);
+      else dunne2013LossInto(loss, wbgt, cav);
       for (let t = 0; t < nt; t++) {
         if (inYear[t] === 0 || local.inShift[t] === 0) continue;
         const m = local.month[t] - 1;
@@ -357,7 +349,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
   for (let t = 0; t < nt; t++) {
     if (inYear[t] === 0) continue;
     const m = local.month[t] - 1;
-    const mw = windowMonth(scratch, m);
+    const mw = windowMonth(p, m);
     const h = local.hour[t];
     const shift = local.inShift[t];
     const row = t * nc;

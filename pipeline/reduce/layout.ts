@@ -7,7 +7,8 @@
  * Index order of the per-evaluation arrays: `((cell * 12 + month) * nEval + e)`, with `e` the index
  * into `ResolvedWork.evaluations` (class × acclimatization × exposure, pipeline/work/work-settings.ts).
  */
-import { WBGT_BIN_EDGES, WBGT_HISTOGRAM_LENGTH, wbgtBinIndex, type KjellstromIntensity } from '../work/index.ts';
+import { WBGT_BIN_EDGES, WBGT_HISTOGRAM_LENGTH, wbgtBinIndex } from '../work/wbgt-bins.ts';
+import type { KjellstromIntensity } from '../work/capacity-loss.ts';
 
 /** Months per year; month index 0 = January (local time of the atlas). */
 export const MONTHS = 12;

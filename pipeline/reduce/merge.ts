@@ -1,14 +1,14 @@
 /**
  * Merging shard partials. Partials of different tiles of one year hold disjoint cells and are
- * scattered into one year-wide set of counts over all land cells; partials of the same cells and
- * year (a tile's pieces of the year, split by time) are added. Counts are integers, so any order
- * gives identical results.
+ * scattered into one set of counts over the cells asked for; partials of the same cells and year
+ * (a tile's pieces of the year, split by time) are added. Counts are integers, so any order gives
+ * identical results.
  */
 import type { ShardPartial } from './accumulator.ts';
-import { MONTHS } from './layout.ts';
+import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from './layout.ts';
 import { PartialsIncomplete, PartialsInconsistent } from './errors.ts';
 
-/** Per-cell array fields of a partial and their values per cell. */
+/** Per-cell array fields of a partial (besides the histogram and the maxima) and their values per cell. */
 const PER_CELL_FIELDS = [
   'validHours',
   'shiftHours',
@@ -19,27 +19,50 @@ const PER_CELL_FIELDS = [
   'wbgtSum',
   'airSum',
   'airHours',
-  'histogram',
   'failedHours',
 ] as const;
 type SummedField = (typeof PER_CELL_FIELDS)[number];
 
-/** Counts of one year over all land cells, in the order of `cells`. */
-export type YearCounts = ShardPartial;
+/** Histogram values of one cell-year in merged counts: month × local hour × exposure × bin. */
+export const CELL_YEAR_HIST = MONTHS * HOURS * N_EXPOSURES * HIST_LEN;
 
 /**
- * Merges the partials of one year into counts over `cells` (all land cells, ascending global
- * indices). Partials with the same cells (one tile's pieces of the year, split by time) are
- * added, their covered hours summed; partials of different tiles must hold disjoint cells (a
- * cell in two tiles is an error naming the shards, unless `allowOverlap`), and the covered hours
- * are the most any tile has. Every cell must be covered.
+ * Counts of one year over a set of cells, in the order of `cells`. As a partial whose histograms
+ * cover all twelve months: month × local hour × cell × exposure × bin ({@link CELL_YEAR_HIST}
+ * values per cell; a cell's slot (month, hour) starts at ((month · 24 + hour) · nCells + cell) ·
+ * exposures · bins, see {@link histogramSlot}).
  */
-export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], allowOverlap = false): YearCounts {
+export interface YearCounts extends Omit<ShardPartial, 'months' | 'histogram'> {
+  /** Hours in each WBGT bin [h], month × local hour × cell × exposure × bin. */
+  histogram: Uint16Array;
+}
+
+/** Index in a merged year's histogram of cell `c`'s bins for (month m, local hour h), of `nCells` cells. */
+export function histogramSlot(m: number, h: number, c: number, nCells: number): number {
+  return ((m * HOURS + h) * nCells + c) * N_EXPOSURES * HIST_LEN;
+}
+
+export interface MergeOptions {
+  /**
+   * Partials may hold cells beyond `cells` (a merge tile smaller than the shards' tiles): those
+   * are skipped instead of refused. Default false.
+   */
+  subset?: boolean;
+}
+
+/**
+ * Merges the partials of one year into counts over `cells` (ascending global indices). Partials
+ * with the same cells (one tile's pieces of the year, split by time) are added, their covered
+ * hours summed; partials of different tiles must hold disjoint cells (a cell in two tiles is an
+ * error naming the shards), and the covered hours are the most any tile has. Every cell of
+ * `cells` must be covered.
+ */
+export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], options: MergeOptions = {}): YearCounts {
   if (partials.length === 0) throw PartialsIncomplete({ detail: `no partial for year ${year}` });
   const first = partials[0];
   const pos = new Map<number, number>();
   cells.forEach((c, i) => pos.set(c, i));
-  const out = emptyLike(first, year, cells);
+  const out = emptyYear(first, year, cells);
   const seen = new Int32Array(cells.length).fill(-1);
   // Group the pieces of each tile: same cells, in the same order.
   const groups: number[][] = [];
@@ -58,6 +81,7 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
   });
   for (const grp of groups) {
     const covered = new Uint32Array(MONTHS);
+    const histFirst = new Uint8Array(MONTHS);
     for (const pi of grp) {
       const p = partials[pi];
       if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
@@ -65,22 +89,26 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
         throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
       }
       for (let m = 0; m < MONTHS; m++) covered[m] += p.coveredHours[m];
+      const at = new Int32Array(p.cells.length).fill(-1);
       for (let j = 0; j < p.cells.length; j++) {
-        const at = pos.get(p.cells[j]);
-        if (at === undefined) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
-        if (seen[at] >= 0 && !allowOverlap && !grp.includes(seen[at])) {
-          throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[at]] ?? seen[at]} and ${names[pi] ?? pi}` });
+        const a = pos.get(p.cells[j]);
+        if (a === undefined) {
+          if (options.subset) continue;
+          throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
         }
-        // A cell's first partial is copied (the year's counts start at zero), later pieces added.
-        const first = seen[at] < 0;
-        seen[at] = pi;
-        for (const f of PER_CELL_FIELDS) (first ? copyCell : addCell)(out, p, f, at, j);
+        if (seen[a] >= 0 && !grp.includes(seen[a])) {
+          throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[a]] ?? seen[a]} and ${names[pi] ?? pi}` });
+        }
+        seen[a] = pi;
+        at[j] = a;
+        for (const f of PER_CELL_FIELDS) addCell(out, p, f, a, j);
         const w = per(p, 'wbgtMax');
         for (let k = 0; k < w; k++) {
           const v = p.wbgtMax[j * w + k];
-          if (v > out.wbgtMax[at * w + k]) out.wbgtMax[at * w + k] = v;
+          if (v > out.wbgtMax[a * w + k]) out.wbgtMax[a * w + k] = v;
         }
       }
+      addHistogram(out.histogram, cells.length, p, at, histFirst);
     }
     for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], covered[m]);
   }
@@ -104,17 +132,11 @@ function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {
   return p[f].length / p.cells.length;
 }
 
-function copyCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {
-  const w = per(p, f);
-  const src = p[f] as Uint32Array;
-  (out[f] as Uint32Array).set(src.subarray(j * w, j * w + w), at * w);
-}
-
 /**
  * Adds a cell's counts of partial `p` into `out`. Fields per cell × month skip the months the
  * partial does not cover (they hold no count): a quarter's piece adds a quarter of the year.
  */
-function addCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number, j: number): void {
+function addCell(out: YearCounts, p: ShardPartial, f: SummedField, at: number, j: number): void {
   const w = per(p, f);
   const src = p[f];
   const dst = out[f];
@@ -125,7 +147,6 @@ function addCell(out: ShardPartial, p: ShardPartial, f: SummedField, at: number,
     return;
   }
   const inner = w / MONTHS;
-  if (f === 'histogram') return addHistogramCell(out.histogram, p, at, j, inner);
   for (let m = 0; m < MONTHS; m++) {
     if (p.coveredHours[m] === 0) continue;
     const a = m * inner;
@@ -145,32 +166,60 @@ function pairView(h: Uint16Array): Uint32Array {
 }
 
 /**
- * Adds a cell's histogram two bins at a time, as uint32 pairs of uint16 bins: exact, since a
- * bin counts the hours of one local hour of the day in one month (at most 32, with a
- * daylight-saving day), so no bin's sum carries into its neighbour. Falls back to bin by bin
- * when the arrays are not 4-byte aligned.
+ * Adds a partial's histograms (month of its window × hour × cell × exposure × bin) into the year's
+ * (month × hour × cell × exposure × bin); `at[j]` is the position of the partial's cell j in the
+ * year, −1 to skip it. Runs of consecutive cells are added as one block, two bins at a time, as
+ * uint32 pairs of uint16 bins: exact, since a bin counts the hours of one local hour of the day
+ * in one month (at most 32, with a daylight-saving day), so no bin's sum carries into its
+ * neighbour. Falls back to bin by bin when the arrays are not 4-byte aligned.
  */
-function addHistogramCell(dst: Uint16Array, p: ShardPartial, at: number, j: number, inner: number): void {
+function addHistogram(dst: Uint16Array, nOut: number, p: ShardPartial, at: Int32Array, first: Uint8Array): void {
   const src = p.histogram;
-  const w = inner * MONTHS;
-  const aligned = (src.byteOffset & 3) === 0 && (dst.byteOffset & 3) === 0 && (inner & 1) === 0;
-  for (let m = 0; m < MONTHS; m++) {
+  const nc = p.cells.length;
+  const run = N_EXPOSURES * HIST_LEN;
+  const [m0, m1] = p.months;
+  const aligned = (src.byteOffset & 3) === 0 && (dst.byteOffset & 3) === 0 && (run & 1) === 0;
+  const s2 = aligned ? pairView(src) : undefined;
+  const d2 = aligned ? pairView(dst) : undefined;
+  // Runs of partial cells that land on consecutive cells of the year.
+  const runs: Array<[number, number, number]> = [];
+  for (let j = 0; j < nc; ) {
+    if (at[j] < 0) {
+      j++;
+      continue;
+    }
+    let k = j + 1;
+    while (k < nc && at[k] === at[k - 1] + 1) k++;
+    runs.push([j, at[j], k - j]);
+    j = k;
+  }
+  for (let m = m0; m < m1; m++) {
     if (p.coveredHours[m] === 0) continue;
-    const s0 = j * w + m * inner;
-    const d0 = at * w + m * inner;
-    if (aligned) {
-      const s2 = pairView(src);
-      const d2 = pairView(dst);
-      const a = s0 >> 1;
-      const b = d0 >> 1;
-      for (let k = 0; k < inner >> 1; k++) d2[b + k] += s2[a + k];
-    } else {
-      for (let k = 0; k < inner; k++) dst[d0 + k] += src[s0 + k];
+    // The first piece of a tile's month is copied (the year starts at zero), later ones added.
+    const copy = first[m] === 0;
+    first[m] = 1;
+    for (let h = 0; h < HOURS; h++) {
+      const sRow = ((m - m0) * HOURS + h) * nc;
+      const dRow = (m * HOURS + h) * nOut;
+      for (const [j, a, n] of runs) {
+        const s0 = (sRow + j) * run;
+        const d0 = (dRow + a) * run;
+        const len = n * run;
+        if (copy) dst.set(src.subarray(s0, s0 + len), d0);
+        else if (s2 !== undefined && d2 !== undefined) {
+          const sa = s0 >> 1;
+          const da = d0 >> 1;
+          for (let k = 0; k < len >> 1; k++) d2[da + k] += s2[sa + k];
+        } else {
+          for (let k = 0; k < len; k++) dst[d0 + k] += src[s0 + k];
+        }
+      }
     }
   }
 }
 
-function emptyLike(p: ShardPartial, year: number, cells: Int32Array): ShardPartial {
+/** Empty counts of one year over `cells`, shaped like partial `p` but with a full cell-major year of histograms. */
+function emptyYear(p: ShardPartial, year: number, cells: Int32Array): YearCounts {
   const n = cells.length;
   const make = <T extends { length: number }>(a: T, ctor: new (len: number) => T): T => new ctor((a.length / p.cells.length) * n);
   return {
@@ -189,7 +238,7 @@ function emptyLike(p: ShardPartial, year: number, cells: Int32Array): ShardParti
     wbgtMax: make(p.wbgtMax, Int16Array).fill(-32768),
     airSum: make(p.airSum, Float64Array),
     airHours: make(p.airHours, Uint32Array),
-    histogram: make(p.histogram, Uint16Array),
+    histogram: new Uint16Array(n * CELL_YEAR_HIST),
     failedHours: make(p.failedHours, Uint32Array),
   };
 }

@@ -49,3 +49,52 @@ export const ShardSliceInvalid = defineError<{ text: string }>({
   message: (p) => `--shard "${p.text}" is not K/N with 1 ≤ K ≤ N (e.g. 3/8)`,
   hint: () => 'pass the slice as K/N, e.g. --shard 1/4 … --shard 4/4; with a Slurm array use --shard $((SLURM_ARRAY_TASK_ID))/N',
 });
+
+export const MemoryBudgetTooSmall = defineError<{ budget: number; need: number; what: string }>({
+  code: 'MemoryBudgetTooSmall',
+  title: 'The memory budget cannot hold one tile of the build',
+  message: (p) => `the memory budget of ${(p.budget / 1024 ** 2).toFixed(0)} MB is too small for ${p.what}: about ${(p.need / 1024 ** 2).toFixed(0)} MB are needed`,
+  hint: () => 'give the build more memory (--memory or the config key `memory`, e.g. --memory 4G), use fewer workers (--jobs), make shard tiles smaller (shards.cellsPerTile) or pieces of years shorter (shards.monthsPerPiece: 1)',
+});
+
+export const MemoryBudgetInvalid = defineError<{ text: string }>({
+  code: 'MemoryBudgetInvalid',
+  title: 'The memory budget is not a size',
+  message: (p) => `"${p.text}" is not a memory size`,
+  hint: () => 'give a number with a unit: 4G, 4GB, 4 GiB, 2500M (binary units: 1 G = 1024³ bytes)',
+});
+
+export const DiskFull = defineError<{ path: string; what: string }>({
+  code: 'DiskFull',
+  title: 'The disk is full',
+  message: (p) => `no space left on the device while ${p.what} (${p.path}); nothing was published and the previous output is untouched`,
+  hint: () => 'free space on that disk or build elsewhere (--out, and --cache for the partials); `heathours build` prints the disk it expects to need before it starts',
+});
+
+export const BandsIncomplete = defineError<{ missing: number; blocks: number; first: string[]; dir: string }>({
+  code: 'BandsIncomplete',
+  title: 'Merged bands are missing',
+  message: (p) => `${p.missing} of the ${p.blocks} blocks of rows have no merged band under ${p.dir}: ${p.first.join(', ')}${p.missing > p.first.length ? ', …' : ''}`,
+  hint: () => 'run every merge task (`heathours build --merge DIR --tile K/N` for K = 1 … N) to the end before `--assemble DIR`; a task that failed can be run again and keeps the bands it finished',
+});
+
+export const BandsDuplicated = defineError<{ block: string; bands: string[] }>({
+  code: 'BandsDuplicated',
+  title: 'Two merged bands hold the same rows',
+  message: (p) => `the block of rows ${p.block} is in the bands ${p.bands.join(' and ')}`,
+  hint: () => 'merge tasks of two different --tile K/N splits wrote into one folder: keep one run\'s bands (delete DIR/bands) and run the merge tasks of one N again',
+});
+
+export const BandsForeign = defineError<{ band: string; why: string }>({
+  code: 'BandsForeign',
+  title: 'A merged band belongs to another build',
+  message: (p) => `band ${p.band} does not fit this build: ${p.why}`,
+  hint: () => 'merge and assemble with the same configuration, input files, partials and heathours version; delete DIR/bands and run the merge tasks again',
+});
+
+export const MergeSliceInvalid = defineError<{ text: string }>({
+  code: 'MergeSliceInvalid',
+  title: 'The --tile value is not K/N',
+  message: (p) => `--tile "${p.text}" is not K/N with 1 ≤ K ≤ N (e.g. 2/4)`,
+  hint: () => 'pass the merge slice as K/N with --merge DIR, e.g. --merge /shared/partials --tile 1/4 … --tile 4/4; with a Slurm array use --tile "${SLURM_ARRAY_TASK_ID}/N"',
+});

@@ -6,7 +6,7 @@
  */
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
-import { decodePartial, encodePartial, readPartialHeader, type PartialMeta } from '../reduce/partial-codec.ts';
+import { decodePartial, encodePartial, readPartialHeader, type PartialMeta } from '../formats/partial-file.ts';
 import type { ShardPartial } from '../reduce/accumulator.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { processAlive } from '../model/lock.ts';

@@ -25,14 +25,8 @@ export interface YearPiece {
   months: [number, number];
 }
 
-/** Allowed `shards.monthsPerPiece`: the divisors of 12, so groups never straddle a year. */
-export const MONTHS_PER_PIECE = [1, 2, 3, 4, 6, 12] as const;
-/**
- * Local months per piece of a year: a quarter. Pieces of one tile and year read disjoint hours,
- * so a year of a NetCDF-4 file (whose chunks usually span the whole grid) is inflated once, and
- * the pieces are small enough to keep every core busy to the end.
- */
-export const DEFAULT_MONTHS_PER_PIECE = 3;
+export { DEFAULT_MONTHS_PER_PIECE, MONTHS_PER_PIECE, TARGET_CELLS_PER_TILE } from '../config/schema.ts';
+import { TARGET_CELLS_PER_TILE } from '../config/schema.ts';
 
 /**
  * Hour indices [h0, h1) of the dataset that may belong to local year `year`: the UTC year ± 26 h
@@ -108,14 +102,6 @@ export interface ShardSpec {
   /** Global indices (row-major in the dataset grid) of the land cells of the tile, ascending. */
   cells: Int32Array;
 }
-
-/**
- * Land cells aimed at per tile: enough to amortise a block read (a NetCDF-4 chunk usually spans
- * the whole grid, so every tile of a year inflates it again; the demo's 655 land cells are one
- * tile). Cores are balanced by cutting years into pieces ({@link DEFAULT_MONTHS_PER_PIECE}), not
- * by small tiles. A tile's scratch histograms take about 16 kB per cell and month of the piece.
- */
-export const TARGET_CELLS_PER_TILE = 1024;
 
 /**
  * Cuts the grid into bands of whole rows holding about {@link TARGET_CELLS_PER_TILE} land

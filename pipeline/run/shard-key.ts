@@ -5,12 +5,13 @@
  *
  * Parts (DESIGN.md §3):
  * - the code: package version and a digest of the sources that compute a shard (read, physics,
- *   work, reduce, model, compute-shard.ts) and the partial file format;
+ *   work, reduce, model, run/compute-task.ts) and the partial file format;
  * - the inputs: name and SHA-256 of each file holding any hour of the shard's piece of its local
  *   year (pipeline/run/plan.ts), and of the static files (the land-sea mask);
  * - the configuration parts the counts depend on: product and land-sea mask, time zone, work
  *   shift, and the work evaluations (class id and metabolic rate, acclimatization, exposure,
- *   rest place, the prepared limit kernel with the clothing adjustment);
+ *   rest place, the prepared limit kernel with the clothing adjustment), and the physics
+ *   settings (the globe diameter);
  * - the shard itself: year, piece (hours), tile and its land cells.
  * Titles, descriptions, regions, baseline years and publishing options are not parts: changing
  * them reuses every partial.
@@ -21,13 +22,16 @@ import { join } from 'node:path';
 import type { DatasetFileInfo } from '../read/index.ts';
 import type { WorkEvaluation, WorkShift } from '../work/index.ts';
 import { CODE_VERSION } from '../model/version.ts';
-import { PARTIAL_FORMAT } from '../reduce/partial-codec.ts';
+import { packagePath } from '../model/package-root.ts';
+import { PARTIAL_FORMAT } from '../formats/partial-file.ts';
+import type { PhysicsSettings } from '../physics/settings.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
-const PIPELINE = new URL('../', import.meta.url).pathname;
+/** The TypeScript sources of the pipeline, also when the compiled bundle runs: the digest is the same either way. */
+const PIPELINE = packagePath('pipeline');
 /** Folders (under pipeline/) and files whose sources decide a shard's counts. */
-const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-shard.ts'];
+const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-task.ts'];
 
 function sourceFiles(path: string): string[] {
   if (path.endsWith('.ts') || path.endsWith('.mjs')) return [path];
@@ -51,6 +55,7 @@ export interface ComputeSettings {
   timeZone: string;
   shift: WorkShift;
   evaluations: readonly WorkEvaluation[];
+  physics: PhysicsSettings;
 }
 
 /** The provenance of one shard's partial: the parts listed in the file comment. */
@@ -63,6 +68,7 @@ export interface ShardProvenance {
     timeZone: string;
     shift: WorkShift;
     evaluations: Array<{ key: string; workloadClass: { id: string; metabolicRate: number }; restWbgt: string | null; kernel: unknown }>;
+    physics: PhysicsSettings;
   };
   /** `hours`: first and last hour of the piece as UTC time stamps (ISO 8601), not indices, so adding earlier data keeps keys. */
   shard: { year: number; utcYear: number; hours: [string, string]; tile: ShardSpec['tile']; cells: string };
@@ -85,6 +91,7 @@ function settingsPart(s: ComputeSettings): ShardProvenance['settings'] {
       restWbgt: e.restWbgt,
       kernel: e.kernel,
     })),
+    physics: s.physics,
   };
 }
 
@@ -135,6 +142,9 @@ export function explainChange(old: ShardProvenance, now: ShardProvenance): strin
   if (os?.product !== ns.product || JSON.stringify(os?.landSeaMask) !== JSON.stringify(ns.landSeaMask)) why.push('dataset product or land-sea mask changed');
   if (os?.timeZone !== ns.timeZone) why.push(`time zone ${os?.timeZone} → ${ns.timeZone}`);
   if (JSON.stringify(os?.shift) !== JSON.stringify(ns.shift)) why.push('work shift changed');
+  if (JSON.stringify(os?.physics) !== JSON.stringify(ns.physics)) {
+    why.push(`physics settings changed (globe diameter ${os?.physics?.globeDiameter ?? 'unset'} → ${ns.physics.globeDiameter} m)`);
+  }
   if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
   if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours)) why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
   if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile)) why.push('the tile holds other cells (grid, mask or tiling changed)');

@@ -1,112 +1,75 @@
 /**
- * Runs shards on worker threads, one shard per task, `jobs` workers (default all cores), and
- * hands each result to `onResult` as it arrives. Results do not depend on the number of workers:
- * each shard is computed whole by one worker and partials are integer counts.
+ * The build's tasks on worker threads (the pool of pipeline/infra/worker-pool.ts running
+ * ./shard-worker.ts): compute tasks (pipeline/run/compute-task.ts) and merge bands
+ * (pipeline/run/merge-tile.ts), `jobs` workers (default all cores), each report handed to the
+ * caller as it arrives. Results do not depend on the number of workers: each task is computed
+ * whole by one worker, partials are integer counts, and merge bands write disjoint files.
  */
-import { startTsWorker } from '../model/ts-worker.ts';
-import { HeathoursError } from '../model/errors.ts';
-import type { ShardSpec } from './plan.ts';
-import type { ShardResult } from './compute-shard.ts';
-import type { WorkerInit } from './shard-worker.ts';
-import type { PartialMeta } from '../reduce/partial-codec.ts';
+import { runInWorkers } from '../infra/worker-pool.ts';
+import type { KernelCounts } from '../physics/index.ts';
+import type { OpenDatasetOptions } from '../read/index.ts';
+import type { ComputeTask, ShardContext } from './compute-task.ts';
+import type { PartialMeta } from '../formats/partial-file.ts';
+import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
 
-/** One shard to compute, and where to write its partial file (optional). */
-export interface ShardTask {
-  shard: ShardSpec;
-  store?: { path: string; meta: Omit<PartialMeta, 'report'> };
+/** What every worker is started with: the input files, how to open them, the shard context. */
+export interface WorkerInit {
+  files: string[];
+  datasetOptions: OpenDatasetOptions;
+  context: ShardContext;
 }
 
-/** What the pool hands over per shard: the result (without its partial when not returned). */
-export interface ShardOutcome {
-  result: Omit<ShardResult, 'partial'> & { partial?: ShardResult['partial'] };
-  /** Wall time of the task in the worker [ms]; of which encoding and writing the partial [ms]. */
-  ms: number;
-  storeMs: number;
-  /** Size of the partial file written [B]; 0 without a store. */
+/** Where a compute task writes each shard's partial file. */
+export type ShardStores = Record<string, { path: string; meta: Omit<PartialMeta, 'report'> }>;
+
+/** A task for the pool. */
+export type PoolTask = { kind: 'compute'; task: ComputeTask; stores: ShardStores } | { kind: 'merge'; tile: MergeTileInput };
+
+/** What a worker reports per shard of a compute task. */
+export interface ShardReport {
+  shardId: string;
+  physics: KernelCounts;
+  cellHours: number;
+  /** Wall-clock milliseconds reading (its share of the group's reads), in physics, in the reduction [ms]. */
+  timing: { read: number; physics: number; reduce: number };
+  /** Size of the partial file written [B] and the time encoding and writing it [ms]. */
   storedBytes: number;
+  storeMs: number;
 }
 
-interface WorkerError {
-  catalogued: boolean;
-  code?: string;
-  title?: string;
-  message: string;
-  hint?: string;
-  where?: Record<string, unknown>;
+/** What a worker answers per task: the shards' reports of a compute task, a merge band's summary. */
+export type PoolResult = { kind: 'compute'; shards: ShardReport[] } | { kind: 'merge'; summary: MergeTileSummary };
+
+export interface PoolHandlers {
+  /** A shard of a compute task is computed and its partial written (reported as the task ends). */
+  onShard?: (shardId: string, report: ShardReport) => void;
+  /** One more shard done, while its task still runs (for progress). */
+  onShardProgress?: () => void;
+  /** A task is done (a merge band's summary with it). */
+  onTask?: (taskId: string, summary: MergeTileSummary | undefined) => void;
 }
 
-function toError(e: WorkerError, shardId?: string): Error {
-  if (e.catalogued) return new HeathoursError(e.code!, e.title!, e.message, e.hint!, e.where ?? {});
-  return new Error(`shard ${shardId ?? '(start-up)'} failed in a worker: ${e.message}`);
-}
+export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.tile.id);
 
-export async function runShards(
-  tasks: readonly ShardTask[],
-  init: WorkerInit,
-  jobs: number,
-  onResult: (shard: ShardSpec, outcome: ShardOutcome) => void,
-  signal?: AbortSignal,
-): Promise<void> {
-  if (tasks.length === 0) return;
-  const size = Math.max(1, Math.min(jobs, tasks.length));
-  const url = new URL('./shard-worker.ts', import.meta.url);
-  const workers = Array.from({ length: size }, () => startTsWorker(url));
-  const queue = [...tasks];
-  let failure: unknown;
-  try {
-    await Promise.all(
-      workers.map(
-        (w) =>
-          new Promise<void>((resolve, reject) => {
-            // Up to two shards in flight per worker while the queue is long: the worker starts
-            // its next shard at once, even while the main thread is busy merging a year. Near
-            // the end one at a time, so no worker sits on a shard another could take.
-            let inFlight = 0;
-            const next = () => {
-              const depth = queue.length > workers.length ? 2 : 1;
-              while (inFlight < depth && queue.length > 0) {
-                inFlight += 1;
-                w.postMessage({ task: queue.shift()! });
-              }
-              if (inFlight === 0) resolve();
-            };
-            w.on('error', reject);
-            // The caller gave up (its own work failed): no more shards, the workers are stopped.
-            signal?.addEventListener('abort', () => {
-              queue.length = 0;
-              reject(signal.reason);
-            });
-            w.on('exit', (code) => {
-              if (code !== 0) reject(new Error(`a shard worker exited with code ${code}`));
-            });
-            w.on('message', (m: { ready?: boolean; error?: WorkerError; shardId?: string; result?: ShardOutcome['result']; ms?: number; storeMs?: number; storedBytes?: number }) => {
-              if (m.error) return reject(toError(m.error, m.shardId));
-              if (m.ready) return;
-              if (m.result) {
-                if (signal?.aborted) return;
-                inFlight -= 1;
-                const shard = tasks.find((t) => t.shard.id === m.shardId)!.shard;
-                // The worker gets its next shard first: the main thread's work on this result
-                // (merging a finished year) then overlaps the worker's computing.
-                next();
-                try {
-                  onResult(shard, { result: m.result, ms: m.ms ?? 0, storeMs: m.storeMs ?? 0, storedBytes: m.storedBytes ?? 0 });
-                } catch (e) {
-                  // This worker's promise may have resolved already (no shard left): keep the error.
-                  failure ??= e;
-                  return reject(e);
-                }
-              }
-            });
-            // The first shards go with the set-up: the worker starts on them as soon as it has
-            // opened the dataset, whatever the main thread is doing then.
-            w.postMessage({ init });
-            next();
-          }),
-      ),
-    );
-    if (failure !== undefined) throw failure;
-  } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
-  }
+/**
+ * Runs `tasks` in order of the list on up to `jobs` workers. A handler's exception, a worker's
+ * error or `signal` stops the pool (no new tasks; the workers are terminated) and is thrown.
+ */
+export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, jobs: number, handlers: PoolHandlers, signal?: AbortSignal): Promise<void> {
+  await runInWorkers<PoolTask, PoolResult>('shard', tasks, {
+    size: jobs,
+    init,
+    describe: (t) => `${t.kind === 'compute' ? 'compute task' : 'merge band'} ${taskId(t)}`,
+    // Up to two tasks in flight per worker while the queue is long: the worker starts its next
+    // task at once, even while the main thread is busy. Near the end one at a time, so no worker
+    // sits on a task another could take.
+    depth: (queued, workers) => (queued > workers ? 2 : 1),
+    onProgress: () => handlers.onShardProgress?.(),
+    onResult: (t, r) => {
+      if (r.kind === 'compute') for (const s of r.shards) handlers.onShard?.(s.shardId, s);
+      handlers.onTask?.(taskId(t), r.kind === 'merge' ? r.summary : undefined);
+    },
+    // The caller gave up (its own work failed): no more tasks, the workers are stopped.
+    signal,
+  });
 }

@@ -6,7 +6,7 @@
 import type { ShardSpec } from './plan.ts';
 import { lookupPartial, partialPath, removeAbandonedTemporaries, scanPartials, type FoundPartial } from './partial-store.ts';
 import { explainChange, type ShardProvenance } from './shard-key.ts';
-import type { PartialMeta } from '../reduce/partial-codec.ts';
+import type { PartialMeta } from '../formats/partial-file.ts';
 import { PartialsIncomplete, PartialsInconsistent } from '../reduce/errors.ts';
 import { PartialsDuplicated, PartialsForeign } from './errors.ts';
 

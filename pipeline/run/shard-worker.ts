@@ -1,64 +1,44 @@
 /**
- * Worker side of the shard pool: opens the dataset once, then computes the shards it is sent.
- * A task with a `storePath` also writes its partial file there (pipeline/run/partial-store.ts;
- * encoding runs here, in parallel); the partial is posted back (its arrays transferred, not
- * copied) unless the pool was started with `returnPartials: false`. Started by shard-pool.ts with
- * startTsWorker (pipeline/model/ts-worker.ts), since the sources are TypeScript.
+ * Worker side of the build's pool (./shard-pool.ts, started through pipeline/infra/worker-pool.ts
+ * as the entry `shard`): opens the dataset once, then runs the tasks it is sent — compute tasks
+ * (a piece of a year over a group of tiles, ./compute-task.ts), each shard's partial written to
+ * its file here (encoding runs in parallel), and merge bands (./merge-tile.ts). Only small
+ * reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
  */
-import { parentPort } from 'node:worker_threads';
-import { openDataset, type Dataset, type OpenDatasetOptions } from '../read/index.ts';
-import { computeShard, type ShardContext } from './compute-shard.ts';
-import type { ShardTask } from './shard-pool.ts';
-import { partialBuffers } from './partial-transfer.ts';
+import { openDataset, type Dataset } from '../read/index.ts';
+import { computeTask } from './compute-task.ts';
+import type { PoolResult, PoolTask, ShardReport, WorkerInit } from './shard-pool.ts';
 import { writePartialFile } from './partial-store.ts';
-import { HeathoursError } from '../model/errors.ts';
-
-export interface WorkerInit {
-  files: string[];
-  datasetOptions: OpenDatasetOptions;
-  context: ShardContext;
-  /** Post each partial back to the main thread (false when it is only written to a store). */
-  returnPartials?: boolean;
-}
+import { runMergeTile } from './merge-tile.ts';
+import { serveTasks } from '../infra/worker-side.ts';
+import { DiskFull } from './errors.ts';
 
 let ds: Dataset | undefined;
 let init: WorkerInit | undefined;
 
-// Messages are handled one after another (the pool may send the next shard before this one is
-// done; computeShard awaits reads, and two shards must not share the block buffers at once).
-let chain: Promise<void> = Promise.resolve();
-parentPort!.on('message', (m: { init?: WorkerInit; task?: ShardTask; close?: boolean }) => {
-  chain = chain.then(() => handle(m));
-});
-
-async function handle(m: { init?: WorkerInit; task?: ShardTask; close?: boolean }): Promise<void> {
-  try {
-    if (m.init) {
-      ds = await openDataset(m.init.files, { ...m.init.datasetOptions });
-      init = m.init;
-      parentPort!.postMessage({ ready: true });
-    } else if (m.task) {
-      const { shard, store } = m.task;
-      const t = performance.now();
-      const r = await computeShard(ds!, shard, init!.context);
-      let storedBytes = 0;
-      const te = performance.now();
-      if (store) {
+serveTasks<WorkerInit, PoolTask, PoolResult>({
+  init(data) {
+    init = data;
+  },
+  async run(t, progress) {
+    try {
+      if (t.kind === 'merge') return { kind: 'merge', summary: await runMergeTile(t.tile) };
+      ds ??= await openDataset(init!.files, { ...init!.datasetOptions });
+      const shards: ShardReport[] = [];
+      await computeTask(ds, t.task, init!.context, (shard, r) => {
+        const store = t.stores[shard.id];
+        const te = performance.now();
         const physics = { ...r.physics } as unknown as Record<string, number>;
-        storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics } });
-      }
-      const storeMs = performance.now() - te;
-      const keep = init!.returnPartials !== false;
-      const result = keep ? r : { ...r, partial: undefined };
-      parentPort!.postMessage({ shardId: shard.id, result, ms: performance.now() - t, storedBytes, storeMs }, keep ? partialBuffers(r.partial) : []);
-    } else if (m.close) {
-      await ds?.close();
-      parentPort!.postMessage({ closed: true });
+        const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics } });
+        shards.push({ shardId: shard.id, physics: r.physics, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
+        progress(1);
+      });
+      return { kind: 'compute', shards };
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException)?.code;
+      if (code !== 'ENOSPC' && code !== 'EDQUOT') throw e;
+      const path = (e as NodeJS.ErrnoException).path;
+      throw DiskFull({ path: path ?? '(a file of the build)', what: t.kind === 'compute' ? 'writing partials' : 'writing a band of the atlas' }, { file: path });
     }
-  } catch (e) {
-    const err = e instanceof HeathoursError
-      ? { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where }
-      : { catalogued: false, message: (e as Error)?.stack ?? String(e) };
-    parentPort!.postMessage({ error: err, shardId: m.task?.shard.id });
-  }
-}
+  },
+});

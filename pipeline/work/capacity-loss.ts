@@ -10,6 +10,15 @@
  *   `capacity[%] = 100 − 25·max(0, WBGT − 25)^(2/3)`, clipped to [0, 100] (METHODS.md §6.3).
  *
  * All WBGT values are [°C]; losses are fractions of the hour [0–1].
+ *
+ * Clothing: the functions relate capacity to the WBGT around workers in ordinary light work
+ * clothes (Bröde et al. 2018, Int J Biometeorol 62:331–345, of the same group, assume "light work
+ * clothes (0.6 clo)" [read in the abstract]; Dunne et al. 2013 build on NIOSH/military work–rest
+ * guidance for workers in ordinary work clothes or uniform [from memory]). A clothing adjustment
+ * value is, by its definition (ACGIH, ISO 7243), the WBGT increment that makes an ensemble count
+ * like those clothes, so the pipeline feeds the functions the effective WBGT, WBGT + CAV
+ * (pipeline/reduce/accumulator.ts `lossCav`, the `offset` of the array kernels below). With work
+ * clothes (CAV 0) that is the bare WBGT.
  */
 import { WorkParameterInvalid } from './errors.ts';
 import { normalCdf, normalCdfFast } from './erf.ts';

@@ -1,13 +1,13 @@
 /**
  * Clothing adjustment values (CAV): added to the WBGT to give the effective WBGT the limits are
- * compared with (METHODS.md §5.5). Each ensemble carries its value [°C-WBGT] and how sure we are of
- * it, marked exactly as METHODS.md marks it: `verified` = read in the named source, `from-memory` =
- * not verified against a source (a lead, not a fact).
+ * compared with (ACGIH TLV; Bernard et al. 2008). Each ensemble carries its value [°C-WBGT] and
+ * how sure we are of it: `verified` = read in the named source, `from-memory` = not verified
+ * against a source (a lead, not a fact); the methods page lists the unverified ones together.
  */
 import { ClothingAdjustmentOutOfRange, ClothingEnsembleUnknown } from './errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 
-/** How a value is known (METHODS.md provenance tags: [V] = verified, "(from memory)"). */
+/** How a value is known: read in the named source, or from memory (not verified). */
 export type SourceTag = 'verified' | 'from-memory';
 
 export interface ClothingEnsemble {
@@ -23,49 +23,50 @@ export interface ClothingEnsemble {
   source: string;
 }
 
-/** The ensembles of METHODS.md §5.5. */
+/** The ensembles offered, with their values and sources. */
 export const CLOTHING_ENSEMBLES: readonly ClothingEnsemble[] = [
   {
     id: 'work-clothes',
     name: 'Work clothes (long-sleeved shirt and trousers)',
     cav: 0,
-    sourceTag: 'from-memory',
-    source: 'ACGIH ensemble list (list verified, value from memory); METHODS.md §5.5',
+    sourceTag: 'verified',
+    source:
+      'The baseline of the clothing adjustments: Bernard et al. 2008, J. Occup. Environ. Hyg. 5(1):1–5 (factors measured against cotton work clothes); a NIOSH health hazard evaluation: cotton work uniforms need no adjustment (citing ACGIH 2014)',
   },
   {
     id: 'woven-coveralls',
     name: 'Woven cloth coveralls',
     cav: 0,
     sourceTag: 'verified',
-    source: 'Bernard et al. 2008, J. Occup. Environ. Hyg. (measured 0 for cotton coveralls); METHODS.md §5.5',
+    source: 'Bernard et al. 2008, J. Occup. Environ. Hyg. 5(1):1–5, abstract (0 for cotton coveralls)',
   },
   {
     id: 'double-layer-woven',
     name: 'Double layer of woven clothing',
     cav: 3,
     sourceTag: 'from-memory',
-    source: 'ACGIH (from memory); METHODS.md §5.5',
+    source: 'ACGIH TLV (value from memory)',
   },
   {
     id: 'sms-coveralls',
     name: 'SMS polypropylene coveralls',
     cav: 0.5,
     sourceTag: 'from-memory',
-    source: 'ACGIH (from memory); METHODS.md §5.5',
+    source: 'ACGIH TLV (value from memory)',
   },
   {
     id: 'polyolefin-coveralls',
     name: 'Polyolefin coveralls (flash-spun, limited use)',
     cav: 1,
     sourceTag: 'verified',
-    source: 'Bernard et al. 2008 (measured 1.0); ACGIH +1 from memory; METHODS.md §5.5',
+    source: 'Bernard et al. 2008, abstract (1.0 for Tyvek 1422A)',
   },
   {
     id: 'microporous-coveralls',
     name: 'Microporous film coveralls',
     cav: 2.5,
     sourceTag: 'verified',
-    source: 'Bernard et al. 2008; METHODS.md §5.5',
+    source: 'Bernard et al. 2008, abstract (2.5 for NexGen microporous coveralls)',
   },
   {
     id: 'vapour-barrier-coveralls',
@@ -73,11 +74,11 @@ export const CLOTHING_ENSEMBLES: readonly ClothingEnsemble[] = [
     cav: 11,
     sourceTag: 'from-memory',
     source:
-      'ACGIH +11 (from memory); Bernard et al. 2008 [verified] kept 10 as the recommendation for one such garment; the larger value is used here; METHODS.md §5.5. Such ensembles may need physiological monitoring instead of a WBGT screen.',
+      'ACGIH TLV +11 (value from memory); Bernard et al. 2008 (abstract, read) measured 7.5 for Tychem QC and kept 10 as the recommendation; the larger value is used here. Such ensembles may need physiological monitoring instead of a WBGT screen.',
   },
 ];
 
-/** Added when a hood is worn with any ensemble [°C-WBGT] (ACGIH, from memory; METHODS.md §5.5). */
+/** Added when a hood is worn with any ensemble [°C-WBGT] (ACGIH TLV, value from memory). */
 export const HOOD_CAV = 1;
 /** Provenance of {@link HOOD_CAV}. */
 export const HOOD_CAV_SOURCE_TAG: SourceTag = 'from-memory';

@@ -13,6 +13,9 @@
  */
 
 /** Which limit model. */
+/** Largest metabolic rate accepted [W]; above this a value is treated as a mistake (e.g. kcal/h). */
+export const MAX_METABOLIC_RATE_W = 1000;
+
 export type LimitModelId = 'curve-2017' | 'table-1989';
 /** Acclimatization state of the workers. */
 export type Acclimatization = 'acclimatized' | 'unacclimatized';

@@ -163,8 +163,11 @@ export const WORK_METHODS: MethodGroup = {
         { symbol: 'μ, σ', meaning: 'mean and standard deviation per intensity (200, 300, 400 W)', unit: '°C-WBGT' },
       ],
       constants: KJ,
-      sources: ['kjellstrom2018'],
-      code: ['pipeline/work/capacity-loss.ts kjellstrom2018Loss(), kjellstrom2018LossInto()', 'pipeline/work/erf.ts normalCdf(), normalCdfFast()'],
+      sources: ['kjellstrom2018', 'brode2018'],
+      code: ['pipeline/work/capacity-loss.ts kjellstrom2018Loss(), kjellstrom2018LossInto()', 'pipeline/work/erf.ts normalCdf(), normalCdfFast()', 'pipeline/reduce/accumulator.ts (lossCav)'],
+      notes: [
+        'Clothing: the loss functions describe workers in ordinary light work clothes (the companion study of Bröde et al. 2018 states 0.6 clo, "light work clothes"). The clothing adjustment value is the WBGT increment that makes an ensemble count like such clothes, so the functions are given the effective WBGT, WBGT + CAV; with work clothes (CAV 0) that is the bare WBGT. Measured on the demo: see "Modelling choices and their effect on the demo".',
+      ],
     },
     {
       id: 'capacity-loss-dunne',
@@ -175,7 +178,7 @@ export const WORK_METHODS: MethodGroup = {
       constants: [DN0, DN1],
       sources: ['dunne2013'],
       code: [`${DUNNE}, dunne2013LossInto()`],
-      notes: ['Dunne et al. applied it to daily maximum WBGT; here it is applied to each shift hour.'],
+      notes: ['Dunne et al. applied it to daily maximum WBGT; here it is applied to each shift hour, at the effective WBGT (WBGT + CAV) like the Kjellstrom functions.'],
     },
     {
       id: 'histogram-estimate',

@@ -25,7 +25,7 @@
  */
 import { ClothingAdjustmentOutOfRange, MetabolicRateOutOfRange, RestRateNotBelowWork, WorkParameterInvalid } from './errors.ts';
 import { LIMIT_CURVE_2017, LIMIT_MODELS, ACCLIMATIZATION_STATES, limitWbgt, table1989Knots, type LimitChoice } from './limit-curves.ts';
-import { MAX_METABOLIC_RATE_W } from './workload-classes.ts';
+import { MAX_METABOLIC_RATE_W } from './limit-curves.ts';
 import { MAX_CAV } from './clothing.ts';
 
 const LN10 = Math.LN10;

@@ -16,9 +16,10 @@ import {
   WorkloadClassesInvalid,
 } from './errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
+import { MAX_METABOLIC_RATE_W } from './limit-curves.ts';
 
-/** Largest metabolic rate accepted [W]; above this a value is treated as a mistake (e.g. kcal/h). */
-export const MAX_METABOLIC_RATE_W = 1000;
+// Largest metabolic rate accepted [W] (limit-curves.ts, zod-free so the browser bundle needs no schema).
+export { MAX_METABOLIC_RATE_W } from './limit-curves.ts';
 
 /** One workload class. */
 export interface WorkloadClass {

@@ -9,8 +9,8 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
-import { validateShift } from '../../pipeline/work/index.ts';
-import type { EstimateContext } from '../lib/estimate/context.ts';
+import { validateShift } from '../../pipeline/work/shifts.ts';
+import { makeEstimateContext, type EstimateContext } from '../../pipeline/schedule/context.ts';
 import { siteDataDir } from './data-dir.ts';
 import { readValidatedJson } from './read-json.ts';
 import { loadManifest, manifestPath } from './manifest.ts';
@@ -48,28 +48,11 @@ export function loadEstimateContext(dataDir: string = siteDataDir()): { ctx: Est
   if (cells && cells.years.join() !== calc.years.join()) {
     throw SiteDataInvalid({ path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calc.years.join(', ')}`] }, { file: cellsPath, key: 'years' });
   }
-  const w = m.work;
-  const classId = w.classes.some((c) => c.id === 'moderate') ? 'moderate' : w.classes[0].id;
-  const clothing = w.clothing.cav !== undefined ? { cav: w.clothing.cav } : { ensemble: w.clothing.ensemble ?? 'work-clothes', hood: w.clothing.hood ?? false };
-  const ctx: EstimateContext = {
-    years: calc.years,
-    baseline: calc.baseline,
-    timeZone: m.timeZone,
-    invented: m.atlas.invented,
-    restRate: w.rest.metabolicRate,
-    classes: w.classes.map((c) => ({ id: c.id, name: c.name, metabolicRate: c.metabolicRate, description: c.description })),
-    limitModel: w.limitModel,
-    airMovement: w.airMovement,
-    defaults: {
-      classId,
-      acclimatization: w.acclimatization[0],
-      exposure: w.exposures[0],
-      restLocation: w.restLocation,
-      clothing,
-      shift: validateShift(w.shift, { file: manifestPath(dataDir), key: 'work.shift' }),
-    },
-    regions: calc.regions.map((r) => ({ id: r.id, name: r.name, path: r.path })),
-    cells: cells ? { grid: cells.grid, chunks: cells.chunks.map((c) => ({ path: c.path, firstCell: c.firstCell, lastCell: c.lastCell })) } : null,
-  };
+  const ctx = makeEstimateContext({
+    manifest: m,
+    shift: validateShift(m.work.shift, { file: manifestPath(dataDir), key: 'work.shift' }),
+    calculator: calc,
+    cells,
+  });
   return { ctx, atlasTitle: m.atlas.title };
 }

@@ -68,7 +68,7 @@ const layerSchema = z.object({
 
 const artefactSchema = z.object({
   path: dataPath,
-  kind: z.enum(['table', 'layer-png', 'layer-geotiff', 'json', 'geojson', 'histogram']),
+  kind: z.enum(['table', 'layer-png', 'layer-geotiff', 'json', 'geojson', 'histogram', 'netcdf']),
   units: z.string().optional(),
   description: z.string(),
   bytes: z.number().int().nonnegative(),
@@ -119,6 +119,8 @@ export const manifestSchema = z
     baseline: yearRange,
     latestYear: z.number().int(),
     timeZone: z.string().min(1),
+    /** Modelling choices of the physics (pipeline/physics/settings.ts): globe diameter [m]. */
+    physics: z.object({ globeDiameter: z.number().positive() }),
     work: manifestWorkSchema,
     figures: z.array(z.object({ id: z.string().min(1), label: z.string().min(1), units: z.string(), combos: z.array(z.string().min(1)) })),
     statistics: z.record(z.string()),

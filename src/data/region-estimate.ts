@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import { loadEstimateContext } from './estimate.ts';
 import { siteDataDir } from './data-dir.ts';
 import { SiteDataMissing } from './errors.ts';
-import { regionTileHistograms } from '../lib/estimate/tiles.ts';
+import { regionTileHistograms } from '../../pipeline/schedule/tiles.ts';
 import { estimateDifference, type EstimateDifference } from '../lib/report/estimate-difference.ts';
 import type { RegionFigures } from '../lib/report/region-figures.ts';
 

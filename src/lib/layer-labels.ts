@@ -15,7 +15,7 @@ export interface ClassLabel {
 }
 
 const ACCLIMATIZATION: Record<string, string> = { acclimatized: 'acclimatized', unacclimatized: 'not acclimatized' };
-const EXPOSURE: Record<string, string> = { sun: 'in the sun', shade: 'in the shade' };
+const EXPOSURE: Record<string, string> = { sun: 'in the sun', shade: 'in the shade (open sky, sun removed)' };
 
 /** Label of a combination key of a figure, e.g. "High work rate (415 W), acclimatized, in the sun". */
 export function comboLabel(key: string, classes: readonly ClassLabel[]): string {

@@ -7,8 +7,9 @@ import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { parseYears } from '../../pipeline/commands/demo-data.ts';
 import { HeathoursError, errorCatalogue } from '../../pipeline/model/errors.ts';
 import '../../pipeline/model/catalogue.ts';
+import { CLI_TS } from '../helpers/cli.ts';
 
-const BIN = new URL('../../bin/heathours.mjs', import.meta.url).pathname;
+const BIN = CLI_TS;
 
 async function expectCode(p: Promise<unknown> | (() => unknown), code: string): Promise<HeathoursError> {
   try {

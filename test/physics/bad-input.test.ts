@@ -26,8 +26,8 @@ describe('out-of-range inputs get a status, not a number', () => {
     ['solar above 1500', { solar: 1600 }, STATUS.solarOutOfRange],
     ['cos zenith above 1', { cosZenith: 1.2 }, STATUS.cosZenithOutOfRange],
     ['direct fraction above 1', { directFraction: 1.5 }, STATUS.directFractionOutOfRange],
-    ['year 1949', { timeMs: Date.UTC(1949, 6, 1, 12) }, STATUS.timeOutOfRange],
-    ['year 2050', { timeMs: Date.UTC(2050, 6, 1, 12) }, STATUS.timeOutOfRange],
+    ['year 1899', { timeMs: Date.UTC(1899, 6, 1, 12) }, STATUS.timeOutOfRange],
+    ['year 2101', { timeMs: Date.UTC(2101, 6, 1, 12) }, STATUS.timeOutOfRange],
     ['unparseable time', { timeMs: NaN }, STATUS.timeOutOfRange],
     ['no humidity at all', { rh: undefined, td: undefined }, STATUS.missingInput],
   ];
@@ -73,19 +73,22 @@ describe('heathours point files', () => {
       '"say ""hi""",2007-07-15T18:30:00Z,41.88,-87.63,32,0,1000,3,800',
     ].join('\r\n') + '\r\n');
     const out = join(dir, 'ok-out.csv');
-    const s = await runPoint(inp, out, { quiet: true });
+    const s = await runPoint(inp, out, { quiet: true, globeDiameter: 0.0508 }); // the reference's 2-inch globe
     expect(s.rows).toBe(2);
     expect(s.ok).toBe(1);
     expect(s.byStatus.humidityOutOfRange).toBe(1);
     const lines = readFileSync(out, 'utf8').trim().split('\r\n');
     const head = lines[0].split(',');
-    expect(head.slice(9, 17)).toEqual(['cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c']);
+    expect(head.slice(9, 22)).toEqual([
+      'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
+      'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
+    ]);
     expect(head.at(-1)).toBe('status');
     expect(lines[1].startsWith('"Yard, north",')).toBe(true);
     // METHODS.md §3.2.8 full Chicago call: WBGT 29.836 °C (reference C), exact root within 0.03 °C.
     const wbgt = Number(lines[1].split(',').at(head.indexOf('wbgt_c') + 1)); // +1: the quoted comma in the site field
     expect(Math.abs(wbgt - 29.836)).toBeLessThan(0.03);
-    // Every output of the bad row is empty (8 physics + 2 per workload class), then the status.
+    // Every output of the bad row is empty (13 physics + 2 per workload class), then the status.
     expect(lines[2].endsWith(`${','.repeat(head.length - 9)}humidityOutOfRange`)).toBe(true);
   });
 });

@@ -9,6 +9,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runPoint, classColumns } from '../../pipeline/commands/point.ts';
 import { computePoint, type PointInput } from '../../pipeline/physics/point-row.ts';
+import { globeFactors } from '../../pipeline/physics/liljegren-solve.ts';
+import { D_GLOBE_STANDARD } from '../../pipeline/physics/constants.ts';
+
+/** The globe `point` uses by default (the standard 150 mm globe). */
+const GLOBE = globeFactors(D_GLOBE_STANDARD);
 
 const dir = mkdtempSync(join(tmpdir(), 'heathours-point-work-'));
 
@@ -24,7 +29,7 @@ function airTemperatureFor(target: number): number {
   let hi = 50;
   for (let k = 0; k < 80; k++) {
     const mid = 0.5 * (lo + hi);
-    if (computePoint({ ...night, ta: mid }).wbgt < target) lo = mid;
+    if (computePoint({ ...night, ta: mid }, GLOBE).wbgt < target) lo = mid;
     else hi = mid;
   }
   return 0.5 * (lo + hi);
@@ -51,7 +56,8 @@ describe('point work columns', () => {
     const { head } = readOut(join(dir, 'a.csv'));
     expect(head).toEqual([
       'time_utc', 'lat', 'lon', 'ta_c', 'rh_pct', 'pressure_hpa', 'wind_ms', 'solar_wm2',
-      'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c', 'wbgt_shade_c',
+      'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
+      'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
       'limit_low_c', 'work_fraction_low', 'limit_moderate_c', 'work_fraction_moderate',
       'limit_high_c', 'work_fraction_high', 'limit_very_high_c', 'work_fraction_very_high',
       'status',

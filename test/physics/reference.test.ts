@@ -45,6 +45,16 @@ describe('Liljegren reference table', () => {
     expect(worst).toBeGreaterThan(0); // exact root vs damped iteration: never bit-identical
   });
 
+  it('the reference\u2019s damped loop stops at most 0.0172 °C from the exact root, as the methods page says (largest gap on the globe temperature)', () => {
+    let tg = 0;
+    for (const r of rows) {
+      const k = kernelOne(r.ta_c, r.rh_pct, r.pressure_hpa, r.wind2m_est_ms, r.solar_used_wm2, r.fdir, r.cos_zenith);
+      tg = Math.max(tg, Math.abs(k.tg - r.tg_c));
+    }
+    expect(tg).toBeGreaterThan(0.0171);
+    expect(tg).toBeLessThan(0.0173);
+  });
+
   it('through the whole chain (time, place, raw solar, wind at its height) rows with cos z ≥ 0.2 agree within 0.05 °C', () => {
     let n = 0;
     for (const r of rows) {

@@ -1,7 +1,7 @@
 /**
  * The per-cell figure chunks of the map explorer (pipeline/publish/cell-figures.ts). On a data
  * folder made by the real pipeline (the invented small demo, test/site/pipeline-data.ts) every
- * row of data/atlas-cells.csv is checked against the chunks, the niche figures against
+ * row of the per-cell tables (data/cell-tables/*.csv) is checked against the chunks, the niche figures against
  * niche.json, and the added mean WBGT and capacity loss against the published GeoTIFF layers,
  * read with geotiff.js 3.0.5 (a general-purpose reader, not our writer).
  */
@@ -16,14 +16,16 @@ import {
   CELL_FIGURES,
   cellChunkId,
   cellFigureChunks,
-  writeCellFigures,
+  cellFiguresIndex,
+  writeCellChunks,
   type CellChunk,
   type CellFiguresIndex,
   type CellRecord,
 } from '../../pipeline/publish/cell-figures.ts';
-import type { FigureNormals, NicheResult } from '../../pipeline/run/climate-step.ts';
+import type { CellFigureNormals, CellNiche } from '../../pipeline/publish/figure-normals.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
-import { PERIODS } from '../../pipeline/run/figures.ts';
+import { PERIODS, type FigureDef } from '../../pipeline/reduce/figures.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
 let dataDir = '';
@@ -54,8 +56,8 @@ beforeAll(async () => {
 }, 300_000);
 
 describe('per-cell figure chunks of a real pipeline build (invented small demo)', () => {
-  it('every row of atlas-cells.csv equals its cell, figure, combination and period in the chunks', () => {
-    const rows = parseCsv(readFileSync(join(dataDir, 'atlas-cells.csv'), 'utf8'));
+  it('every row of the per-cell tables equals its cell, figure, combination and period in the chunks', () => {
+    const rows = parseCsv(readCellTables(dataDir));
     expect(rows.length).toBeGreaterThan(10_000);
     const figureOf = new Map(index.figures.map((f) => [f.id, f]));
     let nonZero = 0;
@@ -144,7 +146,7 @@ describe('per-cell figure chunks of a real pipeline build (invented small demo)'
 });
 
 /** A hand-made 3 × 5 grid with two figures of one combination each. */
-function tinyInput(): { figures: FigureNormals[]; cells: Int32Array; grid: { lat: Float64Array; lon: Float64Array }; niche: NicheResult } {
+function tinyInput(): { figures: CellFigureNormals[]; cells: Int32Array; grid: { lat: Float64Array; lon: Float64Array }; niche: CellNiche } {
   const cells = Int32Array.from([1, 7, 13]); // (y, x) = (0, 1), (1, 2), (2, 3)
   const nItems = cells.length * PERIODS;
   const normals = (offset: number) => {
@@ -152,21 +154,22 @@ function tinyInput(): { figures: FigureNormals[]; cells: Int32Array; grid: { lat
     mean[5] = NaN;
     return { mean, median: mean.map((v) => v + 1), p90: mean.map((v) => v + 2), yearsUsed: Uint16Array.from({ length: nItems }, () => 3) };
   };
-  const figures = CELL_FIGURES.map((id, j) => ({ series: { def: { id, label: id, units: 'h', combos: ['only'], annual: 'sum' } }, cell: normals(100 * j) })) as unknown as FigureNormals[];
+  const figures = CELL_FIGURES.map((id, j) => ({ def: { id, label: id, units: 'h', combos: ['only'], annual: 'sum' }, cell: normals(100 * j) })) as unknown as CellFigureNormals[];
   const niche = {
-    assessment: {
-      baselineMat: Float64Array.from([12.345, NaN, 30]),
-      latestMat: Float64Array.from([12.5, NaN, 30.25]),
-      baselineClass: Uint8Array.from([0, 255, 3]),
-    },
-  } as unknown as NicheResult;
+    baselineMat: Float64Array.from([12.345, NaN, 30]),
+    latestMat: Float64Array.from([12.5, NaN, 30.25]),
+    baselineClass: Uint8Array.from([0, 255, 3]),
+  } as unknown as CellNiche;
   return { figures, cells, grid: { lat: Float64Array.from([10, 10.5, 11]), lon: Float64Array.from([60, 60.5, 61, 61.5, 62]) }, niche };
 }
+
+const defsOf = (figures: readonly CellFigureNormals[]): FigureDef[] => figures.map((f) => f.def);
 
 describe('cellFigureChunks on a hand-made grid', () => {
   it('cuts the cells into 2 × 2 tiles, rounds to 2 decimals, and writes a missing value as null', () => {
     const t = tinyInput();
-    const { index: ix, chunks } = cellFigureChunks(t.figures, t.cells, t.grid, t.niche, { rows: 2, cols: 2 });
+    const chunks = cellFigureChunks(t.figures, t.cells, t.grid, t.niche, { rows: 2, cols: 2 });
+    const ix = cellFiguresIndex(defsOf(t.figures), t.grid, chunks.map((c) => ({ id: c.id, path: `data/cells/${c.id}.json`, cells: c.cells.length, firstCell: c.cells[0].cell })), { rows: 2, cols: 2 });
     expect(chunks.map((c) => [c.id, c.cells.map((r) => r.cell)])).toEqual([['r0c0', [1]], ['r0c1', [7]], ['r1c1', [13]]]);
     expect(ix.grid).toEqual({ nLat: 3, nLon: 5, lat0: 10, lon0: 60, dLat: 0.5, dLon: 0.5 });
     const second = chunks[1].cells[0];
@@ -181,13 +184,18 @@ describe('cellFigureChunks on a hand-made grid', () => {
     expect(ix.periods).toEqual(['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']);
   });
 
-  it('writes the index and chunks atomically, leaving no temporary file', async () => {
+  it('writes the chunks atomically, leaving no temporary file, and indexes chunks given in any order by their first cell', async () => {
     const t = tinyInput();
     const dir = await mkdtemp(join(tmpdir(), 'hh-cells-'));
     try {
-      const ix = await writeCellFigures(dir, t.figures, t.cells, t.grid, t.niche, { rows: 2, cols: 2 });
-      expect((await readdir(join(dir, 'cells'))).sort()).toEqual(['index.json', 'r0c0.json', 'r0c1.json', 'r1c1.json']);
-      expect(JSON.parse(readFileSync(join(dir, 'cells/index.json'), 'utf8'))).toEqual(ix);
+      const chunks = cellFigureChunks(t.figures, t.cells, t.grid, t.niche, { rows: 2, cols: 2 });
+      const entries = await writeCellChunks(dir, chunks);
+      expect((await readdir(join(dir, 'cells'))).sort()).toEqual(['r0c0.json', 'r0c1.json', 'r1c1.json']);
+      expect(entries.map((e) => e.path)).toEqual(['data/cells/r0c0.json', 'data/cells/r0c1.json', 'data/cells/r1c1.json']);
+      const withFirst = entries.map((e, i) => ({ ...e, firstCell: chunks[i].cells[0].cell })).reverse();
+      const ix = cellFiguresIndex(defsOf(t.figures), t.grid, withFirst, { rows: 2, cols: 2 });
+      expect(ix.chunks.map((c) => c.id)).toEqual(['r0c0', 'r0c1', 'r1c1']);
+      expect(ix.landCells).toBe(3);
     } finally {
       await rm(dir, { recursive: true, force: true });
     }
@@ -206,7 +214,7 @@ describe('cellFigureChunks on a hand-made grid', () => {
 
   it('rejects figures without hours lost with CellFigureMissing', () => {
     const t = tinyInput();
-    const without = t.figures.filter((f) => f.series.def.id !== 'hours-lost-shift');
+    const without = t.figures.filter((f) => f.def.id !== 'hours-lost-shift');
     expectCatalogued(() => cellFigureChunks(without, t.cells, t.grid, t.niche), 'CellFigureMissing', /hours-lost-shift/);
   });
 });

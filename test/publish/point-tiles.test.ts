@@ -20,10 +20,10 @@ import {
   encodeCellYear,
   parsePointChunk,
 } from '../../pipeline/publish/point-tile-codec.ts';
-import { PointTileStore, type PointTileIndex } from '../../pipeline/publish/point-tiles.ts';
-import { accumulateBlock, createPartial, createScratch, finishPartial } from '../../pipeline/reduce/accumulator.ts';
-import { mergeYear, type YearCounts } from '../../pipeline/reduce/merge.ts';
-import { HIST_LEN } from '../../pipeline/reduce/layout.ts';
+import { PointTileStore, writePointTileIndex, type PointTileIndex } from '../../pipeline/publish/point-tiles.ts';
+import { accumulateBlock, createPartial, createScratch } from '../../pipeline/reduce/accumulator.ts';
+import { histogramSlot, mergeYear, type YearCounts } from '../../pipeline/reduce/merge.ts';
+import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { localHours, parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
 import { expectCatalogued, expectCataloguedAsync } from '../helpers/catalogued.ts';
 
@@ -44,6 +44,14 @@ function randomCellYear(seed: number): Uint16Array {
     for (let b = first; b <= last; b++) h[slot * HIST_LEN + b] = rnd() < 0.4 ? 0 : Math.floor(rnd() * (rnd() < 0.02 ? 256 : 6));
   }
   return h;
+}
+
+/** Cell c's year of a merged (month-major) histogram, contiguous as a point tile holds it: month × hour × exposure × bin. */
+function cellYear(hist: Uint16Array, c: number, nCells: number): Uint16Array {
+  const out = new Uint16Array(POINT_YEAR_SIZE);
+  const run = N_EXPOSURES * HIST_LEN;
+  for (let m = 0; m < MONTHS; m++) for (let h = 0; h < HOURS; h++) out.set(hist.subarray(histogramSlot(m, h, c, nCells), histogramSlot(m, h, c, nCells) + run), (m * HOURS + h) * run);
+  return out;
 }
 
 /** One local year of invented hourly WBGT for `cells`, through the real accumulator (as a shard would). */
@@ -69,10 +77,10 @@ function inventedYear(year: number, cells: Int32Array, seed: number): YearCounts
     }
   }
   const p = createPartial(year, cells, work.evaluations);
-  const scratch = createScratch(nt * nc, work.evaluations, nc, false);
+  const scratch = createScratch(nt * nc, work.evaluations);
   const local = localHours(time, 'Etc/GMT+10', work.shift);
   accumulateBlock(p, { nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local }, work.evaluations, scratch);
-  return mergeYear(year, cells, [finishPartial(p, scratch)]);
+  return mergeYear(year, cells, [p]);
 }
 
 describe('per-cell histogram tile codec', () => {
@@ -134,11 +142,13 @@ describe('per-cell histogram tiles as the build publishes them', () => {
     store.addYear(ys[1]);
     store.addYear(ys[0]);
     const dir = mkdtempSync(join(tmpdir(), 'hh-point-tiles-'));
-    const summary = await store.write(dir, { years: [2021, 2022], grid: { lat: [10, 11, 12], lon: [60, 61, 62, 63, 64, 65, 66, 67, 68, 69] }, targetBytes: 20_000 });
+    const written = await store.write(dir, { years: [2021, 2022], targetBytes: 20_000, prefix: 'band-' });
+    await writePointTileIndex(dir, { years: [2022, 2021], grid: { lat: [10, 11, 12], lon: [60, 61, 62, 63, 64, 65, 66, 67, 68, 69] }, chunks: [...written].reverse() });
     const index = JSON.parse(readFileSync(join(dir, 'calculator/cells/index.json'), 'utf8')) as PointTileIndex;
     expect(index.years).toEqual([2021, 2022]);
     expect(index.grid).toEqual({ nLat: 3, nLon: 10, lat0: 10, dLat: 1, lon0: 60, dLon: 1 });
-    expect(index.chunks.length).toBe(summary.chunks);
+    expect(index.chunks).toEqual(written);
+    expect(index.chunks[0].path).toBe('data/calculator/cells/band-0000.bin');
     expect(index.chunks.length).toBeGreaterThan(1);
     expect(readdirSync(join(dir, 'calculator/cells')).filter((f) => f.endsWith('.bin')).length).toBe(index.chunks.length);
     const seen: number[] = [];
@@ -154,13 +164,13 @@ describe('per-cell histogram tiles as the build publishes them', () => {
         seen.push(cell);
         const c = cells.indexOf(cell);
         const got = cellHistograms(chunk, cell)!;
-        got.forEach((h, y) => expect(Array.from(h), `cell ${cell} year ${2021 + y}`).toEqual(Array.from(snapshot[y].subarray(c * POINT_YEAR_SIZE, (c + 1) * POINT_YEAR_SIZE))));
+        got.forEach((h, y) => expect(Array.from(h), `cell ${cell} year ${2021 + y}`).toEqual(Array.from(cellYear(snapshot[y], c, cells.length))));
       }
     }
     expect(seen).toEqual(Array.from(cells));
-    expect(bytes).toBe(summary.bytes);
+    expect(bytes).toBe(written.reduce((s, c) => s + c.bytes, 0));
     // The merged year really holds hours (a whole year per cell, NaN hours left out).
-    expect(snapshot[0].subarray(0, POINT_YEAR_SIZE).reduce((a, b) => a + b, 0)).toBeGreaterThan(2 * 8700 - 100);
+    expect(cellYear(snapshot[0], 0, cells.length).reduce((a, b) => a + b, 0)).toBeGreaterThan(2 * 8700 - 100);
   });
 });
 
@@ -197,7 +207,7 @@ describe('per-cell histogram tiles refuse bad input with catalogued errors', () 
     const cells = Int32Array.from([1, 2]);
     const store = new PointTileStore(cells);
     store.addYear(inventedYear(2021, cells, 1));
-    await expectCataloguedAsync(store.write(mkdtempSync(join(tmpdir(), 'hh-pt-')), { years: [2021, 2022], grid: { lat: [0, 1], lon: [0, 1] } }), 'PointTileYearsIncomplete', /2021, 2022.*2021/);
+    await expectCataloguedAsync(store.write(mkdtempSync(join(tmpdir(), 'hh-pt-')), { years: [2021, 2022] }), 'PointTileYearsIncomplete', /2021, 2022.*2021/);
     expectCatalogued(() => store.addYear(inventedYear(2022, Int32Array.from([1, 3]), 2)), 'PointTileCellsMismatch', /year 2022/);
   });
 });

@@ -5,10 +5,10 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tempDir } from '../fixtures/read/era5-cdl.ts';
 import { sharedPath } from '../helpers/shared-dir.ts';
+import { CLI_TS } from '../helpers/cli.ts';
 
-const root = new URL('../../', import.meta.url).pathname;
 const REAL = `${sharedPath('realdata')}/`;
-const run = (...args: string[]) => spawnSync(process.execPath, [join(root, 'bin/heathours.mjs'), 'inspect', ...args], { encoding: 'utf8' });
+const run = (...args: string[]) => spawnSync(process.execPath, [CLI_TS, 'inspect', ...args], { encoding: 'utf8' });
 
 describe('heathours inspect', () => {
   it('--json prints one object per file with format, dims, roles and decoded ranges (reduced.nc and esku_heat_budget.cdf)', () => {
@@ -27,11 +27,11 @@ describe('heathours inspect', () => {
     expect(r.stdout).toMatch(/FSR\(TIME, ESKUY, ESKUX\) shape \[12, 46, 72\] float units "W\/M2" role other: min 0 max 311\.52/);
   });
 
-  it('a bad file exits with status 2 and prints the catalogued error with its hint', () => {
+  it('a bad file exits with status 3 (input data) and prints the catalogued error with its hint', () => {
     const p = join(tempDir(), 'x.grb');
     writeFileSync(p, 'GRIB....');
     const r = run(p);
-    expect(r.status).toBe(2);
+    expect(r.status).toBe(3);
     expect(r.stderr).toMatch(/error \[NetcdfGribFile\]/);
     expect(r.stderr).toMatch(/hint: convert it to NetCDF first/);
   });

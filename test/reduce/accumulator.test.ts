@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
-import { accumulateBlock, createPartial, createScratch, finishPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
-import { mergeYear } from '../../pipeline/reduce/merge.ts';
+import { accumulateBlock, createPartial, createScratch, type ReduceScratch, type ShardPartial } from '../../pipeline/reduce/accumulator.ts';
+import { CELL_YEAR_HIST, histogramSlot, mergeYear } from '../../pipeline/reduce/merge.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, MILLI, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import {
   allowableWorkFraction,
@@ -44,20 +44,20 @@ function run(evals: readonly WorkEvaluation[], general: boolean, nc: number, nt:
   const start = Date.UTC(2021, 5, 20);
   const b = inventedBlock(nc, nt, start, seed, 97);
   const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => i * 3), evals);
-  const scratch = createScratch(nt * nc, evals, nc, general);
+  const scratch = createScratch(nt * nc, evals, general);
   const local = localHours(b.time, tz, work.shift);
   accumulateBlock(p, { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local }, evals, scratch);
-  return finishPartial(p, scratch);
+  return p;
 }
 
-/** Counts hours [t0, t1) of invented block `b` (UTC−10) for `cells` into a new partial of 2021, with `scratch`. */
-function countPiece(b: ReturnType<typeof inventedBlock>, cells: Int32Array, t0: number, t1: number, scratch: ReduceScratch): ShardPartial {
+/** Counts hours [t0, t1) of invented block `b` (UTC−10) for `cells` into a new partial of 2021 holding `months`, with `scratch`. */
+function countPiece(b: ReturnType<typeof inventedBlock>, cells: Int32Array, t0: number, t1: number, scratch: ReduceScratch, months: [number, number] = [0, 12]): ShardPartial {
   const nc = cells.length;
-  const p = createPartial(2021, cells, work.evaluations);
+  const p = createPartial(2021, cells, work.evaluations, months);
   const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
   const local = localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift);
   accumulateBlock(p, { nHours: t1 - t0, wbgtSun: sl(b.sun), wbgtShade: sl(b.shade), airTemperature: sl(b.air), local }, work.evaluations, scratch);
-  return finishPartial(p, scratch);
+  return p;
 }
 
 describe('per-shard accumulation', () => {
@@ -104,7 +104,7 @@ describe('per-shard accumulation', () => {
     const start = Date.UTC(2021, 11, 31, 0);
     const b = inventedBlock(nc, 24, start, 3);
     const p = createPartial(2021, Int32Array.of(0), evals);
-    const scratch = createScratch(24, evals, nc);
+    const scratch = createScratch(24 * nc, evals);
     accumulateBlock(p, { nHours: 24, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local: localHours(b.time, 'Etc/GMT+10', work.shift) }, evals, scratch);
     // Hours ending 01:00 … 24:00 UTC on 31 Dec start 14:00 on 30 Dec … 13:00 on 31 Dec local: all December 2021.
     expect(p.coveredHours[11]).toBe(24);
@@ -116,22 +116,46 @@ describe('merging partials', () => {
   it('two tiles merged in either order equal the counts of both cells computed as one tile', () => {
     const evals = work.evaluations;
     const whole = run(evals, false, 4, 24 * 5, 9);
+    const nc = whole.cells.length;
     const split = (from: number, to: number) => {
       const q = createPartial(2021, whole.cells.slice(from, to), evals);
-      const per = (f: keyof ShardPartial) => (whole[f] as ArrayLike<number>).length / whole.cells.length;
-      for (const f of ['validHours', 'shiftHours', 'aboveAll', 'aboveShift', 'lostShift', 'capacityLoss', 'wbgtSum', 'wbgtMax', 'airSum', 'airHours', 'histogram', 'failedHours'] as const) {
+      const per = (f: keyof ShardPartial) => (whole[f] as ArrayLike<number>).length / nc;
+      for (const f of ['validHours', 'shiftHours', 'aboveAll', 'aboveShift', 'lostShift', 'capacityLoss', 'wbgtSum', 'wbgtMax', 'airSum', 'airHours', 'failedHours'] as const) {
         const w = per(f);
         (q[f] as unknown as { set(a: ArrayLike<number>): void }).set((whole[f] as unknown as { subarray(a: number, b: number): ArrayLike<number> }).subarray(from * w, to * w));
       }
+      // The histogram is month-major (month × hour × cell × exposure × bin): copy the cells' runs.
+      const run = N_EXPOSURES * HIST_LEN;
+      for (let mh = 0; mh < MONTHS * HOURS; mh++) q.histogram.set(whole.histogram.subarray((mh * nc + from) * run, (mh * nc + to) * run), mh * (to - from) * run);
       q.coveredHours.set(whole.coveredHours);
       return q;
     };
     const a = mergeYear(2021, whole.cells, [split(0, 1), split(1, 4)]);
     const b = mergeYear(2021, whole.cells, [split(1, 4), split(0, 1)]);
+    const w = mergeYear(2021, whole.cells, [whole]);
     expect(a).toEqual(b);
+    expect(a).toEqual(w);
     expect(a.aboveShift).toEqual(whole.aboveShift);
-    expect(a.histogram).toEqual(whole.histogram);
     expect(a.wbgtMax).toEqual(whole.wbgtMax);
+    expect(a.histogram.some((x) => x > 0)).toBe(true);
+  });
+
+  it('a merge over a subset of a partial\'s cells keeps exactly those cells, and refuses the others unless asked to skip them', () => {
+    const evals = work.evaluations;
+    const whole = run(evals, false, 4, 24 * 5, 9);
+    const all = mergeYear(2021, whole.cells, [whole]);
+    const some = whole.cells.slice(1, 3);
+    const sub = mergeYear(2021, some, [whole], ['t00-y2021'], { subset: true });
+    const per = all.aboveShift.length / whole.cells.length;
+    expect(sub.aboveShift).toEqual(all.aboveShift.slice(per, 3 * per));
+    // Histograms are month × hour × cell: each (month, hour) row of the subset is cells 1–2 of the whole.
+    expect(sub.histogram.length).toBe(2 * CELL_YEAR_HIST);
+    for (let m = 0; m < MONTHS; m++) {
+      for (let h = 0; h < HOURS; h++) {
+        expect(sub.histogram.subarray(histogramSlot(m, h, 0, 2), histogramSlot(m, h, 2, 2))).toEqual(all.histogram.subarray(histogramSlot(m, h, 1, 4), histogramSlot(m, h, 3, 4)));
+      }
+    }
+    expect(() => mergeYear(2021, some, [whole], ['t00-y2021'])).toThrow(/holds cell 0, which is not a land cell/);
   });
 
   it('the pieces of a tile\'s year (split by time) add up to the tile computed whole, covered hours summed', () => {
@@ -141,14 +165,14 @@ describe('merging partials', () => {
     const start = Date.UTC(2021, 5, 20);
     const b = inventedBlock(nc, nt, start, 9, 53);
     const cells = Int32Array.from({ length: nc }, (_, i) => i * 3);
-    const piece = (t0: number, t1: number) => countPiece(b, cells, t0, t1, createScratch((t1 - t0) * nc, evals, nc));
+    const piece = (t0: number, t1: number) => countPiece(b, cells, t0, t1, createScratch((t1 - t0) * nc, evals));
     const whole = mergeYear(2021, cells, [piece(0, nt)]);
     const split = mergeYear(2021, cells, [piece(50, nt), piece(0, 50)], ['t00-y2021-u2022', 't00-y2021']);
     expect(split).toEqual(whole);
     expect(Array.from(split.coveredHours).reduce((x, y) => x + y, 0)).toBe(nt);
   });
 
-  it('monthly pieces counted in one reused scratch holding only their month add up to the whole, and an hour outside the scratch\'s months is refused', () => {
+  it('monthly pieces, each holding only its month of histograms, add up to the whole, and an hour outside a piece\'s months is refused', () => {
     const evals = work.evaluations;
     const nc = 4;
     const nt = 24 * 70;
@@ -156,23 +180,21 @@ describe('merging partials', () => {
     const b = inventedBlock(nc, nt, start, 5, 41);
     const cells = Int32Array.from({ length: nc }, (_, i) => i * 2);
     const local = localHours(b.time, 'Etc/GMT+10', work.shift);
-    const count = (t0: number, t1: number, scratch: ReduceScratch) => countPiece(b, cells, t0, t1, scratch);
-    const whole = mergeYear(2021, cells, [count(0, nt, createScratch(nt * nc, evals, nc))]);
-    // Cut where the local month changes (June, July, August): one scratch of one month, reused.
+    const scratch = createScratch(nt * nc, evals);
+    const whole = mergeYear(2021, cells, [countPiece(b, cells, 0, nt, scratch)]);
+    // Cut where the local month changes (June, July, August): each piece holds one month.
     const cuts = [0];
     for (let t = 1; t < nt; t++) if (local.month[t] !== local.month[t - 1]) cuts.push(t);
     cuts.push(nt);
     expect(cuts.length).toBe(4);
-    let scratch = createScratch(nt * nc, evals, nc, false, [5, 6]);
     const pieces = cuts.slice(0, -1).map((t0, i) => {
       const m = local.month[t0] - 1;
-      scratch = reuseScratch(scratch, nt * nc, evals, nc, [m, m + 1]);
-      return count(t0, cuts[i + 1], scratch);
+      return countPiece(b, cells, t0, cuts[i + 1], scratch, [m, m + 1]);
     });
-    expect(scratch.hist.length).toBe(HOURS * nc * N_EXPOSURES * HIST_LEN);
+    for (const p of pieces) expect(p.histogram.length).toBe(HOURS * nc * N_EXPOSURES * HIST_LEN);
     expect(mergeYear(2021, cells, pieces)).toEqual(whole);
-    // July's hours into a scratch for June: a RangeError, not counts in the wrong month.
-    expect(() => count(cuts[1], cuts[2], reuseScratch(scratch, nt * nc, evals, nc, [5, 6]))).toThrow(/local month 7 fell outside the shard's months 6-6/);
+    // July's hours into a piece for June: a RangeError, not counts in the wrong month.
+    expect(() => countPiece(b, cells, cuts[1], cuts[2], scratch, [5, 6])).toThrow(/local month 7 fell outside the shard's months 6-6/);
   });
 
   it('a cell in two tiles and a cell in none are catalogued errors naming the shards', () => {
@@ -220,7 +242,8 @@ describe('histograms of the partials', () => {
           }
         }
         for (const h of shiftHoursOfDay) {
-          const base = (((c * MONTHS + 5) * HOURS + h) * N_EXPOSURES + x) * HIST_LEN;
+          // The partial's histogram is month-major: month × hour × cell × exposure × bin.
+          const base = (((5 * HOURS + h) * nc + c) * N_EXPOSURES + x) * HIST_LEN;
           for (let j = 0; j < HIST_LEN; j++) counts[j] += p.histogram[base + j];
         }
       }

@@ -13,10 +13,11 @@ import { promisify } from 'node:util';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas, type BuildReport } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { CLI_TS } from '../helpers/cli.ts';
 
 const run = promisify(execFile);
 const ROOT = new URL('../../', import.meta.url).pathname;
-const CLI = join(ROOT, 'bin/heathours.mjs');
+const CLI = CLI_TS;
 const BUILD_TIME = '2026-06-01T00:00:00.000Z';
 let dir = '';
 
@@ -34,7 +35,7 @@ baseline: [${b0}, ${b1}]
 timeZone: Etc/GMT+10
 regions: ${join(ROOT, 'content/regions')}
 output: out
-shards: { cellsPerTile: 16 }
+shards: { cellsPerTile: 16, cellsPerBlock: 12 }
 work:
   classesFile: ${opts.classesFile ?? join(ROOT, 'content/workload-classes.yaml')}
 `;
@@ -97,6 +98,60 @@ beforeAll(async () => {
   writeFileSync(join(dir, 'atlas.yaml'), atlasYaml());
   await buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: join(dir, 'ref'), jobs: 2, quiet: true, dataOnly: true, cache: false });
 }, 300_000);
+
+/** Runs `heathours build --merge DIR --tile K/N` for K = 1..N (two processes at a time), then `--assemble DIR`. */
+async function mergeSlices(n: number, parts: string, out: string, only?: number[]): Promise<void> {
+  const ks = only ?? Array.from({ length: n }, (_, i) => i + 1);
+  while (ks.length > 0) {
+    await Promise.all(ks.splice(0, 2).map((k) => cli(['build', '--config', 'atlas.yaml', '--merge', parts, '--tile', `${k}/${n}`, '--jobs', '1', '--quiet'])));
+  }
+  if (out) await cli(['build', '--config', 'atlas.yaml', '--assemble', parts, '--out', out, '--data-only', '--quiet']);
+}
+
+describe('distributed merge: heathours build --merge DIR --tile K/N, then --assemble DIR', () => {
+  it('1, 2 and 3 merge processes over the blocks of rows give published outputs byte-identical to a one-machine build', async () => {
+    await distributed(4, 'parts-m', 'out-m-whole');
+    for (const n of [1, 2, 3]) {
+      rmSync(join(dir, 'parts-m', 'bands'), { recursive: true, force: true });
+      await mergeSlices(n, 'parts-m', `out-m-${n}`);
+      expectSameTree(join(dir, 'ref/data'), join(dir, `out-m-${n}/data`));
+    }
+    // The grid has several blocks, so the slices really split the work.
+    expect(readdirSync(join(dir, 'parts-m', 'bands')).length).toBeGreaterThanOrEqual(2);
+  }, 600_000);
+
+  it('the assemble step names missing blocks, refuses bands of another split or build, and publishes nothing; a retried merge task keeps its finished bands', async () => {
+    const parts = join(dir, 'parts-m');
+    rmSync(join(parts, 'bands'), { recursive: true, force: true });
+    await mergeSlices(2, 'parts-m', '', [1]);
+    const assemble = (out: string) => buildAtlas({ configPath: join(dir, 'atlas.yaml'), assembleDir: parts, outDir: join(dir, out), jobs: 1, quiet: true, dataOnly: true });
+    await expectCataloguedAsync(assemble('out-missing'), 'BandsIncomplete', /1 of the 2 blocks of rows have no merged band/);
+    expect(existsSync(join(dir, 'out-missing'))).toBe(false);
+    // The one slice of a split into 1 holds both blocks; slice 1 of 2 holds the first: one block in two bands.
+    await mergeSlices(1, 'parts-m', '', [1]);
+    await expectCataloguedAsync(assemble('out-dup'), 'BandsDuplicated', /is in the bands/);
+    rmSync(join(parts, 'bands'), { recursive: true, force: true });
+    await mergeSlices(2, 'parts-m', '', [1, 2]);
+    // A retried task finds its bands done and keeps them.
+    const before = readdirSync(join(parts, 'bands')).map((b) => statSync(join(parts, 'bands', b, 'band.json')).mtimeMs);
+    const { lines, logger } = logged();
+    await buildAtlas({ configPath: join(dir, 'atlas.yaml'), mergeDir: parts, mergeSlice: { k: 1, n: 2 }, outDir: join(dir, 'unused'), jobs: 1, logger });
+    expect(lines.some((l) => /already merged by an earlier run: kept/.test(l))).toBe(true);
+    expect(readdirSync(join(parts, 'bands')).map((b) => statSync(join(parts, 'bands', b, 'band.json')).mtimeMs)).toEqual(before);
+    // A band of another build (here: its key changed by hand) is foreign.
+    const one = readdirSync(join(parts, 'bands'))[0];
+    const path = join(parts, 'bands', one, 'band.json');
+    const band = JSON.parse(readFileSync(path, 'utf8'));
+    writeFileSync(path, JSON.stringify({ ...band, key: 'f'.repeat(64) }));
+    await expectCataloguedAsync(assemble('out-foreign'), 'BandsForeign', new RegExp(`band ${one} .*other inputs, configuration or code`));
+    expect(existsSync(join(dir, 'out-foreign'))).toBe(false);
+  }, 600_000);
+
+  it('a bad --tile value is MergeSliceInvalid, and --tile without --merge a usage error', async () => {
+    await expect(cli(['build', '--config', 'atlas.yaml', '--merge', 'parts-m', '--tile', '3/2'])).rejects.toMatchObject({ stderr: expect.stringMatching(/MergeSliceInvalid/) });
+    await expect(cli(['build', '--config', 'atlas.yaml', '--tile', '1/2'])).rejects.toMatchObject({ stderr: expect.stringMatching(/--tile K\/N slices a distributed merge and needs --merge DIR/) });
+  }, 120_000);
+});
 
 describe('distributed runs: heathours build --shard K/N --partials DIR, then --merge DIR', () => {
   it('1, 4 and 8 shard processes give published outputs byte-identical to a one-machine build', async () => {

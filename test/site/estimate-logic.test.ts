@@ -3,32 +3,38 @@
  * the shift shares, the allowable-work-fraction formula of METHODS.md §5.6 and its worked example,
  * the quantile check values of METHODS.md §8), and the published data: with the atlas's own
  * settings the calculator reproduces the region tables (data/regions/<id>.csv) and the cell table
- * (data/atlas-cells.csv) within measured tolerances, and its rest-in-shade approximation a
+ * (the per-cell tables, data/cell-tables/*.csv) within measured tolerances, and its rest-in-shade approximation a
  * pipeline build with `work.restLocation: shade`. Every bad input gets its catalogued error.
  *
  * External checks: weekday counts from the Gregorian calendar (2021-01-01 was a Friday, 2021-07-01
  * a Thursday); METHODS.md §5.6 worked example (f = 0.189 in place, 0.532 resting at 26 °C, 0 for
  * unacclimatized at 31 °C, heavy work 415 W); METHODS.md §8 type-7 example (P90 142.4 h).
  */
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { tmpdir } from 'node:os';
+import { splitCsvRecord } from '../../pipeline/physics/csv.ts';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildRestShadeData } from './rest-shade-data.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
-import type { EstimateContext } from '../../src/lib/estimate/context.ts';
-import { cellAt, parseInputs, placeFromQuery, type RawInputs } from '../../src/lib/estimate/inputs.ts';
+import type { EstimateContext } from '../../pipeline/schedule/context.ts';
+import { cellAt, parseInputs, placeFromQuery, type RawInputs } from '../../pipeline/schedule/inputs.ts';
 import { runEstimate, type EstimateResult } from '../../src/lib/estimate/estimate.ts';
 import { monthlyFigures, type MonthlyYear } from '../../src/lib/estimate/monthly.ts';
-import { monthOccurrences } from '../../src/lib/estimate/project-period.ts';
+import { monthOccurrences } from '../../pipeline/schedule/project-period.ts';
 import { shiftShares } from '../../src/lib/estimate/shift-shares.ts';
 import { estimateStatistics } from '../../src/lib/estimate/statistics.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../src/lib/estimate/table.ts';
 import { estimateCsv } from '../../src/lib/estimate/csv.ts';
-import { cellTileHistograms, chunkForCell, regionTileHistograms } from '../../src/lib/estimate/tiles.ts';
+import { REGION_TABLE_TOLERANCE } from '../../src/lib/estimate/measured.ts';
+import { cellTileHistograms, chunkForCell, regionTileHistograms } from '../../pipeline/schedule/tiles.ts';
 import { HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { POINT_YEAR_SIZE } from '../../pipeline/publish/point-tile-codec.ts';
 import { CAUTION_SUMMARY, DEFAULT_SHIFT, prepareWorkKernel, wbgtBinIndex } from '../../pipeline/work/index.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
+import { parsePattern, patternFromWorkShift } from '../../pipeline/schedule/shift-pattern.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
 let dataDir = '';
@@ -97,7 +103,7 @@ class Worst {
 
 describe('shift shares from the calendar (pipeline/work/shifts.ts)', () => {
   it('07–17 Monday to Saturday in January 2021 (Etc/GMT+10): 26 of 31 days in hours 7–16, none outside; February 24 of 28', () => {
-    const [y] = shiftShares([2021], 'Etc/GMT+10', DEFAULT_SHIFT);
+    const [y] = shiftShares([2021], 'Etc/GMT+10', patternFromWorkShift(DEFAULT_SHIFT));
     for (let h = 0; h < 24; h++) {
       expect(y.share[h], `hour ${h}`).toBeCloseTo(h >= 7 && h < 17 ? 26 / 31 : 0, 12);
       expect(y.slotHours[h]).toBe(31);
@@ -106,7 +112,7 @@ describe('shift shares from the calendar (pipeline/work/shifts.ts)', () => {
   });
 
   it('a night shift 22–06 Monday to Friday counts the hours after midnight for the day it started: January 2021 hours 22–23 on 21 days, hours 0–5 on 22', () => {
-    const [y] = shiftShares([2021], 'Etc/GMT+10', { start: 22, end: 6, days: ['mon', 'tue', 'wed', 'thu', 'fri'] });
+    const [y] = shiftShares([2021], 'Etc/GMT+10', parsePattern(['22:00-06:00'], 'mon-fri'));
     for (let h = 0; h < 24; h++) expect(y.share[h], `hour ${h}`).toBeCloseTo(h >= 22 ? 21 / 31 : h < 6 ? 22 / 31 : 0, 12);
   });
 });
@@ -114,7 +120,7 @@ describe('shift shares from the calendar (pipeline/work/shifts.ts)', () => {
 describe('monthly figures from a histogram (hand-computed)', () => {
   it('10 hours of July noon at 30.125 °C, moderate work: 27/31 of them above the limit, each losing 1 − f with f from the METHODS.md §5.6 closed form', () => {
     const hist = syntheticYear((put) => put(6, 12, 0, 30.1, 10));
-    const [shares] = shiftShares([2021], 'Etc/GMT+10', DEFAULT_SHIFT);
+    const [shares] = shiftShares([2021], 'Etc/GMT+10', patternFromWorkShift(DEFAULT_SHIFT));
     const kernel = prepareWorkKernel({ workRate: 300, restRate: 115, limit: { model: 'curve-2017', acclimatization: 'acclimatized' } });
     const y = monthlyFigures(hist, shares, { kernel, exposure: 'sun', rest: { kind: 'same-place' } });
     // METHODS.md §5.6: M_lim = 10^((56.7 − WBGT)/11.5), f = (M_lim − M_rest)/(M_work − M_rest); bin middle 30.125 °C.
@@ -136,7 +142,7 @@ describe('monthly figures from a histogram (hand-computed)', () => {
       put(3, 10, 0, 30.1, 4);
       put(3, 10, 1, 25.1, 4);
     });
-    const [shares] = shiftShares([2021], 'Etc/GMT+10', { start: 0, end: 24, days: ALL_DAYS as never });
+    const [shares] = shiftShares([2021], 'Etc/GMT+10', parsePattern(['00:00-24:00'], 'mon-sun'));
     const kernel = (acclimatization: 'acclimatized' | 'unacclimatized') =>
       prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'curve-2017', acclimatization }, clothingAdjustment: 0.875 });
     const lost = (k: ReturnType<typeof kernel>, rest: 'same-place' | 'shade') => monthlyFigures(hist, shares, { kernel: k, exposure: 'sun', rest: { kind: rest } }).lost[3] / 4;
@@ -219,10 +225,10 @@ describe('against the published tables of the invented small demo', () => {
     }
     process.stderr.write(`region tables, ${checks} month × setting checks:\n  ${Object.entries(worst).map(([k, w]) => w.report(k)).join('\n  ')}\n`);
     expect(checks).toBe(ctx.regions.length * ctx.classes.length * 4 * 12);
-    expect(worst.aboveMean.share).toBeLessThanOrEqual(0.012);
-    expect(worst.aboveP90.share).toBeLessThanOrEqual(0.019);
-    expect(worst.lostMean.share).toBeLessThanOrEqual(0.006);
-    expect(worst.lostP90.share).toBeLessThanOrEqual(0.011);
+    expect(worst.aboveMean.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.aboveMean);
+    expect(worst.aboveP90.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.aboveP90);
+    expect(worst.lostMean.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.lostMean);
+    expect(worst.lostP90.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.lostP90);
     // Not trivially zero: the tables hold hours above the limit.
     expect([...regionTable(dataDir, ctx.regions[0].id).values()].some((v) => v > 10)).toBe(true);
   });
@@ -234,7 +240,7 @@ describe('against the published tables of the invented small demo', () => {
       const hist = regionHist(region.id);
       for (const cls of ctx.classes) {
         for (const acclimatization of ['acclimatized', 'unacclimatized']) {
-          const r = estimate(hist, { region: region.id, work: cls.id, acclimatization, exposure: 'sun', 'shift-start': '0', 'shift-end': '24', days: ALL_DAYS });
+          const r = estimate(hist, { region: region.id, work: cls.id, acclimatization, exposure: 'sun', shifts: '00:00-24:00', days: ALL_DAYS });
           for (let m = 0; m < 12; m++) {
             const q = r.statistics.months[m];
             w.add(q.above.mean, table.get(`${pad(m)}|hours-above-limit-all|${cls.id}.${acclimatization}.sun|mean`)!, q.shiftHours.mean, `${region.id} ${pad(m)} ${cls.id} ${acclimatization}`);
@@ -246,8 +252,8 @@ describe('against the published tables of the invented small demo', () => {
     expect(w.share).toBeLessThanOrEqual(0.002);
   });
 
-  it('a grid cell’s tile with the atlas settings matches data/atlas-cells.csv within 3.5 % (mean) and 4.2 % (P90) of shift hours for hours above the limit, 1.3 % and 2.2 % for hours lost', () => {
-    const rows = readCsv(join(dataDir, 'data/atlas-cells.csv'));
+  it('a grid cell’s tile with the atlas settings matches its per-cell table (data/cell-tables) within 3.5 % (mean) and 4.2 % (P90) of shift hours for hours above the limit, 1.5 % and 2.2 % for hours lost (measured 3.0, 3.8, 1.4, 1.9 % with the 150 mm globe)', () => {
+    const rows = readCsvText(readCellTables(join(dataDir, 'data')));
     const index = new Map(rows.map((r) => [`${r.cell_id}|${r.period}|${r.figure}|${r.workload_class}.${r.acclimatization}.${r.exposure}`, r]));
     const cells = [...new Set(rows.map((r) => Number(r.cell_id)))];
     expect(cells.length).toBeGreaterThan(30);
@@ -277,7 +283,7 @@ describe('against the published tables of the invented small demo', () => {
     process.stderr.write(`cell table, ${cells.length} cells:\n  ${Object.entries(worst).map(([k, w]) => w.report(k)).join('\n  ')}\n`);
     expect(worst.aboveMean.share).toBeLessThanOrEqual(0.035);
     expect(worst.aboveP90.share).toBeLessThanOrEqual(0.042);
-    expect(worst.lostMean.share).toBeLessThanOrEqual(0.013);
+    expect(worst.lostMean.share).toBeLessThanOrEqual(0.015);
     expect(worst.lostP90.share).toBeLessThanOrEqual(0.022);
   });
 
@@ -351,10 +357,20 @@ describe('inputs, URL and CSV', () => {
     expect(cellAt(g, g.lat0, g.lon0 + 360)).toBe(0);
   });
 
-  it('the CSV download holds the invented-data label, the settings and the cautions as # lines, units in every column name, and one line per table row with the same values', () => {
+  it('the CSV download starts with a byte order mark, holds the invented-data label, the settings and the cautions as #,"text" lines (two fields each, commas quoted: Python csv reads them so), units in every column name, and one line per table row with the same values', () => {
     const r = estimate(regionHist(ctx.regions[0].id), { region: ctx.regions[0].id, months: ['5', '6', '7'], 'period-start': '2027-05', 'period-end': '2028-07', crew: '12' });
-    const csv = estimateCsv(r, ctx, atlasTitle);
-    const comments = csv.split('\n').filter((l) => l.startsWith('#'));
+    const text = estimateCsv(r, ctx, atlasTitle, { kind: 'region', id: ctx.regions[0].id, name: ctx.regions[0].name });
+    expect(text.startsWith('\uFEFF#,')).toBe(true);
+    const csv = text.slice(1);
+    const commentLines = csv.split('\n').filter((l) => l.startsWith('#'));
+    expect(commentLines.some((l) => l.includes(','))).toBe(true);
+    for (const l of commentLines) expect(splitCsvRecord(l), l).toHaveLength(2);
+    // Python's csv module (an outside RFC 4180 reader) splits every comment line into exactly '#' and the text.
+    const py = execFileSync('/usr/bin/python3', ['-c', 'import csv,sys,json; print(json.dumps([r for r in csv.reader(open(sys.argv[1], encoding="utf-8-sig")) if r and r[0] == "#"]))', writeTemp(text)], { encoding: 'utf8' });
+    const pyRows = JSON.parse(py) as string[][];
+    expect(pyRows.length).toBe(commentLines.length);
+    for (const row of pyRows) expect(row.length).toBe(2);
+    const comments = pyRows.map((x) => x[1]);
     expect(comments.join('\n')).toContain('INVENTED DATA');
     expect(comments.join('\n')).toContain(CAUTION_SUMMARY);
     expect(comments.join('\n')).toMatch(/Crew: 12 workers/);
@@ -373,8 +389,14 @@ describe('inputs, URL and CSV', () => {
   });
 });
 
+function writeTemp(text: string): string {
+  const p = join(mkdtempSync(join(tmpdir(), 'estimate-csv-')), 'estimate.csv');
+  writeFileSync(p, text);
+  return p;
+}
+
 function readCsvText(text: string): Array<Record<string, string>> {
-  const lines = text.trim().split('\n').filter((l) => !l.startsWith('#'));
+  const lines = text.replace(/^\uFEFF/, '').trim().split('\n').filter((l) => !l.startsWith('#'));
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
@@ -423,10 +445,10 @@ describe('bad inputs give catalogued errors', () => {
     expectCatalogued(() => parseInputs({ region: r, clothing: 'custom', cav: '25' }, ctx, 'C'), 'ClothingAdjustmentOutOfRange');
     expectCatalogued(() => parseInputs({ region: r, clothing: 'custom', cav: 'hot' }, ctx, 'C'), 'EstimateNumberInvalid');
     expectCatalogued(() => parseInputs({ region: r, rest: 'fixed', 'rest-wbgt': '60' }, ctx, 'C'), 'EstimateNumberInvalid', /rest-wbgt/);
-    expectCatalogued(() => parseInputs({ region: r, 'shift-start': '7', 'shift-end': '7' }, ctx, 'C'), 'WorkShiftInvalid');
-    expectCatalogued(() => parseInputs({ region: r, 'shift-start': '6.5' }, ctx, 'C'), 'WorkShiftInvalid');
-    expectCatalogued(() => parseInputs({ region: r, days: [] }, ctx, 'C'), 'WorkShiftInvalid', /no work days/);
-    expectCatalogued(() => parseInputs({ region: r, days: ['funday'] }, ctx, 'C'), 'WorkWeekdayUnknown');
+    expectCatalogued(() => parseInputs({ region: r, shifts: '07:00-12:00, 11:00-15:00' }, ctx, 'C'), 'ScheduleShiftInvalid', /overlaps/);
+    expectCatalogued(() => parseInputs({ region: r, shifts: '6.5-17' }, ctx, 'C'), 'ScheduleShiftInvalid');
+    expectCatalogued(() => parseInputs({ region: r, days: [] }, ctx, 'C'), 'ScheduleDaysInvalid', /no work day/);
+    expectCatalogued(() => parseInputs({ region: r, days: ['funday'] }, ctx, 'C'), 'ScheduleDaysInvalid');
     expectCatalogued(() => parseInputs({ region: r, months: [] }, ctx, 'C'), 'EstimateMonthsEmpty');
     expectCatalogued(() => parseInputs({ region: r, months: ['13'] }, ctx, 'C'), 'EstimateChoiceUnknown');
     expectCatalogued(() => parseInputs({ region: r, 'period-start': '2027-05' }, ctx, 'C'), 'EstimatePeriodInvalid', /period-end ""/);
@@ -437,8 +459,8 @@ describe('bad inputs give catalogued errors', () => {
     expectCatalogued(() => runEstimate(regionHist(r), tooLong, ctx), 'EstimatePeriodInvalid', /at most 240/);
     const noWorkMonth = parseInputs({ region: r, months: ['7'], 'period-start': '2027-01', 'period-end': '2027-03' }, ctx, 'C');
     expectCatalogued(() => runEstimate(regionHist(r), noWorkMonth, ctx), 'EstimatePeriodInvalid', /none of the ticked/);
-    expectCatalogued(() => parseInputs({ region: r, crew: '2.5' }, ctx, 'C'), 'EstimateNumberInvalid', /crew/);
-    expectCatalogued(() => parseInputs({ region: r, crew: '0' }, ctx, 'C'), 'EstimateNumberInvalid');
+    expectCatalogued(() => parseInputs({ region: r, crew: '2.5' }, ctx, 'C'), 'ScheduleNumberInvalid', /crew/);
+    expectCatalogued(() => parseInputs({ region: r, crew: '0' }, ctx, 'C'), 'ScheduleNumberInvalid');
     // The largest clothing value with the most demanding work pushes the threshold below the histogram.
     const extreme = parseInputs({ region: r, work: 'very-high', acclimatization: 'unacclimatized', clothing: 'custom', cav: '20' }, ctx, 'C');
     expectCatalogued(() => runEstimate(regionHist(r), extreme, ctx), 'LimitOutsideHistogram');

@@ -6,19 +6,25 @@
  * °C/°F switch, and no request leaves 127.0.0.1, no console error, no CSP violation.
  * Tolerances are those measured in estimate-logic.test.ts (weekday scaling of the histograms).
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildPipelineData } from './pipeline-data.ts';
-import { buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
+import { ARTIFACTS_DIR, buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
-import type { EstimateContext } from '../../src/lib/estimate/context.ts';
-import { parseInputs } from '../../src/lib/estimate/inputs.ts';
+import type { EstimateContext } from '../../pipeline/schedule/context.ts';
+import { JOB_DEFAULTS, parseInputs } from '../../pipeline/schedule/inputs.ts';
 import { runEstimate } from '../../src/lib/estimate/estimate.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../src/lib/estimate/table.ts';
-import { regionTileHistograms } from '../../src/lib/estimate/tiles.ts';
+import { regionTileHistograms } from '../../pipeline/schedule/tiles.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
 import { CONTENT_SECURITY_POLICY } from '../../src/lib/content-security-policy.ts';
+import { runEstimateCommand } from '../../pipeline/commands/estimate.ts';
+import type { BidJson } from '../../pipeline/schedule/bid-json.ts';
+import { SCHEDULE_ROWS, STATISTICS, scheduleValue, showValue } from '../../pipeline/schedule/bid-table.ts';
+import { cellCentre } from '../../pipeline/schedule/inputs.ts';
+import { parsePointChunk } from '../../pipeline/publish/point-tile-codec.ts';
 
 let session: SiteSession;
 let distDir = '';
@@ -42,7 +48,7 @@ afterAll(async () => {
 const pad = (m: number) => String(m + 1).padStart(2, '0');
 
 function readCsv(text: string): Array<Record<string, string>> {
-  const lines = text.trim().split('\n').filter((l) => !l.startsWith('#'));
+  const lines = text.replace(/^\uFEFF/, '').trim().split('\n').filter((l) => !l.startsWith('#'));
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
@@ -54,6 +60,13 @@ async function settled(p: Page, before: number): Promise<number> {
     return app !== null && Number(app.dataset.run ?? 0) > n && app.dataset.state !== 'loading';
   }, before);
   return Number(await p.getAttribute('#estimate-app', 'data-run'));
+}
+
+/** The page's JSON download, parsed. */
+async function downloadJson(p: Page): Promise<BidJson> {
+  const [download] = await Promise.all([p.waitForEvent('download'), p.click('#bid-json')]);
+  expect(download.suggestedFilename()).toMatch(/^bid-.*\.json$/);
+  return JSON.parse(readFileSync((await download.path())!, 'utf8')) as BidJson;
 }
 
 async function runCount(p: Page): Promise<number> {
@@ -79,6 +92,9 @@ describe('the estimate page', () => {
     const region = ctx.regions.find((r) => r.id === 'tessick-coast') ?? ctx.regions[0];
     page = await session.open(`/estimate/?region=${region.id}`);
     await settled(page.page, 0);
+    // The monthly table is a detail, folded by default.
+    expect(await page.page.isVisible('#estimate-table')).toBe(false);
+    await page.page.click('.estimate-monthly > summary');
     expect(await page.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
     expect(await page.page.inputValue('#region')).toBe(region.id);
     const rows = await readDataTable(page.page, '#estimate-table');
@@ -136,21 +152,23 @@ describe('the estimate page', () => {
     await change(p, () => p.fill('#crew', '8').then(() => p.press('#crew', 'Tab')));
     const crew = await totalRow(p);
     expect(crew.crew_lost_mean).toBeCloseTo(8 * unacc.lost_mean, 0);
+    expect(unacc.crew_lost_mean).toBeCloseTo(Number(JOB_DEFAULTS.crew) * unacc.lost_mean, 0);
     await change(p, () => p.check('input[name="acclimatization"][value="acclimatized"]'));
     await change(p, () => p.selectOption('#work', 'moderate'));
-    await change(p, () => p.fill('#crew', '1').then(() => p.press('#crew', 'Tab')));
+    await change(p, () => p.fill('#crew', JOB_DEFAULTS.crew).then(() => p.press('#crew', 'Tab')));
     expect(await totalRow(p)).toEqual(base);
   });
 
-  it('the CSV download (a Blob link) parses, carries units in its header and the invented-data label, and matches the table shown', async () => {
+  it('the monthly CSV download (a Blob link) starts with a byte order mark, parses, carries units in its header, the invented-data label as a #,"text" line, and matches the table shown', async () => {
     const p = page.page;
     const href = await p.getAttribute('#estimate-csv', 'href');
     expect(href).toMatch(/^blob:http:\/\/127\.0\.0\.1/);
     const [download] = await Promise.all([p.waitForEvent('download'), p.click('#estimate-csv')]);
-    expect(download.suggestedFilename()).toMatch(/^estimate-.*\.csv$/);
+    expect(download.suggestedFilename()).toMatch(/^monthly-.*\.csv$/);
     const text = readFileSync((await download.path())!, 'utf8');
-    expect(text).toMatch(/^# .*INVENTED DATA/m);
-    expect(text).toMatch(/^# Cautions: /m);
+    expect(text.charCodeAt(0)).toBe(0xfeff);
+    expect(text).toMatch(/^#,.*INVENTED DATA/m);
+    expect(text).toMatch(/^#,"?Cautions: /m);
     const csv = readCsv(text);
     const table = await readDataTable(p, '#estimate-table');
     expect(csv.length).toBe(table.length);
@@ -190,14 +208,15 @@ describe('the estimate page', () => {
     await screenshot(p, 'estimate');
   });
 
-  it('?cell=<cell_id> estimates a grid cell (matching data/atlas-cells.csv within the measured tolerance); a sea or unknown cell shows the catalogued error', async () => {
+  it('?cell=<cell_id> estimates a grid cell (matching its per-cell table within the measured tolerance); a sea or unknown cell shows the catalogued error', async () => {
     const cell = ctx.cells!.chunks[0].firstCell;
     const p = await session.open(`/estimate/?cell=${cell}`);
     await settled(p.page, 0);
     expect(await p.page.textContent('#estimate-status')).toContain(`Grid cell ${cell}`);
+    await p.page.click('.estimate-monthly > summary');
     expect(await p.page.inputValue('#cell')).toBe(String(cell));
     const rows = await readDataTable(p.page, '#estimate-table');
-    const cells = readCsv(readFileSync(join(dataDir, 'data/atlas-cells.csv'), 'utf8'));
+    const cells = readCsv(readCellTables(join(dataDir, 'data')));
     for (let m = 0; m < 12; m++) {
       const r = cells.find((x) => x.cell_id === String(cell) && x.period === pad(m) && x.figure === 'hours-above-limit-shift' && x.workload_class === 'moderate' && x.acclimatization === 'acclimatized' && x.exposure === 'sun')!;
       expect(Math.abs(parseShownNumber(rows[m].above_mean) - Number(r.mean))).toBeLessThanOrEqual(0.035 * parseShownNumber(rows[m].shift_hours) + 0.05);
@@ -231,6 +250,101 @@ describe('the estimate page', () => {
     // The region named with markup stays text, in the form and in the data attribute.
     expect(html).not.toContain('<img src=x onerror=alert(1)>');
     expect(html).toMatch(/<noscript>[\s\S]*needs JavaScript[\s\S]*data\/regions\/[a-z-]+\.csv/);
+  });
+
+  it('the job’s schedule on the page equals `heathours estimate` for the same inputs: the JSON download field for field, and every shown figure', async () => {
+    const q = 'region=sollent-coast&start=2027-05-03&work-hours=20000&crew=20&rate=35&daily-cost=1500&currency=EUR&compare=05%3A00-11%3A00%2C+15%3A00-19%3A00&compare=20%3A00-04%3A00&deadline=2027-09-15';
+    const w = await session.open(`/estimate/?${q}`);
+    const p = w.page;
+    await settled(p, 0);
+    expect(await p.getAttribute('#estimate-app', 'data-state')).toBe('ready');
+    const fromPage = await downloadJson(p);
+    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', compareShift: ['05:00-11:00, 15:00-19:00', '20:00-04:00'], deadline: '2027-09-15' });
+    expect(fromPage).toEqual(fromCli);
+    expect(fromPage.crewForDeadline).not.toBeNull();
+    // The schedule table shows the JSON's numbers with the table's decimals.
+    const shown = await p.$$eval('#bid-schedule tbody tr', (trs) => trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })));
+    expect(shown.map((r) => r.key)).toEqual(SCHEDULE_ROWS.map((r) => r.key));
+    for (const r of shown) {
+      const row = SCHEDULE_ROWS.find((x) => x.key === r.key)!;
+      expect(r.cells.slice(0, 3)).toEqual(STATISTICS.map((st) => showValue(scheduleValue(fromCli, row, st.key), row)));
+    }
+    expect(await p.textContent('#bid-headline')).toContain(fromCli.finishDate.p90);
+    expect(await p.textContent('#bid-crew')).toContain(`${fromCli.crewForDeadline!.crew} workers`);
+    expect(await p.locator('#bid-start-months tbody tr').count()).toBe(12);
+    expect(await p.locator('#bid-start-chart rect').count()).toBe(12);
+    expect(await p.locator('#bid-shifts thead th').count()).toBe(4);
+    expect(await p.textContent('#bid-settings')).toContain('invented data');
+    await screenshot(p, 'estimate-bid');
+  });
+
+  it('the address bar reproduces the estimate: a link made after changing the form gives the same JSON in a new page', async () => {
+    const w = await session.open('/estimate/?region=tessick-coast');
+    const p = w.page;
+    await settled(p, 0);
+    await change(p, () => p.fill('#crew', '14').then(() => p.press('#crew', 'Tab')));
+    await change(p, () => p.fill('#holidays', '2027-01-06\n2027-04-02').then(() => p.press('#holidays', 'Tab')));
+    await change(p, () => p.fill('#shifts', '06:00-10:00, 15:30-19:30').then(() => p.press('#shifts', 'Tab')));
+    await change(p, () => p.uncheck('input[name="days"][value="sat"]'));
+    await change(p, () => p.check('input[name="rest"][value="shade"]'));
+    const url = p.url();
+    expect(url).toContain('crew=14');
+    expect(url).toContain('rest=shade');
+    const first = await downloadJson(p);
+    expect(first.job.holidays).toEqual(['2027-01-06', '2027-04-02']);
+    expect(first.job.days).not.toContain('sat');
+    const again = await session.open(url.replace(/^https?:\/\/[^/]+/, ''));
+    await settled(again.page, 0);
+    expect(await downloadJson(again.page)).toEqual(first);
+  });
+
+  it('a point on a sea cell maps to the nearest land cell, and the page says which and how far (as the CLI does)', async () => {
+    const g = ctx.cells!.grid;
+    const land = new Set<number>();
+    for (const c of ctx.cells!.chunks) for (const id of parsePointChunk(new Uint8Array(readFileSync(join(dataDir, c.path))), c.path).cells) land.add(id);
+    const sea = [...Array(g.nLat * g.nLon).keys()].find((c) => !land.has(c) && [c - 1, c + 1, c - g.nLon, c + g.nLon].some((n) => land.has(n)))!;
+    const pt = cellCentre(g, sea);
+    const w = await session.open(`/estimate/?lat=${pt.lat}&lon=${pt.lon}`);
+    await settled(w.page, 0);
+    expect(await w.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
+    const text = (await w.page.textContent('#bid-place'))!;
+    expect(text).toMatch(/lies on a sea cell; nearest land grid cell \d+ .* km from the point/);
+    const cli = await runEstimateCommand({ atlas: dataDir, cell: `${pt.lat},${pt.lon}` });
+    expect(text).toBe(cli.settings.place);
+  });
+
+  it('prints a one-page A4 bid summary with the inputs, the results, the build and data, and the cautions; the form and the notes stay off the paper', async () => {
+    const w = await session.open('/estimate/?region=sollent-coast&start=2027-05-03&crew=20&rate=35&daily-cost=1500&currency=EUR');
+    const p = w.page;
+    await settled(p, 0);
+    await p.emulateMedia({ media: 'print' });
+    for (const sel of ['#bid-headline', '#bid-schedule', '#bid-settings', '#bid-build', '#bid-start-months', '#bid-shifts', '.bid-print-cautions', '.bid-print-title']) expect(await p.isVisible(sel), sel).toBe(true);
+    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv']) expect(await p.isVisible(sel), sel).toBe(false);
+    expect(await p.textContent('.bid-print-title')).toContain('INVENTED DATA');
+    expect(await p.textContent('#bid-build')).toContain(ctx.build.buildTime);
+    await p.screenshot({ path: join(ARTIFACTS_DIR, 'estimate-print.png'), fullPage: true });
+    const pdf = await p.pdf({ format: 'A4', printBackground: false });
+    writeFileSync(join(ARTIFACTS_DIR, 'estimate-print.pdf'), pdf);
+    const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? []).length;
+    expect(pages).toBe(1);
+    await p.emulateMedia({ media: 'screen' });
+  });
+
+  it('bad job inputs show the catalogued error with its hint, and a deadline that cannot be met is said in the crew line without losing the schedule', async () => {
+    // (A date field cannot hold 30 February; the holiday list can.)
+    const w = await session.open('/estimate/?region=sollent-coast&holidays=2027-06-01%0A2027-02-30');
+    await settled(w.page, 0);
+    expect(await w.page.getAttribute('#estimate-app', 'data-state')).toBe('error');
+    expect(await w.page.getAttribute('#estimate-error', 'data-code')).toBe('ScheduleHolidayInvalid');
+    expect(await w.page.textContent('#estimate-error')).toMatch(/line 2[\s\S]*What to do: list one non-working date per line/);
+    const d = await session.open('/estimate/?region=sollent-coast&start=2027-05-03&deadline=2027-05-01');
+    await settled(d.page, 0);
+    expect(await d.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
+    expect(await d.page.textContent('#bid-crew')).toMatch(/before the start/);
+    const n = await session.open('/estimate/?region=sollent-coast&work-hours=-5');
+    await settled(n.page, 0);
+    expect(await n.page.getAttribute('#estimate-error', 'data-code')).toBe('ScheduleNumberInvalid');
+    expect(await n.page.textContent('body')).not.toMatch(/NaN/);
   });
 
   it('made no request off 127.0.0.1, logged no console or page error, and reported no CSP violation; the page carries the site CSP', async () => {

@@ -31,6 +31,7 @@ import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import type { LayerEntry } from '../../pipeline/publish/atlas-layers.ts';
 import type { CellFiguresIndex } from '../../pipeline/publish/cell-figures.ts';
 import type { Rgb } from '../../src/components/map/map-colours.ts';
+import { readCellTables } from '../helpers/cell-tables.ts';
 import { CONTENT_SECURITY_POLICY } from '../../src/lib/content-security-policy.ts';
 
 const MAP = 'explorer-map';
@@ -187,7 +188,7 @@ beforeAll(async () => {
   cellsIndex = JSON.parse(read('data/cells/index.json').toString('utf8')) as CellFiguresIndex;
   landCells = (JSON.parse(read('data/niche.json').toString('utf8')) as { cells: Array<{ cell: number }> }).cells.map((c) => c.cell);
   regionsGeo = JSON.parse(read('data/regions.geojson').toString('utf8'));
-  atlasRows = parseCsv(read('data/atlas-cells.csv').toString('utf8'));
+  atlasRows = parseCsv(readCellTables(join(dataDir, 'data')));
   const build = await buildTestSite(dataDir);
   distDir = build.distDir;
   session = await startSiteSession(build.distDir);
@@ -336,7 +337,7 @@ describe('the map page', () => {
     expect(await page.isDisabled('#map-play')).toBe(true);
   });
 
-  it("shows a clicked land cell's monthly figures, equal to its rows of atlas-cells.csv, with links to its region and the calculator", async () => {
+  it("shows a clicked land cell's monthly figures, equal to its rows of the per-cell tables, with links to its region and the calculator", async () => {
     const { page } = shared;
     await choose(page, 'figure', 'hours-lost-shift');
     await choose(page, 'workloadClass', 'high');

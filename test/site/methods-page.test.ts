@@ -18,7 +18,9 @@ import { PHYSICS_METHODS } from '../../pipeline/physics/methods.ts';
 import { WORK_METHODS } from '../../pipeline/work/methods.ts';
 import { CLIMATE_METHODS } from '../../pipeline/climate/methods.ts';
 import { REGION_METHODS } from '../../pipeline/regions/methods.ts';
-import { SOURCES, formatMethodNumber, parseMethodNumber } from '../../pipeline/model/sources.ts';
+import { SOURCES, UNVERIFIED, formatMethodNumber, parseMethodNumber } from '../../pipeline/model/sources.ts';
+import { MODELLING_CHOICES } from '../../pipeline/physics/modelling-choices.ts';
+import { CLOTHING_ENSEMBLES, HOOD_CAV_SOURCE_TAG } from '../../pipeline/work/clothing.ts';
 import { CAUTIONS } from '../../src/lib/cautions.ts';
 import { formatBytes, formatUtc } from '../../src/lib/format.ts';
 import { dataAttribution } from '../../src/lib/attribution.ts';
@@ -142,6 +144,30 @@ describe('the methods page', () => {
     const text = ((await page.textContent('main')) ?? '').toLowerCase();
     for (const words of ['screening', 'competent person', 'local regulations', 'medical help']) expect(text).toContain(words);
     await screenshot(page, 'methods');
+  });
+
+  it('names the globe of the build (the manifest\u2019s physics.globeDiameter, 150 mm by default) and the shade model (open sky with the sun removed)', async () => {
+    const settings = await readKeyValueTable(page, '#work-settings');
+    expect(manifest.physics.globeDiameter).toBe(0.15);
+    expect(settings['globe-diameter']).toMatch(/^150 mm: the standard black globe the screening limits assume/);
+    expect(settings.exposures).toContain('in the shade (open sky with the sun removed)');
+  });
+
+  it('states each modelling choice with its reasoning and its measured effect on the demo, labelled invented', async () => {
+    const ids = await page.$$eval('[data-choice]', (els) => els.map((e) => e.getAttribute('data-choice')));
+    expect(ids).toEqual(MODELLING_CHOICES.map((c) => c.id));
+    for (const c of MODELLING_CHOICES) expect(await page.$$eval(`#choice-${c.id} [data-measured]`, (els) => els.length), c.id).toBe(c.measured.length);
+    expect(await page.textContent('#modelling-choices')).toMatch(/invented/);
+  });
+
+  it('keeps what is not verified in one list, each row linked to its source; option labels carry no such words, and the page cites no METHODS.md', async () => {
+    const rows = await page.$$eval('#unverified-table tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-unverified'), href: tr.querySelector('a')?.getAttribute('href') })));
+    const fromMemory = CLOTHING_ENSEMBLES.filter((e) => e.sourceTag === 'from-memory').length + (HOOD_CAV_SOURCE_TAG === 'from-memory' ? 1 : 0);
+    expect(rows.length).toBe(UNVERIFIED.length + fromMemory);
+    for (const r of rows) expect(r.href).toBe(`#ref-${r.id}`);
+    const html = await page.content();
+    expect(html).not.toMatch(/METHODS\.md/);
+    expect(html).not.toMatch(/value not verified/);
   });
 });
 

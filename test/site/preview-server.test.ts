@@ -56,7 +56,8 @@ const FILES: Record<string, [string, string]> = {
 /**
  * The media type each kind of file of a built site must be served with: RFC 9239 (JavaScript,
  * also .mjs for the MapLibre worker), RFC 7946 (GeoJSON), RFC 4180 with the charset (CSV),
- * RFC 3302 (TIFF), RFC 2083 / W3C (PNG), W3C SVG, RFC 8259 (JSON), RFC 2046 (unknown binary).
+ * RFC 3302 (TIFF), RFC 2083 / W3C (PNG), W3C SVG, RFC 8259 (JSON), RFC 2046 (unknown binary),
+ * the IANA registration of Office Open XML spreadsheets (.xlsx).
  */
 const IANA: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
@@ -70,6 +71,10 @@ const IANA: Record<string, string> = {
   '.png': 'image/png',
   '.svg': 'image/svg+xml',
   '.bin': 'application/octet-stream',
+  // No IANA registration exists; the type netCDF's own documentation uses (common practice).
+  '.nc': 'application/x-netcdf',
+  // IANA registration of the Office Open XML spreadsheet (ECMA-376), the region workbooks.
+  '.xlsx': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
 };
 
 beforeAll(async () => {

@@ -13,7 +13,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildTestSite } from './browser.ts';
-import { compareBuilds, type BuildChanges, type BuildFacts } from '../../pipeline/publish/changes.ts';
+import { compareBuilds, tablesInMemory, type BuildChanges, type BuildFacts } from '../../pipeline/publish/changes.ts';
 import { figureWords } from '../../pipeline/publish/data-dictionary.ts';
 import { baselineWords, normalsMovedWords } from '../../src/lib/changes-words.ts';
 
@@ -30,7 +30,7 @@ function facts(dataDir: string, transform: (csv: string) => string = (c) => c): 
   for (const f of readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv'))) {
     tables.set(f.replace(/\.csv$/, ''), transform(readFileSync(join(dataDir, 'data/regions', f), 'utf8')));
   }
-  return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tables, regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])) };
+  return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tablesInMemory(tables), regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])) };
 }
 
 beforeAll(async () => {
@@ -86,8 +86,9 @@ describe('what changed since the previous build, on the home page', () => {
       expect(r.cells[1]).toBe(figureWords(m.figure).label);
       expect(r.cells[2]).toContain(classNames.get(m.workloadClass)!);
       expect(r.cells[3]).toBe(m.statistic === 'p90' ? 'P90 of 2 years (near the highest)' : 'Baseline mean');
-      expect(Number(r.cells[5].replace('\u2212', '-'))).toBeCloseTo(m.after, 1);
-      expect(Number(r.cells[6].replace('+', '').replace('\u2212', '-'))).toBeCloseTo(m.change, 1);
+      // Shown to one decimal: within half a unit of the last digit (a value ending in 5 rounds either way).
+      expect(Math.abs(Number(r.cells[5].replace('\u2212', '-')) - m.after)).toBeLessThanOrEqual(0.05 + 1e-6);
+      expect(Math.abs(Number(r.cells[6].replace('+', '').replace('\u2212', '-')) - m.change)).toBeLessThanOrEqual(0.05 + 1e-6);
       expect(r.cells[7]).toMatch(/^(h per worker per year|shift h per year)$/);
     });
     const shown = rows.flatMap((r) => r.cells).join(' | ');

@@ -1,6 +1,9 @@
 /**
  * A single-band Float32 GeoTIFF in EPSG:4326 for GIS downloads, written byte by byte:
- * baseline TIFF 6.0 (Adobe 1992), little-endian, uncompressed strips, SampleFormat 3 (IEEE float);
+ * baseline TIFF 6.0 (Adobe 1992), little-endian, uncompressed internal tiles of 256 × 256 pixels
+ * (TIFF 6.0 §15, tags 322–325; one smaller tile for a small grid, {@link tileEdge}), SampleFormat 3 (IEEE float), and for grids wider or taller than
+ * {@link OVERVIEW_FROM} pixels reduced-resolution overviews (TIFF 6.0 NewSubfileType = 1, each half
+ * the size of the one before, the mean of the finite pixels of each 2 × 2 block) down to one tile;
  * GeoTIFF 1.1 (OGC 19-008r4) tags ModelPixelScale (33550), ModelTiepoint (33922) and
  * GeoKeyDirectory (34735) with GTModelType = 2 (geographic), GTRasterType = 1 (PixelIsArea),
  * GeographicType = 4326, GeogAngularUnits = 9102 (degree); GDAL's private tags GDAL_METADATA
@@ -37,8 +40,19 @@ interface Tag {
   values: number[] | Uint8Array;
 }
 
-/** Target strip size [bytes]: a few strips for a country grid, one for a small one. */
-const STRIP_BYTES = 64 * 1024;
+/**
+ * Tile edge [px] (a multiple of 16, TIFF 6.0 §15) of images that span more than one tile; a
+ * smaller image is one tile just large enough (its longer side rounded up to 16), so a small grid
+ * does not carry a 256 × 256 tile of padding.
+ */
+export const TILE_SIZE = 256;
+
+/** The tile edge for an image of w × h pixels [px]. */
+export function tileEdge(w: number, h: number): number {
+  return Math.min(TILE_SIZE, Math.ceil(Math.max(w, h) / 16) * 16);
+}
+/** Grids larger than this in either dimension [px] get overviews. */
+export const OVERVIEW_FROM = 512;
 
 function asciiBytes(s: string): Uint8Array {
   const b = new TextEncoder().encode(s);
@@ -83,11 +97,21 @@ export function writeGeoTiff(grid: LayerGridInput, meta: GeoTiffMeta): Uint8Arra
     }
   }
 
-  const rowBytes = nx * 4;
-  const rowsPerStrip = Math.max(1, Math.min(ny, Math.floor(STRIP_BYTES / rowBytes)));
-  const nStrips = Math.ceil(ny / rowsPerStrip);
-  const stripCounts: number[] = [];
-  for (let s = 0; s < nStrips; s++) stripCounts.push(Math.min(rowsPerStrip, ny - s * rowsPerStrip) * rowBytes);
+  // The image, north-up (image row i is grid row ny − 1 − i), no-data written as given.
+  const full = new Float32Array(nx * ny);
+  for (let i = 0; i < ny; i++) {
+    const src = (ny - 1 - i) * nx;
+    for (let x = 0; x < nx; x++) {
+      const val = grid.values[src + x];
+      full[i * nx + x] = noData !== undefined && Number.isNaN(val) ? noData : val;
+    }
+  }
+  const images: Array<{ w: number; h: number; px: Float32Array }> = [{ w: nx, h: ny, px: full }];
+  if (Math.max(nx, ny) > OVERVIEW_FROM) {
+    while (Math.max(images[images.length - 1].w, images[images.length - 1].h) > TILE_SIZE) {
+      images.push(halve(images[images.length - 1], noData));
+    }
+  }
 
   const geoKeys = [
     [1024, 0, 1, 2], // GTModelTypeGeoKey = ModelTypeGeographic
@@ -95,82 +119,141 @@ export function writeGeoTiff(grid: LayerGridInput, meta: GeoTiffMeta): Uint8Arra
     [2048, 0, 1, 4326], // GeographicTypeGeoKey = EPSG 4326 (WGS 84)
     [2054, 0, 1, 9102], // GeogAngularUnitsGeoKey = Angular_Degree
   ];
-  const tags: Tag[] = [
-    { code: 256, type: LONG, values: [nx] }, // ImageWidth
-    { code: 257, type: LONG, values: [ny] }, // ImageLength
-    { code: 258, type: SHORT, values: [32] }, // BitsPerSample
-    { code: 259, type: SHORT, values: [1] }, // Compression: none
-    { code: 262, type: SHORT, values: [1] }, // PhotometricInterpretation: BlackIsZero
-    { code: 270, type: ASCII, values: asciiBytes(meta.description) }, // ImageDescription
-    { code: 273, type: LONG, values: new Array<number>(nStrips).fill(0) }, // StripOffsets (patched below)
-    { code: 277, type: SHORT, values: [1] }, // SamplesPerPixel
-    { code: 278, type: LONG, values: [rowsPerStrip] }, // RowsPerStrip
-    { code: 279, type: LONG, values: stripCounts }, // StripByteCounts
-    { code: 284, type: SHORT, values: [1] }, // PlanarConfiguration: chunky
-    { code: 339, type: SHORT, values: [3] }, // SampleFormat: IEEE floating point
-    { code: 33550, type: DOUBLE, values: [g.dLon, g.dLat, 0] }, // ModelPixelScaleTag
-    { code: 33922, type: DOUBLE, values: [0, 0, 0, g.west, g.north, 0] }, // ModelTiepointTag
-    { code: 34735, type: SHORT, values: [1, 1, 0, geoKeys.length, ...geoKeys.flat()] }, // GeoKeyDirectoryTag
-    { code: 42112, type: ASCII, values: asciiBytes(gdalMetadataXml(meta)) }, // GDAL_METADATA
-    { code: 42113, type: ASCII, values: asciiBytes(noData === undefined ? 'nan' : String(noData)) }, // GDAL_NODATA
-  ];
+  const edge = tileEdge(nx, ny);
+  const ifds = images.map((im, level) => {
+    const across = Math.ceil(im.w / edge);
+    const down = Math.ceil(im.h / edge);
+    const nTiles = across * down;
+    const tags: Tag[] = [
+      ...(level > 0 ? [{ code: 254, type: LONG, values: [1] }] : []), // NewSubfileType: reduced-resolution image
+      { code: 256, type: LONG, values: [im.w] }, // ImageWidth
+      { code: 257, type: LONG, values: [im.h] }, // ImageLength
+      { code: 258, type: SHORT, values: [32] }, // BitsPerSample
+      { code: 259, type: SHORT, values: [1] }, // Compression: none
+      { code: 262, type: SHORT, values: [1] }, // PhotometricInterpretation: BlackIsZero
+      ...(level === 0 ? [{ code: 270, type: ASCII, values: asciiBytes(meta.description) }] : []), // ImageDescription
+      { code: 277, type: SHORT, values: [1] }, // SamplesPerPixel
+      { code: 284, type: SHORT, values: [1] }, // PlanarConfiguration: chunky
+      { code: 322, type: SHORT, values: [edge] }, // TileWidth
+      { code: 323, type: SHORT, values: [edge] }, // TileLength
+      { code: 324, type: LONG, values: new Array<number>(nTiles).fill(0) }, // TileOffsets (patched below)
+      { code: 325, type: LONG, values: new Array<number>(nTiles).fill(edge * edge * 4) }, // TileByteCounts
+      { code: 339, type: SHORT, values: [3] }, // SampleFormat: IEEE floating point
+      ...(level === 0
+        ? [
+            { code: 33550, type: DOUBLE, values: [g.dLon, g.dLat, 0] }, // ModelPixelScaleTag
+            { code: 33922, type: DOUBLE, values: [0, 0, 0, g.west, g.north, 0] }, // ModelTiepointTag
+            { code: 34735, type: SHORT, values: [1, 1, 0, geoKeys.length, ...geoKeys.flat()] }, // GeoKeyDirectoryTag
+            { code: 42112, type: ASCII, values: asciiBytes(gdalMetadataXml(meta)) }, // GDAL_METADATA
+          ]
+        : []),
+      { code: 42113, type: ASCII, values: asciiBytes(noData === undefined ? 'nan' : String(noData)) }, // GDAL_NODATA
+    ];
+    return { im, tags, across, down, nTiles, offset: 0, next: 0 };
+  });
 
-  // Layout: header (8) | IFD (2 + 12·n + 4) | out-of-line tag values | strips (4-byte aligned).
-  const ifdOffset = 8;
-  const ifdSize = 2 + 12 * tags.length + 4;
-  let extra = ifdOffset + ifdSize;
+  // Layout: header (8) | per image: IFD (2 + 12·n + 4), its out-of-line values | tiles (4-byte aligned).
+  let at = 8;
   const valueOffset = new Map<Tag, number>();
-  for (const t of tags) {
-    const size = TYPE_SIZE[t.type] * t.values.length;
-    if (size > 4) {
-      extra += extra & 1; // word-aligned values (TIFF 6.0 §2)
-      valueOffset.set(t, extra);
-      extra += size;
+  for (const ifd of ifds) {
+    at += at & 1; // IFDs start on a word boundary (TIFF 6.0 §2)
+    ifd.offset = at;
+    at += 2 + 12 * ifd.tags.length + 4;
+    for (const t of ifd.tags) {
+      const size = TYPE_SIZE[t.type] * t.values.length;
+      if (size > 4) {
+        at += at & 1; // word-aligned values (TIFF 6.0 §2)
+        valueOffset.set(t, at);
+        at += size;
+      }
     }
   }
-  const dataOffset = (extra + 3) & ~3;
-  const offsets = tags.find((t) => t.code === 273)!.values as number[];
-  for (let s = 0; s < nStrips; s++) offsets[s] = dataOffset + s * rowsPerStrip * rowBytes;
+  let dataOffset = (at + 3) & ~3;
+  for (const ifd of ifds) {
+    const offsets = ifd.tags.find((t) => t.code === 324)!.values as number[];
+    for (let k = 0; k < ifd.nTiles; k++) offsets[k] = dataOffset + k * edge * edge * 4;
+    dataOffset += ifd.nTiles * edge * edge * 4;
+  }
+  ifds.forEach((ifd, i) => (ifd.next = i + 1 < ifds.length ? ifds[i + 1].offset : 0));
 
-  const out = new Uint8Array(dataOffset + ny * rowBytes);
+  const out = new Uint8Array(dataOffset);
   const v = new DataView(out.buffer);
   out[0] = 0x49; // "II": little-endian
   out[1] = 0x49;
   v.setUint16(2, 42, true);
-  v.setUint32(4, ifdOffset, true);
-  v.setUint16(ifdOffset, tags.length, true);
+  v.setUint32(4, ifds[0].offset, true);
 
-  const put = (t: Tag, at: number): void => {
+  const put = (t: Tag, pos: number): void => {
     for (let i = 0; i < t.values.length; i++) {
       const x = t.values[i];
-      if (t.type === ASCII) v.setUint8(at + i, x);
-      else if (t.type === SHORT) v.setUint16(at + 2 * i, x, true);
-      else if (t.type === LONG) v.setUint32(at + 4 * i, x, true);
-      else v.setFloat64(at + 8 * i, x, true);
+      if (t.type === ASCII) v.setUint8(pos + i, x);
+      else if (t.type === SHORT) v.setUint16(pos + 2 * i, x, true);
+      else if (t.type === LONG) v.setUint32(pos + 4 * i, x, true);
+      else v.setFloat64(pos + 8 * i, x, true);
     }
   };
-  tags.forEach((t, i) => {
-    const e = ifdOffset + 2 + 12 * i;
-    v.setUint16(e, t.code, true);
-    v.setUint16(e + 2, t.type, true);
-    v.setUint32(e + 4, t.values.length, true);
-    const off = valueOffset.get(t);
-    if (off === undefined) put(t, e + 8);
-    else {
-      v.setUint32(e + 8, off, true);
-      put(t, off);
-    }
-  });
-  v.setUint32(ifdOffset + 2 + 12 * tags.length, 0, true); // no next IFD
-
-  // Pixels, north-up: image row i is grid row ny − 1 − i.
-  for (let i = 0; i < ny; i++) {
-    const src = (ny - 1 - i) * nx;
-    let at = dataOffset + i * rowBytes;
-    for (let x = 0; x < nx; x++, at += 4) {
-      const val = grid.values[src + x];
-      v.setFloat32(at, noData !== undefined && Number.isNaN(val) ? noData : val, true);
+  for (const ifd of ifds) {
+    v.setUint16(ifd.offset, ifd.tags.length, true);
+    ifd.tags.forEach((t, i) => {
+      const e = ifd.offset + 2 + 12 * i;
+      v.setUint16(e, t.code, true);
+      v.setUint16(e + 2, t.type, true);
+      v.setUint32(e + 4, t.values.length, true);
+      const off = valueOffset.get(t);
+      if (off === undefined) put(t, e + 8);
+      else {
+        v.setUint32(e + 8, off, true);
+        put(t, off);
+      }
+    });
+    v.setUint32(ifd.offset + 2 + 12 * ifd.tags.length, ifd.next, true);
+    // Tiles, row by row of tiles; pixels past the image's edge are written as no-data.
+    const offsets = ifd.tags.find((t) => t.code === 324)!.values as number[];
+    const pad = noData ?? NaN;
+    const { w, h, px } = ifd.im;
+    for (let ty = 0; ty < ifd.down; ty++) {
+      for (let tx = 0; tx < ifd.across; tx++) {
+        let pos = offsets[ty * ifd.across + tx];
+        for (let r = 0; r < edge; r++) {
+          const y = ty * edge + r;
+          for (let c = 0; c < edge; c++, pos += 4) {
+            const x = tx * edge + c;
+            v.setFloat32(pos, y < h && x < w ? px[y * w + x] : pad, true);
+          }
+        }
+      }
     }
   }
   return out;
+}
+
+/**
+ * Half-size image: each pixel the mean of the finite, non-no-data pixels of a 2 × 2 block
+ * (no-data when none), the last row or column alone when the size is odd.
+ */
+function halve(im: { w: number; h: number; px: Float32Array }, noData: number | undefined): { w: number; h: number; px: Float32Array } {
+  const w = Math.ceil(im.w / 2);
+  const h = Math.ceil(im.h / 2);
+  const px = new Float32Array(w * h);
+  const nd = noData === undefined ? NaN : Math.fround(noData);
+  for (let y = 0; y < h; y++) {
+    for (let x = 0; x < w; x++) {
+      let sum = 0;
+      let n = 0;
+      for (let dy = 0; dy < 2; dy++) {
+        for (let dx = 0; dx < 2; dx++) {
+          const sy = 2 * y + dy;
+          const sx = 2 * x + dx;
+          if (sy >= im.h || sx >= im.w) continue;
+          const val = im.px[sy * im.w + sx];
+          if (Number.isFinite(val) && val !== nd) {
+            sum += val;
+            n++;
+          }
+        }
+      }
+      px[y * w + x] = n > 0 ? sum / n : nd;
+    }
+  }
+  return { w, h, px };
 }

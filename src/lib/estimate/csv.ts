@@ -1,25 +1,34 @@
 /**
- * The CSV download of an estimate (RFC 4180, pipeline/publish/csv.ts): first `#` lines with the
- * title, the invented-data label, the settings (temperatures in °C) and the cautions, then a
- * header with the unit in each column name and one line per row of the page's table.
- * Readers skip the `#` lines (pandas `comment="#"`, R `comment.char = "#"`).
+ * The CSV download of the monthly table (RFC 4180, pipeline/publish/csv.ts), UTF-8 with a byte
+ * order mark (it holds ° and −, which spreadsheets otherwise misread). First come comment lines,
+ * each `#,"text"`: a reader that skips `#` lines (pandas `comment="#"`, R `comment.char = "#"`)
+ * skips them, and a spreadsheet shows the text whole in the second column (commas inside are
+ * quoted); then a header with the unit in each column name and one line per row of the table.
  */
-import { CAUTION_SUMMARY } from '../../../pipeline/work/index.ts';
+import { CAUTION_SUMMARY } from '../../../pipeline/work/cautions.ts';
 import { csvLine, roundTo } from '../../../pipeline/publish/csv.ts';
-import type { EstimateContext } from './context.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import type { ResolvedPlace } from '../../../pipeline/schedule/place.ts';
 import type { EstimateResult } from './estimate.ts';
 import { summaryLines, summaryText } from './summary.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from './table.ts';
 
-/** The CSV text of an estimate. */
-export function estimateCsv(r: EstimateResult, ctx: EstimateContext, atlasTitle: string): string {
-  const comment = (s: string) => `# ${s.replace(/[\r\n]+/g, ' ')}\n`;
-  let out = comment(`Heat-stress working-hours estimate: ${atlasTitle}`);
-  if (ctx.invented) out += comment('INVENTED DATA: this atlas is built from invented, synthetic data; no real place or climate is described.');
-  out += comment('Screening estimate from histograms of modelled hourly WBGT; not safety advice and not a site measurement.');
-  for (const line of summaryLines(r, ctx)) out += comment(`${line.label}: ${summaryText(line, 'C')}`);
-  out += comment('Statistics: mean and 90th-percentile year (Hyndman-Fan type 7) across the baseline years; monthly rows are for one such month, the last row for the whole period.');
-  out += comment(`Cautions: ${CAUTION_SUMMARY}`);
+/** Byte order mark that starts the file. */
+export const BOM = '\uFEFF';
+
+/** A comment line: `#` in the first column, the text (quoted when it needs it) in the second. */
+export function commentLine(text: string): string {
+  return csvLine(['#', text.replace(/[\r\n]+/g, ' ')]);
+}
+
+/** The CSV text of the monthly table. */
+export function estimateCsv(r: EstimateResult, ctx: EstimateContext, atlasTitle: string, place: ResolvedPlace): string {
+  let out = BOM + commentLine(`Heat-stress working-hours estimate: ${atlasTitle}`);
+  if (ctx.invented) out += commentLine('INVENTED DATA: this atlas is built from invented, synthetic data; no real place or climate is described.');
+  out += commentLine('Screening estimate from histograms of modelled hourly WBGT; not safety advice and not a site measurement.');
+  for (const line of summaryLines(r, ctx, place)) out += commentLine(`${line.label}: ${summaryText(line, 'C')}`);
+  out += commentLine('Statistics: mean and 90th-percentile year (Hyndman-Fan type 7) across the baseline years; monthly rows are for one such month, the last row for the whole period.');
+  out += commentLine(`Cautions: ${CAUTION_SUMMARY}`);
   out += csvLine(['period', 'label', ...ESTIMATE_COLUMNS.map((c) => c.csv)]);
   for (const row of estimateRows(r)) {
     out += csvLine([row.key, row.label, ...ESTIMATE_COLUMNS.map((c) => roundTo(row.values[c.key], c.csvDigits))]);
@@ -27,9 +36,9 @@ export function estimateCsv(r: EstimateResult, ctx: EstimateContext, atlasTitle:
   return out;
 }
 
-/** A file name for the download, e.g. `estimate-varn-shore-moderate.csv`. */
-export function estimateFileName(r: EstimateResult): string {
-  const place = r.inputs.place.kind === 'region' ? r.inputs.place.id : `cell-${r.inputs.place.cell}`;
+/** A file name for a download, e.g. `estimate-varn-shore-moderate-acclimatized-sun.csv`. */
+export function estimateFileName(r: { inputs: EstimateResult['inputs'] }, place: ResolvedPlace, ext = 'csv', what = 'estimate'): string {
+  const where = place.kind === 'region' ? place.id : `cell-${place.cell}`;
   const work = r.inputs.classId ?? `${Math.round(r.inputs.workRate)}w`;
-  return `estimate-${place}-${work}-${r.inputs.acclimatization}-${r.inputs.exposure}.csv`;
+  return `${what}-${where}-${work}-${r.inputs.acclimatization}-${r.inputs.exposure}.${ext}`;
 }

@@ -4,12 +4,12 @@
  * the shift shares, each year's monthly figures, then the baseline mean and P90 year per month and
  * for the project period. Pure: the browser script fetches the tile and calls this.
  */
-import { prepareWorkKernel, type WorkKernel } from '../../../pipeline/work/index.ts';
-import type { EstimateContext } from './context.ts';
-import { EstimatePeriodInvalid } from './errors.ts';
-import type { EstimateInputs } from './inputs.ts';
+import { prepareWorkKernel, type WorkKernel } from '../../../pipeline/work/work-fraction.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import { EstimatePeriodInvalid } from '../../../pipeline/schedule/errors.ts';
+import type { EstimateInputs } from '../../../pipeline/schedule/inputs.ts';
+import { monthOccurrences } from '../../../pipeline/schedule/project-period.ts';
 import { monthlyFigures, type MonthlyYear } from './monthly.ts';
-import { monthOccurrences } from './project-period.ts';
 import { shiftShares } from './shift-shares.ts';
 import { estimateStatistics, type EstimateStatistics } from './statistics.ts';
 

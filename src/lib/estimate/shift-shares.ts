@@ -1,7 +1,9 @@
 /**
- * Which share of each month × local-hour slot of a year falls in the work shift, from the same
- * shift code the pipeline counts with (pipeline/work/shifts.ts: local time in the atlas's IANA
- * zone, whole hours, night shifts counted for the day they start, daylight saving via Intl).
+ * Which share of each month × local-hour slot of a year falls in the work shift pattern, on each
+ * year's real calendar: local time in the atlas's IANA zone from the pipeline's own code
+ * (pipeline/work/shifts.ts `localHours`, daylight saving via Intl), the pattern's spans and days
+ * from pipeline/schedule/shift-pattern.ts (an hour covered in part counts with the covered share;
+ * the hours of a night shift after midnight belong to the day it started).
  *
  * Why: the histogram tiles hold every hour of a slot (all days of the month), not the weekday of
  * each hour. The calculator therefore takes a slot's WBGT distribution as the same on work days
@@ -14,7 +16,8 @@
  * work days and of all days of a month; it is measured against the region tables in
  * test/site/estimate-logic.test.ts and stated on the page.
  */
-import { localHours, type WorkShift } from '../../../pipeline/work/index.ts';
+import { DEFAULT_SHIFT, localHours } from '../../../pipeline/work/shifts.ts';
+import { dayMask, hourWeights, type ShiftPattern } from '../../../pipeline/schedule/shift-pattern.ts';
 
 const HOUR_MS = 3_600_000;
 /** Slots per year: 12 months × 24 local hours. */
@@ -26,29 +29,35 @@ export interface YearShiftShares {
   share: Float64Array;
   /** Hours of each slot on the calendar [h] and of those in the shift [h]. */
   slotHours: Uint16Array;
-  shiftHours: Uint16Array;
+  shiftHours: Float64Array;
 }
 
 /**
  * Shift shares per slot for each local calendar year in `years`, in IANA zone `timeZone`.
- * Catalogued errors from pipeline/work: WorkTimeZoneUnknown (and the shift must be validated
- * with validateShift first).
+ * Catalogued errors from pipeline/work: WorkTimeZoneUnknown.
  */
-export function shiftShares(years: readonly number[], timeZone: string, shift: WorkShift): YearShiftShares[] {
+export function shiftShares(years: readonly number[], timeZone: string, pattern: ShiftPattern): YearShiftShares[] {
+  const same = new Float64Array(24);
+  const next = new Float64Array(24);
+  for (const w of hourWeights(pattern)) (w.dayOffset === 0 ? same : next)[w.hour] += w.weight;
+  const mask = dayMask(pattern);
   return years.map((year) => {
     // Every hour that could start in local year `year`: from two days before to two days after (any UTC offset).
     const t0 = Date.UTC(year, 0, 1) - 2 * 24 * HOUR_MS;
     const n = (Date.UTC(year + 1, 0, 1) - Date.UTC(year, 0, 1)) / HOUR_MS + 4 * 24;
     const ends = new Float64Array(n);
     for (let i = 0; i < n; i++) ends[i] = t0 + (i + 1) * HOUR_MS;
-    const local = localHours(ends, timeZone, shift);
+    const local = localHours(ends, timeZone, DEFAULT_SHIFT);
     const slotHours = new Uint16Array(MONTH_HOUR_SLOTS);
-    const shiftHours = new Uint16Array(MONTH_HOUR_SLOTS);
+    const shiftHours = new Float64Array(MONTH_HOUR_SLOTS);
     for (let i = 0; i < n; i++) {
       if (local.year[i] !== year) continue;
-      const s = (local.month[i] - 1) * 24 + local.hour[i];
+      const h = local.hour[i];
+      const s = (local.month[i] - 1) * 24 + h;
       slotHours[s]++;
-      if (local.inShift[i] === 1) shiftHours[s]++;
+      const wd = local.weekday[i];
+      const prev = wd === 1 ? 7 : wd - 1;
+      shiftHours[s] += ((mask >> wd) & 1) * same[h] + ((mask >> prev) & 1) * next[h];
     }
     const share = Float64Array.from(slotHours, (h, s) => (h > 0 ? shiftHours[s] / h : 0));
     return { year, share, slotHours, shiftHours };

@@ -10,7 +10,8 @@
  * the mean and P90 are those of T_y across the baseline years. A year with an incomplete work
  * month gives no T_y. So the P90 total is the total of a 1-in-10 year, not a sum of monthly P90s.
  */
-import { MONTHLY_COMPLETENESS, completenessMask, computeNormals } from '../../../pipeline/climate/index.ts';
+import { MONTHLY_COMPLETENESS, completenessMask } from '../../../pipeline/climate/completeness.ts';
+import { computeNormals } from '../../../pipeline/climate/normals.ts';
 import type { MonthlyYear } from './monthly.ts';
 
 /** The figures carried per month [h]. */

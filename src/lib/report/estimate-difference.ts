@@ -4,11 +4,11 @@
  * rest). The two come from different data: the report quotes the region table, the pipeline's
  * count of each shift hour; the estimate page works on the calculator's histogram tiles, which
  * hold every day's hours in 0.25 °C bins, scaled by the share of each month × hour that the
- * shift's weekdays cover (src/lib/estimate, the estimate page's own code, run here at build time
- * on the same tile). So the report can say, per region, by how much they differ. Pure.
+ * shift's weekdays cover (src/lib/estimate and pipeline/schedule, the estimate page's month-by-
+ * month code, run here at build time on the same tile). So the report can say, per region, by how much they differ. Pure.
  */
-import type { EstimateContext } from '../estimate/context.ts';
-import { parseInputs } from '../estimate/inputs.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import { parseInputs } from '../../../pipeline/schedule/inputs.ts';
 import { runEstimate } from '../estimate/estimate.ts';
 import { FIGURE_HOURS_LOST, MONTH_PERIODS, type RegionFigures } from './region-figures.ts';
 

@@ -1,47 +1,87 @@
 /**
- * The calculator form in the browser: its raw values (as src/lib/estimate/inputs.ts parses them),
- * the fields shown for the current choices (`data-show-for` / `data-hide-for="name:value"`), the
- * place from the URL, and the temperatures typed in the page's unit (°C/°F, src/lib/units.ts).
+ * The calculator form in the browser: its raw values (as pipeline/schedule/inputs.ts parses them),
+ * the URL that reproduces them (every input is a query parameter, lists repeated), the fields
+ * shown for the current choices (`data-show-for` / `data-hide-for="name:value"`), and the
+ * temperatures typed in the page's unit (°C/°F, src/lib/units.ts).
  */
-import { CLOTHING_ENSEMBLES } from '../../../pipeline/work/index.ts';
-import type { EstimateContext } from '../../lib/estimate/context.ts';
-import { celsiusDeltaFrom, celsiusFrom, type EstimatePlace, type RawInputs } from '../../lib/estimate/inputs.ts';
+import { CLOTHING_ENSEMBLES } from '../../../pipeline/work/clothing.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import { celsiusDeltaFrom, celsiusFrom, type RawInputs } from '../../../pipeline/schedule/inputs.ts';
 import { formatFixed } from '../../lib/format.ts';
 import { formatTemperatureDelta, temperatureDeltaIn, temperatureIn, type TemperatureUnit } from '../../lib/units.ts';
 
-/** The form's values as strings (lists for the check boxes). */
+/** Single-value fields, in the order they go into the URL. */
+const SINGLE = [
+  'place', 'region', 'cell', 'lat', 'lon', 'work', 'metabolic-rate', 'acclimatization', 'limit-model', 'clothing', 'cav', 'exposure', 'rest', 'rest-wbgt',
+  'shifts', 'start', 'work-hours', 'crew', 'holidays', 'deadline', 'rate', 'daily-cost', 'currency', 'period-start', 'period-end',
+] as const;
+/** Check boxes that are on or off. */
+const FLAGS = ['air-movement', 'hood'] as const;
+/** Multi-value fields. */
+const LISTS = ['days', 'months', 'compare'] as const;
+
+/** The form's values as strings (lists for the check boxes and the compared shifts). */
 export function readRaw(form: HTMLFormElement): RawInputs {
   const fd = new FormData(form);
-  const one = (k: string): string | undefined => {
+  const raw: Record<string, unknown> = {};
+  for (const k of SINGLE) {
     const v = fd.get(k);
-    return typeof v === 'string' ? v : undefined;
+    if (typeof v === 'string') raw[k] = v;
+  }
+  for (const k of FLAGS) raw[k] = fd.has(k) ? 'on' : 'off';
+  for (const k of LISTS) raw[k] = fd.getAll(k).filter((v): v is string => typeof v === 'string');
+  return raw as RawInputs;
+}
+
+/** The query string that reproduces the form (empty compared shifts left out). */
+export function queryOf(raw: RawInputs): string {
+  const q = new URLSearchParams();
+  const r = raw as Record<string, string | string[] | undefined>;
+  for (const k of [...SINGLE, ...FLAGS]) {
+    const v = r[k];
+    if (typeof v === 'string' && v !== '') q.set(k, v);
+  }
+  for (const k of LISTS) for (const v of (r[k] as string[] | undefined) ?? []) if (v.trim() !== '') q.append(k, v);
+  return q.toString();
+}
+
+/** Whether a query holds form values beyond the place (a link made by {@link queryOf}). */
+export function queryHasInputs(search: string): boolean {
+  const q = new URLSearchParams(search);
+  return [...q.keys()].some((k) => k !== 'region' && k !== 'cell' && k !== 'lat' && k !== 'lon' && k !== 'unit');
+}
+
+/** Fills the form from a query made by {@link queryOf}; a place alone (`?region=`, `?cell=`, `?lat=&lon=`) sets the place. */
+export function fillFromQuery(form: HTMLFormElement, search: string): void {
+  const q = new URLSearchParams(search);
+  const set = (name: string, value: string) => {
+    const el = form.elements.namedItem(name);
+    if (el instanceof RadioNodeList) el.value = value;
+    else if (el instanceof HTMLInputElement || el instanceof HTMLSelectElement || el instanceof HTMLTextAreaElement) el.value = value;
   };
-  const all = (k: string) => fd.getAll(k).filter((v): v is string => typeof v === 'string');
-  return {
-    place: one('place'),
-    region: one('region'),
-    cell: one('cell'),
-    lat: one('lat'),
-    lon: one('lon'),
-    work: one('work'),
-    'metabolic-rate': one('metabolic-rate'),
-    acclimatization: one('acclimatization'),
-    'limit-model': one('limit-model'),
-    'air-movement': fd.has('air-movement') ? 'on' : 'off',
-    clothing: one('clothing'),
-    hood: fd.has('hood') ? 'on' : 'off',
-    cav: one('cav'),
-    exposure: one('exposure'),
-    rest: one('rest'),
-    'rest-wbgt': one('rest-wbgt'),
-    'shift-start': one('shift-start'),
-    'shift-end': one('shift-end'),
-    days: all('days'),
-    months: all('months'),
-    'period-start': one('period-start'),
-    'period-end': one('period-end'),
-    crew: one('crew'),
-  };
+  if (q.has('cell') && !q.has('place')) set('place', 'cell');
+  else if ((q.has('lat') || q.has('lon')) && !q.has('place')) set('place', 'point');
+  else if (q.has('region') && !q.has('place')) set('place', 'region');
+  for (const k of SINGLE) {
+    const v = q.get(k);
+    if (v !== null) set(k, v);
+  }
+  const full = queryHasInputs(search);
+  if (full) {
+    for (const k of FLAGS) {
+      const el = form.elements.namedItem(k);
+      if (el instanceof HTMLInputElement) el.checked = q.get(k) === 'on';
+    }
+    for (const k of ['days', 'months'] as const) {
+      if (!q.has(k)) continue;
+      const want = new Set(q.getAll(k));
+      for (const el of form.querySelectorAll<HTMLInputElement>(`input[name="${k}"]`)) el.checked = want.has(el.value);
+    }
+    const compare = q.getAll('compare');
+    form.querySelectorAll<HTMLInputElement>('input[name="compare"]').forEach((el, i) => {
+      el.value = compare[i] ?? '';
+    });
+  }
 }
 
 function valueOf(form: HTMLFormElement, name: string): string {
@@ -68,22 +108,6 @@ export function updateVisibility(form: HTMLFormElement, ctx: EstimateContext): v
   }
 }
 
-/** Puts a place (from the URL) into the form. */
-export function setPlace(form: HTMLFormElement, place: EstimatePlace): void {
-  const set = (name: string, value: string) => {
-    const el = form.elements.namedItem(name);
-    if (el instanceof RadioNodeList) el.value = value;
-    else if (el instanceof HTMLInputElement || el instanceof HTMLSelectElement) el.value = value;
-  };
-  if (place.kind === 'region') {
-    set('place', 'region');
-    set('region', place.id);
-  } else {
-    set('place', 'cell');
-    set('cell', String(place.cell));
-  }
-}
-
 /**
  * Rewrites the typed temperatures (`data-temp-input="absolute" | "delta"`) and the clothing labels
  * from unit `from` to unit `to`. A field that does not hold a number is left as typed.
@@ -99,6 +123,6 @@ export function convertTemperatureFields(form: HTMLFormElement, from: Temperatur
   }
   for (const option of form.querySelectorAll<HTMLOptionElement>('select[name="clothing"] option')) {
     const e = CLOTHING_ENSEMBLES.find((x) => x.id === option.value);
-    if (e) option.textContent = `${e.name} (${formatTemperatureDelta(e.cav, to, 1)}${e.sourceTag === 'from-memory' ? ', value not verified' : ''})`;
+    if (e) option.textContent = `${e.name} (${formatTemperatureDelta(e.cav, to, 1)})`;
   }
 }

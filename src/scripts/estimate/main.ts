@@ -1,30 +1,40 @@
 /**
- * The estimate calculator's browser code: reads the context from `#estimate-app[data-context]`,
- * the place from `?region=` / `?cell=`, runs the estimate (src/lib/estimate) whenever the form
- * changes, and shows the result or the catalogued error. `data-state` on `#estimate-app` is
- * `loading`, `ready` or `error`; `data-run` counts finished runs (tests wait on it).
+ * The estimate page's browser code: reads the context from `#estimate-app[data-context]`, fills
+ * the form from the URL (every input is a query parameter, so a link reproduces the estimate),
+ * and on every change runs the schedule replay (pipeline/schedule: the same code as `heathours
+ * estimate`) and the monthly table (src/lib/estimate), then shows them or the catalogued error.
+ * `data-state` on `#estimate-app` is `loading`, `ready` or `error`; `data-run` counts finished
+ * runs and `data-ms` holds the last run's time from input to results shown [ms] (tests and the
+ * benchmark wait on them).
  */
 import { HeathoursError } from '../../../pipeline/model/errors.ts';
-import type { EstimateContext } from '../../lib/estimate/context.ts';
+import { bidCsv } from '../../../pipeline/schedule/bid-csv.ts';
+import { bidJson, type BidJson } from '../../../pipeline/schedule/bid-json.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import { ScheduleDeadlineUnreachable } from '../../../pipeline/schedule/errors.ts';
+import { parseInputs, placeFromQuery } from '../../../pipeline/schedule/inputs.ts';
+import { loadPlace } from '../../../pipeline/schedule/place.ts';
+import { runBid, type BidRun } from '../../../pipeline/schedule/run-bid.ts';
+import { jobLines, placeText, settingLines, weatherLine } from '../../../pipeline/schedule/settings-text.ts';
 import { runEstimate } from '../../lib/estimate/estimate.ts';
-import { parseInputs, placeFromQuery } from '../../lib/estimate/inputs.ts';
-import { placeLabel } from '../../lib/estimate/summary.ts';
+import { estimateFileName } from '../../lib/estimate/csv.ts';
+import { summaryLines } from '../../lib/estimate/summary.ts';
 import { UNIT_EVENT, currentUnit, type TemperatureUnit } from '../../lib/units.ts';
-import { placeHistograms } from './fetch-tiles.ts';
-import { convertTemperatureFields, readRaw, setPlace, updateVisibility } from './form.ts';
-import { renderCsvLink, renderSummary, renderTable } from './render.ts';
+import { siteLoader } from './fetch-tiles.ts';
+import { convertTemperatureFields, fillFromQuery, queryOf, readRaw, updateVisibility } from './form.ts';
+import { crewText, headline, renderSchedule, renderShifts, renderStartChart, renderStartMonths, renderYears } from './render-bid.ts';
+import { renderCsvLink, renderSummary, renderTable, setDownload } from './render.ts';
 
 const app = document.getElementById('estimate-app');
 const form = document.getElementById('estimate-form');
+const byId = <T extends HTMLElement>(id: string) => document.getElementById(id) as T;
 
 if (app && form instanceof HTMLFormElement) {
-  const { ctx, atlasTitle, base } = JSON.parse(app.dataset.context ?? '{}') as { ctx: EstimateContext; atlasTitle: string; base: string };
-  const status = document.getElementById('estimate-status')!;
-  const errorBox = document.getElementById('estimate-error')!;
-  const output = document.getElementById('estimate-output')!;
-  const summary = document.getElementById('estimate-summary')!;
-  const tbody = document.querySelector<HTMLTableSectionElement>('#estimate-table tbody')!;
-  const csvLink = document.getElementById('estimate-csv') as HTMLAnchorElement;
+  const { ctx, atlasTitle, base, colour } = JSON.parse(app.dataset.context ?? '{}') as { ctx: EstimateContext; atlasTitle: string; base: string; colour: string };
+  const load = siteLoader(base);
+  const status = byId('estimate-status');
+  const errorBox = byId('estimate-error');
+  const output = byId('estimate-output');
   /** The unit the typed temperatures are in (the page is rendered in °C). */
   let shownUnit: TemperatureUnit = 'C';
   let runs = 0;
@@ -41,10 +51,12 @@ if (app && form instanceof HTMLFormElement) {
       strong.textContent = e.title;
       message.textContent = e.message;
       hint.textContent = `What to do: ${e.hint}`;
+      errorBox.dataset.code = e.code;
     } else {
       strong.textContent = 'The estimate failed';
       message.textContent = String((e as Error)?.message ?? e);
       hint.textContent = 'This is a fault of the calculator, not of your input; please report it with the settings used.';
+      errorBox.dataset.code = 'internal';
       console.error(e);
     }
     title.append(strong);
@@ -57,26 +69,49 @@ if (app && form instanceof HTMLFormElement) {
 
   const run = async () => {
     const id = ++latest;
+    const t0 = performance.now();
     app.dataset.state = 'loading';
     updateVisibility(form, ctx);
     try {
-      const inputs = parseInputs(readRaw(form), ctx, shownUnit);
-      const hist = await placeHistograms(inputs.place, ctx, base);
+      const raw = readRaw(form);
+      const inputs = parseInputs(raw, ctx, shownUnit);
+      const { place, histograms } = await loadPlace(inputs.place, ctx, load);
       if (id !== latest) return;
-      const result = runEstimate(hist, inputs, ctx);
-      renderSummary(summary, result, ctx, currentUnit());
-      renderTable(tbody, result);
-      renderCsvLink(csvLink, result, ctx, atlasTitle);
+      const monthly = runEstimate(histograms, inputs, ctx);
+      let bid: BidRun;
+      let deadlineError: string | null = null;
+      try {
+        bid = runBid(histograms, inputs, ctx);
+      } catch (e) {
+        if (!(e instanceof HeathoursError && e.code === ScheduleDeadlineUnreachable.code)) throw e;
+        deadlineError = `${e.message}. ${e.hint}`;
+        bid = runBid(histograms, { ...inputs, job: { ...inputs.job, deadline: null } }, ctx);
+      }
+      const json: BidJson = bidJson(bid, inputs, ctx, place);
+      const unit = currentUnit();
+      const limit = { limitWork: bid.kernel.limitWork, threshold: bid.kernel.threshold };
+      renderSummary(byId('bid-settings'), [...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, json.weatherYears, json.weatherYearsLeftOut)], unit);
+      byId('bid-headline').textContent = headline(json);
+      byId('bid-place').textContent = placeText(place);
+      renderSchedule(byId<HTMLTableElement>('bid-schedule').tBodies[0], json);
+      renderYears(byId<HTMLTableElement>('bid-years').tBodies[0], json);
+      renderStartMonths(byId<HTMLTableElement>('bid-start-months').tBodies[0], json);
+      renderStartChart(document.getElementById('bid-start-chart') as unknown as SVGSVGElement, json, colour);
+      renderShifts(byId<HTMLTableElement>('bid-shifts'), json);
+      byId('bid-crew').textContent = crewText(json, deadlineError);
+      byId('bid-build').textContent = `${ctx.build.title}${ctx.invented ? ' (INVENTED DATA)' : ''}; built ${ctx.build.buildTime}, code ${ctx.build.codeVersion}, configuration ${ctx.build.configDigest.slice(0, 12)}, ${ctx.build.inputs} input files; weather years ${json.weatherYears.join(', ')}.`;
+      const name = (ext: string) => estimateFileName(monthly, place, ext, 'bid');
+      setDownload(byId<HTMLAnchorElement>('bid-csv'), bidCsv(json), 'text/csv;charset=utf-8', name('csv'));
+      setDownload(byId<HTMLAnchorElement>('bid-json'), `${JSON.stringify(json, null, 1)}\n`, 'application/json', name('json'));
+      renderSummary(byId('estimate-summary'), summaryLines(monthly, ctx, place), unit);
+      renderTable(byId<HTMLTableElement>('estimate-table').tBodies[0], monthly);
+      renderCsvLink(byId<HTMLAnchorElement>('estimate-csv'), monthly, ctx, atlasTitle, place);
       errorBox.hidden = true;
       output.hidden = false;
-      status.textContent = `Estimate for ${placeLabel(result, ctx)}.`;
-      const q = new URLSearchParams(location.search);
-      q.delete('region');
-      q.delete('cell');
-      if (inputs.place.kind === 'region') q.set('region', inputs.place.id);
-      else q.set('cell', String(inputs.place.cell));
-      history.replaceState(null, '', `${location.pathname}?${q.toString()}${location.hash}`);
+      status.textContent = `Estimate for ${placeText(place)}.`;
+      history.replaceState(null, '', `${location.pathname}?${queryOf(raw)}${shownUnit === 'F' ? '&tu=F' : ''}${location.hash}`);
       app.dataset.state = 'ready';
+      app.dataset.ms = (performance.now() - t0).toFixed(1);
     } catch (e) {
       if (id !== latest) return;
       showError(e);
@@ -91,6 +126,17 @@ if (app && form instanceof HTMLFormElement) {
   };
 
   form.hidden = false;
+  let badLink = false;
+  try {
+    placeFromQuery(location.search, ctx); // a bad ?region=, ?cell= or ?lat=&lon= is named as it was given
+    fillFromQuery(form, location.search);
+  } catch (e) {
+    badLink = true;
+    showError(e);
+    app.dataset.run = String(++runs);
+  }
+  // Typed temperatures of a link are in the unit it was made in (`tu`), then shown in the page's.
+  shownUnit = new URLSearchParams(location.search).get('tu') === 'F' ? 'F' : 'C';
   syncUnit(currentUnit());
   document.addEventListener(UNIT_EVENT, (e) => syncUnit(((e as CustomEvent).detail?.unit as TemperatureUnit) ?? currentUnit()));
   form.addEventListener('change', () => void run());
@@ -98,12 +144,6 @@ if (app && form instanceof HTMLFormElement) {
     e.preventDefault();
     void run();
   });
-  try {
-    const place = placeFromQuery(location.search, ctx);
-    if (place) setPlace(form, place);
-    void run();
-  } catch (e) {
-    showError(e);
-    app.dataset.run = String(++runs);
-  }
+  document.getElementById('bid-print')?.addEventListener('click', () => window.print());
+  if (!badLink) void run();
 }

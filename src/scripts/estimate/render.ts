@@ -4,9 +4,10 @@
  * Text only through textContent (no markup from data).
  */
 import { estimateCsv, estimateFileName } from '../../lib/estimate/csv.ts';
-import type { EstimateContext } from '../../lib/estimate/context.ts';
+import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
+import type { ResolvedPlace } from '../../../pipeline/schedule/place.ts';
 import type { EstimateResult } from '../../lib/estimate/estimate.ts';
-import { summaryLines, type SummaryPart } from '../../lib/estimate/summary.ts';
+import type { SummaryLine, SummaryPart } from '../../lib/estimate/summary.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../lib/estimate/table.ts';
 import { formatFixed } from '../../lib/format.ts';
 import { formatTemperature, formatTemperatureDelta, type TemperatureUnit } from '../../lib/units.ts';
@@ -26,9 +27,9 @@ function part(p: SummaryPart, unit: TemperatureUnit): Node {
 }
 
 /** The settings list. */
-export function renderSummary(dl: HTMLElement, r: EstimateResult, ctx: EstimateContext, unit: TemperatureUnit): void {
+export function renderSummary(dl: HTMLElement, lines: readonly SummaryLine[], unit: TemperatureUnit): void {
   dl.replaceChildren();
-  for (const line of summaryLines(r, ctx)) {
+  for (const line of lines) {
     const dt = document.createElement('dt');
     dt.textContent = line.label;
     const dd = document.createElement('dd');
@@ -57,12 +58,20 @@ export function renderTable(tbody: HTMLTableSectionElement, r: EstimateResult): 
   }
 }
 
-let csvUrl: string | null = null;
 
-/** Points the download link at a Blob of the CSV (the previous Blob URL is released). */
-export function renderCsvLink(a: HTMLAnchorElement, r: EstimateResult, ctx: EstimateContext, atlasTitle: string): void {
-  if (csvUrl) URL.revokeObjectURL(csvUrl);
-  csvUrl = URL.createObjectURL(new Blob([estimateCsv(r, ctx, atlasTitle)], { type: 'text/csv;charset=utf-8' }));
-  a.href = csvUrl;
-  a.download = estimateFileName(r);
+/** Points the monthly table's download link at a Blob of its CSV. */
+export function renderCsvLink(a: HTMLAnchorElement, r: EstimateResult, ctx: EstimateContext, atlasTitle: string, place: ResolvedPlace): void {
+  setDownload(a, estimateCsv(r, ctx, atlasTitle, place), 'text/csv;charset=utf-8', estimateFileName(r, place, 'csv', 'monthly'));
+}
+
+const urls = new Map<HTMLAnchorElement, string>();
+
+/** Points a download link at a Blob of `text` (the link's previous Blob URL is released). */
+export function setDownload(a: HTMLAnchorElement, text: string, type: string, name: string): void {
+  const old = urls.get(a);
+  if (old) URL.revokeObjectURL(old);
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  urls.set(a, url);
+  a.href = url;
+  a.download = name;
 }

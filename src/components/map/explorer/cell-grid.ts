@@ -1,7 +1,7 @@
 /**
  * The atlas grid in the browser: a point [° E, ° N] → the cell that holds it, a cell id → its
  * centre and outline, and one-cell steps for the keyboard cursor. Cell ids are row-major global
- * indices `y · nLon + x`, rows south → north (data/cells/index.json, atlas-cells.csv). Pure.
+ * indices `y · nLon + x`, rows south → north (data/cells/index.json, the per-cell tables). Pure.
  */
 import type { Feature, Polygon } from 'geojson';
 import type { CellFiguresIndex } from '../../../../pipeline/publish/cell-figures.ts';
@@ -60,4 +60,9 @@ export function moveCell(g: CellGrid, id: number, dx: number, dy: number): numbe
 export function chunkOfCell(index: Pick<CellFiguresIndex, 'grid' | 'tile'>, id: number): string {
   const { y, x } = cellYX(index.grid, id);
   return `r${Math.floor(y / index.tile.rows)}c${Math.floor(x / index.tile.cols)}`;
+}
+
+/** Path below the site root of the per-cell table holding grid row `y` (data/cells/index.json `tables`), or undefined. */
+export function cellTableOfRow(index: Pick<CellFiguresIndex, 'tables'>, y: number): string | undefined {
+  return index.tables.find((t) => y >= t.rows[0] && y < t.rows[1])?.path;
 }

@@ -10,7 +10,9 @@ import { formatFixed, formatLat, formatLon } from '../../../lib/format.ts';
 import { formatTemperature, type TemperatureUnit } from '../../../lib/units.ts';
 import { sitePath } from '../../../lib/nav.ts';
 import type { CellFiguresIndex, CellRecord } from '../../../../pipeline/publish/cell-figures.ts';
+import { cellTableOfRow } from './cell-grid.ts';
 import { NICHE_CLASSES } from '../../../../pipeline/climate/niche.ts';
+import { baselineLength, nicheBaselineCaution } from '../../../lib/niche-baseline.ts';
 import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
 import type { ViewState } from './view-state.ts';
 import { describeLayer } from './describe-view.ts';
@@ -100,7 +102,7 @@ function figuresTable(ctx: PanelContext, record: CellRecord): HTMLTableElement |
   const exp = ctx.catalogue.choices.exposure.find((c) => c.id === s.exposure)?.label ?? s.exposure ?? '';
   const [b0, b1] = ctx.catalogue.baseline;
   table.append(
-    el('caption', {}, `Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in atlas-cells.csv.`),
+    el('caption', {}, `Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in its per-cell table (CSV).`),
   );
   const thead = el('thead');
   const r1 = el('tr');
@@ -129,6 +131,15 @@ function figuresTable(ctx: PanelContext, record: CellRecord): HTMLTableElement |
   return table;
 }
 
+/** Links to the per-cell table holding the cell's row and to the NetCDF of every cell. */
+function cellDownloads(ctx: PanelContext, cell: number): Array<string | HTMLElement> {
+  const table = cellTableOfRow(ctx.index, Math.floor(cell / ctx.index.grid.nLon));
+  const out: Array<string | HTMLElement> = [];
+  if (table) out.push(' · ', el('a', { href: sitePath(ctx.base, table), download: '', 'data-cell-table': '' }, "this cell's band of rows as CSV"));
+  out.push(' · ', el('a', { href: sitePath(ctx.base, ctx.index.netcdf), download: '', 'data-cell-netcdf': '' }, 'every cell as NetCDF'));
+  return out;
+}
+
 /** Fills the panel for `record` (a land cell) or says the cell has no figures (`record` null). */
 export function renderCellPanel(panel: HTMLElement, ctx: PanelContext, cell: number, centre: [number, number], record: CellRecord | null): void {
   panel.replaceChildren();
@@ -147,7 +158,7 @@ export function renderCellPanel(panel: HTMLElement, ctx: PanelContext, cell: num
   links.append(
     el('a', { href: sitePath(ctx.base, `estimate/?cell=${cell}`), 'data-cell-estimate': '' }, 'Estimate working hours for this cell'),
     ' · ',
-    el('a', { href: sitePath(ctx.base, 'data/atlas-cells.csv'), download: '' }, 'every cell as CSV (large)'),
+    ...cellDownloads(ctx, cell),
   );
   panel.append(links);
   if (ctx.layer) {
@@ -165,10 +176,12 @@ export function renderCellPanel(panel: HTMLElement, ctx: PanelContext, cell: num
   const nicheLegend = nicheLayer ? ctx.catalogue.legends[nicheLayer.legend] : undefined;
   const code = n.baselineClass ? NICHE_CODES.indexOf(n.baselineClass) : -1;
   const label = code >= 0 && nicheLegend ? formatLayerValue(code, '1', ctx.unit, nicheLegend) : undefined;
+  const caution = nicheBaselineCaution(ctx.catalogue.baseline);
   niche.textContent =
-    `Mean annual air temperature over the baseline: ${formatTemperature(n.baselineMat ?? NaN, ctx.unit, 2)}` +
-    (n.latestMat !== null ? `; in ${ctx.catalogue.latestYear}: ${formatTemperature(n.latestMat, ctx.unit, 2)}` : '') +
-    (label ? `. Against the human climate niche: ${label}.` : '.');
+    `Mean annual air temperature over the baseline (${baselineLength(ctx.catalogue.baseline)}): ${formatTemperature(n.baselineMat ?? NaN, ctx.unit, 2)}` +
+    (n.latestMat !== null ? `; in ${ctx.catalogue.latestYear} (1 year): ${formatTemperature(n.latestMat, ctx.unit, 2)}` : '') +
+    (label ? `. Against the human climate niche: ${label}.` : '.') +
+    (caution ? ` ${caution}` : '');
   panel.append(niche);
   panel.append(
     el(

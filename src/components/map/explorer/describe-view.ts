@@ -4,6 +4,7 @@
  * year · Mean of the baseline years 2021–2022". Pure.
  */
 import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
+import { baselineYears, NICHE_BASELINE_YEARS } from '../../../lib/niche-baseline.ts';
 
 function label(catalogue: ExplorerCatalogue, key: keyof ExplorerCatalogue['choices'], id: string | undefined): string | undefined {
   if (id === undefined) return undefined;
@@ -25,11 +26,15 @@ export function describeLayer(catalogue: ExplorerCatalogue, layer: ExplorerLayer
   );
   const [b0, b1] = catalogue.baseline;
   const stat = label(catalogue, 'statistic', layer.statistic) ?? layer.statistic;
+  // Niche figures carry the baseline's length, and a caution when it is shorter than the niche's 20 years.
+  const niche = layer.figure === 'niche-class' || layer.figure === 'mean-annual-temperature';
+  const n = baselineYears(catalogue.baseline);
+  const length = niche ? ` (${n} year${n === 1 ? '' : 's'}${n < NICHE_BASELINE_YEARS ? `; the niche was described with ${NICHE_BASELINE_YEARS}+ years` : ''})` : '';
   return {
     figure: figureLabel(catalogue, layer.figure),
     view: parts.join(', '),
     period: label(catalogue, 'period', layer.period) ?? layer.period,
-    statistic: `${stat}, baseline ${b0}–${b1}`,
+    statistic: `${stat}, baseline ${b0}–${b1}${length}`,
   };
 }
 

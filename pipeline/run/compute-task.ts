@@ -1,0 +1,250 @@
+/**
+ * Computes one task: a piece of a local year for a group of consecutive tiles (shards of the same
+ * piece). The group's rows are read block by block, once, and every tile of the group takes its
+ * land cells from the same block, runs the physics (WBGT in sun and shade) and adds every hour into
+ * its own partial. Reading once per group keeps the read cost per cell-hour independent of the
+ * grid's width (a NetCDF-3 record or a NetCDF-4 chunk spans whole rows, often the whole grid).
+ * Memory is bounded by one block of the group and the group's partials, never by the record.
+ */
+import type { Dataset } from '../read/index.ts';
+import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
+import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
+import { accumulateBlock, createPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
+import type { PhysicsSettings } from '../physics/settings.ts';
+import type { ShardSpec } from './plan.ts';
+
+/** Hours per block by default: one month and a little, so a block never spans more than two local months. */
+export const BLOCK_HOURS = 744;
+
+export interface ShardContext {
+  evaluations: readonly WorkEvaluation[];
+  timeZone: string;
+  shift: WorkShift;
+  /** Modelling choices of the physics (globe diameter). */
+  physics: PhysicsSettings;
+  /** Grid columns (to turn global cell indices into block positions). */
+  nLon: number;
+}
+
+/** One unit of work for a worker: the shards of one piece of a year over consecutive tiles. */
+export interface ComputeTask {
+  /** Name for logs and errors, e.g. `g00-y2021-m07` (group 0 of the tiles, local July–September 2021). */
+  id: string;
+  /** The shards computed together: same piece (hours, months), tiles in row order. */
+  shards: ShardSpec[];
+  /** Hours per block read [h] (the memory plan may choose fewer than {@link BLOCK_HOURS}). */
+  blockHours: number;
+}
+
+export interface ShardResult {
+  partial: ShardPartial;
+  /** Wall-clock milliseconds spent reading, in physics and in the reduction [ms]. */
+  timing: { read: number; physics: number; reduce: number };
+  physics: KernelCounts;
+  /** Cell-hours computed (land cells × hours of the year read) [–]. */
+  cellHours: number;
+}
+
+/** A run of land cells in one grid row: land indices [j0, j1) and the row inside the block. */
+export interface LandRun {
+  row: number;
+  j0: number;
+  j1: number;
+}
+
+/**
+ * Splits ascending global cell indices (row-major, `nLon` columns) into one run per grid row;
+ * `y0` is the block's first row.
+ */
+export function landRuns(cells: Int32Array, nLon: number, y0: number): LandRun[] {
+  const runs: LandRun[] = [];
+  for (let j = 0; j < cells.length; j++) {
+    const row = Math.floor(cells[j] / nLon) - y0;
+    const last = runs[runs.length - 1];
+    if (last !== undefined && last.row === row) last.j1 = j + 1;
+    else runs.push({ row, j0: j, j1: j + 1 });
+  }
+  return runs;
+}
+
+/** The arrays a tile's block is computed in: inputs, physics outputs, the reduction's gathered arrays. */
+interface BlockBuffers {
+  scratch: ReduceScratch;
+  local: LocalHours;
+  inp: Record<'air' | 'dew' | 'sp' | 'wind' | 'sg' | 'sd', Float32Array>;
+  out: Record<'cosZenith' | 'directFraction' | 'solar' | 'wind2m' | 'wbgtSun' | 'wbgtShade', Float32Array> & { status: Uint8Array };
+  gSun: Float32Array;
+  gShade: Float32Array;
+  gAir: Float32Array;
+}
+
+/**
+ * The buffers of the last task, kept for the next one in this thread (a worker computes many
+ * tasks): allocating and faulting in tens of MB per task cost more than a short piece's work.
+ */
+let kept: BlockBuffers | undefined;
+
+function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
+  const scratch = reuseScratch(kept?.scratch, n, evaluations);
+  if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours) {
+    kept.scratch = scratch;
+    return kept;
+  }
+  const mk = () => new Float32Array(n);
+  kept = {
+    scratch,
+    local: allocLocalHours(blockHours),
+    inp: { air: mk(), dew: mk(), sp: mk(), wind: mk(), sg: mk(), sd: mk() },
+    out: { cosZenith: mk(), directFraction: mk(), solar: mk(), wind2m: mk(), wbgtSun: mk(), wbgtShade: mk(), status: new Uint8Array(n) },
+    gSun: mk(),
+    gShade: mk(),
+    gAir: mk(),
+  };
+  return kept;
+}
+
+/** What one tile of the group keeps while the blocks pass. */
+interface TileState {
+  shard: ShardSpec;
+  partial: ShardPartial;
+  /** Position of each land cell in the group's block (row-major, the group's first row = 0). */
+  pos: Int32Array;
+  runs: LandRun[];
+  runLon: Float64Array[];
+  physics: KernelCounts;
+  cellHours: number;
+  timing: { read: number; physics: number; reduce: number };
+}
+
+/**
+ * Computes the task's shards. Each shard's result is handed to `onShard` as soon as the last
+ * block has been added (in tile order), so a caller can encode and drop it.
+ */
+export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>): Promise<void> {
+  const first = task.shards[0];
+  const y0 = first.tile.y0;
+  const y1 = task.shards[task.shards.length - 1].tile.y1;
+  const group = { y0, y1, x0: 0, x1: ctx.nLon };
+  const nCols = ctx.nLon;
+  const nBlock = (y1 - y0) * nCols;
+  const tiles: TileState[] = task.shards.map((shard) => {
+    const runs = landRuns(shard.cells, ctx.nLon, y0);
+    return {
+      shard,
+      partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months),
+      pos: Int32Array.from(shard.cells, (c) => (Math.floor(c / ctx.nLon) - y0) * nCols + (c % ctx.nLon)),
+      runs,
+      runLon: runs.map((r) => new Float64Array(r.j1 - r.j0)),
+      physics: emptyCounts(),
+      cellHours: 0,
+      timing: { read: 0, physics: 0, reduce: 0 },
+    };
+  });
+  const maxLand = Math.max(...task.shards.map((s) => s.cells.length));
+  const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations);
+  const [h0, h1] = first.hours;
+  for (let t0 = h0; t0 < h1; t0 += task.blockHours) {
+    const nt = Math.min(task.blockHours, h1 - t0);
+    const tr = performance.now();
+    const block = await ds.readBlock(t0, nt, group);
+    const readMs = performance.now() - tr;
+    // The read is shared: each tile is charged its share of land cells.
+    const land = tiles.reduce((s, t) => s + t.shard.cells.length, 0);
+    localHoursInto(buf.local, block.time, ctx.timeZone, ctx.shift);
+    for (const tile of tiles) {
+      tile.timing.read += (readMs * tile.shard.cells.length) / land;
+      computeTileBlock(tile, block, nt, nBlock, buf, ctx);
+    }
+  }
+  for (const tile of tiles) {
+    await onShard(tile.shard, { partial: tile.partial, physics: tile.physics, cellHours: tile.cellHours, timing: tile.timing });
+  }
+}
+
+/** One block for one tile: gather its land cells, physics by grid row, back to time-major, reduce. */
+function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['readBlock']>>, nt: number, nBlock: number, buf: BlockBuffers, ctx: ShardContext): void {
+  const { shard, pos, runs, runLon, timing } = tile;
+  const cells = shard.cells;
+  const nLand = cells.length;
+  const { scratch, inp, out, gSun, gShade, gAir, local } = buf;
+  let tick = performance.now();
+  const lap = (k: keyof typeof timing) => {
+    const now = performance.now();
+    timing[k] += now - tick;
+    tick = now;
+  };
+  const f = block.fields;
+  const air = f.airTemperature!;
+  const dew = f.dewPointTemperature!;
+  const sp = f.surfacePressure!;
+  const wind = f.windSpeed10m!;
+  const sg = f.solarGlobal!;
+  const sd = f.solarDirect;
+  // Gather the land cells: row-segment-major for the physics, time-major air for the reduction.
+  // Physics runs on the land cells only, one grid row at a time: each row's land cells form a
+  // grid of 1 row × its land columns (the columns need not be adjacent: geometry takes the
+  // longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
+  for (let t = 0; t < nt; t++) {
+    const src = t * nBlock;
+    const dst = t * nLand;
+    for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+  }
+  for (const r of runs) {
+    const nr = r.j1 - r.j0;
+    const o = r.j0 * nt;
+    for (let t = 0; t < nt; t++) {
+      const src = t * nBlock;
+      const dst = o + t * nr;
+      for (let k = 0; k < nr; k++) {
+        const i = src + pos[r.j0 + k];
+        inp.air[dst + k] = air[i];
+        inp.dew[dst + k] = dew[i];
+        inp.sp[dst + k] = sp[i];
+        inp.wind[dst + k] = wind[i];
+        inp.sg[dst + k] = sg[i];
+      }
+      if (sd !== undefined) for (let k = 0; k < nr; k++) inp.sd[dst + k] = sd[src + pos[r.j0 + k]];
+    }
+  }
+  out.status.fill(0, 0, nt * nLand);
+  const rowLat = new Float64Array(1);
+  for (let ri = 0; ri < runs.length; ri++) {
+    const r = runs[ri];
+    const lon = runLon[ri];
+    for (let k = 0; k < lon.length; k++) lon[k] = block.lon[cells[r.j0 + k] % ctx.nLon];
+    rowLat[0] = block.lat[r.row];
+    const a = r.j0 * nt;
+    const e = r.j1 * nt;
+    const arrays: PhysicsArrays = {
+      time: block.time, lat: rowLat, lon,
+      airTemperature: inp.air.subarray(a, e), dewPointTemperature: inp.dew.subarray(a, e), surfacePressure: inp.sp.subarray(a, e),
+      windSpeed: inp.wind.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
+      cosZenith: out.cosZenith.subarray(a, e), directFraction: out.directFraction.subarray(a, e), solar: out.solar.subarray(a, e),
+      wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
+      status: out.status.subarray(a, e),
+    };
+    addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
+  }
+  lap('physics');
+  // Back to time-major over the land cells for the reduction.
+  for (const r of runs) {
+    const nr = r.j1 - r.j0;
+    const o = r.j0 * nt;
+    for (let t = 0; t < nt; t++) {
+      const src = o + t * nr;
+      const dst = t * nLand + r.j0;
+      for (let k = 0; k < nr; k++) {
+        gSun[dst + k] = out.wbgtSun[src + k];
+        gShade[dst + k] = out.wbgtShade[src + k];
+      }
+    }
+  }
+  accumulateBlock(
+    tile.partial,
+    { nHours: nt, wbgtSun: gSun.subarray(0, nt * nLand), wbgtShade: gShade.subarray(0, nt * nLand), airTemperature: gAir.subarray(0, nt * nLand), local },
+    ctx.evaluations,
+    scratch,
+  );
+  for (let t = 0; t < nt; t++) if (local.year[t] === shard.year) tile.cellHours += nLand;
+  lap('reduce');
+}

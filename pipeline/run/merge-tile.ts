@@ -1,0 +1,294 @@
+/**
+ * One merge tile: a band of grid rows whose partials are merged year by year, its normals and
+ * niche computed, and everything that is per cell published or handed on, before the next tile:
+ * - per year: the partials of the tile's shards are merged (pipeline/reduce/merge.ts), turned into
+ *   figures (pipeline/reduce/figures.ts), the cell histograms encoded for the calculator's point
+ *   tiles and added into the tile's regions' histograms (double-double sums, written as records
+ *   of the tile's region-part file); then the year's histograms are dropped;
+ * - after the years: per-cell normals (pipeline/climate/normals.ts) and the niche, the tile's cell
+ *   table (CSV), cell chunks (JSON for the map), niche entries, its rows of every gridded field
+ *   (a piece file the publish stage assembles into NetCDF slabs and layers), and each region's
+ *   figure sums, highest cells and mean annual temperature sums.
+ * Memory: one year of the tile's histograms, and the tile's figures over the record. The tile's
+ * land cells are a whole band of rows, cut at multiples of the cell-chunk rows, so no map chunk
+ * is split between two tiles.
+ */
+import { mkdirSync, openSync, closeSync, writeSync } from 'node:fs';
+import { join } from 'node:path';
+import { computeNormals, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
+import { mergeYear, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
+import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../reduce/layout.ts';
+import { figureDefs, yearFigures, PERIODS, type FigureDef } from '../reduce/figures.ts';
+import {
+  addWeightedHistograms,
+  addWeightedMeans,
+  addWorstCells,
+  addYearValues,
+  emptyFigureSums,
+  type RegionTileCells,
+} from '../regions/region-sums.ts';
+import { readPartialFile } from './partial-store.ts';
+import { RegionPartWriter, type RegionRecordRef } from '../formats/region-parts.ts';
+import { GridPiece, type GridPieceRef } from '../formats/grid-pieces.ts';
+import { gridFields } from '../publish/grid-fields.ts';
+import { cellTableCsv } from '../publish/cell-table.ts';
+import { cellFigureChunks, writeCellChunks, DEFAULT_CELL_TILE, type CellChunkEntry } from '../publish/cell-figures.ts';
+import { PointTileStore, type PointChunkEntry } from '../publish/point-tiles.ts';
+import { nicheCellsJson } from '../publish/niche-json.ts';
+import type { CellFigureNormals, CellNiche } from '../publish/figure-normals.ts';
+import { rowsId } from './rows-id.ts';
+
+/** What a worker needs to merge one tile (structured-cloneable). */
+export interface MergeTileInput {
+  /** Name, from its rows: `rows-0000-0031`. */
+  id: string;
+  /** Grid rows [y0, y1) of the tile. */
+  rows: [number, number];
+  /** The publication blocks (rows) the tile is made of: its cells' tables and calculator tiles are written per block. */
+  blocks: Array<[number, number]>;
+  /** Land cells of the tile (global indices, ascending). */
+  cells: Int32Array;
+  /** Partials may hold cells outside the tile (the tile is part of a shard's tile). */
+  subset: boolean;
+  years: number[];
+  baseline: [number, number];
+  latestYear: number;
+  /** Per year (in `years` order): the partial files of the shards holding the tile's cells, sorted by shard id. */
+  partials: Array<Array<{ id: string; path: string }>>;
+  grid: { lat: Float64Array; lon: Float64Array };
+  /** The regions the tile overlaps, with their cells in the tile. */
+  regions: RegionTileCells[];
+  /** The staging `data` folder and the build's scratch folder. */
+  dataDir: string;
+  scratchDir: string;
+}
+
+/** What the main thread keeps of a merged tile (small). */
+export interface MergeTileSummary {
+  id: string;
+  rows: [number, number];
+  cells: number;
+  piece: GridPieceRef;
+  /** Smallest and largest finite value per gridded field over the tile [unit of the field]. */
+  fieldMin: Float64Array;
+  fieldMax: Float64Array;
+  regionParts: { path: string; records: RegionRecordRef[] };
+  cellChunks: Array<CellChunkEntry & { firstCell: number }>;
+  pointChunks: PointChunkEntry[];
+  /** One per publication block: the table's path below the site and its rows. */
+  cellTables: Array<{ path: string; rows: [number, number]; bytes: number }>;
+  /** The tile's entries of niche.json, comma-separated JSON objects, in a scratch file. */
+  nicheFragment: string;
+}
+
+/** A file appended to in pieces of text, flushed every megabyte or so. */
+class TextFile {
+  private fd: number;
+  private parts: string[] = [];
+  private pending = 0;
+  bytes = 0;
+  constructor(path: string) {
+    this.fd = openSync(path, 'w');
+  }
+  add(text: string): void {
+    this.parts.push(text);
+    this.pending += text.length;
+    if (this.pending > 1 << 20) this.flush();
+  }
+  private flush(): void {
+    const b = Buffer.from(this.parts.join(''), 'utf8');
+    let done = 0;
+    while (done < b.length) done += writeSync(this.fd, b, done, b.length - done);
+    this.bytes += b.length;
+    this.parts = [];
+    this.pending = 0;
+  }
+  close(): void {
+    this.flush();
+    closeSync(this.fd);
+  }
+}
+
+/** The normals of items [a, b) (every array of `Normals` is per item). */
+function sliceNormals(n: Normals, a: number, b: number): Normals {
+  return {
+    ...n,
+    nItems: b - a,
+    mean: n.mean.subarray(a, b),
+    median: n.median.subarray(a, b),
+    p90: n.p90.subarray(a, b),
+    min: n.min.subarray(a, b),
+    max: n.max.subarray(a, b),
+    yearsUsed: n.yearsUsed.subarray(a, b),
+    yearsMissing: n.yearsMissing.subarray(a, b),
+    latest: n.latest.subarray(a, b),
+    latestDifference: n.latestDifference.subarray(a, b),
+    latestRank: n.latestRank.subarray(a, b),
+  };
+}
+
+/** First index of a sorted array whose value is ≥ x. */
+function lowerBound(a: Int32Array, x: number): number {
+  let lo = 0;
+  let hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary> {
+  const nCells = t.cells.length;
+  const nY = t.years.length;
+  const rule = MONTHLY_COMPLETENESS;
+  // The cells of each publication block: positions [c0, c1) in the tile's cells.
+  const nLon = t.grid.lon.length;
+  const blockCells = t.blocks.map((rows) => {
+    const c0 = lowerBound(t.cells, rows[0] * nLon);
+    const c1 = lowerBound(t.cells, rows[1] * nLon);
+    return { rows, c0, c1, point: new PointTileStore(t.cells.slice(c0, c1)) };
+  });
+  const regionFile = new RegionPartWriter(join(t.scratchDir, `${t.id}.regions`));
+  const hist = t.regions.length > 0 ? new Float64Array(2 * CELL_YEAR_HIST) : new Float64Array(0);
+  let defs: FigureDef[] | undefined;
+  /** Per figure: values per year × tile cell × field, masked (NaN where a period does not count). */
+  let stacks: Float64Array[] = [];
+  // Mean annual temperature inputs: per year × month × cell.
+  const airSum = new Float64Array(nY * MONTHS * nCells);
+  const airHours = new Float64Array(nY * MONTHS * nCells);
+  const expectedHours = new Float64Array(nY * MONTHS * nCells);
+  try {
+    for (let y = 0; y < nY; y++) {
+      const files = t.partials[y];
+      const partials = files.map((f) => readPartialFile(f.path).partial);
+      const yc: YearCounts = mergeYear(t.years[y], t.cells, partials, files.map((f) => f.id), { subset: t.subset });
+      partials.length = 0;
+      const figs = yearFigures(yc, rule.maxMissingHours);
+      if (defs === undefined) {
+        defs = figs.map((f) => f.def);
+        stacks = figs.map((f) => new Float64Array(nY * f.values.length));
+      }
+      figs.forEach((f, i) => stacks[i].set(f.values, y * f.values.length));
+      for (let c = 0; c < nCells; c++) {
+        for (let m = 0; m < MONTHS; m++) {
+          const k = (y * MONTHS + m) * nCells + c;
+          airSum[k] = yc.airSum[c * MONTHS + m] / 100;
+          airHours[k] = yc.airHours[c * MONTHS + m];
+          expectedHours[k] = yc.expectedHours[m];
+        }
+      }
+      for (const b of blockCells) b.point.addYear(yc, b.c0);
+      for (const rc of t.regions) {
+        hist.fill(0);
+        addWeightedHistograms(hist, yc.histogram, nCells, MONTHS * HOURS, N_EXPOSURES * HIST_LEN, rc);
+        regionFile.histogram(rc.region, y, hist);
+      }
+    }
+    defs ??= figureDefs([]);
+
+    // Normals per cell, the niche.
+    const normals: CellFigureNormals[] = defs.map((def, i) => {
+      const nItems = nCells * PERIODS * def.combos.length;
+      const cell: Normals = computeNormals({ years: t.years, values: stacks[i], nItems }, { baseline: t.baseline, latestYear: t.latestYear, rule });
+      return { def, cell };
+    });
+    const annualMean = annualMeanFromMonthlySums({ years: t.years, nCells, sum: airSum, validHours: airHours, expectedHours });
+    const a = assessNiche({ years: t.years, annualMean, nCells, baseline: t.baseline, latest: [t.latestYear, t.latestYear] });
+    const niche: CellNiche = a;
+
+    // Region parts: figure sums per year, highest cells, mean annual temperature sums.
+    const mats = new Float64Array(2 * nCells);
+    for (let c = 0; c < nCells; c++) {
+      mats[2 * c] = a.baselineMat[c];
+      mats[2 * c + 1] = a.latestMat[c];
+    }
+    for (const rc of t.regions) {
+      const sums = defs.map((def, i) => {
+        const nF = PERIODS * def.combos.length;
+        const s = emptyFigureSums(nY, nF);
+        for (let y = 0; y < nY; y++) addYearValues(s, y, stacks[i].subarray(y * nCells * nF, (y + 1) * nCells * nF), rc);
+        addWorstCells(s, normals[i].cell.mean, rc);
+        return s;
+      });
+      regionFile.figures(rc.region, sums);
+      const pairs = new Float64Array(8);
+      addWeightedMeans(pairs, mats, 2, rc);
+      regionFile.means(rc.region, pairs);
+    }
+    stacks = [];
+
+    // Cell outputs: the table, the map's chunks, the niche entries, the calculator's point tiles.
+    mkdirSync(join(t.dataDir, 'cell-tables'), { recursive: true });
+    const cellTables: MergeTileSummary['cellTables'] = [];
+    const pointChunks: PointChunkEntry[] = [];
+    for (const b of blockCells) {
+      const id = rowsId(b.rows);
+      const table = new TextFile(join(t.dataDir, 'cell-tables', `${id}.csv`));
+      const sub = normals.map((n) => ({ def: n.def, cell: sliceNormals(n.cell, b.c0 * PERIODS * n.def.combos.length, b.c1 * PERIODS * n.def.combos.length) }));
+      cellTableCsv(sub, t.cells.slice(b.c0, b.c1), t.grid.lat, t.grid.lon, (s) => table.add(s));
+      table.close();
+      cellTables.push({ path: `data/cell-tables/${id}.csv`, rows: b.rows, bytes: table.bytes });
+      pointChunks.push(...(await b.point.write(t.dataDir, { years: t.years, prefix: `${id}-` })));
+    }
+    const chunks = cellFigureChunks(normals, t.cells, t.grid, niche, DEFAULT_CELL_TILE);
+    const written = await writeCellChunks(t.dataDir, chunks);
+    const cellChunks = written.map((w, i) => ({ ...w, firstCell: chunks[i].cells[0].cell }));
+    const nicheFragment = join(t.scratchDir, `${t.id}.niche`);
+    const nf = new TextFile(nicheFragment);
+    nf.add(nicheCellsJson(a, t.cells, t.grid));
+    nf.close();
+
+    // The tile's rows of every gridded field.
+    const fields = gridFields(defs);
+    const piece = new GridPiece(t.rows, nLon, fields.length);
+    for (const f of fields) {
+      if (f.figure === 'mean-annual-temperature') {
+        for (let c = 0; c < nCells; c++) {
+          const v = a.baselineMat[c];
+          piece.set(f.index, t.cells[c], f.statistic === 'class' ? (Number.isFinite(v) ? nicheClassCode(v) : NaN) : v);
+        }
+        continue;
+      }
+      const i = defs.findIndex((d) => d.id === f.figure);
+      const n = normals[i];
+      const nC = n.def.combos.length;
+      const src = f.statistic === 'mean' ? n.cell.mean : f.statistic === 'median' ? n.cell.median : f.statistic === 'p90' ? n.cell.p90 : n.cell.yearsUsed;
+      for (let c = 0; c < nCells; c++) piece.set(f.index, t.cells[c], src[(c * PERIODS + f.period) * nC + f.comboIndex]);
+    }
+    const fieldMin = new Float64Array(fields.length).fill(NaN);
+    const fieldMax = new Float64Array(fields.length).fill(NaN);
+    const per = (t.rows[1] - t.rows[0]) * nLon;
+    for (let f = 0; f < fields.length; f++) {
+      let lo = Infinity;
+      let hi = -Infinity;
+      const v = piece.values.subarray(f * per, (f + 1) * per);
+      for (let i = 0; i < per; i++) {
+        const x = v[i];
+        if (x < lo) lo = x;
+        if (x > hi) hi = x;
+      }
+      if (lo <= hi) {
+        fieldMin[f] = lo;
+        fieldMax[f] = hi;
+      }
+    }
+    const pieceRef = piece.write(join(t.scratchDir, `${t.id}.grid`));
+    return {
+      id: t.id,
+      rows: t.rows,
+      cells: nCells,
+      piece: pieceRef,
+      fieldMin,
+      fieldMax,
+      regionParts: { path: regionFile.path, records: regionFile.records },
+      cellChunks,
+      pointChunks,
+      cellTables,
+      nicheFragment,
+    };
+  } finally {
+    regionFile.close();
+  }
+}

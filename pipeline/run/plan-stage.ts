@@ -1,0 +1,282 @@
+/**
+ * Stage 1 of a build, the plan: configuration, work settings and regions checked before any data
+ * is read; the dataset opened (files hashed); the land cells, the regions' cell weights, the
+ * shards with their cache keys, the compute groups and merge bands that fit the memory budget,
+ * and the estimate of memory, time and disk, printed before anything is computed.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { dirname, resolve } from 'node:path';
+import { createHash } from 'node:crypto';
+import { parse as parseYaml } from 'yaml';
+import type { ResolvedConfig } from '../config/load.ts';
+import { openDataset, type Dataset } from '../read/index.ts';
+import { parseWorkloadClasses, resolveWorkSettings, type ResolvedWork } from '../work/index.ts';
+import { parseRegionFile, checkUniqueRegionIds, allRegionCellWeights, applyLandMask, type CellWeights, type Region } from '../regions/index.ts';
+import type { RegionTileCells } from '../regions/region-sums.ts';
+import { figureDefs, type FigureDef } from '../reduce/figures.ts';
+import { gridFields, type GridField } from '../publish/grid-fields.ts';
+import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
+import type { Logger } from '../model/effects.ts';
+import { planShards, yearPieces, type ShardSpec } from './plan.ts';
+import { shardProvenance } from './shard-key.ts';
+import type { KeyedShard } from './shard-sources.ts';
+import { BLOCK_HOURS, type ComputeTask, type ShardContext } from './compute-task.ts';
+import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, publicationBlocks, type MemoryPlan } from './memory-plan.ts';
+import { estimateBuild, type BuildEstimate } from './estimate.ts';
+import { rowsId } from './rows-id.ts';
+import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
+import { shortBaselineWarning } from '../publish/baseline-length.ts';
+
+const HOUR_MS = 3_600_000;
+
+export interface PlanOptions {
+  /** Worker threads; default all cores. */
+  jobs?: number;
+  /** Memory budget text (`4G`); default the config's `memory`, else 3 G. */
+  memory?: string;
+  /**
+   * Distributed merge: plan only slice K of N of the publication blocks (a contiguous run of
+   * them, {@link sliceBlocks}) as merge bands.
+   */
+  mergeSlice?: { k: number; n: number };
+  /** Plan no merge bands (the assemble step of a distributed run merges nothing). */
+  noMerge?: boolean;
+}
+
+/** One merge band: its rows, land cells, the shards holding them and the regions it overlaps. */
+export interface MergeBand {
+  id: string;
+  rows: [number, number];
+  /** The publication blocks the band is made of (rows), whose files it writes. */
+  blocks: Array<[number, number]>;
+  cells: Int32Array;
+  /** Shard tiles (indices) holding the band's cells. */
+  tiles: number[];
+  /** The band's cells lie in a shard tile that holds more (the merge skips the others). */
+  subset: boolean;
+  regions: RegionTileCells[];
+}
+
+export interface BuildPlan {
+  rc: ResolvedConfig;
+  work: ResolvedWork;
+  /** Digest of the configuration and the workload classes [hex]. */
+  configDigest: string;
+  regions: Region[];
+  weights: CellWeights[];
+  ds: Dataset;
+  years: number[];
+  latestYear: number;
+  /** Land cells (global indices, ascending), the grid's cell count, land cells per row. */
+  cells: Int32Array;
+  nGrid: number;
+  landInRow: Int32Array;
+  shards: ShardSpec[];
+  keyed: KeyedShard[];
+  /** The shard tiles: rows and land cells. */
+  tiles: Array<{ y0: number; y1: number; cells: number }>;
+  tasks: ComputeTask[];
+  /** Every publication block of the grid (rows), and the merge bands planned (of a slice's blocks with `mergeSlice`). */
+  blocks: Array<[number, number]>;
+  bands: MergeBand[];
+  defs: FigureDef[];
+  fields: GridField[];
+  memory: MemoryPlan;
+  jobs: number;
+  context: ShardContext;
+  estimate: BuildEstimate;
+  close(): Promise<void>;
+}
+
+/** Builds the plan and logs what it chose and what the build will cost. */
+export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger): Promise<BuildPlan> {
+  const cfg = rc.config;
+  // Work settings and regions are checked before any data is read.
+  const classesPath = resolve(dirname(rc.path), cfg.work.classesFile);
+  if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
+  const classesText = readFileSync(classesPath, 'utf8');
+  const allClasses = parseWorkloadClasses(parseYaml(classesText), classesPath);
+  const work = resolveWorkSettings(cfg.work, allClasses, { file: rc.path });
+  const regions: Region[] = rc.regionFiles.flatMap((f) => parseRegionFile(readFileSync(f, 'utf8'), f));
+  checkUniqueRegionIds(regions);
+  const memoryText = o.memory ?? cfg.memory;
+  const budget = memoryText === undefined ? DEFAULT_MEMORY_BUDGET : parseMemorySize(memoryText);
+  if (budget === undefined) throw MemoryBudgetInvalid({ text: memoryText! }, o.memory !== undefined ? { key: '--memory' } : { file: rc.path, key: 'memory' });
+  const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
+
+  log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
+  const baselineWarning = shortBaselineWarning(cfg.baseline);
+  if (baselineWarning) log.warn(baselineWarning);
+  const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
+  const ds = await openDataset(rc.inputFiles, datasetOptions);
+  try {
+    checkYears(ds.time, cfg.years, 'years', rc.path);
+    const nLat = ds.grid.lat.length;
+    const nLon = ds.grid.lon.length;
+    const nGrid = nLat * nLon;
+    const land = ds.landMask ?? new Uint8Array(nGrid).fill(1);
+    const landInRow = new Int32Array(nLat);
+    let nLand = 0;
+    for (let i = 0; i < nGrid; i++) {
+      if (land[i] !== 1) continue;
+      nLand++;
+      landInRow[Math.floor(i / nLon)]++;
+    }
+    if (nLand === 0) throw NoLandCells({ detail: `the land-sea mask leaves none of the ${nGrid} cells` }, { file: rc.path, key: 'dataset.landSeaMask' });
+    const cells = new Int32Array(nLand);
+    for (let i = 0, k = 0; i < nGrid; i++) if (land[i] === 1) cells[k++] = i;
+    const weights = allRegionCellWeights(regions, ds.grid).map((w) => applyLandMask(w, land));
+
+    // The shards, each with its provenance and cache key.
+    const years = range(cfg.years[0], cfg.years[1]);
+    const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
+    const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations, physics: cfg.physics };
+    const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
+    const tiles: BuildPlan['tiles'] = [];
+    for (const s of shards) if (!tiles[s.tileIndex]) tiles[s.tileIndex] = { y0: s.tile.y0, y1: s.tile.y1, cells: s.cells.length };
+    const jobs = Math.max(1, o.jobs ?? availableParallelism());
+
+    // What fits the memory budget.
+    const defs = figureDefs(work.evaluations.map((e) => e.key));
+    const fields = gridFields(defs);
+    const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
+    const blocks = o.noMerge ? [] : o.mergeSlice ? sliceBlocks(allBlocks, o.mergeSlice.k, o.mergeSlice.n) : allBlocks;
+    const memory = planMemory({
+      budget,
+      jobs,
+      nLon,
+      landInRow,
+      tiles,
+      years: years.length,
+      monthsPerPiece: cfg.shards.monthsPerPiece,
+      evaluations: work.evaluations.length,
+      combos: defs.reduce((s, d) => s + d.combos.length, 0),
+      gridFields: fields.length,
+      blocks,
+      maxBlockHours: BLOCK_HOURS,
+    });
+    const tasks = computeTasks(shards, memory);
+    const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
+    const latestYear = years[years.length - 1];
+    const estimate = estimateBuild({ shards, cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length });
+    log.info(
+      `plan: ${nLand} land cells of ${nGrid}, ${shards.length} shards (${tiles.length} tile(s) × pieces of ${years.length} year(s)) in ${tasks.length} compute tasks ` +
+        `(${memory.groups.length} group(s) of tiles read together, blocks of ${memory.blockHours} h), ${bands.length} merge band(s), ${jobs} worker(s)`,
+    );
+    log.info(
+      `memory budget ${formatBytes(budget)}: estimated peak ${formatBytes(Math.max(memory.computePeak, memory.mergePeak))} ` +
+        `(computing ${formatBytes(memory.computePeak)}, merging ${formatBytes(memory.mergePeak)})`,
+    );
+    log.info(`estimate: ${estimate.text}`);
+    return {
+      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon },
+      estimate,
+      close: () => ds.close(),
+    };
+  } catch (e) {
+    await ds.close();
+    throw e;
+  }
+}
+
+/**
+ * Slice K of N of the publication blocks for a distributed merge: the contiguous run
+ * [⌊(K − 1)·B/N⌋, ⌊K·B/N⌋) of the B blocks, so a task's blocks lie together and form few bands
+ * (a slice may be empty when N > B).
+ */
+export function sliceBlocks<T>(blocks: readonly T[], k: number, n: number): T[] {
+  return blocks.slice(Math.floor(((k - 1) * blocks.length) / n), Math.floor((k * blocks.length) / n));
+}
+
+/** The compute tasks: per piece of a year, one task per group of tiles (the plan's groups). */
+function computeTasks(shards: readonly ShardSpec[], memory: MemoryPlan): ComputeTask[] {
+  const byPiece = new Map<string, ShardSpec[]>();
+  for (const s of shards) {
+    const key = `${s.year}|${s.hours[0]}|${s.hours[1]}`;
+    const list = byPiece.get(key) ?? [];
+    list.push(s);
+    byPiece.set(key, list);
+  }
+  const tasks: ComputeTask[] = [];
+  for (const list of byPiece.values()) {
+    const byTile = new Map(list.map((s) => [s.tileIndex, s]));
+    memory.groups.forEach((g, gi) => {
+      const members = g.map((i) => byTile.get(i)).filter((s): s is ShardSpec => s !== undefined);
+      if (members.length === 0) return;
+      const id = members[0].id.replace(/^t\d+/, `g${String(gi).padStart(2, '0')}`);
+      tasks.push({ id, shards: members, blockHours: memory.blockHours });
+    });
+  }
+  return tasks;
+}
+
+/** The merge bands with their cells, the shard tiles they read and the regions they overlap. */
+function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray<[number, number]>, cells: Int32Array, nLon: number, tiles: BuildPlan['tiles'], weights: readonly CellWeights[]): MergeBand[] {
+  // Which band each land cell is in, and its position there.
+  const bands: MergeBand[] = rows.map(([y0, y1]) => {
+    const a = lowerBound(cells, y0 * nLon);
+    const b = lowerBound(cells, y1 * nLon);
+    const tileIdx = tiles.flatMap((t, i) => (t.y0 < y1 && t.y1 > y0 ? [i] : []));
+    const subset = tileIdx.some((i) => tiles[i].y0 < y0 || tiles[i].y1 > y1);
+    const mine = blocks.filter(([b0, b1]) => b0 >= y0 && b1 <= y1).map(([b0, b1]): [number, number] => [b0, b1]);
+    return { id: rowsId([y0, y1]), rows: [y0, y1], blocks: mine, cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
+  });
+  const nLat = cells.length > 0 ? Math.floor(cells[cells.length - 1] / nLon) + 1 : 0;
+  const bandOfRow = new Int32Array(nLat).fill(-1);
+  rows.forEach(([y0, y1], i) => bandOfRow.fill(i, y0, y1));
+  weights.forEach((w, r) => {
+    // The region's land weights, their sum for its histograms (in the order of its cells).
+    let total = 0;
+    for (let j = 0; j < w.cells.length; j++) total += w.weight[j];
+    const byBand = new Map<number, number[]>();
+    for (let j = 0; j < w.cells.length; j++) {
+      const bi = bandOfRow[Math.floor(w.cells[j] / nLon)] ?? -1;
+      if (bi < 0) continue;
+      const list = byBand.get(bi) ?? [];
+      list.push(j);
+      byBand.set(bi, list);
+    }
+    for (const [bi, js] of byBand) {
+      const band = bands[bi];
+      band.regions.push({
+        region: r,
+        local: Int32Array.from(js, (j) => lowerBound(band.cells, w.cells[j])),
+        cells: Int32Array.from(js, (j) => w.cells[j]),
+        weight: Float64Array.from(js, (j) => w.weight[j]),
+        histWeight: Float64Array.from(js, (j) => w.weight[j] / total),
+      });
+    }
+  });
+  return bands.filter((b) => b.cells.length > 0);
+}
+
+/** First index of a sorted array whose value is ≥ x. */
+function lowerBound(a: Int32Array, x: number): number {
+  let lo = 0;
+  let hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function range(a: number, b: number): number[] {
+  return Array.from({ length: b - a + 1 }, (_, i) => a + i);
+}
+
+/** Each configured local year must be held by the data, up to the completeness margin (10 days). */
+function checkYears(time: { start: number; count: number }, years: [number, number], key: string, file: string): void {
+  const end = time.start + (time.count - 1) * HOUR_MS;
+  const margin = 10 * 24 * HOUR_MS;
+  if (time.start > Date.UTC(years[0], 0, 1) + margin || end < Date.UTC(years[1] + 1, 0, 1) - margin) {
+    throw YearsOutsideData(
+      { key, first: years[0], last: years[1], dataFirst: new Date(time.start).toISOString(), dataLast: new Date(end).toISOString() },
+      { file, key },
+    );
+  }
+}
+

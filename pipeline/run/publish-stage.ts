@@ -1,0 +1,248 @@
+/**
+ * Stage 5 of a build, publishing what is whole-atlas: the map layers and the per-cell NetCDF (each
+ * grid field put together from the merge bands' pieces, one field in memory at a time), the
+ * indexes of the per-cell files, niche.json (the bands' entries joined), the region outlines, the
+ * inventory, what changed since the previous build, and the manifest of every file.
+ */
+import { closeSync, createWriteStream, existsSync, openSync, readFileSync, readSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
+import { once } from 'node:events';
+import { join } from 'node:path';
+import { CAUTIONS } from '../work/index.ts';
+import type { Region } from '../regions/index.ts';
+import { CODE_VERSION } from '../model/version.ts';
+import type { Logger } from '../model/effects.ts';
+import { startProgress } from '../model/progress.ts';
+import { closePieces, readGridField } from '../formats/grid-pieces.ts';
+import { addFieldRange, countLayers, emptyFieldRange, writeAtlasLayers } from '../publish/atlas-layers.ts';
+import { writeCellNetcdf } from '../publish/cell-netcdf.ts';
+import { cellFiguresIndex, CELL_NETCDF_PATH, DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
+import { writePointTileIndex } from '../publish/point-tiles.ts';
+import { histogramIndex } from '../publish/histogram-tiles.ts';
+import { nicheJsonHead, NICHE_JSON_TAIL } from '../publish/niche-json.ts';
+import { makeInventory } from '../publish/inventory.ts';
+import { compareBuilds, type BuildFacts, type RegionTables } from '../publish/changes.ts';
+import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
+import { DATA_DICTIONARY_PATH, dataDictionaryCsv } from '../publish/data-dictionary.ts';
+import { LOSS_VIEWS } from '../reduce/layout.ts';
+import { fileSummaryCache } from './summary-cache.ts';
+import type { BuildPlan } from './plan-stage.ts';
+import type { MergeTileSummary } from './merge-tile.ts';
+import type { ComputeOutcome } from './compute-stage.ts';
+
+export interface PublishInput {
+  plan: BuildPlan;
+  tiles: readonly MergeTileSummary[];
+  compute: ComputeOutcome;
+  /** The staging folder (it holds `data/`), and the output folder of the previous build. */
+  stage: string;
+  outDir: string;
+  /** Cache folder of the inventory's summary chunks, or undefined. */
+  summaryCacheDir?: string;
+  generated: string;
+  log: Logger;
+  quiet?: boolean;
+}
+
+export async function publishStage(p: PublishInput): Promise<Manifest> {
+  const { plan, tiles, log } = p;
+  const cfg = plan.rc.config;
+  const grid = plan.ds.grid;
+  const dataDir = join(p.stage, 'data');
+  const nLat = grid.lat.length;
+  const nLon = grid.lon.length;
+
+  // Gridded fields: layers and the NetCDF, one field at a time from the bands' pieces.
+  const range = emptyFieldRange(plan.fields.length);
+  for (const t of tiles) addFieldRange(range, { min: t.fieldMin, max: t.fieldMax });
+  const pieces = tiles.map((t) => t.piece);
+  const fds = new Map<string, number>();
+  const buffer = new Float32Array(nLat * nLon);
+  const field = (i: number) => readGridField(pieces, i, nLat, nLon, fds, buffer);
+  let layers: Manifest['layers'];
+  try {
+    const progress = startProgress('layers', countLayers(plan.fields), { quiet: p.quiet });
+    layers = await writeAtlasLayers(dataDir, grid, plan.defs, plan.fields, range, field, () => progress.tick());
+    progress.done();
+    log.info(`${layers.length} map layers drawn (PNG and tiled GeoTIFF); writing the per-cell NetCDF`);
+    writeCellNetcdf(join(p.stage, CELL_NETCDF_PATH), grid, plan.defs, plan.fields, {
+      title: cfg.title,
+      invented: cfg.dataset.invented,
+      source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})`,
+      // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
+      history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
+      baseline: cfg.baseline,
+    }, field);
+  } finally {
+    closePieces(fds);
+  }
+
+  // Indexes of the per-cell files, and niche.json from the bands' entries.
+  const tables = tiles.flatMap((t) => t.cellTables.map((c) => ({ path: c.path, rows: c.rows })));
+  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify(cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE, tables)));
+  await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks) });
+  await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(plan.years, cfg.baseline, plan.regions)));
+  await joinFiles(join(dataDir, 'niche.json'), nicheJsonHead(), tiles.map((t) => t.nicheFragment), ',', NICHE_JSON_TAIL);
+  await writeRegionsGeoJson(join(dataDir, 'regions.geojson'), plan.regions);
+
+  log.info('summarising the inputs for the inventory');
+  const inventory = makeInventory(cfg, plan.ds, await plan.ds.summary(p.summaryCacheDir ? fileSummaryCache(p.summaryCacheDir) : undefined), p.generated);
+  await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
+
+  // What changed since the build now in outDir (if any), for the site.
+  const changes = compareBuilds(readPreviousFacts(join(p.outDir, 'data')), {
+    buildTime: p.generated,
+    codeVersion: CODE_VERSION,
+    configDigest: plan.configDigest,
+    years: cfg.years,
+    baseline: cfg.baseline,
+    inputs: plan.ds.files,
+    regionTables: tablesOnDisk(dataDir, plan.regions.map((r) => r.id)),
+    regionNames: new Map(plan.regions.map((rg) => [rg.id, rg.name])),
+  });
+  await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
+  if (changes.hasPrevious) {
+    log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`);
+  }
+  await writeFile(join(p.stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
+    figures: plan.defs, classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
+    lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear,
+  }));
+
+  const artefacts = await listArtefacts(p.stage, describeArtefact);
+  const work = plan.work;
+  const manifest: Manifest = {
+    manifestVersion: 1,
+    atlas: { id: cfg.id, title: cfg.title, invented: cfg.dataset.invented, attribution: cfg.dataset.attribution },
+    buildTime: p.generated,
+    codeVersion: CODE_VERSION,
+    configDigest: plan.configDigest,
+    inputs: plan.ds.files,
+    years: cfg.years,
+    baseline: cfg.baseline,
+    latestYear: plan.latestYear,
+    timeZone: cfg.timeZone,
+    physics: cfg.physics,
+    work: { ...work.settings, clothingAdjustment: work.clothingAdjustment, rest: work.rest, classes: work.classes, cautions: CAUTIONS },
+    figures: plan.defs.map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
+    statistics: STATISTIC_RULES,
+    counts: {
+      shards: plan.shards.length,
+      landCells: plan.cells.length,
+      cellHours: p.compute.allCellHours,
+      notConverged: p.compute.physics.notConverged,
+      rejected: p.compute.physics.rejected,
+      dewPointClamped: p.compute.physics.dewPointClamped,
+    },
+    layers,
+    artefacts,
+  };
+  await writeFile(join(dataDir, 'manifest.json'), JSON.stringify(manifest, null, 1));
+  return manifest;
+}
+
+/** Writes `head`, the files' texts separated by `sep`, and `tail` into `path`, streaming. */
+async function joinFiles(path: string, head: string, files: readonly string[], sep: string, tail: string): Promise<void> {
+  const out = createWriteStream(path);
+  const put = async (b: string | Uint8Array) => {
+    if (!out.write(b)) await once(out, 'drain');
+  };
+  await put(head);
+  let first = true;
+  for (const f of files) {
+    const fd = openSync(f, 'r');
+    try {
+      const buf = Buffer.alloc(1 << 20);
+      let n = readSync(fd, buf, 0, buf.length, null);
+      if (n > 0 && !first) await put(sep);
+      if (n > 0) first = false;
+      while (n > 0) {
+        await put(Buffer.from(buf.subarray(0, n)));
+        n = readSync(fd, buf, 0, buf.length, null);
+      }
+    } finally {
+      closeSync(fd);
+    }
+  }
+  await put(tail);
+  out.end();
+  await once(out, 'finish');
+}
+
+/** RFC 7946 coordinates of a parsed polygon: rings closed again, longitudes as parsed (continuous). */
+function polygonCoordinates(p: Region['polygons'][number]): number[][][] {
+  return p.rings.map((ring) => {
+    const pts: number[][] = [];
+    for (let i = 0; i < ring.length; i += 2) pts.push([ring[i], ring[i + 1]]);
+    pts.push([ring[0], ring[1]]);
+    return pts;
+  });
+}
+
+/** The region outlines, one feature at a time (the bytes of JSON.stringify of the whole collection). */
+async function writeRegionsGeoJson(path: string, regions: readonly Region[]): Promise<void> {
+  const out = createWriteStream(path);
+  const put = async (s: string) => {
+    if (!out.write(s)) await once(out, 'drain');
+  };
+  await put('{"type":"FeatureCollection","features":[');
+  for (let i = 0; i < regions.length; i++) {
+    const r = regions[i];
+    const feature = {
+      type: 'Feature',
+      properties: { id: r.id, name: r.name },
+      geometry:
+        r.polygons.length === 1
+          ? { type: 'Polygon', coordinates: polygonCoordinates(r.polygons[0]) }
+          : { type: 'MultiPolygon', coordinates: r.polygons.map(polygonCoordinates) },
+    };
+    await put((i > 0 ? ',' : '') + JSON.stringify(feature));
+  }
+  await put(']}');
+  out.end();
+  await once(out, 'finish');
+}
+
+/** Region tables read from a data folder when asked for. */
+function tablesOnDisk(dataDir: string, ids: readonly string[]): RegionTables {
+  const set = new Set(ids);
+  const path = (id: string) => join(dataDir, 'regions', `${id}.csv`);
+  return {
+    ids: () => ids,
+    has: (id) => set.has(id),
+    get: (id) => (set.has(id) && existsSync(path(id)) ? readFileSync(path(id), 'utf8') : undefined),
+  };
+}
+
+/** The facts of the build published in `dataDir`, or null when there is none (or it cannot be read). */
+function readPreviousFacts(dataDir: string): BuildFacts | null {
+  try {
+    const m = JSON.parse(readFileSync(join(dataDir, 'manifest.json'), 'utf8')) as Manifest;
+    const gj = JSON.parse(readFileSync(join(dataDir, 'regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> };
+    const ids = gj.features.map((f) => f.properties.id);
+    const regionNames = new Map(gj.features.map((f) => [f.properties.id, f.properties.name]));
+    return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tablesOnDisk(dataDir, ids), regionNames };
+  } catch {
+    return null;
+  }
+}
+
+function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
+  if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
+  if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF with internal tiles, EPSG:4326' };
+  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell table' };
+  if (path.endsWith('.wide.csv')) return { kind: 'table', description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic', units: 'h per worker (in each month header)' };
+  if (path.endsWith('.xlsx')) return { kind: 'table', description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions', units: 'h per worker, °C (in the headers)' };
+  if (path.endsWith('.nc')) return { kind: 'netcdf', description: 'per-cell figures of the whole grid, CF-1.8 NetCDF (64-bit offset): shift hours above the limit and hours lost per worker (baseline mean, median, P90 year, years used) by period and evaluation, mean annual temperature and its niche class', units: 'per variable (units attribute)' };
+  if (path.endsWith('.csv')) {
+    return path.includes('/regions/')
+      ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
+      : { kind: 'table', description: 'per-cell table of one band of grid rows: shift hours above the limit and hours lost', units: 'h' };
+  }
+  if (path.includes('/calculator/cells/')) return { kind: path.endsWith('.bin') ? 'histogram' : 'json', description: 'calculator histograms of hourly WBGT per grid cell (whole hours per year, month, local hour and exposure; format in pipeline/publish/point-tile-codec.ts, chunks in calculator/cells/index.json)', units: 'h' };
+  if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
+  if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
+  if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };
+  if (path.startsWith('data/cells/')) return { kind: 'json', description: 'per-cell figures for the map, in tiles (the numbers of the cell tables, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)', units: 'per figure in data/cells/index.json' };
+  return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
+}

@@ -1,0 +1,108 @@
+/**
+ * Stage 4 of a build, the regions: one region at a time, its parts from every merge band it
+ * overlaps are added (double-double sums, so the result does not depend on the bands), its
+ * per-year area-weighted means become normals (pipeline/climate/normals.ts), and its table (tidy
+ * CSV, the wide CSV and the workbook for spreadsheets), its summary and its calculator tile are
+ * written. Memory holds one region.
+ */
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { computeNormals, MONTHLY_COMPLETENESS, NICHE_CAVEAT, NICHE_CLASSES, NICHE_LABELS, nicheClassCode } from '../climate/index.ts';
+import { CELL_YEAR_HIST } from '../reduce/merge.ts';
+import { PERIODS } from '../reduce/figures.ts';
+import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums } from '../regions/region-sums.ts';
+import { ddAddAll, ddAddPair } from '../regions/double-double.ts';
+import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, type RegionRecordRef } from '../formats/region-parts.ts';
+import { regionTableCsv } from '../publish/region-table.ts';
+import { regionSheetInfo, writeRegionSpreadsheets } from '../publish/region-spreadsheets.ts';
+import { STATISTIC_RULES } from '../publish/manifest.ts';
+import { CAUTIONS } from '../work/index.ts';
+import { CODE_VERSION } from '../model/version.ts';
+import { encodeHistogramTile } from '../publish/histogram-tiles.ts';
+import type { RegionFigureNormals } from '../publish/figure-normals.ts';
+import { startProgress } from '../model/progress.ts';
+import type { Logger } from '../model/effects.ts';
+import type { BuildPlan } from './plan-stage.ts';
+import type { MergeTileSummary } from './merge-tile.ts';
+
+export interface RegionOutcome {
+  seconds: number;
+}
+
+export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSummary[], dataDir: string, generated: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
+  const t0 = Date.now();
+  const cfg = plan.rc.config;
+  // What the region workbooks' assumptions sheet says of the build.
+  const sheetInfo = regionSheetInfo({
+    ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
+    work: plan.work, figures: plan.defs, statistics: STATISTIC_RULES, cautions: CAUTIONS,
+  });
+  // Which records of which band files belong to each region.
+  const refs = plan.regions.map(() => [] as Array<{ path: string; ref: RegionRecordRef }>);
+  for (const t of tiles) for (const ref of t.regionParts.records) refs[ref.region].push({ path: t.regionParts.path, ref });
+  mkdirSync(join(dataDir, 'regions'), { recursive: true });
+  mkdirSync(join(dataDir, 'calculator'), { recursive: true });
+  const nY = plan.years.length;
+  const acc = new Float64Array(2 * CELL_YEAR_HIST);
+  const progress = startProgress('regions', plan.regions.length, { quiet });
+  for (let r = 0; r < plan.regions.length; r++) {
+    const region = plan.regions[r];
+    const w = plan.weights[r];
+    const mine = refs[r];
+    // Figures: the parts' sums added, the year series, the normals.
+    let sums: RegionFigureSums[] | undefined;
+    const means = new Float64Array(8);
+    for (const { path, ref } of mine) {
+      if (ref.kind === RECORD_FIGURES) {
+        const part = readFigureSums(path, ref);
+        if (sums === undefined) sums = part;
+        else part.forEach((p, i) => addFigureSums(sums![i], p));
+      } else if (ref.kind === RECORD_MEANS) ddAddAll(means, readMeans(path, ref));
+    }
+    const figures: RegionFigureNormals[] = plan.defs.map((def, i) => {
+      const nItems = PERIODS * def.combos.length;
+      const values = sums ? regionYearValues(sums[i]) : new Float64Array(nY * nItems).fill(NaN);
+      const normals = computeNormals({ years: plan.years, values, nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
+      return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN) };
+    });
+    const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear);
+    writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
+    await writeRegionSpreadsheets(dataDir, region, table, sheetInfo);
+    // Mean annual temperature against the niche.
+    const [mat, latest] = weightedMeans(means, 2);
+    writeFileSync(
+      join(dataDir, 'regions', `${region.id}.json`),
+      JSON.stringify({
+        id: region.id,
+        name: region.name,
+        cells: Array.from(w.cells),
+        coveredFraction: w.coveredFraction,
+        areaKm2: w.regionArea,
+        niche: {
+          baselineMat: mat,
+          latestMat: latest,
+          shift: latest - mat,
+          baselineClass: Number.isFinite(mat) ? NICHE_CLASSES[nicheClassCode(mat)] : null,
+          latestClass: Number.isFinite(latest) ? NICHE_CLASSES[nicheClassCode(latest)] : null,
+          labels: NICHE_LABELS,
+          caveat: NICHE_CAVEAT,
+        },
+      }),
+    );
+    // The calculator's histograms, year by year.
+    const perYear: Float32Array[] = [];
+    for (let y = 0; y < nY; y++) {
+      acc.fill(0);
+      for (const { path, ref } of mine) if (ref.kind === RECORD_HISTOGRAM && ref.year === y) readHistogramInto(path, ref, acc, ddAddPair);
+      const h = new Float32Array(CELL_YEAR_HIST);
+      for (let i = 0; i < CELL_YEAR_HIST; i++) h[i] = acc[2 * i] + acc[2 * i + 1];
+      perYear.push(h);
+    }
+    writeFileSync(join(dataDir, 'calculator', `${region.id}.bin`), encodeHistogramTile(perYear));
+    progress.tick();
+  }
+  progress.done();
+  const seconds = (Date.now() - t0) / 1000;
+  log.info(`${plan.regions.length} region(s): tables, summaries and calculator tiles in ${seconds.toFixed(1)} s`);
+  return { seconds };
+}
