@@ -1,7 +1,7 @@
 /**
  * The data dictionary (`data/data-dictionary.csv`): what every column and every code of the
- * published tables means, so a region table (`data/regions/<region-id>.csv`) or the cell table
- * (`data/atlas-cells.csv`) can be read without the manifest: a label, the unit and the unit in
+ * published tables means, so a region table (`data/regions/<region-id>.csv`) or a cell table
+ * (`data/cell-tables/rows-<first>-<last>.csv`) can be read without the manifest: a label, the unit and the unit in
  * words ("hours per worker per month or year"). The tables keep their columns and codes; this
  * file sits beside them. The site's labels of figures, statistics, acclimatization and exposure
  * come from here too, so a page and the dictionary say the same. Pure: settings in, rows out; the
@@ -13,6 +13,7 @@
  */
 import { csvLine } from './csv.ts';
 import { REGION_TABLE_COLUMNS } from './region-table.ts';
+import { CELL_TABLE_COLUMNS } from './cell-table.ts';
 import { baselineYearCount, p90Description, p90Label } from './baseline-length.ts';
 
 /** Where the dictionary is published, below the site root. */
@@ -22,11 +23,9 @@ export const DATA_DICTIONARY_COLUMNS = ['table', 'column', 'code', 'label', 'uni
 
 export type DictionaryRow = Record<(typeof DATA_DICTIONARY_COLUMNS)[number], string>;
 
-/** The columns of `data/atlas-cells.csv` (pipeline/publish/cell-table.ts), in their order. */
-export const CELL_TABLE_COLUMNS = ['cell_id', 'lat', 'lon', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'mean', 'median', 'p90', 'unit', 'years_used'] as const;
 
 const REGION_TABLE = 'regions/<region-id>.csv';
-const CELL_TABLE = 'atlas-cells.csv';
+const CELL_TABLE = 'cell-tables/rows-<first>-<last>.csv';
 const EVERY = 'every table';
 
 /** Our words for a published figure: a short label, and its unit in words for a month (or year) value. */

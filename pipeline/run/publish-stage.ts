@@ -230,7 +230,7 @@ function readPreviousFacts(dataDir: string): BuildFacts | null {
 function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF with internal tiles, EPSG:4326' };
-  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell table' };
+  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell tables' };
   if (path.endsWith('.wide.csv')) return { kind: 'table', description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic', units: 'h per worker (in each month header)' };
   if (path.endsWith('.xlsx')) return { kind: 'table', description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions', units: 'h per worker, °C (in the headers)' };
   if (path.endsWith('.nc')) return { kind: 'netcdf', description: 'per-cell figures of the whole grid, CF-1.8 NetCDF (64-bit offset): shift hours above the limit and hours lost per worker (baseline mean, median, P90 year, years used) by period and evaluation, mean annual temperature and its niche class', units: 'per variable (units attribute)' };

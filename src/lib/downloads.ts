@@ -114,7 +114,7 @@ const FILE_GROUPS: ReadonlyArray<Omit<FileGroup, 'files' | 'bytes'> & { test: (p
   { id: 'region-summaries', title: 'Region summaries', about: 'Per region: grid cells covered, area, mean annual temperature against the human climate niche (JSON).', open: false, test: (p) => /^data\/regions\/[^/]+\.json$/.test(p) },
   { id: 'region-tiles', title: 'Calculator tiles per region', about: 'Hours of WBGT per bin, year, month, local hour and exposure for each region; the calculator reads them (format in calculator/index.json).', open: false, test: (p) => /^data\/calculator\/[^/]+$/.test(p) },
   { id: 'cell-tiles', title: 'Calculator tiles per grid cell', about: 'The same histograms for every land cell, in chunks of consecutive cells; the calculator reads them for a point.', open: false, test: (p) => p.startsWith('data/calculator/cells/') },
-  { id: 'cell-figures', title: 'Per-cell figures for the map', about: 'The numbers of atlas-cells.csv and more, in small tiles that the map page reads for a clicked cell.', open: false, test: (p) => p.startsWith('data/cells/') },
+  { id: 'cell-figures', title: 'Per-cell figures for the map', about: 'The numbers of the cell tables and more, in small tiles that the map page reads for a clicked cell.', open: false, test: (p) => p.startsWith('data/cells/') },
 ];
 
 /**

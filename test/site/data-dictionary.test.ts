@@ -1,7 +1,7 @@
 /**
  * The data dictionary (`data/data-dictionary.csv`, pipeline/publish/data-dictionary.ts) of the
  * pipeline-made test atlas: it explains every column and every code that the region tables and
- * the cell table hold, with a label and the unit in words, and a spreadsheet reads it as UTF-8.
+ * the cell tables hold, with a label and the unit in words, and a spreadsheet reads it as UTF-8.
  * Outside check: Python's csv module (Debian's python3) reads the dictionary with the
  * `utf-8-sig` codec, as a spreadsheet-minded reader would, and the tables with plain UTF-8.
  */
@@ -10,7 +10,8 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from './pipeline-data.ts';
-import { CELL_TABLE_COLUMNS, DATA_DICTIONARY_COLUMNS, DATA_DICTIONARY_PATH, dataDictionaryCsv, figureWords } from '../../pipeline/publish/data-dictionary.ts';
+import { DATA_DICTIONARY_COLUMNS, DATA_DICTIONARY_PATH, dataDictionaryCsv, figureWords } from '../../pipeline/publish/data-dictionary.ts';
+import { CELL_TABLE_COLUMNS } from '../../pipeline/publish/cell-table.ts';
 import { REGION_TABLE_COLUMNS } from '../../pipeline/publish/region-table.ts';
 
 let dataDir = '';
@@ -46,14 +47,17 @@ describe('the data dictionary beside the tables', () => {
 
   it('explains every column, and every code found in the region tables and the cell table, with a label; hour figures carry their unit in words', () => {
     const [dict] = pythonCsv([join(dataDir, DATA_DICTIONARY_PATH)], 'utf-8-sig');
-    const regionFiles = readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv')).map((f) => join(dataDir, 'data/regions', f));
-    const tables = pythonCsv([...regionFiles, join(dataDir, 'data/atlas-cells.csv')], 'utf-8');
+    // The tidy region tables (the wide ones carry their labels and units in their own header) and the cell tables.
+    const regionFiles = readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv')).map((f) => join(dataDir, 'data/regions', f));
+    const cellFiles = readdirSync(join(dataDir, 'data/cell-tables')).filter((f) => f.endsWith('.csv')).map((f) => join(dataDir, 'data/cell-tables', f));
+    expect(cellFiles.length).toBeGreaterThan(0);
+    const tables = pythonCsv([...regionFiles, ...cellFiles], 'utf-8');
     const columnRow = (table: string, column: string) => dict.rows.find((r) => r.table === table && r.column === column && r.code === '');
     for (const c of REGION_TABLE_COLUMNS) expect(columnRow('regions/<region-id>.csv', c), c).toBeDefined();
-    for (const c of CELL_TABLE_COLUMNS) expect(columnRow('atlas-cells.csv', c), c).toBeDefined();
+    for (const c of CELL_TABLE_COLUMNS) expect(columnRow('cell-tables/rows-<first>-<last>.csv', c), c).toBeDefined();
     // The tables keep their columns and their order.
-    for (const t of tables.slice(0, -1)) expect(t.header).toEqual([...REGION_TABLE_COLUMNS]);
-    expect(tables[tables.length - 1].header).toEqual([...CELL_TABLE_COLUMNS]);
+    for (const t of tables.slice(0, regionFiles.length)) expect(t.header).toEqual([...REGION_TABLE_COLUMNS]);
+    for (const t of tables.slice(regionFiles.length)) expect(t.header).toEqual([...CELL_TABLE_COLUMNS]);
     const coded = ['period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'unit', 'baseline'];
     const codes = new Map(coded.map((c) => [c, new Set<string>()]));
     for (const t of tables) for (const r of t.rows) for (const c of coded) if (r[c] !== undefined && r[c] !== '') codes.get(c)!.add(r[c]);
