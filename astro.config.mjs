@@ -1,11 +1,15 @@
 // The Astro site's configuration. pipeline/publish/site.ts calls Astro's build() with this file
-// plus the data folder (HEATHOURS_DATA_DIR) and the output folder. Everything the pages load is a
+// plus the data folder (HEATHOURS_DATA_DIR), the output folder and the base path the site is served
+// under (HEATHOURS_SITE_BASE, from the atlas config's `site.base`; `/` by default). Every link and
+// fetch of the pages goes through that base (src/lib/nav.ts sitePath), none is root-absolute, so
+// the site can live in a sub-folder of a host. Everything the pages load is a
 // file of the site's own origin: no inline scripts or styles (they would break the
 // Content-Security-Policy in src/lib/content-security-policy.ts), no remote fonts or assets.
 import { defineConfig } from 'astro/config';
 
 export default defineConfig({
   output: 'static',
+  base: process.env.HEATHOURS_SITE_BASE || '/',
   trailingSlash: 'ignore',
   build: {
     format: 'directory',

@@ -44,6 +44,17 @@ export const datasetSchema = z
   })
   .strict();
 
+/**
+ * The URL path the site is served under: `/` at a host's root, or a sub-folder such as
+ * `/atlas/2025/`. Written with or without the final slash; stored with it. Letters, digits and
+ * `.-_~` in each part, no `..`.
+ */
+export const siteBaseSchema = z
+  .string()
+  .regex(/^\/(?:[A-Za-z0-9_~-][A-Za-z0-9._~-]*\/?)*$/, 'a URL path such as / or /atlas/ (start with /; letters, digits and . - _ ~ in each part)')
+  .refine((b) => !b.split('/').some((p) => p === '..' || p === '.'), 'no . or .. parts')
+  .transform((b) => (b.endsWith('/') ? b : `${b}/`));
+
 export const atlasSchema = z
   .object({
     /** Identifier of the atlas, used in file names: lower case, digits and dashes. */
@@ -61,6 +72,8 @@ export const atlasSchema = z
     regions: z.string().min(1),
     /** Output folder of the built site, relative to the config file. */
     output: z.string().default('../dist'),
+    /** How the site is hosted: `base`, the URL path it is served under (default `/`). */
+    site: z.object({ base: siteBaseSchema.default('/') }).strict().default({}),
     /** Modelling choices of the physics: the globe diameter (pipeline/physics/settings.ts). */
     physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */

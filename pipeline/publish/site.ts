@@ -35,12 +35,17 @@ export interface BuildSiteOptions {
   outDir: string;
   /** No log lines but errors. */
   quiet?: boolean;
+  /** URL path the site is served under (config `site.base`), e.g. `/atlas/`; default `/`. */
+  base?: string;
   /**
    * Move `dataDir/data` into the site instead of copying it (a build's staging folder, on the same
    * disk as `outDir`): no second copy of a large atlas's data.
    */
   moveData?: boolean;
 }
+
+/** Environment variable that carries the site's base path into astro.config.mjs. */
+export const SITE_BASE_ENV = 'HEATHOURS_SITE_BASE';
 
 /** Checks the data folder before the (slow) Astro build, with catalogued errors. */
 export function checkSiteData(dataDir: string): void {
@@ -72,7 +77,13 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   await replaceDirAtomic(outDir, async (tmp) => {
     const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
     const previous = process.env[DATA_DIR_ENV];
+    const previousBase = process.env[SITE_BASE_ENV];
+    // Vite lets a BASE_URL variable of the environment (vitest sets one, so may a CI) win over
+    // Astro's base in import.meta.env.BASE_URL: it is taken away for the build.
+    const previousBaseUrl = process.env.BASE_URL;
+    delete process.env.BASE_URL;
     process.env[DATA_DIR_ENV] = dataDir;
+    process.env[SITE_BASE_ENV] = opts.base ?? '/';
     process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
     try {
       const { build } = await import('astro');
@@ -90,6 +101,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
             outDir: tmp,
             cacheDir,
             mode: 'production',
+            base: opts.base ?? '/',
             logLevel: opts.quiet ? 'error' : 'info',
           }),
           { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
@@ -104,6 +116,9 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
     } finally {
       if (previous === undefined) delete process.env[DATA_DIR_ENV];
       else process.env[DATA_DIR_ENV] = previous;
+      if (previousBase === undefined) delete process.env[SITE_BASE_ENV];
+      else process.env[SITE_BASE_ENV] = previousBase;
+      if (previousBaseUrl !== undefined) process.env.BASE_URL = previousBaseUrl;
       await rm(cacheDir, { recursive: true, force: true });
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.

@@ -26,6 +26,7 @@ import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, public
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
 import { rowsId } from './rows-id.ts';
 import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
+import { shortBaselineWarning } from '../publish/baseline-length.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -105,6 +106,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
 
   log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
+  const baselineWarning = shortBaselineWarning(cfg.baseline);
+  if (baselineWarning) log.warn(baselineWarning);
   const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
   const ds = await openDataset(rc.inputFiles, datasetOptions);
   try {

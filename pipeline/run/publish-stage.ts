@@ -23,6 +23,8 @@ import { nicheJsonHead, NICHE_JSON_TAIL } from '../publish/niche-json.ts';
 import { makeInventory } from '../publish/inventory.ts';
 import { compareBuilds, type BuildFacts, type RegionTables } from '../publish/changes.ts';
 import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
+import { DATA_DICTIONARY_PATH, dataDictionaryCsv } from '../publish/data-dictionary.ts';
+import { LOSS_VIEWS } from '../reduce/layout.ts';
 import { fileSummaryCache } from './summary-cache.ts';
 import type { BuildPlan } from './plan-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
@@ -100,8 +102,12 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
   });
   await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
   if (changes.hasPrevious) {
-    log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.moves.length} figure moves listed`);
+    log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`);
   }
+  await writeFile(join(p.stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
+    figures: plan.defs, classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
+    lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear,
+  }));
 
   const artefacts = await listArtefacts(p.stage, describeArtefact);
   const work = plan.work;
@@ -224,6 +230,7 @@ function readPreviousFacts(dataDir: string): BuildFacts | null {
 function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF with internal tiles, EPSG:4326' };
+  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell tables' };
   if (path.endsWith('.wide.csv')) return { kind: 'table', description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic', units: 'h per worker (in each month header)' };
   if (path.endsWith('.xlsx')) return { kind: 'table', description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions', units: 'h per worker, °C (in the headers)' };
   if (path.endsWith('.nc')) return { kind: 'netcdf', description: 'per-cell figures of the whole grid, CF-1.8 NetCDF (64-bit offset): shift hours above the limit and hours lost per worker (baseline mean, median, P90 year, years used) by period and evaluation, mean annual temperature and its niche class', units: 'per variable (units attribute)' };

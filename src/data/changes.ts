@@ -26,7 +26,7 @@ const move = z.object({
 });
 
 export const changesSchema = z.object({
-  version: z.literal(1),
+  version: z.literal(2),
   hasPrevious: z.boolean(),
   previous: z.object({ buildTime: z.string(), codeVersion: z.string(), years: yearRange, baseline: yearRange }).optional(),
   yearsAdded: z.array(z.number().int()),
@@ -35,6 +35,8 @@ export const changesSchema = z.object({
   inputs: z.object({ added: z.array(z.string()), changed: z.array(z.string()), removed: z.array(z.string()) }),
   codeChanged: z.boolean(),
   configChanged: z.boolean(),
+  normals: z.object({ compared: z.number().int().nonnegative(), moved: z.number().int().nonnegative(), largest: z.number().nonnegative(), moves: z.array(move) }),
+  latest: z.array(move),
   moves: z.array(move),
   regionsAdded: z.array(z.string()),
   regionsRemoved: z.array(z.string()),

@@ -96,3 +96,39 @@ export function regionOfPath(path: string): string | undefined {
   const m = path.match(/^data\/(?:regions|calculator)\/([a-z0-9-]+)\.(csv|json|bin)$/);
   return m ? m[1] : undefined;
 }
+
+/** A fold of the "other data files": files of one purpose, with their count and total size. */
+export interface FileGroup {
+  id: 'site' | 'region-summaries' | 'region-tiles' | 'cell-tiles' | 'cell-figures';
+  title: string;
+  /** What the files are for, one sentence. */
+  about: string;
+  files: ManifestArtefact[];
+  bytes: number;
+  /** Few files a reader looks for: shown open. */
+  open: boolean;
+}
+
+const FILE_GROUPS: ReadonlyArray<Omit<FileGroup, 'files' | 'bytes'> & { test: (path: string) => boolean }> = [
+  { id: 'site', title: 'Atlas files', about: 'The dataset inventory, the region outlines, what changed since the previous build, and the niche class of each cell.', open: true, test: (p) => /^data\/[^/]+$/.test(p) },
+  { id: 'region-summaries', title: 'Region summaries', about: 'Per region: grid cells covered, area, mean annual temperature against the human climate niche (JSON).', open: false, test: (p) => /^data\/regions\/[^/]+\.json$/.test(p) },
+  { id: 'region-tiles', title: 'Calculator tiles per region', about: 'Hours of WBGT per bin, year, month, local hour and exposure for each region; the calculator reads them (format in calculator/index.json).', open: false, test: (p) => /^data\/calculator\/[^/]+$/.test(p) },
+  { id: 'cell-tiles', title: 'Calculator tiles per grid cell', about: 'The same histograms for every land cell, in chunks of consecutive cells; the calculator reads them for a point.', open: false, test: (p) => p.startsWith('data/calculator/cells/') },
+  { id: 'cell-figures', title: 'Per-cell figures for the map', about: 'The numbers of the cell tables and more, in small tiles that the map page reads for a clicked cell.', open: false, test: (p) => p.startsWith('data/cells/') },
+];
+
+/**
+ * The "other data files" of {@link downloadGroups} in folds by purpose (the map's and the
+ * calculator's tiles are most of the files, and few readers want them one by one). Every file is
+ * in exactly one group: a path no rule knows goes to the first group, the atlas files.
+ */
+export function otherFileGroups(others: readonly ManifestArtefact[]): FileGroup[] {
+  const groups: FileGroup[] = FILE_GROUPS.map(({ test: _test, ...g }) => ({ ...g, files: [], bytes: 0 }));
+  for (const a of others) {
+    const i = FILE_GROUPS.findIndex((g) => g.test(a.path));
+    const g = groups[i < 0 ? 0 : i];
+    g.files.push(a);
+    g.bytes += a.bytes;
+  }
+  return groups.filter((g) => g.files.length > 0);
+}

@@ -7,6 +7,9 @@ import type { RegionCollection } from '../data/regions.ts';
 import type { ManifestLayers } from '../data/manifest-layers.ts';
 import { comboColumns } from '../../pipeline/publish/combo.ts';
 import { LOSS_VIEWS } from '../../pipeline/reduce/layout.ts';
+import { baselineYearCount, p90Label, shortBaselineWarning } from '../../pipeline/publish/baseline-length.ts';
+import { valueUnitWords } from '../../pipeline/publish/data-dictionary.ts';
+import { labelPoint } from './label-point.ts';
 import type {
   ExplorerCatalogue,
   ExplorerChoice,
@@ -31,10 +34,21 @@ export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclim
 export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade (open sky, sun removed)' };
 export const STATISTIC_LABELS: Readonly<Record<string, string>> = {
   mean: 'Mean year',
-  p90: 'P90 (a hot year, 1 in 10)',
   baseline: 'Baseline mean',
   class: 'Class of the baseline mean',
 };
+
+/** A statistic's menu label; the P90 says how many baseline years it rests on (`n`). */
+export function statisticChoiceLabel(id: string, n: number): string {
+  return id === 'p90' ? p90Label(n) : (STATISTIC_LABELS[id] ?? id);
+}
+
+/** The unit of a map figure's value in words, per month and per year. */
+function unitWordsOf(figure: string, units: string): { month: string; year: string } {
+  if (figure === 'mean-annual-temperature') return { month: 'degrees Celsius (mean of the year)', year: 'degrees Celsius (mean of the year)' };
+  if (figure === 'niche-class') return { month: 'class of the mean annual temperature', year: 'class of the mean annual temperature' };
+  return { month: valueUnitWords(figure, units, 'month'), year: valueUnitWords(figure, units, 'year') };
+}
 export const MONTH_NAMES = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
 
 /** "January" … "December" for `01`–`12`, "Whole year" for `year`. */
@@ -85,6 +99,8 @@ export function emptyCatalogue(invented: boolean): ExplorerCatalogue {
     available: false,
     invented,
     baseline: [0, 0],
+    baselineYears: 0,
+    baselineWarning: null,
     latestYear: 0,
     figures: [],
     choices: { workloadClass: [], acclimatization: [], exposure: [], loss: [], statistic: [], period: [] },
@@ -132,7 +148,7 @@ export function explorerCatalogue(
     const def = manifest.figures.find((f) => f.id === id);
     const first = layers.find((l) => l.figure === id)!;
     const title = legends[first.legend].title ?? id;
-    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units };
+    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units, unitWords: unitWordsOf(id, first.units) };
   });
 
   const classes = manifest.work.classes;
@@ -148,11 +164,11 @@ export function explorerCatalogue(
     acclimatization: choice(ordered(pick((v) => v.acclimatization), manifest.work.acclimatization), (id) => ACCLIMATIZATION_LABELS[id] ?? id),
     exposure: choice(ordered(pick((v) => v.exposure), manifest.work.exposures), (id) => EXPOSURE_LABELS[id] ?? id),
     loss: choice(ordered(pick((v) => v.loss), LOSS_VIEWS.map((v) => v.id)), lossLabel),
-    statistic: choice(ordered(layers.map((l) => l.statistic), Object.keys(STATISTIC_LABELS)), (id) => STATISTIC_LABELS[id] ?? id),
+    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', 'baseline', 'class']), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
     period: choice(ordered(layers.map((l) => l.period), [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year']), periodName),
   };
 
-  const regionList: ExplorerRegion[] = regions.features.map((f) => ({ id: f.properties.id, name: f.properties.name, bbox: bboxOf(f) }));
+  const regionList: ExplorerRegion[] = regions.features.map((f) => ({ id: f.properties.id, name: f.properties.name, bbox: bboxOf(f), label: labelPoint(f.geometry) }));
   const defaultFigure = figureIds.includes('hours-lost-shift') ? 'hours-lost-shift' : (figureIds[0] ?? '');
   const defaults = {
     figure: defaultFigure,
@@ -171,6 +187,8 @@ export function explorerCatalogue(
     available: layers.length > 0,
     invented: manifest.atlas.invented,
     baseline: manifest.baseline,
+    baselineYears: baselineYearCount(manifest.baseline),
+    baselineWarning: shortBaselineWarning(manifest.baseline),
     latestYear: manifest.latestYear,
     figures,
     choices,

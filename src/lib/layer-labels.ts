@@ -4,6 +4,7 @@
  * Pure; the workload classes come from the manifest's work settings.
  */
 import { LOSS_VIEWS } from '../../pipeline/reduce/layout.ts';
+import { p90Label } from '../../pipeline/publish/baseline-length.ts';
 
 /** A workload class as the manifest lists it. */
 export interface ClassLabel {
@@ -44,8 +45,12 @@ const STATISTICS: Record<string, string> = {
   latest: 'Latest year',
 };
 
-/** Label of a statistic key. */
-export function statisticLabel(statistic: string): string {
+/**
+ * Label of a statistic key; the P90 names the number of baseline years `baselineYears` it rests
+ * on when given (pipeline/publish/baseline-length.ts p90Label: "P90 of 4 years (near the highest)").
+ */
+export function statisticLabel(statistic: string, baselineYears?: number): string {
+  if (statistic === 'p90' && baselineYears !== undefined) return p90Label(baselineYears);
   return STATISTICS[statistic] ?? statistic;
 }
 

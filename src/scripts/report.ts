@@ -2,8 +2,9 @@
  * The region report's small script (the page works without it):
  * - the hour table's "mark hours above the limit for" control: shown only with JavaScript; it
  *   marks the cells whose `data-above-<state>` lists the chosen class (class `above`);
- * - before printing, every closed <details> is opened (and closed again afterwards), and the
- *   source line gets the page's full address.
+ * - before printing, every closed <details> is opened (and closed again afterwards) except those
+ *   the print leaves out (`.print-omit`), and the source line and the downloads line get full
+ *   addresses (`data-page-url`, `data-print-url`: the page's own origin and base).
  */
 
 function setupMarking(): void {
@@ -31,7 +32,7 @@ function setupMarking(): void {
 function setupPrint(): void {
   let opened: HTMLDetailsElement[] = [];
   window.addEventListener('beforeprint', () => {
-    opened = [...document.querySelectorAll<HTMLDetailsElement>('details:not([open])')];
+    opened = [...document.querySelectorAll<HTMLDetailsElement>('details:not([open]):not(.print-omit)')];
     for (const d of opened) d.open = true;
   });
   window.addEventListener('afterprint', () => {
@@ -39,6 +40,7 @@ function setupPrint(): void {
     opened = [];
   });
   for (const el of document.querySelectorAll<HTMLElement>('[data-page-url]')) el.textContent = location.href.split('?')[0];
+  for (const el of document.querySelectorAll<HTMLElement>('[data-print-url]')) el.textContent = new URL(el.dataset.printUrl ?? '', location.href).href;
 }
 
 setupMarking();

@@ -12,7 +12,9 @@ import {
   UNIT_STORAGE_KEY,
   formatTemperature,
   formatTemperatureDelta,
+  formatTemperatureList,
   parseUnit,
+  temperatureTextIn,
   unitSymbol,
   type TemperatureUnit,
 } from '../lib/units.ts';
@@ -33,7 +35,15 @@ export function applyUnits(unit: TemperatureUnit, root: ParentNode = document): 
   }
   for (const el of root.querySelectorAll<HTMLElement>('[data-temp-delta-c]')) {
     const digits = Number(el.dataset.digits ?? 1);
-    el.textContent = formatTemperatureDelta(Number(el.dataset.tempDeltaC), unit, digits);
+    // A difference keeps the sign style it was rendered with: "+0.5 °C" or, after a "+" of its own, "1 °C".
+    el.dataset.deltaSign ??= (el.textContent ?? '').trim().startsWith('+') ? 'plus' : 'none';
+    el.textContent = formatTemperatureDelta(Number(el.dataset.tempDeltaC), unit, digits, el.dataset.deltaSign === 'plus');
+  }
+  for (const el of root.querySelectorAll<HTMLElement>('[data-temp-list-c]')) {
+    el.textContent = formatTemperatureList((el.dataset.tempListC ?? '').split(',').map(Number), unit);
+  }
+  for (const el of root.querySelectorAll<Element>('[data-temp-text]')) {
+    el.textContent = temperatureTextIn(el.getAttribute('data-temp-text') ?? '', unit);
   }
   for (const el of root.querySelectorAll<HTMLElement>('[data-unit-label]')) el.textContent = unitSymbol(unit);
 }

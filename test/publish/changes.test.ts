@@ -44,6 +44,32 @@ describe('what changed since the previous build', () => {
     // Monthly rows and the min statistic are not compared; °C and h are ranked apart.
     expect(c.moves.map((m) => [m.unit, m.workloadClass, m.change])).toEqual([['degC', '', 0.5], ['h', 'high', 12.5], ['h', 'low', 1]]);
     expect(c.moves[1]).toMatchObject({ regionName: 'Region one', before: 100, after: 112.5, statistic: 'mean' });
+    // The normals a bid uses lead: annual mean and P90 of hours lost and above the limit only.
+    expect(c.normals).toMatchObject({ compared: 2, moved: 2, largest: 12.5 });
+    expect(c.normals.moves.map((m) => [m.workloadClass, m.change])).toEqual([['high', 12.5], ['low', 1]]);
+    expect(c.latest).toEqual([]);
+  });
+
+  it('tells the normals from the latest year: a new latest year moves only the latest rows, and an unchanged baseline says no normal moved', () => {
+    const rows = (mean: number, p90: number, latest: number) => csv([
+      `r1,year,hours-lost-shift,high,acclimatized,sun,limit,mean,${mean},h,4,2020-2023`,
+      `r1,year,hours-lost-shift,high,acclimatized,sun,limit,p90,${p90},h,4,2020-2023`,
+      `r1,year,hours-above-limit-shift,high,acclimatized,sun,limit,mean,${mean * 2},h,4,2020-2023`,
+      `r1,year,hours-lost-shift,high,acclimatized,sun,limit,latest,${latest},h,1,2024`,
+      `r1,year,hours-above-limit-all,high,acclimatized,sun,limit,mean,${mean * 3},h,4,2020-2023`,
+    ]);
+    const c = compareBuilds(facts({ years: [2020, 2023], regionTables: tablesInMemory(new Map([['r1', rows(100, 130, 90)]])) }), facts({ years: [2020, 2024], regionTables: tablesInMemory(new Map([['r1', rows(100, 130, 141.5)]])) }));
+    expect(c.baselineChanged).toBe(false);
+    expect(c.normals).toEqual({ compared: 3, moved: 0, largest: 0, moves: [] });
+    expect(c.latest.map((m) => [m.figure, m.statistic, m.before, m.after, m.change])).toEqual([['hours-lost-shift', 'latest', 90, 141.5, 51.5]]);
+    // A figure a bid does not use (day-and-night hours) is no normal of the comparison.
+    const moved = compareBuilds(facts({ regionTables: tablesInMemory(new Map([['r1', rows(100, 130, 90)]])) }), facts({ regionTables: tablesInMemory(new Map([['r1', rows(101, 129, 90)]])) }));
+    expect(moved.normals.moved).toBe(3);
+    expect(moved.normals.moves.map((m) => [m.figure, m.statistic, m.change])).toEqual([
+      ['hours-above-limit-shift', 'mean', 2],
+      ['hours-lost-shift', 'mean', 1],
+      ['hours-lost-shift', 'p90', -1],
+    ]);
   });
 
   it('says there is no previous build for a first build', () => {

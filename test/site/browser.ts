@@ -51,9 +51,10 @@ function listFiles(dir: string): string[] {
   return out.sort();
 }
 
-/** Digest of everything a site build depends on (sources, static files, config, pipeline code, data). */
-export function siteInputsDigest(dataDir: string): string {
+/** Digest of everything a site build depends on (sources, static files, config, pipeline code, data, base path). */
+export function siteInputsDigest(dataDir: string, base = '/'): string {
   const h = createHash('sha256');
+  h.update(`base ${base}\0`);
   const inputs = [
     ...listFiles(join(PROJECT_ROOT, 'src')),
     ...listFiles(join(PROJECT_ROOT, 'public')),
@@ -131,17 +132,19 @@ export interface TestSiteBuild {
 /**
  * Builds the site from `dataDir` with `buildSite` (in a child process), or reuses the build of
  * the same inputs from an earlier test file or run. `dataDir` is usually the pipeline-made test
- * data (`(await buildPipelineData()).dataDir`, test/site/pipeline-data.ts).
+ * data (`(await buildPipelineData()).dataDir`, test/site/pipeline-data.ts); `base` is the URL path
+ * the site is built for (config `site.base`, default `/`).
  */
-export async function buildTestSite(dataDir: string): Promise<TestSiteBuild> {
-  const digest = siteInputsDigest(dataDir);
+export async function buildTestSite(dataDir: string, opts: { base?: string } = {}): Promise<TestSiteBuild> {
+  const base = opts.base ?? '/';
+  const digest = siteInputsDigest(dataDir, base);
   const distDir = join(BUILDS_DIR, digest, 'dist');
   await mkdir(BUILDS_DIR, { recursive: true });
   return withLock(join(BUILDS_DIR, `${digest}.lock`), async () => {
     if (existsSync(join(distDir, 'index.html'))) return { distDir, reused: true, buildMs: 0 };
     await pruneOldBuilds(digest);
     const t0 = Date.now();
-    await run(process.execPath, ['--import', 'tsx', join(PROJECT_ROOT, 'test/site/build-site-child.ts'), dataDir, distDir], {
+    await run(process.execPath, ['--import', 'tsx', join(PROJECT_ROOT, 'test/site/build-site-child.ts'), dataDir, distDir, base], {
       cwd: PROJECT_ROOT,
       env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' },
       maxBuffer: 16 * 1024 * 1024,

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { geoArea, geoContains } from 'd3-geo';
-import { interpolateInferno, interpolateViridis } from 'd3-scale-chromatic';
+import { interpolateCividis, interpolateReds } from 'd3-scale-chromatic';
 import type { Polygon } from 'geojson';
 import { buildMonthlyBars } from '../../src/lib/charts/monthly-bars.ts';
 import { buildHeatMap } from '../../src/lib/charts/heat-map.ts';
@@ -27,7 +27,11 @@ import { WBGT_BIN_EDGES, WBGT_HISTOGRAM_LENGTH } from '../../pipeline/work/wbgt-
 
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 /** d3-scale-chromatic's ramps return `#rrggbb`; compare in lower case. */
-const hex = (c: string) => c.toLowerCase();
+/** A colour as `#rrggbb` in lower case (d3-scale-chromatic returns `#rrggbb` or `rgb(r, g, b)`). */
+const hex = (c: string) => {
+  const m = /^rgb\((\d+), ?(\d+), ?(\d+)\)$/.exec(c);
+  return m ? `#${m.slice(1).map((v) => Number(v).toString(16).padStart(2, '0')).join('')}` : c.toLowerCase();
+};
 
 describe('monthly bar chart', () => {
   const means = [0, 1, 3, 10, 40, 70, 90, 95, 60, 20, 5, 0.5];
@@ -91,14 +95,14 @@ describe('heat map of typical WBGT', () => {
   const hours = Array.from({ length: 24 }, (_, h) => String(h));
   const g = buildHeatMap({ columns: MONTHS, rows: hours, value, domain, limits: [{ key: 'x', label: 'X', value: 28.21 }] });
 
-  it('colours each cell with inferno at its place in the 10–35 °C domain (clamped), and marks missing cells grey', () => {
+  it('colours each cell with the temperature ramp (cividis, as the map layers) at its place in the 10–35 °C domain (clamped), and marks missing cells grey', () => {
     expect(g.cells).toHaveLength(12 * 24);
     for (const c of g.cells) {
       const v = value(c.col, c.row);
       if (Number.isNaN(v)) expect(c.fill).toBe(NO_DATA_COLOUR);
       else {
         const t = Math.min(1, Math.max(0, ((v === Infinity ? 35 : v) - 10) / 25));
-        expect(hex(c.fill)).toBe(hex(interpolateInferno(t)));
+        expect(hex(c.fill)).toBe(hex(interpolateCividis(t)));
       }
     }
   });
@@ -136,11 +140,11 @@ describe('heat map of typical WBGT', () => {
     expect(g.legend.ticks.map((t) => t.value)).toContain(20);
     for (const t of g.legend.ticks) expect(t.x).toBeCloseTo(pos(t.value), 9);
     expect(g.limitTicks[0].x).toBeCloseTo(pos(28.21), 9);
-    // The swatches run the whole legend with inferno's colours in order.
+    // The swatches run the whole legend with the temperature ramp's colours in order.
     expect(g.legend.swatches[0].x).toBeCloseTo(x, 9);
     const last = g.legend.swatches[g.legend.swatches.length - 1];
     expect(last.x + last.width).toBeCloseTo(x + width, 9);
-    for (const s of g.legend.swatches) expect(hex(s.fill)).toBe(hex(interpolateInferno((s.value - 10) / 25)));
+    for (const s of g.legend.swatches) expect(hex(s.fill)).toBe(hex(interpolateCividis((s.value - 10) / 25)));
   });
 });
 
@@ -194,7 +198,7 @@ describe('home region map', () => {
     expect(rewindForD3(fixed)).toBe(fixed);
   });
 
-  it('fits the regions inside the frame, fills each from reversed viridis by its value, and keeps each centroid inside its outline', () => {
+  it('fits the regions inside the frame, fills each from the hours ramp (Reds, as the map layers: white for none, dark red for many) by its value, and keeps each centroid inside its outline', () => {
     const g = buildRegionMap({
       regions: [
         { id: 'a', name: 'A', geometry: ccw(-146, 20), value: 0 },
@@ -202,8 +206,8 @@ describe('home region map', () => {
         { id: 'c', name: 'C', geometry: ccw(-146, 21), value: NaN },
       ],
     });
-    expect(hex(g.regions[0].fill)).toBe(hex(interpolateViridis(1)));
-    expect(hex(g.regions[1].fill)).toBe(hex(interpolateViridis(0)));
+    expect(hex(g.regions[0].fill)).toBe(hex(interpolateReds(0)));
+    expect(hex(g.regions[1].fill)).toBe(hex(interpolateReds(1)));
     expect(g.regions[2].fill).toBe(NO_DATA_COLOUR);
     for (const r of g.regions) {
       const nums = [...r.d.matchAll(/[\d.]+/g)].map((m) => Number(m[0]));

@@ -123,7 +123,9 @@ describe('the downloads page', () => {
             expect(cell.text).toBe(`GeoTIFF ${formatBytes(size.get(layer.tif)!)} · PNG ${formatBytes(size.get(layer.png)!)}`);
           });
         }
-        expect(combo.statLabels).toEqual(combo.stats.map(statisticLabel));
+        // The P90 names the test atlas's 2 baseline years.
+        expect(combo.statLabels).toEqual(combo.stats.map((st) => statisticLabel(st, manifest.baseline[1] - manifest.baseline[0] + 1)));
+        if (combo.stats.includes('p90')) expect(combo.statLabels).toContain('P90 of 2 years (near the highest)');
       }
     }
     expect(cellsSeen).toBe(manifest.layers.length);
@@ -138,8 +140,11 @@ describe('the downloads page', () => {
     }
   });
 
-  it('opens a combination without JavaScript (details and summary) and every link answers 200', async () => {
-    const first = page.locator('details.layer-combo').first();
+  it('opens a figure and then a combination without JavaScript (details and summary) and every link answers 200', async () => {
+    const figure = page.locator('details.layer-figure-combos').first();
+    expect(await figure.evaluate((d) => (d as HTMLDetailsElement).open)).toBe(false);
+    await figure.locator('summary').first().click();
+    const first = figure.locator('details.layer-combo').first();
     expect(await first.evaluate((d) => (d as HTMLDetailsElement).open)).toBe(false);
     await first.locator('summary').click();
     expect(await first.evaluate((d) => (d as HTMLDetailsElement).open)).toBe(true);
@@ -148,6 +153,12 @@ describe('the downloads page', () => {
     const hrefs = [...new Set((await links()).map((l) => l.href))];
     const statuses = await Promise.all(hrefs.map(async (h) => (await fetch(new URL(h.slice(1), session.baseUrl), { method: 'HEAD' })).status));
     expect(statuses.filter((s) => s !== 200)).toEqual([]);
+  });
+
+  it('lists the data dictionary first among the tables and explains it beside the region tables', async () => {
+    expect(await page.$eval('#table-files tbody tr', (tr) => tr.getAttribute('data-path'))).toBe('data/data-dictionary.csv');
+    expect(await page.textContent('#dictionary-note')).toMatch(/label and the unit in words/);
+    expect(await page.getAttribute('#dictionary-note a', 'href')).toBe('#dictionary-file');
   });
 
   it('shows the region named with HTML as text beside its files, and says the data are invented', async () => {

@@ -2,7 +2,7 @@
  * Browser tests of the home page's region figures (the build-time SVG map and the ranking), on a
  * site built from the data folder the real pipeline makes (test/site/pipeline-data.ts), served on
  * 127.0.0.1 in Debian's headless Chromium. The ranking is checked against the regions' CSV files
- * read here; the map's colours against d3-scale-chromatic's viridis (reversed: more hours darker),
+ * read here; the map's colours against d3-scale-chromatic's Reds, the hours ramp (more hours darker),
  * by relative luminance (WCAG 2 definition) falling as the hours rise.
  */
 import { readFileSync } from 'node:fs';
@@ -120,6 +120,7 @@ describe('the home page with the atlas figures', () => {
 
   it("a region's outline on the map opens its report", async () => {
     const page = (await session.open('/')).page;
+    await page.locator('#region-map').scrollIntoViewIfNeeded();
     // A point of the window where Kell Highlands' outline is the topmost shape (regions may overlap).
     const point = await page.$eval('#region-map a[data-region-id="kell-highlands"] path', (path) => {
       const box = path.getBoundingClientRect();

@@ -22,6 +22,9 @@ import { cellAt, cellCentre, cellPolygon, chunkOfCell, moveCell, type CellGrid }
 import { distanceToOutlineKm, outlineHolds, regionsForPoint } from '../../src/components/map/explorer/nearest-region.ts';
 import { formatLayerValue, labelInUnit, legendTickLabel } from '../../src/components/map/explorer/value-format.ts';
 import { cellChunkId } from '../../pipeline/publish/cell-figures.ts';
+import { searchMap } from '../../src/components/map/explorer/map-search.ts';
+import { legendRangeNote } from '../../src/components/map/explorer/legend-range.ts';
+import { labelPoint } from '../../src/lib/label-point.ts';
 import type { ExplorerCatalogue } from '../../src/components/map/explorer/catalogue.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 
@@ -83,6 +86,11 @@ describe('the explorer catalogue of a real pipeline build', () => {
     expect(catalogue.choices.workloadClass.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
     expect(catalogue.choices.workloadClass[1].label).toBe('Moderate work rate (300 W)');
     expect(catalogue.choices.statistic.map((c) => c.id)).toEqual(['mean', 'p90', 'baseline', 'class']);
+    // The test atlas's baseline has 2 years: its P90 says so (pipeline/publish/baseline-length.ts).
+    expect(catalogue.choices.statistic[1].label).toBe('P90 of 2 years (near the highest)');
+    expect(catalogue.baselineYears).toBe(2);
+    expect(catalogue.baselineWarning).toMatch(/^the baseline 2021–2022 has 2 years/);
+    expect(catalogue.figures.find((f) => f.id === 'hours-lost-shift')!.unitWords).toEqual({ month: 'hours per worker per month', year: 'hours per worker per year' });
     expect(catalogue.choices.period.map((c) => c.id)).toEqual(['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']);
     const r = resolveView(catalogue, parseViewState('', catalogue));
     expect(r.layer?.id).toBe('hours-lost-shift/moderate.acclimatized.sun/mean-year');
@@ -255,5 +263,85 @@ describe('reading the pipeline’s tables for the map page', () => {
   it('gives no catalogue (null) for a data folder without a manifest', () => {
     rmSync(join(work, 'data/manifest.json'));
     expect(loadManifestLayers(work)).toBeNull();
+  });
+});
+
+describe('the map search box (map-search.ts)', () => {
+  const regions = [
+    { id: 'sollent-coast', name: 'Sollent Coast', bbox: [0, 0, 1, 1], label: [0.5, 0.5] },
+    { id: 'tessick-coast', name: 'Tessick Coast', bbox: [0, 0, 1, 1], label: [0.5, 0.5] },
+    { id: 'varn-shore', name: 'Várn Shore', bbox: [0, 0, 1, 1], label: [0.5, 0.5] },
+  ] as ExplorerCatalogue['regions'];
+
+  it('reads latitude then longitude in decimal degrees, with or without hemisphere letters, in either order when the letters say so', () => {
+    for (const t of ['20.5, -145.25', '20.5 -145.25', '20.5 N 145.25 W', '20.5°N, 145.25°W', '145.25 W 20.5 N', '20.5; \u2212145.25']) {
+      expect(searchMap(t, regions), t).toEqual({ kind: 'point', lat: 20.5, lon: -145.25 });
+    }
+    expect(searchMap('3.25 S 60 E', regions)).toEqual({ kind: 'point', lat: -3.25, lon: 60 });
+  });
+
+  it('finds a region by its name, ignoring case and accents, by a unique start or part of it', () => {
+    expect(searchMap('sollent coast', regions)).toEqual({ kind: 'region', id: 'sollent-coast', name: 'Sollent Coast' });
+    expect(searchMap('varn', regions)).toEqual({ kind: 'region', id: 'varn-shore', name: 'Várn Shore' });
+    expect(searchMap('tess', regions)).toMatchObject({ kind: 'region', id: 'tessick-coast' });
+    expect(searchMap('shore', regions)).toMatchObject({ kind: 'region', id: 'varn-shore' });
+  });
+
+  it('says what is wrong: no text, two regions that match, no match, an impossible latitude, two latitudes, a sign with a hemisphere', () => {
+    expect(searchMap('  ', regions)).toMatchObject({ kind: 'none', message: expect.stringMatching(/region name or a latitude/) });
+    expect(searchMap('coast', regions)).toMatchObject({ kind: 'none', message: '2 regions match: Sollent Coast, Tessick Coast. Type more of the name.' });
+    expect(searchMap('Atlantis', regions)).toMatchObject({ kind: 'none', message: expect.stringMatching(/No region is named like “Atlantis”/) });
+    expect(searchMap('95, 10', regions)).toMatchObject({ kind: 'none', message: expect.stringMatching(/Latitude 95 is not between/) });
+    expect(searchMap('20 N 21 S', regions)).toMatchObject({ kind: 'none', message: expect.stringMatching(/one latitude/) });
+    expect(searchMap('-20 N 3 E', regions)).toMatchObject({ kind: 'none', message: expect.stringMatching(/no minus sign/) });
+  });
+});
+
+describe('the legend range note (legend-range.ts)', () => {
+  const legend = (domain: [number, number], units = 'h') => ({ kind: 'continuous', units, domain, stops: [], labels: [], ramp: 'Reds', reversed: false, outOfDomain: 'clamped', noData: { color: 'transparent', meaning: '' } }) as never;
+
+  it('states the unit in words and which views share the range', () => {
+    expect(legendRangeNote(legend([0, 130]), { figure: 'hours-lost-shift', period: '07', unitWords: 'hours per worker per month' }, 'C')).toBe(
+      'Unit: hours per worker per month. Colours span 0–130 h, a range shared by the twelve months of this view, so they compare; the whole year has its own.',
+    );
+    expect(legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C')).toContain('the range of the whole year');
+  });
+
+  it('says when the range changed from the view shown before (same figure), in the reader\'s temperature unit', () => {
+    const note = legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 130] });
+    expect(note).toContain('The range changed with this view (it was 0–130 h): compare colours only within one range.');
+    expect(legendRangeNote(legend([0, 130]), { figure: 'hours-lost-shift', period: '08', unitWords: 'u' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 130] })).not.toContain('changed');
+    expect(legendRangeNote(legend([0, 130]), { figure: 'hours-above-limit-shift', period: '08', unitWords: 'u' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 650] })).not.toContain('changed');
+    // 20–30 °C shown in °F: 68.0–86.0 °F (°F = °C × 9/5 + 32).
+    expect(legendRangeNote(legend([20, 30], 'degC'), { figure: 'wbgt-mean', period: '07', unitWords: 'degrees Celsius (WBGT)' }, 'F', { figure: 'wbgt-mean', units: 'degC', domain: [10, 30] })).toContain('Colours span 68.0–86.0 °F');
+  });
+});
+
+describe('region names on the map (label-point.ts)', () => {
+  it('puts each name inside its outline, also for a U-shaped region whose centroid lies outside it and for a ring with a hole (d3-geo geoContains)', () => {
+    const u: Polygon = { type: 'Polygon', coordinates: [[[0, 0], [3, 0], [3, 3], [2, 3], [2, 1], [1, 1], [1, 3], [0, 3], [0, 0]]] };
+    const holed: Polygon = { type: 'Polygon', coordinates: [[[0, 0], [4, 0], [4, 4], [0, 4], [0, 0]], [[1, 1], [1, 3], [3, 3], [3, 1], [1, 1]]] };
+    const multi: MultiPolygon = { type: 'MultiPolygon', coordinates: [[[[10, 10], [10.5, 10], [10.5, 10.5], [10, 10]]], u.coordinates] };
+    // d3-geo wants exterior rings clockwise (spherical winding): rewind a polygon that would enclose more than half the sphere.
+    const forD3 = (g: Polygon | MultiPolygon): Feature => {
+      const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+      return { type: 'Feature', properties: {}, geometry: { type: 'MultiPolygon', coordinates: polys.map((rings) => (geoArea({ type: 'Polygon', coordinates: rings }) > 2 * Math.PI ? rings.map((r) => [...r].reverse()) : rings)) } };
+    };
+    expect(geoContains(forD3(u), [1.5, 2])).toBe(false); // the notch of the U: its centroid's side
+    expect(geoContains(forD3(holed), [2, 2])).toBe(false); // the hole
+    for (const g of [u, holed, multi]) {
+      const p = labelPoint(g);
+      expect(geoContains(forD3(g), p), JSON.stringify(p)).toBe(true);
+    }
+    // The largest part of a multi-polygon carries the name.
+    expect(labelPoint(multi)[0]).toBeLessThan(5);
+  });
+
+  it('every region of the test atlas gets a label point inside its own outline', () => {
+    for (const r of catalogue.regions) {
+      const f = loadRegions(dataDir).features.find((x) => x.properties.id === r.id)!;
+      expect(outlineHolds(f.geometry as Polygon | MultiPolygon, r.label), r.id).toBe(true);
+      expect(regionsForPoint([{ id: r.id, geometry: f.geometry as Polygon | MultiPolygon }], r.label).holding, r.id).toEqual([r.id]);
+    }
   });
 });

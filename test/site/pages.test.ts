@@ -72,7 +72,11 @@ describe('the home page', () => {
     expect(await page.textContent('h1')).toBe(inventory.atlas.title);
     const facts = await page.$$eval('#coverage dd[data-key]', (dds) => Object.fromEntries(dds.map((d) => [d.getAttribute('data-key'), (d.textContent ?? '').trim()])));
     expect(facts.years).toBe(`${inventory.atlas.years[0]}–${inventory.atlas.years[1]}`);
-    expect(facts.baseline).toBe(`${inventory.atlas.baseline[0]}–${inventory.atlas.baseline[1]}`);
+    expect(facts.baseline).toBe(`${inventory.atlas.baseline[0]}–${inventory.atlas.baseline[1]} (${inventory.atlas.baseline[1] - inventory.atlas.baseline[0] + 1} years)`);
+    // Etc/GMT+10 is ten hours behind UTC (POSIX signs of the tz database's Etc zones).
+    expect(facts['time-zone']).toBe('UTC\u221210:00 (Etc/GMT+10)');
+    // The test atlas's 2-year baseline is too short for a 1-in-10 year: the page says so.
+    expect(await page.textContent('#coverage ~ [data-baseline-warning]')).toMatch(/rest on 2 years \(2021–2022\), fewer than the 10/);
     // Outer edges = cell centres ± half a step.
     const [west, south, east, north] = gridEdges(inventory.grid);
     expect(west).toBe(inventory.grid.lonMin - inventory.grid.dLon / 2);

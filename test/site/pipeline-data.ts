@@ -69,6 +69,8 @@ async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> 
 export interface PipelineData {
   /** Folder holding `data/` (manifest, tables, layers, tiles): pass it to `buildTestSite`. */
   dataDir: string;
+  /** The warnings the build logged, one per line. */
+  warningsPath: string;
   /** The atlas configuration the data were built from. */
   configPath: string;
   reused: boolean;
@@ -82,7 +84,8 @@ export async function buildPipelineData(): Promise<PipelineData> {
   const configPath = join(root, 'atlas.yaml');
   mkdirSync(DATA_BUILDS, { recursive: true });
   return withLock(join(DATA_BUILDS, `${digest}.lock`), async () => {
-    if (existsSync(join(dataDir, 'data/manifest.json'))) return { dataDir, configPath, reused: true };
+    const warningsPath = join(root, 'build-warnings.txt');
+    if (existsSync(join(dataDir, 'data/manifest.json')) && existsSync(warningsPath)) return { dataDir, configPath, warningsPath, reused: true };
     await rm(root, { recursive: true, force: true });
     mkdirSync(join(root, 'regions'), { recursive: true });
     for (const f of [...listFiles(join(PROJECT_ROOT, 'content/regions')), ...listFiles(ODD_REGIONS)]) {
@@ -112,7 +115,11 @@ work:
 `,
     );
     process.env.HEATHOURS_BUILD_TIME ??= '2026-01-01T00:00:00.000Z';
-    await buildAtlas({ configPath, outDir: dataDir, jobs: 2, quiet: true, dataOnly: true, cache: false });
-    return { dataDir, configPath, reused: false };
+    // The build's warnings are kept beside the data (build-warnings.txt) for the tests that check them.
+    const warnings: string[] = [];
+    const logger = { info: () => {}, warn: (m: string) => void warnings.push(m) };
+    await buildAtlas({ configPath, outDir: dataDir, jobs: 2, quiet: true, dataOnly: true, cache: false, logger });
+    writeFileSync(join(root, 'build-warnings.txt'), warnings.map((w) => `${w}\n`).join(''));
+    return { dataDir, configPath, warningsPath, reused: false };
   });
 }

@@ -87,7 +87,8 @@ describe('the region report page', () => {
   it('exists for every region of the data folder, titled with the region name', async () => {
     const regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map((f: { properties: { id: string } }) => f.properties.id);
     const pages = htmlFiles(build.distDir).filter((f) => f.startsWith('regions/'));
-    expect(pages.sort()).toEqual(regions.map((id: string) => `regions/${id}/index.html`).sort());
+    // A report and its one-page summary for a bid file per region.
+    expect(pages.sort()).toEqual(regions.flatMap((id: string) => [`regions/${id}/index.html`, `regions/${id}/summary/index.html`]).sort());
     const name = JSON.parse(readFileSync(join(dataDir, 'data/regions', `${REGION}.json`), 'utf8')).name;
     expect(await report.page.textContent('h1')).toBe(name);
     await screenshot(report.page, 'region-report');
@@ -246,7 +247,8 @@ describe('the region report page', () => {
     const { page } = report;
     expect(Number(await page.getAttribute('#niche-values tr[data-key="baseline"] [data-temp-c]', 'data-temp-c'))).toBeCloseTo(detail.niche.baselineMat, 3);
     expect(Number(await page.getAttribute('#niche-values tr[data-key="latest"] [data-temp-c]', 'data-temp-c'))).toBeCloseTo(detail.niche.latestMat, 3);
-    expect(await page.textContent('#niche-values tr[data-key="baseline"] td')).toContain(detail.niche.labels[detail.niche.baselineClass]);
+    // The class name follows the °C/°F switch; in °C it is the summary's label.
+    expect(await page.getAttribute('#niche-values tr[data-key="baseline"] [data-temp-text]', 'data-temp-text')).toBe(detail.niche.labels[detail.niche.baselineClass]);
     expect(Number(await page.getAttribute('svg.niche-strip [data-marker="baseline"]', 'data-value'))).toBeCloseTo(detail.niche.baselineMat, 3);
     expect(await page.textContent('#niche-caveat')).toContain('not a value at a point');
     const bands = await page.$$eval('svg.niche-strip .bands rect', (rs) => rs.map((r) => [r.getAttribute('data-band'), Number(r.getAttribute('data-from'))]));
@@ -290,20 +292,19 @@ describe('the region report page', () => {
     expect(await page.isVisible('[data-invented]')).toBe(true);
   });
 
-  it('prints cleanly: no navigation, switches or controls; charts, every class table and a source line kept; link addresses shown', async () => {
+  it('prints cleanly: no navigation, switches or controls; the default class, the charts, the hour table and a source line with full addresses kept (pages and words: print.test.ts)', async () => {
     const page = (await session.open(`/regions/${REGION}/`)).page;
     await page.emulateMedia({ media: 'print' });
-    for (const sel of ['.site-header nav', '.unit-switch', '.report-actions', '[data-mark-control]']) expect(await page.isVisible(sel)).toBe(false);
+    for (const sel of ['.site-header nav', '.unit-switch', '.report-actions', '[data-mark-control]', '.site-footer']) expect(await page.isVisible(sel), sel).toBe(false);
     expect(await page.isVisible('#print-source')).toBe(true);
     expect(await page.textContent('[data-page-url]')).toBe(new URL(`regions/${REGION}/`, session.baseUrl).href);
-    for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-high-sun', '#hour-table']) expect(await page.isVisible(sel)).toBe(true);
-    const after = await page.$eval('#region-files a', (a) => getComputedStyle(a, '::after').content);
-    expect(after).toContain(`/data/regions/${REGION}.csv`);
+    for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges']) expect(await page.isVisible(sel), sel).toBe(true);
+    expect(await page.isVisible('#monthly-high-sun')).toBe(false);
     expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
-    // Nothing is wider than an A4 page inside the report's margins: 210 − 2 × 12 mm = 186 mm = 703 px at 96 px/in.
-    await page.setViewportSize({ width: 703, height: 1000 });
-    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(703);
-    const pdf = await page.pdf({ path: join(ARTIFACTS_DIR, 'region-report.pdf'), format: 'A4', printBackground: true });
+    // Nothing is wider than an A4 page inside the printed margins: 210 − 2 × 11 mm = 188 mm = 710 px at 96 px/in.
+    await page.setViewportSize({ width: 710, height: 1000 });
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(710);
+    const pdf = await page.pdf({ path: join(ARTIFACTS_DIR, 'region-report.pdf'), format: 'A4', preferCSSPageSize: true });
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
     await page.emulateMedia({ media: 'screen' });
     expect(await page.isVisible('.report-actions')).toBe(true);

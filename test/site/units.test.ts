@@ -10,6 +10,10 @@ import type { Page } from 'playwright-core';
 import { buildTestSite, screenshot, startSiteSession, type SiteSession, type TestSiteBuild } from './browser.ts';
 import { buildPipelineData } from './pipeline-data.ts';
 import { formatFixed } from '../../src/lib/format.ts';
+import { formatTemperatureList, temperatureTextIn } from '../../src/lib/units.ts';
+import { NICHE_CAVEAT, NICHE_LABELS } from '../../pipeline/climate/niche.ts';
+import { HOOD_CAV } from '../../pipeline/work/clothing.ts';
+import { htmlFiles } from './browser.ts';
 
 let build: TestSiteBuild;
 /** One browser profile for the switching and persistence tests. */
@@ -29,7 +33,7 @@ interface Shown {
   pressed: Record<string, string | null>;
   hidden: boolean[];
   temps: Array<{ c: number; digits: number; signed: boolean; text: string }>;
-  deltas: Array<{ c: number; digits: number; text: string }>;
+  deltas: Array<{ c: number; digits: number; plus: boolean; text: string }>;
   labels: string[];
 }
 
@@ -39,7 +43,7 @@ async function shown(page: Page): Promise<Shown> {
     pressed: Object.fromEntries([...document.querySelectorAll('[data-unit-choice]')].map((b) => [b.getAttribute('data-unit-choice'), b.getAttribute('aria-pressed')])),
     hidden: [...document.querySelectorAll<HTMLButtonElement>('[data-unit-choice]')].map((b) => b.hidden),
     temps: [...document.querySelectorAll<HTMLElement>('[data-temp-c]')].map((e) => ({ c: Number(e.dataset.tempC), digits: Number(e.dataset.digits ?? 1), signed: e.hasAttribute('data-temp-signed'), text: e.textContent ?? '' })),
-    deltas: [...document.querySelectorAll<HTMLElement>('[data-temp-delta-c]')].map((e) => ({ c: Number(e.dataset.tempDeltaC), digits: Number(e.dataset.digits ?? 1), text: e.textContent ?? '' })),
+    deltas: [...document.querySelectorAll<HTMLElement>('[data-temp-delta-c]')].map((e) => ({ c: Number(e.dataset.tempDeltaC), digits: Number(e.dataset.digits ?? 1), plus: e.dataset.deltaSign !== 'none', text: e.textContent ?? '' })),
     labels: [...document.querySelectorAll('[data-unit-label]')].map((e) => e.textContent ?? ''),
   }));
 }
@@ -49,16 +53,16 @@ function expected(c: number, digits: number, unit: 'C' | 'F', signed = false): s
   const v = unit === 'F' ? (c * 9) / 5 + 32 : c;
   return `${signed && v > 0 ? '+' : ''}${formatFixed(v, digits)} °${unit}`;
 }
-function expectedDelta(c: number, digits: number, unit: 'C' | 'F'): string {
+function expectedDelta(c: number, digits: number, unit: 'C' | 'F', plus = true): string {
   const v = unit === 'F' ? (c * 9) / 5 : c;
-  return `${v > 0 ? '+' : ''}${formatFixed(v, digits)} °${unit}`;
+  return `${plus && v > 0 ? '+' : ''}${formatFixed(v, digits)} °${unit}`;
 }
 
 function expectAllIn(s: Shown, unit: 'C' | 'F', where: string): void {
   expect(s.units, where).toBe(unit);
   expect(s.pressed, where).toEqual({ C: String(unit === 'C'), F: String(unit === 'F') });
   for (const t of s.temps) expect(t.text, where).toBe(expected(t.c, t.digits, unit, t.signed));
-  for (const d of s.deltas) expect(d.text, where).toBe(expectedDelta(d.c, d.digits, unit));
+  for (const d of s.deltas) expect(d.text, where).toBe(expectedDelta(d.c, d.digits, unit, d.plus));
   for (const l of s.labels) expect(l, where).toBe(`°${unit}`);
 }
 
@@ -170,3 +174,66 @@ describe('the °C/°F switch', () => {
     expect(session.nonLocalRequests).toEqual([]);
   });
 });
+
+/** Runs in the page: text with "°C" that is not inside an element marked `data-unit-fixed` (file units, published formulas). */
+const CELSIUS_LEFT = `(() => {
+  const out = [];
+  const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+  for (let n = walker.nextNode(); n; n = walker.nextNode()) {
+    const el = n.parentElement;
+    if (!el || el.closest('[data-unit-fixed], script, style')) continue;
+    if (/°C|\u2103/.test(n.textContent || '')) out.push((n.textContent || '').trim().slice(0, 90) + ' <' + el.tagName.toLowerCase() + '>');
+  }
+  return out;
+})()`;
+
+describe('every temperature follows the switch', () => {
+  it('free text, lists and class names with temperatures convert (°F = °C × 9/5 + 32); differences take no offset', () => {
+    expect(temperatureTextIn(NICHE_LABELS.margin, 'F')).toBe('Lived-in, but outside both bands (below 84.2 °F)');
+    expect(temperatureTextIn('Main band (11–15 °C)', 'F')).toBe('Main band (51.8–59 °F)');
+    expect(temperatureTextIn('at \u22125 °C', 'F')).toBe('at 23 °F');
+    expect(temperatureTextIn('no temperature [°C]', 'F')).toBe('no temperature [°C]');
+    expect(formatTemperatureList([11, 15, 20, 25, 29], 'C')).toBe('11, 15, 20, 25 or 29 °C');
+    expect(formatTemperatureList([11, 15, 20, 25, 29], 'F')).toBe('51.8, 59, 68, 77 or 84.2 °F');
+  });
+
+  it('a page shown in °F keeps no °C text outside what names a file\'s or a published formula\'s unit, on every page but the calculator', async () => {
+    const left: string[] = [];
+    const pages = htmlFiles(build.distDir).map((f) => `/${f.replace(/index\.html$/, '')}`).filter((p) => p !== '/estimate/');
+    for (const path of pages) {
+      const { page } = await session.open(`${path}?units=F`);
+      if (path === '/map/') await page.waitForSelector('#explorer-map[data-map-state="idle"]', { timeout: 30_000 });
+      for (const t of (await page.evaluate(CELSIUS_LEFT)) as string[]) left.push(`${path}: ${t}`);
+      await page.close();
+    }
+    expect(left).toEqual([]);
+    const back = await session.open('/methods/?units=C');
+    await back.page.close();
+  }, 180_000);
+
+  it('the region report in °F: niche classes, the caveat (its words in °C exactly those of the pipeline) and the limit marks convert', async () => {
+    const { page } = await session.open('/regions/sollent-coast/?units=C');
+    const caveatC = (await page.textContent('#niche-caveat'))!.replace(/^\s*Caveat\.\s*/, '').replace(/\s+/g, ' ').trim();
+    expect(caveatC).toBe(NICHE_CAVEAT);
+    await page.click('[data-unit-choice="F"]');
+    const caveatF = (await page.textContent('#niche-caveat'))!;
+    expect(caveatF).toContain('within about 0.9 °F of a band edge (51.8, 59, 68, 77 or 84.2 °F)');
+    const titles = await page.$$eval('svg title[data-temp-text]', (ts) => ts.map((t) => t.textContent ?? ''));
+    expect(titles.length).toBeGreaterThan(4);
+    expect(titles.every((t) => t.includes('°F') && !t.includes('°C'))).toBe(true);
+    await page.click('[data-unit-choice="C"]');
+    await page.close();
+  });
+
+  it("the calculator's hood option reads one plus sign and follows the switch: (+1 °C) and (+2 °F)", async () => {
+    const { page } = await session.open('/estimate/?units=C');
+    const hood = page.locator('label', { has: page.locator('input[name="hood"]') });
+    expect((await hood.textContent())!.replace(/\s+/g, ' ').trim()).toBe(`with a hood (+${HOOD_CAV} °C)`);
+    await page.click('[data-unit-choice="F"]');
+    // 1 °C-WBGT as a difference is 1.8 °F, shown with the page's 0 decimals.
+    expect((await hood.textContent())!.replace(/\s+/g, ' ').trim()).toBe(`with a hood (+${formatFixed((HOOD_CAV * 9) / 5, 0)} °F)`);
+    await page.click('[data-unit-choice="C"]');
+    await page.close();
+  });
+});
+

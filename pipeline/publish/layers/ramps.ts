@@ -1,18 +1,24 @@
 /**
- * The continuous colour ramps a layer may use, all from d3-scale-chromatic, and which ramp each
- * kind of published figure gets. Only perceptually ordered, colour-blind-friendly sequential
- * ramps are offered:
+ * The continuous colour ramps a layer may use, all from d3-scale-chromatic, and the one colour
+ * language of the site: one ramp per kind of figure, on every page (the map layers, the home
+ * map, the report's charts), so more hours always read the same way. Only perceptually ordered,
+ * colour-blind-friendly sequential ramps are offered for levels:
  * - viridis, magma, inferno, plasma: van der Walt & Smith's matplotlib colormaps (2015), designed to be
  *   perceptually uniform and readable with common colour-vision deficiencies;
  * - cividis: Nuñez, Anderton & Renslow (2018), PLoS ONE 13(7): e0199239, optimised for deuteranopia;
- * - YlOrRd, YlGnBu: ColorBrewer sequential schemes (Brewer, colorbrewer2.org), listed there as
+ * - YlOrRd, YlGnBu, Reds: ColorBrewer sequential schemes (Brewer, colorbrewer2.org), listed there as
  *   colour-blind safe (from memory).
+ * Diverging ramps are for changes only (a value either side of no change): RdBu, a ColorBrewer
+ * diverging scheme (colour-blind safe per colorbrewer2.org, from memory). Lightness order and
+ * class separation under simulated colour-vision deficiencies are tested in test/publish/layers.
  */
 import {
   interpolateCividis,
   interpolateInferno,
   interpolateMagma,
   interpolatePlasma,
+  interpolateRdBu,
+  interpolateReds,
   interpolateViridis,
   interpolateYlGnBu,
   interpolateYlOrRd,
@@ -30,37 +36,61 @@ export const RAMPS = {
   plasma: interpolatePlasma,
   YlOrRd: interpolateYlOrRd,
   YlGnBu: interpolateYlGnBu,
+  Reds: interpolateReds,
 } as const satisfies Record<string, Interpolator>;
 
-export type RampName = keyof typeof RAMPS;
+/** Diverging ramps: for changes only (test/publish/layers checks no level figure uses one). */
+export const DIVERGING_RAMPS = {
+  RdBu: interpolateRdBu,
+} as const satisfies Record<string, Interpolator>;
+
+export type RampName = keyof typeof RAMPS | keyof typeof DIVERGING_RAMPS;
 
 /** The d3 interpolator of a ramp; throws LayerRampUnknown for any other name. */
 export function rampInterpolator(name: string): Interpolator {
-  const f = (RAMPS as Record<string, Interpolator>)[name];
-  if (!f) throw LayerRampUnknown({ ramp: name, known: Object.keys(RAMPS) }, { key: 'style.ramp' });
+  const f = (RAMPS as Record<string, Interpolator>)[name] ?? (DIVERGING_RAMPS as Record<string, Interpolator>)[name];
+  if (!f) throw LayerRampUnknown({ ramp: name, known: [...Object.keys(RAMPS), ...Object.keys(DIVERGING_RAMPS)] }, { key: 'style.ramp' });
   return f;
 }
 
+/** One kind of figure's colours: the ramp, its direction, and the colours in words for legends. */
+export interface ColourKind {
+  ramp: RampName;
+  reverse: boolean;
+  /** E.g. "white for no hours, dark red for many". */
+  words: string;
+}
+
 /**
- * Our pairing of figure kinds with ramps (a project choice, not taken from any product). Light
- * colours mean "little heat cost" on every heat figure, so `reverse` flips the dark-to-light
- * matplotlib ramps; the pairing keeps hours-based figures on warm ramps and temperatures on
- * ramps that run through blue, so the two kinds are not confused side by side.
+ * The site's colour language (a project choice, not taken from any product): every figure counted
+ * in hours (above the limit, lost to rest breaks, capacity lost) on one ramp from white (none) to
+ * dark red (many); every temperature (WBGT, air) on one ramp from dark blue (cool) to yellow (hot),
+ * which holds no red, so a temperature is never read as hours; a change on a diverging ramp, blue
+ * for less and red for more, white for none.
  */
+export const COLOUR_KINDS = {
+  hours: { ramp: 'Reds', reverse: false, words: 'white for no hours, dark red for many' },
+  temperature: { ramp: 'cividis', reverse: false, words: 'dark blue for cool, yellow for hot' },
+  change: { ramp: 'RdBu', reverse: true, words: 'blue for less, white for no change, red for more' },
+} as const satisfies Record<string, ColourKind>;
+
+export type ColourKindName = keyof typeof COLOUR_KINDS;
+
+/** Which colour kind each kind of published figure takes. */
 export const RAMP_FOR_FIGURE = {
   /** Hours per month with effective WBGT above the limit [h]. */
-  hoursAboveLimit: { ramp: 'YlOrRd', reverse: false },
+  hoursAboveLimit: COLOUR_KINDS.hours,
   /** Working hours lost to required rest per month [h]. */
-  hoursLost: { ramp: 'inferno', reverse: true },
-  /** Capacity loss, share of the working time [1] or [%]. */
-  capacityLoss: { ramp: 'magma', reverse: true },
+  hoursLost: COLOUR_KINDS.hours,
+  /** Capacity loss in hours per month [h]. */
+  capacityLoss: COLOUR_KINDS.hours,
   /** Mean WBGT [°C]. */
-  meanWbgt: { ramp: 'plasma', reverse: false },
+  meanWbgt: COLOUR_KINDS.temperature,
   /** Mean annual temperature [°C]. */
-  meanAnnualTemperature: { ramp: 'cividis', reverse: false },
-  /** Any other count or amount. */
-  other: { ramp: 'viridis', reverse: false },
-} as const satisfies Record<string, { ramp: RampName; reverse: boolean }>;
+  meanAnnualTemperature: COLOUR_KINDS.temperature,
+  /** A change between two values of one figure [its units]. */
+  change: COLOUR_KINDS.change,
+} as const satisfies Record<string, ColourKind>;
 
 export type FigureKind = keyof typeof RAMP_FOR_FIGURE;
 

@@ -1,7 +1,7 @@
 /**
  * Geometry of the month × hour-of-day heat map of typical WBGT: months across (band scale), local
- * hours down (band scale), each cell filled from the WBGT ramp (ramp.ts, d3-scale-chromatic
- * inferno, clamped to the domain), and a legend of swatches with value ticks and a tick per
+ * hours down (band scale), each cell filled from the site's temperature ramp (ramp.ts, from
+ * d3-scale-chromatic, clamped to the domain), and a legend of swatches with value ticks and a tick per
  * class limit. Cells of one colour share one SVG path. Pure.
  */
 import { scaleBand } from 'd3-scale';

@@ -1,27 +1,49 @@
 /**
- * Colour ramps of the report charts and the home map, from d3-scale-chromatic's perceptually
- * uniform, colour-blind-safe ramps (Smith & van der Walt's viridis family, as d3 ships them):
- * inferno for WBGT, viridis (reversed: light = few hours, dark = many) for hours lost. Legends are
+ * Colour ramps of the report charts and the home map: the site's one colour language
+ * (pipeline/publish/layers/ramps.ts COLOUR_KINDS, the ramps the map layers use too), hours from
+ * white to dark red, temperatures from dark blue to yellow, from d3-scale-chromatic. Legends are
  * drawn as a row of swatches with tick values from the same d3 scale. Pure.
  */
 import { scaleLinear, scaleSequential, type ScaleSequential } from 'd3-scale';
-import { interpolateInferno, interpolateViridis } from 'd3-scale-chromatic';
+import { COLOUR_KINDS, parseCssColour, rampInterpolator, toHex, type ColourKind } from '../../../pipeline/publish/layers/ramps.ts';
+
+/** A ramp as the pages name it: "Reds (d3-scale-chromatic): white for no hours, dark red for many". */
+export function rampName(kind: ColourKind): string {
+  return `${kind.ramp}${kind.reverse ? ', reversed' : ''} (d3-scale-chromatic): ${kind.words}`;
+}
 
 /** Ramp names as the pages state them. */
-export const WBGT_RAMP_NAME = 'inferno (d3-scale-chromatic)';
-export const HOURS_RAMP_NAME = 'viridis, reversed (d3-scale-chromatic)';
+export const WBGT_RAMP_NAME = rampName(COLOUR_KINDS.temperature);
+export const HOURS_RAMP_NAME = rampName(COLOUR_KINDS.hours);
+export const CHANGE_RAMP_NAME = rampName(COLOUR_KINDS.change);
+
+/** t in [0, 1] → `#rrggbb` of a colour kind (its direction applied). */
+export function kindInterpolator(kind: ColourKind): (t: number) => string {
+  const f = rampInterpolator(kind.ramp);
+  return (t) => toHex(parseCssColour(f(kind.reverse ? 1 - t : t)));
+}
 
 /** Colour for a missing value. */
 export const NO_DATA_COLOUR = '#d9d9d9';
 
-/** Sequential WBGT colour scale over `domain` [°C], clamped. */
+/** Sequential WBGT colour scale over `domain` [°C], clamped: the temperature ramp. */
 export function wbgtColourScale(domain: [number, number]): ScaleSequential<string> {
-  return scaleSequential(interpolateInferno).domain(domain).clamp(true);
+  return scaleSequential(kindInterpolator(COLOUR_KINDS.temperature)).domain(domain).clamp(true);
 }
 
-/** Sequential hours colour scale over `domain` [h], clamped; light for few hours, dark for many. */
+/** Sequential hours colour scale over `domain` [h], clamped: the hours ramp, light for few hours, dark for many. */
 export function hoursColourScale(domain: [number, number]): ScaleSequential<string> {
-  return scaleSequential((t: number) => interpolateViridis(1 - t)).domain(domain).clamp(true);
+  return scaleSequential(kindInterpolator(COLOUR_KINDS.hours)).domain(domain).clamp(true);
+}
+
+/**
+ * Colour of a change `v` on the diverging change ramp, symmetric about no change over
+ * [−`largest`, +`largest`] [units of the change]: blue for less, white for none, red for more.
+ */
+export function changeColour(v: number, largest: number): string {
+  if (!Number.isFinite(v)) return NO_DATA_COLOUR;
+  const m = largest > 0 ? largest : 1;
+  return kindInterpolator(COLOUR_KINDS.change)(Math.min(1, Math.max(0, 0.5 + v / (2 * m))));
 }
 
 /** A colour of a scale, or {@link NO_DATA_COLOUR} for a value that is not finite. */

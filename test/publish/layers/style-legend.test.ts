@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { interpolateCividis, interpolateInferno, interpolateViridis } from 'd3-scale-chromatic';
 import { compileStyle } from '../../../pipeline/publish/layers/style.ts';
-import { RAMPS, RAMP_FOR_FIGURE } from '../../../pipeline/publish/layers/ramps.ts';
+import { COLOUR_KINDS, DIVERGING_RAMPS, RAMPS, RAMP_FOR_FIGURE, rampInterpolator } from '../../../pipeline/publish/layers/ramps.ts';
 import { figureStyle } from '../../../pipeline/publish/layers/figure-style.ts';
 import { nicheClassStyle, NICHE_COLOURS } from '../../../pipeline/publish/layers/niche-style.ts';
 import { NICHE_CLASSES, NICHE_LABELS, NICHE_NO_CLASS, nicheClassCode } from '../../../pipeline/climate/niche.ts';
@@ -99,9 +99,9 @@ describe('ramps', () => {
     }
   });
 
-  it('every figure kind gets a ramp we offer, and heat figures start light (low L* means many hours)', () => {
+  it('every figure kind gets a ramp we offer, and hour figures start light (low L* means many hours)', () => {
     for (const [kind, { ramp, reverse }] of Object.entries(RAMP_FOR_FIGURE)) {
-      expect(Object.keys(RAMPS)).toContain(ramp);
+      expect([...Object.keys(RAMPS), ...Object.keys(DIVERGING_RAMPS)]).toContain(ramp);
       if (['hoursAboveLimit', 'hoursLost', 'capacityLoss'].includes(kind)) {
         const c = compileStyle(figureStyle(kind as keyof typeof RAMP_FOR_FIGURE, [0, 1], 'h'));
         const lo = lab(hexToRgb(c.legend.stops[0].color))[0];
@@ -109,6 +109,36 @@ describe('ramps', () => {
         expect(lo, `${kind} reverse=${reverse}`).toBeGreaterThan(hi);
       }
     }
+  });
+
+  it('one colour language: every hour figure takes the one hours ramp, every temperature the one temperature ramp, and only a change a diverging ramp', () => {
+    for (const k of ['hoursAboveLimit', 'hoursLost', 'capacityLoss'] as const) expect(RAMP_FOR_FIGURE[k]).toEqual(COLOUR_KINDS.hours);
+    for (const k of ['meanWbgt', 'meanAnnualTemperature'] as const) expect(RAMP_FOR_FIGURE[k]).toEqual(COLOUR_KINDS.temperature);
+    for (const [kind, { ramp }] of Object.entries(RAMP_FOR_FIGURE)) expect(ramp in DIVERGING_RAMPS, kind).toBe(kind === 'change');
+    // The temperature ramp holds no colour of the hours ramp: its hottest end (where many hours
+    // would be expected) is far from every colour of the hours ramp, and so is its coolest.
+    const hours = Array.from({ length: 33 }, (_, i) => lab(cssToRgb(rampInterpolator(COLOUR_KINDS.hours.ramp)(i / 32))));
+    for (const t of [0, 0.5, 1]) {
+      const c = lab(cssToRgb(rampInterpolator(COLOUR_KINDS.temperature.ramp)(t)));
+      const nearest = Math.min(...hours.map((h) => Math.hypot(h[0] - c[0], h[1] - c[1], h[2] - c[2])));
+      expect(nearest, `temperature at t = ${t}`).toBeGreaterThan(20);
+    }
+  });
+
+  it('the change ramp is diverging: near white at no change, darker towards both ends, blue for less and red for more (reversed RdBu)', () => {
+    const { ramp, reverse } = COLOUR_KINDS.change;
+    const at = (t: number) => cssToRgb(rampInterpolator(ramp)(reverse ? 1 - t : t));
+    const L = (t: number) => lab(at(t))[0];
+    expect(L(0.5)).toBeGreaterThan(90);
+    for (let i = 0; i <= 32; i++) expect(L(i / 32), `t = ${i / 32}`).toBeLessThanOrEqual(L(0.5) + 0.5);
+    expect(L(0)).toBeLessThan(L(0.25));
+    expect(L(1)).toBeLessThan(L(0.75));
+    const [r0, , b0] = at(0);
+    const [r1, , b1] = at(1);
+    expect(b0).toBeGreaterThan(r0); // less: blue
+    expect(r1).toBeGreaterThan(b1); // more: red
+    // The two ends stay apart under simulated colour-vision deficiencies (Machado et al. 2009).
+    for (const [name, m] of Object.entries(DEFICIENCIES)) expect(deltaE(simulate(m, at(0.1)), simulate(m, at(0.9))), name).toBeGreaterThan(20);
   });
 });
 

@@ -52,6 +52,8 @@ export interface ExplorerFigure {
   /** The pipeline's description, e.g. "Shift hours lost to the rest breaks the limit requires, per worker". */
   description: string;
   units: string;
+  /** The unit in words for a month's and for the year's value, e.g. "hours per worker per month" (pipeline/publish/data-dictionary.ts). */
+  unitWords: { month: string; year: string };
 }
 
 export interface ExplorerChoice {
@@ -64,6 +66,8 @@ export interface ExplorerRegion {
   name: string;
   /** [west, south, east, north] of the region's outline [° E, ° N]. */
   bbox: [number, number, number, number];
+  /** Where its name is written on the map, inside the outline [° E, ° N] (src/lib/label-point.ts). */
+  label: [number, number];
 }
 
 export interface ExplorerCatalogue {
@@ -72,6 +76,10 @@ export interface ExplorerCatalogue {
   available: boolean;
   invented: boolean;
   baseline: [number, number];
+  /** Years in the baseline [years]; a P90 of fewer than 10 is labelled so (pipeline/publish/baseline-length.ts). */
+  baselineYears: number;
+  /** The short-baseline warning, or null (pipeline/publish/baseline-length.ts). */
+  baselineWarning: string | null;
   latestYear: number;
   figures: ExplorerFigure[];
   /** Options of each choice, in menu order, with our labels. */

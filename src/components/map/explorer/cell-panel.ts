@@ -110,7 +110,9 @@ function figuresTable(ctx: PanelContext, record: CellRecord): HTMLTableElement |
   for (const c of cols) r1.append(el('th', { scope: 'colgroup', colspan: '3' }, c.label));
   r1.append(el('th', { scope: 'col', rowspan: '2', class: 'num' }, 'Years used'));
   const r2 = el('tr');
-  for (const c of cols) for (const st of STATS) r2.append(el('th', { scope: 'col', class: 'num', 'data-key': `${c.id}.${st}` }, STAT_HEADS[st]));
+  // The P90 head names the baseline's years (a P90 of a few years is near the highest of them).
+  const heads = { ...STAT_HEADS, p90: `P90 of ${ctx.catalogue.baselineYears} yr` };
+  for (const c of cols) for (const st of STATS) r2.append(el('th', { scope: 'col', class: 'num', 'data-key': `${c.id}.${st}` }, heads[st]));
   thead.append(r1, r2);
   const tbody = el('tbody');
   ctx.index.periods.forEach((period, p) => {

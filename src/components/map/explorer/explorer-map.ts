@@ -2,8 +2,10 @@
  * The MapLibre map of the explorer, offline: a sea background, Natural Earth land and borders
  * (/basemap/*), the shown layer's PNG image(s) in Web Mercator rows drawn with nearest-pixel
  * sampling at full opacity (so a drawn pixel has the very colour the legend gives its value),
- * region outlines (data/regions.geojson, can be switched off), the focused region, the keyboard
- * cursor and the selected cell. No glyphs, sprites or labels (STACK.md MapLibre gotchas).
+ * region outlines (data/regions.geojson, can be switched off) with each region's name, the
+ * focused region, the keyboard cursor, the selected cell, and a scale bar. No glyphs or sprites
+ * (STACK.md MapLibre gotchas): region names are HTML markers in the page's own font, placed at a
+ * point inside each outline (src/lib/label-point.ts), so nothing is fetched for them.
  */
 import * as maplibregl from 'maplibre-gl';
 import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
@@ -11,7 +13,7 @@ import 'maplibre-gl/dist/maplibre-gl.css';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { MAP_COLOURS, cssRgb } from '../map-colours.ts';
 import { sitePath } from '../../../lib/nav.ts';
-import type { ExplorerLayer } from './catalogue.ts';
+import type { ExplorerLayer, ExplorerRegion } from './catalogue.ts';
 
 maplibregl.setWorkerUrl(workerUrl);
 
@@ -35,6 +37,8 @@ export interface ExplorerMapOptions {
   borders: unknown;
   regions: unknown;
   attribution: string;
+  /** Regions whose names are written on the map. */
+  labels: readonly ExplorerRegion[];
 }
 
 export class ExplorerMap {
@@ -59,6 +63,15 @@ export class ExplorerMap {
     });
     this.map.touchZoomRotate.disableRotation();
     this.map.addControl(new maplibregl.NavigationControl({ showCompass: false }), 'top-right');
+    this.map.addControl(new maplibregl.ScaleControl({ unit: 'metric', maxWidth: 120 }), 'bottom-left');
+    for (const r of o.labels) {
+      const el = document.createElement('div');
+      el.className = 'region-label';
+      el.dataset.regionLabel = r.id;
+      el.setAttribute('aria-hidden', 'true');
+      el.textContent = r.name;
+      new maplibregl.Marker({ element: el, anchor: 'center' }).setLngLat(r.label).addTo(this.map);
+    }
     (globalThis.heathoursMaps ??= {})[o.container.id] = this.map;
     this.pending = this.whenLoaded().then(() => this.addBase(o));
   }
@@ -127,7 +140,9 @@ export class ExplorerMap {
     });
   }
 
+  /** Shows or hides the region outlines and their names. */
   setOutlines(visible: boolean): void {
+    this.map.getContainer().classList.toggle('no-region-labels', !visible);
     void this.pending.then(() => this.map.setLayoutProperty('regions', 'visibility', visible ? 'visible' : 'none'));
   }
 

@@ -16,12 +16,14 @@ import { parseViewState, viewQuery, type ViewState } from './view-state.ts';
 import { CHOICE_KEYS, resolveView } from './layer-choice.ts';
 import { findControls, syncControls } from './controls.ts';
 import { renderLegend } from './legend-view.ts';
+import { legendRangeNote, type ShownRange } from './legend-range.ts';
 import { describeLayer, describeLayerLine } from './describe-view.ts';
 import { updateRegionTable } from './region-table.ts';
 import { renderCellPanel } from './cell-panel.ts';
 import { cellAt, cellCentre, cellPolygon, chunkOfCell, isCell, moveCell, type CellGrid } from './cell-grid.ts';
 import { regionsForPoint, type RegionShape } from './nearest-region.ts';
 import { ExplorerMap } from './explorer-map.ts';
+import { searchMap } from './map-search.ts';
 
 /** Pause between months while playing, after the month is drawn [ms]. */
 const PLAY_STEP_MS = 1200;
@@ -77,6 +79,7 @@ async function start(root: HTMLElement): Promise<void> {
     borders,
     regions,
     attribution: catalogue.invented ? 'Heat layers: invented data' : 'Heat layers: this atlas',
+    labels: catalogue.regions,
   });
   const map = explorer.map;
   explorer.setFocusRegion(state.region);
@@ -127,12 +130,22 @@ async function start(root: HTMLElement): Promise<void> {
     status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
   }
 
+  // The range shown before the current layer's, for the legend's "the range changed" note.
+  let rangeBefore: ShownRange | undefined;
+  let rangeNow: ShownRange | undefined;
+
   function renderAll(): void {
     const unit = currentUnit();
     if (!layer) return;
     const legend = catalogue.legends[layer.legend];
     const d = describeLayer(catalogue, layer);
     renderLegend(legendBox, legend, `${d.figure}, ${d.period}`, unit, catalogue.invented);
+    const fig = catalogue.figures.find((f) => f.id === layer!.figure);
+    const range = document.createElement('p');
+    range.className = 'legend-range';
+    range.id = 'map-legend-range';
+    range.textContent = legendRangeNote(legend, { figure: layer.figure, period: layer.period, unitWords: fig ? fig.unitWords[layer.period === 'year' ? 'year' : 'month'] : layer.units }, unit, rangeBefore);
+    legendBox.append(range);
     const sub = document.createElement('p');
     sub.className = 'legend-view';
     sub.textContent = [d.view, d.statistic].filter((x) => x).join(' · ');
@@ -160,6 +173,10 @@ async function start(root: HTMLElement): Promise<void> {
     const next = r.layer;
     if (!next) return;
     const changed = next !== layer;
+    if (changed) {
+      rangeBefore = rangeNow;
+      rangeNow = { figure: next.figure, units: next.units, domain: catalogue.legends[next.legend].domain };
+    }
     layer = next;
     renderAll();
     if (!changed && mapBox.dataset.layerId === next.id) return;
@@ -261,6 +278,38 @@ async function start(root: HTMLElement): Promise<void> {
     explorer.setCursor(null);
     map.panTo(cellCentre(grid, hit.id));
     void selectCell(hit.id);
+  });
+
+  // The search box: a region by name, or a place by latitude and longitude.
+  const search = must<HTMLFormElement>(root, '#map-search');
+  const searchResult = must<HTMLElement>(search, '#map-search-result');
+  search.hidden = false;
+  search.addEventListener('submit', (ev) => {
+    ev.preventDefault();
+    const r = searchMap(must<HTMLInputElement>(search, '[name="q"]').value, catalogue.regions);
+    search.dataset.result = r.kind;
+    if (r.kind === 'none') {
+      searchResult.textContent = r.message;
+      return;
+    }
+    if (r.kind === 'region') {
+      state.region = r.id;
+      explorer.setFocusRegion(r.id);
+      map.fitBounds(regionBox(r.id)!, { padding: 30, maxZoom: 8, duration: 0 });
+      writeUrl();
+      searchResult.textContent = `${r.name}: shown and outlined on the map.`;
+      return;
+    }
+    const hit = cellAt(grid, r.lon, r.lat);
+    if (!hit) {
+      searchResult.textContent = `${formatLat(r.lat)}, ${formatLon(r.lon)} is outside the atlas grid.`;
+      return;
+    }
+    cursor = hit.id;
+    explorer.setCursor(null);
+    map.panTo(cellCentre(grid, hit.id), { duration: 0 });
+    void selectCell(hit.id);
+    searchResult.textContent = `${formatLat(r.lat)}, ${formatLon(r.lon)}: grid cell ${hit.id}, its figures are below the map.`;
   });
 
   // "Show on the map" links of the region table fit the region without leaving the page.

@@ -3,7 +3,7 @@
  * reader's unit (°C or °F, src/lib/units.ts), class codes as the legend's class names. Pure.
  */
 import { formatFixed } from '../../../lib/format.ts';
-import { formatTemperature, temperatureIn, unitSymbol, type TemperatureUnit } from '../../../lib/units.ts';
+import { formatTemperature, temperatureIn, temperatureTextIn, unitSymbol, type TemperatureUnit } from '../../../lib/units.ts';
 import type { ExplorerLegend } from './catalogue.ts';
 
 /** Is this a temperature unit that follows the °C/°F switch? */
@@ -28,12 +28,10 @@ export function formatLayerValue(v: number | null | undefined, units: string, un
 
 /**
  * A label with temperatures in it ("Main band (11–15 °C)", "below 29 °C") in the reader's unit:
- * each "a °C" or "a–b °C" is converted (°F = °C × 9/5 + 32), other text kept.
+ * src/lib/units.ts {@link temperatureTextIn}, the page-wide rule.
  */
 export function labelInUnit(label: string, unit: TemperatureUnit): string {
-  if (unit === 'C') return label;
-  const f = (s: string) => String(Number(temperatureIn(Number(s), unit).toFixed(1)));
-  return label.replace(/(\d+(?:\.\d+)?)(?:–(\d+(?:\.\d+)?))? °C/g, (_m, a: string, b?: string) => `${f(a)}${b ? `–${f(b)}` : ''} ${unitSymbol(unit)}`);
+  return temperatureTextIn(label, unit);
 }
 
 /** A legend tick: temperatures converted to the unit with 1 decimal, others as the legend labels them. */
