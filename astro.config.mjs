@@ -18,6 +18,9 @@ export default defineConfig({
   },
   devToolbar: { enabled: false },
   prefetch: false,
+  // The methods document (docs/methods.md, src/pages/methods/document.astro) is Markdown; code
+  // highlighting would write inline styles, which the Content-Security-Policy forbids.
+  markdown: { syntaxHighlight: false },
   vite: {
     build: {
       // 0: never inline scripts, styles or images as data: URLs or inline tags.

@@ -1,13 +1,13 @@
 /**
  * When a year's value counts, and when enough years make a normal. In the spirit of the WMO
  * Guidelines on the Calculation of Climate Normals (WMO-No. 1203, 2017), as summarised in
- * METHODS.md §8:
+ * docs/methods.md §10.3:
  * - a monthly value counts only when at most 10 days' worth of its hours are missing
  *   (10 d × 24 h = 240 h) — WMO-No. 1203's "≤ 10 missing days" for monthly values (from memory,
- *   per METHODS.md §8; its second condition, "< 5 consecutive missing days", cannot be checked
+ *   per docs/methods.md §10.3; its second condition, "< 5 consecutive missing days", cannot be checked
  *   here because only hour counts reach this stage);
  * - a normal needs at least 80 % of the period's years (24 of 30) — WMO-No. 1203 (from memory,
- *   per METHODS.md §8).
+ *   per docs/methods.md §10.3).
  * Years of the period that are absent from the stack count as missing.
  */
 import { ClimateBadHourCounts, ClimateBadRule } from './errors.ts';

@@ -1,7 +1,7 @@
 /**
  * Per cell: MAT over the baseline and over the latest years, the niche class of each, their
  * distance to the main mode (13 °C), the shift between them, and whether each is near a
- * boundary (METHODS.md §7). MAT over a period is the mean of the annual means of the years that
+ * boundary (docs/methods.md §11). MAT over a period is the mean of the annual means of the years that
  * count; a period needs ⌈minYearShare · length⌉ such years (80 % by default, WMO-No. 1203 spirit,
  * from memory). Lenton et al. (2023) average MAT over 20-year intervals; a baseline of 20–30
  * years matches that, a short "latest" period (e.g. 5 years) is noisier and is labelled so.

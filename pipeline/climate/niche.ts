@@ -1,5 +1,5 @@
 /**
- * Mean annual temperature (MAT) against the human climate niche (METHODS.md §7).
+ * Mean annual temperature (MAT) against the human climate niche (docs/methods.md §11).
  *
  * Sources:
  * - Xu, Kohler, Lenton, Svenning & Scheffer (2020), "Future of the human climate niche", PNAS
@@ -10,7 +10,7 @@
  *   6:1237–1247, doi 10.1038/s41893-023-01132-6: "unprecedented heat" is MAT ≥ 29 °C; MAT is
  *   averaged over 20-year intervals.
  *
- * The four classes below are the per-cell classification proposed in METHODS.md §7, built only on
+ * The four classes below are the per-cell classification proposed in docs/methods.md §11, built only on
  * those published statements; the labels are our own words. It is not the fitted double-Gaussian
  * niche of Xu 2020 (whose parameters we did not verify), so it says where a MAT falls, not how
  * densely people live there.
@@ -30,7 +30,7 @@ export type NicheClass = (typeof NICHE_CLASSES)[number];
 /** Code of a cell whose MAT is unknown (NaN). */
 export const NICHE_NO_CLASS = 255;
 
-/** Class boundaries [°C] (METHODS.md §7; Xu 2020; Lenton 2023). */
+/** Class boundaries [°C] (docs/methods.md §11; Xu 2020; Lenton 2023). */
 export const NICHE_BOUNDS = Object.freeze({
   coreLow: 11,
   coreHigh: 15,

@@ -3,7 +3,7 @@
  * baseline mean, median, 90th-percentile year, minimum, maximum and the number of years used,
  * and the latest year against the baseline (difference from the baseline mean and its rank).
  *
- * - Quantiles: Hyndman–Fan type 7 (METHODS.md §8), see quantile.ts.
+ * - Quantiles: Hyndman–Fan type 7 (docs/methods.md §10.1), see quantile.ts.
  * - Completeness (completeness.ts, WMO-No. 1203 spirit): a year counts for an item only when
  *   its value is finite and, if hour counts are given, at most `maxMissingHours` are missing;
  *   a normal is published only when at least ⌈minYearShare · period length⌉ years count

@@ -1,6 +1,6 @@
 /**
  * Quantiles by linear interpolation between order statistics: Hyndman & Fan (1996) type 7, the
- * default of R's `quantile()` and numpy's `percentile()` (METHODS.md §8).
+ * default of R's `quantile()` and numpy's `percentile()` (docs/methods.md §10.1).
  *
  * Sort ascending x(1) … x(n); h = (n − 1)·p + 1; Q(p) = x(⌊h⌋) + (h − ⌊h⌋)·(x(⌊h⌋+1) − x(⌊h⌋)).
  * For n = 30: median = (x15 + x16)/2, P90 = x27 + 0.1·(x28 − x27).

@@ -6,11 +6,11 @@
  * `status` naming the reason; the output appears atomically.
  *
  * Work columns, per workload class (default: content/workload-classes.yaml): `limit_<class>_c`,
- * the WBGT limit at the class's rate as a measured WBGT, L(M_w) − CAV [°C] (METHODS.md §5.3,
+ * the WBGT limit at the class's rate as a measured WBGT, L(M_w) − CAV [°C] (docs/methods.md §8.2,
  * curve-2017, acclimatized unless `--unacclimatized`), and `work_fraction_<class>`, the allowable
- * work fraction of the hour [0–1] (METHODS.md §5.6) with the work in the sun (`wbgt_c`) and rest
+ * work fraction of the hour [0–1] (docs/methods.md §8.6) with the work in the sun (`wbgt_c`) and rest
  * in the same place, clothing adjustment `--cav` (default 0). Screening values only: local
- * regulations and a competent person decide (METHODS.md §9).
+ * regulations and a competent person decide (docs/methods.md §14).
  */
 import type { Command } from 'commander';
 import { createWriteStream, existsSync, statSync } from 'node:fs';
@@ -96,7 +96,7 @@ export function loadWorkloadClasses(file: string): WorkloadClasses {
 }
 
 /**
- * One prepared work-fraction kernel per class (METHODS.md §5.6, pipeline/work): curve-2017 limits,
+ * One prepared work-fraction kernel per class (docs/methods.md §8.6, pipeline/work): curve-2017 limits,
  * acclimatized unless asked, rest in the same place, the given clothing adjustment.
  */
 export function prepareClassKernels(opts: PointWorkOptions = {}): { id: string; columns: [string, string]; kernel: WorkKernel }[] {

@@ -1,6 +1,6 @@
 /**
  * ERA5 short names, units, long names and CF standard names the demo files carry, as the CDS
- * writes them (METHODS.md §4.4 for names and units; long names and standard names from memory
+ * writes them (docs/methods.md §2.1 for names and units; long names and standard names from memory
  * of CDS files), plus the global attributes that label every demo file as invented.
  */
 import type { DemoVariable } from './weather.ts';

@@ -1,5 +1,5 @@
 /**
- * The legacy CDS layout (METHODS.md §4.4, "Legacy CDS netCDF (packed)"): NetCDF-3 classic,
+ * The legacy CDS layout (docs/methods.md §2.3, the legacy layout): NetCDF-3 classic,
  * dims (time UNLIMITED, latitude, longitude), `int time` in "hours since 1900-01-01 00:00:00.0"
  * (calendar "gregorian"), latitude descending, longitude ascending in 0..360, every variable a
  * `short` packed with a per-file `scale_factor`/`add_offset` from the data range,

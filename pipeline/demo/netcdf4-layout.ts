@@ -1,5 +1,5 @@
 /**
- * The 2024 CDS NetCDF-4 layout (METHODS.md §4.4, "New CDS netCDF4"): dims `valid_time` (int64
+ * The 2024 CDS NetCDF-4 layout (docs/methods.md §2.3, the 2024 layout): dims `valid_time` (int64
  * "seconds since 1970-01-01", calendar "proleptic_gregorian"), `latitude` (descending, attribute
  * `stored_direction` "decreasing"), `longitude` (0..360, as the legacy files); scalar coordinate
  * `number` (0) and string coordinate `expver` per valid_time ("0001" final, "0005" preliminary

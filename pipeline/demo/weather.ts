@@ -2,10 +2,10 @@
  * The invented hourly weather of the demo territory, in ERA5 units, for one calendar year.
  *
  * A year holds the hours ending at 01:00 UTC on 1 January through 00:00 UTC on 1 January of the
- * next year (ERA5 stamps an accumulation at the end of its hour, METHODS.md §4.4), so files of
+ * next year (ERA5 stamps an accumulation at the end of its hour, docs/methods.md §2.2), so files of
  * consecutive years join with no gap or overlap. Instantaneous fields (t2m, d2m, u10, v10, sp)
  * are valid at the stamp; radiation (ssrd, fdir, strd) is accumulated over the hour ending at the
- * stamp [J m⁻²], with the sun's geometry averaged over that hour (METHODS.md §4.2).
+ * stamp [J m⁻²], with the sun's geometry averaged over that hour (docs/methods.md §4.2).
  *
  * Randomness is counter-based ({@link normal}): day-to-day weather is an AR(1) series on a 4 × 4
  * lattice of nodes fixed in space (so fields are spatially smooth and every grid sees the same
@@ -314,7 +314,7 @@ export class YearWeather {
         const v = tradeV * mix + breeze * cc.onshoreN[c] + 0.8 * noiseV;
 
         // Solar radiation over the hour ending at the stamp [J m⁻²]: hour-mean cosine of the
-        // zenith (METHODS.md §4.2), fast path when the sun is up for the whole hour.
+        // zenith (docs/methods.md §4.2), fast path when the sun is up for the whole hour.
         const rowI = (c - jCol) / nLon;
         const hs = hsRow[rowI];
         const h1 = hmCol[jCol] - HALF_HOUR_ANGLE;

@@ -4,7 +4,7 @@
  */
 
 /**
- * Stull (2011) wet bulb [°C] at sea-level pressure (METHODS.md §2.1; valid RH 5–99 %,
+ * Stull (2011) wet bulb [°C] at sea-level pressure (docs/methods.md §7.1; valid RH 5–99 %,
  * T −20…50 °C): `T·atan(0.151977·√(RH + 8.313659)) + atan(T + RH) − atan(RH − 1.676331) +
  * 0.00391838·RH^1.5·atan(0.023101·RH) − 4.686035`. @param t [°C]; @param rh [%]
  */
@@ -16,7 +16,7 @@ export function wetBulbStull2011(t: number, rh: number): number {
 }
 
 /**
- * Australian Bureau of Meteorology simplified WBGT [°C] (METHODS.md §3.4; an approximation that
+ * Australian Bureau of Meteorology simplified WBGT [°C] (docs/methods.md §7.3; an approximation that
  * ignores wind and radiation): `e = (RH/100)·6.105·exp(17.27·T/(237.7 + T))` [hPa],
  * `WBGT = 0.567·T + 0.393·e + 3.94`. @param t [°C]; @param rh [%]
  */
@@ -26,7 +26,7 @@ export function wbgtBureauOfMeteorology(t: number, rh: number): number {
 }
 
 /**
- * Bernard psychrometric wet bulb regression [°C] (METHODS.md §3.3):
+ * Bernard psychrometric wet bulb regression [°C] (docs/methods.md §7.2):
  * `Tpwb = 0.376 + 5.79·e_a + (0.388 − 0.0465·e_a)·T`, e_a [kPa] from `0.6107·exp(17.27 Td/(Td + 237.3))`.
  * @param t [°C]; @param ea vapour pressure [kPa]
  */
@@ -35,7 +35,7 @@ export function psychrometricWetBulbBernard(t: number, ea: number): number {
 }
 
 /**
- * Bernard natural wet bulb from the psychrometric one [°C] (METHODS.md §3.3).
+ * Bernard natural wet bulb from the psychrometric one [°C] (docs/methods.md §7.2).
  * @param t air [°C]; @param tpwb psychrometric wet bulb [°C]; @param tg globe [°C]; @param v air speed [m s⁻¹]
  */
 export function naturalWetBulbBernard(t: number, tpwb: number, tg: number, v: number): number {
@@ -48,7 +48,7 @@ export function naturalWetBulbBernard(t: number, tpwb: number, tg: number, v: nu
 }
 
 /**
- * Lemke & Kjellstrom (2012) indoor WBGT [°C] (METHODS.md §3.3): Tpwb solved by bisection from
+ * Lemke & Kjellstrom (2012) indoor WBGT [°C] (docs/methods.md §7.2): Tpwb solved by bisection from
  * `1556·e_d − 1.484·e_d·Tw − 1556·e_w + 1.484·e_w·Tw + 1010·(T − Tw) = 0`, e [hPa] by
  * `6.106·exp(17.27·T/(237.3 + T))`; `WBGT = 0.67·Tpwb + 0.33·T`. Returns both.
  * @param t [°C]; @param td dew point [°C]

@@ -6,16 +6,16 @@
 
 /** Where a constant comes from: key → citation. */
 export const PHYSICS_SOURCES = {
-  liljegren2008: 'Liljegren et al. 2008, J. Occup. Environ. Hyg. 5(10):645–655; reference code v1.1 (METHODS.md §3.2.1)',
-  buck1981: 'Buck 1981, J. Appl. Meteor. 20:1527–1532, as used by Liljegren et al. 2008 (METHODS.md §1.1)',
-  buck1996: 'Buck 1996 revision of Buck 1981 (METHODS.md §1.1)',
-  hylandWexler1983: 'Hyland & Wexler 1983, ASHRAE Fundamentals ch. 1 eq. 6 (METHODS.md §1.1)',
+  liljegren2008: 'Liljegren et al. 2008, J. Occup. Environ. Hyg. 5(10):645–655; reference code v1.1 (docs/methods.md §6.2)',
+  buck1981: 'Buck 1981, J. Appl. Meteor. 20:1527–1532, as used by Liljegren et al. 2008 (docs/methods.md §3.1)',
+  buck1996: 'Buck 1996 revision of Buck 1981 (docs/methods.md §3.1)',
+  hylandWexler1983: 'Hyland & Wexler 1983, ASHRAE Fundamentals ch. 1 eq. 6 (docs/methods.md §3.1)',
   michalsky1988: 'Michalsky 1988, Solar Energy 40:227–235 (Astronomical Almanac low-precision sun, refraction)',
-  epa2000: 'EPA-454/R-99-005 (2000) Meteorological Monitoring Guidance, §6.2.5 power law (METHODS.md §3.2.7)',
-  iso7243: 'ISO 7243 WBGT weighting (METHODS.md §3.1)',
-  bom: 'Australian Bureau of Meteorology simplified WBGT (METHODS.md §3.4)',
-  bernard1999: 'Bernard & Pourmoghani 1999; Lemke & Kjellstrom 2012 (METHODS.md §3.3)',
-  stull2011: 'Stull 2011, J. Appl. Meteor. Climatol. 50:2267–2269 (METHODS.md §2.1)',
+  epa2000: 'EPA-454/R-99-005 (2000) Meteorological Monitoring Guidance, §6.2.5 power law (docs/methods.md §5)',
+  iso7243: 'ISO 7243 WBGT weighting (docs/methods.md §6.1)',
+  bom: 'Australian Bureau of Meteorology simplified WBGT (docs/methods.md §7.3)',
+  bernard1999: 'Bernard & Pourmoghani 1999; Lemke & Kjellstrom 2012 (docs/methods.md §7.2)',
+  stull2011: 'Stull 2011, J. Appl. Meteor. Climatol. 50:2267–2269 (docs/methods.md §7.1)',
   lemke2012: 'Lemke & Kjellstrom 2012, Industrial Health 50:267–278 (indoor WBGT, globe at air temperature)',
 } as const;
 
@@ -117,7 +117,7 @@ export const WIND_EXPONENT_RURAL = [0.07, 0.07, 0.1, 0.15, 0.35, 0.55] as const;
 
 /**
  * WBGT weights outdoors (in the sun; the shade WBGT uses the same weights) [–]:
- * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, METHODS.md §3.1). The kernel writes the same
+ * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, docs/methods.md §6.1). The kernel writes the same
  * numbers inline in its hot loop; test/physics/methods.test.ts pins its output to these.
  */
 export const WBGT_WEIGHT_WET_BULB = 0.7;

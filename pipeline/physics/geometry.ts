@@ -8,7 +8,7 @@
  *   the Liljegren et al. 2008 reference convention; the whole-chain check against the reference
  *   rows holds with it. For hours that are sunlit throughout it differs from the period mean by
  *   under 0.3 % of the hour-angle term.
- * - `period-mean`: METHODS.md §4.2 — the whole-period mean cosine for the top-of-atmosphere cap and
+ * - `period-mean`: docs/methods.md §4.2 — the whole-period mean cosine for the top-of-atmosphere cap and
  *   clearness (it pairs with an hour-mean flux), the sunlit-part mean for the beam geometry. Better
  *   behaved in hours that contain sunrise or sunset; no refraction.
  */

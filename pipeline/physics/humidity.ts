@@ -8,7 +8,7 @@ const { a: BUCK_A, b: BUCK_B, c: BUCK_C } = BUCK_1981;
 
 /**
  * Saturation vapour pressure, Buck (1981) [hPa]: `6.1121·exp(17.502·T/(T + 240.97))`
- * (METHODS.md §1.1, as in the Liljegren et al. 2008 reference code, without the moist-air factor).
+ * (docs/methods.md §3.1, as in the Liljegren et al. 2008 reference code, without the moist-air factor).
  * @param t temperature [°C]
  */
 export function saturationVaporPressureBuck1981(t: number): number {
@@ -17,7 +17,7 @@ export function saturationVaporPressureBuck1981(t: number): number {
 
 /**
  * Saturation vapour pressure as the Liljegren model uses it [hPa]: Buck (1981) × 1.004
- * (METHODS.md §1.1: "correction for moist air, if pressure is not available").
+ * (docs/methods.md §3.1: "correction for moist air, if pressure is not available").
  * @param t temperature [°C]
  */
 export function saturationVaporPressureModel(t: number): number {
@@ -26,7 +26,7 @@ export function saturationVaporPressureModel(t: number): number {
 
 /**
  * Saturation vapour pressure, Buck (1996) [hPa]: `6.1121·exp((18.678 − T/234.5)·T/(257.14 + T))`
- * (METHODS.md §1.1). @param t temperature [°C]
+ * (docs/methods.md §3.1). @param t temperature [°C]
  */
 export function saturationVaporPressureBuck1996(t: number): number {
   return 6.1121 * Math.exp(((18.678 - t / 234.5) * t) / (257.14 + t));
@@ -34,7 +34,7 @@ export function saturationVaporPressureBuck1996(t: number): number {
 
 /**
  * Saturation vapour pressure, Hyland & Wexler (1983) [hPa], the better-accuracy form for general
- * use (ASHRAE Fundamentals ch. 1 eq. 6; METHODS.md §1.1; 0…200 °C):
+ * use (ASHRAE Fundamentals ch. 1 eq. 6; docs/methods.md §3.1; 0…200 °C):
  * `ln p_ws[Pa] = C8/T + C9 + C10·T + C11·T² + C12·T³ + C13·ln T` with T [K].
  * @param t temperature [°C]
  */
@@ -46,7 +46,7 @@ export function saturationVaporPressureHylandWexler(t: number): number {
 
 /**
  * Relative humidity from air temperature and dew point [%]: `100·e_s(Td)/e_s(T)` with Buck 1981
- * (METHODS.md §1.2; the moist-air factor cancels). @param t air temperature [°C]; @param td dew point [°C]
+ * (docs/methods.md §3.2; the moist-air factor cancels). @param t air temperature [°C]; @param td dew point [°C]
  */
 export function relativeHumidityFromDewPoint(t: number, td: number): number {
   return (100 * saturationVaporPressureBuck1981(td)) / saturationVaporPressureBuck1981(t);
@@ -54,7 +54,7 @@ export function relativeHumidityFromDewPoint(t: number, td: number): number {
 
 /**
  * Actual vapour pressure from the dew point as the model uses it [hPa]: `e = 1.004·e_s,Buck81(Td)`
- * (METHODS.md §1.2). @param td dew point [°C]
+ * (docs/methods.md §3.2). @param td dew point [°C]
  */
 export function vaporPressureFromDewPoint(td: number): number {
   return saturationVaporPressureModel(td);
@@ -62,7 +62,7 @@ export function vaporPressureFromDewPoint(td: number): number {
 
 /**
  * Dew point from a vapour pressure by inverting the model's Magnus form [°C]
- * (METHODS.md §1.2, a = 6.1121·1.004, b = 17.502, c = 240.97): `z = ln(e/a)`, `Td = c·z/(b − z)`.
+ * (docs/methods.md §3.2, a = 6.1121·1.004, b = 17.502, c = 240.97): `z = ln(e/a)`, `Td = c·z/(b − z)`.
  * @param e vapour pressure [hPa], > 0
  */
 export function dewPointFromVaporPressure(e: number): number {

@@ -1,7 +1,7 @@
 /**
  * The WBGT kernel: per cell-hour, globe and natural wet-bulb temperatures in sun and shade by
- * the Liljegren et al. 2008 model (METHODS.md §3.2), solved to the exact root, and
- * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, METHODS.md §3.1). Shade is the same model with
+ * the Liljegren et al. 2008 model (docs/methods.md §6), solved to the exact root, and
+ * `WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta` (ISO 7243, docs/methods.md §6.1). Shade is the same model with
  * solar set to zero (long-wave exchange kept), weighted the same way.
  *
  * Typed arrays in, typed arrays out, no allocation per cell. Inputs out of range get a status

@@ -1,6 +1,6 @@
 /**
- * The globe and wick energy balances of the Liljegren et al. 2008 model (METHODS.md §3.2.4,
- * §3.2.5), solved to the exact root by safeguarded Newton iteration with analytic derivatives.
+ * The globe and wick energy balances of the Liljegren et al. 2008 model (docs/methods.md §6.5,
+ * §6.6), solved to the exact root by safeguarded Newton iteration with analytic derivatives.
  *
  * The reference code stops a damped fixed-point loop at a 0.02 K step and so sits up to
  * ~0.015 °C above the root; here the same equations are solved until a Newton step is below
@@ -20,8 +20,8 @@
  * Everything that does not change between iterations is computed once per cell in
  * {@link prepareCell}: the air temperature's fourth power, the long-wave and solar loads, and
  * the per-cell factors of the heat- and mass-transfer coefficients. With the properties of
- * METHODS.md §3.2.2 they reduce, at the film temperature T [K], to
- * - `μ = cμ·√T/Ω(T)`, `Ω = 1.2945 − 8.7629e−4·T` (Ω as §3.2.2, rearranged);
+ * docs/methods.md §6.3 they reduce, at the film temperature T [K], to
+ * - `μ = cμ·√T/Ω(T)`, `Ω = 1.2945 − 8.7629e−4·T` (Ω of docs/methods.md eq. 6.3, rearranged);
  * - globe `h_g = (k/D_g)·Nu = (c_k/D_g)·(2μ + 0.6·Pr^0.3333·√(u·100P·D_g/R_air)·√(μ/T))`;
  * - wick `h_w = C_w·(T·Ω)^−0.4` (Re^0.6·μ collapses to a power of T·Ω);
  * - `(Pr/Sc)^0.56 = C_s·(T^0.834·Ω)^0.56` (pressure cancels in Sc).
@@ -39,7 +39,7 @@ export const ROOT_TOLERANCE_K = 3e-3;
 /** Largest number of iterations per solve before giving up (NaN, counted) [–]. */
 export const MAX_ITERATIONS = 50;
 
-// Property constants (METHODS.md §3.2.2), hoisted once per process.
+// Property constants (docs/methods.md §6.3), hoisted once per process.
 const C_MU = (2.6693e-6 * Math.sqrt(M_AIR)) / (SIGMA_LJ_AIR * SIGMA_LJ_AIR);
 const C_K = CP_AIR + 1.25 * R_AIR;
 const PR_G = 0.6 * Math.pow(PRANDTL, 0.3333);
@@ -74,7 +74,7 @@ export function globeFactors(diameter: number): GlobeFactors {
 
 /** Globe diameters accepted [m]: from a 1-inch globe to twice the 150 mm standard globe. */
 export const GLOBE_DIAMETER_RANGE = [0.025, 0.3] as const;
-/** (1 − α_g)/(2ε_gσ) [K⁴ per W m⁻²] (METHODS.md §3.2.4). */
+/** (1 − α_g)/(2ε_gσ) [K⁴ per W m⁻²] (docs/methods.md §6.5). */
 export const QG_K = (1 - ALB_GLOBE) / (2 * EMIS_GLOBE * SB);
 export const INV_PI = 1 / Math.PI;
 export const EW_SB = EMIS_WICK * SB;
@@ -179,7 +179,7 @@ function globeH(t: number, cg: number): number {
 /**
  * Fills `s` for one cell. Inputs: air temperature and dew point [°C] (dew point already ≤ air),
  * pressure [hPa], 2 m wind [m s⁻¹], solar used [W m⁻²], direct fraction [–], cos zenith [–].
- * Below cos z = 0.00873 the beam is treated as diffuse (METHODS.md §3.2.6).
+ * Below cos z = 0.00873 the beam is treated as diffuse (docs/methods.md §4.3).
  */
 export function prepareCell(s: CellState, taC: number, tdC: number, p: number, u2: number, solar: number, fdirIn: number, cz: number): void {
   s.taC = taC;
@@ -281,7 +281,7 @@ function globeSunGuess(s: CellState): void {
 
 /**
  * Globe temperature [K] in place: the root of
- * `F(Tg) = Tg⁴ − L + h_g(T_ref)/(ε_g σ)·(Tg − Ta) − Q_g`, T_ref = (Tg + Ta)/2 (METHODS.md §3.2.4),
+ * `F(Tg) = Tg⁴ − L + h_g(T_ref)/(ε_g σ)·(Tg − Ta) − Q_g`, T_ref = (Tg + Ta)/2 (docs/methods.md §6.5),
  * with the long-wave load L = ½(ε_a + ε_sfc)·Ta⁴ under the open sky and ½(ε_shelter + ε_sfc)·Ta⁴
  * under a shelter, and the solar load Q_g in the sun only. Starts at `s.x`, leaves the root in
  * `s.x` [K]; returns the iterations, or 0 if it did not converge (then `s.x` is NaN).
@@ -330,7 +330,7 @@ export function globeRoot(s: CellState, exposure: ExposureCode): number {
 /**
  * First guess for the shade natural wet bulb [K] (`radiative` true) or the psychrometric wet
  * bulb (false): quadratic model of G at Tw = Td, where e_w = e_a, so G(Td) needs no e_s read and
- * G'(Td), G''(Td) follow from e_s'(Td) (METHODS.md §1.1 derivatives of Buck's form).
+ * G'(Td), G''(Td) follow from e_s'(Td) (docs/methods.md §3.1 derivatives of Buck's form).
  */
 function wetBulbShadeGuess(s: CellState, radiative: boolean): void {
   const x = s.td;
@@ -398,7 +398,7 @@ function wetBulbGuessFromShade(s: CellState, x: number, q: number): void {
 }
 
 /**
- * Natural wet-bulb temperature [K] in place (`radiative` true; METHODS.md §3.2.5), or the
+ * Natural wet-bulb temperature [K] in place (`radiative` true; docs/methods.md §6.6), or the
  * psychrometric wet bulb of the model (`radiative` false: no radiation term): the root of
  * `G(Tw) = Tw − Ta + (ΔH/RATIO)·(e_w − e_a)/(P − e_w)·(Pr/Sc)^0.56 − ΔF/h_w`,
  * `ΔF = σ ε_w (L − Tw⁴) + Q_w`, properties at T_ref = (Tw + Ta)/2, with the long-wave load L of

@@ -3,9 +3,9 @@
  * wet-bulb balance that depends on temperature alone is tabulated once per process at 0.25 K
  * steps over 150–400 K with its analytic derivative, and read back by cubic Hermite
  * interpolation (relative error below 1e−8, checked in test/physics/property-tables.test.ts):
- * - `e_s(T)` [hPa]: Buck 1981 × 1.004 (METHODS.md §1.1);
- * - `Z(T) = (ΔH(T)/RATIO)·(Pr/Sc(T))^0.56` [K] (METHODS.md §3.2.2, §3.2.5; Sc = C·T^−0.834/Ω(T));
- * - `W(T) = (T·Ω(T))^−0.4` [K^−0.4], so that `h_w = C_w·W(T)` (METHODS.md §3.2.3).
+ * - `e_s(T)` [hPa]: Buck 1981 × 1.004 (docs/methods.md §3.1);
+ * - `Z(T) = (ΔH(T)/RATIO)·(Pr/Sc(T))^0.56` [K] (docs/methods.md §6.3, §6.6; Sc = C·T^−0.834/Ω(T));
+ * - `W(T) = (T·Ω(T))^−0.4` [K^−0.4], so that `h_w = C_w·W(T)` (docs/methods.md §6.4).
  * Outside the table the exact formulas are used.
  *
  * The solver reads pairs of factors at one temperature from interleaved tables ({@link lookup2}):
@@ -114,7 +114,7 @@ function build2(f: (t: number) => number, df: (t: number) => number, g: (t: numb
   return tab;
 }
 
-/** `V(T) = 1/W(T) = (T·Ω(T))^0.4` [K^0.4], so that `1/h_w = V(T)/C_w` (METHODS.md §3.2.3). */
+/** `V(T) = 1/W(T) = (T·Ω(T))^0.4` [K^0.4], so that `1/h_w = V(T)/C_w` (docs/methods.md §6.4). */
 export function vExact(T: number): number {
   return Math.exp(0.4 * Math.log(T * (OMEGA_A - OMEGA_B * T)));
 }
@@ -123,12 +123,12 @@ function vDeriv(T: number): number {
   return vExact(T) * 0.4 * (1 / T - OMEGA_B / omega);
 }
 
-/** Cₖ/D_g with Cₖ = c_p + 1.25·R_air [J kg⁻¹ K⁻¹ m⁻¹] (k = Cₖ·μ, METHODS.md §3.2.2). */
+/** Cₖ/D_g with Cₖ = c_p + 1.25·R_air [J kg⁻¹ K⁻¹ m⁻¹] (k = Cₖ·μ, docs/methods.md §6.3). */
 const CK_DG = (CP_AIR + 1.25 * R_AIR) / D_GLOBE;
 /**
  * Globe heat-transfer factors: `h_g(T) = M(T) + c_g·R(T)` with `M = 2·(Cₖ/D_g)·μ(T)` (the Nu = 2
  * term) and `R = (Cₖ/D_g)/√(√T·Ω(T))` (the 0.6·Re^½·Pr^⅓ term without its per-cell factor c_g)
- * [W m⁻² K⁻¹ per unit factor] (METHODS.md §3.2.2–§3.2.3).
+ * [W m⁻² K⁻¹ per unit factor] (docs/methods.md §6.3–§6.4).
  */
 export function globeMExact(T: number): number {
   return (2 * CK_DG * C_MU * Math.sqrt(T)) / (OMEGA_A - OMEGA_B * T);
@@ -143,7 +143,7 @@ function globeRDeriv(T: number): number {
   return globeRExact(T) * -0.5 * (0.5 / T - OMEGA_B / (OMEGA_A - OMEGA_B * T));
 }
 
-/** ε_a(T_d) = 0.575·e_s(T_d)^0.143 [–] (METHODS.md §3.2.2) with e_s Buck 1981 × 1.004. */
+/** ε_a(T_d) = 0.575·e_s(T_d)^0.143 [–] (docs/methods.md §6.3) with e_s Buck 1981 × 1.004. */
 export function emissivityExact(T: number): number {
   return 0.575 * Math.exp(0.143 * Math.log(esExact(T)));
 }

@@ -1,6 +1,6 @@
 /**
  * Solar inputs of the model for one cell-hour: the top-of-atmosphere check and cap, and the
- * direct-beam fraction (METHODS.md §3.2.6; conventions of shared/reference/README.md).
+ * direct-beam fraction (docs/methods.md §4.3; conventions of test/fixtures/reference/README.md).
  *
  * - Sun up (cos z ≥ 0.00873): top of atmosphere `S_toa = S0·cos z/d²`; solar is capped at
  *   0.85·S_toa; the direct fraction is the given one (ERA5 `fdir/ssrd`, a CSV column) or else the
@@ -11,7 +11,7 @@ import { CZA_MIN, FDIR_MAX, NORMSOLAR_MAX, SOLAR_CONSTANT } from './constants.ts
 
 /**
  * Liljegren's empirical direct-beam fraction [–] from the clearness index s* [–]
- * (METHODS.md §3.2.6): `exp(3 − 1.34 s* − 1.65/s*)` clipped to [0, 0.9]; 0 for s* ≤ 0.
+ * (docs/methods.md §4.3): `exp(3 − 1.34 s* − 1.65/s*)` clipped to [0, 0.9]; 0 for s* ≤ 0.
  */
 export function directFractionEstimate(clearness: number): number {
   if (!(clearness > 0)) return 0;
@@ -29,7 +29,7 @@ export function directFractionEstimate(clearness: number): number {
   return f > FDIR_MAX ? FDIR_MAX : f;
 }
 
-/** `exp(3 − 1.34 s* − 1.65/s*)` [–] unclipped, for s* > 0 (METHODS.md §3.2.6). */
+/** `exp(3 − 1.34 s* − 1.65/s*)` [–] unclipped, for s* > 0 (docs/methods.md §4.3). */
 export function directFractionExact(clearness: number): number {
   return Math.exp(3 - 1.34 * clearness - 1.65 / clearness);
 }

@@ -14,7 +14,7 @@
  * formulas (Michalsky 1988, Solar Energy 40:227–235; 1950–2049), which the Liljegren et al. 2008
  * reference code uses, are kept as {@link sunStateAlmanac} for the comparison over their years.
  * Refraction: Michalsky 1988's standard-atmosphere formula
- * (1013.25 hPa, 15 °C). Period means: METHODS.md §4.2. NOAA's Spencer-series formulas (METHODS.md
+ * (1013.25 hPa, 15 °C). Period means: docs/methods.md §4.2. NOAA's Spencer-series formulas (docs/methods.md
  * §4.1) are kept for comparison and checks.
  *
  * Time is always milliseconds since 1970-01-01 UTC; angles in degrees at the API, radians inside.
@@ -111,8 +111,8 @@ export function sunState(timeMs: number): SunState {
 
 /**
  * Sun state at an instant by the Astronomical Almanac's low-precision formulas (Michalsky 1988,
- * eqs. for mean longitude, mean anomaly, ecliptic longitude, obliquity, GMST; METHODS.md §3.2.6,
- * §3.2.9 for the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`), the formulas of the
+ * eqs. for mean longitude, mean anomaly, ecliptic longitude, obliquity, GMST; docs/methods.md §4.1,
+ * also for the distance `d = 1.00014 − 0.01671 cos g − 0.00014 cos 2g`), the formulas of the
  * Liljegren et al. 2008 reference code, documented for 1950–2049. Kept for the comparison with
  * {@link sunState} over those years (test/physics/sun-position.test.ts).
  * @param timeMs instant [ms since 1970 UTC]
@@ -143,7 +143,7 @@ export function hourAngle(s: SunState, lonDeg: number): number {
 
 /**
  * Geometric cosine of the solar zenith at an instant [–] (no refraction):
- * `cos θ = sin φ sin δ + cos φ cos δ cos h` (METHODS.md §4.1).
+ * `cos θ = sin φ sin δ + cos φ cos δ cos h` (docs/methods.md §4.1).
  * @param timeMs instant [ms since 1970 UTC]; @param latDeg latitude [° N]; @param lonDeg longitude [° E]
  */
 export function cosZenithInstant(timeMs: number, latDeg: number, lonDeg: number): number {
@@ -188,7 +188,7 @@ export function cosZenithApparentInstant(timeMs: number, latDeg: number, lonDeg:
   return apparentCosZenith(cosZenithInstant(timeMs, latDeg, lonDeg));
 }
 
-/** Cosines of the zenith over an averaging period (METHODS.md §4.2). */
+/** Cosines of the zenith over an averaging period (docs/methods.md §4.2). */
 export interface PeriodCosines {
   /** Whole-interval mean of max(0, cos θ) [–]; pairs with an accumulated (period-mean) flux. */
   mean: number;
@@ -199,7 +199,7 @@ export interface PeriodCosines {
 }
 
 /**
- * Whole-period and sunlit-part mean cosines (METHODS.md §4.2): declination at mid-period,
+ * Whole-period and sunlit-part mean cosines (docs/methods.md §4.2): declination at mid-period,
  * hour angle sweeping 15° h⁻¹, `∫cos θ dh = sin φ sin δ (b − a) + cos φ cos δ (sin b − sin a)`
  * over the sunlit part `[a, b] = [h1, h2] ∩ [−h_s, h_s]` (intervals crossing ±π handled by
  * testing the neighbouring days' sunlit windows).
@@ -255,7 +255,7 @@ export function integrateCosines(A: number, B: number, hm: number, half: number)
 
 /**
  * Whole-interval mean of the cosine of the zenith [–] over the period ending at `endTimeMs`
- * (METHODS.md §4.2; zero-clamped, so night hours give 0).
+ * (docs/methods.md §4.2; zero-clamped, so night hours give 0).
  * @param endTimeMs end of the period [ms since 1970 UTC]; @param periodMinutes [min]
  * @param latDeg [° N]; @param lonDeg [° E]
  */
@@ -263,14 +263,14 @@ export function cosZenithPeriodMean(endTimeMs: number, periodMinutes: number, la
   return periodCosines(endTimeMs, periodMinutes, latDeg, lonDeg).mean;
 }
 
-/** Earth–Sun distance [AU] at an instant [ms since 1970 UTC] (Almanac; METHODS.md §3.2.9). */
+/** Earth–Sun distance [AU] at an instant [ms since 1970 UTC] (the sun state of {@link sunState}, docs/methods.md §4.1 eq. 4.5). */
 export function earthSunDistanceAu(timeMs: number): number {
   return sunState(timeMs).distanceAu;
 }
 
 /**
  * Top-of-atmosphere irradiance on a horizontal plane [W m⁻²]: `S0·max(0, cos θ)/d²`
- * (METHODS.md §3.2.6). @param timeMs [ms since 1970 UTC]; @param cosZenith [–]
+ * (docs/methods.md §4.3). @param timeMs [ms since 1970 UTC]; @param cosZenith [–]
  */
 export function topOfAtmosphereIrradiance(timeMs: number, cosZenith: number): number {
   const d = earthSunDistanceAu(timeMs);
@@ -278,7 +278,7 @@ export function topOfAtmosphereIrradiance(timeMs: number, cosZenith: number): nu
 }
 
 // ---------------------------------------------------------------------------------------------
-// NOAA "General Solar Position Calculations" (Spencer 1971 series), METHODS.md §4.1.
+// NOAA "General Solar Position Calculations" (Spencer 1971 series), docs/methods.md §4.1.
 
 /** NOAA fractional year γ [rad] for a time [ms since 1970 UTC] (365 or 366 days by year). */
 export function noaaFractionalYear(timeMs: number): number {
@@ -290,12 +290,12 @@ export function noaaFractionalYear(timeMs: number): number {
   return ((2 * Math.PI) / (leap ? 366 : 365)) * (doy - 1 + (hour - 12) / 24);
 }
 
-/** NOAA equation of time [min] (METHODS.md §4.1). @param gamma fractional year [rad] */
+/** NOAA equation of time [min] (docs/methods.md §4.1). @param gamma fractional year [rad] */
 export function noaaEquationOfTime(gamma: number): number {
   return 229.18 * (0.000075 + 0.001868 * Math.cos(gamma) - 0.032077 * Math.sin(gamma) - 0.014615 * Math.cos(2 * gamma) - 0.040849 * Math.sin(2 * gamma));
 }
 
-/** NOAA declination [rad] (METHODS.md §4.1). @param gamma fractional year [rad] */
+/** NOAA declination [rad] (docs/methods.md §4.1). @param gamma fractional year [rad] */
 export function noaaDeclination(gamma: number): number {
   return (
     0.006918 - 0.399912 * Math.cos(gamma) + 0.070257 * Math.sin(gamma) - 0.006758 * Math.cos(2 * gamma) +
@@ -305,7 +305,7 @@ export function noaaDeclination(gamma: number): number {
 
 /**
  * NOAA cosine of the zenith [–] at an instant: true solar time `tst = 60·h_UTC + EoT + 4λ` [min],
- * hour angle `tst/4 − 180` [°] (METHODS.md §4.1). @param timeMs [ms since 1970 UTC]
+ * hour angle `tst/4 − 180` [°] (docs/methods.md §4.1). @param timeMs [ms since 1970 UTC]
  */
 export function noaaCosZenith(timeMs: number, latDeg: number, lonDeg: number): number {
   const gamma = noaaFractionalYear(timeMs);

@@ -1,6 +1,6 @@
 /**
  * 2 m wind from a wind measured (or modelled) at another height, by the stability-class power
- * law of EPA-454/R-99-005 §6.2.5 as in the Liljegren et al. 2008 reference code (METHODS.md §3.2.7).
+ * law of EPA-454/R-99-005 §6.2.5 as in the Liljegren et al. 2008 reference code (docs/methods.md §5).
  *
  * Night-time stability needs the vertical temperature difference ΔT, which reanalysis does not
  * provide. Convention: ΔT defaults to 0, i.e. the "ΔT ≥ 0" (stable) column, for gridded data and
@@ -11,7 +11,7 @@
 import { MIN_SPEED, REF_HEIGHT, WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN } from './constants.ts';
 
 /**
- * Stability class 1 (A) … 6 (F) from the solar-radiation/ΔT table (METHODS.md §3.2.7).
+ * Stability class 1 (A) … 6 (F) from the solar-radiation/ΔT table (docs/methods.md §5).
  * @param daytime cos z > 0; @param speed measured wind [m s⁻¹]; @param solar solar after the cap [W m⁻²];
  * @param deltaT vertical temperature difference, upper minus lower [°C]
  */

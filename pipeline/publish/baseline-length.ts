@@ -4,7 +4,7 @@
  *
  * The rule (ours, from arithmetic; stated on the methods page): a 90th-percentile year is one that
  * about 1 year in 10 exceeds, so a baseline needs at least 10 years before it can be expected to
- * hold one such year. With the Hyndman–Fan type-7 quantile the normals use (METHODS.md §8:
+ * hold one such year. With the Hyndman–Fan type-7 quantile the normals use (docs/methods.md §10.1, eq. 10.1:
  * rank h = 1 + 0.9 (n − 1) of the n sorted years) a baseline of n ≤ 11 years puts the P90
  * between its two highest years, a share 1.1 − 0.1 n of the way to the highest: for 4 years 70 %,
  * so the figure is mostly the hottest year seen, not a 1-in-10 year. For comparison, the WMO's
@@ -27,7 +27,7 @@ export function isShortForP90(n: number): boolean {
 
 /**
  * The type-7 rank of the 90th percentile among `n` sorted years (1 = lowest) [rank]; for
- * n = 30, 27.1 (METHODS.md §8: P90 = x27 + 0.1 (x28 − x27)).
+ * n = 30, 27.1 (docs/methods.md §10.1, eq. 10.1: P90 = x27 + 0.1 (x28 − x27)).
  */
 export function p90Rank(n: number): number {
   return 1 + 0.9 * (n - 1);

@@ -27,7 +27,7 @@ import type { InventoryFile, InventoryVariable } from '../publish/inventory-type
 export type DatasetFileInfo = InventoryFile;
 
 export interface OpenDatasetOptions {
-  /** `era5-land` de-accumulates the since-00-UTC radiation accumulations (METHODS.md §4.4). */
+  /** `era5-land` de-accumulates the since-00-UTC radiation accumulations (docs/methods.md §2.2). */
   product: 'era5' | 'era5-land';
   /** Land-sea mask: variable name (in any input file) and land fraction threshold [1]. */
   landSeaMask?: { variable: string; threshold: number };
@@ -508,7 +508,7 @@ class DatasetReader {
   }
 
   /**
-   * ERA5-Land accumulations run from 00 UTC to the stamp (METHODS.md §4.4): the hour ending at
+   * ERA5-Land accumulations run from 00 UTC to the stamp (docs/methods.md §2.2): the hour ending at
    * t holds A(t) − A(t − 1 h), except the hour ending at 01 UTC, which is A(01) itself. Values
    * are already mean fluxes [W m-2] here (÷ 3600 is linear). Small negative differences from
    * packing noise are set to 0 (radiation downwards cannot be negative). The first hour of the

@@ -1,6 +1,6 @@
 /**
  * Recognising ERA5 / ERA5-Land variables by short name, CF standard_name or ECMWF long_name
- * (METHODS.md §4.4 table; ECMWF parameter database names), and what each becomes: its
+ * (docs/methods.md §2.1 table; ECMWF parameter database names), and what each becomes: its
  * canonical field (pipeline/model/fields.ts) and the kind of its units.
  */
 import { attrText } from './attrs.ts';

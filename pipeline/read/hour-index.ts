@@ -1,7 +1,7 @@
 /**
  * The one continuous hourly time axis of a multi-file dataset: for each ERA5 variable and hour,
  * which file and which time index hold it. Duplicated hours are errors, except an expver
- * overlap, where final ERA5 wins over preliminary ERA5T (METHODS.md §4.4). Gaps (hours no file
+ * overlap, where final ERA5 wins over preliminary ERA5T (docs/methods.md §2.3). Gaps (hours no file
  * covers) and variables missing for some hours are errors naming the files.
  */
 import { isoSeconds } from './cf-time.ts';

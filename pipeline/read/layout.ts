@@ -1,5 +1,5 @@
 /**
- * Which ERA5 layout a file follows (METHODS.md §4.4): the legacy CDS layout (NetCDF-3, int16
+ * Which ERA5 layout a file follows (docs/methods.md §2.3): the legacy CDS layout (NetCDF-3, int16
  * packed, `time` in "hours since 1900-01-01") or the 2024 CDS layout (NetCDF-4, `valid_time` in
  * "seconds since 1970-01-01", `expver` and `number` coordinates); anything else is `other`.
  */

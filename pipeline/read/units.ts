@@ -6,7 +6,7 @@
  *
  * Conversions: K → °C subtracts 273.15 (BIPM SI Brochure, 9th ed., §2.3.1); °F → °C is
  * (x − 32) · 5/9; Pa → hPa divides by 100; an hourly accumulation [J m-2] becomes the mean flux
- * over the hour [W m-2] by dividing by 3600 s (METHODS.md §4.4); knots → m/s multiplies by
+ * over the hour [W m-2] by dividing by 3600 s (docs/methods.md §2.1); knots → m/s multiplies by
  * 0.514444 (1 kn = 1852 m / 3600 s).
  */
 import { NetcdfUnitImplausible, NetcdfUnitUnknown } from './errors.ts';

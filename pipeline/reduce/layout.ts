@@ -24,7 +24,7 @@ export const MILLI = 1000;
 export const CENTI = 100;
 
 /**
- * The capacity-loss views counted per exposure (METHODS.md §6): Kjellstrom et al. 2018 at 200,
+ * The capacity-loss views counted per exposure (docs/methods.md §9): Kjellstrom et al. 2018 at 200,
  * 300 and 400 W, and Dunne et al. 2013 (heavy work). Order of the loss index `l`.
  */
 export const LOSS_VIEWS: ReadonlyArray<{ id: string; label: string; intensity?: KjellstromIntensity }> = [

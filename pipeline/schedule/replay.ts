@@ -1,5 +1,5 @@
 /**
- * The schedule replay (METHODS.md §10.4, our day-by-day form): from the job's first day, each
+ * The schedule replay (docs/methods.md §13.2, our day-by-day form): from the job's first day, each
  * working day yields its shift hours minus the hours heat takes, for the whole crew, until the
  * quantity of work is done.
  *

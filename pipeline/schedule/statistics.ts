@@ -1,7 +1,7 @@
 /**
  * Statistics across the replayed weather years: the mean, the median and the 90th-percentile year
  * with the climate stage's own quantile rule (pipeline/climate/quantile.ts: Hyndman & Fan 1996
- * type 7, METHODS.md §8), and the number of years they come from.
+ * type 7, docs/methods.md §10.1), and the number of years they come from.
  */
 import { quantileSorted, sortFinite } from '../climate/quantile.ts';
 

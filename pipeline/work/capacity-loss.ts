@@ -4,10 +4,10 @@
  * they are population-level estimates, not work/rest advice. Each carries its source.
  *
  * - Kjellstrom et al. (2018), Int J Biometeorol, doi 10.1007/s00484-017-1407-0: cumulative normal
- *   `loss = ½·[1 + erf((WBGT − μ)/(σ·√2))]` with μ/σ per work intensity (METHODS.md §6.1; values as
- *   used in public research code matching the Lancet Countdown 2019 model [V]).
+ *   `loss = ½·[1 + erf((WBGT − μ)/(σ·√2))]` with μ/σ per work intensity (docs/methods.md §9.1; values as
+ *   read in two independent public research codes; the paper was not read).
  * - Dunne, Stouffer & John (2013), Nature Climate Change 3:563–566: heavy work,
- *   `capacity[%] = 100 − 25·max(0, WBGT − 25)^(2/3)`, clipped to [0, 100] (METHODS.md §6.3).
+ *   `capacity[%] = 100 − 25·max(0, WBGT − 25)^(2/3)`, clipped to [0, 100] (docs/methods.md §9.2).
  *
  * All WBGT values are [°C]; losses are fractions of the hour [0–1].
  *
@@ -26,7 +26,7 @@ import { normalCdf, normalCdfFast } from './erf.ts';
 /** Work intensities of Kjellstrom et al. (2018) [W]. */
 export type KjellstromIntensity = 200 | 300 | 400;
 
-/** μ and σ [°C WBGT] per intensity (METHODS.md §6.1, Kjellstrom et al. 2018). */
+/** μ and σ [°C WBGT] per intensity (docs/methods.md §9.1, Kjellstrom et al. 2018). */
 export const KJELLSTROM_2018: Readonly<Record<KjellstromIntensity, { mean: number; sd: number }>> = {
   200: { mean: 35.53, sd: 3.94 },
   300: { mean: 33.49, sd: 3.94 },
@@ -45,7 +45,7 @@ function params(intensity: number): { mean: number; sd: number } {
 
 /**
  * Fraction of work capacity lost [0–1] at WBGT `wbgt` [°C] for intensity 200 / 300 / 400 W
- * (Kjellstrom et al. 2018; METHODS.md §6.1). NaN → NaN.
+ * (Kjellstrom et al. 2018; docs/methods.md §9.1). NaN → NaN.
  */
 export function kjellstrom2018Loss(wbgt: number, intensity: KjellstromIntensity): number {
   const { mean, sd } = params(intensity);
@@ -68,7 +68,7 @@ export function kjellstrom2018LossInto(out: Float32Array, wbgt: Float32Array, in
 
 /**
  * Fraction of work capacity lost [0–1] for heavy work at WBGT `wbgt` [°C]
- * (Dunne et al. 2013; METHODS.md §6.3): 0 up to 25 °C, 1 from about 33 °C. NaN → NaN.
+ * (Dunne et al. 2013; docs/methods.md §9.2): 0 up to 25 °C, 1 from about 33 °C. NaN → NaN.
  */
 export function dunne2013Loss(wbgt: number): number {
   if (wbgt !== wbgt) return NaN;

@@ -1,6 +1,6 @@
 /**
  * The cautions that go with every work figure, in one wording for the site, the CSV tables and the
- * browser calculator (METHODS.md §9 lists them with their sources). Plain text, no markup.
+ * browser calculator (docs/methods.md §14 lists them with their sources). Plain text, no markup.
  */
 
 export interface Caution {
@@ -8,7 +8,7 @@ export interface Caution {
   id: string;
   /** The caution, in plain words. */
   text: string;
-  /** The kind of source behind it (METHODS.md §9). */
+  /** The kind of source behind it (docs/methods.md §14). */
   basis: string;
 }
 

@@ -2,7 +2,7 @@
  * Evaluations grouped for the hot loop of the reduction. With the continuous limit curves and
  * rest in the same place, the allowable work fraction of every workload class follows from one
  * number per hour, the metabolic rate the limit allows at the hour's effective WBGT
- * (METHODS.md §5.6): `M_lim = 10^((a − WBGT_eff)/b)`, then `f = (M_lim − M_r)/(M_w − M_r)`
+ * (docs/methods.md §8.6): `M_lim = 10^((a − WBGT_eff)/b)`, then `f = (M_lim − M_r)/(M_w − M_r)`
  * clipped to [0, 1]. Evaluations that share acclimatization, exposure and clothing therefore
  * share one exponential per hour. Same formula and constants as work-fraction.ts (its kernel
  * constants c0, c1 are reused, not restated); tests check the two agree.

@@ -2,12 +2,12 @@
  * Screening limits of WBGT as a function of the time-weighted metabolic rate, two models:
  *
  * - `curve-2017`: continuous curves, M in W, 1-hour time-weighted averages
- *   (METHODS.md §5.2–§5.3; NIOSH 2016 REL/RAL, same form in ISO 7243:2017):
+ *   (docs/methods.md §8.2–§8.3; NIOSH 2016 REL/RAL, same form in ISO 7243:2017):
  *   acclimatized `L = 56.7 − 11.5·log10 M`, unacclimatized `L = 59.9 − 14.1·log10 M`.
- * - `table-1989`: the ISO 7243:1989 reference values per metabolic-rate class (METHODS.md §5.2),
+ * - `table-1989`: the ISO 7243:1989 reference values per metabolic-rate class (docs/methods.md §8.3),
  *   with or without perceptible air movement for classes 3 and 4. Our rule (documented in the
  *   README): each table value belongs to its class's typical rate (115 / 180 / 300 / 415 / 520 W,
- *   METHODS.md §5.1), the limit is linear in M between those rates, and flat below 115 W and above
+ *   docs/methods.md §8.1), the limit is linear in M between those rates, and flat below 115 W and above
  *   520 W. At the five typical rates this gives exactly the table; between them it avoids the
  *   jumps of a class step, so the work fraction (work-fraction.ts) varies smoothly.
  */
@@ -32,7 +32,7 @@ export interface LimitChoice {
 }
 
 /**
- * Coefficients of `L = intercept − slope·log10(M)` [°C-WBGT, M in W] (METHODS.md §5.3;
+ * Coefficients of `L = intercept − slope·log10(M)` [°C-WBGT, M in W] (docs/methods.md §8.2;
  * NIOSH 2016-106 REL and RAL).
  */
 export const LIMIT_CURVE_2017: Readonly<Record<Acclimatization, { intercept: number; slope: number }>> = {
@@ -42,19 +42,19 @@ export const LIMIT_CURVE_2017: Readonly<Record<Acclimatization, { intercept: num
 
 /**
  * Continuous limit curve [°C-WBGT] at time-weighted metabolic rate `metabolicRate` [W]
- * (METHODS.md §5.3; NIOSH 2016 REL/RAL; ISO 7243:2017 form).
+ * (docs/methods.md §8.2; NIOSH 2016 REL/RAL; ISO 7243:2017 form).
  */
 export function limitCurve2017(metabolicRate: number, acclimatization: Acclimatization): number {
   const c = LIMIT_CURVE_2017[acclimatization];
   return c.intercept - c.slope * Math.log10(metabolicRate);
 }
 
-/** Typical rates of ISO classes 0–4 [W] at which the 1989 table values are placed (METHODS.md §5.1). */
+/** Typical rates of ISO classes 0–4 [W] at which the 1989 table values are placed (docs/methods.md §8.1). */
 export const TABLE_1989_RATES: readonly number[] = [115, 180, 300, 415, 520];
 
 /**
- * ISO 7243:1989 reference WBGT values [°C] for classes 0–4 (METHODS.md §5.2, from the ISO 7243:1989
- * table as reproduced in an instrument manual [V]). `still` = no perceptible air movement,
+ * ISO 7243:1989 reference WBGT values [°C] for classes 0–4 (docs/methods.md §8.3, from the ISO 7243:1989
+ * table as reproduced in an instrument manual, read). `still` = no perceptible air movement,
  * `moving` = perceptible air movement (differs for classes 3 and 4 only).
  */
 export const TABLE_1989_LIMITS: Readonly<Record<Acclimatization, { still: readonly number[]; moving: readonly number[] }>> = {
@@ -70,7 +70,7 @@ export function table1989Knots(acclimatization: Acclimatization, airMovement = f
 
 /**
  * ISO 7243:1989 table model [°C-WBGT] at metabolic rate `metabolicRate` [W]: linear between the
- * class typical rates, flat outside 115–520 W (our rule, see file comment; values METHODS.md §5.2).
+ * class typical rates, flat outside 115–520 W (our rule, see file comment; values docs/methods.md §8.3).
  */
 export function limitTable1989(metabolicRate: number, acclimatization: Acclimatization, airMovement = false): number {
   const { rates, limits } = table1989Knots(acclimatization, airMovement);

@@ -1,13 +1,13 @@
 /**
  * Allowable work fraction per hour, from the 1-hour time-weighted metabolic rate and WBGT
- * (METHODS.md §5.6; ACGIH/NIOSH/ISO time-weighted-average method). A worker works a fraction f of
+ * (docs/methods.md §8.6; ACGIH/NIOSH/ISO time-weighted-average method). A worker works a fraction f of
  * the hour at M_w and rests the rest of it at M_r; the hour is acceptable when
  *
  *   f·WBGT_w + (1 − f)·WBGT_r  ≤  L(f·M_w + (1 − f)·M_r)          (WBGT values effective: + CAV)
  *
  * and f is the largest fraction in [0, 1] that satisfies it. Hours lost = 1 − f.
  *
- * - Rest in the same place (WBGT_r = WBGT_w), curve model: closed form (METHODS.md §5.6)
+ * - Rest in the same place (WBGT_r = WBGT_w), curve model: closed form (docs/methods.md §8.6)
  *   `M_lim = 10^((a − WBGT_eff)/b)`, `f = (M_lim − M_r)/(M_w − M_r)` clipped to [0, 1]
  *   (a, b from limit-curves.ts; `10^x` computed as `exp(x·ln 10)`).
  * - Rest at another WBGT (e.g. in shade while working in sun), curve model: the left side minus

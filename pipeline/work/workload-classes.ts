@@ -2,10 +2,10 @@
  * Workload classes: named metabolic rates [W] with a plain description, read from
  * content/workload-classes.yaml (already parsed from YAML by the caller, so this file stays pure
  * and runs in the browser). The defaults are the ISO 7243 class values 180 / 300 / 415 / 520 W with
- * rest at 115 W (METHODS.md §5.1; typical values as used by ACGIH/NIOSH and ISO 7243).
+ * rest at 115 W (docs/methods.md §8.1; typical values as used by ACGIH/NIOSH and ISO 7243).
  *
  * Metabolic rates are whole-body rates [W] for a 1.8 m² adult; a rate in W m⁻² times 1.8 gives W
- * (METHODS.md §5.1 column "M (W, 1.8 m² body)").
+ * (docs/methods.md §8.1 column "M (W, 1.8 m² body)").
  */
 import { z } from 'zod';
 import {
@@ -115,7 +115,7 @@ export function selectWorkloadClasses(all: WorkloadClasses, ids: readonly string
 }
 
 /**
- * The default classes (ISO 7243 class values; METHODS.md §5.1), the same as the shipped
+ * The default classes (ISO 7243 class values; docs/methods.md §8.1), the same as the shipped
  * content/workload-classes.yaml, for callers that have no file (the browser calculator, tests).
  */
 export const DEFAULT_WORKLOAD_CLASSES: WorkloadClasses = {

@@ -1,5 +1,5 @@
 /**
- * The usual cautions of occupational heat guidance (METHODS.md §9 lists them with their sources:
+ * The usual cautions of occupational heat guidance (docs/methods.md §14 lists them with their sources:
  * ISO 7243:2017 scope, NIOSH 2016 criteria, ACGIH/ISO clothing adjustment, ECMWF on grid-box
  * values, regulatory practice), written in our own words for the site.
  */

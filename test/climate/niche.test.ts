@@ -14,7 +14,7 @@ import { assessNiche } from '../../pipeline/climate/niche-assessment.ts';
 
 describe('mean annual temperature against the human climate niche', () => {
   it('classifies the boundaries as documented: 11.0 and 15.0 → core, 20.0 and 25.0 → second, 29.0 → outside', () => {
-    // Bands: Xu et al. 2020 (major mode 11–15 °C, secondary 20–25 °C); Lenton et al. 2023 (MAT ≥ 29 °C), per METHODS.md §7.
+    // Bands: Xu et al. 2020 (major mode 11–15 °C, secondary 20–25 °C); Lenton et al. 2023 (MAT ≥ 29 °C), per docs/methods.md §11.
     expect(classifyNiche(11.0)).toBe('core');
     expect(classifyNiche(15.0)).toBe('core');
     expect(classifyNiche(20.0)).toBe('second');

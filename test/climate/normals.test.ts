@@ -11,8 +11,8 @@ const METHODS_COUNTS = [
 const range = (a: number, b: number) => Array.from({ length: b - a + 1 }, (_, i) => a + i);
 
 describe('computeNormals', () => {
-  it('reproduces METHODS.md §8 for one item over 1991–2020: median 101.0 h, P90 142.4 h, min 40, max 154, n 30', () => {
-    // Source: METHODS.md §8 [C] example; mean 2914/30 computed by hand from the same list.
+  it('reproduces docs/methods.md §10.1 for one item over 1991–2020: median 101.0 h, P90 142.4 h, min 40, max 154, n 30', () => {
+    // Source: docs/methods.md §10.1 check values (computed there with numpy); mean 3038/30 = 101.27 h from the same list.
     const years = range(1991, 2020);
     const n = computeNormals({ years, values: new Float64Array(METHODS_COUNTS), nItems: 1 }, { baseline: [1991, 2020] });
     expect(n.median[0]).toBeCloseTo(101.0, 12);

@@ -2,15 +2,15 @@ import { describe, expect, it } from 'vitest';
 import { quantile, quantileSorted } from '../../pipeline/climate/quantile.ts';
 import { expectCatalogued } from './helpers.ts';
 
-// METHODS.md §8 [C] worked example: 30 sorted yearly exceedance counts [h].
+// docs/methods.md §10.1 check values: 30 sorted yearly exceedance counts [h].
 const METHODS_COUNTS = [
   40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146,
   148, 154,
 ];
 
 describe('quantile (Hyndman–Fan type 7)', () => {
-  it('gives the METHODS.md §8 worked example: n = 30 counts → median 101.0 h, P90 142.4 h', () => {
-    // Source: METHODS.md §8; numpy 2.4.6 np.quantile(x, [0.5, 0.9]) prints [101. 142.4] on this machine.
+  it('gives the docs/methods.md §10.1 worked example: n = 30 counts → median 101.0 h, P90 142.4 h', () => {
+    // Source: docs/methods.md §10.1; numpy 2.4.6 np.quantile(x, [0.5, 0.9]) prints [101. 142.4] on this machine.
     expect(quantile(METHODS_COUNTS, 0.5).value).toBeCloseTo(101.0, 12);
     expect(quantile(METHODS_COUNTS, 0.9).value).toBeCloseTo(142.4, 12);
   });

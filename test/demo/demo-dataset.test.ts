@@ -11,7 +11,7 @@ import { YearWeather } from '../../pipeline/demo/weather.ts';
 import { dataStrings, dataValues, ncdump } from './ncdump.ts';
 
 // Both layouts are checked with Debian's ncdump (netcdf-bin, the NetCDF reference C library).
-// Layout facts (dims, time units, packing, attribute names) are METHODS.md §4.4, which cites
+// Layout facts (dims, time units, packing, attribute names) are docs/methods.md §2.3, which cites
 // ncdump output of CDS files and the ECMWF conversion pages.
 
 const sha = (p: string) => createHash('sha256').update(readFileSync(p)).digest('hex');

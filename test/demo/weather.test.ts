@@ -8,8 +8,8 @@ import { computePoint } from '../../pipeline/physics/point-row.ts';
 
 // Physical consistency of the invented weather (small grid, one whole year). Physical bounds:
 // dew point ≤ air temperature (definition), no sunlight while the sun is below the horizon for
-// the whole hour and never more than the top-of-atmosphere flux (METHODS.md §4.2, §3.2.6),
-// direct ≤ global (definition of ERA5 fdir within ssrd, METHODS.md §4.4).
+// the whole hour and never more than the top-of-atmosphere flux (docs/methods.md §4.2, §4.3),
+// direct ≤ global (definition of ERA5 fdir within ssrd, docs/methods.md §2.1).
 
 let cc: CellClimate;
 let year: DemoBlock;

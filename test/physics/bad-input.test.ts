@@ -85,7 +85,7 @@ describe('heathours point files', () => {
     ]);
     expect(head.at(-1)).toBe('status');
     expect(lines[1].startsWith('"Yard, north",')).toBe(true);
-    // METHODS.md §3.2.8 full Chicago call: WBGT 29.836 °C (reference C), exact root within 0.03 °C.
+    // docs/methods.md §6.9 full Chicago call: WBGT 29.836 °C (reference C), exact root within 0.03 °C.
     const wbgt = Number(lines[1].split(',').at(head.indexOf('wbgt_c') + 1)); // +1: the quoted comma in the site field
     expect(Math.abs(wbgt - 29.836)).toBeLessThan(0.03);
     // Every output of the bad row is empty (13 physics + 2 per workload class), then the status.

@@ -9,7 +9,7 @@ import {
   apparentCosZenith, apparentCosZenithFast,
 } from '../../pipeline/physics/solar-position.ts';
 
-// CRC Handbook of Chemistry and Physics 1992–93, "Vapor pressure of water" [kPa] (METHODS.md §1.3).
+// CRC Handbook of Chemistry and Physics 1992–93, "Vapor pressure of water" [kPa] (docs/methods.md §3.3).
 const CRC: [number, number][] = [[0, 0.61129], [10, 1.2281], [20, 2.3388], [30, 4.2455], [40, 7.3814]];
 
 describe('saturation vapour pressure', () => {
@@ -22,36 +22,36 @@ describe('saturation vapour pressure', () => {
       expect(Math.abs(saturationVaporPressureBuck1996(t) / (10 * kpa) - 1)).toBeLessThan(0.0005);
     }
   });
-  it('the model vapour pressure includes the 1.004 factor: esat(303.15 K) = 42.6048 hPa (METHODS.md §3.2.8, reference C compiled)', () => {
+  it('the model vapour pressure includes the 1.004 factor: esat(303.15 K) = 42.6048 hPa (docs/methods.md §6.9, reference C compiled)', () => {
     expect(vaporPressureFromDewPoint(30)).toBeCloseTo(42.6048, 3);
   });
-  it('relativeHumidityFromDewPoint matches the METHODS.md §1.4 check values (55.08, 56.29, 16.62 %)', () => {
+  it('relativeHumidityFromDewPoint matches the docs/methods.md §3.3 check values (55.08, 56.29, 16.62 %)', () => {
     expect(relativeHumidityFromDewPoint(30, 20)).toBeCloseTo(55.08, 2);
     expect(relativeHumidityFromDewPoint(35, 25)).toBeCloseTo(56.29, 2);
     expect(relativeHumidityFromDewPoint(40, 10)).toBeCloseTo(16.62, 2);
     expect(saturationVaporPressureBuck1981(20)).toBeCloseTo(23.373, 2);
   });
-  it('dewPointFromVaporPressure inverts the model vapour pressure to 1e-9 °C (METHODS.md §1.2)', () => {
+  it('dewPointFromVaporPressure inverts the model vapour pressure to 1e-9 °C (docs/methods.md §3.2)', () => {
     for (const td of [-30, -5, 0, 12.5, 28]) expect(dewPointFromVaporPressure(vaporPressureFromDewPoint(td))).toBeCloseTo(td, 9);
   });
 });
 
 describe('solar geometry', () => {
-  it('NOAA formulas reproduce the NOAA worked values for 2007-07-15 18:00 UTC, Chicago (EoT −5.81 min, δ 21.63°, cos z 0.9381; METHODS.md §4.1)', () => {
+  it('NOAA formulas reproduce the NOAA worked values for 2007-07-15 18:00 UTC, Chicago (EoT −5.81 min, δ 21.63°, cos z 0.9381; docs/methods.md §4.1)', () => {
     const t = Date.UTC(2007, 6, 15, 18);
     const g = noaaFractionalYear(t);
     expect(noaaEquationOfTime(g)).toBeCloseTo(-5.81, 1);
     expect((noaaDeclination(g) * 180) / Math.PI).toBeCloseTo(21.63, 1);
     expect(noaaCosZenith(t, 41.88, -87.63)).toBeCloseTo(0.9381, 3);
   });
-  it('the Almanac sun agrees with NOAA within 0.001 in cos z, and with refraction gives the reference 0.9373 (METHODS.md §4.1)', () => {
+  it('the Almanac sun agrees with NOAA within 0.001 in cos z, and with refraction gives the reference 0.9373 (docs/methods.md §4.1)', () => {
     const t = Date.UTC(2007, 6, 15, 18);
     expect(Math.abs(cosZenithInstant(t, 41.88, -87.63) - 0.9381)).toBeLessThan(0.001);
     expect(cosZenithApparentInstant(t, 41.88, -87.63)).toBeCloseTo(0.9373, 3);
     expect(cosZenithInstant(Date.UTC(2024, 2, 20, 12), 0, 0)).toBeCloseTo(0.9994, 3);
     expect(cosZenithInstant(Date.UTC(2024, 5, 21, 12), 23.44, 0)).toBeCloseTo(1, 3);
   });
-  it('hour-mean cosines match the METHODS.md §4.2 table (30 °N 0 °E, doy 172) within 0.002', () => {
+  it('hour-mean cosines match the docs/methods.md §4.2 table (30 °N 0 °E, doy 172) within 0.002', () => {
     const rows: [number, number, number][] = [[6, 0.0915, 0.0968], [7, 0.298, 0.298], [13, 0.985, 0.985], [19, 0.1004, 0.1014]];
     for (const [end, mean, sun] of rows) {
       const pc = periodCosines(Date.UTC(2024, 5, 20, end), 60, 30, 0);
@@ -59,7 +59,7 @@ describe('solar geometry', () => {
       expect(Math.abs(pc.sunlitMean - sun)).toBeLessThan(0.002);
     }
   });
-  it('why the hour mean matters: for the 18–19 UTC hour the instant at the end is about −0.002 but the mean is about 0.10 (METHODS.md §4.2)', () => {
+  it('why the hour mean matters: for the 18–19 UTC hour the instant at the end is about −0.002 but the mean is about 0.10 (docs/methods.md §4.2)', () => {
     const end = Date.UTC(2024, 5, 20, 19);
     expect(Math.abs(cosZenithInstant(end, 30, 0))).toBeLessThan(0.003);
     expect(cosZenithPeriodMean(end, 60, 30, 0)).toBeGreaterThan(0.099);

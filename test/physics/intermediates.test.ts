@@ -1,6 +1,6 @@
 /**
  * Pinned intermediates at one state (Ta = 30 °C, RH 50 %, P = 1013.25 hPa, u = 1 m/s, film
- * temperature 303.15 K), each computed by hand here from the METHODS.md §3.2.2–§3.2.3 formulas,
+ * temperature 303.15 K), each computed by hand here from the docs/methods.md §6.3–§6.4 formulas,
  * so a failure points at the step that broke; then the solver's hoisted and tabulated forms
  * against the readable ones.
  */
@@ -17,13 +17,13 @@ const u = 1;
 const Rair = 8314.34 / 28.97;
 const cp = 1003.5;
 
-describe('pinned intermediates (hand-computed from METHODS.md §3.2.2–3.2.3)', () => {
+describe('pinned intermediates (hand-computed from docs/methods.md §6.3–§6.4)', () => {
   const omega = 1.048 - (0.034 * (T / 97 - 2.9)) / 0.4;
   const mu = (2.6693e-6 * Math.sqrt(28.97 * T)) / (3.617 * 3.617 * omega);
   const rho = (100 * p) / (Rair * T);
   const k = (cp + 1.25 * Rair) * mu;
   const Pr = cp / (cp + 1.25 * Rair);
-  it('Prandtl number 0.73665 and RATIO 1613.73 (METHODS.md §3.2.1)', () => {
+  it('Prandtl number 0.73665 and RATIO 1613.73 (docs/methods.md §6.2)', () => {
     expect(PRANDTL).toBeCloseTo(0.73665, 4);
     expect(RATIO).toBeCloseTo(1613.73, 1);
   });
@@ -49,7 +49,7 @@ describe('pinned intermediates (hand-computed from METHODS.md §3.2.2–3.2.3)',
     expect(P.latentHeat(T)).toBeCloseTo(1665134.5 + 2370 * T, 4);
     const ea = 0.5 * saturationVaporPressureModel(30);
     expect(P.atmosphericEmissivity(ea)).toBeCloseTo(0.575 * Math.pow(ea, 0.143), 12);
-    const dv = 2.47177e-5 * Math.pow(T / 292.31, 2.334) * (1013.25 / p); // METHODS.md numeric form
+    const dv = 2.47177e-5 * Math.pow(T / 292.31, 2.334) * (1013.25 / p); // docs/methods.md §6.3 numeric form
     expect(P.vaporDiffusivity(T, p) / dv).toBeCloseTo(1, 4);
     expect(P.schmidtNumber(T, p)).toBeCloseTo(mu / (rho * P.vaporDiffusivity(T, p)), 10);
     expect(P.schmidtNumber(T, 700)).toBeCloseTo(P.schmidtNumber(T, 1013.25), 10); // pressure cancels

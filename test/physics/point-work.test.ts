@@ -1,7 +1,7 @@
 /**
  * The work columns of `heathours point` (DESIGN.md §4): per workload class `limit_<class>_c` and
- * `work_fraction_<class>`, checked through a CSV row against the METHODS.md §5.6 worked example
- * (heavy work 415 W, rest 115 W, REL/RAL curves; values computed by the METHODS.md authors [C]).
+ * `work_fraction_<class>`, checked through a CSV row against the docs/methods.md §8.6 worked example
+ * (heavy work 415 W, rest 115 W, REL/RAL curves; values computed with scipy from the equations, docs/methods.md §8.6).
  */
 import { describe, it, expect } from 'vitest';
 import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
@@ -65,19 +65,19 @@ describe('point work columns', () => {
     expect(classColumns('very-high')).toEqual(['limit_very_high_c', 'work_fraction_very_high']);
   });
 
-  it('acclimatized (default): 415 W at WBGT 28.0 / 29.5 / 31.0 °C gives f = 0.660 / 0.390 / 0.189 (METHODS.md §5.6 worked example) and limit 26.59 °C', async () => {
+  it('acclimatized (default): 415 W at WBGT 28.0 / 29.5 / 31.0 °C gives f = 0.660 / 0.390 / 0.189 (docs/methods.md §8.6 worked example) and limit 26.59 °C', async () => {
     await runPoint(inp, join(dir, 'b.csv'), { quiet: true });
     const { rows } = readOut(join(dir, 'b.csv'));
     expect(rows.map((r) => Number(r.wbgt_c))).toEqual([28, 29.5, 31]);
     const f = rows.map((r) => Number(r.work_fraction_high));
     [0.66, 0.39, 0.189].forEach((v, i) => expect(Math.abs(f[i] - v)).toBeLessThan(0.0015)); // table is rounded to 3 decimals
-    // L = 56.7 − 11.5·log10(415) (METHODS.md §5.3, NIOSH REL).
+    // L = 56.7 − 11.5·log10(415) (docs/methods.md §8.2, NIOSH REL).
     expect(Number(rows[0].limit_high_c)).toBeCloseTo(56.7 - 11.5 * Math.log10(415), 3);
     // Lighter classes are allowed more of the hour at the same WBGT.
     for (const r of rows) expect(Number(r.work_fraction_low)).toBeGreaterThanOrEqual(Number(r.work_fraction_high));
   });
 
-  it('--unacclimatized: f = 0.227 / 0.094 / 0 (METHODS.md §5.6 worked example, RAL curve) and limit 59.9 − 14.1·log10 415', async () => {
+  it('--unacclimatized: f = 0.227 / 0.094 / 0 (docs/methods.md §8.6 worked example, RAL curve) and limit 59.9 − 14.1·log10 415', async () => {
     await runPoint(inp, join(dir, 'c.csv'), { quiet: true, unacclimatized: true });
     const { rows } = readOut(join(dir, 'c.csv'));
     const f = rows.map((r) => Number(r.work_fraction_high));
@@ -85,7 +85,7 @@ describe('point work columns', () => {
     expect(Number(rows[0].limit_high_c)).toBeCloseTo(59.9 - 14.1 * Math.log10(415), 3);
   });
 
-  it('--cav 1.5 at WBGT 26.5 °C equals no clothing adjustment at 28.0 °C (the CAV adds to the WBGT, METHODS.md §5.5) and lowers the stated limit by 1.5', async () => {
+  it('--cav 1.5 at WBGT 26.5 °C equals no clothing adjustment at 28.0 °C (the CAV adds to the WBGT, docs/methods.md §8.4) and lowers the stated limit by 1.5', async () => {
     const p = join(dir, 'cav.csv');
     writeFileSync(p, csvFor([26.5]));
     await runPoint(p, join(dir, 'd.csv'), { quiet: true, cav: 1.5 });

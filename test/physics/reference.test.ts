@@ -1,6 +1,6 @@
 /**
- * Checks against Liljegren et al. 2008, reference implementation v1.1 (shared/reference/
- * liljegren-wbgt-public.csv, 150 rows) and the METHODS.md §3.2.8 cases (reference C compiled).
+ * Checks against Liljegren et al. 2008, reference implementation v1.1 (test/fixtures/reference/
+ * liljegren-wbgt-public.csv, 150 rows) and the docs/methods.md §6.9 cases (reference C compiled).
  * Our solves go to the exact root; the reference stops a damped iteration at 0.02 K, so the
  * tolerance is 0.05 °C as its README states.
  */
@@ -10,9 +10,9 @@ import { fileURLToPath } from 'node:url';
 import { wbgtKernel } from '../../pipeline/physics/kernel.ts';
 import { computePoint } from '../../pipeline/physics/point-row.ts';
 import { dewPointFromRelativeHumidity } from '../../pipeline/physics/humidity.ts';
-import { sharedPath } from '../helpers/shared-dir.ts';
+import { fixturePath } from '../helpers/fixtures.ts';
 
-const csv = readFileSync(sharedPath('reference', 'liljegren-wbgt-public.csv'), 'utf8').trim().split('\n');
+const csv = readFileSync(fixturePath('reference', 'liljegren-wbgt-public.csv'), 'utf8').trim().split('\n');
 const head = csv[0].split(',');
 const rows = csv.slice(1).map((l) => {
   const v = l.split(',');
@@ -28,7 +28,7 @@ function kernelOne(ta: number, rh: number, p: number, u2: number, s: number, f: 
   return { status: o.status[0], tg: o.globeSun[0], tnwb: o.wetBulbSun[0], tpsy: o.psychrometric[0], wbgt: o.wbgtSun[0] };
 }
 
-/** The reference's day count is one day late in leap years after 2000 (shared/reference/README.md). */
+/** The reference's day count is one day late in leap years after 2000 (test/fixtures/reference/README.md). */
 const leapAfter2000 = (y: number) => y > 2000 && y % 4 === 0;
 
 describe('Liljegren reference table', () => {
@@ -101,7 +101,7 @@ describe('Liljegren reference table', () => {
   });
 });
 
-describe('METHODS.md §3.2.8 check values (reference C compiled locally)', () => {
+describe('docs/methods.md §6.9 check values (reference C compiled locally)', () => {
   // Exact-root values sit about 0.01 °C below the damped ones; tolerance 0.03 °C.
   const cases: [number, number, number, number, number, number, number, number, number, number, number][] = [
     [30, 50, 1013.25, 1.0, 800, 0.7, 0.8, 48.716, 25.281, 21.802, 30.44],
@@ -118,7 +118,7 @@ describe('METHODS.md §3.2.8 check values (reference C compiled locally)', () =>
       expect(Math.abs(k.wbgt - wbgt)).toBeLessThan(0.03);
     }
   });
-  it('the exact root of the first case is 48.703 / 25.267 / 30.428 °C (METHODS.md §3.2.8, bisection) within 0.002 °C', () => {
+  it('the exact root of the first case is 48.703 / 25.267 / 30.428 °C (docs/methods.md §6.9, bisection) within 0.002 °C', () => {
     const k = kernelOne(30, 50, 1013.25, 1.0, 800, 0.7, 0.8);
     expect(Math.abs(k.tg - 48.703)).toBeLessThan(0.002);
     expect(Math.abs(k.tnwb - 25.267)).toBeLessThan(0.002);

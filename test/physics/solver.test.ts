@@ -1,8 +1,8 @@
 /**
  * The fast solver against a slow, plain one: the kernel's globe and natural wet-bulb roots (first
  * guesses, paired property tables, Newton stopped at a 1e−3 K step) are checked against bisection
- * to 1e−10 K on the readable property forms of air-properties.ts (METHODS.md §3.2.2–§3.2.5), and
- * the tabulated direct-fraction estimate against its formula (METHODS.md §3.2.6).
+ * to 1e−10 K on the readable property forms of air-properties.ts (docs/methods.md §6.3–§6.6), and
+ * the tabulated direct-fraction estimate against its formula (docs/methods.md §4.3).
  */
 import { describe, it, expect } from 'vitest';
 import * as P from '../../pipeline/physics/air-properties.ts';
@@ -83,7 +83,7 @@ describe('solver roots', () => {
 });
 
 describe('tabulated direct fraction', () => {
-  it('matches exp(3 − 1.34 s − 1.65/s) clipped to 0.9 within 1e-9 over 0 < s ≤ 0.85 (METHODS.md §3.2.6)', () => {
+  it('matches exp(3 − 1.34 s − 1.65/s) clipped to 0.9 within 1e-9 over 0 < s ≤ 0.85 (docs/methods.md §4.3)', () => {
     let worst = 0;
     for (let x = 1e-6; x <= 0.85; x += 1.7e-5) worst = Math.max(worst, Math.abs(directFractionEstimate(x) - Math.min(0.9, directFractionExact(x))));
     expect(worst).toBeLessThan(1e-9);

@@ -2,7 +2,7 @@
  * What a baseline of n years can say about its 90th-percentile year (pipeline/publish/baseline-length.ts).
  * Outside checks: NumPy's percentile with its default linear method, which is Hyndman & Fan's
  * type 7 (numpy.percentile documentation; Debian's python3-numpy, version printed by the test),
- * and METHODS.md §8's worked example (n = 30: P90 = x27 + 0.1 (x28 − x27)).
+ * and docs/methods.md §10.1, eq. 10.1's worked example (n = 30: P90 = x27 + 0.1 (x28 − x27)).
  */
 import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
@@ -46,7 +46,7 @@ describe('the 90th-percentile year of a short baseline', () => {
     }
   });
 
-  it('METHODS.md §8: for 30 years the P90 sits at rank 27.1 (x27 + 0.1 (x28 − x27))', () => {
+  it('docs/methods.md §10.1, eq. 10.1: for 30 years the P90 sits at rank 27.1 (x27 + 0.1 (x28 − x27))', () => {
     expect(p90Rank(30)).toBeCloseTo(27.1, 12);
   });
 

@@ -105,7 +105,7 @@ describe('openDataset on ERA5 layouts (fixtures from ncgen)', () => {
     await ds.close();
   });
 
-  it('ERA5-Land accumulations since 00 UTC are de-accumulated (METHODS.md §4.4): the 01 UTC hour as is, later hours as differences, 00 UTC from the previous day', async () => {
+  it('ERA5-Land accumulations since 00 UTC are de-accumulated (docs/methods.md §2.2): the 01 UTC hour as is, later hours as differences, 00 UTC from the previous day', async () => {
     // Accumulated ssrd [J m-2]: A(t) = sum of hourly means × 3600 since 00 UTC; 00 UTC holds the whole previous day.
     const start = Date.UTC(2020, 0, 1, 1);
     const accumulated = (ms: number, la: number, lo: number) => {

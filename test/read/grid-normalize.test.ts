@@ -12,7 +12,7 @@ describe('grid convention (pipeline/model/grid.ts: lat ascending, lon ascending 
     expect(m.source[0]).toBe(720);
   });
 
-  it('a global 0 … 359.75 longitude becomes -180 … 179.75 with source column 720 first (ERA5 CDS grid, METHODS.md §4.4)', () => {
+  it('a global 0 … 359.75 longitude becomes -180 … 179.75 with source column 720 first (ERA5 CDS grid, docs/methods.md §2.3)', () => {
     const m = normalizeLongitude(range(0, 1440, 0.25), 'era5.nc');
     expect(m.values[0]).toBe(-180);
     expect(m.values[1439]).toBe(179.75);

@@ -1,13 +1,13 @@
-/** The `heathours inspect` command end to end, on real files of Debian packages (realdata/PROVENANCE.md). */
+/** The `heathours inspect` command end to end, on real files of Debian packages (test/fixtures/realdata/PROVENANCE.md). */
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tempDir } from '../fixtures/read/era5-cdl.ts';
-import { sharedPath } from '../helpers/shared-dir.ts';
+import { fixturePath } from '../helpers/fixtures.ts';
 import { CLI_TS } from '../helpers/cli.ts';
 
-const REAL = `${sharedPath('realdata')}/`;
+const REAL = `${fixturePath('realdata')}/`;
 const run = (...args: string[]) => spawnSync(process.execPath, [CLI_TS, 'inspect', ...args], { encoding: 'utf8' });
 
 describe('heathours inspect', () => {

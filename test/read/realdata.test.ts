@@ -1,14 +1,14 @@
 /**
- * `inspectFile` on the real NetCDF files of /work/shared/realdata (copied from Debian 12 packages,
+ * `inspectFile` on the real NetCDF files of test/fixtures/realdata (copied from Debian 12 packages,
  * see PROVENANCE.md there). Expected values come from PROVENANCE.md and from Debian's `ncdump`
  * (netcdf-bin), the reference library's own dump of the same file.
  */
 import { describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { inspectFile, type FileInspection } from '../../pipeline/read/index.ts';
-import { sharedPath } from '../helpers/shared-dir.ts';
+import { fixturePath } from '../helpers/fixtures.ts';
 
-const REAL = `${sharedPath('realdata')}/`;
+const REAL = `${fixturePath('realdata')}/`;
 const byName = (r: FileInspection, n: string) => {
   const v = r.variables.find((x) => x.name === n);
   if (!v) throw new Error(`no ${n}`);

@@ -5,7 +5,7 @@
  * The hourly reference is built here from the pipeline's own stages, independently of the
  * histograms: pipeline/read reads the demo NetCDF files of one cell, pipeline/physics computes its
  * hourly WBGT in the sun (Liljegren et al. 2008), pipeline/work gives each hour's allowable work
- * fraction (METHODS.md §5.6), and the job is replayed day by day with each working day's actual
+ * fraction (docs/methods.md §8.6), and the job is replayed day by day with each working day's actual
  * hours (local time from pipeline/work/shifts.ts; the calendar from JavaScript's Date, not from
  * pipeline/schedule/calendar.ts). The schedule stage instead gives every working day of a month the
  * month's expected loss at that hour. The largest differences found are printed and must stay

@@ -6,8 +6,8 @@
  *
  * Outside checks: weekdays from the Gregorian calendar (Python's datetime: 2027-03-01 is a Monday,
  * 2027-03-23 a Tuesday, 2027-03-29 a Monday); the allowable work fraction's closed form of
- * METHODS.md §5.6 (NIOSH 2016 REL, moderate work 300 W, rest 115 W: f = 0.48423 at 30.125 °C);
- * the type-7 quantile of METHODS.md §8 (numpy.percentile's default).
+ * docs/methods.md §8.6 (NIOSH 2016 REL, moderate work 300 W, rest 115 W: f = 0.48423 at 30.125 °C);
+ * the type-7 quantile of docs/methods.md §10.1 (numpy.percentile's default).
  */
 import { describe, expect, it } from 'vitest';
 import { answerBid, crewForDeadline, scheduleSpread } from '../../pipeline/schedule/bid.ts';
@@ -150,7 +150,7 @@ describe('the bid’s answers', () => {
     const a = answerBid({ job: j, costs }, years);
     const lost = a.schedule.years.map((y) => y.crewHoursLost).sort((x, y) => x - y);
     expect(a.schedule.crewHoursLost.p50).toBeCloseTo(lost[2], 9);
-    // n = 5: h = 4 · 0.9 = 3.6 → x(4) + 0.6 · (x(5) − x(4)) (METHODS.md §8, numpy default).
+    // n = 5: h = 4 · 0.9 = 3.6 → x(4) + 0.6 · (x(5) − x(4)) (docs/methods.md §10.1, numpy default).
     expect(a.schedule.crewHoursLost.p90).toBeCloseTo(lost[3] + 0.6 * (lost[4] - lost[3]), 9);
     expect(a.schedule.crewHoursLost.mean).toBeCloseTo(lost.reduce((s, x) => s + x, 0) / 5, 9);
     for (const k of ['addedWorkingDays', 'calendarDays', 'cost', 'crewHoursLost'] as const) {
@@ -193,7 +193,7 @@ describe('the bid’s answers', () => {
 });
 
 describe('rates from a histogram', () => {
-  it('every hour of a year at 30.125 °C in the sun, moderate work (300 W), acclimatized: the share lost is 1 − f with f = 0.48423 (METHODS.md §5.6 closed form)', () => {
+  it('every hour of a year at 30.125 °C in the sun, moderate work (300 W), acclimatized: the share lost is 1 − f with f = 0.48423 (docs/methods.md §8.6 closed form)', () => {
     const hist = new Float64Array(YEAR_HISTOGRAM_SIZE);
     const L = WBGT_HISTOGRAM_LENGTH;
     // 2021: every month × hour slot holds its days' hours at 30.125 °C in the sun and 28.1 °C in the shade.

@@ -1,7 +1,7 @@
 /**
  * The browser-test harness of the site, for every issue's page tests:
  * - {@link buildTestSite} builds a site from a data folder once per content digest (of src/,
- *   public/, astro.config.mjs, pipeline/ and the data folder) and shares it between test
+ *   public/, astro.config.mjs, pipeline/, docs/ and the data folder) and shares it between test
  *   files and runs (test-artifacts/site-builds/<digest>/dist, with a lock folder);
  * - {@link startSiteSession} serves it with `startPreviewServer` on 127.0.0.1 (port 0) and
  *   launches Debian's /usr/bin/chromium through playwright-core exactly as STACK.md says (never a
@@ -61,6 +61,8 @@ export function siteInputsDigest(dataDir: string, base = '/'): string {
     join(PROJECT_ROOT, 'astro.config.mjs'),
     // Pages import pipeline modules (the methods page renders the pipeline's constants).
     ...listFiles(join(PROJECT_ROOT, 'pipeline')),
+    // The methods document page renders docs/methods.md.
+    ...listFiles(join(PROJECT_ROOT, 'docs')),
     join(PROJECT_ROOT, 'package-lock.json'),
     ...listFiles(dataDir),
   ];

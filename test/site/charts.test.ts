@@ -268,7 +268,7 @@ describe('figures behind the charts', () => {
     expect(formatRuns([])).toBe('none');
   });
 
-  it("takes the class limits from the atlas's limit model and clothing adjustment (ISO 7243:1989 table, METHODS.md §5.2)", () => {
+  it("takes the class limits from the atlas's limit model and clothing adjustment (ISO 7243:1989 table, docs/methods.md §8.3)", () => {
     const work = {
       classes: [
         { id: 'light', name: 'Light', metabolicRate: 180 },

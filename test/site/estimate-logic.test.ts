@@ -1,14 +1,14 @@
 /**
  * The estimate calculator's pure logic (src/lib/estimate): hand-computed cases (calendar counts of
- * the shift shares, the allowable-work-fraction formula of METHODS.md §5.6 and its worked example,
- * the quantile check values of METHODS.md §8), and the published data: with the atlas's own
+ * the shift shares, the allowable-work-fraction formula of docs/methods.md §8.6 and its worked example,
+ * the quantile check values of docs/methods.md §10.1), and the published data: with the atlas's own
  * settings the calculator reproduces the region tables (data/regions/<id>.csv) and the cell table
  * (the per-cell tables, data/cell-tables/*.csv) within measured tolerances, and its rest-in-shade approximation a
  * pipeline build with `work.restLocation: shade`. Every bad input gets its catalogued error.
  *
  * External checks: weekday counts from the Gregorian calendar (2021-01-01 was a Friday, 2021-07-01
- * a Thursday); METHODS.md §5.6 worked example (f = 0.189 in place, 0.532 resting at 26 °C, 0 for
- * unacclimatized at 31 °C, heavy work 415 W); METHODS.md §8 type-7 example (P90 142.4 h).
+ * a Thursday); docs/methods.md §8.6 worked example (f = 0.189 in place, 0.532 resting at 26 °C, 0 for
+ * unacclimatized at 31 °C, heavy work 415 W); docs/methods.md §10.1 type-7 example (P90 142.4 h).
  */
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
@@ -118,12 +118,12 @@ describe('shift shares from the calendar (pipeline/work/shifts.ts)', () => {
 });
 
 describe('monthly figures from a histogram (hand-computed)', () => {
-  it('10 hours of July noon at 30.125 °C, moderate work: 27/31 of them above the limit, each losing 1 − f with f from the METHODS.md §5.6 closed form', () => {
+  it('10 hours of July noon at 30.125 °C, moderate work: 27/31 of them above the limit, each losing 1 − f with f from the docs/methods.md §8.6 closed form', () => {
     const hist = syntheticYear((put) => put(6, 12, 0, 30.1, 10));
     const [shares] = shiftShares([2021], 'Etc/GMT+10', patternFromWorkShift(DEFAULT_SHIFT));
     const kernel = prepareWorkKernel({ workRate: 300, restRate: 115, limit: { model: 'curve-2017', acclimatization: 'acclimatized' } });
     const y = monthlyFigures(hist, shares, { kernel, exposure: 'sun', rest: { kind: 'same-place' } });
-    // METHODS.md §5.6: M_lim = 10^((56.7 − WBGT)/11.5), f = (M_lim − M_rest)/(M_work − M_rest); bin middle 30.125 °C.
+    // docs/methods.md §8.6: M_lim = 10^((56.7 − WBGT)/11.5), f = (M_lim − M_rest)/(M_work − M_rest); bin middle 30.125 °C.
     const f = (10 ** ((56.7 - 30.125) / 11.5) - 115) / (300 - 115);
     const share = 27 / 31; // July 2021: 4 Sundays (4, 11, 18, 25)
     expect(y.shiftHours[6]).toBeCloseTo(share * 10, 10);
@@ -135,7 +135,7 @@ describe('monthly figures from a histogram (hand-computed)', () => {
     expect(monthlyFigures(hist, shares, { kernel, exposure: 'shade', rest: { kind: 'same-place' } }).above[6]).toBe(0);
   });
 
-  it('reproduces the METHODS.md §5.6 worked example for heavy work (415 W) at an effective 31 °C: f = 0.189 in place, 0.532 resting in shade at 26 °C, 0 unacclimatized', () => {
+  it('reproduces the docs/methods.md §8.6 worked example for heavy work (415 W) at an effective 31 °C: f = 0.189 in place, 0.532 resting in shade at 26 °C, 0 unacclimatized', () => {
     // Measured sun WBGT in the bin [30, 30.25) (middle 30.125), shade in [25, 25.25) (median 25.125),
     // clothing adjustment 0.875: effective 31.0 °C at work and 26.0 °C at rest.
     const hist = syntheticYear((put) => {
@@ -156,7 +156,7 @@ describe('monthly figures from a histogram (hand-computed)', () => {
 });
 
 describe('statistics across the baseline years (pipeline/climate, type 7)', () => {
-  it('the P90 year of the METHODS.md §8 example (30 years, given unsorted) is 142.4 h and the mean is their mean', () => {
+  it('the P90 year of the docs/methods.md §10.1 example (30 years, given unsorted) is 142.4 h and the mean is their mean', () => {
     const counts = [40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146, 148, 154];
     const shuffled = counts.map((c, i) => counts[(i * 7) % 30]);
     const perYear: MonthlyYear[] = shuffled.map((c, i) => {

@@ -4,7 +4,7 @@
  * the cell, or, for a number written in a function, the descriptor value that
  * methods-constants.test.ts evaluates against that function); every method, equation, source and
  * caution is there; the provenance is the manifest's; the limits per class are the NIOSH 2016
- * REL/RAL check values of METHODS.md §5.3; the data are said to be invented. The Copernicus
+ * REL/RAL check values of docs/methods.md §8.2; the data are said to be invented. The Copernicus
  * attribution of real ERA5 / ERA5-Land builds is checked on the pure function.
  */
 import { readFileSync } from 'node:fs';
@@ -122,8 +122,8 @@ describe('the methods page', () => {
     expect(licence).toContain(manifest.atlas.attribution!);
   });
 
-  it('gives per class the limits of the build\u2019s limit model: the NIOSH 2016 REL and RAL check values (METHODS.md §5.3)', async () => {
-    // METHODS.md §5.3 [C]: M → REL, RAL: 180 → 30.76, 28.10; 300 → 28.21, 24.97; 415 → 26.59, 22.99; 520 → 25.47, 21.60 °C.
+  it('gives per class the limits of the build\u2019s limit model: the NIOSH 2016 REL and RAL check values (docs/methods.md §8.2)', async () => {
+    // docs/methods.md §8.2 check values: M → REL, RAL: 180 → 30.76, 28.10; 300 → 28.21, 24.97; 415 → 26.59, 22.99; 520 → 25.47, 21.60 °C.
     const check: Record<number, [number, number]> = { 180: [30.76, 28.1], 300: [28.21, 24.97], 415: [26.59, 22.99], 520: [25.47, 21.6] };
     expect(manifest.work.limitModel).toBe('curve-2017');
     const rows = await page.$$eval('#class-limits tbody tr', (trs) =>
@@ -160,7 +160,7 @@ describe('the methods page', () => {
     expect(await page.textContent('#modelling-choices')).toMatch(/invented/);
   });
 
-  it('keeps what is not verified in one list, each row linked to its source; option labels carry no such words, and the page cites no METHODS.md', async () => {
+  it('keeps what is not verified in one list, each row linked to its source; option labels carry no such words, and the page cites no methods document outside the repository', async () => {
     const rows = await page.$$eval('#unverified-table tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-unverified'), href: tr.querySelector('a')?.getAttribute('href') })));
     const fromMemory = CLOTHING_ENSEMBLES.filter((e) => e.sourceTag === 'from-memory').length + (HOOD_CAV_SOURCE_TAG === 'from-memory' ? 1 : 0);
     expect(rows.length).toBe(UNVERIFIED.length + fromMemory);
@@ -188,5 +188,27 @@ describe('the data attribution', () => {
     expect(a.licence).toMatch(/invented/);
     expect(a.credit.join(' ')).not.toMatch(/Copernicus|ECMWF/);
     expect(a.citation).toBeUndefined();
+  });
+});
+
+describe('the methods document page (/methods/document/)', () => {
+  it('is linked from the methods page and shows docs/methods.md: its title as the one h1, then every section and subsection heading in order', async () => {
+    const href = await page.getAttribute('#methods-document-link', 'href');
+    expect(href).toMatch(/\/methods\/document\/$/);
+    const doc = (await session.open(href!)).page;
+    const md = readFileSync(join(import.meta.dirname, '../../docs/methods.md'), 'utf8');
+    const expected = [...md.matchAll(/^(#{1,3}) (.+)$/gm)].map((m) => ({ level: m[1].length, text: m[2].replace(/`/g, '').trim() }));
+    const shown = await doc.$$eval('main h1, main h2, main h3', (hs) => hs.map((h) => ({ level: Number(h.tagName[1]), text: (h.textContent ?? '').trim() })));
+    expect(expected.length).toBeGreaterThan(50);
+    // Astro's Markdown turns straight quotes and "--" into typographic ones; compare ignoring them.
+    const plain = (s: string) => s.replace(/[\u2018\u2019]/g, "'").replace(/[\u201c\u201d]/g, '"');
+    expect(shown.map((h) => ({ ...h, text: plain(h.text) }))).toEqual(expected.map((h) => ({ ...h, text: plain(h.text) })));
+    // The equations and tables arrive too: the first and the last numbered equation, and the check values of the limit curves.
+    const text = await doc.textContent('main');
+    expect(text).toContain('(2.1) T[°C] = T[K] − 273.15');
+    expect(text).toContain('(13.5) cost = crew-hours lost × labour rate');
+    expect(text).toContain('115 → 33.00, 30.84; 180 → 30.76, 28.10');
+    expect(await doc.$$eval('main table', (ts) => ts.length)).toBe(md.match(/^\| ---/gm)!.length);
+    await screenshot(doc, 'methods-document');
   });
 });

@@ -2,7 +2,7 @@
  * Browser tests of the region report pages, on a site built from the data folder the real
  * pipeline makes (test/site/pipeline-data.ts: the invented small demo plus a region whose name is
  * HTML and script), served on 127.0.0.1 in Debian's headless Chromium.
- * External checks: the limits against METHODS.md §5.3's check values (NIOSH 2016 REL/RAL,
+ * External checks: the limits against docs/methods.md §8.2's check values (NIOSH 2016 REL/RAL,
  * 300 W → 28.21 / 24.97 °C); the typical WBGT against a median found by bisection on the
  * piecewise-linear cumulative hours (a different algorithm from the page's walk through the
  * bins); °F = °C × 9/5 + 32 (definition of the scale); escaping per the HTML standard.
@@ -144,7 +144,7 @@ describe('the region report page', () => {
     }
   });
 
-  it('the limits are the NIOSH 2016 REL/RAL check values of METHODS.md §5.3 for the default work rates', async () => {
+  it('the limits are the NIOSH 2016 REL/RAL check values of docs/methods.md §8.2 for the default work rates', async () => {
     const t = await readKeyedTable(report.page, '#limits');
     const check: Record<number, [number, number]> = { 180: [30.76, 28.1], 300: [28.21, 24.97], 415: [26.59, 22.99], 520: [25.47, 21.6] };
     expect(manifest.work.clothingAdjustment).toBe(0);
@@ -185,7 +185,7 @@ describe('the region report page', () => {
   it('marks, without JavaScript, the cells above the limit of the default class for acclimatized workers (WBGT + clothing adjustment > 28.21 °C)', async () => {
     const noJs = await session.open(`/regions/${REGION}/`, { javaScript: false });
     const cells = await noJs.page.$$eval('#hour-table tbody td', (tds) => tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })));
-    const limit = 56.7 - 11.5 * Math.log10(300); // NIOSH REL, METHODS.md §5.3
+    const limit = 56.7 - 11.5 * Math.log10(300); // NIOSH REL, docs/methods.md §8.2
     let marked = 0;
     for (const x of cells) {
       if (Math.abs(x.c - limit) < 0.002) continue; // the attribute is rounded to 0.001 °C
@@ -220,7 +220,7 @@ describe('the region report page', () => {
     await page.selectOption('[data-mark-control] select', 'high');
     await page.check('[data-mark-control] input[value="unacclimatized"]');
     const cells = await page.$$eval('#hour-table tbody td', (tds) => tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })));
-    const limit = 59.9 - 14.1 * Math.log10(415); // NIOSH RAL, METHODS.md §5.3 (415 W → 22.99 °C)
+    const limit = 59.9 - 14.1 * Math.log10(415); // NIOSH RAL, docs/methods.md §8.2 (415 W → 22.99 °C)
     for (const x of cells) if (Math.abs(x.c - limit) >= 0.002) expect(x.above).toBe(x.c > limit);
     expect(await page.textContent('[data-mark-label]')).toBe('High work rate, unacclimatized workers');
     // Back to the default, as the other tests expect.

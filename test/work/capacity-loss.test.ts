@@ -9,21 +9,21 @@ import {
 import { expectWorkError } from './helpers.ts';
 
 describe('capacity-loss functions', () => {
-  // METHODS.md §6.1 [C] check values of the Kjellstrom et al. 2018 cumulative normal (loss fraction, 4 decimals).
+  // docs/methods.md §9.1 check values (scipy.stats.norm.cdf) of the Kjellstrom et al. 2018 cumulative normal (loss fraction, 4 decimals).
   const kj: [number, number, number, number][] = [
     [26, 0.0078, 0.0287, 0.0599],
     [30, 0.0802, 0.1879, 0.2763],
     [34, 0.3489, 0.5515, 0.6435],
   ];
   for (const [w, l200, l300, l400] of kj) {
-    it(`kjellstrom2018Loss at ${w} °C gives ${l200} / ${l300} / ${l400} for 200 / 300 / 400 W (METHODS.md §6.1, Kjellstrom et al. 2018), within 5e-5`, () => {
+    it(`kjellstrom2018Loss at ${w} °C gives ${l200} / ${l300} / ${l400} for 200 / 300 / 400 W (docs/methods.md §9.1, Kjellstrom et al. 2018), within 5e-5`, () => {
       expect(Math.abs(kjellstrom2018Loss(w, 200) - l200)).toBeLessThan(5e-5);
       expect(Math.abs(kjellstrom2018Loss(w, 300) - l300)).toBeLessThan(5e-5);
       expect(Math.abs(kjellstrom2018Loss(w, 400) - l400)).toBeLessThan(5e-5);
     });
   }
 
-  it('kjellstrom2018Loss for 300 W is one half at μ = 33.49 °C ("50 % at 33–34 °C", METHODS.md §6.4)', () => {
+  it('kjellstrom2018Loss for 300 W is one half at μ = 33.49 °C (Φ is one half at its mean, docs/methods.md §9.1)', () => {
     expect(kjellstrom2018Loss(33.49, 300)).toBeCloseTo(0.5, 12);
   });
 
@@ -40,8 +40,8 @@ describe('capacity-loss functions', () => {
     }
   });
 
-  // METHODS.md §6.3 [C]: capacity 75.00 % at 26 °C, 37.00 % at 29 °C, 8.52 % at 32 °C, 0 % at 33 °C.
-  it('dunne2013Loss gives capacity 100 / 75.00 / 37.00 / 8.52 / 0 % at 25 / 26 / 29 / 32 / 33 °C (METHODS.md §6.3, Dunne et al. 2013)', () => {
+  // docs/methods.md §9.2 check values: capacity 75.00 % at 26 °C, 37.00 % at 29 °C, 8.52 % at 32 °C, 0 % at 33 °C.
+  it('dunne2013Loss gives capacity 100 / 75.00 / 37.00 / 8.52 / 0 % at 25 / 26 / 29 / 32 / 33 °C (docs/methods.md §9.2, Dunne et al. 2013)', () => {
     expect(dunne2013Loss(20)).toBe(0);
     expect(dunne2013Loss(25)).toBe(0);
     expect(1 - dunne2013Loss(26)).toBeCloseTo(0.75, 10);

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CAUTIONS, CAUTION_SUMMARY, caution } from '../../pipeline/work/cautions.ts';
 
 describe('cautions', () => {
-  it('the cautions cover every item of METHODS.md §9 once', () => {
+  it('the cautions cover every item of docs/methods.md §14 once', () => {
     expect(CAUTIONS.map((c) => c.id)).toEqual([
       'screening-only',
       'most-not-all',
@@ -18,7 +18,7 @@ describe('cautions', () => {
     for (const c of CAUTIONS) expect(c.basis.length).toBeGreaterThan(5);
   });
 
-  it('the wording defers to local regulations and a competent person, and says to stop on symptoms (METHODS.md §9)', () => {
+  it('the wording defers to local regulations and a competent person, and says to stop on symptoms (docs/methods.md §14)', () => {
     expect(caution('local-rules-decide').text).toMatch(/Local law and national standards come first/);
     expect(caution('local-rules-decide').text).toMatch(/competent person/);
     expect(CAUTION_SUMMARY).toMatch(/Local regulations and a competent person/);

@@ -22,7 +22,7 @@ describe('clothing adjustment values', () => {
     }
   });
 
-  it('a hood adds 1 °C-WBGT to any ensemble (ACGIH, from memory; METHODS.md §5.5)', () => {
+  it('a hood adds 1 °C-WBGT to any ensemble (ACGIH, from memory; docs/methods.md §8.4)', () => {
     expect(HOOD_CAV).toBe(1);
     expect(clothingAdjustment({ ensemble: 'polyolefin-coveralls', hood: true })).toBe(2);
     expect(clothingAdjustment({ ensemble: 'work-clothes' })).toBe(0);

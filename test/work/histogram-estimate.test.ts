@@ -4,7 +4,7 @@ import { estimateFromHistogram } from '../../pipeline/work/histogram-estimate.ts
 import { addToWbgtHistogram, WBGT_BIN_EDGES, WBGT_BIN_LOWER, WBGT_BIN_UPPER, WBGT_HISTOGRAM_LENGTH, wbgtBinIndex } from '../../pipeline/work/wbgt-bins.ts';
 import { aboveLimitInto, prepareWorkKernel, workFractionInto, type WorkKernel } from '../../pipeline/work/work-fraction.ts';
 import { expectWorkError } from './helpers.ts';
-import { sharedPath } from '../helpers/shared-dir.ts';
+import { fixturePath } from '../helpers/fixtures.ts';
 
 /**
  * An invented (synthetic, seeded) hourly WBGT series for a hot, humid place: seasonal cycle
@@ -85,8 +85,8 @@ describe('histogram estimate of hours above the limit and hours lost', () => {
     expect(worst).toBeLessThan(0.005);
   });
 
-  it('on the 150 WBGT values of the Liljegren reference table (Liljegren et al. 2008, reference implementation v1.1; ../shared/reference) the histogram answer is within 1 % of the hours of the direct computation', () => {
-    const text = readFileSync(sharedPath('reference', 'liljegren-wbgt-public.csv'), 'utf8');
+  it('on the 150 WBGT values of the Liljegren reference table (Liljegren et al. 2008, reference implementation v1.1; test/fixtures/reference) the histogram answer is within 1 % of the hours of the direct computation', () => {
+    const text = readFileSync(fixturePath('reference', 'liljegren-wbgt-public.csv'), 'utf8');
     const lines = text.split('\n').filter((l) => l && !l.startsWith('#'));
     const col = lines[0].split(',').indexOf('wbgt_c');
     const wbgt = Float32Array.from(lines.slice(1), (l) => Number(l.split(',')[col]));

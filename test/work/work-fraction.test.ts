@@ -15,21 +15,21 @@ const heavy = (acclimatization: 'acclimatized' | 'unacclimatized', extra: Partia
   prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'curve-2017', acclimatization }, ...extra });
 
 describe('allowable work fraction', () => {
-  // METHODS.md §5.6 worked example [C]: heavy work 415 W, rest 115 W.
+  // docs/methods.md §8.6 worked example (scipy): heavy work 415 W, rest 115 W.
   const table: [number, number, number, number][] = [
     [28.0, 0.66, 0.764, 0.227],
     [29.5, 0.39, 0.623, 0.094],
     [31.0, 0.189, 0.532, 0],
   ];
   for (const [w, same, rest26, ral] of table) {
-    it(`at WBGT ${w} °C, 415 W: f = ${same} resting in place, ${rest26} resting at 26 °C, ${ral} unacclimatized (METHODS.md §5.6 worked table), within 0.0005`, () => {
+    it(`at WBGT ${w} °C, 415 W: f = ${same} resting in place, ${rest26} resting at 26 °C, ${ral} unacclimatized (docs/methods.md §8.6 worked table), within 0.0005`, () => {
       expect(Math.abs(allowableWorkFraction(w, null, heavy('acclimatized')) - same)).toBeLessThan(5e-4);
       expect(Math.abs(allowableWorkFraction(w, 26, heavy('acclimatized')) - rest26)).toBeLessThan(5e-4);
       expect(Math.abs(allowableWorkFraction(w, null, heavy('unacclimatized')) - ral)).toBeLessThan(5e-4);
     });
   }
 
-  it('the limiting rate M_lim = 10^((56.7 − WBGT)/11.5) is 313.1 / 231.9 / 171.7 W at 28 / 29.5 / 31 °C (METHODS.md §5.6)', () => {
+  it('the limiting rate M_lim = 10^((56.7 − WBGT)/11.5) is 313.1 / 231.9 / 171.7 W at 28 / 29.5 / 31 °C (docs/methods.md §8.6)', () => {
     const k = heavy('acclimatized');
     for (const [w, mlim] of [[28, 313.1], [29.5, 231.9], [31, 171.7]]) {
       const f = allowableWorkFraction(w, null, k);
@@ -51,7 +51,7 @@ describe('allowable work fraction', () => {
     }
   });
 
-  it('the same-place fraction satisfies the time-weighted limit equation exactly where 0 < f < 1 (METHODS.md §5.6)', () => {
+  it('the same-place fraction satisfies the time-weighted limit equation exactly where 0 < f < 1 (docs/methods.md §8.6)', () => {
     fc.assert(
       fc.property(fc.double({ min: 15, max: 40, noNaN: true }), fc.constantFrom(180, 300, 415, 520), fc.constantFrom<LimitChoice['acclimatization']>('acclimatized', 'unacclimatized'), (w, m, acc) => {
         const k = prepareWorkKernel({ workRate: m, restRate: 115, limit: { model: 'curve-2017', acclimatization: acc } });
@@ -73,7 +73,7 @@ describe('allowable work fraction', () => {
     );
   });
 
-  it('table-1989 same place: at 28 °C and 415 W the limiting rate is the 300 W class value, f = 185/300 (METHODS.md §5.2 table, our interpolation rule)', () => {
+  it('table-1989 same place: at 28 °C and 415 W the limiting rate is the 300 W class value, f = 185/300 (docs/methods.md §8.3 table, our interpolation rule)', () => {
     const k = prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'table-1989', acclimatization: 'acclimatized' } });
     expect(allowableWorkFraction(28, null, k)).toBeCloseTo(185 / 300, 12);
     expect(allowableWorkFraction(25, null, k)).toBe(1);
@@ -126,7 +126,7 @@ describe('allowable work fraction', () => {
     expect(allowableWorkFraction(29, 31, k)).toBe(allowableWorkFraction(29, null, k));
   });
 
-  it('the clothing adjustment is added to the WBGT: CAV 2 at 27 °C equals bare 29 °C (METHODS.md §5.5)', () => {
+  it('the clothing adjustment is added to the WBGT: CAV 2 at 27 °C equals bare 29 °C (docs/methods.md §8.4)', () => {
     expect(allowableWorkFraction(27, null, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(allowableWorkFraction(29, null, heavy('acclimatized')), 12);
     expect(allowableWorkFraction(27, 24, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(allowableWorkFraction(29, 26, heavy('acclimatized')), 9);
   });

@@ -43,7 +43,7 @@ shift: { start: 6, end: 14, days: [sun, mon, tue, wed, thu] }
       ['high.unacclimatized.sun', 'shade'],
       ['high.unacclimatized.shade', null],
     ]);
-    expect(r.evaluations[0].kernel.limitWork).toBe(23); // ISO 7243:1989 class 3, unacclimatized, air movement (METHODS.md §5.2)
+    expect(r.evaluations[0].kernel.limitWork).toBe(23); // ISO 7243:1989 class 3, unacclimatized, air movement (docs/methods.md §8.3)
     expect(r.evaluations[0].kernel.threshold).toBe(21);
   });
 
@@ -73,7 +73,7 @@ shift: { start: 6, end: 14, days: [sun, mon, tue, wed, thu] }
     const [inSun, inShade] = r.evaluations;
     const a = evaluationFractionInto(new Float32Array(2), sun, shade, inSun);
     const b = evaluationFractionInto(new Float32Array(2), sun, shade, inShade);
-    expect(a[0]).toBeCloseTo(0.623, 3); // METHODS.md §5.6: 415 W at 29.5 °C resting at 26 °C
+    expect(a[0]).toBeCloseTo(0.623, 3); // docs/methods.md §8.6: 415 W at 29.5 °C resting at 26 °C
     expect(a[1]).toBeCloseTo(allowableWorkFraction(31, 27, inSun.kernel), 6);
     expect(b[0]).toBeCloseTo(allowableWorkFraction(26, null, inShade.kernel), 6);
   });

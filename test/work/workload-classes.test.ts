@@ -17,7 +17,7 @@ describe('workload classes', () => {
     expect(parseWorkloadClasses(shipped)).toEqual(DEFAULT_WORKLOAD_CLASSES);
   });
 
-  it('the default rates are the ISO 7243 class values 180/300/415/520 W with rest at 115 W (METHODS.md §5.1)', () => {
+  it('the default rates are the ISO 7243 class values 180/300/415/520 W with rest at 115 W (docs/methods.md §8.1)', () => {
     const c = parseWorkloadClasses(shipped);
     expect(c.rest.metabolicRate).toBe(115);
     expect(c.classes.map((x) => [x.id, x.metabolicRate])).toEqual([
@@ -28,7 +28,7 @@ describe('workload classes', () => {
     ]);
   });
 
-  it('each default rate lies inside its ISO 7243:1989 class bounds in W for a 1.8 m² body (METHODS.md §5.1)', () => {
+  it('each default rate lies inside its ISO 7243:1989 class bounds in W for a 1.8 m² body (docs/methods.md §8.1)', () => {
     const bounds: Record<string, [number, number]> = { low: [117, 234], moderate: [234, 360], high: [360, 468], 'very-high': [468, 1000] };
     for (const c of DEFAULT_WORKLOAD_CLASSES.classes) {
       expect(c.metabolicRate).toBeGreaterThan(bounds[c.id][0]);

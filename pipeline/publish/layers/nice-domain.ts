@@ -11,14 +11,14 @@ export interface NiceDomainOptions {
   /**
    * Lower and upper percentiles [%] the domain spans instead of min and max, so a few extreme
    * cells do not wash out the rest; e.g. [2, 98]. Linear interpolation between order statistics
-   * (Hyndman & Fan 1996 type 7, METHODS.md §8). Default [0, 100].
+   * (Hyndman & Fan 1996 type 7, docs/methods.md §10.1). Default [0, 100].
    */
   percentiles?: [number, number];
   /** An upper bound the domain never exceeds, e.g. 744 h in a month or 1 for a fraction [units]. */
   cap?: number;
 }
 
-/** Type-7 quantile of sorted finite values (METHODS.md §8: h = (n − 1) p + 1). */
+/** Type-7 quantile of sorted finite values (docs/methods.md §10.1: h = (n − 1) p + 1). */
 function quantileSorted(sorted: Float64Array, p: number): number {
   const h = (sorted.length - 1) * p;
   const lo = Math.floor(h);

@@ -1,6 +1,6 @@
 /**
  * The categorical style of the human-climate-niche class of a cell's mean annual temperature.
- * Classes, codes and labels come from the climate stage (pipeline/climate/niche.ts, METHODS.md §7:
+ * Classes, codes and labels come from the climate stage (pipeline/climate/niche.ts, docs/methods.md §11:
  * code = index in NICHE_CLASSES; NICHE_NO_CLASS for an unknown MAT, drawn transparent).
  * Colours: four of the eight of the Okabe & Ito (2008) "Color Universal Design" set, made for
  * colour-vision deficiencies (hex values from memory; their separation under simulated

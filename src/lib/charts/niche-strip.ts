@@ -1,6 +1,6 @@
 /**
  * Geometry of the niche strip: a mean-annual-temperature axis [°C] with the bands of the human
- * climate niche (bounds and labels from pipeline/climate/niche.ts, METHODS.md §7: Xu et al. 2020,
+ * climate niche (bounds and labels from pipeline/climate/niche.ts, docs/methods.md §11: Xu et al. 2020,
  * Lenton et al. 2023; colours those of the niche map layer, pipeline/publish/layers/niche-style.ts)
  * and a marker for the region's baseline and latest mean annual temperature. Linear scale from
  * d3-scale. Pure.

@@ -1,7 +1,7 @@
 /**
  * Across the baseline years: the mean and the 90th-percentile year of each monthly figure, and of
  * the project-period totals, with the pipeline's own climate code (pipeline/climate/normals.ts:
- * Hyndman–Fan type 7 quantiles, METHODS.md §8; completeness rule MONTHLY_COMPLETENESS, the rule
+ * Hyndman–Fan type 7 quantiles, docs/methods.md §10.1; completeness rule MONTHLY_COMPLETENESS, the rule
  * the region tables use: a month counts when at most 240 of its hours are missing, a normal needs
  * 80 % of the baseline years).
  *

@@ -1,8 +1,8 @@
 /**
  * The screening limits of the atlas's workload classes, from the same code the pipeline uses
  * (pipeline/work/limit-curves.ts `limitWbgt`: NIOSH 2016 REL/RAL curves or the ISO 7243:1989
- * table, METHODS.md §5.2–§5.3) with the manifest's limit model, air movement and clothing
- * adjustment value (CAV, METHODS.md §5.5). An hour is above the limit when `WBGT + CAV > L(M)`
+ * table, docs/methods.md §8.2–§8.3) with the manifest's limit model, air movement and clothing
+ * adjustment value (CAV, docs/methods.md §8.4). An hour is above the limit when `WBGT + CAV > L(M)`
  * (pipeline/work/README.md), i.e. when the WBGT is above `L(M) − CAV`. Pure.
  */
 import type { AtlasManifest } from '../../data/atlas-manifest.ts';

@@ -1,7 +1,7 @@
 /**
  * The report's monthly figures for one workload class and exposure: shift hours with WBGT above
  * the limit and shift hours lost to the rest breaks the limit requires [h per worker], each as
- * the baseline mean and the 90th-percentile year (METHODS.md §8: Hyndman–Fan type 7 across the
+ * the baseline mean and the 90th-percentile year (docs/methods.md §10.1: Hyndman–Fan type 7 across the
  * baseline years), per month and for the whole year. Values come straight from the region's
  * table; nothing is recomputed. Pure.
  */

@@ -2,7 +2,7 @@
  * Which workload class, acclimatization and exposure the report and home pages show first (the
  * others follow in <details> or behind a switch). Our rule, stated on the pages:
  * - the class `moderate` when the atlas has it (steady work such as operating plant or
- *   plastering, METHODS.md §5.1), else the first class of the atlas;
+ *   plastering, docs/methods.md §8.1), else the first class of the atlas;
  * - the first acclimatization state and the first exposure the atlas configures (by default
  *   acclimatized workers in the sun).
  */

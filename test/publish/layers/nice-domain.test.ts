@@ -3,7 +3,7 @@ import { niceDomain } from '../../../pipeline/publish/layers/nice-domain.ts';
 import { expectCatalogued } from './helpers.ts';
 
 // Reference: d3-scale's linear nice() rounding (d3-scale 4.0.3 docs: extends the domain to round
-// values), and the type-7 quantile of METHODS.md §8 (Hyndman & Fan 1996) worked by hand below.
+// values), and the type-7 quantile of docs/methods.md §10.1 (Hyndman & Fan 1996) worked by hand below.
 describe('niceDomain', () => {
   it('counts start at 0 and end at a round number above the maximum; NaN cells are ignored', () => {
     expect(niceDomain(Float32Array.from([3, 17, NaN, 231.4]))).toEqual([0, 240]); // d3 nice() with its default 10 ticks: step 20

@@ -7,14 +7,14 @@ import { renderLayerPng } from '../../../pipeline/publish/layers/render-layer-pn
 import { niceDomain } from '../../../pipeline/publish/layers/nice-domain.ts';
 import { figureStyle } from '../../../pipeline/publish/layers/figure-style.ts';
 import { decodePng, exactBuffer } from './helpers.ts';
-import { sharedPath } from '../../helpers/shared-dir.ts';
+import { fixturePath } from '../../helpers/fixtures.ts';
 
-// Real data: /work/shared/realdata/bcsd_obs_1999.nc (PROVENANCE.md: observed monthly `tas` [C],
+// Real data: test/fixtures/realdata/bcsd_obs_1999.nc (PROVENANCE.md there: observed monthly `tas` [C],
 // 1/8°, south-east USA, missing cells NaN), read with netcdfjs 4.0.0. Its coordinate extremes as
 // printed by the reference library's own `ncdump -v latitude,longitude`: latitude 33.0625 …
 // 37.0625 (33 rows), longitude −84.9375 … −74.9375 (81 columns), so cell edges 33.0 … 37.125 °N and
 // −85.0 … −74.875 °E. Read back with geotiff.js 3.0.5 and sharp 0.34.5.
-const file = sharedPath('realdata', 'bcsd_obs_1999.nc');
+const file = fixturePath('realdata', 'bcsd_obs_1999.nc');
 const nc = new NetCDFReader(readFileSync(file));
 const lat = Float64Array.from(nc.getDataVariable('latitude') as number[]);
 const lon = Float64Array.from(nc.getDataVariable('longitude') as number[]);
