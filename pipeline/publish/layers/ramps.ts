@@ -58,6 +58,8 @@ export const RAMP_FOR_FIGURE = {
   meanWbgt: { ramp: 'plasma', reverse: false },
   /** Mean annual temperature [°C]. */
   meanAnnualTemperature: { ramp: 'cividis', reverse: false },
+  /** Person-hours lost per km² [person-h km⁻²] (the workforce weighting). */
+  personHoursDensity: { ramp: 'YlGnBu', reverse: false },
   /** Any other count or amount. */
   other: { ramp: 'viridis', reverse: false },
 } as const satisfies Record<string, { ramp: RampName; reverse: boolean }>;
