@@ -29,7 +29,9 @@ export const USAGE_ERRORS: readonly string[] = [
   'LayerRampUnknown', 'LayerClassesInvalid', 'LayerDomainInvalid', 'LayerNoDataValueInvalid', 'LayerCategoriesInvalid',
   'PreviewDirMissing', 'PreviewPortBusy', 'SiteOutputUnwritable', 'SiteDataDirUnset',
   'EstimateNumberInvalid', 'EstimateChoiceUnknown', 'EstimateMonthsEmpty', 'EstimatePeriodInvalid', 'EstimateRegionUnknown',
-  'EstimateCellInvalid', 'EstimatePointOutsideGrid',
+  'EstimateCellInvalid', 'EstimatePointOutsideGrid', 'EstimateAtlasNotFound',
+  'ScheduleDateInvalid', 'ScheduleNumberInvalid', 'ScheduleShiftInvalid', 'ScheduleDaysInvalid', 'ScheduleTooManyPatterns',
+  'ScheduleNotFinished', 'ScheduleDeadlineUnreachable',
 ];
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
@@ -50,7 +52,7 @@ export const DATA_ERRORS: readonly string[] = [
   'WbgtHistogramInvalid', 'CellTileInvalid', 'CellOutsideGrid', 'CellFigureMissing',
   'LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerNoData',
   'SiteDataMissing', 'SiteDataUnreadable', 'SiteDataInvalid', 'SiteBuildFailed',
-  'EstimateDataUnavailable', 'EstimateYearsMismatch',
+  'EstimateDataUnavailable', 'EstimateYearsMismatch', 'EstimateAtlasInvalid', 'ScheduleHolidayInvalid', 'ScheduleNoWeatherYears',
   'WorkforceRasterUnreadable', 'WorkforceRasterBands', 'WorkforceRasterCrs', 'WorkforceRasterGeoreference', 'WorkforceCountInvalid',
   'WorkforceRasterNotCovering', 'WorkforceSharesColumns', 'WorkforceSharesEmpty', 'WorkforceSharesBadValue', 'WorkforceSharesDuplicate',
   'WorkforceSharesRegionUnknown', 'WorkforceSharesClassUnknown', 'WorkforceSharesSum', 'WorkforceSharesMissing', 'WorkforceSharesEvaluation',
