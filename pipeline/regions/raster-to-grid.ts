@@ -12,13 +12,21 @@
  * grid into `outsideGrid`, so nothing is lost silently: Σ people + offLand + outsideGrid = the
  * raster's total over the pixels read.
  *
+ * Regions that cover a cell only in part get its people from the pixels inside them, not an even
+ * share of the cell: given the pieces region ∩ cell (cell-pieces.ts), each pixel of such a cell is
+ * also split among the pieces by the area of the pixel inside each piece, on the sphere (the
+ * piece's rings clipped to the pixel and measured exactly, spherical-area.ts).
+ *
  * Streaming: pixels come in windows of whole rows (`addRows`), in any order of rows; memory holds
- * the people of the land cells, one row of grid columns and the column shares of the window, never
- * an array per grid cell or the raster. Pure: arrays in, arrays out; a negative or NaN count is
- * the catalogued WorkforceCountInvalid naming the pixel.
+ * the people of the land cells, one row of grid columns, the column shares of the window and the
+ * pieces, never an array per grid cell or the raster. Pure: arrays in, arrays out; a negative or
+ * NaN count is the catalogued WorkforceCountInvalid naming the pixel.
  */
 import type { GridCells } from './grid-cells.ts';
 import { WorkforceCountInvalid } from './errors.ts';
+import type { CellPiece } from './cell-pieces.ts';
+import { ClipBuffer, clipHalfPlane } from './clip-rectangle.ts';
+import { ringAreaSr } from './spherical-area.ts';
 
 const RAD = Math.PI / 180;
 
@@ -144,6 +152,15 @@ export class GridAggregator {
   private rowAcc = new Float64Array(0);
   private rowRows: number[] = [];
   private rowShares: number[] = [];
+  /** The current pixel row's latitude span, clamped to the poles [° N], and Δ sin φ over it. */
+  private rowS = 0;
+  private rowN = 0;
+  private rowSpan = 0;
+  /** Region pieces of partly covered cells, by grid row, and the people of each piece. */
+  private pieces: CellPiece[] = [];
+  private piecesByRow = new Map<number, number[]>();
+  private piecePeople = new Float64Array(0);
+  private readonly clip = [new ClipBuffer(), new ClipBuffer(), new ClipBuffer(), new ClipBuffer()];
 
   /**
    * @param g the atlas grid's cells
@@ -167,6 +184,24 @@ export class GridAggregator {
       while (k < cells.length && cells[k] < first) k++;
       this.rowStart[r] = k;
     }
+  }
+
+  /** Sets the region pieces whose people to sum (before any row is added). */
+  setPieces(pieces: CellPiece[]): void {
+    this.pieces = pieces;
+    this.piecePeople = new Float64Array(pieces.length);
+    this.piecesByRow.clear();
+    pieces.forEach((p, i) => {
+      const r = Math.floor(p.cell / this.g.nLon);
+      const list = this.piecesByRow.get(r) ?? [];
+      list.push(i);
+      this.piecesByRow.set(r, list);
+    });
+  }
+
+  /** People of each piece set with {@link setPieces}, in its order [people]. */
+  pieceSums(): Float64Array {
+    return this.piecePeople;
   }
 
   /**
@@ -212,8 +247,45 @@ export class GridAggregator {
       const inCols = rowTotal - outsideCols;
       const rowOutside = this.latitudeShares(row);
       this.outsideGrid += outsideCols + inCols * rowOutside;
-      for (let q = 0; q < this.rowRows.length; q++) this.addToRow(this.rowRows[q], this.rowShares[q], cMin);
+      for (let q = 0; q < this.rowRows.length; q++) {
+        this.addToRow(this.rowRows[q], this.rowShares[q], cMin);
+        const pieces = this.piecesByRow.get(this.rowRows[q]);
+        if (pieces) for (const pi of pieces) this.addPieceRow(pi, win, values, base, nd, ndNaN, nd32);
+      }
     }
+  }
+
+  /** Adds the pixels of the current pixel row that lie inside piece `pi`, each by the share of its area inside. */
+  private addPieceRow(pi: number, win: RasterWindow, values: ArrayLike<number>, base: number, nd: number | null, ndNaN: boolean, nd32: number): void {
+    const { g, layout, clip } = this;
+    const piece = this.pieces[pi];
+    const col = piece.cell % g.nLon;
+    const x0 = layout.west + win.shift;
+    const width = win.col1 - win.col0;
+    const i0 = Math.max(0, Math.floor((g.lonEdges[col] - x0) / layout.dLon) - win.col0);
+    const i1 = Math.min(width, Math.ceil((g.lonEdges[col + 1] - x0) / layout.dLon) - win.col0);
+    if (i0 >= i1) return;
+    const pixelSr = layout.dLon * RAD * this.rowSpan;
+    let sum = 0;
+    for (let k = 0; k < piece.rings.length; k++) {
+      const ring = piece.rings[k];
+      let m = clipHalfPlane(ring, ring.length / 2, 1, this.rowS, true, clip[0]);
+      if (m < 3) continue;
+      m = clipHalfPlane(clip[0].data, m, 1, this.rowN, false, clip[1]);
+      if (m < 3) continue;
+      const strip = clip[1].data;
+      for (let i = i0; i < i1; i++) {
+        const v = values[base + i];
+        if (v === 0 || (nd !== null && (ndNaN ? v !== v : v === nd || v === nd32))) continue;
+        const a = x0 + (win.col0 + i) * layout.dLon;
+        let q = clipHalfPlane(strip, m, 0, a, true, clip[2]);
+        if (q < 3) continue;
+        q = clipHalfPlane(clip[2].data, q, 0, a + layout.dLon, false, clip[3]);
+        if (q < 3) continue;
+        sum += piece.signs[k] * v * (ringAreaSr(clip[3].data, q) / pixelSr);
+      }
+    }
+    this.piecePeople[pi] += sum;
   }
 
   /** The grid rows pixel row `row` overlaps and their shares, in rowRows/rowShares; returns the share outside the grid [1]. */
@@ -227,6 +299,9 @@ export class GridAggregator {
     const n = Math.min(90, Math.max(y1, y2));
     const sinS = Math.sin(s * RAD);
     const span = Math.sin(n * RAD) - sinS;
+    this.rowS = s;
+    this.rowN = n;
+    this.rowSpan = span;
     if (!(span > 0)) return 1;
     const lat0 = g.lat[0] - g.dLat / 2;
     let inside = 0;

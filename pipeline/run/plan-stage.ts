@@ -271,9 +271,9 @@ function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray
 
 /**
  * Hands each merge band its part of the workforce: its cells' people, share profiles and areas,
- * and per region it overlaps the people weights p_cell / P (p_cell = people(cell) · share of the
- * cell inside the region, P their sum over the region; area weights for a region without people,
- * whose person-hours are then 0).
+ * and per region it overlaps the people weights p_cell / P (p_cell the cell's people inside the
+ * region, P their sum over the region; area weights for a region without people, whose
+ * person-hours are then 0).
  */
 function addBandWorkforce(bands: MergeBand[], cells: Int32Array, grid: BuildPlan['ds']['grid'], weights: readonly CellWeights[], wf: WorkforcePlan, nEval: number): void {
   const g = describeGridCells(grid);
@@ -289,11 +289,7 @@ function addBandWorkforce(bands: MergeBand[], cells: Int32Array, grid: BuildPlan
     const regions: RegionTileCells[] = band.regions.map((rc) => {
       const w = weights[rc.region];
       const total = wf.regionPeople[rc.region];
-      const weight = Float64Array.from(rc.cells, (cell, k) => {
-        if (!(total > 0)) return rc.weight[k];
-        const j = lowerBound(w.cells, cell);
-        return (wf.people[lowerBound(cells, cell)] * w.fraction[j]) / total;
-      });
+      const weight = Float64Array.from(rc.cells, (cell, k) => (total > 0 ? wf.regionCellPeople[rc.region][lowerBound(w.cells, cell)] / total : rc.weight[k]));
       return { region: rc.region, local: rc.local, cells: rc.cells, weight, histWeight: new Float64Array(0) };
     });
     band.workforce = {

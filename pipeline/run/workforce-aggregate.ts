@@ -9,6 +9,7 @@ import type { HorizontalGrid } from '../model/grid.ts';
 import { openWorkforceRaster, type WorkforceRaster } from '../read/workforce-raster.ts';
 import { describeGridCells } from '../regions/grid-cells.ts';
 import { GridAggregator, rasterWindows, type PeopleOnGrid } from '../regions/raster-to-grid.ts';
+import type { CellPiece } from '../regions/cell-pieces.ts';
 
 /** Pixels read at once, at most (unless one row of the file's blocks is more) [px]. */
 export const STRIP_PIXELS = 1 << 22;
@@ -19,19 +20,28 @@ export interface AggregateOutcome extends PeopleOnGrid {
   /** Strips read [count] and the most pixels held at once [px]. */
   strips: number;
   peakStripPixels: number;
+  /** People of each region piece asked for, in its order [people]. */
+  pieceSums: Float64Array;
+}
+
+export interface AggregateOptions {
+  /** Called with the opened raster before any pixel is read (to refuse it early). */
+  check?: (raster: WorkforceRaster) => void;
+  /** Region pieces of partly covered cells whose people to sum as well (pipeline/regions/cell-pieces.ts). */
+  pieces?: CellPiece[];
 }
 
 /**
  * Aggregates the raster at `path` onto the land cells of `grid`.
  * @param cells the land cells (global indices, ascending)
- * @param check called with the opened raster before any pixel is read (to refuse it early)
  */
-export async function aggregateRasterFile(path: string, grid: HorizontalGrid, cells: Int32Array, check?: (raster: WorkforceRaster) => void): Promise<AggregateOutcome> {
+export async function aggregateRasterFile(path: string, grid: HorizontalGrid, cells: Int32Array, o: AggregateOptions = {}): Promise<AggregateOutcome> {
   const raster = await openWorkforceRaster(path);
   try {
-    check?.(raster);
+    o.check?.(raster);
     const g = describeGridCells(grid);
     const agg = new GridAggregator(g, cells, raster, raster.noData, path);
+    if (o.pieces) agg.setPieces(o.pieces);
     let strips = 0;
     let peak = 0;
     for (const win of rasterWindows(raster, g)) {
@@ -49,7 +59,7 @@ export async function aggregateRasterFile(path: string, grid: HorizontalGrid, ce
       }
     }
     const { read: _read, close: _close, ...info } = raster;
-    return { ...agg.result(), raster: info, strips, peakStripPixels: peak };
+    return { ...agg.result(), raster: info, strips, peakStripPixels: peak, pieceSums: agg.pieceSums() };
   } finally {
     await raster.close();
   }

@@ -18,8 +18,12 @@ import { parseWorkforceShares, type WorkforceShares } from '../regions/workforce
 import { intersectRectangles, regionAreaInRectangleSr, type LonLatRectangle } from '../regions/rectangle-area.ts';
 import { WorkforceRasterNotCovering, WorkforceSharesColumns } from '../regions/errors.ts';
 import { personHoursDensityDef, workforceRegionDefs } from '../regions/person-hours.ts';
+import { regionCellPieces, type CellPiece } from '../regions/cell-pieces.ts';
 import type { FigureDef } from '../reduce/figures.ts';
 import { aggregateRasterFile, type AggregateOutcome } from './workforce-aggregate.ts';
+
+/** A cell whose share inside a region is at least this counts as wholly inside [1]. */
+const WHOLE_CELL = 1 - 1e-9;
 
 /** Share of a region (its part inside the grid) the raster's extent must cover [1]. */
 export const REQUIRED_RASTER_COVERAGE = 0.995;
@@ -35,12 +39,18 @@ export interface WorkforcePlan {
   profile: Int32Array;
   /** Per profile (regions, then the default), per evaluation: the weights [1] ((nRegions + 1) × nEval). */
   profileWeights: Float64Array;
-  /** People of each region [people] (Σ over its land cells of people × share of the cell inside it). */
+  /** People of each region [people]: Σ over its land cells of the cell's people inside it. */
   regionPeople: Float64Array;
+  /**
+   * Per region, per land cell of its (land-masked) weights: the cell's people inside the region
+   * [people] — the whole cell's where the region covers it, else the pixels inside the region
+   * (each by the share of its area inside).
+   */
+  regionCellPeople: Float64Array[];
   /** Hours of a year of the shift pattern [h]: the yardstick of a full-time equivalent. */
   annualHours: number;
   /** The aggregation's counts: people off land, outside the grid; pixels. */
-  aggregate: Omit<AggregateOutcome, 'cells' | 'people'>;
+  aggregate: Omit<AggregateOutcome, 'cells' | 'people' | 'pieceSums'>;
   /** People on the land cells [people]. */
   peopleOnLand: number;
   /** Region figures and the per-cell figure. */
@@ -70,25 +80,40 @@ export async function planWorkforce(
     evaluations.map((e) => ({ workloadClass: e.workloadClass.id, acclimatization: e.acclimatization, exposure: e.exposure })),
   );
 
-  const agg = await aggregateRasterFile(rasterPath, grid, cells, (r) => checkCoverage(rasterPath, r, grid, regions));
+  // The land cells each region covers only in part: their people come from the pixels inside it.
+  const g = describeGridCells(grid);
+  const pieces: CellPiece[] = [];
+  weights.forEach((w, r) => {
+    const partial = Array.from(w.cells).filter((_, j) => w.fraction[j] < WHOLE_CELL);
+    pieces.push(...regionCellPieces(regions[r], r, g, partial));
+  });
+  const agg = await aggregateRasterFile(rasterPath, grid, cells, { check: (r) => checkCoverage(rasterPath, r, grid, regions), pieces });
+  const pieceOf = new Map<string, number>();
+  pieces.forEach((p, i) => pieceOf.set(`${p.region} ${p.cell}`, i));
 
   // People of each region, and each land cell's profile for the map.
   const nEval = evaluations.length;
   const regionPeople = new Float64Array(regions.length);
+  const regionCellPeople: Float64Array[] = [];
   const profile = new Int32Array(cells.length).fill(shares.fallback ? regions.length : -1);
   const best = new Float64Array(cells.length);
   weights.forEach((w, r) => {
+    const mine = new Float64Array(w.cells.length);
     let p = 0;
     for (let j = 0; j < w.cells.length; j++) {
       const k = landIndex(cells, w.cells[j]);
       if (k < 0) continue;
-      p += agg.people[k] * w.fraction[j];
+      const piece = w.fraction[j] < WHOLE_CELL ? pieceOf.get(`${r} ${w.cells[j]}`) : undefined;
+      // A piece that clipped to nothing (a cell touched within rounding) holds no people.
+      mine[j] = w.fraction[j] >= WHOLE_CELL ? agg.people[k] : piece === undefined ? 0 : Math.max(0, agg.pieceSums[piece]);
+      p += mine[j];
       if (w.fraction[j] > best[k]) {
         best[k] = w.fraction[j];
         profile[k] = r;
       }
     }
     regionPeople[r] = p;
+    regionCellPeople.push(mine);
   });
   const profileWeights = new Float64Array((regions.length + 1) * nEval);
   shares.regions.forEach((pr, r) => profileWeights.set(pr.evalWeights, r * nEval));
@@ -96,7 +121,7 @@ export async function planWorkforce(
   let peopleOnLand = 0;
   for (const v of agg.people) peopleOnLand += v;
 
-  const { cells: _c, people, ...counts } = agg;
+  const { cells: _c, people, pieceSums: _p, ...counts } = agg;
   const seconds = (Date.now() - t0) / 1000;
   const fmt = (x: number) => Math.round(x).toLocaleString('en-US');
   log.info(
@@ -113,6 +138,7 @@ export async function planWorkforce(
     profile,
     profileWeights,
     regionPeople,
+    regionCellPeople,
     annualHours: annualShiftHours(shift),
     aggregate: counts,
     peopleOnLand,

@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { describeGridCells } from '../../pipeline/regions/grid-cells.ts';
 import { GridAggregator, rasterWindows, type PixelLayout } from '../../pipeline/regions/raster-to-grid.ts';
 import { rectangleAreaSr, EARTH_RADIUS_KM } from '../../pipeline/regions/spherical-area.ts';
-import { expectCatalogued, grid } from './helpers.ts';
+import { regionCellPieces } from '../../pipeline/regions/cell-pieces.ts';
+import { parseRegionGeoJson } from '../../pipeline/regions/parse-regions.ts';
+import { expectCatalogued, grid, polygonFeature, rect } from './helpers.ts';
 
 const R2 = EARTH_RADIUS_KM * EARTH_RADIUS_KM;
 const allCells = (n: number) => Int32Array.from({ length: n }, (_, i) => i);
@@ -134,6 +136,23 @@ describe('conservative aggregation of a people raster onto the atlas grid', () =
     expectCatalogued(() => aggregate(layout, Float64Array.of(1, 2, NaN, 4, 5, 6), grid(0.5, 2, 0.5, 2)), 'WorkforceCountInvalid', /column 2, row 0.*NaN/);
     // NaN is a count error when the no-data value is a number.
     expectCatalogued(() => aggregate(layout, Float64Array.of(1, 2, NaN, 4, 5, 6), grid(0.5, 2, 0.5, 2), undefined, -1), 'WorkforceCountInvalid');
+  });
+
+  it('a region covering part of a cell gets the pixels inside it, each by the share of its area inside (hand computation)', () => {
+    // Cell 0 is 0…1 °E × 0…1 °N; pixels of 0.25° hold 1…16 (row 0 at the top). The region is
+    // 0…0.6 °E × 0…1 °N: pixel columns 0 and 1 wholly, column 2 (0.5…0.75) by 0.1/0.25 = 0.4.
+    const layout: PixelLayout = { width: 4, height: 4, west: 0, dLon: 0.25, top: 1, dLatRow: -0.25 };
+    const values = Float64Array.from({ length: 16 }, (_, i) => i + 1);
+    const centres = grid(0.5, 2, 0.5, 2);
+    const g = describeGridCells(centres);
+    const region = parseRegionGeoJson(polygonFeature('left', [rect(0, 0, 0.6, 1)]), 'test.geojson')[0];
+    const pieces = regionCellPieces(region, 0, g, [0]);
+    const agg = new GridAggregator(g, allCells(4), layout, null, 'test.tif');
+    agg.setPieces(pieces);
+    agg.addRows(rasterWindows(layout, g)[0], 0, 4, values);
+    // Columns 0, 1: 1+2, 5+6, 9+10, 13+14 = 60; column 2 × 0.4: (3+7+11+15) × 0.4 = 14.4.
+    expect(agg.pieceSums()[0]).toBeCloseTo(74.4, 10);
+    expect(agg.result().people[0]).toBeCloseTo(136, 10);
   });
 
   it('a south-up raster gives the same people as its north-up copy', () => {
