@@ -18,7 +18,7 @@ export const EXIT = { ok: 0, internal: 1, usage: 2, data: 3, closedPipe: 141 } a
 export const USAGE_ERRORS: readonly string[] = [
   'UsageError', 'ShardSliceInvalid', 'MergeSliceInvalid', 'BuildLocked',
   'MemoryBudgetTooSmall', 'MemoryBudgetInvalid', 'DiskFull',
-  'ConfigNotFound', 'ConfigSyntax', 'ConfigInvalid', 'ConfigInputMissing', 'ConfigRegionsMissing',
+  'ConfigNotFound', 'ConfigSyntax', 'ConfigInvalid', 'ConfigInputMissing', 'ConfigRegionsMissing', 'ConfigWorkforceFileMissing',
   'NetcdfNoFiles', 'YearsOutsideData', 'NoLandCells',
   'DemoYearsInvalid', 'DemoYearOutOfRange', 'DemoLayoutUnknown', 'DemoGridInvalid', 'DemoSeedInvalid', 'DemoOutputUnwritable',
   'PointClassesNotFound', 'PointClassesSyntax', 'PointOptionInvalid',
@@ -53,7 +53,10 @@ export const DATA_ERRORS: readonly string[] = [
   'WbgtHistogramInvalid', 'CellTileInvalid', 'CellOutsideGrid', 'CellFigureMissing',
   'LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerNoData',
   'SiteDataMissing', 'SiteDataUnreadable', 'SiteDataInvalid', 'SiteBuildFailed',
-  'EstimateDataUnavailable', 'EstimateYearsMismatch',
+  'EstimateDataUnavailable', 'EstimateYearsMismatch', 'EstimateAtlasInvalid', 'ScheduleHolidayInvalid', 'ScheduleNoWeatherYears',
+  'WorkforceRasterUnreadable', 'WorkforceRasterBands', 'WorkforceRasterCrs', 'WorkforceRasterGeoreference', 'WorkforceCountInvalid',
+  'WorkforceRasterNotCovering', 'WorkforceSharesColumns', 'WorkforceSharesEmpty', 'WorkforceSharesBadValue', 'WorkforceSharesDuplicate',
+  'WorkforceSharesRegionUnknown', 'WorkforceSharesClassUnknown', 'WorkforceSharesSum', 'WorkforceSharesMissing', 'WorkforceSharesEvaluation',
 ];
 
 const USAGE = new Set(USAGE_ERRORS);

@@ -35,3 +35,13 @@ export const ConfigRegionsMissing = defineError<{ path: string }>({
   message: (p) => `regions folder ${p.path} does not exist or holds no .geojson file`,
   hint: () => 'point `regions` at a folder of GeoJSON files, one region (or a FeatureCollection of regions) per file',
 });
+
+export const ConfigWorkforceFileMissing = defineError<{ key: string; path: string; invented: boolean }>({
+  code: 'ConfigWorkforceFileMissing',
+  title: 'A workforce file named in the configuration does not exist',
+  message: (p) => `${p.key} names ${p.path}, which does not exist or is not a file`,
+  hint: (p) =>
+    p.invented
+      ? 'the demo writes its invented population raster with `heathours demo-data --out data/demo`; run it first, or correct the path (relative to atlas.yaml)'
+      : 'correct the path (relative to atlas.yaml), or remove the `workforce` section to build without person-hours',
+});

@@ -8,7 +8,7 @@ import { dirname, resolve, join } from 'node:path';
 import { parseDocument } from 'yaml';
 import { globSync } from 'tinyglobby';
 import { atlasSchema, type AtlasConfig } from './schema.ts';
-import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax } from './errors.ts';
+import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax, ConfigWorkforceFileMissing } from './errors.ts';
 
 /** A validated configuration with every path resolved to an absolute one. */
 export interface ResolvedConfig {
@@ -25,6 +25,8 @@ export interface ResolvedConfig {
   outputDir: string;
   /** Absolute path of the partial cache folder (`cache`, default `.heathours-cache` beside the output). */
   cacheDir: string;
+  /** Absolute paths of the workforce raster and shares table, when `workforce` is configured. */
+  workforce?: { raster: string; shares: string };
 }
 
 /**
@@ -82,6 +84,15 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
     : [];
   if (regionFiles.length === 0) throw ConfigRegionsMissing({ path: regionsDir }, { file: abs, key: 'regions' });
+  let workforce: ResolvedConfig['workforce'];
+  if (config.workforce) {
+    const raster = resolve(baseDir, config.workforce.raster);
+    const shares = resolve(baseDir, config.workforce.shares);
+    for (const [key, path] of [['workforce.raster', raster], ['workforce.shares', shares]] as const) {
+      if (!existsSync(path) || !statSync(path).isFile()) throw ConfigWorkforceFileMissing({ key, path, invented: config.workforce.invented }, { file: abs, key });
+    }
+    workforce = { raster, shares };
+  }
   return {
     config,
     path: abs,
@@ -90,5 +101,6 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     regionFiles: regionFiles.sort(),
     outputDir: resolve(baseDir, config.output),
     cacheDir: config.cache !== undefined ? resolve(baseDir, config.cache) : join(dirname(resolve(baseDir, config.output)), '.heathours-cache'),
+    workforce,
   };
 }

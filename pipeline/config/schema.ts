@@ -55,6 +55,30 @@ export const siteBaseSchema = z
   .refine((b) => !b.split('/').some((p) => p === '..' || p === '.'), 'no . or .. parts')
   .transform((b) => (b.endsWith('/') ? b : `${b}/`));
 
+/**
+ * The optional workforce weighting (issue 17): a GeoTIFF of people per pixel in EPSG:4326 and a
+ * CSV of the shares of those people who do outdoor work of each workload class, per region. The
+ * raster's name, year and licence are shown wherever a figure made from it is shown.
+ */
+export const workforceSchema = z
+  .object({
+    /** GeoTIFF of people (counts) per pixel, EPSG:4326, relative to the config file. */
+    raster: z.string().min(1),
+    /** CSV of shares: `region_id`, `workload_class`, `share` (optional `acclimatized_share`, `sun_share`), relative to the config file. */
+    shares: z.string().min(1),
+    /** The raster's name as its publisher gives it. */
+    name: z.string().min(1),
+    /** The year the raster describes [calendar year]. */
+    year: z.number().int().min(1800).max(2100),
+    /** The raster's licence or terms of use, shown with every figure made from it. */
+    licence: z.string().min(1),
+    /** Whether the raster is invented (the demo's); invented data are labelled so everywhere. */
+    invented: z.boolean().default(false),
+  })
+  .strict();
+
+export type WorkforceConfig = z.infer<typeof workforceSchema>;
+
 export const atlasSchema = z
   .object({
     /** Identifier of the atlas, used in file names: lower case, digits and dashes. */
@@ -78,6 +102,8 @@ export const atlasSchema = z
     physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */
     work: workSettingsSchema,
+    /** Optional: weight hours lost by the people who do outdoor work (person-hours, full-time equivalents). */
+    workforce: workforceSchema.optional(),
     /**
      * Folder of the partial cache (pipeline/run/partial-store.ts), relative to the config file;
      * default `.heathours-cache` beside the output folder.

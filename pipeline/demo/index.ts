@@ -23,6 +23,8 @@ import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask } from './netcdf4-layout.ts
 import { runYearJob, type YearJob } from './year-job.ts';
 import { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
 import { yearHours } from './weather.ts';
+import { demoPopulation, POPULATION_FILE } from './population.ts';
+import { writeGeoTiff } from '../publish/layers/geotiff-write.ts';
 
 import { DEFAULT_SEED, DEMO_LAYOUTS, type DemoGridChoice, type DemoLayout } from './choices.ts';
 export type { DemoGridChoice } from './choices.ts';
@@ -125,6 +127,20 @@ export async function writeDemoDataset(opts: {
       }
     } finally {
       rmSync(lsmNew, { force: true });
+    }
+    // The invented population raster (for the workforce weighting): the same for every grid and year.
+    const popPath = join(opts.outDir, POPULATION_FILE);
+    const popNew = join(opts.outDir, `.${POPULATION_FILE}.${process.pid}.new`);
+    try {
+      const tif = writeGeoTiff(demoPopulation(), { units: 'people', description: 'INVENTED people per pixel of the demo territory (heathours demo-data); not derived from any real data' });
+      if (existsSync(popPath) && readFileSync(popPath).equals(tif)) unchanged.push(popPath);
+      else {
+        writeFileSync(popNew, tif);
+        renameSync(popNew, popPath);
+        files.push(popPath);
+      }
+    } finally {
+      rmSync(popNew, { force: true });
     }
     const jobs: YearJob[] = years.map((year) => ({
       path: join(opts.outDir, yearFileName(year)),

@@ -10,7 +10,9 @@
  *   bin, uint16 n, then n double-double pairs (float64 hi, float64 lo);
  * - 2 figure sums: for each figure, uint32 fields, uint32 years, then swx, sw (pairs), worstValue
  *   (float64), worstCell (int32);
- * - 3 weighted means: uint32 n, then n float64 values.
+ * - 3 weighted means: uint32 n, then n float64 values;
+ * - 4 workforce sums: as kind 2, with people weights instead of area weights (hours above the
+ *   limit, hours lost, shift hours; pipeline/regions/person-hours.ts).
  */
 import { closeSync, openSync, readSync, writeSync } from 'node:fs';
 import type { RegionFigureSums } from '../regions/region-sums.ts';
@@ -19,6 +21,7 @@ import { HIST_LEN } from '../reduce/layout.ts';
 export const RECORD_HISTOGRAM = 1;
 export const RECORD_FIGURES = 2;
 export const RECORD_MEANS = 3;
+export const RECORD_WORKFORCE = 4;
 
 /** Where a record lies in its file. */
 export interface RegionRecordRef {
@@ -56,7 +59,8 @@ export class RegionPartWriter {
     this.put(RECORD_HISTOGRAM, region, year, encodeHistogramPairs(pairs));
   }
 
-  figures(region: number, sums: readonly RegionFigureSums[]): void {
+  /** Figure sums of a region: area-weighted ({@link RECORD_FIGURES}) or people-weighted ({@link RECORD_WORKFORCE}). */
+  figures(region: number, sums: readonly RegionFigureSums[], kind: typeof RECORD_FIGURES | typeof RECORD_WORKFORCE = RECORD_FIGURES): void {
     const parts: Buffer[] = [];
     for (const s of sums) {
       const h = Buffer.alloc(8);
@@ -64,7 +68,7 @@ export class RegionPartWriter {
       h.writeUInt32LE(s.nYears, 4);
       parts.push(h, bytes(s.swx), bytes(s.sw), bytes(s.worstValue), bytes(s.worstCell));
     }
-    this.put(RECORD_FIGURES, region, 0, Buffer.concat(parts));
+    this.put(kind, region, 0, Buffer.concat(parts));
   }
 
   means(region: number, values: Float64Array): void {
@@ -148,7 +152,7 @@ export function readHistogramInto(path: string, ref: RegionRecordRef, acc: Float
   }
 }
 
-/** The figure sums of a figures record. */
+/** The figure sums of a figures record (kind 2 or 4). */
 export function readFigureSums(path: string, ref: RegionRecordRef): RegionFigureSums[] {
   const p = readPayload(path, ref);
   const out: RegionFigureSums[] = [];

@@ -34,6 +34,7 @@ const KIND: Record<string, FigureKind> = {
   'hours-lost-shift': 'hoursLost',
   'capacity-loss-shift': 'capacityLoss',
   'wbgt-mean': 'meanWbgt',
+  'person-hours-lost-density': 'personHoursDensity',
 };
 
 /** Smallest and largest finite value of each field over the grid (NaN, NaN when none) [unit of the field]. */
@@ -85,7 +86,7 @@ export async function writeAtlasLayers(
       for (const stat of stats) {
         const months = Array.from({ length: PERIODS - 1 }, (_, p) => find(def.id, k, stat, p));
         const year = find(def.id, k, stat, PERIODS - 1);
-        const fromZero = def.units === 'h';
+        const fromZero = def.units === 'h' || def.units.startsWith('person-h');
         const monthDomain = safeDomain(months.map((f) => f.index), range, fromZero);
         const yearDomain = safeDomain([year.index], range, fromZero);
         for (let p = 0; p < PERIODS; p++) {

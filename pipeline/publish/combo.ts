@@ -12,6 +12,10 @@ export interface ComboColumns {
 
 export function comboColumns(figureId: string, key: string): ComboColumns {
   const parts = key.split('.');
+  // Workforce figures: a class (or `all`), mixing acclimatization and exposure as the shares say.
+  if (figureId.startsWith('person-hours-') || figureId === 'full-time-equivalents-lost' || figureId === 'outdoor-work-time-lost') {
+    return { workload_class: key, acclimatization: 'by-shares', exposure: 'by-shares', method: 'limit' };
+  }
   if (figureId.startsWith('hours-')) return { workload_class: parts[0], acclimatization: parts[1], exposure: parts[2], method: 'limit' };
   if (figureId === 'capacity-loss-shift') return { workload_class: '', acclimatization: '', exposure: parts[1], method: parts[0] };
   if (key === 'air') return { workload_class: '', acclimatization: '', exposure: '', method: '' };

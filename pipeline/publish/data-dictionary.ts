@@ -11,7 +11,7 @@
  * means the same wherever its column appears), `column`, `code` (empty for the column itself),
  * `label`, `unit` (as the tables write it), `unit_in_words`, `description`.
  */
-import { csvLine } from './csv.ts';
+import { csvLine } from '../formats/csv.ts';
 import { REGION_TABLE_COLUMNS } from './region-table.ts';
 import { CELL_TABLE_COLUMNS } from './cell-table.ts';
 import { baselineYearCount, p90Description, p90Label } from './baseline-length.ts';

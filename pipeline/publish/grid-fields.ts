@@ -33,6 +33,7 @@ export const MAPPED: Record<string, Array<'mean' | 'p90'>> = {
   'hours-lost-shift': ['mean', 'p90'],
   'capacity-loss-shift': ['mean'],
   'wbgt-mean': ['mean'],
+  'person-hours-lost-density': ['mean', 'p90'],
 };
 
 /** Statistics of the per-cell NetCDF's figures (those of the per-cell tables). */

@@ -39,6 +39,27 @@ export interface Manifest {
   counts: Record<string, number>;
   layers: LayerEntry[];
   artefacts: ArtefactEntry[];
+  /** The workforce weighting, when the atlas has one (config `workforce`). */
+  workforce?: ManifestWorkforce;
+}
+
+/** What a build's person-hours were made from, and what became of the raster's people. */
+export interface ManifestWorkforce {
+  /** The raster's name, year and licence as the config gives them; invented rasters say so. */
+  name: string;
+  year: number;
+  licence: string;
+  invented: boolean;
+  raster: { file: string; sha256: string; width: number; height: number; pixelDegrees: [number, number]; sampleType: string; noData: number | string | null };
+  shares: { file: string; sha256: string; defaults: { acclimatizedShare: number; sunShare: number } };
+  /** People on the land cells, over cells outside the land mask (not counted), outside the grid (parts of the pixels read) [people]. */
+  peopleOnLand: number;
+  peopleOffLand: number;
+  peopleOutsideGrid: number;
+  /** Hours of a year of the shift pattern: one full-time equivalent [h]. */
+  annualHours: number;
+  /** The region figures (tables) made from it; the per-cell figure is in `figures`. */
+  figures: Array<{ id: string; label: string; units: string; combos: string[] }>;
 }
 
 export const STATISTIC_RULES: Record<string, string> = {

@@ -35,7 +35,17 @@ export interface RegionSheetInfo {
   /** Statistic id → what it is. */
   statistics: Readonly<Record<string, string>>;
   cautions: readonly Caution[];
+  /** The region's workforce in words (the people raster, its name, year and licence, the shares), when the atlas has one. */
+  workforce?: Array<[string, string]>;
 }
+
+/** Sheets of the workforce tables, by unit: person-hours, per km², full-time equivalents, share of time (names ≤ 31 characters). */
+const WORKFORCE_SHEETS: ReadonlyArray<[string, string]> = [
+  ['person-h', 'Person-hours by month'],
+  ['FTE', 'Full-time equivalents by month'],
+  ['%', 'Outdoor time lost by month'],
+  ['person-h km-2', 'Person-hours per km² by month'],
+];
 
 /** Paths of a region's spreadsheet files below `data/`. */
 export const regionWidePath = (id: string) => `regions/${id}.wide.csv`;
@@ -61,6 +71,13 @@ export function assumptionRows(region: { id: string; name: string }, info: Regio
     ['Local time', `${info.timeZone} (IANA zone of the local hours, months and shifts)`],
     ['Values', 'area-weighted mean over the region’s land grid cells of each year’s figure, then the statistic across the baseline years'],
     ...info.work.map(([k, v]): CellValue[] => [k, v]),
+    ...(info.workforce
+      ? [
+          [] as CellValue[],
+          ['Workforce figures', 'person-hours = Σ over the land cells of people × share of the cell inside the region × outdoor-work share × hours per worker; the statistic across the baseline years of each year’s total'] as CellValue[],
+          ...info.workforce.map(([k, v]): CellValue[] => [k, v]),
+        ]
+      : []),
     [],
     ['Workload class', 'Name', 'Metabolic rate [W]'],
     ...info.classes.map((c): CellValue[] => [c.id, c.name, c.metabolicRate]),
@@ -78,6 +95,10 @@ export function regionWorkbookSheets(region: { id: string; name: string }, table
   return [
     ...(hours ? [tableSheet('Hours by month', hours)] : []),
     ...(temps ? [tableSheet('Temperatures by month', temps)] : []),
+    ...WORKFORCE_SHEETS.flatMap(([unit, name]) => {
+      const t = tables.find((x) => x.unit === unit);
+      return t ? [tableSheet(name, t)] : [];
+    }),
     { name: 'Assumptions', header: ['Item', 'Value', ''], rows: assumptionRows(region, info), widths: [28, 100, 20] },
     { name: 'Cautions', header: ['Caution', 'Basis'], rows: info.cautions.map((c) => [c.text, c.basis]), widths: [110, 40] },
   ];

@@ -15,8 +15,8 @@ export const REGION_TABLE_COLUMNS = [
 
 export const STATISTICS = ['mean', 'median', 'p90', 'min', 'max', 'latest', 'worst-cell-mean'] as const;
 
-/** Decimals per unit: hours to 0.01 h, temperatures to 0.01 °C. */
-const DIGITS: Record<string, number> = { h: 2, degC: 2 };
+/** Decimals per unit: hours to 0.01 h, temperatures to 0.01 °C, person-hours to 0.1, full-time equivalents to 0.001, shares to 0.001 %. */
+const DIGITS: Record<string, number> = { h: 2, degC: 2, 'person-h': 1, 'person-h km-2': 3, FTE: 3, '%': 3 };
 
 export function periodLabel(p: number): string {
   return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');

@@ -14,7 +14,14 @@ const MONTH_ABBR = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep
 const PERIODS = [...MONTH_ABBR.map((_, i) => String(i + 1).padStart(2, '0')), 'year'];
 
 /** Units of the tidy table → words for the header. */
-export const UNIT_WORDS: Readonly<Record<string, string>> = { h: 'h per worker', degC: '°C' };
+export const UNIT_WORDS: Readonly<Record<string, string>> = {
+  h: 'h per worker',
+  degC: '°C',
+  'person-h': 'person-hours',
+  'person-h km-2': 'person-hours per km²',
+  FTE: 'full-time equivalents',
+  '%': '% of outdoor work time',
+};
 
 /** Key columns of a wide row, in order. */
 export const WIDE_KEY_COLUMNS = ['figure', 'figure_label', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic'] as const;

@@ -190,3 +190,36 @@ export const NetcdfDataUnreadable = defineError<{ path: string; variable: string
   message: (p) => `${p.path}: ${p.variable} for the hours ${p.from} to ${p.to} (end of hour, UTC) cannot be read: ${p.detail}`,
   hint: () => 'the file is damaged in its data (a compressed chunk does not inflate, or its index points nowhere): fetch it again; `ncdump -v VAR FILE` stops at the same place',
 });
+
+/** The one GDAL command that reprojects a count raster to EPSG:4326 while keeping its totals (shown in hints). */
+export const REPROJECT_COMMAND = 'gdalwarp -t_srs EPSG:4326 -r sum -tr D D IN.tif OUT.tif';
+
+export const WorkforceRasterUnreadable = defineError<{ path: string; detail: string }>({
+  code: 'WorkforceRasterUnreadable',
+  title: 'The workforce raster cannot be read as a GeoTIFF',
+  message: (p) => `${p.path}: ${p.detail}`,
+  hint: () => 'check that workforce.raster is a GeoTIFF (gdalinfo shows its driver and size) and that it was copied whole; compressed files are fine (DEFLATE, LZW, ZSTD)',
+});
+
+export const WorkforceRasterBands = defineError<{ path: string; bands: number }>({
+  code: 'WorkforceRasterBands',
+  title: 'The workforce raster has more than one band',
+  message: (p) => `${p.path} has ${p.bands} bands; a people raster has one band of counts per pixel`,
+  hint: () => 'write the band of people alone: gdal_translate -b N IN.tif OUT.tif (N the band number gdalinfo lists), and point workforce.raster at OUT.tif',
+});
+
+export const WorkforceRasterCrs = defineError<{ path: string; crs: string }>({
+  code: 'WorkforceRasterCrs',
+  title: 'The workforce raster is not in EPSG:4326 (longitude and latitude, WGS 84)',
+  message: (p) => `${p.path} is in ${p.crs}; heathours aggregates people rasters in EPSG:4326 only`,
+  hint: () =>
+    `reproject it first, keeping the counts: ${REPROJECT_COMMAND} (D a pixel size in degrees no finer than the source's, e.g. 0.008333 for a 1 km raster), ` +
+    'then check that gdalinfo -stats gives about the same total, and point workforce.raster at OUT.tif',
+});
+
+export const WorkforceRasterGeoreference = defineError<{ path: string; detail: string }>({
+  code: 'WorkforceRasterGeoreference',
+  title: 'The workforce raster has no usable north-up georeference',
+  message: (p) => `${p.path}: ${p.detail}`,
+  hint: () => `heathours needs an unrotated longitude/latitude raster; write a north-up copy with ${REPROJECT_COMMAND}`,
+});

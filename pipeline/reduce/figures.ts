@@ -124,3 +124,29 @@ function monthValue(id: string, yc: YearCounts, cm: number, k: number, nE: numbe
       throw new Error(`unknown figure ${id}`);
   }
 }
+
+/**
+ * Shift hours per cell and period of one merged year (the hours of the shift pattern that were
+ * computed), masked by completeness as {@link yearFigures} masks its figures: values[c · PERIODS + p] [h].
+ * The yardstick of the share of work time lost (pipeline/regions/person-hours.ts).
+ */
+export function shiftHourValues(yc: YearCounts, maxMissingHours: number): Float64Array {
+  const nCells = yc.cells.length;
+  const v = new Float64Array(nCells * PERIODS);
+  for (let c = 0; c < nCells; c++) {
+    let year = 0;
+    let valid = 0;
+    let expected = 0;
+    for (let m = 0; m < MONTHS; m++) {
+      const cm = c * MONTHS + m;
+      const h = yc.shiftHours[cm];
+      v[c * PERIODS + m] = h;
+      year += h;
+      valid += yc.validHours[cm];
+      expected += yc.expectedHours[m];
+      if (yc.expectedHours[m] - yc.validHours[cm] > maxMissingHours) v[c * PERIODS + m] = NaN;
+    }
+    v[c * PERIODS + ANNUAL] = expected - valid > maxMissingHours ? NaN : year;
+  }
+  return v;
+}

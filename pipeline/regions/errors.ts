@@ -140,3 +140,84 @@ export const RegionFieldShape = defineError<{ detail: string }>({
   message: (p) => p.detail,
   hint: () => 'pass fields as a fields × cells matrix, value[f * nCells + cell], cells row-major (south to north, west to east)',
 });
+
+// The workforce weighting (raster-to-grid.ts, workforce-shares.ts, workforce coverage).
+
+export const WorkforceCountInvalid = defineError<{ file: string; col: number; row: number; value: string }>({
+  code: 'WorkforceCountInvalid',
+  title: 'The workforce raster holds a negative or NaN count of people',
+  message: (p) => `${p.file}: pixel (column ${p.col}, row ${p.row}, counted from 0 at the top left) holds ${p.value}; a count of people must be 0 or more`,
+  hint: () =>
+    'mark pixels without data with a no-data value instead (gdal_translate -a_nodata -99999 IN.tif OUT.tif, or gdal_calc.py to set them), ' +
+    'or correct the raster; `gdallocationinfo FILE COLUMN ROW` shows the pixel',
+});
+
+export const WorkforceRasterNotCovering = defineError<{ file: string; region: string; covered: string; extent: string }>({
+  code: 'WorkforceRasterNotCovering',
+  title: 'The workforce raster does not cover a region',
+  message: (p) => `${p.file} (${p.extent}) covers ${p.covered} of region ${p.region} inside the grid; at least 99.5 % is needed`,
+  hint: () => 'use a raster that spans every region (a larger extent, or a mosaic: gdalbuildvrt then gdal_translate), or remove the region from the atlas',
+});
+
+export const WorkforceSharesColumns = defineError<{ file: string; detail: string }>({
+  code: 'WorkforceSharesColumns',
+  title: 'The workforce shares table has missing or unknown columns',
+  message: (p) => `${p.file}: ${p.detail}`,
+  hint: () => 'the header is `region_id,workload_class,share`, optionally with `acclimatized_share` and `sun_share` (content/README.md shows an example)',
+});
+
+export const WorkforceSharesEmpty = defineError<{ file: string }>({
+  code: 'WorkforceSharesEmpty',
+  title: 'The workforce shares table has no rows',
+  message: (p) => `${p.file} has a header but no shares`,
+  hint: () => 'add a row per workload class of outdoor work, e.g. `*,heavy,0.05` (the share of the people who do heavy outdoor work, in every region)',
+});
+
+export const WorkforceSharesBadValue = defineError<{ file: string; row: number; column: string; value: string; detail: string }>({
+  code: 'WorkforceSharesBadValue',
+  title: 'A value of the workforce shares table is not a share from 0 to 1',
+  message: (p) => `${p.file} line ${p.row}: ${p.column} "${p.value}" ${p.detail}`,
+  hint: () => 'write shares as fractions from 0 to 1 with a decimal point (0.12, not 12 % or 0,12); leave acclimatized_share or sun_share empty for the stated default',
+});
+
+export const WorkforceSharesDuplicate = defineError<{ file: string; row: number; first: number; region: string; workloadClass: string }>({
+  code: 'WorkforceSharesDuplicate',
+  title: 'The workforce shares table names a region and class twice',
+  message: (p) => `${p.file} line ${p.row}: region ${p.region}, class ${p.workloadClass} is already given on line ${p.first}`,
+  hint: () => 'keep one row per region and workload class',
+});
+
+export const WorkforceSharesRegionUnknown = defineError<{ file: string; row: number; region: string; known: string }>({
+  code: 'WorkforceSharesRegionUnknown',
+  title: 'The workforce shares table names a region the atlas does not have',
+  message: (p) => `${p.file} line ${p.row}: region_id "${p.region}" is not a region of this atlas (regions: ${p.known})`,
+  hint: () => 'use the region ids of the region GeoJSON files (property `id`), or `*` for the default of every region',
+});
+
+export const WorkforceSharesClassUnknown = defineError<{ file: string; row: number; workloadClass: string; known: string }>({
+  code: 'WorkforceSharesClassUnknown',
+  title: 'The workforce shares table names a workload class the atlas does not evaluate',
+  message: (p) => `${p.file} line ${p.row}: workload_class "${p.workloadClass}" is not evaluated by this atlas (classes: ${p.known})`,
+  hint: () => 'use the ids of work.classes (content/workload-classes.yaml), or add the class to work.classes in atlas.yaml',
+});
+
+export const WorkforceSharesSum = defineError<{ file: string; region: string; sum: number; rows: string }>({
+  code: 'WorkforceSharesSum',
+  title: "A region's workforce shares add up to more than 1",
+  message: (p) => `${p.file}: the shares of region ${p.region} add up to ${p.sum.toFixed(4)} (lines ${p.rows}); a person does one class of outdoor work, so they cannot exceed 1`,
+  hint: () => 'each share is the fraction of all people who do that class of outdoor work; lower them so they add up to 1 or less (the rest do no outdoor work)',
+});
+
+export const WorkforceSharesMissing = defineError<{ file: string; region: string }>({
+  code: 'WorkforceSharesMissing',
+  title: 'A region has no workforce shares and there is no default',
+  message: (p) => `${p.file} has no row for region ${p.region} and no default rows (region_id *)`,
+  hint: () => 'add rows for the region, or default rows with region_id `*` that every region without rows of its own takes',
+});
+
+export const WorkforceSharesEvaluation = defineError<{ file: string; row: number; needs: string; evaluated: string }>({
+  code: 'WorkforceSharesEvaluation',
+  title: 'The workforce shares need a figure the atlas does not compute',
+  message: (p) => `${p.file} line ${p.row}: the shares put outdoor workers in ${p.needs}, which this atlas does not evaluate (it evaluates ${p.evaluated})`,
+  hint: () => 'set acclimatized_share / sun_share to 1 or 0 to match work.acclimatization and work.exposures, or add the missing state or exposure there',
+});

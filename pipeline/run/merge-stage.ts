@@ -62,6 +62,7 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
     ),
     grid: plan.ds.grid,
     regions: band.regions,
+    workforce: band.workforce,
     dataDir: target.dataDir(band),
     scratchDir: target.scratchDir(band),
   }));

@@ -18,7 +18,8 @@ import { join } from 'node:path';
 import { computeNormals, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
 import { mergeYear, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
 import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../reduce/layout.ts';
-import { figureDefs, yearFigures, PERIODS, type FigureDef } from '../reduce/figures.ts';
+import { figureDefs, yearFigures, shiftHourValues, PERIODS, type FigureDef } from '../reduce/figures.ts';
+import { personHoursDensity, personHoursDensityDef } from '../regions/person-hours.ts';
 import {
   addWeightedHistograms,
   addWeightedMeans,
@@ -28,7 +29,7 @@ import {
   type RegionTileCells,
 } from '../regions/region-sums.ts';
 import { readPartialFile } from './partial-store.ts';
-import { RegionPartWriter, type RegionRecordRef } from '../formats/region-parts.ts';
+import { RegionPartWriter, RECORD_WORKFORCE, type RegionRecordRef } from '../formats/region-parts.ts';
 import { GridPiece, type GridPieceRef } from '../formats/grid-pieces.ts';
 import { gridFields } from '../publish/grid-fields.ts';
 import { cellTableCsv } from '../publish/cell-table.ts';
@@ -37,6 +38,24 @@ import { PointTileStore, type PointChunkEntry } from '../publish/point-tiles.ts'
 import { nicheCellsJson } from '../publish/niche-json.ts';
 import type { CellFigureNormals, CellNiche } from '../publish/figure-normals.ts';
 import { rowsId } from './rows-id.ts';
+
+/**
+ * A band's part of the workforce (config `workforce`): per band cell the people, the share profile
+ * the map uses and the cell's area; per region the band overlaps, people weights.
+ */
+export interface BandWorkforce {
+  /** People assigned to each cell of the band [people]. */
+  people: Float64Array;
+  /** Each cell's share profile (index into profileWeights), −1 none. */
+  profile: Int32Array;
+  /** Each cell's area [km²]. */
+  areaKm2: Float64Array;
+  /** Per profile, per evaluation: the weights of the shares [1] (nProfiles × nEval). */
+  profileWeights: Float64Array;
+  nEval: number;
+  /** The band's regions with `weight` = the cell's people in the region / the region's people [1]. */
+  regions: RegionTileCells[];
+}
 
 /** What a worker needs to merge one tile (structured-cloneable). */
 export interface MergeTileInput {
@@ -58,6 +77,8 @@ export interface MergeTileInput {
   grid: { lat: Float64Array; lon: Float64Array };
   /** The regions the tile overlaps, with their cells in the tile. */
   regions: RegionTileCells[];
+  /** The band's people and share profiles, when the atlas has a workforce. */
+  workforce?: BandWorkforce;
   /** The staging `data` folder and the build's scratch folder. */
   dataDir: string;
   scratchDir: string;
@@ -159,6 +180,9 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
   const airSum = new Float64Array(nY * MONTHS * nCells);
   const airHours = new Float64Array(nY * MONTHS * nCells);
   const expectedHours = new Float64Array(nY * MONTHS * nCells);
+  // Workforce: shift hours per year × cell × period, for the share of work time lost.
+  const wf = t.workforce;
+  const shiftStack = wf ? new Float64Array(nY * nCells * PERIODS) : new Float64Array(0);
   try {
     for (let y = 0; y < nY; y++) {
       const files = t.partials[y];
@@ -166,6 +190,11 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const yc: YearCounts = mergeYear(t.years[y], t.cells, partials, files.map((f) => f.id), { subset: t.subset });
       partials.length = 0;
       const figs = yearFigures(yc, rule.maxMissingHours);
+      if (wf) {
+        const lost = figs.find((f) => f.def.id === 'hours-lost-shift')!;
+        figs.push({ def: personHoursDensityDef(), values: personHoursDensity(lost.values, wf.nEval, wf.people, wf.profile, wf.profileWeights, wf.areaKm2) });
+        shiftStack.set(shiftHourValues(yc, rule.maxMissingHours), y * nCells * PERIODS);
+      }
       if (defs === undefined) {
         defs = figs.map((f) => f.def);
         stacks = figs.map((f) => new Float64Array(nY * f.values.length));
@@ -186,7 +215,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
         regionFile.histogram(rc.region, y, hist);
       }
     }
-    defs ??= figureDefs([]);
+    defs ??= [...figureDefs([]), ...(wf ? [personHoursDensityDef()] : [])];
 
     // Normals per cell, the niche.
     const normals: CellFigureNormals[] = defs.map((def, i) => {
@@ -216,6 +245,22 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const pairs = new Float64Array(8);
       addWeightedMeans(pairs, mats, 2, rc);
       regionFile.means(rc.region, pairs);
+    }
+    if (wf) {
+      // People-weighted sums of hours above the limit, hours lost and shift hours per worker.
+      const above = defs.findIndex((d) => d.id === 'hours-above-limit-shift');
+      const lost = defs.findIndex((d) => d.id === 'hours-lost-shift');
+      for (const rc of wf.regions) {
+        const sums = [above, lost].map((i) => {
+          const nF = PERIODS * defs![i].combos.length;
+          const s = emptyFigureSums(nY, nF);
+          for (let y = 0; y < nY; y++) addYearValues(s, y, stacks[i].subarray(y * nCells * nF, (y + 1) * nCells * nF), rc);
+          return s;
+        });
+        const shift = emptyFigureSums(nY, PERIODS);
+        for (let y = 0; y < nY; y++) addYearValues(shift, y, shiftStack.subarray(y * nCells * PERIODS, (y + 1) * nCells * PERIODS), rc);
+        regionFile.figures(rc.region, [...sums, shift], RECORD_WORKFORCE);
+      }
     }
     stacks = [];
 

@@ -25,6 +25,11 @@ import { BLOCK_HOURS, type ComputeTask, type ShardContext } from './compute-task
 import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, publicationBlocks, type MemoryPlan } from './memory-plan.ts';
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
 import { rowsId } from './rows-id.ts';
+import { planWorkforce, type WorkforcePlan } from './workforce-plan.ts';
+import { sha256File } from '../read/dataset-file.ts';
+import { describeGridCells } from '../regions/grid-cells.ts';
+import { EARTH_RADIUS_KM, rectangleAreaSr } from '../regions/spherical-area.ts';
+import type { BandWorkforce } from './merge-tile.ts';
 import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
 import { shortBaselineWarning } from '../publish/baseline-length.ts';
 
@@ -56,6 +61,8 @@ export interface MergeBand {
   /** The band's cells lie in a shard tile that holds more (the merge skips the others). */
   subset: boolean;
   regions: RegionTileCells[];
+  /** The band's people and share profiles, when the atlas has a workforce. */
+  workforce?: BandWorkforce;
 }
 
 export interface BuildPlan {
@@ -86,6 +93,10 @@ export interface BuildPlan {
   jobs: number;
   context: ShardContext;
   estimate: BuildEstimate;
+  /** The people raster on the land cells and the shares, when the config has `workforce`. */
+  workforce?: WorkforcePlan;
+  /** SHA-256 of the workforce raster and shares table [hex], when configured (also in `configDigest`). */
+  workforceDigests?: { raster: string; shares: string };
   close(): Promise<void>;
 }
 
@@ -103,7 +114,11 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   const memoryText = o.memory ?? cfg.memory;
   const budget = memoryText === undefined ? DEFAULT_MEMORY_BUDGET : parseMemorySize(memoryText);
   if (budget === undefined) throw MemoryBudgetInvalid({ text: memoryText! }, o.memory !== undefined ? { key: '--memory' } : { file: rc.path, key: 'memory' });
-  const configDigest = createHash('sha256').update(rc.text).update('\0').update(classesText).digest('hex');
+  // The workforce files are part of what a build was made from: their bytes go into the digest.
+  const workforceDigests = rc.workforce ? { raster: await sha256File(rc.workforce.raster), shares: await sha256File(rc.workforce.shares) } : undefined;
+  const digest = createHash('sha256').update(rc.text).update('\0').update(classesText);
+  if (workforceDigests) digest.update(`\0workforce ${workforceDigests.raster} ${workforceDigests.shares}`);
+  const configDigest = digest.digest('hex');
 
   log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
   const baselineWarning = shortBaselineWarning(cfg.baseline);
@@ -127,6 +142,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     const cells = new Int32Array(nLand);
     for (let i = 0, k = 0; i < nGrid; i++) if (land[i] === 1) cells[k++] = i;
     const weights = allRegionCellWeights(regions, ds.grid).map((w) => applyLandMask(w, land));
+    const workforce = await planWorkforce(rc, ds.grid, cells, regions, weights, work.evaluations, work.shift, log);
 
     // The shards, each with its provenance and cache key.
     const years = range(cfg.years[0], cfg.years[1]);
@@ -139,6 +155,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
 
     // What fits the memory budget.
     const defs = figureDefs(work.evaluations.map((e) => e.key));
+    if (workforce) defs.push(workforce.densityDef);
     const fields = gridFields(defs);
     const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
     const blocks = o.noMerge ? [] : o.mergeSlice ? sliceBlocks(allBlocks, o.mergeSlice.k, o.mergeSlice.n) : allBlocks;
@@ -158,6 +175,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     });
     const tasks = computeTasks(shards, memory);
     const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
+    if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
     const estimate = estimateBuild({ shards, cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length });
     log.info(
@@ -173,6 +191,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
       context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon },
       estimate,
+      workforce,
+      workforceDigests,
       close: () => ds.close(),
     };
   } catch (e) {
@@ -252,8 +272,42 @@ function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray
   return bands.filter((b) => b.cells.length > 0);
 }
 
+/**
+ * Hands each merge band its part of the workforce: its cells' people, share profiles and areas,
+ * and per region it overlaps the people weights p_cell / P (p_cell the cell's people inside the
+ * region, P their sum over the region; area weights for a region without people, whose
+ * person-hours are then 0).
+ */
+function addBandWorkforce(bands: MergeBand[], cells: Int32Array, grid: BuildPlan['ds']['grid'], weights: readonly CellWeights[], wf: WorkforcePlan, nEval: number): void {
+  const g = describeGridCells(grid);
+  const R2 = EARTH_RADIUS_KM * EARTH_RADIUS_KM;
+  for (const band of bands) {
+    const a = lowerBound(cells, band.cells[0]);
+    const b = a + band.cells.length;
+    const areaKm2 = Float64Array.from(band.cells, (c) => {
+      const row = Math.floor(c / g.nLon);
+      const col = c - row * g.nLon;
+      return R2 * rectangleAreaSr(g.lonEdges[col], g.lonEdges[col + 1], g.latEdges[row], g.latEdges[row + 1]);
+    });
+    const regions: RegionTileCells[] = band.regions.map((rc) => {
+      const w = weights[rc.region];
+      const total = wf.regionPeople[rc.region];
+      const weight = Float64Array.from(rc.cells, (cell, k) => (total > 0 ? wf.regionCellPeople[rc.region][lowerBound(w.cells, cell)] / total : rc.weight[k]));
+      return { region: rc.region, local: rc.local, cells: rc.cells, weight, histWeight: new Float64Array(0) };
+    });
+    band.workforce = {
+      people: wf.people.slice(a, b),
+      profile: wf.profile.slice(a, b),
+      areaKm2,
+      profileWeights: wf.profileWeights,
+      nEval,
+      regions,
+    };
+  }
+}
+
 /** First index of a sorted array whose value is ≥ x. */
-function lowerBound(a: Int32Array, x: number): number {
+function lowerBound(a: ArrayLike<number>, x: number): number {
   let lo = 0;
   let hi = a.length;
   while (lo < hi) {

@@ -22,9 +22,12 @@ import { histogramIndex } from '../publish/histogram-tiles.ts';
 import { nicheJsonHead, NICHE_JSON_TAIL } from '../publish/niche-json.ts';
 import { makeInventory } from '../publish/inventory.ts';
 import { compareBuilds, type BuildFacts, type RegionTables } from '../publish/changes.ts';
-import { listArtefacts, STATISTIC_RULES, type Manifest } from '../publish/manifest.ts';
 import { DATA_DICTIONARY_PATH, dataDictionaryCsv } from '../publish/data-dictionary.ts';
 import { LOSS_VIEWS } from '../reduce/layout.ts';
+import { listArtefacts, STATISTIC_RULES, type Manifest, type ManifestWorkforce } from '../publish/manifest.ts';
+import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE } from '../regions/workforce-shares.ts';
+import type { WorkforcePlan } from './workforce-plan.ts';
+import { basename } from 'node:path';
 import { fileSummaryCache } from './summary-cache.ts';
 import type { BuildPlan } from './plan-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
@@ -136,6 +139,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
     },
     layers,
     artefacts,
+    ...(plan.workforce && plan.workforceDigests ? { workforce: manifestWorkforce(plan.workforce, plan.workforceDigests) } : {}),
   };
   await writeFile(join(dataDir, 'manifest.json'), JSON.stringify(manifest, null, 1));
   return manifest;
@@ -245,4 +249,31 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
   if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };
   if (path.startsWith('data/cells/')) return { kind: 'json', description: 'per-cell figures for the map, in tiles (the numbers of the cell tables, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)', units: 'per figure in data/cells/index.json' };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
+}
+
+/** The manifest's account of the workforce raster and shares. */
+function manifestWorkforce(wf: WorkforcePlan, digests: { raster: string; shares: string }): ManifestWorkforce {
+  const r = wf.aggregate.raster;
+  const round = (x: number) => Math.round(x * 10) / 10;
+  return {
+    name: wf.config.name,
+    year: wf.config.year,
+    licence: wf.config.licence,
+    invented: wf.config.invented,
+    raster: {
+      file: basename(wf.rasterPath),
+      sha256: digests.raster,
+      width: r.width,
+      height: r.height,
+      pixelDegrees: [r.dLon, Math.abs(r.dLatRow)],
+      sampleType: r.sampleType,
+      noData: r.noData === null ? null : Number.isNaN(r.noData) ? 'nan' : r.noData,
+    },
+    shares: { file: basename(wf.sharesPath), sha256: digests.shares, defaults: { acclimatizedShare: DEFAULT_ACCLIMATIZED_SHARE, sunShare: DEFAULT_SUN_SHARE } },
+    peopleOnLand: round(wf.peopleOnLand),
+    peopleOffLand: round(wf.aggregate.offLand),
+    peopleOutsideGrid: round(wf.aggregate.outsideGrid),
+    annualHours: wf.annualHours,
+    figures: wf.regionDefs.map((d) => ({ id: d.id, label: d.label, units: d.units, combos: d.combos })),
+  };
 }

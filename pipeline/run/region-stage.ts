@@ -12,7 +12,10 @@ import { CELL_YEAR_HIST } from '../reduce/merge.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums } from '../regions/region-sums.ts';
 import { ddAddAll, ddAddPair } from '../regions/double-double.ts';
-import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, type RegionRecordRef } from '../formats/region-parts.ts';
+import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, RECORD_WORKFORCE, type RegionRecordRef } from '../formats/region-parts.ts';
+import { regionWorkforceYears } from '../regions/person-hours.ts';
+import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE } from '../regions/workforce-shares.ts';
+import type { Normals } from '../climate/index.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
 import { regionSheetInfo, writeRegionSpreadsheets } from '../publish/region-spreadsheets.ts';
 import { STATISTIC_RULES } from '../publish/manifest.ts';
@@ -35,8 +38,10 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
   // What the region workbooks' assumptions sheet says of the build.
   const sheetInfo = regionSheetInfo({
     ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
-    work: plan.work, figures: plan.defs, statistics: STATISTIC_RULES, cautions: CAUTIONS,
+    work: plan.work, figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], statistics: STATISTIC_RULES, cautions: CAUTIONS,
   });
+  const wf = plan.workforce;
+  const nE = plan.work.evaluations.length;
   // Which records of which band files belong to each region.
   const refs = plan.regions.map(() => [] as Array<{ path: string; ref: RegionRecordRef }>);
   for (const t of tiles) for (const ref of t.regionParts.records) refs[ref.region].push({ path: t.regionParts.path, ref });
@@ -51,12 +56,17 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
     const mine = refs[r];
     // Figures: the parts' sums added, the year series, the normals.
     let sums: RegionFigureSums[] | undefined;
+    let peopleSums: RegionFigureSums[] | undefined;
     const means = new Float64Array(8);
     for (const { path, ref } of mine) {
       if (ref.kind === RECORD_FIGURES) {
         const part = readFigureSums(path, ref);
         if (sums === undefined) sums = part;
         else part.forEach((p, i) => addFigureSums(sums![i], p));
+      } else if (ref.kind === RECORD_WORKFORCE) {
+        const part = readFigureSums(path, ref);
+        if (peopleSums === undefined) peopleSums = part;
+        else part.forEach((p, i) => addFigureSums(peopleSums![i], p));
       } else if (ref.kind === RECORD_MEANS) ddAddAll(means, readMeans(path, ref));
     }
     const figures: RegionFigureNormals[] = plan.defs.map((def, i) => {
@@ -65,9 +75,49 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
       const normals = computeNormals({ years: plan.years, values, nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
       return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN) };
     });
+    // Person-hours, full-time equivalents and the share of outdoor work time lost: the region's
+    // people-weighted hours per worker, times its people and shares (pipeline/regions/person-hours.ts).
+    let workforce: Record<string, unknown> | undefined;
+    let workforceRows: Array<[string, string]> = [];
+    if (wf) {
+      const nanYears = (n: number) => new Float64Array(nY * n).fill(NaN);
+      const hours = {
+        nYears: nY,
+        nEval: nE,
+        above: peopleSums ? regionYearValues(peopleSums[0]) : nanYears(PERIODS * nE),
+        lost: peopleSums ? regionYearValues(peopleSums[1]) : nanYears(PERIODS * nE),
+        shift: peopleSums ? regionYearValues(peopleSums[2]) : nanYears(PERIODS),
+      };
+      const profile = wf.shares.regions[r];
+      const people = wf.regionPeople[r];
+      const years = regionWorkforceYears(hours, people, profile, wf.annualHours);
+      const wfFigures = wf.regionDefs.map((def, i): RegionFigureNormals => {
+        const nItems = PERIODS * def.combos.length;
+        const normals = computeNormals({ years: plan.years, values: years[i], nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
+        return { def, region: normals, worstValue: new Float64Array(nItems).fill(NaN) };
+      });
+      figures.push(...wfFigures);
+      const annual = (i: number) => annualAll(wfFigures[i].region, wf.regionDefs[i].combos.length);
+      workforce = {
+        people,
+        outdoorWorkers: people * profile.total,
+        shares: profile.classes,
+        sharesFrom: profile.source === '*' ? 'default rows (*)' : 'rows of this region',
+        defaults: { acclimatizedShare: DEFAULT_ACCLIMATIZED_SHARE, sunShare: DEFAULT_SUN_SHARE },
+        annualHours: wf.annualHours,
+        raster: { name: wf.config.name, year: wf.config.year, licence: wf.config.licence, invented: wf.config.invented },
+        year: { personHoursAbove: annual(0), personHoursLost: annual(1), fullTimeEquivalentsLost: annual(2), outdoorWorkTimeLostPercent: annual(3) },
+      };
+      workforceRows = [
+        ['People (workforce raster)', `${wf.config.name}, ${wf.config.year}${wf.config.invented ? ' (INVENTED)' : ''}; licence: ${wf.config.licence}`],
+        ['People in the region', `${Math.round(people)} on its land cells (the raster's people of each cell × the share of the cell inside the region)`],
+        ['Outdoor-work shares', `${profile.classes.filter((c) => c.share > 0).map((c) => `${c.workloadClass} ${c.share} (acclimatized ${c.acclimatized}, in the sun ${c.sun})`).join('; ') || 'none'} — from the ${profile.source === '*' ? 'default rows' : "region's own rows"}`],
+        ['Full-time equivalent', `${wf.annualHours} h: a year of the shift pattern (hours per shift × days per week × 52)`],
+      ];
+    }
     const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear);
     writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
-    await writeRegionSpreadsheets(dataDir, region, table, sheetInfo);
+    await writeRegionSpreadsheets(dataDir, region, table, workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo);
     // Mean annual temperature against the niche.
     const [mat, latest] = weightedMeans(means, 2);
     writeFileSync(
@@ -87,6 +137,7 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
           labels: NICHE_LABELS,
           caveat: NICHE_CAVEAT,
         },
+        ...(workforce ? { workforce } : {}),
       }),
     );
     // The calculator's histograms, year by year.
@@ -105,4 +156,11 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
   const seconds = (Date.now() - t0) / 1000;
   log.info(`${plan.regions.length} region(s): tables, summaries and calculator tiles in ${seconds.toFixed(1)} s`);
   return { seconds };
+}
+
+/** The annual (period `year`) mean and 90th-percentile year of the `all` combination, null when withheld. */
+function annualAll(n: Normals, nCombos: number): { mean: number | null; p90: number | null; yearsUsed: number } {
+  const i = (PERIODS - 1) * nCombos + (nCombos - 1);
+  const v = (x: number) => (Number.isFinite(x) ? x : null);
+  return { mean: v(n.mean[i]), p90: v(n.p90[i]), yearsUsed: n.yearsUsed[i] };
 }

@@ -39,6 +39,26 @@ export interface WorkShift {
 /** The default shift: 07:00–17:00 local, Monday to Saturday (common practice; see file comment). */
 export const DEFAULT_SHIFT: WorkShift = { start: 7, end: 17, days: ['mon', 'tue', 'wed', 'thu', 'fri', 'sat'] };
 
+/** Weeks in a year of work, for a year's hours of a shift pattern [weeks] (common practice, no source). */
+export const WEEKS_PER_YEAR = 52;
+
+/**
+ * Hours of one shift [h]: end − start, or past midnight for a night shift (end below start).
+ * @param shift a validated shift
+ */
+export function shiftLengthHours(shift: WorkShift): number {
+  return shift.end > shift.start ? shift.end - shift.start : shift.end + 24 - shift.start;
+}
+
+/**
+ * Hours of a year of the shift pattern [h]: hours per shift × shift days per week ×
+ * {@link WEEKS_PER_YEAR} (07–17, Monday–Saturday: 10 × 6 × 52 = 3120 h). The yardstick of a
+ * full-time equivalent (pipeline/regions/person-hours.ts).
+ */
+export function annualShiftHours(shift: WorkShift): number {
+  return shiftLengthHours(shift) * shift.days.length * WEEKS_PER_YEAR;
+}
+
 /**
  * Validates a shift (as parsed from YAML) and returns it. Catalogued errors: WorkShiftInvalid
  * (hours not whole, outside 0–24, start = end, start 24, no days), WorkWeekdayUnknown.

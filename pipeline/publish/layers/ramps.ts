@@ -90,6 +90,8 @@ export const RAMP_FOR_FIGURE = {
   meanAnnualTemperature: COLOUR_KINDS.temperature,
   /** A change between two values of one figure [its units]. */
   change: COLOUR_KINDS.change,
+  /** Person-hours lost per km² [person-h km⁻²] (the workforce weighting): hours, so the hours ramp. */
+  personHoursDensity: COLOUR_KINDS.hours,
 } as const satisfies Record<string, ColourKind>;
 
 export type FigureKind = keyof typeof RAMP_FOR_FIGURE;
