@@ -30,6 +30,7 @@ export const USAGE_ERRORS: readonly string[] = [
   'PreviewDirMissing', 'PreviewPortBusy', 'SiteOutputUnwritable', 'SiteDataDirUnset',
   'EstimateNumberInvalid', 'EstimateChoiceUnknown', 'EstimateMonthsEmpty', 'EstimatePeriodInvalid', 'EstimateRegionUnknown',
   'EstimateCellInvalid', 'EstimatePointOutsideGrid',
+  'ScenarioIdInvalid', 'ScenarioIdDuplicate', 'ScenarioChangeFileMissing',
 ];
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
@@ -51,6 +52,9 @@ export const DATA_ERRORS: readonly string[] = [
   'LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerNoData',
   'SiteDataMissing', 'SiteDataUnreadable', 'SiteDataInvalid', 'SiteBuildFailed',
   'EstimateDataUnavailable', 'EstimateYearsMismatch',
+  'ChangeFileNoTemperature', 'ChangeFileNotMonthly', 'ChangeFileHumidityMismatch', 'ChangeFileNotADifference',
+  'ChangeGridInvalid', 'ChangeGridNotCovering', 'ChangeValueMissing',
+  'TemperatureChangeOutOfRange', 'HumidityChangeOutOfRange', 'SolarChangeOutOfRange',
 ];
 
 const USAGE = new Set(USAGE_ERRORS);

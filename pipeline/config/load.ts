@@ -9,6 +9,8 @@ import { parse, YAMLParseError } from 'yaml';
 import { globSync } from 'tinyglobby';
 import { atlasSchema, type AtlasConfig } from './schema.ts';
 import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax } from './errors.ts';
+import { checkScenarioIds } from '../scenario/settings.ts';
+import { ScenarioChangeFileMissing } from '../scenario/errors.ts';
 
 /** A validated configuration with every path resolved to an absolute one. */
 export interface ResolvedConfig {
@@ -25,6 +27,8 @@ export interface ResolvedConfig {
   outputDir: string;
   /** Absolute path of the partial cache folder (`cache`, default `.heathours-cache` beside the output). */
   cacheDir: string;
+  /** Absolute path of each scenario's change file, by scenario id (scenarios with `changeFile`). */
+  changeFiles: Record<string, string>;
 }
 
 /** Parses and validates a config text; `file` is used in error messages only. */
@@ -46,6 +50,7 @@ export function parseConfig(text: string, file: string): AtlasConfig {
     const firstKey = result.error.issues[0]?.path.join('.');
     throw ConfigInvalid({ problems }, { file, key: firstKey || undefined });
   }
+  checkScenarioIds(result.data.scenarios, file);
   return result.data;
 }
 
@@ -67,6 +72,13 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
     : [];
   if (regionFiles.length === 0) throw ConfigRegionsMissing({ path: regionsDir }, { file: abs, key: 'regions' });
+  const changeFiles: Record<string, string> = {};
+  config.scenarios.forEach((s, i) => {
+    if (s.changeFile === undefined) return;
+    const p = resolve(baseDir, s.changeFile);
+    if (!existsSync(p) || !statSync(p).isFile()) throw ScenarioChangeFileMissing({ path: p, id: s.id }, { file: abs, key: `scenarios[${i}].changeFile` });
+    changeFiles[s.id] = p;
+  });
   return {
     config,
     path: abs,
@@ -75,5 +87,6 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     regionFiles: regionFiles.sort(),
     outputDir: resolve(baseDir, config.output),
     cacheDir: config.cache !== undefined ? resolve(baseDir, config.cache) : join(dirname(resolve(baseDir, config.output)), '.heathours-cache'),
+    changeFiles,
   };
 }

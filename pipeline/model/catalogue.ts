@@ -14,3 +14,4 @@ import '../reduce/errors.ts';
 import '../physics/errors.ts';
 import '../demo/errors.ts';
 import '../run/errors.ts';
+import '../scenario/errors.ts';

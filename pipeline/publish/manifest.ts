@@ -39,6 +39,33 @@ export interface Manifest {
   counts: Record<string, number>;
   layers: LayerEntry[];
   artefacts: ArtefactEntry[];
+  /** What every scenario is and is not (a what-if, not a forecast), to show with any of them. */
+  scenarioCaveat?: string;
+  /** The scenarios published under `data/scenarios/<id>/` (same files as the record's), in configuration order. */
+  scenarios?: ManifestScenario[];
+}
+
+/** One scenario as the manifest describes it. */
+export interface ManifestScenario {
+  id: string;
+  name: string;
+  description?: string;
+  /** Its parameters: a uniform warming [K], or the change file (name, SHA-256, humidity kind, variables read). */
+  definition: { kind: 'warming'; warming: number } | { kind: 'change-file'; changeFile: string; sha256: string; humidity: 'relative' | 'specific'; variables: string[] };
+  /** In words: the kind, what it changes, its source, and the caveat (pipeline/scenario/describe.ts). */
+  words: { kind: string; what: string; source: string; caveat: string };
+  /** Range of each change over the land cells and months: temperature [K], humidity [percentage points, or fraction], solar [fraction]. */
+  changes: {
+    temperature: { min: number; max: number; mean: number };
+    humidity: { min: number; max: number; mean: number } | null;
+    solar: { min: number; max: number; mean: number } | null;
+  };
+  /** Its folder below the site root, `data/scenarios/<id>/`. */
+  dataPath: string;
+  /** Shards, land cell-hours and physics counts of its record, and the relative-humidity clamps its changes made [cell-hours]. */
+  counts: Record<string, number>;
+  /** Its map layers (paths in its folder; ids as the record's). */
+  layers: LayerEntry[];
 }
 
 export const STATISTIC_RULES: Record<string, string> = {
