@@ -48,7 +48,7 @@ function parseJobs(text: string): number {
 export function register(program: Command): void {
   program
     .command('demo-data')
-    .description('write the invented demo dataset: synthetic ERA5-style NetCDF for an invented territory (no real place or data)')
+    .description('write the invented demo dataset: synthetic ERA5-style NetCDF for an invented territory (no real place or data), and invented change factors for its +1.5 and +2 °C scenarios (scenarios/)')
     .requiredOption('--out <dir>', 'output folder (created if missing)')
     .option('--years <years>', 'years to write: a range 2020-2024, one year 2025, or a list 2020,2022', '2020-2024')
     .option('--layout <layout>', 'legacy (NetCDF-3, packed int16) | netcdf4 (NetCDF-4, float32) | mixed (legacy to 2022, NetCDF-4 after)', 'mixed')
@@ -64,9 +64,10 @@ export function register(program: Command): void {
       const seed = parseSeed(opts.seed);
       const jobs = opts.jobs === undefined ? undefined : parseJobs(opts.jobs);
       const { writeDemoDataset } = await import('../demo/index.ts');
-      const { files, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet, jobs });
+      const { files, changeFactors, unchanged } = await writeDemoDataset({ outDir: opts.out, years, layout, grid, seed, quiet: opts.quiet, jobs });
       for (const f of files) process.stdout.write(`wrote ${f} (${(statSync(f).size / 1e6).toFixed(1)} MB)\n`);
+      for (const f of changeFactors) process.stdout.write(`wrote ${f} (invented change factors for a scenario, ${(statSync(f).size / 1e3).toFixed(0)} kB)\n`);
       for (const f of unchanged) process.stdout.write(`unchanged ${f}\n`);
-      process.stdout.write(`invented demo data: ${files.length} file(s) written in ${((Date.now() - t0) / 1000).toFixed(1)} s (seed ${seed}, layout ${layout})\n`);
+      process.stdout.write(`invented demo data: ${files.length + changeFactors.length} file(s) written in ${((Date.now() - t0) / 1000).toFixed(1)} s (seed ${seed}, layout ${layout})\n`);
     });
 }

@@ -32,6 +32,8 @@ export const USAGE_ERRORS: readonly string[] = [
   'EstimateCellInvalid', 'EstimatePointOutsideGrid', 'EstimateAtlasNotFound',
   'ScheduleDateInvalid', 'ScheduleNumberInvalid', 'ScheduleShiftInvalid', 'ScheduleDaysInvalid', 'ScheduleHolidayInvalid',
   'ScheduleTooManyPatterns', 'ScheduleNotFinished', 'ScheduleDeadlineUnreachable',
+  'EstimateCellInvalid', 'EstimatePointOutsideGrid',
+  'ScenarioIdInvalid', 'ScenarioIdDuplicate', 'ScenarioChangeFileMissing',
 ];
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
@@ -57,6 +59,10 @@ export const DATA_ERRORS: readonly string[] = [
   'WorkforceRasterUnreadable', 'WorkforceRasterBands', 'WorkforceRasterCrs', 'WorkforceRasterGeoreference', 'WorkforceCountInvalid',
   'WorkforceRasterNotCovering', 'WorkforceSharesColumns', 'WorkforceSharesEmpty', 'WorkforceSharesBadValue', 'WorkforceSharesDuplicate',
   'WorkforceSharesRegionUnknown', 'WorkforceSharesClassUnknown', 'WorkforceSharesSum', 'WorkforceSharesMissing', 'WorkforceSharesEvaluation',
+  'EstimateDataUnavailable', 'EstimateYearsMismatch',
+  'ChangeFileNoTemperature', 'ChangeFileNotMonthly', 'ChangeFileHumidityMismatch', 'ChangeFileNotADifference',
+  'ChangeGridInvalid', 'ChangeGridNotCovering', 'ChangeValueMissing',
+  'TemperatureChangeOutOfRange', 'HumidityChangeOutOfRange', 'SolarChangeOutOfRange',
 ];
 
 const USAGE = new Set(USAGE_ERRORS);

@@ -9,6 +9,8 @@ import { parseDocument } from 'yaml';
 import { globSync } from 'tinyglobby';
 import { atlasSchema, type AtlasConfig } from './schema.ts';
 import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax, ConfigWorkforceFileMissing } from './errors.ts';
+import { checkScenarioIds } from '../scenario/settings.ts';
+import { ScenarioChangeFileMissing } from '../scenario/errors.ts';
 
 /** A validated configuration with every path resolved to an absolute one. */
 export interface ResolvedConfig {
@@ -27,6 +29,8 @@ export interface ResolvedConfig {
   cacheDir: string;
   /** Absolute paths of the workforce raster and shares table, when `workforce` is configured. */
   workforce?: { raster: string; shares: string };
+  /** Absolute path of each scenario's change file, by scenario id (scenarios with `changeFile`). */
+  changeFiles: Record<string, string>;
 }
 
 /**
@@ -63,6 +67,7 @@ export function parseConfig(text: string, file: string): AtlasConfig {
     const firstKey = result.error.issues[0]?.path.join('.');
     throw ConfigInvalid({ problems }, { file, key: firstKey || undefined });
   }
+  checkScenarioIds(result.data.scenarios, file);
   return result.data;
 }
 
@@ -93,6 +98,13 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     }
     workforce = { raster, shares };
   }
+  const changeFiles: Record<string, string> = {};
+  config.scenarios.forEach((s, i) => {
+    if (s.changeFile === undefined) return;
+    const p = resolve(baseDir, s.changeFile);
+    if (!existsSync(p) || !statSync(p).isFile()) throw ScenarioChangeFileMissing({ path: p, id: s.id }, { file: abs, key: `scenarios[${i}].changeFile` });
+    changeFiles[s.id] = p;
+  });
   return {
     config,
     path: abs,
@@ -102,5 +114,6 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     outputDir: resolve(baseDir, config.output),
     cacheDir: config.cache !== undefined ? resolve(baseDir, config.cache) : join(dirname(resolve(baseDir, config.output)), '.heathours-cache'),
     workforce,
+    changeFiles,
   };
 }

@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { workSettingsSchema } from '../work/work-settings.ts';
 import { physicsSettingsSchema } from '../physics/settings.ts';
+import { scenariosSchema } from '../scenario/settings.ts';
 
 /** Allowed `shards.monthsPerPiece`: the divisors of 12, so groups never straddle a year. */
 export const MONTHS_PER_PIECE = [1, 2, 3, 4, 6, 12] as const;
@@ -104,6 +105,12 @@ export const atlasSchema = z
     work: workSettingsSchema,
     /** Optional: weight hours lost by the people who do outdoor work (person-hours, full-time equivalents). */
     workforce: workforceSchema.optional(),
+    /**
+     * What-if climates built from the record by the delta change method, each published under
+     * `data/scenarios/<id>/` (pipeline/scenario/settings.ts): a uniform warming, or monthly change
+     * factors from a NetCDF file. Scenarios are what-ifs, never forecasts.
+     */
+    scenarios: scenariosSchema,
     /**
      * Folder of the partial cache (pipeline/run/partial-store.ts), relative to the config file;
      * default `.heathours-cache` beside the output folder.

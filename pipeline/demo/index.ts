@@ -3,8 +3,10 @@
  * (pipeline/demo/territory.ts), in the legacy NetCDF-3 layout, the NetCDF-4 layout, or mixed
  * (legacy up to {@link MIXED_LAST_LEGACY_YEAR}, NetCDF-4 after).
  *
- * Files in `outDir`: `era5-demo-<year>.nc` (one per year, every time-varying variable) and
- * `era5-demo-lsm.nc` (the invariant land-sea mask, one time step). A year's file depends only on
+ * Files in `outDir`: `era5-demo-<year>.nc` (one per year, every time-varying variable),
+ * `era5-demo-lsm.nc` (the invariant land-sea mask, one time step) and, for the demo's scenarios,
+ * `scenarios/warming-level-1.5.nc` and `scenarios/warming-level-2.0.nc` (invented monthly change
+ * factors, change-factors.ts). A year's file depends only on
  * (seed, year, grid, layout) and, in NetCDF-4, on whether it is the last year asked for (its
  * last three months are then marked preliminary). Asking for a new year writes only that year;
  * the mask file is rewritten only when its bytes would change.
@@ -22,6 +24,7 @@ import { h5wasmReady } from './netcdf4-writer.ts';
 import { PRELIMINARY_MONTHS, writeNetcdf4LandSeaMask } from './netcdf4-layout.ts';
 import { runYearJob, type YearJob } from './year-job.ts';
 import { COUNTRY_GRID, DEFAULT_GRID, SMALL_GRID, placeGrid, type GridSpec } from './territory.ts';
+import { changeFactorFile, DEMO_WARMING_LEVELS, writeDemoChangeFactors } from './change-factors.ts';
 import { yearHours } from './weather.ts';
 import { demoPopulation, POPULATION_FILE } from './population.ts';
 import { writeGeoTiff } from '../publish/layers/geotiff-write.ts';
@@ -77,7 +80,8 @@ function checkWritable(dir: string): void {
 
 /**
  * Writes the invented demo dataset. Each file is written atomically (temporary name, then rename).
- * @returns `files`: the files written; `unchanged`: files that already held the same bytes.
+ * @returns `files`: the weather files written (the dataset's inputs); `changeFactors`: the
+ * scenarios' change files written; `unchanged`: files that already held the same bytes.
  */
 export async function writeDemoDataset(opts: {
   outDir: string;
@@ -88,7 +92,7 @@ export async function writeDemoDataset(opts: {
   quiet?: boolean;
   /** Years written at once, each in a worker thread [–]; default: the number of cores. 1 = in this thread. */
   jobs?: number;
-}): Promise<{ files: string[]; unchanged: string[] }> {
+}): Promise<{ files: string[]; changeFactors: string[]; unchanged: string[] }> {
   const layout = opts.layout;
   if (!DEMO_LAYOUTS.includes(layout)) throw DemoLayoutUnknown({ layout: String(layout) }, { key: 'layout' });
   const seed = opts.seed ?? DEFAULT_SEED;
@@ -110,6 +114,7 @@ export async function writeDemoDataset(opts: {
   // packing ranges of its int16 variables, once to write them).
   const progress = startProgress('demo-data', total, { quiet: opts.quiet, unit: 'hours generated' });
   const files: string[] = [];
+  const changeFactors: string[] = [];
   const unchanged: string[] = [];
   try {
     // The invariant mask: written beside the years, replaced only if its bytes would change.
@@ -155,10 +160,26 @@ export async function writeDemoDataset(opts: {
     if (parallel === 1) for (const job of jobs) await runYearJob(job, tick);
     else await runInParallel(jobs, parallel, tick);
     files.push(...jobs.map((j) => j.path));
+    // The scenarios' invented change factors: rewritten only when their bytes would change.
+    mkdirSync(join(opts.outDir, 'scenarios'), { recursive: true });
+    for (const level of DEMO_WARMING_LEVELS) {
+      const path = join(opts.outDir, changeFactorFile(level));
+      const fresh = join(opts.outDir, 'scenarios', `.${process.pid}.${level}.new.nc`);
+      try {
+        writeDemoChangeFactors(fresh, cc.grid, level);
+        if (existsSync(path) && readFileSync(path).equals(readFileSync(fresh))) unchanged.push(path);
+        else {
+          renameSync(fresh, path);
+          changeFactors.push(path);
+        }
+      } finally {
+        rmSync(fresh, { force: true });
+      }
+    }
   } finally {
     progress.done();
   }
-  return { files, unchanged };
+  return { files, changeFactors, unchanged };
 }
 
 /**

@@ -35,8 +35,11 @@ export interface PartialMeta {
   /** Cache key: SHA-256 of the provenance below [hex]. */
   key: string;
   provenance: Record<string, unknown>;
-  /** Physics counts and cell-hours of the computation, for the build report. */
-  report: { cellHours: number; physics: Record<string, number> };
+  /**
+   * Physics counts and cell-hours of the computation, for the build report; for a scenario's shard
+   * also the clamps its changes made (pipeline/physics/delta-change.ts).
+   */
+  report: { cellHours: number; physics: Record<string, number>; change?: Record<string, number> };
 }
 
 type ArrayField = Exclude<keyof ShardPartial, 'year' | 'evalKeys' | 'months'>;

@@ -15,3 +15,4 @@ import '../physics/errors.ts';
 import '../demo/errors.ts';
 import '../run/errors.ts';
 import '../formats/errors.ts';
+import '../scenario/errors.ts';

@@ -17,6 +17,7 @@ export const PHYSICS_SOURCES = {
   bernard1999: 'Bernard & Pourmoghani 1999; Lemke & Kjellstrom 2012 (docs/methods.md §7.2)',
   stull2011: 'Stull 2011, J. Appl. Meteor. Climatol. 50:2267–2269 (docs/methods.md §7.1)',
   lemke2012: 'Lemke & Kjellstrom 2012, Industrial Health 50:267–278 (indoor WBGT, globe at air temperature)',
+  deltaChange: 'the delta change method for what-if climates (pipeline/physics/delta-change.ts); the bound is ours',
 } as const;
 
 export type PhysicsSourceKey = keyof typeof PHYSICS_SOURCES;
@@ -108,6 +109,16 @@ export const BUCK_1981 = { a: 6.1121, b: 17.502, c: 240.97 } as const;
 export const MOIST_AIR_FACTOR = 1.004;
 /** Kelvin offset [K]. */
 export const KELVIN = 273.15;
+/**
+ * Ratio of the molar masses of water and dry air, M_w/M_a [–] (≈ 0.622): specific humidity
+ * q = ε·e/(p − (1 − ε)·e) (common practice, no source), from the model's molar masses.
+ */
+export const EPSILON_WATER_AIR = M_H2O / M_AIR;
+/**
+ * Lowest relative humidity a scenario's humidity change may leave [–] (1 %): a change that would
+ * take it lower is clamped here and counted (ours; the dew point of 0 % is −∞).
+ */
+export const SCENARIO_RH_FLOOR = 0.01;
 /** Lennard-Jones collision diameter of air [Å] and well depth ε/κ [K] (viscosity). */
 export const SIGMA_LJ_AIR = 3.617;
 export const EPS_K_AIR = 97;
@@ -153,6 +164,8 @@ export const PHYSICS_CONSTANTS: readonly PhysicsConstant[] = [
   { name: 'minimum wind speed', symbol: 'u_min', value: MIN_SPEED, unit: 'm s⁻¹', source: 'liljegren2008' },
   { name: 'wick mass-transfer exponent', symbol: 'a', value: WICK_EXPONENT, unit: '–', source: 'liljegren2008' },
   { name: 'moist-air factor on Buck 1981', symbol: 'f_w', value: MOIST_AIR_FACTOR, unit: '–', source: 'buck1981' },
+  { name: 'ratio of the molar masses of water and dry air', symbol: 'ε', value: EPSILON_WATER_AIR, unit: '–', source: 'liljegren2008' },
+  { name: 'lowest relative humidity a scenario leaves', symbol: 'RH_min', value: SCENARIO_RH_FLOOR, unit: '–', source: 'deltaChange' },
   { name: 'Lennard-Jones diameter of air', symbol: 'σ_LJ', value: SIGMA_LJ_AIR, unit: 'Å', source: 'liljegren2008' },
   { name: 'Lennard-Jones well depth of air', symbol: 'ε/κ', value: EPS_K_AIR, unit: 'K', source: 'liljegren2008' },
   ...WIND_EXPONENT_URBAN.map((v, i) => ({ name: `wind power-law exponent, urban, class ${'ABCDEF'[i]}`, symbol: `p_u,${i + 1}`, value: v, unit: '–', source: 'epa2000' as const })),

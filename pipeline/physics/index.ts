@@ -10,6 +10,7 @@ export * from './air-properties.ts';
 export { CellState, prepareCell, solveCell, psychrometricWetBulb, setGlobe, globeFactors, GLOBE_DIAMETER_RANGE, ROOT_TOLERANCE_K, MAX_ITERATIONS, type GlobeFactors } from './liljegren-solve.ts';
 export * from './kernel.ts';
 export * from './block.ts';
+export * from './delta-change.ts';
 export * from './point-row.ts';
 export * from './approximations.ts';
 export * from './errors.ts';

@@ -44,6 +44,8 @@ export interface CellNetcdfMeta {
   source: string;
   history: string;
   baseline: [number, number];
+  /** For a scenario's file: what it is and that it is a what-if, not a forecast (a global attribute). */
+  scenario?: string;
 }
 
 /**
@@ -137,6 +139,7 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
         `Per-cell figures of the atlas: statistics over the baseline years ${meta.baseline[0]}-${meta.baseline[1]} of each year's value. Screening values; local regulations and a competent person decide work/rest.` +
           (meta.invented ? ' INVENTED DATA: made by heathours demo-data for an invented territory; describes no real place.' : ''),
       )),
+      ...(meta.scenario !== undefined ? [attr('scenario', text(meta.scenario))] : []),
     ],
     vars,
   });

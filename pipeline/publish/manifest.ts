@@ -41,6 +41,10 @@ export interface Manifest {
   artefacts: ArtefactEntry[];
   /** The workforce weighting, when the atlas has one (config `workforce`). */
   workforce?: ManifestWorkforce;
+  /** What every scenario is and is not (a what-if, not a forecast), to show with any of them. */
+  scenarioCaveat?: string;
+  /** The scenarios published under `data/scenarios/<id>/` (same files as the record's), in configuration order. */
+  scenarios?: ManifestScenario[];
 }
 
 /** What a build's person-hours were made from, and what became of the raster's people. */
@@ -60,6 +64,29 @@ export interface ManifestWorkforce {
   annualHours: number;
   /** The region figures (tables) made from it; the per-cell figure is in `figures`. */
   figures: Array<{ id: string; label: string; units: string; combos: string[] }>;
+}
+
+/** One scenario as the manifest describes it. */
+export interface ManifestScenario {
+  id: string;
+  name: string;
+  description?: string;
+  /** Its parameters: a uniform warming [K], or the change file (name, SHA-256, humidity kind, variables read). */
+  definition: { kind: 'warming'; warming: number } | { kind: 'change-file'; changeFile: string; sha256: string; humidity: 'relative' | 'specific'; variables: string[] };
+  /** In words: the kind, what it changes, its source, and the caveat (pipeline/scenario/describe.ts). */
+  words: { kind: string; what: string; source: string; caveat: string };
+  /** Range of each change over the land cells and months: temperature [K], humidity [percentage points, or fraction], solar [fraction]. */
+  changes: {
+    temperature: { min: number; max: number; mean: number };
+    humidity: { min: number; max: number; mean: number } | null;
+    solar: { min: number; max: number; mean: number } | null;
+  };
+  /** Its folder below the site root, `data/scenarios/<id>/`. */
+  dataPath: string;
+  /** Shards, land cell-hours and physics counts of its record, and the relative-humidity clamps its changes made [cell-hours]. */
+  counts: Record<string, number>;
+  /** Its map layers (paths in its folder; ids as the record's). */
+  layers: LayerEntry[];
 }
 
 export const STATISTIC_RULES: Record<string, string> = {

@@ -37,6 +37,8 @@ export interface RegionSheetInfo {
   cautions: readonly Caution[];
   /** The region's workforce in words (the people raster, its name, year and licence, the shares), when the atlas has one. */
   workforce?: Array<[string, string]>;
+  /** For a scenario's tables: what it is, its source, and that it is a what-if, not a forecast. */
+  scenario?: { name: string; what: string; source: string; caveat: string };
 }
 
 /** Sheets of the workforce tables, by unit: person-hours, per km², full-time equivalents, share of time (names ≤ 31 characters). */
@@ -63,6 +65,14 @@ export function assumptionRows(region: { id: string; name: string }, info: Regio
   const rows: CellValue[][] = [
     ['Region', `${region.name} (${region.id})`],
     ['Atlas', info.atlasTitle],
+    ...(info.scenario
+      ? ([
+          ['Scenario', `${info.scenario.name}: a what-if, not a forecast`],
+          ['Scenario: what', info.scenario.what],
+          ['Scenario: source', info.scenario.source],
+          ['Scenario: how to read it', info.scenario.caveat],
+        ] as CellValue[][])
+      : []),
     ...(info.invented ? [['Data', 'INVENTED DATA: built from invented, synthetic data; no real place or climate is described.'] as CellValue[]] : []),
     ['Data credit', info.attribution],
     ['Built', `${info.buildTime}, code ${info.codeVersion}, configuration ${info.configDigest}, ${info.inputFiles} input files`],
@@ -135,6 +145,8 @@ export interface RegionSheetFacts {
   figures: ReadonlyArray<{ id: string; label: string }>;
   statistics: Readonly<Record<string, string>>;
   cautions: readonly Caution[];
+  /** For a scenario's tables: what it is, its source, and that it is a what-if, not a forecast. */
+  scenario?: { name: string; what: string; source: string; caveat: string };
 }
 
 /** The assumptions of a build in words. */

@@ -223,3 +223,35 @@ export const WorkforceRasterGeoreference = defineError<{ path: string; detail: s
   message: (p) => `${p.path}: ${p.detail}`,
   hint: () => `heathours needs an unrotated longitude/latitude raster; write a north-up copy with ${REPROJECT_COMMAND}`,
 });
+
+export const ChangeFileNoTemperature = defineError<{ path: string; variables: string[] }>({
+  code: 'ChangeFileNoTemperature',
+  title: 'A change file has no temperature change',
+  message: (p) => `${p.path} holds no variable named tas or with standard_name air_temperature (it holds: ${p.variables.join(', ') || 'no variable'})`,
+  hint: () =>
+    'a scenario change file needs the monthly change of near-surface air temperature as `tas` (or standard_name air_temperature), a difference in K or degC on (time or month, lat, lon); rename it with ncrename -v OLD,tas',
+});
+
+export const ChangeFileNotMonthly = defineError<{ path: string; variable: string; detail: string }>({
+  code: 'ChangeFileNotMonthly',
+  title: 'A change file does not hold one change per calendar month',
+  message: (p) => `${p.path}, ${p.variable}: ${p.detail}`,
+  hint: () =>
+    'give 12 monthly changes, January to December in any order, along a time axis whose CF time coordinate falls in each month once (as cdo ymonmean writes) or a `month` coordinate holding 1…12',
+});
+
+export const ChangeFileHumidityMismatch = defineError<{ path: string; want: string; found: string }>({
+  code: 'ChangeFileHumidityMismatch',
+  title: 'The humidity change of a change file is not of the kind the scenario names',
+  message: (p) => `the scenario says humidity: ${p.want}, but ${p.path} holds ${p.found}`,
+  hint: () =>
+    'set `humidity: relative` for a change of relative humidity in percentage points (hurs) or `humidity: specific` for a relative change of specific humidity (huss), whichever the file holds',
+});
+
+export const ChangeFileNotADifference = defineError<{ path: string; variable: string; detail: string }>({
+  code: 'ChangeFileNotADifference',
+  title: 'A change file holds temperatures, not temperature changes',
+  message: (p) => `${p.path}, ${p.variable}: ${p.detail}`,
+  hint: () =>
+    'a change file holds differences (the future minus the baseline, e.g. +1.8 K); subtract the baseline climatology first (cdo sub future.nc baseline.nc) and mark it with units_metadata = "temperature: difference"',
+});

@@ -12,8 +12,13 @@
 import { NetcdfUnitImplausible, NetcdfUnitUnknown } from './errors.ts';
 import type { LinearUnit } from './decode.ts';
 
-/** The physical kinds of quantity the reader converts. */
-export type UnitKind = 'temperature' | 'pressure' | 'speed' | 'accumulatedEnergy' | 'fraction';
+/**
+ * The physical kinds of quantity the reader converts. The last three are the changes of a
+ * scenario's change file (pipeline/read/change-file.ts): a temperature difference (K and degC
+ * are the same step, never shifted by 273.15), a change of relative humidity in percentage
+ * points, and a relative change (a fraction of the baseline value).
+ */
+export type UnitKind = 'temperature' | 'pressure' | 'speed' | 'accumulatedEnergy' | 'fraction' | 'temperatureDifference' | 'humidityPoints' | 'relativeChange';
 
 /** A recognised unit: its conversion into the canonical unit and whether it is an accumulation. */
 export interface UnitConversion extends LinearUnit {
@@ -58,6 +63,22 @@ const TABLE: Record<UnitKind, Array<[string[], UnitConversion]>> = {
     [['', '1', '(0-1)', '0-1', 'fraction', 'dimensionless', 'none', '-'], { k: 1, c: 0, accumulated: false }],
     [['%', 'percent'], { k: 0.01, c: 0, accumulated: false }],
   ],
+  // A difference of temperatures: one kelvin is one degree Celsius (BIPM SI Brochure, 9th ed.,
+  // §2.3.1: a temperature interval has the same value in both), one degree Fahrenheit 5/9 of it.
+  temperatureDifference: [
+    [['k', 'kelvin', 'kelvins', 'degk', 'c', 'degc', 'celsius', 'degcelsius'], { k: 1, c: 0, accumulated: false }],
+    [['f', 'degf', 'fahrenheit', 'degfahrenheit'], { k: 5 / 9, c: 0, accumulated: false }],
+  ],
+  // A change of relative humidity: percentage points, or a fraction of saturation (0.05 = 5 points).
+  humidityPoints: [
+    [['%', 'percent', 'pp', 'percentagepoints', 'percentagepoint'], { k: 1, c: 0, accumulated: false }],
+    [['1', 'fraction', 'dimensionless', '0-1', '(0-1)'], { k: 100, c: 0, accumulated: false }],
+  ],
+  // A relative change, future/baseline − 1: a fraction or a percentage.
+  relativeChange: [
+    [['1', 'fraction', 'dimensionless'], { k: 1, c: 0, accumulated: false }],
+    [['%', 'percent'], { k: 0.01, c: 0, accumulated: false }],
+  ],
 };
 
 /** Accepted spellings of a kind, for messages. */
@@ -68,6 +89,9 @@ function accepted(kind: UnitKind): string {
     speed: 'm s-1, km/h, knots',
     accumulatedEnergy: 'J m-2 (hourly accumulation) or W m-2 (mean flux)',
     fraction: '1, (0 - 1), %',
+    temperatureDifference: 'K or degC (a difference: the same number in both), degF',
+    humidityPoints: '% (percentage points of relative humidity) or 1 (a fraction: 0.05 = 5 points)',
+    relativeChange: '1 (a fraction: 0.02 = 2 %) or %',
   };
   return first[kind];
 }

@@ -6,13 +6,14 @@
  * belongs to). `heathours build --assemble DIR` then checks that every publication block of the
  * plan is in exactly one band of this build and joins them (regions, layers, NetCDF, manifest,
  * site). Paths in band.json are relative to DIR, so the assemble step may mount DIR elsewhere.
+ * A scenario's bands go to `DIR/scenario-bands/<scenario id>/<rows-id>/`, the same way.
  */
 import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { CODE_VERSION } from '../model/version.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
-import type { BuildPlan } from './plan-stage.ts';
+import type { BuildPlan, BuildVariant } from './plan-stage.ts';
 import { rowsId } from './rows-id.ts';
 import { BandsDuplicated, BandsForeign, BandsIncomplete } from './errors.ts';
 
@@ -27,9 +28,14 @@ export function bandsKey(plan: BuildPlan): string {
   return h.digest('hex');
 }
 
-/** The folder of a band under the merge folder. */
-export function bandDir(dir: string, rows: readonly [number, number]): string {
-  return join(resolve(dir), 'bands', rowsId(rows));
+/** The folder of the bands of a weather under the merge folder: `bands`, or `scenario-bands/<id>` for a scenario. */
+export function bandsRootOf(dir: string, variant?: BuildVariant): string {
+  return variant?.scenario === undefined ? join(resolve(dir), 'bands') : join(resolve(dir), 'scenario-bands', variant.scenario.id);
+}
+
+/** The folder of a band (of a weather; default the record) under the merge folder. */
+export function bandDir(dir: string, rows: readonly [number, number], variant?: BuildVariant): string {
+  return join(bandsRootOf(dir, variant), rowsId(rows));
 }
 
 interface BandFile {
@@ -44,7 +50,7 @@ const toJson = (a: Float64Array) => Array.from(a, (v) => (Number.isFinite(v) ? v
 const fromJson = (a: Array<number | null>) => Float64Array.from(a, (v) => (v === null ? NaN : v));
 
 /** Writes a merged band's band.json (paths made relative to `dir`), atomically. */
-export function writeBand(dir: string, key: string, blocks: Array<[number, number]>, s: MergeTileSummary): void {
+export function writeBand(dir: string, key: string, blocks: Array<[number, number]>, s: MergeTileSummary, variant?: BuildVariant): void {
   const root = resolve(dir);
   const rel = (p: string) => relative(root, p);
   const file: BandFile = {
@@ -60,7 +66,7 @@ export function writeBand(dir: string, key: string, blocks: Array<[number, numbe
       nicheFragment: rel(s.nicheFragment),
     },
   };
-  const path = join(bandDir(dir, s.rows), 'band.json');
+  const path = join(bandDir(dir, s.rows, variant), 'band.json');
   const tmp = `${path}.${process.pid}.tmp`;
   writeFileSync(tmp, JSON.stringify(file));
   renameSync(tmp, path);
@@ -77,8 +83,8 @@ function readBandFile(path: string): BandFile | undefined {
 }
 
 /** Whether a band of these rows is already merged for this build (a retried task skips it). */
-export function bandDone(dir: string, key: string, rows: readonly [number, number]): boolean {
-  const f = readBandFile(join(bandDir(dir, rows), 'band.json'));
+export function bandDone(dir: string, key: string, rows: readonly [number, number], variant?: BuildVariant): boolean {
+  const f = readBandFile(join(bandDir(dir, rows, variant), 'band.json'));
   return f !== undefined && f.key === key;
 }
 
@@ -94,9 +100,9 @@ export interface FoundBand {
  * band (BandsIncomplete names the missing blocks, BandsDuplicated two bands that hold one block),
  * every band of this build (BandsForeign: another configuration, code or inputs). Sorted by rows.
  */
-export function readBands(dir: string, plan: BuildPlan): FoundBand[] {
+export function readBands(dir: string, plan: BuildPlan, variant?: BuildVariant): FoundBand[] {
   const root = resolve(dir);
-  const bandsRoot = join(root, 'bands');
+  const bandsRoot = bandsRootOf(dir, variant);
   const key = bandsKey(plan);
   const names = existsSync(bandsRoot) ? readdirSync(bandsRoot).sort() : [];
   const found: FoundBand[] = [];

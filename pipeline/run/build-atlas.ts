@@ -27,7 +27,7 @@ import { planBuild, type BuildPlan } from './plan-stage.ts';
 import { computeStage, type ComputeMode } from './compute-stage.ts';
 import { mergeStage, stagingTarget } from './merge-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
-import { bandDir, bandDone, bandsKey, linkBandData, readBands, writeBand } from './band-store.ts';
+import { bandDir, bandDone, bandsKey, bandsRootOf, linkBandData, readBands, writeBand } from './band-store.ts';
 import { regionStage } from './region-stage.ts';
 import { publishStage } from './publish-stage.ts';
 import { BuildLocked, DiskFull } from './errors.ts';
@@ -137,10 +137,10 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       const dir = o.mergeDir;
       const key = bandsKey(plan);
       const merged = await mergeStage(plan, compute.partials, {
-        dataDir: (b) => join(bandDir(dir, b.rows), 'data'),
-        scratchDir: (b) => join(bandDir(dir, b.rows), 'scratch'),
-        done: (b) => bandDone(dir, key, b.rows),
-        finished: (b, s) => writeBand(dir, key, b.blocks, s),
+        dataDir: (b, v) => join(bandDir(dir, b.rows, v), 'data'),
+        scratchDir: (b, v) => join(bandDir(dir, b.rows, v), 'scratch'),
+        done: (b, v) => bandDone(dir, key, b.rows, v),
+        finished: (b, v, s) => writeBand(dir, key, b.blocks, s, v),
       }, log, o.quiet);
       log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
       return report(0, merged.seconds);
@@ -154,20 +154,23 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
     await mkdir(dataDir, { recursive: true });
     try {
       const generated = process.env.HEATHOURS_BUILD_TIME ?? new Date().toISOString();
-      let tiles: MergeTileSummary[];
+      let tiles: MergeTileSummary[][];
       let mergeSeconds = 0;
       if (o.assembleDir) {
-        // The last step of a distributed run: the merged bands, checked, their files linked in.
-        const bands = readBands(o.assembleDir, plan);
-        for (const b of bands) linkBandData(b, dataDir);
-        tiles = bands.map((b) => b.summary);
-        log.info(`assembling ${bands.length} merged band(s) from ${join(resolve(o.assembleDir), 'bands')}`);
+        // The last step of a distributed run: the merged bands of every weather, checked, their files linked in.
+        const dir = o.assembleDir;
+        tiles = plan.variants.map((v) => {
+          const bands = readBands(dir, plan, v);
+          for (const b of bands) linkBandData(b, join(dataDir, v.dataPath));
+          log.info(`assembling ${bands.length} merged band(s) from ${bandsRootOf(dir, v)}`);
+          return bands.map((b) => b.summary);
+        });
       } else {
         const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet);
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }
-      await regionStage(plan, tiles, dataDir, generated, log, o.quiet);
+      for (let vi = 0; vi < plan.variants.length; vi++) await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
       await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {

@@ -5,7 +5,7 @@
  * the build's scratch folder). Nothing is held in memory: the merge stage reads the files.
  */
 import { join, resolve } from 'node:path';
-import { emptyCounts, addCounts, type KernelCounts } from '../physics/index.ts';
+import { emptyCounts, addCounts, emptyChangeCounts, addChangeCounts, type ChangeCounts, type KernelCounts } from '../physics/index.ts';
 import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
 import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
@@ -33,6 +33,18 @@ export interface ComputeOutcome {
   partialBytes: number;
   /** Worker time per land cell-hour computed: read, physics, reduction [ns]. */
   perCellHour: { read: number; physics: number; reduce: number };
+  /**
+   * Per weather (`baseline`, or the scenario id): land cell-hours of its whole record, physics
+   * counts, and the relative-humidity clamps its changes made (computed now or before).
+   */
+  byVariant: Record<string, VariantCounts>;
+}
+
+/** What one weather's shards counted. */
+export interface VariantCounts {
+  cellHours: number;
+  physics: KernelCounts;
+  change: ChangeCounts;
 }
 
 /** Runs the compute stage; `onTask` is told when each compute task is done (for progress). */
@@ -72,6 +84,14 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   const nShards = work.reduce((n, t) => n + (t.kind === 'compute' ? t.task.shards.length : 0), 0);
   const physics = emptyCounts();
   const timing = { read: 0, physics: 0, reduce: 0 };
+  const labelOf = new Map(plan.variants.flatMap((v) => v.shards.map((s) => [s.id, v.label] as const)));
+  const byVariant: Record<string, VariantCounts> = Object.fromEntries(plan.variants.map((v) => [v.label, { cellHours: 0, physics: emptyCounts(), change: emptyChangeCounts() }]));
+  const countIn = (id: string, cellHoursOf: number, p: KernelCounts, c: ChangeCounts | undefined) => {
+    const v = byVariant[labelOf.get(id) ?? 'baseline'];
+    v.cellHours += cellHoursOf;
+    addCounts(v.physics, p);
+    if (c) addChangeCounts(v.change, c);
+  };
   let cellHours = 0;
   let partialBytes = 0;
   log.info(`computing ${nShards} of ${keyed.length} shards in ${work.length} task(s) on ${plan.jobs} worker(s)${storeDir ? ` into ${storeDir}` : ''}`);
@@ -79,7 +99,8 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   const t0 = Date.now();
   await runTasks(work, workerInit(plan), plan.jobs, {
     onShardProgress: () => progress.tick(),
-    onShard: (_id, r) => {
+    onShard: (id, r) => {
+      countIn(id, r.cellHours, r.physics, r.change);
       addCounts(physics, r.physics);
       cellHours += r.cellHours;
       partialBytes += r.storedBytes;
@@ -97,12 +118,19 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   }
   // Counts of the whole record (reused shards report what their computation counted).
   let allCellHours = cellHours;
-  keyed.forEach((_, i) => {
+  keyed.forEach((k, i) => {
     const s = sources[i];
     if (s.kind !== 'file') return;
     allCellHours += s.meta.report.cellHours;
     addCounts(physics, s.meta.report.physics as unknown as KernelCounts);
+    countIn(k.shard.id, s.meta.report.cellHours, s.meta.report.physics as unknown as KernelCounts, s.meta.report.change as unknown as ChangeCounts | undefined);
   });
+  for (const v of plan.variants) {
+    const c = byVariant[v.label].change;
+    if (v.scenario !== undefined && c.humidityClampedHigh + c.humidityClampedLow > 0) {
+      log.info(`scenario ${v.label}: relative humidity clamped to 100 % in ${c.humidityClampedHigh} cell-hours and to the 1 % floor in ${c.humidityClampedLow} (the change would have taken it beyond)`);
+    }
+  }
   return {
     partials,
     computed: nShards,
@@ -112,6 +140,7 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
     seconds,
     partialBytes,
     perCellHour: { read: ns(timing.read), physics: ns(timing.physics), reduce: ns(timing.reduce) },
+    byVariant,
   };
 }
 

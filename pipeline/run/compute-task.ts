@@ -7,11 +7,14 @@
  * Memory is bounded by one block of the group and the group's partials, never by the record.
  */
 import type { Dataset } from '../read/index.ts';
-import { computeHours, emptyCounts, addCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
+import { computeHours, emptyCounts, addCounts, applyMonthlyChange, emptyChangeCounts, type ChangeCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
 import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
 import { accumulateBlock, createPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
 import type { PhysicsSettings } from '../physics/settings.ts';
+import type { CellChange } from '../scenario/cell-change.ts';
+import type { ScenarioSpec } from '../scenario/settings.ts';
 import type { ShardSpec } from './plan.ts';
+import { scenarioCellChange } from './scenario-change.ts';
 
 /** Hours per block by default: one month and a little, so a block never spans more than two local months. */
 export const BLOCK_HOURS = 744;
@@ -24,6 +27,8 @@ export interface ShardContext {
   physics: PhysicsSettings;
   /** Grid columns (to turn global cell indices into block positions). */
   nLon: number;
+  /** The scenarios of the build: a shard with `scenario` set has that one's changes applied before the physics. */
+  scenarios: ScenarioSpec[];
 }
 
 /** One unit of work for a worker: the shards of one piece of a year over consecutive tiles. */
@@ -41,6 +46,8 @@ export interface ShardResult {
   /** Wall-clock milliseconds spent reading, in physics and in the reduction [ms]. */
   timing: { read: number; physics: number; reduce: number };
   physics: KernelCounts;
+  /** Clamps of relative humidity made by a scenario's changes [cell-hours] (zero for the baseline). */
+  change: ChangeCounts;
   /** Cell-hours computed (land cells × hours of the year read) [–]. */
   cellHours: number;
 }
@@ -114,6 +121,27 @@ interface TileState {
   physics: KernelCounts;
   cellHours: number;
   timing: { read: number; physics: number; reduce: number };
+  /** A scenario's monthly changes at the tile's cells, applied to each block before the physics. */
+  change: CellChange | undefined;
+  changeCounts: ChangeCounts;
+}
+
+/** The changes of the last few (scenario, tile) pairs of this thread: a worker computes many pieces of a tile. */
+const recentChanges = new Map<string, CellChange>();
+const RECENT_CHANGES = 8;
+
+async function tileChange(ctx: ShardContext, shard: ShardSpec, grid: { lat: Float64Array; lon: Float64Array }): Promise<CellChange | undefined> {
+  if (shard.scenario === undefined) return undefined;
+  const spec = ctx.scenarios.find((s) => s.id === shard.scenario);
+  if (!spec) throw new Error(`shard ${shard.id} names scenario ${shard.scenario}, which the build does not have`);
+  const key = `${JSON.stringify(spec)}|${shard.tileIndex}|${shard.cells.length}|${shard.cells[0]}`;
+  let c = recentChanges.get(key);
+  if (c === undefined) {
+    c = await scenarioCellChange(spec, shard.cells, grid);
+    if (recentChanges.size >= RECENT_CHANGES) recentChanges.delete(recentChanges.keys().next().value!);
+    recentChanges.set(key, c);
+  }
+  return c;
 }
 
 /**
@@ -138,8 +166,11 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
       physics: emptyCounts(),
       cellHours: 0,
       timing: { read: 0, physics: 0, reduce: 0 },
+      change: undefined,
+      changeCounts: emptyChangeCounts(),
     };
   });
+  for (const tile of tiles) tile.change = await tileChange(ctx, tile.shard, ds.grid);
   const maxLand = Math.max(...task.shards.map((s) => s.cells.length));
   const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations);
   const [h0, h1] = first.hours;
@@ -157,7 +188,7 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
     }
   }
   for (const tile of tiles) {
-    await onShard(tile.shard, { partial: tile.partial, physics: tile.physics, cellHours: tile.cellHours, timing: tile.timing });
+    await onShard(tile.shard, { partial: tile.partial, physics: tile.physics, change: tile.changeCounts, cellHours: tile.cellHours, timing: tile.timing });
   }
 }
 
@@ -206,6 +237,18 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
       if (sd !== undefined) for (let k = 0; k < nr; k++) inp.sd[dst + k] = sd[src + pos[r.j0 + k]];
     }
   }
+  // A scenario: its monthly changes applied to the tile's hours before the physics (the delta change method).
+  if (tile.change !== undefined) {
+    for (const r of runs) {
+      const nr = r.j1 - r.j0;
+      const a = r.j0 * nt;
+      const e = r.j1 * nt;
+      applyMonthlyChange(
+        { airTemperature: inp.air.subarray(a, e), dewPointTemperature: inp.dew.subarray(a, e), surfacePressure: inp.sp.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined },
+        nr, nt, local.month, tile.change, r.j0, tile.changeCounts,
+      );
+    }
+  }
   out.status.fill(0, 0, nt * nLand);
   const rowLat = new Float64Array(1);
   for (let ri = 0; ri < runs.length; ri++) {
@@ -226,7 +269,8 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
     addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
   }
   lap('physics');
-  // Back to time-major over the land cells for the reduction.
+  // Back to time-major over the land cells for the reduction (a scenario's air temperature too).
+  const changed = tile.change !== undefined;
   for (const r of runs) {
     const nr = r.j1 - r.j0;
     const o = r.j0 * nt;
@@ -237,6 +281,7 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
         gSun[dst + k] = out.wbgtSun[src + k];
         gShade[dst + k] = out.wbgtShade[src + k];
       }
+      if (changed) for (let k = 0; k < nr; k++) gAir[dst + k] = inp.air[src + k];
     }
   }
   accumulateBlock(

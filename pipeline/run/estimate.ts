@@ -41,6 +41,8 @@ export interface EstimateInput {
   fields: number;
   evaluations: number;
   memory: MemoryPlan;
+  /** Weathers published: the record and each scenario (default 1); `shards` holds all of theirs. */
+  variants?: number;
 }
 
 export interface BuildEstimate {
@@ -55,14 +57,15 @@ export interface BuildEstimate {
 export function estimateBuild(e: EstimateInput): BuildEstimate {
   let cellHours = 0;
   for (const s of e.shards) cellHours += s.cells.length * (s.hours[1] - s.hours[0]);
+  const v = Math.max(1, e.variants ?? 1);
   const compute = (cellHours * COMPUTE_S_PER_CELL_HOUR) / e.jobs;
-  const merge = (e.cells * e.years * MERGE_S_PER_CELL_YEAR) / e.jobs;
-  const publish = e.fields * e.nGrid * PUBLISH_S_PER_FIELD_CELL + e.regions * REGION_S;
+  const merge = (v * e.cells * e.years * MERGE_S_PER_CELL_YEAR) / e.jobs;
+  const publish = v * (e.fields * e.nGrid * PUBLISH_S_PER_FIELD_CELL + e.regions * REGION_S);
   const site = SITE_S + e.regions * SITE_S_PER_REGION;
   const total = compute + merge + publish + site;
-  const partials = e.cells * e.years * PARTIAL_B_PER_CELL_YEAR;
-  const output = e.cells * OUTPUT_B_PER_CELL + e.cells * e.years * OUTPUT_B_PER_CELL_YEAR + e.regions * (OUTPUT_B_PER_REGION + e.years * OUTPUT_B_PER_REGION_YEAR) + e.nGrid * e.fields * 5;
-  const scratch = e.nGrid * e.fields * 4 + e.regions * e.years * SCRATCH_B_PER_REGION_YEAR;
+  const partials = v * e.cells * e.years * PARTIAL_B_PER_CELL_YEAR;
+  const output = v * (e.cells * OUTPUT_B_PER_CELL + e.cells * e.years * OUTPUT_B_PER_CELL_YEAR + e.regions * (OUTPUT_B_PER_REGION + e.years * OUTPUT_B_PER_REGION_YEAR) + e.nGrid * e.fields * 5);
+  const scratch = e.nGrid * e.fields * 4 + v * e.regions * e.years * SCRATCH_B_PER_REGION_YEAR;
   const peakMemory = Math.max(e.memory.computePeak, e.memory.mergePeak);
   const min = (s: number) => (s >= 90 ? `${(s / 60).toFixed(1)} min` : `${s.toFixed(0)} s`);
   const text =

@@ -59,6 +59,12 @@ export interface MemoryInput {
   blocks: ReadonlyArray<[number, number]>;
   /** Largest block of hours a compute task reads [h]. */
   maxBlockHours: number;
+  /**
+   * Weathers computed from one read of the inputs: the record and each scenario (default 1). A
+   * compute task holds one set of partials per weather it computes, so the plan computes as many
+   * of them together as fit ({@link MemoryPlan.variantsPerTask}).
+   */
+  variants?: number;
 }
 
 export interface MemoryPlan {
@@ -67,6 +73,8 @@ export interface MemoryPlan {
   groups: number[][];
   /** Hours per block read [h]. */
   blockHours: number;
+  /** Weathers (the record, scenarios) a compute task computes from one read [–]. */
+  variantsPerTask: number;
   /** Merge bands: grid rows [y0, y1). */
   mergeBands: Array<[number, number]>;
   /** Estimated peak of the compute phase and of the merge phase [B]. */
@@ -74,9 +82,12 @@ export interface MemoryPlan {
   mergePeak: number;
 }
 
-/** Memory of a compute task over `land` land cells in `rows` grid rows, largest tile `maxTile` [B]. */
-export function computeTaskBytes(land: number, rows: number, maxTile: number, m: MemoryInput, blockHours: number): number {
-  const partials = land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * COUNTS_PER_CELL_MONTH(m.evaluations));
+/**
+ * Memory of a compute task over `land` land cells in `rows` grid rows, largest tile `maxTile`,
+ * computing `variants` weathers (the record, scenarios) from one read [B].
+ */
+export function computeTaskBytes(land: number, rows: number, maxTile: number, m: MemoryInput, blockHours: number, variants = 1): number {
+  const partials = variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * COUNTS_PER_CELL_MONTH(m.evaluations));
   const block = rows * m.nLon * blockHours * BLOCK_FIELDS * 4;
   const tile = maxTile * blockHours * TILE_ARRAYS * 4;
   return partials + block + tile;
@@ -121,17 +132,20 @@ export function publicationBlocks(landInRow: Int32Array, rowAlign: number, targe
 /** Chooses compute groups, block hours and merge bands for the budget; a catalogued error when nothing fits. */
 export function planMemory(m: MemoryInput): MemoryPlan {
   const perWorker = (m.budget - MAIN_BASE) / m.jobs - WORKER_BASE;
-  // Compute: the fewest groups of consecutive tiles whose task fits, with the longest block that fits.
+  // Compute: the fewest groups of consecutive tiles whose task fits, with the longest block that
+  // fits; the weathers (record, scenarios) of a tile computed together as far as they fit.
   let blockHours = m.maxBlockHours;
-  const fits = (from: number, to: number, hours: number) => {
+  let variants = Math.max(1, m.variants ?? 1);
+  const fits = (from: number, to: number, hours: number, v = variants) => {
     let land = 0;
     let maxTile = 0;
     for (let i = from; i < to; i++) {
       land += m.tiles[i].cells;
       maxTile = Math.max(maxTile, m.tiles[i].cells);
     }
-    return computeTaskBytes(land, m.tiles[to - 1].y1 - m.tiles[from].y0, maxTile, m, hours) <= perWorker;
+    return computeTaskBytes(land, m.tiles[to - 1].y1 - m.tiles[from].y0, maxTile, m, hours, v) <= perWorker;
   };
+  while (variants > 1 && m.tiles.some((_, i) => !fits(i, i + 1, blockHours))) variants--;
   while (blockHours > 24 && m.tiles.some((_, i) => !fits(i, i + 1, blockHours))) blockHours = Math.max(24, Math.floor(blockHours / 2));
   const tooBig = m.tiles.findIndex((_, i) => !fits(i, i + 1, blockHours));
   if (perWorker <= 0 || tooBig >= 0) {
@@ -174,12 +188,13 @@ export function planMemory(m: MemoryInput): MemoryPlan {
   for (const g of groups) {
     const land = g.reduce((s, i) => s + m.tiles[i].cells, 0);
     const maxTile = Math.max(...g.map((i) => m.tiles[i].cells));
-    computePeakTask = Math.max(computePeakTask, computeTaskBytes(land, m.tiles[g[g.length - 1]].y1 - m.tiles[g[0]].y0, maxTile, m, blockHours));
+    computePeakTask = Math.max(computePeakTask, computeTaskBytes(land, m.tiles[g[g.length - 1]].y1 - m.tiles[g[0]].y0, maxTile, m, blockHours, variants));
   }
   return {
     budget: m.budget,
     groups,
     blockHours,
+    variantsPerTask: variants,
     mergeBands,
     computePeak: MAIN_BASE + m.jobs * (WORKER_BASE + computePeakTask),
     mergePeak: MAIN_BASE + m.jobs * (WORKER_BASE + mergePeakTile),

@@ -6,7 +6,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { dirname, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import { createHash } from 'node:crypto';
 import { parseYamlStrict, type ResolvedConfig } from '../config/load.ts';
 import { ConfigSyntax } from '../config/errors.ts';
@@ -18,7 +18,10 @@ import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
-import { planShards, yearPieces, type ShardSpec } from './plan.ts';
+import { planShards, scenarioShards, yearPieces, type ShardSpec } from './plan.ts';
+import type { ScenarioSpec } from '../scenario/settings.ts';
+import { sha256File } from '../read/dataset-file.ts';
+import { checkScenario, closeChangeFiles, type ScenarioCheck } from './scenario-change.ts';
 import { shardProvenance } from './shard-key.ts';
 import type { KeyedShard } from './shard-sources.ts';
 import { BLOCK_HOURS, type ComputeTask, type ShardContext } from './compute-task.ts';
@@ -26,7 +29,6 @@ import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, public
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
 import { rowsId } from './rows-id.ts';
 import { planWorkforce, type WorkforcePlan } from './workforce-plan.ts';
-import { sha256File } from '../read/dataset-file.ts';
 import { describeGridCells } from '../regions/grid-cells.ts';
 import { EARTH_RADIUS_KM, rectangleAreaSr } from '../regions/spherical-area.ts';
 import type { BandWorkforce } from './merge-tile.ts';
@@ -65,6 +67,23 @@ export interface MergeBand {
   workforce?: BandWorkforce;
 }
 
+/**
+ * One weather the build computes and publishes: the record itself (the baseline) or a scenario
+ * made from it. Each has its own shards (the scenario's keyed by its parameters) and publishes the
+ * same files under its own folder of data/.
+ */
+export interface BuildVariant {
+  /** The scenario, or undefined for the record. */
+  scenario: ScenarioSpec | undefined;
+  /** Folder below `data/` it publishes into: '' for the record, `scenarios/<id>` for a scenario. */
+  dataPath: string;
+  /** Short name for logs and scratch folders: `baseline` or the scenario id. */
+  label: string;
+  shards: ShardSpec[];
+  /** What the plan found in the scenario's changes (ranges over the land cells and months). */
+  check?: ScenarioCheck;
+}
+
 export interface BuildPlan {
   rc: ResolvedConfig;
   work: ResolvedWork;
@@ -79,8 +98,14 @@ export interface BuildPlan {
   cells: Int32Array;
   nGrid: number;
   landInRow: Int32Array;
+  /** The record's shards (the baseline); each variant's are in `variants`. */
   shards: ShardSpec[];
+  /** Every shard of every variant with its provenance and cache key. */
   keyed: KeyedShard[];
+  /** The scenarios of the configuration, resolved (change files hashed). */
+  scenarios: ScenarioSpec[];
+  /** The record first, then each scenario. */
+  variants: BuildVariant[];
   /** The shard tiles: rows and land cells. */
   tiles: Array<{ y0: number; y1: number; cells: number }>;
   tasks: ComputeTask[];
@@ -148,7 +173,32 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     const years = range(cfg.years[0], cfg.years[1]);
     const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
     const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations, physics: cfg.physics };
-    const keyed: KeyedShard[] = shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings) }));
+    // Scenarios: resolved, and checked over every land cell before anything is computed.
+    const scenarios: ScenarioSpec[] = [];
+    for (const sc of cfg.scenarios) {
+      const base = { id: sc.id, name: sc.name, ...(sc.description !== undefined ? { description: sc.description } : {}) };
+      if (sc.warming !== undefined) scenarios.push({ ...base, kind: 'warming', warming: sc.warming });
+      else {
+        const path = rc.changeFiles[sc.id];
+        scenarios.push({ ...base, kind: 'change-file', path, file: basename(path), sha256: await sha256File(path), humidity: sc.humidity! });
+      }
+    }
+    const variants: BuildVariant[] = [{ scenario: undefined, dataPath: '', label: 'baseline', shards }];
+    try {
+      for (const sc of scenarios) {
+        const check = await checkScenario(sc, cells, ds.grid);
+        variants.push({ scenario: sc, dataPath: `scenarios/${sc.id}`, label: sc.id, shards: scenarioShards(shards, sc.id), check });
+        const f = (x: number) => (Math.round(x * 100) / 100).toFixed(2);
+        log.info(
+          `scenario ${sc.id} (${sc.kind === 'warming' ? `uniform warming ${sc.warming} K` : `change factors ${sc.file}`}): air temperature ${f(check.temperature.min)} … ${f(check.temperature.max)} K` +
+            (check.humidity ? `, humidity ${f(check.humidity.min)} … ${f(check.humidity.max)} ${sc.kind === 'change-file' && sc.humidity === 'specific' ? '(relative change of q)' : 'points of RH'}` : '') +
+            (check.solar ? `, solar ${f(check.solar.min * 100)} … ${f(check.solar.max * 100)} %` : '') + ' over the land cells and months',
+        );
+      }
+    } finally {
+      await closeChangeFiles();
+    }
+    const keyed: KeyedShard[] = variants.flatMap((v) => v.shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings, v.scenario) })));
     const tiles: BuildPlan['tiles'] = [];
     for (const s of shards) if (!tiles[s.tileIndex]) tiles[s.tileIndex] = { y0: s.tile.y0, y1: s.tile.y1, cells: s.cells.length };
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
@@ -172,14 +222,15 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       gridFields: fields.length,
       blocks,
       maxBlockHours: BLOCK_HOURS,
+      variants: variants.length,
     });
-    const tasks = computeTasks(shards, memory);
+    const tasks = computeTasks(variants.map((v) => v.shards), memory);
     const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
     if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
-    const estimate = estimateBuild({ shards, cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length });
+    const estimate = estimateBuild({ shards: variants.flatMap((v) => v.shards), cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length, variants: variants.length });
     log.info(
-      `plan: ${nLand} land cells of ${nGrid}, ${shards.length} shards (${tiles.length} tile(s) × pieces of ${years.length} year(s)) in ${tasks.length} compute tasks ` +
+      `plan: ${nLand} land cells of ${nGrid}, ${keyed.length} shards (${tiles.length} tile(s) × pieces of ${years.length} year(s)${variants.length > 1 ? ` × the record and ${scenarios.length} scenario(s)` : ''}) in ${tasks.length} compute tasks ` +
         `(${memory.groups.length} group(s) of tiles read together, blocks of ${memory.blockHours} h), ${bands.length} merge band(s), ${jobs} worker(s)`,
     );
     log.info(
@@ -188,8 +239,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     );
     log.info(`estimate: ${estimate.text}`);
     return {
-      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
-      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon },
+      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, scenarios, variants, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon, scenarios },
       estimate,
       workforce,
       workforceDigests,
@@ -210,23 +261,33 @@ export function sliceBlocks<T>(blocks: readonly T[], k: number, n: number): T[] 
   return blocks.slice(Math.floor(((k - 1) * blocks.length) / n), Math.floor((k * blocks.length) / n));
 }
 
-/** The compute tasks: per piece of a year, one task per group of tiles (the plan's groups). */
-function computeTasks(shards: readonly ShardSpec[], memory: MemoryPlan): ComputeTask[] {
-  const byPiece = new Map<string, ShardSpec[]>();
-  for (const s of shards) {
-    const key = `${s.year}|${s.hours[0]}|${s.hours[1]}`;
-    const list = byPiece.get(key) ?? [];
-    list.push(s);
-    byPiece.set(key, list);
-  }
+/**
+ * The compute tasks: per piece of a year, one task per group of tiles (the plan's groups) and set
+ * of weathers (the record and the scenarios, as many as the plan lets one task hold: they share
+ * the task's reads).
+ * @param variants each weather's shards (the same pieces and tiles in each)
+ */
+function computeTasks(variants: ReadonlyArray<readonly ShardSpec[]>, memory: MemoryPlan): ComputeTask[] {
+  const byPiece = new Map<string, ShardSpec[][]>();
+  variants.forEach((shards, v) => {
+    for (const s of shards) {
+      const key = `${s.year}|${s.hours[0]}|${s.hours[1]}`;
+      const lists = byPiece.get(key) ?? variants.map(() => []);
+      lists[v].push(s);
+      byPiece.set(key, lists);
+    }
+  });
   const tasks: ComputeTask[] = [];
-  for (const list of byPiece.values()) {
-    const byTile = new Map(list.map((s) => [s.tileIndex, s]));
+  const per = Math.max(1, memory.variantsPerTask);
+  for (const lists of byPiece.values()) {
+    const byTile = lists.map((list) => new Map(list.map((s) => [s.tileIndex, s])));
     memory.groups.forEach((g, gi) => {
-      const members = g.map((i) => byTile.get(i)).filter((s): s is ShardSpec => s !== undefined);
-      if (members.length === 0) return;
-      const id = members[0].id.replace(/^t\d+/, `g${String(gi).padStart(2, '0')}`);
-      tasks.push({ id, shards: members, blockHours: memory.blockHours });
+      for (let v0 = 0; v0 < variants.length; v0 += per) {
+        const members = byTile.slice(v0, v0 + per).flatMap((m) => g.map((i) => m.get(i)).filter((s): s is ShardSpec => s !== undefined));
+        if (members.length === 0) continue;
+        const id = members[0].id.replace(/^t\d+/, `g${String(gi).padStart(2, '0')}`);
+        tasks.push({ id, shards: members, blockHours: memory.blockHours });
+      }
     });
   }
   return tasks;

@@ -101,6 +101,16 @@ export interface ShardSpec {
   months: [number, number];
   /** Global indices (row-major in the dataset grid) of the land cells of the tile, ascending. */
   cells: Int32Array;
+  /**
+   * The scenario the shard computes (its id), or undefined for the record itself (the baseline).
+   * A scenario's shards are the baseline's with `@<scenario id>` after the name.
+   */
+  scenario?: string;
+}
+
+/** The shards of a scenario: the baseline's, named `<baseline id>@<scenario id>`. */
+export function scenarioShards(shards: readonly ShardSpec[], scenario: string): ShardSpec[] {
+  return shards.map((s) => ({ ...s, id: `${s.id}@${scenario}`, scenario }));
 }
 
 /**

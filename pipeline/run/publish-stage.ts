@@ -24,18 +24,20 @@ import { makeInventory } from '../publish/inventory.ts';
 import { compareBuilds, type BuildFacts, type RegionTables } from '../publish/changes.ts';
 import { DATA_DICTIONARY_PATH, dataDictionaryCsv } from '../publish/data-dictionary.ts';
 import { LOSS_VIEWS } from '../reduce/layout.ts';
-import { listArtefacts, STATISTIC_RULES, type Manifest, type ManifestWorkforce } from '../publish/manifest.ts';
+import { listArtefacts, STATISTIC_RULES, type Manifest, type ManifestScenario, type ManifestWorkforce } from '../publish/manifest.ts';
 import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE } from '../regions/workforce-shares.ts';
 import type { WorkforcePlan } from './workforce-plan.ts';
 import { basename } from 'node:path';
 import { fileSummaryCache } from './summary-cache.ts';
-import type { BuildPlan } from './plan-stage.ts';
+import type { BuildPlan, BuildVariant } from './plan-stage.ts';
+import { describeScenario, SCENARIO_CAVEAT } from '../scenario/describe.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 import type { ComputeOutcome } from './compute-stage.ts';
 
 export interface PublishInput {
   plan: BuildPlan;
-  tiles: readonly MergeTileSummary[];
+  /** Per weather (plan.variants order): the merged bands' summaries. */
+  tiles: ReadonlyArray<readonly MergeTileSummary[]>;
   compute: ComputeOutcome;
   /** The staging folder (it holds `data/`), and the output folder of the previous build. */
   stage: string;
@@ -48,44 +50,13 @@ export interface PublishInput {
 }
 
 export async function publishStage(p: PublishInput): Promise<Manifest> {
-  const { plan, tiles, log } = p;
+  const { plan, log } = p;
   const cfg = plan.rc.config;
-  const grid = plan.ds.grid;
   const dataDir = join(p.stage, 'data');
-  const nLat = grid.lat.length;
-  const nLon = grid.lon.length;
-
-  // Gridded fields: layers and the NetCDF, one field at a time from the bands' pieces.
-  const range = emptyFieldRange(plan.fields.length);
-  for (const t of tiles) addFieldRange(range, { min: t.fieldMin, max: t.fieldMax });
-  const pieces = tiles.map((t) => t.piece);
-  const fds = new Map<string, number>();
-  const buffer = new Float32Array(nLat * nLon);
-  const field = (i: number) => readGridField(pieces, i, nLat, nLon, fds, buffer);
-  let layers: Manifest['layers'];
-  try {
-    const progress = startProgress('layers', countLayers(plan.fields), { quiet: p.quiet });
-    layers = await writeAtlasLayers(dataDir, grid, plan.defs, plan.fields, range, field, () => progress.tick());
-    progress.done();
-    log.info(`${layers.length} map layers drawn (PNG and tiled GeoTIFF); writing the per-cell NetCDF`);
-    writeCellNetcdf(join(p.stage, CELL_NETCDF_PATH), grid, plan.defs, plan.fields, {
-      title: cfg.title,
-      invented: cfg.dataset.invented,
-      source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})`,
-      // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
-      history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
-      baseline: cfg.baseline,
-    }, field);
-  } finally {
-    closePieces(fds);
-  }
-
-  // Indexes of the per-cell files, and niche.json from the bands' entries.
-  const tables = tiles.flatMap((t) => t.cellTables.map((c) => ({ path: c.path, rows: c.rows })));
-  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify(cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE, tables)));
-  await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks) });
-  await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify(histogramIndex(plan.years, cfg.baseline, plan.regions)));
-  await joinFiles(join(dataDir, 'niche.json'), nicheJsonHead(), tiles.map((t) => t.nicheFragment), ',', NICHE_JSON_TAIL);
+  // Each weather's gridded files and indexes: the record into data/, a scenario into data/scenarios/<id>/.
+  const layersOf: Manifest['layers'][] = [];
+  for (let vi = 0; vi < plan.variants.length; vi++) layersOf.push(await publishVariant(p, plan.variants[vi], p.tiles[vi]));
+  const layers = layersOf[0];
   await writeRegionsGeoJson(join(dataDir, 'regions.geojson'), plan.regions);
 
   log.info('summarising the inputs for the inventory');
@@ -132,17 +103,103 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
     counts: {
       shards: plan.shards.length,
       landCells: plan.cells.length,
-      cellHours: p.compute.allCellHours,
-      notConverged: p.compute.physics.notConverged,
-      rejected: p.compute.physics.rejected,
-      dewPointClamped: p.compute.physics.dewPointClamped,
+      cellHours: p.compute.byVariant.baseline.cellHours,
+      notConverged: p.compute.byVariant.baseline.physics.notConverged,
+      rejected: p.compute.byVariant.baseline.physics.rejected,
+      dewPointClamped: p.compute.byVariant.baseline.physics.dewPointClamped,
     },
     layers,
     artefacts,
     ...(plan.workforce && plan.workforceDigests ? { workforce: manifestWorkforce(plan.workforce, plan.workforceDigests) } : {}),
+    scenarioCaveat: SCENARIO_CAVEAT,
+    scenarios: plan.variants.slice(1).map((v, i): ManifestScenario => {
+      const sc = v.scenario!;
+      const c = p.compute.byVariant[v.label];
+      return {
+        id: sc.id,
+        name: sc.name,
+        ...(sc.description !== undefined ? { description: sc.description } : {}),
+        definition: sc.kind === 'warming' ? { kind: 'warming', warming: sc.warming } : { kind: 'change-file', changeFile: sc.file, sha256: sc.sha256, humidity: sc.humidity, variables: v.check!.variables },
+        words: describeScenario(sc, v.check),
+        changes: { temperature: v.check!.temperature, humidity: v.check!.humidity, solar: v.check!.solar },
+        dataPath: `data/${v.dataPath}/`,
+        counts: {
+          shards: v.shards.length,
+          cellHours: c.cellHours,
+          notConverged: c.physics.notConverged,
+          rejected: c.physics.rejected,
+          humidityClampedHigh: c.change.humidityClampedHigh,
+          humidityClampedLow: c.change.humidityClampedLow,
+        },
+        layers: layersOf[i + 1],
+      };
+    }),
   };
   await writeFile(join(dataDir, 'manifest.json'), JSON.stringify(manifest, null, 1));
   return manifest;
+}
+
+/** A path below the site root (`data/…`) moved into a weather's folder (`data/scenarios/<id>/…` for a scenario). */
+export function variantPath(path: string, v: BuildVariant): string {
+  return v.dataPath === '' ? path : path.replace(/^data\//, `data/${v.dataPath}/`);
+}
+
+/**
+ * One weather's gridded files and indexes: its layers and per-cell NetCDF (each field put
+ * together from the bands' pieces, one field in memory at a time), the indexes of its per-cell
+ * files, calculator tiles and niche.json, every path in them pointing into its own folder.
+ */
+async function publishVariant(p: PublishInput, v: BuildVariant, tiles: readonly MergeTileSummary[]): Promise<Manifest['layers']> {
+  const { plan, log } = p;
+  const cfg = plan.rc.config;
+  const grid = plan.ds.grid;
+  const dataDir = join(p.stage, 'data', v.dataPath);
+  const at = (path: string) => variantPath(path, v);
+  const nLat = grid.lat.length;
+  const nLon = grid.lon.length;
+  const sc = v.scenario;
+
+  // Gridded fields: layers and the NetCDF, one field at a time from the bands' pieces.
+  const range = emptyFieldRange(plan.fields.length);
+  for (const t of tiles) addFieldRange(range, { min: t.fieldMin, max: t.fieldMax });
+  const pieces = tiles.map((t) => t.piece);
+  const fds = new Map<string, number>();
+  const buffer = new Float32Array(nLat * nLon);
+  const field = (i: number) => readGridField(pieces, i, nLat, nLon, fds, buffer);
+  let layers: Manifest['layers'];
+  try {
+    const progress = startProgress(sc ? `layers (${sc.id})` : 'layers', countLayers(plan.fields), { quiet: p.quiet });
+    layers = (await writeAtlasLayers(dataDir, grid, plan.defs, plan.fields, range, field, () => progress.tick())).map((l) => ({
+      ...l,
+      png: at(l.png),
+      tif: at(l.tif),
+      mapImages: l.mapImages.map((m) => ({ ...m, path: at(m.path) })),
+    }));
+    progress.done();
+    log.info(`${layers.length} map layers drawn (PNG and tiled GeoTIFF)${sc ? ` for scenario ${sc.id}` : ''}; writing the per-cell NetCDF`);
+    const words = sc ? describeScenario(sc, v.check) : undefined;
+    writeCellNetcdf(join(p.stage, at(CELL_NETCDF_PATH)), grid, plan.defs, plan.fields, {
+      title: sc ? `${cfg.title}: scenario ${sc.name} (a what-if, not a forecast)` : cfg.title,
+      invented: cfg.dataset.invented,
+      source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})` + (sc ? `; scenario ${sc.id}: ${words!.what} ${words!.source}` : ''),
+      // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
+      history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
+      baseline: cfg.baseline,
+      ...(sc ? { scenario: words!.caveat } : {}),
+    }, field);
+  } finally {
+    closePieces(fds);
+  }
+
+  // Indexes of the per-cell files, and niche.json from the bands' entries.
+  const tables = tiles.flatMap((t) => t.cellTables.map((c) => ({ path: at(c.path), rows: c.rows })));
+  const index = cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE, tables);
+  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify({ ...index, chunks: index.chunks.map((c) => ({ ...c, path: at(c.path) })), netcdf: at(index.netcdf) }));
+  await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks.map((c) => ({ ...c, path: at(c.path) }))) });
+  const hist = histogramIndex(plan.years, cfg.baseline, plan.regions);
+  await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify({ ...hist, regions: hist.regions.map((r) => ({ ...r, path: at(r.path) })) }));
+  await joinFiles(join(dataDir, 'niche.json'), nicheJsonHead(), tiles.map((t) => t.nicheFragment), ',', NICHE_JSON_TAIL);
+  return layers;
 }
 
 /** Writes `head`, the files' texts separated by `sep`, and `tail` into `path`, streaming. */
@@ -231,7 +288,15 @@ function readPreviousFacts(dataDir: string): BuildFacts | null {
   }
 }
 
+/** What a published file is; a scenario's file is described as the record's, with the scenario named. */
 function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
+  const m = /^data\/scenarios\/([a-z0-9-]+)\/(.+)$/.exec(path);
+  if (m === null) return describeRecordArtefact(path);
+  const d = describeRecordArtefact(`data/${m[2]}`);
+  return { ...d, description: `scenario ${m[1]} (a what-if, not a forecast): ${d.description}` };
+}
+
+function describeRecordArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF with internal tiles, EPSG:4326' };
   if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell tables' };

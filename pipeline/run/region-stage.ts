@@ -3,7 +3,8 @@
  * overlaps are added (double-double sums, so the result does not depend on the bands), its
  * per-year area-weighted means become normals (pipeline/climate/normals.ts), and its table (tidy
  * CSV, the wide CSV and the workbook for spreadsheets), its summary and its calculator tile are
- * written. Memory holds one region.
+ * written. Memory holds one region. Run once per weather: the record into `data/`, each scenario
+ * into `data/scenarios/<id>/` (same files, the scenario named in its workbooks).
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -25,21 +26,26 @@ import { encodeHistogramTile } from '../publish/histogram-tiles.ts';
 import type { RegionFigureNormals } from '../publish/figure-normals.ts';
 import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
-import type { BuildPlan } from './plan-stage.ts';
+import type { BuildPlan, BuildVariant } from './plan-stage.ts';
+import { describeScenario } from '../scenario/describe.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 
 export interface RegionOutcome {
   seconds: number;
 }
 
-export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSummary[], dataDir: string, generated: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
+export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles: readonly MergeTileSummary[], dataDir: string, generated: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
   const t0 = Date.now();
   const cfg = plan.rc.config;
-  // What the region workbooks' assumptions sheet says of the build.
-  const sheetInfo = regionSheetInfo({
-    ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
-    work: plan.work, figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], statistics: STATISTIC_RULES, cautions: CAUTIONS,
-  });
+  // What the region workbooks' assumptions sheet says of the build (and of the scenario).
+  const sc = variant.scenario;
+  const sheetInfo = {
+    ...regionSheetInfo({
+      ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
+      work: plan.work, figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], statistics: STATISTIC_RULES, cautions: CAUTIONS,
+    }),
+    ...(sc ? { scenario: { name: sc.name, ...describeScenario(sc, variant.check) } } : {}),
+  };
   const wf = plan.workforce;
   const nE = plan.work.evaluations.length;
   // Which records of which band files belong to each region.
@@ -49,7 +55,7 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
   mkdirSync(join(dataDir, 'calculator'), { recursive: true });
   const nY = plan.years.length;
   const acc = new Float64Array(2 * CELL_YEAR_HIST);
-  const progress = startProgress('regions', plan.regions.length, { quiet });
+  const progress = startProgress(sc ? `regions (${sc.id})` : 'regions', plan.regions.length, { quiet });
   for (let r = 0; r < plan.regions.length; r++) {
     const region = plan.regions[r];
     const w = plan.weights[r];
@@ -154,7 +160,7 @@ export async function regionStage(plan: BuildPlan, tiles: readonly MergeTileSumm
   }
   progress.done();
   const seconds = (Date.now() - t0) / 1000;
-  log.info(`${plan.regions.length} region(s): tables, summaries and calculator tiles in ${seconds.toFixed(1)} s`);
+  log.info(`${plan.regions.length} region(s)${sc ? ` of scenario ${sc.id}` : ''}: tables, summaries and calculator tiles in ${seconds.toFixed(1)} s`);
   return { seconds };
 }
 

@@ -12,7 +12,9 @@
  *   shift, and the work evaluations (class id and metabolic rate, acclimatization, exposure,
  *   rest place, the prepared limit kernel with the clothing adjustment), and the physics
  *   settings (the globe diameter);
- * - the shard itself: year, piece (hours), tile and its land cells.
+ * - the shard itself: year, piece (hours), tile and its land cells;
+ * - the scenario it computes (pipeline/scenario): none for the record, the warming [K], or the
+ *   change file's name, SHA-256 and humidity kind.
  * Titles, descriptions, regions, baseline years and publishing options are not parts: changing
  * them reuses every partial.
  */
@@ -25,13 +27,14 @@ import { CODE_VERSION } from '../model/version.ts';
 import { packagePath } from '../model/package-root.ts';
 import { PARTIAL_FORMAT } from '../formats/partial-file.ts';
 import type { PhysicsSettings } from '../physics/settings.ts';
+import type { ScenarioSpec } from '../scenario/settings.ts';
 import type { ShardSpec } from './plan.ts';
 
 const HOUR_MS = 3_600_000;
 /** The TypeScript sources of the pipeline, also when the compiled bundle runs: the digest is the same either way. */
 const PIPELINE = packagePath('pipeline');
 /** Folders (under pipeline/) and files whose sources decide a shard's counts. */
-const COMPUTE_SOURCES = ['read', 'physics', 'work', 'reduce', 'model', 'run/compute-task.ts'];
+const COMPUTE_SOURCES = ['read', 'scenario', 'physics', 'work', 'reduce', 'model', 'run/compute-task.ts', 'run/scenario-change.ts'];
 
 function sourceFiles(path: string): string[] {
   if (path.endsWith('.ts') || path.endsWith('.mjs')) return [path];
@@ -72,6 +75,17 @@ export interface ShardProvenance {
   };
   /** `hours`: first and last hour of the piece as UTC time stamps (ISO 8601), not indices, so adding earlier data keeps keys. */
   shard: { year: number; utcYear: number; hours: [string, string]; tile: ShardSpec['tile']; cells: string };
+  /** What the shard's weather is: the record (null) or a scenario's changes of it (its name and title are not parts). */
+  scenario: ScenarioPart | null;
+}
+
+/** The parts of a scenario a shard's counts depend on. */
+export type ScenarioPart = { warming: number } | { changeFile: string; sha256: string; humidity: string };
+
+/** The cache-key part of a scenario (undefined: the record). */
+export function scenarioPart(s: ScenarioSpec | undefined): ScenarioPart | null {
+  if (s === undefined) return null;
+  return s.kind === 'warming' ? { warming: s.warming } : { changeFile: s.file, sha256: s.sha256, humidity: s.humidity };
 }
 
 /** Digest of the settings alone [hex, 16 digits]: what the merge compares across partials. */
@@ -109,13 +123,14 @@ export function inputsForHours(files: readonly DatasetFileInfo[], time: { start:
     .sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
 }
 
-/** The provenance of `shard` and its cache key [hex]. */
-export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], time: { start: number }, s: ComputeSettings): { provenance: ShardProvenance; key: string } {
+/** The provenance of `shard` (of `scenario`, or of the record) and its cache key [hex]. */
+export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], time: { start: number }, s: ComputeSettings, scenario?: ScenarioSpec): { provenance: ShardProvenance; key: string } {
   const provenance: ShardProvenance = {
     code: { version: CODE_VERSION, sources: COMPUTE_CODE_DIGEST, partialFormat: PARTIAL_FORMAT },
     inputs: inputsForHours(files, time, shard.hours),
     settings: settingsPart(s),
     shard: { year: shard.year, utcYear: shard.utcYear, hours: hoursIso(time, shard.hours), tile: shard.tile, cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16) },
+    scenario: scenarioPart(scenario),
   };
   return { provenance, key: sha(JSON.stringify(provenance)) };
 }
@@ -148,7 +163,14 @@ export function explainChange(old: ShardProvenance, now: ShardProvenance): strin
   if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
   if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours)) why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
   if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile)) why.push('the tile holds other cells (grid, mask or tiling changed)');
+  if (JSON.stringify(old.scenario ?? null) !== JSON.stringify(now.scenario)) why.push(describeScenarioChange(old.scenario ?? null, now.scenario));
   return why;
+}
+
+function describeScenarioChange(a: ScenarioPart | null, b: ScenarioPart | null): string {
+  const words = (p: ScenarioPart | null) => (p === null ? 'the record' : 'warming' in p ? `a uniform warming of ${p.warming} K` : `the change file ${p.changeFile} (${p.humidity} humidity, SHA-256 ${p.sha256.slice(0, 12)}…)`);
+  if (a !== null && b !== null && 'changeFile' in a && 'changeFile' in b && a.changeFile === b.changeFile && a.humidity === b.humidity) return `the scenario's change file ${b.changeFile} changed`;
+  return `the scenario changed: ${words(a)} → ${words(b)}`;
 }
 
 function describeEvaluationChange(a: ShardProvenance['settings']['evaluations'], b: ShardProvenance['settings']['evaluations']): string {

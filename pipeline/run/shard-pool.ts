@@ -6,7 +6,7 @@
  * whole by one worker, partials are integer counts, and merge bands write disjoint files.
  */
 import { runInWorkers } from '../infra/worker-pool.ts';
-import type { KernelCounts } from '../physics/index.ts';
+import type { ChangeCounts, KernelCounts } from '../physics/index.ts';
 import type { OpenDatasetOptions } from '../read/index.ts';
 import type { ComputeTask, ShardContext } from './compute-task.ts';
 import type { PartialMeta } from '../formats/partial-file.ts';
@@ -29,6 +29,8 @@ export type PoolTask = { kind: 'compute'; task: ComputeTask; stores: ShardStores
 export interface ShardReport {
   shardId: string;
   physics: KernelCounts;
+  /** Relative-humidity clamps made by a scenario's changes [cell-hours]. */
+  change: ChangeCounts;
   cellHours: number;
   /** Wall-clock milliseconds reading (its share of the group's reads), in physics, in the reduction [ms]. */
   timing: { read: number; physics: number; reduce: number };

@@ -29,8 +29,9 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
         const store = t.stores[shard.id];
         const te = performance.now();
         const physics = { ...r.physics } as unknown as Record<string, number>;
-        const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics } });
-        shards.push({ shardId: shard.id, physics: r.physics, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
+        const change = { ...r.change } as unknown as Record<string, number>;
+        const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics, ...(shard.scenario !== undefined ? { change } : {}) } });
+        shards.push({ shardId: shard.id, physics: r.physics, change: r.change, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
         progress(1);
       });
       return { kind: 'compute', shards };

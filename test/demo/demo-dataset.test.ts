@@ -4,6 +4,7 @@ import { mkdtempSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { writeDemoDataset, LSM_FILE, yearFileName } from '../../pipeline/demo/index.ts';
+import { changeFactorFile, DEMO_WARMING_LEVELS } from '../../pipeline/demo/change-factors.ts';
 import { makeCellClimate } from '../../pipeline/demo/cell-climate.ts';
 import { ERA5_VARIABLES } from '../../pipeline/demo/era5-variables.ts';
 import { placeGrid, SMALL_GRID } from '../../pipeline/demo/territory.ts';
@@ -29,9 +30,10 @@ beforeAll(async () => {
 }, 300_000);
 
 describe('writeDemoDataset, small grid, mixed layout', () => {
-  it('writes the mask and one file per year, and nothing else (no temporary files left)', () => {
+  it('writes the mask, one file per year and the two scenarios\' change files, and nothing else (no temporary files left)', () => {
     expect(filesA.map((f) => f.slice(dirA.length + 1))).toEqual([LSM_FILE, yearFileName(2022), yearFileName(2023)]);
-    expect(readdirSync(dirA).sort()).toEqual([LSM_FILE, yearFileName(2022), yearFileName(2023)].sort());
+    expect(readdirSync(dirA).sort()).toEqual([LSM_FILE, yearFileName(2022), yearFileName(2023), 'scenarios'].sort());
+    expect(readdirSync(join(dirA, 'scenarios')).sort()).toEqual(DEMO_WARMING_LEVELS.map((l) => changeFactorFile(l).slice('scenarios/'.length)).sort());
   });
 
   it('ncdump -h parses the legacy file: NetCDF-3 classic, packed shorts, hours since 1900, invented labels', () => {
@@ -132,14 +134,16 @@ describe('writeDemoDataset, small grid, mixed layout', () => {
   });
 
   it('the same seed gives the same bytes in every file (both layouts), whether years are written in worker threads or not', () => {
-    for (const f of readdirSync(dirA)) expect(sha(join(dirB, f))).toBe(sha(join(dirA, f)));
+    for (const f of [...readdirSync(dirA).filter((f) => f.endsWith('.nc')), ...DEMO_WARMING_LEVELS.map(changeFactorFile)]) expect(sha(join(dirB, f))).toBe(sha(join(dirA, f)));
   });
 
   it('adding a year writes only that year and leaves the old files byte-identical', async () => {
-    const before = Object.fromEntries(readdirSync(dirA).map((f) => [f, { sha: sha(join(dirA, f)), mtime: statSync(join(dirA, f)).mtimeMs }]));
+    const old = [...readdirSync(dirA).filter((f) => f.endsWith('.nc')), ...DEMO_WARMING_LEVELS.map(changeFactorFile)];
+    const before = Object.fromEntries(old.map((f) => [f, { sha: sha(join(dirA, f)), mtime: statSync(join(dirA, f)).mtimeMs }]));
     const r = await writeDemoDataset({ outDir: dirA, years: [2024], layout: 'mixed', grid: 'small', seed: 11, quiet: true });
     expect(r.files).toEqual([join(dirA, yearFileName(2024))]);
-    expect(r.unchanged).toEqual([join(dirA, LSM_FILE)]);
+    expect(r.changeFactors).toEqual([]);
+    expect(r.unchanged).toEqual([join(dirA, LSM_FILE), ...DEMO_WARMING_LEVELS.map((l) => join(dirA, changeFactorFile(l)))]);
     for (const [f, b] of Object.entries(before)) {
       expect(sha(join(dirA, f))).toBe(b.sha);
       expect(statSync(join(dirA, f)).mtimeMs).toBe(b.mtime);

@@ -42,7 +42,7 @@ beforeAll(async () => {
   const nLon = ds.grid.lon.length;
   shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
-  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon } };
+  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon, scenarios: [] } };
 }, 120_000);
 
 describe('the build pool', () => {
