@@ -40,7 +40,7 @@ if (mode === 'pipeline') {
     checksum: h.digest('hex').slice(0, 16),
   })}\n`);
 } else if (mode === 'site') {
-  const { buildSite } = await import('../pipeline/publish/site.ts');
+  const { buildSite } = await import('../pipeline/run/site-stage.ts');
   await buildSite({ dataDir: a, outDir: b, quiet: true });
   const seconds = (performance.now() - t0) / 1000;
   const pages = readdirSync(join(b, 'regions')).filter((d) => statSync(join(b, 'regions', d, 'index.html'), { throwIfNoEntry: false }));

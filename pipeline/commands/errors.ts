@@ -30,7 +30,7 @@ export function register(program: Command): void {
     .addHelpText('after', `\n${EXIT_STATUS_HELP}`)
     .action(async (opts: { json?: boolean }) => {
       const { errorCatalogue } = await import('../model/errors.ts');
-      await import('../model/catalogue.ts');
+      await import('./catalogue.ts');
       for (const spec of errorCatalogue()) {
         const row = { code: spec.code, exit: exitCodeOf(spec.code), title: spec.title, hint: genericHint(spec.hint) };
         if (opts.json) process.stdout.write(`${JSON.stringify(row)}\n`);

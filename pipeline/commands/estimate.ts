@@ -8,7 +8,7 @@
 import type { Command } from 'commander';
 import { readFile } from 'node:fs/promises';
 import { writeFileAtomic } from '../model/effects.ts';
-import '../model/catalogue.ts';
+import './catalogue.ts';
 import { workbookBytes } from '../publish/workbook.ts';
 import { APPROXIMATION_NOTE } from '../schedule/approximation.ts';
 import { bidCsv } from '../schedule/bid-csv.ts';

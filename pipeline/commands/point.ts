@@ -19,7 +19,7 @@ import { dirname } from 'node:path';
 import { once } from 'node:events';
 import { temporarySibling } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
-import '../model/catalogue.ts';
+import './catalogue.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { csvField } from '../formats/csv.ts';
 import { readCsvRecords } from '../formats/csv-file.ts';

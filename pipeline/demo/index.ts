@@ -12,6 +12,7 @@
  * the mask file is rewritten only when its bytes would change.
  */
 import { mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, existsSync } from 'node:fs';
+import { writeFileAtomicSync } from '../model/effects.ts';
 import { join } from 'node:path';
 import { availableParallelism } from 'node:os';
 import { runInWorkers } from '../infra/worker-pool.ts';
@@ -135,17 +136,11 @@ export async function writeDemoDataset(opts: {
     }
     // The invented population raster (for the workforce weighting): the same for every grid and year.
     const popPath = join(opts.outDir, POPULATION_FILE);
-    const popNew = join(opts.outDir, `.${POPULATION_FILE}.${process.pid}.new`);
-    try {
-      const tif = writeGeoTiff(demoPopulation(), { units: 'people', description: 'INVENTED people per pixel of the demo territory (heathours demo-data); not derived from any real data' });
-      if (existsSync(popPath) && readFileSync(popPath).equals(tif)) unchanged.push(popPath);
-      else {
-        writeFileSync(popNew, tif);
-        renameSync(popNew, popPath);
-        files.push(popPath);
-      }
-    } finally {
-      rmSync(popNew, { force: true });
+    const tif = writeGeoTiff(demoPopulation(), { units: 'people', description: 'INVENTED people per pixel of the demo territory (heathours demo-data); not derived from any real data' });
+    if (existsSync(popPath) && readFileSync(popPath).equals(tif)) unchanged.push(popPath);
+    else {
+      writeFileAtomicSync(popPath, tif);
+      files.push(popPath);
     }
     const jobs: YearJob[] = years.map((year) => ({
       path: join(opts.outDir, yearFileName(year)),

@@ -3,7 +3,7 @@
  * rename) and nothing half-written is ever left where a reader would take it for output.
  */
 import { mkdir, rename, rm, writeFile } from 'node:fs/promises';
-import { existsSync } from 'node:fs';
+import { existsSync, mkdirSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join, basename } from 'node:path';
 import { randomBytes } from 'node:crypto';
 
@@ -23,6 +23,24 @@ export async function writeFileAtomic(path: string, data: string | Uint8Array): 
     await rm(tmp, { force: true });
     throw e;
   }
+}
+
+/**
+ * Writes `data` to `path` atomically and synchronously (for workers and caches that write between
+ * computations): to a temporary sibling first, then renamed into place; the temporary file is
+ * removed when anything fails. Returns the bytes written [B].
+ */
+export function writeFileAtomicSync(path: string, data: string | Uint8Array): number {
+  mkdirSync(dirname(path), { recursive: true });
+  const tmp = temporarySibling(path);
+  try {
+    writeFileSync(tmp, data);
+    renameSync(tmp, path);
+  } catch (e) {
+    rmSync(tmp, { force: true });
+    throw e;
+  }
+  return typeof data === 'string' ? Buffer.byteLength(data) : data.byteLength;
 }
 
 /**

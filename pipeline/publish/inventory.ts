@@ -1,7 +1,7 @@
 /** Builds the dataset inventory (`data/inventory.json`) from the configuration and the open dataset. */
 import type { AtlasConfig } from '../config/schema.ts';
 import type { Dataset } from '../read/index.ts';
-import type { DatasetInventory, InventoryVariable } from './inventory-types.ts';
+import type { DatasetInventory, InventoryVariable } from '../read/inventory-types.ts';
 
 const HOUR_MS = 3_600_000;
 

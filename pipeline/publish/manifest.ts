@@ -7,7 +7,7 @@ import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { readdir, stat } from 'node:fs/promises';
 import { join, relative } from 'node:path';
-import type { InventoryFile } from './inventory-types.ts';
+import type { InventoryFile } from '../read/inventory-types.ts';
 import type { LayerEntry } from './atlas-layers.ts';
 
 export interface ArtefactEntry {

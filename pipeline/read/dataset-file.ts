@@ -19,7 +19,7 @@ import { detectLayout } from './layout.ts';
 import { openSourceFile } from './open-file.ts';
 import { isNumericType, type SourceFile, type SourceVariable } from './source.ts';
 import { conversionFor, type UnitConversion } from './units.ts';
-import type { InventoryFile } from '../publish/inventory-types.ts';
+import type { InventoryFile } from './inventory-types.ts';
 
 /** One hour [ms]. */
 export const HOUR_MS = 3_600_000;

@@ -21,9 +21,9 @@ import { attrText } from './attrs.ts';
 import { checkPlausible, PLAUSIBLE } from './units.ts';
 import { CANONICAL_FIELDS, type CanonicalName, type HourlyBlock } from '../model/fields.ts';
 import { tileSize, type HorizontalGrid, type Tile } from '../model/grid.ts';
-import type { InventoryFile, InventoryVariable } from '../publish/inventory-types.ts';
+import type { InventoryFile, InventoryVariable } from './inventory-types.ts';
 
-/** A file of the dataset as the inventory lists it (pipeline/publish/inventory-types.ts). */
+/** A file of the dataset as the inventory lists it (pipeline/read/inventory-types.ts). */
 export type DatasetFileInfo = InventoryFile;
 
 export interface OpenDatasetOptions {

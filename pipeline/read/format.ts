@@ -14,7 +14,7 @@ import {
   NetcdfUnknownFormat,
 } from './errors.ts';
 
-/** File formats the reader can open (names as in pipeline/publish/inventory-types.ts). */
+/** File formats the reader can open (names as in pipeline/read/inventory-types.ts). */
 export type NetcdfFormat = 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';
 
 /** HDF5 format signature: \x89 H D F \r \n \x1a \n. */

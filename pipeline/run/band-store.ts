@@ -9,7 +9,8 @@
  * A scenario's bands go to `DIR/scenario-bands/<scenario id>/<rows-id>/`, the same way.
  */
 import { createHash } from 'node:crypto';
-import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync } from 'node:fs';
+import { writeFileAtomicSync } from '../model/effects.ts';
 import { dirname, join, relative, resolve } from 'node:path';
 import { CODE_VERSION } from '../model/version.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
@@ -66,10 +67,7 @@ export function writeBand(dir: string, key: string, blocks: Array<[number, numbe
       nicheFragment: rel(s.nicheFragment),
     },
   };
-  const path = join(bandDir(dir, s.rows, variant), 'band.json');
-  const tmp = `${path}.${process.pid}.tmp`;
-  writeFileSync(tmp, JSON.stringify(file));
-  renameSync(tmp, path);
+  writeFileAtomicSync(join(bandDir(dir, s.rows, variant), 'band.json'), JSON.stringify(file));
 }
 
 /** The band.json of a band folder, or undefined when absent or unreadable. */

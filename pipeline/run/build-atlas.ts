@@ -4,7 +4,7 @@
  *
  *   plan (plan-stage.ts) → compute (compute-stage.ts) → merge (merge-stage.ts: per band of rows,
  *   the merge, normals, niche and cell files) → regions (region-stage.ts) → publish
- *   (publish-stage.ts: layers, NetCDF, indexes, manifest) → site (pipeline/publish/site.ts)
+ *   (publish-stage.ts: layers, NetCDF, indexes, manifest) → site (pipeline/run/site-stage.ts)
  *
  * A distributed run cuts the same flow into array jobs: `--shard K/N` runs compute for a slice of
  * the compute tasks; `--merge DIR --tile K/N` runs merge for a slice of the blocks of rows, each
@@ -22,7 +22,7 @@ import { loadConfig, type ResolvedConfig } from '../config/load.ts';
 import type { KernelCounts } from '../physics/index.ts';
 import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
-import { buildSite } from '../publish/site.ts';
+import { buildSite } from './site-stage.ts';
 import { planBuild, type BuildPlan } from './plan-stage.ts';
 import { computeStage, type ComputeMode } from './compute-stage.ts';
 import { mergeStage, stagingTarget } from './merge-stage.ts';

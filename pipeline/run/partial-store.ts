@@ -4,7 +4,8 @@
  * (`<partials>/slice-K-of-N/<shard-id>.hhp`). Files are written to a temporary name and renamed,
  * so a killed build leaves only whole files; a damaged one fails its checksum when read.
  */
-import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { writeFileAtomicSync } from '../model/effects.ts';
 import { join, relative } from 'node:path';
 import { decodePartial, encodePartial, readPartialHeader, type PartialMeta } from '../formats/partial-file.ts';
 import type { ShardPartial } from '../reduce/accumulator.ts';
@@ -22,15 +23,7 @@ export function partialPath(dir: string, shardId: string): string {
 /** Writes a partial file atomically (temporary sibling, then rename); returns its size [B]. */
 export function writePartialFile(path: string, partial: ShardPartial, meta: PartialMeta): number {
   const bytes = encodePartial(partial, meta);
-  mkdirSync(join(path, '..'), { recursive: true });
-  const tmp = `${path}.${process.pid}.${Math.random().toString(36).slice(2)}.tmp`;
-  try {
-    writeFileSync(tmp, bytes);
-    renameSync(tmp, path);
-  } catch (e) {
-    rmSync(tmp, { force: true });
-    throw e;
-  }
+  writeFileAtomicSync(path, bytes);
   return bytes.length;
 }
 

@@ -87,7 +87,7 @@ export interface BuildVariant {
 export interface BuildPlan {
   rc: ResolvedConfig;
   work: ResolvedWork;
-  /** Digest of the configuration and the workload classes [hex]. */
+  /** Digest of the configuration that shapes the results and of the workload classes [hex] (resultConfigText). */
   configDigest: string;
   regions: Region[];
   weights: CellWeights[];
@@ -141,7 +141,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   if (budget === undefined) throw MemoryBudgetInvalid({ text: memoryText! }, o.memory !== undefined ? { key: '--memory' } : { file: rc.path, key: 'memory' });
   // The workforce files are part of what a build was made from: their bytes go into the digest.
   const workforceDigests = rc.workforce ? { raster: await sha256File(rc.workforce.raster), shares: await sha256File(rc.workforce.shares) } : undefined;
-  const digest = createHash('sha256').update(rc.text).update('\0').update(classesText);
+  const digest = createHash('sha256').update(resultConfigText(cfg)).update('\0').update(classesText);
   if (workforceDigests) digest.update(`\0workforce ${workforceDigests.raster} ${workforceDigests.shares}`);
   const configDigest = digest.digest('hex');
 
@@ -395,3 +395,18 @@ function checkYears(time: { start: number; count: number }, years: [number, numb
   }
 }
 
+
+/** Keys of the configuration that change how a build runs, never what it publishes. */
+const EXECUTION_KEYS = new Set(['memory', 'shards', 'cache']);
+
+/**
+ * The configuration as it shapes the results, as canonical text (keys sorted, execution settings
+ * such as the memory budget, the tiling and the cache folder left out), so that one atlas built
+ * with two budgets carries one configuration digest.
+ */
+export function resultConfigText(cfg: object): string {
+  const canonical = (v: unknown): unknown =>
+    Array.isArray(v) ? v.map(canonical) : v !== null && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canonical((v as Record<string, unknown>)[k])])) : v;
+  const top = Object.fromEntries(Object.entries(cfg).filter(([k]) => !EXECUTION_KEYS.has(k)));
+  return JSON.stringify(canonical(top));
+}

@@ -4,7 +4,8 @@
  * the files holding them (pipeline/read/dataset.ts `summary`). A yearly rebuild then streams only
  * the new year's files for the inventory. An unreadable entry is treated as absent (recomputed).
  */
-import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
+import { writeFileAtomicSync } from '../model/effects.ts';
 import { join } from 'node:path';
 import type { SummaryAccumulator, SummaryChunkCache } from '../read/index.ts';
 
@@ -27,11 +28,7 @@ export function fileSummaryCache(dir: string): SummaryChunkCache {
       }
     },
     set(key, value) {
-      mkdirSync(dir, { recursive: true });
-      const p = join(dir, `${key}.json`);
-      const tmp = `${p}.${process.pid}.tmp`;
-      writeFileSync(tmp, JSON.stringify(value, (_k, v) => (v === Infinity || v === -Infinity ? null : v)));
-      renameSync(tmp, p);
+      writeFileAtomicSync(join(dir, `${key}.json`), JSON.stringify(value, (_k, v) => (v === Infinity || v === -Infinity ? null : v)));
     },
   };
 }

@@ -5,7 +5,7 @@
  * (region, cell, point), the form's choices and the atlas data they read. Each names the option or
  * field (`key`), the file (and line), and says what to do.
  * Pure (no node: imports): the browser calculator shows the same errors. Registered in
- * pipeline/model/catalogue.ts.
+ * pipeline/commands/catalogue.ts.
  */
 import { defineError } from '../model/errors.ts';
 

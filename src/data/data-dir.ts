@@ -1,6 +1,6 @@
 /**
  * Where the pages find their inputs: the data folder the pipeline wrote, passed to the Astro
- * build in the environment variable `HEATHOURS_DATA_DIR` (set by pipeline/publish/site.ts).
+ * build in the environment variable `HEATHOURS_DATA_DIR` (set by pipeline/run/site-stage.ts).
  * Read at build time only (pages are prerendered in Node).
  */
 import { resolve } from 'node:path';

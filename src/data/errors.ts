@@ -1,6 +1,6 @@
 /**
  * Catalogued errors of the site stage: the data folder the pages read, the Astro build, and the
- * preview server. Registered in pipeline/model/catalogue.ts.
+ * preview server. Registered in pipeline/commands/catalogue.ts.
  */
 import { defineError } from '../../pipeline/model/errors.ts';
 

@@ -4,7 +4,7 @@
  */
 import { join } from 'node:path';
 import { z } from 'zod';
-import type { DatasetInventory } from '../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../pipeline/read/inventory-types.ts';
 import { siteDataDir } from './data-dir.ts';
 import { readValidatedJson } from './read-json.ts';
 

@@ -8,7 +8,7 @@
  * memory too; they are not copied from the licence text. Check them against the current licence
  * and the dataset pages of the Climate Data Store before publishing real data.
  */
-import type { DatasetInventory } from '../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../pipeline/read/inventory-types.ts';
 
 export interface DataAttribution {
   /** Plain-words licence status. */

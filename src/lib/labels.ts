@@ -1,5 +1,5 @@
 /** Readable names for the inventory's coded values (file formats and ERA5 layouts). */
-import type { InventoryFile } from '../../pipeline/publish/inventory-types.ts';
+import type { InventoryFile } from '../../pipeline/read/inventory-types.ts';
 
 export const FORMAT_LABELS: Record<InventoryFile['format'], string> = {
   'netcdf3-classic': 'NetCDF-3 classic',

@@ -1,5 +1,5 @@
 /** How the site names and credits each reanalysis product the pipeline reads. */
-import type { DatasetInventory } from '../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../pipeline/read/inventory-types.ts';
 
 export interface ProductDescription {
   name: string;

@@ -7,7 +7,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Command } from 'commander';
 import { errorCatalogue } from '../../pipeline/model/errors.ts';
-import '../../pipeline/model/catalogue.ts';
+import '../../pipeline/commands/catalogue.ts';
 import { DATA_ERRORS, EXIT, USAGE_ERRORS, exitCodeOf } from '../../pipeline/commands/exit-codes.ts';
 import { genericHint } from '../../pipeline/commands/errors.ts';
 

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { parseYears } from '../../pipeline/commands/demo-data.ts';
 import { HeathoursError, errorCatalogue } from '../../pipeline/model/errors.ts';
-import '../../pipeline/model/catalogue.ts';
+import '../../pipeline/commands/catalogue.ts';
 import { CLI_TS } from '../helpers/cli.ts';
 
 const BIN = CLI_TS;

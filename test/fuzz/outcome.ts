@@ -7,7 +7,7 @@
  */
 import { basename } from 'node:path';
 import { HeathoursError, errorCatalogue } from '../../pipeline/model/errors.ts';
-import '../../pipeline/model/catalogue.ts';
+import '../../pipeline/commands/catalogue.ts';
 
 export type Outcome = 'read' | 'catalogued' | 'internal' | 'unnamed' | 'noisy' | 'hang' | 'crash';
 export const OUTCOMES: readonly Outcome[] = ['read', 'catalogued', 'internal', 'unnamed', 'noisy', 'hang', 'crash'];

@@ -10,7 +10,7 @@ import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
 import { HIST_EDGES, HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { estimateFromHistogram, prepareWorkKernel, limitCurve2017 } from '../../pipeline/work/index.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
-import { buildSite } from '../../pipeline/publish/site.ts';
+import { buildSite } from '../../pipeline/run/site-stage.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';

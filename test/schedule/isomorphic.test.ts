@@ -7,7 +7,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { errorCatalogue } from '../../pipeline/model/errors.ts';
-import '../../pipeline/model/catalogue.ts';
+import '../../pipeline/commands/catalogue.ts';
 
 const dir = new URL('../../pipeline/schedule/', import.meta.url);
 const files = readdirSync(dir).filter((f) => f.endsWith('.ts'));

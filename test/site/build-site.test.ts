@@ -10,7 +10,7 @@ import { existsSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { buildSite } from '../../pipeline/publish/site.ts';
+import { buildSite } from '../../pipeline/run/site-stage.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions, regionSummaries } from '../../src/data/regions.ts';

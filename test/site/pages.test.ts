@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { geoContains } from 'd3-geo';
 import { feature } from 'topojson-client';
 import type { Topology, GeometryObject } from 'topojson-specification';
-import type { DatasetInventory } from '../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../pipeline/read/inventory-types.ts';
 import {
   PROJECT_ROOT,
   buildTestSite,

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { errorCatalogue } from '../../pipeline/model/errors.ts';
-import '../../pipeline/model/catalogue.ts';
+import '../../pipeline/commands/catalogue.ts';
 
 const dir = new URL('../../pipeline/work/', import.meta.url);
 const files = readdirSync(dir).filter((f) => f.endsWith('.ts'));

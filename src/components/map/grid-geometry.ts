@@ -4,7 +4,7 @@
  * side of its centre. Coordinates in [° E, ° N].
  */
 import type { Feature, FeatureCollection, LineString, Polygon } from 'geojson';
-import type { DatasetInventory } from '../../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../../pipeline/read/inventory-types.ts';
 
 export type GridSpec = DatasetInventory['grid'];
 

@@ -3,7 +3,7 @@ import { renderLayerPng } from '../../../pipeline/publish/layers/render-layer-pn
 import { writeGeoTiff } from '../../../pipeline/publish/layers/geotiff-write.ts';
 import { compileStyle, type ContinuousStyle } from '../../../pipeline/publish/layers/style.ts';
 import { errorCatalogue } from '../../../pipeline/model/errors.ts';
-import '../../../pipeline/model/catalogue.ts';
+import '../../../pipeline/commands/catalogue.ts';
 import { expectCatalogued, regularGrid } from './helpers.ts';
 
 // Checks against the project's own grid convention (pipeline/model/grid.ts) and catalogue.
@@ -87,7 +87,7 @@ describe('bad layer input gives catalogued errors, for the PNG and the GeoTIFF a
     expectCatalogued(() => renderLayerPng(g, { ...base, classes: [{ value: 1, label: 'a', color: '#112233' }] }), 'LayerCategoriesInvalid', /holds 7/);
   });
 
-  it('every layer error is registered in the catalogue through pipeline/model/catalogue.ts', () => {
+  it('every layer error is registered in the catalogue through pipeline/commands/catalogue.ts', () => {
     const codes = errorCatalogue().map((e) => e.code);
     for (const c of ['LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerDomainInvalid', 'LayerClassesInvalid', 'LayerRampUnknown', 'LayerCategoriesInvalid', 'LayerNoData', 'LayerNoDataValueInvalid']) {
       expect(codes).toContain(c);

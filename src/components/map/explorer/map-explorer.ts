@@ -7,7 +7,7 @@
  * tests; `#cell-panel` reports `data-cell` and `data-state` (`loading`, `ready`, `no-data`).
  */
 import type { CellChunk, CellFiguresIndex, CellRecord } from '../../../../pipeline/publish/cell-figures.ts';
-import type { DatasetInventory } from '../../../../pipeline/publish/inventory-types.ts';
+import type { DatasetInventory } from '../../../../pipeline/read/inventory-types.ts';
 import { sitePath } from '../../../lib/nav.ts';
 import { UNIT_EVENT, currentUnit } from '../../../lib/units.ts';
 import { formatLat, formatLon } from '../../../lib/format.ts';

@@ -1,5 +1,8 @@
-/** Imports every stage's error specs so the catalogue is complete. Add a stage's errors.ts here. */
-import './errors.ts';
+/**
+ * Imports every stage's error specs so the catalogue is complete, here where the commands are
+ * (the one place that may know every stage). Add a stage's errors.ts here.
+ */
+import '../model/errors.ts';
 import '../config/errors.ts';
 import '../publish/layers/errors.ts';
 import '../publish/cell-figures-errors.ts';
