@@ -171,7 +171,7 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     expectCatalogued(() => applyLandMask(w, new Uint8Array(4)), 'RegionFieldShape');
   });
 
-  it('1,000 regions tiling a 40×60 grid: every cell\'s fractions sum to 1 within 1e-9, in well under a second (time printed)', () => {
+  it('1,000 regions tiling a 40×60 grid: every cell\'s fractions sum to 1 within 1e-9 (its time: npm run bench -- --only region-weights-1000)', () => {
     // A jittered 25 × 40 lattice of quadrilaterals exactly covering the grid (invented test shapes).
     const d = 0.25;
     const gBig = grid(10 + d / 2, 40, 30 + d / 2, 60, d);
@@ -196,23 +196,12 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
         features.push(polygonFeature(`q-${j}-${i}`, [ring]));
       }
     }
-    const tp = performance.now();
     const regions = parseRegionGeoJson(collection(...features), 'tiles.geojson');
-    const parseMs = performance.now() - tp;
-    const t0 = performance.now();
     const all = allRegionCellWeights(regions, gBig);
-    const ms = performance.now() - t0;
     const sum = new Float64Array(2400);
-    let checksum = 0;
-    for (const w of all) {
-      w.cells.forEach((c, k) => {
-        sum[c] += w.fraction[k];
-        checksum += w.fraction[k] * (c + 1);
-      });
-    }
-    console.log(`allRegionCellWeights: 1000 regions on a 40×60 grid in ${ms.toFixed(1)} ms (parsing and validation ${parseMs.toFixed(1)} ms); checksum ${checksum.toFixed(6)}`);
+    for (const w of all) w.cells.forEach((c, k) => (sum[c] += w.fraction[k]));
+    expect(all.length).toBe(1000);
     for (let c = 0; c < 2400; c++) expect(Math.abs(sum[c] - 1)).toBeLessThan(1e-9);
     expect(all.every((w) => Math.abs(w.coveredFraction - 1) < 1e-9)).toBe(true);
-    expect(ms).toBeLessThan(1000);
   });
 });
