@@ -39,7 +39,7 @@ export interface ResolvedConfig {
  * nesting too deep to read all become `fail(detail)`, a catalogued error of the caller.
  */
 export function parseYamlStrict(text: string, fail: (detail: string) => Error): unknown {
-  let doc;
+  let doc: ReturnType<typeof parseDocument>;
   try {
     doc = parseDocument(text, { prettyErrors: true, logLevel: 'silent' });
   } catch (e) {

@@ -127,6 +127,7 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
     need(padded, `the name of ${what}`);
     const s = latin1.decode(head.subarray(p, p + n));
     p += padded;
+    // biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what this test looks for
     if (/[\0-\x1f\x7f]/.test(s)) bad(`the name of ${what} holds control characters (${JSON.stringify(s.slice(0, 40))})`, at);
     return s;
   };

@@ -139,7 +139,7 @@ async function analyse(sf: SourceFile, digest: boolean): Promise<AnalysedFile> {
   if (timeVarying) {
     if (!timeVar) throw NetcdfNoTimeAxis({ detail: `${file}: no time coordinate with units "<unit> since <date>"` }, { file });
     const where = { file, variable: timeVar.name };
-    let coding;
+    let coding: ReturnType<typeof parseTimeUnits>;
     try {
       coding = parseTimeUnits(attrText(timeVar, 'units') ?? '', attrText(timeVar, 'calendar'));
       times = decodeTimes(await sf.readNumbers(timeVar), coding);

@@ -10,14 +10,14 @@ const table = document.querySelector<HTMLTableElement>('#ranking');
 if (form && table) {
   const body = table.tBodies[0];
   const select = form.elements.namedItem('column') as HTMLSelectElement;
-  const valueOf = (tr: HTMLTableRowElement, key: string) => {
+  const cellValue = (tr: HTMLTableRowElement, key: string) => {
     const raw = tr.querySelector<HTMLElement>(`td[data-col="${CSS.escape(key)}"]`)?.dataset.value ?? '';
     return raw === '' ? NaN : Number(raw);
   };
   const apply = () => {
     const key = select.value;
     const rows = [...body.rows].sort(
-      (a, b) => compareForRanking(valueOf(a, key), valueOf(b, key)) || Number(a.dataset.nameOrder) - Number(b.dataset.nameOrder),
+      (a, b) => compareForRanking(cellValue(a, key), cellValue(b, key)) || Number(a.dataset.nameOrder) - Number(b.dataset.nameOrder),
     );
     rows.forEach((tr, i) => {
       const rank = tr.querySelector('td.rank');

@@ -11,7 +11,7 @@ import { dirname, join, normalize } from 'node:path';
 import { ROOT } from '../helpers/cli.ts';
 
 /** Layers from the bottom up: a folder may import its own layer and any layer listed before it. */
-export const LAYERS: readonly string[] = [
+const LAYERS: readonly string[] = [
   'pipeline/model',
   'pipeline/infra',
   'pipeline/read',

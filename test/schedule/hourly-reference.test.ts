@@ -93,7 +93,7 @@ function hourlyReplay(wbgt: Map<number, number>, years: number[], first: number,
     for (const w of weights) {
       const hd = new Date(t + w.dayOffset * DAY);
       const wy = years[(first + hd.getUTCFullYear() - y0) % years.length];
-      let m = hd.getUTCMonth() + 1;
+      const m = hd.getUTCMonth() + 1;
       let d = hd.getUTCDate();
       if (m === 2 && d === 29 && new Date(Date.UTC(wy, 1, 29)).getUTCMonth() !== 1) d = 28;
       let v = wbgt.get(key(wy, m, d, w.hour));

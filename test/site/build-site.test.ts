@@ -55,6 +55,7 @@ async function expectFailure(code: string): Promise<HeathoursError> {
   return err as HeathoursError;
 }
 
+// biome-ignore lint/suspicious/noExplicitAny: the edits reach into any part of a published JSON file
 async function editJson(rel: string, edit: (v: any) => void): Promise<void> {
   const path = join(dataDir, rel);
   const v = JSON.parse(await readFile(path, 'utf8'));

@@ -200,11 +200,13 @@ describe('bad data files are catalogued errors naming the file and where', () =>
     expect(loadManifestLayers(dir)).toBe(second);
   });
 
+  // biome-ignore lint/suspicious/noExplicitAny: each case spoils a different part of a parsed manifest
+  type Spoilable = any;
   it.each([
-    ['a workload class id that is not a slug', (m: any) => (m.work.classes[0].id = 'Heavy work'), 'work.classes.0.id'],
-    ['a shift without work days', (m: any) => (m.work.shift.days = []), 'work.shift.days'],
-    ['a legend without stops', (m: any) => (m.layers[1].legend.stops = []), 'layers.1.legend.stops'],
-    ['a map image corner north of the pole', (m: any) => (m.layers[0].mapImages[0].coordinates[0][1] = 91), 'layers.0.mapImages.0.coordinates.0.1'],
+    ['a workload class id that is not a slug', (m: Spoilable) => (m.work.classes[0].id = 'Heavy work'), 'work.classes.0.id'],
+    ['a shift without work days', (m: Spoilable) => (m.work.shift.days = []), 'work.shift.days'],
+    ['a legend without stops', (m: Spoilable) => (m.layers[1].legend.stops = []), 'layers.1.legend.stops'],
+    ['a map image corner north of the pole', (m: Spoilable) => (m.layers[0].mapImages[0].coordinates[0][1] = 91), 'layers.0.mapImages.0.coordinates.0.1'],
   ])('a manifest with %s: SiteDataInvalid at the key, from the one reader behind every view', (_what, spoil, key) => {
     const dir = copy();
     const file = join(dir, 'data/manifest.json');

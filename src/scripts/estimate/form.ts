@@ -84,7 +84,7 @@ export function fillFromQuery(form: HTMLFormElement, search: string): void {
   }
 }
 
-function valueOf(form: HTMLFormElement, name: string): string {
+function fieldValue(form: HTMLFormElement, name: string): string {
   const el = form.elements.namedItem(name);
   if (el instanceof RadioNodeList || el instanceof HTMLSelectElement || el instanceof HTMLInputElement) return el.value;
   return '';
@@ -96,12 +96,12 @@ export function updateVisibility(form: HTMLFormElement, ctx: EstimateContext): v
     const show = el.dataset.showFor;
     const rule = show ?? el.dataset.hideFor ?? '';
     const [name, value] = rule.split(':');
-    const match = valueOf(form, name) === value;
+    const match = fieldValue(form, name) === value;
     el.hidden = show !== undefined ? !match : match;
   }
   const description = form.querySelector('#work-description');
   if (description) {
-    const work = valueOf(form, 'work');
+    const work = fieldValue(form, 'work');
     description.textContent =
       ctx.classes.find((c) => c.id === work)?.description ??
       'A whole-body metabolic rate of your own, e.g. from ISO 8996 tables or a measurement; table estimates can be a third out.';

@@ -12,7 +12,7 @@ import type { ViewState } from './view-state.ts';
 export const CHOICE_KEYS = ['workloadClass', 'acclimatization', 'exposure', 'loss', 'statistic', 'period'] as const;
 export type ChoiceKey = (typeof CHOICE_KEYS)[number];
 
-function valueOf(layer: ExplorerLayer, key: ChoiceKey): string | undefined {
+function choiceValue(layer: ExplorerLayer, key: ChoiceKey): string | undefined {
   if (key === 'statistic') return layer.statistic;
   if (key === 'period') return layer.period;
   return layer.view[key as keyof LayerView];
@@ -33,14 +33,14 @@ export function resolveView(catalogue: ExplorerCatalogue, wish: ViewState): Reso
   if (!catalogue.figures.some((f) => f.id === state.figure)) state.figure = catalogue.figures[0]?.id ?? '';
   let candidates = catalogue.layers.filter((l) => l.figure === state.figure);
   for (const key of CHOICE_KEYS) {
-    const present = new Set(candidates.map((l) => valueOf(l, key)).filter((v): v is string => v !== undefined));
+    const present = new Set(candidates.map((l) => choiceValue(l, key)).filter((v): v is string => v !== undefined));
     if (present.size === 0) continue;
     const order = catalogue.choices[key].map((c) => c.id);
     options[key] = [...order.filter((id) => present.has(id)), ...[...present].filter((id) => !order.includes(id))];
     const wanted = state[key];
     const chosen = wanted !== undefined && present.has(wanted) ? wanted : options[key][0];
     state[key] = chosen;
-    candidates = candidates.filter((l) => valueOf(l, key) === chosen);
+    candidates = candidates.filter((l) => choiceValue(l, key) === chosen);
   }
   return { layer: candidates[0], state, options };
 }

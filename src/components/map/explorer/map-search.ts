@@ -15,6 +15,7 @@ export type SearchResult =
   | { kind: 'point'; lat: number; lon: number }
   | { kind: 'none'; message: string };
 
+// biome-ignore lint/suspicious/noMisleadingCharacterClass: the range is the combining diacritical marks, removed after NFD on purpose
 const fold = (s: string) => s.normalize('NFD').replace(/[\u0300-\u036f]/g, '').toLowerCase().trim().replace(/\s+/g, ' ');
 
 const NUMBER = String.raw`([+\-\u2212]?\d+(?:\.\d+)?)`;
