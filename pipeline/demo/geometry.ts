@@ -3,6 +3,7 @@
  * ring, ring area and segment crossings. Distances use a local equirectangular projection, good
  * to well under 1 % over the few hundred kilometres of the territory.
  */
+import { ringContains } from '../regions/ring-contains.ts';
 
 /** A vertex [° E, ° N]. */
 export type LonLat = [number, number];
@@ -10,15 +11,9 @@ export type LonLat = [number, number];
 /** Mean length of one degree of latitude [km] (WGS 84 mean over latitude; common practice). */
 export const KM_PER_DEG_LAT = 110.95;
 
-/** Even–odd rule point-in-ring test (W. R. Franklin's PNPOLY crossing test). */
+/** Whether (lon, lat) [°] lies inside the ring: the project's one point-in-polygon test. */
 export function pointInRing(lon: number, lat: number, ring: readonly LonLat[]): boolean {
-  let inside = false;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const [xi, yi] = ring[i];
-    const [xj, yj] = ring[j];
-    if (yi > lat !== yj > lat && lon < ((xj - xi) * (lat - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
+  return ringContains(ring, lon, lat);
 }
 
 /** Distance from a point to the nearest edge of a ring [km] (local equirectangular projection). */

@@ -6,5 +6,6 @@ export { regionCellWeights, allRegionCellWeights, regionBbox, type CellWeights }
 export { applyLandMask } from './land-mask.ts';
 export { regionFieldStats, type RegionFieldStats, type RegionStatsOptions } from './region-stats.ts';
 export { EARTH_RADIUS_KM, ringAreaSr, rectangleAreaSr } from './spherical-area.ts';
-export { findEdgeContact, pointInRing, segmentContact, type EdgeContact } from './segment-intersection.ts';
+export { findEdgeContact, segmentContact, type EdgeContact } from './segment-intersection.ts';
+export { ringContains, flatRingContains } from './ring-contains.ts';
 export * as regionErrors from './errors.ts';

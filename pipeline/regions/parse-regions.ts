@@ -19,7 +19,8 @@ import {
 } from './errors.ts';
 import { regionLabel, type Region, type RegionPolygon } from './region.ts';
 import { prepareRing } from './ring-prep.ts';
-import { findEdgeContact, pointInRing } from './segment-intersection.ts';
+import { findEdgeContact } from './segment-intersection.ts';
+import { flatRingContains } from './ring-contains.ts';
 
 /** Lower-case letters and digits in dash-separated words. */
 export const REGION_ID_PATTERN = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
@@ -113,13 +114,13 @@ function preparePolygon(p: unknown, region: string, file: string, key: string): 
   for (let h = 1; h < rings.length; h++) {
     // No edges cross, so one corner of the hole decides; corners on the outer boundary are allowed (touching).
     const corner = interiorCorner(rings[h], outer);
-    if (corner !== undefined && !pointInRing(outer, rings[h][2 * corner], rings[h][2 * corner + 1])) {
+    if (corner !== undefined && !flatRingContains(outer, rings[h][2 * corner], rings[h][2 * corner + 1])) {
       throw RegionHoleOutside({ region, detail: `hole ${h} lies outside the outer ring` }, { file, key: `${key}[${h}]` });
     }
     for (let o = 1; o < rings.length; o++) {
       if (o === h) continue;
       const c = interiorCorner(rings[h], rings[o]);
-      if (c !== undefined && pointInRing(rings[o], rings[h][2 * c], rings[h][2 * c + 1])) {
+      if (c !== undefined && flatRingContains(rings[o], rings[h][2 * c], rings[h][2 * c + 1])) {
         throw RegionHoleOutside({ region, detail: `hole ${h} lies inside hole ${o}` }, { file, key: `${key}[${h}]` });
       }
     }

@@ -124,17 +124,3 @@ export function findEdgeContact(rings: readonly Float64Array[]): EdgeContact | u
   }
   return undefined;
 }
-
-/**
- * Whether a point lies inside a flat ring (even-odd rule; points on the boundary may go either way).
- * @param lon Longitude [° E] @param lat Latitude [° N]
- */
-export function pointInRing(ring: Float64Array, lon: number, lat: number): boolean {
-  const n = ring.length / 2;
-  let inside = false;
-  for (let i = 0, j = n - 1; i < n; j = i++) {
-    const xi = ring[2 * i], yi = ring[2 * i + 1], xj = ring[2 * j], yj = ring[2 * j + 1];
-    if (yi > lat !== yj > lat && lon < ((xj - xi) * (lat - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
-}

@@ -11,7 +11,7 @@ import type { GeoStream } from 'd3-geo';
 import { feature, mesh } from 'topojson-client';
 import type { Topology, GeometryObject } from 'topojson-specification';
 import type { Feature, FeatureCollection, MultiLineString, MultiPolygon, Position } from 'geojson';
-import { ringContains } from './ring-contains.ts';
+import { ringContains } from '../../pipeline/regions/ring-contains.ts';
 
 /** Largest latitude Web Mercator draws [° N]; the poles are clamped to it. */
 export const MERCATOR_LAT_LIMIT = 85.05112878;

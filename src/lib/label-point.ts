@@ -2,7 +2,7 @@
  * Where to write a region's name on a map: a point inside the region (never in a hole or outside
  * a bent outline, where a centroid can fall). Our method: in the polygon with the largest outer
  * ring, cut horizontal lines at 15 latitudes across it, take the interior segments of each (the
- * crossings with every ring, sorted, in pairs: the even-odd rule of ring-contains.ts), and return
+ * crossings with every ring, sorted, in pairs: the even-odd rule of pipeline/regions/ring-contains.ts), and return
  * the middle of the longest segment. Pure; works in longitude, latitude [°] (small regions).
  */
 import type { MultiPolygon, Polygon, Position } from 'geojson';

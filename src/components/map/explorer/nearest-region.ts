@@ -7,7 +7,7 @@
  * 6371.0088 km, IUGG, from memory). Pure.
  */
 import type { MultiPolygon, Polygon, Position } from 'geojson';
-import { ringContains } from '../../../lib/ring-contains.ts';
+import { ringContains } from '../../../../pipeline/regions/ring-contains.ts';
 
 const KM_PER_DEGREE = (6371.0088 * Math.PI) / 180;
 
