@@ -45,3 +45,16 @@ export interface Tile {
 export function tileSize(t: Tile): number {
   return (t.y1 - t.y0) * (t.x1 - t.x0);
 }
+
+/** Where a raster's pixels lie, in degrees (a north-up longitude/latitude raster such as a GeoTIFF in EPSG:4326). */
+export interface PixelLayout {
+  /** Pixels across and down [px]. */
+  width: number;
+  height: number;
+  /** West edge of column 0 [° E] and the width of a column [°] (> 0). */
+  west: number;
+  dLon: number;
+  /** Top edge of row 0 [° N] and the latitude step from one row to the next [°] (negative: north-up). */
+  top: number;
+  dLatRow: number;
+}

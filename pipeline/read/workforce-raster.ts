@@ -17,6 +17,7 @@
  */
 import { fromFile, type GeoTIFF, type GeoTIFFImage } from 'geotiff';
 import { WorkforceRasterBands, WorkforceRasterCrs, WorkforceRasterGeoreference, WorkforceRasterUnreadable } from './errors.ts';
+import type { PixelLayout } from '../model/grid.ts';
 
 /** GeoTIFF key values (OGC 19-008r4 Annex; from memory). */
 const MODEL_PROJECTED = 1;
@@ -28,17 +29,8 @@ const USER_DEFINED = 32767;
 const ANGULAR_DEGREE = 9102;
 
 /** A people raster, open for reading by windows. */
-export interface WorkforceRaster {
+export interface WorkforceRaster extends PixelLayout {
   path: string;
-  /** Pixels across and down [px]. */
-  width: number;
-  height: number;
-  /** Longitude of the west edge of column 0 [° E] and the width of a column [°] (> 0). */
-  west: number;
-  dLon: number;
-  /** Latitude of the top edge of row 0 [° N] and the latitude step from one row to the next [°] (negative for a north-up raster). */
-  top: number;
-  dLatRow: number;
   /** The value that marks a pixel without data (GDAL_NODATA), null when none; NaN when it is "nan". */
   noData: number | null;
   /** Rows of one block (strip or tile) [px]: windows read whole blocks of rows. */

@@ -22,6 +22,7 @@
  * pieces, never an array per grid cell or the raster. Pure: arrays in, arrays out; a negative or
  * NaN count is the catalogued WorkforceCountInvalid naming the pixel.
  */
+import type { PixelLayout } from '../model/grid.ts';
 import type { GridCells } from './grid-cells.ts';
 import { WorkforceCountInvalid } from './errors.ts';
 import type { CellPiece } from './cell-pieces.ts';
@@ -30,18 +31,6 @@ import { ringAreaSr } from './spherical-area.ts';
 
 const RAD = Math.PI / 180;
 
-/** Where a raster's pixels lie, in degrees. */
-export interface PixelLayout {
-  /** Pixels across and down [px]. */
-  width: number;
-  height: number;
-  /** West edge of column 0 [° E] and the width of a column [°] (> 0). */
-  west: number;
-  dLon: number;
-  /** Top edge of row 0 [° N] and the latitude step from one row to the next [°] (negative: north-up). */
-  top: number;
-  dLatRow: number;
-}
 
 /**
  * A window of pixels that overlaps the grid: columns [col0, col1) and rows [row0, row1) of the
@@ -339,3 +328,4 @@ export class GridAggregator {
     return { cells: this.cells, people: this.people, offLand: this.offLand, outsideGrid: this.outsideGrid, pixels: this.pixels, noDataPixels: this.noDataPixels };
   }
 }
+export type { PixelLayout } from '../model/grid.ts';
