@@ -78,7 +78,18 @@ function header(cc: CellClimate, numRecords: number, vars: Array<{ name: DemoVar
     ],
     vars: v,
     numRecords,
+    // A year of a country-size grid passes the 2 GiB offsets of CDF-1: write CDF-2 then, as the
+    // data store does for large requests (both are "NetCDF-3" to the reader).
+    format: legacyFileFormat(numRecords, cc.grid.nLat * cc.grid.nLon, vars.length),
   };
+}
+
+/** Data bytes above which a year is written as 64-bit-offset NetCDF (below 2 GiB, with room for the header) [B]. */
+export const CDF1_SAFE_BYTES = 2 ** 31 - 2 ** 24;
+
+/** The NetCDF-3 variant of a legacy year of `hours` records of `cells` cells and `nVars` packed variables. */
+export function legacyFileFormat(hours: number, cells: number, nVars: number): 'classic' | '64bit-offset' {
+  return hours * cells * 2 * nVars > CDF1_SAFE_BYTES ? '64bit-offset' : 'classic';
 }
 
 /** Writes one year of invented data in the legacy layout to `path` (atomically). */

@@ -151,3 +151,11 @@ describe('writeDemoDataset, small grid, mixed layout', () => {
     expect(ncdump('-h', join(dirA, yearFileName(2024)))).toContain('valid_time = 8784 ;');
   }, 300_000);
 });
+
+describe('a legacy year too large for CDF-1', () => {
+  it('is written as 64-bit-offset NetCDF when its data pass 2 GiB (a 150 × 150 year of 8 variables: 3.15 GB), classic below', async () => {
+    const { legacyFileFormat } = await import('../../pipeline/demo/legacy-layout.ts');
+    expect(legacyFileFormat(8760, 150 * 150, 8)).toBe('64bit-offset');
+    expect(legacyFileFormat(8784, 40 * 60, 8)).toBe('classic');
+  });
+});
