@@ -34,6 +34,7 @@ export const USAGE_ERRORS: readonly string[] = [
   'ScheduleTooManyPatterns', 'ScheduleNotFinished', 'ScheduleDeadlineUnreachable',
   'EstimateCellInvalid', 'EstimatePointOutsideGrid',
   'ScenarioIdInvalid', 'ScenarioIdDuplicate', 'ScenarioChangeFileMissing',
+  'CsvMalformed', 'PointBadTime', 'PointBadValue', 'PointTimeNotUtc', 'PointOutputFailed',
 ];
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
@@ -55,7 +56,7 @@ export const DATA_ERRORS: readonly string[] = [
   'WbgtHistogramInvalid', 'CellTileInvalid', 'CellOutsideGrid', 'CellFigureMissing',
   'LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerNoData',
   'SiteDataMissing', 'SiteDataUnreadable', 'SiteDataInvalid', 'SiteBuildFailed',
-  'EstimateDataUnavailable', 'EstimateYearsMismatch', 'EstimateAtlasInvalid', 'ScheduleHolidayInvalid', 'ScheduleNoWeatherYears',
+  'EstimateDataUnavailable', 'EstimateYearsMismatch', 'EstimateAtlasInvalid', 'ScheduleNoWeatherYears',
   'WorkforceRasterUnreadable', 'WorkforceRasterBands', 'WorkforceRasterCrs', 'WorkforceRasterGeoreference', 'WorkforceCountInvalid',
   'WorkforceRasterNotCovering', 'WorkforceSharesColumns', 'WorkforceSharesEmpty', 'WorkforceSharesBadValue', 'WorkforceSharesDuplicate',
   'WorkforceSharesRegionUnknown', 'WorkforceSharesClassUnknown', 'WorkforceSharesSum', 'WorkforceSharesMissing', 'WorkforceSharesEvaluation',
@@ -63,6 +64,7 @@ export const DATA_ERRORS: readonly string[] = [
   'ChangeFileNoTemperature', 'ChangeFileNotMonthly', 'ChangeFileHumidityMismatch', 'ChangeFileNotADifference',
   'ChangeGridInvalid', 'ChangeGridNotCovering', 'ChangeValueMissing',
   'TemperatureChangeOutOfRange', 'HumidityChangeOutOfRange', 'SolarChangeOutOfRange',
+  'NetcdfDataUnreadable', 'NetcdfReadStuck', 'NetcdfTimeValueInvalid',
 ];
 
 const USAGE = new Set(USAGE_ERRORS);

@@ -163,7 +163,7 @@ export function explainChange(old: ShardProvenance, now: ShardProvenance): strin
   if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
   if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours)) why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
   if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile)) why.push('the tile holds other cells (grid, mask or tiling changed)');
-  if (JSON.stringify(old.scenario ?? null) !== JSON.stringify(now.scenario)) why.push(describeScenarioChange(old.scenario ?? null, now.scenario));
+  if (JSON.stringify(old.scenario ?? null) !== JSON.stringify(now.scenario ?? null)) why.push(describeScenarioChange(old.scenario ?? null, now.scenario ?? null));
   return why;
 }
 

@@ -88,8 +88,9 @@ describe('the globe diameter', () => {
   });
 
   it('`point --help` names every input column the command reads, and every output column it writes', () => {
-    const src = readFileSync(new URL('../../pipeline/commands/point.ts', import.meta.url), 'utf8');
-    const read = [...src.matchAll(/get\('([a-z_0-9]+)'\)/g)].map((m) => m[1]);
+    // The columns are read in pipeline/physics/point-input.ts (cell, num and flag of a row).
+    const src = readFileSync(new URL('../../pipeline/physics/point-input.ts', import.meta.url), 'utf8');
+    const read = [...src.matchAll(/\b(?:cell|num|flag)\('([a-z_0-9]+)'/g)].map((m) => m[1]);
     expect(read.length).toBeGreaterThan(12);
     for (const c of read) expect(POINT_HELP, c).toContain(c);
     for (const c of ['tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c', 'tpsy_c', 'status']) expect(POINT_HELP).toContain(c);
