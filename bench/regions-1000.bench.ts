@@ -32,7 +32,7 @@ async function inputs(): Promise<string> {
   });
 }
 
-function child(args: string[]): Record<string, number | string> {
+function child(args: string[]): Record<string, unknown> {
   const r = spawnSync(process.execPath, [join(ROOT, 'bench/regions-1000-child.mjs'), ...args], {
     encoding: 'utf8',
     maxBuffer: 1 << 24,
@@ -54,8 +54,8 @@ export const bench: Bench = {
     const dist = join(DIR, 'dist');
     rmSync(out, { recursive: true, force: true });
     rmSync(dist, { recursive: true, force: true });
-    let p: Record<string, number | string>;
-    let s: Record<string, number | string>;
+    let p: Record<string, unknown>;
+    let s: Record<string, unknown>;
     try {
       p = child(['pipeline', config, out, String(jobs)]);
       s = child(['site', out, dist]);
