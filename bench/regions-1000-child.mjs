@@ -29,7 +29,7 @@ if (mode === 'pipeline') {
   const at = (re) => (marks.find(([, m]) => re.test(m))?.[0] ?? NaN) / 1000;
   const h = createHash('sha256');
   const dir = join(b, 'data', 'regions');
-  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv')).sort();
+  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv')).sort();
   for (const f of csvs) h.update(readFileSync(join(dir, f)));
   process.stdout.write(`${JSON.stringify({
     seconds,

@@ -25,7 +25,7 @@ import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
 const N_REGIONS = Number(process.env.HEATHOURS_BENCH_REGIONS ?? 10_000);
-const DIR = join(ROOT, '.cache', 'bench', `regions-${N_REGIONS}`);
+const DIR = join(ROOT, '.cache', 'bench', `site-regions-${N_REGIONS}`);
 /** Rectangles per land-cell side: 41 land cells × 16² = 10,496 ≥ 10,000. */
 const SPLIT = 16;
 
