@@ -11,7 +11,6 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-// @ts-expect-error: plain JavaScript module of the benches, without types
 import { firstViewBytes } from '../../bench/first-view.mjs';
 
 let dist = '';
