@@ -1,12 +1,15 @@
-// Child process of bench/regions-1000.bench.ts. Runs the TypeScript sources through pipeline/infra/ts-boot.mjs.
+// Child process of bench/regions-1000.bench.ts and bench/regions-10000.bench.ts. Runs the TypeScript
+// sources through pipeline/infra/ts-boot.mjs.
 //   node bench/regions-1000-child.mjs pipeline CONFIG OUT JOBS  → `heathours build --data-only`, with the
 //       time of each logged stage
-//   node bench/regions-1000-child.mjs site DATA_DIR DIST        → the Astro site from that data folder
-// Prints one JSON line: wall and CPU seconds (all threads), and details.
+//   node bench/regions-1000-child.mjs site DATA_DIR DIST        → the Astro site from that data folder, with
+//       the first-view bytes of the home, map, downloads and first region page (bench/first-view.mjs)
+// Prints one JSON line: wall and CPU seconds (all threads), peak resident memory, and details.
 import '../pipeline/infra/ts-boot.mjs';
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
+import { firstViewBytes } from './first-view.mjs';
 
 const [mode, a, b, jobs] = process.argv.slice(2);
 const t0 = performance.now();
@@ -26,7 +29,7 @@ if (mode === 'pipeline') {
   const at = (re) => (marks.find(([, m]) => re.test(m))?.[0] ?? NaN) / 1000;
   const h = createHash('sha256');
   const dir = join(b, 'data', 'regions');
-  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv')).sort();
+  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv')).sort();
   for (const f of csvs) h.update(readFileSync(join(dir, f)));
   process.stdout.write(`${JSON.stringify({
     seconds,
@@ -35,6 +38,11 @@ if (mode === 'pipeline') {
     computeSeconds: report.computeSeconds,
     normalsSeconds: at(/^summarising/) - at(/^computed /),
     publishSeconds: seconds - at(/^summarising/),
+    mergeSeconds: report.mergeSeconds,
+    regionSeconds: Number(marks.map(([, m]) => /region\(s\): tables, summaries and calculator tiles in ([\d.]+) s/.exec(m)?.[1]).find((x) => x !== undefined) ?? NaN),
+    layersSeconds: at(/map layers drawn/) - (at(/region\(s\): tables/) || NaN),
+    inventorySeconds: seconds - at(/^summarising/),
+    peakRssMB: process.resourceUsage().maxRSS / 1024,
     regions: csvs.length,
     cellHours: report.cellHours,
     checksum: h.digest('hex').slice(0, 16),
@@ -46,7 +54,8 @@ if (mode === 'pipeline') {
   const pages = readdirSync(join(b, 'regions')).filter((d) => statSync(join(b, 'regions', d, 'index.html'), { throwIfNoEntry: false }));
   const biggest = Math.max(...pages.map((d) => statSync(join(b, 'regions', d, 'index.html')).size));
   const h = createHash('sha256').update(readFileSync(join(b, 'index.html')));
-  process.stdout.write(`${JSON.stringify({ seconds, cpuSeconds: cpu(), regionPages: pages.length, largestRegionHtmlBytes: biggest, homeBytes: statSync(join(b, 'index.html')).size, homeChecksum: h.digest('hex').slice(0, 16) })}\n`);
+  const view = Object.fromEntries([['home', ''], ['map', 'map/'], ['downloads', 'downloads/'], ['region', `regions/${pages.sort()[0]}/`]].map(([k, p]) => [k, firstViewBytes(b, p)]));
+  process.stdout.write(`${JSON.stringify({ seconds, cpuSeconds: cpu(), peakRssMB: process.resourceUsage().maxRSS / 1024, regionPages: pages.length, largestRegionHtmlBytes: biggest, homeBytes: statSync(join(b, 'index.html')).size, homeChecksum: h.digest('hex').slice(0, 16), view })}\n`);
 } else {
   process.stderr.write(`unknown mode ${mode}\n`);
   process.exit(2);

@@ -10,79 +10,29 @@
  * inputs are written once to .cache/bench/regions-1000 and are not timed.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, rmSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { writeDemoDataset } from '../pipeline/demo/index.ts';
-import { makeCellClimate } from '../pipeline/demo/cell-climate.ts';
-import { SMALL_GRID, placeGrid } from '../pipeline/demo/territory.ts';
+import { BENCH_YEARS as YEARS, rectangleRegions, writeRegionBenchInputs } from './rectangle-regions.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
 const DIR = join(ROOT, '.cache', 'bench', 'regions-1000');
-const YEARS = [2021, 2022, 2023];
 const N_REGIONS = 1000;
 /** Rectangles per land-cell side. */
 const SPLIT = 5;
 
-/** 1,000 rectangles inside land cells (land fraction ≥ 0.5, the config's threshold), RFC 7946 rings. */
-export function rectangleRegions(): string {
-  const grid = placeGrid(SMALL_GRID);
-  const cc = makeCellClimate(grid);
-  const r = SMALL_GRID.resolution;
-  const features: unknown[] = [];
-  for (let c = 0; c < cc.nCells && features.length < N_REGIONS; c++) {
-    if (cc.landFraction[c] < 0.5) continue;
-    const w0 = cc.lon[c] - r / 2;
-    const s0 = cc.lat[c] - r / 2;
-    const d = r / SPLIT;
-    for (let i = 0; i < SPLIT && features.length < N_REGIONS; i++) {
-      for (let j = 0; j < SPLIT && features.length < N_REGIONS; j++) {
-        // Inset a little so no rectangle touches a cell edge or its neighbour.
-        const w = +(w0 + j * d + d * 0.05).toFixed(4);
-        const e = +(w0 + (j + 1) * d - d * 0.05).toFixed(4);
-        const s = +(s0 + i * d + d * 0.05).toFixed(4);
-        const n = +(s0 + (i + 1) * d - d * 0.05).toFixed(4);
-        const k = features.length + 1;
-        features.push({
-          type: 'Feature',
-          properties: { id: `r${String(k).padStart(4, '0')}`, name: `Bench region ${k} (invented)` },
-          geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] },
-        });
-      }
-    }
-  }
-  if (features.length < N_REGIONS) throw new Error(`only ${features.length} rectangles fit the land cells`);
-  return JSON.stringify({ type: 'FeatureCollection', features });
-}
-
 async function inputs(): Promise<string> {
-  const data = join(DIR, 'data');
-  if (!YEARS.every((y) => existsSync(join(data, `era5-demo-${y}.nc`)))) {
-    await writeDemoDataset({ outDir: data, years: YEARS, layout: 'mixed', grid: 'small', quiet: true });
-  }
-  mkdirSync(join(DIR, 'regions'), { recursive: true });
-  writeFileSync(join(DIR, 'regions', 'bench-regions.geojson'), rectangleRegions());
-  const config = join(DIR, 'atlas.yaml');
-  writeFileSync(config, `id: bench-1000
-title: Benchmark atlas of 1,000 regions (invented data)
-dataset:
-  files: [data/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [${YEARS[0]}, ${YEARS[YEARS.length - 1]}]
-baseline: [2021, 2022]
-timeZone: Etc/GMT+10
-regions: regions
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
-  return config;
+  return writeRegionBenchInputs(DIR, {
+    id: 'bench-1000',
+    title: 'Benchmark atlas of 1,000 regions (invented data)',
+    regions: rectangleRegions(N_REGIONS, SPLIT),
+    classesFile: join(ROOT, 'content/workload-classes.yaml'),
+  });
 }
 
-function child(args: string[]): Record<string, number | string> {
+function child(args: string[]): Record<string, unknown> {
   const r = spawnSync(process.execPath, [join(ROOT, 'bench/regions-1000-child.mjs'), ...args], {
     encoding: 'utf8',
     maxBuffer: 1 << 24,
@@ -104,8 +54,8 @@ export const bench: Bench = {
     const dist = join(DIR, 'dist');
     rmSync(out, { recursive: true, force: true });
     rmSync(dist, { recursive: true, force: true });
-    let p: Record<string, number | string>;
-    let s: Record<string, number | string>;
+    let p: Record<string, unknown>;
+    let s: Record<string, unknown>;
     try {
       p = child(['pipeline', config, out, String(jobs)]);
       s = child(['site', out, dist]);

@@ -99,6 +99,13 @@ export const atlasSchema = z
     output: z.string().default('../dist'),
     /** How the site is hosted: `base`, the URL path it is served under (default `/`). */
     site: z.object({ base: siteBaseSchema.default('/') }).strict().default({}),
+    /**
+     * Whether each region gets its .xlsx workbook (`data/regions/<id>.xlsx`, exceljs): about
+     * 0.035 s of CPU per region, 350 s for 10,000 regions, more than the rest of a region's files
+     * together (measured in bench/regions-10000.bench.ts). `false` leaves them out; the tidy and
+     * wide CSVs carry the same figures.
+     */
+    regionWorkbooks: z.boolean().default(true),
     /** Modelling choices of the physics: the globe diameter (pipeline/physics/settings.ts). */
     physics: physicsSettingsSchema,
     /** What to evaluate: workload classes, limits, exposures, clothing, shift (pipeline/work/work-settings.ts). */

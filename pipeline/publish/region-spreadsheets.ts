@@ -114,11 +114,15 @@ export function regionWorkbookSheets(region: { id: string; name: string }, table
   ];
 }
 
-/** Writes `<id>.wide.csv` and `<id>.xlsx` under `dataDir/regions/` from the region's tidy CSV text. */
-export async function writeRegionSpreadsheets(dataDir: string, region: { id: string; name: string }, tidy: string, info: RegionSheetInfo): Promise<void> {
+/**
+ * Writes `<id>.wide.csv` and, unless `workbook` is false (config `regionWorkbooks`), `<id>.xlsx`
+ * under `dataDir/regions/` from the region's tidy CSV text.
+ */
+export async function writeRegionSpreadsheets(dataDir: string, region: { id: string; name: string }, tidy: string, info: RegionSheetInfo, workbook = true): Promise<void> {
   const tables = regionWideTables(tidy, info.figureLabels);
   const hours = tables.find((t) => t.unit === 'h');
   if (hours) await writeFileAtomic(join(dataDir, regionWidePath(region.id)), wideCsv(hours));
+  if (!workbook) return;
   const bytes = await workbookBytes(regionWorkbookSheets(region, tables, info), { title: `${info.atlasTitle}: ${region.name}`, created: new Date(info.buildTime) });
   await writeFileAtomic(join(dataDir, regionWorkbookPath(region.id)), bytes);
 }

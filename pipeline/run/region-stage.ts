@@ -123,7 +123,7 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
     }
     const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear);
     writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
-    await writeRegionSpreadsheets(dataDir, region, table, workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo);
+    await writeRegionSpreadsheets(dataDir, region, table, workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo, cfg.regionWorkbooks);
     // Mean annual temperature against the niche.
     const [mat, latest] = weightedMeans(means, 2);
     writeFileSync(

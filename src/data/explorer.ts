@@ -1,7 +1,9 @@
 /**
  * The map explorer's catalogue for this build's data folder (lib/explorer-catalogue.ts), read
- * once per build: the manifest's layers, the regions and each layer's value per region. A data
- * folder without a manifest gives an empty catalogue (`available: false`).
+ * once per build: the manifest's layers and the regions; and each layer's value per region
+ * (data/region-values.ts), published one file per layer (`map/values/<n>.json`, pages/map/values/)
+ * so the catalogue the map fetches first does not grow with layers × regions. A data folder
+ * without a manifest gives an empty catalogue (`available: false`) and no values.
  */
 import { loadInventory } from './inventory.ts';
 import { loadManifestLayers } from './manifest-layers.ts';
@@ -12,18 +14,23 @@ import { emptyCatalogue, explorerCatalogue } from '../lib/explorer-catalogue.ts'
 import type { ExplorerCatalogue } from '../components/map/explorer/catalogue.ts';
 
 const cache = new Map<string, ExplorerCatalogue>();
+const valuesCache = new Map<string, Record<string, Array<number | null>>>();
 
 export function loadExplorerCatalogue(dataDir: string = siteDataDir()): ExplorerCatalogue {
   const hit = cache.get(dataDir);
   if (hit) return hit;
   const manifest = loadManifestLayers(dataDir);
-  let catalogue: ExplorerCatalogue;
-  if (!manifest) catalogue = emptyCatalogue(loadInventory(dataDir).atlas.invented);
-  else {
-    const regions = loadRegions(dataDir);
-    const values = regionLayerValues(dataDir, regions.features.map((f) => f.properties.id), manifest.layers);
-    catalogue = explorerCatalogue(manifest, regions, values);
-  }
+  const catalogue = manifest ? explorerCatalogue(manifest, loadRegions(dataDir)) : emptyCatalogue(loadInventory(dataDir).atlas.invented);
   cache.set(dataDir, catalogue);
   return catalogue;
+}
+
+/** Layer id → value per region, in the order of the catalogue's regions; null where a region has none. Read once per build. */
+export function loadExplorerValues(dataDir: string = siteDataDir()): Record<string, Array<number | null>> {
+  const hit = valuesCache.get(dataDir);
+  if (hit) return hit;
+  const manifest = loadManifestLayers(dataDir);
+  const values = manifest ? regionLayerValues(dataDir, loadExplorerCatalogue(dataDir).regions.map((r) => r.id), manifest.layers) : {};
+  valuesCache.set(dataDir, values);
+  return values;
 }

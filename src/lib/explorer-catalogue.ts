@@ -1,6 +1,6 @@
 /**
  * Builds the map explorer's catalogue (components/map/explorer/catalogue.ts) from the manifest's
- * layers, the regions and their values: our plain labels for each figure and choice, the layers
+ * layers and the regions: our plain labels for each figure and choice, the layers
  * with the choices that pick them, the legends (each once), and the default view. Pure.
  */
 import type { RegionCollection } from '../data/regions.ts';
@@ -107,19 +107,17 @@ export function emptyCatalogue(invented: boolean): ExplorerCatalogue {
     legends: [],
     layers: [],
     regions: [],
-    regionValues: {},
     defaults: { figure: '', view: {}, statistic: '', period: '' },
   };
 }
 
-export function explorerCatalogue(
-  manifest: ManifestLayers,
-  regions: RegionCollection,
-  regionValues: Record<string, Array<number | null>>,
-): ExplorerCatalogue {
+/** Path below the site's base of the values file of the catalogue's `index`-th layer. */
+export const layerValuesPath = (index: number) => `map/values/${index}.json`;
+
+export function explorerCatalogue(manifest: ManifestLayers, regions: RegionCollection): ExplorerCatalogue {
   const legendIndex = new Map<string, number>();
   const legends: ExplorerLegend[] = [];
-  const layers: ExplorerLayer[] = manifest.layers.map((l) => {
+  const layers: ExplorerLayer[] = manifest.layers.map((l, index) => {
     const k = JSON.stringify(l.legend);
     let li = legendIndex.get(k);
     if (li === undefined) {
@@ -137,6 +135,7 @@ export function explorerCatalogue(
       images: l.mapImages.map((m) => ({ path: m.path, coordinates: m.coordinates })),
       legend: li,
       tif: l.tif,
+      values: layerValuesPath(index),
     };
   });
 
@@ -195,7 +194,6 @@ export function explorerCatalogue(
     legends,
     layers,
     regions: regionList,
-    regionValues,
     defaults,
   };
 }

@@ -46,6 +46,12 @@ describe('atlas configuration', () => {
     expect(parseConfig(demoText, 'a.yaml').shards).toEqual({ cellsPerTile: 1024, cellsPerBlock: 1024, monthsPerPiece: 3 });
   });
 
+  it('regionWorkbooks is a boolean, true by default; "no" is a ConfigInvalid error naming regionWorkbooks', () => {
+    expect(parseConfig(demoText, 'a.yaml').regionWorkbooks).toBe(true);
+    expect(parseConfig(demoText + '\nregionWorkbooks: false\n', 'a.yaml').regionWorkbooks).toBe(false);
+    expectError(() => parseConfig(demoText + '\nregionWorkbooks: "no"\n', 'a.yaml'), 'ConfigInvalid', /regionWorkbooks: /);
+  });
+
   it('broken YAML is a ConfigSyntax error', () => {
     expectError(() => parseConfig('id: [unclosed\n', 'a.yaml'), 'ConfigSyntax');
   });

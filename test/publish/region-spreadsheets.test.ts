@@ -14,6 +14,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from '../site/pipeline-data.ts';
 import { splitCsvRecord } from '../../pipeline/formats/csv.ts';
 import { regionWideTables } from '../../pipeline/publish/region-wide-table.ts';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { writeRegionSpreadsheets, type RegionSheetInfo } from '../../pipeline/publish/region-spreadsheets.ts';
 
 const run = promisify(execFile);
 let dataDir = '';
@@ -112,5 +115,34 @@ describe('region spreadsheets', () => {
     expect(h.rows[0].yearsUsed).toBe(2);
     expect(c.unit).toBe('degC');
     expect(c.header[7]).toBe('Jan [°C]');
+  });
+
+  it('a quoted line (a label with a comma) gives the same wide row as the same line split directly, as RFC 4180 reads it', () => {
+    const head = 'region_id,period,figure,workload_class,acclimatization,exposure,method,statistic,value,unit,years_used,baseline\n';
+    const plain = regionWideTables(head + 'x,01,hours-lost-shift,low,acclimatized,sun,limit,mean,1.5,h,3,2001-2003\n', new Map());
+    const quoted = regionWideTables(head + '"x","01","hours-lost-shift","low","acclimatized","sun","limit","mean","1.5","h","3","2001-2003"\n', new Map());
+    expect(quoted).toEqual(plain);
+    const comma = regionWideTables(head + 'x,01,hours-lost-shift,"low, light",acclimatized,sun,limit,mean,2,h,3,2001-2003\n', new Map());
+    expect(comma[0].rows[0].keys[2]).toBe('low, light');
+    expect(comma[0].rows[0].values[0]).toBe(2);
+  });
+
+  it('with regionWorkbooks false (config), a region gets its wide CSV and no workbook; with the default it gets both', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'hh-wb-'));
+    try {
+      const text = readFileSync(join(dataDir, 'data/regions', 'sollent-coast.csv'), 'utf8');
+      const info: RegionSheetInfo = {
+        atlasTitle: 'Test atlas (invented data)', invented: true, attribution: '', buildTime: '2026-01-01T00:00:00.000Z', codeVersion: 't', configDigest: 'c', inputFiles: 1,
+        years: [2021, 2023], baseline: [2021, 2022], timeZone: 'Etc/GMT+10', work: [], classes: [], figureLabels: new Map(), statistics: {}, cautions: [],
+      };
+      await writeRegionSpreadsheets(dir, { id: 'a', name: 'A' }, text, info, false);
+      expect(existsSync(join(dir, 'regions/a.wide.csv'))).toBe(true);
+      expect(existsSync(join(dir, 'regions/a.xlsx'))).toBe(false);
+      await writeRegionSpreadsheets(dir, { id: 'b', name: 'B' }, text, info);
+      expect(existsSync(join(dir, 'regions/b.wide.csv'))).toBe(true);
+      expect(existsSync(join(dir, 'regions/b.xlsx'))).toBe(true);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -30,12 +30,14 @@ import { expectCatalogued } from '../helpers/catalogued.ts';
 
 let dataDir = '';
 let catalogue: ExplorerCatalogue;
+let values: Record<string, Array<number | null>>;
 
 beforeAll(async () => {
   dataDir = (await buildPipelineData()).dataDir;
   const manifest = loadManifestLayers(dataDir)!;
   const regions = loadRegions(dataDir);
-  catalogue = explorerCatalogue(manifest, regions, regionLayerValues(dataDir, regions.features.map((f) => f.properties.id), manifest.layers));
+  catalogue = explorerCatalogue(manifest, regions);
+  values = regionLayerValues(dataDir, catalogue.regions.map((r) => r.id), manifest.layers);
 }, 300_000);
 
 describe('the explorer catalogue of a real pipeline build', () => {
@@ -52,6 +54,11 @@ describe('the explorer catalogue of a real pipeline build', () => {
     expect(catalogue.legends.length).toBeLessThan(manifest.layers.length / 5);
   });
 
+  it('names one values file per layer (map/values/<n>.json, n its place in the catalogue) and carries no value per region itself, so it does not grow with layers × regions', () => {
+    expect(catalogue.layers.map((l) => l.values)).toEqual(catalogue.layers.map((_, i) => `map/values/${i}.json`));
+    expect(JSON.stringify(catalogue)).not.toMatch(/regionValues/);
+  });
+
   it("gives each region the value of its region table's row for the layer, and the niche figures of its summary", () => {
     const ids = catalogue.regions.map((r) => r.id);
     let compared = 0;
@@ -59,7 +66,7 @@ describe('the explorer catalogue of a real pipeline build', () => {
       const rows = parseCsvObjects(readFileSync(join(dataDir, `data/regions/${id}.csv`), 'utf8'));
       const summary = JSON.parse(readFileSync(join(dataDir, `data/regions/${id}.json`), 'utf8'));
       for (const layer of catalogue.layers) {
-        const got = catalogue.regionValues[layer.id][r];
+        const got = values[layer.id][r];
         if (layer.figure === 'mean-annual-temperature') expect(got).toBe(summary.niche.baselineMat);
         else if (layer.figure === 'niche-class') expect(got).toBe(['core', 'second', 'margin', 'outside'].indexOf(summary.niche.baselineClass));
         else {

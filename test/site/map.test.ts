@@ -557,6 +557,30 @@ describe('the map page', () => {
     expect(await page.textContent('#map-legend .legend-unit')).toBe(' [°C]');
   });
 
+  it("rewrites the region table for another layer from that layer's values file, each value its region table's row (the region CSVs)", async () => {
+    const { page } = await session.open('/map/');
+    await page.waitForSelector(`#${MAP}[data-map-state="idle"]`);
+    const fetched: string[] = [];
+    page.on('request', (r) => {
+      if (r.url().includes('/map/values/')) fetched.push(new URL(r.url()).pathname);
+    });
+    await choose(page, 'figure', 'hours-above-limit-shift');
+    await choose(page, 'workloadClass', 'high');
+    await choose(page, 'statistic', 'p90');
+    await choose(page, 'period', '08');
+    const layer = findLayer('hours-above-limit-shift', 'high.acclimatized.sun', 'p90', '08');
+    await waitForLayer(page, layer.id);
+    expect(await page.getAttribute('#region-values', 'data-layer-id')).toBe(layer.id);
+    expect(fetched).toContain(`/map/values/${manifest.layers.findIndex((l) => l.id === layer.id)}.json`);
+    const rows = await page.$$eval('#region-values tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-region-id')!, value: tr.querySelector('td[data-key="value"]')!.getAttribute('data-value') ?? '' })));
+    expect(rows.length).toBe(regionsGeo.features.length);
+    for (const r of rows) {
+      const csv = parseCsv(read(`data/regions/${r.id}.csv`).toString('utf8'));
+      const row = csv.find((x) => x.period === '08' && x.figure === 'hours-above-limit-shift' && x.workload_class === 'high' && x.acclimatization === 'acclimatized' && x.exposure === 'sun' && x.method === 'limit' && x.statistic === 'p90')!;
+      expect(r.value === '' ? '' : Number(r.value), r.id).toBe(row.value === '' ? '' : Number(row.value));
+    }
+  });
+
   it('without JavaScript says the map needs it and still lists each region with its value and links', async () => {
     const { page } = await session.open('/map/', { javaScript: false });
     expect(await page.isVisible('[data-no-js-note]')).toBe(true);

@@ -43,6 +43,12 @@ export interface ExplorerLayer {
   legend: number;
   /** Path of the GeoTIFF below the site's base (for download). */
   tif: string;
+  /**
+   * Path below the site's base of the layer's value per region (`map/values/<n>.json`: a JSON
+   * array in the order of {@link ExplorerCatalogue.regions}, null where a region has none),
+   * fetched when the layer is shown, so the catalogue does not grow with layers × regions.
+   */
+  values: string;
 }
 
 export interface ExplorerFigure {
@@ -94,8 +100,6 @@ export interface ExplorerCatalogue {
   legends: ExplorerLegend[];
   layers: ExplorerLayer[];
   regions: ExplorerRegion[];
-  /** Layer id → value per region (order of {@link regions}); null where the region has none. */
-  regionValues: Record<string, Array<number | null>>;
   /** The view shown when the URL asks for nothing. */
   defaults: { figure: string; view: LayerView; statistic: string; period: string };
 }

@@ -130,6 +130,18 @@ async function start(root: HTMLElement): Promise<void> {
     status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
   }
 
+  // Each layer's value per region, fetched when the layer is first shown (map/values/<n>.json).
+  const valueFiles = new Map<string, Promise<Array<number | null>>>();
+  let shownValues: { id: string; values: Array<number | null> } | undefined;
+  function regionValuesOf(l: ExplorerLayer): Promise<Array<number | null>> {
+    let p = valueFiles.get(l.id);
+    if (!p) {
+      p = fetchJson<Array<number | null>>(sitePath(base, l.values));
+      valueFiles.set(l.id, p);
+    }
+    return p;
+  }
+
   // The range shown before the current layer's, for the legend's "the range changed" note.
   let rangeBefore: ShownRange | undefined;
   let rangeNow: ShownRange | undefined;
@@ -158,7 +170,7 @@ async function start(root: HTMLElement): Promise<void> {
     a.setAttribute('download', '');
     tif.append(a);
     legendBox.append(tif);
-    if (regionTable) updateRegionTable(regionTable, catalogue, layer, unit);
+    if (regionTable && shownValues?.id === layer.id) updateRegionTable(regionTable, catalogue, layer, unit, shownValues.values);
     map.getCanvas().setAttribute('aria-label', `Map: ${describeLayerLine(catalogue, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`);
     renderPanel();
   }
@@ -182,7 +194,15 @@ async function start(root: HTMLElement): Promise<void> {
     if (!changed && mapBox.dataset.layerId === next.id) return;
     const token = ++drawToken;
     mapBox.dataset.mapState = 'loading';
-    const current = await explorer.showLayer(next);
+    // The region table's values come with the layer: the map is idle when both are shown.
+    const values = regionTable
+      ? regionValuesOf(next).then((v) => {
+          if (layer !== next) return;
+          shownValues = { id: next.id, values: v };
+          updateRegionTable(regionTable, catalogue, next, currentUnit(), v);
+        })
+      : Promise.resolve();
+    const [current] = await Promise.all([explorer.showLayer(next), values]);
     if (current && token === drawToken) {
       mapBox.dataset.layerId = next.id;
       mapBox.dataset.mapState = 'idle';
