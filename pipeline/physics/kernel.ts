@@ -154,9 +154,10 @@ const XS = new Float64Array(4);
  * @param inputs per cell-hour inputs (units on {@link WbgtInputs})
  * @param outputs per cell-hour outputs [°C] and status
  * @param globe globe diameter factors ({@link globeFactors}); default the reference 2-inch globe
+ * @param choice the implementation ({@link KernelChoice}); default `auto`
  */
-export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE): KernelCounts {
-  const wasm = end - start >= WASM_MIN_CELLS && outputs.wbgtShelter === undefined && outputs.psychrometric === undefined && typedInputs(inputs) ? wasmKernel() : null;
+export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE, choice: KernelChoice = 'auto'): KernelCounts {
+  const wasm = choice === 'auto' && end - start >= WASM_MIN_CELLS && outputs.wbgtShelter === undefined && outputs.psychrometric === undefined && typedInputs(inputs) ? wasmKernel() : null;
   if (wasm === null) return wbgtKernelJs(inputs, outputs, end, start, globe);
   const counts = emptyCounts();
   // The cells the module hands back go through the JavaScript kernel, one at a time.
@@ -172,6 +173,15 @@ export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number
   it.wetBulbShade += w.itWetBulbShade;
   return counts;
 }
+
+/**
+ * Which implementation {@link wbgtKernel} runs: `auto`, the WebAssembly module (./wbgt-wasm.ts)
+ * where the runtime has WebAssembly SIMD and the call fits it (typed inputs, no shelter or
+ * psychrometric output, 8 cells or more), else the JavaScript kernel; `js`, the JavaScript
+ * kernel only (the benchmarks' before figure, and the tests' reference). Both give the same
+ * doubles (test/physics/wasm-kernel.test.ts).
+ */
+export type KernelChoice = 'auto' | 'js';
 
 /** Below this many cells the module's chunk copies are not worth it [–] (one `point` row). */
 const WASM_MIN_CELLS = 8;

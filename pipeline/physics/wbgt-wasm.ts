@@ -35,7 +35,7 @@ const CONSTANTS: readonly number[] = [
 ];
 
 /** Inputs the module reads, outputs it writes (each `CHUNK` doubles), counts it adds to. */
-interface WasmKernel {
+export interface WasmKernel {
   /** Runs the module on the chunk's first n cells; returns how many cells (with an odd n's pad) it handed back. */
   run(n: number, cg0: number, invEgSb: number, in32: boolean, out32: boolean): number;
   inputs: Float64Array[];
@@ -53,12 +53,22 @@ interface WasmKernel {
 
 let instance: WasmKernel | null | undefined;
 
-/** The module, instantiated once per thread; null where WebAssembly SIMD is not available. */
+/** The module, instantiated once per thread ({@link loadWasmKernel}); null where WebAssembly SIMD is not available. */
 export function wasmKernel(): WasmKernel | null {
-  if (instance !== undefined) return instance;
+  if (instance === undefined) instance = loadWasmKernel();
+  return instance;
+}
+
+/**
+ * Compiles and instantiates the module with `wasm` (the runtime's WebAssembly namespace) and lays
+ * out its memory. Returns null when that fails: no WebAssembly (`wasm` null), or a runtime whose compiler
+ * rejects the SIMD instructions (a CompileError), so the caller runs the JavaScript kernel.
+ */
+export function loadWasmKernel(wasm: typeof WebAssembly | null = globalThis.WebAssembly ?? null): WasmKernel | null {
+  if (wasm === null) return null;
   try {
     const bytes = Uint8Array.from(atob(WBGT_WASM_BASE64), (c) => c.charCodeAt(0));
-    const inst = new WebAssembly.Instance(new WebAssembly.Module(bytes), {});
+    const inst = new wasm.Instance(new wasm.Module(bytes), {});
     const ex = inst.exports as { memory: WebAssembly.Memory; layout: (...a: number[]) => void; run: (n: number, io: number, cap: number, cg0: number, invEgSb: number, in32: number, out32: number) => number };
     // Layout from 64 KiB (the module keeps its scratch below): constants, the five tables, then
     // the chunk's inputs, status, flags, outputs, counts, single-precision inputs and outputs.
@@ -82,7 +92,7 @@ export function wasmKernel(): WasmKernel | null {
     const pOut = pStatus + 2 * CHUNK;
     const pIn32 = pOut + 6 * 8 * CHUNK + 64;
     const pOut32 = pIn32 + 7 * 4 * CHUNK;
-    instance = {
+    return {
       run: (n, cg0, invEgSb, in32, out32) => ex.run(n, io, CHUNK, cg0, invEgSb, in32 ? 1 : 0, out32 ? 1 : 0),
       inputs: [0, 1, 2, 3, 4, 5, 6].map(f64),
       inputs32: [0, 1, 2, 3, 4, 5, 6].map((k) => new Float32Array(buf, pIn32 + 4 * CHUNK * k, CHUNK)),
@@ -93,9 +103,8 @@ export function wasmKernel(): WasmKernel | null {
       counts: new Float64Array(buf, pOut + 6 * 8 * CHUNK, 8),
     };
   } catch {
-    instance = null;
+    return null;
   }
-  return instance;
 }
 
 /** Inputs of the WebAssembly path: typed arrays only (./kernel.ts `WbgtInputs`). */
