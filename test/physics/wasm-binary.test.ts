@@ -18,6 +18,6 @@ describe('the committed WebAssembly kernel', () => {
     expect(readFileSync(packagePath(WASM_MODULE), 'utf8')).toBe(binaryModule(fresh));
     // A WebAssembly module (magic and version 1) that this runtime validates.
     expect([...committed.subarray(0, 8)]).toEqual([0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00]);
-    expect(WebAssembly.validate(committed)).toBe(true);
+    expect(WebAssembly.validate(new Uint8Array(committed))).toBe(true);
   }, 300_000);
 });

@@ -21,7 +21,9 @@ import { rng, state } from './stratified-states.ts';
 type Arr = Float32Array | Float64Array;
 const FIELDS = ['wbgtSun', 'wbgtShade', 'globeSun', 'wetBulbSun', 'globeShade', 'wetBulbShade'] as const;
 
-function outputs(n: number, kind: 'f32' | 'f64'): WbgtOutputs & Record<(typeof FIELDS)[number], Arr> {
+type Outputs = WbgtOutputs & Record<(typeof FIELDS)[number], Arr>;
+
+function outputs(n: number, kind: 'f32' | 'f64'): Outputs {
   const a = () => (kind === 'f32' ? new Float32Array(n) : new Float64Array(n));
   return { wbgtSun: a(), wbgtShade: a(), globeSun: a(), wetBulbSun: a(), globeShade: a(), wetBulbShade: a(), status: new Uint8Array(n) };
 }
@@ -35,7 +37,7 @@ function inputsOf(states: ReturnType<typeof state>[], kind: 'f32' | 'f64'): Wbgt
 }
 
 /** Number of cells whose outputs or status differ (Object.is: NaN equals NaN, -0 differs from 0). */
-function differences(a: WbgtOutputs & Record<string, Arr>, b: WbgtOutputs & Record<string, Arr>, n: number): number {
+function differences(a: Outputs, b: Outputs, n: number): number {
   let d = 0;
   for (let i = 0; i < n; i++) {
     let same = a.status[i] === b.status[i];
