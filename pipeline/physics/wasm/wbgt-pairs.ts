@@ -6,9 +6,9 @@
  * The same computation as the fused JavaScript kernel (../kernel.ts), cell by cell, with the same
  * operations in the same order (no fused multiply-add exists in WebAssembly's SIMD), so each
  * result is the same double: the Liljegren et al. 2008 globe and natural wet-bulb balances
- * (METHODS.md §3.2.4, §3.2.5) in the shade and the sun, solved by Newton from the same first
+ * (docs/methods.md §6.5, §6.6, §6.7) in the shade and the sun, solved by Newton from the same first
  * guesses, with the same cubic Hermite table reads (../property-tables.ts), and
- * WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta (ISO 7243, METHODS.md §3.1). Two cells at once in the two
+ * WBGT = 0.7·Tnw + 0.2·Tg + 0.1·Ta (ISO 7243, docs/methods.md §6.1). Two cells at once in the two
  * lanes of an f64x2: while one lane still iterates, the other's converged root stays put.
  *
  * Only the regular path is here. A cell leaves it (flag 1, its outputs left to the caller,
