@@ -15,6 +15,7 @@ import { startPhysicsPool, type PoolRun } from '../pipeline/run/physics-pool.ts'
 import { sharedFloat32, sharedUint8 } from '../pipeline/infra/shared-memory.ts';
 import { threadCpuNs } from '../pipeline/infra/thread-cpu.ts';
 import { cosZenithInstant } from '../pipeline/physics/solar-position.ts';
+import { wasmKernel } from '../pipeline/physics/wbgt-wasm.ts';
 
 const NT = 100;
 const NY = 100;
@@ -83,23 +84,37 @@ export const bench: Bench = {
     // Warm-up: the whole block once, so the timed runs see compiled code (TurboFan compiles on
     // background threads, which process-wide CPU time would otherwise count).
     computeHours(a, 0, NT);
+    a.status.fill(0);
+    computeHours(a, 0, NT, { kernel: 'js' });
+    // Timed runs alternate the JavaScript kernel (the before figure) and the default kernel
+    // (the WebAssembly module where available), so both see the same load of the shared machine.
     const walls: number[] = [];
     const cpus: number[] = [];
+    const jsWalls: number[] = [];
+    const jsCpus: number[] = [];
     let c = computeHours(a, 0, 0);
+    let sumJs = 0;
     for (let r = 0; r < REPS; r++) {
-      a.status.fill(0);
-      const p0 = process.cpuUsage();
-      const c0 = threadCpuNs();
-      const t0 = performance.now();
-      c = computeHours(a, 0, NT);
-      walls.push(performance.now() - t0);
-      const thread = threadCpuNs() - c0;
-      const p1 = process.cpuUsage(p0);
-      cpus.push(Number.isFinite(thread) ? thread : (p1.user + p1.system) * 1e3);
+      for (const kernel of ['js', 'auto'] as const) {
+        a.status.fill(0);
+        const p0 = process.cpuUsage();
+        const c0 = threadCpuNs();
+        const t0 = performance.now();
+        c = computeHours(a, 0, NT, { kernel });
+        const wall = performance.now() - t0;
+        const thread = threadCpuNs() - c0;
+        const p1 = process.cpuUsage(p0);
+        const cpu = Number.isFinite(thread) ? thread : (p1.user + p1.system) * 1e3;
+        (kernel === 'js' ? jsWalls : walls).push(wall);
+        (kernel === 'js' ? jsCpus : cpus).push(cpu);
+        if (kernel === 'js') sumJs = checksum(a);
+      }
     }
     const ms1 = Math.min(...walls);
     const cpu1 = Math.min(...cpus);
     const sum1 = checksum(a);
+    const msJs = Math.min(...jsWalls);
+    const cpuJs = Math.min(...jsCpus);
     const s = c.solved || 1;
     const single = (ms1 * 1e6) / n;
     const perCell = (v: number) => +(v / n).toFixed(1);
@@ -114,6 +129,13 @@ export const bench: Bench = {
       meanIterGlobeSun: +(c.iterations.globeSun / s).toFixed(3), meanIterWetBulbSun: +(c.iterations.wetBulbSun / s).toFixed(3),
       iterNote: 'evaluations per cell-hour; sun solves are skipped (0) where the solar load is zero, as sun = shade there',
       checksum: sum1,
+      kernel: wasmKernel() ? 'WebAssembly SIMD module (pipeline/physics/wbgt-wasm.ts)' : 'JavaScript (WebAssembly SIMD unavailable)',
+      jsKernelNsPerCellHour: +((msJs * 1e6) / n).toFixed(1),
+      jsKernelCpuNsPerCellHour: perCell(cpuJs),
+      speedupOverJs: +(msJs / ms1).toFixed(2),
+      cpuSpeedupOverJs: +(cpuJs / cpu1).toFixed(2),
+      jsNote: 'the JavaScript kernel (computeHours kernel: js, the kernel before the WebAssembly module), timed in the same run, runs alternating',
+      checksumMatchesJs: sumJs === sum1,
     };
     if (!only || only === 'wbgt-kernel') figs.push({ bench: 'wbgt-kernel', value: +single.toFixed(1), unit: 'ns/cell-hour', ...details });
     if (!only || only === 'wbgt-kernel-parallel') {

@@ -8,7 +8,7 @@
 import type { HourlyBlock } from '../model/fields.ts';
 import { geometryBlock, type CosineConvention } from './geometry.ts';
 import { wind2mStep } from './wind.ts';
-import { wbgtKernel, REFERENCE_GLOBE, type KernelCounts } from './kernel.ts';
+import { wbgtKernel, REFERENCE_GLOBE, type KernelCounts, type KernelChoice } from './kernel.ts';
 import { globeFactors } from './liljegren-solve.ts';
 
 type Num = Float32Array | Float64Array;
@@ -61,6 +61,8 @@ export interface PhysicsOptions {
   windHeight?: number;
   /** Globe diameter [m] (`physics.globeDiameter`); default the reference implementation's 2 in. */
   globeDiameter?: number;
+  /** WBGT kernel implementation (kernel.ts `KernelChoice`), default `auto`; `js` for the benchmarks' before figure. */
+  kernel?: KernelChoice;
 }
 
 /** Counts of one physics run. */
@@ -107,6 +109,7 @@ export function computeHours(a: PhysicsArrays, t0: number, t1: number, opts: Phy
     i1 - i0,
     0,
     opts.globeDiameter === undefined ? REFERENCE_GLOBE : globeFactors(opts.globeDiameter),
+    opts.kernel,
   );
   return { ...k, timeOutOfRange: g.timeOutOfRange };
 }

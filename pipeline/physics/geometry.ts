@@ -74,6 +74,10 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
   const CZ = out.cosZenith;
   const SU = out.solar;
   const FD = out.directFraction;
+  // Imported constants copied into locals: the per-cell loop then reads no module binding (under
+  // the TypeScript loader of the tests and benchmarks each such read is a getter call).
+  const czMin = CZA_MIN;
+  const clearMax = NORMSOLAR_MAX;
   let bad = 0;
   for (let t = 0; t < nT; t++) {
     const base = t * nCells;
@@ -116,14 +120,14 @@ export function geometryBlock(inp: GeometryInputs, out: GeometryOutputs): Geomet
         }
         CZ[i] = cz;
         // The cap and direct fraction (solar-inputs.ts `solarUsed`, inlined: no object per cell).
-        if (!(cz >= CZA_MIN) || !(cToa > 0)) {
+        if (!(cz >= czMin) || !(cToa > 0)) {
           SU[i] = sg;
           FD[i] = 0;
           continue;
         }
         const toa = toa1 * cToa;
         let clear = sg / toa;
-        if (clear > NORMSOLAR_MAX) clear = NORMSOLAR_MAX;
+        if (clear > clearMax) clear = clearMax;
         SU[i] = clear * toa;
         let f = NaN;
         if (direct !== undefined && sg > 0) {

@@ -16,6 +16,7 @@ import {
   ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2, BUCK_T_OFFSET_K,
 } from './property-tables.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
+import { wasmKernel, wasmKernelRange, type WasmInputs } from './wbgt-wasm.ts';
 import { KELVIN, EMIS_SFC, ALB_SFC, ALB_WICK, CZA_MIN, MIN_SPEED, D_GLOBE, EMIS_SHELTER } from './constants.ts';
 
 type Num = Float32Array | Float64Array;
@@ -153,8 +154,49 @@ const XS = new Float64Array(4);
  * @param inputs per cell-hour inputs (units on {@link WbgtInputs})
  * @param outputs per cell-hour outputs [°C] and status
  * @param globe globe diameter factors ({@link globeFactors}); default the reference 2-inch globe
+ * @param choice the implementation ({@link KernelChoice}); default `auto`
  */
-export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE): KernelCounts {
+export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE, choice: KernelChoice = 'auto'): KernelCounts {
+  const wasm = choice === 'auto' && end - start >= WASM_MIN_CELLS && outputs.wbgtShelter === undefined && outputs.psychrometric === undefined && typedInputs(inputs) ? wasmKernel() : null;
+  if (wasm === null) return wbgtKernelJs(inputs, outputs, end, start, globe);
+  const counts = emptyCounts();
+  // The cells the module hands back go through the JavaScript kernel, one at a time.
+  const w = wasmKernelRange(wasm, inputs as WasmInputs, outputs, start, end, globe, (i) => addCounts(counts, wbgtKernelJs(inputs, outputs, i + 1, i, globe)));
+  counts.cells = end - start;
+  counts.ok += w.ok;
+  counts.solved += w.ok;
+  counts.dewPointClamped += w.clamped;
+  const it = counts.iterations;
+  it.globeSun += w.itGlobeSun;
+  it.wetBulbSun += w.itWetBulbSun;
+  it.globeShade += w.itGlobeShade;
+  it.wetBulbShade += w.itWetBulbShade;
+  return counts;
+}
+
+/**
+ * Which implementation {@link wbgtKernel} runs: `auto`, the WebAssembly module (./wbgt-wasm.ts)
+ * where the runtime has WebAssembly SIMD and the call fits it (typed inputs, no shelter or
+ * psychrometric output, 8 cells or more), else the JavaScript kernel; `js`, the JavaScript
+ * kernel only (the benchmarks' before figure, and the tests' reference). Both give the same
+ * doubles (test/physics/wasm-kernel.test.ts).
+ */
+export type KernelChoice = 'auto' | 'js';
+
+/** Below this many cells the module's chunk copies are not worth it [–] (one `point` row). */
+const WASM_MIN_CELLS = 8;
+
+function typedInputs(a: WbgtInputs): boolean {
+  const t = (x: ArrayLike<number>) => x instanceof Float32Array || x instanceof Float64Array;
+  return t(a.airTemperature) && t(a.dewPointTemperature) && t(a.surfacePressure) && t(a.wind2m) && t(a.solar) && t(a.cosZenith) && t(a.directFraction);
+}
+
+/**
+ * The JavaScript kernel: every case (shelter, psychrometric, rejected inputs, safeguarded
+ * steps). {@link wbgtKernel} runs the WebAssembly module of ./wbgt-wasm.ts where it can and this
+ * for the rest; the two give the same doubles. Same arguments and result as {@link wbgtKernel}.
+ */
+export function wbgtKernelJs(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE): KernelCounts {
   const { airTemperature: TA, dewPointTemperature: TD, surfacePressure: P, wind2m: U, solar: S, cosZenith: CZ, directFraction: FD } = inputs;
   const { wbgtSun, wbgtShade, globeSun, wetBulbSun, globeShade, wetBulbShade, psychrometric, status } = outputs;
   const { wbgtShelter, globeShelter, wetBulbShelter } = outputs;

@@ -9,6 +9,9 @@
  */
 import { CZA_MIN, FDIR_MAX, NORMSOLAR_MAX, SOLAR_CONSTANT } from './constants.ts';
 
+/** {@link FDIR_MAX} [–] as a module constant: the per-cell read is then no module binding (a getter call under the tests' TypeScript loader). */
+const F_MAX = FDIR_MAX;
+
 /**
  * Liljegren's empirical direct-beam fraction [–] from the clearness index s* [–]
  * (docs/methods.md §4.3): `exp(3 − 1.34 s* − 1.65/s*)` clipped to [0, 0.9]; 0 for s* ≤ 0.
@@ -26,7 +29,7 @@ export function directFractionEstimate(clearness: number): number {
     const t3 = t2 * t;
     f = (2 * t3 - 3 * t2 + 1) * tab[j] + (t3 - 2 * t2 + t) * tab[j + 1] + (3 * t2 - 2 * t3) * tab[j + 2] + (t3 - t2) * tab[j + 3];
   } else f = directFractionExact(clearness);
-  return f > FDIR_MAX ? FDIR_MAX : f;
+  return f > F_MAX ? F_MAX : f;
 }
 
 /** `exp(3 − 1.34 s* − 1.65/s*)` [–] unclipped, for s* > 0 (docs/methods.md §4.3). */

@@ -93,7 +93,7 @@ for path in sys.argv[1:]:
     const data = join(dir, 'inputs');
     const demo = run(['demo-data', '--out', data, '--years', '2022-2023', '--layout', 'mixed', '--grid', 'small', '--jobs', '2', '--quiet']);
     expect(demo.status, demo.stderr).toBe(0);
-    expect(readdirSync(data).sort()).toEqual(['era5-demo-2022.nc', 'era5-demo-2023.nc', 'era5-demo-lsm.nc']);
+    expect(readdirSync(data).sort()).toEqual(['era5-demo-2022.nc', 'era5-demo-2023.nc', 'era5-demo-lsm.nc', 'scenarios', 'workforce-people.tif']);
     const yaml = `id: compiled
 title: Compiled command test atlas (invented data)
 dataset:
