@@ -6,7 +6,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { basename, dirname, resolve } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { createHash } from 'node:crypto';
 import { parseYamlStrict, type ResolvedConfig } from '../config/load.ts';
 import { ConfigSyntax } from '../config/errors.ts';
@@ -149,7 +149,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   const baselineWarning = shortBaselineWarning(cfg.baseline);
   if (baselineWarning) log.warn(baselineWarning);
   const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
-  const ds = await openDataset(rc.inputFiles, datasetOptions);
+  const ds = await openDataset(rc.inputFiles, { ...datasetOptions, memberCache: memberCacheDir(rc) });
+  for (const note of ds.notes) log.warn(note);
   try {
     checkYears(ds.time, cfg.years, 'years', rc.path);
     const nLat = ds.grid.lat.length;
@@ -384,6 +385,11 @@ function range(a: number, b: number): number[] {
 }
 
 /** Each configured local year must be held by the data, up to the completeness margin (10 days). */
+/** Where ZIP members that cannot be read in place are unpacked (pipeline/read/zip-archive.ts). */
+export function memberCacheDir(rc: ResolvedConfig): string {
+  return join(rc.cacheDir, 'zip-members');
+}
+
 function checkYears(time: { start: number; count: number }, years: [number, number], key: string, file: string): void {
   const end = time.start + (time.count - 1) * HOUR_MS;
   const margin = 10 * 24 * HOUR_MS;
