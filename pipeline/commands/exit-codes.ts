@@ -42,7 +42,7 @@ export const DATA_ERRORS: readonly string[] = [
   'NetcdfNotNetcdf4', 'NetcdfHeaderInvalid', 'NetcdfTimeUnits', 'NetcdfCalendarUnsupported', 'NetcdfTimeNotHourly', 'NetcdfNoTimeAxis',
   'NetcdfUnitUnknown', 'NetcdfUnitImplausible', 'MissingNetcdfVariable', 'NetcdfGridMismatch', 'NetcdfGridUnsupported',
   'NetcdfDimensionUnsupported', 'NetcdfTimeGap', 'NetcdfDuplicateHours', 'NetcdfBlockOutOfRange', 'NetcdfReadFailed',
-  'ZipArchiveUnreadable', 'ZipArchiveEmpty', 'ZipMemberNotNetcdf', 'ZipMemberUnsupported', 'ZipMemberDamaged',
+  'ZipArchiveUnreadable', 'ZipArchiveEmpty', 'ZipMemberNotNetcdf', 'ZipMemberUnsupported', 'ZipMemberDamaged', 'InputsIncomplete',
   'PartialsIncomplete', 'PartialsInconsistent', 'PartialCorrupt', 'PartialFormatUnknown', 'PartialsDuplicated', 'PartialsForeign',
   'BandsIncomplete', 'BandsDuplicated', 'BandsForeign',
   'EstimateAtlasInvalid', 'ScheduleNoWeatherYears',

@@ -297,3 +297,13 @@ export const ZipMemberCacheUnwritable = defineError<{ dir: string; member: strin
   message: (p) => `unpacking ${p.member} into ${p.dir} failed: ${p.detail}`,
   hint: () => 'free disk space in the cache folder (config `cache`), or store the archive without compression (`zip -0`), whose members are read in place',
 });
+
+export const InputsIncomplete = defineError<{ years: string; problems: string[]; rule: string }>({
+  code: 'InputsIncomplete',
+  title: 'The input files do not cover the years the atlas builds',
+  message: (p) => `the coverage check of the input files found, for the years ${p.years} (${p.rule}):\n${p.problems.map((x) => `    ${x}`).join('\n')}`,
+  hint: () =>
+    'download the missing months (`heathours request --config atlas.yaml` writes the requests) or remove the duplicated files, then build again; ' +
+    '`heathours inspect --coverage FOLDER` shows the whole table. `build --max-missing-hours N` accepts up to N missing hours per year and variable ' +
+    '(a month missing more than 240 hours is withheld from the figures anyway)',
+});
