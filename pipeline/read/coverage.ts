@@ -16,7 +16,7 @@
 import { isoSeconds } from './cf-time.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import type { Era5Short } from './era5-variables.ts';
-import { expandArchives } from './zip-archive.ts';
+import { orderedInputs } from './zip-archive.ts';
 import { maskSpecOf, decodeMask } from './cf-mask.ts';
 import { scaleOffsetOf } from './cf-scale.ts';
 
@@ -120,11 +120,11 @@ function sameGrid(a: AnalysedFile, b: AnalysedFile): string | null {
   return null;
 }
 
-/** Analyses the files (archives expanded) and reports their coverage; closes every file. */
+/** Analyses the files (archives expanded, in the order openDataset takes them) and reports their coverage; closes every file. */
 export async function checkCoverage(paths: string[], opts: CoverageOptions = {}): Promise<CoverageReport> {
   const files: AnalysedFile[] = [];
   try {
-    for (const p of await expandArchives(paths)) files.push(await analyseFile(p, { digest: false, memberCache: opts.memberCache }));
+    for (const p of await orderedInputs(paths)) files.push(await analyseFile(p, { digest: false, memberCache: opts.memberCache }));
     return await coverageOf(files, opts);
   } finally {
     for (const f of files) await f.sf.close();

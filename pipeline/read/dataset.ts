@@ -14,7 +14,7 @@ import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfDataUnreadable, Net
 import { HeathoursError } from '../model/errors.ts';
 import { sourceRuns } from './grid-normalize.ts';
 import { buildHourAxis, type HourAxis } from './hour-index.ts';
-import { expandArchives, inputName } from './zip-archive.ts';
+import { orderedInputs } from './zip-archive.ts';
 import { maskSpecOf } from './cf-mask.ts';
 import { scaleOffsetOf } from './cf-scale.ts';
 import { makeDecodePlan } from './decode.ts';
@@ -131,9 +131,7 @@ export async function openDataset(paths: string[], opts: OpenDatasetOptions): Pr
   try {
     // A `.zip` path stands for its members (zip-archive.ts). Files in the order of the names
     // they are listed under, so an archive and its unzipped files make the same inventory.
-    const inputs = (await expandArchives(paths)).map((p) => ({ p, name: inputName(p) }));
-    inputs.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : a.p < b.p ? -1 : a.p > b.p ? 1 : 0));
-    for (const { p } of inputs) files.push(await analyseFile(p, { digest: opts.digests ?? true, memberCache: opts.memberCache }));
+    for (const p of await orderedInputs(paths)) files.push(await analyseFile(p, { digest: opts.digests ?? true, memberCache: opts.memberCache }));
     return await assemble(files, opts);
   } catch (e) {
     for (const f of files) await f.sf.close();

@@ -151,6 +151,16 @@ export async function expandArchives(paths: string[]): Promise<string[]> {
   return out;
 }
 
+/**
+ * Every input with archives expanded, in the order of the names they are listed under (a member
+ * by its member name, ties by path), so an archive and its unzipped files come in the same order.
+ */
+export async function orderedInputs(paths: string[]): Promise<string[]> {
+  const inputs = (await expandArchives(paths)).map((p) => ({ p, name: inputName(p) }));
+  inputs.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : a.p < b.p ? -1 : a.p > b.p ? 1 : 0));
+  return inputs.map((x) => x.p);
+}
+
 /** The member a member path names. */
 export async function findMember(path: string): Promise<{ archive: string; member: ZipMember }> {
   const ref = parseMemberPath(path)!;
