@@ -5,7 +5,7 @@
  * the downloads that would hold them and the duplicated file, and publishes nothing.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { copyFileSync, existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
@@ -48,5 +48,12 @@ describe('the coverage check at the start of build', () => {
     expect(err.message).toContain('(every hour of every built year)');
     expect(existsSync(join(dir, 'out'))).toBe(false);
     expect(readdirSync(dir).filter((f) => f.includes('.stage-'))).toEqual([]);
+  }, 300_000);
+
+  it('built years past the data are still YearsOutsideData (checked on the span the coverage found, before completeness)', async () => {
+    const cfg = join(dir, 'beyond.yaml');
+    writeFileSync(cfg, readFileSync(join(dir, 'atlas.yaml'), 'utf8').replace('years: [2022, 2024]', 'years: [2022, 2026]').replace('output: out', 'output: out-beyond'));
+    await expectCataloguedAsync(buildAtlas({ configPath: cfg, jobs: 1, quiet: true, dataOnly: true, cache: false }), 'YearsOutsideData');
+    expect(existsSync(join(dir, 'out-beyond'))).toBe(false);
   }, 300_000);
 });
