@@ -158,4 +158,25 @@ describe('ZIP archives: bad archives are catalogued errors, nothing half-written
     execFileSync('zip', ['-q', '-r', z, 'nothing'], { cwd: sub });
     await expectCatalogued(openDataset([z], { product: 'era5' }), 'ZipArchiveEmpty');
   });
+
+  it('an encrypted member (zip -P) is ZipMemberUnsupported saying so', async () => {
+    const f = fx({ layout: 'legacy', vars: INSTANT });
+    const z = join(dir, `enc${n++}.zip`);
+    execFileSync('zip', ['-q', '-j', '-P', 'secret', z, f]);
+    await expectCatalogued(openDataset([z], { product: 'era5' }), 'ZipMemberUnsupported', /it is encrypted/);
+  });
+
+  it('a member compressed with bzip2 (zip -Z bzip2, method 12) is ZipMemberUnsupported naming the method', async () => {
+    const f = fx({ layout: 'legacy', vars: INSTANT });
+    const z = join(dir, `bz${n++}.zip`);
+    execFileSync('zip', ['-q', '-j', '-Z', 'bzip2', z, f]);
+    await expectCatalogued(openDataset([z], { product: 'era5' }), 'ZipMemberUnsupported', /compression method 12/);
+  });
+
+  it('a member cache that cannot be made (its path is a file) is ZipMemberCacheUnwritable', async () => {
+    const z = zip(`c${n++}`, { 'i.nc': fx({ layout: 'legacy', vars: INSTANT }), 'a.nc': fx({ layout: 'legacy', vars: ACCUM }) }, '-9');
+    const blocker = join(dir, `not-a-folder${n++}`);
+    writeFileSync(blocker, 'x');
+    await expectCatalogued(openDataset([z], { product: 'era5', memberCache: join(blocker, 'cache') }), 'ZipMemberCacheUnwritable', /unpacking .*a\.nc into/);
+  });
 });
