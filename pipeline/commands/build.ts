@@ -43,6 +43,7 @@ interface BuildOpts {
   tile?: string;
   assemble?: string;
   cache?: string | boolean;
+  maxMissingHours?: string;
 }
 
 export function register(program: Command): void {
@@ -61,8 +62,16 @@ export function register(program: Command): void {
     .option('--assemble <dir>', 'distributed run: join the merged bands under DIR/bands (from every --merge DIR --tile K/N) and publish')
     .option('--cache <dir>', 'partial cache folder (default: the configuration\'s `cache`, else .heathours-cache beside the output)')
     .option('--no-cache', 'compute every shard and keep no partials')
+    .option('--max-missing-hours <n>', 'completeness rule of the coverage check: a built year may miss up to N hours per variable (default 0: every hour)')
     .option('--quiet', 'no progress output')
     .action(async (opts: BuildOpts) => {
+      let maxMissingHours: number | undefined;
+      if (opts.maxMissingHours !== undefined) {
+        maxMissingHours = Number(opts.maxMissingHours);
+        if (!/^\d{1,5}$/.test(opts.maxMissingHours.trim()) || maxMissingHours > 8784) {
+          throw UsageError({ message: `--max-missing-hours ${opts.maxMissingHours} is not a whole number of hours from 0 to 8784`, hint: 'e.g. --max-missing-hours 1 accepts a year whose last hour lies in next January\'s download' });
+        }
+      }
       let jobs: number | undefined;
       if (opts.jobs !== undefined) {
         jobs = Number(opts.jobs);
@@ -96,6 +105,7 @@ export function register(program: Command): void {
         mergeSlice: opts.tile !== undefined ? parseMergeSlice(opts.tile) : undefined,
         assembleDir: opts.assemble,
         cache: opts.cache === false ? false : typeof opts.cache === 'string' ? opts.cache : undefined,
+        maxMissingHours,
       });
     });
 }

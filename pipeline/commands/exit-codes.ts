@@ -16,7 +16,7 @@ export const EXIT = { ok: 0, internal: 1, usage: 2, data: 3, closedPipe: 141 } a
 
 /** Catalogued errors that exit with {@link EXIT.usage}. */
 export const USAGE_ERRORS: readonly string[] = [
-  'UsageError', 'ShardSliceInvalid', 'MergeSliceInvalid', 'BuildLocked',
+  'UsageError', 'ShardSliceInvalid', 'MergeSliceInvalid', 'BuildLocked', 'ZipMemberCacheUnwritable',
   'MemoryBudgetTooSmall', 'MemoryBudgetInvalid', 'DiskFull',
   'ConfigNotFound', 'ConfigSyntax', 'ConfigInvalid', 'ConfigInputMissing', 'ConfigRegionsMissing', 'ConfigWorkforceFileMissing',
   'NetcdfNoFiles', 'YearsOutsideData', 'NoLandCells',
@@ -43,6 +43,7 @@ export const DATA_ERRORS: readonly string[] = [
   'NetcdfNotNetcdf4', 'NetcdfHeaderInvalid', 'NetcdfTimeUnits', 'NetcdfCalendarUnsupported', 'NetcdfTimeNotHourly', 'NetcdfNoTimeAxis',
   'NetcdfUnitUnknown', 'NetcdfUnitImplausible', 'MissingNetcdfVariable', 'NetcdfGridMismatch', 'NetcdfGridUnsupported',
   'NetcdfDimensionUnsupported', 'NetcdfTimeGap', 'NetcdfDuplicateHours', 'NetcdfBlockOutOfRange', 'NetcdfReadFailed',
+  'ZipArchiveUnreadable', 'ZipArchiveEmpty', 'ZipMemberNotNetcdf', 'ZipMemberUnsupported', 'ZipMemberDamaged', 'InputsIncomplete',
   'PartialsIncomplete', 'PartialsInconsistent', 'PartialCorrupt', 'PartialFormatUnknown', 'PartialsDuplicated', 'PartialsForeign',
   'BandsIncomplete', 'BandsDuplicated', 'BandsForeign',
   'EstimateAtlasInvalid', 'ScheduleNoWeatherYears',

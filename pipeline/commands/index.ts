@@ -7,5 +7,6 @@ import { register as preview } from './preview.ts';
 import { register as inspect } from './inspect.ts';
 import { register as point } from './point.ts';
 import { register as estimate } from './estimate.ts';
+import { register as request } from './request.ts';
 
-export const commands: Array<(program: Command) => void> = [errors, build, demoData, preview, inspect, point, estimate];
+export const commands: Array<(program: Command) => void> = [errors, build, demoData, preview, inspect, point, estimate, request];

@@ -1,7 +1,13 @@
-/** `heathours inspect FILE... [--json]`: what is in NetCDF files, decoded (pipeline/read/inspect.ts). */
+/**
+ * `heathours inspect FILE|DIR... [--json]`: what is in NetCDF files, decoded (pipeline/read/inspect.ts);
+ * with `--coverage`, which hours the files hold as one dataset (pipeline/read/coverage.ts).
+ */
 import type { Command } from 'commander';
 import type { FileInspection } from '../read/index.ts';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
 import { startProgress } from '../model/progress.ts';
+import { UsageError } from '../model/errors.ts';
 
 function fmt(x: number | null): string {
   if (x === null) return '-';
@@ -32,13 +38,40 @@ export function formatInspection(r: FileInspection): string {
   return lines.join('\n');
 }
 
+/** Folders stand for their NetCDF files and ZIP archives (not recursive), sorted; files pass as they are. */
+export function expandInputArgs(args: string[]): string[] {
+  const out: string[] = [];
+  for (const a of args) {
+    if (existsSync(a) && statSync(a).isDirectory()) {
+      out.push(...readdirSync(a).filter((f) => /\.(nc|nc4|cdf|netcdf|zip)$/i.test(f)).sort().map((f) => join(a, f)));
+    } else out.push(a);
+  }
+  return out;
+}
+
 export function register(program: Command): void {
   program
     .command('inspect')
-    .description('per variable of each NetCDF file: dims, shape, units, detected role, decoded min/max/mean, fill count; time range')
-    .argument('<files...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4)')
-    .option('--json', 'one JSON object per file')
-    .action(async (files: string[], opts: { json?: boolean }) => {
+    .description('per variable of each NetCDF file: dims, shape, units, detected role, decoded min/max/mean, fill count; time range. With --coverage: which hours of which years the files hold, gaps, duplicates, ERA5T, other grids')
+    .argument('<paths...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4), ZIP archives of them (--coverage), or folders holding them')
+    .option('--json', 'one JSON object per file (with --coverage: the coverage report)')
+    .option('--coverage', 'the coverage check of the files as one dataset: hours present per variable by year and month, gaps, duplicates, ERA5T tail, files on another grid')
+    .option('--years <first-last>', 'with --coverage: the years the table must cover, e.g. 2020-2023 (default: the data\'s)')
+    .action(async (paths: string[], opts: { json?: boolean; coverage?: boolean; years?: string }) => {
+      const files = expandInputArgs(paths);
+      if (opts.coverage) {
+        const { checkCoverage } = await import('../read/coverage.ts');
+        const { formatCoverage } = await import('../read/coverage-text.ts');
+        let years: [number, number] | undefined;
+        if (opts.years !== undefined) {
+          const m = /^\s*(\d{4})\s*(?:-\s*(\d{4}))?\s*$/.exec(opts.years);
+          if (!m || Number(m[2] ?? m[1]) < Number(m[1])) throw UsageError({ message: `--years ${opts.years} is not a year or a range of years`, hint: 'e.g. --years 2020-2023' });
+          years = [Number(m[1]), Number(m[2] ?? m[1])];
+        }
+        const r = await checkCoverage(files, { years });
+        process.stdout.write(opts.json ? `${JSON.stringify(r)}\n` : `${formatCoverage(r)}\n`);
+        return;
+      }
       const { inspectFile } = await import('../read/index.ts');
       const progress = startProgress('inspect', files.length, { quiet: files.length < 3 || opts.json === true, unit: 'files' });
       for (const f of files) {

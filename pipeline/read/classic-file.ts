@@ -6,7 +6,14 @@
  * requested. Before any data is read, the layout the header describes is checked: every
  * variable's data lie after the header, none overlap, and the file is long enough.
  */
-import { open, type FileHandle } from 'node:fs/promises';
+import { open } from 'node:fs/promises';
+import type { ByteRange } from './zip-archive.ts';
+
+/** Reads bytes at a position of the file (or of the archive member) the classic file lies in. */
+interface ByteReader {
+  read(buf: Uint8Array, offset: number, length: number, position: number): Promise<{ bytesRead: number }>;
+  close(): Promise<void>;
+}
 import { HeaderNeedsBytes, parseClassicHeader, type ClassicHeader } from './classic-header.ts';
 import { NetcdfFileTruncated, NetcdfHeaderInvalid, NetcdfReadFailed } from './errors.ts';
 import type { NetcdfFormat } from './format.ts';
@@ -29,8 +36,8 @@ const MAX_GAP = 64 << 10;
 const MIN_USE = 1 / 8;
 
 /** Opens a classic or 64-bit-offset file whose size [bytes] and format are already known. */
-export async function openClassicFile(path: string, format: NetcdfFormat, bytes: number): Promise<SourceFile> {
-  const fh = await open(path, 'r');
+export async function openClassicFile(path: string, format: NetcdfFormat, bytes: number, range?: ByteRange): Promise<SourceFile> {
+  const fh = await rangeReader(range ?? { path, offset: 0, length: bytes });
   try {
     const header = await readHeader(fh, path, bytes);
     return buildClassicFile(fh, header, path, format, bytes);
@@ -41,7 +48,7 @@ export async function openClassicFile(path: string, format: NetcdfFormat, bytes:
 }
 
 /** Reads and parses the header from the first bytes: 64 KiB first, more when it asks for more. */
-async function readHeader(fh: FileHandle, path: string, bytes: number): Promise<ClassicHeader> {
+async function readHeader(fh: ByteReader, path: string, bytes: number): Promise<ClassicHeader> {
   let n = Math.min(bytes, 64 << 10);
   for (;;) {
     const head = new Uint8Array(n);
@@ -55,7 +62,7 @@ async function readHeader(fh: FileHandle, path: string, bytes: number): Promise<
   }
 }
 
-function buildClassicFile(fh: FileHandle, header: ClassicHeader, path: string, format: NetcdfFormat, bytes: number): SourceFile {
+function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, format: NetcdfFormat, bytes: number): SourceFile {
   const numRecs = header.numRecs;
   const dims: SourceDimension[] = header.dims.map((d) => ({ name: d.name, size: d.size, unlimited: d.unlimited }));
   const layouts = new Map<SourceVariable, ClassicLayout>();
@@ -344,6 +351,22 @@ function checkLayout(
 }
 
 /**
+ * Byte reads of a range of a file: a whole file, or a member stored (uncompressed) in a ZIP
+ * archive, read in place at its data offset; nothing past the range's end is ever returned.
+ */
+async function rangeReader(r: ByteRange): Promise<ByteReader> {
+  const fh = await open(r.path, 'r');
+  if (r.offset === 0) return fh;
+  return {
+    read: (buf, offset, length, position) => {
+      const n = Math.max(0, Math.min(length, r.length - position));
+      return n === 0 ? Promise.resolve({ bytesRead: 0 }) : fh.read(buf, offset, n, r.offset + position);
+    },
+    close: () => fh.close(),
+  };
+}
+
+/**
  * Window buffers shared by all classic files of the process: a read takes one (the largest
  * free one, grown when too small) and gives it back, so sequential reads reuse the same memory
  * (no per-block allocation, and no buffer per open file) while concurrent reads never share.
@@ -371,7 +394,7 @@ function sumStart(start: number[], stride: number[], from: number, to: number): 
   return s;
 }
 
-async function readAt(fh: FileHandle, path: string, buf: Uint8Array, offset: number, length: number, position: number): Promise<void> {
+async function readAt(fh: ByteReader, path: string, buf: Uint8Array, offset: number, length: number, position: number): Promise<void> {
   let done = 0;
   while (done < length) {
     const { bytesRead } = await fh.read(buf, offset + done, length - done, position + done);

@@ -5,7 +5,6 @@
  */
 import { createReadStream } from 'node:fs';
 import { createHash } from 'node:crypto';
-import { basename } from 'node:path';
 import { attrText } from './attrs.ts';
 import { maskSpecOf } from './cf-mask.ts';
 import { scaleOffsetOf } from './cf-scale.ts';
@@ -17,6 +16,7 @@ import { NetcdfDimensionUnsupported, NetcdfDuplicateHours, NetcdfGridUnsupported
 import { normalizeLatitude, normalizeLongitude, type AxisMap } from './grid-normalize.ts';
 import { detectLayout } from './layout.ts';
 import { openSourceFile } from './open-file.ts';
+import { inputName } from './zip-archive.ts';
 import { isNumericType, type SourceFile, type SourceVariable } from './source.ts';
 import { conversionFor, type UnitConversion } from './units.ts';
 import type { InventoryFile } from './inventory-types.ts';
@@ -82,8 +82,8 @@ function findAxisVar(sf: SourceFile, kind: 'lat' | 'lon' | 'time'): SourceVariab
  * Opens and analyses one file of a dataset (`digest`: hash its bytes, default true). Closes the
  * file again when it throws.
  */
-export async function analyseFile(path: string, opts: { digest?: boolean } = {}): Promise<AnalysedFile> {
-  const sf = await openSourceFile(path);
+export async function analyseFile(path: string, opts: { digest?: boolean; memberCache?: string } = {}): Promise<AnalysedFile> {
+  const sf = await openSourceFile(path, { memberCache: opts.memberCache });
   try {
     return await analyse(sf, opts.digest ?? true);
   } catch (e) {
@@ -178,9 +178,9 @@ async function analyse(sf: SourceFile, digest: boolean): Promise<AnalysedFile> {
 
   const shorts = [...vars.keys()];
   const info: InventoryFile = {
-    name: basename(file),
+    name: inputName(file),
     bytes: sf.bytes,
-    sha256: digest ? await sha256File(file) : '',
+    sha256: digest ? await (sf.digest ? sf.digest() : sha256File(file)) : '',
     format: sf.format,
     layout: detectLayout(sf),
     timeStart: times && times.length > 0 ? isoSeconds(times[0]) : '',

@@ -14,6 +14,7 @@ import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfDataUnreadable, Net
 import { HeathoursError } from '../model/errors.ts';
 import { sourceRuns } from './grid-normalize.ts';
 import { buildHourAxis, type HourAxis } from './hour-index.ts';
+import { orderedInputs } from './zip-archive.ts';
 import { maskSpecOf } from './cf-mask.ts';
 import { scaleOffsetOf } from './cf-scale.ts';
 import { makeDecodePlan } from './decode.ts';
@@ -43,6 +44,12 @@ export interface OpenDatasetOptions {
    * `readBlock` call (no per-block allocation); default false (fresh arrays each block).
    */
   reuseBlockBuffers?: boolean;
+  /**
+   * Folder for ZIP members that cannot be read in place (deflated, or NetCDF-4;
+   * pipeline/read/zip-archive.ts); default a folder in the system's temp folder. Builds pass
+   * `<cache>/zip-members`.
+   */
+  memberCache?: string;
 }
 
 /** What the WBGT physics needs at least. */
@@ -62,6 +69,8 @@ export interface Dataset {
   /** Cells counted as land (all cells without a mask). */
   landCells: number;
   files: DatasetFileInfo[];
+  /** What the reader left out and why (hours only some variables have), one line each, for the log. */
+  notes: string[];
   /** Hours [t0, t0 + nt) (hour indices) of `tile` as canonical fields. */
   readBlock(t0: number, nt: number, tile: Tile): Promise<HourlyBlock>;
   /**
@@ -120,7 +129,9 @@ export async function openDataset(paths: string[], opts: OpenDatasetOptions): Pr
   if (paths.length === 0) throw NetcdfNoFiles({});
   const files: AnalysedFile[] = [];
   try {
-    for (const p of paths) files.push(await analyseFile(p, { digest: opts.digests ?? true }));
+    // A `.zip` path stands for its members (zip-archive.ts). Files in the order of the names
+    // they are listed under, so an archive and its unzipped files make the same inventory.
+    for (const p of await orderedInputs(paths)) files.push(await analyseFile(p, { digest: opts.digests ?? true, memberCache: opts.memberCache }));
     return await assemble(files, opts);
   } catch (e) {
     for (const f of files) await f.sf.close();
@@ -232,6 +243,7 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     ...(landMask ? { landMask } : {}),
     landCells,
     files: files.map((f) => f.info),
+    notes: axis.notes,
     readBlock: (t0, nt, tile) => ds.readBlock(t0, nt, tile, variables, landFraction),
     async summary(cache?: SummaryChunkCache) {
       const full: Tile = { y0: 0, y1: ny, x0: 0, x1: nx };

@@ -255,3 +255,55 @@ export const ChangeFileNotADifference = defineError<{ path: string; variable: st
   hint: () =>
     'a change file holds differences (the future minus the baseline, e.g. +1.8 K); subtract the baseline climatology first (cdo sub future.nc baseline.nc) and mark it with units_metadata = "temperature: difference"',
 });
+
+export const ZipArchiveUnreadable = defineError<{ path: string; detail: string }>({
+  code: 'ZipArchiveUnreadable',
+  title: 'A ZIP archive cannot be read',
+  message: (p) => `${p.path} is not a readable ZIP archive: ${p.detail}`,
+  hint: () => 'the download was probably interrupted (a ZIP keeps its table of contents at the very end); fetch the archive again and compare its size, or test it with `unzip -t`',
+});
+
+export const ZipArchiveEmpty = defineError<{ path: string }>({
+  code: 'ZipArchiveEmpty',
+  title: 'A ZIP archive holds no files',
+  message: (p) => `${p.path} holds no file members (only folders, or nothing)`,
+  hint: () => 'fetch the request again; the data store sends an archive with one NetCDF file per stream',
+});
+
+export const ZipMemberNotNetcdf = defineError<{ path: string; member: string; magic: string }>({
+  code: 'ZipMemberNotNetcdf',
+  title: 'A file inside a ZIP archive is not NetCDF',
+  message: (p) => `member ${p.member} of ${p.path} starts with bytes ${p.magic}, which is neither NetCDF-3 (CDF\\x01, CDF\\x02) nor NetCDF-4 (\\x89HDF)`,
+  hint: () => 'request NetCDF from the data store (data_format netcdf), or unzip the archive and list only its NetCDF files in dataset.files',
+});
+
+export const ZipMemberUnsupported = defineError<{ path: string; member: string; detail: string }>({
+  code: 'ZipMemberUnsupported',
+  title: 'A file inside a ZIP archive is stored in a way heathours does not read',
+  message: (p) => `member ${p.member} of ${p.path}: ${p.detail}`,
+  hint: () => 'unzip the archive with a tool that handles it (`unzip`, `7z x`) and list the NetCDF files in dataset.files instead of the archive',
+});
+
+export const ZipMemberDamaged = defineError<{ path: string; member: string; detail: string }>({
+  code: 'ZipMemberDamaged',
+  title: 'A file inside a ZIP archive is damaged',
+  message: (p) => `member ${p.member} of ${p.path} is damaged: ${p.detail}`,
+  hint: () => 'fetch the archive again (`unzip -t` shows which members fail their CRC-32 check)',
+});
+
+export const ZipMemberCacheUnwritable = defineError<{ dir: string; member: string; detail: string }>({
+  code: 'ZipMemberCacheUnwritable',
+  title: 'A compressed member of a ZIP archive could not be unpacked into the cache',
+  message: (p) => `unpacking ${p.member} into ${p.dir} failed: ${p.detail}`,
+  hint: () => 'free disk space in the cache folder (config `cache`), or store the archive without compression (`zip -0`), whose members are read in place',
+});
+
+export const InputsIncomplete = defineError<{ years: string; problems: string[]; rule: string }>({
+  code: 'InputsIncomplete',
+  title: 'The input files do not cover the years the atlas builds',
+  message: (p) => `the coverage check of the input files found, for the years ${p.years} (${p.rule}):\n${p.problems.map((x) => `    ${x}`).join('\n')}`,
+  hint: () =>
+    'download the missing months (`heathours request --config atlas.yaml` writes the requests) or remove the duplicated files, then build again; ' +
+    '`heathours inspect --coverage FOLDER` shows the whole table. `build --max-missing-hours N` accepts up to N missing hours per year and variable ' +
+    '(a month missing more than 240 hours is withheld from the figures anyway)',
+});

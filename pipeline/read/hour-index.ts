@@ -23,6 +23,8 @@ export interface HourAxis {
   /** Number of hours. */
   count: number;
   tables: Map<Era5Short, HourTable>;
+  /** Hours left out because only some variables have them (one line each). */
+  notes: string[];
 }
 
 const name = (f: AnalysedFile) => f.info.name;
@@ -38,8 +40,8 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
       if (t > hi) hi = t;
     }
   }
-  if (!Number.isFinite(lo)) return { start: 0, count: 0, tables: new Map() };
-  const count = Math.round((hi - lo) / HOUR_MS) + 1;
+  if (!Number.isFinite(lo)) return { start: 0, count: 0, tables: new Map(), notes: [] };
+  let count = Math.round((hi - lo) / HOUR_MS) + 1;
   const tables = new Map<Era5Short, HourTable>();
   const rank = new Map<Era5Short, Int8Array>();
   for (let fi = 0; fi < files.length; fi++) {
@@ -69,6 +71,52 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
         rk[h] = r;
       }
     }
+  }
+  // Streams joined on their common hours: where variables come in separate files (the instant
+  // and accumulated streams of a data-store archive, one variable per file), hours that some
+  // variables have and others lack at either end of the record are left out and reported.
+  const notes: string[] = [];
+  let first = 0;
+  let last = count - 1;
+  for (const tab of tables.values()) {
+    let a = 0;
+    while (a < count && tab.file[a] < 0) a++;
+    let b = count - 1;
+    while (b >= 0 && tab.file[b] < 0) b--;
+    first = Math.max(first, a);
+    last = Math.min(last, b);
+  }
+  if (tables.size > 1 && last < first) {
+    const spans = [...tables].map(([s, t]) => {
+      const a = t.file.findIndex((x) => x >= 0);
+      let b = count - 1;
+      while (t.file[b] < 0) b--;
+      return `${s} ${isoSeconds(lo + a * HOUR_MS)} to ${isoSeconds(lo + b * HOUR_MS)}`;
+    });
+    const [short] = [...tables.keys()];
+    throw MissingNetcdfVariable({ name: short, detail: `the variables share no hour: ${spans.join('; ')}` }, { variable: short });
+  }
+  if (first > 0 || last < count - 1) {
+    for (const [short, tab] of tables) {
+      const spans: Array<[number, number]> = [];
+      if (first > 0) spans.push([0, first - 1]);
+      if (last < count - 1) spans.push([last + 1, count - 1]);
+      for (const [a0, b0] of spans) {
+        let a = a0;
+        while (a <= b0 && tab.file[a] < 0) a++;
+        if (a > b0) continue;
+        let b = b0;
+        while (tab.file[b] < 0) b--;
+        const inFiles = new Set<string>();
+        for (let k = a; k <= b; k++) if (tab.file[k] >= 0) inFiles.add(name(files[tab.file[k]]));
+        const lacking = [...tables.keys()].filter((s2) => s2 !== short && tables.get(s2)!.file.subarray(a, b + 1).some((x) => x < 0));
+        notes.push(`${short} has the hours ${isoSeconds(lo + a * HOUR_MS)} to ${isoSeconds(lo + b * HOUR_MS)} (in ${[...inFiles].join(', ')}) that ${lacking.join(', ')} lack(s); they are left out (the dataset keeps the hours every variable has)`);
+      }
+    }
+    const n = last - first + 1;
+    for (const [short, tab] of tables) tables.set(short, { file: tab.file.slice(first, last + 1), index: tab.index.slice(first, last + 1) });
+    lo += first * HOUR_MS;
+    count = n;
   }
   // Gaps: hours no variable covers.
   const covered = new Uint8Array(count);
@@ -103,5 +151,5 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
       { file: [...others][0], variable: short },
     );
   }
-  return { start: lo, count, tables };
+  return { start: lo, count, tables, notes };
 }

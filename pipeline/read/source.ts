@@ -98,6 +98,11 @@ export interface SourceFile {
   readNumbers(v: SourceVariable): Promise<Float64Array>;
   /** Reads a text variable (char or string) as one string per outer index. */
   readStrings(v: SourceVariable): Promise<string[]>;
+  /**
+   * SHA-256 [hex] of the file's bytes when they are not the file at `path` (a ZIP member: its
+   * uncompressed bytes, CRC-32 checked); absent for plain files (hash the file).
+   */
+  digest?: () => Promise<string>;
   close(): Promise<void>;
 }
 

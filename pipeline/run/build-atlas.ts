@@ -56,6 +56,8 @@ export interface BuildAtlasOptions {
   mergeSlice?: { k: number; n: number };
   /** Distributed run: join the merged bands under this folder (its `bands/`, from every `--tile K/N`) and publish. */
   assembleDir?: string;
+  /** Hours a built year may miss per variable before the coverage check stops the build [h]; default 0. */
+  maxMissingHours?: number;
 }
 
 export interface BuildReport {
@@ -102,7 +104,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
   const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
-  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined }, log);
+  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
   const scratch = join(dirname(outDir), `.${basename(outDir)}.scratch-${process.pid}`);
   const shared = o.mergeDir ?? o.assembleDir;
   const cacheDir = o.cache === false || shared ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);

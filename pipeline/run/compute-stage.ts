@@ -11,7 +11,7 @@ import type { Logger } from '../model/effects.ts';
 import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
 import { partialPath } from './partial-store.ts';
 import { runTasks, type PoolTask, type ShardStores } from './shard-pool.ts';
-import type { BuildPlan } from './plan-stage.ts';
+import { memberCacheDir, type BuildPlan } from './plan-stage.ts';
 import type { ComputeTask } from './compute-task.ts';
 
 export type ComputeMode =
@@ -149,7 +149,7 @@ export function workerInit(plan: BuildPlan) {
   const cfg = plan.rc.config;
   return {
     files: plan.rc.inputFiles,
-    datasetOptions: { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask, digests: false, reuseBlockBuffers: true },
+    datasetOptions: { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask, digests: false, reuseBlockBuffers: true, memberCache: memberCacheDir(plan.rc) },
     context: plan.context,
   };
 }

@@ -6,7 +6,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { basename, dirname, resolve } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { createHash } from 'node:crypto';
 import { parseYamlStrict, type ResolvedConfig } from '../config/load.ts';
 import { ConfigSyntax } from '../config/errors.ts';
@@ -33,6 +33,9 @@ import { describeGridCells } from '../regions/grid-cells.ts';
 import { EARTH_RADIUS_KM, rectangleAreaSr } from '../regions/spherical-area.ts';
 import type { BandWorkforce } from './merge-tile.ts';
 import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
+import { checkCoverage } from '../read/coverage.ts';
+import { coverageProblems } from '../read/coverage-text.ts';
+import { InputsIncomplete } from '../read/errors.ts';
 import { shortBaselineWarning } from '../publish/baseline-length.ts';
 
 const HOUR_MS = 3_600_000;
@@ -49,6 +52,11 @@ export interface PlanOptions {
   mergeSlice?: { k: number; n: number };
   /** Plan no merge bands (the assemble step of a distributed run merges nothing). */
   noMerge?: boolean;
+  /**
+   * The completeness rule of the coverage check: hours a built year may miss per variable
+   * [h]; default 0 (every hour of every built year).
+   */
+  maxMissingHours?: number;
 }
 
 /** One merge band: its rows, land cells, the shards holding them and the regions it overlaps. */
@@ -149,7 +157,9 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   const baselineWarning = shortBaselineWarning(cfg.baseline);
   if (baselineWarning) log.warn(baselineWarning);
   const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
-  const ds = await openDataset(rc.inputFiles, datasetOptions);
+  await checkInputCoverage(rc, o.maxMissingHours ?? 0, log);
+  const ds = await openDataset(rc.inputFiles, { ...datasetOptions, memberCache: memberCacheDir(rc) });
+  for (const note of ds.notes) log.warn(note);
   try {
     checkYears(ds.time, cfg.years, 'years', rc.path);
     const nLat = ds.grid.lat.length;
@@ -384,6 +394,32 @@ function range(a: number, b: number): number[] {
 }
 
 /** Each configured local year must be held by the data, up to the completeness margin (10 days). */
+/**
+ * The coverage check before anything is read for computing (pipeline/read/coverage.ts): the
+ * built years must lie in the data (`YearsOutsideData`), and every hour of them must be there
+ * once, up to `maxMissing` hours per year and variable (`InputsIncomplete`, naming the missing
+ * hours and the downloads that would hold them). Preliminary ERA5T hours are logged.
+ */
+async function checkInputCoverage(rc: ResolvedConfig, maxMissing: number, log: Logger): Promise<void> {
+  const years = rc.config.years;
+  const cov = await checkCoverage(rc.inputFiles, { years, memberCache: memberCacheDir(rc) });
+  if (cov.span) checkYears({ start: cov.span.first, count: Math.round((cov.span.last - cov.span.first) / HOUR_MS) + 1 }, years, 'years', rc.path);
+  const problems = coverageProblems(cov, maxMissing);
+  if (problems.length > 0) {
+    throw InputsIncomplete(
+      { years: `${years[0]}–${years[1]}`, problems, rule: maxMissing === 0 ? 'every hour of every built year' : `at most ${maxMissing} missing hour(s) per year and variable (--max-missing-hours)` },
+      { file: rc.path, key: 'dataset.files' },
+    );
+  }
+  const t = cov.variables.find((v) => v.era5t.length > 0);
+  for (const run of t?.era5t ?? []) log.warn(`${run.hours} h of ${t!.variable} are preliminary ERA5T (stamps ${run.from} to ${run.to}); rebuild with final ERA5 when it is published`);
+}
+
+/** Where ZIP members that cannot be read in place are unpacked (pipeline/read/zip-archive.ts). */
+export function memberCacheDir(rc: ResolvedConfig): string {
+  return join(rc.cacheDir, 'zip-members');
+}
+
 function checkYears(time: { start: number; count: number }, years: [number, number], key: string, file: string): void {
   const end = time.start + (time.count - 1) * HOUR_MS;
   const margin = 10 * 24 * HOUR_MS;

@@ -141,10 +141,21 @@ describe('openDataset bad inputs: each a catalogued error naming the file', () =
     await expectCatalogued(openDataset([f], { product: 'era5' }), 'MissingNetcdfVariable', /no d2m.*f\d+\.nc/);
   });
 
-  it('a variable present for one month but not the next is MissingNetcdfVariable naming the file that covers those hours', async () => {
+  it('a variable missing for a day between two days that have it is MissingNetcdfVariable naming the file that covers those hours', async () => {
     const a = fx({ layout: 'legacy' });
     const b = fx({ layout: 'legacy', start: '2020-01-02T00:00:00Z', vars: ['t2m', 'sp', 'u10', 'v10', 'ssrd'] });
-    await expectCatalogued(openDataset([a, b], { product: 'era5' }), 'MissingNetcdfVariable', /d2m: it is missing for the hours 2020-01-02T00:00:00Z/);
+    const c = fx({ layout: 'legacy', start: '2020-01-03T00:00:00Z' });
+    await expectCatalogued(openDataset([a, b, c], { product: 'era5' }), 'MissingNetcdfVariable', /d2m: it is missing for the hours 2020-01-02T00:00:00Z to 2020-01-02T23:00:00Z, which f\d+\.nc cover/);
+  });
+
+  it('a variable present for the first day only: the dataset keeps the common day and reports the hours the others have alone', async () => {
+    const a = fx({ layout: 'legacy' });
+    const b = fx({ layout: 'legacy', start: '2020-01-02T00:00:00Z', vars: ['t2m', 'sp', 'u10', 'v10', 'ssrd'] });
+    const ds = await openDataset([a, b], { product: 'era5' });
+    expect(ds.time).toEqual({ start: Date.UTC(2020, 0, 1), count: 24 });
+    expect(ds.notes).toHaveLength(5);
+    expect(ds.notes[0]).toMatch(/^t2m has the hours 2020-01-02T00:00:00Z to 2020-01-02T23:00:00Z \(in f\d+\.nc\) that d2m lack\(s\)/);
+    await ds.close();
   });
 
   it('the configured land-sea mask variable missing from every file is MissingNetcdfVariable', async () => {
