@@ -342,6 +342,9 @@ describe('the region report page', () => {
     expect(await page.textContent('[data-page-url]')).toBe(new URL(`regions/${REGION}/`, session.baseUrl).href);
     for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges']) expect(await page.isVisible(sel), sel).toBe(true);
     expect(await page.isVisible('#monthly-high-sun')).toBe(false);
+    // The workforce view is left to the web page (the four printed pages are full); the printed note says so.
+    expect(await page.isVisible('#workforce')).toBe(false);
+    expect(await page.isVisible('#print-workforce')).toBe(true);
     expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
     // Nothing is wider than an A4 page inside the printed margins: 210 − 2 × 11 mm = 188 mm = 710 px at 96 px/in.
     await page.setViewportSize({ width: 710, height: 1000 });
