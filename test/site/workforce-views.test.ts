@@ -12,6 +12,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData, PIPELINE_DATA_WORKFORCE } from './pipeline-data.ts';
+import { buildTestSite } from './browser.ts';
 import { loadManifest } from '../../src/data/manifest.ts';
 import { loadRegionDetail } from '../../src/data/region-detail.ts';
 import { loadRegionReport } from '../../src/data/region-report.ts';
@@ -116,4 +117,15 @@ describe('the workforce views of the site', () => {
       expect(cat.choices[key].map((c) => c.id)).not.toContain(key === 'workloadClass' ? 'all' : 'by-shares');
     }
   });
+
+  it("the downloads page (person-hours layers) and the methods page (licence of the data) name the raster with its year and licence, marked invented", async () => {
+    const { distDir } = await buildTestSite(dataDir);
+    const text = (html: string, id: string) => {
+      const m = new RegExp(`<p[^>]*id="${id}"[^>]*>([\\s\\S]*?)</p>`).exec(html);
+      return (m?.[1] ?? '').replace(/<[^>]+>/g, '').replace(/\s+/g, ' ').trim();
+    };
+    const want = `Invented people. ${workforceSourceLine({ ...PIPELINE_DATA_WORKFORCE, invented: true })}`;
+    expect(text(readFileSync(join(distDir, 'downloads/index.html'), 'utf8'), 'layers-workforce-source')).toBe(want);
+    expect(text(readFileSync(join(distDir, 'methods/index.html'), 'utf8'), 'licence-workforce')).toBe(want);
+  }, 600_000);
 });
