@@ -103,7 +103,11 @@ export interface WorkforceRankingColumn {
   digits: number;
 }
 
-/** The workforce ranking's columns: the people, then each figure of all outdoor work as mean and P90 year. */
+/**
+ * The workforce ranking's columns: the people, then each figure of all outdoor work as mean and P90
+ * year. The P90 head is short ("P90", so the ten columns fit a laptop's width); its label (the
+ * select's option and the head's title) and the table's caption carry `p90Head`.
+ */
 export function workforceRankingColumns(p90Head: string): WorkforceRankingColumn[] {
   const people: WorkforceRankingColumn[] = [
     { key: 'people', label: 'People in the region', group: 'People', short: 'in the region', unit: 'people', digits: 0 },
@@ -113,8 +117,8 @@ export function workforceRankingColumns(p90Head: string): WorkforceRankingColumn
     ...people,
     ...workforceColumns(p90Head).map((c) => {
       const group = c.head.slice(0, c.head.lastIndexOf(', '));
-      const short = c.statistic === 'mean' ? 'mean' : p90Head;
-      return { key: `${c.figure}.${c.statistic}`, label: `${group}, ${short}`, group, short, unit: c.unit, digits: c.digits };
+      const short = c.statistic === 'mean' ? 'mean' : 'P90';
+      return { key: `${c.figure}.${c.statistic}`, label: `${group}, ${c.statistic === 'mean' ? 'mean' : p90Head}`, group, short, unit: c.unit, digits: c.digits };
     }),
   ];
 }
