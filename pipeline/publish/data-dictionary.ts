@@ -46,7 +46,16 @@ export const FIGURE_WORDS: Readonly<Record<string, FigureWords>> = {
   'wbgt-mean': { label: 'Mean hourly WBGT', unitWords: 'degrees Celsius (WBGT)', year: 'mean of all hours of the year' },
   'wbgt-max': { label: 'Highest hourly WBGT', unitWords: 'degrees Celsius (WBGT)', year: 'highest of the year' },
   'air-temperature-mean': { label: 'Mean air temperature', unitWords: 'degrees Celsius', year: 'mean of all hours of the year' },
+  // The workforce figures (config `workforce`, pipeline/regions/person-hours.ts).
+  'person-hours-above-limit-shift': { label: "Shift person-hours above the limit, over the region's outdoor workers", unitWords: 'person-hours', year: 'sum of the months' },
+  'person-hours-lost-shift': { label: "Shift person-hours lost to rest breaks, over the region's outdoor workers", unitWords: 'person-hours', year: 'sum of the months' },
+  'full-time-equivalents-lost': { label: 'Full-time equivalents lost (person-hours lost / a year of the shift pattern)', unitWords: 'full-time equivalents', year: 'sum of the months' },
+  'outdoor-work-time-lost': { label: "Share of the outdoor workers' shift time lost to rest breaks", unitWords: 'percent of the shift hours', year: "person-hours lost of the year over the year's shift hours of the outdoor workers" },
+  'person-hours-lost-density': { label: 'Shift person-hours lost per km² of the grid cell', unitWords: 'person-hours per square kilometre', year: 'sum of the months' },
 };
+
+/** Codes of the workforce rows: the class column's `all`, the acclimatization and exposure columns' `by-shares`. */
+const WORKFORCE_FIGURE_IDS = new Set(['person-hours-above-limit-shift', 'person-hours-lost-shift', 'full-time-equivalents-lost', 'outdoor-work-time-lost', 'person-hours-lost-density']);
 
 /** A figure's label, or its id when it is not one of {@link FIGURE_WORDS}. */
 export function figureWords(figure: string): FigureWords {
@@ -64,6 +73,14 @@ export function valueUnitWords(figure: string, units: string, period: 'month' | 
 
 /** Units as the tables write them, in words. */
 export const UNIT_WORDS: Readonly<Record<string, string>> = { h: 'hours', degC: 'degrees Celsius', '1': 'a fraction or a class code, no unit' };
+
+/** Units of the workforce figures, in words (listed only when a figure has them). */
+const WORKFORCE_UNIT_WORDS: Readonly<Record<string, string>> = {
+  'person-h': 'person-hours (hours summed over people)',
+  'person-h km-2': 'person-hours per square kilometre',
+  FTE: 'full-time equivalents (one: the hours of a year of the shift pattern)',
+  '%': 'percent',
+};
 
 export const ACCLIMATIZATION_WORDS: Readonly<Record<string, string>> = {
   acclimatized: 'Acclimatized workers (the higher limit, for workers used to the heat)',
@@ -166,8 +183,15 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
   for (const c of input.classes) {
     rows.push(row(EVERY, 'workload_class', c.id, `${c.name} (${c.metabolicRate} W)`, 'W', 'watts of metabolic rate while working', c.description ?? ''));
   }
+  const workforce = input.figures.some((f) => WORKFORCE_FIGURE_IDS.has(f.id));
+  if (workforce) rows.push(row(EVERY, 'workload_class', 'all', 'All outdoor work', '', '', "Every workload class together, each by its share of the region's people (workforce figures only)"));
   for (const a of input.acclimatization) rows.push(row(EVERY, 'acclimatization', a, ACCLIMATIZATION_WORDS[a] ?? a));
   for (const e of input.exposures) rows.push(row(EVERY, 'exposure', e, EXPOSURE_WORDS[e] ?? e));
+  if (workforce) {
+    const mixed = 'Mixed as the workforce shares say (acclimatized share, share in the sun; workforce figures only)';
+    rows.push(row(EVERY, 'acclimatization', 'by-shares', 'Acclimatized and not, by the shares', '', '', mixed));
+    rows.push(row(EVERY, 'exposure', 'by-shares', 'Sun and shade, by the shares', '', '', mixed));
+  }
   rows.push(row(EVERY, 'method', 'limit', 'WBGT screening limit of the workload class', '', '', 'Hours above the limit and hours lost to the rest breaks the limit requires'));
   for (const v of input.lossViews) rows.push(row(EVERY, 'method', v.id, v.label, '', '', 'A loss function of work capacity against WBGT (capacity-loss figure only)'));
   const n = baselineYearCount(input.baseline);
@@ -179,6 +203,9 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
   for (const [u, words] of Object.entries(UNIT_WORDS)) {
     if (u === '1' && !input.figures.some((f) => f.units === '1')) continue;
     rows.push(row(EVERY, 'unit', u, words, u, words));
+  }
+  for (const [u, words] of Object.entries(WORKFORCE_UNIT_WORDS)) {
+    if (input.figures.some((f) => f.units === u)) rows.push(row(EVERY, 'unit', u, words, u, words));
   }
   rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean`));
   rows.push(row(REGION_TABLE, 'baseline', String(input.latestYear), `The latest year ${input.latestYear}`, '', '', 'The statistic latest'));

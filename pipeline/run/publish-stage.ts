@@ -79,7 +79,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
     log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`);
   }
   await writeFile(join(p.stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
-    figures: plan.defs, classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
+    figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
     lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear,
   }));
 

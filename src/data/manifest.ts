@@ -107,6 +107,39 @@ export const manifestWorkSchema = z.object({
 
 export type ManifestWork = z.infer<typeof manifestWorkSchema>;
 
+/**
+ * The workforce weighting (config `workforce`, issue 17; pipeline/publish/manifest.ts
+ * `ManifestWorkforce`): the people raster's name, year and licence, shown wherever a figure made
+ * from it is shown, and what became of its people.
+ */
+export const manifestWorkforceSchema = z.object({
+  name: z.string().min(1),
+  /** Year the raster describes [calendar year]. */
+  year: z.number().int(),
+  licence: z.string().min(1),
+  invented: z.boolean(),
+  raster: z.object({
+    file: z.string().min(1),
+    sha256,
+    width: z.number().int().positive(),
+    height: z.number().int().positive(),
+    /** Pixel size [°] (longitude, latitude). */
+    pixelDegrees: z.tuple([z.number().positive(), z.number().positive()]),
+    sampleType: z.string(),
+    noData: z.union([z.number(), z.string(), z.null()]),
+  }),
+  shares: z.object({ file: z.string().min(1), sha256, defaults: z.object({ acclimatizedShare: z.number().min(0).max(1), sunShare: z.number().min(0).max(1) }) }),
+  /** [people] */
+  peopleOnLand: z.number().nonnegative(),
+  peopleOffLand: z.number().nonnegative(),
+  peopleOutsideGrid: z.number().nonnegative(),
+  /** Hours of a year of the shift pattern: one full-time equivalent [h]. */
+  annualHours: z.number().positive(),
+  figures: z.array(z.object({ id: z.string().min(1), label: z.string().min(1), units: z.string(), combos: z.array(z.string().min(1)) })),
+});
+
+export type ManifestWorkforceInfo = z.infer<typeof manifestWorkforceSchema>;
+
 export const manifestSchema = z
   .object({
     manifestVersion: z.literal(1),
@@ -127,6 +160,8 @@ export const manifestSchema = z
     counts: z.record(z.number()),
     layers: z.array(layerSchema),
     artefacts: z.array(artefactSchema),
+    /** The workforce weighting, when the atlas has one. */
+    workforce: manifestWorkforceSchema.optional(),
   })
   .superRefine((m, ctx) => {
     const paths = new Set<string>();

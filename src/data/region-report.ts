@@ -1,7 +1,8 @@
 /**
  * Everything one region report page shows, read at build time: the manifest (work settings,
  * classes, layers), the region's table indexed by meaning, its summary (niche), and the typical
- * WBGT per month × local hour from its histogram tile. The pure pieces live in src/lib/report/.
+ * WBGT per month × local hour from its histogram tile; with a workforce raster, the workforce
+ * figures (person-hours, full-time equivalents, share of outdoor work time lost). The pure pieces live in src/lib/report/.
  */
 import { loadAtlasManifest, type AtlasManifest } from './atlas-manifest.ts';
 import { loadRegionDetail, type RegionDetail } from './region-detail.ts';
@@ -10,6 +11,7 @@ import { loadRegionTable } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
 import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
 import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
+import { WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
 
 export interface RegionReport {
   id: string;
@@ -22,7 +24,7 @@ export interface RegionReport {
 }
 
 /** The figures and statistics of the table a report shows (the niche comes from the region's JSON). */
-const REPORT_FIGURES = new Set([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST]);
+const REPORT_FIGURES = new Set<string>([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, ...WORKFORCE_FIGURES]);
 const REPORT_STATISTICS = new Set(['mean', 'p90']);
 
 let indexCache: { dir: string; index: HistogramIndex } | undefined;

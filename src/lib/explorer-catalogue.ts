@@ -10,6 +10,8 @@ import { LOSS_VIEWS } from '../../pipeline/reduce/layout.ts';
 import { baselineYearCount, p90Label, shortBaselineWarning } from '../../pipeline/publish/baseline-length.ts';
 import { valueUnitWords } from '../../pipeline/publish/data-dictionary.ts';
 import { labelPoint } from './label-point.ts';
+import { workforceSourceLine } from './report/workforce.ts';
+import { PERSON_HOURS_DENSITY } from '../../pipeline/regions/person-hours.ts';
 import type {
   ExplorerCatalogue,
   ExplorerChoice,
@@ -28,6 +30,7 @@ export const MAP_FIGURE_LABELS: Readonly<Record<string, string>> = {
   'capacity-loss-shift': 'Capacity loss',
   'mean-annual-temperature': 'Mean annual temperature',
   'niche-class': 'Human climate niche class',
+  [PERSON_HOURS_DENSITY]: 'Person-hours lost per km²',
 };
 
 export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclimatized: 'Acclimatized', unacclimatized: 'Not acclimatized' };
@@ -76,7 +79,8 @@ function bboxOf(feature: RegionCollection['features'][number]): [number, number,
 }
 
 function viewOf(figure: string, combo: string): LayerView {
-  if (figure === 'mean-annual-temperature' || figure === 'niche-class') return {};
+  // The person-hours layer mixes every class, acclimatization and exposure by the workforce shares: no choice.
+  if (figure === 'mean-annual-temperature' || figure === 'niche-class' || figure === PERSON_HOURS_DENSITY) return {};
   const cc = comboColumns(figure, combo);
   const view: LayerView = {};
   if (cc.workload_class) view.workloadClass = cc.workload_class;
@@ -147,7 +151,8 @@ export function explorerCatalogue(manifest: ManifestLayers, regions: RegionColle
     const def = manifest.figures.find((f) => f.id === id);
     const first = layers.find((l) => l.figure === id)!;
     const title = legends[first.legend].title ?? id;
-    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units, unitWords: unitWordsOf(id, first.units) };
+    const source = id === PERSON_HOURS_DENSITY && manifest.workforce ? { source: workforceSourceLine(manifest.workforce), sourceInvented: manifest.workforce.invented } : {};
+    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units, unitWords: unitWordsOf(id, first.units), ...source };
   });
 
   const classes = manifest.work.classes;

@@ -1,13 +1,17 @@
 /**
- * The home page's ranking switch (the table works without it, ranked by the default column):
+ * The home page's ranking switches, one per ranking table (`[data-ranking-control]` names its
+ * table in `data-for`; each table works without it, ranked by its default column):
  * re-sorts the rows by the chosen column, most hours first, rows without a value last, equal
  * values in name order (the server's `data-name-order`), as src/lib/report/ranking.ts does.
  */
 import { compareForRanking } from '../lib/report/ranking.ts';
 
-const form = document.querySelector<HTMLFormElement>('[data-ranking-control]');
-const table = document.querySelector<HTMLTableElement>('#ranking');
-if (form && table) {
+for (const form of document.querySelectorAll<HTMLFormElement>('[data-ranking-control]')) {
+  const table = document.getElementById(form.dataset.for ?? 'ranking');
+  if (table instanceof HTMLTableElement) wire(form, table);
+}
+
+function wire(form: HTMLFormElement, table: HTMLTableElement): void {
   const body = table.tBodies[0];
   const select = form.elements.namedItem('column') as HTMLSelectElement;
   const cellValue = (tr: HTMLTableRowElement, key: string) => {

@@ -74,6 +74,12 @@ describe('the data dictionary beside the tables', () => {
     const lost = dict.rows.find((r) => r.column === 'figure' && r.code === 'hours-lost-shift')!;
     expect(lost).toMatchObject({ unit: 'h', unit_in_words: 'hours per worker per month or year', label: figureWords('hours-lost-shift').label });
     expect(dict.rows.find((r) => r.column === 'unit' && r.code === 'degC')!.unit_in_words).toBe('degrees Celsius');
+    // The workforce rows (the test atlas weights by the demo's invented population): their figures, codes and units are explained too.
+    expect(dict.rows.find((r) => r.column === 'figure' && r.code === 'person-hours-lost-shift')).toMatchObject({ unit: 'person-h', unit_in_words: 'person-hours' });
+    expect(dict.rows.find((r) => r.column === 'figure' && r.code === 'full-time-equivalents-lost')).toMatchObject({ unit: 'FTE' });
+    expect(dict.rows.find((r) => r.column === 'workload_class' && r.code === 'all')!.label).toBe('All outdoor work');
+    for (const column of ['acclimatization', 'exposure']) expect(dict.rows.find((r) => r.column === column && r.code === 'by-shares'), column).toBeDefined();
+    for (const unit of ['person-h', 'person-h km-2', 'FTE', '%']) expect(dict.rows.find((r) => r.column === 'unit' && r.code === unit), unit).toBeDefined();
   });
 
   it('labels the P90 honestly for the test atlas\'s 2-year baseline: its number of years, and that it is not a 1-in-10 year', () => {

@@ -28,6 +28,15 @@ function annualHoursLost(id: string, cls: string, acc: string, exp = 'sun'): num
   return Number(line.split(',')[8]);
 }
 
+/** A region's annual workforce value (all outdoor work) from its CSV, e.g. `person-hours-lost-shift`, `p90`. */
+function annualWorkforce(id: string, figure: string, stat: string): number {
+  const line = readFileSync(join(dataDir, 'data/regions', `${id}.csv`), 'utf8')
+    .split('\n')
+    .find((l) => l.startsWith(`${id},year,${figure},all,by-shares,by-shares,limit,${stat},`));
+  if (!line) throw new Error(`no annual ${figure} ${stat} row for ${id}`);
+  return Number(line.split(',')[8]);
+}
+
 /** The order the ranking must have: most hours first, equal values by name. */
 function expectedOrder(cls: string, acc: string): string[] {
   return [...regions]
@@ -116,6 +125,49 @@ describe('the home page with the atlas figures', () => {
     const scripts = await noJs.page.$$eval('script[src], link[href]', (els) => els.map((e) => e.getAttribute('src') ?? e.getAttribute('href')));
     expect(scripts.some((s) => /maplibre|GridExtentMap/.test(s ?? ''))).toBe(false);
     expect(await noJs.page.$$('canvas')).toHaveLength(0);
+  });
+
+  it("ranks the regions by person-hours lost (all outdoor work, baseline mean) in the CSV order, each column equal to the CSV and the region JSON's people, under the raster's source line", async () => {
+    const key = 'person-hours-lost-shift.mean';
+    expect(await home.page.getAttribute('#workforce-ranking', 'data-sort-key')).toBe(key);
+    const want = [...regions].map((r) => ({ ...r, v: annualWorkforce(r.id, 'person-hours-lost-shift', 'mean') })).sort((a, b) => b.v - a.v || a.name.localeCompare(b.name)).map((r) => r.id);
+    const keys = (await home.page.$$eval('#workforce-ranking thead th[data-key]', (ths) => ths.map((t) => t.getAttribute('data-key')!))).slice(2);
+    expect(keys).toEqual([
+      'people', 'outdoor-workers',
+      ...['person-hours-above-limit-shift', 'person-hours-lost-shift', 'full-time-equivalents-lost', 'outdoor-work-time-lost'].flatMap((f) => [`${f}.mean`, `${f}.p90`]),
+    ]);
+    const byRow = await home.page.$$eval('#workforce-ranking tbody tr', (trs) =>
+      trs.map((tr) => ({ id: tr.getAttribute('data-region-id')!, cells: Object.fromEntries([...tr.querySelectorAll('td[data-col]')].map((td) => [td.getAttribute('data-col')!, { value: td.getAttribute('data-value')!, shown: (td.textContent ?? '').trim() }])) })),
+    );
+    expect(byRow.map((r) => r.id)).toEqual(want);
+    for (const r of byRow) {
+      const summary = JSON.parse(readFileSync(join(dataDir, 'data/regions', `${r.id}.json`), 'utf8')).workforce;
+      expect(Number(r.cells.people.value)).toBe(summary.people);
+      expect(Number(r.cells['outdoor-workers'].value)).toBe(summary.outdoorWorkers);
+      for (const k of keys.slice(2)) {
+        const [figure, stat] = k.split('.');
+        const v = annualWorkforce(r.id, figure, stat);
+        expect(Number(r.cells[k].value), `${r.id} ${k}`).toBe(v);
+        const decimals = (r.cells[k].shown.split('.')[1] ?? '').length;
+        expect(Math.abs(parseShownNumber(r.cells[k].shown) - v)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-9);
+      }
+    }
+    const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8'));
+    const source = (await home.page.textContent('#workforce-ranking-source'))!.replace(/\s+/g, ' ');
+    expect(source).toContain(`${manifest.workforce.name} (${manifest.workforce.year})`);
+    expect(source).toContain(manifest.workforce.licence);
+    expect(source).toMatch(/Invented people/);
+  });
+
+  it('re-ranks the workforce table by full-time equivalents lost (P90 year) when the reader picks it, and leaves the hours ranking alone', async () => {
+    const page = (await session.open('/')).page;
+    const before = await ranking(page, 'moderate.acclimatized.sun');
+    await page.selectOption('[data-ranking-control][data-for="workforce-ranking"] select', 'full-time-equivalents-lost.p90');
+    const ids = await page.$$eval('#workforce-ranking tbody tr', (trs) => trs.map((tr) => [tr.getAttribute('data-region-id')!, tr.querySelector('td.rank')!.textContent!.trim()]));
+    const want = [...regions].map((r) => ({ ...r, v: annualWorkforce(r.id, 'full-time-equivalents-lost', 'p90') })).sort((a, b) => b.v - a.v || a.name.localeCompare(b.name)).map((r) => r.id);
+    expect(ids.map((x) => x[0])).toEqual(want);
+    expect(ids.map((x) => x[1])).toEqual(want.map((_, i) => String(i + 1)));
+    expect(await ranking(page, 'moderate.acclimatized.sun')).toEqual(before);
   });
 
   it("a region's outline on the map opens its report", async () => {

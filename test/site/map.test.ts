@@ -219,13 +219,14 @@ describe('the map page', () => {
     await page.locator(`#${MAP}`).screenshot({ path: join(process.cwd(), 'test-artifacts/site/map-canvas.png') });
   });
 
-  it("paints every visible land cell in the colour the legend gives that cell's GeoTIFF value, for hours, WBGT and the niche class", async () => {
+  it("paints every visible land cell in the colour the legend gives that cell's GeoTIFF value, for hours, WBGT, the niche class and person-hours per km²", async () => {
     const { page } = shared;
     await hideOutlines(page);
     const cases: Array<{ figure: string; combo: string; statistic: string; period: string; set: Array<[string, string]> }> = [
       { figure: 'hours-lost-shift', combo: 'high.acclimatized.sun', statistic: 'p90', period: '07', set: [['figure', 'hours-lost-shift'], ['workloadClass', 'high'], ['statistic', 'p90'], ['period', '07']] },
       { figure: 'wbgt-mean', combo: 'shade', statistic: 'mean', period: '03', set: [['figure', 'wbgt-mean'], ['exposure', 'shade'], ['period', '03']] },
       { figure: 'niche-class', combo: 'air', statistic: 'class', period: 'year', set: [['figure', 'niche-class']] },
+      { figure: 'person-hours-lost-density', combo: 'all', statistic: 'mean', period: '07', set: [['figure', 'person-hours-lost-density'], ['statistic', 'mean'], ['period', '07']] },
     ];
     for (const c of cases) {
       for (const [k, v] of c.set) await choose(page, k, v);
@@ -242,6 +243,23 @@ describe('the map page', () => {
       // The layer is not one flat colour, so the comparison can tell cells apart.
       expect(distinct.size, layer.id).toBeGreaterThan(1);
     }
+  });
+
+  it("shows the person-hours per km² layer with the people raster's source line (name, year, licence, invented) under its legend, and no class, acclimatization or exposure choice", async () => {
+    const page = (await session.open('/map/')).page;
+    await page.waitForSelector(`#${MAP}[data-map-state="idle"]`, { timeout: 30_000 });
+    // The hours layer made without the raster carries no people source line.
+    expect(await page.$('#map-legend-source')).toBeNull();
+    await choose(page, 'figure', 'person-hours-lost-density');
+    const layer = findLayer('person-hours-lost-density', 'all', 'mean', 'year');
+    await waitForLayer(page, layer.id);
+    const wf = (manifest as unknown as { workforce: { name: string; year: number; licence: string; invented: boolean } }).workforce;
+    const source = (await page.textContent('#map-legend-source'))!;
+    expect(source).toContain(`${wf.name} (${wf.year})`);
+    expect(source).toContain(wf.licence);
+    expect(source).toMatch(/^Invented people\. /);
+    expect(await page.textContent('#map-legend .legend-unit')).toBe(' [person-h km-2]');
+    for (const key of ['workloadClass', 'acclimatization', 'exposure']) expect(await page.isVisible(`[data-control="${key}"]`), key).toBe(false);
   });
 
   it('changes colours between months and workload classes exactly where the data change', async () => {

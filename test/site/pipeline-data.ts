@@ -21,6 +21,12 @@ const ODD_REGIONS = join(PROJECT_ROOT, 'test/fixtures/site-regions');
 /** Years and baseline of the test atlas [year]. */
 export const PIPELINE_DATA_YEARS = [2021, 2023] as const; // three years: the demo writer takes each year
 export const PIPELINE_DATA_BASELINE = [2021, 2022] as const;
+/** The workforce raster the test atlas names (the demo's invented population, content/workforce-shares.csv shares). */
+export const PIPELINE_DATA_WORKFORCE = {
+  name: 'Invented population of Quellmar (site test)',
+  year: 2024,
+  licence: 'Invented for the demo by heathours demo-data; no licence applies',
+} as const;
 
 function listFiles(dir: string): string[] {
   if (!existsSync(dir)) return [];
@@ -38,6 +44,7 @@ function inputsDigest(): string {
   const files = [
     ...listFiles(join(PROJECT_ROOT, 'pipeline')),
     join(PROJECT_ROOT, 'content/workload-classes.yaml'),
+    join(PROJECT_ROOT, 'content/workforce-shares.csv'),
     ...listFiles(join(PROJECT_ROOT, 'content/regions')),
     ...listFiles(ODD_REGIONS),
     join(PROJECT_ROOT, 'test/site/pipeline-data.ts'),
@@ -92,6 +99,7 @@ export async function buildPipelineData(): Promise<PipelineData> {
       if (f.endsWith('.geojson')) cpSync(f, join(root, 'regions', relative(f.endsWith('odd-name.geojson') ? ODD_REGIONS : join(PROJECT_ROOT, 'content/regions'), f)));
     }
     const { writeDemoDataset } = await import('../../pipeline/demo/index.ts');
+    const { POPULATION_FILE } = await import('../../pipeline/demo/population.ts');
     const { buildAtlas } = await import('../../pipeline/run/build-atlas.ts');
     const [y0, y1] = PIPELINE_DATA_YEARS;
     await writeDemoDataset({ outDir: join(root, 'inputs'), years: [y0, y0 + 1, y1], layout: 'mixed', grid: 'small', quiet: true });
@@ -112,6 +120,13 @@ regions: regions
 output: out
 work:
   classesFile: ${join(PROJECT_ROOT, 'content/workload-classes.yaml')}
+workforce:
+  raster: inputs/${POPULATION_FILE}
+  shares: ${join(PROJECT_ROOT, 'content/workforce-shares.csv')}
+  name: ${PIPELINE_DATA_WORKFORCE.name}
+  year: ${PIPELINE_DATA_WORKFORCE.year}
+  licence: ${PIPELINE_DATA_WORKFORCE.licence}
+  invented: true
 `,
     );
     process.env.HEATHOURS_BUILD_TIME ??= '2026-01-01T00:00:00.000Z';

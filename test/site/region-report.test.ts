@@ -144,6 +144,48 @@ describe('the region report page', () => {
     }
   });
 
+  it("shows the region's people from its summary JSON, the raster's name, year and licence (marked invented), and per class person-hours, FTE and share of outdoor time lost equal to its CSV", async () => {
+    const rows = csvRows(REGION);
+    const summary = JSON.parse(readFileSync(join(dataDir, 'data/regions', `${REGION}.json`), 'utf8'));
+    const wf = (manifest as unknown as { workforce: { name: string; year: number; licence: string; invented: boolean } }).workforce;
+    expect(wf.invented).toBe(true);
+    // The source line names the raster as the manifest does, and says the people are invented.
+    const source = (await report.page.textContent('#workforce-source'))!.replace(/\s+/g, ' ');
+    expect(source).toContain(`${wf.name} (${wf.year})`);
+    expect(source).toContain(wf.licence);
+    expect(source).toMatch(/Invented people/);
+    // People: data/regions/<id>.json workforce.people (the conservation against GDAL is test/run/workforce-build.test.ts).
+    expect(Number(await report.page.getAttribute('#workforce-facts tr[data-key="people"] td', 'data-value'))).toBe(summary.workforce.people);
+    expectShown((await report.page.textContent('#workforce-facts tr[data-key="people"] td'))!.split(' (')[0], Math.round(summary.workforce.people));
+    const figureOf: Record<string, string> = { above: 'person-hours-above-limit-shift', lost: 'person-hours-lost-shift', fte: 'full-time-equivalents-lost', share: 'outdoor-work-time-lost' };
+    const check = async (selector: string, period: (r: Record<string, string>) => string, cls: (r: Record<string, string>) => string, nRows: number) => {
+      const t = await readKeyedTable(report.page, selector);
+      expect(t.rows).toHaveLength(nRows);
+      expect(t.keys.slice(1)).toEqual(['above-mean', 'above-p90', 'lost-mean', 'lost-p90', 'fte-mean', 'fte-p90', 'share-mean', 'share-p90']);
+      for (const r of t.rows) {
+        t.keys.slice(1).forEach((key, i) => {
+          const [what, stat] = key.split('-');
+          const want = csvValue(rows, { period: period(r.attrs), figure: figureOf[what], cls: cls(r.attrs), acc: 'by-shares', exp: 'by-shares', stat });
+          expect(r.cells[i + 1].value, `${selector} ${r.attrs['data-row']} ${key}`).toBe(want);
+          expectShown(r.cells[i + 1].text, Number(want));
+        });
+      }
+    };
+    await check('#workforce-by-class', () => 'year', (a) => a['data-row'], manifest.work.classes.length + 1);
+    await check('#workforce-by-month', (a) => a['data-row'], () => 'all', 13);
+    // FTE = person-hours lost / the hours of a year of the shift pattern (Mon–Sat 07–17: 10 h × 6 days × 52 weeks = 3,120 h, by hand).
+    const lost = Number(csvValue(rows, { period: 'year', figure: 'person-hours-lost-shift', cls: 'all', acc: 'by-shares', exp: 'by-shares', stat: 'mean' }));
+    const fte = Number(csvValue(rows, { period: 'year', figure: 'full-time-equivalents-lost', cls: 'all', acc: 'by-shares', exp: 'by-shares', stat: 'mean' }));
+    expect(summary.workforce.annualHours).toBe(3120);
+    expect(fte).toBeCloseTo(lost / 3120, 1);
+  });
+
+  it("every region's report carries the workforce section with the raster's source line (the odd-name region takes the default shares)", () => {
+    for (const f of htmlFiles(build.distDir).filter((x) => /^regions\/[^/]+\/index\.html$/.test(x))) {
+      expect(readFileSync(join(build.distDir, f), 'utf8'), f).toContain('id="workforce-source"');
+    }
+  });
+
   it('the limits are the NIOSH 2016 REL/RAL check values of docs/methods.md §8.2 for the default work rates', async () => {
     const t = await readKeyedTable(report.page, '#limits');
     const check: Record<number, [number, number]> = { 180: [30.76, 28.1], 300: [28.21, 24.97], 415: [26.59, 22.99], 520: [25.47, 21.6] };
@@ -300,6 +342,9 @@ describe('the region report page', () => {
     expect(await page.textContent('[data-page-url]')).toBe(new URL(`regions/${REGION}/`, session.baseUrl).href);
     for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges']) expect(await page.isVisible(sel), sel).toBe(true);
     expect(await page.isVisible('#monthly-high-sun')).toBe(false);
+    // The workforce view is left to the web page (the four printed pages are full); the printed note says so.
+    expect(await page.isVisible('#workforce')).toBe(false);
+    expect(await page.isVisible('#print-workforce')).toBe(true);
     expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
     // Nothing is wider than an A4 page inside the printed margins: 210 − 2 × 11 mm = 188 mm = 710 px at 96 px/in.
     await page.setViewportSize({ width: 710, height: 1000 });

@@ -177,6 +177,20 @@ describe('bad data files are catalogued errors naming the file and where', () =>
     expect(e.where).toMatchObject({ file, key: 'work.classes' });
   });
 
+  it('a region summary whose workforce people are negative, or a manifest workforce without its licence: SiteDataInvalid at that key', () => {
+    const dir = copy();
+    const file = join(dir, 'data/regions', `${REGION}.json`);
+    const d = JSON.parse(readFileSync(file, 'utf8'));
+    expect(d.workforce.people, 'the test atlas weights by a workforce raster').toBeGreaterThan(0);
+    writeFileSync(file, JSON.stringify({ ...d, workforce: { ...d.workforce, people: -1 } }));
+    expect(expectCatalogued(() => loadRegionDetail(REGION, dir), 'SiteDataInvalid', /workforce\.people/).where).toMatchObject({ file, key: 'workforce.people' });
+    const mf = join(dir, 'data/manifest.json');
+    const m = JSON.parse(readFileSync(mf, 'utf8'));
+    delete m.workforce.licence;
+    writeFileSync(mf, JSON.stringify(m));
+    expect(expectCatalogued(() => loadAtlasManifest(dir), 'SiteDataInvalid', /workforce\.licence/).where).toMatchObject({ file: mf, key: 'workforce.licence' });
+  });
+
   it('the report, map, calculator and downloads readers share one parse of the manifest, and a rewritten manifest is read afresh', () => {
     const dir = copy();
     const file = join(dir, 'data/manifest.json');

@@ -60,6 +60,10 @@ export interface ExplorerFigure {
   units: string;
   /** The unit in words for a month's and for the year's value, e.g. "hours per worker per month" (pipeline/publish/data-dictionary.ts). */
   unitWords: { month: string; year: string };
+  /** The data behind the figure beyond the weather, shown under its legend: the people raster's name, year, licence (workforce figures). */
+  source?: string;
+  /** Whether those data are invented. */
+  sourceInvented?: boolean;
 }
 
 export interface ExplorerChoice {

@@ -158,6 +158,20 @@ async function start(root: HTMLElement): Promise<void> {
     range.id = 'map-legend-range';
     range.textContent = legendRangeNote(legend, { figure: layer.figure, period: layer.period, unitWords: fig ? fig.unitWords[layer.period === 'year' ? 'year' : 'month'] : layer.units }, unit, rangeBefore);
     legendBox.append(range);
+    if (fig?.source) {
+      // The people raster behind a workforce layer: name, year, licence; invented ones say so.
+      const src = document.createElement('p');
+      src.className = 'legend-source';
+      src.id = 'map-legend-source';
+      if (fig.sourceInvented) {
+        const tag = document.createElement('strong');
+        tag.className = 'invented-tag';
+        tag.textContent = 'Invented people. ';
+        src.append(tag);
+      }
+      src.append(fig.source);
+      legendBox.append(src);
+    }
     const sub = document.createElement('p');
     sub.className = 'legend-view';
     sub.textContent = [d.view, d.statistic].filter((x) => x).join(' · ');
