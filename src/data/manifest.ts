@@ -107,6 +107,23 @@ export const manifestWorkSchema = z.object({
 
 export type ManifestWork = z.infer<typeof manifestWorkSchema>;
 
+const changeRange = z.object({ min: z.number(), max: z.number(), mean: z.number() });
+const scenarioSchema = z.object({
+  id: z.string().regex(/^[a-z0-9][a-z0-9-]*$/),
+  name: z.string().min(1),
+  description: z.string().optional(),
+  definition: z.union([
+    z.object({ kind: z.literal('warming'), warming: z.number() }),
+    z.object({ kind: z.literal('change-file'), changeFile: z.string(), sha256: z.string(), humidity: z.enum(['relative', 'specific']), variables: z.array(z.string()) }),
+  ]),
+  words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1), caveat: z.string().min(1) }),
+  changes: z.object({ temperature: changeRange, humidity: changeRange.nullable(), solar: changeRange.nullable() }),
+  dataPath: z.string().min(1),
+  counts: z.record(z.number()),
+  layers: z.array(layerSchema),
+});
+export type SiteScenario = z.infer<typeof scenarioSchema>;
+
 export const manifestSchema = z
   .object({
     manifestVersion: z.literal(1),
@@ -127,6 +144,10 @@ export const manifestSchema = z
     counts: z.record(z.number()),
     layers: z.array(layerSchema),
     artefacts: z.array(artefactSchema),
+    /** What every scenario is and is not, to show with any of them (pipeline/scenario/describe.ts). */
+    scenarioCaveat: z.string().min(1).optional(),
+    /** The what-if climates published under data/scenarios/<id>/ (same files as the record's). */
+    scenarios: z.array(scenarioSchema).optional(),
   })
   .superRefine((m, ctx) => {
     const paths = new Set<string>();

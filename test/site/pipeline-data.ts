@@ -1,7 +1,7 @@
 /**
  * A data folder made by the real pipeline for the site's page tests: the invented small demo
  * (8 × 10 cells at 1°, 2021–2023, one legacy and two NetCDF-4 years) built with `buildAtlas`
- * (data only), with the demo's five districts plus one region whose name and properties are HTML
+ * (data only) with one scenario (a uniform warming of 2 K), with the demo's five districts plus one region whose name and properties are HTML
  * and script (test/fixtures/site-regions/odd-name.geojson), for the escaping tests.
  *
  * Built once per digest of what it depends on (pipeline/, content/workload-classes.yaml,
@@ -21,6 +21,8 @@ const ODD_REGIONS = join(PROJECT_ROOT, 'test/fixtures/site-regions');
 /** Years and baseline of the test atlas [year]. */
 export const PIPELINE_DATA_YEARS = [2021, 2023] as const; // three years: the demo writer takes each year
 export const PIPELINE_DATA_BASELINE = [2021, 2022] as const;
+/** The test atlas's one scenario: a uniform warming (invented for the tests). */
+export const PIPELINE_DATA_SCENARIO = { id: 'warm-2k', name: 'Uniform warming of 2 K (test)', warming: 2 } as const;
 
 function listFiles(dir: string): string[] {
   if (!existsSync(dir)) return [];
@@ -112,6 +114,8 @@ regions: regions
 output: out
 work:
   classesFile: ${join(PROJECT_ROOT, 'content/workload-classes.yaml')}
+scenarios:
+  - { id: ${PIPELINE_DATA_SCENARIO.id}, name: ${PIPELINE_DATA_SCENARIO.name}, warming: ${PIPELINE_DATA_SCENARIO.warming} }
 `,
     );
     process.env.HEATHOURS_BUILD_TIME ??= '2026-01-01T00:00:00.000Z';

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
 import { CAUTIONS } from '../../src/lib/cautions.ts';
-import { buildPipelineData } from './pipeline-data.ts';
+import { buildPipelineData, PIPELINE_DATA_SCENARIO } from './pipeline-data.ts';
 import {
   ARTIFACTS_DIR,
   buildTestSite,
@@ -40,8 +40,8 @@ let manifest: {
 };
 
 /** The region's CSV, read here with a plain split (the tables hold no quoted fields). */
-function csvRows(id: string): Array<Record<string, string>> {
-  const lines = readFileSync(join(dataDir, 'data/regions', `${id}.csv`), 'utf8').trim().split('\n');
+function csvRows(id: string, scenario?: string): Array<Record<string, string>> {
+  const lines = readFileSync(join(dataDir, 'data', ...(scenario ? ['scenarios', scenario] : []), 'regions', `${id}.csv`), 'utf8').trim().split('\n');
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
@@ -142,6 +142,57 @@ describe('the region report page', () => {
         .map((m) => m.p);
       expect(await report.page.$$eval(`#worst-months li[data-state="${acc}"] [data-month]`, (els) => els.map((e) => e.getAttribute('data-month')))).toEqual(months);
     }
+  });
+
+  it('shows the baseline and the scenario side by side for the worst months and the year, equal to the two CSVs, and says what the scenario is and that it is a what-if, not a forecast', async () => {
+    const sc = PIPELINE_DATA_SCENARIO.id;
+    const base = csvRows(REGION);
+    const warm = csvRows(REGION, sc);
+    const t = await report.page.$eval('#scenario-table', (table) => ({
+      columns: [...table.querySelectorAll('thead th[data-column]')].map((th) => th.getAttribute('data-column')),
+      rows: [...table.querySelectorAll('tbody tr')].map((tr) => ({ period: tr.getAttribute('data-period'), values: [...tr.querySelectorAll('td')].map((td) => td.getAttribute('data-value')) })),
+    }));
+    expect(t.columns).toEqual(['baseline', sc]);
+    expect(t.rows.at(-1)!.period).toBe('year');
+    expect(t.rows.length).toBeGreaterThanOrEqual(2);
+    for (const r of t.rows) {
+      const k = { period: r.period!, figure: 'hours-lost-shift', cls: 'moderate', acc: 'acclimatized', exp: 'sun', stat: 'mean' };
+      expect(r.values).toEqual([csvValue(base, k), csvValue(warm, k)]);
+      // The warmer what-if never loses fewer hours.
+      expect(Number(r.values[1])).toBeGreaterThanOrEqual(Number(r.values[0]));
+    }
+    const text = (await report.page.textContent('#scenarios'))!.replace(/\s+/g, ' ');
+    expect(text).toContain(PIPELINE_DATA_SCENARIO.name);
+    expect(text).toContain('uniform warming');
+    expect(text).toMatch(/what-if, not a forecast/i);
+    expect(text).toMatch(/day-to-day and hour-to-hour weather is kept and only monthly means change/);
+  });
+
+  it('the scenario switch shows the baseline beside the chosen scenario alone, and every scenario again; without JavaScript the switch is hidden and all columns show', async () => {
+    const page = report.page;
+    const sc = PIPELINE_DATA_SCENARIO.id;
+    expect(await page.isVisible('[data-scenario-switch]')).toBe(true);
+    const visibleColumns = () => page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.filter((th) => (th as HTMLElement).offsetParent !== null).map((th) => th.getAttribute('data-column')));
+    await page.selectOption('#scenario-choice', sc);
+    expect(await visibleColumns()).toEqual(['baseline', sc]);
+    expect(await page.getAttribute('#scenarios', 'data-scenario')).toBe(sc);
+    expect(await page.isVisible(`[data-scenario-about="${sc}"]`)).toBe(true);
+    await page.selectOption('#scenario-choice', 'all');
+    expect(await visibleColumns()).toEqual(['baseline', sc]);
+    const noJs = await session.open(`/regions/${REGION}/`, { javaScript: false });
+    expect(await noJs.page.isVisible('[data-scenario-switch]')).toBe(false);
+    expect(await noJs.page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.length)).toBe(2);
+    await noJs.page.close();
+  });
+
+  it('says that the trend of the record needs at least 15 years: the test atlas has 3', async () => {
+    expect(await report.page.getAttribute('#trend', 'data-trend-enough')).toBe('no');
+    const text = (await report.page.textContent('#trend-short'))!.replace(/\s+/g, ' ');
+    expect(text).toContain('needs at least 15 years; this atlas has 3 (2021–2023)');
+    // The CSV agrees: the trend rows are there, empty, with the years that had a value.
+    const rows = csvRows(REGION).filter((r) => r.statistic === 'trend' && r.figure === 'hours-lost-shift');
+    expect(rows.length).toBeGreaterThan(0);
+    for (const r of rows) expect([r.period, r.value, r.unit, r.years_used, r.baseline]).toEqual(['year', '', 'h decade-1', '3', '2021-2023']);
   });
 
   it('the limits are the NIOSH 2016 REL/RAL check values of docs/methods.md §8.2 for the default work rates', async () => {
