@@ -77,7 +77,7 @@ beforeAll(async () => {
   session = await startSiteSession(build.distDir);
   report = await session.open(`/regions/${REGION}/`);
   process.stderr.write(`region report tests: site build ${build.reused ? 'reused' : `took ${(build.buildMs / 1000).toFixed(1)} s`}\n`);
-});
+}, 900_000);
 
 afterAll(async () => {
   await session?.close();
@@ -182,7 +182,6 @@ describe('the region report page', () => {
     const noJs = await session.open(`/regions/${REGION}/`, { javaScript: false });
     expect(await noJs.page.isVisible('[data-scenario-switch]')).toBe(false);
     expect(await noJs.page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.length)).toBe(2);
-    await noJs.page.close();
   });
 
   it('says that the trend of the record needs at least 15 years: the test atlas has 3', async () => {
