@@ -1,6 +1,7 @@
 /**
  * The map explorer's catalogue for this build's data folder (lib/explorer-catalogue.ts), read
- * once per build: the manifest's layers, the regions and each layer's value per region. A data
+ * once per build: the manifest's layers (without the trend layers, which are downloads only), the
+ * regions and each layer's value per region. A data
  * folder without a manifest gives an empty catalogue (`available: false`).
  */
 import { loadInventory } from './inventory.ts';
@@ -16,7 +17,9 @@ const cache = new Map<string, ExplorerCatalogue>();
 export function loadExplorerCatalogue(dataDir: string = siteDataDir()): ExplorerCatalogue {
   const hit = cache.get(dataDir);
   if (hit) return hit;
-  const manifest = loadManifestLayers(dataDir);
+  const all = loadManifestLayers(dataDir);
+  // The trend layers (one per combination, whole year only) are GIS downloads, not a view of the explorer yet.
+  const manifest = all && { ...all, layers: all.layers.filter((l) => l.statistic !== 'trend') };
   let catalogue: ExplorerCatalogue;
   if (!manifest) catalogue = emptyCatalogue(loadInventory(dataDir).atlas.invented);
   else {

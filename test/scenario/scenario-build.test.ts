@@ -14,6 +14,7 @@ import { Netcdf3Writer } from '../../pipeline/formats/netcdf3-writer.ts';
 import { closeChangeFiles } from '../../pipeline/run/scenario-change.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { fromFile } from 'geotiff';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
@@ -135,6 +136,28 @@ describe('scenarios through the build (invented small demo)', () => {
     }
     expect(checked).toBeGreaterThan(1000);
     expect(rose).toBeGreaterThan(checked / 4);
+  });
+
+  it('publishes a trend layer per combination of hours above the limit and hours lost (whole year, h per decade), for the record and each scenario, holding no value with 2 years built (a trend needs 15)', async () => {
+    const manifest = JSON.parse(readFileSync(join(out, 'data/manifest.json'), 'utf8')) as Manifest & { scenarios: Array<{ id: string; layers: Manifest['layers'] }> };
+    for (const layers of [manifest.layers, ...manifest.scenarios.map((s) => s.layers)]) {
+      const trend = layers.filter((l) => l.statistic === 'trend');
+      const w = manifest.work as { classes: unknown[]; acclimatization: unknown[]; exposures: unknown[] };
+      expect(trend.length).toBe(2 * w.classes.length * w.acclimatization.length * w.exposures.length);
+      for (const l of trend) {
+        expect([l.period, l.units]).toEqual(['year', 'h decade-1']);
+        expect(['hours-above-limit-shift', 'hours-lost-shift']).toContain(l.figure);
+      }
+      const tif = await fromFile(join(out, trend[0].tif));
+      const values = (await (await tif.getImage(0)).readRasters({ interleave: true })) as unknown as Float32Array;
+      await tif.close();
+      expect(values.length).toBeGreaterThan(0);
+      expect(values.every((v) => v === -9999 || Number.isNaN(v))).toBe(true);
+    }
+    // The region tables agree: trend rows, empty, with the 2 years that had a value.
+    const rows = readCsv(join(out, 'data/regions/drovan-basin.csv')).filter((r) => r.statistic === 'trend');
+    expect(rows.length).toBeGreaterThan(0);
+    for (const r of rows) expect([r.period, r.value, r.years_used, r.baseline]).toEqual(['year', '', '2', '2022-2023']);
   });
 
   it('a change file whose month axis has 11 entries stops the build with ChangeFileNotMonthly and publishes nothing', async () => {
