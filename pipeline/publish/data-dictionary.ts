@@ -88,6 +88,8 @@ export interface DictionaryInput {
   statistics: Readonly<Record<string, string>>;
   baseline: readonly [number, number];
   latestYear: number;
+  /** Years built, first–last (the `baseline` code of the trend rows); omitted: as the baseline. */
+  years?: readonly [number, number];
 }
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
@@ -190,8 +192,10 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     rows.push(row(REGION_TABLE, 'unit', trendUnit(u), words, trendUnit(u), words, 'The statistic trend'));
   }
   if (!input.figures.some((f) => f.units === '1')) rows.push(row(REGION_TABLE, 'unit', '1', 'dimensionless', '1', 'a number without unit', 'The statistic trend-p (a probability, 0–1)'));
-  rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean`));
+  rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean${(input.years ?? input.baseline)[0] === b0 && (input.years ?? input.baseline)[1] === b1 ? ', and trend and trend-p (the years built)' : ''}`));
   rows.push(row(REGION_TABLE, 'baseline', String(input.latestYear), `The latest year ${input.latestYear}`, '', '', 'The statistic latest'));
+  const built = input.years ?? input.baseline;
+  if (built[0] !== b0 || built[1] !== b1) rows.push(row(REGION_TABLE, 'baseline', `${built[0]}-${built[1]}`, `The years built ${built[0]}–${built[1]}`, '', '', 'The statistics trend and trend-p'));
   return rows;
 }
 

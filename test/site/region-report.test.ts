@@ -1,7 +1,7 @@
 /**
  * Browser tests of the region report pages, on a site built from the data folder the real
  * pipeline makes (test/site/pipeline-data.ts: the invented small demo plus a region whose name is
- * HTML and script), served on 127.0.0.1 in Debian's headless Chromium.
+ * HTML and script, with one scenario, a uniform warming of 2 K), served on 127.0.0.1 in Debian's headless Chromium.
  * External checks: the limits against docs/methods.md §8.2's check values (NIOSH 2016 REL/RAL,
  * 300 W → 28.21 / 24.97 °C); the typical WBGT against a median found by bisection on the
  * piecewise-linear cumulative hours (a different algorithm from the page's walk through the
@@ -71,7 +71,7 @@ async function readKeyedTable(page: Page, selector: string): Promise<{ keys: str
 }
 
 beforeAll(async () => {
-  ({ dataDir } = await buildPipelineData());
+  ({ dataDir } = await buildPipelineData({ withScenario: true }));
   manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8'));
   build = await buildTestSite(dataDir);
   session = await startSiteSession(build.distDir);
