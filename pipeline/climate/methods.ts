@@ -6,6 +6,7 @@
  */
 import { eq, type MethodConstant, type MethodGroup } from '../model/sources.ts';
 import { MONTHLY_COMPLETENESS } from './completeness.ts';
+import { MIN_TREND_YEARS, YEARS_PER_DECADE } from './trend.ts';
 import { NICHE_BOUNDS, NICHE_MAIN_MODE_C, NICHE_UNCERTAINTY_C } from './niche.ts';
 
 function c(symbol: string, name: string, value: number, unit: string, code: string): MethodConstant {
@@ -24,6 +25,8 @@ const SEC_LO = NB('secondLow', 'T_second,lo', 'lower edge of the second band');
 const SEC_HI = NB('secondHigh', 'T_second,hi', 'upper edge of the second band');
 const OUT = NB('outsideFrom', 'T_out', 'mean annual temperature from which a cell is outside the niche');
 const MODE = c('T_mode', 'main mode of the niche', NICHE_MAIN_MODE_C, '°C', 'pipeline/climate/niche.ts#NICHE_MAIN_MODE_C');
+const TREND_MIN = c('n_min', 'fewest years with a value for a trend to be shown', MIN_TREND_YEARS, 'years', 'pipeline/climate/trend.ts#MIN_TREND_YEARS');
+const DECADE = c('D', 'years in a decade (slopes are shown per decade)', YEARS_PER_DECADE, 'years', 'pipeline/climate/trend.ts#YEARS_PER_DECADE');
 const NEAR = c('ΔT_edge', 'half-width of the uncertain band around each edge', NICHE_UNCERTAINTY_C, '°C', 'pipeline/climate/niche.ts#NICHE_UNCERTAINTY_C');
 
 export const CLIMATE_METHODS: MethodGroup = {
@@ -85,6 +88,27 @@ export const CLIMATE_METHODS: MethodGroup = {
       constants: [MISS],
       sources: ['wmo1203'],
       code: ['pipeline/climate/annual-mean.ts annualMeanFromMonthlySums()'],
+    },
+    {
+      id: 'trend',
+      name: 'The trend of the record',
+      summary:
+        'How fast a figure\u2019s annual value has changed over the built years: the Theil–Sen slope (the median of the slopes between every pair of years, little moved by one extreme year) per decade, with the p-value of the Mann–Kendall test of a monotonic trend. A trend of the past record, not a projection.',
+      equation: [
+        eq`slope = ${DECADE} · median over i < j of (x_j − x_i)/(t_j − t_i)   [unit of the figure per decade]`,
+        'S = Σ_{i<j} sign(x_j − x_i);   Var S = [n(n − 1)(2n + 5) − Σ_g t_g(t_g − 1)(2t_g + 5)]/18',
+        'Z = S/√(Var S);   p = erfc(|Z|/√2)  (two-sided, normal approximation)',
+        eq`shown only where n ≥ ${TREND_MIN}`,
+      ],
+      symbols: [
+        { symbol: 'x_i, t_i', meaning: 'the annual value and its year, over the years with a value', unit: 'unit of the figure, year' },
+        { symbol: 'n', meaning: 'years with a value', unit: 'years' },
+        { symbol: 't_g', meaning: 'size of a group of equal values', unit: '–' },
+      ],
+      constants: [DECADE, TREND_MIN],
+      sources: ['sen1968', 'mann1945', 'kendall1975'],
+      code: ['pipeline/climate/trend.ts theilSenSlope(), mannKendall(), computeTrends()'],
+      notes: ['The minimum of 15 years is ours: over fewer years the slope mostly reflects which years happened to be hot. A small p-value says the values rise or fall more steadily than chance would give; it says nothing about the cause.'],
     },
     {
       id: 'niche',

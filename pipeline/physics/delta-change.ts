@@ -1,6 +1,6 @@
 /**
  * The delta change method: a what-if climate made from the record by shifting every hour of a
- * month by that month's change at the cell (METHODS.md §10.1). The record's day-to-day and
+ * month by that month's change at the cell (docs/methods.md §16). The record's day-to-day and
  * hour-to-hour weather is kept; only the monthly means change. Applied to the hourly fields
  * before the WBGT physics; pure, arrays in place.
  *
@@ -9,7 +9,7 @@
  * - humidity, `relative`: RH' = RH + Δh/100 (RH = e_s(T_d)/e_s(T) with T_d ≤ T; Δh in percentage
  *   points, 0 when the file has none: RH kept), then e' = RH'·e_s(T') and T_d' = e_s⁻¹(e'):
  *   in the Magnus form of Buck (1981), with g(x) = b·x/(x + c), ln RH = g(T_d) − g(T) and
- *   T_d' = c·z/(b − z), z = ln RH' + g(T') (METHODS.md §1.2), the one Buck table of constants.ts;
+ *   T_d' = c·z/(b − z), z = ln RH' + g(T') (docs/methods.md §3.1, eq. 16.2), the one Buck table of constants.ts;
  * - humidity, `specific`: q' = q·(1 + Δh), q = ε·e/(p − (1 − ε)·e) with the model's vapour pressure
  *   e = f_w·e_s(T_d) (Δh = 0: q kept), e' = q'·p/(ε + (1 − ε)·q'), T_d' = e_s⁻¹(e'/f_w);
  * - either way RH' above 1 (supersaturation) is clamped to 1 and below {@link SCENARIO_RH_FLOOR}

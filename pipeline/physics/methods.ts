@@ -8,7 +8,7 @@
  */
 import { eq, type MethodConstant, type MethodGroup } from '../model/sources.ts';
 import {
-  ALB_GLOBE, ALB_SFC, ALB_WICK, BUCK_1981, CP_AIR, CZA_MIN, D_GLOBE, D_GLOBE_STANDARD, EMIS_SHELTER, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
+  ALB_GLOBE, ALB_SFC, ALB_WICK, BUCK_1981, CP_AIR, EPSILON_WATER_AIR, SCENARIO_RH_FLOOR, CZA_MIN, D_GLOBE, D_GLOBE_STANDARD, EMIS_SHELTER, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, EPS_K_AIR, FDIR_MAX, KELVIN,
   L_WICK, MIN_SPEED, MOIST_AIR_FACTOR, M_AIR, M_H2O, NORMSOLAR_MAX, PRANDTL, RATIO, REF_HEIGHT, R_AIR, R_GAS, SIGMA_LJ_AIR,
   SOLAR_CONSTANT, STEFAN_BOLTZMANN, WBGT_WEIGHT_AIR, WBGT_WEIGHT_GLOBE, WBGT_WEIGHT_WET_BULB, WICK_EXPONENT,
   WIND_EXPONENT_RURAL, WIND_EXPONENT_URBAN,
@@ -39,6 +39,8 @@ function literal(symbol: string, name: string, value: number, unit: string, code
 }
 
 // Shared constants.
+const EPS_WA = exported('ε', 'ratio of the molar masses of water and dry air, M_w/M_a', EPSILON_WATER_AIR, '–', 'EPSILON_WATER_AIR', 'M_w/M_a');
+const RH_MIN = exported('RH_min', 'lowest relative humidity a scenario leaves (clamped and counted)', SCENARIO_RH_FLOOR, '–', 'SCENARIO_RH_FLOOR');
 const SIGMA = exported('σ', 'Stefan–Boltzmann constant (as coded in the reference)', STEFAN_BOLTZMANN, 'W m⁻² K⁻⁴', 'STEFAN_BOLTZMANN');
 const EPS_SFC = exported('ε_sfc', 'ground emissivity', EMIS_SFC, '–', 'EMIS_SFC');
 const A_SFC = exported('α_sfc', 'ground albedo', ALB_SFC, '–', 'ALB_SFC');
@@ -441,6 +443,25 @@ export const PHYSICS_METHODS: MethodGroup = {
       sources: ['epa2000', 'liljegren2008'],
       code: ['pipeline/physics/wind.ts stabilityClass(), windAt2m(), wind2mStep()'],
       notes: ['The rural exponents are used unless a cell is flagged urban. Reanalysis has no vertical temperature difference, so nights use the stable column (the lower 2 m wind).'],
+    },
+    {
+      id: 'delta-change',
+      name: 'Scenarios: the delta change method',
+      summary:
+        'A what-if climate made from the record: every hour of a month at a cell is shifted by that month\u2019s change there, before the physics. The record\u2019s day-to-day and hour-to-hour weather is kept; only the monthly means change. A what-if, never a forecast.',
+      equation: [
+        'T\u2032 = T + ΔT_m;   S\u2032 = S·(1 + Δs_m) (global and direct);   pressure and wind kept',
+        eq`relative: RH\u2032 = RH + Δh_m/100, clamped to [${RH_MIN}, 1];   e\u2032 = RH\u2032·e_s(T\u2032);   T_d\u2032 = e_s⁻¹(e\u2032)`,
+        eq`specific: q = ${EPS_WA}·e/(p − (1 − ${EPS_WA})·e);   q\u2032 = q·(1 + Δh_m);   e\u2032 = q\u2032·p/(${EPS_WA} + (1 − ${EPS_WA})·q\u2032)`,
+      ],
+      symbols: [
+        { symbol: 'ΔT_m, Δh_m, Δs_m', meaning: 'the month\u2019s change at the cell: temperature, humidity (RH points or relative change of q), relative change of solar radiation', unit: 'K, % points or –, –' },
+        { symbol: 'e_s', meaning: 'saturation vapour pressure (Buck 1981, as above)', unit: 'hPa' },
+      ],
+      constants: [EPS_WA, RH_MIN],
+      sources: ['buck1981'],
+      code: ['pipeline/physics/delta-change.ts applyMonthlyChange()', 'pipeline/scenario/regrid.ts'],
+      notes: ['A cell-month with no temperature and humidity change keeps its temperature and dew point exactly: a zero change gives the record itself. Each clamp of relative humidity is counted and reported.'],
     },
   ],
 };

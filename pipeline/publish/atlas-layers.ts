@@ -8,16 +8,17 @@
 import { join } from 'node:path';
 import { figureStyle, nicheClassStyle, niceDomain, writeLayerFiles, type FigureKind, type LayerFiles, type LegendSpec } from './layers/index.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
-import { periodLabel } from './region-table.ts';
+import { periodLabel, trendUnit } from './region-table.ts';
 import type { HorizontalGrid } from '../model/grid.ts';
-import { MAPPED, NICHE_FIGURE, type GridField } from './grid-fields.ts';
+import { MAPPED, NICHE_FIGURE, TRENDED, type GridField } from './grid-fields.ts';
+import { MIN_TREND_YEARS } from '../climate/trend.ts';
 
 /** A published layer, as the manifest lists it. */
 export interface LayerEntry {
   id: string;
   figure: string;
   combo: string;
-  statistic: 'mean' | 'p90' | 'baseline' | 'class';
+  statistic: 'mean' | 'p90' | 'baseline' | 'class' | 'trend';
   period: string;
   units: string;
   png: string;
@@ -103,6 +104,20 @@ export async function writeAtlasLayers(
       }
     }
   }
+  // The trend of the annual value per decade (diverging colours around no change); empty below the minimum years.
+  for (const def of defs) {
+    if (!(TRENDED as readonly string[]).includes(def.id)) continue;
+    for (let k = 0; k < def.combos.length; k++) {
+      const f = find(def.id, k, 'trend', PERIODS - 1);
+      const m = Math.max(Math.abs(range.min[f.index]), Math.abs(range.max[f.index]));
+      const domain = Number.isFinite(m) && m > 0 ? symmetricDomain(m) : ([-1, 1] as [number, number]);
+      const dir = join(dataDir, 'layers', def.id, def.combos[k]);
+      const style = figureStyle('change', domain, trendUnit(def.units), { title: `${def.label}: trend per decade over the years built (Theil–Sen; needs ${MIN_TREND_YEARS} years)` });
+      const files = await writeLayerFiles(dir, 'trend-year', g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, Theil–Sen trend of the annual value per decade over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`, noData: -9999 });
+      entries.push(entry(`${def.id}/${def.combos[k]}/trend-year`, def.id, def.combos[k], 'trend', 'year', trendUnit(def.units), `layers/${def.id}/${def.combos[k]}/`, files));
+      onLayer();
+    }
+  }
   // Mean annual temperature over the baseline, and its niche class.
   const mat = find(NICHE_FIGURE, 0, 'baseline', PERIODS - 1);
   const cls = find(NICHE_FIGURE, 0, 'class', PERIODS - 1);
@@ -128,6 +143,12 @@ function safeDomain(indices: readonly number[], range: FieldRange, fromZero: boo
   } catch {
     return [0, 1];
   }
+}
+
+/** A domain symmetric about 0 reaching at least ±m, on nice numbers [unit of the values]. */
+function symmetricDomain(m: number): [number, number] {
+  const [, hi] = niceDomain([Float32Array.from([0, m])], { fromZero: true });
+  return [-hi, hi];
 }
 
 function entry(id: string, figure: string, combo: string, statistic: LayerEntry['statistic'], period: string, units: string, prefix: string, f: LayerFiles): LayerEntry {

@@ -12,7 +12,7 @@
  * `label`, `unit` (as the tables write it), `unit_in_words`, `description`.
  */
 import { csvLine } from '../formats/csv.ts';
-import { REGION_TABLE_COLUMNS } from './region-table.ts';
+import { REGION_TABLE_COLUMNS, trendUnit } from './region-table.ts';
 import { CELL_TABLE_COLUMNS } from './cell-table.ts';
 import { baselineYearCount, p90Description, p90Label } from './baseline-length.ts';
 
@@ -105,6 +105,8 @@ export interface DictionaryInput {
   statistics: Readonly<Record<string, string>>;
   baseline: readonly [number, number];
   latestYear: number;
+  /** Years built, first–last (the `baseline` code of the trend rows); omitted: as the baseline. */
+  years?: readonly [number, number];
 }
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
@@ -123,6 +125,8 @@ export function statisticShortLabel(statistic: string, n: number): string {
     case 'max': return 'Highest baseline year';
     case 'latest': return 'Latest year';
     case 'worst-cell-mean': return 'Highest cell mean';
+    case 'trend': return 'Trend per decade';
+    case 'trend-p': return 'p-value of the trend';
     default: return statistic;
   }
 }
@@ -138,6 +142,8 @@ export function statisticWords(statistic: string, baseline: readonly [number, nu
     case 'max': return 'Highest baseline year';
     case 'latest': return `The latest year built (${latestYear}), for comparison with the baseline`;
     case 'worst-cell-mean': return 'Highest baseline mean of any grid cell of the region';
+    case 'trend': return 'How fast the annual value changed over the years built, per decade (whole year only; a trend of the past record, not a projection)';
+    case 'trend-p': return 'How likely a trend at least this steady would be by chance if there were none (whole year only; small: a steady rise or fall)';
     default: return statistic;
   }
 }
@@ -163,8 +169,8 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     median: ['Baseline median', 'see unit', statisticWords('median', input.baseline, input.latestYear)],
     p90: ['90th-percentile year', 'see unit', statisticWords('p90', input.baseline, input.latestYear)],
     unit: ['Unit of the value', '', 'h or degC; codes below'],
-    years_used: ['Years used', 'years', 'Baseline years that counted for this row (a year with more than 240 missing hours in the period does not count); 1 for the latest year'],
-    baseline: ['Years of the statistic', '', 'First–last year of the baseline, or the latest year for the statistic latest'],
+    years_used: ['Years used', 'years', 'Baseline years that counted for this row (a year with more than 240 missing hours in the period does not count); 1 for the latest year; for trend and trend-p the years built that have a value (a trend needs 15)'],
+    baseline: ['Years of the statistic', '', 'First–last year of the baseline, the latest year for the statistic latest, or the years built for trend and trend-p'],
   };
   for (const c of REGION_TABLE_COLUMNS) {
     const [label, unit, d] = columnRows[c];
@@ -207,8 +213,16 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
   for (const [u, words] of Object.entries(WORKFORCE_UNIT_WORDS)) {
     if (input.figures.some((f) => f.units === u)) rows.push(row(EVERY, 'unit', u, words, u, words));
   }
-  rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean`));
+  // The trend rows of the region tables: each figure's unit per decade, and the p-value's 1.
+  for (const u of [...new Set(input.figures.map((f) => f.units))]) {
+    const words = `${UNIT_WORDS[u] ?? u} per decade`;
+    rows.push(row(REGION_TABLE, 'unit', trendUnit(u), words, trendUnit(u), words, 'The statistic trend'));
+  }
+  if (!input.figures.some((f) => f.units === '1')) rows.push(row(REGION_TABLE, 'unit', '1', 'dimensionless', '1', 'a number without unit', 'The statistic trend-p (a probability, 0–1)'));
+  rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean${(input.years ?? input.baseline)[0] === b0 && (input.years ?? input.baseline)[1] === b1 ? ', and trend and trend-p (the years built)' : ''}`));
   rows.push(row(REGION_TABLE, 'baseline', String(input.latestYear), `The latest year ${input.latestYear}`, '', '', 'The statistic latest'));
+  const built = input.years ?? input.baseline;
+  if (built[0] !== b0 || built[1] !== b1) rows.push(row(REGION_TABLE, 'baseline', `${built[0]}-${built[1]}`, `The years built ${built[0]}–${built[1]}`, '', '', 'The statistics trend and trend-p'));
   return rows;
 }
 

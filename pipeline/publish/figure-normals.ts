@@ -2,7 +2,7 @@
  * What the publish writers take: each figure's normals (pipeline/climate/normals.ts) over a set of
  * cells or for one region, with the figure's definition (pipeline/reduce/figures.ts).
  */
-import type { NicheAssessment, Normals } from '../climate/index.ts';
+import type { NicheAssessment, Normals, Trends } from '../climate/index.ts';
 import type { FigureDef } from '../reduce/figures.ts';
 
 /** One figure's normals per cell of a set of cells: items (cell · PERIODS + period) · nCombo + combo. */
@@ -19,6 +19,8 @@ export interface RegionFigureNormals {
   def: FigureDef;
   region: Normals;
   worstValue: Float64Array;
+  /** The trend of the annual value per combination (item k = combo k of period `year`; pipeline/climate/trend.ts); absent: no trend rows. */
+  trend?: Trends;
 }
 
 /** The niche per cell of a set of cells (pipeline/climate/niche-assessment.ts). */

@@ -97,6 +97,8 @@ export const STATISTIC_RULES: Record<string, string> = {
   max: 'highest baseline year',
   latest: 'the latest year built, for comparison with the baseline',
   'worst-cell-mean': 'highest baseline mean of any grid cell of the region',
+  trend: 'Theil-Sen slope of the annual value over every built year with a value, per decade (Sen 1968); empty with fewer than 15 years',
+  'trend-p': 'two-sided Mann-Kendall p-value of that trend (Mann 1945, Kendall 1975; normal approximation with the tie correction); empty with fewer than 15 years',
 };
 
 /** SHA-256 of a file [hex], streamed (a large file is never held in memory). */

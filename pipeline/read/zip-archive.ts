@@ -85,7 +85,7 @@ const listed = new Map<string, { size: number; mtimeMs: number; members: ZipMemb
 
 /** Lists the file members of an archive (folders left out), in archive order. */
 export async function listZipMembers(archive: string): Promise<ZipMember[]> {
-  let st;
+  let st: Awaited<ReturnType<typeof stat>>;
   try {
     st = await stat(archive);
     if (!st.isFile()) throw new Error('not a file');

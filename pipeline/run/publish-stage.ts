@@ -80,7 +80,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
   }
   await writeFile(join(p.stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
     figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
-    lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear,
+    lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear, years: [plan.years[0], plan.years[plan.years.length - 1]],
   }));
 
   const artefacts = await listArtefacts(p.stage, describeArtefact);

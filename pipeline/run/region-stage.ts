@@ -8,7 +8,7 @@
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { computeNormals, MONTHLY_COMPLETENESS, NICHE_CAVEAT, NICHE_CLASSES, NICHE_LABELS, nicheClassCode } from '../climate/index.ts';
+import { computeNormals, computeTrends, MONTHLY_COMPLETENESS, NICHE_CAVEAT, NICHE_CLASSES, NICHE_LABELS, nicheClassCode } from '../climate/index.ts';
 import { CELL_YEAR_HIST } from '../reduce/merge.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums } from '../regions/region-sums.ts';
@@ -79,7 +79,7 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
       const nItems = PERIODS * def.combos.length;
       const values = sums ? regionYearValues(sums[i]) : new Float64Array(nY * nItems).fill(NaN);
       const normals = computeNormals({ years: plan.years, values, nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
-      return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN) };
+      return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN), trend: computeTrends({ years: plan.years, values, nItems }, annualItems(def.combos.length)) };
     });
     // Person-hours, full-time equivalents and the share of outdoor work time lost: the region's
     // people-weighted hours per worker, times its people and shares (pipeline/regions/person-hours.ts).
@@ -100,7 +100,7 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
       const wfFigures = wf.regionDefs.map((def, i): RegionFigureNormals => {
         const nItems = PERIODS * def.combos.length;
         const normals = computeNormals({ years: plan.years, values: years[i], nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
-        return { def, region: normals, worstValue: new Float64Array(nItems).fill(NaN) };
+        return { def, region: normals, worstValue: new Float64Array(nItems).fill(NaN), trend: computeTrends({ years: plan.years, values: years[i], nItems }, annualItems(def.combos.length)) };
       });
       figures.push(...wfFigures);
       const annual = (i: number) => annualAll(wfFigures[i].region, wf.regionDefs[i].combos.length);
@@ -121,7 +121,7 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
         ['Full-time equivalent', `${wf.annualHours} h: a year of the shift pattern (hours per shift × days per week × 52)`],
       ];
     }
-    const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear);
+    const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear, [plan.years[0], plan.years[nY - 1]]);
     writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
     await writeRegionSpreadsheets(dataDir, region, table, workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo, cfg.regionWorkbooks);
     // Mean annual temperature against the niche.
@@ -162,6 +162,11 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
   const seconds = (Date.now() - t0) / 1000;
   log.info(`${plan.regions.length} region(s)${sc ? ` of scenario ${sc.id}` : ''}: tables, summaries and calculator tiles in ${seconds.toFixed(1)} s`);
   return { seconds };
+}
+
+/** Items of the whole year (period `year`) of a figure with `nCombos` combinations: (PERIODS − 1)·nCombos + k. */
+function annualItems(nCombos: number): Int32Array {
+  return Int32Array.from({ length: nCombos }, (_, k) => (PERIODS - 1) * nCombos + k);
 }
 
 /** The annual (period `year`) mean and 90th-percentile year of the `all` combination, null when withheld. */

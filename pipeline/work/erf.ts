@@ -46,6 +46,20 @@ export function erf(x: number): number {
   return x < 0 ? -r : r;
 }
 
+/**
+ * The complementary error function erfc(x) = 1 − erf(x) [dimensionless], with the continued
+ * fraction of A&S eq. 7.1.14 for x ≥ 2.5 evaluated directly (no cancellation: small tail
+ * probabilities keep their relative accuracy); 1 − erf(x) below. NaN → NaN.
+ */
+export function erfc(x: number): number {
+  if (x !== x) return NaN;
+  if (x < 2.5) return 1 - erf(x);
+  if (x >= 27) return 0;
+  let t = x;
+  for (let n = 60; n >= 1; n--) t = x + (0.5 * n) / t;
+  return (ONE_OVER_SQRT_PI * Math.exp(-x * x)) / t;
+}
+
 /** The standard normal cumulative distribution Φ(z) = ½·(1 + erf(z/√2)) [dimensionless]. */
 export function normalCdf(z: number): number {
   return 0.5 * (1 + erf(z * Math.SQRT1_2));

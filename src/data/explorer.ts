@@ -1,9 +1,10 @@
 /**
  * The map explorer's catalogue for this build's data folder (lib/explorer-catalogue.ts), read
- * once per build: the manifest's layers and the regions; and each layer's value per region
- * (data/region-values.ts), published one file per layer (`map/values/<n>.json`, pages/map/values/)
- * so the catalogue the map fetches first does not grow with layers × regions. A data folder
- * without a manifest gives an empty catalogue (`available: false`) and no values.
+ * once per build: the manifest's layers (without the trend layers, which are downloads only) and
+ * the regions; and each layer's value per region (data/region-values.ts), published one file per
+ * layer (`map/values/<n>.json`, pages/map/values/) so the catalogue the map fetches first does not
+ * grow with layers × regions. A data folder without a manifest gives an empty catalogue
+ * (`available: false`) and no values.
  */
 import { loadInventory } from './inventory.ts';
 import { loadManifestLayers } from './manifest-layers.ts';
@@ -14,12 +15,18 @@ import { emptyCatalogue, explorerCatalogue } from '../lib/explorer-catalogue.ts'
 import type { ExplorerCatalogue } from '../components/map/explorer/catalogue.ts';
 
 const cache = new Map<string, ExplorerCatalogue>();
+
+/** The manifest's layers the explorer shows: the trend layers (one per combination, whole year only) are GIS downloads, not a view of the explorer yet. */
+function explorerLayers(dataDir: string) {
+  const all = loadManifestLayers(dataDir);
+  return all && { ...all, layers: all.layers.filter((l) => l.statistic !== 'trend') };
+}
 const valuesCache = new Map<string, Record<string, Array<number | null>>>();
 
 export function loadExplorerCatalogue(dataDir: string = siteDataDir()): ExplorerCatalogue {
   const hit = cache.get(dataDir);
   if (hit) return hit;
-  const manifest = loadManifestLayers(dataDir);
+  const manifest = explorerLayers(dataDir);
   const catalogue = manifest ? explorerCatalogue(manifest, loadRegions(dataDir)) : emptyCatalogue(loadInventory(dataDir).atlas.invented);
   cache.set(dataDir, catalogue);
   return catalogue;
@@ -29,7 +36,7 @@ export function loadExplorerCatalogue(dataDir: string = siteDataDir()): Explorer
 export function loadExplorerValues(dataDir: string = siteDataDir()): Record<string, Array<number | null>> {
   const hit = valuesCache.get(dataDir);
   if (hit) return hit;
-  const manifest = loadManifestLayers(dataDir);
+  const manifest = explorerLayers(dataDir);
   const values = manifest ? regionLayerValues(dataDir, loadExplorerCatalogue(dataDir).regions.map((r) => r.id), manifest.layers) : {};
   valuesCache.set(dataDir, values);
   return values;

@@ -54,7 +54,7 @@ const layerSchema = z.object({
   id: z.string().min(1),
   figure: z.string().min(1),
   combo: z.string().min(1),
-  statistic: z.enum(['mean', 'p90', 'baseline', 'class']),
+  statistic: z.enum(['mean', 'p90', 'baseline', 'class', 'trend']),
   period: z.string().regex(/^(0[1-9]|1[0-2]|year)$/, 'period must be 01–12 or year'),
   units: z.string(),
   png: dataPath,
@@ -139,6 +139,22 @@ export const manifestWorkforceSchema = z.object({
 });
 
 export type ManifestWorkforceInfo = z.infer<typeof manifestWorkforceSchema>;
+const changeRange = z.object({ min: z.number(), max: z.number(), mean: z.number() });
+const scenarioSchema = z.object({
+  id: z.string().regex(/^[a-z0-9][a-z0-9-]*$/),
+  name: z.string().min(1),
+  description: z.string().optional(),
+  definition: z.union([
+    z.object({ kind: z.literal('warming'), warming: z.number() }),
+    z.object({ kind: z.literal('change-file'), changeFile: z.string(), sha256: z.string(), humidity: z.enum(['relative', 'specific']), variables: z.array(z.string()) }),
+  ]),
+  words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1), caveat: z.string().min(1) }),
+  changes: z.object({ temperature: changeRange, humidity: changeRange.nullable(), solar: changeRange.nullable() }),
+  dataPath: z.string().min(1),
+  counts: z.record(z.number()),
+  layers: z.array(layerSchema),
+});
+export type SiteScenario = z.infer<typeof scenarioSchema>;
 
 export const manifestSchema = z
   .object({
@@ -162,6 +178,10 @@ export const manifestSchema = z
     artefacts: z.array(artefactSchema),
     /** The workforce weighting, when the atlas has one. */
     workforce: manifestWorkforceSchema.optional(),
+    /** What every scenario is and is not, to show with any of them (pipeline/scenario/describe.ts). */
+    scenarioCaveat: z.string().min(1).optional(),
+    /** The what-if climates published under data/scenarios/<id>/ (same files as the record's). */
+    scenarios: z.array(scenarioSchema).optional(),
   })
   .superRefine((m, ctx) => {
     const paths = new Set<string>();

@@ -12,6 +12,7 @@ import { siteDataDir } from './data-dir.ts';
 import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
 import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
 import { WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
+import type { ReportScenario } from '../lib/report/scenarios.ts';
 
 export interface RegionReport {
   id: string;
@@ -21,11 +22,18 @@ export interface RegionReport {
   figures: RegionFigures;
   /** Median WBGT in the sun per month × local hour over the baseline years [°C]. */
   matrix: HourMatrix;
+  /** The scenarios of the manifest with this region's table of each (empty without scenarios). */
+  scenarios: ReportScenario[];
+  /** What every scenario is and is not (the manifest's caveat); empty without scenarios. */
+  scenarioCaveat: string;
 }
 
 /** The figures and statistics of the table a report shows (the niche comes from the region's JSON). */
 const REPORT_FIGURES = new Set<string>([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, ...WORKFORCE_FIGURES]);
-const REPORT_STATISTICS = new Set(['mean', 'p90']);
+const REPORT_STATISTICS = new Set(['mean', 'p90', 'trend', 'trend-p']);
+const keep = (_period: string, figure: string, statistic: string) => REPORT_FIGURES.has(figure) && REPORT_STATISTICS.has(statistic);
+/** A scenario's table: its means only (the side-by-side comparison). */
+const keepScenario = (_period: string, figure: string, statistic: string) => REPORT_FIGURES.has(figure) && statistic === 'mean';
 
 let indexCache: { dir: string; index: HistogramIndex } | undefined;
 
@@ -33,8 +41,16 @@ let indexCache: { dir: string; index: HistogramIndex } | undefined;
 export function loadRegionReport(regionId: string, dataDir: string = siteDataDir()): RegionReport {
   const manifest = loadAtlasManifest(dataDir);
   const detail = loadRegionDetail(regionId, dataDir);
-  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, (_period, figure, statistic) => REPORT_FIGURES.has(figure) && REPORT_STATISTICS.has(statistic)));
+  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, keep));
+  const scenarios: ReportScenario[] = (manifest.scenarios ?? []).map((s) => ({
+    id: s.id,
+    name: s.name,
+    kind: s.words.kind,
+    what: s.words.what,
+    source: s.words.source,
+    figures: indexRegionTable(loadRegionTable(regionId, dataDir, keepScenario, s.id)),
+  }));
   if (indexCache?.dir !== dataDir) indexCache = { dir: dataDir, index: loadHistogramIndex(dataDir) };
   const matrix = typicalWbgtMatrix(loadPooledHistograms(regionId, dataDir, indexCache.index, 'sun'));
-  return { id: regionId, name: detail.name, manifest, detail, figures, matrix };
+  return { id: regionId, name: detail.name, manifest, detail, figures, matrix, scenarios, scenarioCaveat: manifest.scenarioCaveat ?? '' };
 }

@@ -34,9 +34,9 @@ export interface RegionTableRow {
 
 const PERIOD = /^(0[1-9]|1[0-2]|year)$/;
 
-/** Path of a region's table inside a data folder. */
-export function regionTablePath(dataDir: string, regionId: string): string {
-  return join(dataDir, 'data', 'regions', `${regionId}.csv`);
+/** Path of a region's table inside a data folder: the record's, or scenario `scenarioId`'s (data/scenarios/<id>/regions/). */
+export function regionTablePath(dataDir: string, regionId: string, scenarioId?: string): string {
+  return join(dataDir, 'data', ...(scenarioId ? ['scenarios', scenarioId] : []), 'regions', `${regionId}.csv`);
 }
 
 /** Web path of a region's table below the site's base (no leading slash). */
@@ -142,9 +142,10 @@ function checkRow(f: string[], row: number, path: string, regionId: string, keep
 }
 
 /** Reads and checks the table of region `regionId` (default data folder: the build's); `keep` as in {@link parseRegionTable}. */
-export function loadRegionTable(regionId: string, dataDir: string = siteDataDir(), keep?: RowFilter): RegionTableRow[] {
-  const path = regionTablePath(dataDir, regionId);
-  if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (data/regions/${regionId}.csv)` }, { file: path });
+export function loadRegionTable(regionId: string, dataDir: string = siteDataDir(), keep?: RowFilter, scenarioId?: string): RegionTableRow[] {
+  const path = regionTablePath(dataDir, regionId, scenarioId);
+  const rel = scenarioId ? `data/scenarios/${scenarioId}/regions/${regionId}.csv` : `data/regions/${regionId}.csv`;
+  if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (${rel})` }, { file: path });
   return parseRegionTable(readFileSync(path, 'utf8'), path, regionId, keep);
 }
 

@@ -2,6 +2,7 @@
  * The region report's small script (the page works without it):
  * - the hour table's "mark hours above the limit for" control: shown only with JavaScript; it
  *   marks the cells whose `data-above-<state>` lists the chosen class (class `above`);
+ * - the scenario switch: the baseline beside every scenario, or beside the one chosen;
  * - before printing, every closed <details> is opened (and closed again afterwards) except those
  *   the print leaves out (`.print-omit`), and the source line and the downloads line get full
  *   addresses (`data-page-url`, `data-print-url`: the page's own origin and base).
@@ -29,6 +30,31 @@ function setupMarking(): void {
   form.addEventListener('submit', (e) => e.preventDefault());
 }
 
+/**
+ * The scenario switch (shown only with JavaScript): "every scenario" shows the baseline and every
+ * scenario side by side; one scenario shows the baseline beside it alone, with its description.
+ */
+function setupScenarioSwitch(): void {
+  const form = document.querySelector<HTMLFormElement>('[data-scenario-switch]');
+  const section = document.querySelector<HTMLElement>('#scenarios');
+  if (!form || !section) return;
+  const select = form.querySelector<HTMLSelectElement>('select');
+  if (!select) return;
+  const apply = () => {
+    const chosen = select.value;
+    section.dataset.scenario = chosen;
+    for (const el of section.querySelectorAll<HTMLElement>('[data-column]')) {
+      const c = el.dataset.column;
+      el.hidden = !(chosen === 'all' || c === 'baseline' || c === chosen);
+    }
+    for (const el of section.querySelectorAll<HTMLElement>('[data-scenario-about]')) el.hidden = !(chosen === 'all' || el.dataset.scenarioAbout === chosen);
+  };
+  form.hidden = false;
+  select.addEventListener('change', apply);
+  form.addEventListener('submit', (e) => e.preventDefault());
+  apply();
+}
+
 function setupPrint(): void {
   let opened: HTMLDetailsElement[] = [];
   window.addEventListener('beforeprint', () => {
@@ -44,4 +70,5 @@ function setupPrint(): void {
 }
 
 setupMarking();
+setupScenarioSwitch();
 setupPrint();

@@ -333,11 +333,14 @@ describe('the map page', () => {
       if (l.figure === 'wbgt-mean') return { exposure: c[0] };
       return {};
     };
-    const figures = [...new Set(manifest.layers.map((l) => l.figure))];
+    // The trend layers (statistic trend) are GIS downloads only, not a view of the explorer (src/data/explorer.ts).
+    const mapped = manifest.layers.filter((l) => l.statistic !== 'trend');
+    expect(manifest.layers.some((l) => l.statistic === 'trend')).toBe(true);
+    const figures = [...new Set(mapped.map((l) => l.figure))];
     expect(await page.$$eval('select[data-choice="figure"] option', (os) => os.map((o) => (o as HTMLOptionElement).value).sort())).toEqual([...figures].sort());
     for (const figure of figures) {
       await choose(page, 'figure', figure);
-      const layers = manifest.layers.filter((l) => l.figure === figure);
+      const layers = mapped.filter((l) => l.figure === figure);
       for (const key of ['workloadClass', 'acclimatization', 'exposure', 'loss', 'statistic', 'period']) {
         const want = new Set(layers.map((l) => (key === 'statistic' ? l.statistic : key === 'period' ? l.period : parts(l)[key])).filter((v) => v !== undefined));
         const shown = await page.isVisible(`[data-control="${key}"]`);

@@ -1,7 +1,8 @@
 /**
  * A data folder made by the real pipeline for the site's page tests: the invented small demo
  * (8 × 10 cells at 1°, 2021–2023, one legacy and two NetCDF-4 years) built with `buildAtlas`
- * (data only), with the demo's five districts plus one region whose name and properties are HTML
+ * (data only) — with `withScenario`, a separate folder with one scenario (a uniform warming of
+ * 2 K) for the region report's scenario tests — with the demo's five districts plus one region whose name and properties are HTML
  * and script (test/fixtures/site-regions/odd-name.geojson), for the escaping tests.
  *
  * Built once per digest of what it depends on (pipeline/, content/workload-classes.yaml,
@@ -27,6 +28,8 @@ export const PIPELINE_DATA_WORKFORCE = {
   year: 2024,
   licence: 'Invented for the demo by heathours demo-data; no licence applies',
 } as const;
+/** The test atlas's one scenario: a uniform warming (invented for the tests). */
+export const PIPELINE_DATA_SCENARIO = { id: 'warm-2k', name: 'Uniform warming of 2 K (test)', warming: 2 } as const;
 
 function listFiles(dir: string): string[] {
   if (!existsSync(dir)) return [];
@@ -39,8 +42,9 @@ function listFiles(dir: string): string[] {
   return out.sort();
 }
 
-function inputsDigest(): string {
+function inputsDigest(withScenario: boolean): string {
   const h = createHash('sha256');
+  if (withScenario) h.update('with-scenario\0');
   const files = [
     ...listFiles(join(PROJECT_ROOT, 'pipeline')),
     join(PROJECT_ROOT, 'content/workload-classes.yaml'),
@@ -83,9 +87,10 @@ export interface PipelineData {
   reused: boolean;
 }
 
-/** Builds (or reuses) the pipeline-made test data folder; see the file comment. */
-export async function buildPipelineData(): Promise<PipelineData> {
-  const digest = inputsDigest();
+/** Builds (or reuses) the pipeline-made test data folder; see the file comment. `withScenario`: the variant with one scenario. */
+export async function buildPipelineData(opts: { withScenario?: boolean } = {}): Promise<PipelineData> {
+  const withScenario = opts.withScenario === true;
+  const digest = inputsDigest(withScenario);
   const root = join(DATA_BUILDS, digest);
   const dataDir = join(root, 'out');
   const configPath = join(root, 'atlas.yaml');
@@ -127,7 +132,7 @@ workforce:
   year: ${PIPELINE_DATA_WORKFORCE.year}
   licence: ${PIPELINE_DATA_WORKFORCE.licence}
   invented: true
-`,
+${withScenario ? `scenarios:\n  - { id: ${PIPELINE_DATA_SCENARIO.id}, name: ${PIPELINE_DATA_SCENARIO.name}, warming: ${PIPELINE_DATA_SCENARIO.warming} }\n` : ''}`,
     );
     process.env.HEATHOURS_BUILD_TIME ??= '2026-01-01T00:00:00.000Z';
     // The build's warnings are kept beside the data (build-warnings.txt) for the tests that check them.

@@ -1,7 +1,7 @@
 /**
  * Browser tests of the region report pages, on a site built from the data folder the real
  * pipeline makes (test/site/pipeline-data.ts: the invented small demo plus a region whose name is
- * HTML and script), served on 127.0.0.1 in Debian's headless Chromium.
+ * HTML and script, with one scenario, a uniform warming of 2 K), served on 127.0.0.1 in Debian's headless Chromium.
  * External checks: the limits against docs/methods.md §8.2's check values (NIOSH 2016 REL/RAL,
  * 300 W → 28.21 / 24.97 °C); the typical WBGT against a median found by bisection on the
  * piecewise-linear cumulative hours (a different algorithm from the page's walk through the
@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { decodeHistogramTile } from '../../pipeline/publish/histogram-tiles.ts';
 import { CAUTIONS } from '../../src/lib/cautions.ts';
-import { buildPipelineData } from './pipeline-data.ts';
+import { buildPipelineData, PIPELINE_DATA_SCENARIO } from './pipeline-data.ts';
 import {
   ARTIFACTS_DIR,
   buildTestSite,
@@ -40,8 +40,8 @@ let manifest: {
 };
 
 /** The region's CSV, read here with a plain split (the tables hold no quoted fields). */
-function csvRows(id: string): Array<Record<string, string>> {
-  const lines = readFileSync(join(dataDir, 'data/regions', `${id}.csv`), 'utf8').trim().split('\n');
+function csvRows(id: string, scenario?: string): Array<Record<string, string>> {
+  const lines = readFileSync(join(dataDir, 'data', ...(scenario ? ['scenarios', scenario] : []), 'regions', `${id}.csv`), 'utf8').trim().split('\n');
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
@@ -71,13 +71,13 @@ async function readKeyedTable(page: Page, selector: string): Promise<{ keys: str
 }
 
 beforeAll(async () => {
-  ({ dataDir } = await buildPipelineData());
+  ({ dataDir } = await buildPipelineData({ withScenario: true }));
   manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8'));
   build = await buildTestSite(dataDir);
   session = await startSiteSession(build.distDir);
   report = await session.open(`/regions/${REGION}/`);
   process.stderr.write(`region report tests: site build ${build.reused ? 'reused' : `took ${(build.buildMs / 1000).toFixed(1)} s`}\n`);
-});
+}, 900_000);
 
 afterAll(async () => {
   await session?.close();
@@ -184,6 +184,56 @@ describe('the region report page', () => {
     for (const f of htmlFiles(build.distDir).filter((x) => /^regions\/[^/]+\/index\.html$/.test(x))) {
       expect(readFileSync(join(build.distDir, f), 'utf8'), f).toContain('id="workforce-source"');
     }
+  });
+
+  it('shows the baseline and the scenario side by side for the worst months and the year, equal to the two CSVs, and says what the scenario is and that it is a what-if, not a forecast', async () => {
+    const sc = PIPELINE_DATA_SCENARIO.id;
+    const base = csvRows(REGION);
+    const warm = csvRows(REGION, sc);
+    const t = await report.page.$eval('#scenario-table', (table) => ({
+      columns: [...table.querySelectorAll('thead th[data-column]')].map((th) => th.getAttribute('data-column')),
+      rows: [...table.querySelectorAll('tbody tr')].map((tr) => ({ period: tr.getAttribute('data-period'), values: [...tr.querySelectorAll('td')].map((td) => td.getAttribute('data-value')) })),
+    }));
+    expect(t.columns).toEqual(['baseline', sc]);
+    expect(t.rows.at(-1)!.period).toBe('year');
+    expect(t.rows.length).toBeGreaterThanOrEqual(2);
+    for (const r of t.rows) {
+      const k = { period: r.period!, figure: 'hours-lost-shift', cls: 'moderate', acc: 'acclimatized', exp: 'sun', stat: 'mean' };
+      expect(r.values).toEqual([csvValue(base, k), csvValue(warm, k)]);
+      // The warmer what-if never loses fewer hours.
+      expect(Number(r.values[1])).toBeGreaterThanOrEqual(Number(r.values[0]));
+    }
+    const text = (await report.page.textContent('#scenarios'))!.replace(/\s+/g, ' ');
+    expect(text).toContain(PIPELINE_DATA_SCENARIO.name);
+    expect(text).toContain('uniform warming');
+    expect(text).toMatch(/what-if, not a forecast/i);
+    expect(text).toMatch(/day-to-day and hour-to-hour weather is kept and only monthly means change/);
+  });
+
+  it('the scenario switch shows the baseline beside the chosen scenario alone, and every scenario again; without JavaScript the switch is hidden and all columns show', async () => {
+    const page = report.page;
+    const sc = PIPELINE_DATA_SCENARIO.id;
+    expect(await page.isVisible('[data-scenario-switch]')).toBe(true);
+    const visibleColumns = () => page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.filter((th) => (th as HTMLElement).offsetParent !== null).map((th) => th.getAttribute('data-column')));
+    await page.selectOption('#scenario-choice', sc);
+    expect(await visibleColumns()).toEqual(['baseline', sc]);
+    expect(await page.getAttribute('#scenarios', 'data-scenario')).toBe(sc);
+    expect(await page.isVisible(`[data-scenario-about="${sc}"]`)).toBe(true);
+    await page.selectOption('#scenario-choice', 'all');
+    expect(await visibleColumns()).toEqual(['baseline', sc]);
+    const noJs = await session.open(`/regions/${REGION}/`, { javaScript: false });
+    expect(await noJs.page.isVisible('[data-scenario-switch]')).toBe(false);
+    expect(await noJs.page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.length)).toBe(2);
+  });
+
+  it('says that the trend of the record needs at least 15 years: the test atlas has 3', async () => {
+    expect(await report.page.getAttribute('#trend', 'data-trend-enough')).toBe('no');
+    const text = (await report.page.textContent('#trend-short'))!.replace(/\s+/g, ' ');
+    expect(text).toContain('needs at least 15 years; this atlas has 3 (2021–2023)');
+    // The CSV agrees: the trend rows are there, empty, with the years that had a value.
+    const rows = csvRows(REGION).filter((r) => r.statistic === 'trend' && r.figure === 'hours-lost-shift');
+    expect(rows.length).toBeGreaterThan(0);
+    for (const r of rows) expect([r.period, r.value, r.unit, r.years_used, r.baseline]).toEqual(['year', '', 'h decade-1', '3', '2021-2023']);
   });
 
   it('the limits are the NIOSH 2016 REL/RAL check values of docs/methods.md §8.2 for the default work rates', async () => {
@@ -342,10 +392,10 @@ describe('the region report page', () => {
     expect(await page.textContent('[data-page-url]')).toBe(new URL(`regions/${REGION}/`, session.baseUrl).href);
     for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges']) expect(await page.isVisible(sel), sel).toBe(true);
     expect(await page.isVisible('#monthly-high-sun')).toBe(false);
+    expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
     // The workforce view is left to the web page (the four printed pages are full); the printed note says so.
     expect(await page.isVisible('#workforce')).toBe(false);
     expect(await page.isVisible('#print-workforce')).toBe(true);
-    expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
     // Nothing is wider than an A4 page inside the printed margins: 210 − 2 × 11 mm = 188 mm = 710 px at 96 px/in.
     await page.setViewportSize({ width: 710, height: 1000 });
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(710);
