@@ -70,7 +70,7 @@ export interface WorkforceRow {
   values: number[];
 }
 
-function valueOf(fig: RegionFigures, c: WorkforceColumn, period: string, combo: string): number {
+function workforceValue(fig: RegionFigures, c: WorkforceColumn, period: string, combo: string): number {
   return fig.get({ figure: c.figure, period, workloadClass: combo, acclimatization: BY_SHARES, exposure: BY_SHARES, statistic: c.statistic });
 }
 
@@ -83,13 +83,13 @@ export function hasWorkforceFigures(fig: RegionFigures): boolean {
 export function workforceByClass(fig: RegionFigures, classes: ReadonlyArray<{ id: string; name: string }>, columns: readonly WorkforceColumn[]): WorkforceRow[] {
   return [...classes.map((c) => ({ key: c.id, name: c.name })), { key: ALL_CLASSES, name: 'All outdoor work' }].map((r) => ({
     ...r,
-    values: columns.map((c) => valueOf(fig, c, YEAR_PERIOD, r.key)),
+    values: columns.map((c) => workforceValue(fig, c, YEAR_PERIOD, r.key)),
   }));
 }
 
 /** The twelve months and the whole year for one class id or `all`. */
 export function workforceByMonth(fig: RegionFigures, combo: string, columns: readonly WorkforceColumn[]): WorkforceRow[] {
-  return [...MONTH_PERIODS, YEAR_PERIOD].map((period) => ({ key: period, name: periodName(period), values: columns.map((c) => valueOf(fig, c, period, combo)) }));
+  return [...MONTH_PERIODS, YEAR_PERIOD].map((period) => ({ key: period, name: periodName(period), values: columns.map((c) => workforceValue(fig, c, period, combo)) }));
 }
 
 /** A column of the home page's workforce ranking (src/components/report/RankingTable.astro). */
