@@ -34,17 +34,19 @@ let values: Record<string, Array<number | null>>;
 
 beforeAll(async () => {
   dataDir = (await buildPipelineData()).dataDir;
+  // The catalogue the site builds (src/data/explorer.ts: the trend layers are downloads only, not views).
   const manifest = loadManifestLayers(dataDir)!;
-  const regions = loadRegions(dataDir);
-  catalogue = explorerCatalogue(manifest, regions);
-  values = regionLayerValues(dataDir, catalogue.regions.map((r) => r.id), manifest.layers);
+  const layers = manifest.layers.filter((l) => l.statistic !== 'trend');
+  catalogue = explorerCatalogue({ ...manifest, layers }, loadRegions(dataDir));
+  values = regionLayerValues(dataDir, catalogue.regions.map((r) => r.id), layers);
 }, 300_000);
 
 describe('the explorer catalogue of a real pipeline build', () => {
   it('holds every manifest layer once, with its images, GeoTIFF and an equal legend', () => {
     const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as { layers: Array<{ id: string; tif: string; mapImages: Array<{ path: string }>; legend: unknown }> };
-    expect(catalogue.layers.map((l) => l.id)).toEqual(manifest.layers.map((l) => l.id));
-    manifest.layers.forEach((l, i) => {
+    const shown = manifest.layers.filter((l) => !l.id.endsWith('/trend-year'));
+    expect(catalogue.layers.map((l) => l.id)).toEqual(shown.map((l) => l.id));
+    shown.forEach((l, i) => {
       const c = catalogue.layers[i];
       expect(c.tif).toBe(l.tif);
       expect(c.images.map((m) => m.path)).toEqual(l.mapImages.map((m) => m.path));
@@ -69,6 +71,12 @@ describe('the explorer catalogue of a real pipeline build', () => {
         const got = values[layer.id][r];
         if (layer.figure === 'mean-annual-temperature') expect(got).toBe(summary.niche.baselineMat);
         else if (layer.figure === 'niche-class') expect(got).toBe(['core', 'second', 'margin', 'outside'].indexOf(summary.niche.baselineClass));
+        // Person-hours per km² mixes every class, acclimatization and exposure by the workforce shares: one row a period.
+        else if (layer.figure === 'person-hours-lost-density') {
+          const row = rows.find((x) => x.period === layer.period && x.figure === layer.figure && x.statistic === layer.statistic)!;
+          expect(row, `${id} ${layer.id}`).toBeDefined();
+          expect(got).toBe(row.value === '' ? null : Number(row.value));
+        }
         else {
           const v = layer.view;
           const row = rows.find(
@@ -88,7 +96,7 @@ describe('the explorer catalogue of a real pipeline build', () => {
 
   it('offers our own labels, the published choices only, and a default view that is a published layer', () => {
     expect(catalogue.figures.map((f) => f.label)).toEqual([
-      'Hours above the limit', 'Hours lost to rest breaks', 'Mean WBGT', 'Capacity loss', 'Mean annual temperature', 'Human climate niche class',
+      'Hours above the limit', 'Hours lost to rest breaks', 'Mean WBGT', 'Capacity loss', 'Mean annual temperature', 'Human climate niche class', 'Person-hours lost per km²',
     ]);
     expect(catalogue.choices.workloadClass.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
     expect(catalogue.choices.workloadClass[1].label).toBe('Moderate work rate (300 W)');
