@@ -4,6 +4,7 @@ import { mkdtempSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { writeDemoDataset, LSM_FILE, yearFileName } from '../../pipeline/demo/index.ts';
+import { POPULATION_FILE } from '../../pipeline/demo/population.ts';
 import { changeFactorFile, DEMO_WARMING_LEVELS } from '../../pipeline/demo/change-factors.ts';
 import { makeCellClimate } from '../../pipeline/demo/cell-climate.ts';
 import { ERA5_VARIABLES } from '../../pipeline/demo/era5-variables.ts';
@@ -30,9 +31,9 @@ beforeAll(async () => {
 }, 300_000);
 
 describe('writeDemoDataset, small grid, mixed layout', () => {
-  it('writes the mask, one file per year and the two scenarios\' change files, and nothing else (no temporary files left)', () => {
-    expect(filesA.map((f) => f.slice(dirA.length + 1))).toEqual([LSM_FILE, yearFileName(2022), yearFileName(2023)]);
-    expect(readdirSync(dirA).sort()).toEqual([LSM_FILE, yearFileName(2022), yearFileName(2023), 'scenarios'].sort());
+  it('writes the mask, the invented population raster, one file per year and the two scenarios\' change files, and nothing else (no temporary files left)', () => {
+    expect(filesA.map((f) => f.slice(dirA.length + 1))).toEqual([LSM_FILE, POPULATION_FILE, yearFileName(2022), yearFileName(2023)]);
+    expect(readdirSync(dirA).sort()).toEqual([LSM_FILE, POPULATION_FILE, yearFileName(2022), yearFileName(2023), 'scenarios'].sort());
     expect(readdirSync(join(dirA, 'scenarios')).sort()).toEqual(DEMO_WARMING_LEVELS.map((l) => changeFactorFile(l).slice('scenarios/'.length)).sort());
   });
 
@@ -143,7 +144,7 @@ describe('writeDemoDataset, small grid, mixed layout', () => {
     const r = await writeDemoDataset({ outDir: dirA, years: [2024], layout: 'mixed', grid: 'small', seed: 11, quiet: true });
     expect(r.files).toEqual([join(dirA, yearFileName(2024))]);
     expect(r.changeFactors).toEqual([]);
-    expect(r.unchanged).toEqual([join(dirA, LSM_FILE), ...DEMO_WARMING_LEVELS.map((l) => join(dirA, changeFactorFile(l)))]);
+    expect(r.unchanged).toEqual([join(dirA, LSM_FILE), join(dirA, POPULATION_FILE), ...DEMO_WARMING_LEVELS.map((l) => join(dirA, changeFactorFile(l)))]);
     for (const [f, b] of Object.entries(before)) {
       expect(sha(join(dirA, f))).toBe(b.sha);
       expect(statSync(join(dirA, f)).mtimeMs).toBe(b.mtime);
