@@ -111,9 +111,9 @@ for k in range(0, v.shape[0], ${CHUNK_HOURS}):
     // Nothing half-published: the output is byte for byte the first build's, no staging left.
     expect(digestTree(out)).toBe(before);
     expect(readdirSync(dir).filter((f) => f.includes('.stage-') || f.endsWith('.tmp'))).toEqual([]);
-    // The CLI prints it as a catalogued error and exits with 2, without HDF5's diagnostics.
+    // The CLI prints it as a catalogued error and exits with 3 (an input-data error), without HDF5's diagnostics.
     const cli = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'build', '--config', cfg, '--data-only', '--no-cache', '--jobs', '1', '--quiet'], { encoding: 'utf8' });
-    expect(cli.status).toBe(2);
+    expect(cli.status).toBe(3);
     expect(cli.stderr).toContain('error [NetcdfDataUnreadable]');
     expect(cli.stderr).not.toMatch(/HDF5-DIAG|major:|minor:/);
     expect(digestTree(out)).toBe(before);

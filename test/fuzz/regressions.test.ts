@@ -64,11 +64,12 @@ describe('NetCDF-4 (HDF5) damage', () => {
     const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfReadFailed', /the HDF5 library says: .*checksum/);
     expect(e.details).toMatch(/HDF5-DIAG: Error detected/);
     const plain = cliInspect(f);
-    expect(plain.status).toBe(2);
+    // A damaged input file is an input-data error: exit 3 (pipeline/commands/exit-codes.ts).
+    expect(plain.status).toBe(3);
     expect(plain.stderr).toMatch(/^error \[NetcdfReadFailed\][\s\S]*run with --verbose for details/);
     expect(plain.stderr).not.toMatch(/HDF5-DIAG|major:|minor:|internal error/);
     const verbose = cliInspect(f, '--verbose');
-    expect(verbose.status).toBe(2);
+    expect(verbose.status).toBe(3);
     expect(verbose.stderr).toMatch(/details:\n {4}HDF5-DIAG: Error detected[\s\S]*minor:/);
   });
 
@@ -102,7 +103,9 @@ describe('text inputs', () => {
     writeFileSync(classes, 'classes:\n  - id: low\n   metabolicRate: [180\n');
     writeFileSync(join(out, 'x.nc'), '');
     const cfg = join(out, 'atlas.yaml');
-    writeFileSync(cfg, readFileSync(join(ROOT, 'content/atlas.yaml'), 'utf8').replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`));
+    // The demo's atlas.yaml without its workforce and scenarios (their files are not there: this is about the classes file).
+    const demo = readFileSync(join(ROOT, 'content/atlas.yaml'), 'utf8').replace(/^(workforce|scenarios):\n(?:(?: .*|#.*)?\n)*/gm, '');
+    writeFileSync(cfg, demo.replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`));
     const e = await expectCataloguedAsync(buildAtlas({ configPath: cfg, outDir: join(out, 'dist'), jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ConfigSyntax');
     expect(e.where.file).toBe(classes);
     for (const f of ['classes.yaml', 'x.nc', 'atlas.yaml']) rmSync(join(out, f));

@@ -93,7 +93,8 @@ describe('heathours build on the invented small demo', () => {
       expect(createHash('sha256').update(bytes).digest('hex'), a.path).toBe(a.sha256);
       expect(bytes.length).toBe(a.bytes);
     }
-    expect(m.inputs.map((i) => i.name).sort()).toEqual(readdirSync(join(dir, 'inputs')).sort());
+    // The inputs are the NetCDF files; demo-data also writes change files (scenarios/) and a people raster this config does not use.
+    expect(m.inputs.map((i) => i.name).sort()).toEqual(readdirSync(join(dir, 'inputs')).filter((f) => f.endsWith('.nc')).sort());
     for (const i of m.inputs) expect(i.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'inputs', i.name))).digest('hex'));
     expect(m.atlas.invented).toBe(true);
     expect(m.counts.cellHours).toBeGreaterThan(0);
@@ -116,7 +117,8 @@ describe('heathours build on the invented small demo', () => {
         }
         expect(get('07', 'hours-above-limit-shift', key, 'mean')).toBeLessThanOrEqual(31 * 10);
       }
-      expect(new Set(rows.map((r) => r.unit))).toEqual(new Set(['h', 'degC']));
+      // Hours and °C, each also per decade in the trend rows, and the trend's p-value (1).
+      expect(new Set(rows.map((r) => r.unit))).toEqual(new Set(['h', 'degC', 'h decade-1', 'degC decade-1', '1']));
       // More work, more hours above the limit (same exposure and acclimatization).
       expect(get('year', 'hours-above-limit-shift', 'very-high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(get('year', 'hours-above-limit-shift', 'low.acclimatized.sun', 'mean'));
       // Sun is never kinder than shade.

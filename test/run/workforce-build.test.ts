@@ -215,7 +215,9 @@ describe('heathours build with a workforce raster and shares (invented small dem
     expect(varn.workforce.shares.find((c: { workloadClass: string }) => c.workloadClass === 'moderate')).toEqual({ workloadClass: 'moderate', share: 0.2, acclimatized: 0.5, sun: 0.5 });
     expect(varn.workforce.year.personHoursLost.mean).toBeGreaterThan(0);
     const units = new Set(parseCsv(readFileSync(join(out, 'data/regions/varn-shore.csv'), 'utf8')).map((r) => r.unit));
-    expect(units).toEqual(new Set(['h', 'degC', 'person-h km-2', 'person-h', 'FTE', '%']));
+    const base = ['h', 'degC', 'person-h km-2', 'person-h', 'FTE', '%'];
+    // Each unit also per decade (the trend rows) and the Mann–Kendall p-value's 1.
+    expect(units).toEqual(new Set([...base, ...base.map((u) => `${u} decade-1`), '1']));
     // The workbook gains the workforce sheets (read back by Python's openpyxl, Debian python3-openpyxl).
     const sheets = execFileSync('/usr/bin/python3', ['-c', `import openpyxl; print('|'.join(openpyxl.load_workbook('${join(out, 'data/regions/varn-shore.xlsx')}').sheetnames))`], { encoding: 'utf8' }).trim().split('|');
     expect(sheets).toEqual(expect.arrayContaining(['Person-hours by month', 'Full-time equivalents by month', 'Outdoor time lost by month']));
