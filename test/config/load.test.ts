@@ -60,7 +60,9 @@ describe('atlas configuration', () => {
     const dir = mkdtempSync(join(tmpdir(), 'hh-config-'));
     await expect(loadConfig(join(dir, 'nope.yaml'))).rejects.toMatchObject({ code: 'ConfigNotFound' });
     const cfg = join(dir, 'atlas.yaml');
-    writeFileSync(cfg, demoText.replace('../data/demo/*.nc', 'inputs/*.nc'));
+    // The demo's config without its workforce and scenarios (their files are checked on their own, below).
+    const plain = demoText.replace(/^(workforce|scenarios):\n(?:(?: .*|#.*)?\n)*/gm, '');
+    writeFileSync(cfg, plain.replace('../data/demo/*.nc', 'inputs/*.nc'));
     await expect(loadConfig(cfg)).rejects.toMatchObject({ code: 'ConfigInputMissing', where: { key: 'dataset.files' } });
     mkdirSync(join(dir, 'inputs'));
     writeFileSync(join(dir, 'inputs', 'a.nc'), 'x');
@@ -70,5 +72,8 @@ describe('atlas configuration', () => {
     const ok = await loadConfig(cfg);
     expect(ok.inputFiles).toEqual([join(dir, 'inputs', 'a.nc')]);
     expect(ok.regionFiles).toEqual([join(dir, 'regions', 'r.geojson')]);
+    // With the demo's workforce block, a raster that is not there is ConfigWorkforceFileMissing naming the key.
+    writeFileSync(cfg, demoText.replace('../data/demo/*.nc', 'inputs/*.nc'));
+    await expect(loadConfig(cfg)).rejects.toMatchObject({ code: 'ConfigWorkforceFileMissing', where: { key: 'workforce.raster' } });
   });
 });
