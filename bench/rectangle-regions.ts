@@ -5,11 +5,16 @@
  * rectangles, inset by 5 % so none touches a cell edge or its neighbour, the first `n` kept.
  * RFC 7946 rings. Ids `r` + a zero-padded number, names "Bench region k (invented)".
  */
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { writeDemoDataset } from '../pipeline/demo/index.ts';
 import { makeCellClimate } from '../pipeline/demo/cell-climate.ts';
 import { SMALL_GRID, placeGrid } from '../pipeline/demo/territory.ts';
+
+/** This folder (bench/). */
+const BENCH_DIR = dirname(fileURLToPath(import.meta.url));
 
 export const BENCH_YEARS = [2021, 2022, 2023];
 
@@ -71,4 +76,32 @@ work:
   classesFile: ${o.classesFile}
 ${o.extra ?? ''}`);
   return config;
+}
+
+/**
+ * Builds the data (`pipeline`) and then the site (`site`) of `config` in child processes of
+ * bench/regions-1000-child.mjs, into `dir`/out and `dir`/dist, and removes both afterwards (they
+ * hold gigabytes of tables and pages; the inputs stay). Returns each child's report.
+ */
+export function buildDataAndSite(dir: string, config: string, jobs: number, name: string): { pipeline: Record<string, unknown>; site: Record<string, unknown> } {
+  const child = (args: string[]): Record<string, unknown> => {
+    const r = spawnSync(process.execPath, [join(BENCH_DIR, 'regions-1000-child.mjs'), ...args], {
+      encoding: 'utf8',
+      maxBuffer: 1 << 26,
+      env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1', HEATHOURS_BUILD_TIME: '2026-01-01T00:00:00.000Z' },
+    });
+    if (r.status !== 0) throw new Error(`${name} child (${args[0]}) failed: ${r.stderr}`);
+    return JSON.parse(r.stdout.trim().split('\n').pop()!);
+  };
+  const out = join(dir, 'out');
+  const dist = join(dir, 'dist');
+  rmSync(out, { recursive: true, force: true });
+  rmSync(dist, { recursive: true, force: true });
+  try {
+    const pipeline = child(['pipeline', config, out, String(jobs)]);
+    return { pipeline, site: child(['site', out, dist]) };
+  } finally {
+    rmSync(out, { recursive: true, force: true });
+    rmSync(dist, { recursive: true, force: true });
+  }
 }

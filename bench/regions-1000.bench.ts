@@ -9,12 +9,11 @@
  * with the machine's load average, since wall time on a shared machine depends on the load. The
  * inputs are written once to .cache/bench/regions-1000 and are not timed.
  */
-import { spawnSync } from 'node:child_process';
-import { mkdirSync, rmSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { BENCH_YEARS as YEARS, rectangleRegions, writeRegionBenchInputs } from './rectangle-regions.ts';
+import { BENCH_YEARS as YEARS, rectangleRegions, writeRegionBenchInputs, buildDataAndSite } from './rectangle-regions.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
@@ -32,15 +31,6 @@ async function inputs(): Promise<string> {
   });
 }
 
-function child(args: string[]): Record<string, unknown> {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bench/regions-1000-child.mjs'), ...args], {
-    encoding: 'utf8',
-    maxBuffer: 1 << 24,
-    env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1', HEATHOURS_BUILD_TIME: '2026-01-01T00:00:00.000Z' },
-  });
-  if (r.status !== 0) throw new Error(`site-1000-regions child (${args[0]}) failed: ${r.stderr}`);
-  return JSON.parse(r.stdout.trim().split('\n').pop()!);
-}
 
 const round1 = (x: unknown) => Math.round(Number(x) * 10) / 10;
 
@@ -50,20 +40,7 @@ export const bench: Bench = {
     mkdirSync(DIR, { recursive: true });
     const config = await inputs();
     const jobs = availableParallelism();
-    const out = join(DIR, 'out');
-    const dist = join(DIR, 'dist');
-    rmSync(out, { recursive: true, force: true });
-    rmSync(dist, { recursive: true, force: true });
-    let p: Record<string, unknown>;
-    let s: Record<string, unknown>;
-    try {
-      p = child(['pipeline', config, out, String(jobs)]);
-      s = child(['site', out, dist]);
-    } finally {
-      // About 1 GB of tables and pages: keep only the inputs.
-      rmSync(out, { recursive: true, force: true });
-      rmSync(dist, { recursive: true, force: true });
-    }
+    const { pipeline: p, site: s } = buildDataAndSite(DIR, config, jobs, 'site-1000-regions');
     const figure: BenchFigure = {
       bench: 'site-1000-regions',
       value: round1(Number(p.seconds) + Number(s.seconds)),

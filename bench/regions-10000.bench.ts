@@ -15,12 +15,11 @@
  * then says so in its name's `regions` detail and projects 10,000 linearly from the per-region
  * CPU time of the region stage and the site (stated as a projection, not a measurement).
  */
-import { spawnSync } from 'node:child_process';
-import { mkdirSync, rmSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { BENCH_YEARS, rectangleRegions, writeRegionBenchInputs } from './rectangle-regions.ts';
+import { BENCH_YEARS, rectangleRegions, writeRegionBenchInputs, buildDataAndSite } from './rectangle-regions.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url));
@@ -29,15 +28,6 @@ const DIR = join(ROOT, '.cache', 'bench', `site-regions-${N_REGIONS}`);
 /** Rectangles per land-cell side: 41 land cells × 16² = 10,496 ≥ 10,000. */
 const SPLIT = 16;
 
-function child(args: string[]): Record<string, unknown> {
-  const r = spawnSync(process.execPath, [join(ROOT, 'bench/regions-1000-child.mjs'), ...args], {
-    encoding: 'utf8',
-    maxBuffer: 1 << 26,
-    env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1', HEATHOURS_BUILD_TIME: '2026-01-01T00:00:00.000Z' },
-  });
-  if (r.status !== 0) throw new Error(`site-10000-regions child (${args[0]}) failed: ${r.stderr}`);
-  return JSON.parse(r.stdout.trim().split('\n').pop()!);
-}
 
 const round1 = (x: unknown) => Math.round(Number(x) * 10) / 10;
 const kB = (x: unknown) => Math.round(Number(x) / 1000);
@@ -55,20 +45,7 @@ export const bench: Bench = {
       extra: 'regionWorkbooks: false\n',
     });
     const jobs = availableParallelism();
-    const out = join(DIR, 'out');
-    const dist = join(DIR, 'dist');
-    rmSync(out, { recursive: true, force: true });
-    rmSync(dist, { recursive: true, force: true });
-    let p: Record<string, unknown>;
-    let s: Record<string, unknown>;
-    try {
-      p = child(['pipeline', config, out, String(jobs)]);
-      s = child(['site', out, dist]);
-    } finally {
-      // Several GB of tables and pages: keep only the inputs.
-      rmSync(out, { recursive: true, force: true });
-      rmSync(dist, { recursive: true, force: true });
-    }
+    const { pipeline: p, site: s } = buildDataAndSite(DIR, config, jobs, 'site-10000-regions');
     const view = s.view as Record<string, { bytes: number; gzipBytes: number; largest: string[] }>;
     const total = Number(p.seconds) + Number(s.seconds);
     const figure: BenchFigure = {
