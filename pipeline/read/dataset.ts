@@ -78,7 +78,15 @@ export interface Dataset {
    * UTC-year chunks; `cache` keeps each chunk's sums under the digests of its files (the yearly
    * rebuild then reads only the new year). Needs the files' digests (`digests`, default on).
    */
-  summary(cache?: SummaryChunkCache): Promise<InventoryVariable[]>;
+  summary(cache?: SummaryChunkCache, parts?: ReadonlyMap<string, SummaryPart>): Promise<InventoryVariable[]>;
+  /**
+   * The chunks {@link summary} streams (the hours that start in one UTC year) and their cache
+   * keys, so that the chunks can be summarised elsewhere (the build's worker threads) and handed
+   * to `summary` as `parts`.
+   */
+  summaryChunks(): SummaryChunk[];
+  /** One chunk's accumulators: every value of every variable over hours [c0, c1) of the whole grid. */
+  summariseChunk(c0: number, c1: number): Promise<SummaryPart>;
   close(): Promise<void>;
 }
 
@@ -101,6 +109,15 @@ export interface SummaryAccumulator {
   sum: number;
   n: number;
   fill: number;
+}
+
+/** One chunk's accumulators, by variable [canonical units]. */
+export type SummaryPart = Record<string, SummaryAccumulator>;
+
+/** A chunk of the summary: hour indices [c0, c1) and its cache key. */
+export interface SummaryChunk {
+  hours: [number, number];
+  key: string;
 }
 
 /** Where {@link Dataset.summary} keeps its chunks' accumulators, by key (variable → accumulator). */
@@ -235,6 +252,30 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     return createHash('sha256').update(JSON.stringify({ version: 1, from, to, variables, held })).digest('hex');
   };
 
+  /** Min, max, sum and counts of every variable over hours [c0, c1) of the whole grid. */
+  const summariseChunk = async (c0: number, c1: number): Promise<SummaryPart> => {
+    const full: Tile = { y0: 0, y1: ny, x0: 0, x1: nx };
+    const step = Math.max(1, Math.floor(SUMMARY_BLOCK_VALUES / (ny * nx * Math.max(1, variables.length))));
+    const part = Object.fromEntries(variables.map((c) => [c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 }])) as SummaryPart;
+    for (let t0 = c0; t0 < c1; t0 += step) {
+      const b = await ds.readBlock(t0, Math.min(step, c1 - t0), full, variables, undefined);
+      for (const c of variables) {
+        const a = part[c];
+        const x = b.fields[c]!;
+        for (let i = 0; i < x.length; i++) {
+          const v = x[i];
+          if (v === v) {
+            if (v < a.min) a.min = v;
+            if (v > a.max) a.max = v;
+            a.sum += v;
+            a.n++;
+          } else a.fill++;
+        }
+      }
+    }
+    return part;
+  };
+
   const dataset: Dataset = {
     grid,
     time: { start: axis.start, count: axis.count },
@@ -245,36 +286,20 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     files: files.map((f) => f.info),
     notes: axis.notes,
     readBlock: (t0, nt, tile) => ds.readBlock(t0, nt, tile, variables, landFraction),
-    async summary(cache?: SummaryChunkCache) {
-      const full: Tile = { y0: 0, y1: ny, x0: 0, x1: nx };
-      const step = Math.max(1, Math.floor(SUMMARY_BLOCK_VALUES / (ny * nx * Math.max(1, variables.length))));
+    summaryChunks() {
+      return utcYearChunks(axis.start, axis.count).map(([c0, c1]) => ({ hours: [c0, c1] as [number, number], key: chunkKey(c0, c1) }));
+    },
+    summariseChunk: (c0, c1) => summariseChunk(c0, c1),
+    async summary(cache?: SummaryChunkCache, parts?: ReadonlyMap<string, SummaryPart>) {
       const acc = new Map<TimeField, SummaryAccumulator>();
       for (const c of variables) acc.set(c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 });
       // Streamed in chunks of the hours that start in one UTC year, each summarised on its own
-      // (and, with a cache, kept under the digests of the files it read), then combined in order.
-      for (const [c0, c1] of utcYearChunks(axis.start, axis.count)) {
-        const key = cache ? chunkKey(c0, c1) : '';
-        let part = cache ? cache.get(key) : undefined;
-        if (!part) {
-          part = Object.fromEntries(variables.map((c) => [c, { min: Infinity, max: -Infinity, sum: 0, n: 0, fill: 0 }])) as Record<string, SummaryAccumulator>;
-          for (let t0 = c0; t0 < c1; t0 += step) {
-            const b = await ds.readBlock(t0, Math.min(step, c1 - t0), full, variables, undefined);
-            for (const c of variables) {
-              const a = part[c];
-              const x = b.fields[c]!;
-              for (let i = 0; i < x.length; i++) {
-                const v = x[i];
-                if (v === v) {
-                  if (v < a.min) a.min = v;
-                  if (v > a.max) a.max = v;
-                  a.sum += v;
-                  a.n++;
-                } else a.fill++;
-              }
-            }
-          }
-          cache?.set(key, part);
-        }
+      // (or handed in, or kept in a cache under the digests of the files it read), then combined in order.
+      for (const { hours, key } of dataset.summaryChunks()) {
+        let part = parts?.get(key);
+        const cached = part === undefined ? cache?.get(key) : undefined;
+        part ??= cached ?? (await summariseChunk(hours[0], hours[1]));
+        if (cache && cached === undefined) cache.set(key, part);
         for (const c of variables) {
           const a = acc.get(c)!;
           const p = part[c];

@@ -58,68 +58,108 @@ export interface MergeOptions {
  * `cells` must be covered.
  */
 export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], options: MergeOptions = {}): YearCounts {
-  if (partials.length === 0) throw PartialsIncomplete({ detail: `no partial for year ${year}` });
-  const first = partials[0];
-  const pos = new Map<number, number>();
-  cells.forEach((c, i) => pos.set(c, i));
-  const out = emptyYear(first, year, cells);
-  const seen = new Int32Array(cells.length).fill(-1);
-  // Group the pieces of each tile: same cells, in the same order.
-  const groups: number[][] = [];
-  const bySignature = new Map<string, number[][]>();
-  partials.forEach((p, pi) => {
+  const merger = new YearMerger(year, cells, options);
+  partials.forEach((p, pi) => merger.add(p, names[pi]));
+  return merger.finish();
+}
+
+/** One tile's pieces of the year seen so far: their hours per month and the months already started. */
+interface PieceGroup {
+  cells: Int32Array;
+  /** Hours the group's pieces cover per month [h]. */
+  covered: Uint32Array;
+  /** 1 once a month's histogram has been copied from the group's first piece. */
+  histFirst: Uint8Array;
+}
+
+/**
+ * {@link mergeYear} one partial at a time, so that a merge holds the year's counts and one partial,
+ * never every partial of the year: `add` each partial (read from its file just before), then
+ * `finish`. A cell's sums come from its own tile's pieces only, added in the order given, so the
+ * result does not depend on how the tiles' pieces are interleaved.
+ */
+export class YearMerger {
+  private out: YearCounts | undefined;
+  private first: ShardPartial | undefined;
+  private readonly pos = new Map<number, number>();
+  /** Per cell of the year: the partial that held it, and that partial's group, or −1. */
+  private readonly seen: Int32Array;
+  private readonly seenGroup: Int32Array;
+  private readonly groups: PieceGroup[] = [];
+  private readonly bySignature = new Map<string, number[]>();
+  private readonly names: string[] = [];
+
+  constructor(
+    private readonly year: number,
+    private readonly cells: Int32Array,
+    private readonly options: MergeOptions = {},
+  ) {
+    cells.forEach((c, i) => this.pos.set(c, i));
+    this.seen = new Int32Array(cells.length).fill(-1);
+    this.seenGroup = new Int32Array(cells.length).fill(-1);
+  }
+
+  /** Adds one partial (`name`: its shard id, for messages); it may be dropped afterwards. */
+  add(p: ShardPartial, name?: string): void {
+    const pi = this.names.length;
+    this.names.push(name ?? String(pi));
+    const label = (i: number) => this.names[i];
+    const first = (this.first ??= p);
+    const out = (this.out ??= emptyYear(p, this.year, this.cells));
+    if (p.year !== this.year) throw PartialsInconsistent({ detail: `partial ${label(pi)} is for year ${p.year}, not ${this.year}` });
+    if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
+      throw PartialsInconsistent({ detail: `partial ${label(pi)} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
+    }
+    // The tile's group: same cells, in the same order.
     const sig = `${p.cells.length}:${p.cells[0]}:${p.cells[p.cells.length - 1]}`;
-    const cands = bySignature.get(sig) ?? [];
-    const g = cands.find((grp) => sameCells(partials[grp[0]].cells, p.cells));
-    if (g) g.push(pi);
-    else {
-      const grp = [pi];
-      cands.push(grp);
-      groups.push(grp);
-      bySignature.set(sig, cands);
+    const cands = this.bySignature.get(sig) ?? [];
+    let gi = cands.find((g) => sameCells(this.groups[g].cells, p.cells));
+    if (gi === undefined) {
+      gi = this.groups.length;
+      this.groups.push({ cells: p.cells, covered: new Uint32Array(MONTHS), histFirst: new Uint8Array(MONTHS) });
+      cands.push(gi);
+      this.bySignature.set(sig, cands);
     }
-  });
-  for (const grp of groups) {
-    const covered = new Uint32Array(MONTHS);
-    const histFirst = new Uint8Array(MONTHS);
-    for (const pi of grp) {
-      const p = partials[pi];
-      if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
-      if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
-        throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
+    const grp = this.groups[gi];
+    for (let m = 0; m < MONTHS; m++) grp.covered[m] += p.coveredHours[m];
+    const at = new Int32Array(p.cells.length).fill(-1);
+    for (let j = 0; j < p.cells.length; j++) {
+      const a = this.pos.get(p.cells[j]);
+      if (a === undefined) {
+        if (this.options.subset) continue;
+        throw PartialsInconsistent({ detail: `partial ${label(pi)} holds cell ${p.cells[j]}, which is not a land cell of this build` });
       }
-      for (let m = 0; m < MONTHS; m++) covered[m] += p.coveredHours[m];
-      const at = new Int32Array(p.cells.length).fill(-1);
-      for (let j = 0; j < p.cells.length; j++) {
-        const a = pos.get(p.cells[j]);
-        if (a === undefined) {
-          if (options.subset) continue;
-          throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} holds cell ${p.cells[j]}, which is not a land cell of this build` });
-        }
-        if (seen[a] >= 0 && !grp.includes(seen[a])) {
-          throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${year} is in partials ${names[seen[a]] ?? seen[a]} and ${names[pi] ?? pi}` });
-        }
-        seen[a] = pi;
-        at[j] = a;
-        for (const f of PER_CELL_FIELDS) addCell(out, p, f, a, j);
-        const w = per(p, 'wbgtMax');
-        for (let k = 0; k < w; k++) {
-          const v = p.wbgtMax[j * w + k];
-          if (v > out.wbgtMax[a * w + k]) out.wbgtMax[a * w + k] = v;
-        }
+      if (this.seen[a] >= 0 && this.seenGroup[a] !== gi) {
+        throw PartialsInconsistent({ detail: `cell ${p.cells[j]} of year ${this.year} is in partials ${label(this.seen[a])} and ${label(pi)}` });
       }
-      addHistogram(out.histogram, cells.length, p, at, histFirst);
+      this.seen[a] = pi;
+      this.seenGroup[a] = gi;
+      at[j] = a;
+      for (const f of PER_CELL_FIELDS) addCell(out, p, f, a, j);
+      const w = per(p, 'wbgtMax');
+      for (let k = 0; k < w; k++) {
+        const v = p.wbgtMax[j * w + k];
+        if (v > out.wbgtMax[a * w + k]) out.wbgtMax[a * w + k] = v;
+      }
     }
-    for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], covered[m]);
+    addHistogram(out.histogram, this.cells.length, p, at, grp.histFirst);
   }
-  const missing: number[] = [];
-  seen.forEach((s, i) => {
-    if (s < 0) missing.push(cells[i]);
-  });
-  if (missing.length) {
-    throw PartialsIncomplete({ detail: `year ${year}: ${missing.length} land cell(s) in no partial (first: ${missing.slice(0, 5).join(', ')})` });
+
+  /** The year's counts; every cell must have been in a partial. */
+  finish(): YearCounts {
+    const out = this.out;
+    if (out === undefined) throw PartialsIncomplete({ detail: `no partial for year ${this.year}` });
+    // Covered hours: the most any tile has.
+    for (const g of this.groups) for (let m = 0; m < MONTHS; m++) out.coveredHours[m] = Math.max(out.coveredHours[m], g.covered[m]);
+    const missing: number[] = [];
+    this.seen.forEach((s, i) => {
+      if (s < 0) missing.push(this.cells[i]);
+    });
+    if (missing.length) {
+      throw PartialsIncomplete({ detail: `year ${this.year}: ${missing.length} land cell(s) in no partial (first: ${missing.slice(0, 5).join(', ')})` });
+    }
+    return out;
   }
-  return out;
 }
 
 function sameCells(a: Int32Array, b: Int32Array): boolean {

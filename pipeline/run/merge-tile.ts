@@ -16,7 +16,7 @@
 import { mkdirSync, openSync, closeSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import { computeNormals, computeTrends, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
-import { mergeYear, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
+import { YearMerger, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
 import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../reduce/layout.ts';
 import { figureDefs, yearFigures, shiftHourValues, PERIODS, type FigureDef } from '../reduce/figures.ts';
 import { personHoursDensity, personHoursDensityDef } from '../regions/person-hours.ts';
@@ -186,9 +186,10 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
   try {
     for (let y = 0; y < nY; y++) {
       const files = t.partials[y];
-      const partials = files.map((f) => readPartialFile(f.path).partial);
-      const yc: YearCounts = mergeYear(t.years[y], t.cells, partials, files.map((f) => f.id), { subset: t.subset });
-      partials.length = 0;
+      // One partial file at a time: the year's counts and one piece are held, never every piece.
+      const merger = new YearMerger(t.years[y], t.cells, { subset: t.subset });
+      for (const f of files) merger.add(readPartialFile(f.path).partial, f.id);
+      const yc: YearCounts = merger.finish();
       const figs = yearFigures(yc, rule.maxMissingHours);
       if (wf) {
         const lost = figs.find((f) => f.def.id === 'hours-lost-shift')!;

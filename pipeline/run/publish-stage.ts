@@ -32,7 +32,9 @@ import { fileSummaryCache } from './summary-cache.ts';
 import type { BuildPlan, BuildVariant } from './plan-stage.ts';
 import { describeScenario, SCENARIO_CAVEAT } from '../scenario/describe.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
-import type { ComputeOutcome } from './compute-stage.ts';
+import { workerInit, type ComputeOutcome } from './compute-stage.ts';
+import { runTasks, type PoolTask } from './shard-pool.ts';
+import type { SummaryChunkCache, SummaryPart } from '../read/index.ts';
 
 export interface PublishInput {
   plan: BuildPlan;
@@ -53,15 +55,45 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
   const { plan, log } = p;
   const cfg = plan.rc.config;
   const dataDir = join(p.stage, 'data');
-  // Each weather's gridded files and indexes: the record into data/, a scenario into data/scenarios/<id>/.
-  const layersOf: Manifest['layers'][] = [];
-  for (let vi = 0; vi < plan.variants.length; vi++) layersOf.push(await publishVariant(p, plan.variants[vi], p.tiles[vi]));
-  const layers = layersOf[0];
-  await writeRegionsGeoJson(join(dataDir, 'regions.geojson'), plan.regions);
+  // The inventory's summary of the inputs reads every value of every input file once: its chunks
+  // (UTC years) not in the cache run on worker threads while this thread draws the layers.
+  const summaryCache = p.summaryCacheDir ? fileSummaryCache(p.summaryCacheDir) : undefined;
+  const stopSummary = new AbortController();
+  const summaryParts = summariseInWorkers(plan, summaryCache, stopSummary.signal);
+  summaryParts.catch(() => undefined); // awaited below; a failure before then stops it in `finally`
+  try {
+    // Each weather's gridded files and indexes: the record into data/, a scenario into data/scenarios/<id>/.
+    const layersOf: Manifest['layers'][] = [];
+    for (let vi = 0; vi < plan.variants.length; vi++) layersOf.push(await publishVariant(p, plan.variants[vi], p.tiles[vi]));
+    await writeRegionsGeoJson(join(dataDir, 'regions.geojson'), plan.regions);
 
-  log.info('summarising the inputs for the inventory');
-  const inventory = makeInventory(cfg, plan.ds, await plan.ds.summary(p.summaryCacheDir ? fileSummaryCache(p.summaryCacheDir) : undefined), p.generated);
-  await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
+    log.info('summarising the inputs for the inventory');
+    const inventory = makeInventory(cfg, plan.ds, await plan.ds.summary(summaryCache, await summaryParts), p.generated);
+    await writeFile(join(dataDir, 'inventory.json'), JSON.stringify(inventory, null, 1));
+    return await publishIndexes(p, layersOf);
+  } finally {
+    stopSummary.abort();
+  }
+}
+
+/**
+ * The summary chunks of the inputs that the cache does not hold, computed on up to `plan.jobs`
+ * worker threads (one chunk per task), by cache key.
+ */
+async function summariseInWorkers(plan: BuildPlan, cache: SummaryChunkCache | undefined, signal: AbortSignal): Promise<Map<string, SummaryPart>> {
+  const parts = new Map<string, SummaryPart>();
+  const todo = plan.ds.summaryChunks().filter((c) => cache?.get(c.key) === undefined);
+  const tasks = todo.map((c): PoolTask => ({ kind: 'summary', hours: c.hours, key: c.key }));
+  await runTasks(tasks, workerInit(plan), plan.jobs, { onSummaryPart: (key, part) => parts.set(key, part) }, signal);
+  return parts;
+}
+
+/** The build's indexes, what changed and the manifest, after the layers and the inventory. */
+async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): Promise<Manifest> {
+  const { plan, log } = p;
+  const cfg = plan.rc.config;
+  const dataDir = join(p.stage, 'data');
+  const layers = layersOf[0];
 
   // What changed since the build now in outDir (if any), for the site.
   const changes = compareBuilds(readPreviousFacts(join(p.outDir, 'data')), {

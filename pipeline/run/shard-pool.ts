@@ -7,7 +7,7 @@
  */
 import { runInWorkers } from '../infra/worker-pool.ts';
 import type { ChangeCounts, KernelCounts } from '../physics/index.ts';
-import type { OpenDatasetOptions } from '../read/index.ts';
+import type { OpenDatasetOptions, SummaryPart } from '../read/index.ts';
 import type { ComputeTask, ShardContext } from './compute-task.ts';
 import type { PartialMeta } from '../formats/partial-file.ts';
 import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
@@ -23,7 +23,11 @@ export interface WorkerInit {
 export type ShardStores = Record<string, { path: string; meta: Omit<PartialMeta, 'report'> }>;
 
 /** A task for the pool. */
-export type PoolTask = { kind: 'compute'; task: ComputeTask; stores: ShardStores } | { kind: 'merge'; tile: MergeTileInput };
+export type PoolTask =
+  | { kind: 'compute'; task: ComputeTask; stores: ShardStores }
+  | { kind: 'merge'; tile: MergeTileInput }
+  /** One chunk of the inventory's summary of the inputs (hours [c0, c1) of the whole grid; pipeline/read/dataset.ts). */
+  | { kind: 'summary'; hours: [number, number]; key: string };
 
 /** What a worker reports per shard of a compute task. */
 export interface ShardReport {
@@ -40,7 +44,7 @@ export interface ShardReport {
 }
 
 /** What a worker answers per task: the shards' reports of a compute task, a merge band's summary. */
-export type PoolResult = { kind: 'compute'; shards: ShardReport[] } | { kind: 'merge'; summary: MergeTileSummary };
+export type PoolResult = { kind: 'compute'; shards: ShardReport[] } | { kind: 'merge'; summary: MergeTileSummary } | { kind: 'summary'; key: string; part: SummaryPart };
 
 export interface PoolHandlers {
   /** A shard of a compute task is computed and its partial written (reported as the task ends). */
@@ -49,9 +53,11 @@ export interface PoolHandlers {
   onShardProgress?: () => void;
   /** A task is done (a merge band's summary with it). */
   onTask?: (taskId: string, summary: MergeTileSummary | undefined) => void;
+  /** A chunk of the inputs' summary is done. */
+  onSummaryPart?: (key: string, part: SummaryPart) => void;
 }
 
-export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.tile.id);
+export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.kind === 'merge' ? t.tile.id : `summary-${t.hours[0]}-${t.hours[1]}`);
 
 /**
  * Runs `tasks` in order of the list on up to `jobs` workers. A handler's exception, a worker's
@@ -61,7 +67,7 @@ export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, job
   await runInWorkers<PoolTask, PoolResult>('shard', tasks, {
     size: jobs,
     init,
-    describe: (t) => `${t.kind === 'compute' ? 'compute task' : 'merge band'} ${taskId(t)}`,
+    describe: (t) => `${t.kind === 'compute' ? 'compute task' : t.kind === 'merge' ? 'merge band' : 'summary of the inputs'} ${taskId(t)}`,
     // Up to two tasks in flight per worker while the queue is long: the worker starts its next
     // task at once, even while the main thread is busy. Near the end one at a time, so no worker
     // sits on a task another could take.
@@ -69,6 +75,7 @@ export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, job
     onProgress: () => handlers.onShardProgress?.(),
     onResult: (t, r) => {
       if (r.kind === 'compute') for (const s of r.shards) handlers.onShard?.(s.shardId, s);
+      if (r.kind === 'summary') handlers.onSummaryPart?.(r.key, r.part);
       handlers.onTask?.(taskId(t), r.kind === 'merge' ? r.summary : undefined);
     },
     // The caller gave up (its own work failed): no more tasks, the workers are stopped.

@@ -2,7 +2,8 @@
  * Worker side of the build's pool (./shard-pool.ts, started through pipeline/infra/worker-pool.ts
  * as the entry `shard`): opens the dataset once, then runs the tasks it is sent — compute tasks
  * (a piece of a year over a group of tiles, ./compute-task.ts), each shard's partial written to
- * its file here (encoding runs in parallel), and merge bands (./merge-tile.ts). Only small
+ * its file here (encoding runs in parallel), merge bands (./merge-tile.ts) and chunks of the
+ * inputs' summary for the inventory. Only small
  * reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
  */
 import { openDataset, type Dataset } from '../read/index.ts';
@@ -24,6 +25,7 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
     try {
       if (t.kind === 'merge') return { kind: 'merge', summary: await runMergeTile(t.tile) };
       ds ??= await openDataset(init!.files, { ...init!.datasetOptions });
+      if (t.kind === 'summary') return { kind: 'summary', key: t.key, part: await ds.summariseChunk(t.hours[0], t.hours[1]) };
       const shards: ShardReport[] = [];
       await computeTask(ds, t.task, init!.context, (shard, r) => {
         const store = t.stores[shard.id];

@@ -84,6 +84,23 @@ describe('openDataset on ERA5 layouts (fixtures from ncgen)', () => {
     await ds2.close();
   });
 
+  it('the summary of chunks summarised elsewhere (as the build\'s workers do) equals the summary read in one go, and fills the cache', async () => {
+    // Hours stamped 31 Dec 2020 00:00 … 1 Jan 2021 23:00 (stamps are hour ends): two UTC years, the
+    // 25th stamp (1 Jan 00:00) ending the last hour that starts in 2020.
+    const a = fx({ layout: 'legacy', start: '2020-12-31T00:00:00Z', hours: 48 });
+    const ds = await openDataset([a], { product: 'era5' });
+    const chunks = ds.summaryChunks();
+    expect(chunks.map((c) => c.hours)).toEqual([[0, 25], [25, 48]]);
+    const whole = await ds.summary();
+    const parts = new Map(await Promise.all(chunks.map(async (c) => [c.key, await ds.summariseChunk(c.hours[0], c.hours[1])] as const)));
+    const kept = new Map<string, unknown>();
+    const cache = { get: (k: string) => kept.get(k) as never, set: (k: string, v: unknown) => void kept.set(k, v) };
+    expect(await ds.summary(cache, parts)).toEqual(whole);
+    expect([...kept.keys()].sort()).toEqual(chunks.map((c) => c.key).sort());
+    expect(await ds.summary(cache)).toEqual(whole);
+    await ds.close();
+  });
+
   it('expver along valid_time: where final ERA5 ("0001") and ERA5T ("0005") files share hours, final wins and no hour is counted twice', async () => {
     const fin = fx({ layout: 'cds2024', hours: 12, lon: [-0.5, -0.25, 0, 0.25], expver: Array(12).fill('0001') });
     const pre = fx({ layout: 'cds2024', hours: 24, lon: [-0.5, -0.25, 0, 0.25], expver: Array(24).fill('0005'), value: (v, ms, la, lo) => (v === 't2m' ? 310 : toSource(v, pattern(v, ms, la, lo))) }, 'nc4');
