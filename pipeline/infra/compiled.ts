@@ -19,6 +19,7 @@ export const WORKER_ENTRIES = {
   physics: 'run/physics-worker',
   'demo-year': 'demo/year-worker',
   'hdf5-meta': 'read/hdf5-meta-worker',
+  digest: 'read/digest-worker',
 } as const;
 
 export type WorkerName = keyof typeof WORKER_ENTRIES;

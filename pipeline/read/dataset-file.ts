@@ -82,17 +82,17 @@ function findAxisVar(sf: SourceFile, kind: 'lat' | 'lon' | 'time'): SourceVariab
  * Opens and analyses one file of a dataset (`digest`: hash its bytes, default true). Closes the
  * file again when it throws.
  */
-export async function analyseFile(path: string, opts: { digest?: boolean; memberCache?: string } = {}): Promise<AnalysedFile> {
+export async function analyseFile(path: string, opts: { digest?: boolean; memberCache?: string; sha256?: string } = {}): Promise<AnalysedFile> {
   const sf = await openSourceFile(path, { memberCache: opts.memberCache });
   try {
-    return await analyse(sf, opts.digest ?? true);
+    return await analyse(sf, opts.digest ?? true, opts.sha256);
   } catch (e) {
     await sf.close();
     throw e;
   }
 }
 
-async function analyse(sf: SourceFile, digest: boolean): Promise<AnalysedFile> {
+async function analyse(sf: SourceFile, digest: boolean, known?: string): Promise<AnalysedFile> {
   const file = sf.path;
   const latVar = findAxisVar(sf, 'lat');
   const lonVar = findAxisVar(sf, 'lon');
@@ -180,7 +180,7 @@ async function analyse(sf: SourceFile, digest: boolean): Promise<AnalysedFile> {
   const info: InventoryFile = {
     name: inputName(file),
     bytes: sf.bytes,
-    sha256: digest ? await (sf.digest ? sf.digest() : sha256File(file)) : '',
+    sha256: digest ? (known ?? (await (sf.digest ? sf.digest() : sha256File(file)))) : '',
     format: sf.format,
     layout: detectLayout(sf),
     timeStart: times && times.length > 0 ? isoSeconds(times[0]) : '',

@@ -8,6 +8,7 @@ import { createHash } from 'node:crypto';
 import { isoSeconds } from './cf-time.ts';
 import { decodeSlab, type SlabLayout } from './decode.ts';
 import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
+import { fileDigests } from './file-digests.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
 import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfDataUnreadable, NetcdfGridMismatch, NetcdfNoFiles, NetcdfReadFailed } from './errors.ts';
@@ -148,7 +149,11 @@ export async function openDataset(paths: string[], opts: OpenDatasetOptions): Pr
   try {
     // A `.zip` path stands for its members (zip-archive.ts). Files in the order of the names
     // they are listed under, so an archive and its unzipped files make the same inventory.
-    for (const p of await orderedInputs(paths)) files.push(await analyseFile(p, { digest: opts.digests ?? true, memberCache: opts.memberCache }));
+    const ordered = await orderedInputs(paths);
+    const digest = opts.digests ?? true;
+    // A large dataset's files are hashed side by side on worker threads (file-digests.ts).
+    const known = digest ? await fileDigests(ordered) : new Map<string, string>();
+    for (const p of ordered) files.push(await analyseFile(p, { digest, memberCache: opts.memberCache, sha256: known.get(p) }));
     return await assemble(files, opts);
   } catch (e) {
     for (const f of files) await f.sf.close();
