@@ -17,7 +17,8 @@
  * - Default shift: 07:00–17:00, Monday to Saturday (our choice: a daytime shift with six working
  *   days, a common pattern on building sites in hot countries — common practice).
  */
-import { WorkParameterInvalid, WorkShiftInvalid, WorkWeekdayUnknown } from './errors.ts';
+import { WorkParameterInvalid } from './errors.ts';
+import { WorkShiftInvalid, WorkWeekdayUnknown } from './shift-errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 import { zoneOffsets } from './time-zone.ts';
 
