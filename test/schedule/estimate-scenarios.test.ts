@@ -5,14 +5,14 @@
  * every weather year, every start month); the JSON's `scenarios` entry carries the record's fields
  * and says what the scenario is; the scenario reads its own tiles (data/scenarios/<id>/…); an
  * unknown scenario id is the catalogued EstimateScenarioUnknown, its hint listing the ids, and the
- * command then writes no file.
+ * command then writes no file; the CSV and the workbook (read back by openpyxl) carry the scenario.
  *
  * Outside check: with every hour 2 K warmer at the same relative humidity, WBGT rises (ISO 7243:
  * WBGT grows with air and natural wet-bulb temperature), so the hours above a fixed limit and the
  * rest breaks can only grow — the direction the test asserts, not a value.
  */
 import { execFile } from 'node:child_process';
-import { existsSync, mkdtempSync } from 'node:fs';
+import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
@@ -21,6 +21,8 @@ import { buildPipelineData, PIPELINE_DATA_SCENARIO } from '../site/pipeline-data
 import { formatEstimate, runEstimateCommand, type EstimateOptions } from '../../pipeline/commands/estimate.ts';
 import { openEstimateAtlas, type EstimateAtlas } from '../../pipeline/run/estimate-atlas.ts';
 import { bidCsv } from '../../pipeline/schedule/bid-csv.ts';
+import { bidSheets } from '../../pipeline/schedule/bid-sheets.ts';
+import { workbookBytes } from '../../pipeline/publish/workbook.ts';
 import { parseScenarios } from '../../pipeline/schedule/inputs.ts';
 import { scenarioContext, scenarioPath } from '../../pipeline/schedule/scenario-runs.ts';
 import { SCENARIO_CAVEAT } from '../../pipeline/scenario/describe.ts';
@@ -109,6 +111,26 @@ describe('the estimate on the atlas\u2019s scenarios', () => {
     expect(csv).toMatch(/what-if, not a forecast/);
     const p90 = csv.split('\n').find((l) => l.startsWith(`scenario,${ID},addedWorkingDays,p90,`))!;
     expect(Number(p90.split(',')[4])).toBe(s.addedWorkingDays.p90);
+  });
+
+  it('the workbook gains a What-if climates sheet that openpyxl (Debian python3-openpyxl) reads back with the record\u2019s and the scenario\u2019s figures, what the scenario is and the caveat', async () => {
+    const j = await runEstimateCommand(base({ scenarios: 'all' }));
+    const path = join(mkdtempSync(join(tmpdir(), 'estimate-scenario-xlsx-')), 'bid.xlsx');
+    writeFileSync(path, await workbookBytes(bidSheets(j), { title: 'test', created: new Date(j.atlas.buildTime) }));
+    const xl = await run('/usr/bin/python3', ['-c', [
+      'import json, sys, openpyxl',
+      'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
+      'print(json.dumps({ws.title: [[c for c in row] for row in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
+    ].join('\n'), path]);
+    const book = JSON.parse(xl.stdout) as Record<string, Array<Array<string | number | null>>>;
+    expect(Object.keys(book)).toEqual(['Schedule', 'Years', 'Start months', 'Shift patterns', 'Assumptions', 'Cautions', 'What-if climates']);
+    const sheet = book['What-if climates'];
+    expect(sheet[0].slice(3)).toEqual(['Record (past weather)', `${j.scenarios[0].name} (${ID})`]);
+    const p90 = sheet.find((r) => r[0] === 'Working days added by heat' && r[2] === 'P90 year')!;
+    expect(p90.slice(3, 5)).toEqual([j.addedWorkingDays.p90, j.scenarios[0].addedWorkingDays.p90]);
+    expect(JSON.stringify(sheet)).toContain(j.scenarios[0].what);
+    expect(JSON.stringify(sheet)).toContain('not a forecast');
+    expect(bidSheets(await runEstimateCommand(base())).map((x) => x.name)).not.toContain('What-if climates');
   });
 
   it('an unknown scenario id is the catalogued EstimateScenarioUnknown with the ids in its hint (CLI and form alike); the command exits 2 and writes no file', async () => {
