@@ -1,8 +1,8 @@
 /**
- * Draws the bid into the page from the estimate's JSON (pipeline/schedule/bid-json.ts, the object
- * `heathours estimate --json` prints): the headline, the schedule table (mean, median, P90 year
- * and the heat-free schedule), the years, the start-month chart and table, the shift patterns,
- * the crew for a deadline. Rows, labels and decimals from pipeline/schedule/bid-table.ts. Text
+ * Draws the bid into the page from the estimate's figures (pipeline/schedule/bid-figures.ts: the
+ * object `heathours estimate --json` prints, less its fixed notes): the headline, the schedule
+ * table (mean, median, P90 year and the heat-free schedule), the years, the start-month chart and
+ * table, the shift patterns, the crew for a deadline, the same job on each scenario. Rows, labels and decimals from pipeline/schedule/bid-table.ts. Text
  * only through textContent; the chart is SVG built with DOM calls (no inline style).
  */
 import type { BidFigures as BidJson } from '../../../pipeline/schedule/bid-figures.ts';
