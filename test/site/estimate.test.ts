@@ -240,7 +240,7 @@ describe('the estimate page', () => {
     const p = await session.open(`/estimate/?region=${odd.id}`);
     await settled(p.page, 0);
     expect(await p.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
-    expect(await p.page.textContent('#estimate-summary dd[data-key="place"]')).toBe(`Region ${odd.name} (${odd.id})`);
+    expect(await p.page.textContent('#bid-settings dd[data-key="place"]')).toBe(`Region ${odd.name} (${odd.id})`);
     expect(await p.page.textContent('#estimate-status')).toContain(odd.name);
     expect(await p.page.locator('#estimate-result img, #estimate-result script').count()).toBe(0);
     expect(p.dialogs).toEqual([]);
@@ -376,7 +376,8 @@ describe('the estimate page', () => {
     await settled(p, 0);
     await p.emulateMedia({ media: 'print' });
     for (const sel of ['#bid-headline', '#bid-schedule', '#bid-settings', '#bid-build', '#bid-start-months', '#bid-shifts', '.bid-print-cautions', '.bid-print-title']) expect(await p.isVisible(sel), sel).toBe(true);
-    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv']) expect(await p.isVisible(sel), sel).toBe(false);
+    // The what-if table stays on the screen: with it the summary would not fit one page.
+    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv', '#bid-scenarios']) expect(await p.isVisible(sel), sel).toBe(false);
     expect(await p.textContent('.bid-print-title')).toContain('INVENTED DATA');
     expect(await p.textContent('#bid-build')).toContain(ctx.build.buildTime);
     await p.screenshot({ path: join(ARTIFACTS_DIR, 'estimate-print.png'), fullPage: true });
