@@ -7,7 +7,7 @@
  * common practice for annual normals (from memory).
  */
 import { completenessMask, MONTHLY_COMPLETENESS, type CompletenessRule } from './completeness.ts';
-import { ClimateShapeMismatch } from './errors.ts';
+import { ClimateShapeMismatch } from './stack-errors.ts';
 
 export interface MonthlySums {
   /** Calendar year of each row [year]. */

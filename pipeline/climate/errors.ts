@@ -12,34 +12,6 @@ export const ClimateProbabilityOutOfRange = defineError<{ p: number }>({
   hint: () => 'pass the probability as a fraction: 0.5 for the median, 0.9 for the 90th percentile',
 });
 
-export const ClimateShapeMismatch = defineError<{ what: string; expected: number; actual: number }>({
-  code: 'ClimateShapeMismatch',
-  title: 'An array has the wrong length for its years × items layout',
-  message: (p) => `${p.what} holds ${p.actual} values; years × items needs ${p.expected}`,
-  hint: () => 'lay the stack out year-major (value[year * nItems + item]) with one row per year of `years`',
-});
-
-export const ClimateYearsNotAscending = defineError<{ index: number; previous: number; year: number }>({
-  code: 'ClimateYearsNotAscending',
-  title: 'The years of a stack are not whole, strictly ascending calendar years',
-  message: (p) => `year ${p.year} at row ${p.index} does not follow ${p.previous} (years must be integers, ascending, without repeats)`,
-  hint: () => 'give one row per calendar year, oldest first, each year once',
-});
-
-export const ClimatePeriodNotInStack = defineError<{ period: string; first: number; last: number; years: string }>({
-  code: 'ClimatePeriodNotInStack',
-  title: 'A requested period has no year in the stack',
-  message: (p) => `${p.period} ${p.first}–${p.last} shares no year with the stack (${p.years})`,
-  hint: () => 'choose a baseline (and latest years) inside the years that were built, or build those years first',
-});
-
-export const ClimateBadPeriod = defineError<{ period: string; first: number; last: number }>({
-  code: 'ClimateBadPeriod',
-  title: 'A period of years is not valid',
-  message: (p) => `${p.period} ${p.first}–${p.last} is not a pair of whole years with the first not after the last`,
-  hint: () => 'write the period as [first, last] calendar years, e.g. [1991, 2020]',
-});
-
 export const ClimateBadHourCounts = defineError<{ row: number; item: number; valid: number; expected: number }>({
   code: 'ClimateBadHourCounts',
   title: 'The counts of valid and expected hours do not make sense',

@@ -12,7 +12,7 @@
 import { checkRule, completenessMask, minYearsForNormal, MONTHLY_COMPLETENESS, type CompletenessRule } from './completeness.ts';
 import { quantileSorted } from './quantile.ts';
 import { checkStack, periodRows, type YearPeriod, type YearStack } from './year-stack.ts';
-import { ClimatePeriodNotInStack } from './errors.ts';
+import { ClimatePeriodNotInStack } from './stack-errors.ts';
 
 export interface NormalsOptions {
   /** Baseline period, e.g. [1991, 2020] [year]. */

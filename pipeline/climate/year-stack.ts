@@ -3,7 +3,7 @@
  * An item is whatever the lead stacks: cell × month × workload class × statistic, flattened.
  * `values[y * nItems + i]` is item i in year `years[y]`; NaN where that year is missing.
  */
-import { ClimateBadPeriod, ClimatePeriodNotInStack, ClimateShapeMismatch, ClimateYearsNotAscending } from './errors.ts';
+import { ClimateBadPeriod, ClimatePeriodNotInStack, ClimateShapeMismatch, ClimateYearsNotAscending } from './stack-errors.ts';
 
 export interface YearStack {
   /** Calendar year of each row, whole and strictly ascending [year]. */

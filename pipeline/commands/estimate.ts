@@ -20,6 +20,7 @@ import { parseHolidays } from '../schedule/job.ts';
 import { parseInputs, type RawInputs } from '../schedule/inputs.ts';
 import { loadPlace } from '../schedule/place.ts';
 import { runBid } from '../schedule/run-bid.ts';
+import { runScenarios } from '../schedule/scenario-runs.ts';
 import { grouped } from '../schedule/settings-text.ts';
 import { openEstimateAtlas } from '../run/estimate-atlas.ts';
 
@@ -51,6 +52,10 @@ export interface EstimateOptions {
   dailyCost?: string;
   currency?: string;
   holidays?: string;
+  /** Scenario ids (repeated `--scenario`). */
+  scenario?: string[];
+  /** `all`, or ids separated by commas. */
+  scenarios?: string;
   json?: boolean;
   csv?: string;
   xlsx?: string;
@@ -87,6 +92,7 @@ export function rawFromOptions(o: EstimateOptions, holidays: string): RawInputs 
   if (o.dailyCost !== undefined) raw['daily-cost'] = o.dailyCost;
   if (o.currency !== undefined) raw.currency = o.currency;
   raw.holidays = holidays;
+  raw.scenario = [...(o.scenario ?? []), ...(o.scenarios !== undefined ? o.scenarios.split(',') : [])];
   return raw;
 }
 
@@ -105,7 +111,7 @@ export async function runEstimateCommand(o: EstimateOptions): Promise<BidJson> {
   const inputs = parseInputs(rawFromOptions(o, holidays), atlas.ctx, 'C');
   const { place, histograms } = await loadPlace(inputs.place, atlas.ctx, atlas.load);
   const run = runBid(histograms, inputs, atlas.ctx);
-  return bidJson(run, inputs, atlas.ctx, place);
+  return bidJson(run, inputs, atlas.ctx, place, await runScenarios(inputs, atlas.ctx, atlas.load));
 }
 
 const pad = (s: string, n: number, right = false) => (right ? s.padStart(n) : s.padEnd(n));
@@ -145,6 +151,27 @@ export function formatEstimate(j: BidJson): string {
     const c = j.crewForDeadline;
     out.push('');
     out.push(`Crew for the deadline ${c.deadline} at P90: ${grouped(c.crew)} workers (P90 finish ${c.finishDate.p90}).`);
+  }
+  if (j.scenarios.length > 0) {
+    out.push('');
+    out.push('What-if climates: the same job on the record\'s weather with its monthly means shifted (not forecasts)');
+    const cols = [{ label: 'Record', x: j }, ...j.scenarios.map((s) => ({ label: s.id, x: s }))];
+    const cw = Math.max(14, ...cols.map((c) => c.label.length + 2));
+    out.push(`${pad('', 40)}${cols.map((c) => pad(c.label, cw, true)).join('')}`);
+    const lines: Array<[string, (x: BidJson | BidJson['scenarios'][number]) => string]> = [
+      ['Finish, median year', (x) => x.finishDate.p50],
+      ['Finish, P90 year', (x) => x.finishDate.p90],
+      ['Working days added, median', (x) => grouped(x.addedWorkingDays.p50, 1)],
+      ['Working days added, P90', (x) => grouped(x.addedWorkingDays.p90, 1)],
+      [`Cost of heat, median [${cur}]`, (x) => grouped(x.cost.p50)],
+      [`Cost of heat, P90 [${cur}]`, (x) => grouped(x.cost.p90)],
+    ];
+    for (const [label, f] of lines) out.push(`${pad(label, 40)}${cols.map((c) => pad(f(c.x), cw, true)).join('')}`);
+    for (const s of j.scenarios) {
+      out.push(`  ${s.id}: ${s.name} (${s.kind}). ${s.what} Source: ${s.source}`);
+      if (s.deadlineProblem) out.push(`    crew for the deadline: ${s.deadlineProblem}`);
+    }
+    out.push(`  ${j.scenarioCaveat}`);
   }
   out.push('');
   out.push(`How: ${j.approximation}`);
@@ -186,6 +213,8 @@ export function register(program: Command): void {
     .option('--daily-cost <c>', 'time-related site cost per calendar day (default 0)')
     .option('--currency <x>', 'currency label for the costs, e.g. EUR')
     .option('--holidays <file>', 'non-working dates, one YYYY-MM-DD per line (# comments)')
+    .option('--scenario <id>', 'also replay the job on this scenario of the atlas (repeat for several); a what-if on the record\'s weather with shifted monthly means, not a forecast', collect)
+    .option('--scenarios <all|ids>', 'also replay the job on every scenario of the atlas (`all`) or on these, separated by commas')
     .option('--json', 'print the estimate as JSON (the page\'s JSON download)')
     .option('--csv <file>', 'also write the CSV download')
     .option('--xlsx <file>', 'also write a workbook (.xlsx) with the schedule, years, start months, shifts, assumptions and cautions')

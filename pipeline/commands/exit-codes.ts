@@ -29,7 +29,7 @@ export const USAGE_ERRORS: readonly string[] = [
   'LayerRampUnknown', 'LayerClassesInvalid', 'LayerDomainInvalid', 'LayerNoDataValueInvalid', 'LayerCategoriesInvalid',
   'PreviewDirMissing', 'PreviewPortBusy', 'SiteOutputUnwritable', 'SiteDataDirUnset',
   'EstimateNumberInvalid', 'EstimateChoiceUnknown', 'EstimateMonthsEmpty', 'EstimatePeriodInvalid', 'EstimateRegionUnknown',
-  'EstimateCellInvalid', 'EstimatePointOutsideGrid', 'EstimateAtlasNotFound',
+  'EstimateCellInvalid', 'EstimatePointOutsideGrid', 'EstimateAtlasNotFound', 'EstimateScenarioUnknown',
   'ScheduleDateInvalid', 'ScheduleNumberInvalid', 'ScheduleShiftInvalid', 'ScheduleDaysInvalid', 'ScheduleHolidayInvalid',
   'ScheduleTooManyPatterns', 'ScheduleNotFinished', 'ScheduleDeadlineUnreachable',
   'EstimateCellInvalid', 'EstimatePointOutsideGrid',

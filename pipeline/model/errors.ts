@@ -74,7 +74,13 @@ const registry = new Map<string, ErrorSpec<never>>();
  *     code: 'MissingVariable', title: 'A required variable is missing',
  *     message: (p) => `no variable ${p.name}`, hint: () => 'add it to the request' });
  *   throw MissingVariable({ name: 't2m' }, { file: 'a.nc' });
+ *
+ * Marked free of side effects for bundlers (`@__NO_SIDE_EFFECTS__`, honoured by Rollup, which
+ * builds the site): a browser bundle keeps only the errors its code can throw. The one effect,
+ * the entry in the catalogue, is read only by `heathours errors` and the tests, which run
+ * unbundled and import every error module (pipeline/commands/catalogue.ts).
  */
+/* @__NO_SIDE_EFFECTS__ */
 export function defineError<P>(spec: ErrorSpec<P>): ((p: P, where?: ErrorWhere, details?: string) => HeathoursError) & { code: string } {
   if (registry.has(spec.code)) throw new Error(`error code ${spec.code} is defined twice`);
   registry.set(spec.code, spec as ErrorSpec<never>);

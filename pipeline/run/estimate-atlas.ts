@@ -38,6 +38,17 @@ const manifestPartSchema = z.object({
       shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),
     })
     .passthrough(),
+  scenarioCaveat: z.string().min(1).optional(),
+  scenarios: z
+    .array(
+      z.object({
+        id: slug,
+        name: z.string().min(1),
+        words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1) }).passthrough(),
+        dataPath: z.string().regex(/^data\/scenarios\/[a-z0-9][a-z0-9-]*\/$/),
+      }).passthrough(),
+    )
+    .optional(),
 }).passthrough();
 
 const calculatorSchema = z.object({

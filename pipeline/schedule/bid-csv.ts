@@ -8,7 +8,8 @@
  *   section, case, figure, statistic, value, unit
  *
  * `section` is `schedule` (the job), `year` (case = the weather year), `start-month` (case = the
- * start date), `shift-pattern` (case = the pattern), `heat-free`, or `crew-for-deadline`.
+ * start date), `shift-pattern` (case = the pattern), `heat-free`, `crew-for-deadline`, or
+ * `scenario` (case = the scenario id: the same job on a what-if climate, described in a comment line).
  */
 import { csvLine } from '../formats/csv.ts';
 import type { BidJson } from './bid-json.ts';
@@ -33,6 +34,8 @@ export function bidCsv(j: BidJson): string {
   out += commentLine(`How: ${j.approximation}`);
   out += commentLine(`Statistics across ${j.weatherYears.length} weather years (${j.weatherYears.join(', ')}): mean, median and 90th-percentile year (Hyndman-Fan type 7); cost of heat = crew-hours lost x rate + calendar days added x daily cost.`);
   for (const c of j.cautions) out += commentLine(`Caution: ${c}`);
+  for (const sc of j.scenarios) out += commentLine(`Scenario ${sc.id}: ${sc.name} (${sc.kind}). ${sc.what} Source: ${sc.source}`);
+  if (j.scenarios.length > 0) out += commentLine(`Scenarios: ${j.scenarioCaveat}`);
   out += csvLine([...BID_CSV_COLUMNS]);
   const cur = j.costs.currency;
   const schedule = (section: string, kase: string, s: Parameters<typeof scheduleValue>[0]) => {
@@ -54,6 +57,10 @@ export function bidCsv(j: BidJson): string {
     const c = j.crewForDeadline;
     out += csvLine(['crew-for-deadline', c.deadline, 'crew', 'value', c.crew, 'workers']);
     out += csvLine(['crew-for-deadline', c.deadline, 'finishDate', 'p90', c.finishDate.p90, 'date']);
+  }
+  for (const sc of j.scenarios) {
+    schedule('scenario', sc.id, sc);
+    hf(`scenario ${sc.id}`, sc.heatFree);
   }
   return out;
 }

@@ -1,8 +1,9 @@
 /**
  * The estimate's workbook as plain sheets (written by pipeline/publish/workbook.ts): the schedule
  * (mean, median, P90 year, without heat), the years, the start months, the shift patterns, the
- * assumptions (every setting, the atlas build and data, how the figures are made) and the
- * cautions. Pure: numbers stay numbers.
+ * assumptions (every setting, the atlas build and data, how the figures are made), the
+ * cautions, and with scenarios asked for a sheet of the same job on each (what it is, its source,
+ * the what-if caveat, and its schedule beside the record's). Pure: numbers stay numbers.
  */
 import type { CellValue, SheetSpec } from '../publish/workbook.ts';
 import type { BidJson } from './bid-json.ts';
@@ -52,5 +53,19 @@ export function bidSheets(j: BidJson): SheetSpec[] {
       widths: [28, 120],
     },
     { name: 'Cautions', header: ['Caution'], rows: j.cautions.map((c) => [c]), widths: [120] },
+    ...(j.scenarios.length === 0
+      ? []
+      : [
+          {
+            name: 'What-if climates',
+            header: ['Figure', 'Unit', 'Statistic', 'Record (past weather)', ...j.scenarios.map((sc) => `${sc.name} (${sc.id})`)],
+            rows: [
+              ...SCHEDULE_ROWS.flatMap((r) => STATISTICS.map((st): CellValue[] => [r.label, rowUnit(r, cur), st.label, scheduleValue(j, r, st.key), ...j.scenarios.map((sc) => scheduleValue(sc, r, st.key))])),
+              ...j.scenarios.map((sc): CellValue[] => [`${sc.id}: ${sc.kind}`, '', '', `${sc.what} Source: ${sc.source}`]),
+              ['Not a forecast', '', '', j.scenarioCaveat],
+            ],
+            widths: [36, 14, 14, 22, ...j.scenarios.map(() => 22)],
+          } satisfies SheetSpec,
+        ]),
   ];
 }

@@ -34,6 +34,23 @@ export interface EstimateChunk {
   lastCell: number;
 }
 
+/**
+ * A what-if climate published beside the record (`data/scenarios/<id>/`, the same files): the
+ * manifest's words for it, shown wherever its figures are.
+ */
+export interface EstimateScenario {
+  id: string;
+  name: string;
+  /** `uniform warming` or `change factors` (pipeline/scenario/describe.ts). */
+  kind: string;
+  /** What it changes, in one sentence. */
+  what: string;
+  /** Where its changes come from. */
+  source: string;
+  /** Its folder below the site root, `data/scenarios/<id>/`. */
+  dataPath: string;
+}
+
 export interface EstimateContext {
   /** Years in every tile, ascending [year]. */
   years: number[];
@@ -60,6 +77,10 @@ export interface EstimateContext {
   cells: { grid: EstimateGrid; chunks: EstimateChunk[] } | null;
   /** The build the figures come from (manifest). */
   build: { title: string; buildTime: string; codeVersion: string; configDigest: string; inputs: number };
+  /** The atlas's scenarios in the manifest's order (empty without any). */
+  scenarios: EstimateScenario[];
+  /** What every scenario is and is not (the manifest's `scenarioCaveat`); empty without scenarios. */
+  scenarioCaveat: string;
 }
 
 /** What {@link makeEstimateContext} reads from the manifest and the calculator indexes (validated by the caller). */
@@ -81,6 +102,8 @@ export interface EstimateContextParts {
       restLocation: RestLocation;
       clothing: { ensemble?: string; hood?: boolean; cav?: number };
     };
+    scenarioCaveat?: string;
+    scenarios?: Array<{ id: string; name: string; words: { kind: string; what: string; source: string }; dataPath: string }>;
   };
   /** The manifest's shift, checked (pipeline/work/shifts.ts validateShift). */
   shift: WorkShift;
@@ -111,5 +134,7 @@ export function makeEstimateContext(p: EstimateContextParts): EstimateContext {
     regions: p.calculator.regions.map((r) => ({ id: r.id, name: r.name, path: r.path })),
     cells: p.cells ? { grid: p.cells.grid, chunks: p.cells.chunks.map((c) => ({ path: c.path, firstCell: c.firstCell, lastCell: c.lastCell })) } : null,
     build: { title: m.atlas.title, buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, inputs: m.inputs.length },
+    scenarios: (m.scenarios ?? []).map((s) => ({ id: s.id, name: s.name, kind: s.words.kind, what: s.words.what, source: s.words.source, dataPath: s.dataPath })),
+    scenarioCaveat: m.scenarios && m.scenarios.length > 0 ? (m.scenarioCaveat ?? '') : '',
   };
 }

@@ -152,3 +152,13 @@ export const EstimateAtlasInvalid = defineError<{ path: string; problems: string
   message: (p) => `${p.path}: ${p.problems.join('; ')}`,
   hint: () => 'the atlas folder is damaged or from another version: rebuild it with `heathours build`, and publish data/ from one build only',
 });
+
+export const EstimateScenarioUnknown = defineError<{ value: string; known: string[] }>({
+  code: 'EstimateScenarioUnknown',
+  title: 'A scenario asked for is not one of the atlas',
+  message: (p) => `scenario "${p.value}" is not published by this atlas${p.known.length === 0 ? ' (it has no scenarios)' : ''}`,
+  hint: (p) =>
+    p.known.length === 0
+      ? 'leave the scenario out: this atlas was built without scenarios (the configuration\u2019s `scenarios:` list)'
+      : `use one of: ${p.known.join(', ')}, or \`all\` for every one (scenarios are what-ifs, not forecasts)`,
+});

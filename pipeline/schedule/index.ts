@@ -18,4 +18,7 @@ export * from './context.ts';
 export * from './inputs.ts';
 export * from './project-period.ts';
 export * from './tiles.ts';
+export * from './cell-tiles.ts';
 export * from './place.ts';
+export * from './cell-place.ts';
+export * from './scenario-runs.ts';

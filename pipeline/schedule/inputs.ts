@@ -12,7 +12,7 @@ import type { Weekday } from '../work/shifts.ts';
 import type { Exposure } from '../work/work-settings.ts';
 import { daysFromCivil, formatDay, parseDay } from './calendar.ts';
 import type { EstimateContext, EstimateGrid } from './context.ts';
-import { EstimateCellInvalid, EstimateChoiceUnknown, EstimateMonthsEmpty, EstimateNumberInvalid, EstimatePointOutsideGrid, EstimateRegionUnknown, ScheduleTooManyPatterns } from './errors.ts';
+import { EstimateCellInvalid, EstimateChoiceUnknown, EstimateMonthsEmpty, EstimateNumberInvalid, EstimatePointOutsideGrid, EstimateRegionUnknown, EstimateScenarioUnknown, ScheduleTooManyPatterns } from './errors.ts';
 import { parseCrew, parseCurrency, parseDailyCost, parseHolidays, parseRate, parseWorkHours, type Costs } from './job.ts';
 import { parseYearMonth, type YearMonth } from './project-period.ts';
 import { makePattern, parseDays, parseShiftSpan, patternFromWorkShift, type ShiftPattern } from './shift-pattern.ts';
@@ -61,6 +61,8 @@ export interface EstimateInputs {
   crew: number;
   job: JobInputs;
   costs: Costs;
+  /** Ids of the atlas's scenarios the job is also replayed on, in the atlas's order (scenario-runs.ts). */
+  scenarios: string[];
 }
 
 /** The raw values: single fields as strings, multi-choice fields (days, months, compare) as lists. */
@@ -98,6 +100,8 @@ export interface RawInputs {
   rate?: string;
   'daily-cost'?: string;
   currency?: string;
+  /** Scenario ids to replay the job on too; `all` for every one, `none` for none (the form with every box unticked). */
+  scenario?: string[];
 }
 
 export const CUSTOM = 'custom';
@@ -205,7 +209,7 @@ export function defaultStart(ctx: EstimateContext): string {
  * Catalogued errors: EstimateRegionUnknown, EstimateCellInvalid, EstimatePointOutsideGrid,
  * EstimateNumberInvalid, EstimateChoiceUnknown, EstimateMonthsEmpty, EstimatePeriodInvalid,
  * ScheduleDateInvalid, ScheduleNumberInvalid, ScheduleShiftInvalid, ScheduleDaysInvalid,
- * ScheduleHolidayInvalid, ScheduleTooManyPatterns, and from pipeline/work:
+ * ScheduleHolidayInvalid, ScheduleTooManyPatterns, EstimateScenarioUnknown, and from pipeline/work:
  * ClothingAdjustmentOutOfRange.
  */
 export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: TemperatureUnit): EstimateInputs {
@@ -282,5 +286,24 @@ export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: Temperat
     currency: parseCurrency(raw.currency ?? JOB_DEFAULTS.currency),
   };
 
-  return { place, classId: work === CUSTOM ? null : work, workRate, acclimatization, limitModel, airMovement, clothing, exposure, rest, shift, otherPatterns, workMonths: wm, period, crew, job, costs };
+  const scenarios = parseScenarios(raw.scenario ?? [], ctx);
+  return { place, classId: work === CUSTOM ? null : work, workRate, acclimatization, limitModel, airMovement, clothing, exposure, rest, shift, otherPatterns, workMonths: wm, period, crew, job, costs, scenarios };
+}
+
+/**
+ * The scenario ids asked for, in the atlas's order, each once: `all` stands for every scenario of
+ * the atlas, `none` (and an empty entry) for none. Catalogued error: EstimateScenarioUnknown, its
+ * hint listing the atlas's ids.
+ */
+export function parseScenarios(asked: readonly string[], ctx: EstimateContext): string[] {
+  const known = ctx.scenarios.map((s) => s.id);
+  const want = new Set<string>();
+  for (const raw of asked) {
+    const id = raw.trim();
+    if (id === '' || id === 'none') continue;
+    if (id === 'all') known.forEach((k) => want.add(k));
+    else if (known.includes(id)) want.add(id);
+    else throw EstimateScenarioUnknown({ value: id, known }, { key: 'scenario' });
+  }
+  return known.filter((k) => want.has(k));
 }

@@ -10,7 +10,7 @@
  * the shift started (as pipeline/work/shifts.ts counts night shifts); the spans of a day, together
  * with the next day's, never overlap, so a pattern holds at most 24 hours a day.
  */
-import { WEEKDAYS, type Weekday, type WorkShift } from '../work/shifts.ts';
+import { WEEKDAYS, type Weekday, type WorkShift } from '../work/weekdays.ts';
 import { ScheduleDaysInvalid, ScheduleShiftInvalid } from './errors.ts';
 
 /** Minutes in a day. */

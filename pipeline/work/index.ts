@@ -4,6 +4,7 @@
  * (no node: imports): the pipeline and the browser calculator import this same barrel.
  */
 export * from './errors.ts';
+export * from './shift-errors.ts';
 export * from './workload-classes.ts';
 export * from './limit-curves.ts';
 export * from './clothing.ts';

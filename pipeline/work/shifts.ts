@@ -17,24 +17,14 @@
  * - Default shift: 07:00–17:00, Monday to Saturday (our choice: a daytime shift with six working
  *   days, a common pattern on building sites in hot countries — common practice).
  */
-import { WorkParameterInvalid, WorkShiftInvalid, WorkWeekdayUnknown } from './errors.ts';
+import { WorkParameterInvalid } from './errors.ts';
+import { WorkShiftInvalid, WorkWeekdayUnknown } from './shift-errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 import { zoneOffsets } from './time-zone.ts';
 
-/** Days of the week as written in the configuration. */
-export type Weekday = 'mon' | 'tue' | 'wed' | 'thu' | 'fri' | 'sat' | 'sun';
-/** In ISO order: index + 1 is the ISO weekday number. */
-export const WEEKDAYS: readonly Weekday[] = ['mon', 'tue', 'wed', 'thu', 'fri', 'sat', 'sun'];
+import { WEEKDAYS, type Weekday, type WorkShift } from './weekdays.ts';
 
-/** A work shift: local hours and days. */
-export interface WorkShift {
-  /** Local clock hour the shift starts [h, 0–23]. */
-  start: number;
-  /** Local clock hour the shift ends [h, 1–24]; below `start` for a night shift ending next day. */
-  end: number;
-  /** Days on which the shift starts. */
-  days: Weekday[];
-}
+export { WEEKDAYS, type Weekday, type WorkShift };
 
 /** The default shift: 07:00–17:00 local, Monday to Saturday (common practice; see file comment). */
 export const DEFAULT_SHIFT: WorkShift = { start: 7, end: 17, days: ['mon', 'tue', 'wed', 'thu', 'fri', 'sat'] };

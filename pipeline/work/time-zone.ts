@@ -7,7 +7,7 @@
  * same offset would be missed; the time-zone database has no such case for working populations
  * since 1940 that we know of.
  */
-import { WorkTimeZoneUnknown } from './errors.ts';
+import { WorkTimeZoneUnknown } from './shift-errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 
 const DAY_MS = 86_400_000;

@@ -1,6 +1,7 @@
 /**
  * Browser tests of the estimate calculator (/estimate/) on a site built from the real pipeline's
- * invented small demo (pipeline-data.ts), in Debian's headless Chromium (browser.ts): the default
+ * invented small demo with its one scenario (pipeline-data.ts `withScenario`: a uniform warming
+ * of 2 K), in Debian's headless Chromium (browser.ts): the default
  * estimate against the region table, the direction of the answers when clothing, workload and
  * acclimatization change, `?cell=`, the CSV download (a Blob link under the site's CSP), the
  * °C/°F switch, and no request leaves 127.0.0.1, no console error, no CSP violation.
@@ -10,7 +11,8 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { buildPipelineData } from './pipeline-data.ts';
+import { buildPipelineData, PIPELINE_DATA_SCENARIO } from './pipeline-data.ts';
+import { SCENARIO_LINES } from '../../src/scripts/estimate/render-bid.ts';
 import { ARTIFACTS_DIR, buildTestSite, parseShownNumber, readDataTable, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
 import type { EstimateContext } from '../../pipeline/schedule/context.ts';
@@ -33,7 +35,7 @@ let ctx: EstimateContext;
 let page: WatchedPage;
 
 beforeAll(async () => {
-  dataDir = (await buildPipelineData()).dataDir;
+  dataDir = (await buildPipelineData({ withScenario: true })).dataDir;
   ctx = loadEstimateContext(dataDir)!.ctx;
   const build = await buildTestSite(dataDir);
   distDir = build.distDir;
@@ -92,9 +94,12 @@ describe('the estimate page', () => {
     const region = ctx.regions.find((r) => r.id === 'tessick-coast') ?? ctx.regions[0];
     page = await session.open(`/estimate/?region=${region.id}`);
     await settled(page.page, 0);
-    // The monthly table is a detail, folded by default.
+    // The monthly table is a detail, folded by default, and computed when opened (its code is loaded then).
     expect(await page.page.isVisible('#estimate-table')).toBe(false);
+    expect(await page.page.locator('#estimate-table tbody tr').count()).toBe(0);
+    const before = await runCount(page.page);
     await page.page.click('.estimate-monthly > summary');
+    await settled(page.page, before);
     expect(await page.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
     expect(await page.page.inputValue('#region')).toBe(region.id);
     const rows = await readDataTable(page.page, '#estimate-table');
@@ -213,7 +218,9 @@ describe('the estimate page', () => {
     const p = await session.open(`/estimate/?cell=${cell}`);
     await settled(p.page, 0);
     expect(await p.page.textContent('#estimate-status')).toContain(`Grid cell ${cell}`);
+    const before = await runCount(p.page);
     await p.page.click('.estimate-monthly > summary');
+    await settled(p.page, before);
     expect(await p.page.inputValue('#cell')).toBe(String(cell));
     const rows = await readDataTable(p.page, '#estimate-table');
     const cells = readCsv(readCellTables(join(dataDir, 'data')));
@@ -233,7 +240,7 @@ describe('the estimate page', () => {
     const p = await session.open(`/estimate/?region=${odd.id}`);
     await settled(p.page, 0);
     expect(await p.page.getAttribute('#estimate-app', 'data-state')).toBe('ready');
-    expect(await p.page.textContent('#estimate-summary dd[data-key="place"]')).toBe(`Region ${odd.name} (${odd.id})`);
+    expect(await p.page.textContent('#bid-settings dd[data-key="place"]')).toBe(`Region ${odd.name} (${odd.id})`);
     expect(await p.page.textContent('#estimate-status')).toContain(odd.name);
     expect(await p.page.locator('#estimate-result img, #estimate-result script').count()).toBe(0);
     expect(p.dialogs).toEqual([]);
@@ -259,7 +266,9 @@ describe('the estimate page', () => {
     await settled(p, 0);
     expect(await p.getAttribute('#estimate-app', 'data-state')).toBe('ready');
     const fromPage = await downloadJson(p);
-    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', compareShift: ['05:00-11:00, 15:00-19:00', '20:00-04:00'], deadline: '2027-09-15' });
+    // The page replays every scenario of the atlas unless the reader unticks it; the CLI when asked (--scenarios all).
+    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', compareShift: ['05:00-11:00, 15:00-19:00', '20:00-04:00'], deadline: '2027-09-15', scenarios: 'all' });
+    expect(fromCli.scenarios.map((s) => s.id)).toEqual([PIPELINE_DATA_SCENARIO.id]);
     expect(fromPage).toEqual(fromCli);
     expect(fromPage.crewForDeadline).not.toBeNull();
     // The schedule table shows the JSON's numbers with the table's decimals.
@@ -276,6 +285,54 @@ describe('the estimate page', () => {
     expect(await p.locator('#bid-shifts thead th').count()).toBe(4);
     expect(await p.textContent('#bid-settings')).toContain('invented data');
     await screenshot(p, 'estimate-bid');
+  });
+
+  it('a scenario on the page gives the numbers of `heathours estimate --scenario`: the JSON field for field and the side-by-side table, with what the scenario is and that it is a what-if, not a forecast', async () => {
+    const id = PIPELINE_DATA_SCENARIO.id;
+    const w = await session.open(`/estimate/?region=tessick-coast&start=2027-04-05&work-hours=30000&crew=12&rate=40&daily-cost=900&currency=EUR&scenario=${id}`);
+    const p = w.page;
+    await settled(p, 0);
+    expect(await p.getAttribute('#estimate-app', 'data-state')).toBe('ready');
+    const fromPage = await downloadJson(p);
+    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'tessick-coast', start: '2027-04-05', workHours: '30000', crew: '12', rate: '40', dailyCost: '900', currency: 'EUR', scenario: [id] });
+    expect(fromPage).toEqual(fromCli);
+    const sc = fromCli.scenarios[0];
+    expect(sc.id).toBe(id);
+    expect(sc.kind).toBe('uniform warming');
+    expect(sc.caveat).toMatch(/what-if, not a forecast/);
+    expect(sc.caveat).toMatch(/day-to-day/);
+    expect(sc.startMonths).toHaveLength(12);
+    // Heat that is 2 K warmer never lets the job finish earlier, and here it adds days.
+    expect(sc.finishDate.p90 >= fromCli.finishDate.p90).toBe(true);
+    expect(sc.addedWorkingDays.mean).toBeGreaterThan(fromCli.addedWorkingDays.mean);
+    expect(await p.isVisible('#bid-scenarios')).toBe(true);
+    const rows = await p.$$eval('#bid-scenario-table tbody tr', (trs) => trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })));
+    expect(rows.map((r) => r.key)).toEqual(SCENARIO_LINES.map((l) => l.key));
+    rows.forEach((r, i) => expect(r.cells).toEqual([SCENARIO_LINES[i].value(fromCli), SCENARIO_LINES[i].value(sc)]));
+    const words = (await p.textContent('#bid-scenarios'))!;
+    expect(words).toContain(sc.what);
+    expect(words).toContain(sc.source);
+    expect(words).toMatch(/what-if, not a forecast/);
+    expect(words).toMatch(/monthly means/);
+    expect(await p.textContent('#scenario-choice')).toMatch(/what-if, not a forecast/);
+    // Unticked: no scenario run, the table hidden, the link says so and reproduces it.
+    await change(p, () => p.uncheck(`input[name="scenario"][value="${id}"]`));
+    expect(await p.isVisible('#bid-scenarios')).toBe(false);
+    expect(p.url()).toContain('scenario=none');
+    const none = await downloadJson(p);
+    expect(none.scenarios).toEqual([]);
+    const again = await session.open(p.url().replace(/^https?:\/\/[^/]+/, ''));
+    await settled(again.page, 0);
+    expect(await again.page.isChecked(`input[name="scenario"][value="${id}"]`)).toBe(false);
+    expect(await downloadJson(again.page)).toEqual(none);
+  });
+
+  it('a link with a scenario the atlas does not have shows the catalogued error, its hint listing the scenarios', async () => {
+    const w = await session.open('/estimate/?region=tessick-coast&scenario=plus-9k');
+    await settled(w.page, 0);
+    expect(await w.page.getAttribute('#estimate-app', 'data-state')).toBe('error');
+    expect(await w.page.getAttribute('#estimate-error', 'data-code')).toBe('EstimateScenarioUnknown');
+    expect(await w.page.textContent('#estimate-error')).toMatch(new RegExp(`plus-9k[\\s\\S]*What to do: use one of: ${PIPELINE_DATA_SCENARIO.id}`));
   });
 
   it('the address bar reproduces the estimate: a link made after changing the form gives the same JSON in a new page', async () => {
@@ -319,7 +376,8 @@ describe('the estimate page', () => {
     await settled(p, 0);
     await p.emulateMedia({ media: 'print' });
     for (const sel of ['#bid-headline', '#bid-schedule', '#bid-settings', '#bid-build', '#bid-start-months', '#bid-shifts', '.bid-print-cautions', '.bid-print-title']) expect(await p.isVisible(sel), sel).toBe(true);
-    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv']) expect(await p.isVisible(sel), sel).toBe(false);
+    // The what-if table stays on the screen: with it the summary would not fit one page.
+    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv', '#bid-scenarios']) expect(await p.isVisible(sel), sel).toBe(false);
     expect(await p.textContent('.bid-print-title')).toContain('INVENTED DATA');
     expect(await p.textContent('#bid-build')).toContain(ctx.build.buildTime);
     await p.screenshot({ path: join(ARTIFACTS_DIR, 'estimate-print.png'), fullPage: true });

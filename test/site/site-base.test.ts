@@ -94,6 +94,11 @@ describe('a site built for /sub/atlas/', () => {
     await map.waitForSelector('#explorer-map[data-map-state="idle"]', { timeout: 30_000 });
     const estimate = (await session.open(`${BASE}estimate/?region=sollent-coast`)).page;
     await estimate.waitForSelector('#estimate-app[data-state="ready"]', { timeout: 30_000 });
+    // The parts the estimate page loads on demand come from under the base too: the monthly detail and the CSV writer.
+    await estimate.click('.estimate-monthly > summary');
+    await estimate.waitForFunction(() => document.querySelectorAll('#estimate-table tbody tr').length === 13, undefined, { timeout: 30_000 });
+    const [csv] = await Promise.all([estimate.waitForEvent('download'), estimate.click('#bid-csv')]);
+    expect(csv.suggestedFilename()).toMatch(/^bid-sollent-coast-.*\.csv$/);
     await (await session.open(`${BASE}regions/sollent-coast/`)).page.waitForLoadState('load');
     await (await session.open(`${BASE}regions/sollent-coast/summary/`)).page.waitForLoadState('load');
     await (await session.open(`${BASE}downloads/`)).page.waitForLoadState('load');

@@ -36,9 +36,4 @@ export function estimateCsv(r: EstimateResult, ctx: EstimateContext, atlasTitle:
   return out;
 }
 
-/** A file name for a download, e.g. `estimate-varn-shore-moderate-acclimatized-sun.csv`. */
-export function estimateFileName(r: { inputs: EstimateResult['inputs'] }, place: ResolvedPlace, ext = 'csv', what = 'estimate'): string {
-  const where = place.kind === 'region' ? place.id : `cell-${place.cell}`;
-  const work = r.inputs.classId ?? `${Math.round(r.inputs.workRate)}w`;
-  return `${what}-${where}-${work}-${r.inputs.acclimatization}-${r.inputs.exposure}.${ext}`;
-}
+export { estimateFileName } from './file-name.ts';

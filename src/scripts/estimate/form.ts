@@ -18,7 +18,7 @@ const SINGLE = [
 /** Check boxes that are on or off. */
 const FLAGS = ['air-movement', 'hood'] as const;
 /** Multi-value fields. */
-const LISTS = ['days', 'months', 'compare'] as const;
+const LISTS = ['days', 'months', 'compare', 'scenario'] as const;
 
 /** The form's values as strings (lists for the check boxes and the compared shifts). */
 export function readRaw(form: HTMLFormElement): RawInputs {
@@ -30,6 +30,8 @@ export function readRaw(form: HTMLFormElement): RawInputs {
   }
   for (const k of FLAGS) raw[k] = fd.has(k) ? 'on' : 'off';
   for (const k of LISTS) raw[k] = fd.getAll(k).filter((v): v is string => typeof v === 'string');
+  // Every what-if box unticked is said in the link (`scenario=none`), so the link does not fall back to all ticked.
+  if (form.querySelector('input[name="scenario"]') && (raw.scenario as string[]).length === 0) raw.scenario = ['none'];
   return raw as RawInputs;
 }
 
@@ -72,10 +74,10 @@ export function fillFromQuery(form: HTMLFormElement, search: string): void {
       const el = form.elements.namedItem(k);
       if (el instanceof HTMLInputElement) el.checked = q.get(k) === 'on';
     }
-    for (const k of ['days', 'months'] as const) {
+    for (const k of ['days', 'months', 'scenario'] as const) {
       if (!q.has(k)) continue;
       const want = new Set(q.getAll(k));
-      for (const el of form.querySelectorAll<HTMLInputElement>(`input[name="${k}"]`)) el.checked = want.has(el.value);
+      for (const el of form.querySelectorAll<HTMLInputElement>(`input[name="${k}"]`)) el.checked = want.has(el.value) || want.has('all');
     }
     const compare = q.getAll('compare');
     form.querySelectorAll<HTMLInputElement>('input[name="compare"]').forEach((el, i) => {

@@ -1,11 +1,11 @@
 /**
- * Draws the bid into the page from the estimate's JSON (pipeline/schedule/bid-json.ts, the object
- * `heathours estimate --json` prints): the headline, the schedule table (mean, median, P90 year
- * and the heat-free schedule), the years, the start-month chart and table, the shift patterns,
- * the crew for a deadline. Rows, labels and decimals from pipeline/schedule/bid-table.ts. Text
+ * Draws the bid into the page from the estimate's figures (pipeline/schedule/bid-figures.ts: the
+ * object `heathours estimate --json` prints, less its fixed notes): the headline, the schedule
+ * table (mean, median, P90 year and the heat-free schedule), the years, the start-month chart and
+ * table, the shift patterns, the crew for a deadline, the same job on each scenario. Rows, labels and decimals from pipeline/schedule/bid-table.ts. Text
  * only through textContent; the chart is SVG built with DOM calls (no inline style).
  */
-import type { BidJson } from '../../../pipeline/schedule/bid-json.ts';
+import type { BidFigures as BidJson } from '../../../pipeline/schedule/bid-figures.ts';
 import { SCHEDULE_ROWS, STATISTICS, rowUnit, scheduleValue, showValue, type ScheduleKey } from '../../../pipeline/schedule/bid-table.ts';
 import { grouped } from '../../../pipeline/schedule/settings-text.ts';
 
@@ -163,4 +163,47 @@ export function crewText(j: BidJson, error: string | null): string {
   const c = j.crewForDeadline;
   if (!c) return 'Give a deadline to find the smallest crew that meets it in the 90th-percentile year.';
   return `To finish by ${c.deadline} in the 90th-percentile year, the job needs at least ${grouped(c.crew)} workers (P90 finish ${c.finishDate.p90}, median ${c.finishDate.p50}; heat adds ${show(c.addedWorkingDays.p90, 'addedWorkingDays')} working days at P90).`;
+}
+
+/** The figures of the what-if table, one row each: label and the value of a run. */
+export const SCENARIO_LINES: ReadonlyArray<{ key: string; label: (cur: string) => string; value: (x: Pick<BidJson, 'finishDate' | 'addedWorkingDays' | 'cost'>) => string }> = [
+  { key: 'finish-p50', label: () => 'Finish, median year', value: (x) => x.finishDate.p50 },
+  { key: 'finish-p90', label: () => 'Finish, P90 year', value: (x) => x.finishDate.p90 },
+  { key: 'added-p50', label: () => 'Working days added by heat, median', value: (x) => show(x.addedWorkingDays.p50, 'addedWorkingDays') },
+  { key: 'added-p90', label: () => 'Working days added by heat, P90', value: (x) => show(x.addedWorkingDays.p90, 'addedWorkingDays') },
+  { key: 'cost-p50', label: (cur) => `Cost of heat, median [${cur}]`, value: (x) => show(x.cost.p50, 'cost') },
+  { key: 'cost-p90', label: (cur) => `Cost of heat, P90 [${cur}]`, value: (x) => show(x.cost.p90, 'cost') },
+];
+
+/**
+ * The same job on the record and on each scenario, side by side, with what each scenario is and
+ * the what-if caveat; the section is hidden when no scenario was run.
+ */
+export function renderScenarios(section: HTMLElement, j: BidJson): void {
+  section.hidden = j.scenarios.length === 0;
+  const table = section.querySelector('table')!;
+  const head = table.tHead ?? table.createTHead();
+  const tr = el('tr');
+  for (const [i, text] of ['Figure', 'Record (past weather)', ...j.scenarios.map((s) => s.name)].entries()) {
+    const th = el('th', text, i > 0 ? 'num' : undefined);
+    th.setAttribute('scope', 'col');
+    if (i > 1) th.dataset.scenario = j.scenarios[i - 2].id;
+    tr.append(th);
+  }
+  head.replaceChildren(tr);
+  const body = table.tBodies[0] ?? table.createTBody();
+  body.replaceChildren();
+  const cur = j.costs.currency || 'currency units';
+  for (const line of SCENARIO_LINES) {
+    body.append(row([{ text: line.label(cur), header: true }, { text: line.value(j), num: true }, ...j.scenarios.map((s) => ({ text: line.value(s), num: true }))], line.key));
+  }
+  section.querySelector('#bid-scenario-caveat')!.textContent = j.scenarioCaveat;
+  const words = section.querySelector('#bid-scenario-words')!;
+  words.replaceChildren(
+    ...j.scenarios.map((s) => {
+      const li = el('li', `${s.name} (${s.id}, ${s.kind}): ${s.what} Source: ${s.source}${s.deadlineProblem ? ` Crew for the deadline: ${s.deadlineProblem}` : ''}`);
+      li.dataset.scenario = s.id;
+      return li;
+    }),
+  );
 }

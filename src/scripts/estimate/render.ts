@@ -1,15 +1,9 @@
 /**
- * Draws an estimate into the page: the settings (temperatures as data-temp-c / data-temp-delta-c
- * spans, so the °C/°F switch rewrites them), the table rows, and the CSV download as a Blob link.
- * Text only through textContent (no markup from data).
+ * Draws the settings into the page (temperatures as data-temp-c / data-temp-delta-c spans, so the
+ * °C/°F switch rewrites them) and points download links at Blobs. Text only through textContent
+ * (no markup from data).
  */
-import { estimateCsv, estimateFileName } from '../../lib/estimate/csv.ts';
-import type { EstimateContext } from '../../../pipeline/schedule/context.ts';
-import type { ResolvedPlace } from '../../../pipeline/schedule/place.ts';
-import type { EstimateResult } from '../../lib/estimate/estimate.ts';
 import type { SummaryLine, SummaryPart } from '../../lib/estimate/summary.ts';
-import { ESTIMATE_COLUMNS, estimateRows } from '../../lib/estimate/table.ts';
-import { formatFixed } from '../../lib/format.ts';
 import { formatTemperature, formatTemperatureDelta, type TemperatureUnit } from '../../lib/units.ts';
 
 function part(p: SummaryPart, unit: TemperatureUnit): Node {
@@ -37,31 +31,6 @@ export function renderSummary(dl: HTMLElement, lines: readonly SummaryLine[], un
     for (const p of line.parts) dd.append(part(p, unit));
     dl.append(dt, dd);
   }
-}
-
-/** The table body. */
-export function renderTable(tbody: HTMLTableSectionElement, r: EstimateResult): void {
-  tbody.replaceChildren();
-  for (const row of estimateRows(r)) {
-    const tr = document.createElement('tr');
-    tr.dataset.row = row.key;
-    const label = document.createElement('td');
-    label.textContent = row.label;
-    tr.append(label);
-    for (const c of ESTIMATE_COLUMNS) {
-      const td = document.createElement('td');
-      td.className = 'num';
-      td.textContent = formatFixed(row.values[c.key], c.digits);
-      tr.append(td);
-    }
-    tbody.append(tr);
-  }
-}
-
-
-/** Points the monthly table's download link at a Blob of its CSV. */
-export function renderCsvLink(a: HTMLAnchorElement, r: EstimateResult, ctx: EstimateContext, atlasTitle: string, place: ResolvedPlace): void {
-  setDownload(a, estimateCsv(r, ctx, atlasTitle, place), 'text/csv;charset=utf-8', estimateFileName(r, place, 'csv', 'monthly'));
 }
 
 const urls = new Map<HTMLAnchorElement, string>();
