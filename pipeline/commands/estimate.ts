@@ -214,7 +214,7 @@ export function register(program: Command): void {
     .option('--currency <x>', 'currency label for the costs, e.g. EUR')
     .option('--holidays <file>', 'non-working dates, one YYYY-MM-DD per line (# comments)')
     .option('--scenario <id>', 'also replay the job on this scenario of the atlas (repeat for several); a what-if on the record\'s weather with shifted monthly means, not a forecast', collect)
-    .option('--scenarios <all|ids>', 'also replay the job on every scenario of the atlas (`all`) or on these, separated by commas')
+    .option('--scenarios <all|ids>', 'also replay the job on every scenario of the atlas (`all`) or on these, separated by commas; without --scenario(s) only the record is replayed (the estimate page ticks every scenario by default)')
     .option('--json', 'print the estimate as JSON (the page\'s JSON download)')
     .option('--csv <file>', 'also write the CSV download')
     .option('--xlsx <file>', 'also write a workbook (.xlsx) with the schedule, years, start months, shifts, assumptions and cautions')
