@@ -84,6 +84,8 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
     if (matches.length === 0) throw ConfigInputMissing({ pattern, baseDir }, { file: abs, key: 'dataset.files' });
     inputFiles.push(...matches);
   }
+  // Zarr stores: URLs as written, folders relative to the config file (their absence is the reader's NetcdfFileNotFound).
+  for (const store of config.dataset.zarr) inputFiles.push(/^https?:\/\//i.test(store) ? store.replace(/\/+$/, '') : resolve(baseDir, store).replace(/\/+$/, ''));
   const regionsDir = resolve(baseDir, config.regions);
   const regionFiles = existsSync(regionsDir) && statSync(regionsDir).isDirectory()
     ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
