@@ -29,7 +29,7 @@ const yearRange = z
 
 export const datasetSchema = z
   .object({
-    /** Glob patterns of the input NetCDF files (and ZIP archives of them), relative to the config file. */
+    /** Glob patterns of the input NetCDF files (ZIP archives of them, `*.zarr` store folders), relative to the config file. */
     files: z.array(z.string().min(1)).default([]),
     /**
      * Zarr stores read in place (pipeline/read/zarr-store.ts): local folders (relative to the
