@@ -21,11 +21,38 @@
 import { createHash } from 'node:crypto';
 import { readdir, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
+import { gunzipSync, inflateSync } from 'node:zlib';
 import * as zarr from 'zarrita';
 import FileSystemStore from '@zarrita/storage/fs';
 import { HeathoursError } from '../model/errors.ts';
 import { NetcdfFileNotFound, ZarrChunkUnreadable, ZarrGridMismatch, ZarrMetadataInvalid, ZarrStoreUnlisted, ZarrStoreUnreachable } from './errors.ts';
 import { denseStrides, product, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
+
+/**
+ * zlib (RFC 1950) and gzip (RFC 1952) chunks inflated by Node's own zlib in one synchronous call,
+ * instead of zarrita's default (the web DecompressionStream, a stream per chunk). Registered for
+ * the v3 names and numcodecs' v2 ids; a chunk that does not inflate throws zlib's error
+ * (`ZarrChunkUnreadable` below).
+ */
+function inflateCodec(gzip: boolean) {
+  return class {
+    kind = 'bytes_to_bytes' as const;
+    static fromConfig() {
+      return new this();
+    }
+    encode(): never {
+      throw new Error(`${gzip ? 'gzip' : 'zlib'} encode is not used by heathours`);
+    }
+    async decode(bytes: Uint8Array): Promise<Uint8Array> {
+      const out = gzip ? gunzipSync(bytes) : inflateSync(bytes);
+      return new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
+    }
+  };
+}
+for (const [name, gzip] of [['zlib', false], ['numcodecs.zlib', false], ['gzip', true], ['numcodecs.gzip', true]] as const) {
+  const codec = inflateCodec(gzip);
+  zarr.registry.set(name, () => codec as never);
+}
 
 /** Time limit of one HTTP request to a store [ms]. */
 export const ZARR_HTTP_TIMEOUT_MS = 30_000;
