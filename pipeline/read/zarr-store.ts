@@ -35,10 +35,10 @@ import { denseStrides, product, type AttrValue, type RawArray, type RawType, typ
  * (`ZarrChunkUnreadable` below).
  */
 function inflateCodec(gzip: boolean) {
-  return class {
+  return class Inflate {
     kind = 'bytes_to_bytes' as const;
     static fromConfig() {
-      return new this();
+      return new Inflate();
     }
     encode(): never {
       throw new Error(`${gzip ? 'gzip' : 'zlib'} encode is not used by heathours`);
