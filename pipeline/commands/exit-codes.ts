@@ -66,6 +66,7 @@ export const DATA_ERRORS: readonly string[] = [
   'ChangeGridInvalid', 'ChangeGridNotCovering', 'ChangeValueMissing',
   'TemperatureChangeOutOfRange', 'HumidityChangeOutOfRange', 'SolarChangeOutOfRange',
   'NetcdfDataUnreadable', 'NetcdfReadStuck', 'NetcdfTimeValueInvalid',
+  'ZarrStoreUnreachable', 'ZarrStoreUnlisted', 'ZarrMetadataInvalid', 'ZarrGridMismatch', 'ZarrChunkUnreadable',
 ];
 
 const USAGE = new Set(USAGE_ERRORS);

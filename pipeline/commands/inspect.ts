@@ -38,12 +38,20 @@ export function formatInspection(r: FileInspection): string {
   return lines.join('\n');
 }
 
-/** Folders stand for their NetCDF files and ZIP archives (not recursive), sorted; files pass as they are. */
+/** Whether a folder is a Zarr store: named `*.zarr`, or holding a store's root metadata. */
+function isZarrFolder(a: string): boolean {
+  return /\.zarr\/?$/i.test(a) || ['.zgroup', '.zmetadata', 'zarr.json'].some((m) => existsSync(join(a, m)));
+}
+
+/**
+ * Folders stand for their NetCDF files, ZIP archives and `*.zarr` stores (not recursive), sorted;
+ * a folder that is a Zarr store, files and URLs pass as they are.
+ */
 export function expandInputArgs(args: string[]): string[] {
   const out: string[] = [];
   for (const a of args) {
-    if (existsSync(a) && statSync(a).isDirectory()) {
-      out.push(...readdirSync(a).filter((f) => /\.(nc|nc4|cdf|netcdf|zip)$/i.test(f)).sort().map((f) => join(a, f)));
+    if (existsSync(a) && statSync(a).isDirectory() && !isZarrFolder(a)) {
+      out.push(...readdirSync(a).filter((f) => /\.(nc|nc4|cdf|netcdf|zip|zarr)$/i.test(f)).sort().map((f) => join(a, f)));
     } else out.push(a);
   }
   return out;
@@ -53,7 +61,7 @@ export function register(program: Command): void {
   program
     .command('inspect')
     .description('per variable of each NetCDF file: dims, shape, units, detected role, decoded min/max/mean, fill count; time range. With --coverage: which hours of which years the files hold, gaps, duplicates, ERA5T, other grids')
-    .argument('<paths...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4), ZIP archives of them (--coverage), or folders holding them')
+    .argument('<paths...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4), ZIP archives of them (--coverage), Zarr stores (folders or HTTP(S) URLs), or folders holding them')
     .option('--json', 'one JSON object per file (with --coverage: the coverage report)')
     .option('--coverage', 'the coverage check of the files as one dataset: hours present per variable by year and month, gaps, duplicates, ERA5T tail, files on another grid')
     .option('--years <first-last>', 'with --coverage: the years the table must cover, e.g. 2020-2023 (default: the data\'s)')

@@ -71,6 +71,12 @@ export function parseConfig(text: string, file: string): AtlasConfig {
   return result.data;
 }
 
+/** Whether a glob match is an input: a file, or a Zarr store's folder (named `*.zarr`). */
+function isInput(m: string): boolean {
+  const s = statSync(m);
+  return s.isFile() || (s.isDirectory() && /\.zarr$/i.test(m));
+}
+
 /** Loads the config at `path`, validates it and resolves its files. */
 export async function loadConfig(path: string): Promise<ResolvedConfig> {
   const abs = resolve(path);
@@ -80,10 +86,12 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
   const baseDir = dirname(abs);
   const inputFiles: string[] = [];
   for (const pattern of config.dataset.files) {
-    const matches = globSync(pattern, { cwd: baseDir, absolute: true }).map((m) => resolve(m)).filter((m) => statSync(m).isFile());
+    const matches = globSync(pattern, { cwd: baseDir, absolute: true, onlyFiles: false, ignore: ['**/*.zarr/*', '**/*.zarr/**/*'] }).map((m) => resolve(m)).filter((m) => isInput(m));
     if (matches.length === 0) throw ConfigInputMissing({ pattern, baseDir }, { file: abs, key: 'dataset.files' });
     inputFiles.push(...matches);
   }
+  // Zarr stores: URLs as written, folders relative to the config file (their absence is the reader's NetcdfFileNotFound).
+  for (const store of config.dataset.zarr) inputFiles.push(/^https?:\/\//i.test(store) ? store.replace(/\/+$/, '') : resolve(baseDir, store).replace(/\/+$/, ''));
   const regionsDir = resolve(baseDir, config.regions);
   const regionFiles = existsSync(regionsDir) && statSync(regionsDir).isDirectory()
     ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))

@@ -29,8 +29,13 @@ const yearRange = z
 
 export const datasetSchema = z
   .object({
-    /** Glob patterns of the input NetCDF files, relative to the config file. */
-    files: z.array(z.string().min(1)).min(1),
+    /** Glob patterns of the input NetCDF files (ZIP archives of them, `*.zarr` store folders), relative to the config file. */
+    files: z.array(z.string().min(1)).default([]),
+    /**
+     * Zarr stores read in place (pipeline/read/zarr-store.ts): local folders (relative to the
+     * config file) or HTTP(S) URLs of a store's root, in the analysis-ready ERA5 layout.
+     */
+    zarr: z.array(z.string().min(1)).default([]),
     /** Which reanalysis the files come from: decides the accumulation convention. */
     product: z.enum(['era5', 'era5-land']).default('era5'),
     /** Optional land-sea mask: a variable (in the inputs) and the land fraction threshold. */
@@ -43,7 +48,8 @@ export const datasetSchema = z
     /** Whether the data are invented (synthetic); invented data are labelled so everywhere. */
     invented: z.boolean().default(false),
   })
-  .strict();
+  .strict()
+  .refine((d) => d.files.length + d.zarr.length > 0, { message: 'name at least one input: NetCDF files (dataset.files) or Zarr stores (dataset.zarr)', path: ['files'] });
 
 /**
  * The URL path the site is served under: `/` at a host's root, or a sub-folder such as

@@ -14,7 +14,8 @@
  * while comparing duplicated hours.
  */
 import { isoSeconds } from './cf-time.ts';
-import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
+import { analyseFile, expverRank, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
+import { denseStrides } from './source.ts';
 import type { Era5Short } from './era5-variables.ts';
 import { orderedInputs } from './zip-archive.ts';
 import { maskSpecOf, decodeMask } from './cf-mask.ts';
@@ -185,9 +186,12 @@ export async function coverageOf(all: AnalysedFile[], opts: CoverageOptions = {}
       const f = files[fi];
       const fv = f.vars.get(short);
       if (!fv || !f.times || fv.tDim < 0) continue;
+      // expver as a dimension: each hour's rank is that of the best expver holding values (-1: none does).
+      const dimRanks = fv.eDim >= 0 && f.expverOrder ? await expverDimensionRanks(f, fv) : null;
       for (let i = 0; i < f.times.length; i++) {
         const h = Math.round((f.times[i] - lo) / HOUR_MS);
-        const r = f.timeRanks ? f.timeRanks[i] : 0;
+        const r = dimRanks ? dimRanks[i] : f.timeRanks ? f.timeRanks[i] : 0;
+        if (r < 0) continue;
         if (own[h] >= 0) {
           if (rank[h] === r) {
             dups.push({ h, a: own[h], ia: ownIdx[h], b: fi, ib: i });
@@ -286,6 +290,55 @@ export async function coverageOf(all: AnalysedFile[], opts: CoverageOptions = {}
     out.push({ variable: short, months, gaps, duplicates, era5t, present });
   }
   return { files: described, grid: ref ? gridOf(ref) : null, otherGrid, years, span, variables: out };
+}
+
+/** Values read at a time while ranking the hours of an expver dimension [values]. */
+const RANK_BLOCK_VALUES = 1 << 22;
+
+/**
+ * Per time index of a variable with an expver DIMENSION (time × expver × lat × lon, the data
+ * store's older netCDF form of a request reaching into ERA5T; docs/methods.md §2.3): the rank
+ * (0 final ERA5, 1 ERA5T, 2 other; {@link expverRank}) of the best expver whose field holds any
+ * value that is not missing, or -1 when no expver holds one (the hour is absent). Read in blocks
+ * of hours of at most {@link RANK_BLOCK_VALUES} values.
+ */
+export async function expverDimensionRanks(f: AnalysedFile, fv: FileVariable): Promise<Int8Array> {
+  const v = fv.v;
+  const order = f.expverOrder!;
+  const nt = v.shape[fv.tDim];
+  const ne = v.shape[fv.eDim];
+  const cells = v.shape[fv.latDim] * v.shape[fv.lonDim];
+  // The expver slot ranks, as analyseFile ordered them: final ERA5 first.
+  const slotRank = new Int8Array(ne).fill(2);
+  const labels = f.expverLabels ?? [];
+  for (let k = 0; k < ne; k++) slotRank[k] = labels[k] !== undefined ? expverRank(labels[k]) : order.indexOf(k) === 0 ? 0 : order.indexOf(k) === 1 ? 1 : 2;
+  const so = scaleOffsetOf(v);
+  const spec = maskSpecOf(v, so);
+  const out = new Int8Array(nt).fill(-1);
+  const step = Math.max(1, Math.floor(RANK_BLOCK_VALUES / (ne * cells)));
+  for (let t0 = 0; t0 < nt; t0 += step) {
+    const n = Math.min(step, nt - t0);
+    const start = v.shape.map(() => 0);
+    const count = v.shape.map(() => 1);
+    start[fv.tDim] = t0;
+    count[fv.tDim] = n;
+    count[fv.eDim] = ne;
+    count[fv.latDim] = v.shape[fv.latDim];
+    count[fv.lonDim] = v.shape[fv.lonDim];
+    const values = decodeMask((await f.sf.read(v, start, count)) as ArrayLike<number>, spec);
+    const strides = denseStrides(count);
+    for (let t = 0; t < n; t++) {
+      let best = -1;
+      for (let e = 0; e < ne; e++) {
+        const base = t * strides[fv.tDim] + e * strides[fv.eDim];
+        let any = false;
+        for (let c = 0; c < cells && !any; c++) any = values[base + c] === values[base + c];
+        if (any && (best < 0 || slotRank[e] < best)) best = slotRank[e];
+      }
+      out[t0 + t] = best;
+    }
+  }
+  return out;
 }
 
 /** Reads one time step of a variable as decoded values in canonical cell order (fill → NaN). */

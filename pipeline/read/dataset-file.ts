@@ -49,6 +49,8 @@ export interface AnalysedFile {
   timeRanks: Int8Array | null;
   /** Expver indices of an expver dimension, best first (final ERA5 before ERA5T). */
   expverOrder: number[] | null;
+  /** Labels of an expver dimension's indices (its coordinate variable), when it has one. */
+  expverLabels?: Array<string | number>;
   vars: Map<Era5Short, FileVariable>;
   /** Other variables by name (for a land-sea mask under another name). */
   byName: Map<string, SourceVariable>;
@@ -187,5 +189,6 @@ async function analyse(sf: SourceFile, digest: boolean, known?: string): Promise
     timeEnd: times && times.length > 0 ? isoSeconds(times[times.length - 1]) : '',
     variables: shorts,
   };
-  return { sf, info, lat, lon, times, timeRanks, expverOrder, vars, byName };
+  const expverLabels = expverOrder && expverVar ? (isNumericType(expverVar.type) ? Array.from(await sf.readNumbers(expverVar)) : await sf.readStrings(expverVar)) : undefined;
+  return { sf, info, lat, lon, times, timeRanks, expverOrder, ...(expverLabels ? { expverLabels } : {}), vars, byName };
 }

@@ -9,7 +9,7 @@ export const NetcdfFileNotFound = defineError<{ path: string }>({
   code: 'NetcdfFileNotFound',
   title: 'An input file does not exist',
   message: (p) => `no file at ${p.path}`,
-  hint: () => 'check the path (and the glob patterns of dataset.files in the configuration)',
+  hint: () => 'check the path (and the glob patterns of dataset.files, or the folders of dataset.zarr, in the configuration)',
 });
 
 export const NetcdfNoFiles = defineError<Record<string, never>>({
@@ -306,4 +306,43 @@ export const InputsIncomplete = defineError<{ years: string; problems: string[];
     'download the missing months (`heathours request --config atlas.yaml` writes the requests) or remove the duplicated files, then build again; ' +
     '`heathours inspect --coverage FOLDER` shows the whole table. `build --max-missing-hours N` accepts up to N missing hours per year and variable ' +
     '(a month missing more than 240 hours is withheld from the figures anyway)',
+});
+
+export const ZarrStoreUnreachable = defineError<{ location: string; detail: string; timeoutS: number }>({
+  code: 'ZarrStoreUnreachable',
+  title: 'A Zarr store cannot be reached',
+  message: (p) => `${p.location}: ${p.detail}`,
+  hint: (p) =>
+    `check the URL in dataset.zarr (it names the store's root folder, where .zmetadata or zarr.json lies) and that this machine can reach it ` +
+    `(each request waits at most ${p.timeoutS} s); or copy the store to a local folder and name the folder instead`,
+});
+
+export const ZarrStoreUnlisted = defineError<{ location: string }>({
+  code: 'ZarrStoreUnlisted',
+  title: 'A Zarr store over HTTP has no consolidated metadata',
+  message: (p) => `${p.location} has no consolidated metadata (.zmetadata, or consolidated_metadata in zarr.json), and a store over HTTP cannot be listed otherwise`,
+  hint: () => 'consolidate the store\'s metadata where it is written (zarr.consolidate_metadata, or xarray\'s to_zarr(consolidated=True)), or copy it to a local folder and name the folder in dataset.zarr',
+});
+
+export const ZarrMetadataInvalid = defineError<{ location: string; detail: string }>({
+  code: 'ZarrMetadataInvalid',
+  title: 'The metadata of a Zarr store cannot be used',
+  message: (p) => `${p.location}: ${p.detail}`,
+  hint: () =>
+    'the store is damaged or not a Zarr store in the expected layout (arrays with .zarray or zarr.json, dimensions named by _ARRAY_DIMENSIONS or dimension_names); ' +
+    'copy it again, or check it with zarr-python (`zarr.open_group(PATH).info`)',
+});
+
+export const ZarrGridMismatch = defineError<{ location: string; dimension: string; variableA: string; sizeA: number; variableB: string; sizeB: number }>({
+  code: 'ZarrGridMismatch',
+  title: 'Arrays of a Zarr store disagree on a dimension',
+  message: (p) => `${p.location}: dimension ${p.dimension} has length ${p.sizeA} in array ${p.variableA} but ${p.sizeB} in array ${p.variableB}`,
+  hint: () => 'all variables of one store must share their grid and hours; put variables on other grids or hours into a store of their own, or regrid them first (e.g. `cdo remapbil`)',
+});
+
+export const ZarrChunkUnreadable = defineError<{ location: string; variable: string; slab: string; detail: string }>({
+  code: 'ZarrChunkUnreadable',
+  title: 'A chunk of a Zarr store cannot be read',
+  message: (p) => `${p.location}: ${p.variable} at indices ${p.slab} cannot be read: ${p.detail}`,
+  hint: () => 'a chunk of the store is damaged (it does not decompress, or holds the wrong number of bytes): copy the store (or that array) again',
 });

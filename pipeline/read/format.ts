@@ -17,6 +17,9 @@ import {
 /** File formats the reader can open (names as in pipeline/read/inventory-types.ts). */
 export type NetcdfFormat = 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';
 
+/** What an input is read as: a NetCDF format, or a Zarr store (zarr-store.ts). */
+export type InputFormat = NetcdfFormat | 'zarr';
+
 /** HDF5 format signature: \x89 H D F \r \n \x1a \n. */
 const HDF5_SIGNATURE = [0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a];
 

@@ -19,7 +19,7 @@ import { isNumericType, product, type AttrValue, type SourceFile, type SourceVar
 import { checkPlausible, findConversion, kindOfUnits } from './units.ts';
 import { HeathoursError } from '../model/errors.ts';
 import type { CanonicalName } from '../model/fields.ts';
-import type { NetcdfFormat } from './format.ts';
+import type { InputFormat } from './format.ts';
 
 /** A problem found while inspecting: a catalogued error code and its message. */
 export interface InspectionProblem {
@@ -67,7 +67,7 @@ export interface FileInspection {
   path: string;
   name: string;
   bytes: number;
-  format: NetcdfFormat;
+  format: InputFormat;
   layout: Layout;
   dimensions: Array<{ name: string; size: number; unlimited: boolean }>;
   globalAttributes: Record<string, AttrValue>;

@@ -28,9 +28,9 @@ export interface InventoryFile {
   bytes: number;
   /** SHA-256 of the file's bytes, hex. */
   sha256: string;
-  format: 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';
+  format: 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4' | 'zarr';
   /** Which ERA5 layout was recognised. */
-  layout: 'era5-legacy' | 'era5-cds-2024' | 'other';
+  layout: 'era5-legacy' | 'era5-cds-2024' | 'era5-zarr' | 'other';
   /** First and last hour in the file (ISO 8601, UTC, end of hour); '' for a file with no time axis (a static field). */
   timeStart: string;
   timeEnd: string;

@@ -2,6 +2,7 @@
  * Opens any supported NetCDF file, or a NetCDF member of a ZIP archive (`archive.zip!/member.nc`,
  * zip-archive.ts): the format is detected from its magic bytes (format.ts).
  */
+import { stat } from 'node:fs/promises';
 import { detectFormat, formatFromMagic } from './format.ts';
 import { openClassicFile } from './classic-file.ts';
 import { openHdf5File } from './hdf5-file.ts';
@@ -9,14 +10,19 @@ import { HeathoursError } from '../model/errors.ts';
 import { NetcdfFileEmpty, NetcdfUnknownFormat, ZipMemberNotNetcdf } from './errors.ts';
 import { defaultMemberCache, findMember, memberFile, memberPath, parseMemberPath, readHead, sha256Range } from './zip-archive.ts';
 import type { SourceFile } from './source.ts';
+import { isZarrLocation, openZarrStore } from './zarr-store.ts';
 
 export interface OpenSourceOptions {
   /** Folder for unpacked ZIP members (deflated, or NetCDF-4); default a folder in the system's temp folder. */
   memberCache?: string;
 }
 
-/** Opens `path` as NetCDF-3 classic / 64-bit offset or NetCDF-4 (h5wasm); a member path opens the member. */
+/**
+ * Opens `path` as NetCDF-3 classic / 64-bit offset or NetCDF-4 (h5wasm); a member path opens the
+ * member; an HTTP(S) URL, a path ending in `.zarr` or a folder opens a Zarr store (zarr-store.ts).
+ */
 export async function openSourceFile(path: string, opts: OpenSourceOptions = {}): Promise<SourceFile> {
+  if (isZarrLocation(path) || (await stat(path).then((s) => s.isDirectory(), () => false))) return openZarrStore(path);
   if (parseMemberPath(path)) return openMember(path, opts);
   const { format, bytes } = await detectFormat(path);
   if (format === 'netcdf4') return openHdf5File(path, bytes);

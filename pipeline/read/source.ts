@@ -3,7 +3,7 @@
  * of the reader: the file's dimensions, variables with their attributes, and hyperslab reads that
  * return raw (still encoded) values as typed arrays in native byte order.
  */
-import type { NetcdfFormat } from './format.ts';
+import type { InputFormat } from './format.ts';
 
 /** An attribute value as stored: a number, a list of numbers, or text. */
 export type AttrValue = number | number[] | string | string[];
@@ -76,7 +76,7 @@ export interface SourceVariable {
 
 export interface SourceFile {
   path: string;
-  format: NetcdfFormat;
+  format: InputFormat;
   /** File size [bytes]. */
   bytes: number;
   dims: SourceDimension[];

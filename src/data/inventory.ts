@@ -54,8 +54,8 @@ export const inventorySchema = z
         name: z.string().min(1),
         bytes: z.number().int().nonnegative(),
         sha256: z.string().regex(/^[0-9a-f]{64}$/, 'not a lower-case hex SHA-256'),
-        format: z.enum(['netcdf3-classic', 'netcdf3-64bit-offset', 'netcdf4']),
-        layout: z.enum(['era5-legacy', 'era5-cds-2024', 'other']),
+        format: z.enum(['netcdf3-classic', 'netcdf3-64bit-offset', 'netcdf4', 'zarr']),
+        layout: z.enum(['era5-legacy', 'era5-cds-2024', 'era5-zarr', 'other']),
         // '' for a file without a time axis (a static field such as the land-sea mask).
         timeStart: isoInstant.or(z.literal('')),
         timeEnd: isoInstant.or(z.literal('')),

@@ -25,6 +25,14 @@ describe('atlas configuration', () => {
     expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /dataset\.landSeaMask: unknown key\(s\) "treshold"/);
   });
 
+  it('a configuration naming neither NetCDF files nor Zarr stores is a ConfigInvalid error; Zarr stores alone are enough', () => {
+    const noInputs = demoText.replace(/^ {2}files:\n {4}- .*$/m, '  files: []');
+    expect(noInputs).not.toBe(demoText);
+    expectError(() => parseConfig(noInputs, 'a.yaml'), 'ConfigInvalid', /dataset\.files: name at least one input/);
+    const zarrOnly = demoText.replace(/^ {2}files:\n {4}- .*$/m, '  zarr: [stores/era5.zarr, https://example.org/era5.zarr]');
+    expect(parseConfig(zarrOnly, 'a.yaml').dataset).toMatchObject({ files: [], zarr: ['stores/era5.zarr', 'https://example.org/era5.zarr'] });
+  });
+
   it('a value of the wrong type is a ConfigInvalid error naming the key', () => {
     const bad = demoText.replace('years: [2020, 2024]', 'years: "2020-2024"');
     expectError(() => parseConfig(bad, 'a.yaml'), 'ConfigInvalid', /years: /);
