@@ -14,18 +14,22 @@ export const THREADED_DIGEST_BYTES = 256 * 1024 * 1024;
 
 /**
  * SHA-256 (hex) of each plain file of `paths`, by path; paths that are not plain files (an
- * archive's members, `archive.zip!/member.nc`) are left to their reader. Uses up to `workers`
+ * archive's members, `archive.zip!/member.nc`; Zarr store folders and URLs) are left to their reader. Uses up to `workers`
  * threads (default: the machine's cores) when the files hold at least `minBytes` (default
  * {@link THREADED_DIGEST_BYTES}) [B]; otherwise none, and the reader hashes them on this thread.
  */
 export async function fileDigests(paths: readonly string[], opts: { workers?: number; minBytes?: number } = {}): Promise<Map<string, string>> {
   const workers = opts.workers ?? availableParallelism();
-  const plain = paths.filter((p) => !p.includes('!/'));
   const out = new Map<string, string>();
+  const plain: string[] = [];
   let bytes = 0;
-  for (const p of plain) {
+  for (const p of paths) {
+    if (p.includes('!/') || /^[a-z][a-z0-9+.-]*:\/\//i.test(p)) continue; // archive members, URLs (Zarr stores)
     try {
-      bytes += statSync(p).size;
+      const st = statSync(p);
+      if (!st.isFile()) continue; // a Zarr store folder: its reader digests its metadata
+      plain.push(p);
+      bytes += st.size;
     } catch {
       return out; // a file that cannot be read is reported by its reader, with the catalogued error
     }

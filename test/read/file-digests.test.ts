@@ -30,5 +30,9 @@ describe('input file digests', () => {
   it('leaves small datasets and archive members to the reader (no threads started for them)', async () => {
     expect((await fileDigests(files, { workers: 2 })).size).toBe(0);
     expect((await fileDigests([`${files[0]}.zip!/member.nc`, files[1]], { workers: 2, minBytes: 0 })).size).toBe(0);
+    // A Zarr store's folder and a store's URL beside the files: only the files are hashed here.
+    const got = await fileDigests([dir, 'https://example.invalid/era5.zarr', ...files], { workers: 2, minBytes: 0 });
+    expect([...got.keys()]).toEqual(expect.arrayContaining(files));
+    expect(got.size).toBe(files.length);
   });
 });
