@@ -3,10 +3,13 @@
 // its module scripts and every module they import statically (`from "./x.js"`, `import "./x.js"`,
 // the same with an /assets/ path), the worker and other scripts they name by /assets/ path, and the
 // data the page's script fetches as it starts: every `data-*-url` attribute of the page (the map
-// page's catalogue, cell index, base map and region outlines) and, on the map page, the PNG images
-// of the layer the page opens with (`data-layer-id` of the region table, looked up in the
-// catalogue). Bytes as stored, and as gzip (level 6) would send them (a server compressing
-// each response; `heathours preview` does not). Plain JS: run by
+// page's catalogue, cell index and base map) and, on the map page, the PNG images and the values
+// file of the layer the page opens with (`data-layer-id` of the region table, looked up in the
+// catalogue), and the regions' area pieces the opening view draws: the page draws the pieces
+// meeting its view when they hold at most `regionIndex.maxDrawn` regions; the opening view
+// frames the whole grid, so this counts every area piece when all of them together hold at most
+// that many, else none (components/map/explorer/region-loader.ts `inView`). Bytes as stored, and
+// as gzip (level 6) would send them (`heathours preview` compresses each response so). Plain JS: run by
 // bench/regions-1000-child.mjs under Node without tsx.
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
@@ -47,6 +50,9 @@ export function firstViewBytes(dist, page) {
     const cat = JSON.parse(readFileSync(join(dist, catUrl.replace(/^\//, '')), 'utf8'));
     const layer = cat.layers.find((l) => l.id === layerId.replace(/&amp;/g, '&'));
     for (const im of layer?.images ?? []) add(`/${im.path}`);
+    if (layer?.values) add(`/${layer.values}`);
+    const areas = cat.regionIndex?.areas ?? [];
+    if (areas.reduce((sum, a) => sum + a.count, 0) <= (cat.regionIndex?.maxDrawn ?? 0)) for (const a of areas) add(`/${a.path}`);
   }
   let bytes = 0;
   let gzipBytes = 0;
@@ -55,5 +61,5 @@ export function firstViewBytes(dist, page) {
     gzipBytes += gzipSync(readFileSync(p)).length;
   }
   const largest = [...files].sort((a, b) => b[1] - a[1]).slice(0, 3).map(([p, b]) => `${p.slice(dist.length + 1)} ${Math.round(b / 1000)} kB`);
-  return { bytes, gzipBytes, files: files.size, largest };
+  return { bytes, gzipBytes, files: files.size, largest, paths: [...files.keys()].map((p) => p.slice(dist.length + 1)) };
 }

@@ -1,11 +1,15 @@
 /**
  * `heathours preview [--dir dist] [--port 4321]`: serves the built site on 127.0.0.1 with the
  * right content types, `index.html` for folders, 404 for missing files, no way out of the folder
- * (`..`), and the site's Content-Security-Policy as a header. {@link startPreviewServer} is what
- * the browser tests use.
+ * (`..`), and the site's Content-Security-Policy as a header. Text files (HTML, CSS, JavaScript,
+ * JSON, GeoJSON, CSV, SVG, XML) of {@link GZIP_MIN_BYTES} or more go out gzip-compressed (level 6,
+ * node:zlib, as a static host would) to a client that accepts gzip (RFC 9110 §8.4, §12.5.3), with
+ * `Vary: Accept-Encoding`; images, GeoTIFFs, NetCDF, workbooks and binaries go as stored.
+ * {@link startPreviewServer} is what the browser tests use.
  */
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import { createReadStream, existsSync } from 'node:fs';
+import { createGzip } from 'node:zlib';
 import { stat } from 'node:fs/promises';
 import { extname, join, resolve, sep } from 'node:path';
 import type { AddressInfo } from 'node:net';
@@ -45,6 +49,25 @@ export const CONTENT_TYPES: Record<string, string> = {
   '.pbf': 'application/x-protobuf',
   '.map': 'application/json; charset=utf-8',
 };
+
+/** Smallest file sent compressed [bytes]: below it gzip's header and trailer outweigh the gain. */
+export const GZIP_MIN_BYTES = 1024;
+
+/** Whether a content type is text that gzip shrinks (the site's images and binary formats are compressed already or not worth it). */
+export function compressible(type: string): boolean {
+  return /^text\/|^application\/(json|geo\+json|xml)|^image\/svg\+xml/.test(type);
+}
+
+/** Whether the request's Accept-Encoding admits gzip (a `q=0` refuses it). */
+export function acceptsGzip(header: string | string[] | undefined): boolean {
+  const text = Array.isArray(header) ? header.join(',') : (header ?? '');
+  return text.split(',').some((part) => {
+    const [coding, ...params] = part.trim().toLowerCase().split(';');
+    if (coding.trim() !== 'gzip' && coding.trim() !== '*') return false;
+    const q = params.map((p) => p.trim()).find((p) => p.startsWith('q='));
+    return q === undefined || Number(q.slice(2)) > 0;
+  });
+}
 
 export interface PreviewServer {
   /** e.g. `http://127.0.0.1:4321/` */
@@ -86,14 +109,19 @@ async function handle(root: string, req: IncomingMessage, res: ServerResponse): 
     info = await stat(file).catch(() => undefined);
   }
   if (!info?.isFile()) return send(res, 404, 'not found\n', common);
+  const type = CONTENT_TYPES[extname(file).toLowerCase()] ?? 'application/octet-stream';
+  const textual = compressible(type);
+  const gzip = textual && info.size >= GZIP_MIN_BYTES && acceptsGzip(req.headers['accept-encoding']);
   res.writeHead(200, {
     ...common,
-    'Content-Type': CONTENT_TYPES[extname(file).toLowerCase()] ?? 'application/octet-stream',
-    'Content-Length': String(info.size),
+    'Content-Type': type,
+    ...(gzip ? { 'Content-Encoding': 'gzip' } : { 'Content-Length': String(info.size) }),
+    ...(textual ? { Vary: 'Accept-Encoding' } : {}),
     'Cache-Control': 'no-cache',
   });
   if (req.method === 'HEAD') return void res.end();
-  createReadStream(file).pipe(res);
+  if (gzip) createReadStream(file).pipe(createGzip({ level: 6 })).pipe(res);
+  else createReadStream(file).pipe(res);
 }
 
 /** Serves `dir` on 127.0.0.1:`port` (0 = any free port). A catalogued error when `dir` holds no site. */

@@ -4,7 +4,9 @@
  * the regions; and each layer's value per region (data/region-values.ts), published one file per
  * layer (`map/values/<n>.json`, pages/map/values/) so the catalogue the map fetches first does not
  * grow with layers × regions. A data folder without a manifest gives an empty catalogue
- * (`available: false`) and no values.
+ * (`available: false`) and no values. The regions are published apart, in pieces the map fetches
+ * when it needs them (components/map/explorer/region-index.ts, pages/map/regions/): the published
+ * catalogue (`map/explorer.json`) carries only their index.
  */
 import { loadInventory } from './inventory.ts';
 import { loadManifestLayers } from './manifest-layers.ts';
@@ -12,7 +14,8 @@ import { loadRegions } from './regions.ts';
 import { regionLayerValues } from './region-values.ts';
 import { siteDataDir } from './data-dir.ts';
 import { emptyCatalogue, explorerCatalogue } from '../lib/explorer-catalogue.ts';
-import type { ExplorerCatalogue } from '../components/map/explorer/catalogue.ts';
+import type { ExplorerCatalogue, PublishedCatalogue } from '../components/map/explorer/catalogue.ts';
+import { regionPieces, type RegionAreaPiece, type RegionListPiece } from '../components/map/explorer/region-index.ts';
 
 const cache = new Map<string, ExplorerCatalogue>();
 
@@ -41,3 +44,25 @@ export function loadExplorerValues(dataDir: string = siteDataDir()): Record<stri
   valuesCache.set(dataDir, values);
   return values;
 }
+
+const piecesCache = new Map<string, ReturnType<typeof regionPieces>>();
+
+/** The regions' index and pieces (path below the site's base → JSON value), in the catalogue's order of regions. Made once per build. */
+export function loadExplorerRegionPieces(dataDir: string = siteDataDir()): ReturnType<typeof regionPieces> {
+  const hit = piecesCache.get(dataDir);
+  if (hit) return hit;
+  const catalogue = loadExplorerCatalogue(dataDir);
+  // The catalogue's regions are those of regions.geojson in its order (lib/explorer-catalogue.ts).
+  const geometry = catalogue.available ? loadRegions(dataDir).features.map((f) => f.geometry) : [];
+  const made = regionPieces(catalogue.regions, geometry);
+  piecesCache.set(dataDir, made);
+  return made;
+}
+
+/** What `map/explorer.json` publishes: the catalogue without its regions, with their pieces' index. */
+export function loadPublishedCatalogue(dataDir: string = siteDataDir()): PublishedCatalogue {
+  const { regions: _regions, ...rest } = loadExplorerCatalogue(dataDir);
+  return { ...rest, regionIndex: loadExplorerRegionPieces(dataDir).index };
+}
+
+export type { RegionAreaPiece, RegionListPiece };

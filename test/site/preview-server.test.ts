@@ -9,7 +9,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { request } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CONTENT_TYPES, startPreviewServer, type PreviewServer } from '../../pipeline/commands/preview.ts';
+import { CONTENT_TYPES, acceptsGzip, compressible, startPreviewServer, type PreviewServer } from '../../pipeline/commands/preview.ts';
+import { gunzipSync } from 'node:zlib';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { CONTENT_SECURITY_POLICY_HEADER } from '../../src/lib/content-security-policy.ts';
 import { buildTestSite, htmlFiles } from './browser.ts';
@@ -143,6 +144,49 @@ describe('startPreviewServer', () => {
 
   it('registers a media type for every extension the site publishes (none falls back to the default)', () => {
     for (const [ext, type] of Object.entries(IANA)) expect(CONTENT_TYPES[ext], ext).toBe(type);
+  });
+
+  it('sends text files of 1,024 bytes or more gzip-compressed to a client accepting gzip (RFC 9110 §8.4), the same bytes once inflated by node:zlib; as stored to one that does not, and images always as stored', async () => {
+    const js = 'export const rows = [' + Array.from({ length: 4000 }, (_, i) => `{"id":"r${i}","name":"Region ${i}"}`).join(',') + '];\n';
+    const png = Buffer.alloc(5000, 7);
+    await writeFile(join(site, 'assets/big.js'), js);
+    await writeFile(join(site, 'layers/big.png'), png);
+    const get = (path: string, encoding?: string) =>
+      new Promise<{ headers: Record<string, string | string[] | undefined>; body: Buffer }>((ok, fail) => {
+        const req = request({ host: '127.0.0.1', port: server.port, path, headers: encoding ? { 'Accept-Encoding': encoding } : {} }, (res) => {
+          const parts: Buffer[] = [];
+          res.on('data', (c: Buffer) => parts.push(c));
+          res.on('end', () => ok({ headers: res.headers, body: Buffer.concat(parts) }));
+        });
+        req.on('error', fail);
+        req.end();
+      });
+    const zipped = await get('/assets/big.js', 'gzip, deflate, br');
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.headers.vary).toBe('Accept-Encoding');
+    expect(zipped.body.length).toBeLessThan(Buffer.byteLength(js) / 4);
+    expect(gunzipSync(zipped.body).toString('utf8')).toBe(js);
+    const plain = await get('/assets/big.js');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(plain.headers['content-length']).toBe(String(Buffer.byteLength(js)));
+    expect(plain.body.toString('utf8')).toBe(js);
+    expect((await get('/assets/big.js', 'gzip;q=0, identity')).headers['content-encoding']).toBeUndefined();
+    const image = await get('/layers/big.png', 'gzip');
+    expect(image.headers['content-encoding']).toBeUndefined();
+    expect(image.body.equals(png)).toBe(true);
+    // Small files go as stored: gzip would not shrink them.
+    expect((await get('/assets/app.js', 'gzip')).headers['content-encoding']).toBeUndefined();
+  });
+
+  it('reads Accept-Encoding as RFC 9110 §12.5.3 writes it: gzip or * admit gzip unless q=0', () => {
+    expect(acceptsGzip('gzip')).toBe(true);
+    expect(acceptsGzip('deflate, GZIP;q=0.5')).toBe(true);
+    expect(acceptsGzip('*')).toBe(true);
+    expect(acceptsGzip('gzip;q=0')).toBe(false);
+    expect(acceptsGzip('br, deflate')).toBe(false);
+    expect(acceptsGzip(undefined)).toBe(false);
+    expect(compressible('application/geo+json; charset=utf-8')).toBe(true);
+    expect(compressible('image/png')).toBe(false);
   });
 
   it('fails with PreviewDirMissing when the folder holds no built site', async () => {

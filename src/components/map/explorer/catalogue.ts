@@ -5,6 +5,7 @@
  * JSON types with type-only imports, so both sides share them.
  */
 import type { LegendSpec } from '../../../../pipeline/publish/layers/legend.ts';
+import type { RegionIndex } from './region-index.ts';
 
 /** The legend of a layer, as the manifest carries it: the pipeline's own type (a type-only import, nothing is bundled). */
 export type ExplorerLegend = LegendSpec;
@@ -107,3 +108,9 @@ export interface ExplorerCatalogue {
   /** The view shown when the URL asks for nothing. */
   defaults: { figure: string; view: LayerView; statistic: string; period: string };
 }
+
+/**
+ * The catalogue as `/map/explorer.json` publishes it: the regions are left out and an index of
+ * their pieces (region-index.ts) stands in their place, so the file does not grow with them.
+ */
+export type PublishedCatalogue = Omit<ExplorerCatalogue, 'regions'> & { regionIndex: RegionIndex };

@@ -2,7 +2,8 @@
  * The MapLibre map of the explorer, offline: a sea background, Natural Earth land and borders
  * (/basemap/*), the shown layer's PNG image(s) in Web Mercator rows drawn with nearest-pixel
  * sampling at full opacity (so a drawn pixel has the very colour the legend gives its value),
- * region outlines (data/regions.geojson, can be switched off) with each region's name, the
+ * the outlines of the regions in view with each region's name (from the regions' area pieces,
+ * region-loader.ts; none when the view holds more than the map draws; can be switched off), the
  * focused region, the keyboard cursor, the selected cell, and a scale bar. No glyphs or sprites
  * (STACK.md MapLibre gotchas): region names are HTML markers in the page's own font, placed at a
  * point inside each outline (src/lib/label-point.ts), so nothing is fetched for them.
@@ -13,7 +14,8 @@ import 'maplibre-gl/dist/maplibre-gl.css';
 import type { FeatureCollection, Geometry } from 'geojson';
 import { MAP_COLOURS, cssRgb } from '../map-colours.ts';
 import { sitePath } from '../../../lib/nav.ts';
-import type { ExplorerLayer, ExplorerRegion } from './catalogue.ts';
+import type { ExplorerLayer } from './catalogue.ts';
+import type { RegionAreaPiece } from './region-index.ts';
 
 maplibregl.setWorkerUrl(workerUrl);
 
@@ -35,10 +37,7 @@ export interface ExplorerMapOptions {
   zoom?: number;
   land: unknown;
   borders: unknown;
-  regions: unknown;
   attribution: string;
-  /** Regions whose names are written on the map. */
-  labels: readonly ExplorerRegion[];
 }
 
 export class ExplorerMap {
@@ -64,14 +63,6 @@ export class ExplorerMap {
     this.map.touchZoomRotate.disableRotation();
     this.map.addControl(new maplibregl.NavigationControl({ showCompass: false }), 'top-right');
     this.map.addControl(new maplibregl.ScaleControl({ unit: 'metric', maxWidth: 120 }), 'bottom-left');
-    for (const r of o.labels) {
-      const el = document.createElement('div');
-      el.className = 'region-label';
-      el.dataset.regionLabel = r.id;
-      el.setAttribute('aria-hidden', 'true');
-      el.textContent = r.name;
-      new maplibregl.Marker({ element: el, anchor: 'center' }).setLngLat(r.label).addTo(this.map);
-    }
     (globalThis.heathoursMaps ??= {})[o.container.id] = this.map;
     this.pending = this.whenLoaded().then(() => this.addBase(o));
   }
@@ -87,7 +78,7 @@ export class ExplorerMap {
     const m = this.map;
     m.addSource('land', { type: 'geojson', data: o.land as GeoJSON.GeoJSON, attribution: 'Natural Earth (public domain)' });
     m.addSource('borders', { type: 'geojson', data: o.borders as GeoJSON.GeoJSON });
-    m.addSource('regions', { type: 'geojson', data: o.regions as GeoJSON.GeoJSON });
+    m.addSource('regions', { type: 'geojson', data: EMPTY });
     m.addSource('cursor', { type: 'geojson', data: EMPTY });
     m.addSource('selected', { type: 'geojson', data: EMPTY });
     m.addLayer({ id: 'land', type: 'fill', source: 'land', paint: { 'fill-color': cssRgb(MAP_COLOURS.land), 'fill-antialias': false } });
@@ -138,6 +129,33 @@ export class ExplorerMap {
       m.once('idle', check);
       m.triggerRepaint();
     });
+  }
+
+  /** Name markers of the regions drawn, by id. */
+  private readonly labels = new Map<string, maplibregl.Marker>();
+
+  /** Draws the outlines and names of the regions of these area pieces in place of those drawn before (none: `[]`). */
+  showRegions(pieces: readonly RegionAreaPiece[]): void {
+    const keep = new Set<string>();
+    for (const piece of pieces) {
+      for (const r of piece.regions) {
+        keep.add(r.id);
+        if (this.labels.has(r.id)) continue;
+        const el = document.createElement('div');
+        el.className = 'region-label';
+        el.dataset.regionLabel = r.id;
+        el.setAttribute('aria-hidden', 'true');
+        el.textContent = r.name;
+        this.labels.set(r.id, new maplibregl.Marker({ element: el, anchor: 'center' }).setLngLat(r.label).addTo(this.map));
+      }
+    }
+    for (const [id, marker] of this.labels) {
+      if (keep.has(id)) continue;
+      marker.remove();
+      this.labels.delete(id);
+    }
+    const data: FeatureCollection = { type: 'FeatureCollection', features: pieces.flatMap((p) => p.outlines.features) };
+    void this.pending.then(() => (this.map.getSource('regions') as maplibregl.GeoJSONSource).setData(data));
   }
 
   /** Shows or hides the region outlines and their names. */

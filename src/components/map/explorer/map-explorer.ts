@@ -1,7 +1,10 @@
 /**
  * Browser script of the map page (src/pages/map/index.astro): wires the catalogue
  * (`/map/explorer.json`), the URL view state, the controls, the MapLibre map, the legend, the
- * month player, the cell cursor and panel, and the region table. Inputs come from data
+ * month player, the cell cursor and panel, and the region table; the regions' names, boxes and
+ * outlines come in pieces when needed (region-loader.ts): a region named in the URL, the search,
+ * the outlines of the view (`data-regions-drawn` on the map container: how many), the regions
+ * around a selected cell. Inputs come from data
  * attributes of `#map-explorer`; nothing is inline. The map container reports
  * `data-map-state` (`loading` → `idle` | `error`) and `data-layer-id` (the layer drawn) for the
  * tests; `#cell-panel` reports `data-cell` and `data-state` (`loading`, `ready`, `no-data`).
@@ -11,7 +14,7 @@ import type { DatasetInventory } from '../../../../pipeline/read/inventory-types
 import { sitePath } from '../../../lib/nav.ts';
 import { UNIT_EVENT, currentUnit } from '../../../lib/units.ts';
 import { formatLat, formatLon } from '../../../lib/format.ts';
-import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
+import type { ExplorerCatalogue, ExplorerLayer, PublishedCatalogue } from './catalogue.ts';
 import { parseViewState, viewQuery, type ViewState } from './view-state.ts';
 import { CHOICE_KEYS, resolveView } from './layer-choice.ts';
 import { findControls, syncControls } from './controls.ts';
@@ -21,9 +24,9 @@ import { describeLayer, describeLayerLine } from './describe-view.ts';
 import { updateRegionTable } from './region-table.ts';
 import { renderCellPanel } from './cell-panel.ts';
 import { cellAt, cellCentre, cellPolygon, chunkOfCell, isCell, moveCell, type CellGrid } from './cell-grid.ts';
-import { regionsForPoint, type RegionShape } from './nearest-region.ts';
+import type { regionsForPoint } from './nearest-region.ts';
 import { ExplorerMap } from './explorer-map.ts';
-import { searchMap } from './map-search.ts';
+import { RegionLoader } from './region-loader.ts';
 
 /** Pause between months while playing, after the month is drawn [ms]. */
 const PLAY_STEP_MS = 1200;
@@ -55,31 +58,34 @@ async function start(root: HTMLElement): Promise<void> {
   const inv = JSON.parse(root.dataset.grid ?? 'null') as DatasetInventory['grid'];
   const grid: CellGrid = { nLat: inv.nLat, nLon: inv.nLon, lat0: inv.latMin, lon0: inv.lonMin, dLat: inv.dLat, dLon: inv.dLon };
 
-  const [catalogue, cellsIndex, land, borders, regions] = await Promise.all([
-    fetchJson<ExplorerCatalogue>(root.dataset.catalogueUrl ?? ''),
+  const [published, cellsIndex, land, borders] = await Promise.all([
+    fetchJson<PublishedCatalogue>(root.dataset.catalogueUrl ?? ''),
     fetchJson<CellFiguresIndex>(root.dataset.cellsUrl ?? ''),
     fetchJson<unknown>(root.dataset.landUrl ?? ''),
     fetchJson<unknown>(root.dataset.bordersUrl ?? ''),
-    fetchJson<GeoJSON.FeatureCollection>(root.dataset.regionsUrl ?? ''),
   ]);
-  if (!catalogue.available) throw new Error('no map layers are published in this atlas');
-  const shapes: RegionShape[] = regions.features.map((f) => ({ id: String(f.properties?.id), geometry: f.geometry as RegionShape['geometry'] }));
+  if (!published.available) throw new Error('no map layers are published in this atlas');
+  const loader = new RegionLoader(published.regionIndex, (path) => fetchJson<unknown>(sitePath(base, path)));
+  // The regions known so far stand in the catalogue's list: first the one the URL names, if any.
+  const urlRegion = new URLSearchParams(location.search).get('region');
+  const catalogue: ExplorerCatalogue = { ...published, regions: [] };
+  const named = urlRegion ? await loader.byId(urlRegion) : undefined;
+  if (named) catalogue.regions = [named];
+  const withKnownRegions = (): ExplorerCatalogue => ({ ...catalogue, regions: [...loader.known.values()] });
 
   let state: ViewState = resolveView(catalogue, parseViewState(location.search, catalogue)).state;
   let layer: ExplorerLayer | undefined;
-  const regionBox = (id: string | undefined) => catalogue.regions.find((r) => r.id === id)?.bbox;
+  const regionBox = async (id: string | undefined) => (id === undefined ? undefined : (await loader.byId(id))?.bbox);
   const [w, s, e, n] = [grid.lon0 - grid.dLon / 2, grid.lat0 - grid.dLat / 2, grid.lon0 + (grid.nLon - 0.5) * grid.dLon, grid.lat0 + (grid.nLat - 0.5) * grid.dLat];
   const explorer = new ExplorerMap({
     container: mapBox,
     base,
-    bounds: regionBox(state.region) ?? [w, Math.max(-85, s), e, Math.min(85, n)],
+    bounds: (await regionBox(state.region)) ?? [w, Math.max(-85, s), e, Math.min(85, n)],
     centre: state.centre,
     zoom: state.zoom,
     land,
     borders,
-    regions,
     attribution: catalogue.invented ? 'Heat layers: invented data' : 'Heat layers: this atlas',
-    labels: catalogue.regions,
   });
   const map = explorer.map;
   explorer.setFocusRegion(state.region);
@@ -91,7 +97,7 @@ async function start(root: HTMLElement): Promise<void> {
   const writeUrl = () => history.replaceState(null, '', `${location.pathname}${viewQuery(state, location.search)}${location.hash}`);
 
   // The selected cell and its record (null: not a land cell), and the keyboard cursor.
-  let selected: { cell: number; record: CellRecord | null } | undefined;
+  let selected: { cell: number; record: CellRecord | null; regions: ReturnType<typeof regionsForPoint> } | undefined;
   let cursor: number | undefined;
   const chunks = new Map<string, Promise<CellChunk>>();
   const chunkIds = new Set(cellsIndex.chunks.map((c) => c.id));
@@ -109,7 +115,7 @@ async function start(root: HTMLElement): Promise<void> {
   function renderPanel(): void {
     if (!selected) return;
     const centre = cellCentre(grid, selected.cell);
-    renderCellPanel(panel, { base, catalogue, index: cellsIndex, state, layer, unit: currentUnit(), regions: regionsForPoint(shapes, centre) }, selected.cell, centre, selected.record);
+    renderCellPanel(panel, { base, catalogue: withKnownRegions(), index: cellsIndex, state, layer, unit: currentUnit(), regions: selected.regions }, selected.cell, centre, selected.record);
   }
 
   let selectToken = 0;
@@ -122,9 +128,9 @@ async function start(root: HTMLElement): Promise<void> {
     panel.hidden = false;
     panel.dataset.state = 'loading';
     panel.dataset.cell = String(cell);
-    const record = await recordOf(cell);
+    const [record, regionsHere] = await Promise.all([recordOf(cell), loader.forPoint(cellCentre(grid, cell))]);
     if (token !== selectToken) return;
-    selected = { cell, record };
+    selected = { cell, record, regions: regionsHere };
     renderPanel();
     const [lon, lat] = cellCentre(grid, cell);
     status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
@@ -252,12 +258,26 @@ async function start(root: HTMLElement): Promise<void> {
     setPlaying(false);
   });
 
+  // The outlines and names of the regions in view, unless the view holds more than the map draws.
+  const regionsNote = must<HTMLElement>(root, '#map-regions-note');
+  let viewToken = 0;
+  async function drawRegions(): Promise<void> {
+    const token = ++viewToken;
+    const b = map.getBounds();
+    const r = await loader.inView([b.getWest(), b.getSouth(), b.getEast(), b.getNorth()]);
+    if (token !== viewToken) return;
+    explorer.showRegions(r.pieces ?? []);
+    mapBox.dataset.regionsDrawn = String(r.pieces ? r.pieces.reduce((sum, p) => sum + p.regions.length, 0) : 0);
+    regionsNote.textContent = r.pieces ? '' : `About ${r.count.toLocaleString('en')} regions lie in this view, more than the map outlines at once: zoom in to see their outlines and names, or find one by name above.`;
+  }
+
   // Camera in the URL.
   map.on('moveend', () => {
     const c = map.getCenter();
     state.centre = [c.lng, c.lat];
     state.zoom = map.getZoom();
     writeUrl();
+    void drawRegions();
   });
 
   // Pointer and keyboard selection.
@@ -318,9 +338,10 @@ async function start(root: HTMLElement): Promise<void> {
   const search = must<HTMLFormElement>(root, '#map-search');
   const searchResult = must<HTMLElement>(search, '#map-search-result');
   search.hidden = false;
-  search.addEventListener('submit', (ev) => {
+  search.addEventListener('submit', async (ev) => {
     ev.preventDefault();
-    const r = searchMap(must<HTMLInputElement>(search, '[name="q"]').value, catalogue.regions);
+    search.dataset.result = 'loading';
+    const r = await loader.search(must<HTMLInputElement>(search, '[name="q"]').value);
     search.dataset.result = r.kind;
     if (r.kind === 'none') {
       searchResult.textContent = r.message;
@@ -329,7 +350,7 @@ async function start(root: HTMLElement): Promise<void> {
     if (r.kind === 'region') {
       state.region = r.id;
       explorer.setFocusRegion(r.id);
-      map.fitBounds(regionBox(r.id)!, { padding: 30, maxZoom: 8, duration: 0 });
+      map.fitBounds((await regionBox(r.id))!, { padding: 30, maxZoom: 8, duration: 0 });
       writeUrl();
       searchResult.textContent = `${r.name}: shown and outlined on the map.`;
       return;
@@ -348,11 +369,14 @@ async function start(root: HTMLElement): Promise<void> {
 
   // "Show on the map" links of the region table fit the region without leaving the page.
   for (const link of document.querySelectorAll<HTMLAnchorElement>('a[data-fit-region]')) {
-    link.addEventListener('click', (ev) => {
+    link.addEventListener('click', async (ev) => {
       const id = link.dataset.fitRegion;
-      const box = regionBox(id);
-      if (!box) return;
       ev.preventDefault();
+      const box = await regionBox(id);
+      if (!box) {
+        location.href = link.href;
+        return;
+      }
       state.region = id;
       explorer.setFocusRegion(id);
       map.fitBounds(box, { padding: 30, maxZoom: 8, duration: 0 });
@@ -362,6 +386,8 @@ async function start(root: HTMLElement): Promise<void> {
   }
 
   document.addEventListener(UNIT_EVENT, () => renderAll());
+  await explorer.pending;
+  await drawRegions();
   await apply(state);
   if (state.cell !== undefined) void selectCell(state.cell);
 }

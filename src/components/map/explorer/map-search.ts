@@ -9,20 +9,21 @@
  * contains it.
  */
 import type { ExplorerRegion } from './catalogue.ts';
+import { foldName } from './region-index.ts';
 
 export type SearchResult =
   | { kind: 'region'; id: string; name: string }
   | { kind: 'point'; lat: number; lon: number }
   | { kind: 'none'; message: string };
 
-// biome-ignore lint/suspicious/noMisleadingCharacterClass: the range is the combining diacritical marks, removed after NFD on purpose
-const fold = (s: string) => s.normalize('NFD').replace(/[\u0300-\u036f]/g, '').toLowerCase().trim().replace(/\s+/g, ' ');
+const fold = foldName;
 
 const NUMBER = String.raw`([+\-\u2212]?\d+(?:\.\d+)?)`;
 const HEMI = String.raw`\s*°?\s*([NSEWnsew])?`;
 const COORDS = new RegExp(String.raw`^${NUMBER}${HEMI}\s*[,;\s]\s*${NUMBER}${HEMI}$`);
 
-function parseCoordinates(text: string): SearchResult | null {
+/** The coordinates the text gives (or why they are wrong), or null when it is not shaped as coordinates. */
+export function parseCoordinates(text: string): SearchResult | null {
   const m = COORDS.exec(text.trim());
   if (!m) return null;
   const num = (s: string) => Number(s.replace('\u2212', '-'));

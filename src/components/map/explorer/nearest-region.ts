@@ -9,7 +9,7 @@
 import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { ringContains } from '../../../../pipeline/regions/ring-contains.ts';
 
-const KM_PER_DEGREE = (6371.0088 * Math.PI) / 180;
+export const KM_PER_DEGREE = (6371.0088 * Math.PI) / 180;
 
 export interface RegionShape {
   id: string;

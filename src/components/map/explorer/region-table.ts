@@ -10,7 +10,7 @@ import type { ExplorerCatalogue, ExplorerLayer } from './catalogue.ts';
 import { describeLayerLine } from './describe-view.ts';
 import { formatLayerValue, unitLabel } from './value-format.ts';
 
-/** `values`: the layer's value per region, in the order of the catalogue's regions (its `values` file). */
+/** `values`: the layer's value per region, in the order of the catalogue's regions (its `values` file); each row names its place in that order (`data-region-index`). */
 export function updateRegionTable(table: HTMLTableElement, catalogue: ExplorerCatalogue, layer: ExplorerLayer, unit: TemperatureUnit, values: ReadonlyArray<number | null>): void {
   const legend = catalogue.legends[layer.legend];
   const caption = table.querySelector('caption');
@@ -19,9 +19,8 @@ export function updateRegionTable(table: HTMLTableElement, catalogue: ExplorerCa
   const u = unitLabel(layer.units, unit);
   if (head) head.textContent = legend.kind === 'categorical' ? 'Class' : `Value${u ? ` [${u}]` : ''}`;
   table.dataset.layerId = layer.id;
-  const index = new Map(catalogue.regions.map((x, i) => [x.id, i]));
-  for (const tr of table.querySelectorAll<HTMLTableRowElement>('tbody tr[data-region-id]')) {
-    const r = index.get(tr.dataset.regionId ?? '') ?? -1;
+  for (const tr of table.querySelectorAll<HTMLTableRowElement>('tbody tr[data-region-index]')) {
+    const r = Number(tr.dataset.regionIndex ?? -1);
     const td = tr.querySelector<HTMLElement>('td[data-key="value"]');
     if (!td) continue;
     const v = r >= 0 ? values[r] : null;
