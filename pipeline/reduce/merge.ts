@@ -85,6 +85,9 @@ export function mergeYear(year: number, cells: Int32Array, partials: readonly Sh
     for (const pi of grp) {
       const p = partials[pi];
       if (p.year !== year) throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} is for year ${p.year}, not ${year}` });
+      if (p.exposures.join('|') !== first.exposures.join('|')) {
+        throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} counts the exposures ${p.exposures.join(', ')}, expected ${first.exposures.join(', ')}` });
+      }
       if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
         throw PartialsInconsistent({ detail: `partial ${names[pi] ?? pi} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
       }
@@ -226,6 +229,7 @@ function emptyYear(p: ShardPartial, year: number, cells: Int32Array): YearCounts
     year,
     cells,
     evalKeys: [...p.evalKeys],
+    exposures: [...p.exposures],
     coveredHours: new Uint32Array(MONTHS),
     expectedHours: Uint32Array.from(p.expectedHours),
     validHours: make(p.validHours, Uint32Array),
