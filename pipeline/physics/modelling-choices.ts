@@ -36,7 +36,7 @@ export const MODELLING_CHOICES: readonly ModellingChoice[] = [
     id: 'shade-model',
     title: 'Shade: the open sky with the sun removed; a shelter is warmer',
     choice:
-      'The atlas\u2019s exposures are the sun and the shade, the shade being the open sky with the sun removed. The physics also computes a sheltered exposure (under a roof or canopy); `heathours point` writes it (wbgt_shelter_c).',
+      'The atlas\u2019s exposures are the sun and the shade by default, the shade being the open sky with the sun removed. The physics also computes a sheltered exposure (under a roof or canopy); `heathours point` writes it (wbgt_shelter_c), and an atlas publishes it as a third exposure when its configuration lists it (`work.exposures: [sun, shade, shelter]`).',
     reasoning:
       'Without the sun\u2019s load the globe and the wick still exchange long-wave radiation with the sky, which radiates like a body well below the air temperature; the open-sky shade is therefore cooler than the shade under a roof, where the globe sees a shelter at about the air temperature. The sheltered exposure takes the shelter as a black surface at the air temperature, the assumption of the indoor and in-shade WBGT of Lemke & Kjellstrom (2012), under which the globe reads the air temperature. Which one fits depends on the site: a worker under a tree or an awning is closer to the shelter, one in the shadow of a wall with open sky above closer to the open-sky shade.',
     measured: [

@@ -228,6 +228,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       years: years.length,
       monthsPerPiece: cfg.shards.monthsPerPiece,
       evaluations: work.evaluations.length,
+      exposures: countedExposures(work.evaluations).length,
       combos: defs.reduce((s, d) => s + d.combos.length, 0),
       gridFields: fields.length,
       blocks,
