@@ -264,7 +264,7 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       }
       const ws = wbgtSun[i];
       const wd = wbgtShade[i];
-      const wh = wbgtShelter[i];
+      const wh = shelter ? wbgtShelter[i] : wd;
       if (ws !== ws || wd !== wd || (shelter && wh !== wh)) {
         p.failedHours[c]++;
         continue;
@@ -422,7 +422,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
       }
       const ws = wbgtSun[i];
       const wd = wbgtShade[i];
-      const wh = wbgtShelter[i];
+      const wh = shelter ? wbgtShelter[i] : wd;
       if (ws !== ws || wd !== wd || (shelter && wh !== wh)) {
         p.failedHours[c]++;
         continue;
