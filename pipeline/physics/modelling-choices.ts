@@ -42,6 +42,7 @@ export const MODELLING_CHOICES: readonly ModellingChoice[] = [
     measured: [
       'Sheltered WBGT minus open-sky shade WBGT, median over the hours of each land cell: +0.15 to +0.53 °C (median of the 655 cells +0.27 °C), with the 150 mm globe.',
       'Hours above the limit for moderate work (300 W), acclimatized, all hours 2020–2024: +56 % over all land cells (186,837 → 291,933 cell-hours); per cell +22 % to +289 % (median +64 %) where the shade has at least 50 such hours.',
+      'Built as the atlas\u2019s third exposure (work.exposures), per region, baseline mean: annual mean WBGT +0.24 to +0.43 °C, shift hours above the moderate acclimatized limit +40 % to +102 % (the Sollent coast 69.6 → 110.6 h a year).',
     ],
   },
   {
