@@ -2,8 +2,8 @@
  * The opt-in sheltered exposure (`work.exposures: [sun, shade, shelter]`) built end to end on the
  * invented small demo, against three outside yardsticks: the files the code published before the
  * exposure existed (test/fixtures/shelter/README.md), the physics of long-wave radiation (a black
- * shelter at the air temperature radiates more than the open sky, so the sheltered WBGT is never
- * below the open-sky shade's), and `heathours point`'s wbgt_shelter_c for the same inputs.
+ * shelter at the air temperature radiates more than the open sky wherever the sky's emissivity is
+ * below 1, so the sheltered WBGT is not below the open-sky shade's there, docs/methods.md §6.1), and `heathours point`'s wbgt_shelter_c for the same inputs.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { cpSync, mkdtempSync, rmSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
