@@ -7,7 +7,7 @@
  * Layout (all integers little-endian):
  *   8 bytes   magic "HHPART\x01\n" (the 7th byte is the format version)
  *   4 bytes   uint32 length H of the header
- *   H bytes   header, UTF-8 JSON: { format, meta, evalKeys, months, fields: [{ name, type, length }], payloadBytes }
+ *   H bytes   header, UTF-8 JSON: { format, meta, evalKeys, exposures, months, fields: [{ name, type, length }], payloadBytes }
  *   P bytes   payload: raw DEFLATE (RFC 1951, zlib level 1) of the fields' bytes in header order;
  *             the histogram (months of the piece only, month-major) is stored sparse first (per
  *             month × hour × cell × exposure slot: uint16 first bin, uint16 n, then n uint16
@@ -20,10 +20,11 @@ import { createHash } from 'node:crypto';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import type { ShardPartial } from '../reduce/accumulator.ts';
 import { HIST_LEN, MONTHS } from '../reduce/layout.ts';
+import type { Exposure } from '../work/work-settings.ts';
 import { PartialCorrupt, PartialFormatUnknown } from '../reduce/errors.ts';
 
 /** Version of the file layout; bump on any change of the bytes written. */
-export const PARTIAL_FORMAT = 2;
+export const PARTIAL_FORMAT = 3;
 const MAGIC = Buffer.from([0x48, 0x48, 0x50, 0x41, 0x52, 0x54, PARTIAL_FORMAT, 0x0a]);
 const DIGEST_BYTES = 32;
 
@@ -42,7 +43,7 @@ export interface PartialMeta {
   report: { cellHours: number; physics: Record<string, number>; change?: Record<string, number> };
 }
 
-type ArrayField = Exclude<keyof ShardPartial, 'year' | 'evalKeys' | 'months'>;
+type ArrayField = Exclude<keyof ShardPartial, 'year' | 'evalKeys' | 'exposures' | 'months'>;
 type TypeName = 'Int32Array' | 'Uint32Array' | 'Float64Array' | 'Int16Array' | 'Uint16Array';
 const CTORS = { Int32Array, Uint32Array, Float64Array, Int16Array, Uint16Array } as const;
 
@@ -65,6 +66,8 @@ interface Header {
   format: number;
   meta: PartialMeta;
   evalKeys: string[];
+  /** The exposures the per-exposure counts hold (ShardPartial.exposures). */
+  exposures: Exposure[];
   /** Local months [m0, m1) of the histogram (0 = January). */
   months: [number, number];
   fields: FieldEntry[];
@@ -134,7 +137,7 @@ export function encodePartial(p: ShardPartial, meta: PartialMeta): Uint8Array {
     return { name, type: a.constructor.name as TypeName, length: a.length, bytes: buf.length };
   });
   const payload = deflateRawSync(Buffer.concat(parts), { level: 1 });
-  const header: Header = { format: PARTIAL_FORMAT, meta, evalKeys: p.evalKeys, months: p.months, fields, payloadBytes: payload.length };
+  const header: Header = { format: PARTIAL_FORMAT, meta, evalKeys: p.evalKeys, exposures: p.exposures, months: p.months, fields, payloadBytes: payload.length };
   const headerBytes = Buffer.from(JSON.stringify(header), 'utf8');
   const len = Buffer.alloc(4);
   len.writeUInt32LE(headerBytes.length);
@@ -166,6 +169,10 @@ export function readPartialHeader(bytes: Uint8Array, file: string): { meta: Part
   const m = header.months;
   if (!Array.isArray(m) || m.length !== 2 || !Number.isInteger(m[0]) || !Number.isInteger(m[1]) || m[0] < 0 || m[1] > MONTHS || m[0] >= m[1]) {
     throw PartialCorrupt({ file, detail: `its months ${JSON.stringify(m)} are not a range of local months` });
+  }
+  const x = header.exposures;
+  if (!Array.isArray(x) || x.length < 2 || x.length > 3 || x[0] !== 'sun' || x[1] !== 'shade' || (x.length === 3 && x[2] !== 'shelter')) {
+    throw PartialCorrupt({ file, detail: `its exposures ${JSON.stringify(x)} are not sun, shade (and shelter)` });
   }
   return { meta: header.meta, header, payloadStart: hStart + hLen };
 }
@@ -199,5 +206,5 @@ export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialM
   }
   if (off !== raw.length) throw PartialCorrupt({ file, detail: `${raw.length - off} payload bytes left over` });
   for (const name of FIELDS) if (!out[name]) throw PartialCorrupt({ file, detail: `field ${name} is missing` });
-  return { meta, partial: { ...(out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'months'>), year: meta.year, evalKeys: header.evalKeys, months: [header.months[0], header.months[1]] } };
+  return { meta, partial: { ...(out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'exposures' | 'months'>), year: meta.year, evalKeys: header.evalKeys, exposures: [...header.exposures], months: [header.months[0], header.months[1]] } };
 }

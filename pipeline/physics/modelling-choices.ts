@@ -36,12 +36,13 @@ export const MODELLING_CHOICES: readonly ModellingChoice[] = [
     id: 'shade-model',
     title: 'Shade: the open sky with the sun removed; a shelter is warmer',
     choice:
-      'The atlas\u2019s exposures are the sun and the shade, the shade being the open sky with the sun removed. The physics also computes a sheltered exposure (under a roof or canopy); `heathours point` writes it (wbgt_shelter_c).',
+      'The atlas\u2019s exposures are the sun and the shade by default, the shade being the open sky with the sun removed. The physics also computes a sheltered exposure (under a roof or canopy); `heathours point` writes it (wbgt_shelter_c), and an atlas publishes it as a third exposure when its configuration lists it (`work.exposures: [sun, shade, shelter]`).',
     reasoning:
       'Without the sun\u2019s load the globe and the wick still exchange long-wave radiation with the sky, which radiates like a body well below the air temperature; the open-sky shade is therefore cooler than the shade under a roof, where the globe sees a shelter at about the air temperature. The sheltered exposure takes the shelter as a black surface at the air temperature, the assumption of the indoor and in-shade WBGT of Lemke & Kjellstrom (2012), under which the globe reads the air temperature. Which one fits depends on the site: a worker under a tree or an awning is closer to the shelter, one in the shadow of a wall with open sky above closer to the open-sky shade.',
     measured: [
       'Sheltered WBGT minus open-sky shade WBGT, median over the hours of each land cell: +0.15 to +0.53 °C (median of the 655 cells +0.27 °C), with the 150 mm globe.',
       'Hours above the limit for moderate work (300 W), acclimatized, all hours 2020–2024: +56 % over all land cells (186,837 → 291,933 cell-hours); per cell +22 % to +289 % (median +64 %) where the shade has at least 50 such hours.',
+      'Built as the atlas\u2019s third exposure (work.exposures), per region, baseline mean: annual mean WBGT +0.24 to +0.43 °C, shift hours above the moderate acclimatized limit +40 % to +102 % (the Sollent coast 69.6 → 110.6 h a year).',
     ],
   },
   {

@@ -1,6 +1,6 @@
 /**
  * What a figure's combination key means, split into table columns: an evaluation key
- * `class.acclimatization.exposure`, a loss view `method.exposure`, an exposure `sun`/`shade`, or
+ * `class.acclimatization.exposure`, a loss view `method.exposure`, an exposure `sun`/`shade`/`shelter`, or
  * `air`.
  */
 export interface ComboColumns {

@@ -90,6 +90,7 @@ export const ACCLIMATIZATION_WORDS: Readonly<Record<string, string>> = {
 export const EXPOSURE_WORDS: Readonly<Record<string, string>> = {
   sun: 'Working in the sun',
   shade: 'Working in the shade (the same weather without direct or diffuse sun)',
+  shelter: 'Working under a shelter (a roof or canopy, the shelter a black surface at the air temperature, after Lemke & Kjellstrom 2012)',
 };
 
 export interface DictionaryInput {

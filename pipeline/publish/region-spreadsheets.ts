@@ -173,7 +173,7 @@ export function regionSheetInfo(f: RegionSheetFacts): RegionSheetInfo {
     work: [
       ['Limit model', s.limitModel === 'curve-2017' ? 'continuous curves (NIOSH 2016 REL/RAL, ISO 7243:2017 form)' : `ISO 7243:1989 table${s.airMovement ? ', air movement' : ''}`],
       ['Acclimatization', s.acclimatization.join(', ')],
-      ['Exposure', s.exposures.join(', ')],
+      ['Exposure', exposureLine(s.exposures)],
       ['Breaks', s.restLocation === 'shade' ? 'in the shade' : 'in the same place as the work'],
       ['Rest metabolic rate', `${w.rest.metabolicRate} W`],
       ['Clothing', `${clothing} (adjustment ${w.clothingAdjustment} °C-WBGT added to the WBGT)`],
@@ -185,4 +185,19 @@ export function regionSheetInfo(f: RegionSheetFacts): RegionSheetInfo {
     statistics: f.statistics,
     cautions: f.cautions,
   };
+}
+
+/**
+ * The workbook's exposure line: the names as configured; with the opt-in shelter each exposure
+ * with its model (the line of a sun-and-shade build stays as it was, so such builds publish the
+ * same bytes as before the shelter existed).
+ */
+export function exposureLine(exposures: readonly string[]): string {
+  if (!exposures.includes('shelter')) return exposures.join(', ');
+  const model: Record<string, string> = {
+    sun: 'sun',
+    shade: 'shade (open sky with the sun removed)',
+    shelter: 'shelter (under a roof or canopy, a shelter at air temperature \u2014 Lemke & Kjellstrom 2012)',
+  };
+  return exposures.map((x) => model[x] ?? x).join(', ');
 }

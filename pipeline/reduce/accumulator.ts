@@ -1,6 +1,7 @@
 /**
  * The per-shard accumulator: integer counts per land cell of one tile and one (local) year,
- * filled block by block from hourly WBGT in sun and shade and air temperature. Pure: arrays in,
+ * filled block by block from hourly WBGT in sun and shade (and under a shelter when the build
+ * counts that exposure) and air temperature. Pure: arrays in,
  * counts out; the orchestration (pipeline/run) reads the blocks and runs the physics.
  */
 import {
@@ -9,6 +10,7 @@ import {
   kjellstrom2018LossInto,
   dunne2013LossInto,
   groupEvaluations,
+  exposureWbgt,
   allowedMetabolicRate,
   memberWorkFraction,
   prepareLoss,
@@ -16,7 +18,9 @@ import {
   type EvaluationGroup,
   type LocalHours,
   type PreparedLoss,
+  type Exposure,
   type WorkEvaluation,
+  countedExposures,
 } from '../work/index.ts';
 import { CENTI, HIST_LEN, HOURS, LOSS_VIEWS, MILLI, MONTHS, N_EXPOSURES, N_LOSS, histIndex } from './layout.ts';
 
@@ -28,11 +32,17 @@ export interface ShardPartial {
   cells: Int32Array;
   /** Evaluation keys, in index order (`class.acclimatization.exposure`). */
   evalKeys: string[];
+  /**
+   * The exposures counted per cell × month (index `x` of capacityLoss, wbgtSum, wbgtMax): `sun`,
+   * `shade`, and `shelter` when an evaluation works under a shelter
+   * (pipeline/work/work-settings.ts countedExposures). The histograms hold sun and shade only.
+   */
+  exposures: Exposure[];
   /** Hours of each local month of the year that the data cover [h], per month. */
   coveredHours: Uint32Array;
   /** Hours of each local month of the year [h] (what a complete year holds), per month. */
   expectedHours: Uint32Array;
-  /** Per cell × month: hours with a valid WBGT in sun and in shade [h]. */
+  /** Per cell × month: hours with a valid WBGT in every counted exposure [h]. */
   validHours: Uint32Array;
   /** Per cell × month: valid hours inside the work shift [h]. */
   shiftHours: Uint32Array;
@@ -77,10 +87,13 @@ export function createPartial(year: number, cells: Int32Array, evaluations: read
   const nc = cells.length;
   const nE = evaluations.length;
   const cm = nc * MONTHS;
+  const exposures = countedExposures(evaluations);
+  const nX = exposures.length;
   return {
     year,
     cells,
     evalKeys: evaluations.map((e) => e.key),
+    exposures,
     coveredHours: new Uint32Array(MONTHS),
     expectedHours: expectedMonthHours(year),
     validHours: new Uint32Array(cm),
@@ -88,9 +101,9 @@ export function createPartial(year: number, cells: Int32Array, evaluations: read
     aboveAll: new Uint32Array(cm * nE),
     aboveShift: new Uint32Array(cm * nE),
     lostShift: new Uint32Array(cm * nE),
-    capacityLoss: new Uint32Array(cm * N_EXPOSURES * N_LOSS),
-    wbgtSum: new Float64Array(cm * N_EXPOSURES),
-    wbgtMax: new Int16Array(cm * N_EXPOSURES).fill(-32768),
+    capacityLoss: new Uint32Array(cm * nX * N_LOSS),
+    wbgtSum: new Float64Array(cm * nX),
+    wbgtMax: new Int16Array(cm * nX).fill(-32768),
     airSum: new Float64Array(cm),
     airHours: new Uint32Array(cm),
     months: [months[0], months[1]],
@@ -116,6 +129,8 @@ export interface ReduceBlock {
   wbgtSun: Float32Array;
   /** WBGT in the shade [°C]; NaN where not computed. */
   wbgtShade: Float32Array;
+  /** WBGT under a shelter [°C]; required when the partial counts the shelter exposure. */
+  wbgtShelter?: Float32Array;
   /** Air temperature [°C]. */
   airTemperature: Float32Array;
   /** Local calendar of each hour (pipeline/work/shifts.ts), length ≥ nHours. */
@@ -193,6 +208,7 @@ function windowMonth(p: ShardPartial, m: number): number {
  * @param evaluations The same list (and order) the partial was created with
  */
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
+  if (p.exposures.length > 2 && block.wbgtShelter === undefined) throw new RangeError('the partial counts the shelter exposure, the block has no shelter WBGT');
   if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.lossCav);
   else accumulateGeneral(p, block, evaluations, scratch);
 }
@@ -212,8 +228,12 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
   const nc = p.cells.length;
   const hist = p.histogram;
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
+  const nX = p.exposures.length;
+  const shelter = nX > 2;
+  // Without the shelter the shade array stands in for it (never read: no group works there).
+  const wbgtShelter = block.wbgtShelter ?? wbgtShade;
   const nG = groups.length;
-  const sunGroup = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 1 : 0));
+  const groupX = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 0 : g.exposure === 'shade' ? 1 : 2));
   // The block's hours of this year, with their month, histogram month, local hour and shift flag.
   const hours = new Int32Array(block.nHours);
   const hourMonth = new Int32Array(block.nHours);
@@ -244,24 +264,32 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       }
       const ws = wbgtSun[i];
       const wd = wbgtShade[i];
-      if (ws !== ws || wd !== wd) {
+      const wh = shelter ? wbgtShelter[i] : wd;
+      if (ws !== ws || wd !== wd || (shelter && wh !== wh)) {
         p.failedHours[c]++;
         continue;
       }
       p.validHours[cm]++;
       const s = Math.round(ws * CENTI);
       const d = Math.round(wd * CENTI);
-      p.wbgtSum[cm * 2] += s;
-      p.wbgtSum[cm * 2 + 1] += d;
-      if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
-      if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
+      const xm = cm * nX;
+      p.wbgtSum[xm] += s;
+      p.wbgtSum[xm + 1] += d;
+      if (s > p.wbgtMax[xm]) p.wbgtMax[xm] = s;
+      if (d > p.wbgtMax[xm + 1]) p.wbgtMax[xm + 1] = d;
+      if (shelter) {
+        const r = Math.round(wh * CENTI);
+        p.wbgtSum[xm + 2] += r;
+        if (r > p.wbgtMax[xm + 2]) p.wbgtMax[xm + 2] = r;
+      }
       const hb = (hourHist[k] + c) * N_EXPOSURES * HIST_LEN;
       hist[hb + histIndex(ws)]++;
       hist[hb + HIST_LEN + histIndex(wd)]++;
       const base = cm * nE;
       for (let gi = 0; gi < nG; gi++) {
         const g = groups[gi];
-        const w = (sunGroup[gi] === 1 ? ws : wd) + g.cav;
+        const gx = groupX[gi];
+        const w = (gx === 0 ? ws : gx === 1 ? wd : wh) + g.cav;
         if (!(w > g.lowestLimit)) continue;
         const mLim = allowedMetabolicRate(g, w);
         const members = g.members;
@@ -278,7 +306,7 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
       }
       if (shift) {
         p.shiftHours[cm]++;
-        const lb = cm * N_EXPOSURES * N_LOSS;
+        const lb = cm * nX * N_LOSS;
         // Capacity loss at the effective WBGT (WBGT + CAV; see ReduceScratch.lossCav).
         const wsEff = ws + cav;
         const wdEff = wd + cav;
@@ -288,6 +316,13 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
           if (a >= 0.0005) p.capacityLoss[lb + l] += Math.round(a * MILLI);
           const b = lossPrepared(wdEff, prep);
           if (b >= 0.0005) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
+        }
+        if (shelter) {
+          const whEff = wh + cav;
+          for (let l = 0; l < N_LOSS; l++) {
+            const r = lossPrepared(whEff, losses[l]);
+            if (r >= 0.0005) p.capacityLoss[lb + 2 * N_LOSS + l] += Math.round(r * MILLI);
+          }
         }
       }
     }
@@ -302,6 +337,11 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
   const n = nt * nc;
   if (scratch.fraction.length < n) throw new RangeError(`scratch holds ${scratch.fraction.length} values, block needs ${n}`);
   const { wbgtSun, wbgtShade, airTemperature, local } = block;
+  const nX = p.exposures.length;
+  const shelter = nX > 2;
+  const wbgtShelter = block.wbgtShelter ?? wbgtShade;
+  // An hour counts when every counted exposure has a WBGT.
+  const invalid = (i: number): boolean => wbgtSun[i] !== wbgtSun[i] || wbgtShade[i] !== wbgtShade[i] || (shelter && wbgtShelter[i] !== wbgtShelter[i]);
   const nE = evaluations.length;
   const fraction = scratch.fraction.subarray(0, n);
   const above = scratch.above.subarray(0, n);
@@ -319,7 +359,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
   // Per-evaluation counts: one vectorised work-fraction pass per evaluation.
   for (let e = 0; e < nE; e++) {
     const ev = evaluations[e];
-    const work = ev.exposure === 'sun' ? wbgtSun : wbgtShade;
+    const work = exposureWbgt(ev.exposure, wbgtSun, wbgtShade, block.wbgtShelter);
     const rest = ev.restWbgt === 'shade' ? wbgtShade : null;
     aboveLimitInto(above, work, ev.kernel);
     workFractionInto(fraction, work, rest, ev.kernel);
@@ -330,7 +370,7 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
       const row = t * nc;
       for (let c = 0; c < nc; c++) {
         const i = row + c;
-        if (above[i] === 0 || wbgtSun[i] !== wbgtSun[i] || wbgtShade[i] !== wbgtShade[i]) continue;
+        if (above[i] === 0 || invalid(i)) continue;
         const k = (c * MONTHS + m) * nE + e;
         p.aboveAll[k]++;
         if (shift === 1) {
@@ -343,8 +383,8 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
 
   // Capacity-loss views at the effective WBGT (WBGT + CAV), inside the shift only, per exposure.
   const cav = scratch.lossCav;
-  for (let x = 0; x < N_EXPOSURES; x++) {
-    const wbgt = x === 0 ? wbgtSun : wbgtShade;
+  for (let x = 0; x < nX; x++) {
+    const wbgt = exposureWbgt(p.exposures[x], wbgtSun, wbgtShade, block.wbgtShelter);
     for (let l = 0; l < N_LOSS; l++) {
       const view = LOSS_VIEWS[l];
       if (view.intensity !== undefined) kjellstrom2018LossInto(loss, wbgt, view.intensity, cav);
@@ -354,9 +394,9 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
         const m = local.month[t] - 1;
         const row = t * nc;
         for (let c = 0; c < nc; c++) {
-          if (wbgtSun[row + c] !== wbgtSun[row + c] || wbgtShade[row + c] !== wbgtShade[row + c]) continue;
+          if (invalid(row + c)) continue;
           const v = loss[row + c];
-          if (v > 0) p.capacityLoss[((c * MONTHS + m) * N_EXPOSURES + x) * N_LOSS + l] += Math.round(v * MILLI);
+          if (v > 0) p.capacityLoss[((c * MONTHS + m) * nX + x) * N_LOSS + l] += Math.round(v * MILLI);
         }
       }
     }
@@ -382,7 +422,8 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
       }
       const ws = wbgtSun[i];
       const wd = wbgtShade[i];
-      if (ws !== ws || wd !== wd) {
+      const wh = shelter ? wbgtShelter[i] : wd;
+      if (ws !== ws || wd !== wd || (shelter && wh !== wh)) {
         p.failedHours[c]++;
         continue;
       }
@@ -390,10 +431,16 @@ function accumulateGeneral(p: ShardPartial, block: ReduceBlock, evaluations: rea
       if (shift === 1) p.shiftHours[cm]++;
       const s = Math.round(ws * CENTI);
       const d = Math.round(wd * CENTI);
-      p.wbgtSum[cm * 2] += s;
-      p.wbgtSum[cm * 2 + 1] += d;
-      if (s > p.wbgtMax[cm * 2]) p.wbgtMax[cm * 2] = s;
-      if (d > p.wbgtMax[cm * 2 + 1]) p.wbgtMax[cm * 2 + 1] = d;
+      const xm = cm * nX;
+      p.wbgtSum[xm] += s;
+      p.wbgtSum[xm + 1] += d;
+      if (s > p.wbgtMax[xm]) p.wbgtMax[xm] = s;
+      if (d > p.wbgtMax[xm + 1]) p.wbgtMax[xm + 1] = d;
+      if (shelter) {
+        const r = Math.round(wh * CENTI);
+        p.wbgtSum[xm + 2] += r;
+        if (r > p.wbgtMax[xm + 2]) p.wbgtMax[xm + 2] = r;
+      }
       const hb = ((mw * HOURS + h) * nc + c) * N_EXPOSURES * HIST_LEN;
       hist[hb + histIndex(ws)]++;
       hist[hb + HIST_LEN + histIndex(wd)]++;

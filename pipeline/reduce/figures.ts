@@ -4,7 +4,7 @@
  * counts in, Float64Arrays out.
  */
 import type { YearCounts } from './merge.ts';
-import { CENTI, LOSS_VIEWS, MILLI, MONTHS, N_EXPOSURES, N_LOSS } from './layout.ts';
+import { CENTI, LOSS_VIEWS, MILLI, MONTHS, N_LOSS } from './layout.ts';
 
 /** Months plus the whole year: index 12 is the annual figure. */
 export const PERIODS = MONTHS + 1;
@@ -35,16 +35,19 @@ export interface YearFigure {
   values: Float64Array;
 }
 
-export function figureDefs(evalKeys: string[]): FigureDef[] {
-  const exposures = ['sun', 'shade'];
+/**
+ * The figures of a build: `evalKeys` its evaluations, `exposures` the exposures it counts
+ * (ShardPartial.exposures; sun and shade, and the shelter when built).
+ */
+export function figureDefs(evalKeys: string[], exposures: readonly string[] = ['sun', 'shade']): FigureDef[] {
   const loss = exposures.flatMap((x) => LOSS_VIEWS.map((l) => `${l.id}.${x}`));
   return [
     { id: 'hours-above-limit-shift', label: 'Shift hours with WBGT above the limit', units: 'h', combos: evalKeys, annual: 'sum' },
     { id: 'hours-above-limit-all', label: 'Hours (day and night) with WBGT above the limit', units: 'h', combos: evalKeys, annual: 'sum' },
     { id: 'hours-lost-shift', label: 'Shift hours lost to the rest breaks the limit requires, per worker', units: 'h', combos: evalKeys, annual: 'sum' },
     { id: 'capacity-loss-shift', label: 'Shift hours of work capacity lost (loss functions)', units: 'h', combos: loss, annual: 'sum' },
-    { id: 'wbgt-mean', label: 'Mean hourly WBGT', units: 'degC', combos: exposures, annual: 'hour-weighted-mean' },
-    { id: 'wbgt-max', label: 'Highest hourly WBGT', units: 'degC', combos: exposures, annual: 'max' },
+    { id: 'wbgt-mean', label: 'Mean hourly WBGT', units: 'degC', combos: [...exposures], annual: 'hour-weighted-mean' },
+    { id: 'wbgt-max', label: 'Highest hourly WBGT', units: 'degC', combos: [...exposures], annual: 'max' },
     { id: 'air-temperature-mean', label: 'Mean air temperature', units: 'degC', combos: ['air'], annual: 'hour-weighted-mean' },
   ];
 }
@@ -58,7 +61,8 @@ export function figureDefs(evalKeys: string[]): FigureDef[] {
 export function yearFigures(yc: YearCounts, maxMissingHours: number): YearFigure[] {
   const nCells = yc.cells.length;
   const nE = yc.evalKeys.length;
-  return figureDefs(yc.evalKeys).map((def) => {
+  const nX = yc.exposures.length;
+  return figureDefs(yc.evalKeys, yc.exposures).map((def) => {
     const nC = def.combos.length;
     const v = new Float64Array(nCells * PERIODS * nC).fill(NaN);
     const valid = new Float64Array(PERIODS);
@@ -73,7 +77,7 @@ export function yearFigures(yc: YearCounts, maxMissingHours: number): YearFigure
         expected[m] = yc.expectedHours[m];
         validYear += hoursValid;
         expectedYear += yc.expectedHours[m];
-        for (let k = 0; k < nC; k++) v[(c * PERIODS + m) * nC + k] = monthValue(def.id, yc, cm, k, nE, hoursValid);
+        for (let k = 0; k < nC; k++) v[(c * PERIODS + m) * nC + k] = monthValue(def.id, yc, cm, k, nE, nX, hoursValid);
       }
       valid[ANNUAL] = validYear;
       expected[ANNUAL] = expectedYear;
@@ -101,7 +105,7 @@ export function yearFigures(yc: YearCounts, maxMissingHours: number): YearFigure
   });
 }
 
-function monthValue(id: string, yc: YearCounts, cm: number, k: number, nE: number, hours: number): number {
+function monthValue(id: string, yc: YearCounts, cm: number, k: number, nE: number, nX: number, hours: number): number {
   switch (id) {
     case 'hours-above-limit-shift':
       return yc.aboveShift[cm * nE + k];
@@ -112,12 +116,12 @@ function monthValue(id: string, yc: YearCounts, cm: number, k: number, nE: numbe
     case 'capacity-loss-shift': {
       const x = Math.floor(k / N_LOSS);
       const l = k % N_LOSS;
-      return yc.capacityLoss[(cm * N_EXPOSURES + x) * N_LOSS + l] / MILLI;
+      return yc.capacityLoss[(cm * nX + x) * N_LOSS + l] / MILLI;
     }
     case 'wbgt-mean':
-      return hours > 0 ? yc.wbgtSum[cm * 2 + k] / hours / CENTI : NaN;
+      return hours > 0 ? yc.wbgtSum[cm * nX + k] / hours / CENTI : NaN;
     case 'wbgt-max':
-      return hours > 0 ? yc.wbgtMax[cm * 2 + k] / CENTI : NaN;
+      return hours > 0 ? yc.wbgtMax[cm * nX + k] / CENTI : NaN;
     case 'air-temperature-mean':
       return hours > 0 ? yc.airSum[cm] / hours / CENTI : NaN;
     default:

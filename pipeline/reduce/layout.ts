@@ -14,7 +14,11 @@ import type { KjellstromIntensity } from '../work/capacity-loss.ts';
 export const MONTHS = 12;
 /** Local hours of the day. */
 export const HOURS = 24;
-/** Exposures counted in every partial: 0 = sun, 1 = shade. */
+/**
+ * Exposures of the WBGT histograms (and the first two of every partial's per-exposure counts):
+ * 0 = sun, 1 = shade. A build that counts the shelter exposure adds it as index 2 of the
+ * per-cell counts (sums, maxima, capacity loss; `ShardPartial.exposures`), not to the histograms.
+ */
 export const EXPOSURE_INDEX = { sun: 0, shade: 1 } as const;
 export const N_EXPOSURES = 2;
 

@@ -107,6 +107,9 @@ export class YearMerger {
     const first = (this.first ??= p);
     const out = (this.out ??= emptyYear(p, this.year, this.cells));
     if (p.year !== this.year) throw PartialsInconsistent({ detail: `partial ${label(pi)} is for year ${p.year}, not ${this.year}` });
+    if (p.exposures.join('|') !== first.exposures.join('|')) {
+      throw PartialsInconsistent({ detail: `partial ${label(pi)} counts the exposures ${p.exposures.join(', ')}, expected ${first.exposures.join(', ')}` });
+    }
     if (p.evalKeys.join('|') !== first.evalKeys.join('|')) {
       throw PartialsInconsistent({ detail: `partial ${label(pi)} evaluates ${p.evalKeys.join(', ')}, expected ${first.evalKeys.join(', ')}` });
     }
@@ -266,6 +269,7 @@ function emptyYear(p: ShardPartial, year: number, cells: Int32Array): YearCounts
     year,
     cells,
     evalKeys: [...p.evalKeys],
+    exposures: [...p.exposures],
     coveredHours: new Uint32Array(MONTHS),
     expectedHours: Uint32Array.from(p.expectedHours),
     validHours: make(p.validHours, Uint32Array),

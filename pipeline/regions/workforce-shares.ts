@@ -15,7 +15,8 @@
  *
  * From the table each region gets a profile: per evaluation (class × acclimatization × exposure)
  * the weight share × (a or 1 − a) × (s or 1 − s), so that hours per outdoor worker mix the
- * atlas's evaluations as the shares say. Pure: parsed records in, profiles out; every problem is a
+ * atlas's evaluations as the shares say. The table splits the workers between the sun and the
+ * shade only: an evaluation under a shelter (the opt-in exposure) has weight 0. Pure: parsed records in, profiles out; every problem is a
  * catalogued error naming the file and line.
  */
 import {
@@ -63,7 +64,8 @@ export interface ClassShare {
 export interface ShareEvaluation {
   workloadClass: string;
   acclimatization: 'acclimatized' | 'unacclimatized';
-  exposure: 'sun' | 'shade';
+  /** `shelter` evaluations get no people: the table splits the workers between sun and shade only. */
+  exposure: 'sun' | 'shade' | 'shelter';
 }
 
 /** What one region (or the default) uses. */
@@ -164,7 +166,7 @@ export function parseWorkforceShares(records: ReadonlyArray<readonly [number, re
       const w = new Float64Array(evaluations.length);
       evaluations.forEach((e, i) => {
         if (e.workloadClass !== c.workloadClass) return;
-        w[i] = c.share * (e.acclimatization === 'acclimatized' ? c.acclimatized : 1 - c.acclimatized) * (e.exposure === 'sun' ? c.sun : 1 - c.sun);
+        w[i] = c.share * (e.acclimatization === 'acclimatized' ? c.acclimatized : 1 - c.acclimatized) * (e.exposure === 'sun' ? c.sun : e.exposure === 'shade' ? 1 - c.sun : 0);
       });
       return w;
     });

@@ -1,14 +1,15 @@
 /**
  * Computes one task: a piece of a local year for a group of consecutive tiles (shards of the same
  * piece). The group's rows are read block by block, once, and every tile of the group takes its
- * land cells from the same block, runs the physics (WBGT in sun and shade) and adds every hour into
+ * land cells from the same block, runs the physics (WBGT in sun and shade, and under a shelter
+ * when an evaluation works there) and adds every hour into
  * its own partial. Reading once per group keeps the read cost per cell-hour independent of the
  * grid's width (a NetCDF-3 record or a NetCDF-4 chunk spans whole rows, often the whole grid).
  * Memory is bounded by one block of the group and the group's partials, never by the record.
  */
 import type { Dataset } from '../read/index.ts';
 import { computeHours, emptyCounts, addCounts, applyMonthlyChange, emptyChangeCounts, type ChangeCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
-import { allocLocalHours, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
+import { allocLocalHours, countedExposures, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
 import { accumulateBlock, createPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
 import type { PhysicsSettings } from '../physics/settings.ts';
 import type { CellChange } from '../scenario/cell-change.ts';
@@ -83,6 +84,8 @@ interface BlockBuffers {
   gSun: Float32Array;
   gShade: Float32Array;
   gAir: Float32Array;
+  /** The shelter's physics output and gathered array, when the build counts the shelter. */
+  shelter: { out: Float32Array; g: Float32Array } | undefined;
 }
 
 /**
@@ -93,11 +96,14 @@ let kept: BlockBuffers | undefined;
 
 function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
   const scratch = reuseScratch(kept?.scratch, n, evaluations);
+  const mk = () => new Float32Array(n);
+  const withShelter = countedExposures(evaluations).includes('shelter');
   if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours) {
     kept.scratch = scratch;
+    if (!withShelter) kept.shelter = undefined;
+    else if (kept.shelter === undefined || kept.shelter.g.length < n) kept.shelter = { out: mk(), g: mk() };
     return kept;
   }
-  const mk = () => new Float32Array(n);
   kept = {
     scratch,
     local: allocLocalHours(blockHours),
@@ -106,6 +112,7 @@ function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkE
     gSun: mk(),
     gShade: mk(),
     gAir: mk(),
+    shelter: withShelter ? { out: mk(), g: mk() } : undefined,
   };
   return kept;
 }
@@ -264,6 +271,8 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
       windSpeed: inp.wind.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
       cosZenith: out.cosZenith.subarray(a, e), directFraction: out.directFraction.subarray(a, e), solar: out.solar.subarray(a, e),
       wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
+      // The shelter pass runs in the JavaScript kernel (the WebAssembly kernel has no shelter pass).
+      wbgtShelter: buf.shelter?.out.subarray(a, e),
       status: out.status.subarray(a, e),
     };
     addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
@@ -281,12 +290,16 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
         gSun[dst + k] = out.wbgtSun[src + k];
         gShade[dst + k] = out.wbgtShade[src + k];
       }
+      if (buf.shelter !== undefined) {
+        const { out: so, g } = buf.shelter;
+        for (let k = 0; k < nr; k++) g[dst + k] = so[src + k];
+      }
       if (changed) for (let k = 0; k < nr; k++) gAir[dst + k] = inp.air[src + k];
     }
   }
   accumulateBlock(
     tile.partial,
-    { nHours: nt, wbgtSun: gSun.subarray(0, nt * nLand), wbgtShade: gShade.subarray(0, nt * nLand), airTemperature: gAir.subarray(0, nt * nLand), local },
+    { nHours: nt, wbgtSun: gSun.subarray(0, nt * nLand), wbgtShade: gShade.subarray(0, nt * nLand), wbgtShelter: buf.shelter?.g.subarray(0, nt * nLand), airTemperature: gAir.subarray(0, nt * nLand), local },
     ctx.evaluations,
     scratch,
   );

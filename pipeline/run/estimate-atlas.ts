@@ -32,7 +32,7 @@ const manifestPartSchema = z.object({
       limitModel: z.enum(['curve-2017', 'table-1989']),
       airMovement: z.boolean(),
       acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
-      exposures: z.array(z.enum(['sun', 'shade'])).min(1),
+      exposures: z.array(z.enum(['sun', 'shade', 'shelter'])).min(1),
       restLocation: z.enum(['same-place', 'shade']),
       clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
       shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),

@@ -35,6 +35,13 @@ const BLOCK_FIELDS = 12;
 const TILE_ARRAYS = 19;
 /** Per-cell-month counts of a partial besides the histograms: evaluations × 3 + exposures × losses + 8 [uint32/float64] [B per cell-month per evaluation] */
 const COUNTS_PER_CELL_MONTH = (nEval: number) => (3 * nEval + 8 + 12) * 4;
+/**
+ * What the sheltered exposure adds (pipeline/work/work-settings.ts countedExposures): per cell-hour
+ * its physics output and gathered array (2 float32), per cell-month its capacity-loss views, WBGT
+ * sum and maximum [B].
+ */
+const SHELTER_TILE_ARRAYS = 2;
+const SHELTER_PER_CELL_MONTH = (4 + 2) * 4;
 
 export interface MemoryInput {
   budget: number;
@@ -47,6 +54,8 @@ export interface MemoryInput {
   years: number;
   monthsPerPiece: number;
   evaluations: number;
+  /** Exposures the partials count: 2 (sun, shade) or 3 with the shelter (default 2) [–]. */
+  exposures?: number;
   /** Combinations summed over all figures (fields per cell and period) [–]. */
   combos: number;
   /** Gridded fields per cell (grid-fields.ts) [–]. */
@@ -87,9 +96,10 @@ export interface MemoryPlan {
  * computing `variants` weathers (the record, scenarios) from one read [B].
  */
 export function computeTaskBytes(land: number, rows: number, maxTile: number, m: MemoryInput, blockHours: number, variants = 1): number {
-  const partials = variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * COUNTS_PER_CELL_MONTH(m.evaluations));
+  const shelter = (m.exposures ?? 2) > 2;
+  const partials = variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * (COUNTS_PER_CELL_MONTH(m.evaluations) + (shelter ? SHELTER_PER_CELL_MONTH : 0)));
   const block = rows * m.nLon * blockHours * BLOCK_FIELDS * 4;
-  const tile = maxTile * blockHours * TILE_ARRAYS * 4;
+  const tile = maxTile * blockHours * (TILE_ARRAYS + (shelter ? SHELTER_TILE_ARRAYS : 0)) * 4;
   return partials + block + tile;
 }
 

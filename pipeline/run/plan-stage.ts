@@ -11,7 +11,7 @@ import { createHash } from 'node:crypto';
 import { parseYamlStrict, type ResolvedConfig } from '../config/load.ts';
 import { ConfigSyntax } from '../config/errors.ts';
 import { openDataset, type Dataset } from '../read/index.ts';
-import { parseWorkloadClasses, resolveWorkSettings, type ResolvedWork } from '../work/index.ts';
+import { countedExposures, parseWorkloadClasses, resolveWorkSettings, type ResolvedWork } from '../work/index.ts';
 import { parseRegionFile, checkUniqueRegionIds, allRegionCellWeights, applyLandMask, type CellWeights, type Region } from '../regions/index.ts';
 import type { RegionTileCells } from '../regions/region-sums.ts';
 import { figureDefs, type FigureDef } from '../reduce/figures.ts';
@@ -214,7 +214,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
 
     // What fits the memory budget.
-    const defs = figureDefs(work.evaluations.map((e) => e.key));
+    const defs = figureDefs(work.evaluations.map((e) => e.key), countedExposures(work.evaluations));
     if (workforce) defs.push(workforce.densityDef);
     const fields = gridFields(defs);
     const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
@@ -228,6 +228,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       years: years.length,
       monthsPerPiece: cfg.shards.monthsPerPiece,
       evaluations: work.evaluations.length,
+      exposures: countedExposures(work.evaluations).length,
       combos: defs.reduce((s, d) => s + d.combos.length, 0),
       gridFields: fields.length,
       blocks,

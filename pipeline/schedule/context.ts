@@ -114,7 +114,8 @@ export interface EstimateContextParts {
 /**
  * The estimate's context from the atlas's files, the same for the page (src/data/estimate.ts) and
  * the CLI (pipeline/run/estimate-atlas.ts). Defaults: the class `moderate` when the atlas has it,
- * else its first; the first acclimatization state and exposure of the atlas.
+ * else its first; the first acclimatization state of the atlas and its first exposure the
+ * histograms hold (sun or shade: the calculator's histograms have no shelter).
  */
 export function makeEstimateContext(p: EstimateContextParts): EstimateContext {
   const m = p.manifest;
@@ -130,7 +131,7 @@ export function makeEstimateContext(p: EstimateContextParts): EstimateContext {
     classes: w.classes.map((c) => ({ id: c.id, name: c.name, metabolicRate: c.metabolicRate, description: c.description })),
     limitModel: w.limitModel,
     airMovement: w.airMovement,
-    defaults: { classId, acclimatization: w.acclimatization[0], exposure: w.exposures[0], restLocation: w.restLocation, clothing, shift: p.shift },
+    defaults: { classId, acclimatization: w.acclimatization[0], exposure: w.exposures.find((x) => x !== 'shelter') ?? 'sun', restLocation: w.restLocation, clothing, shift: p.shift },
     regions: p.calculator.regions.map((r) => ({ id: r.id, name: r.name, path: r.path })),
     cells: p.cells ? { grid: p.cells.grid, chunks: p.cells.chunks.map((c) => ({ path: c.path, firstCell: c.firstCell, lastCell: c.lastCell })) } : null,
     build: { title: m.atlas.title, buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, inputs: m.inputs.length },

@@ -7,11 +7,11 @@
  * share one exponential per hour. Same formula and constants as work-fraction.ts (its kernel
  * constants c0, c1 are reused, not restated); tests check the two agree.
  */
-import type { WorkEvaluation } from './work-settings.ts';
+import type { Exposure, WorkEvaluation } from './work-settings.ts';
 
 /** Evaluations sharing acclimatization, exposure and clothing. */
 export interface EvaluationGroup {
-  exposure: 'sun' | 'shade';
+  exposure: Exposure;
   /** Clothing adjustment [°C-WBGT]. */
   cav: number;
   /** `M_lim = exp(c0 − c1·WBGT_eff)` [W]. */

@@ -15,9 +15,23 @@ import { DEFAULT_SHIFT, validateShift, type WorkShift } from './shifts.ts';
 import { prepareWorkKernel, workFractionInto, type WorkKernel } from './work-fraction.ts';
 import { selectWorkloadClasses, type RestState, type WorkloadClass, type WorkloadClasses } from './workload-classes.ts';
 
-/** Where the work is done: in the sun (WBGT with solar load) or in the shade. */
-export type Exposure = 'sun' | 'shade';
-export const EXPOSURES: readonly Exposure[] = ['sun', 'shade'];
+/**
+ * Where the work is done: in the sun (WBGT with solar load), in the shade (the open sky with the
+ * sun removed) or under a shelter (a roof or canopy, a black shelter at the air temperature,
+ * docs/methods.md §6). The shelter is opt-in (`work.exposures`).
+ */
+export type Exposure = 'sun' | 'shade' | 'shelter';
+export const EXPOSURES: readonly Exposure[] = ['sun', 'shade', 'shelter'];
+
+/**
+ * The exposures whose WBGT a build counts (sums, maxima, capacity loss) in this order, the index
+ * `x` of the per-exposure arrays: sun and shade always (the shade is the rest place of
+ * `restLocation: shade` and the sun and shade are the histograms' exposures), the shelter when an
+ * evaluation works under it.
+ */
+export function countedExposures(evaluations: readonly { exposure: Exposure }[]): Exposure[] {
+  return evaluations.some((e) => e.exposure === 'shelter') ? ['sun', 'shade', 'shelter'] : ['sun', 'shade'];
+}
 /** Where breaks are taken: where the work is, or in the shade. */
 export type RestLocation = 'same-place' | 'shade';
 
@@ -44,8 +58,8 @@ export const workSettingsSchema = z
       'acclimatized',
       'unacclimatized',
     ]),
-    /** Exposures to compute. */
-    exposures: uniqueList(z.enum(['sun', 'shade'])).default(['sun', 'shade']),
+    /** Exposures to compute; `shelter` (under a roof or canopy) is opt-in. */
+    exposures: uniqueList(z.enum(EXPOSURES as [Exposure, ...Exposure[]])).default(['sun', 'shade']),
     /** Where breaks are taken. `shade` means: in the shade WBGT of the same cell and hour. */
     restLocation: z.enum(['same-place', 'shade']).default('same-place'),
     /** Clothing: an ensemble of pipeline/work/clothing.ts (+ hood), or a value `cav` [°C-WBGT]. */
@@ -149,10 +163,19 @@ export function resolveWorkSettings(settings: WorkSettings, all: WorkloadClasses
 
 /**
  * Work fraction [0–1] of one evaluation for a block of cell-hours: picks the work WBGT by exposure
- * (`wbgtSun` or `wbgtShade` [°C]) and the rest WBGT by the rest place, then runs
- * {@link workFractionInto}. Above the limit ⇔ out[i] < 1. No allocation.
+ * (`wbgtSun`, `wbgtShade` or `wbgtShelter` [°C]) and the rest WBGT by the rest place, then runs
+ * {@link workFractionInto}. Above the limit ⇔ out[i] < 1. No allocation. A RangeError when a
+ * shelter evaluation is given no shelter WBGT.
  */
-export function evaluationFractionInto(out: Float32Array, wbgtSun: Float32Array, wbgtShade: Float32Array, e: WorkEvaluation): Float32Array {
-  const work = e.exposure === 'sun' ? wbgtSun : wbgtShade;
+export function evaluationFractionInto(out: Float32Array, wbgtSun: Float32Array, wbgtShade: Float32Array, e: WorkEvaluation, wbgtShelter?: Float32Array): Float32Array {
+  const work = exposureWbgt(e.exposure, wbgtSun, wbgtShade, wbgtShelter);
   return workFractionInto(out, work, e.restWbgt === 'shade' ? wbgtShade : null, e.kernel);
+}
+
+/** The WBGT array of an exposure [°C]; a RangeError for the shelter without its array. */
+export function exposureWbgt(x: Exposure, wbgtSun: Float32Array, wbgtShade: Float32Array, wbgtShelter: Float32Array | undefined): Float32Array {
+  if (x === 'sun') return wbgtSun;
+  if (x === 'shade') return wbgtShade;
+  if (wbgtShelter === undefined) throw new RangeError('a shelter evaluation needs the shelter WBGT (wbgtShelter)');
+  return wbgtShelter;
 }

@@ -34,7 +34,7 @@ export const MAP_FIGURE_LABELS: Readonly<Record<string, string>> = {
 };
 
 export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclimatized: 'Acclimatized', unacclimatized: 'Not acclimatized' };
-export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade (open sky, sun removed)' };
+export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade (open sky, sun removed)', shelter: 'Under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)' };
 export const STATISTIC_LABELS: Readonly<Record<string, string>> = {
   mean: 'Mean year',
   baseline: 'Baseline mean',
