@@ -1,7 +1,8 @@
 /**
  * The downloads page's grouping of the manifest: tables, map layers by figure and combination
- * (each with its GeoTIFF and PNG), and every other file, so that every artefact of the manifest
- * is listed exactly once. Pure: manifest in, groups out.
+ * (each with its GeoTIFF and PNG), every other file, and each scenario's files (its layers grouped
+ * the same way, its other files in one list), so that every artefact of the manifest is listed
+ * exactly once. Pure: manifest in, groups out.
  */
 import type { SiteManifest, ManifestArtefact, ManifestLayer } from '../data/manifest.ts';
 import { comboLabel, periodOrder } from './layer-labels.ts';
@@ -33,28 +34,45 @@ export interface FigureGroup {
   bytes: number;
 }
 
+/** One scenario's files (everything under its `data/scenarios/<id>/`), folded on the page as one group. */
+export interface ScenarioDownloads {
+  id: string;
+  name: string;
+  /** The scenario in words (manifest `scenarios[].words`): its kind, what it changes, its source. */
+  kind: string;
+  what: string;
+  source: string;
+  /** Its layers, grouped by figure and combination like the baseline's. */
+  figures: FigureGroup[];
+  /** Its other files (tables, indexes, tiles), in manifest order. */
+  files: ManifestArtefact[];
+  layerCount: number;
+  /** Size of all its files [bytes]. */
+  bytes: number;
+}
+
 export interface DownloadGroups {
   tables: ManifestArtefact[];
   figures: FigureGroup[];
-  /** Every artefact that is neither a table nor a layer's GeoTIFF or PNG. */
+  /** Every artefact that is neither a table nor a layer's GeoTIFF or PNG, nor a scenario's file. */
   others: ManifestArtefact[];
+  /** One group per scenario of the manifest, in its order (empty without scenarios). */
+  scenarios: ScenarioDownloads[];
   totalBytes: number;
 }
 
 const STAT_ORDER = ['mean', 'median', 'p90', 'baseline', 'class'];
 const byStat = (a: string, b: string) => (STAT_ORDER.indexOf(a) + 99 * Number(!STAT_ORDER.includes(a))) - (STAT_ORDER.indexOf(b) + 99 * Number(!STAT_ORDER.includes(b))) || a.localeCompare(b);
 
-/** Groups the manifest for the downloads page (see the file comment). */
-export function downloadGroups(m: SiteManifest): DownloadGroups {
-  const byPath = new Map(m.artefacts.map((a) => [a.path, a]));
-  const used = new Set<string>();
+/** The layers `layers` grouped by figure and combination; their files are marked in `used`. */
+function figureGroups(m: SiteManifest, layers: readonly ManifestLayer[], byPath: ReadonlyMap<string, ManifestArtefact>, used: Set<string>): FigureGroup[] {
   const figureLabels = new Map(m.figures.map((f) => [f.id, f]));
   const comboOrder = new Map(m.figures.map((f) => [f.id, f.combos]));
   const figures = new Map<string, FigureGroup>();
-  for (const layer of m.layers) {
+  for (const layer of layers) {
     const tif = byPath.get(layer.tif);
     const png = byPath.get(layer.png);
-    if (!tif || !png) continue; // the manifest schema refuses this; kept for the types
+    if (!tif || !png) continue; // the manifest schema refuses this for the baseline; kept for the types
     used.add(tif.path);
     used.add(png.path);
     let fig = figures.get(layer.figure);
@@ -84,11 +102,37 @@ export function downloadGroups(m: SiteManifest): DownloadGroups {
     }
   }
   const figOrder = m.figures.map((f) => f.id);
-  const figureList = [...figures.values()].sort((a, b) => (figOrder.indexOf(a.id) + 1 || 1e9) - (figOrder.indexOf(b.id) + 1 || 1e9) || a.id.localeCompare(b.id));
+  return [...figures.values()].sort((a, b) => (figOrder.indexOf(a.id) + 1 || 1e9) - (figOrder.indexOf(b.id) + 1 || 1e9) || a.id.localeCompare(b.id));
+}
+
+/** Groups the manifest for the downloads page (see the file comment). */
+export function downloadGroups(m: SiteManifest): DownloadGroups {
+  const byPath = new Map(m.artefacts.map((a) => [a.path, a]));
+  const used = new Set<string>();
+  // Each scenario's files first: its layers like the baseline's, the rest of its folder as one list.
+  const scenarios: ScenarioDownloads[] = (m.scenarios ?? []).map((sc) => {
+    const figures = figureGroups(m, sc.layers, byPath, used);
+    const prefix = sc.dataPath.endsWith('/') ? sc.dataPath : `${sc.dataPath}/`;
+    const files = m.artefacts.filter((a) => a.path.startsWith(prefix) && !used.has(a.path));
+    for (const f of files) used.add(f.path);
+    const layerBytes = figures.reduce((n, f) => n + f.bytes, 0);
+    return {
+      id: sc.id,
+      name: sc.name,
+      kind: sc.words.kind,
+      what: sc.words.what,
+      source: sc.words.source,
+      figures,
+      files,
+      layerCount: figures.reduce((n, f) => n + f.layerCount, 0),
+      bytes: layerBytes + files.reduce((n, a) => n + a.bytes, 0),
+    };
+  });
+  const figureList = figureGroups(m, m.layers, byPath, used);
   const tables = m.artefacts.filter((a) => a.kind === 'table' && !used.has(a.path));
   for (const t of tables) used.add(t.path);
   const others = m.artefacts.filter((a) => !used.has(a.path));
-  return { tables, figures: figureList, others, totalBytes: m.artefacts.reduce((s, a) => s + a.bytes, 0) };
+  return { tables, figures: figureList, others, scenarios, totalBytes: m.artefacts.reduce((s, a) => s + a.bytes, 0) };
 }
 
 /** The region id of a per-region file (`data/regions/<id>.csv`, `data/calculator/<id>.bin`), or undefined. */
