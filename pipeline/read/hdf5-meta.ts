@@ -22,7 +22,8 @@ export function setHdf5MetadataTimeout(ms: number): void {
 
 let worker: { w: Worker; ready: Promise<void> } | undefined;
 let nextId = 1;
-const pending = new Map<number, (a: MetaAnswer) => void>();
+/** Requests waiting for an answer; `'lost'` when their worker died on another request. */
+const pending = new Map<number, (a: MetaAnswer | 'lost') => void>();
 
 function start(): { w: Worker; ready: Promise<void> } {
   const w = startWorker('hdf5-meta');
@@ -35,32 +36,37 @@ function start(): { w: Worker; ready: Promise<void> } {
     });
     w.on('error', (e: Error) => {
       reject(e);
-      fail(w, `the metadata worker failed: ${e.message}`);
+      lost(w);
     });
-    w.on('exit', () => fail(w, 'the metadata worker stopped'));
+    w.on('exit', () => lost(w));
   });
   // Idle, the worker does not keep the process alive (ask() holds it while a request waits).
   w.unref();
   return { w, ready };
 }
 
-/** Ends every request still waiting on worker `w` (it died). */
-function fail(w: Worker, why: string): void {
-  if (worker?.w !== w) return;
-  worker = undefined;
-  for (const [id, done] of pending) done({ id, ok: false, reason: why, printed: '', stopped: true });
-  pending.clear();
+/**
+ * Ends every request still waiting on worker `w` (it died): each is asked again once on a new
+ * worker (ask), since the request that stopped the worker has had its own answer already.
+ */
+function lost(w: Worker): void {
+  if (worker?.w === w) worker = undefined;
+  for (const [id, done] of pending) if (owner.get(id) === w) done('lost');
 }
 
-async function ask(req: MetaQuery, what: string): Promise<unknown> {
+/** The worker each waiting request was sent to. */
+const owner = new Map<number, Worker>();
+
+/** Sends one request; the answer, `'timeout'`, or `'lost'` when the worker died meanwhile. */
+async function send(req: MetaQuery): Promise<MetaAnswer | 'timeout' | 'lost'> {
   worker ??= start();
   const { w, ready } = worker;
   const id = nextId++;
-  const seconds = Math.round(timeoutMs / 100) / 10;
   let timer: NodeJS.Timeout | undefined;
   w.ref();
-  const answer = await new Promise<MetaAnswer | 'timeout'>((resolve, reject) => {
+  const answer = await new Promise<MetaAnswer | 'timeout' | 'lost'>((resolve, reject) => {
     pending.set(id, resolve);
+    owner.set(id, w);
     // The limit runs from the request, not from the worker's start (seconds on a busy machine).
     ready.then(() => {
       timer = setTimeout(() => resolve('timeout'), timeoutMs);
@@ -68,15 +74,28 @@ async function ask(req: MetaQuery, what: string): Promise<unknown> {
     }, reject);
   }).finally(() => {
     clearTimeout(timer);
-    if (pending.size === 0) w.unref();
+    pending.delete(id);
+    owner.delete(id);
+    if (![...owner.values()].includes(w)) w.unref();
   });
   if (answer === 'timeout') {
-    pending.delete(id);
     if (worker?.w === w) worker = undefined;
     await w.terminate();
-    throw NetcdfReadStuck({ path: req.path, what, seconds }, { file: req.path });
+  } else if (answer !== 'lost' && !answer.ok && answer.stopped && worker?.w === w) {
+    // HDF5 aborted in the worker, which ends after this answer: the next request must not be
+    // sent to it (it would be lost on its way out).
+    worker = undefined;
   }
+  return answer;
+}
+
+async function ask(req: MetaQuery, what: string): Promise<unknown> {
+  let answer = await send(req);
+  // The worker died on another request while this one waited: once more on a new worker.
+  if (answer === 'lost') answer = await send(req);
   const where = req.op === 'strings' ? { file: req.path, variable: req.variable } : { file: req.path };
+  if (answer === 'timeout') throw NetcdfReadStuck({ path: req.path, what, seconds: Math.round(timeoutMs / 100) / 10 }, { file: req.path });
+  if (answer === 'lost') throw NetcdfReadFailed({ path: req.path, detail: `${what}: the metadata worker stopped twice while this file waited` }, where);
   if (!answer.ok) throw NetcdfReadFailed({ path: req.path, detail: `${what}: ${answer.reason}` }, where, answer.printed || undefined);
   return answer.result;
 }

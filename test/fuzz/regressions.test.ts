@@ -11,7 +11,7 @@ import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
-import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { describeNetcdf4, readNetcdf4Strings, setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { parseConfig } from '../../pipeline/config/load.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
@@ -88,6 +88,22 @@ describe('NetCDF-4 (HDF5) damage', () => {
     } finally {
       setHdf5MetadataTimeout(30_000);
     }
+  });
+
+  it('a text label longer than its object in the global heap (was: HDF5 aborted in the metadata worker and the file asked about next was reported unreadable) is NetcdfReadFailed naming the file and expver; the next file reads', async () => {
+    const f = join(FX, 'netcdf4-text-length-mismatch.nc');
+    const sound = join(FX, 'netcdf4-text-length-mismatch-sound.nc');
+    // Debian's ncdump (netCDF-C over native HDF5) prints the labels of both files: the damage is
+    // found by the HDF5 build inside h5wasm, which checks the object's size and aborts.
+    expect(spawnSync('ncdump', ['-v', 'expver', sound], { encoding: 'utf8' }).stdout).toMatch(/expver = "0001", "0005" ;/);
+    const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'], digests: false }), 'NetcdfReadFailed', /reading the text of variable expver: .*Aborted[\s\S]*object size does not match/);
+    expect(e.where).toMatchObject({ file: f, variable: 'expver' });
+    // Asked right after (the worker that aborted is still on its way out): a new worker answers.
+    expect((await describeNetcdf4(sound)).variables.map((v) => v.name)).toContain('expver');
+    // Asked in the same moment: the request queued behind the aborting one is asked again.
+    const [bad, good] = await Promise.allSettled([readNetcdf4Strings(f, 'expver', [2]), readNetcdf4Strings(sound, 'expver', [2])]);
+    expect(bad.status === 'rejected' && (bad.reason as { code?: string }).code).toBe('NetcdfReadFailed');
+    expect(good).toEqual({ status: 'fulfilled', value: ['0001', '0005'] });
   });
 });
 
