@@ -6,6 +6,7 @@
  * `NetcdfReadStuck`; the next request starts a new worker. One worker per thread, started on
  * first use, not keeping the process alive when idle.
  */
+import { statSync } from 'node:fs';
 import type { Worker } from 'node:worker_threads';
 import { startWorker } from '../infra/worker-pool.ts';
 import { NetcdfNotNetcdf4, NetcdfReadFailed, NetcdfReadStuck } from './errors.ts';
@@ -89,12 +90,39 @@ async function send(req: MetaQuery): Promise<MetaAnswer | 'timeout' | 'lost'> {
   return answer;
 }
 
+/**
+ * Requests that ran out of time, by file (path, size, modification time), request and variable:
+ * asking again about the same unchanged file would only loop again until the limit, so it fails
+ * at once. The oldest are forgotten beyond {@link STUCK_KEPT} (memory stays bounded).
+ */
+const stuck = new Map<string, number>();
+const STUCK_KEPT = 256;
+
+function stuckKey(req: MetaQuery): string | undefined {
+  try {
+    const st = statSync(req.path);
+    return `${req.op}\0${req.op === 'strings' ? req.variable : ''}\0${st.size}\0${st.mtimeMs}\0${req.path}`;
+  } catch {
+    return undefined; // gone: the worker's own open says why
+  }
+}
+
 async function ask(req: MetaQuery, what: string): Promise<unknown> {
+  const key = stuckKey(req);
+  const limit = key === undefined ? undefined : stuck.get(key);
+  if (limit !== undefined) throw NetcdfReadStuck({ path: req.path, what, seconds: limit, again: true }, { file: req.path });
   let answer = await send(req);
   // The worker died on another request while this one waited: once more on a new worker.
   if (answer === 'lost') answer = await send(req);
   const where = req.op === 'strings' ? { file: req.path, variable: req.variable } : { file: req.path };
-  if (answer === 'timeout') throw NetcdfReadStuck({ path: req.path, what, seconds: Math.round(timeoutMs / 100) / 10 }, { file: req.path });
+  if (answer === 'timeout') {
+    const seconds = Math.round(timeoutMs / 100) / 10;
+    if (key !== undefined) {
+      stuck.set(key, seconds);
+      if (stuck.size > STUCK_KEPT) stuck.delete(stuck.keys().next().value as string);
+    }
+    throw NetcdfReadStuck({ path: req.path, what, seconds }, { file: req.path });
+  }
   if (answer === 'lost') throw NetcdfReadFailed({ path: req.path, detail: `${what}: the metadata worker stopped twice while this file waited` }, where);
   if (!answer.ok) throw NetcdfReadFailed({ path: req.path, detail: `${what}: ${answer.reason}` }, where, answer.printed || undefined);
   return answer.result;

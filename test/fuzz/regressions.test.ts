@@ -7,7 +7,7 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, readdirSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
@@ -73,19 +73,32 @@ describe('NetCDF-4 (HDF5) damage', () => {
     expect(verbose.stderr).toMatch(/details:\n {4}HDF5-DIAG: Error detected[\s\S]*minor:/);
   });
 
-  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, and the next file reads', async () => {
+  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, the next file reads, and the same unchanged file fails at once', async () => {
     const f = join(FX, 'netcdf4-global-heap-empty-free-space.nc');
     const nc = spawnSync('ncdump', ['-h', f], { timeout: 5_000, stdio: 'ignore' });
     expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
     setHdf5MetadataTimeout(3_000);
+    const copy = join(out, 'stuck.nc');
+    copyFileSync(f, copy);
     try {
       const t0 = performance.now();
-      await expectCataloguedAsync(inspectFile(f), 'NetcdfReadStuck', /did not finish within 3 s/);
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s; the HDF5/);
       expect(performance.now() - t0).toBeLessThan(20_000);
       // A sound file right after: the metadata worker was replaced.
       const ok = await inspectFile(join(FX, 'netcdf4-object-header-bit-flip.nc')).catch((e) => e);
       expect(ok.code).toBe('NetcdfReadFailed');
+      // The same unchanged file again (as `build` opens it after `inspect`): at once, not after
+      // another 3 s of looping.
+      const t1 = performance.now();
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s earlier in this run, and the file has not changed since/);
+      expect(performance.now() - t1).toBeLessThan(1_500);
+      // Changed (here only its time stamp): asked again, and HDF5 loops again.
+      utimesSync(copy, new Date(), new Date(Date.now() + 60_000));
+      const t2 = performance.now();
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s; the HDF5/);
+      expect(performance.now() - t2).toBeGreaterThanOrEqual(2_900);
     } finally {
+      rmSync(copy, { force: true });
       setHdf5MetadataTimeout(30_000);
     }
   });
