@@ -13,6 +13,7 @@ import { makeMutant, type Base, type FormatId } from './mutate.ts';
 import { classify, GOOD, worst, type StepResult } from './outcome.ts';
 import { stepsFor, type Depth } from './targets.ts';
 import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { hdf5StoppedIn } from '../../pipeline/read/hdf5-file.ts';
 
 /**
  * The reader's time limit for NetCDF-4 metadata [ms], lowered from its default so that a mutant
@@ -100,8 +101,9 @@ async function handle(t: FuzzTask): Promise<void> {
   const outcome = worst(steps.map((r) => r.outcome));
   if (GOOD.has(outcome)) rmSync(path, { force: true });
   // After HDF5 aborted in this thread its instance is gone (the reader says so for every later
-  // file): ask for a fresh worker, so later mutants are not judged by this one.
-  const restart = steps.some((r) => /library stopped|Aborted\(/.test(r.message ?? ''));
+  // file): ask for a fresh worker, so later mutants are not judged by this one. An abort in the
+  // reader's metadata worker does not count (the reader replaces that worker itself).
+  const restart = hdf5StoppedIn() !== '';
   parentPort!.postMessage({ done: { ...t, path, recipe: m.recipe, outcome, steps, ms: performance.now() - t0 }, restart });
 }
 
