@@ -7,10 +7,11 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, mkdtempSync, readFileSync, readdirSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, readdirSync, rmSync, truncateSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
+import { parseClassicHeader } from '../../pipeline/read/classic-header.ts';
 import { describeNetcdf4, readNetcdf4Strings, setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { parseConfig } from '../../pipeline/config/load.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
@@ -46,6 +47,51 @@ describe('NetCDF-3 header damage', () => {
     const f = join(FX, 'classic-name-length-beyond-file.nc');
     expect(ncdumpRefuses(f)).toBe(true);
     await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /is 32767 bytes long \(1 to 256 allowed\)/);
+  });
+
+  it('an attribute whose count has a flipped bit (was: megabytes read as its value, then an error about the bytes after it) is NetcdfHeaderInvalid naming that attribute, read no further', async () => {
+    const f = join(FX, 'classic-attribute-length-bit-flip.nc');
+    expect(ncdumpRefuses(f)).toBe(true);
+    await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values, more than the file holds \(header byte 92\)/);
+    // Padded with zeros to 3 MiB, the file could hold the 2 MiB the count claims: the cap on an
+    // attribute's size names it (before: "the name of attribute 2 of the file is 0 bytes long
+    // (header byte 2097256)", after reading 2 MiB of data as its value).
+    const padded = join(out, 'padded.nc');
+    copyFileSync(f, padded);
+    truncateSync(padded, 3 << 20);
+    try {
+      expect(ncdumpRefuses(padded)).toBe(true);
+      await expectCataloguedAsync(inspectFile(padded), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values \(2097158 bytes\), more than the 1 MiB an attribute may hold: its length is damaged \(header byte 92\)/);
+    } finally {
+      rmSync(padded);
+    }
+  });
+
+  it('a header of many attributes, each under the cap, that would run past 16 MiB is NetcdfHeaderInvalid, not read whole', () => {
+    // CDF-1, no records, no dimensions, 20 global byte attributes of 1,000,000 values each, no
+    // variables (the grammar of the NetCDF classic format specification).
+    const n = 20;
+    const each = 4 + 4 + 4 + 4 + 1_000_000; // name length, name "aNN" padded, type, count, values (a multiple of 4)
+    const head = new Uint8Array(4 + 4 + 8 + 8 + n * each + 8);
+    const v = new DataView(head.buffer);
+    head.set([0x43, 0x44, 0x46, 1]);
+    let p = 16;
+    v.setUint32(p, 12);
+    v.setUint32(p + 4, n);
+    p += 8;
+    for (let i = 0; i < n; i++) {
+      v.setUint32(p, 3);
+      head.set([0x61, 0x30 + Math.floor(i / 10), 0x30 + (i % 10)], p + 4);
+      v.setUint32(p + 8, 1);
+      v.setUint32(p + 12, 1_000_000);
+      p += each;
+    }
+    expectCatalogued(() => parseClassicHeader(head, head.length, 'many-attributes.nc'), 'NetcdfHeaderInvalid', /attribute a16 of the file would end the header after 17000\d+ bytes, beyond the 16 MiB a header may take/);
+    // 16 of them (16 MB, under 16 MiB) are a header like any other.
+    const sixteen = head.slice(0, 24 + 16 * each + 8);
+    new DataView(sixteen.buffer).setUint32(20, 16);
+    sixteen.fill(0, sixteen.length - 8); // the variable list: absent
+    expect(parseClassicHeader(sixteen, sixteen.length, 'sixteen-attributes.nc').globalAttributes).toHaveLength(16);
   });
 
   it('a time value beyond any date (was: RangeError) is NetcdfTimeValueInvalid at the file and time variable; inspect lists it as the axis\'s problem', async () => {
