@@ -9,7 +9,8 @@
  * Options: --format (repeatable, default every format), --count (default 300), --seed (default
  * 1, the benchmark's), --workers (default 1), --depth full|quick (default full, the
  * benchmark's), --top (default 10), --dir (default a folder under the system's temporary one,
- * kept: mutants with a defect stay there).
+ * kept: the bases and the mutants with a defect stay there), --mutants (the mutants' folder,
+ * default DIR/mutants; e.g. one under /dev/shm).
  */
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -35,6 +36,7 @@ async function main(): Promise<void> {
       depth: { type: 'string' },
       top: { type: 'string' },
       dir: { type: 'string' },
+      mutants: { type: 'string' },
     },
   });
   const formats = (values.format ?? FORMATS) as FormatId[];
@@ -52,8 +54,13 @@ async function main(): Promise<void> {
   const dir = values.dir ?? join(tmpdir(), 'heathours-fuzz-profile');
   for (const format of formats) {
     const results: TaskResult[] = [];
+    let starts = 0;
     const cpu0 = process.cpuUsage();
-    const { summaries, poolSeconds: seconds } = await runCampaign({ count, seed, workers, timeoutMs: 60_000, dir, formats: [format], depth, onResult: (r) => results.push(r) });
+    const { summaries, poolSeconds: seconds } = await runCampaign({
+      count, seed, workers, timeoutMs: 60_000, dir, mutantDir: values.mutants, formats: [format], depth,
+      onResult: (r) => results.push(r),
+      onWorkerStart: () => starts++,
+    });
     const cpu = process.cpuUsage(cpu0);
     const s = summaries[0];
     const ms = results.map((r) => r.ms).sort((a, b) => a - b);
@@ -62,7 +69,7 @@ async function main(): Promise<void> {
       `\n${format}: ${s.mutants} mutants in ${seconds.toFixed(1)} s wall, bases aside (${(s.mutants / seconds).toFixed(2)} mutants/s, ${workers} worker(s), depth ${depth}, seed ${seed}); ` +
         `process CPU ${((cpu.user + cpu.system) / 1e6).toFixed(1)} s\n` +
         `  per mutant [ms]: median ${quantile(ms, 0.5).toFixed(0)}, p90 ${quantile(ms, 0.9).toFixed(0)}, p99 ${quantile(ms, 0.99).toFixed(0)}, slowest ${quantile(ms, 1).toFixed(0)}\n` +
-        `  outcomes: ${counts}\n`,
+        `  outcomes: ${counts}; fuzz worker threads started: ${starts}\n`,
     );
     // Where the time went: each step's total by outcome, and what the mutant times do not hold
     // (making and writing mutants, starting workers again, waiting for a worker) [s].

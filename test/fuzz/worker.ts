@@ -14,12 +14,8 @@ import { classify, GOOD, worst, type StepResult } from './outcome.ts';
 import { stepsFor, type Depth } from './targets.ts';
 import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { hdf5StoppedIn } from '../../pipeline/read/hdf5-file.ts';
+import { FUZZ_METADATA_TIMEOUT_MS } from './fuzz-limits.ts';
 
-/**
- * The reader's time limit for NetCDF-4 metadata [ms], lowered from its default so that a mutant
- * on which HDF5 loops ends (as the catalogued NetcdfReadStuck) well inside the pool's limit.
- */
-export const FUZZ_METADATA_TIMEOUT_MS = 4000;
 setHdf5MetadataTimeout(FUZZ_METADATA_TIMEOUT_MS);
 
 export interface WorkerSetup {
