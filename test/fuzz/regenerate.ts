@@ -4,7 +4,9 @@
  *
  *   npx tsx test/fuzz/regenerate.ts --format netcdf4 --seed 7 --index 123 --out damaged.nc
  *
- * then, e.g., `npx heathours inspect damaged.nc`. The damage done is printed. With `--run` the
+ * then, e.g., `npx heathours inspect damaged.nc`. The damage done is printed. An atlas YAML
+ * mutant meets what the fuzzer saw only when written beside the bases' copy of content/
+ * (BASES/atlas/content/), where its regions, classes and data globs resolve. With `--run` the
  * mutant is also put through the fuzzer's steps (targets.ts) in this process, alone, with the
  * fuzzer's time limit for NetCDF-4 metadata, after one untimed run on the undamaged base (start-up
  * aside): each step's outcome, wall time [ms] and the process's CPU time [ms] (every thread, the
