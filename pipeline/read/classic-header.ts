@@ -12,7 +12,8 @@
  * every count is checked against the bytes left before anything is allocated or looped over, so
  * a damaged header costs time in proportion to the header, never to a count it claims; and every
  * way the header can be wrong is a catalogued error naming the file, the entry and its byte
- * offset. A header that runs past the bytes given asks for more ({@link HeaderNeedsBytes}).
+ * offset. A header that runs past the bytes given asks for more ({@link HeaderNeedsBytes}), up
+ * to {@link MAX_HEADER_BYTES}; no attribute may hold more than {@link MAX_ATTRIBUTE_BYTES}.
  */
 import { NetcdfFileTruncated, NetcdfHeaderInvalid } from './errors.ts';
 
@@ -32,6 +33,18 @@ const NC_ATTRIBUTE = 12;
 const STREAMING = 0xffffffff;
 /** Longest name the reader accepts [bytes] (netCDF-C's NC_MAX_NAME is 256). */
 const MAX_NAME = 256;
+/**
+ * Largest attribute value the reader accepts [bytes]. The format sets no limit; ours keeps a
+ * damaged length (a flipped bit in an attribute's count) from making the parser read and decode
+ * megabytes or gigabytes of data as one attribute. ERA5 attributes are well under 1 KiB; a long
+ * processing history is tens of KiB.
+ */
+export const MAX_ATTRIBUTE_BYTES = 1 << 20;
+/**
+ * Longest header the reader accepts [bytes]: a header is read whole into memory, so a damaged
+ * count must not make it read a large file's data as header. ERA5 headers are a few KiB.
+ */
+export const MAX_HEADER_BYTES = 16 << 20;
 
 export type ClassicType = (typeof TYPES)[number]['name'];
 
@@ -94,9 +107,10 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
   };
   /** Makes sure `n` more bytes are there; past the end of the file the header is damaged or cut. */
   const need = (n: number, what: string) => {
-    if (p + n <= head.length) return;
+    if (p + n <= head.length && p + n <= MAX_HEADER_BYTES) return;
     if (p + n > fileBytes) throw NetcdfFileTruncated({ path, bytes: fileBytes, expected: p + n, detail: `the header ends inside ${what}` }, { file: path });
-    throw new HeaderNeedsBytes(Math.min(fileBytes, Math.max(p + n, head.length * 4)));
+    if (p + n > MAX_HEADER_BYTES) bad(`${what} would end the header after ${p + n} bytes, beyond the ${MAX_HEADER_BYTES >> 20} MiB a header may take: a count or length before it is damaged`, p);
+    throw new HeaderNeedsBytes(Math.min(fileBytes, MAX_HEADER_BYTES, Math.max(p + n, head.length * 4)));
   };
   const u32 = (what: string) => {
     need(4, what);
@@ -160,6 +174,7 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
       const at = p;
       const ne = u32(`the length of attribute ${an} of ${owner}`);
       if (ne * info.bytes > fileBytes - p) bad(`attribute ${an} of ${owner} claims ${ne} values, more than the file holds`, at);
+      if (ne * info.bytes > MAX_ATTRIBUTE_BYTES) bad(`attribute ${an} of ${owner} claims ${ne} values (${ne * info.bytes} bytes), more than the ${MAX_ATTRIBUTE_BYTES >> 20} MiB an attribute may hold: its length is damaged`, at);
       const bytes = ne * info.bytes;
       const padded = (bytes + 3) & ~3;
       need(padded, `attribute ${an} of ${owner}`);

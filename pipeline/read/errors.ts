@@ -177,10 +177,13 @@ export const NetcdfReadFailed = defineError<{ path: string; detail: string }>({
   hint: () => 'check the file with `ncdump -v VAR FILE`; a damaged file must be fetched again',
 });
 
-export const NetcdfReadStuck = defineError<{ path: string; what: string; seconds: number }>({
+export const NetcdfReadStuck = defineError<{ path: string; what: string; seconds: number; again?: boolean }>({
   code: 'NetcdfReadStuck',
   title: 'Reading a NetCDF-4 file did not finish',
-  message: (p) => `${p.path}: ${p.what} did not finish within ${p.seconds} s; the HDF5 library loops on damaged metadata of this file`,
+  message: (p) =>
+    p.again
+      ? `${p.path}: ${p.what} did not finish within ${p.seconds} s earlier in this run, and the file has not changed since; the HDF5 library loops on damaged metadata of this file`
+      : `${p.path}: ${p.what} did not finish within ${p.seconds} s; the HDF5 library loops on damaged metadata of this file`,
   hint: () => 'the file is damaged: fetch it again and compare its size or checksum with the source (netCDF-C\'s ncdump loops on such a file too)',
 });
 

@@ -47,6 +47,15 @@ interface Carry {
 let ready: Promise<unknown> | undefined;
 
 /**
+ * Where HDF5 aborted in this thread ('' when it has not): after an abort its WebAssembly
+ * instance cannot be used again in this thread (an abort in the metadata worker does not count:
+ * that worker is replaced).
+ */
+export function hdf5StoppedIn(): string {
+  return stopped;
+}
+
+/**
  * End-of-file address [bytes] the HDF5 superblock records (HDF5 File Format Specification,
  * §II.A "Disk Format: Level 0A - Format Signature and Superblock", versions 0-3), or null.
  */

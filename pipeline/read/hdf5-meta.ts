@@ -6,6 +6,7 @@
  * `NetcdfReadStuck`; the next request starts a new worker. One worker per thread, started on
  * first use, not keeping the process alive when idle.
  */
+import { statSync } from 'node:fs';
 import type { Worker } from 'node:worker_threads';
 import { startWorker } from '../infra/worker-pool.ts';
 import { NetcdfNotNetcdf4, NetcdfReadFailed, NetcdfReadStuck } from './errors.ts';
@@ -22,7 +23,8 @@ export function setHdf5MetadataTimeout(ms: number): void {
 
 let worker: { w: Worker; ready: Promise<void> } | undefined;
 let nextId = 1;
-const pending = new Map<number, (a: MetaAnswer) => void>();
+/** Requests waiting for an answer; `'lost'` when their worker died on another request. */
+const pending = new Map<number, (a: MetaAnswer | 'lost') => void>();
 
 function start(): { w: Worker; ready: Promise<void> } {
   const w = startWorker('hdf5-meta');
@@ -35,32 +37,37 @@ function start(): { w: Worker; ready: Promise<void> } {
     });
     w.on('error', (e: Error) => {
       reject(e);
-      fail(w, `the metadata worker failed: ${e.message}`);
+      lost(w);
     });
-    w.on('exit', () => fail(w, 'the metadata worker stopped'));
+    w.on('exit', () => lost(w));
   });
   // Idle, the worker does not keep the process alive (ask() holds it while a request waits).
   w.unref();
   return { w, ready };
 }
 
-/** Ends every request still waiting on worker `w` (it died). */
-function fail(w: Worker, why: string): void {
-  if (worker?.w !== w) return;
-  worker = undefined;
-  for (const [id, done] of pending) done({ id, ok: false, reason: why, printed: '', stopped: true });
-  pending.clear();
+/**
+ * Ends every request still waiting on worker `w` (it died): each is asked again once on a new
+ * worker (ask), since the request that stopped the worker has had its own answer already.
+ */
+function lost(w: Worker): void {
+  if (worker?.w === w) worker = undefined;
+  for (const [id, done] of pending) if (owner.get(id) === w) done('lost');
 }
 
-async function ask(req: MetaQuery, what: string): Promise<unknown> {
+/** The worker each waiting request was sent to. */
+const owner = new Map<number, Worker>();
+
+/** Sends one request; the answer, `'timeout'`, or `'lost'` when the worker died meanwhile. */
+async function send(req: MetaQuery): Promise<MetaAnswer | 'timeout' | 'lost'> {
   worker ??= start();
   const { w, ready } = worker;
   const id = nextId++;
-  const seconds = Math.round(timeoutMs / 100) / 10;
   let timer: NodeJS.Timeout | undefined;
   w.ref();
-  const answer = await new Promise<MetaAnswer | 'timeout'>((resolve, reject) => {
+  const answer = await new Promise<MetaAnswer | 'timeout' | 'lost'>((resolve, reject) => {
     pending.set(id, resolve);
+    owner.set(id, w);
     // The limit runs from the request, not from the worker's start (seconds on a busy machine).
     ready.then(() => {
       timer = setTimeout(() => resolve('timeout'), timeoutMs);
@@ -68,15 +75,55 @@ async function ask(req: MetaQuery, what: string): Promise<unknown> {
     }, reject);
   }).finally(() => {
     clearTimeout(timer);
-    if (pending.size === 0) w.unref();
+    pending.delete(id);
+    owner.delete(id);
+    if (![...owner.values()].includes(w)) w.unref();
   });
   if (answer === 'timeout') {
-    pending.delete(id);
     if (worker?.w === w) worker = undefined;
     await w.terminate();
+  } else if (answer !== 'lost' && !answer.ok && answer.stopped && worker?.w === w) {
+    // HDF5 aborted in the worker, which ends after this answer: the next request must not be
+    // sent to it (it would be lost on its way out).
+    worker = undefined;
+  }
+  return answer;
+}
+
+/**
+ * Requests that ran out of time, by file (path, size, modification time), request and variable:
+ * asking again about the same unchanged file would only loop again until the limit, so it fails
+ * at once. The oldest are forgotten beyond {@link STUCK_KEPT} (memory stays bounded).
+ */
+const stuck = new Map<string, number>();
+const STUCK_KEPT = 256;
+
+function stuckKey(req: MetaQuery): string | undefined {
+  try {
+    const st = statSync(req.path);
+    return `${req.op}\0${req.op === 'strings' ? req.variable : ''}\0${st.size}\0${st.mtimeMs}\0${req.path}`;
+  } catch {
+    return undefined; // gone: the worker's own open says why
+  }
+}
+
+async function ask(req: MetaQuery, what: string): Promise<unknown> {
+  const key = stuckKey(req);
+  const limit = key === undefined ? undefined : stuck.get(key);
+  if (limit !== undefined) throw NetcdfReadStuck({ path: req.path, what, seconds: limit, again: true }, { file: req.path });
+  let answer = await send(req);
+  // The worker died on another request while this one waited: once more on a new worker.
+  if (answer === 'lost') answer = await send(req);
+  const where = req.op === 'strings' ? { file: req.path, variable: req.variable } : { file: req.path };
+  if (answer === 'timeout') {
+    const seconds = Math.round(timeoutMs / 100) / 10;
+    if (key !== undefined) {
+      stuck.set(key, seconds);
+      if (stuck.size > STUCK_KEPT) stuck.delete(stuck.keys().next().value as string);
+    }
     throw NetcdfReadStuck({ path: req.path, what, seconds }, { file: req.path });
   }
-  const where = req.op === 'strings' ? { file: req.path, variable: req.variable } : { file: req.path };
+  if (answer === 'lost') throw NetcdfReadFailed({ path: req.path, detail: `${what}: the metadata worker stopped twice while this file waited` }, where);
   if (!answer.ok) throw NetcdfReadFailed({ path: req.path, detail: `${what}: ${answer.reason}` }, where, answer.printed || undefined);
   return answer.result;
 }

@@ -25,7 +25,18 @@ export interface CampaignOptions {
   dir: string;
   /** How much of each NetCDF mutant the build step reads (test/fuzz/targets.ts); default full. */
   depth?: Depth;
+  /**
+   * A time budget [s]: the formats run one after the other (in the order given), each until its
+   * count is reached or its share of the time left is spent (the time left split evenly among
+   * the formats still to run, so time a fast format does not need passes on to the next).
+   * Without it every mutant runs, the formats interleaved.
+   */
+  budgetSeconds?: number;
+  /** Folder for the mutant files; default `dir`/mutants (a memory-backed folder is faster). */
+  mutantDir?: string;
   onResult?: (r: TaskResult) => void;
+  /** Called each time a worker thread is started (the first ones and every replacement). */
+  onWorkerStart?: () => void;
 }
 
 export interface FormatSummary {
@@ -40,20 +51,42 @@ export interface FormatSummary {
   /** Mutants of the truncation sweep, and how many of them were read without an error. */
   sweep: number;
   sweepRead: number;
+  /** Wall time of this format's mutants [s] (with a time budget only: the formats then run apart). */
+  seconds?: number;
 }
 
-export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePaths; summaries: FormatSummary[]; seconds: number }> {
+/**
+ * Runs a campaign. `seconds` is the whole wall time [s], `poolSeconds` the time spent running
+ * mutants (without writing the bases) [s].
+ */
+export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePaths; summaries: FormatSummary[]; seconds: number; poolSeconds: number }> {
   const t0 = performance.now();
   const bases = await prepareBases(join(o.dir, 'bases'));
-  const workDir = join(o.dir, 'mutants');
+  const tPool = performance.now();
+  const workDir = o.mutantDir ?? join(o.dir, 'mutants');
   mkdirSync(workDir, { recursive: true });
   const formats = o.formats ?? FORMATS;
-  // Interleaved, so slow and fast formats share the workers evenly.
-  const tasks = [];
   const n = (f: FormatId) => o.counts?.[f] ?? o.count;
-  const most = Math.max(...formats.map(n));
-  for (let i = 0; i < most; i++) for (const format of formats) if (i < n(format)) tasks.push({ format, seed: o.seed, index: i });
-  const results = await runFuzzPool(tasks, { workers: o.workers, timeoutMs: o.timeoutMs, setup: { bases, workDir, depth: o.depth }, onResult: o.onResult });
+  const pool = { workers: o.workers, timeoutMs: o.timeoutMs, setup: { bases, workDir, depth: o.depth }, onResult: o.onResult, onWorkerStart: o.onWorkerStart };
+  const results: TaskResult[] = [];
+  const formatSeconds = new Map<FormatId, number>();
+  if (o.budgetSeconds === undefined) {
+    // Interleaved, so slow and fast formats share the workers evenly.
+    const tasks = [];
+    const most = Math.max(...formats.map(n));
+    for (let i = 0; i < most; i++) for (const format of formats) if (i < n(format)) tasks.push({ format, seed: o.seed, index: i });
+    results.push(...(await runFuzzPool(tasks, pool)));
+  } else {
+    const end = Date.now() + o.budgetSeconds * 1000;
+    for (const [k, format] of formats.entries()) {
+      const tasks = Array.from({ length: n(format) }, (_, index) => ({ format, seed: o.seed, index }));
+      const deadline = Date.now() + (end - Date.now()) / (formats.length - k);
+      const t = performance.now();
+      results.push(...(await runFuzzPool(tasks, { ...pool, deadline })));
+      formatSeconds.set(format, (performance.now() - t) / 1000);
+    }
+  }
+  const poolSeconds = (performance.now() - tPool) / 1000;
   const summaries = formats.map((format) => {
     const mine = results.filter((r) => r.format === format);
     const cuts = truncationPoints(loadBase(format, bases.base[format])).length;
@@ -70,9 +103,10 @@ export async function runCampaign(o: CampaignOptions): Promise<{ bases: BasePath
       defects: mine.filter((r) => !GOOD.has(r.outcome)),
       sweep: sweep.length,
       sweepRead: sweep.filter((r) => r.outcome === 'read').length,
+      seconds: formatSeconds.get(format),
     };
   });
-  return { bases, summaries, seconds: (performance.now() - t0) / 1000 };
+  return { bases, summaries, seconds: (performance.now() - t0) / 1000, poolSeconds };
 }
 
 /** How to make one mutant again (printed with every defect). */

@@ -47,8 +47,19 @@ export function mapText(bytes: Uint8Array): TextMap {
 
 const STREAM: Record<FormatId, number> = { 'netcdf3-classic': 1, 'netcdf3-64bit-offset': 2, netcdf4: 3, 'point-csv': 4, 'atlas-yaml': 5 };
 
-/** The structure boundaries the truncation sweep cuts at, in order [bytes]. */
+const cutsOf = new WeakMap<Base, number[]>();
+
+/** The structure boundaries the truncation sweep cuts at, in order [bytes] (worked out once per base). */
 export function truncationPoints(base: Base): number[] {
+  let cuts = cutsOf.get(base);
+  if (!cuts) {
+    cuts = findTruncationPoints(base);
+    cutsOf.set(base, cuts);
+  }
+  return cuts;
+}
+
+function findTruncationPoints(base: Base): number[] {
   const pts = new Set<number>();
   if (base.format === 'netcdf4') {
     const m = base.map;

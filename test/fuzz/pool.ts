@@ -24,12 +24,19 @@ export interface PoolOptions {
   timeoutMs: number;
   setup: WorkerSetup;
   onResult?: (r: TaskResult) => void;
+  /** No task is started after this time [ms since the epoch]; the tasks not run are left out. */
+  deadline?: number;
+  /** Called each time a worker thread is started (the first ones and every replacement). */
+  onWorkerStart?: () => void;
 }
 
 const BOOT = new URL('../../pipeline/infra/ts-boot.mjs', import.meta.url);
 const ENTRY = new URL('./worker.ts', import.meta.url);
 
-/** Runs every task; resolves with one result per task, in task order. */
+/**
+ * Runs every task (or, with a deadline, those started before it); resolves with one result per
+ * task run, in task order.
+ */
 export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): Promise<TaskResult[]> {
   const results: TaskResult[] = new Array(tasks.length);
   let next = 0;
@@ -37,6 +44,7 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
     let w: Worker | undefined;
     let ready: Promise<void> | undefined;
     const start = () => {
+      o.onWorkerStart?.();
       w = new Worker(BOOT, { workerData: { tsEntry: ENTRY.href }, resourceLimits: { maxOldGenerationSizeMb: 1536 } });
       const ww = w;
       ready = new Promise<void>((res, rej) => {
@@ -52,7 +60,7 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
       ww.postMessage({ setup: o.setup });
     };
     try {
-      while (next < tasks.length) {
+      while (next < tasks.length && (o.deadline === undefined || Date.now() < o.deadline)) {
         const i = next++;
         const task = tasks[i];
         if (!w) start();
@@ -97,5 +105,5 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
     }
   };
   await Promise.all(Array.from({ length: Math.max(1, o.workers) }, lane));
-  return results;
+  return results.filter((r) => r !== undefined);
 }

@@ -7,11 +7,12 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, readdirSync, rmSync, truncateSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
-import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { parseClassicHeader } from '../../pipeline/read/classic-header.ts';
+import { describeNetcdf4, readNetcdf4Strings, setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { parseConfig } from '../../pipeline/config/load.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
@@ -48,6 +49,51 @@ describe('NetCDF-3 header damage', () => {
     await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /is 32767 bytes long \(1 to 256 allowed\)/);
   });
 
+  it('an attribute whose count has a flipped bit (was: megabytes read as its value, then an error about the bytes after it) is NetcdfHeaderInvalid naming that attribute, read no further', async () => {
+    const f = join(FX, 'classic-attribute-length-bit-flip.nc');
+    expect(ncdumpRefuses(f)).toBe(true);
+    await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values, more than the file holds \(header byte 92\)/);
+    // Padded with zeros to 3 MiB, the file could hold the 2 MiB the count claims: the cap on an
+    // attribute's size names it (before: "the name of attribute 2 of the file is 0 bytes long
+    // (header byte 2097256)", after reading 2 MiB of data as its value).
+    const padded = join(out, 'padded.nc');
+    copyFileSync(f, padded);
+    truncateSync(padded, 3 << 20);
+    try {
+      expect(ncdumpRefuses(padded)).toBe(true);
+      await expectCataloguedAsync(inspectFile(padded), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values \(2097158 bytes\), more than the 1 MiB an attribute may hold: its length is damaged \(header byte 92\)/);
+    } finally {
+      rmSync(padded);
+    }
+  });
+
+  it('a header of many attributes, each under the cap, that would run past 16 MiB is NetcdfHeaderInvalid, not read whole', () => {
+    // CDF-1, no records, no dimensions, 20 global byte attributes of 1,000,000 values each, no
+    // variables (the grammar of the NetCDF classic format specification).
+    const n = 20;
+    const each = 4 + 4 + 4 + 4 + 1_000_000; // name length, name "aNN" padded, type, count, values (a multiple of 4)
+    const head = new Uint8Array(4 + 4 + 8 + 8 + n * each + 8);
+    const v = new DataView(head.buffer);
+    head.set([0x43, 0x44, 0x46, 1]);
+    let p = 16;
+    v.setUint32(p, 12);
+    v.setUint32(p + 4, n);
+    p += 8;
+    for (let i = 0; i < n; i++) {
+      v.setUint32(p, 3);
+      head.set([0x61, 0x30 + Math.floor(i / 10), 0x30 + (i % 10)], p + 4);
+      v.setUint32(p + 8, 1);
+      v.setUint32(p + 12, 1_000_000);
+      p += each;
+    }
+    expectCatalogued(() => parseClassicHeader(head, head.length, 'many-attributes.nc'), 'NetcdfHeaderInvalid', /attribute a16 of the file would end the header after 17000\d+ bytes, beyond the 16 MiB a header may take/);
+    // 16 of them (16 MB, under 16 MiB) are a header like any other.
+    const sixteen = head.slice(0, 24 + 16 * each + 8);
+    new DataView(sixteen.buffer).setUint32(20, 16);
+    sixteen.fill(0, sixteen.length - 8); // the variable list: absent
+    expect(parseClassicHeader(sixteen, sixteen.length, 'sixteen-attributes.nc').globalAttributes).toHaveLength(16);
+  });
+
   it('a time value beyond any date (was: RangeError) is NetcdfTimeValueInvalid at the file and time variable; inspect lists it as the axis\'s problem', async () => {
     const f = join(FX, 'classic-time-beyond-any-date.nc');
     const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'] }), 'NetcdfTimeValueInvalid', /time value 1e\+300 \(step 2\)/);
@@ -73,21 +119,50 @@ describe('NetCDF-4 (HDF5) damage', () => {
     expect(verbose.stderr).toMatch(/details:\n {4}HDF5-DIAG: Error detected[\s\S]*minor:/);
   });
 
-  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, and the next file reads', async () => {
+  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, the next file reads, and the same unchanged file fails at once', async () => {
     const f = join(FX, 'netcdf4-global-heap-empty-free-space.nc');
     const nc = spawnSync('ncdump', ['-h', f], { timeout: 5_000, stdio: 'ignore' });
     expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
     setHdf5MetadataTimeout(3_000);
+    const copy = join(out, 'stuck.nc');
+    copyFileSync(f, copy);
     try {
       const t0 = performance.now();
-      await expectCataloguedAsync(inspectFile(f), 'NetcdfReadStuck', /did not finish within 3 s/);
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s; the HDF5/);
       expect(performance.now() - t0).toBeLessThan(20_000);
       // A sound file right after: the metadata worker was replaced.
       const ok = await inspectFile(join(FX, 'netcdf4-object-header-bit-flip.nc')).catch((e) => e);
       expect(ok.code).toBe('NetcdfReadFailed');
+      // The same unchanged file again (as `build` opens it after `inspect`): at once, not after
+      // another 3 s of looping.
+      const t1 = performance.now();
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s earlier in this run, and the file has not changed since/);
+      expect(performance.now() - t1).toBeLessThan(1_500);
+      // Changed (here only its time stamp): asked again, and HDF5 loops again.
+      utimesSync(copy, new Date(), new Date(Date.now() + 60_000));
+      const t2 = performance.now();
+      await expectCataloguedAsync(inspectFile(copy), 'NetcdfReadStuck', /did not finish within 3 s; the HDF5/);
+      expect(performance.now() - t2).toBeGreaterThanOrEqual(2_900);
     } finally {
+      rmSync(copy, { force: true });
       setHdf5MetadataTimeout(30_000);
     }
+  });
+
+  it('a text label longer than its object in the global heap (was: HDF5 aborted in the metadata worker and the file asked about next was reported unreadable) is NetcdfReadFailed naming the file and expver; the next file reads', async () => {
+    const f = join(FX, 'netcdf4-text-length-mismatch.nc');
+    const sound = join(FX, 'netcdf4-text-length-mismatch-sound.nc');
+    // Debian's ncdump (netCDF-C over native HDF5) prints the labels of both files: the damage is
+    // found by the HDF5 build inside h5wasm, which checks the object's size and aborts.
+    expect(spawnSync('ncdump', ['-v', 'expver', sound], { encoding: 'utf8' }).stdout).toMatch(/expver = "0001", "0005" ;/);
+    const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'], digests: false }), 'NetcdfReadFailed', /reading the text of variable expver: .*Aborted[\s\S]*object size does not match/);
+    expect(e.where).toMatchObject({ file: f, variable: 'expver' });
+    // Asked right after (the worker that aborted is still on its way out): a new worker answers.
+    expect((await describeNetcdf4(sound)).variables.map((v) => v.name)).toContain('expver');
+    // Asked in the same moment: the request queued behind the aborting one is asked again.
+    const [bad, good] = await Promise.allSettled([readNetcdf4Strings(f, 'expver', [2]), readNetcdf4Strings(sound, 'expver', [2])]);
+    expect(bad.status === 'rejected' && (bad.reason as { code?: string }).code).toBe('NetcdfReadFailed');
+    expect(good).toEqual({ status: 'fulfilled', value: ['0001', '0005'] });
   });
 });
 

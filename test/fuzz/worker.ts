@@ -2,8 +2,9 @@
  * A fuzzing worker thread (started by pool.ts through pipeline/infra/ts-boot.mjs): makes
  * the mutants it is sent, writes each to a file, runs the format's steps (targets.ts) in this
  * thread and reports how each ended. Anything written to stdout or stderr while a mutant runs
- * (HDF5 diagnostics, stray logging) is captured and reported as noise. The mutant file is
- * removed when every step ended well and kept (its path reported) otherwise.
+ * (HDF5 diagnostics, stray logging) is captured and reported as noise. The mutant file (and the
+ * table `point` wrote from it) is removed when every step ended well and kept (its path
+ * reported) otherwise.
  */
 import { parentPort } from 'node:worker_threads';
 import fs, { rmSync, writeFileSync } from 'node:fs';
@@ -13,12 +14,9 @@ import { makeMutant, type Base, type FormatId } from './mutate.ts';
 import { classify, GOOD, worst, type StepResult } from './outcome.ts';
 import { stepsFor, type Depth } from './targets.ts';
 import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { hdf5StoppedIn } from '../../pipeline/read/hdf5-file.ts';
+import { FUZZ_METADATA_TIMEOUT_MS } from './fuzz-limits.ts';
 
-/**
- * The reader's time limit for NetCDF-4 metadata [ms], lowered from its default so that a mutant
- * on which HDF5 loops ends (as the catalogued NetcdfReadStuck) well inside the pool's limit.
- */
-export const FUZZ_METADATA_TIMEOUT_MS = 4000;
 setHdf5MetadataTimeout(FUZZ_METADATA_TIMEOUT_MS);
 
 export interface WorkerSetup {
@@ -98,10 +96,14 @@ async function handle(t: FuzzTask): Promise<void> {
     steps.push(r);
   }
   const outcome = worst(steps.map((r) => r.outcome));
-  if (GOOD.has(outcome)) rmSync(path, { force: true });
+  if (GOOD.has(outcome)) {
+    rmSync(path, { force: true });
+    rmSync(`${path}.out.csv`, { force: true }); // what `point` wrote for a table it read
+  }
   // After HDF5 aborted in this thread its instance is gone (the reader says so for every later
-  // file): ask for a fresh worker, so later mutants are not judged by this one.
-  const restart = steps.some((r) => /library stopped|Aborted\(/.test(r.message ?? ''));
+  // file): ask for a fresh worker, so later mutants are not judged by this one. An abort in the
+  // reader's metadata worker does not count (the reader replaces that worker itself).
+  const restart = hdf5StoppedIn() !== '';
   parentPort!.postMessage({ done: { ...t, path, recipe: m.recipe, outcome, steps, ms: performance.now() - t0 }, restart });
 }
 
