@@ -16,7 +16,7 @@ const README = readFileSync(new URL('../../README.md', import.meta.url), 'utf8')
 const blocks = (lang: string) => [...README.matchAll(new RegExp('```' + lang + '\\n([\\s\\S]*?)```', 'g'))].map((m) => m[1]);
 
 describe('the README scheduler examples', () => {
-  const docs = () => blocks('yaml').flatMap((b) => parseAllDocuments(b).map((d) => d.toJS()));
+  const docs = () => blocks('yaml').flatMap((b) => parseAllDocuments(b).map((d) => d.toJS())).filter((d) => d !== null && typeof d === 'object' && 'kind' in d); // the Kubernetes objects, not the config examples
   /** The `heathours build` arguments of an Indexed Job for completion index i, as /bin/sh expands them. */
   const argsAt = (job: { spec: { template: { spec: { containers: Array<{ args: string[] }> } } } }, i: number) =>
     execFileSync('/bin/sh', ['-c', `echo ${job.spec.template.spec.containers[0].args.join(' ').replace(/^node bin\/heathours\.mjs /, '')}`], { env: { JOB_COMPLETION_INDEX: String(i) } }).toString();
