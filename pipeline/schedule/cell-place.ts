@@ -15,7 +15,7 @@ import type { EstimateContext } from './context.ts';
 import { cellTileHistograms, chunkForCell } from './cell-tiles.ts';
 import { EstimateCellInvalid } from './errors.ts';
 import { cellCentre, rowColAt, type EstimatePlace } from './inputs.ts';
-import type { AtlasLoader, ResolvedPlace } from './place.ts';
+import type { AtlasLoader, ResolvedPlace } from './place-types.ts';
 
 /** Mean Earth radius [km] (IUGG). */
 export const EARTH_RADIUS_KM = 6371.0088;

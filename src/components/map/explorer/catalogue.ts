@@ -5,7 +5,6 @@
  * JSON types with type-only imports, so both sides share them.
  */
 import type { LegendSpec } from '../../../../pipeline/publish/layers/legend.ts';
-import type { RegionIndex } from './region-index.ts';
 
 /** The legend of a layer, as the manifest carries it: the pipeline's own type (a type-only import, nothing is bundled). */
 export type ExplorerLegend = LegendSpec;
@@ -114,3 +113,14 @@ export interface ExplorerCatalogue {
  * their pieces (region-index.ts) stands in their place, so the file does not grow with them.
  */
 export type PublishedCatalogue = Omit<ExplorerCatalogue, 'regions'> & { regionIndex: RegionIndex };
+
+/** The index of the region pieces (region-index.ts makes them). */
+export interface RegionIndex {
+  /** Regions in the atlas. */
+  count: number;
+  maxDrawn: number;
+  byName: Array<{ path: string; from: string }>;
+  byId: Array<{ path: string; from: string }>;
+  /** `bbox`: [west, south, east, north] of the piece's regions' boxes [° E, ° N]. */
+  areas: Array<{ path: string; bbox: [number, number, number, number]; count: number }>;
+}

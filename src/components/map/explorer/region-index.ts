@@ -40,15 +40,8 @@ export interface RegionAreaPiece {
   outlines: { type: 'FeatureCollection'; features: Array<Feature<Polygon | MultiPolygon, { id: string; name: string }>> };
 }
 
-export interface RegionIndex {
-  /** Regions in the atlas. */
-  count: number;
-  maxDrawn: number;
-  byName: Array<{ path: string; from: string }>;
-  byId: Array<{ path: string; from: string }>;
-  /** `bbox`: [west, south, east, north] of the piece's regions' boxes [° E, ° N]. */
-  areas: Array<{ path: string; bbox: [number, number, number, number]; count: number }>;
-}
+export type { RegionIndex } from './catalogue.ts';
+import type { RegionIndex } from './catalogue.ts';
 
 // biome-ignore lint/suspicious/noMisleadingCharacterClass: the range is the combining diacritical marks, removed after NFD on purpose
 export const foldName = (s: string) => s.normalize('NFD').replace(/[\u0300-\u036f]/g, '').toLowerCase().trim().replace(/\s+/g, ' ');
