@@ -15,6 +15,7 @@ import { CLI_COMPILED, ROOT } from '../helpers/cli.ts';
 import { tempDir, writeFixture } from '../fixtures/read/era5-cdl.ts';
 import { inspectFile } from '../../pipeline/read/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const PYTHON = '/usr/bin/python3';
 const run = (args: string[], input?: string) =>
@@ -94,20 +95,7 @@ for path in sys.argv[1:]:
     const demo = run(['demo-data', '--out', data, '--years', '2022-2023', '--layout', 'mixed', '--grid', 'small', '--jobs', '2', '--quiet']);
     expect(demo.status, demo.stderr).toBe(0);
     expect(readdirSync(data).sort()).toEqual(['era5-demo-2022.nc', 'era5-demo-2023.nc', 'era5-demo-lsm.nc', 'scenarios', 'workforce-people.tif']);
-    const yaml = `id: compiled
-title: Compiled command test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`;
+    const yaml = `${testAtlasYaml({ id: 'compiled', title: 'Compiled command test atlas (invented data)', years: [2022, 2023] })}`;
     writeFileSync(join(dir, 'atlas.yaml'), yaml);
     const b = run(['build', '--config', join(dir, 'atlas.yaml'), '--out', join(dir, 'out-compiled'), '--data-only', '--jobs', '2', '--no-cache', '--quiet']);
     expect(b.status, b.stderr).toBe(0);

@@ -16,6 +16,7 @@ import { writeDemoDataset, yearFileName } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { mapHdf5 } from './structure-hdf5.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 const YEAR = 2023;
@@ -41,20 +42,7 @@ function digestTree(d: string): string {
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'hh-damaged-build-'));
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [YEAR], layout: 'netcdf4', grid: 'small', quiet: true, jobs: 1 });
-  writeFileSync(join(dir, 'atlas.yaml'), `id: damaged
-title: Damaged input test (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [${YEAR}, ${YEAR}]
-baseline: [${YEAR}, ${YEAR}]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+  writeFileSync(join(dir, 'atlas.yaml'), `${testAtlasYaml({ id: 'damaged', title: 'Damaged input test (invented data)', years: [YEAR, YEAR] })}`);
 }, 180_000);
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 

@@ -11,25 +11,13 @@ import { HIST_EDGES, HIST_LEN, HOURS, N_EXPOSURES } from '../../pipeline/reduce/
 import { estimateFromHistogram, prepareWorkKernel, limitCurve2017 } from '../../pipeline/work/index.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import { buildSite } from '../../pipeline/run/site-stage.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 
 function atlasYaml(extra = '', regions = join(ROOT, 'content/regions')): string {
-  return `id: small
-title: Small test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${regions}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-${extra}`;
+  return `${testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2023], regions })}${extra}`;
 }
 
 function parseCsv(text: string): Record<string, string>[] {

@@ -11,8 +11,8 @@ import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 
 beforeAll(async () => {
@@ -20,20 +20,7 @@ beforeAll(async () => {
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2022, 2024], layout: 'legacy', grid: 'small', quiet: true });
   rmSync(join(dir, 'inputs/era5-demo-2023.nc'), { force: true });
   copyFileSync(join(dir, 'inputs/era5-demo-2022.nc'), join(dir, 'inputs/era5-demo-2022-again.nc'));
-  writeFileSync(join(dir, 'atlas.yaml'), `id: small
-title: Small test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2024]
-baseline: [2022, 2024]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+  writeFileSync(join(dir, 'atlas.yaml'), `${testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2024] })}`);
 }, 300_000);
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 

@@ -13,8 +13,8 @@ import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 let disk = '';
 
@@ -38,20 +38,7 @@ beforeAll(async () => {
   const m = spawnSync('mount', ['-t', 'tmpfs', '-o', 'size=48m', 'tmpfs', disk], { encoding: 'utf8' });
   if (m.status !== 0) throw new Error(`this test mounts a 48 MB tmpfs as a small disk and needs root: mount said ${m.stderr.trim()}`);
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2022, 2023], layout: 'mixed', grid: 'small', quiet: true });
-  writeFileSync(join(dir, 'atlas.yaml'), `id: full
-title: Disk full test (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: disk/out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+  writeFileSync(join(dir, 'atlas.yaml'), `${testAtlasYaml({ id: 'full', title: 'Disk full test (invented data)', years: [2022, 2023], output: 'disk/out' })}`);
 }, 300_000);
 
 afterAll(() => {

@@ -14,6 +14,7 @@ import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas, type BuildReport } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
 import { CLI_TS } from '../helpers/cli.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const run = promisify(execFile);
 const ROOT = new URL('../../', import.meta.url).pathname;
@@ -24,21 +25,7 @@ let dir = '';
 function atlasYaml(opts: { years?: [number, number]; baseline?: [number, number]; classesFile?: string; title?: string; inputs?: string } = {}): string {
   const [y0, y1] = opts.years ?? [2021, 2023];
   const [b0, b1] = opts.baseline ?? [2021, 2022];
-  return `id: dist
-title: ${opts.title ?? 'Distributed test atlas (invented data)'}
-dataset:
-  files: [${opts.inputs ?? 'inputs'}/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [${y0}, ${y1}]
-baseline: [${b0}, ${b1}]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-shards: { cellsPerTile: 16, cellsPerBlock: 12 }
-work:
-  classesFile: ${opts.classesFile ?? join(ROOT, 'content/workload-classes.yaml')}
-`;
+  return `${testAtlasYaml({ id: 'dist', title: opts.title ?? 'Distributed test atlas (invented data)', years: [y0, y1], baseline: [b0, b1], files: `${opts.inputs ?? 'inputs'}/*.nc`, shards: '{ cellsPerTile: 16, cellsPerBlock: 12 }', classesFile: opts.classesFile ?? join(ROOT, 'content/workload-classes.yaml') })}`;
 }
 
 /** Every file under `d`, relative path → bytes. */

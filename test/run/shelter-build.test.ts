@@ -20,26 +20,14 @@ import { D_GLOBE_STANDARD } from '../../pipeline/physics/constants.ts';
 import { CENTI, MONTHS } from '../../pipeline/reduce/layout.ts';
 import type { ShardPartial } from '../../pipeline/reduce/accumulator.ts';
 import { parse } from 'yaml';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 const FIXTURE = join(ROOT, 'test/fixtures/shelter/small-default-digests.txt');
 let dir = '';
 
 function atlasYaml(extra: string): string {
-  return `id: small
-title: Small test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: regions
-output: out
-work:
-  classesFile: workload-classes.yaml
-${extra}`;
+  return `${testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2023], regions: 'regions', classesFile: 'workload-classes.yaml' })}${extra}`;
 }
 
 /** `path sha256` of every file under `out`, sorted by path. */

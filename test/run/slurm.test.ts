@@ -12,6 +12,7 @@ import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { startSlurmCluster, type SlurmCluster } from '../helpers/slurm-cluster.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname.replace(/\/$/, '');
 const BUILD_TIME = '2026-06-01T00:00:00.000Z';
@@ -44,21 +45,7 @@ beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'hh-slurm-'));
   if (!existsSync(join(ROOT, 'compiled', 'cli.js'))) execFileSync('npm', ['run', 'compile'], { cwd: ROOT, stdio: 'ignore' });
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2021, 2022], layout: 'mixed', grid: 'small', quiet: true });
-  writeFileSync(join(dir, 'atlas.yaml'), `id: slurm
-title: Slurm test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2021, 2022]
-baseline: [2021, 2022]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-shards: { cellsPerTile: 16, cellsPerBlock: 12 }
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+  writeFileSync(join(dir, 'atlas.yaml'), `${testAtlasYaml({ id: 'slurm', title: 'Slurm test atlas (invented data)', years: [2021, 2022], shards: '{ cellsPerTile: 16, cellsPerBlock: 12 }' })}`);
   cluster = await startSlurmCluster(join(dir, 'slurm'));
 }, 300_000);
 

@@ -19,27 +19,14 @@ import type { PointTileIndex } from '../../pipeline/publish/point-tiles.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import { readCellTables } from '../helpers/cell-tables.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 const lines: string[] = [];
 let small: BuildReport;
 
 function yaml(extra: string): string {
-  return `id: streaming
-title: Tile streaming test (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-${extra}`;
+  return `${testAtlasYaml({ id: 'streaming', title: 'Tile streaming test (invented data)', years: [2022, 2023] })}${extra}`;
 }
 
 /** The budget that splits this grid: enough for a band of 4 rows, not for one compute group of every tile. */

@@ -19,6 +19,7 @@ import { writeGeoTiff } from '../../pipeline/publish/layers/geotiff-write.ts';
 import { EARTH_RADIUS_KM, rectangleAreaSr } from '../../pipeline/regions/spherical-area.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
@@ -50,20 +51,7 @@ const DEFAULT_WEIGHTS: Record<string, number> = {
 const TWO_CELLS = { lon: [-146.5, -144.5], lat: [19.5, 20.5], centres: [[-146, 20], [-145, 20]] as const };
 
 function atlasYaml(workforce: string, regions = join(dir, 'regions')): string {
-  return `id: people
-title: Workforce test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${regions}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-${workforce}`;
+  return `${testAtlasYaml({ id: 'people', title: 'Workforce test atlas (invented data)', years: [2022, 2023], regions })}${workforce}`;
 }
 
 const workforceKey = (raster = `inputs/${POPULATION_FILE}`, shares = 'shares.csv') => `workforce:

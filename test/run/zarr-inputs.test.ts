@@ -15,28 +15,15 @@ import { tmpdir } from 'node:os';
 import { join, normalize, relative } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 import { writeZarrFromNetcdf } from '../helpers/write-zarr.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 let server: Server;
 let baseUrl = '';
 
 /** The configuration; `inputs` is the only line that differs between builds (written into a fixed-text file by name). */
-const atlasYaml = (inputs: string) => `id: small
-title: Small test atlas (invented data)
-dataset:
-${inputs}
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2022]
-baseline: [2022, 2022]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`;
+const atlasYaml = (inputs: string) => testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2022], datasetInputs: inputs });
 
 function tree(root: string): Map<string, Buffer> {
   const out = new Map<string, Buffer>();

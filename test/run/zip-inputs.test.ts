@@ -11,27 +11,14 @@ import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 const INSTANT = 'time,latitude,longitude,t2m,d2m,sp,u10,v10';
 const ACCUM = 'time,latitude,longitude,ssrd,fdir,strd';
 
 /** The same configuration text for every build (its digest is part of what is published). */
-const ATLAS_YAML = `id: small
-title: Small test atlas (invented data)
-dataset:
-  files: [inputs/*]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2022]
-baseline: [2022, 2022]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`;
+const ATLAS_YAML = `${testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2022], files: 'inputs/*' })}`;
 
 /** Every file under `root` with its bytes, by relative path. */
 function tree(root: string): Map<string, Buffer> {

@@ -15,25 +15,12 @@ import { closeChangeFiles } from '../../pipeline/run/scenario-change.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
 import { fromFile } from 'geotiff';
+import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
-const ROOT = new URL('../../', import.meta.url).pathname;
 let dir = '';
 let out = '';
 
-const yaml = (scenarios: string) => `id: scen
-title: Scenario test atlas (invented data)
-dataset:
-  files: [inputs/*.nc]
-  landSeaMask: { variable: lsm, threshold: 0.5 }
-  invented: true
-years: [2022, 2023]
-baseline: [2022, 2023]
-timeZone: Etc/GMT+10
-regions: ${join(ROOT, 'content/regions')}
-output: out
-work:
-  classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-scenarios:
+const yaml = (scenarios: string) => `${testAtlasYaml({ id: 'scen', title: 'Scenario test atlas (invented data)', years: [2022, 2023] })}scenarios:
 ${scenarios}`;
 
 const SCENARIOS = `  - { id: zero-warming, name: No warming, warming: 0 }
