@@ -5,7 +5,7 @@
 import { readFile, readdir } from 'node:fs/promises';
 import { existsSync, statSync } from 'node:fs';
 import { dirname, resolve, join } from 'node:path';
-import { parseDocument } from 'yaml';
+import { parseAllDocuments } from 'yaml';
 import { globSync } from 'tinyglobby';
 import { atlasSchema, type AtlasConfig } from './schema.ts';
 import { ConfigInputMissing, ConfigInvalid, ConfigNotFound, ConfigRegionsMissing, ConfigSyntax, ConfigWorkforceFileMissing } from './errors.ts';
@@ -35,17 +35,28 @@ export interface ResolvedConfig {
 
 /**
  * Parses YAML text strictly: syntax errors, warnings (an unknown tag such as `!!js/function`),
- * aliases that do not resolve or expand too far (the library's limit against alias bombs), and
- * nesting too deep to read all become `fail(detail)`, a catalogued error of the caller.
+ * aliases that do not resolve or expand too far (the library's limit against alias bombs),
+ * nesting too deep to read, and a second document after `---` all become `fail(detail)`, a
+ * catalogued error of the caller.
  */
 export function parseYamlStrict(text: string, fail: (detail: string) => Error): unknown {
-  let doc: ReturnType<typeof parseDocument>;
+  let docs: ReturnType<typeof parseAllDocuments>;
   try {
-    doc = parseDocument(text, { prettyErrors: true, logLevel: 'silent' });
+    docs = parseAllDocuments(text, { prettyErrors: true, logLevel: 'silent' });
   } catch (e) {
     throw fail((e as Error).message ?? String(e));
   }
+  // No document at all (an empty file, or only comments): nothing, as a one-document parse gives.
+  if (docs.length === 0) return null;
+  const doc = docs[0];
   const problem = doc.errors[0] ?? doc.warnings[0];
+  if (!problem && docs.length > 1) {
+    // The library keeps a second document quietly when asked to be silent: its settings would be
+    // ignored without a word.
+    const second = docs[1].range?.[0] ?? text.length;
+    const line = text.slice(0, second).split('\n').length;
+    throw fail(`the file holds ${docs.length} YAML documents (the second starts on line ${line}, after "---"); a configuration is one document`);
+  }
   if (problem) throw fail(problem.message);
   try {
     return doc.toJS({ maxAliasCount: 100 });

@@ -21,6 +21,17 @@ export function setHdf5MetadataTimeout(ms: number): void {
   timeoutMs = ms;
 }
 
+/** Whether the worker checks global heap collections before HDF5 parses them (hdf5-heap-check.ts). */
+let heapCheck = true;
+
+/**
+ * Turns the global heap check off or on again: only for the test that shows the time limit
+ * still ends a loop the check would have prevented.
+ */
+export function setHdf5HeapCheck(on: boolean): void {
+  heapCheck = on;
+}
+
 let worker: { w: Worker; ready: Promise<void> } | undefined;
 let nextId = 1;
 /** Requests waiting for an answer; `'lost'` when their worker died on another request. */
@@ -71,7 +82,7 @@ async function send(req: MetaQuery): Promise<MetaAnswer | 'timeout' | 'lost'> {
     // The limit runs from the request, not from the worker's start (seconds on a busy machine).
     ready.then(() => {
       timer = setTimeout(() => resolve('timeout'), timeoutMs);
-      w.postMessage({ ...req, id });
+      w.postMessage({ ...req, id, heapCheck });
     }, reject);
   }).finally(() => {
     clearTimeout(timer);

@@ -64,6 +64,34 @@ describe('atlas configuration', () => {
     expectError(() => parseConfig('id: [unclosed\n', 'a.yaml'), 'ConfigSyntax');
   });
 
+  it('a second YAML document after "---" (was: silently ignored, its settings lost) is a ConfigSyntax error naming its line', () => {
+    const lines = demoText.split('\n').length;
+    expectError(() => parseConfig(`${demoText}---\nsite:\n  title: second\n`, 'a.yaml'), 'ConfigSyntax', new RegExp(`holds 2 YAML documents \\(the second starts on line ${lines}, after "---"\\)`));
+    // One document with an explicit start marker, and a file of comments only, stay as they were.
+    expect(parseConfig(`---\n${demoText}`, 'a.yaml').id).toBe('demo');
+    expectError(() => parseConfig('# nothing here\n', 'a.yaml'), 'ConfigInvalid');
+  });
+
+  it('the demo\'s data line repeated 5,000 more times (fuzz mutants 3964 and, with a byte order mark and a second document, 4407 of seed 1) ends before any search of the disk: ConfigInvalid naming the pattern listed 5,001 times, ConfigSyntax for the second document (was: 5,001 searches, 2.5 s of CPU)', async () => {
+    const line = '    - ../data/demo/*.nc';
+    expect(demoText).toContain(`${line}\n`);
+    const repeated = demoText.replace(`${line}\n`, `${line}\n`.repeat(5001));
+    const dir = mkdtempSync(join(tmpdir(), 'hh-cfg-dup-'));
+    for (const [text, code, re] of [
+      [repeated, 'ConfigInvalid', /dataset\.files: "\.\.\/data\/demo\/\*\.nc" is listed 5001 times; name each input once/],
+      [`\uFEFF${repeated}---\nx: 1\n`, 'ConfigSyntax', new RegExp(`holds 2 YAML documents \\(the second starts on line ${repeated.split('\n').length},`)],
+    ] as const) {
+      const file = join(dir, 'atlas.yaml');
+      writeFileSync(file, text);
+      let err: unknown;
+      await loadConfig(file).catch((e) => (err = e));
+      // Both come from parseConfig, which loadConfig runs before it searches the disk for any
+      // input (measured on the mutants alone: 2.5 s → 0.38 s of CPU, the YAML parse of 5,000 lines).
+      expectError(() => { throw err; }, code, re);
+    }
+    expectError(() => parseConfig(demoText.replace('files:', 'files: []\n  zarr: [a.zarr, b.zarr, a.zarr]\n  x_files:'), 'a.yaml'), 'ConfigInvalid', /dataset\.zarr: "a\.zarr" is listed 2 times/);
+  });
+
   it('a missing config file, an input pattern that matches nothing and a missing regions folder are each catalogued', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'hh-config-'));
     await expect(loadConfig(join(dir, 'nope.yaml'))).rejects.toMatchObject({ code: 'ConfigNotFound' });

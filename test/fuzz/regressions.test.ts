@@ -12,7 +12,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inspectFile, openDataset } from '../../pipeline/read/index.ts';
 import { parseClassicHeader } from '../../pipeline/read/classic-header.ts';
-import { describeNetcdf4, readNetcdf4Strings, setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
+import { describeNetcdf4, readNetcdf4Strings, setHdf5HeapCheck, setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 import { parseConfig } from '../../pipeline/config/load.ts';
 import { runPoint } from '../../pipeline/commands/point.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
@@ -119,11 +119,42 @@ describe('NetCDF-4 (HDF5) damage', () => {
     expect(verbose.stderr).toMatch(/details:\n {4}HDF5-DIAG: Error detected[\s\S]*minor:/);
   });
 
-  it('a global heap whose free space has size 0 (was: HDF5 looping for ever; ncdump loops too) is NetcdfReadStuck after the time limit, the next file reads, and the same unchanged file fails at once', async () => {
+  it('a global heap whose free space has size 0 (was: HDF5 looping for ever, then the time limit; ncdump loops too) is NetcdfReadFailed naming the collection, before the time limit', async () => {
     const f = join(FX, 'netcdf4-global-heap-empty-free-space.nc');
     const nc = spawnSync('ncdump', ['-h', f], { timeout: 5_000, stdio: 'ignore' });
     expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
     setHdf5MetadataTimeout(3_000);
+    try {
+      const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfReadFailed', /reading the metadata: the global heap collection at byte 6144 is damaged: the free space at byte \d+ claims 0 bytes, so its walk cannot advance/);
+      // Refused by the check, not ended by the 3 s time limit (that is NetcdfReadStuck).
+      expect(e.where).toMatchObject({ file: f });
+    } finally {
+      setHdf5MetadataTimeout(30_000);
+    }
+  });
+
+  it('a global heap collection read by HDF5 in two parts (first 4096 bytes, then the rest) whose free space has size 0 (was: the time limit, NetcdfReadStuck; ncdump loops) is NetcdfReadFailed naming the file, expver and the collection, before the time limit', async () => {
+    const f = join(FX, 'netcdf4-global-heap-two-part-read.nc');
+    const nc = spawnSync('ncdump', ['-v', 'expver', f], { timeout: 5_000, stdio: 'ignore' });
+    expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
+    setHdf5MetadataTimeout(3_000);
+    try {
+      const e = await expectCataloguedAsync(
+        openDataset([f], { product: 'era5', require: ['airTemperature'], digests: false }),
+        'NetcdfReadFailed',
+        /reading the text of variable expver: the global heap collection at byte 8792 is damaged: the free space at byte \d+ claims 0 bytes/,
+      );
+      // Refused by the check, not ended by the 3 s time limit (that is NetcdfReadStuck).
+      expect(e.where).toMatchObject({ file: f, variable: 'expver' });
+    } finally {
+      setHdf5MetadataTimeout(30_000);
+    }
+  });
+
+  it('the same file with the global heap check off still ends (NetcdfReadStuck after the time limit), the next file reads, and the same unchanged file fails at once', async () => {
+    const f = join(FX, 'netcdf4-global-heap-empty-free-space.nc');
+    setHdf5MetadataTimeout(3_000);
+    setHdf5HeapCheck(false);
     const copy = join(out, 'stuck.nc');
     copyFileSync(f, copy);
     try {
@@ -146,6 +177,7 @@ describe('NetCDF-4 (HDF5) damage', () => {
     } finally {
       rmSync(copy, { force: true });
       setHdf5MetadataTimeout(30_000);
+      setHdf5HeapCheck(true);
     }
   });
 
