@@ -62,6 +62,8 @@ export interface Hdf5Sizes {
 
 /** Most chunks one variable's index may list (keeps a damaged count from allocating much). */
 const MAX_CHUNKS = 1 << 24;
+/** Largest chunk read directly [bytes] (HDF5 itself limits a chunk to 4 GiB). */
+const MAX_CHUNK_BYTES = 1 << 30;
 /** Most object header continuation blocks followed. */
 const MAX_CONTINUATIONS = 64;
 
@@ -238,6 +240,8 @@ export async function readChunkIndex(read: ReadAt, s: Hdf5Sizes, header: number,
   if (dims[rank] !== elementBytes) refuse(`chunk element size ${dims[rank]} for values of ${elementBytes} bytes`);
   const chunk = dims.slice(0, rank);
   if (chunk.some((c) => c < 1)) refuse('a chunk dimension of 0');
+  const chunkBytes = chunk.reduce((a, b) => a * b, elementBytes);
+  if (chunkBytes > MAX_CHUNK_BYTES) refuse(`chunks of ${chunkBytes} bytes`);
   const filterMsg = messages.find((m) => m.type === 0x000b);
   if (filterMsg && filterMsg.flags & 0x02) refuse('a shared filter pipeline message');
   const filters = filterMsg ? parseFilters(filterMsg.data) : [];
