@@ -143,8 +143,15 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
     }
   });
 
-  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs', async () => {
+  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs, inflated on the pool or in this thread', async () => {
     for (const file of [packed, copied]) await sameAsReference(file);
+    // The same with every chunk inflated in this thread (HEATHOURS_NETCDF4_INFLATE=sync).
+    process.env.HEATHOURS_NETCDF4_INFLATE = 'sync';
+    try {
+      await sameAsReference(packed);
+    } finally {
+      delete process.env.HEATHOURS_NETCDF4_INFLATE;
+    }
   });
 
   async function sameAsReference(packed: string): Promise<void> {
