@@ -65,7 +65,7 @@ export const DATA_ERRORS: readonly string[] = [
   'ChangeFileNoTemperature', 'ChangeFileNotMonthly', 'ChangeFileHumidityMismatch', 'ChangeFileNotADifference',
   'ChangeGridInvalid', 'ChangeGridNotCovering', 'ChangeValueMissing',
   'TemperatureChangeOutOfRange', 'HumidityChangeOutOfRange', 'SolarChangeOutOfRange',
-  'NetcdfDataUnreadable', 'NetcdfReadStuck', 'NetcdfTimeValueInvalid',
+  'NetcdfDataUnreadable', 'NetcdfReadStuck', 'NetcdfTimeValueInvalid', 'NetcdfChunkDamaged',
   'ZarrStoreUnreachable', 'ZarrStoreUnlisted', 'ZarrMetadataInvalid', 'ZarrGridMismatch', 'ZarrChunkUnreadable',
 ];
 

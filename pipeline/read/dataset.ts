@@ -11,7 +11,7 @@ import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
 import { fileDigests } from './file-digests.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
-import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfDataUnreadable, NetcdfGridMismatch, NetcdfNoFiles, NetcdfReadFailed } from './errors.ts';
+import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfChunkDamaged, NetcdfDataUnreadable, NetcdfGridMismatch, NetcdfNoFiles, NetcdfReadFailed } from './errors.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { sourceRuns } from './grid-normalize.ts';
 import { buildHourAxis, type HourAxis } from './hour-index.ts';
@@ -574,11 +574,12 @@ class DatasetReader {
 }
 
 /**
- * A read error of a file's data, restated with the variable and the hours being read (a
+ * A read error of a file's data (the HDF5 library's, or a damaged chunk met by the raw chunk
+ * reader, whose message names the chunk), restated with the variable and the hours being read (a
  * damaged chunk shows up only when a block reaches it), with the reader's details kept.
  */
 function withHours(e: unknown, f: AnalysedFile, jobs: Job[]): unknown {
-  if (!(e instanceof HeathoursError) || e.code !== NetcdfReadFailed.code) return e;
+  if (!(e instanceof HeathoursError) || (e.code !== NetcdfReadFailed.code && e.code !== NetcdfChunkDamaged.code)) return e;
   const mine = jobs.filter((j) => j.fv.v.name === e.where.variable);
   const pick = mine.length > 0 ? mine : jobs;
   const variable = e.where.variable ?? pick.map((j) => j.fv.v.name).join(', ');

@@ -349,3 +349,10 @@ export const ZarrChunkUnreadable = defineError<{ location: string; variable: str
   message: (p) => `${p.location}: ${p.variable} at indices ${p.slab} cannot be read: ${p.detail}`,
   hint: () => 'a chunk of the store is damaged (it does not decompress, or holds the wrong number of bytes): copy the store (or that array) again',
 });
+
+export const NetcdfChunkDamaged = defineError<{ path: string; variable: string; chunk: string; at: number; size: number; detail: string }>({
+  code: 'NetcdfChunkDamaged',
+  title: 'A compressed chunk of a NetCDF-4 file is damaged',
+  message: (p) => `${p.path}: variable ${p.variable}, the chunk starting at ${p.chunk} (${p.size} bytes at byte ${p.at}): ${p.detail}`,
+  hint: () => 'the file is damaged in its data: fetch it again and compare its size or checksum with the source; `ncdump -v VAR FILE` stops at the same chunk',
+});

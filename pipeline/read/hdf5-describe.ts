@@ -36,6 +36,11 @@ export interface Hdf5Variable {
   valueBytes: number;
   /** Values are fixed-size, little-endian numbers that can be read straight into a typed array. */
   plain: boolean;
+  /**
+   * Byte address of the variable's object header (an HDF5 object reference holds it, Format
+   * Specification §VII "Object Reference"), or null when it could not be had.
+   */
+  header: number | null;
 }
 
 export interface Hdf5Description {
@@ -138,6 +143,7 @@ export function describeHdf5(f: H5File, h5: H5Classes): Hdf5Description {
       chunk0: Number.isSafeInteger(chunk0) && chunk0 >= 1 ? chunk0 : 1,
       valueBytes: Number(meta.size) || 0,
       plain: PLAIN.has(type) && meta.vlen !== true && meta.littleEndian !== false,
+      header: headerAddress(ds),
     });
   }
   const globalAttrs: Record<string, AttrValue> = {};
@@ -164,6 +170,15 @@ export function readHdf5Strings(f: H5File, name: string, h5: H5Classes, shape: n
     return res;
   }
   return [];
+}
+
+/** The object header address [bytes] of a dataset: the 8 bytes of its object reference (hobj_ref_t, little-endian). */
+function headerAddress(ds: H5Dataset): number | null {
+  const ref = safe(() => ds.create_reference().ref_data);
+  if (!ref || ref.length !== 8) return null;
+  let x = 0;
+  for (let i = 7; i >= 0; i--) x = x * 256 + ref[i];
+  return Number.isSafeInteger(x) ? x : null;
 }
 
 function safe<T>(fn: () => T): T | undefined {

@@ -6,7 +6,7 @@
  * is bounded by what is requested. Every h5wasm call runs quietly (hdf5-quiet.ts): HDF5's own
  * diagnostics never reach the terminal; they become the details of the catalogued error.
  */
-import { open } from 'node:fs/promises';
+import { open, type FileHandle } from 'node:fs/promises';
 import type { Dataset as H5Dataset, File as H5File } from 'h5wasm/node';
 
 /** h5wasm, loaded on first use: its WebAssembly heap costs hundreds of MB of RSS, so classic-only runs never load it. */
@@ -23,6 +23,8 @@ let h5module: H5Module;
 /** Set when HDF5 aborted in this thread: its WebAssembly instance cannot be used again. */
 let stopped = '';
 import { NetcdfFileTruncated, NetcdfReadFailed } from './errors.ts';
+import { LITTLE_ENDIAN_HOST, readRawSlab } from './hdf5-chunks.ts';
+import { RawLayoutRefused, readChunkIndex, superblockSizes, type ChunkIndex, type Hdf5Sizes } from './hdf5-layout.ts';
 import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
 import type { Hdf5Variable } from './hdf5-describe.ts';
 import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
@@ -87,6 +89,13 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
     await fh.close();
   }
   const eof = hdf5EndOfFileAddress(head);
+  let sizes: Hdf5Sizes | string;
+  try {
+    sizes = superblockSizes(head);
+  } catch (e) {
+    if (!(e instanceof RawLayoutRefused)) throw e;
+    sizes = e.message;
+  }
   if (eof === null && bytes < 48) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the HDF5 superblock is incomplete' }, { file: path });
   if (eof !== null && bytes < eof) throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
   const d = await describeNetcdf4(path);
@@ -98,7 +107,7 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   await ready;
   const f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
   try {
-    return buildHdf5File(f, path, bytes, d);
+    return buildHdf5File(f, path, bytes, d, sizes);
   } catch (e) {
     quietly(() => f.close());
     throw e;
@@ -119,7 +128,24 @@ function h5call<T>(path: string, what: string, fn: () => T, variable?: string): 
   throw NetcdfReadFailed({ path, detail: `${what}${variable ? ` of variable ${variable}` : ''}: ${hdf5Reason(r.error, r.printed)}` }, where, r.printed || undefined);
 }
 
-function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<ReturnType<typeof describeNetcdf4>>): SourceFile {
+/**
+ * How a variable's hyperslabs are read: `node:zlib` (its chunks read and inflated directly,
+ * hdf5-chunks.ts) or, with the reason, `HDF5 library: …` (h5wasm, as for every variable before).
+ */
+export type Netcdf4ReadPath = string;
+
+/** The read path of a NetCDF-4 variable, for tests and benchmarks (undefined for other files). */
+export async function netcdf4ReadPath(sf: SourceFile, v: SourceVariable): Promise<Netcdf4ReadPath | undefined> {
+  return sf.readPath?.(v);
+}
+
+/**
+ * Whether raw chunk reads are turned off for files opened from now on (HEATHOURS_NETCDF4_RAW=0:
+ * every variable through the HDF5 library, as before; the benchmark compares both).
+ */
+const rawOff = (): boolean => process.env.HEATHOURS_NETCDF4_RAW === '0';
+
+function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<ReturnType<typeof describeNetcdf4>>, sizes: Hdf5Sizes | string): SourceFile {
   const variables: SourceVariable[] = [];
   const info = new Map<SourceVariable, Hdf5Variable>();
   for (const hv of d.variables) {
@@ -183,6 +209,54 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     return new View(h5module.HEAPU8.buffer, heapPtr, total);
   }
 
+  // Raw chunk reads: the file handle, each variable's chunk index (or why there is none), and
+  // the reused output buffer.
+  let fh: FileHandle | undefined;
+  const indexes = new Map<SourceVariable, Promise<ChunkIndex | string>>();
+  let rawBuf = new ArrayBuffer(0);
+  const libraryOnly = rawOff();
+  const readAt = async (at: number, n: number): Promise<Uint8Array> => {
+    fh ??= await open(path, 'r');
+    const b = Buffer.allocUnsafe(n);
+    const { bytesRead } = await fh.read(b, 0, n, at);
+    return b.subarray(0, bytesRead);
+  };
+  function indexOf(v: SourceVariable): Promise<ChunkIndex | string> {
+    let p = indexes.get(v);
+    if (!p) {
+      p = (async () => {
+        const hv = infoOf(v);
+        if (libraryOnly) return 'HDF5 library: HEATHOURS_NETCDF4_RAW=0';
+        if (typeof sizes === 'string') return `HDF5 library: ${sizes}`;
+        if (!LITTLE_ENDIAN_HOST) return 'HDF5 library: a big-endian machine';
+        if (!hv.plain || !HEAP_VIEW[v.type]) return `HDF5 library: values of type ${v.type} that are not plain little-endian numbers`;
+        if (hv.header === null) return 'HDF5 library: no object header address';
+        try {
+          return await readChunkIndex(readAt, sizes, hv.header, v.shape, hv.valueBytes, bytes);
+        } catch (e) {
+          if (e instanceof RawLayoutRefused) return `HDF5 library: ${e.message}`;
+          throw e;
+        }
+      })();
+      indexes.set(v, p);
+    }
+    return p;
+  }
+
+  /** Reads a hyperslab from the raw chunks into the reused buffer, or null (the HDF5 library reads it). */
+  async function readRaw(v: SourceVariable, off: number[], cnt: number[]): Promise<RawArray | null> {
+    if (v.shape.length === 0) return null;
+    const idx = await indexOf(v);
+    if (typeof idx === 'string') return null;
+    const View = HEAP_VIEW[v.type]!;
+    const nbytes = product(cnt) * idx.elementBytes;
+    if (rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
+    const out = new Uint8Array(rawBuf, 0, nbytes);
+    fh ??= await open(path, 'r');
+    const ok = await readRawSlab({ fh, path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
+    return ok ? new View(rawBuf, 0, nbytes / idx.elementBytes) : null;
+  }
+
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
     for (let i = 0; i < reqs.length; i++) {
       const { v, start, count } = reqs[i];
@@ -210,7 +284,7 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
       const off = [a0, ...start.slice(1)];
       const cnt = [a1 - a0, ...count.slice(1)];
       const strides = denseStrides(cnt);
-      const data = readDirect(v, off, cnt) ?? (await read(v, off, cnt));
+      const data = (await readRaw(v, off, cnt)) ?? readDirect(v, off, cnt) ?? (await read(v, off, cnt));
       sink(i, { data, view: null, type: v.type, base: (s0 - a0) * strides[0], strides }, done, e0 - s0);
       if (a1 > e0) {
         const k0 = Math.max(a0, Math.floor((a1 - 1) / C) * C);
@@ -235,7 +309,15 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     // Text lives in HDF5's global heap, where damage can make the library loop: read it in the
     // metadata worker, under its time limit.
     readStrings: (v) => readNetcdf4Strings(path, v.name, v.shape),
+    async readPath(v: SourceVariable): Promise<Netcdf4ReadPath> {
+      const idx = await indexOf(v);
+      return typeof idx === 'string' ? idx : 'node:zlib';
+    },
     async close() {
+      indexes.clear();
+      rawBuf = new ArrayBuffer(0);
+      if (fh) await fh.close();
+      fh = undefined;
       if (heapPtr && !stopped) h5module._free(heapPtr);
       heapPtr = 0;
       heapBytes = 0;

@@ -103,6 +103,11 @@ export interface SourceFile {
    * uncompressed bytes, CRC-32 checked); absent for plain files (hash the file).
    */
   digest?: () => Promise<string>;
+  /**
+   * How `readSlabs` reads a variable, where a backend has more than one way (NetCDF-4:
+   * `node:zlib` for chunks read and inflated directly, else `HDF5 library: <why>`).
+   */
+  readPath?(v: SourceVariable): Promise<string>;
   close(): Promise<void>;
 }
 

@@ -1,0 +1,308 @@
+/**
+ * Hyperslabs of chunked NetCDF-4 variables read without the HDF5 library: the chunks a slab
+ * touches are found in the variable's chunk index (hdf5-layout.ts), their stored bytes read with
+ * plain file reads, inflated by node:zlib on libuv's thread pool (several chunks in flight, so
+ * inflating runs beside the copying), the byte shuffle undone in JS, and the values copied into a
+ * dense row-major array of the slab's shape, exactly what the HDF5 library returns.
+ *
+ * Filters: HDF5's deflate filter stores a zlib stream (RFC 1950) per chunk (H5Zdeflate.c); its
+ * shuffle filter stores byte k of every value together, plane after plane, with the bytes of a
+ * trailing partial value left as they are (H5Zshuffle.c; Format Specification §IV.A.2.l).
+ * A chunk that does not inflate, inflates to the wrong size, or lies outside the file is
+ * `NetcdfChunkDamaged` naming the file, the variable and the chunk; nothing is handed out then.
+ */
+import { endianness } from 'node:os';
+import { inflate, inflateSync } from 'node:zlib';
+import type { FileHandle } from 'node:fs/promises';
+import { NetcdfChunkDamaged } from './errors.ts';
+import { FILTER_DEFLATE, FILTER_SHUFFLE, type ChunkIndex } from './hdf5-layout.ts';
+
+/** Chunks read and inflated at once (libuv's thread pool has 4 threads unless UV_THREADPOOL_SIZE says otherwise). */
+export const CHUNKS_IN_FLIGHT = 6;
+
+/** Whether values can be copied as bytes into typed arrays of this machine (little-endian files only). */
+export const LITTLE_ENDIAN_HOST = endianness() === 'LE';
+
+function inflateChunk(b: Uint8Array, expected: number): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    // One output buffer of the chunk's size; a stream that would inflate to more stops there.
+    inflate(b, { chunkSize: Math.max(64, Math.min(expected + 64, 1 << 30)), maxOutputLength: Math.max(1, expected) }, (e, out) => (e ? reject(e) : resolve(out)));
+  });
+}
+
+/** Where the chunk of linear index `lin` starts along each dimension [values]. */
+export function chunkOrigin(idx: ChunkIndex, lin: number): number[] {
+  const o = new Array<number>(idx.grid.length);
+  for (let d = idx.grid.length - 1; d >= 0; d--) {
+    o[d] = (lin % idx.grid[d]) * idx.chunk[d];
+    lin = Math.floor(lin / idx.grid[d]);
+  }
+  return o;
+}
+
+/** Linear indices of the chunks that the slab [off, off + cnt) touches, row-major. */
+export function chunksOfSlab(idx: ChunkIndex, off: number[], cnt: number[]): number[] {
+  const rank = idx.grid.length;
+  const lo = off.map((o, d) => Math.floor(o / idx.chunk[d]));
+  const hi = off.map((o, d) => Math.floor((o + cnt[d] - 1) / idx.chunk[d]));
+  const out: number[] = [];
+  const c = lo.slice();
+  if (cnt.some((n) => n <= 0)) return out;
+  for (;;) {
+    let lin = 0;
+    for (let d = 0; d < rank; d++) lin = lin * idx.grid[d] + c[d];
+    out.push(lin);
+    let d = rank - 1;
+    while (d >= 0 && c[d] === hi[d]) {
+      c[d] = lo[d];
+      d--;
+    }
+    if (d < 0) return out;
+    c[d]++;
+  }
+}
+
+/**
+ * Undoes the shuffle filter of one chunk (`src`, `n` values of `size` bytes in `size` planes,
+ * then the trailing bytes as they are) into `dst` [bytes].
+ */
+export function unshuffle(src: Uint8Array, dst: Uint8Array, size: number): void {
+  const n = Math.floor(src.length / size);
+  if (size === 4 && (dst.byteOffset & 3) === 0) {
+    const out = new Uint32Array(dst.buffer, dst.byteOffset, n);
+    const n2 = 2 * n;
+    const n3 = 3 * n;
+    for (let i = 0; i < n; i++) out[i] = (src[i] | (src[n + i] << 8) | (src[n2 + i] << 16) | (src[n3 + i] << 24)) >>> 0;
+  } else if (size === 2 && (dst.byteOffset & 1) === 0) {
+    const out = new Uint16Array(dst.buffer, dst.byteOffset, n);
+    for (let i = 0; i < n; i++) out[i] = src[i] | (src[n + i] << 8);
+  } else {
+    for (let b = 0; b < size; b++) {
+      const plane = b * n;
+      for (let i = 0; i < n; i++) dst[i * size + b] = src[plane + i];
+    }
+  }
+  const tail = n * size;
+  if (tail < src.length) dst.set(src.subarray(tail), tail);
+}
+
+/**
+ * Copies the part of one chunk (values at `origin`, shape `idx.chunk`, as bytes in `chunk`) that
+ * lies inside the slab [off, off + cnt) into `out` (the slab's dense bytes). With `shuffled`, the
+ * chunk's bytes are still shuffled (planes of `n` bytes, n values per chunk) and are put back
+ * together on the way; 2- and 4-byte values are joined straight into the slab, other sizes
+ * through `scratch` (a chunk's bytes). Runs that are contiguous in both the chunk and the slab
+ * are copied as one.
+ */
+export function scatterChunk(idx: ChunkIndex, origin: number[], chunk: Uint8Array, off: number[], cnt: number[], out: Uint8Array, shuffled = false, scratch?: Uint8Array): void {
+  const rank = origin.length;
+  const E = idx.elementBytes;
+  if (shuffled && E !== 2 && E !== 4) {
+    const dst = scratch ?? new Uint8Array(chunk.length);
+    unshuffle(chunk, dst, E);
+    scatterChunk(idx, origin, dst, off, cnt, out, false);
+    return;
+  }
+  const lo = new Array<number>(rank);
+  const n = new Array<number>(rank);
+  for (let d = 0; d < rank; d++) {
+    lo[d] = Math.max(origin[d], off[d]);
+    n[d] = Math.min(origin[d] + idx.chunk[d], off[d] + cnt[d]) - lo[d];
+    if (n[d] <= 0) return;
+  }
+  // Strides in values of the chunk and of the slab.
+  const cs = new Array<number>(rank);
+  const os = new Array<number>(rank);
+  cs[rank - 1] = 1;
+  os[rank - 1] = 1;
+  for (let d = rank - 2; d >= 0; d--) {
+    cs[d] = cs[d + 1] * idx.chunk[d + 1];
+    os[d] = os[d + 1] * cnt[d + 1];
+  }
+  // Collapse: while the inner dimensions are whole in both, the run spans the next one out too.
+  let inner = rank - 1;
+  let run = n[rank - 1];
+  while (inner > 0 && n[inner] === idx.chunk[inner] && n[inner] === cnt[inner]) {
+    inner--;
+    run *= n[inner];
+  }
+  const nChunk = idx.chunk.reduce((a, b) => a * b, 1);
+  const out32 = shuffled && E === 4 ? new Uint32Array(out.buffer, out.byteOffset, out.byteLength >>> 2) : null;
+  const out16 = shuffled && E === 2 ? new Uint16Array(out.buffer, out.byteOffset, out.byteLength >>> 1) : null;
+  const i = new Array<number>(rank).fill(0);
+  for (;;) {
+    let src = 0;
+    let dst = 0;
+    for (let d = 0; d < rank; d++) {
+      const k = d < inner ? i[d] : 0;
+      src += (lo[d] - origin[d] + k) * cs[d];
+      dst += (lo[d] - off[d] + k) * os[d];
+    }
+    if (out32) joinPlanes4(chunk, nChunk, src, out32, dst, run);
+    else if (out16) joinPlanes2(chunk, nChunk, src, out16, dst, run);
+    else out.set(chunk.subarray(src * E, (src + run) * E), dst * E);
+    let d = inner - 1;
+    while (d >= 0 && i[d] === n[d] - 1) {
+      i[d] = 0;
+      d--;
+    }
+    if (d < 0) return;
+    i[d]++;
+  }
+}
+
+/** Values [src, src + run) of a shuffled chunk of `n` 4-byte values, joined into out[dst …]. */
+function joinPlanes4(b: Uint8Array, n: number, src: number, out: Uint32Array, dst: number, run: number): void {
+  if (((n | src | run | b.byteOffset) & 3) === 0) {
+    // Four values at a time: a 4 × 4 byte transpose of one word from each plane.
+    const w = new Uint32Array(b.buffer, b.byteOffset, n);
+    const n4 = n >>> 2;
+    const s4 = src >>> 2;
+    const r4 = run >>> 2;
+    for (let i = 0; i < r4; i++) {
+      const x0 = w[s4 + i];
+      const x1 = w[n4 + s4 + i];
+      const x2 = w[2 * n4 + s4 + i];
+      const x3 = w[3 * n4 + s4 + i];
+      const o = dst + 4 * i;
+      out[o] = ((x0 & 0xff) | ((x1 & 0xff) << 8) | ((x2 & 0xff) << 16) | (x3 << 24)) >>> 0;
+      out[o + 1] = (((x0 >>> 8) & 0xff) | (x1 & 0xff00) | ((x2 & 0xff00) << 8) | ((x3 & 0xff00) << 16)) >>> 0;
+      out[o + 2] = (((x0 >>> 16) & 0xff) | ((x1 >>> 8) & 0xff00) | (x2 & 0xff0000) | ((x3 & 0xff0000) << 8)) >>> 0;
+      out[o + 3] = ((x0 >>> 24) | ((x1 >>> 16) & 0xff00) | ((x2 >>> 8) & 0xff0000) | (x3 & 0xff000000)) >>> 0;
+    }
+    return;
+  }
+  const p1 = n + src;
+  const p2 = 2 * n + src;
+  const p3 = 3 * n + src;
+  for (let k = 0; k < run; k++) out[dst + k] = (b[src + k] | (b[p1 + k] << 8) | (b[p2 + k] << 16) | (b[p3 + k] << 24)) >>> 0;
+}
+
+/** Values [src, src + run) of a shuffled chunk of `n` 2-byte values, joined into out[dst …]. */
+function joinPlanes2(b: Uint8Array, n: number, src: number, out: Uint16Array, dst: number, run: number): void {
+  const p1 = n + src;
+  for (let k = 0; k < run; k++) out[dst + k] = b[src + k] | (b[p1 + k] << 8);
+}
+
+/** What names a chunk in an error: its first index along each dimension. */
+function chunkLabel(dims: string[], origin: number[]): string {
+  return origin.map((o, d) => `${dims[d] ?? `dim${d}`} ${o}`).join(', ');
+}
+
+export interface RawSlabRead {
+  fh: FileHandle;
+  path: string;
+  fileBytes: number;
+  variable: string;
+  dims: string[];
+  idx: ChunkIndex;
+  off: number[];
+  cnt: number[];
+  /** The slab's dense bytes (row-major over `cnt`), written in full. */
+  out: Uint8Array;
+}
+
+/** Most bytes read in one go for the chunks of one slab [bytes]. */
+const MAX_SPAN = 64 << 20;
+
+/**
+ * How chunks are inflated: `pool` (node:zlib's asynchronous inflate on libuv's thread pool,
+ * {@link CHUNKS_IN_FLIGHT} at once, the copying in this thread meanwhile) or `sync` (inflateSync
+ * in this thread, less CPU per chunk, no overlap). HEATHOURS_NETCDF4_INFLATE=sync picks the latter.
+ */
+export type InflateMode = 'pool' | 'sync';
+export const inflateMode = (): InflateMode => (process.env.HEATHOURS_NETCDF4_INFLATE === 'sync' ? 'sync' : 'pool');
+
+/**
+ * Reads the slab [off, off + cnt) of a variable into `out`. Returns false, having written
+ * nothing that counts, when a chunk it needs was never written (HDF5 then gives the fill value,
+ * so the caller reads through the library).
+ */
+export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
+  const { idx } = r;
+  const list = chunksOfSlab(idx, r.off, r.cnt);
+  for (const lin of list) if (idx.address[lin] < 0) return false;
+  const chunkBytes = idx.chunk.reduce((a, b) => a * b, 1) * idx.elementBytes;
+  const damaged = (lin: number, detail: string) =>
+    NetcdfChunkDamaged({ path: r.path, variable: r.variable, chunk: chunkLabel(r.dims, chunkOrigin(idx, lin)), at: idx.address[lin], size: idx.size[lin], detail }, { file: r.path, variable: r.variable });
+  // Stored bytes: checked against the file, then read in one go when the chunks lie close together.
+  let lo = Infinity;
+  let hi = 0;
+  let stored = 0;
+  for (const lin of list) {
+    const at = idx.address[lin];
+    const size = idx.size[lin];
+    if (at + size > r.fileBytes) throw damaged(lin, `its ${size} bytes end past the end of the file (${r.fileBytes} bytes)`);
+    if (size > 4 * chunkBytes + (1 << 20)) throw damaged(lin, `it is recorded as ${size} bytes, more than a chunk of ${chunkBytes} bytes can take compressed`);
+    lo = Math.min(lo, at);
+    hi = Math.max(hi, at + size);
+    stored += size;
+  }
+  let span: Buffer | null = null;
+  if (list.length > 1 && hi - lo <= MAX_SPAN && hi - lo <= 2 * stored + (1 << 20)) {
+    span = Buffer.allocUnsafe(hi - lo);
+    const { bytesRead } = await r.fh.read(span, 0, hi - lo, lo);
+    if (bytesRead < hi - lo) span = null;
+  }
+  const storedBytes = async (lin: number): Promise<Uint8Array> => {
+    const at = idx.address[lin];
+    const size = idx.size[lin];
+    if (span) return span.subarray(at - lo, at - lo + size);
+    const b = Buffer.allocUnsafe(size);
+    const { bytesRead } = await r.fh.read(b, 0, size, at);
+    if (bytesRead < size) throw damaged(lin, `only ${bytesRead} of its ${size} bytes could be read`);
+    return b;
+  };
+  const sync = inflateMode() === 'sync';
+  let scratch: Uint8Array | undefined;
+  const one = async (lin: number): Promise<void> => {
+    let b = await storedBytes(lin);
+    const mask = idx.mask[lin];
+    // Filters are undone in the reverse of the order they were applied; a shuffle undone last
+    // is undone while copying into the slab.
+    let shuffledLast = false;
+    for (let k = idx.filters.length - 1; k >= 0; k--) {
+      if (mask & (1 << k)) continue;
+      if (idx.filters[k].id === FILTER_DEFLATE) {
+        try {
+          b = sync ? inflateSync(b, { chunkSize: Math.max(64, chunkBytes + 64), maxOutputLength: Math.max(1, chunkBytes) }) : await inflateChunk(b, chunkBytes);
+        } catch (e) {
+          const why = (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE' ? `it inflates to more than the ${chunkBytes} bytes of a chunk` : `it does not inflate (${(e as Error).message})`;
+          throw damaged(lin, why);
+        }
+      } else if (idx.elementBytes > 1) {
+        if (k === 0) shuffledLast = true;
+        else {
+          if (b.length !== chunkBytes) throw damaged(lin, `it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
+          const dst = new Uint8Array(chunkBytes);
+          unshuffle(b, dst, idx.elementBytes);
+          b = dst;
+        }
+      }
+    }
+    if (b.length !== chunkBytes) throw damaged(lin, `it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
+    if (shuffledLast && idx.elementBytes !== 2 && idx.elementBytes !== 4) scratch ??= new Uint8Array(chunkBytes);
+    scatterChunk(idx, chunkOrigin(idx, lin), b, r.off, r.cnt, r.out, shuffledLast, scratch);
+  };
+  if (sync) {
+    for (const lin of list) await one(lin);
+    return true;
+  }
+  let next = 0;
+  let failure: unknown;
+  const lane = async (): Promise<void> => {
+    while (failure === undefined && next < list.length) {
+      const lin = list[next++];
+      try {
+        await one(lin);
+      } catch (e) {
+        failure ??= e;
+      }
+    }
+  };
+  const lanes: Promise<void>[] = [];
+  for (let k = 0; k < Math.min(CHUNKS_IN_FLIGHT, list.length); k++) lanes.push(lane());
+  await Promise.all(lanes);
+  if (failure !== undefined) throw failure;
+  return true;
+}
