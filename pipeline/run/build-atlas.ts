@@ -17,6 +17,7 @@
  * or the number of regions.
  */
 import { mkdir, rename, rm } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
 import { loadConfig, type ResolvedConfig } from '../config/load.ts';
 import type { KernelCounts } from '../physics/index.ts';
@@ -24,7 +25,8 @@ import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
 import { buildSite } from './site-stage.ts';
 import { planBuild, type BuildPlan } from './plan-stage.ts';
-import { computeStage, type ComputeMode } from './compute-stage.ts';
+import { computeStage, workerInit, type ComputeMode } from './compute-stage.ts';
+import { startShardPool, type ShardPool, type WorkerInit } from './shard-pool.ts';
 import { mergeStage, stagingTarget } from './merge-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 import { bandDir, bandDone, bandsKey, bandsRootOf, linkBandData, readBands, writeBand } from './band-store.ts';
@@ -104,7 +106,20 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
   const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
-  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
+  // The workers start now and load their code while the plan hashes the inputs; they are sent
+  // their set-up when the plan is made, and serve compute, merge and the inputs' summary.
+  const jobs = Math.max(1, o.jobs ?? availableParallelism());
+  let setUp: { resolve(i: WorkerInit): void; reject(e: unknown): void } | undefined;
+  const pool: ShardPool = startShardPool(jobs, new Promise<WorkerInit>((resolve, reject) => (setUp = { resolve, reject })));
+  let plan: BuildPlan;
+  try {
+    plan = await planBuild(rc, { jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
+  } catch (e) {
+    setUp!.reject(e);
+    await pool.close();
+    throw e;
+  }
+  setUp!.resolve(workerInit(plan));
   const scratch = join(dirname(outDir), `.${basename(outDir)}.scratch-${process.pid}`);
   const shared = o.mergeDir ?? o.assembleDir;
   const cacheDir = o.cache === false || shared ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);
@@ -114,7 +129,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       : shared
         ? { kind: 'merge', partialsDir: shared }
         : { kind: 'cache', cacheDir, scratchDir: join(scratch, 'partials') };
-    const compute = await computeStage(plan, mode, log, o.quiet);
+    const compute = await computeStage(plan, mode, log, o.quiet, pool);
     const report = (publishSeconds: number, mergeSeconds: number): BuildReport => ({
       outDir: o.shard ? join(resolve(o.shard.partialsDir), `slice-${o.shard.k}-of-${o.shard.n}`) : outDir,
       shards: o.shard ? compute.partials.size : plan.shards.length,
@@ -143,7 +158,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         scratchDir: (b, v) => join(bandDir(dir, b.rows, v), 'scratch'),
         done: (b, v) => bandDone(dir, key, b.rows, v),
         finished: (b, v, s) => writeBand(dir, key, b.blocks, s, v),
-      }, log, o.quiet);
+      }, log, o.quiet, pool);
       log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
       return report(0, merged.seconds);
     }
@@ -168,12 +183,13 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
           return bands.map((b) => b.summary);
         });
       } else {
-        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet);
+        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet, pool);
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }
       for (let vi = 0; vi < plan.variants.length; vi++) await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
-      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
+      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet, pool });
+      await pool.close();
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {
         const { replaceDirAtomic } = await import('../model/effects.ts');
@@ -191,6 +207,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       await rm(stage, { recursive: true, force: true });
     }
   } finally {
+    await pool.close();
     await rm(scratch, { recursive: true, force: true });
     await plan.close();
   }

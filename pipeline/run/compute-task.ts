@@ -94,6 +94,11 @@ interface BlockBuffers {
  */
 let kept: BlockBuffers | undefined;
 
+/** Lets go of the kept buffers (a worker that turns to merging). */
+export function releaseBlockBuffers(): void {
+  kept = undefined;
+}
+
 function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
   const scratch = reuseScratch(kept?.scratch, n, evaluations);
   const mk = () => new Float32Array(n);
