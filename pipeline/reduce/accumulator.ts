@@ -81,9 +81,11 @@ export const histPerMonth = (nCells: number): number => HOURS * nCells * N_EXPOS
 
 /**
  * An empty partial for `cells` of one year, its histograms for the local months [m0, m1)
- * (default the whole year).
+ * (default the whole year). `spare`: histogram arrays of partials that are done with (encoded
+ * and dropped); one of the right length is taken from it and cleared instead of allocating a new
+ * one (tens of MB per shard, whose fresh pages cost more than clearing).
  */
-export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS]): ShardPartial {
+export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS], spare?: Uint16Array[]): ShardPartial {
   const nc = cells.length;
   const nE = evaluations.length;
   const cm = nc * MONTHS;
@@ -107,9 +109,18 @@ export function createPartial(year: number, cells: Int32Array, evaluations: read
     airSum: new Float64Array(cm),
     airHours: new Uint32Array(cm),
     months: [months[0], months[1]],
-    histogram: new Uint16Array((months[1] - months[0]) * histPerMonth(nc)),
+    histogram: histogramArray((months[1] - months[0]) * histPerMonth(nc), spare),
     failedHours: new Uint32Array(nc),
   };
+}
+
+/** A zeroed histogram array of `n` bins [h]: a cleared one from `spare` when one has that length, else a new one. */
+function histogramArray(n: number, spare: Uint16Array[] | undefined): Uint16Array {
+  const i = spare === undefined ? -1 : spare.findIndex((h) => h.length === n);
+  if (i < 0) return new Uint16Array(n);
+  const h = spare!.splice(i, 1)[0];
+  h.fill(0);
+  return h;
 }
 
 /**

@@ -9,12 +9,34 @@
  */
 import { HIST_LEN } from './layout.ts';
 
-/** The sparse form of dense histograms `h` (a whole number of slots of HIST_LEN bins). */
+/** True where a Uint32 holds the Uint16 of the lower address in its low half (every common processor). */
+const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
+
+/**
+ * The sparse form of dense histograms `h` (a whole number of slots of HIST_LEN bins). The slots'
+ * first and last non-empty bins are found two bins at a time through a Uint32 view when `h` is
+ * 4-byte aligned (HIST_LEN is even, so every slot starts on a word), one at a time otherwise.
+ */
 export function sparseHistogram(h: Uint16Array): Uint16Array {
   const slots = h.length / HIST_LEN;
-  let size = 0;
   const firsts = new Uint16Array(slots);
   const ns = new Uint16Array(slots);
+  const size = LITTLE_ENDIAN && (h.byteOffset & 3) === 0 && (HIST_LEN & 1) === 0 ? slotBoundsWords(h, slots, firsts, ns) : slotBounds(h, slots, firsts, ns);
+  const out = new Uint16Array(size);
+  let p = 0;
+  for (let s = 0; s < slots; s++) {
+    out[p++] = firsts[s];
+    out[p++] = ns[s];
+    // Element by element: a subarray per slot (hundreds of thousands) costs more than the copy.
+    const b0 = s * HIST_LEN + firsts[s];
+    for (let k = 0; k < ns[s]; k++) out[p++] = h[b0 + k];
+  }
+  return out;
+}
+
+/** First non-empty bin and bins up to the last non-empty one of each slot; returns the sparse size. */
+function slotBounds(h: Uint16Array, slots: number, firsts: Uint16Array, ns: Uint16Array): number {
+  let size = 0;
   for (let s = 0; s < slots; s++) {
     const b0 = s * HIST_LEN;
     let first = -1;
@@ -29,16 +51,33 @@ export function sparseHistogram(h: Uint16Array): Uint16Array {
     ns[s] = first < 0 ? 0 : last - first + 1;
     size += 2 + ns[s];
   }
-  const out = new Uint16Array(size);
-  let p = 0;
+  return size;
+}
+
+/** {@link slotBounds} two bins per read (little-endian words: bin 2w in the low half of word w). */
+function slotBoundsWords(h: Uint16Array, slots: number, firsts: Uint16Array, ns: Uint16Array): number {
+  const w = new Uint32Array(h.buffer, h.byteOffset, h.length >> 1);
+  const per = HIST_LEN >> 1;
+  let size = 0;
   for (let s = 0; s < slots; s++) {
-    out[p++] = firsts[s];
-    out[p++] = ns[s];
-    // Element by element: a subarray per slot (hundreds of thousands) costs more than the copy.
-    const b0 = s * HIST_LEN + firsts[s];
-    for (let k = 0; k < ns[s]; k++) out[p++] = h[b0 + k];
+    const w0 = s * per;
+    let a = 0;
+    while (a < per && w[w0 + a] === 0) a++;
+    if (a === per) {
+      firsts[s] = 0;
+      ns[s] = 0;
+      size += 2;
+      continue;
+    }
+    let z = per - 1;
+    while (w[w0 + z] === 0) z--;
+    const first = 2 * a + ((w[w0 + a] & 0xffff) === 0 ? 1 : 0);
+    const last = 2 * z + (w[w0 + z] >>> 16 !== 0 ? 1 : 0);
+    firsts[s] = first;
+    ns[s] = last - first + 1;
+    size += 2 + ns[s];
   }
-  return out;
+  return size;
 }
 
 /**

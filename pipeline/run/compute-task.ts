@@ -94,9 +94,16 @@ interface BlockBuffers {
  */
 let kept: BlockBuffers | undefined;
 
+/**
+ * Histogram arrays of this thread's partials that are encoded and dropped, reused by the next
+ * task's partials (at most one task's worth is kept).
+ */
+let spareHistograms: Uint16Array[] = [];
+
 /** Lets go of the kept buffers (a worker that turns to merging). */
 export function releaseBlockBuffers(): void {
   kept = undefined;
+  spareHistograms = [];
 }
 
 function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
@@ -158,9 +165,11 @@ async function tileChange(ctx: ShardContext, shard: ShardSpec, grid: { lat: Floa
 
 /**
  * Computes the task's shards. Each shard's result is handed to `onShard` as soon as the last
- * block has been added (in tile order), so a caller can encode and drop it.
+ * block has been added (in tile order), so a caller can encode and drop it. With `recycle`, the
+ * caller promises to keep nothing of a partial's histogram past `onShard`'s return: the array is
+ * then reused by the next task in this thread (the build's workers, which encode and drop).
  */
-export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>): Promise<void> {
+export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>, recycle = false): Promise<void> {
   const first = task.shards[0];
   const y0 = first.tile.y0;
   const y1 = task.shards[task.shards.length - 1].tile.y1;
@@ -171,7 +180,7 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
     const runs = landRuns(shard.cells, ctx.nLon, y0);
     return {
       shard,
-      partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months),
+      partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months, recycle ? spareHistograms : undefined),
       pos: Int32Array.from(shard.cells, (c) => (Math.floor(c / ctx.nLon) - y0) * nCols + (c % ctx.nLon)),
       runs,
       runLon: runs.map((r) => new Float64Array(r.j1 - r.j0)),
@@ -199,9 +208,14 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
       computeTileBlock(tile, block, nt, nBlock, buf, ctx);
     }
   }
+  const spare: Uint16Array[] = [];
   for (const tile of tiles) {
     await onShard(tile.shard, { partial: tile.partial, physics: tile.physics, change: tile.changeCounts, cellHours: tile.cellHours, timing: tile.timing });
+    // `onShard` has encoded the partial and keeps none of its histogram (`recycle`): the array
+    // serves the next task's partials.
+    if (recycle) spare.push(tile.partial.histogram);
   }
+  if (recycle) spareHistograms = spare;
 }
 
 /** One block for one tile: gather its land cells, physics by grid row, back to time-major, reduce. */

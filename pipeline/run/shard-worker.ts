@@ -46,7 +46,8 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
         const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics, ...(shard.scenario !== undefined ? { change } : {}) } });
         shards.push({ shardId: shard.id, physics: r.physics, change: r.change, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
         progress(1);
-      });
+        // The partial is encoded and written: nothing of it is kept, so its arrays may be reused.
+      }, true);
       return { kind: 'compute', shards };
     } catch (e) {
       const code = (e as NodeJS.ErrnoException)?.code;

@@ -131,6 +131,34 @@ describe('merging sparse histograms', () => {
     expect(sparseHistogramProblem(Uint16Array.from([...s, 0, 0]), slots)).toBe('2 histogram values left over');
   });
 
+  it('the sparse form is the same read two bins at a time (aligned) as one at a time (unaligned), and each slot runs exactly from its first to its last non-empty bin', () => {
+    let r = 99;
+    const rnd = () => ((r = (r * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+    const slots = 400;
+    const h = new Uint16Array(slots * HIST_LEN);
+    for (let s = 0; s < slots; s++) {
+      if (s % 5 === 0) continue; // empty slots
+      const lo = Math.floor(rnd() * HIST_LEN);
+      const hi = Math.min(HIST_LEN - 1, lo + Math.floor(rnd() * 9));
+      for (let b = lo; b <= hi; b++) if (b === lo || b === hi || rnd() < 0.5) h[s * HIST_LEN + b] = 1 + Math.floor(rnd() * 40);
+    }
+    h[3 * HIST_LEN] = 7; // first bin of a slot
+    h[4 * HIST_LEN - 1] = 9; // last bin of a slot
+    const shifted = new Uint16Array(new ArrayBuffer(h.byteLength + 2), 2, h.length);
+    shifted.set(h);
+    const aligned = sparseHistogram(h);
+    expect(Buffer.from(aligned.buffer).equals(Buffer.from(sparseHistogram(shifted).slice().buffer))).toBe(true);
+    let q = 0;
+    for (let s = 0; s < slots; s++) {
+      const slot = h.subarray(s * HIST_LEN, (s + 1) * HIST_LEN);
+      const first = slot.findIndex((x) => x !== 0);
+      const last = slot.findLastIndex((x) => x !== 0);
+      expect([aligned[q], aligned[q + 1]], `slot ${s}`).toEqual(first < 0 ? [0, 0] : [first, last - first + 1]);
+      q += 2 + aligned[q + 1];
+    }
+    expect(q).toBe(aligned.length);
+  });
+
   it('a partial file whose sparse histogram is damaged (checksum intact) is PartialCorrupt naming the file, for the merge and for the dense decoding', () => {
     const bytes = repack(encodePartial(piece(b, nc, cells, 0, 0, 24 * 10), meta), (hist) => {
       hist[0] = HIST_LEN - 1;
