@@ -84,6 +84,9 @@ interface BlockBuffers {
   gSun: Float32Array;
   gShade: Float32Array;
   gAir: Float32Array;
+  /** Per land cell of the tile: where its hours start in the physics' arrays, and their step (the fused reduction). */
+  cellBase: Int32Array;
+  cellStride: Int32Array;
   /** The shelter's physics output and gathered array, when the build counts the shelter. */
   shelter: { out: Float32Array; g: Float32Array } | undefined;
 }
@@ -106,11 +109,11 @@ export function releaseBlockBuffers(): void {
   spareHistograms = [];
 }
 
-function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
+function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[], nCells: number): BlockBuffers {
   const scratch = reuseScratch(kept?.scratch, n, evaluations);
   const mk = () => new Float32Array(n);
   const withShelter = countedExposures(evaluations).includes('shelter');
-  if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours) {
+  if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours && kept.cellBase.length >= nCells) {
     kept.scratch = scratch;
     if (!withShelter) kept.shelter = undefined;
     else if (kept.shelter === undefined || kept.shelter.g.length < n) kept.shelter = { out: mk(), g: mk() };
@@ -124,6 +127,8 @@ function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkE
     gSun: mk(),
     gShade: mk(),
     gAir: mk(),
+    cellBase: new Int32Array(nCells),
+    cellStride: new Int32Array(nCells),
     shelter: withShelter ? { out: mk(), g: mk() } : undefined,
   };
   return kept;
@@ -193,7 +198,7 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
   });
   for (const tile of tiles) tile.change = await tileChange(ctx, tile.shard, ds.grid);
   const maxLand = Math.max(...task.shards.map((s) => s.cells.length));
-  const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations);
+  const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations, maxLand);
   const [h0, h1] = first.hours;
   for (let t0 = h0; t0 < h1; t0 += task.blockHours) {
     const nt = Math.min(task.blockHours, h1 - t0);
@@ -237,14 +242,18 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
   const wind = f.windSpeed10m!;
   const sg = f.solarGlobal!;
   const sd = f.solarDirect;
-  // Gather the land cells: row-segment-major for the physics, time-major air for the reduction.
-  // Physics runs on the land cells only, one grid row at a time: each row's land cells form a
-  // grid of 1 row × its land columns (the columns need not be adjacent: geometry takes the
-  // longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
-  for (let t = 0; t < nt; t++) {
-    const src = t * nBlock;
-    const dst = t * nLand;
-    for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+  // The fused reduction reads the physics' layout as it is; the general one needs time-major arrays.
+  const fused = buf.scratch.groups !== null;
+  // Gather the land cells: row-segment-major for the physics (and time-major air for the general
+  // reduction). Physics runs on the land cells only, one grid row at a time: each row's land
+  // cells form a grid of 1 row × its land columns (the columns need not be adjacent: geometry
+  // takes the longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
+  if (!fused) {
+    for (let t = 0; t < nt; t++) {
+      const src = t * nBlock;
+      const dst = t * nLand;
+      for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+    }
   }
   for (const r of runs) {
     const nr = r.j1 - r.j0;
@@ -297,6 +306,30 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
     addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
   }
   lap('physics');
+  if (fused) {
+    // Cell j of run r at hour t lies at r.j0 · nt + t · nr + (j − r.j0): the reduction reads there.
+    const { cellBase, cellStride } = buf;
+    for (const r of runs) {
+      const nr = r.j1 - r.j0;
+      for (let k = 0; k < nr; k++) {
+        cellBase[r.j0 + k] = r.j0 * nt + k;
+        cellStride[r.j0 + k] = nr;
+      }
+    }
+    const n = nt * nLand;
+    accumulateBlock(
+      tile.partial,
+      {
+        nHours: nt, cellBase: cellBase.subarray(0, nLand), cellStride: cellStride.subarray(0, nLand),
+        wbgtSun: out.wbgtSun.subarray(0, n), wbgtShade: out.wbgtShade.subarray(0, n), wbgtShelter: buf.shelter?.out.subarray(0, n), airTemperature: inp.air.subarray(0, n), local,
+      },
+      ctx.evaluations,
+      scratch,
+    );
+    for (let t = 0; t < nt; t++) if (local.year[t] === shard.year) tile.cellHours += nLand;
+    lap('reduce');
+    return;
+  }
   // Back to time-major over the land cells for the reduction (a scenario's air temperature too).
   const changed = tile.change !== undefined;
   for (const r of runs) {
