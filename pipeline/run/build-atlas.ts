@@ -106,8 +106,9 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
   const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
-  // The workers start now and load their code while the plan hashes the inputs; they are sent
-  // their set-up when the plan is made, and serve compute, merge and the inputs' summary.
+  // The compute workers start now and load their code while the plan hashes the inputs; they are
+  // sent their set-up when the plan is made. They are stopped after the compute stage: the merge
+  // and the inputs' summary start fresh workers, so a merge holds nothing of computing (memory).
   const jobs = Math.max(1, o.jobs ?? availableParallelism());
   let setUp: { resolve(i: WorkerInit): void; reject(e: unknown): void } | undefined;
   const pool: ShardPool = startShardPool(jobs, new Promise<WorkerInit>((resolve, reject) => (setUp = { resolve, reject })));
@@ -130,6 +131,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         ? { kind: 'merge', partialsDir: shared }
         : { kind: 'cache', cacheDir, scratchDir: join(scratch, 'partials') };
     const compute = await computeStage(plan, mode, log, o.quiet, pool);
+    await pool.close();
     const report = (publishSeconds: number, mergeSeconds: number): BuildReport => ({
       outDir: o.shard ? join(resolve(o.shard.partialsDir), `slice-${o.shard.k}-of-${o.shard.n}`) : outDir,
       shards: o.shard ? compute.partials.size : plan.shards.length,
@@ -158,7 +160,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         scratchDir: (b, v) => join(bandDir(dir, b.rows, v), 'scratch'),
         done: (b, v) => bandDone(dir, key, b.rows, v),
         finished: (b, v, s) => writeBand(dir, key, b.blocks, s, v),
-      }, log, o.quiet, pool);
+      }, log, o.quiet);
       log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
       return report(0, merged.seconds);
     }
@@ -183,13 +185,12 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
           return bands.map((b) => b.summary);
         });
       } else {
-        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet, pool);
+        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet);
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }
       for (let vi = 0; vi < plan.variants.length; vi++) await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
-      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet, pool });
-      await pool.close();
+      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {
         const { replaceDirAtomic } = await import('../model/effects.ts');

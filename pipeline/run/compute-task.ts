@@ -99,15 +99,9 @@ let kept: BlockBuffers | undefined;
 
 /**
  * Histogram arrays of this thread's partials that are encoded and dropped, reused by the next
- * task's partials (at most one task's worth is kept).
+ * task's partials (at most one task's worth is kept; the pool's workers end with the stage).
  */
 let spareHistograms: Uint16Array[] = [];
-
-/** Lets go of the kept buffers (a worker that turns to merging). */
-export function releaseBlockBuffers(): void {
-  kept = undefined;
-  spareHistograms = [];
-}
 
 function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[], nCells: number): BlockBuffers {
   const scratch = reuseScratch(kept?.scratch, n, evaluations);

@@ -8,7 +8,7 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
-import { runTasks, type PoolTask, type ShardPool } from './shard-pool.ts';
+import { runTasks, type PoolTask } from './shard-pool.ts';
 import type { BuildPlan, BuildVariant, MergeBand } from './plan-stage.ts';
 import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
 import { workerInit } from './compute-stage.ts';
@@ -44,9 +44,9 @@ export function mergeTaskId(band: MergeBand, v: BuildVariant): string {
 
 /**
  * Merges every band of the plan. `partials` maps shard ids to their files; `target` says where
- * each band's files go; `pool`: the build's workers (kept running), else workers started for it.
+ * each band's files go.
  */
-export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, string>, target: BandTarget, log: Logger, quiet?: boolean, pool?: ShardPool): Promise<MergeOutcome> {
+export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, string>, target: BandTarget, log: Logger, quiet?: boolean): Promise<MergeOutcome> {
   const cfg = plan.rc.config;
   const todo = plan.variants.flatMap((variant, vi) => plan.bands.filter((b) => !target.done?.(b, variant)).map((band) => ({ band, variant, vi })));
   const all = plan.bands.length * plan.variants.length;
@@ -82,7 +82,7 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
   log.info(`merging ${inputs.length} band(s) of rows${plan.variants.length > 1 ? ` (the record and ${plan.variants.length - 1} scenario(s))` : ''} on ${plan.jobs} worker(s): normals, trends, niche, cell tables, map chunks, calculator tiles`);
   await runTasks(
     inputs.map((tile): PoolTask => ({ kind: 'merge', tile })),
-    pool ?? workerInit(plan),
+    workerInit(plan),
     plan.jobs,
     {
       onTask: (id, summary) => {

@@ -33,7 +33,7 @@ import type { BuildPlan, BuildVariant } from './plan-stage.ts';
 import { describeScenario, SCENARIO_CAVEAT } from '../scenario/describe.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 import { workerInit, type ComputeOutcome } from './compute-stage.ts';
-import { runTasks, type PoolTask, type ShardPool } from './shard-pool.ts';
+import { runTasks, type PoolTask } from './shard-pool.ts';
 import type { SummaryChunkCache, SummaryPart } from '../read/index.ts';
 
 export interface PublishInput {
@@ -49,8 +49,6 @@ export interface PublishInput {
   generated: string;
   log: Logger;
   quiet?: boolean;
-  /** The build's workers (kept running), for the inputs' summary; else workers are started for it. */
-  pool?: ShardPool;
 }
 
 export async function publishStage(p: PublishInput): Promise<Manifest> {
@@ -61,7 +59,7 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
   // (UTC years) not in the cache run on worker threads while this thread draws the layers.
   const summaryCache = p.summaryCacheDir ? fileSummaryCache(p.summaryCacheDir) : undefined;
   const stopSummary = new AbortController();
-  const summaryParts = summariseInWorkers(plan, summaryCache, stopSummary.signal, p.pool);
+  const summaryParts = summariseInWorkers(plan, summaryCache, stopSummary.signal);
   summaryParts.catch(() => undefined); // awaited below; a failure before then stops it in `finally`
   try {
     // Each weather's gridded files and indexes: the record into data/, a scenario into data/scenarios/<id>/.
@@ -82,11 +80,11 @@ export async function publishStage(p: PublishInput): Promise<Manifest> {
  * The summary chunks of the inputs that the cache does not hold, computed on up to `plan.jobs`
  * worker threads (one chunk per task), by cache key.
  */
-async function summariseInWorkers(plan: BuildPlan, cache: SummaryChunkCache | undefined, signal: AbortSignal, pool?: ShardPool): Promise<Map<string, SummaryPart>> {
+async function summariseInWorkers(plan: BuildPlan, cache: SummaryChunkCache | undefined, signal: AbortSignal): Promise<Map<string, SummaryPart>> {
   const parts = new Map<string, SummaryPart>();
   const todo = plan.ds.summaryChunks().filter((c) => cache?.get(c.key) === undefined);
   const tasks = todo.map((c): PoolTask => ({ kind: 'summary', hours: c.hours, key: c.key }));
-  await runTasks(tasks, pool ?? workerInit(plan), plan.jobs, { onSummaryPart: (key, part) => parts.set(key, part) }, signal);
+  await runTasks(tasks, workerInit(plan), plan.jobs, { onSummaryPart: (key, part) => parts.set(key, part) }, signal);
   return parts;
 }
 

@@ -59,7 +59,7 @@ export interface PoolHandlers {
 
 export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.kind === 'merge' ? t.tile.id : `summary-${t.hours[0]}-${t.hours[1]}`);
 
-/** The build's pool, started once and kept for every stage that runs tasks (compute, merge, the inputs' summary). */
+/** A pool the caller keeps across runs (the compute stage's, started before the plan is made). */
 export interface ShardPool {
   readonly size: number;
   /** @internal the worker pool itself */

@@ -3,12 +3,11 @@
  * as the entry `shard`): opens the dataset once, then runs the tasks it is sent — compute tasks
  * (a piece of a year over a group of tiles, ./compute-task.ts), each shard's partial written to
  * its file here (encoding runs in parallel), merge bands (./merge-tile.ts) and chunks of the
- * inputs' summary for the inventory. One pool serves the whole build (started before the plan is
- * made), so a merge band first lets go of what computing kept. Only small reports travel back to
- * the main thread. A full disk becomes the catalogued DiskFull.
+ * inputs' summary for the inventory. The compute stage's pool is started before the plan is made
+ * (pipeline/run/build-atlas.ts). Only small reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
  */
 import { openDataset, type Dataset } from '../read/index.ts';
-import { computeTask, releaseBlockBuffers } from './compute-task.ts';
+import { computeTask } from './compute-task.ts';
 import type { PoolResult, PoolTask, ShardReport, WorkerInit } from './shard-pool.ts';
 import { writePartialFile } from './partial-store.ts';
 import { runMergeTile } from './merge-tile.ts';
@@ -24,17 +23,7 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
   },
   async run(t, progress) {
     try {
-      if (t.kind === 'merge') {
-        // The pool is kept from the compute stage: the compute buffers and the open dataset are
-        // let go first, so a merge holds what it would in a fresh worker.
-        releaseBlockBuffers();
-        if (ds !== undefined) {
-          const open = ds;
-          ds = undefined;
-          await open.close();
-        }
-        return { kind: 'merge', summary: await runMergeTile(t.tile) };
-      }
+      if (t.kind === 'merge') return { kind: 'merge', summary: await runMergeTile(t.tile) };
       ds ??= await openDataset(init!.files, { ...init!.datasetOptions });
       if (t.kind === 'summary') return { kind: 'summary', key: t.key, part: await ds.summariseChunk(t.hours[0], t.hours[1]) };
       const shards: ShardReport[] = [];
