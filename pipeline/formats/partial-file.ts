@@ -20,6 +20,8 @@ import { createHash } from 'node:crypto';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import type { ShardPartial } from '../reduce/accumulator.ts';
 import { HIST_LEN, MONTHS } from '../reduce/layout.ts';
+import { denseHistogram, sparseHistogram, sparseHistogramProblem } from '../reduce/sparse-histogram.ts';
+import type { SparsePartial } from '../reduce/merge.ts';
 import type { Exposure } from '../work/work-settings.ts';
 import { PartialCorrupt, PartialFormatUnknown } from '../reduce/errors.ts';
 
@@ -72,54 +74,6 @@ interface Header {
   months: [number, number];
   fields: FieldEntry[];
   payloadBytes: number;
-}
-
-/** Sparse form of a histogram: per slot of HIST_LEN bins, first non-empty bin, count, values. */
-function sparseHistogram(h: Uint16Array): Uint16Array {
-  const slots = h.length / HIST_LEN;
-  let size = 0;
-  const firsts = new Uint16Array(slots);
-  const ns = new Uint16Array(slots);
-  for (let s = 0; s < slots; s++) {
-    const b0 = s * HIST_LEN;
-    let first = -1;
-    let last = -1;
-    for (let b = 0; b < HIST_LEN; b++) {
-      if (h[b0 + b] !== 0) {
-        if (first < 0) first = b;
-        last = b;
-      }
-    }
-    firsts[s] = first < 0 ? 0 : first;
-    ns[s] = first < 0 ? 0 : last - first + 1;
-    size += 2 + ns[s];
-  }
-  const out = new Uint16Array(size);
-  let p = 0;
-  for (let s = 0; s < slots; s++) {
-    out[p++] = firsts[s];
-    out[p++] = ns[s];
-    // Element by element: a subarray per slot (hundreds of thousands) costs more than the copy.
-    const b0 = s * HIST_LEN + firsts[s];
-    for (let k = 0; k < ns[s]; k++) out[p++] = h[b0 + k];
-  }
-  return out;
-}
-
-function denseHistogram(sparse: Uint16Array, length: number, file: string): Uint16Array {
-  const out = new Uint16Array(length);
-  const slots = length / HIST_LEN;
-  let p = 0;
-  for (let s = 0; s < slots; s++) {
-    if (p + 2 > sparse.length) throw PartialCorrupt({ file, detail: `histogram ends at slot ${s} of ${slots}` });
-    const first = sparse[p++];
-    const n = sparse[p++];
-    if (first + n > HIST_LEN || p + n > sparse.length) throw PartialCorrupt({ file, detail: `histogram slot ${s} runs past its bins` });
-    const b0 = s * HIST_LEN + first;
-    for (let k = 0; k < n; k++) out[b0 + k] = sparse[p++];
-  }
-  if (p !== sparse.length) throw PartialCorrupt({ file, detail: `${sparse.length - p} histogram values left over` });
-  return out;
 }
 
 function bytesOf(a: ArrayBufferView): Buffer {
@@ -179,6 +133,21 @@ export function readPartialHeader(bytes: Uint8Array, file: string): { meta: Part
 
 /** Decodes a whole partial file (checksum, header, payload) back into the partial. */
 export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialMeta; partial: ShardPartial } {
+  const { meta, partial, slots } = decodeSparse(bytes, file);
+  const { sparseHistogram: sparse, ...rest } = partial;
+  return { meta, partial: { ...rest, histogram: denseHistogram(sparse, slots) } };
+}
+
+/**
+ * Decodes a partial file keeping the histogram in its sparse form (pipeline/reduce/sparse-histogram.ts),
+ * checked, for a merge that adds it into the year as it is (pipeline/reduce/merge.ts).
+ */
+export function decodePartialSparse(bytes: Uint8Array, file: string): { meta: PartialMeta; partial: SparsePartial } {
+  const { meta, partial } = decodeSparse(bytes, file);
+  return { meta, partial };
+}
+
+function decodeSparse(bytes: Uint8Array, file: string): { meta: PartialMeta; partial: SparsePartial; slots: number } {
   const { meta, header, payloadStart } = readPartialHeader(bytes, file);
   const buf = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let raw: Buffer;
@@ -188,6 +157,8 @@ export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialM
     throw PartialCorrupt({ file, detail: `payload does not inflate (${(e as Error).message})` });
   }
   const out: Partial<Record<ArrayField, ArrayBufferView>> = {};
+  let sparse: Uint16Array | undefined;
+  let slots = 0;
   let off = 0;
   for (const f of header.fields) {
     const ctor = CTORS[f.type];
@@ -197,8 +168,14 @@ export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialM
     const slice = new Uint8Array(f.bytes);
     slice.set(raw.subarray(off, off + f.bytes));
     off += f.bytes;
-    if (f.name === 'histogram') out.histogram = denseHistogram(new Uint16Array(slice.buffer), f.length, file);
-    else {
+    if (f.name === 'histogram') {
+      if (f.length % HIST_LEN !== 0 || (f.bytes & 1) !== 0) throw PartialCorrupt({ file, detail: `histogram of ${f.length} bins is not whole slots of ${HIST_LEN}` });
+      sparse = new Uint16Array(slice.buffer);
+      slots = f.length / HIST_LEN;
+      const problem = sparseHistogramProblem(sparse, slots);
+      if (problem !== undefined) throw PartialCorrupt({ file, detail: problem });
+      out.histogram = sparse;
+    } else {
       const a = new ctor(slice.buffer);
       if (a.length !== f.length) throw PartialCorrupt({ file, detail: `field ${f.name} holds ${a.length} values, header says ${f.length}` });
       out[f.name] = a;
@@ -206,5 +183,10 @@ export function decodePartial(bytes: Uint8Array, file: string): { meta: PartialM
   }
   if (off !== raw.length) throw PartialCorrupt({ file, detail: `${raw.length - off} payload bytes left over` });
   for (const name of FIELDS) if (!out[name]) throw PartialCorrupt({ file, detail: `field ${name} is missing` });
-  return { meta, partial: { ...(out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'exposures' | 'months'>), year: meta.year, evalKeys: header.evalKeys, exposures: [...header.exposures], months: [header.months[0], header.months[1]] } };
+  const { histogram: _, ...fields } = out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'exposures' | 'months'>;
+  return {
+    meta,
+    partial: { ...fields, sparseHistogram: sparse!, year: meta.year, evalKeys: header.evalKeys, exposures: [...header.exposures], months: [header.months[0], header.months[1]] },
+    slots,
+  };
 }

@@ -72,7 +72,10 @@ interface Run<T, R> {
 
 /**
  * Starts `size` workers of entry `name`, each sent `init` first (when given); `describe` names a
- * task in the message of an uncatalogued worker error (default: "task N").
+ * task in the message of an uncatalogued worker error (default: "task N"). `init` may be a
+ * promise: the workers start (load their code) at once and are sent the set-up when it resolves,
+ * so a caller can start them before it knows what they need; tasks wait for the set-up, and a
+ * rejected set-up breaks the pool with that reason.
  */
 export function startWorkerPool<T, R>(
   name: WorkerName,
@@ -85,6 +88,8 @@ export function startWorkerPool<T, R>(
   let closing = false;
   let current: Run<T, R> | undefined;
   let readyCount = opts.init === undefined ? size : 0;
+  /** Resolves once the set-up has been posted to every worker (tasks are posted after it). */
+  let initPosted: Promise<void> = Promise.resolve();
   let readyWaiters: Array<[() => void, (e: unknown) => void]> = [];
   const flushReady = () => {
     if (broken === undefined && readyCount < size) return;
@@ -104,6 +109,8 @@ export function startWorkerPool<T, R>(
     run.failure ??= e;
     run.queue.length = 0;
     if (run.opts.onFailure === 'drain' && broken === undefined && run.inFlight.some((n) => n > 0)) return;
+    // Tasks still in flight would answer into the next run: a pool whose run failed takes no other.
+    if (run.inFlight.some((n) => n > 0)) broken ??= run.failure;
     run.settle(run.failure);
   };
 
@@ -162,8 +169,19 @@ export function startWorkerPool<T, R>(
     w.on('exit', (code) => {
       if (code !== 0) fail(new Error(`a ${name} worker exited with code ${code}`));
     });
-    if (opts.init !== undefined) w.postMessage({ init: opts.init });
   });
+  if (opts.init instanceof Promise) {
+    initPosted = opts.init.then(
+      (data: unknown) => {
+        if (!closing) for (const w of workers) w.postMessage({ init: data });
+      },
+      (e: unknown) => {
+        fail(e);
+      },
+    );
+  } else if (opts.init !== undefined) {
+    for (const w of workers) w.postMessage({ init: opts.init });
+  }
 
   return {
     size,
@@ -171,10 +189,12 @@ export function startWorkerPool<T, R>(
       readyWaiters.push([ok, no]);
       flushReady();
     }),
-    run(tasks, runOpts = {}) {
-      if (current) return Promise.reject(new Error(`the ${name} pool is already running`));
-      if (broken !== undefined) return Promise.reject(broken);
-      if (tasks.length === 0) return Promise.resolve();
+    async run(tasks, runOpts = {}) {
+      if (current) throw new Error(`the ${name} pool is already running`);
+      await initPosted;
+      if (current) throw new Error(`the ${name} pool is already running`);
+      if (broken !== undefined) throw broken;
+      if (tasks.length === 0) return;
       return new Promise<void>((resolve, reject) => {
         const run: Run<T, R> = {
           tasks, opts: runOpts, queue: tasks.map((_, i) => i), inFlight: workers.map(() => 0),

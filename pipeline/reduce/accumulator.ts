@@ -11,10 +11,9 @@ import {
   dunne2013LossInto,
   groupEvaluations,
   exposureWbgt,
-  allowedMetabolicRate,
-  memberWorkFraction,
   prepareLoss,
-  lossPrepared,
+  normalCdfFast,
+  dunne2013Loss,
   type EvaluationGroup,
   type LocalHours,
   type PreparedLoss,
@@ -81,9 +80,11 @@ export const histPerMonth = (nCells: number): number => HOURS * nCells * N_EXPOS
 
 /**
  * An empty partial for `cells` of one year, its histograms for the local months [m0, m1)
- * (default the whole year).
+ * (default the whole year). `spare`: histogram arrays of partials that are done with (encoded
+ * and dropped); one of the right length is taken from it and cleared instead of allocating a new
+ * one (tens of MB per shard, whose fresh pages cost more than clearing).
  */
-export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS]): ShardPartial {
+export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS], spare?: Uint16Array[]): ShardPartial {
   const nc = cells.length;
   const nE = evaluations.length;
   const cm = nc * MONTHS;
@@ -107,9 +108,18 @@ export function createPartial(year: number, cells: Int32Array, evaluations: read
     airSum: new Float64Array(cm),
     airHours: new Uint32Array(cm),
     months: [months[0], months[1]],
-    histogram: new Uint16Array((months[1] - months[0]) * histPerMonth(nc)),
+    histogram: histogramArray((months[1] - months[0]) * histPerMonth(nc), spare),
     failedHours: new Uint32Array(nc),
   };
+}
+
+/** A zeroed histogram array of `n` bins [h]: a cleared one from `spare` when one has that length, else a new one. */
+function histogramArray(n: number, spare: Uint16Array[] | undefined): Uint16Array {
+  const i = spare === undefined ? -1 : spare.findIndex((h) => h.length === n);
+  if (i < 0) return new Uint16Array(n);
+  const h = spare!.splice(i, 1)[0];
+  h.fill(0);
+  return h;
 }
 
 /**
@@ -122,9 +132,17 @@ export function expectedMonthHours(year: number): Uint32Array {
   return out;
 }
 
-/** One block of hourly values for the shard's cells, time-major: `x[t * nCells + c]`. */
+/**
+ * One block of hourly values for the shard's cells, time-major: `x[t * nCells + c]`; or, with
+ * `cellBase` and `cellStride`, cell c's value of hour t at `x[cellBase[c] + t * cellStride[c]]`
+ * (the physics' layout, rows of land cells one after the other, time-major inside a row; the
+ * fused path reads it as it is, the general path needs time-major blocks).
+ */
 export interface ReduceBlock {
   nHours: number;
+  /** Per cell: where its hour 0 lies in every array, and the step from one hour to the next [values]. */
+  cellBase?: Int32Array;
+  cellStride?: Int32Array;
   /** WBGT in the sun [°C]; NaN where not computed. */
   wbgtSun: Float32Array;
   /** WBGT in the shade [°C]; NaN where not computed. */
@@ -210,6 +228,7 @@ function windowMonth(p: ShardPartial, m: number): number {
 export function accumulateBlock(p: ShardPartial, block: ReduceBlock, evaluations: readonly WorkEvaluation[], scratch: ReduceScratch): void {
   if (p.exposures.length > 2 && block.wbgtShelter === undefined) throw new RangeError('the partial counts the shelter exposure, the block has no shelter WBGT');
   if (scratch.groups !== null) accumulateFused(p, block, evaluations.length, scratch.groups, scratch.losses, scratch.lossCav);
+  else if (block.cellBase !== undefined) throw new RangeError('the general path of the reduction needs a time-major block (no cellBase)');
   else accumulateGeneral(p, block, evaluations, scratch);
 }
 
@@ -232,8 +251,28 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
   const shelter = nX > 2;
   // Without the shelter the shade array stands in for it (never read: no group works there).
   const wbgtShelter = block.wbgtShelter ?? wbgtShade;
+  const cellBase = block.cellBase;
+  const cellStride = block.cellStride;
+  // The partial's arrays and the groups' constants as locals: the loop below runs per cell-hour.
+  const { airSum, airHours, failedHours, validHours, shiftHours, wbgtSum, wbgtMax, aboveAll, aboveShift, lostShift, capacityLoss } = p;
   const nG = groups.length;
   const groupX = Uint8Array.from(groups, (g) => (g.exposure === 'sun' ? 0 : g.exposure === 'shade' ? 1 : 2));
+  const gCav = Float64Array.from(groups, (g) => g.cav);
+  const gLowest = Float64Array.from(groups, (g) => g.lowestLimit);
+  const gC0 = Float64Array.from(groups, (g) => g.c0);
+  const gC1 = Float64Array.from(groups, (g) => g.c1);
+  const gMembers = groups.map((g) => g.members);
+  const gLimits = groups.map((g) => g.limitWork);
+  const gRest = groups.map((g) => g.restRate);
+  const gInvDelta = groups.map((g) => g.invDelta);
+  // The capacity-loss functions (lossPrepared): Kjellstrom et al. 2018 as Φ((w − μ)/σ), whose
+  // value is below the 0.0005 that rounds to a counted milli-hour for z < −3.3 (Φ(−3.3) =
+  // 0.000483, scipy.stats.norm.cdf), so Φ is not evaluated there; Dunne et al. 2013 is 0 up to
+  // 25 °C. The counts are those of lossPrepared (test/reduce/accumulator.test.ts).
+  const nL = losses.length;
+  const lossKj = Uint8Array.from(losses, (l) => (l.kind === 'kjellstrom-2018' ? 1 : 0));
+  const lossMean = Float64Array.from(losses, (l) => l.mean);
+  const lossInvSd = Float64Array.from(losses, (l) => l.invSd);
   // The block's hours of this year, with their month, histogram month, local hour and shift flag.
   const hours = new Int32Array(block.nHours);
   const hourMonth = new Int32Array(block.nHours);
@@ -252,76 +291,81 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
   }
   for (let c = 0; c < nc; c++) {
     const cmBase = c * MONTHS;
+    const base = cellBase === undefined ? c : cellBase[c];
+    const stride = cellStride === undefined ? nc : cellStride[c];
     for (let k = 0; k < nh; k++) {
-      const i = hours[k] * nc + c;
+      const i = base + hours[k] * stride;
       const m = hourMonth[k];
       const shift = hourShift[k] === 1;
       const cm = cmBase + m;
       const ta = airTemperature[i];
       if (ta === ta) {
-        p.airSum[cm] += Math.round(ta * CENTI);
-        p.airHours[cm]++;
+        airSum[cm] += Math.round(ta * CENTI);
+        airHours[cm]++;
       }
       const ws = wbgtSun[i];
       const wd = wbgtShade[i];
       const wh = shelter ? wbgtShelter[i] : wd;
       if (ws !== ws || wd !== wd || (shelter && wh !== wh)) {
-        p.failedHours[c]++;
+        failedHours[c]++;
         continue;
       }
-      p.validHours[cm]++;
+      validHours[cm]++;
       const s = Math.round(ws * CENTI);
       const d = Math.round(wd * CENTI);
       const xm = cm * nX;
-      p.wbgtSum[xm] += s;
-      p.wbgtSum[xm + 1] += d;
-      if (s > p.wbgtMax[xm]) p.wbgtMax[xm] = s;
-      if (d > p.wbgtMax[xm + 1]) p.wbgtMax[xm + 1] = d;
+      wbgtSum[xm] += s;
+      wbgtSum[xm + 1] += d;
+      if (s > wbgtMax[xm]) wbgtMax[xm] = s;
+      if (d > wbgtMax[xm + 1]) wbgtMax[xm + 1] = d;
       if (shelter) {
         const r = Math.round(wh * CENTI);
-        p.wbgtSum[xm + 2] += r;
-        if (r > p.wbgtMax[xm + 2]) p.wbgtMax[xm + 2] = r;
+        wbgtSum[xm + 2] += r;
+        if (r > wbgtMax[xm + 2]) wbgtMax[xm + 2] = r;
       }
       const hb = (hourHist[k] + c) * N_EXPOSURES * HIST_LEN;
       hist[hb + histIndex(ws)]++;
       hist[hb + HIST_LEN + histIndex(wd)]++;
-      const base = cm * nE;
+      const eBase = cm * nE;
       for (let gi = 0; gi < nG; gi++) {
-        const g = groups[gi];
         const gx = groupX[gi];
-        const w = (gx === 0 ? ws : gx === 1 ? wd : wh) + g.cav;
-        if (!(w > g.lowestLimit)) continue;
-        const mLim = allowedMetabolicRate(g, w);
-        const members = g.members;
-        const limits = g.limitWork;
+        const w = (gx === 0 ? ws : gx === 1 ? wd : wh) + gCav[gi];
+        if (!(w > gLowest[gi])) continue;
+        // allowedMetabolicRate and memberWorkFraction (pipeline/work/evaluation-groups.ts), inline.
+        const mLim = Math.exp(gC0[gi] - gC1[gi] * w);
+        const members = gMembers[gi];
+        const limits = gLimits[gi];
+        const rest = gRest[gi];
+        const invDelta = gInvDelta[gi];
         for (let j = 0; j < members.length; j++) {
           if (!(w > limits[j])) continue;
-          const e = base + members[j];
-          p.aboveAll[e]++;
+          const e = eBase + members[j];
+          aboveAll[e]++;
           if (shift) {
-            p.aboveShift[e]++;
-            p.lostShift[e] += Math.round((1 - memberWorkFraction(g, j, mLim)) * MILLI);
+            aboveShift[e]++;
+            const f = (mLim - rest[j]) * invDelta[j];
+            lostShift[e] += Math.round((1 - (f > 0 ? f : 0)) * MILLI);
           }
         }
       }
       if (shift) {
-        p.shiftHours[cm]++;
+        shiftHours[cm]++;
         const lb = cm * nX * N_LOSS;
         // Capacity loss at the effective WBGT (WBGT + CAV; see ReduceScratch.lossCav).
-        const wsEff = ws + cav;
-        const wdEff = wd + cav;
-        for (let l = 0; l < N_LOSS; l++) {
-          const prep = losses[l];
-          const a = lossPrepared(wsEff, prep);
-          if (a >= 0.0005) p.capacityLoss[lb + l] += Math.round(a * MILLI);
-          const b = lossPrepared(wdEff, prep);
-          if (b >= 0.0005) p.capacityLoss[lb + N_LOSS + l] += Math.round(b * MILLI);
-        }
-        if (shelter) {
-          const whEff = wh + cav;
-          for (let l = 0; l < N_LOSS; l++) {
-            const r = lossPrepared(whEff, losses[l]);
-            if (r >= 0.0005) p.capacityLoss[lb + 2 * N_LOSS + l] += Math.round(r * MILLI);
+        for (let x = 0; x < nX; x++) {
+          const wEff = (x === 0 ? ws : x === 1 ? wd : wh) + cav;
+          const xb = lb + x * N_LOSS;
+          for (let l = 0; l < nL; l++) {
+            let a: number;
+            if (lossKj[l] === 1) {
+              const z = (wEff - lossMean[l]) * lossInvSd[l];
+              if (z < -3.3) continue;
+              a = normalCdfFast(z);
+            } else {
+              if (!(wEff > 25)) continue;
+              a = dunne2013Loss(wEff);
+            }
+            if (a >= 0.0005) capacityLoss[xb + l] += Math.round(a * MILLI);
           }
         }
       }

@@ -37,6 +37,14 @@ export interface YearCounts extends Omit<ShardPartial, 'months' | 'histogram'> {
   histogram: Uint16Array;
 }
 
+/**
+ * A partial whose histograms are still in the sparse form of the partial file
+ * (./sparse-histogram.ts, checked when decoded): the merge adds them into the year as they are.
+ */
+export interface SparsePartial extends Omit<ShardPartial, 'histogram'> {
+  sparseHistogram: Uint16Array;
+}
+
 /** Index in a merged year's histogram of cell `c`'s bins for (month m, local hour h), of `nCells` cells. */
 export function histogramSlot(m: number, h: number, c: number, nCells: number): number {
   return ((m * HOURS + h) * nCells + c) * N_EXPOSURES * HIST_LEN;
@@ -80,7 +88,7 @@ interface PieceGroup {
  */
 export class YearMerger {
   private out: YearCounts | undefined;
-  private first: ShardPartial | undefined;
+  private first: ShardPartial | SparsePartial | undefined;
   private readonly pos = new Map<number, number>();
   /** Per cell of the year: the partial that held it, and that partial's group, or −1. */
   private readonly seen: Int32Array;
@@ -100,7 +108,7 @@ export class YearMerger {
   }
 
   /** Adds one partial (`name`: its shard id, for messages); it may be dropped afterwards. */
-  add(p: ShardPartial, name?: string): void {
+  add(p: ShardPartial | SparsePartial, name?: string): void {
     const pi = this.names.length;
     this.names.push(name ?? String(pi));
     const label = (i: number) => this.names[i];
@@ -145,7 +153,11 @@ export class YearMerger {
         if (v > out.wbgtMax[a * w + k]) out.wbgtMax[a * w + k] = v;
       }
     }
-    addHistogram(out.histogram, this.cells.length, p, at, grp.histFirst);
+    if ('sparseHistogram' in p) {
+      addSparseHistogram(out.histogram, this.cells.length, p, at);
+      // A dense piece of this tile after it must add, not copy.
+      for (let m = p.months[0]; m < p.months[1]; m++) if (p.coveredHours[m] !== 0) grp.histFirst[m] = 1;
+    } else addHistogram(out.histogram, this.cells.length, p, at, grp.histFirst);
   }
 
   /** The year's counts; every cell must have been in a partial. */
@@ -171,7 +183,7 @@ function sameCells(a: Int32Array, b: Int32Array): boolean {
   return true;
 }
 
-function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {
+function per(p: ShardPartial | SparsePartial, f: SummedField | 'wbgtMax'): number {
   return p[f].length / p.cells.length;
 }
 
@@ -179,7 +191,7 @@ function per(p: ShardPartial, f: SummedField | 'wbgtMax'): number {
  * Adds a cell's counts of partial `p` into `out`. Fields per cell × month skip the months the
  * partial does not cover (they hold no count): a quarter's piece adds a quarter of the year.
  */
-function addCell(out: YearCounts, p: ShardPartial, f: SummedField, at: number, j: number): void {
+function addCell(out: YearCounts, p: ShardPartial | SparsePartial, f: SummedField, at: number, j: number): void {
   const w = per(p, f);
   const src = p[f];
   const dst = out[f];
@@ -261,8 +273,47 @@ function addHistogram(dst: Uint16Array, nOut: number, p: ShardPartial, at: Int32
   }
 }
 
+/**
+ * Adds a partial's sparse histograms (slots month of its window × hour × cell × exposure, each its
+ * first bin, count n and n bins; ./sparse-histogram.ts) into the year's dense ones (month × hour ×
+ * cell × exposure × bin); `at[j]` is the position of the partial's cell j in the year, −1 to skip
+ * it. Only the bins the partial holds are touched: the year starts at zero, and a cell's slots
+ * come from its own tile's pieces only, so adding gives what copying the first piece and adding
+ * the others gives (the dense path, {@link addHistogram}). Months without covered hours are
+ * skipped as there.
+ */
+function addSparseHistogram(dst: Uint16Array, nOut: number, p: SparsePartial, at: Int32Array): void {
+  const src = p.sparseHistogram;
+  const nc = p.cells.length;
+  const [m0, m1] = p.months;
+  let s = 0;
+  for (let m = m0; m < m1; m++) {
+    const skipMonth = p.coveredHours[m] === 0;
+    for (let h = 0; h < HOURS; h++) {
+      const dRow = (m * HOURS + h) * nOut;
+      for (let j = 0; j < nc; j++) {
+        const a = at[j];
+        const skip = skipMonth || a < 0;
+        let d = (dRow + a) * N_EXPOSURES * HIST_LEN;
+        for (let x = 0; x < N_EXPOSURES; x++, d += HIST_LEN) {
+          const first = src[s];
+          const n = src[s + 1];
+          s += 2;
+          if (skip) {
+            s += n;
+            continue;
+          }
+          const d0 = d + first;
+          for (let k = 0; k < n; k++) dst[d0 + k] += src[s + k];
+          s += n;
+        }
+      }
+    }
+  }
+}
+
 /** Empty counts of one year over `cells`, shaped like partial `p` but with a full cell-major year of histograms. */
-function emptyYear(p: ShardPartial, year: number, cells: Int32Array): YearCounts {
+function emptyYear(p: ShardPartial | SparsePartial, year: number, cells: Int32Array): YearCounts {
   const n = cells.length;
   const make = <T extends { length: number }>(a: T, ctor: new (len: number) => T): T => new ctor((a.length / p.cells.length) * n);
   return {

@@ -17,6 +17,7 @@
  * or the number of regions.
  */
 import { mkdir, rename, rm } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
 import { loadConfig, type ResolvedConfig } from '../config/load.ts';
 import type { KernelCounts } from '../physics/index.ts';
@@ -24,7 +25,8 @@ import { consoleLogger, silentLogger, type Logger } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
 import { buildSite } from './site-stage.ts';
 import { planBuild, type BuildPlan } from './plan-stage.ts';
-import { computeStage, type ComputeMode } from './compute-stage.ts';
+import { computeStage, workerInit, type ComputeMode } from './compute-stage.ts';
+import { startShardPool, type ShardPool, type WorkerInit } from './shard-pool.ts';
 import { mergeStage, stagingTarget } from './merge-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 import { bandDir, bandDone, bandsKey, bandsRootOf, linkBandData, readBands, writeBand } from './band-store.ts';
@@ -104,7 +106,21 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const stamp = () => `[${((Date.now() - t0) / 1000).toFixed(1).padStart(5)} s]`;
   const log: Logger = { info: (m) => base.info(`${stamp()} ${m}`), warn: (m) => base.warn(`${stamp()} ${m}`) };
   const cfg = rc.config;
-  const plan = await planBuild(rc, { jobs: o.jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
+  // The compute workers start now and load their code while the plan hashes the inputs; they are
+  // sent their set-up when the plan is made. They are stopped after the compute stage: the merge
+  // and the inputs' summary start fresh workers, so a merge holds nothing of computing (memory).
+  const jobs = Math.max(1, o.jobs ?? availableParallelism());
+  let setUp: { resolve(i: WorkerInit): void; reject(e: unknown): void } | undefined;
+  const pool: ShardPool = startShardPool(jobs, new Promise<WorkerInit>((resolve, reject) => (setUp = { resolve, reject })));
+  let plan: BuildPlan;
+  try {
+    plan = await planBuild(rc, { jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
+  } catch (e) {
+    setUp!.reject(e);
+    await pool.close();
+    throw e;
+  }
+  setUp!.resolve(workerInit(plan));
   const scratch = join(dirname(outDir), `.${basename(outDir)}.scratch-${process.pid}`);
   const shared = o.mergeDir ?? o.assembleDir;
   const cacheDir = o.cache === false || shared ? undefined : join(resolve(o.cache ?? rc.cacheDir), cfg.id);
@@ -114,7 +130,8 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       : shared
         ? { kind: 'merge', partialsDir: shared }
         : { kind: 'cache', cacheDir, scratchDir: join(scratch, 'partials') };
-    const compute = await computeStage(plan, mode, log, o.quiet);
+    const compute = await computeStage(plan, mode, log, o.quiet, pool);
+    await pool.close();
     const report = (publishSeconds: number, mergeSeconds: number): BuildReport => ({
       outDir: o.shard ? join(resolve(o.shard.partialsDir), `slice-${o.shard.k}-of-${o.shard.n}`) : outDir,
       shards: o.shard ? compute.partials.size : plan.shards.length,
@@ -191,6 +208,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       await rm(stage, { recursive: true, force: true });
     }
   } finally {
+    await pool.close();
     await rm(scratch, { recursive: true, force: true });
     await plan.close();
   }

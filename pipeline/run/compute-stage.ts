@@ -10,7 +10,7 @@ import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
 import { describeSources, sourcesFromCache, sourcesFromPartials, type KeyedShard, type ShardSource } from './shard-sources.ts';
 import { partialPath } from './partial-store.ts';
-import { runTasks, type PoolTask, type ShardStores } from './shard-pool.ts';
+import { runTasks, type PoolTask, type ShardPool, type ShardStores } from './shard-pool.ts';
 import { memberCacheDir, type BuildPlan } from './plan-stage.ts';
 import type { ComputeTask } from './compute-task.ts';
 
@@ -47,8 +47,8 @@ export interface VariantCounts {
   change: ChangeCounts;
 }
 
-/** Runs the compute stage; `onTask` is told when each compute task is done (for progress). */
-export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logger, quiet?: boolean): Promise<ComputeOutcome> {
+/** Runs the compute stage on `pool` (the build's workers, kept running), or on workers started for it. */
+export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logger, quiet?: boolean, pool?: ShardPool): Promise<ComputeOutcome> {
   let keyed: readonly KeyedShard[] = plan.keyed;
   let tasks: readonly ComputeTask[] = plan.tasks;
   let sources: ShardSource[];
@@ -97,7 +97,7 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   log.info(`computing ${nShards} of ${keyed.length} shards in ${work.length} task(s) on ${plan.jobs} worker(s)${storeDir ? ` into ${storeDir}` : ''}`);
   const progress = startProgress('shards', nShards, { quiet });
   const t0 = Date.now();
-  await runTasks(work, workerInit(plan), plan.jobs, {
+  await runTasks(work, pool ?? workerInit(plan), plan.jobs, {
     onShardProgress: () => progress.tick(),
     onShard: (id, r) => {
       countIn(id, r.cellHours, r.physics, r.change);

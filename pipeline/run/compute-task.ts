@@ -84,6 +84,9 @@ interface BlockBuffers {
   gSun: Float32Array;
   gShade: Float32Array;
   gAir: Float32Array;
+  /** Per land cell of the tile: where its hours start in the physics' arrays, and their step (the fused reduction). */
+  cellBase: Int32Array;
+  cellStride: Int32Array;
   /** The shelter's physics output and gathered array, when the build counts the shelter. */
   shelter: { out: Float32Array; g: Float32Array } | undefined;
 }
@@ -94,11 +97,17 @@ interface BlockBuffers {
  */
 let kept: BlockBuffers | undefined;
 
-function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[]): BlockBuffers {
+/**
+ * Histogram arrays of this thread's partials that are encoded and dropped, reused by the next
+ * task's partials (at most one task's worth is kept; the pool's workers end with the stage).
+ */
+let spareHistograms: Uint16Array[] = [];
+
+function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkEvaluation[], nCells: number): BlockBuffers {
   const scratch = reuseScratch(kept?.scratch, n, evaluations);
   const mk = () => new Float32Array(n);
   const withShelter = countedExposures(evaluations).includes('shelter');
-  if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours) {
+  if (kept !== undefined && kept.gAir.length >= n && kept.local.year.length >= blockHours && kept.cellBase.length >= nCells) {
     kept.scratch = scratch;
     if (!withShelter) kept.shelter = undefined;
     else if (kept.shelter === undefined || kept.shelter.g.length < n) kept.shelter = { out: mk(), g: mk() };
@@ -112,6 +121,8 @@ function blockBuffers(n: number, blockHours: number, evaluations: readonly WorkE
     gSun: mk(),
     gShade: mk(),
     gAir: mk(),
+    cellBase: new Int32Array(nCells),
+    cellStride: new Int32Array(nCells),
     shelter: withShelter ? { out: mk(), g: mk() } : undefined,
   };
   return kept;
@@ -153,9 +164,11 @@ async function tileChange(ctx: ShardContext, shard: ShardSpec, grid: { lat: Floa
 
 /**
  * Computes the task's shards. Each shard's result is handed to `onShard` as soon as the last
- * block has been added (in tile order), so a caller can encode and drop it.
+ * block has been added (in tile order), so a caller can encode and drop it. With `recycle`, the
+ * caller promises to keep nothing of a partial's histogram past `onShard`'s return: the array is
+ * then reused by the next task in this thread (the build's workers, which encode and drop).
  */
-export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>): Promise<void> {
+export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>, recycle = false): Promise<void> {
   const first = task.shards[0];
   const y0 = first.tile.y0;
   const y1 = task.shards[task.shards.length - 1].tile.y1;
@@ -166,7 +179,7 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
     const runs = landRuns(shard.cells, ctx.nLon, y0);
     return {
       shard,
-      partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months),
+      partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months, recycle ? spareHistograms : undefined),
       pos: Int32Array.from(shard.cells, (c) => (Math.floor(c / ctx.nLon) - y0) * nCols + (c % ctx.nLon)),
       runs,
       runLon: runs.map((r) => new Float64Array(r.j1 - r.j0)),
@@ -179,7 +192,7 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
   });
   for (const tile of tiles) tile.change = await tileChange(ctx, tile.shard, ds.grid);
   const maxLand = Math.max(...task.shards.map((s) => s.cells.length));
-  const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations);
+  const buf = blockBuffers(task.blockHours * maxLand, task.blockHours, ctx.evaluations, maxLand);
   const [h0, h1] = first.hours;
   for (let t0 = h0; t0 < h1; t0 += task.blockHours) {
     const nt = Math.min(task.blockHours, h1 - t0);
@@ -194,9 +207,14 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
       computeTileBlock(tile, block, nt, nBlock, buf, ctx);
     }
   }
+  const spare: Uint16Array[] = [];
   for (const tile of tiles) {
     await onShard(tile.shard, { partial: tile.partial, physics: tile.physics, change: tile.changeCounts, cellHours: tile.cellHours, timing: tile.timing });
+    // `onShard` has encoded the partial and keeps none of its histogram (`recycle`): the array
+    // serves the next task's partials.
+    if (recycle) spare.push(tile.partial.histogram);
   }
+  if (recycle) spareHistograms = spare;
 }
 
 /** One block for one tile: gather its land cells, physics by grid row, back to time-major, reduce. */
@@ -218,14 +236,18 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
   const wind = f.windSpeed10m!;
   const sg = f.solarGlobal!;
   const sd = f.solarDirect;
-  // Gather the land cells: row-segment-major for the physics, time-major air for the reduction.
-  // Physics runs on the land cells only, one grid row at a time: each row's land cells form a
-  // grid of 1 row × its land columns (the columns need not be adjacent: geometry takes the
-  // longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
-  for (let t = 0; t < nt; t++) {
-    const src = t * nBlock;
-    const dst = t * nLand;
-    for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+  // The fused reduction reads the physics' layout as it is; the general one needs time-major arrays.
+  const fused = buf.scratch.groups !== null;
+  // Gather the land cells: row-segment-major for the physics (and time-major air for the general
+  // reduction). Physics runs on the land cells only, one grid row at a time: each row's land
+  // cells form a grid of 1 row × its land columns (the columns need not be adjacent: geometry
+  // takes the longitude per column). Inputs are gathered row-segment-major, `[jr0 * nt + t * nr + k]`.
+  if (!fused) {
+    for (let t = 0; t < nt; t++) {
+      const src = t * nBlock;
+      const dst = t * nLand;
+      for (let j = 0; j < nLand; j++) gAir[dst + j] = air[src + pos[j]];
+    }
   }
   for (const r of runs) {
     const nr = r.j1 - r.j0;
@@ -278,6 +300,30 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
     addCounts(tile.physics, computeHours(arrays, 0, nt, { windHeight: 10, globeDiameter: ctx.physics.globeDiameter }));
   }
   lap('physics');
+  if (fused) {
+    // Cell j of run r at hour t lies at r.j0 · nt + t · nr + (j − r.j0): the reduction reads there.
+    const { cellBase, cellStride } = buf;
+    for (const r of runs) {
+      const nr = r.j1 - r.j0;
+      for (let k = 0; k < nr; k++) {
+        cellBase[r.j0 + k] = r.j0 * nt + k;
+        cellStride[r.j0 + k] = nr;
+      }
+    }
+    const n = nt * nLand;
+    accumulateBlock(
+      tile.partial,
+      {
+        nHours: nt, cellBase: cellBase.subarray(0, nLand), cellStride: cellStride.subarray(0, nLand),
+        wbgtSun: out.wbgtSun.subarray(0, n), wbgtShade: out.wbgtShade.subarray(0, n), wbgtShelter: buf.shelter?.out.subarray(0, n), airTemperature: inp.air.subarray(0, n), local,
+      },
+      ctx.evaluations,
+      scratch,
+    );
+    for (let t = 0; t < nt; t++) if (local.year[t] === shard.year) tile.cellHours += nLand;
+    lap('reduce');
+    return;
+  }
   // Back to time-major over the land cells for the reduction (a scenario's air temperature too).
   const changed = tile.change !== undefined;
   for (const r of runs) {

@@ -28,7 +28,7 @@ import {
   emptyFigureSums,
   type RegionTileCells,
 } from '../regions/region-sums.ts';
-import { readPartialFile } from './partial-store.ts';
+import { readPartialFileSparse } from './partial-store.ts';
 import { RegionPartWriter, RECORD_WORKFORCE, type RegionRecordRef } from '../formats/region-parts.ts';
 import { GridPiece, type GridPieceRef } from '../formats/grid-pieces.ts';
 import { gridFields, TRENDED } from '../publish/grid-fields.ts';
@@ -188,7 +188,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const files = t.partials[y];
       // One partial file at a time: the year's counts and one piece are held, never every piece.
       const merger = new YearMerger(t.years[y], t.cells, { subset: t.subset });
-      for (const f of files) merger.add(readPartialFile(f.path).partial, f.id);
+      for (const f of files) merger.add(readPartialFileSparse(f.path).partial, f.id);
       const yc: YearCounts = merger.finish();
       const figs = yearFigures(yc, rule.maxMissingHours);
       if (wf) {

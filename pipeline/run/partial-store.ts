@@ -7,7 +7,8 @@
 import { existsSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { writeFileAtomicSync } from '../model/effects.ts';
 import { join, relative } from 'node:path';
-import { decodePartial, encodePartial, readPartialHeader, type PartialMeta } from '../formats/partial-file.ts';
+import { decodePartial, decodePartialSparse, encodePartial, readPartialHeader, type PartialMeta } from '../formats/partial-file.ts';
+import type { SparsePartial } from '../reduce/merge.ts';
 import type { ShardPartial } from '../reduce/accumulator.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { processAlive } from '../model/lock.ts';
@@ -46,6 +47,11 @@ export function removeAbandonedTemporaries(dir: string): number {
 /** Reads and decodes a partial file (checksum verified). */
 export function readPartialFile(path: string): { meta: PartialMeta; partial: ShardPartial } {
   return decodePartial(readFileSync(path), path);
+}
+
+/** Reads and decodes a partial file for a merge: the histograms left in their sparse form (checked). */
+export function readPartialFileSparse(path: string): { meta: PartialMeta; partial: SparsePartial } {
+  return decodePartialSparse(readFileSync(path), path);
 }
 
 /** What the cache holds for one shard. */

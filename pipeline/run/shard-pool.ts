@@ -5,7 +5,7 @@
  * caller as it arrives. Results do not depend on the number of workers: each task is computed
  * whole by one worker, partials are integer counts, and merge bands write disjoint files.
  */
-import { runInWorkers } from '../infra/worker-pool.ts';
+import { startWorkerPool, type RunOptions, type WorkerPool } from '../infra/worker-pool.ts';
 import type { ChangeCounts, KernelCounts } from '../physics/index.ts';
 import type { OpenDatasetOptions, SummaryPart } from '../read/index.ts';
 import type { ComputeTask, ShardContext } from './compute-task.ts';
@@ -59,19 +59,41 @@ export interface PoolHandlers {
 
 export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.kind === 'merge' ? t.tile.id : `summary-${t.hours[0]}-${t.hours[1]}`);
 
+/** A pool the caller keeps across runs (the compute stage's, started before the plan is made). */
+export interface ShardPool {
+  readonly size: number;
+  /** @internal the worker pool itself */
+  readonly pool: WorkerPool<PoolTask, PoolResult>;
+  close(): Promise<void>;
+}
+
 /**
- * Runs `tasks` in order of the list on up to `jobs` workers. A handler's exception, a worker's
- * error or `signal` stops the pool (no new tasks; the workers are terminated) and is thrown.
+ * Starts the build's `jobs` workers now; `init` (what every worker is started with) may be a
+ * promise, so the workers load their code while the plan is still being made (hashing the
+ * inputs, the land cells, the shards). A rejected `init` stops the pool with its reason.
  */
-export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, jobs: number, handlers: PoolHandlers, signal?: AbortSignal): Promise<void> {
-  await runInWorkers<PoolTask, PoolResult>('shard', tasks, {
-    size: jobs,
-    init,
-    describe: (t) => `${t.kind === 'compute' ? 'compute task' : t.kind === 'merge' ? 'merge band' : 'summary of the inputs'} ${taskId(t)}`,
+export function startShardPool(jobs: number, init: WorkerInit | Promise<WorkerInit>): ShardPool {
+  const pool = startWorkerPool<PoolTask, PoolResult>('shard', { size: jobs, init, describe });
+  return { size: pool.size, pool, close: () => pool.close() };
+}
+
+function describe(t: PoolTask): string {
+  return `${t.kind === 'compute' ? 'compute task' : t.kind === 'merge' ? 'merge band' : 'summary of the inputs'} ${taskId(t)}`;
+}
+
+/**
+ * Runs `tasks` in order of the list on up to `jobs` workers: on `workers`, a pool the build keeps
+ * (left running), or on a pool started with that set-up for this run and stopped after it. A
+ * handler's exception, a worker's error or `signal` stops the run (no new tasks; a pool started
+ * here is terminated, a kept one takes no further run) and is thrown.
+ */
+export async function runTasks(tasks: readonly PoolTask[], workers: WorkerInit | ShardPool, jobs: number, handlers: PoolHandlers, signal?: AbortSignal): Promise<void> {
+  if (tasks.length === 0) return;
+  const opts: RunOptions<PoolTask, PoolResult> = {
     // Up to two tasks in flight per worker while the queue is long: the worker starts its next
     // task at once, even while the main thread is busy. Near the end one at a time, so no worker
     // sits on a task another could take.
-    depth: (queued, workers) => (queued > workers ? 2 : 1),
+    depth: (queued, n) => (queued > n ? 2 : 1),
     onProgress: () => handlers.onShardProgress?.(),
     onResult: (t, r) => {
       if (r.kind === 'compute') for (const s of r.shards) handlers.onShard?.(s.shardId, s);
@@ -80,5 +102,12 @@ export async function runTasks(tasks: readonly PoolTask[], init: WorkerInit, job
     },
     // The caller gave up (its own work failed): no more tasks, the workers are stopped.
     signal,
-  });
+  };
+  if ('pool' in workers) return workers.pool.run(tasks, opts);
+  const pool = startWorkerPool<PoolTask, PoolResult>('shard', { size: Math.min(jobs, tasks.length), init: workers, describe });
+  try {
+    await pool.run(tasks, opts);
+  } finally {
+    await pool.close();
+  }
 }

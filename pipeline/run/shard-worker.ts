@@ -3,8 +3,8 @@
  * as the entry `shard`): opens the dataset once, then runs the tasks it is sent — compute tasks
  * (a piece of a year over a group of tiles, ./compute-task.ts), each shard's partial written to
  * its file here (encoding runs in parallel), merge bands (./merge-tile.ts) and chunks of the
- * inputs' summary for the inventory. Only small
- * reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
+ * inputs' summary for the inventory. The compute stage's pool is started before the plan is made
+ * (pipeline/run/build-atlas.ts). Only small reports travel back to the main thread. A full disk becomes the catalogued DiskFull.
  */
 import { openDataset, type Dataset } from '../read/index.ts';
 import { computeTask } from './compute-task.ts';
@@ -35,7 +35,8 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
         const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics, ...(shard.scenario !== undefined ? { change } : {}) } });
         shards.push({ shardId: shard.id, physics: r.physics, change: r.change, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
         progress(1);
-      });
+        // The partial is encoded and written: nothing of it is kept, so its arrays may be reused.
+      }, true);
       return { kind: 'compute', shards };
     } catch (e) {
       const code = (e as NodeJS.ErrnoException)?.code;

@@ -16,7 +16,7 @@ import { runInWorkers } from '../../pipeline/infra/worker-pool.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 import { SMALL_GRID } from '../../pipeline/demo/index.ts';
 import type { YearJob } from '../../pipeline/demo/year-job.ts';
-import { runTasks } from '../../pipeline/run/shard-pool.ts';
+import { runTasks, startShardPool } from '../../pipeline/run/shard-pool.ts';
 import type { WorkerInit } from '../../pipeline/run/shard-pool.ts';
 import type { ShardSpec } from '../../pipeline/run/plan.ts';
 
@@ -86,5 +86,33 @@ describe('the worker pool', () => {
     expect((err as HeathoursError).code).toBe('NetcdfFileNotFound');
     expect((err as HeathoursError).where.file).toBe('/nowhere/era5-2021.nc');
     expect((err as HeathoursError).hint).toContain('check the path');
+  }, 60_000);
+
+  it('a pool started before its set-up is known serves its tasks with the set-up given later, run after run', async () => {
+    let give!: (i: WorkerInit) => void;
+    const pool = startShardPool(1, new Promise<WorkerInit>((ok) => (give = ok)));
+    try {
+      const task = { kind: 'compute' as const, task: { id: 'g00-y2021-m01', shards: [{ id: 't00-y2021-m01' } as ShardSpec], blockHours: 744 }, stores: {} };
+      const first = runTasks([task], pool, 1, {}).then(() => undefined, (e: unknown) => e);
+      // The worker reads the files the set-up names, given only now.
+      give({ files: ['/later/era5-2021.nc'], datasetOptions: { product: 'era5' as const, digests: false }, context: {} as WorkerInit['context'] });
+      const err = await first;
+      expect((err as HeathoursError).code).toBe('NetcdfFileNotFound');
+      expect((err as HeathoursError).where.file).toBe('/later/era5-2021.nc');
+      // That run failed with its one task answered (nothing in flight): the kept pool serves the next run.
+      const again = await runTasks([task], pool, 1, {}).then(() => undefined, (e: unknown) => e);
+      expect((again as HeathoursError).code).toBe('NetcdfFileNotFound');
+    } finally {
+      await pool.close();
+    }
+  }, 60_000);
+
+  it('a set-up that fails stops the pool started before it: a run rejects with the set-up\'s reason', async () => {
+    const pool = startShardPool(2, Promise.reject(new Error('the plan failed')));
+    try {
+      await expect(runTasks([{ kind: 'summary', hours: [0, 1], key: 'k' }], pool, 2, {})).rejects.toThrow('the plan failed');
+    } finally {
+      await pool.close();
+    }
   }, 60_000);
 });
