@@ -54,9 +54,13 @@ export class RegionPartWriter {
     this.at += 16 + payload.length;
   }
 
-  /** A region's histogram pairs of one year (dense pairs, one per histogram value). */
-  histogram(region: number, year: number, pairs: Float64Array): void {
-    this.put(RECORD_HISTOGRAM, region, year, encodeHistogramPairs(pairs));
+  /**
+   * A region's histogram pairs of one year (dense pairs, one per histogram value). With `touched`
+   * (one byte per group of slots, e.g. per month × hour of both exposures), only the marked groups
+   * are looked at: the others must be all zero, and are written as empty slots as they would be.
+   */
+  histogram(region: number, year: number, pairs: Float64Array, touched?: Uint8Array): void {
+    this.put(RECORD_HISTOGRAM, region, year, encodeHistogramPairs(pairs, touched));
   }
 
   /** Figure sums of a region: area-weighted ({@link RECORD_FIGURES}) or people-weighted ({@link RECORD_WORKFORCE}). */
@@ -91,32 +95,47 @@ function bytes(a: ArrayBufferView): Buffer {
   return Buffer.from(a.buffer, a.byteOffset, a.byteLength);
 }
 
-function encodeHistogramPairs(pairs: Float64Array): Uint8Array {
+function encodeHistogramPairs(pairs: Float64Array, touched?: Uint8Array): Uint8Array {
   const n = pairs.length >> 1;
   const slots = n / HIST_LEN;
-  const chunks: Buffer[] = [];
+  const per = touched ? slots / touched.length : 1;
+  if (touched && !Number.isInteger(per)) throw new RangeError(`${slots} slots do not split into ${touched.length} groups`);
+  // Sized for the worst case (every bin of every slot), then cut to what was written.
+  let out = scratch;
+  const most = slots * 4 + 16 * n;
+  if (out.length < most) out = scratch = new Uint8Array(most);
+  const view = new DataView(out.buffer);
+  const bytesOf = new Uint8Array(pairs.buffer, pairs.byteOffset, pairs.byteLength);
+  let at = 0;
   for (let s = 0; s < slots; s++) {
     let first = -1;
     let last = -1;
-    for (let b = 0; b < HIST_LEN; b++) {
-      const i = s * HIST_LEN + b;
-      if (pairs[2 * i] !== 0 || pairs[2 * i + 1] !== 0) {
-        if (first < 0) first = b;
-        last = b;
+    if (!touched || touched[Math.floor(s / per)] !== 0) {
+      for (let b = 0; b < HIST_LEN; b++) {
+        const i = s * HIST_LEN + b;
+        if (pairs[2 * i] !== 0 || pairs[2 * i + 1] !== 0) {
+          if (first < 0) first = b;
+          last = b;
+        }
       }
     }
-    const head = Buffer.alloc(4);
     if (first < 0) {
-      chunks.push(head);
+      view.setUint32(at, 0, true);
+      at += 4;
       continue;
     }
-    head.writeUInt16LE(first, 0);
-    head.writeUInt16LE(last - first + 1, 2);
+    view.setUint16(at, first, true);
+    view.setUint16(at + 2, last - first + 1, true);
+    at += 4;
     const i0 = s * HIST_LEN + first;
-    chunks.push(head, Buffer.from(pairs.buffer, pairs.byteOffset + 16 * i0, 16 * (last - first + 1)));
+    out.set(bytesOf.subarray(16 * i0, 16 * (s * HIST_LEN + last + 1)), at);
+    at += 16 * (last - first + 1);
   }
-  return Buffer.concat(chunks);
+  return out.subarray(0, at);
 }
+
+/** The writer's encoding buffer, reused from record to record (written out before the next). */
+let scratch = new Uint8Array(0);
 
 /** Reads one record's payload. */
 function readPayload(path: string, ref: RegionRecordRef): Buffer {
@@ -135,8 +154,11 @@ function readPayload(path: string, ref: RegionRecordRef): Buffer {
   }
 }
 
-/** Adds a histogram record's pairs into `acc` (dense pairs, same length as written). */
-export function readHistogramInto(path: string, ref: RegionRecordRef, acc: Float64Array, add: (a: Float64Array, i: number, b: Float64Array, j: number) => void): void {
+/**
+ * Adds a histogram record's pairs into `acc` (dense pairs, same length as written); with
+ * `touched` (one byte per slot), marks each slot the record holds bins of.
+ */
+export function readHistogramInto(path: string, ref: RegionRecordRef, acc: Float64Array, add: (a: Float64Array, i: number, b: Float64Array, j: number) => void, touched?: Uint8Array): void {
   const p = readPayload(path, ref);
   const slots = (acc.length >> 1) / HIST_LEN;
   let at = 0;
@@ -146,6 +168,7 @@ export function readHistogramInto(path: string, ref: RegionRecordRef, acc: Float
     const n = p.readUInt16LE(at + 2);
     at += 4;
     if (n === 0) continue;
+    if (touched) touched[s] = 1;
     Buffer.from(view.buffer).set(p.subarray(at, at + 16 * n));
     at += 16 * n;
     for (let k = 0; k < n; k++) add(acc, s * HIST_LEN + first + k, view, k);

@@ -44,6 +44,57 @@ export function encodeHistogramTile(perYear: readonly Float32Array[]): Uint8Arra
   return Uint8Array.from(parts);
 }
 
+/** Slots of one year of a tile: month × local hour × exposure. */
+const TILE_SLOTS = MONTHS * HOURS * N_EXPOSURES;
+/** The most bytes one year of a tile can take: every slot's two header bytes and all its bins [bytes]. */
+export const HISTOGRAM_TILE_YEAR_MAX_BYTES = TILE_SLOTS * (2 + 2 * HIST_LEN);
+
+/**
+ * Encodes one year of a tile from a region's histograms kept as double-double pairs
+ * (pipeline/regions/double-double.ts: value i at `pairs[2i] + pairs[2i + 1]`, each taken as the
+ * float32 {@link encodeHistogramTile} stores it as), where only the slots marked in `touched`
+ * (one byte per month × hour × exposure) can hold a count: the same bytes as
+ * {@link encodeHistogramTile} writes for that year's dense float32 histogram (an unmarked slot is
+ * all zero, so empty there too), without building the dense array or a list of numbers. Writes
+ * into `out` from byte `at` (room for {@link HISTOGRAM_TILE_YEAR_MAX_BYTES}) and returns the end.
+ */
+export function encodeHistogramTileYearPairs(pairs: Float64Array, touched: Uint8Array, out: Uint8Array, at: number): number {
+  if (pairs.length !== 2 * TILE_SLOTS * HIST_LEN || touched.length !== TILE_SLOTS) throw new RangeError(`a tile year holds ${TILE_SLOTS} slots of ${HIST_LEN} pairs`);
+  if (out.length - at < HISTOGRAM_TILE_YEAR_MAX_BYTES) throw new RangeError(`room for ${HISTOGRAM_TILE_YEAR_MAX_BYTES} bytes needed at byte ${at} of ${out.length}`);
+  let p = at;
+  for (let s = 0; s < TILE_SLOTS; s++) {
+    if (touched[s] === 0) {
+      out[p++] = 0;
+      out[p++] = 0;
+      continue;
+    }
+    const base = s * HIST_LEN;
+    let first = -1;
+    let last = -1;
+    for (let b = 0; b < HIST_LEN; b++) {
+      const i = base + b;
+      if (Math.round(Math.fround(pairs[2 * i] + pairs[2 * i + 1]) * HISTOGRAM_SCALE) > 0) {
+        if (first < 0) first = b;
+        last = b;
+      }
+    }
+    if (first < 0) {
+      out[p++] = 0;
+      out[p++] = 0;
+      continue;
+    }
+    out[p++] = first;
+    out[p++] = last - first + 1;
+    for (let b = first; b <= last; b++) {
+      const i = base + b;
+      const v = Math.min(65535, Math.round(Math.fround(pairs[2 * i] + pairs[2 * i + 1]) * HISTOGRAM_SCALE));
+      out[p++] = v & 0xff;
+      out[p++] = v >> 8;
+    }
+  }
+  return p;
+}
+
 /** Decodes a tile into per-year Float64Arrays of MONTHS × HOURS × N_EXPOSURES × HIST_LEN [h]. */
 export function decodeHistogramTile(bytes: Uint8Array, nYears: number): Float64Array[] {
   const slots = MONTHS * HOURS * N_EXPOSURES;

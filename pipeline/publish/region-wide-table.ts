@@ -58,11 +58,38 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
   ].map(col);
   const tables = new Map<string, WideTable>();
   const index = new Map<string, WideTable['rows'][number]>();
+  // The pipeline's own column order (region-table.ts): a row's key is then one slice of its line,
+  // from the figure to the statistic, and only the first line of each row is split.
+  const ownOrder = cPeriod === 1 && cFigure === 2 && cClass === 3 && cAccl === 4 && cExp === 5 && cMethod === 6 && cStat === 7 && cValue === 8 && cUnit === 9 && cYears === 10 && cBase === 11 && head.length === 12;
   for (let l = 1; l < lines.length; l++) {
-    if (lines[l] === '') continue;
+    const line = lines[l];
+    if (line === '') continue;
+    if (ownOrder && !line.includes('"')) {
+      // Commas 1, 2, 7, 8, 9, 10, 11 (0-based fields: period starts after comma 0, figure after 1, …).
+      const k0 = line.indexOf(',');
+      const k1 = line.indexOf(',', k0 + 1);
+      let k7 = k1;
+      for (let i = 2; i <= 7 && k7 >= 0; i++) k7 = line.indexOf(',', k7 + 1);
+      const k8 = k7 < 0 ? -1 : line.indexOf(',', k7 + 1);
+      const k9 = k8 < 0 ? -1 : line.indexOf(',', k8 + 1);
+      const k10 = k9 < 0 ? -1 : line.indexOf(',', k9 + 1);
+      if (k0 >= 0 && k1 >= 0 && k10 >= 0 && line.indexOf(',', k10 + 1) < 0) {
+        const unit = line.slice(k8 + 1, k9);
+        const id = `${unit}|${line.slice(k1 + 1, k7)}`;
+        const row = index.get(id);
+        if (row) {
+          const p = PERIODS.indexOf(line.slice(k0 + 1, k1));
+          const value = line.slice(k7 + 1, k8);
+          if (p >= 0) row.values[p] = value === '' ? NaN : Number(value);
+          const y = Number(line.slice(k9 + 1, k10));
+          if (Number.isFinite(y)) row.yearsUsed = Math.min(row.yearsUsed, y);
+          continue;
+        }
+      }
+    }
     // The pipeline writes these tables without quotes: split such a line directly (about 3× faster
     // over a region's 5,000 rows); a quoted line goes through the CSV parser.
-    const f = lines[l].includes('"') ? splitCsvRecord(lines[l]) : lines[l].split(',');
+    const f = line.includes('"') ? splitCsvRecord(line) : line.split(',');
     if (!f) continue;
     const unit = f[cUnit];
     let t = tables.get(unit);
@@ -71,7 +98,8 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
       tables.set(unit, t);
     }
     const keys = [f[cFigure], labels.get(f[cFigure]) ?? f[cFigure], f[cClass], f[cAccl], f[cExp], f[cMethod], f[cStat]];
-    const id = `${unit}|${keys.join('|')}`;
+    // The same key as the slice above: the figure to the statistic as the line has them.
+    const id = `${unit}|${[f[cFigure], f[cClass], f[cAccl], f[cExp], f[cMethod], f[cStat]].join(',')}`;
     let row = index.get(id);
     if (!row) {
       row = { keys, values: new Array(PERIODS.length).fill(NaN), yearsUsed: Infinity, baseline: f[cBase] };

@@ -145,8 +145,9 @@ export function weightedMeans(pairs: Float64Array, nQuantities: number): Float64
  * per value of a region-year: slot × `run` bins): Σ histWeight · count.
  * @param hist a merged year of the tile's `nCells` cells, slot-major: slot × cell × `run` values [h]
  * @param slots slots per year (months × local hours) and `run` values per cell and slot
+ * @param touched when given (one byte per slot), each slot a count was added to is set to 1
  */
-export function addWeightedHistograms(acc: Float64Array, hist: Uint16Array, nCells: number, slots: number, run: number, rc: RegionTileCells): void {
+export function addWeightedHistograms(acc: Float64Array, hist: Uint16Array, nCells: number, slots: number, run: number, rc: RegionTileCells, touched?: Uint8Array): void {
   // Bins are read two at a time: most pairs are empty.
   const pairs = (hist.byteOffset & 3) === 0 && (run & 1) === 0 ? new Uint32Array(hist.buffer, hist.byteOffset, hist.length >> 1) : undefined;
   for (let s = 0; s < slots; s++) {
@@ -158,6 +159,7 @@ export function addWeightedHistograms(acc: Float64Array, hist: Uint16Array, nCel
         const p0 = src0 >> 1;
         for (let i = 0; i < run >> 1; i++) {
           if (pairs[p0 + i] === 0) continue;
+          if (touched) touched[s] = 1;
           const lo = hist[src0 + 2 * i];
           const hi = hist[src0 + 2 * i + 1];
           if (lo !== 0) ddAdd(acc, a0 + 2 * i, wt * lo);
@@ -166,7 +168,9 @@ export function addWeightedHistograms(acc: Float64Array, hist: Uint16Array, nCel
       } else {
         for (let i = 0; i < run; i++) {
           const n = hist[src0 + i];
-          if (n !== 0) ddAdd(acc, a0 + i, wt * n);
+          if (n === 0) continue;
+          if (touched) touched[s] = 1;
+          ddAdd(acc, a0 + i, wt * n);
         }
       }
     }

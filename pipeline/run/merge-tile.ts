@@ -173,6 +173,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
   });
   const regionFile = new RegionPartWriter(join(t.scratchDir, `${t.id}.regions`));
   const hist = t.regions.length > 0 ? new Float64Array(2 * CELL_YEAR_HIST) : new Float64Array(0);
+  const histTouched = new Uint8Array(MONTHS * HOURS);
   let defs: FigureDef[] | undefined;
   /** Per figure: values per year × tile cell × field, masked (NaN where a period does not count). */
   let stacks: Float64Array[] = [];
@@ -210,10 +211,17 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
         }
       }
       for (const b of blockCells) b.point.addYear(yc, b.c0);
+      // Only the slots a region's cells add to are encoded and cleared again (a region of a few
+      // cells touches a small part of the year's ~1.5 MB of pairs).
+      const run = N_EXPOSURES * HIST_LEN;
       for (const rc of t.regions) {
-        hist.fill(0);
-        addWeightedHistograms(hist, yc.histogram, nCells, MONTHS * HOURS, N_EXPOSURES * HIST_LEN, rc);
-        regionFile.histogram(rc.region, y, hist);
+        addWeightedHistograms(hist, yc.histogram, nCells, MONTHS * HOURS, run, rc, histTouched);
+        regionFile.histogram(rc.region, y, hist, histTouched);
+        for (let s = 0; s < histTouched.length; s++) {
+          if (histTouched[s] === 0) continue;
+          hist.fill(0, 2 * s * run, 2 * (s + 1) * run);
+          histTouched[s] = 0;
+        }
       }
     }
     defs ??= [...figureDefs([]), ...(wf ? [personHoursDensityDef()] : [])];

@@ -22,7 +22,8 @@ import { regionSheetInfo, writeRegionSpreadsheets } from '../publish/region-spre
 import { STATISTIC_RULES } from '../publish/manifest.ts';
 import { CAUTIONS } from '../work/index.ts';
 import { CODE_VERSION } from '../model/version.ts';
-import { encodeHistogramTile } from '../publish/histogram-tiles.ts';
+import { encodeHistogramTileYearPairs, HISTOGRAM_TILE_YEAR_MAX_BYTES } from '../publish/histogram-tiles.ts';
+import { HIST_LEN } from '../reduce/layout.ts';
 import type { RegionFigureNormals } from '../publish/figure-normals.ts';
 import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
@@ -54,7 +55,10 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
   mkdirSync(join(dataDir, 'regions'), { recursive: true });
   mkdirSync(join(dataDir, 'calculator'), { recursive: true });
   const nY = plan.years.length;
+  // One region's histogram pairs of one year, the slots they touch, and its calculator tile's bytes.
   const acc = new Float64Array(2 * CELL_YEAR_HIST);
+  const touched = new Uint8Array(CELL_YEAR_HIST / HIST_LEN);
+  const tile = new Uint8Array(nY * HISTOGRAM_TILE_YEAR_MAX_BYTES);
   const progress = startProgress(sc ? `regions (${sc.id})` : 'regions', plan.regions.length, { quiet });
   for (let r = 0; r < plan.regions.length; r++) {
     const region = plan.regions[r];
@@ -146,16 +150,19 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
         ...(workforce ? { workforce } : {}),
       }),
     );
-    // The calculator's histograms, year by year.
-    const perYear: Float32Array[] = [];
+    // The calculator's histograms, year by year: only the slots the parts hold bins of are
+    // encoded and cleared again (the same bytes as encodeHistogramTile of the dense year).
+    let at = 0;
     for (let y = 0; y < nY; y++) {
-      acc.fill(0);
-      for (const { path, ref } of mine) if (ref.kind === RECORD_HISTOGRAM && ref.year === y) readHistogramInto(path, ref, acc, ddAddPair);
-      const h = new Float32Array(CELL_YEAR_HIST);
-      for (let i = 0; i < CELL_YEAR_HIST; i++) h[i] = acc[2 * i] + acc[2 * i + 1];
-      perYear.push(h);
+      for (const { path, ref } of mine) if (ref.kind === RECORD_HISTOGRAM && ref.year === y) readHistogramInto(path, ref, acc, ddAddPair, touched);
+      at = encodeHistogramTileYearPairs(acc, touched, tile, at);
+      for (let s = 0; s < touched.length; s++) {
+        if (touched[s] === 0) continue;
+        acc.fill(0, 2 * s * HIST_LEN, 2 * (s + 1) * HIST_LEN);
+        touched[s] = 0;
+      }
     }
-    writeFileSync(join(dataDir, 'calculator', `${region.id}.bin`), encodeHistogramTile(perYear));
+    writeFileSync(join(dataDir, 'calculator', `${region.id}.bin`), tile.subarray(0, at));
     progress.tick();
   }
   progress.done();

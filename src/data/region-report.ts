@@ -37,6 +37,25 @@ const keepScenario = (_period: string, figure: string, statistic: string) => REP
 
 let indexCache: { dir: string; index: HistogramIndex } | undefined;
 
+/** What a region's one-page summary shows: the manifest, the region's summary and its table (no hour matrix, no scenarios). */
+export type RegionSummaryData = Pick<RegionReport, 'id' | 'name' | 'manifest' | 'detail' | 'figures'>;
+
+/** The figures and statistics the one-page summary shows (and the estimate comparison reads): means and P90 of hours above and lost. */
+const SUMMARY_FIGURES = new Set<string>([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST]);
+const keepSummary = (_period: string, figure: string, statistic: string) => SUMMARY_FIGURES.has(figure) && (statistic === 'mean' || statistic === 'p90');
+
+/**
+ * Loads what the one-page summary of region `regionId` shows: unlike {@link loadRegionReport} it
+ * reads neither the calculator tile (the hour matrix) nor the scenarios' tables, and keeps only the
+ * rows of hours above the limit and hours lost (mean, P90).
+ */
+export function loadRegionSummary(regionId: string, dataDir: string = siteDataDir()): RegionSummaryData {
+  const manifest = loadAtlasManifest(dataDir);
+  const detail = loadRegionDetail(regionId, dataDir);
+  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, keepSummary));
+  return { id: regionId, name: detail.name, manifest, detail, figures };
+}
+
 /** Loads the report of region `regionId` from `dataDir` (default: the build's data folder). */
 export function loadRegionReport(regionId: string, dataDir: string = siteDataDir()): RegionReport {
   const manifest = loadAtlasManifest(dataDir);

@@ -128,6 +128,17 @@ describe('region spreadsheets', () => {
     expect(comma[0].rows[0].values[0]).toBe(2);
   });
 
+  it("regionWideTables gives the same tables from a real region table whether its columns come in the pipeline's order (one slice per line) or in another order (every line split)", () => {
+    const text = readFileSync(join(dataDir, 'data/regions', 'varn-shore.csv'), 'utf8');
+    const lines = text.trim().split('\n').map((l) => l.split(','));
+    const order = [11, 0, 10, 9, 8, 7, 6, 5, 4, 3, 2, 1];
+    const moved = `${lines.map((f) => order.map((i) => f[i]).join(',')).join('\n')}\n`;
+    const labels = new Map([['hours-lost-shift', 'Hours lost']]);
+    const own = regionWideTables(text, labels);
+    expect(own[0].rows.length).toBeGreaterThan(50);
+    expect(regionWideTables(moved, labels)).toEqual(own);
+  });
+
   it('with regionWorkbooks false (config), a region gets its wide CSV and no workbook; with the default it gets both', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'hh-wb-'));
     try {

@@ -24,7 +24,7 @@ import { cellAt, parseInputs, placeFromQuery, type RawInputs } from '../../pipel
 import { runEstimate, type EstimateResult } from '../../src/lib/estimate/estimate.ts';
 import { monthlyFigures, type MonthlyYear } from '../../src/lib/estimate/monthly.ts';
 import { monthOccurrences } from '../../pipeline/schedule/project-period.ts';
-import { shiftShares } from '../../src/lib/estimate/shift-shares.ts';
+import { clearShiftShareCache, shiftShares } from '../../src/lib/estimate/shift-shares.ts';
 import { estimateStatistics } from '../../src/lib/estimate/statistics.ts';
 import { ESTIMATE_COLUMNS, estimateRows } from '../../src/lib/estimate/table.ts';
 import { estimateCsv } from '../../src/lib/estimate/csv.ts';
@@ -115,6 +115,38 @@ describe('shift shares from the calendar (pipeline/work/shifts.ts)', () => {
   it('a night shift 22–06 Monday to Friday counts the hours after midnight for the day it started: January 2021 hours 22–23 on 21 days, hours 0–5 on 22', () => {
     const [y] = shiftShares([2021], 'Etc/GMT+10', parsePattern(['22:00-06:00'], 'mon-fri'));
     for (let h = 0; h < 24; h++) expect(y.share[h], `hour ${h}`).toBeCloseTo(h >= 22 ? 21 / 31 : h < 6 ? 22 / 31 : 0, 12);
+  });
+});
+
+describe('shift shares are computed once per year, zone and pattern', () => {
+  it('shares asked again, in another order, with another zone or pattern, or for more years than the cache holds equal the shares computed afresh', () => {
+    const day = patternFromWorkShift(DEFAULT_SHIFT);
+    const night = parsePattern(['22:00-06:00'], 'mon-fri');
+    const fresh = (years: number[], zone: string, p: typeof day) => {
+      clearShiftShareCache();
+      const out = shiftShares(years, zone, p).map((y) => ({ year: y.year, share: Array.from(y.share), slot: Array.from(y.slotHours) }));
+      clearShiftShareCache();
+      return out;
+    };
+    const view = (ys: ReturnType<typeof shiftShares>) => ys.map((y) => ({ year: y.year, share: Array.from(y.share), slot: Array.from(y.slotHours) }));
+    const dayWant = fresh([2021, 2024], 'Etc/GMT+10', day);
+    const nightWant = fresh([2021, 2024], 'Etc/GMT+10', night);
+    const zoneWant = fresh([2024, 2021], 'Europe/Berlin', day);
+    expect(view(shiftShares([2021, 2024], 'Etc/GMT+10', day))).toEqual(dayWant);
+    expect(view(shiftShares([2021, 2024], 'Etc/GMT+10', night))).toEqual(nightWant);
+    expect(view(shiftShares([2024, 2021], 'Europe/Berlin', day))).toEqual(zoneWant);
+    expect(view(shiftShares([2024, 2021], 'Etc/GMT+10', day))).toEqual([dayWant[1], dayWant[0]]);
+    expect(nightWant[0].share).not.toEqual(dayWant[0].share);
+    // Berlin's clocks went forward on 28 March 2021: its March 02:00 slot has 30 hours, not 31.
+    expect(zoneWant[1].slot[2 * 24 + 2]).toBe(30);
+    expect(dayWant[0].slot[2 * 24 + 2]).toBe(31);
+    // January 2021, hour 8, Monday to Saturday: 26 of 31 days (the calendar; as the test above).
+    expect(dayWant[0].share[8]).toBeCloseTo(26 / 31, 12);
+    // More years than the cache holds (64): each still its own calendar year.
+    const many = Array.from({ length: 70 }, (_, i) => 1960 + i);
+    const got = shiftShares(many, 'Etc/GMT+10', day);
+    expect(got.map((y) => y.year)).toEqual(many);
+    expect(view([got[0], got[69]])).toEqual(fresh([1960, 2029], 'Etc/GMT+10', day));
   });
 });
 

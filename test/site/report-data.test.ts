@@ -18,7 +18,7 @@ import { loadAtlasManifest } from '../../src/data/atlas-manifest.ts';
 import { loadManifest } from '../../src/data/manifest.ts';
 import { loadManifestLayers } from '../../src/data/manifest-layers.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
-import { loadRegionReport } from '../../src/data/region-report.ts';
+import { loadRegionReport, loadRegionSummary } from '../../src/data/region-report.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
 import { buildPipelineData } from './pipeline-data.ts';
 
@@ -83,6 +83,37 @@ describe('reading what the pipeline published', () => {
     expect(r.manifest.work.classes.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
     expect(r.figures.get({ figure: 'hours-lost-shift', period: 'year', workloadClass: 'moderate', acclimatization: 'acclimatized', exposure: 'sun', statistic: 'mean' })).toBeGreaterThan(0);
     expect(r.matrix.values.every((v) => Number.isFinite(v))).toBe(true);
+  });
+
+  it("gives the one-page summary the report's values for every row it shows, and none of the rows it does not show", () => {
+    const r = loadRegionReport(REGION, work);
+    const s = loadRegionSummary(REGION, work);
+    expect(s.detail).toEqual(r.detail);
+    expect(s.manifest).toBe(r.manifest);
+    let compared = 0;
+    for (const figure of ['hours-above-limit-shift', 'hours-lost-shift']) {
+      for (const period of ['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']) {
+        for (const c of r.manifest.work.classes) {
+          for (const a of r.manifest.work.acclimatization) {
+            for (const e of r.manifest.work.exposures) {
+              for (const statistic of ['mean', 'p90']) {
+                const k = { figure, period, workloadClass: c.id, acclimatization: a, exposure: e, statistic };
+                expect(s.figures.has(k), JSON.stringify(k)).toBe(r.figures.has(k));
+                if (r.figures.has(k)) {
+                  expect(Object.is(s.figures.get(k), r.figures.get(k)), JSON.stringify(k)).toBe(true);
+                  compared++;
+                }
+              }
+            }
+          }
+        }
+      }
+    }
+    expect(compared).toBe(2 * 13 * r.manifest.work.classes.length * r.manifest.work.acclimatization.length * r.manifest.work.exposures.length * 2);
+    // The trend rows are the report's alone.
+    const trendKey = { figure: 'hours-lost-shift', period: 'year', workloadClass: 'moderate', acclimatization: 'acclimatized', exposure: 'sun', statistic: 'trend' };
+    expect(r.figures.has(trendKey)).toBe(true);
+    expect(s.figures.has(trendKey)).toBe(false);
   });
 
   it('reads RFC 4180 CSV: quoted fields with commas, doubled quotes and line breaks, CRLF line ends', () => {

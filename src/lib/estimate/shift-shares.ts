@@ -33,10 +33,37 @@ export interface YearShiftShares {
 }
 
 /**
- * Shift shares per slot for each local calendar year in `years`, in IANA zone `timeZone`.
+ * The shares of the latest few (year, zone, pattern) asked for: a build computes the same ones for
+ * every region's report (the comparison with this page, src/lib/report/estimate-difference.ts),
+ * and each takes a year of local hours through Intl. Bounded: at most {@link SHARE_CACHE_SIZE}.
+ */
+const shareCache = new Map<string, YearShiftShares>();
+const SHARE_CACHE_SIZE = 64;
+
+/** Empties the cache of {@link shiftShares} (for tests). */
+export function clearShiftShareCache(): void {
+  shareCache.clear();
+}
+
+/**
+ * Shift shares per slot for each local calendar year in `years`, in IANA zone `timeZone`. A year
+ * asked for again with the same zone and pattern is the same object: callers only read it.
  * Catalogued errors from pipeline/work: WorkTimeZoneUnknown.
  */
 export function shiftShares(years: readonly number[], timeZone: string, pattern: ShiftPattern): YearShiftShares[] {
+  const key = `${timeZone}|${JSON.stringify(pattern)}|`;
+  const missing = years.filter((y) => !shareCache.has(key + y));
+  if (missing.length > 0) {
+    for (const s of computeShiftShares(missing, timeZone, pattern)) {
+      if (shareCache.size >= SHARE_CACHE_SIZE) shareCache.delete(shareCache.keys().next().value as string);
+      shareCache.set(key + s.year, s);
+    }
+  }
+  // A year pushed out by the others of this call (more than the cache holds) is computed again.
+  return years.map((y) => shareCache.get(key + y) ?? computeShiftShares([y], timeZone, pattern)[0]);
+}
+
+function computeShiftShares(years: readonly number[], timeZone: string, pattern: ShiftPattern): YearShiftShares[] {
   const same = new Float64Array(24);
   const next = new Float64Array(24);
   for (const w of hourWeights(pattern)) (w.dayOffset === 0 ? same : next)[w.hour] += w.weight;
