@@ -18,6 +18,7 @@ import { buildPipelineData, PIPELINE_DATA_SCENARIO } from './pipeline-data.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import type { LayerEntry } from '../../pipeline/publish/atlas-layers.ts';
 import type { Rgb } from '../../src/components/map/map-colours.ts';
+import { firstViewBytes } from '../../bench/first-view.mjs';
 
 const MAP = 'explorer-map';
 const SID = PIPELINE_DATA_SCENARIO.id;
@@ -27,6 +28,7 @@ let dataDir = '';
 let session: SiteSession;
 let manifest: Manifest;
 let scenario: NonNullable<Manifest['scenarios']>[number];
+let distDir = '';
 
 const read = (rel: string) => readFileSync(join(dataDir, rel));
 
@@ -73,6 +75,7 @@ beforeAll(async () => {
   manifest = JSON.parse(read('data/manifest.json').toString('utf8')) as Manifest;
   scenario = manifest.scenarios![0];
   const build = await buildTestSite(dataDir);
+  distDir = build.distDir;
   session = await startSiteSession(build.distDir);
   process.stderr.write(`map scenario tests: site build ${build.reused ? 'reused' : `took ${(build.buildMs / 1000).toFixed(1)} s`}\n`);
 }, 1_200_000);
@@ -98,6 +101,11 @@ describe('the map explorer\'s climate switch', () => {
     // Requests made before the page script wired its listener are in the first view; none of them is a scenario's.
     const firstView = await map.page.evaluate(() => performance.getEntriesByType('resource').map((e) => new URL(e.name).pathname));
     expect([...firstView, ...requests].filter((p) => p.includes('/scenarios/'))).toEqual([]);
+    // The first-view counter (bench/first-view.mjs) counts no scenario file either.
+    const counted = firstViewBytes(distDir, 'map/');
+    expect(counted.paths.length).toBeGreaterThan(5);
+    expect(counted.paths.filter((p: string) => p.includes('scenarios/'))).toEqual([]);
+    process.stderr.write(`map first view with one scenario: ${counted.files} files, ${counted.bytes} B, ${counted.gzipBytes} B gzip\n`);
   });
 
   it('draws the scenario\'s layer in its legend\'s colours, shows its words and the caveat, and fills the region table from its own tables', async () => {
