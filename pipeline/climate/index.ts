@@ -26,5 +26,5 @@ export {
 } from './niche.ts';
 export { assessNiche, type NicheAssessment, type NicheInput } from './niche-assessment.ts';
 export { annualMeanFromMonthlySums, type MonthlySums } from './annual-mean.ts';
-export { computeTrends, theilSenSlope, mannKendall, MIN_TREND_YEARS, YEARS_PER_DECADE, type Trends } from './trend.ts';
+export { computeTrends, annualCellTrends, theilSenSlope, mannKendall, MIN_TREND_YEARS, YEARS_PER_DECADE, type Trends } from './trend.ts';
 export * as climateErrors from './errors.ts';

@@ -111,3 +111,15 @@ export function computeTrends(stack: YearStack, items?: ArrayLike<number>, minYe
   }
   return out;
 }
+
+/**
+ * Trends of the whole-year values of a figure's per-cell stack (items ordered cell × period ×
+ * combination, the merge's layout, the last of `periods` the year): one slope per decade and one
+ * Mann–Kendall p-value per cell × combination, in that order (cell-major) — the per-cell trend
+ * layers (`trend-year`, `trend-p-year`, pipeline/publish/grid-fields.ts).
+ * @param nCells cells of the stack [–] @param nCombos combinations of the figure [–] @param periods periods per cell (13: twelve months and the year) [–]
+ */
+export function annualCellTrends(stack: YearStack, nCells: number, nCombos: number, periods: number, minYears = MIN_TREND_YEARS): Trends {
+  const items = Int32Array.from({ length: nCells * nCombos }, (_, j) => (Math.floor(j / nCombos) * periods + periods - 1) * nCombos + (j % nCombos));
+  return computeTrends(stack, items, minYears);
+}

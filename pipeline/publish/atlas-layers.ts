@@ -18,7 +18,7 @@ export interface LayerEntry {
   id: string;
   figure: string;
   combo: string;
-  statistic: 'mean' | 'p90' | 'baseline' | 'class' | 'trend';
+  statistic: 'mean' | 'p90' | 'baseline' | 'class' | 'trend' | 'trend-p';
   period: string;
   units: string;
   png: string;
@@ -115,6 +115,18 @@ export async function writeAtlasLayers(
       const style = figureStyle('change', domain, trendUnit(def.units), { title: `${def.label}: trend per decade over the years built (Theil–Sen; needs ${MIN_TREND_YEARS} years)` });
       const files = await writeLayerFiles(dir, 'trend-year', g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, Theil–Sen trend of the annual value per decade over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`, noData: -9999 });
       entries.push(entry(`${def.id}/${def.combos[k]}/trend-year`, def.id, def.combos[k], 'trend', 'year', trendUnit(def.units), `layers/${def.id}/${def.combos[k]}/`, files));
+      onLayer();
+    }
+  }
+  // The Mann–Kendall p-value of each trend (a probability, 0–1 on one fixed domain so layers compare); empty below the minimum years.
+  for (const def of defs) {
+    if (!(TRENDED as readonly string[]).includes(def.id)) continue;
+    for (let k = 0; k < def.combos.length; k++) {
+      const f = find(def.id, k, 'trend-p', PERIODS - 1);
+      const dir = join(dataDir, 'layers', def.id, def.combos[k]);
+      const style = figureStyle('probability', [0, 1], '1', { title: `${def.label}: p-value of the trend over the years built (Mann–Kendall; needs ${MIN_TREND_YEARS} years)` });
+      const files = await writeLayerFiles(dir, 'trend-p-year', g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, two-sided Mann–Kendall p-value of the trend of the annual value over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`, noData: -9999 });
+      entries.push(entry(`${def.id}/${def.combos[k]}/trend-p-year`, def.id, def.combos[k], 'trend-p', 'year', '1', `layers/${def.id}/${def.combos[k]}/`, files));
       onLayer();
     }
   }

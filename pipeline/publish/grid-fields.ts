@@ -9,7 +9,7 @@ import { CELL_TABLE_FIGURES } from './cell-table.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
 
 /** Statistics of the per-cell fields: normals across the baseline, years used, the niche. */
-export type GridStatistic = 'mean' | 'median' | 'p90' | 'years' | 'baseline' | 'class' | 'trend';
+export type GridStatistic = 'mean' | 'median' | 'p90' | 'years' | 'baseline' | 'class' | 'trend' | 'trend-p';
 
 export interface GridField {
   /** Index in the field list (and in every piece file). */
@@ -37,8 +37,9 @@ export const MAPPED: Record<string, Array<'mean' | 'p90'>> = {
 };
 
 /**
- * Figures whose annual value gets a trend layer per combination (`trend-year`: the Theil–Sen slope
- * per decade over the years built, docs/methods.md §10.5; no value below 15 years).
+ * Figures whose annual value gets two trend layers per combination (`trend-year`: the Theil–Sen
+ * slope per decade over the years built; `trend-p-year`: the Mann–Kendall p-value of that trend;
+ * docs/methods.md §10.5; no value below 15 years).
  */
 export const TRENDED = ['hours-above-limit-shift', 'hours-lost-shift'] as const;
 
@@ -51,7 +52,8 @@ export const NICHE_FIGURE = 'mean-annual-temperature';
 /**
  * Every gridded field, in piece-file order: the NetCDF figures variable by variable (statistic,
  * then period, then combination — the C order of a `(period, evaluation, lat, lon)` variable),
- * then the layers that are not in the NetCDF, then the trend layers ({@link TRENDED}), then the niche (baseline mean annual temperature,
+ * then the layers that are not in the NetCDF, then the trend layers ({@link TRENDED}: every slope,
+ * then every p-value, so the fields before them keep their places), then the niche (baseline mean annual temperature,
  * its class).
  */
 export function gridFields(defs: readonly FigureDef[]): GridField[] {
@@ -79,6 +81,10 @@ export function gridFields(defs: readonly FigureDef[]): GridField[] {
   for (const id of TRENDED) {
     const def = defs.find((d) => d.id === id);
     if (def) def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend', period: PERIODS - 1, layer: true, netcdf: false }));
+  }
+  for (const id of TRENDED) {
+    const def = defs.find((d) => d.id === id);
+    if (def) def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend-p', period: PERIODS - 1, layer: true, netcdf: false }));
   }
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'baseline', period: PERIODS - 1, layer: true, netcdf: true });
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'class', period: PERIODS - 1, layer: true, netcdf: true });

@@ -15,7 +15,7 @@
  */
 import { mkdirSync, openSync, closeSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
-import { computeNormals, computeTrends, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
+import { computeNormals, annualCellTrends, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
 import { YearMerger, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
 import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../reduce/layout.ts';
 import { figureDefs, yearFigures, shiftHourValues, PERIODS, type FigureDef } from '../reduce/figures.ts';
@@ -232,14 +232,14 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const cell: Normals = computeNormals({ years: t.years, values: stacks[i], nItems }, { baseline: t.baseline, latestYear: t.latestYear, rule });
       return { def, cell };
     });
-    // The trend of each cell's annual value (the trend layers): slope per decade per cell × combination.
-    const trends = new Map<string, Float64Array>();
+    // The trend of each cell's annual value (the trend layers): slope per decade and Mann–Kendall p-value per cell × combination.
+    const trends = new Map<string, { slope: Float64Array; p: Float64Array }>();
     for (const id of TRENDED) {
       const i = defs.findIndex((d) => d.id === id);
       if (i < 0) continue;
       const nC = defs[i].combos.length;
-      const items = Int32Array.from({ length: nCells * nC }, (_, j) => (Math.floor(j / nC) * PERIODS + PERIODS - 1) * nC + (j % nC));
-      trends.set(id, computeTrends({ years: t.years, values: stacks[i], nItems: nCells * PERIODS * nC }, items).slopePerDecade);
+      const tr = annualCellTrends({ years: t.years, values: stacks[i], nItems: nCells * PERIODS * nC }, nCells, nC, PERIODS);
+      trends.set(id, { slope: tr.slopePerDecade, p: tr.pValue });
     }
     const annualMean = annualMeanFromMonthlySums({ years: t.years, nCells, sum: airSum, validHours: airHours, expectedHours });
     const a = assessNiche({ years: t.years, annualMean, nCells, baseline: t.baseline, latest: [t.latestYear, t.latestYear] });
@@ -317,9 +317,10 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const i = defs.findIndex((d) => d.id === f.figure);
       const n = normals[i];
       const nC = n.def.combos.length;
-      if (f.statistic === 'trend') {
-        const slope = trends.get(f.figure)!;
-        for (let c = 0; c < nCells; c++) piece.set(f.index, t.cells[c], slope[c * nC + f.comboIndex]);
+      if (f.statistic === 'trend' || f.statistic === 'trend-p') {
+        const tr = trends.get(f.figure)!;
+        const src = f.statistic === 'trend' ? tr.slope : tr.p;
+        for (let c = 0; c < nCells; c++) piece.set(f.index, t.cells[c], src[c * nC + f.comboIndex]);
         continue;
       }
       const src = f.statistic === 'mean' ? n.cell.mean : f.statistic === 'median' ? n.cell.median : f.statistic === 'p90' ? n.cell.p90 : n.cell.yearsUsed;

@@ -54,7 +54,7 @@ const layerSchema = z.object({
   id: z.string().min(1),
   figure: z.string().min(1),
   combo: z.string().min(1),
-  statistic: z.enum(['mean', 'p90', 'baseline', 'class', 'trend']),
+  statistic: z.enum(['mean', 'p90', 'baseline', 'class', 'trend', 'trend-p']),
   period: z.string().regex(/^(0[1-9]|1[0-2]|year)$/, 'period must be 01–12 or year'),
   units: z.string(),
   png: dataPath,

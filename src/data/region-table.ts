@@ -153,10 +153,12 @@ export function loadRegionTable(regionId: string, dataDir: string = siteDataDir(
  * The `year` rows of a region's table, reading only the end of the file when it can: the
  * pipeline writes the periods in order (months 01–12, then `year`), so the year rows are the last
  * thirteenth of the file. Falls back to the whole file when the tail does not start them.
+ * `scenarioId`: the table of that what-if climate (data/scenarios/<id>/regions/).
  */
-export function loadRegionYearRows(regionId: string, dataDir: string = siteDataDir(), keep?: RowFilter): RegionTableRow[] {
-  const path = regionTablePath(dataDir, regionId);
-  if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (data/regions/${regionId}.csv)` }, { file: path });
+export function loadRegionYearRows(regionId: string, dataDir: string = siteDataDir(), keep?: RowFilter, scenarioId?: string): RegionTableRow[] {
+  const path = regionTablePath(dataDir, regionId, scenarioId);
+  const rel = scenarioId ? `data/scenarios/${scenarioId}/regions/${regionId}.csv` : `data/regions/${regionId}.csv`;
+  if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (${rel})` }, { file: path });
   const yearOnly: RowFilter = (period, figure, statistic) => period === 'year' && (keep ? keep(period, figure, statistic) : true);
   const fd = openSync(path, 'r');
   let head: string;

@@ -79,8 +79,10 @@ function readRegionTableSlow(path: string, text: string, statistics: ReadonlySet
  * For each layer, the value per region (in `regionIds` order) [units of the layer]; null where
  * the region has no value. Niche-class layers give the class code (index in NICHE_CLASSES).
  * Reads one region's files at a time.
+ * @param regionsDir folder of the region tables and summaries below `dataDir`: the record's
+ *   `data/regions`, or a scenario's `data/scenarios/<id>/regions`
  */
-export function regionLayerValues(dataDir: string, regionIds: string[], layers: ManifestLayer[]): Record<string, Array<number | null>> {
+export function regionLayerValues(dataDir: string, regionIds: string[], layers: ManifestLayer[], regionsDir = 'data/regions'): Record<string, Array<number | null>> {
   const statistics = new Set(layers.map((l) => l.statistic));
   const keys = layers.map((layer) => {
     if (layer.figure === 'mean-annual-temperature' || layer.figure === 'niche-class') return '';
@@ -89,8 +91,8 @@ export function regionLayerValues(dataDir: string, regionIds: string[], layers: 
   });
   const out: Record<string, Array<number | null>> = Object.fromEntries(layers.map((l) => [l.id, new Array<number | null>(regionIds.length).fill(null)]));
   regionIds.forEach((id, r) => {
-    const table = readRegionTable(join(dataDir, 'data', 'regions', `${id}.csv`), statistics);
-    const summary = readValidatedJson(join(dataDir, 'data', 'regions', `${id}.json`), regionSummarySchema, `region summary (data/regions/${id}.json)`);
+    const table = readRegionTable(join(dataDir, regionsDir, `${id}.csv`), statistics);
+    const summary = readValidatedJson(join(dataDir, regionsDir, `${id}.json`), regionSummarySchema, `region summary (${regionsDir}/${id}.json)`);
     layers.forEach((layer, li) => {
       let v: number | null | undefined;
       if (layer.figure === 'mean-annual-temperature') v = summary.niche.baselineMat;

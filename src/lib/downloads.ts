@@ -61,7 +61,7 @@ export interface DownloadGroups {
   totalBytes: number;
 }
 
-const STAT_ORDER = ['mean', 'median', 'p90', 'baseline', 'class'];
+const STAT_ORDER = ['mean', 'median', 'p90', 'trend', 'trend-p', 'baseline', 'class'];
 const byStat = (a: string, b: string) => (STAT_ORDER.indexOf(a) + 99 * Number(!STAT_ORDER.includes(a))) - (STAT_ORDER.indexOf(b) + 99 * Number(!STAT_ORDER.includes(b))) || a.localeCompare(b);
 
 /** The layers `layers` grouped by figure and combination; their files are marked in `used`. */

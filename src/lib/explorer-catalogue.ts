@@ -12,6 +12,7 @@ import { valueUnitWords } from '../../pipeline/publish/data-dictionary.ts';
 import { labelPoint } from './label-point.ts';
 import { workforceSourceLine } from './report/workforce.ts';
 import { PERSON_HOURS_DENSITY } from '../../pipeline/regions/person-hours.ts';
+import { MIN_TREND_YEARS } from '../../pipeline/climate/trend.ts';
 import type {
   ExplorerCatalogue,
   ExplorerChoice,
@@ -37,6 +38,8 @@ export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclim
 export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade (open sky, sun removed)', shelter: 'Under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)' };
 export const STATISTIC_LABELS: Readonly<Record<string, string>> = {
   mean: 'Mean year',
+  trend: 'Trend per decade (Theil–Sen)',
+  'trend-p': 'Trend p-value (Mann–Kendall)',
   baseline: 'Baseline mean',
   class: 'Class of the baseline mean',
 };
@@ -104,6 +107,8 @@ export function emptyCatalogue(invented: boolean): ExplorerCatalogue {
     invented,
     baseline: [0, 0],
     baselineYears: 0,
+    years: [0, 0],
+    minTrendYears: MIN_TREND_YEARS,
     baselineWarning: null,
     latestYear: 0,
     figures: [],
@@ -168,7 +173,7 @@ export function explorerCatalogue(manifest: ManifestLayers, regions: RegionColle
     acclimatization: choice(ordered(pick((v) => v.acclimatization), manifest.work.acclimatization), (id) => ACCLIMATIZATION_LABELS[id] ?? id),
     exposure: choice(ordered(pick((v) => v.exposure), manifest.work.exposures), (id) => EXPOSURE_LABELS[id] ?? id),
     loss: choice(ordered(pick((v) => v.loss), LOSS_VIEWS.map((v) => v.id)), lossLabel),
-    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', 'baseline', 'class']), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
+    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', 'trend', 'trend-p', 'baseline', 'class']), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
     period: choice(ordered(layers.map((l) => l.period), [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year']), periodName),
   };
 
@@ -193,6 +198,8 @@ export function explorerCatalogue(manifest: ManifestLayers, regions: RegionColle
     baseline: manifest.baseline,
     baselineYears: baselineYearCount(manifest.baseline),
     baselineWarning: shortBaselineWarning(manifest.baseline),
+    years: manifest.years,
+    minTrendYears: MIN_TREND_YEARS,
     latestYear: manifest.latestYear,
     figures,
     choices,

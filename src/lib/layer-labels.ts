@@ -43,6 +43,8 @@ const STATISTICS: Record<string, string> = {
   min: 'Lowest year',
   max: 'Highest year',
   latest: 'Latest year',
+  trend: 'Trend per decade (Theil–Sen)',
+  'trend-p': 'Trend p-value (Mann–Kendall)',
 };
 
 /**

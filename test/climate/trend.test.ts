@@ -7,7 +7,7 @@
  * correction). The values below were computed once with that Python and pinned.
  */
 import { describe, expect, it } from 'vitest';
-import { computeTrends, mannKendall, MIN_TREND_YEARS, theilSenSlope } from '../../pipeline/climate/trend.ts';
+import { annualCellTrends, computeTrends, mannKendall, MIN_TREND_YEARS, theilSenSlope } from '../../pipeline/climate/trend.ts';
 
 const range = (a: number, n: number) => Array.from({ length: n }, (_, i) => a + i);
 
@@ -79,5 +79,39 @@ describe('Theil–Sen slope and Mann–Kendall test', () => {
     expect(Math.abs(tr.pValue[2] - 1.0977319134518045e-5) / 1.0977319134518045e-5).toBeLessThan(1e-10);
     const only = computeTrends({ years, values, nItems }, [2]);
     expect(only.slopePerDecade[0]).toBe(tr.slopePerDecade[2]);
+  });
+
+  it('the per-cell trends of the merge (annualCellTrends, the trend-year and trend-p-year layers) take each cell × combination\'s whole-year value and give scipy\'s slope and p-value, cell-major', () => {
+    // 2 cells × 13 periods × 2 combinations over 1991–2020 (30 years); only the year (period 12) carries the pinned series:
+    // cell 0: X4 (combination 0) and X1 on 2001–2020 (combination 1); cell 1: X2 on 1995–2010 (0) and a constant (1).
+    // Months hold values that would change every result if they were taken.
+    const years = range(1991, 30);
+    const nCells = 2;
+    const nC = 2;
+    const P = 13;
+    const nItems = nCells * P * nC;
+    const values = new Float64Array(years.length * nItems).fill(NaN);
+    const at = (y: number, cell: number, period: number, combo: number) => y * nItems + (cell * P + period) * nC + combo;
+    years.forEach((_, y) => {
+      for (let c = 0; c < nCells; c++) for (let k = 0; k < nC; k++) for (let m = 0; m < 12; m++) values[at(y, c, m, k)] = 1000 - 37 * y + m;
+      values[at(y, 0, 12, 0)] = X4[y];
+      if (y >= 10) values[at(y, 0, 12, 1)] = X1[y - 10];
+      if (y >= 4 && y < 20) values[at(y, 1, 12, 0)] = X2[y - 4];
+      values[at(y, 1, 12, 1)] = 5;
+    });
+    const tr = annualCellTrends({ years, values, nItems }, nCells, nC, P);
+    expect(Array.from(tr.years)).toEqual([30, 20, 16, 30]);
+    // scipy 1.10.1 (pinned above): X4 slope −1.4 per year, p 1.4655533068712225e-09; X1 1.5, 9.502661382954885e-07; X2 0, 0.9635564047779084; a constant: p 1.
+    expect(tr.slopePerDecade[0]).toBeCloseTo(-14.000000000000012, 10);
+    expect(tr.slopePerDecade[1]).toBeCloseTo(15, 11);
+    expect(tr.slopePerDecade[2]).toBe(0);
+    expect(tr.slopePerDecade[3]).toBe(0);
+    const pinned = [1.4655533068712225e-9, 9.502661382954885e-7, 0.9635564047779084];
+    pinned.forEach((p, i) => expect(Math.abs(tr.pValue[i] - p) / p, `item ${i}`).toBeLessThan(1e-10));
+    expect(tr.pValue[3]).toBe(1);
+    // Fewer than 15 years with a value (1991–2004): no slope, no p-value.
+    const short = annualCellTrends({ years: years.slice(0, 14), values: values.subarray(0, 14 * nItems), nItems }, nCells, nC, P);
+    expect(Array.from(short.pValue).every(Number.isNaN)).toBe(true);
+    expect(Array.from(short.years)).toEqual([14, 4, 10, 14]);
   });
 });

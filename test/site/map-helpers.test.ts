@@ -23,7 +23,8 @@ import { distanceToOutlineKm, outlineHolds, regionsForPoint } from '../../src/co
 import { formatLayerValue, labelInUnit, legendTickLabel } from '../../src/components/map/explorer/value-format.ts';
 import { cellChunkId } from '../../pipeline/publish/cell-figures.ts';
 import { searchMap } from '../../src/components/map/explorer/map-search.ts';
-import { legendRangeNote } from '../../src/components/map/explorer/legend-range.ts';
+import { layerUnitWords, legendRangeNote } from '../../src/components/map/explorer/legend-range.ts';
+import { describeLayer, trendNote } from '../../src/components/map/explorer/describe-view.ts';
 import { labelPoint } from '../../src/lib/label-point.ts';
 import type { ExplorerCatalogue } from '../../src/components/map/explorer/catalogue.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
@@ -34,17 +35,19 @@ let values: Record<string, Array<number | null>>;
 
 beforeAll(async () => {
   dataDir = (await buildPipelineData()).dataDir;
-  // The catalogue the site builds (src/data/explorer.ts: the trend layers are downloads only, not views).
+  // The catalogue the site builds (src/data/explorer.ts: every layer, the trend layers among them).
   const manifest = loadManifestLayers(dataDir)!;
-  const layers = manifest.layers.filter((l) => l.statistic !== 'trend');
-  catalogue = explorerCatalogue({ ...manifest, layers }, loadRegions(dataDir));
+  const layers = manifest.layers;
+  catalogue = explorerCatalogue(manifest, loadRegions(dataDir));
   values = regionLayerValues(dataDir, catalogue.regions.map((r) => r.id), layers);
 }, 300_000);
 
 describe('the explorer catalogue of a real pipeline build', () => {
   it('holds every manifest layer once, with its images, GeoTIFF and an equal legend', () => {
     const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as { layers: Array<{ id: string; tif: string; mapImages: Array<{ path: string }>; legend: unknown }> };
-    const shown = manifest.layers.filter((l) => !l.id.endsWith('/trend-year'));
+    const shown = manifest.layers;
+    expect(shown.some((l) => l.id.endsWith('/trend-year'))).toBe(true);
+    expect(shown.some((l) => l.id.endsWith('/trend-p-year'))).toBe(true);
     expect(catalogue.layers.map((l) => l.id)).toEqual(shown.map((l) => l.id));
     shown.forEach((l, i) => {
       const c = catalogue.layers[i];
@@ -100,7 +103,23 @@ describe('the explorer catalogue of a real pipeline build', () => {
     ]);
     expect(catalogue.choices.workloadClass.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
     expect(catalogue.choices.workloadClass[1].label).toBe('Moderate work rate (300 W)');
-    expect(catalogue.choices.statistic.map((c) => c.id)).toEqual(['mean', 'p90', 'baseline', 'class']);
+    expect(catalogue.choices.statistic.map((c) => c.id)).toEqual(['mean', 'p90', 'trend', 'trend-p', 'baseline', 'class']);
+    expect(catalogue.choices.statistic.find((c) => c.id === 'trend')!.label).toBe('Trend per decade (Theil–Sen)');
+    expect(catalogue.choices.statistic.find((c) => c.id === 'trend-p')!.label).toBe('Trend p-value (Mann–Kendall)');
+    // The test atlas has 3 years built (2021–2023): fewer than a trend needs, which the map says.
+    expect(catalogue.years).toEqual([2021, 2023]);
+    const trendLayer = resolveView(catalogue, parseViewState('?stat=trend', catalogue)).layer!;
+    expect(trendLayer.id).toBe('hours-lost-shift/moderate.acclimatized.sun/trend-year');
+    expect(trendNote(catalogue, trendLayer)).toBe('A trend needs at least 15 years; this record has 3 (2021–2023), so the layer has no values.');
+    expect(trendNote(catalogue, resolveView(catalogue, parseViewState('', catalogue)).layer!)).toBeNull();
+    expect(describeLayer(catalogue, trendLayer).statistic).toBe('Trend per decade (Theil–Sen), years built 2021–2023');
+    expect(layerUnitWords(catalogue.figures.find((f) => f.id === 'hours-lost-shift'), trendLayer)).toBe('change of the yearly value per decade (h decade-1)');
+    const pLayer = resolveView(catalogue, parseViewState('?stat=trend-p', catalogue)).layer!;
+    expect(pLayer.id).toBe('hours-lost-shift/moderate.acclimatized.sun/trend-p-year');
+    expect(catalogue.legends[pLayer.legend].domain).toEqual([0, 1]);
+    expect(layerUnitWords(undefined, pLayer)).toBe('probability from 0 to 1 (Mann–Kendall p-value of the trend)');
+    // The region values of a trend layer: the region tables' trend rows, empty below 15 years.
+    expect(values[trendLayer.id].every((v) => v === null)).toBe(true);
     // The test atlas's baseline has 2 years: its P90 says so (pipeline/publish/baseline-length.ts).
     expect(catalogue.choices.statistic[1].label).toBe('P90 of 2 years (near the highest)');
     expect(catalogue.baselineYears).toBe(2);
@@ -117,7 +136,7 @@ describe('the view in the URL', () => {
   it('round-trips every part of the view through the query, keeping other parameters', () => {
     const state: ViewState = {
       figure: 'hours-above-limit-shift', workloadClass: 'high', acclimatization: 'unacclimatized', exposure: 'shade', loss: 'dunne-heavy',
-      statistic: 'p90', period: '08', centre: [-146.25, 20.5], zoom: 5.5, cell: 33, region: 'drovan-basin',
+      statistic: 'p90', period: '08', centre: [-146.25, 20.5], zoom: 5.5, cell: 33, region: 'drovan-basin', scenario: 'warm-2k',
     };
     const q = viewQuery(state, '?units=F&layer=old');
     expect(new URLSearchParams(q).get('units')).toBe('F');
@@ -130,6 +149,9 @@ describe('the view in the URL', () => {
     expect(s.cell).toBeUndefined();
     expect(s.region).toBeUndefined();
     expect(parseViewState('?lon=1&lat=89&zoom=3', catalogue).centre).toBeUndefined();
+    // A scenario id that is not a slug is dropped (the page also drops an id it does not offer).
+    expect(parseViewState('?scenario=%3Cb%3E', catalogue).scenario).toBeUndefined();
+    expect(viewQuery({ ...s, scenario: undefined }, '?scenario=warm-2k')).not.toContain('scenario');
   });
 
   it('settles a wish nobody published on the nearest published layer and keeps choices the figure lacks', () => {

@@ -333,9 +333,10 @@ describe('the map page', () => {
       if (l.figure === 'wbgt-mean') return { exposure: c[0] };
       return {};
     };
-    // The trend layers (statistic trend) are GIS downloads only, not a view of the explorer (src/data/explorer.ts).
-    const mapped = manifest.layers.filter((l) => l.statistic !== 'trend');
+    // Every layer is a view of the explorer, the trend layers (statistics trend and trend-p) among them (src/data/explorer.ts).
+    const mapped = manifest.layers;
     expect(manifest.layers.some((l) => l.statistic === 'trend')).toBe(true);
+    expect(manifest.layers.some((l) => l.statistic === 'trend-p')).toBe(true);
     const figures = [...new Set(mapped.map((l) => l.figure))];
     expect(await page.$$eval('select[data-choice="figure"] option', (os) => os.map((o) => (o as HTMLOptionElement).value).sort())).toEqual([...figures].sort());
     for (const figure of figures) {

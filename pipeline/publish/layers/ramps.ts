@@ -6,7 +6,7 @@
  * - viridis, magma, inferno, plasma: van der Walt & Smith's matplotlib colormaps (2015), designed to be
  *   perceptually uniform and readable with common colour-vision deficiencies;
  * - cividis: Nuñez, Anderton & Renslow (2018), PLoS ONE 13(7): e0199239, optimised for deuteranopia;
- * - YlOrRd, YlGnBu, Reds: ColorBrewer sequential schemes (Brewer, colorbrewer2.org), listed there as
+ * - YlOrRd, YlGnBu, Reds, Purples: ColorBrewer sequential schemes (Brewer, colorbrewer2.org), listed there as
  *   colour-blind safe (from memory).
  * Diverging ramps are for changes only (a value either side of no change): RdBu, a ColorBrewer
  * diverging scheme (colour-blind safe per colorbrewer2.org, from memory). Lightness order and
@@ -16,6 +16,7 @@ import {
   interpolateCividis,
   interpolateInferno,
   interpolateMagma,
+  interpolatePurples,
   interpolatePlasma,
   interpolateRdBu,
   interpolateReds,
@@ -37,6 +38,7 @@ export const RAMPS = {
   YlOrRd: interpolateYlOrRd,
   YlGnBu: interpolateYlGnBu,
   Reds: interpolateReds,
+  Purples: interpolatePurples,
 } as const satisfies Record<string, Interpolator>;
 
 /** Diverging ramps: for changes only (test/publish/layers checks no level figure uses one). */
@@ -66,12 +68,15 @@ export interface ColourKind {
  * in hours (above the limit, lost to rest breaks, capacity lost) on one ramp from white (none) to
  * dark red (many); every temperature (WBGT, air) on one ramp from dark blue (cool) to yellow (hot),
  * which holds no red, so a temperature is never read as hours; a change on a diverging ramp, blue
- * for less and red for more, white for none.
+ * for less and red for more, white for none; a probability (the p-value of a trend) on one ramp
+ * from dark purple (0: a steady change, unlikely by chance) to white (1), which holds neither the
+ * red of hours nor the blue of the change ramp's "less".
  */
 export const COLOUR_KINDS = {
   hours: { ramp: 'Reds', reverse: false, words: 'white for no hours, dark red for many' },
   temperature: { ramp: 'cividis', reverse: false, words: 'dark blue for cool, yellow for hot' },
   change: { ramp: 'RdBu', reverse: true, words: 'blue for less, white for no change, red for more' },
+  probability: { ramp: 'Purples', reverse: true, words: 'dark purple for a small p-value (a steady change), white for 1' },
 } as const satisfies Record<string, ColourKind>;
 
 export type ColourKindName = keyof typeof COLOUR_KINDS;
@@ -92,6 +97,8 @@ export const RAMP_FOR_FIGURE = {
   change: COLOUR_KINDS.change,
   /** Person-hours lost per km² [person-h km⁻²] (the workforce weighting): hours, so the hours ramp. */
   personHoursDensity: COLOUR_KINDS.hours,
+  /** A probability [–], 0–1: the Mann–Kendall p-value of a trend. */
+  probability: COLOUR_KINDS.probability,
 } as const satisfies Record<string, ColourKind>;
 
 export type FigureKind = keyof typeof RAMP_FOR_FIGURE;

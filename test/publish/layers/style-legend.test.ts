@@ -140,6 +140,28 @@ describe('ramps', () => {
     // The two ends stay apart under simulated colour-vision deficiencies (Machado et al. 2009).
     for (const [name, m] of Object.entries(DEFICIENCIES)) expect(deltaE(simulate(m, at(0.1)), simulate(m, at(0.9))), name).toBeGreaterThan(20);
   });
+
+  it('the probability kind (the p-value of a trend, domain 0–1) runs from dark at p = 0 to near white at p = 1, is no colour of the hours ramp, and its ends stay apart under every simulated deficiency (d3-scale-chromatic interpolatePurples, reversed)', () => {
+    const { ramp, reverse } = COLOUR_KINDS.probability;
+    expect(RAMP_FOR_FIGURE.probability).toEqual(COLOUR_KINDS.probability);
+    const c = compileStyle(figureStyle('probability', [0, 1], '1'));
+    const stops = c.legend.stops;
+    expect(stops[0].value).toBe(0);
+    expect(stops[stops.length - 1].value).toBe(1);
+    // The legend's colours are d3's own Purples read backwards (t = 1 − p).
+    expect(hexToRgb(stops[0].color)).toEqual(cssToRgb(rampInterpolator(ramp)(reverse ? 1 : 0)));
+    const L = stops.map((s) => lab(hexToRgb(s.color))[0]);
+    expect(L[0]).toBeLessThan(40);
+    expect(L[L.length - 1]).toBeGreaterThan(95);
+    for (let i = 1; i < L.length; i++) expect(L[i], `stop ${i}`).toBeGreaterThan(L[i - 1]);
+    const hours = Array.from({ length: 33 }, (_, i) => lab(cssToRgb(rampInterpolator(COLOUR_KINDS.hours.ramp)(i / 32))));
+    for (const t of [0, 0.25, 0.5]) {
+      const p = lab(cssToRgb(rampInterpolator(ramp)(reverse ? 1 - t : t)));
+      const nearest = Math.min(...hours.map((h) => Math.hypot(h[0] - p[0], h[1] - p[1], h[2] - p[2])));
+      expect(nearest, `p = ${t}`).toBeGreaterThan(20);
+    }
+    for (const [name, m] of Object.entries(DEFICIENCIES)) expect(deltaE(simulate(m, hexToRgb(stops[0].color)), simulate(m, hexToRgb(stops[stops.length - 1].color))), name).toBeGreaterThan(40);
+  });
 });
 
 describe('categorical legend (niche classes)', () => {

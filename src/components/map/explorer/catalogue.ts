@@ -33,7 +33,7 @@ export interface ExplorerLayer {
   id: string;
   figure: string;
   view: LayerView;
-  /** `mean`, `p90`, `baseline` (mean annual temperature) or `class` (niche class). */
+  /** `mean`, `p90`, `trend` (Theil–Sen slope per decade over the years built, whole year only), `trend-p` (its Mann–Kendall p-value), `baseline` (mean annual temperature) or `class` (niche class). */
   statistic: string;
   /** `01`–`12` or `year`. */
   period: string;
@@ -90,6 +90,10 @@ export interface ExplorerCatalogue {
   baselineYears: number;
   /** The short-baseline warning, or null (pipeline/publish/baseline-length.ts). */
   baselineWarning: string | null;
+  /** First and last year built [year]: the years a trend is taken over. */
+  years: [number, number];
+  /** Fewest years built a trend is shown for [years] (pipeline/climate/trend.ts `MIN_TREND_YEARS`). */
+  minTrendYears: number;
   latestYear: number;
   figures: ExplorerFigure[];
   /** Options of each choice, in menu order, with our labels. */
@@ -123,4 +127,31 @@ export interface RegionIndex {
   byId: Array<{ path: string; from: string }>;
   /** `bbox`: [west, south, east, north] of the piece's regions' boxes [° E, ° N]. */
   areas: Array<{ path: string; bbox: [number, number, number, number]; count: number }>;
+}
+
+/** One what-if climate in words, as the map page writes it at build time for its switch (src/lib/explorer-scenarios.ts). */
+export interface ExplorerScenarioWords {
+  id: string;
+  name: string;
+  /** `uniform warming` or `change factors` (manifest `scenarios[].words.kind`). */
+  kind: string;
+  /** What it changes, in one sentence. */
+  what: string;
+  /** Where its changes come from. */
+  source: string;
+  /** Path below the site's base of its layers file (`map/scenarios/<id>.json`, an {@link ExplorerScenario}), fetched when chosen. */
+  layersFile: string;
+  /** Path below the site's base of its per-cell figures' index (`data/scenarios/<id>/cells/index.json`). */
+  cellsIndex: string;
+}
+
+/**
+ * One what-if climate as the map switches to it: its layers, each under the id and view of the
+ * baseline layer of the same figure, combination, statistic and period (so a switch keeps the
+ * view), with its own images, GeoTIFF, legend (index into `legends`) and values file
+ * (`map/scenarios/<id>/values/<n>.json`, n the baseline twin's index in the catalogue).
+ */
+export interface ExplorerScenario extends ExplorerScenarioWords {
+  layers: ExplorerLayer[];
+  legends: ExplorerLegend[];
 }

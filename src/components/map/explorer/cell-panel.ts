@@ -37,6 +37,8 @@ export interface PanelContext {
   unit: TemperatureUnit;
   /** Regions holding the cell centre, or the nearest with its distance [km]. */
   regions: { holding: string[]; nearest?: { id: string; km: number } };
+  /** The what-if climate shown (its name), whose per-cell figures `index` and the record are; absent: the record. */
+  scenarioName?: string;
 }
 
 function el<K extends keyof HTMLElementTagNameMap>(name: K, attrs: Record<string, string> = {}, text?: string): HTMLElementTagNameMap[K] {
@@ -71,6 +73,8 @@ function where(ctx: PanelContext): HTMLParagraphElement {
 export function layerValueAtCell(ctx: Pick<PanelContext, 'index' | 'layer'>, record: CellRecord): number | null {
   const layer = ctx.layer;
   if (!layer) return null;
+  // The per-cell chunks hold the monthly and yearly statistics, not the trend: its value is read from the layer's GeoTIFF.
+  if (layer.statistic === 'trend' || layer.statistic === 'trend-p') return null;
   if (layer.figure === 'mean-annual-temperature') return record.niche.baselineMat;
   if (layer.figure === 'niche-class') {
     return record.niche.baselineClass === null ? null : NICHE_CODES.indexOf(record.niche.baselineClass);
@@ -102,7 +106,7 @@ function figuresTable(ctx: PanelContext, record: CellRecord): HTMLTableElement |
   const exp = ctx.catalogue.choices.exposure.find((c) => c.id === s.exposure)?.label ?? s.exposure ?? '';
   const [b0, b1] = ctx.catalogue.baseline;
   table.append(
-    el('caption', {}, `Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in its per-cell table (CSV).`),
+    el('caption', {}, `${ctx.scenarioName ? `What-if climate “${ctx.scenarioName}” (not a forecast): ` : ''}Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in its per-cell table (CSV).`),
   );
   const thead = el('thead');
   const r1 = el('tr');

@@ -26,6 +26,9 @@ export function describeLayer(catalogue: ExplorerCatalogue, layer: ExplorerLayer
   );
   const [b0, b1] = catalogue.baseline;
   const stat = label(catalogue, 'statistic', layer.statistic) ?? layer.statistic;
+  // A trend is taken over every year built, not over the baseline.
+  const trend = isTrendStatistic(layer.statistic);
+  const [y0, y1] = catalogue.years;
   // Niche figures carry the baseline's length, and a caution when it is shorter than the niche's 20 years.
   const niche = layer.figure === 'niche-class' || layer.figure === 'mean-annual-temperature';
   const n = baselineYears(catalogue.baseline);
@@ -34,8 +37,25 @@ export function describeLayer(catalogue: ExplorerCatalogue, layer: ExplorerLayer
     figure: figureLabel(catalogue, layer.figure),
     view: parts.join(', '),
     period: label(catalogue, 'period', layer.period) ?? layer.period,
-    statistic: `${stat}, baseline ${b0}–${b1}${length}`,
+    statistic: trend ? `${stat}, years built ${y0}–${y1}` : `${stat}, baseline ${b0}–${b1}${length}`,
   };
+}
+
+/** Whether a statistic is the record's trend (`trend`: Theil–Sen slope per decade; `trend-p`: its Mann–Kendall p-value). */
+export function isTrendStatistic(statistic: string): boolean {
+  return statistic === 'trend' || statistic === 'trend-p';
+}
+
+/**
+ * For a trend layer of a record shorter than the trend needs: "A trend needs at least 15 years;
+ * this record has 3 (2021–2023), so the layer has no values." Otherwise null.
+ */
+export function trendNote(catalogue: Pick<ExplorerCatalogue, 'years' | 'minTrendYears'>, layer: Pick<ExplorerLayer, 'statistic'>): string | null {
+  if (!isTrendStatistic(layer.statistic)) return null;
+  const [y0, y1] = catalogue.years;
+  const n = y1 - y0 + 1;
+  if (n >= catalogue.minTrendYears) return null;
+  return `A trend needs at least ${catalogue.minTrendYears} years; this record has ${n} (${y0}–${y1}), so the layer has no values.`;
 }
 
 /** One line: the parts joined with " · ". */

@@ -8,19 +8,23 @@
  * attributes of `#map-explorer`; nothing is inline. The map container reports
  * `data-map-state` (`loading` → `idle` | `error`) and `data-layer-id` (the layer drawn) for the
  * tests; `#cell-panel` reports `data-cell` and `data-state` (`loading`, `ready`, `no-data`).
+ * The climate switch (`#map-scenario`, written at build time with each what-if climate's words)
+ * fetches a scenario's layers file (`map/scenarios/<id>.json`) when it is first chosen, its
+ * values files and per-cell figures when shown; the map container reports `data-scenario`
+ * (`baseline` or the scenario id) with the layer drawn.
  */
 import type { CellChunk, CellFiguresIndex, CellRecord } from '../../../../pipeline/publish/cell-figures.ts';
 import type { DatasetInventory } from '../../../../pipeline/read/inventory-types.ts';
 import { sitePath } from '../../../lib/nav.ts';
 import { UNIT_EVENT, currentUnit } from '../../../lib/units.ts';
 import { formatLat, formatLon } from '../../../lib/format.ts';
-import type { ExplorerCatalogue, ExplorerLayer, PublishedCatalogue } from './catalogue.ts';
+import type { ExplorerCatalogue, ExplorerLayer, ExplorerScenario, PublishedCatalogue } from './catalogue.ts';
 import { parseViewState, viewQuery, type ViewState } from './view-state.ts';
 import { CHOICE_KEYS, resolveView } from './layer-choice.ts';
 import { findControls, syncControls } from './controls.ts';
 import { renderLegend } from './legend-view.ts';
-import { legendRangeNote, type ShownRange } from './legend-range.ts';
-import { describeLayer, describeLayerLine } from './describe-view.ts';
+import { layerUnitWords, legendRangeNote, type ShownRange } from './legend-range.ts';
+import { describeLayer, describeLayerLine, trendNote } from './describe-view.ts';
 import { updateRegionTable } from './region-table.ts';
 import { renderCellPanel } from './cell-panel.ts';
 import { cellAt, cellCentre, cellPolygon, chunkOfCell, isCell, moveCell, type CellGrid } from './cell-grid.ts';
@@ -71,7 +75,24 @@ async function start(root: HTMLElement): Promise<void> {
   const catalogue: ExplorerCatalogue = { ...published, regions: [] };
   const named = urlRegion ? await loader.byId(urlRegion) : undefined;
   if (named) catalogue.regions = [named];
-  const withKnownRegions = (): ExplorerCatalogue => ({ ...catalogue, regions: [...loader.known.values()] });
+
+  // The what-if climates: the switch and each one's words are in the page; a scenario's layers are fetched when first chosen.
+  const scenarioSelect = root.querySelector<HTMLSelectElement>('#map-scenario');
+  const scenarioBox = root.querySelector<HTMLElement>('#map-scenario-about');
+  const scenarioFiles = new Map<string, Promise<ExplorerScenario>>();
+  const scenarioOption = (id: string | undefined) => (id && scenarioSelect ? [...scenarioSelect.options].find((o) => o.value === id && id !== '') : undefined);
+  function scenarioOf(id: string): Promise<ExplorerScenario> {
+    let p = scenarioFiles.get(id);
+    if (!p) {
+      p = fetchJson<ExplorerScenario>(sitePath(base, scenarioOption(id)?.dataset.layersFile ?? ''));
+      scenarioFiles.set(id, p);
+    }
+    return p;
+  }
+  // The climate shown: null for the record; its catalogue is the record's with the scenario's layers and legends.
+  let scenario: ExplorerScenario | null = null;
+  const shownCatalogue = (): ExplorerCatalogue => (scenario ? { ...catalogue, layers: scenario.layers, legends: scenario.legends } : catalogue);
+  const withKnownRegions = (): ExplorerCatalogue => ({ ...shownCatalogue(), regions: [...loader.known.values()] });
 
   let state: ViewState = resolveView(catalogue, parseViewState(location.search, catalogue)).state;
   let layer: ExplorerLayer | undefined;
@@ -97,25 +118,43 @@ async function start(root: HTMLElement): Promise<void> {
   const writeUrl = () => history.replaceState(null, '', `${location.pathname}${viewQuery(state, location.search)}${location.hash}`);
 
   // The selected cell and its record (null: not a land cell), and the keyboard cursor.
-  let selected: { cell: number; record: CellRecord | null; regions: ReturnType<typeof regionsForPoint> } | undefined;
+  let selected: { cell: number; record: CellRecord | null; index: CellFiguresIndex; indexPath: string; regions: ReturnType<typeof regionsForPoint> } | undefined;
   let cursor: number | undefined;
+  // Per-cell figures of the record (data/cells/) and of each scenario shown (data/scenarios/<id>/cells/), fetched when needed.
   const chunks = new Map<string, Promise<CellChunk>>();
-  const chunkIds = new Set(cellsIndex.chunks.map((c) => c.id));
-  async function recordOf(cell: number): Promise<CellRecord | null> {
-    const id = chunkOfCell(cellsIndex, cell);
-    if (!chunkIds.has(id)) return null;
-    let p = chunks.get(id);
+  const cellIndexes = new Map<string, Promise<CellFiguresIndex>>([['data/cells/index.json', Promise.resolve(cellsIndex)]]);
+  const cellsIndexPath = () => (scenario ? scenario.cellsIndex : 'data/cells/index.json');
+  function cellIndexOf(path: string): Promise<CellFiguresIndex> {
+    let p = cellIndexes.get(path);
     if (!p) {
-      p = fetchJson<CellChunk>(sitePath(base, `data/cells/${id}.json`));
-      chunks.set(id, p);
+      p = fetchJson<CellFiguresIndex>(sitePath(base, path));
+      cellIndexes.set(path, p);
     }
-    return (await p).cells.find((c) => c.cell === cell) ?? null;
+    return p;
+  }
+  async function recordOf(cell: number, indexPath: string): Promise<{ index: CellFiguresIndex; record: CellRecord | null }> {
+    const index = await cellIndexOf(indexPath);
+    const id = chunkOfCell(index, cell);
+    if (!index.chunks.some((c) => c.id === id)) return { index, record: null };
+    const path = `${indexPath.slice(0, indexPath.lastIndexOf('/'))}/${id}.json`;
+    let p = chunks.get(path);
+    if (!p) {
+      p = fetchJson<CellChunk>(sitePath(base, path));
+      chunks.set(path, p);
+    }
+    return { index, record: (await p).cells.find((c) => c.cell === cell) ?? null };
   }
 
   function renderPanel(): void {
     if (!selected) return;
     const centre = cellCentre(grid, selected.cell);
-    renderCellPanel(panel, { base, catalogue: withKnownRegions(), index: cellsIndex, state, layer, unit: currentUnit(), regions: selected.regions }, selected.cell, centre, selected.record);
+    renderCellPanel(
+      panel,
+      { base, catalogue: withKnownRegions(), index: selected.index, state, layer, unit: currentUnit(), regions: selected.regions, scenarioName: scenario?.name },
+      selected.cell,
+      centre,
+      selected.record,
+    );
   }
 
   let selectToken = 0;
@@ -128,22 +167,24 @@ async function start(root: HTMLElement): Promise<void> {
     panel.hidden = false;
     panel.dataset.state = 'loading';
     panel.dataset.cell = String(cell);
-    const [record, regionsHere] = await Promise.all([recordOf(cell), loader.forPoint(cellCentre(grid, cell))]);
+    const indexPath = cellsIndexPath();
+    const [{ index, record }, regionsHere] = await Promise.all([recordOf(cell, indexPath), loader.forPoint(cellCentre(grid, cell))]);
     if (token !== selectToken) return;
-    selected = { cell, record, regions: regionsHere };
+    selected = { cell, record, index, indexPath, regions: regionsHere };
     renderPanel();
     const [lon, lat] = cellCentre(grid, cell);
     status.textContent = `Grid cell ${cell} (${formatLat(lat)}, ${formatLon(lon)}) selected: ${record ? 'its figures are shown below the map' : 'not a land cell, no figures'}.`;
   }
 
   // Each layer's value per region, fetched when the layer is first shown (map/values/<n>.json).
+  // Keyed by the values file: a scenario's layer has its baseline twin's id but values of its own.
   const valueFiles = new Map<string, Promise<Array<number | null>>>();
-  let shownValues: { id: string; values: Array<number | null> } | undefined;
+  let shownValues: { layer: ExplorerLayer; values: Array<number | null> } | undefined;
   function regionValuesOf(l: ExplorerLayer): Promise<Array<number | null>> {
-    let p = valueFiles.get(l.id);
+    let p = valueFiles.get(l.values);
     if (!p) {
       p = fetchJson<Array<number | null>>(sitePath(base, l.values));
-      valueFiles.set(l.id, p);
+      valueFiles.set(l.values, p);
     }
     return p;
   }
@@ -155,14 +196,33 @@ async function start(root: HTMLElement): Promise<void> {
   function renderAll(): void {
     const unit = currentUnit();
     if (!layer) return;
-    const legend = catalogue.legends[layer.legend];
-    const d = describeLayer(catalogue, layer);
+    const shown = shownCatalogue();
+    const legend = shown.legends[layer.legend];
+    const d = describeLayer(shown, layer);
     renderLegend(legendBox, legend, `${d.figure}, ${d.period}`, unit, catalogue.invented);
-    const fig = catalogue.figures.find((f) => f.id === layer!.figure);
+    if (scenario) {
+      // The climate shown, under the legend's title: a what-if, never a forecast.
+      const climate = document.createElement('p');
+      climate.className = 'legend-scenario';
+      climate.id = 'map-legend-scenario';
+      const tag = document.createElement('strong');
+      tag.textContent = 'What-if climate: ';
+      climate.append(tag, `${scenario.name} (${scenario.kind}), not a forecast.`);
+      legendBox.firstElementChild?.after(climate);
+    }
+    const note = trendNote(shown, layer);
+    if (note) {
+      const p = document.createElement('p');
+      p.className = 'legend-trend-note';
+      p.id = 'map-trend-note';
+      p.textContent = note;
+      legendBox.append(p);
+    }
+    const fig = shown.figures.find((f) => f.id === layer!.figure);
     const range = document.createElement('p');
     range.className = 'legend-range';
     range.id = 'map-legend-range';
-    range.textContent = legendRangeNote(legend, { figure: layer.figure, period: layer.period, unitWords: fig ? fig.unitWords[layer.period === 'year' ? 'year' : 'month'] : layer.units }, unit, rangeBefore);
+    range.textContent = legendRangeNote(legend, { figure: layer.figure, period: layer.period, unitWords: layerUnitWords(fig, layer) }, unit, rangeBefore);
     legendBox.append(range);
     if (fig?.source) {
       // The people raster behind a workforce layer: name, year, licence; invented ones say so.
@@ -190,16 +250,33 @@ async function start(root: HTMLElement): Promise<void> {
     a.setAttribute('download', '');
     tif.append(a);
     legendBox.append(tif);
-    if (regionTable && shownValues?.id === layer.id) updateRegionTable(regionTable, catalogue, layer, unit, shownValues.values);
-    map.getCanvas().setAttribute('aria-label', `Map: ${describeLayerLine(catalogue, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`);
+    if (regionTable && shownValues?.layer === layer) updateRegionTable(regionTable, shown, layer, unit, shownValues.values);
+    map.getCanvas().setAttribute('aria-label', `Map: ${scenario ? `what-if climate ${scenario.name}, ` : ''}${describeLayerLine(shown, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`);
     renderPanel();
+  }
+
+  /** Shows the words of the climate chosen (the record: none) and the switch's value. */
+  function showScenarioWords(): void {
+    if (scenarioSelect) scenarioSelect.value = scenario?.id ?? '';
+    if (!scenarioBox) return;
+    scenarioBox.hidden = scenario === null;
+    for (const li of scenarioBox.querySelectorAll<HTMLElement>('[data-scenario-about]')) li.hidden = li.dataset.scenarioAbout !== scenario?.id;
   }
 
   let drawToken = 0;
   async function apply(wish: ViewState): Promise<void> {
-    const r = resolveView(catalogue, wish);
+    // The climate first: an unknown scenario id (an old link) falls back to the record.
+    const wanted = scenarioOption(wish.scenario) ? wish.scenario : undefined;
+    const token = ++drawToken;
+    const nextScenario = wanted ? await scenarioOf(wanted) : null;
+    if (token !== drawToken) return;
+    const scenarioChanged = (nextScenario?.id ?? null) !== (scenario?.id ?? null);
+    scenario = nextScenario;
+    const shown = shownCatalogue();
+    const r = resolveView(shown, { ...wish, scenario: wanted });
     state = r.state;
-    syncControls(controls, catalogue, r.options, state);
+    showScenarioWords();
+    syncControls(controls, shown, r.options, state);
     playButton.disabled = r.options.period.filter((p) => p !== 'year').length < 2;
     writeUrl();
     const next = r.layer;
@@ -207,24 +284,26 @@ async function start(root: HTMLElement): Promise<void> {
     const changed = next !== layer;
     if (changed) {
       rangeBefore = rangeNow;
-      rangeNow = { figure: next.figure, units: next.units, domain: catalogue.legends[next.legend].domain };
+      rangeNow = { figure: next.figure, units: next.units, domain: shown.legends[next.legend].domain };
     }
     layer = next;
     renderAll();
-    if (!changed && mapBox.dataset.layerId === next.id) return;
-    const token = ++drawToken;
+    if (!changed && mapBox.dataset.layerId === next.id && !scenarioChanged) return;
     mapBox.dataset.mapState = 'loading';
     // The region table's values come with the layer: the map is idle when both are shown.
     const values = regionTable
       ? regionValuesOf(next).then((v) => {
           if (layer !== next) return;
-          shownValues = { id: next.id, values: v };
-          updateRegionTable(regionTable, catalogue, next, currentUnit(), v);
+          shownValues = { layer: next, values: v };
+          updateRegionTable(regionTable, shownCatalogue(), next, currentUnit(), v);
         })
       : Promise.resolve();
-    const [current] = await Promise.all([explorer.showLayer(next), values]);
+    // A selected cell shows the figures of the climate shown.
+    const panelDone = selected && selected.indexPath !== cellsIndexPath() ? selectCell(selected.cell) : Promise.resolve();
+    const [current] = await Promise.all([explorer.showLayer(next), values, panelDone]);
     if (current && token === drawToken) {
       mapBox.dataset.layerId = next.id;
+      mapBox.dataset.scenario = scenario?.id ?? 'baseline';
       mapBox.dataset.mapState = 'idle';
     }
   }
@@ -234,6 +313,7 @@ async function start(root: HTMLElement): Promise<void> {
   for (const key of CHOICE_KEYS) {
     controls.selects[key].addEventListener('change', () => void apply({ ...state, [key]: controls.selects[key].value }));
   }
+  scenarioSelect?.addEventListener('change', () => void apply({ ...state, scenario: scenarioSelect.value === '' ? undefined : scenarioSelect.value }));
   form.addEventListener('submit', (ev) => ev.preventDefault());
   outlines.addEventListener('change', () => explorer.setOutlines(outlines.checked));
 
@@ -248,7 +328,7 @@ async function start(root: HTMLElement): Promise<void> {
     if (playing) return setPlaying(false);
     setPlaying(true);
     while (playing) {
-      const months = resolveView(catalogue, state).options.period.filter((p) => p !== 'year');
+      const months = resolveView(shownCatalogue(), state).options.period.filter((p) => p !== 'year');
       if (months.length < 2) break;
       const i = months.indexOf(state.period);
       await apply({ ...state, period: months[(i + 1) % months.length] });

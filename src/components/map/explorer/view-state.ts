@@ -1,8 +1,9 @@
 /**
  * The map explorer's view as a URL query, so a view can be shared and a loaded URL restores it:
  * `layer` (figure id), `month` (`01`–`12` or `year`), `class`, `accl`, `exposure`, `loss`,
- * `stat`, `lon`/`lat` [° E, ° N] and `zoom` of the map's centre, `cell` (global grid index) and
- * `region` (fit that region when no centre is given). Other parameters (e.g. `units`) are kept.
+ * `stat`, `lon`/`lat` [° E, ° N] and `zoom` of the map's centre, `cell` (global grid index),
+ * `region` (fit that region when no centre is given) and `scenario` (a what-if climate's id;
+ * absent: the record). Other parameters (e.g. `units`) are kept.
  * Pure: strings in, strings out.
  */
 import type { ExplorerCatalogue, LayerView } from './catalogue.ts';
@@ -18,6 +19,8 @@ export interface ViewState extends LayerView {
   cell?: number;
   /** Region to fit when no centre is given. */
   region?: string;
+  /** The what-if climate shown (a scenario id); absent: the record. */
+  scenario?: string;
 }
 
 /** Query parameter of each part of the view. */
@@ -34,6 +37,7 @@ export const VIEW_PARAMS = {
   zoom: 'zoom',
   cell: 'cell',
   region: 'region',
+  scenario: 'scenario',
 } as const;
 
 const finite = (s: string | null): number | undefined => {
@@ -67,6 +71,8 @@ export function parseViewState(search: string, catalogue: ExplorerCatalogue): Vi
   if (cell !== undefined && Number.isInteger(cell) && cell >= 0) state.cell = cell;
   const region = q.get(VIEW_PARAMS.region);
   if (region && catalogue.regions.some((r) => r.id === region)) state.region = region;
+  const scenario = q.get(VIEW_PARAMS.scenario);
+  if (scenario && /^[a-z0-9][a-z0-9-]*$/.test(scenario)) state.scenario = scenario;
   return state;
 }
 
@@ -86,6 +92,7 @@ export function viewQuery(state: ViewState, search = ''): string {
   set(VIEW_PARAMS.zoom, state.zoom !== undefined ? state.zoom.toFixed(2) : undefined);
   set(VIEW_PARAMS.cell, state.cell !== undefined ? String(state.cell) : undefined);
   set(VIEW_PARAMS.region, state.region);
+  set(VIEW_PARAMS.scenario, state.scenario);
   const s = q.toString();
   return s === '' ? '' : `?${s}`;
 }
