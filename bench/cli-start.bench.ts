@@ -74,33 +74,53 @@ export const bench: Bench = {
       classicTs: [process.execPath, [SOURCES, 'inspect', '--json', classic]],
       netcdf4: [process.execPath, [COMPILED, 'inspect', '--json', netcdf4]],
       netcdf4Ts: [process.execPath, [SOURCES, 'inspect', '--json', netcdf4]],
-      ...(reference ? { classicRef: [PYTHON, ['-c', REFERENCE, classic]] as [string, string[]], netcdf4Ref: [PYTHON, ['-c', REFERENCE, netcdf4]] as [string, string[]] } : {}),
+      ...(reference
+        ? { classicRef: [PYTHON, ['-c', REFERENCE, classic]] as [string, string[]], netcdf4Ref: [PYTHON, ['-c', REFERENCE, netcdf4]] as [string, string[]] }
+        : {}),
     };
     const t: Record<string, Timed> = Object.fromEntries(Object.keys(runs).map((k) => [k, { ms: [], stdout: '' }]));
     for (let round = 0; round < RUNS; round++) for (const [k, [cmd, args]] of Object.entries(runs)) once(cmd, args, t[k]);
     const m = (k: string) => median(t[k].ms);
 
     const timing = `median of ${RUNS} whole-process runs each, commands interleaved round by round; wall clock on a shared 2-core machine (compare the ratios, measured in the same run)`;
-    const figures: BenchFigure[] = [{
-      bench: 'cli-start', value: r0(m('help')), unit: 'ms', measure: 'heathours --help (compiled)',
-      fromSourcesMs: r0(m('helpTs')), speedup: r2(m('helpTs') / m('help')), nodeAloneMs: r0(m('node')),
-      runsMs: t.help.ms.map(r0).join('/'), timing, checksum: digest(t.help.stdout),
-    }];
+    const figures: BenchFigure[] = [
+      {
+        bench: 'cli-start',
+        value: r0(m('help')),
+        unit: 'ms',
+        measure: 'heathours --help (compiled)',
+        fromSourcesMs: r0(m('helpTs')),
+        speedup: r2(m('helpTs') / m('help')),
+        nodeAloneMs: r0(m('node')),
+        runsMs: t.help.ms.map(r0).join('/'),
+        timing,
+        checksum: digest(t.help.stdout),
+      },
+    ];
     for (const kind of ['classic', 'netcdf4'] as const) {
       const file = kind === 'classic' ? classic : netcdf4;
       const report = JSON.parse(t[kind].stdout) as { bytes: number; variables: Array<{ name: string; mean: number | null; fillCount: number }> };
       const t2m = report.variables.find((v) => v.name === 't2m')!;
       const fig: BenchFigure = {
-        bench: 'cli-start', value: r0(m(kind)), unit: 'ms', measure: `heathours inspect --json, ${kind} (compiled)`,
+        bench: 'cli-start',
+        value: r0(m(kind)),
+        unit: 'ms',
+        measure: `heathours inspect --json, ${kind} (compiled)`,
         input: `${file.split('/').pop()}: 8760 h x 40 x 60 t2m, ${report.bytes} bytes (invented values)`,
-        fromSourcesMs: r0(m(`${kind}Ts`)), speedup: r2(m(`${kind}Ts`) / m(kind)),
-        runsMs: t[kind].ms.map(r0).join('/'), timing,
+        fromSourcesMs: r0(m(`${kind}Ts`)),
+        speedup: r2(m(`${kind}Ts`) / m(kind)),
+        runsMs: t[kind].ms.map(r0).join('/'),
+        timing,
         checksum: `t2m mean ${t2m.mean?.toFixed(4)}, ${t2m.fillCount} missing`,
       };
       if (reference) {
-        const ref = t[`${kind}Ref`].stdout.split('\n').find((l) => l.startsWith('t2m '))!.split(' ');
+        const ref = t[`${kind}Ref`].stdout
+          .split('\n')
+          .find((l) => l.startsWith('t2m '))!
+          .split(' ');
         Object.assign(fig, {
-          netcdfCMs: r0(m(`${kind}Ref`)), ratioToNetcdfC: r2(m(kind) / m(`${kind}Ref`)),
+          netcdfCMs: r0(m(`${kind}Ref`)),
+          ratioToNetcdfC: r2(m(kind) / m(`${kind}Ref`)),
           ratioFromSourcesToNetcdfC: r2(m(`${kind}Ts`) / m(`${kind}Ref`)),
           netcdfC: `Debian python3-netcdf4 (${pythonNetcdfVersion()}) at ${PYTHON}, whole process: open, read every variable, min/max/mean/fill count`,
           sameMean: Math.abs(Number(ref[3]) - (t2m.mean ?? NaN)) < 1e-3 && Number(ref[4]) === t2m.fillCount,

@@ -52,7 +52,12 @@ function sameTree(a: string, b: string): boolean {
 /** One `heathours build …` process; returns its wall time [s]. */
 function cli(args: string[], cwd = DIR): number {
   const t = Date.now();
-  const r = spawnSync(process.execPath, [CLI, 'build', ...args, '--quiet'], { cwd, env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME }, encoding: 'utf8', maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, [CLI, 'build', ...args, '--quiet'], {
+    cwd,
+    env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME },
+    encoding: 'utf8',
+    maxBuffer: 1 << 26,
+  });
   if (r.status !== 0) throw new Error(`heathours build ${args.join(' ')} failed: ${r.stderr}`);
   return (Date.now() - t) / 1000;
 }
@@ -64,7 +69,11 @@ async function cliParallel(argsList: string[][]): Promise<number> {
     argsList.map(
       (args) =>
         new Promise<void>((resolve, reject) => {
-          const p = spawn(process.execPath, [CLI, 'build', ...args, '--quiet'], { cwd: DIR, env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME }, stdio: ['ignore', 'ignore', 'pipe'] });
+          const p = spawn(process.execPath, [CLI, 'build', ...args, '--quiet'], {
+            cwd: DIR,
+            env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME },
+            stdio: ['ignore', 'ignore', 'pipe'],
+          });
           let err = '';
           p.stderr.on('data', (d) => (err += d));
           p.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`heathours build ${args.join(' ')} failed: ${err}`))));
@@ -76,7 +85,9 @@ async function cliParallel(argsList: string[][]): Promise<number> {
 
 function demoConfig(): string {
   const path = join(DIR, 'demo.yaml');
-  writeFileSync(path, `id: cluster
+  writeFileSync(
+    path,
+    `id: cluster
 title: Cluster benchmark (invented data)
 dataset:
   files: [${DEMO_DATA_DIR}/*.nc]
@@ -90,7 +101,8 @@ output: out
 shards: { cellsPerBlock: 256 }
 work:
   classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+`,
+  );
   return path;
 }
 
@@ -108,7 +120,17 @@ async function clusterDemo(): Promise<BenchFigure> {
     const submit = spawnSync('bash', [join(DIR, 'heathours.sh')], {
       cwd: DIR,
       encoding: 'utf8',
-      env: { ...cluster.env, HEATHOURS_BUILD_TIME: BUILD_TIME, HEATHOURS: ROOT, CONFIG: config, PARTIALS: join(DIR, 'parts'), SITE: join(DIR, 'site-slurm'), SHARDS: '8', MERGES: '2', CPUS: '1' },
+      env: {
+        ...cluster.env,
+        HEATHOURS_BUILD_TIME: BUILD_TIME,
+        HEATHOURS: ROOT,
+        CONFIG: config,
+        PARTIALS: join(DIR, 'parts'),
+        SITE: join(DIR, 'site-slurm'),
+        SHARDS: '8',
+        MERGES: '2',
+        CPUS: '1',
+      },
     });
     if (submit.status !== 0) throw new Error(`the Slurm script failed: ${submit.stderr}`);
     const last = Number(submit.stdout.trim().split('\n').pop());
@@ -119,7 +141,8 @@ async function clusterDemo(): Promise<BenchFigure> {
       bench: 'cluster-demo',
       value: Math.round((slurmSeconds / oneSeconds) * 100) / 100,
       unit: 'x one machine',
-      input: 'invented demo, 655 land cells x 5 years, README Slurm script: 8 shard tasks, 2 merge tasks, assemble (1 CPU each) on a one-node cluster of this machine',
+      input:
+        'invented demo, 655 land cells x 5 years, README Slurm script: 8 shard tasks, 2 merge tasks, assemble (1 CPU each) on a one-node cluster of this machine',
       slurmSeconds: Math.round(slurmSeconds),
       oneMachineSeconds: Math.round(oneSeconds),
       allCompleted: states.length > 0 && states.every((s) => s === 'COMPLETED'),
@@ -150,13 +173,30 @@ async function countryConfig(): Promise<string> {
       const n = south + ((north - south) * (i + 1)) / 10;
       const w = west + ((east - west) * j) / 10;
       const e = west + ((east - west) * (j + 1)) / 10;
-      features.push({ type: 'Feature', properties: { id: `block-${i}-${j}`, name: `Invented block ${i}-${j}` }, geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] } });
+      features.push({
+        type: 'Feature',
+        properties: { id: `block-${i}-${j}`, name: `Invented block ${i}-${j}` },
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [w, s],
+              [e, s],
+              [e, n],
+              [w, n],
+              [w, s],
+            ],
+          ],
+        },
+      });
     }
   }
   mkdirSync(join(DIR, 'country-regions'), { recursive: true });
   writeFileSync(join(DIR, 'country-regions', 'blocks.geojson'), JSON.stringify({ type: 'FeatureCollection', features }));
   const path = join(DIR, 'country.yaml');
-  writeFileSync(path, `id: country
+  writeFileSync(
+    path,
+    `id: country
 title: Merge benchmark (invented data)
 dataset:
   files: [${data}/era5-demo-2*.nc]
@@ -168,7 +208,8 @@ regions: ${join(DIR, 'country-regions')}
 output: out
 work:
   classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+`,
+  );
   return path;
 }
 

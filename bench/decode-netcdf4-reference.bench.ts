@@ -52,7 +52,9 @@ interface Reference {
 function reference(file: string, names: string[]): Reference | string {
   const probe = spawnSync(PY, ['-c', 'import netCDF4'], { stdio: 'ignore' });
   if (probe.error || probe.status !== 0) return `absent (${PY} with python3-netcdf4 not installed)`;
-  const out = execFileSync(PY, ['-c', REFERENCE, file, names.join(',')], { encoding: 'utf8', maxBuffer: 1 << 20 }).trim().split(' ');
+  const out = execFileSync(PY, ['-c', REFERENCE, file, names.join(',')], { encoding: 'utf8', maxBuffer: 1 << 20 })
+    .trim()
+    .split(' ');
   return { values: Number(out[0]), seconds: Number(out[1]), cpuSeconds: Number(out[2]), runs: `${out[3]} M/s` };
 }
 
@@ -104,7 +106,8 @@ async function figure(label: string, files: string[], require: CanonicalName[]):
   if (typeof ref === 'string') out[`${label}Reference`] = ref;
   else {
     const refRate = ref.values / ref.seconds;
-    out[`${label}Reference`] = `${(refRate / 1e6).toFixed(1)} M/s wall, ${(ref.values / ref.cpuSeconds / 1e6).toFixed(1)} M/s CPU (python3-netcdf4, ${names.join(' ')}, runs ${ref.runs})`;
+    out[`${label}Reference`] =
+      `${(refRate / 1e6).toFixed(1)} M/s wall, ${(ref.values / ref.cpuSeconds / 1e6).toFixed(1)} M/s CPU (python3-netcdf4, ${names.join(' ')}, runs ${ref.runs})`;
     out[`${label}Ratio`] = Number((rate(after.best) / refRate).toFixed(2));
     out[`${label}CpuRatio`] = Number((rate(after.best, true) / (ref.values / ref.cpuSeconds)).toFixed(2));
     out[`${label}BeforeRatio`] = Number((rate(before.best) / refRate).toFixed(2));
@@ -123,10 +126,11 @@ export const bench: Bench = {
       bench: 'decode-netcdf4-vs-reference',
       value,
       unit: 'ratio',
-      input: 'demo dataset (invented), 1 year hourly, 0.25° 40x60 grid, 8 variables, NetCDF-4 float32 deflate 1 (chunks 168x40x60); and t2m of the bench writer via nccopy -d1 -s; month blocks (744 h) of the whole grid',
+      input:
+        'demo dataset (invented), 1 year hourly, 0.25° 40x60 grid, 8 variables, NetCDF-4 float32 deflate 1 (chunks 168x40x60); and t2m of the bench writer via nccopy -d1 -s; month blocks (744 h) of the whole grid',
       ...demo,
       ...t2m,
-      note: 'value = our values/s over python3-netcdf4\'s on the demo file (wall); each side best of 3 after a warm-up, in one process run one after the other; reference reads stored numbers only; machine shared (2 cores), timings noisy',
+      note: "value = our values/s over python3-netcdf4's on the demo file (wall); each side best of 3 after a warm-up, in one process run one after the other; reference reads stored numbers only; machine shared (2 cores), timings noisy",
     };
     return [fig];
   },

@@ -20,23 +20,46 @@ export const BENCH_DIR = new URL('../.cache/bench/', import.meta.url).pathname;
 /** Big-endian byte writer for a NetCDF-3 classic header (NetCDF format specification). */
 class Header {
   parts: Buffer[] = [];
-  u32(x: number) { const b = Buffer.alloc(4); b.writeUInt32BE(x >>> 0); this.parts.push(b); }
-  name(s: string) { this.u32(s.length); const b = Buffer.alloc(Math.ceil(s.length / 4) * 4); b.write(s, 'latin1'); this.parts.push(b); }
-  bytes() { return Buffer.concat(this.parts); }
+  u32(x: number) {
+    const b = Buffer.alloc(4);
+    b.writeUInt32BE(x >>> 0);
+    this.parts.push(b);
+  }
+  name(s: string) {
+    this.u32(s.length);
+    const b = Buffer.alloc(Math.ceil(s.length / 4) * 4);
+    b.write(s, 'latin1');
+    this.parts.push(b);
+  }
+  bytes() {
+    return Buffer.concat(this.parts);
+  }
 }
 
 type Attr = [string, 'char', string] | [string, 'short' | 'float' | 'double', number];
 
 function attrs(h: Header, list: Attr[]) {
-  if (list.length === 0) { h.u32(0); h.u32(0); return; }
-  h.u32(12); h.u32(list.length);
+  if (list.length === 0) {
+    h.u32(0);
+    h.u32(0);
+    return;
+  }
+  h.u32(12);
+  h.u32(list.length);
   for (const [n, t, v] of list) {
     h.name(n);
-    if (t === 'char') { h.u32(2); h.name(v as string); continue; }
+    if (t === 'char') {
+      h.u32(2);
+      h.name(v as string);
+      continue;
+    }
     const code = { short: 3, float: 5, double: 6 }[t];
-    h.u32(code); h.u32(1);
+    h.u32(code);
+    h.u32(1);
     const b = Buffer.alloc(t === 'double' ? 8 : 4);
-    if (t === 'short') b.writeInt16BE(v as number); else if (t === 'float') b.writeFloatBE(v as number); else b.writeDoubleBE(v as number);
+    if (t === 'short') b.writeInt16BE(v as number);
+    else if (t === 'float') b.writeFloatBE(v as number);
+    else b.writeDoubleBE(v as number);
     h.parts.push(b);
   }
 }
@@ -48,48 +71,110 @@ function attrs(h: Header, list: Attr[]) {
 export function writeBenchClassic(path: string, year: number, ny: number, nx: number, packed: boolean): void {
   const nt = (Date.UTC(year + 1, 0, 1) - Date.UTC(year, 0, 1)) / 3_600_000;
   const t0 = (Date.UTC(year, 0, 1) - Date.UTC(1900, 0, 1)) / 3_600_000;
-  const sf = 0.0015, ao = 290, B = packed ? 2 : 4;
+  const sf = 0.0015,
+    ao = 290,
+    B = packed ? 2 : 4;
   const fieldBytes = Math.ceil((ny * nx * B) / 4) * 4;
   const build = (beginLat: number, beginLon: number, beginRec: number) => {
     const h = new Header();
     h.parts.push(Buffer.from('CDF\x01', 'latin1'));
     h.u32(nt);
-    h.u32(10); h.u32(3); h.name('longitude'); h.u32(nx); h.name('latitude'); h.u32(ny); h.name('time'); h.u32(0);
-    attrs(h, [['Conventions', 'char', 'CF-1.6'], ['history', 'char', 'heathours bench input (invented values)']]);
-    h.u32(11); h.u32(4);
-    h.name('longitude'); h.u32(1); h.u32(0); attrs(h, [['units', 'char', 'degrees_east']]); h.u32(5); h.u32(nx * 4); h.u32(beginLon);
-    h.name('latitude'); h.u32(1); h.u32(1); attrs(h, [['units', 'char', 'degrees_north']]); h.u32(5); h.u32(ny * 4); h.u32(beginLat);
-    h.name('time'); h.u32(1); h.u32(2); attrs(h, [['units', 'char', 'hours since 1900-01-01 00:00:00.0'], ['calendar', 'char', 'gregorian']]); h.u32(4); h.u32(4); h.u32(beginRec);
-    h.name('t2m'); h.u32(3); h.u32(2); h.u32(1); h.u32(0);
-    attrs(h, packed
-      ? [['scale_factor', 'double', sf], ['add_offset', 'double', ao], ['_FillValue', 'short', -32767], ['missing_value', 'short', -32767], ['units', 'char', 'K'], ['long_name', 'char', '2 metre temperature']]
-      : [['_FillValue', 'float', NaN], ['units', 'char', 'K'], ['long_name', 'char', '2 metre temperature']]);
-    h.u32(packed ? 3 : 5); h.u32(fieldBytes); h.u32(beginRec + 4);
+    h.u32(10);
+    h.u32(3);
+    h.name('longitude');
+    h.u32(nx);
+    h.name('latitude');
+    h.u32(ny);
+    h.name('time');
+    h.u32(0);
+    attrs(h, [
+      ['Conventions', 'char', 'CF-1.6'],
+      ['history', 'char', 'heathours bench input (invented values)'],
+    ]);
+    h.u32(11);
+    h.u32(4);
+    h.name('longitude');
+    h.u32(1);
+    h.u32(0);
+    attrs(h, [['units', 'char', 'degrees_east']]);
+    h.u32(5);
+    h.u32(nx * 4);
+    h.u32(beginLon);
+    h.name('latitude');
+    h.u32(1);
+    h.u32(1);
+    attrs(h, [['units', 'char', 'degrees_north']]);
+    h.u32(5);
+    h.u32(ny * 4);
+    h.u32(beginLat);
+    h.name('time');
+    h.u32(1);
+    h.u32(2);
+    attrs(h, [
+      ['units', 'char', 'hours since 1900-01-01 00:00:00.0'],
+      ['calendar', 'char', 'gregorian'],
+    ]);
+    h.u32(4);
+    h.u32(4);
+    h.u32(beginRec);
+    h.name('t2m');
+    h.u32(3);
+    h.u32(2);
+    h.u32(1);
+    h.u32(0);
+    attrs(
+      h,
+      packed
+        ? [
+            ['scale_factor', 'double', sf],
+            ['add_offset', 'double', ao],
+            ['_FillValue', 'short', -32767],
+            ['missing_value', 'short', -32767],
+            ['units', 'char', 'K'],
+            ['long_name', 'char', '2 metre temperature'],
+          ]
+        : [
+            ['_FillValue', 'float', NaN],
+            ['units', 'char', 'K'],
+            ['long_name', 'char', '2 metre temperature'],
+          ],
+    );
+    h.u32(packed ? 3 : 5);
+    h.u32(fieldBytes);
+    h.u32(beginRec + 4);
     return h.bytes();
   };
   const headLen = build(0, 0, 0).length;
-  const beginLon = headLen, beginLat = beginLon + nx * 4, beginRec = beginLat + ny * 4;
+  const beginLon = headLen,
+    beginLat = beginLon + nx * 4,
+    beginRec = beginLat + ny * 4;
   const tmp = `${path}.${process.pid}.tmp`;
   const fd = openSync(tmp, 'w');
   writeSync(fd, build(beginLat, beginLon, beginRec));
-  const lon = Buffer.alloc(nx * 4); for (let i = 0; i < nx; i++) lon.writeFloatBE(i * 0.25, i * 4);
-  const lat = Buffer.alloc(ny * 4); for (let i = 0; i < ny; i++) lat.writeFloatBE(30 - i * 0.25, i * 4);
-  writeSync(fd, lon); writeSync(fd, lat);
+  const lon = Buffer.alloc(nx * 4);
+  for (let i = 0; i < nx; i++) lon.writeFloatBE(i * 0.25, i * 4);
+  const lat = Buffer.alloc(ny * 4);
+  for (let i = 0; i < ny; i++) lat.writeFloatBE(30 - i * 0.25, i * 4);
+  writeSync(fd, lon);
+  writeSync(fd, lat);
   const rec = Buffer.alloc(4 + fieldBytes);
   let seed = 12345;
   const chunk: Buffer[] = [];
   for (let t = 0; t < nt; t++) {
     rec.writeInt32BE(t0 + t, 0);
-    const diurnal = 6 * Math.sin((2 * Math.PI * ((t % 24) - 9)) / 24) + 8 * Math.sin((2 * Math.PI * (t / 8760 - 0.3)));
+    const diurnal = 6 * Math.sin((2 * Math.PI * ((t % 24) - 9)) / 24) + 8 * Math.sin(2 * Math.PI * (t / 8760 - 0.3));
     for (let c = 0; c < ny * nx; c++) {
       seed = (seed * 1103515245 + 12345) & 0x7fffffff;
-      const k = 295 + diurnal - 0.02 * c / nx + (seed / 0x7fffffff - 0.5);
+      const k = 295 + diurnal - (0.02 * c) / nx + (seed / 0x7fffffff - 0.5);
       const fill = c % 100 === 7;
       if (packed) rec.writeInt16BE(fill ? -32767 : Math.round((k - ao) / sf), 4 + c * 2);
       else rec.writeFloatBE(fill ? NaN : k, 4 + c * 4);
     }
     chunk.push(Buffer.from(rec));
-    if (chunk.length === 256 || t === nt - 1) { writeSync(fd, Buffer.concat(chunk)); chunk.length = 0; }
+    if (chunk.length === 256 || t === nt - 1) {
+      writeSync(fd, Buffer.concat(chunk));
+      chunk.length = 0;
+    }
   }
   closeSync(fd);
   renameSync(tmp, path);
@@ -127,7 +212,8 @@ export async function demoInputs(layout: 'legacy' | 'netcdf4', years: number[]):
   const { writeDemoDataset, yearFileName, LSM_FILE } = await import('../pipeline/demo/index.ts');
   const files = [join(dir, LSM_FILE), ...years.map((y) => join(dir, yearFileName(y)))];
   const missing = years.filter((y) => !existsSync(join(dir, yearFileName(y))));
-  if (missing.length > 0 || !existsSync(files[0])) await writeDemoDataset({ outDir: dir, years: missing.length > 0 ? missing : years.slice(0, 1), layout, grid: DEMO_GRID, quiet: true });
+  if (missing.length > 0 || !existsSync(files[0]))
+    await writeDemoDataset({ outDir: dir, years: missing.length > 0 ? missing : years.slice(0, 1), layout, grid: DEMO_GRID, quiet: true });
   return files;
 }
 

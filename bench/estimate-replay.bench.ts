@@ -26,8 +26,18 @@ import { runBid } from '../pipeline/schedule/run-bid.ts';
 import { runScenarios } from '../pipeline/schedule/scenario-runs.ts';
 import { runEstimate } from '../src/lib/estimate/estimate.ts';
 
-const RAW: RawInputs = { region: 'sollent-coast', start: '2027-05-03', 'work-hours': '20000', crew: '20', rate: '35', 'daily-cost': '1500', currency: 'EUR', compare: ['05:00-11:00, 15:00-19:00', '20:00-04:00'] };
-const QUERY = 'region=sollent-coast&start=2027-05-03&work-hours=20000&crew=20&rate=35&daily-cost=1500&currency=EUR&compare=05%3A00-11%3A00%2C+15%3A00-19%3A00&compare=20%3A00-04%3A00';
+const RAW: RawInputs = {
+  region: 'sollent-coast',
+  start: '2027-05-03',
+  'work-hours': '20000',
+  crew: '20',
+  rate: '35',
+  'daily-cost': '1500',
+  currency: 'EUR',
+  compare: ['05:00-11:00, 15:00-19:00', '20:00-04:00'],
+};
+const QUERY =
+  'region=sollent-coast&start=2027-05-03&work-hours=20000&crew=20&rate=35&daily-cost=1500&currency=EUR&compare=05%3A00-11%3A00%2C+15%3A00-19%3A00&compare=20%3A00-04%3A00';
 
 const median = (a: number[]) => {
   const s = [...a].sort((x, y) => x - y);
@@ -68,20 +78,34 @@ export const bench: Bench = {
     const withScenarios = median(runs.map((r) => r.scenarios));
     const out: BenchFigure[] = [
       {
-        bench: 'estimate-replay', value: Number(bid.toFixed(1)), unit: 'ms', path: 'node', aim: '< 200 ms',
+        bench: 'estimate-replay',
+        value: Number(bid.toFixed(1)),
+        unit: 'ms',
+        path: 'node',
+        aim: '< 200 ms',
         input: `1 region, ${ctx.years.length} weather years, 20,000 crew-hours, 12 start months, 3 shift patterns`,
-        monthlyTableMs: Number(monthly.toFixed(1)), ratioToMonthlyTable: Number((bid / monthly).toFixed(2)), checksum: Number(checksum.toFixed(2)),
+        monthlyTableMs: Number(monthly.toFixed(1)),
+        ratioToMonthlyTable: Number((bid / monthly).toFixed(2)),
+        checksum: Number(checksum.toFixed(2)),
       },
       {
-        bench: 'estimate-replay', value: Number(withScenarios.toFixed(1)), unit: 'ms', path: 'node-scenarios', aim: '< 200 ms',
+        bench: 'estimate-replay',
+        value: Number(withScenarios.toFixed(1)),
+        unit: 'ms',
+        path: 'node-scenarios',
+        aim: '< 200 ms',
         input: `the same and the job on ${ctx.scenarios.length} scenario(s) (${ctx.scenarios.map((x) => x.id).join(', ')})`,
-        ratioToNode: Number((withScenarios / bid).toFixed(2)), checksum: Number(scenarioChecksum.toFixed(2)),
+        ratioToNode: Number((withScenarios / bid).toFixed(2)),
+        checksum: Number(scenarioChecksum.toFixed(2)),
       },
     ];
     const site = await buildTestSite(data.dataDir);
     const session = await startSiteSession(site.distDir);
     try {
-      for (const [path, scenario] of [['chromium', 'none'], ['chromium-scenarios', 'all']] as const) {
+      for (const [path, scenario] of [
+        ['chromium', 'none'],
+        ['chromium-scenarios', 'all'],
+      ] as const) {
         const loads: number[] = [];
         const own: number[] = [];
         for (let i = 0; i < 6; i++) {
@@ -96,8 +120,14 @@ export const bench: Bench = {
           own.push(ms);
         }
         out.push({
-          bench: 'estimate-replay', value: Number(median(loads).toFixed(0)), unit: 'ms', path,
-          what: `open the link (scenario=${scenario}) to results shown, median of 5 fresh pages`, pageRunMs: Number(median(own).toFixed(1)), ratioToNode: Number((median(own) / (scenario === 'none' ? bid : withScenarios)).toFixed(2)), checksum: Number((scenario === 'none' ? checksum : scenarioChecksum).toFixed(2)),
+          bench: 'estimate-replay',
+          value: Number(median(loads).toFixed(0)),
+          unit: 'ms',
+          path,
+          what: `open the link (scenario=${scenario}) to results shown, median of 5 fresh pages`,
+          pageRunMs: Number(median(own).toFixed(1)),
+          ratioToNode: Number((median(own) / (scenario === 'none' ? bid : withScenarios)).toFixed(2)),
+          checksum: Number((scenario === 'none' ? checksum : scenarioChecksum).toFixed(2)),
         });
       }
     } finally {

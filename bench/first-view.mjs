@@ -60,6 +60,9 @@ export function firstViewBytes(dist, page) {
     bytes += b;
     gzipBytes += gzipSync(readFileSync(p)).length;
   }
-  const largest = [...files].sort((a, b) => b[1] - a[1]).slice(0, 3).map(([p, b]) => `${p.slice(dist.length + 1)} ${Math.round(b / 1000)} kB`);
+  const largest = [...files]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 3)
+    .map(([p, b]) => `${p.slice(dist.length + 1)} ${Math.round(b / 1000)} kB`);
   return { bytes, gzipBytes, files: files.size, largest, paths: [...files.keys()].map((p) => p.slice(dist.length + 1)) };
 }

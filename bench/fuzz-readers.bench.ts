@@ -46,7 +46,14 @@ export const bench: Bench = {
     let campaign: Awaited<ReturnType<typeof runCampaign>>;
     try {
       campaign = await runCampaign({
-        count, seed, workers, timeoutMs: 60_000, dir: DIR, formats, budgetSeconds: budget, mutantDir: MUTANTS,
+        count,
+        seed,
+        workers,
+        timeoutMs: 60_000,
+        dir: DIR,
+        formats,
+        budgetSeconds: budget,
+        mutantDir: MUTANTS,
         onResult: () => {
           done++;
           if (done % 500 === 0) process.stderr.write(`fuzz-readers: ${done} of ${total} mutants (load ${loadavg()[0].toFixed(1)})\n`);

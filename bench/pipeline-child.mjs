@@ -15,5 +15,8 @@ const extra = options ? JSON.parse(options) : { cache: false };
 const report = await buildAtlas({ configPath: config, outDir: out, jobs: Number(jobs), quiet: true, dataOnly: true, ...extra });
 const h = createHash('sha256');
 const dir = join(out, 'data', 'regions');
-for (const f of readdirSync(dir).filter((f) => f.endsWith('.csv')).sort()) h.update(readFileSync(join(dir, f)));
+for (const f of readdirSync(dir)
+  .filter((f) => f.endsWith('.csv'))
+  .sort())
+  h.update(readFileSync(join(dir, f)));
 process.stdout.write(`${JSON.stringify({ ...report, maxRssKb: process.resourceUsage().maxRSS, checksum: h.digest('hex').slice(0, 16) })}\n`);

@@ -20,8 +20,13 @@ const DIR = join(ROOT, '.cache', 'bench', 'pipeline');
 
 async function inputs(): Promise<void> {
   await ensureDemoData();
-  for (const [name, years] of [['atlas-5y.yaml', [2020, 2024]], ['atlas-1y.yaml', [2021, 2021]]] as const) {
-    writeFileSync(join(DIR, name), `id: bench
+  for (const [name, years] of [
+    ['atlas-5y.yaml', [2020, 2024]],
+    ['atlas-1y.yaml', [2021, 2021]],
+  ] as const) {
+    writeFileSync(
+      join(DIR, name),
+      `id: bench
 title: Benchmark atlas (invented data)
 dataset:
   files: [data/*.nc]
@@ -34,7 +39,8 @@ regions: ${join(ROOT, 'content/regions')}
 output: out
 work:
   classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+`,
+    );
   }
 }
 

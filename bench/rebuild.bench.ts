@@ -24,14 +24,22 @@ const DIR = join(ROOT, '.cache', 'bench', 'rebuild');
 async function setUp(): Promise<void> {
   await ensureDemoData();
   // Two views of the same files: the first four years, and all five (the new year arrives).
-  for (const [name, years] of [['data-4y', YEARS.slice(0, 4)], ['data-5y', YEARS]] as const) {
+  for (const [name, years] of [
+    ['data-4y', YEARS.slice(0, 4)],
+    ['data-5y', YEARS],
+  ] as const) {
     const d = join(DIR, name);
     rmSync(d, { recursive: true, force: true });
     mkdirSync(d, { recursive: true });
     for (const f of [...years.map((y) => `era5-demo-${y}.nc`), 'era5-demo-lsm.nc']) symlinkSync(join(DATA, f), join(d, f));
   }
-  for (const [name, data, last] of [['atlas-4y.yaml', 'data-4y', 2023], ['atlas-5y.yaml', 'data-5y', 2024]] as const) {
-    writeFileSync(join(DIR, name), `id: bench
+  for (const [name, data, last] of [
+    ['atlas-4y.yaml', 'data-4y', 2023],
+    ['atlas-5y.yaml', 'data-5y', 2024],
+  ] as const) {
+    writeFileSync(
+      join(DIR, name),
+      `id: bench
 title: Benchmark atlas (invented data)
 dataset:
   files: [${data}/*.nc]
@@ -44,7 +52,8 @@ regions: ${join(ROOT, 'content/regions')}
 output: out
 work:
   classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-`);
+`,
+    );
   }
 }
 

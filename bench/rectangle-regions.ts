@@ -39,7 +39,18 @@ export function rectangleRegions(n: number, split: number, idDigits = 4): string
         features.push({
           type: 'Feature',
           properties: { id: `r${String(k).padStart(idDigits, '0')}`, name: `Bench region ${k} (invented)` },
-          geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, nn], [w, nn], [w, s]]] },
+          geometry: {
+            type: 'Polygon',
+            coordinates: [
+              [
+                [w, s],
+                [e, s],
+                [e, nn],
+                [w, nn],
+                [w, s],
+              ],
+            ],
+          },
         });
       }
     }
@@ -53,7 +64,10 @@ export function rectangleRegions(n: number, split: number, idDigits = 4): string
  * atlas configuration every time) and returns the configuration's path. `extra` is appended to
  * the configuration (e.g. `regionWorkbooks: false`).
  */
-export async function writeRegionBenchInputs(dir: string, o: { id: string; title: string; regions: string; classesFile: string; extra?: string }): Promise<string> {
+export async function writeRegionBenchInputs(
+  dir: string,
+  o: { id: string; title: string; regions: string; classesFile: string; extra?: string },
+): Promise<string> {
   const data = join(dir, 'data');
   if (!BENCH_YEARS.every((y) => existsSync(join(data, `era5-demo-${y}.nc`)))) {
     await writeDemoDataset({ outDir: data, years: BENCH_YEARS, layout: 'mixed', grid: 'small', quiet: true });
@@ -61,7 +75,9 @@ export async function writeRegionBenchInputs(dir: string, o: { id: string; title
   mkdirSync(join(dir, 'regions'), { recursive: true });
   writeFileSync(join(dir, 'regions', 'bench-regions.geojson'), o.regions);
   const config = join(dir, 'atlas.yaml');
-  writeFileSync(config, `id: ${o.id}
+  writeFileSync(
+    config,
+    `id: ${o.id}
 title: ${o.title}
 dataset:
   files: [data/*.nc]
@@ -74,7 +90,8 @@ regions: regions
 output: out
 work:
   classesFile: ${o.classesFile}
-${o.extra ?? ''}`);
+${o.extra ?? ''}`,
+  );
   return config;
 }
 
@@ -83,7 +100,12 @@ ${o.extra ?? ''}`);
  * bench/regions-1000-child.mjs, into `dir`/out and `dir`/dist, and removes both afterwards (they
  * hold gigabytes of tables and pages; the inputs stay). Returns each child's report.
  */
-export function buildDataAndSite(dir: string, config: string, jobs: number, name: string): { pipeline: Record<string, unknown>; site: Record<string, unknown> } {
+export function buildDataAndSite(
+  dir: string,
+  config: string,
+  jobs: number,
+  name: string,
+): { pipeline: Record<string, unknown>; site: Record<string, unknown> } {
   const child = (args: string[]): Record<string, unknown> => {
     const r = spawnSync(process.execPath, [join(BENCH_DIR, 'regions-1000-child.mjs'), ...args], {
       encoding: 'utf8',

@@ -29,24 +29,30 @@ if (mode === 'pipeline') {
   const at = (re) => (marks.find(([, m]) => re.test(m))?.[0] ?? NaN) / 1000;
   const h = createHash('sha256');
   const dir = join(b, 'data', 'regions');
-  const csvs = readdirSync(dir).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv')).sort();
+  const csvs = readdirSync(dir)
+    .filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv'))
+    .sort();
   for (const f of csvs) h.update(readFileSync(join(dir, f)));
-  process.stdout.write(`${JSON.stringify({
-    seconds,
-    cpuSeconds: cpu(),
-    setupSeconds: at(/^computing /),
-    computeSeconds: report.computeSeconds,
-    normalsSeconds: at(/^summarising/) - at(/^computed /),
-    publishSeconds: seconds - at(/^summarising/),
-    mergeSeconds: report.mergeSeconds,
-    regionSeconds: Number(marks.map(([, m]) => /region\(s\): tables, summaries and calculator tiles in ([\d.]+) s/.exec(m)?.[1]).find((x) => x !== undefined) ?? NaN),
-    layersSeconds: at(/map layers drawn/) - (at(/region\(s\): tables/) || NaN),
-    inventorySeconds: seconds - at(/^summarising/),
-    peakRssMB: process.resourceUsage().maxRSS / 1024,
-    regions: csvs.length,
-    cellHours: report.cellHours,
-    checksum: h.digest('hex').slice(0, 16),
-  })}\n`);
+  process.stdout.write(
+    `${JSON.stringify({
+      seconds,
+      cpuSeconds: cpu(),
+      setupSeconds: at(/^computing /),
+      computeSeconds: report.computeSeconds,
+      normalsSeconds: at(/^summarising/) - at(/^computed /),
+      publishSeconds: seconds - at(/^summarising/),
+      mergeSeconds: report.mergeSeconds,
+      regionSeconds: Number(
+        marks.map(([, m]) => /region\(s\): tables, summaries and calculator tiles in ([\d.]+) s/.exec(m)?.[1]).find((x) => x !== undefined) ?? NaN,
+      ),
+      layersSeconds: at(/map layers drawn/) - (at(/region\(s\): tables/) || NaN),
+      inventorySeconds: seconds - at(/^summarising/),
+      peakRssMB: process.resourceUsage().maxRSS / 1024,
+      regions: csvs.length,
+      cellHours: report.cellHours,
+      checksum: h.digest('hex').slice(0, 16),
+    })}\n`,
+  );
 } else if (mode === 'site') {
   const { buildSite } = await import('../pipeline/run/site-stage.ts');
   await buildSite({ dataDir: a, outDir: b, quiet: true });
@@ -54,8 +60,17 @@ if (mode === 'pipeline') {
   const pages = readdirSync(join(b, 'regions')).filter((d) => statSync(join(b, 'regions', d, 'index.html'), { throwIfNoEntry: false }));
   const biggest = Math.max(...pages.map((d) => statSync(join(b, 'regions', d, 'index.html')).size));
   const h = createHash('sha256').update(readFileSync(join(b, 'index.html')));
-  const view = Object.fromEntries([['home', ''], ['map', 'map/'], ['downloads', 'downloads/'], ['region', `regions/${pages.sort()[0]}/`]].map(([k, p]) => [k, firstViewBytes(b, p)]));
-  process.stdout.write(`${JSON.stringify({ seconds, cpuSeconds: cpu(), peakRssMB: process.resourceUsage().maxRSS / 1024, regionPages: pages.length, largestRegionHtmlBytes: biggest, homeBytes: statSync(join(b, 'index.html')).size, homeChecksum: h.digest('hex').slice(0, 16), view })}\n`);
+  const view = Object.fromEntries(
+    [
+      ['home', ''],
+      ['map', 'map/'],
+      ['downloads', 'downloads/'],
+      ['region', `regions/${pages.sort()[0]}/`],
+    ].map(([k, p]) => [k, firstViewBytes(b, p)]),
+  );
+  process.stdout.write(
+    `${JSON.stringify({ seconds, cpuSeconds: cpu(), peakRssMB: process.resourceUsage().maxRSS / 1024, regionPages: pages.length, largestRegionHtmlBytes: biggest, homeBytes: statSync(join(b, 'index.html')).size, homeChecksum: h.digest('hex').slice(0, 16), view })}\n`,
+  );
 } else {
   process.stderr.write(`unknown mode ${mode}\n`);
   process.exit(2);

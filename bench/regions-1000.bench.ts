@@ -31,7 +31,6 @@ async function inputs(): Promise<string> {
   });
 }
 
-
 const round1 = (x: unknown) => Math.round(Number(x) * 10) / 10;
 
 export const bench: Bench = {

@@ -28,14 +28,14 @@ const DIR = join(ROOT, '.cache', 'bench', `site-regions-${N_REGIONS}`);
 /** Rectangles per land-cell side: 41 land cells × 16² = 10,496 ≥ 10,000. */
 const SPLIT = 16;
 
-
 const round1 = (x: unknown) => Math.round(Number(x) * 10) / 10;
 const kB = (x: unknown) => Math.round(Number(x) / 1000);
 
 export const bench: Bench = {
   names: ['site-10000-regions'],
   async run() {
-    if (!Number.isInteger(N_REGIONS) || N_REGIONS < 1 || N_REGIONS > 10_496) throw new Error(`HEATHOURS_BENCH_REGIONS must be a whole number from 1 to 10496, not ${process.env.HEATHOURS_BENCH_REGIONS}`);
+    if (!Number.isInteger(N_REGIONS) || N_REGIONS < 1 || N_REGIONS > 10_496)
+      throw new Error(`HEATHOURS_BENCH_REGIONS must be a whole number from 1 to 10496, not ${process.env.HEATHOURS_BENCH_REGIONS}`);
     mkdirSync(DIR, { recursive: true });
     const config = await writeRegionBenchInputs(DIR, {
       id: `bench-${N_REGIONS}`,
@@ -79,7 +79,8 @@ export const bench: Bench = {
       // Linear in the regions: the region stage and the site's CPU per region, the rest as measured.
       const perRegion = (Number(p.regionSeconds) + Number(s.cpuSeconds)) / N_REGIONS;
       figure.projected10000Seconds = round1(Number(p.seconds) - Number(p.regionSeconds) + 10_000 * perRegion);
-      figure.projection = 'pipeline minus its region stage, plus 10,000 × (region-stage wall seconds + site CPU seconds) per region measured here; not a measurement';
+      figure.projection =
+        'pipeline minus its region stage, plus 10,000 × (region-stage wall seconds + site CPU seconds) per region measured here; not a measurement';
     }
     return [figure];
   },

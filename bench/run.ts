@@ -14,7 +14,9 @@ const onlyIdx = args.indexOf('--only');
 const only = onlyIdx >= 0 ? args[onlyIdx + 1] : undefined;
 
 const here = dirname(fileURLToPath(import.meta.url));
-const files = readdirSync(here).filter((f) => f.endsWith('.bench.ts')).sort();
+const files = readdirSync(here)
+  .filter((f) => f.endsWith('.bench.ts'))
+  .sort();
 const benches: Bench[] = [];
 for (const f of files) {
   const mod = (await import(pathToFileURL(join(here, f)).href)) as { bench: Bench };
@@ -35,7 +37,9 @@ for (const b of benches) {
     if (json) process.stdout.write(`${JSON.stringify(fig)}\n`);
     else {
       const { bench, value, unit, ...details } = fig;
-      const rest = Object.entries(details).map(([k, v]) => `${k}=${v}`).join(' ');
+      const rest = Object.entries(details)
+        .map(([k, v]) => `${k}=${v}`)
+        .join(' ');
       process.stdout.write(`${bench.padEnd(24)} ${formatValue(value).padStart(14)} ${unit.padEnd(16)} ${rest}\n`);
     }
   }

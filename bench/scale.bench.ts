@@ -43,7 +43,9 @@ async function prepare(name: string, grid: Grid, years: number[], memory?: strin
   mkdirSync(regions, { recursive: true });
   writeFileSync(join(regions, 'rectangles.geojson'), JSON.stringify(rectangles(grid, 10, 10)));
   const path = join(DIR, `${name}.yaml`);
-  writeFileSync(path, `id: scale
+  writeFileSync(
+    path,
+    `id: scale
 title: Scale benchmark (invented data)
 dataset:
   files: [${data}/era5-demo-2*.nc]
@@ -55,7 +57,8 @@ regions: ${regions}
 output: out
 work:
   classesFile: ${join(ROOT, 'content/workload-classes.yaml')}
-${memory ? `memory: ${memory}\n` : ''}`);
+${memory ? `memory: ${memory}\n` : ''}`,
+  );
   return path;
 }
 
@@ -77,7 +80,18 @@ function rectangles(spec: Grid, rows: number, cols: number) {
       features.push({
         type: 'Feature',
         properties: { id: `block-${i}-${j}`, name: `Invented block ${i}-${j}` },
-        geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] },
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [w, s],
+              [e, s],
+              [e, n],
+              [w, n],
+              [w, s],
+            ],
+          ],
+        },
       });
     }
   }
@@ -137,7 +151,11 @@ export const bench: Bench = {
       });
     }
     if (!only || only === 'read-vs-width') {
-      const shapes: Array<[number, number]> = [[176, 34], [40, 150], [20, 300]];
+      const shapes: Array<[number, number]> = [
+        [176, 34],
+        [40, 150],
+        [20, 300],
+      ];
       const ns: number[] = [];
       for (const [nLat, nLon] of shapes) {
         const config = await prepare(`width-${nLon}`, { nLat, nLon, resolution: 0.1 }, [2021]);

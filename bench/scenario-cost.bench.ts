@@ -43,7 +43,9 @@ export const bench: Bench = {
     if (!DEMO_WARMING_LEVELS.every((l) => existsSync(join(DATA, changeFactorFile(l))))) {
       await writeDemoDataset({ outDir: DATA, years: DEMO_YEARS, layout: 'mixed', quiet: true });
     }
-    const scenarios = DEMO_WARMING_LEVELS.map((l) => `  - { id: level-${String(l).replace('.', '-')}, name: "+${l} (invented)", changeFile: ${join(DATA, changeFactorFile(l))}, humidity: relative }`).join('\n');
+    const scenarios = DEMO_WARMING_LEVELS.map(
+      (l) => `  - { id: level-${String(l).replace('.', '-')}, name: "+${l} (invented)", changeFile: ${join(DATA, changeFactorFile(l))}, humidity: relative }`,
+    ).join('\n');
     writeFileSync(join(DIR, 'baseline.yaml'), atlas(''));
     writeFileSync(join(DIR, 'scenarios.yaml'), atlas(`scenarios:\n${scenarios}\n`));
     const jobs = availableParallelism();

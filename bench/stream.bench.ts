@@ -18,7 +18,13 @@ if (process.argv[2] === '--stream-child') {
   process.stdout.write(JSON.stringify({ ...r, maxRssKb: process.resourceUsage().maxRSS }) + '\n');
 }
 
-interface ChildResult { values: number; seconds: number; cpuSeconds: number; checksum: number; maxRssKb: number }
+interface ChildResult {
+  values: number;
+  seconds: number;
+  cpuSeconds: number;
+  checksum: number;
+  maxRssKb: number;
+}
 
 function child(files: string[]): ChildResult {
   const r = spawnSync(process.execPath, ['--import', 'tsx', fileURLToPath(import.meta.url), '--stream-child', ...files], { encoding: 'utf8' });
@@ -31,19 +37,22 @@ export const bench: Bench = {
   async run() {
     const one = child(await demoInputs('legacy', [2021]));
     const three = child(await demoInputs('legacy', [2019, 2020, 2021]));
-    return [{
-      bench: 'stream-peak-rss',
-      value: Math.round(one.maxRssKb / 1024),
-      unit: 'MB',
-      input: 'demo dataset (invented), 1 year hourly, 40x60 grid, 8 ERA5 variables, NetCDF-3 int16 packed, month blocks (744 h x 2400 cells), reused block buffers',
-      values1y: one.values,
-      readSeconds1y: Math.round(one.seconds * 1000) / 1000,
-      cpuSeconds1y: Math.round(one.cpuSeconds * 1000) / 1000,
-      checksum1y: one.checksum.toFixed(3),
-      peakRss3yMB: Math.round(three.maxRssKb / 1024),
-      values3y: three.values,
-      checksum3y: three.checksum.toFixed(3),
-      note: 'child process maxRSS incl. Node + tsx runtime; shared machine',
-    }];
+    return [
+      {
+        bench: 'stream-peak-rss',
+        value: Math.round(one.maxRssKb / 1024),
+        unit: 'MB',
+        input:
+          'demo dataset (invented), 1 year hourly, 40x60 grid, 8 ERA5 variables, NetCDF-3 int16 packed, month blocks (744 h x 2400 cells), reused block buffers',
+        values1y: one.values,
+        readSeconds1y: Math.round(one.seconds * 1000) / 1000,
+        cpuSeconds1y: Math.round(one.cpuSeconds * 1000) / 1000,
+        checksum1y: one.checksum.toFixed(3),
+        peakRss3yMB: Math.round(three.maxRssKb / 1024),
+        values3y: three.values,
+        checksum3y: three.checksum.toFixed(3),
+        note: 'child process maxRSS incl. Node + tsx runtime; shared machine',
+      },
+    ];
   },
 };

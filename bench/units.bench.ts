@@ -34,33 +34,53 @@ function grid(lat0: number, nLat: number, lon0: number, nLon: number, d: number)
   };
 }
 
-const feature = (id: string, ring: Pos[]) => ({ type: 'Feature', properties: { id, name: `Region ${id}` }, geometry: { type: 'Polygon', coordinates: [[...ring, ring[0]]] } });
+const feature = (id: string, ring: Pos[]) => ({
+  type: 'Feature',
+  properties: { id, name: `Region ${id}` },
+  geometry: { type: 'Polygon', coordinates: [[...ring, ring[0]]] },
+});
 const collection = (features: unknown[]) => ({ type: 'FeatureCollection', features });
 
 /** A jittered 25 × 40 lattice of quadrilaterals exactly covering 30–45 °E, 10–20 °N (invented shapes). */
 function lattice(): unknown {
   const d = 0.25;
-  const ny = 25, nx = 40;
-  const W = 30, S = 10, E = 30 + 60 * d, N = 10 + 40 * d;
+  const ny = 25,
+    nx = 40;
+  const W = 30,
+    S = 10,
+    E = 30 + 60 * d,
+    N = 10 + 40 * d;
   let seed = 7;
   const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5;
-  const vx: number[][] = [], vy: number[][] = [];
+  const vx: number[][] = [],
+    vy: number[][] = [];
   for (let j = 0; j <= ny; j++) {
     vx.push([]);
     vy.push([]);
     for (let i = 0; i <= nx; i++) {
-      const edgeX = i === 0 || i === nx, edgeY = j === 0 || j === ny;
+      const edgeX = i === 0 || i === nx,
+        edgeY = j === 0 || j === ny;
       vx[j].push(W + ((E - W) * i) / nx + (edgeX ? 0 : 0.3 * rnd() * ((E - W) / nx)));
       vy[j].push(S + ((N - S) * j) / ny + (edgeY ? 0 : 0.3 * rnd() * ((N - S) / ny)));
     }
   }
   const features = [];
-  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) features.push(feature(`q-${j}-${i}`, [[vx[j][i], vy[j][i]], [vx[j][i + 1], vy[j][i + 1]], [vx[j + 1][i + 1], vy[j + 1][i + 1]], [vx[j + 1][i], vy[j + 1][i]]]));
+  for (let j = 0; j < ny; j++)
+    for (let i = 0; i < nx; i++)
+      features.push(
+        feature(`q-${j}-${i}`, [
+          [vx[j][i], vy[j][i]],
+          [vx[j][i + 1], vy[j][i + 1]],
+          [vx[j + 1][i + 1], vy[j + 1][i + 1]],
+          [vx[j + 1][i], vy[j + 1][i]],
+        ]),
+      );
   return collection(features);
 }
 
 function layerRender(): BenchFigure[] {
-  const ny = 40, nx = 60;
+  const ny = 40,
+    nx = 60;
   const lat = Float64Array.from({ length: ny }, (_, i) => 30.125 + i * 0.25);
   const lon = Float64Array.from({ length: nx }, (_, i) => 10.125 + i * 0.25);
   const values = new Float32Array(ny * nx);
@@ -68,7 +88,8 @@ function layerRender(): BenchFigure[] {
   const g = { lat, lon, values };
   const style = figureStyle('hoursAboveLimit', [0, 50], 'h');
   renderLayerPng(g, style); // warm-up
-  const tPng: number[] = [], tTif: number[] = [];
+  const tPng: number[] = [],
+    tTif: number[] = [];
   let bytes = 0;
   for (let i = 0; i < 30; i++) {
     let t0 = performance.now();
@@ -96,13 +117,23 @@ function regionWeights(): BenchFigure[] {
   const ms = performance.now() - t0;
   let checksum = 0;
   for (const w of all) w.cells.forEach((c, k) => (checksum += w.fraction[k] * (c + 1)));
-  return [{ bench: 'region-weights-1000', value: round(ms, 1), unit: 'ms', input: '1,000 jittered quadrilaterals tiling a 40 x 60 grid (invented)', parseMs: round(parseMs, 1), checksum: checksum.toFixed(6) }];
+  return [
+    {
+      bench: 'region-weights-1000',
+      value: round(ms, 1),
+      unit: 'ms',
+      input: '1,000 jittered quadrilaterals tiling a 40 x 60 grid (invented)',
+      parseMs: round(parseMs, 1),
+      checksum: checksum.toFixed(6),
+    },
+  ];
 }
 
 function regionStats(): BenchFigure[] {
   const g = grid(10.125, 40, 30.125, 60, 0.25);
   const weights = allRegionCellWeights(parseRegionGeoJson(lattice(), 'lattice.geojson'), g);
-  const nFields = 120, nCells = 2400;
+  const nFields = 120,
+    nCells = 2400;
   const fields = new Float32Array(nFields * nCells).map((_, k) => (k * 2654435761) % 1000);
   const t0 = performance.now();
   let checksum = 0;
@@ -111,7 +142,15 @@ function regionStats(): BenchFigure[] {
     checksum += s.mean[0] + s.max[nFields - 1];
   }
   const ms = performance.now() - t0;
-  return [{ bench: 'region-stats-1000', value: round(ms, 1), unit: 'ms', input: '1,000 regions x 120 fields on a 40 x 60 grid (invented)', checksum: checksum.toFixed(3) }];
+  return [
+    {
+      bench: 'region-stats-1000',
+      value: round(ms, 1),
+      unit: 'ms',
+      input: '1,000 regions x 120 fields on a 40 x 60 grid (invented)',
+      checksum: checksum.toFixed(3),
+    },
+  ];
 }
 
 function normals(): BenchFigure[] {
@@ -128,7 +167,16 @@ function normals(): BenchFigure[] {
   const ms = performance.now() - t0;
   let checksum = 0;
   for (let i = 0; i < nItems; i += 997) checksum += n.p90[i] + n.median[i];
-  return [{ bench: 'normals-1m', value: Math.round(ms), unit: 'ms', input: '1,000,000 items x 30 years (invented counts)', itemsPerSecond: Math.round((nItems / ms) * 1000), checksum: checksum.toFixed(3) }];
+  return [
+    {
+      bench: 'normals-1m',
+      value: Math.round(ms),
+      unit: 'ms',
+      input: '1,000,000 items x 30 years (invented counts)',
+      itemsPerSecond: Math.round((nItems / ms) * 1000),
+      checksum: checksum.toFixed(3),
+    },
+  ];
 }
 
 const RUNS: Record<string, () => BenchFigure[]> = {

@@ -42,10 +42,26 @@ export function makeArrays(): PhysicsArrays {
   const lon = new Float64Array(NX).map((_, i) => -120 + (240 * i) / (NX - 1));
   const f = () => sharedFloat32(n);
   const a: PhysicsArrays = {
-    time, lat, lon,
-    airTemperature: f(), dewPointTemperature: f(), surfacePressure: f(), windSpeed: f(), solarGlobal: f(), solarDirect: f(),
-    cosZenith: f(), directFraction: f(), solar: f(), wind2m: f(), wbgtSun: f(), wbgtShade: f(),
-    globeSun: f(), wetBulbSun: f(), globeShade: f(), wetBulbShade: f(), status: sharedUint8(n),
+    time,
+    lat,
+    lon,
+    airTemperature: f(),
+    dewPointTemperature: f(),
+    surfacePressure: f(),
+    windSpeed: f(),
+    solarGlobal: f(),
+    solarDirect: f(),
+    cosZenith: f(),
+    directFraction: f(),
+    solar: f(),
+    wind2m: f(),
+    wbgtSun: f(),
+    wbgtShade: f(),
+    globeSun: f(),
+    wetBulbSun: f(),
+    globeShade: f(),
+    wetBulbShade: f(),
+    status: sharedUint8(n),
   };
   for (let t = 0; t < NT; t++) {
     for (let y = 0; y < NY; y++) {
@@ -124,9 +140,13 @@ export const bench: Bench = {
       timing: `best of ${REPS} runs after a full warm-up run; value = wall clock; cpu = this thread's CPU time (/proc/thread-self/schedstat); machine shared with other jobs`,
       wallNsRuns: walls.map((w) => ((w * 1e6) / n).toFixed(0)).join('/'),
       cpuNsRuns: cpus.map((v) => (v / n).toFixed(0)).join('/'),
-      ok: c.ok, rejected: c.rejected, notConverged: c.notConverged,
-      meanIterGlobeShade: +(c.iterations.globeShade / s).toFixed(3), meanIterWetBulbShade: +(c.iterations.wetBulbShade / s).toFixed(3),
-      meanIterGlobeSun: +(c.iterations.globeSun / s).toFixed(3), meanIterWetBulbSun: +(c.iterations.wetBulbSun / s).toFixed(3),
+      ok: c.ok,
+      rejected: c.rejected,
+      notConverged: c.notConverged,
+      meanIterGlobeShade: +(c.iterations.globeShade / s).toFixed(3),
+      meanIterWetBulbShade: +(c.iterations.wetBulbShade / s).toFixed(3),
+      meanIterGlobeSun: +(c.iterations.globeSun / s).toFixed(3),
+      meanIterWetBulbSun: +(c.iterations.wetBulbSun / s).toFixed(3),
       iterNote: 'evaluations per cell-hour; sun solves are skipped (0) where the solar load is zero, as sun = shade there',
       checksum: sum1,
       kernel: wasmKernel() ? 'WebAssembly SIMD module (pipeline/physics/wbgt-wasm.ts)' : 'JavaScript (WebAssembly SIMD unavailable)',
@@ -159,15 +179,24 @@ export const bench: Bench = {
         const overlap = (Math.min(...r.workerEndMs) - Math.max(...r.workerStartMs)) / (Math.max(...r.workerEndMs) - Math.min(...r.workerStartMs));
         const maxCpu = Math.max(...r.workerCpuNs);
         figs.push({
-          bench: 'wbgt-kernel-parallel', value: +(ms1 / r.wall).toFixed(2), unit: 'x speed-up', workers: pool.size,
-          cellHours: n, hoursPerWorker: r.counts.cells > 0 ? `${Math.ceil(NT / pool.size)} (interleaved 4-hour blocks of shared arrays)` : '0',
-          nsPerCellHour: +((r.wall * 1e6) / n).toFixed(1), singleCoreNs: +single.toFixed(1), singleCoreCpuNs: perCell(cpu1),
+          bench: 'wbgt-kernel-parallel',
+          value: +(ms1 / r.wall).toFixed(2),
+          unit: 'x speed-up',
+          workers: pool.size,
+          cellHours: n,
+          hoursPerWorker: r.counts.cells > 0 ? `${Math.ceil(NT / pool.size)} (interleaved 4-hour blocks of shared arrays)` : '0',
+          nsPerCellHour: +((r.wall * 1e6) / n).toFixed(1),
+          singleCoreNs: +single.toFixed(1),
+          singleCoreCpuNs: perCell(cpu1),
           cpuBasedSpeedup: +(cpu1 / maxCpu).toFixed(2),
           workerCpuNsPerCellHour: r.workerCpuNs.map((v) => ((v * pool.size) / n).toFixed(0)).join('/'),
-          workerWallMs: r.workerMs.map((m) => Math.round(m)).join('/'), busyOverlap: +overlap.toFixed(3),
+          workerWallMs: r.workerMs.map((m) => Math.round(m)).join('/'),
+          busyOverlap: +overlap.toFixed(3),
           workerStartMsExcluded: Math.round(startMs),
           timing: `best of ${REPS} after a warm-up run; value = single-core wall / parallel wall; cpuBasedSpeedup = single-core thread CPU / slowest worker's thread CPU (what two free cores would give)`,
-          checksum: sumP, checksumMatchesSingle: sumP === sum1, ok: r.counts.ok,
+          checksum: sumP,
+          checksumMatchesSingle: sumP === sum1,
+          ok: r.counts.ok,
         });
       } finally {
         await pool.close();

@@ -49,23 +49,28 @@ export const bench: Bench = {
     const n = best(runsNc);
     const z = best(runsZarr);
     if (Math.abs(n.checksum - z.checksum) > 1e-6 * Math.abs(n.checksum) || n.values !== z.values) {
-      throw new Error(`zarr-read: the store reads other values than the NetCDF-4 files (checksum ${z.checksum} against ${n.checksum}, ${z.values} against ${n.values} values)`);
+      throw new Error(
+        `zarr-read: the store reads other values than the NetCDF-4 files (checksum ${z.checksum} against ${n.checksum}, ${z.values} against ${n.values} values)`,
+      );
     }
     const zv = z.values / z.seconds;
     const nv = n.values / n.seconds;
-    return [{
-      bench: 'zarr-read',
-      value: Math.round(zv),
-      unit: 'values/s',
-      input: 'demo year (invented) 2021, 0.25° 40x60 grid, 8 ERA5 variables -> 7 canonical fields; local Zarr v2 store, float32, zlib 1, chunks 168x40x60 (as the NetCDF-4 demo); readBlock month blocks (744 h) of the whole grid',
-      netcdf4ValuesPerSecond: Math.round(nv),
-      ratioToNetcdf4: Math.round((zv / nv) * 1000) / 1000,
-      cpuRatioToNetcdf4: Math.round(((z.values / z.cpuSeconds) / (n.values / n.cpuSeconds)) * 1000) / 1000,
-      runsZarr: runsZarr.map(mps).join('/') + ' M/s',
-      runsNetcdf4: runsNc.map(mps).join('/') + ' M/s',
-      values: z.values,
-      checksum: z.checksum.toFixed(3),
-      note: 'one core; best of 3 wall-clock runs each, alternating, after one warm-up each; machine shared with other jobs (2 cores), timings noisy',
-    }];
+    return [
+      {
+        bench: 'zarr-read',
+        value: Math.round(zv),
+        unit: 'values/s',
+        input:
+          'demo year (invented) 2021, 0.25° 40x60 grid, 8 ERA5 variables -> 7 canonical fields; local Zarr v2 store, float32, zlib 1, chunks 168x40x60 (as the NetCDF-4 demo); readBlock month blocks (744 h) of the whole grid',
+        netcdf4ValuesPerSecond: Math.round(nv),
+        ratioToNetcdf4: Math.round((zv / nv) * 1000) / 1000,
+        cpuRatioToNetcdf4: Math.round((z.values / z.cpuSeconds / (n.values / n.cpuSeconds)) * 1000) / 1000,
+        runsZarr: runsZarr.map(mps).join('/') + ' M/s',
+        runsNetcdf4: runsNc.map(mps).join('/') + ' M/s',
+        values: z.values,
+        checksum: z.checksum.toFixed(3),
+        note: 'one core; best of 3 wall-clock runs each, alternating, after one warm-up each; machine shared with other jobs (2 cores), timings noisy',
+      },
+    ];
   },
 };

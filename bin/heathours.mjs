@@ -34,7 +34,9 @@ function warnIfStale() {
   for (const f of manifest.files) {
     const info = statSync(`${root}${f}`, { throwIfNoEntry: false });
     if (info && info.mtimeMs > manifest.compiledAtMs) {
-      process.stderr.write(`warning: ${f} changed after heathours was compiled; this run uses the older compiled code (run \`npm run compile\` to update it)\n`);
+      process.stderr.write(
+        `warning: ${f} changed after heathours was compiled; this run uses the older compiled code (run \`npm run compile\` to update it)\n`,
+      );
       return;
     }
   }

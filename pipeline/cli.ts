@@ -17,7 +17,7 @@ export function makeProgram(): Command {
     .description('Build an atlas of working hours lost to heat stress from ERA5 / ERA5-Land reanalysis NetCDF files.')
     .version(CODE_VERSION, '-v, --version', 'print the version')
     .helpOption('-h, --help', 'show help (`heathours COMMAND --help` for a command)')
-    .option('--verbose', 'with an error, also print its details (e.g. the HDF5 library\'s own diagnostics)')
+    .option('--verbose', "with an error, also print its details (e.g. the HDF5 library's own diagnostics)")
     .showHelpAfterError('(run with --help for usage)')
     .addHelpText('after', `\n${EXIT_STATUS_HELP}\n\n\`heathours errors\` lists every error with its exit status and what to do.`)
     .exitOverride();

@@ -26,8 +26,18 @@ export async function compileWasmKernel(): Promise<Uint8Array> {
     writeFile: (name: string, contents: Uint8Array | string) => {
       if (name.endsWith('kernel.wasm') && typeof contents !== 'string') binary = contents;
     },
-    stdout: { write: (s: string) => { messages += s; return true; } } as never,
-    stderr: { write: (s: string) => { messages += s; return true; } } as never,
+    stdout: {
+      write: (s: string) => {
+        messages += s;
+        return true;
+      },
+    } as never,
+    stderr: {
+      write: (s: string) => {
+        messages += s;
+        return true;
+      },
+    } as never,
   });
   if (error || binary === undefined) throw new Error(`AssemblyScript could not compile ${WASM_SOURCE}: ${error?.message ?? 'no binary written'}\n${messages}`);
   return binary;

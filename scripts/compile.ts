@@ -49,7 +49,9 @@ async function compile(outDir = COMPILED_DIR): Promise<{ sources: number; bytes:
       metafile: true,
       logLevel: 'warning',
     });
-    const files = Object.keys(r.metafile.inputs).filter((f) => !f.includes('node_modules')).sort();
+    const files = Object.keys(r.metafile.inputs)
+      .filter((f) => !f.includes('node_modules'))
+      .sort();
     const manifest: CompiledSources = { compiledAtMs, files: files.map((f) => relative(PACKAGE_ROOT, join(PACKAGE_ROOT, f))) };
     await writeFile(join(tmp, 'sources.json'), `${JSON.stringify(manifest)}\n`);
     result = { sources: files.length, bytes: Object.values(r.metafile.outputs).reduce((s, o) => s + o.bytes, 0) };
@@ -59,4 +61,6 @@ async function compile(outDir = COMPILED_DIR): Promise<{ sources: number; bytes:
 
 const t0 = performance.now();
 const r = await compile();
-process.stdout.write(`heathours: compiled ${r.sources} source files into ${relative(process.cwd(), COMPILED_DIR) || '.'} (${(r.bytes / 1e6).toFixed(1)} MB with source maps) in ${((performance.now() - t0) / 1000).toFixed(1)} s\n`);
+process.stdout.write(
+  `heathours: compiled ${r.sources} source files into ${relative(process.cwd(), COMPILED_DIR) || '.'} (${(r.bytes / 1e6).toFixed(1)} MB with source maps) in ${((performance.now() - t0) / 1000).toFixed(1)} s\n`,
+);

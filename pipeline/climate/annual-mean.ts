@@ -29,7 +29,11 @@ export function annualMeanFromMonthlySums(input: MonthlySums, rule: Completeness
   const { years, nCells, sum, validHours, expectedHours } = input;
   const nYears = years.length;
   const expected = nYears * 12 * nCells;
-  for (const [what, a] of [['sum', sum], ['validHours', validHours], ['expectedHours', expectedHours]] as const) {
+  for (const [what, a] of [
+    ['sum', sum],
+    ['validHours', validHours],
+    ['expectedHours', expectedHours],
+  ] as const) {
     if (a.length !== expected) throw ClimateShapeMismatch({ what: `${what} (years × 12 months × cells)`, expected, actual: a.length }, { variable: what });
   }
   const mask = completenessMask(validHours, expectedHours, 12 * nCells, rule);

@@ -15,7 +15,8 @@ export const ClimateProbabilityOutOfRange = defineError<{ p: number }>({
 export const ClimateBadHourCounts = defineError<{ row: number; item: number; valid: number; expected: number }>({
   code: 'ClimateBadHourCounts',
   title: 'The counts of valid and expected hours do not make sense',
-  message: (p) => `year row ${p.row} (1-based), item ${p.item}: ${p.valid} valid hours against ${p.expected} expected (need 0 ≤ valid ≤ expected, whole numbers)`,
+  message: (p) =>
+    `year row ${p.row} (1-based), item ${p.item}: ${p.valid} valid hours against ${p.expected} expected (need 0 ≤ valid ≤ expected, whole numbers)`,
   hint: () => 'pass, per year × item, the hours actually computed and the hours the period holds; valid can never exceed expected',
 });
 

@@ -16,9 +16,22 @@ function c(symbol: string, name: string, value: number, unit: string, code: stri
 const NORMALS = 'pipeline/climate/normals.ts computeNormals()';
 const P50 = c('p_median', 'probability of the median', 0.5, '–', NORMALS);
 const P90 = c('p_90', 'probability of the 90th-percentile year', 0.9, '–', NORMALS);
-const MISS = c('h_miss', 'most missing hours for a month to count (10 days)', MONTHLY_COMPLETENESS.maxMissingHours, 'h', 'pipeline/climate/completeness.ts#MONTHLY_COMPLETENESS.maxMissingHours');
-const SHARE = c('s_years', 'smallest share of the baseline years for a normal', MONTHLY_COMPLETENESS.minYearShare, '–', 'pipeline/climate/completeness.ts#MONTHLY_COMPLETENESS.minYearShare');
-const NB = (key: keyof typeof NICHE_BOUNDS, symbol: string, name: string) => c(symbol, name, NICHE_BOUNDS[key], '°C', `pipeline/climate/niche.ts#NICHE_BOUNDS.${key}`);
+const MISS = c(
+  'h_miss',
+  'most missing hours for a month to count (10 days)',
+  MONTHLY_COMPLETENESS.maxMissingHours,
+  'h',
+  'pipeline/climate/completeness.ts#MONTHLY_COMPLETENESS.maxMissingHours',
+);
+const SHARE = c(
+  's_years',
+  'smallest share of the baseline years for a normal',
+  MONTHLY_COMPLETENESS.minYearShare,
+  '–',
+  'pipeline/climate/completeness.ts#MONTHLY_COMPLETENESS.minYearShare',
+);
+const NB = (key: keyof typeof NICHE_BOUNDS, symbol: string, name: string) =>
+  c(symbol, name, NICHE_BOUNDS[key], '°C', `pipeline/climate/niche.ts#NICHE_BOUNDS.${key}`);
 const CORE_LO = NB('coreLow', 'T_core,lo', 'lower edge of the main band');
 const CORE_HI = NB('coreHigh', 'T_core,hi', 'upper edge of the main band');
 const SEC_LO = NB('secondLow', 'T_second,lo', 'lower edge of the second band');
@@ -38,7 +51,8 @@ export const CLIMATE_METHODS: MethodGroup = {
     {
       id: 'quantiles',
       name: 'Median and 90th-percentile year',
-      summary: 'Quantiles of the baseline years\u2019 values by linear interpolation between order statistics (Hyndman–Fan type 7, the default of R and numpy).',
+      summary:
+        'Quantiles of the baseline years\u2019 values by linear interpolation between order statistics (Hyndman–Fan type 7, the default of R and numpy).',
       equation: [
         'sort x(1) ≤ … ≤ x(n);   h = (n − 1)·p + 1',
         'Q(p) = x(⌊h⌋) + (h − ⌊h⌋)·(x(⌊h⌋+1) − x(⌊h⌋))',
@@ -55,7 +69,8 @@ export const CLIMATE_METHODS: MethodGroup = {
     {
       id: 'normals',
       name: 'Baseline mean, lowest and highest year, the latest year',
-      summary: 'The mean, lowest and highest value of the baseline years that count; the latest year\u2019s value, its difference from the baseline mean and its rank among the baseline years.',
+      summary:
+        'The mean, lowest and highest value of the baseline years that count; the latest year\u2019s value, its difference from the baseline mean and its rank among the baseline years.',
       equation: [
         'mean = (1/n)·Σ x_y over the baseline years y that count',
         'difference = x_latest − mean;   rank = 1 + (number of baseline years above x_latest)',
@@ -68,7 +83,8 @@ export const CLIMATE_METHODS: MethodGroup = {
     {
       id: 'completeness',
       name: 'When a year counts, and when a normal is published',
-      summary: 'A month counts only when few of its hours are missing; a normal is published only when enough baseline years count, otherwise it is left empty, never computed from too few years.',
+      summary:
+        'A month counts only when few of its hours are missing; a normal is published only when enough baseline years count, otherwise it is left empty, never computed from too few years.',
       equation: ['a year counts ⇔ hours expected − hours computed ≤ h_miss', 'a normal is published ⇔ years that count ≥ ⌈s_years · length of the baseline⌉'],
       symbols: [],
       constants: [MISS, SHARE],
@@ -108,7 +124,9 @@ export const CLIMATE_METHODS: MethodGroup = {
       constants: [DECADE, TREND_MIN],
       sources: ['sen1968', 'mann1945', 'kendall1975'],
       code: ['pipeline/climate/trend.ts theilSenSlope(), mannKendall(), computeTrends()'],
-      notes: ['The minimum of 15 years is ours: over fewer years the slope mostly reflects which years happened to be hot. A small p-value says the values rise or fall more steadily than chance would give; it says nothing about the cause.'],
+      notes: [
+        'The minimum of 15 years is ours: over fewer years the slope mostly reflects which years happened to be hot. A small p-value says the values rise or fall more steadily than chance would give; it says nothing about the cause.',
+      ],
     },
     {
       id: 'niche',

@@ -62,7 +62,7 @@ export function mannKendall(x: ArrayLike<number>, n = x.length, scratch?: Float6
     const xi = x[i];
     for (let j = i + 1; j < n; j++) s += x[j] > xi ? 1 : x[j] < xi ? -1 : 0;
   }
-  const sorted = (scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n));
+  const sorted = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
   for (let i = 0; i < n; i++) sorted[i] = x[i];
   sorted.sort();
   let ties = 0;
@@ -88,7 +88,12 @@ export function computeTrends(stack: YearStack, items?: ArrayLike<number>, minYe
   const { years, values, nItems } = stack;
   const nY = years.length;
   const n = items ? items.length : nItems;
-  const out: Trends = { slopePerDecade: new Float64Array(n).fill(NaN), pValue: new Float64Array(n).fill(NaN), s: new Float64Array(n).fill(NaN), years: new Uint16Array(n) };
+  const out: Trends = {
+    slopePerDecade: new Float64Array(n).fill(NaN),
+    pValue: new Float64Array(n).fill(NaN),
+    s: new Float64Array(n).fill(NaN),
+    years: new Uint16Array(n),
+  };
   const t = new Float64Array(nY);
   const x = new Float64Array(nY);
   const pairs = new Float64Array((nY * (nY - 1)) / 2);

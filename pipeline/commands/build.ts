@@ -51,16 +51,22 @@ export function register(program: Command): void {
     .command('build')
     .description('build the atlas: read the inputs, compute WBGT and work figures, publish tables, layers and the site')
     .option('--config <file>', 'atlas configuration', 'content/atlas.yaml')
-    .option('--out <dir>', 'output folder (default: the configuration\'s `output`)')
+    .option('--out <dir>', "output folder (default: the configuration's `output`)")
     .option('--jobs <n>', 'worker threads (default: all cores)')
-    .option('--memory <size>', 'memory the build may use, e.g. 4G (default: the configuration\'s `memory`, else 3G); the build cuts its work to fit and says what it chose')
+    .option(
+      '--memory <size>',
+      "memory the build may use, e.g. 4G (default: the configuration's `memory`, else 3G); the build cuts its work to fit and says what it chose",
+    )
     .option('--data-only', 'publish the data files into OUT/data without building the site')
     .option('--shard <K/N>', 'distributed run: compute slice K of N of the shards into --partials, publish nothing')
     .option('--partials <dir>', 'folder (shared by all slices) where --shard writes its partials')
-    .option('--merge <dir>', 'distributed run: merge the partials under DIR (from every --shard K/N) and publish; with --tile, only merge one slice of the bands into DIR/bands')
+    .option(
+      '--merge <dir>',
+      'distributed run: merge the partials under DIR (from every --shard K/N) and publish; with --tile, only merge one slice of the bands into DIR/bands',
+    )
     .option('--tile <K/N>', 'distributed merge: merge slice K of N of the blocks of grid rows into DIR/bands (with --merge DIR), publish nothing')
     .option('--assemble <dir>', 'distributed run: join the merged bands under DIR/bands (from every --merge DIR --tile K/N) and publish')
-    .option('--cache <dir>', 'partial cache folder (default: the configuration\'s `cache`, else .heathours-cache beside the output)')
+    .option('--cache <dir>', "partial cache folder (default: the configuration's `cache`, else .heathours-cache beside the output)")
     .option('--no-cache', 'compute every shard and keep no partials')
     .option('--max-missing-hours <n>', 'completeness rule of the coverage check: a built year may miss up to N hours per variable (default 0: every hour)')
     .option('--quiet', 'no progress output')
@@ -69,7 +75,10 @@ export function register(program: Command): void {
       if (opts.maxMissingHours !== undefined) {
         maxMissingHours = Number(opts.maxMissingHours);
         if (!/^\d{1,5}$/.test(opts.maxMissingHours.trim()) || maxMissingHours > 8784) {
-          throw UsageError({ message: `--max-missing-hours ${opts.maxMissingHours} is not a whole number of hours from 0 to 8784`, hint: 'e.g. --max-missing-hours 1 accepts a year whose last hour lies in next January\'s download' });
+          throw UsageError({
+            message: `--max-missing-hours ${opts.maxMissingHours} is not a whole number of hours from 0 to 8784`,
+            hint: "e.g. --max-missing-hours 1 accepts a year whose last hour lies in next January's download",
+          });
         }
       }
       let jobs: number | undefined;
@@ -80,16 +89,28 @@ export function register(program: Command): void {
         }
       }
       if (opts.shard !== undefined && opts.merge !== undefined) {
-        throw UsageError({ message: '--shard and --merge are two steps of a distributed run, not one', hint: 'run every --shard K/N --partials DIR first, then one --merge DIR' });
+        throw UsageError({
+          message: '--shard and --merge are two steps of a distributed run, not one',
+          hint: 'run every --shard K/N --partials DIR first, then one --merge DIR',
+        });
       }
       if (opts.tile !== undefined && opts.merge === undefined) {
-        throw UsageError({ message: '--tile K/N slices a distributed merge and needs --merge DIR', hint: 'e.g. heathours build --merge /shared/partials --tile 2/4, then heathours build --assemble /shared/partials' });
+        throw UsageError({
+          message: '--tile K/N slices a distributed merge and needs --merge DIR',
+          hint: 'e.g. heathours build --merge /shared/partials --tile 2/4, then heathours build --assemble /shared/partials',
+        });
       }
       if (opts.assemble !== undefined && (opts.shard !== undefined || opts.merge !== undefined)) {
-        throw UsageError({ message: '--assemble is the last step of a distributed run, after --shard and --merge --tile, not with them', hint: 'run heathours build --assemble DIR on its own, once every merge task is done' });
+        throw UsageError({
+          message: '--assemble is the last step of a distributed run, after --shard and --merge --tile, not with them',
+          hint: 'run heathours build --assemble DIR on its own, once every merge task is done',
+        });
       }
       if ((opts.shard === undefined) !== (opts.partials === undefined)) {
-        throw UsageError({ message: '--shard K/N needs --partials DIR, and --partials needs --shard', hint: 'e.g. heathours build --shard 3/8 --partials /shared/partials' });
+        throw UsageError({
+          message: '--shard K/N needs --partials DIR, and --partials needs --shard',
+          hint: 'e.g. heathours build --shard 3/8 --partials /shared/partials',
+        });
       }
       const shard = opts.shard !== undefined ? { ...parseShardSlice(opts.shard), partialsDir: opts.partials! } : undefined;
       const { buildAtlas } = await import('../run/build-atlas.ts');

@@ -41,18 +41,28 @@ function parseSeed(text: string): number {
 }
 
 function parseJobs(text: string): number {
-  if (!/^\d{1,3}$/.test(text) || Number(text) < 1) throw UsageError({ message: `--jobs "${text}" is not a whole number from 1`, hint: 'pass --jobs 1 to write the years one after another, or the number of cores to use' }, { key: '--jobs' });
+  if (!/^\d{1,3}$/.test(text) || Number(text) < 1)
+    throw UsageError(
+      { message: `--jobs "${text}" is not a whole number from 1`, hint: 'pass --jobs 1 to write the years one after another, or the number of cores to use' },
+      { key: '--jobs' },
+    );
   return Number(text);
 }
 
 export function register(program: Command): void {
   program
     .command('demo-data')
-    .description('write the invented demo dataset: synthetic ERA5-style NetCDF for an invented territory (no real place or data), and invented change factors for its +1.5 and +2 °C scenarios (scenarios/)')
+    .description(
+      'write the invented demo dataset: synthetic ERA5-style NetCDF for an invented territory (no real place or data), and invented change factors for its +1.5 and +2 °C scenarios (scenarios/)',
+    )
     .requiredOption('--out <dir>', 'output folder (created if missing)')
     .option('--years <years>', 'years to write: a range 2020-2024, one year 2025, or a list 2020,2022', '2020-2024')
     .option('--layout <layout>', 'legacy (NetCDF-3, packed int16) | netcdf4 (NetCDF-4, float32) | mixed (legacy to 2022, NetCDF-4 after)', 'mixed')
-    .option('--grid <grid>', 'default (32 × 34 cells at 0.25°) | small (8 × 10 cells at 1°) | country (160 × 160 cells at 0.1°, for scale runs without a land-sea mask) | NLATxNLON@RES, e.g. 300x300@0.1', 'default')
+    .option(
+      '--grid <grid>',
+      'default (32 × 34 cells at 0.25°) | small (8 × 10 cells at 1°) | country (160 × 160 cells at 0.1°, for scale runs without a land-sea mask) | NLATxNLON@RES, e.g. 300x300@0.1',
+      'default',
+    )
     .option('--seed <n>', 'random seed; the same seed gives the same bytes', String(DEFAULT_SEED))
     .option('--jobs <n>', 'years written at once, each in a worker thread (default: number of cores)')
     .option('--quiet', 'no progress output')
@@ -68,6 +78,8 @@ export function register(program: Command): void {
       for (const f of files) process.stdout.write(`wrote ${f} (${(statSync(f).size / 1e6).toFixed(1)} MB)\n`);
       for (const f of changeFactors) process.stdout.write(`wrote ${f} (invented change factors for a scenario, ${(statSync(f).size / 1e3).toFixed(0)} kB)\n`);
       for (const f of unchanged) process.stdout.write(`unchanged ${f}\n`);
-      process.stdout.write(`invented demo data: ${files.length + changeFactors.length} file(s) written in ${((Date.now() - t0) / 1000).toFixed(1)} s (seed ${seed}, layout ${layout})\n`);
+      process.stdout.write(
+        `invented demo data: ${files.length + changeFactors.length} file(s) written in ${((Date.now() - t0) / 1000).toFixed(1)} s (seed ${seed}, layout ${layout})\n`,
+      );
     });
 }

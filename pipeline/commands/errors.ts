@@ -7,9 +7,12 @@ import type { Command } from 'commander';
 import { EXIT_STATUS_HELP, exitCodeOf } from './exit-codes.ts';
 
 /** Parameters standing for any case: each reads as ‹name› (and joins as ‹name› where a list is expected). */
-const PLACEHOLDERS = new Proxy({}, {
-  get: (_t, key) => (typeof key === 'string' ? Object.assign(new String(`‹${key}›`), { join: () => `‹${key}›` }) : undefined),
-});
+const PLACEHOLDERS = new Proxy(
+  {},
+  {
+    get: (_t, key) => (typeof key === 'string' ? Object.assign(new String(`‹${key}›`), { join: () => `‹${key}›` }) : undefined),
+  },
+);
 
 /** The hint of an error for any case, with the case's values as ‹name›. */
 export function genericHint(hint: (p: never) => string): string {

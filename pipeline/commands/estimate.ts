@@ -104,7 +104,10 @@ export async function runEstimateCommand(o: EstimateOptions): Promise<BidJson> {
     try {
       holidays = await readFile(o.holidays, 'utf8');
     } catch (e) {
-      throw ScheduleHolidayInvalid({ line: 0, value: o.holidays, problem: `the file cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})` }, { file: o.holidays });
+      throw ScheduleHolidayInvalid(
+        { line: 0, value: o.holidays, problem: `the file cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})` },
+        { file: o.holidays },
+      );
     }
   }
   parseHolidays(holidays, o.holidays); // a bad line is named with the file
@@ -124,27 +127,41 @@ export function formatEstimate(j: BidJson): string {
   for (const [k, v] of Object.entries(j.settings)) out.push(`  ${pad(`${k}:`, 12)} ${v}`);
   out.push('');
   const w = 50;
-  out.push(`${pad(`Across ${j.weatherYears.length} weather years`, w)}${STATISTICS.map((s) => pad(s.label, 14, true)).join('')}${pad('Without heat', 14, true)}`);
+  out.push(
+    `${pad(`Across ${j.weatherYears.length} weather years`, w)}${STATISTICS.map((s) => pad(s.label, 14, true)).join('')}${pad('Without heat', 14, true)}`,
+  );
   const hf: Record<string, string | number> = { finishDate: j.heatFree.finishDate, workingDays: j.heatFree.workingDays, calendarDays: j.heatFree.calendarDays };
   for (const r of SCHEDULE_ROWS) {
     const label = `${r.label} [${rowUnit(r, cur)}]`;
-    out.push(`${pad(label, w)}${STATISTICS.map((s) => pad(showValue(scheduleValue(j, r, s.key), r), 14, true)).join('')}${pad(hf[r.key] !== undefined ? showValue(hf[r.key], r) : '', 14, true)}`);
+    out.push(
+      `${pad(label, w)}${STATISTICS.map((s) => pad(showValue(scheduleValue(j, r, s.key), r), 14, true)).join('')}${pad(hf[r.key] !== undefined ? showValue(hf[r.key], r) : '', 14, true)}`,
+    );
   }
   out.push('');
-  out.push(`${pad('Weather year', 14)}${pad('Finish', 12, true)}${pad('Work days', 11, true)}${pad('Added', 8, true)}${pad('Crew-h lost', 13, true)}${pad(`Cost [${cur}]`, 18, true)}`);
+  out.push(
+    `${pad('Weather year', 14)}${pad('Finish', 12, true)}${pad('Work days', 11, true)}${pad('Added', 8, true)}${pad('Crew-h lost', 13, true)}${pad(`Cost [${cur}]`, 18, true)}`,
+  );
   for (const y of j.years) {
-    out.push(`${pad(String(y.weatherYear), 14)}${pad(y.finishDate, 12, true)}${pad(String(y.workingDays), 11, true)}${pad(String(y.addedWorkingDays), 8, true)}${pad(grouped(y.crewHoursLost), 13, true)}${pad(grouped(y.cost), 18, true)}`);
+    out.push(
+      `${pad(String(y.weatherYear), 14)}${pad(y.finishDate, 12, true)}${pad(String(y.workingDays), 11, true)}${pad(String(y.addedWorkingDays), 8, true)}${pad(grouped(y.crewHoursLost), 13, true)}${pad(grouped(y.cost), 18, true)}`,
+    );
   }
   out.push('');
-  out.push(`${pad('Start', 12)}${pad('Added days P50', 16, true)}${pad('P90', 8, true)}${pad(`Cost P50 [${cur}]`, 22, true)}${pad('P90', 14, true)}${pad('Finish P90', 12, true)}`);
+  out.push(
+    `${pad('Start', 12)}${pad('Added days P50', 16, true)}${pad('P90', 8, true)}${pad(`Cost P50 [${cur}]`, 22, true)}${pad('P90', 14, true)}${pad('Finish P90', 12, true)}`,
+  );
   for (const m of j.startMonths) {
-    out.push(`${pad(m.start, 12)}${pad(grouped(m.addedWorkingDays.p50, 1), 16, true)}${pad(grouped(m.addedWorkingDays.p90, 1), 8, true)}${pad(grouped(m.cost.p50), 22, true)}${pad(grouped(m.cost.p90), 14, true)}${pad(m.finishDate.p90, 12, true)}`);
+    out.push(
+      `${pad(m.start, 12)}${pad(grouped(m.addedWorkingDays.p50, 1), 16, true)}${pad(grouped(m.addedWorkingDays.p90, 1), 8, true)}${pad(grouped(m.cost.p50), 22, true)}${pad(grouped(m.cost.p90), 14, true)}${pad(m.finishDate.p90, 12, true)}`,
+    );
   }
   if (j.shiftPatterns.length > 1) {
     out.push('');
     out.push('Shift patterns (median / P90):');
     for (const p of j.shiftPatterns) {
-      out.push(`  ${p.shift.join(' and ')}, ${p.days} (${p.hoursPerDay} h a day): finish ${p.finishDate.p50} / ${p.finishDate.p90} (without heat ${p.heatFree.finishDate}); added working days ${grouped(p.addedWorkingDays.p50, 1)} / ${grouped(p.addedWorkingDays.p90, 1)}; crew-hours lost ${grouped(p.crewHoursLost.p50)} / ${grouped(p.crewHoursLost.p90)}; cost ${grouped(p.cost.p50)} / ${grouped(p.cost.p90)} ${cur}`);
+      out.push(
+        `  ${p.shift.join(' and ')}, ${p.days} (${p.hoursPerDay} h a day): finish ${p.finishDate.p50} / ${p.finishDate.p90} (without heat ${p.heatFree.finishDate}); added working days ${grouped(p.addedWorkingDays.p50, 1)} / ${grouped(p.addedWorkingDays.p90, 1)}; crew-hours lost ${grouped(p.crewHoursLost.p50)} / ${grouped(p.crewHoursLost.p90)}; cost ${grouped(p.cost.p50)} / ${grouped(p.cost.p90)} ${cur}`,
+      );
     }
   }
   if (j.crewForDeadline) {
@@ -154,7 +171,7 @@ export function formatEstimate(j: BidJson): string {
   }
   if (j.scenarios.length > 0) {
     out.push('');
-    out.push('What-if climates: the same job on the record\'s weather with its monthly means shifted (not forecasts)');
+    out.push("What-if climates: the same job on the record's weather with its monthly means shifted (not forecasts)");
     const cols = [{ label: 'Record', x: j }, ...j.scenarios.map((s) => ({ label: s.id, x: s }))];
     const cw = Math.max(14, ...cols.map((c) => c.label.length + 2));
     out.push(`${pad('', 40)}${cols.map((c) => pad(c.label, cw, true)).join('')}`);
@@ -175,7 +192,9 @@ export function formatEstimate(j: BidJson): string {
   }
   out.push('');
   out.push(`How: ${j.approximation}`);
-  out.push('Cost of heat = crew-hours lost × rate + calendar days added × daily cost. Scenario and record figures are what-ifs on past weather, not forecasts.');
+  out.push(
+    'Cost of heat = crew-hours lost × rate + calendar days added × daily cost. Scenario and record figures are what-ifs on past weather, not forecasts.',
+  );
   out.push('Cautions:');
   for (const c of j.cautions) out.push(`  - ${c}`);
   return `${out.join('\n')}\n`;
@@ -186,7 +205,9 @@ const collect = (v: string, prev: string[] = []) => [...prev, v];
 export function register(program: Command): void {
   program
     .command('estimate')
-    .description('schedule, cost of heat, start-month and shift comparisons and the crew for a deadline, for one job at one place of a built atlas (the /estimate/ page\'s code)')
+    .description(
+      "schedule, cost of heat, start-month and shift comparisons and the crew for a deadline, for one job at one place of a built atlas (the /estimate/ page's code)",
+    )
     .requiredOption('--atlas <dir>', 'the built atlas: the output folder of `heathours build` (holding data/) or its data/ folder')
     .option('--region <id>', 'a region of the atlas (default: the place is required)')
     .option('--cell <lat,lon>', 'a point [° N, ° E]: its grid cell, or the nearest land cell when that cell is sea (the distance is shown)')
@@ -200,10 +221,10 @@ export function register(program: Command): void {
     .option('--clothing <id>', 'clothing ensemble (work-clothes, cloth-coveralls, …)')
     .option('--hood', 'with a hood')
     .option('--cav <C>', 'a clothing adjustment value of your own [°C-WBGT]')
-    .option('--limit-model <id>', 'curve-2017 or table-1989 (default: the atlas\'s)')
+    .option('--limit-model <id>', "curve-2017 or table-1989 (default: the atlas's)")
     .option('--air-movement', 'air movement felt (table-1989)')
-    .option('--shift <HH:MM-HH:MM>', 'a shift span in local time; repeat for a split shift (default: the atlas\'s shift)', collect)
-    .option('--days <days>', 'work days, e.g. mon-sat or mon-fri,sun (default: the atlas\'s)')
+    .option('--shift <HH:MM-HH:MM>', "a shift span in local time; repeat for a split shift (default: the atlas's shift)", collect)
+    .option('--days <days>', "work days, e.g. mon-sat or mon-fri,sun (default: the atlas's)")
     .option('--compare-shift <spans>', 'another shift pattern to compare, e.g. "05:00-11:00,15:00-19:00" (repeat, up to 3)', collect)
     .option('--crew <n>', 'workers in the crew (default 10)')
     .option('--work-hours <h>', 'quantity of work [crew-hours] (default 20000)')
@@ -213,9 +234,16 @@ export function register(program: Command): void {
     .option('--daily-cost <c>', 'time-related site cost per calendar day (default 0)')
     .option('--currency <x>', 'currency label for the costs, e.g. EUR')
     .option('--holidays <file>', 'non-working dates, one YYYY-MM-DD per line (# comments)')
-    .option('--scenario <id>', 'also replay the job on this scenario of the atlas (repeat for several); a what-if on the record\'s weather with shifted monthly means, not a forecast', collect)
-    .option('--scenarios <all|ids>', 'also replay the job on every scenario of the atlas (`all`) or on these, separated by commas; without --scenario(s) only the record is replayed (the estimate page ticks every scenario by default)')
-    .option('--json', 'print the estimate as JSON (the page\'s JSON download)')
+    .option(
+      '--scenario <id>',
+      "also replay the job on this scenario of the atlas (repeat for several); a what-if on the record's weather with shifted monthly means, not a forecast",
+      collect,
+    )
+    .option(
+      '--scenarios <all|ids>',
+      'also replay the job on every scenario of the atlas (`all`) or on these, separated by commas; without --scenario(s) only the record is replayed (the estimate page ticks every scenario by default)',
+    )
+    .option('--json', "print the estimate as JSON (the page's JSON download)")
     .option('--csv <file>', 'also write the CSV download')
     .option('--xlsx <file>', 'also write a workbook (.xlsx) with the schedule, years, start months, shifts, assumptions and cautions')
     .addHelpText(
@@ -225,7 +253,11 @@ export function register(program: Command): void {
     .action(async (o: EstimateOptions) => {
       const j = await runEstimateCommand(o);
       if (o.csv) await writeFileAtomic(o.csv, bidCsv(j));
-      if (o.xlsx) await writeFileAtomic(o.xlsx, await workbookBytes(bidSheets(j), { title: `Schedule and cost of heat: ${j.atlas.title}`, created: new Date(j.atlas.buildTime) }));
+      if (o.xlsx)
+        await writeFileAtomic(
+          o.xlsx,
+          await workbookBytes(bidSheets(j), { title: `Schedule and cost of heat: ${j.atlas.title}`, created: new Date(j.atlas.buildTime) }),
+        );
       process.stdout.write(o.json ? `${JSON.stringify(j, null, 1)}\n` : formatEstimate(j));
     });
 }

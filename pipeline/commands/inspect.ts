@@ -51,7 +51,12 @@ export function expandInputArgs(args: string[]): string[] {
   const out: string[] = [];
   for (const a of args) {
     if (existsSync(a) && statSync(a).isDirectory() && !isZarrFolder(a)) {
-      out.push(...readdirSync(a).filter((f) => /\.(nc|nc4|cdf|netcdf|zip|zarr)$/i.test(f)).sort().map((f) => join(a, f)));
+      out.push(
+        ...readdirSync(a)
+          .filter((f) => /\.(nc|nc4|cdf|netcdf|zip|zarr)$/i.test(f))
+          .sort()
+          .map((f) => join(a, f)),
+      );
     } else out.push(a);
   }
   return out;
@@ -60,11 +65,19 @@ export function expandInputArgs(args: string[]): string[] {
 export function register(program: Command): void {
   program
     .command('inspect')
-    .description('per variable of each NetCDF file: dims, shape, units, detected role, decoded min/max/mean, fill count; time range. With --coverage: which hours of which years the files hold, gaps, duplicates, ERA5T, other grids')
-    .argument('<paths...>', 'NetCDF files (classic, 64-bit offset or NetCDF-4), ZIP archives of them (--coverage), Zarr stores (folders or HTTP(S) URLs), or folders holding them')
+    .description(
+      'per variable of each NetCDF file: dims, shape, units, detected role, decoded min/max/mean, fill count; time range. With --coverage: which hours of which years the files hold, gaps, duplicates, ERA5T, other grids',
+    )
+    .argument(
+      '<paths...>',
+      'NetCDF files (classic, 64-bit offset or NetCDF-4), ZIP archives of them (--coverage), Zarr stores (folders or HTTP(S) URLs), or folders holding them',
+    )
     .option('--json', 'one JSON object per file (with --coverage: the coverage report)')
-    .option('--coverage', 'the coverage check of the files as one dataset: hours present per variable by year and month, gaps, duplicates, ERA5T tail, files on another grid')
-    .option('--years <first-last>', 'with --coverage: the years the table must cover, e.g. 2020-2023 (default: the data\'s)')
+    .option(
+      '--coverage',
+      'the coverage check of the files as one dataset: hours present per variable by year and month, gaps, duplicates, ERA5T tail, files on another grid',
+    )
+    .option('--years <first-last>', "with --coverage: the years the table must cover, e.g. 2020-2023 (default: the data's)")
     .action(async (paths: string[], opts: { json?: boolean; coverage?: boolean; years?: string }) => {
       const files = expandInputArgs(paths);
       if (opts.coverage) {
@@ -73,7 +86,8 @@ export function register(program: Command): void {
         let years: [number, number] | undefined;
         if (opts.years !== undefined) {
           const m = /^\s*(\d{4})\s*(?:-\s*(\d{4}))?\s*$/.exec(opts.years);
-          if (!m || Number(m[2] ?? m[1]) < Number(m[1])) throw UsageError({ message: `--years ${opts.years} is not a year or a range of years`, hint: 'e.g. --years 2020-2023' });
+          if (!m || Number(m[2] ?? m[1]) < Number(m[1]))
+            throw UsageError({ message: `--years ${opts.years} is not a year or a range of years`, hint: 'e.g. --years 2020-2023' });
           years = [Number(m[1]), Number(m[2] ?? m[1])];
         }
         const r = await checkCoverage(files, { years });

@@ -23,7 +23,15 @@ import './catalogue.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { csvField } from '../formats/csv.ts';
 import { readCsvRecords } from '../formats/csv-file.ts';
-import { PointBadRow, PointClassesNotFound, PointClassesSyntax, PointInputNotFound, PointMissingColumn, PointOptionInvalid, PointOutputFailed } from '../physics/errors.ts';
+import {
+  PointBadRow,
+  PointClassesNotFound,
+  PointClassesSyntax,
+  PointInputNotFound,
+  PointMissingColumn,
+  PointOptionInvalid,
+  PointOutputFailed,
+} from '../physics/errors.ts';
 import { computePoint } from '../physics/point-row.ts';
 import { pointInputFromCells } from '../physics/point-input.ts';
 import { statusName } from '../physics/status.ts';
@@ -36,8 +44,19 @@ import { parseWorkloadClasses, prepareWorkKernel, allowableWorkFraction, type Wo
 
 const REQUIRED = ['time_utc', 'lat', 'lon', 'ta_c', 'pressure_hpa', 'wind_ms', 'solar_wm2'] as const;
 const PHYSICS_OUTPUT = [
-  'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
-  'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
+  'cos_zenith',
+  'direct_fraction',
+  'wind_2m_ms',
+  'tg_c',
+  'tnwb_c',
+  'tpsy_c',
+  'wbgt_c',
+  'tg_shade_c',
+  'tnwb_shade_c',
+  'wbgt_shade_c',
+  'tg_shelter_c',
+  'tnwb_shelter_c',
+  'wbgt_shelter_c',
 ] as const;
 
 /** The columns `point` reads and writes, as `heathours point --help` prints them after the options. */
@@ -107,7 +126,9 @@ export function prepareClassKernels(opts: PointWorkOptions = {}): { id: string; 
     id: c.id,
     columns: classColumns(c.id),
     kernel: prepareWorkKernel({
-      workRate: c.metabolicRate, restRate: classes.rest.metabolicRate, clothingAdjustment: cav,
+      workRate: c.metabolicRate,
+      restRate: classes.rest.metabolicRate,
+      clothingAdjustment: cav,
       limit: { model: 'curve-2017', acclimatization: opts.unacclimatized ? 'unacclimatized' : 'acclimatized' },
     }),
   }));
@@ -135,7 +156,11 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
   else if (!existsSync(inPath) || !statSync(inPath).isFile()) throw PointInputNotFound({ path: inPath }, { file: inPath });
   const d = opts.globeDiameter ?? D_GLOBE_STANDARD;
   if (!(d >= GLOBE_DIAMETER_RANGE[0] && d <= GLOBE_DIAMETER_RANGE[1])) {
-    throw PointOptionInvalid({ option: '--globe-diameter', value: String(opts.globeDiameter), expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}` });
+    throw PointOptionInvalid({
+      option: '--globe-diameter',
+      value: String(opts.globeDiameter),
+      expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}`,
+    });
   }
   const globe = globeFactors(d);
   const work = prepareClassKernels(opts);
@@ -200,10 +225,19 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
       const ok = r.status === 0;
       const f = (v: number, d: number) => (ok && Number.isFinite(v) ? v.toFixed(d) : '');
       const values: Record<string, string> = {
-        cos_zenith: f(r.cosZenith, 6), direct_fraction: f(r.directFraction, 6), wind_2m_ms: f(r.wind2m, 4),
-        tg_c: f(r.tg, 4), tnwb_c: f(r.tnwb, 4), tpsy_c: f(r.tpsy, 4), wbgt_c: f(r.wbgt, 4),
-        tg_shade_c: f(r.tgShade, 4), tnwb_shade_c: f(r.tnwbShade, 4), wbgt_shade_c: f(r.wbgtShade, 4),
-        tg_shelter_c: f(r.tgShelter, 4), tnwb_shelter_c: f(r.tnwbShelter, 4), wbgt_shelter_c: f(r.wbgtShelter, 4),
+        cos_zenith: f(r.cosZenith, 6),
+        direct_fraction: f(r.directFraction, 6),
+        wind_2m_ms: f(r.wind2m, 4),
+        tg_c: f(r.tg, 4),
+        tnwb_c: f(r.tnwb, 4),
+        tpsy_c: f(r.tpsy, 4),
+        wbgt_c: f(r.wbgt, 4),
+        tg_shade_c: f(r.tgShade, 4),
+        tnwb_shade_c: f(r.tnwbShade, 4),
+        wbgt_shade_c: f(r.wbgtShade, 4),
+        tg_shelter_c: f(r.tgShelter, 4),
+        tnwb_shelter_c: f(r.tnwbShelter, 4),
+        wbgt_shelter_c: f(r.wbgtShelter, 4),
         status: name,
       };
       // Work columns: the limit as a measured WBGT, L(M_w) − CAV, and the allowable work fraction
@@ -212,7 +246,7 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
         values[w.columns[0]] = ok ? w.kernel.threshold.toFixed(3) : '';
         values[w.columns[1]] = f(allowableWorkFraction(r.wbgt, null, w.kernel), 4);
       }
-      const row = header.map((h, i) => (OUTPUT.includes(h) ? values[h] : fields[i] ?? ''));
+      const row = header.map((h, i) => (OUTPUT.includes(h) ? values[h] : (fields[i] ?? '')));
       for (const c of OUTPUT) if (!(c in col)) row.push(values[c]);
       await write(`${row.map(csvField).join(',')}\r\n`);
       progress.tick(bytes);
@@ -254,7 +288,10 @@ export function register(program: Command): void {
     .option('--classes <file>', 'workload classes (YAML like content/workload-classes.yaml); default: the shipped classes')
     .option('--unacclimatized', 'use the limit curve for unacclimatized workers (default: acclimatized)')
     .option('--cav <value>', 'clothing adjustment value added to the WBGT [°C-WBGT], default 0')
-    .option('--globe-diameter <m>', 'diameter of the black globe [m]: 0.15 the standard globe (default), 0.0508 the 2-inch globe of the reference implementation')
+    .option(
+      '--globe-diameter <m>',
+      'diameter of the black globe [m]: 0.15 the standard globe (default), 0.0508 the 2-inch globe of the reference implementation',
+    )
     .option('--quiet', 'no progress output')
     .addHelpText('after', POINT_HELP)
     .action(async (opts: { in: string; out: string; quiet?: boolean; classes?: string; unacclimatized?: boolean; cav?: string; globeDiameter?: string }) => {
@@ -264,10 +301,19 @@ export function register(program: Command): void {
       }
       const globeDiameter = opts.globeDiameter === undefined ? undefined : Number(opts.globeDiameter);
       if (opts.globeDiameter !== undefined && (opts.globeDiameter.trim() === '' || !Number.isFinite(globeDiameter))) {
-        throw PointOptionInvalid({ option: '--globe-diameter', value: opts.globeDiameter, expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}` });
+        throw PointOptionInvalid({
+          option: '--globe-diameter',
+          value: opts.globeDiameter,
+          expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}`,
+        });
       }
       const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav, globeDiameter });
-      const rest = Object.entries(s.byStatus).filter(([k]) => k !== 'ok').map(([k, v]) => `${k} ${v}`).join(', ');
-      process.stderr.write(`point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`);
+      const rest = Object.entries(s.byStatus)
+        .filter(([k]) => k !== 'ok')
+        .map(([k, v]) => `${k} ${v}`)
+        .join(', ');
+      process.stderr.write(
+        `point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`,
+      );
     });
 }

@@ -120,7 +120,10 @@ async function handle(root: string, req: IncomingMessage, res: ServerResponse): 
     'Cache-Control': 'no-cache',
   });
   if (req.method === 'HEAD') return void res.end();
-  if (gzip) createReadStream(file).pipe(createGzip({ level: 6 })).pipe(res);
+  if (gzip)
+    createReadStream(file)
+      .pipe(createGzip({ level: 6 }))
+      .pipe(res);
   else createReadStream(file).pipe(res);
 }
 

@@ -30,7 +30,13 @@ export async function writeRequests(o: RequestOptions): Promise<{ dir: string; f
   const cfg = parseConfig(readFileSync(cfgPath, 'utf8'), cfgPath);
   const baseDir = dirname(cfgPath);
   const regionsDir = resolve(baseDir, cfg.regions);
-  const regionFiles = existsSync(regionsDir) && statSync(regionsDir).isDirectory() ? readdirSync(regionsDir).filter((f) => f.endsWith('.geojson')).sort().map((f) => join(regionsDir, f)) : [];
+  const regionFiles =
+    existsSync(regionsDir) && statSync(regionsDir).isDirectory()
+      ? readdirSync(regionsDir)
+          .filter((f) => f.endsWith('.geojson'))
+          .sort()
+          .map((f) => join(regionsDir, f))
+      : [];
   if (regionFiles.length === 0) throw ConfigRegionsMissing({ path: regionsDir }, { file: cfgPath, key: 'regions' });
   const box: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
   for (const f of regionFiles) {
@@ -50,7 +56,11 @@ export async function writeRequests(o: RequestOptions): Promise<{ dir: string; f
   }
   const dir = resolve(o.out ?? firstDir);
   // What is already there: the inputs the configuration finds, by their coverage.
-  const inputs = cfg.dataset.files.flatMap((p) => globSync(p, { cwd: baseDir, absolute: true }).map((m) => resolve(m)).filter((m) => statSync(m).isFile()));
+  const inputs = cfg.dataset.files.flatMap((p) =>
+    globSync(p, { cwd: baseDir, absolute: true })
+      .map((m) => resolve(m))
+      .filter((m) => statSync(m).isFile()),
+  );
   const complete = new Set<string>();
   if (inputs.length > 0) {
     const cov = await checkCoverage([...new Set(inputs)].sort(), { years: cfg.years, compareValues: false });
@@ -79,25 +89,35 @@ export async function writeRequests(o: RequestOptions): Promise<{ dir: string; f
 }
 
 const SHORT_OF: Record<string, string> = {
-  '2m_temperature': 't2m', '2m_dewpoint_temperature': 'd2m', surface_pressure: 'sp', '10m_u_component_of_wind': 'u10',
-  '10m_v_component_of_wind': 'v10', surface_solar_radiation_downwards: 'ssrd', total_sky_direct_solar_radiation_at_surface: 'fdir', land_sea_mask: 'lsm',
+  '2m_temperature': 't2m',
+  '2m_dewpoint_temperature': 'd2m',
+  surface_pressure: 'sp',
+  '10m_u_component_of_wind': 'u10',
+  '10m_v_component_of_wind': 'v10',
+  surface_solar_radiation_downwards: 'ssrd',
+  total_sky_direct_solar_radiation_at_surface: 'fdir',
+  land_sea_mask: 'lsm',
 };
 
 export function register(program: Command): void {
   program
     .command('request')
-    .description('write the data-store download requests the atlas needs (requests.json) and a Python script for the store\'s official client (download.py); no network')
+    .description(
+      "write the data-store download requests the atlas needs (requests.json) and a Python script for the store's official client (download.py); no network",
+    )
     .option('--config <file>', 'atlas configuration', 'content/atlas.yaml')
     .option('--out <dir>', 'download folder (default: the folder of the first dataset.files pattern)')
-    .option('--margin <degrees>', 'margin around the regions\' bounding box [°], before snapping to the product grid', '0.5')
+    .option('--margin <degrees>', "margin around the regions' bounding box [°], before snapping to the product grid", '0.5')
     .option('--max-fields <n>', 'per-request limit of the store [fields = variables × hours] (default: 120000 for ERA5, 12000 for ERA5-Land, from memory)')
     .action(async (opts: { config: string; out?: string; margin: string; maxFields?: string }) => {
       const margin = Number(opts.margin);
-      if (!Number.isFinite(margin) || margin < 0 || margin > 10) throw UsageError({ message: `--margin ${opts.margin} is not a number of degrees from 0 to 10`, hint: 'e.g. --margin 0.5' });
+      if (!Number.isFinite(margin) || margin < 0 || margin > 10)
+        throw UsageError({ message: `--margin ${opts.margin} is not a number of degrees from 0 to 10`, hint: 'e.g. --margin 0.5' });
       let maxFields: number | undefined;
       if (opts.maxFields !== undefined) {
         maxFields = Number(opts.maxFields);
-        if (!Number.isInteger(maxFields) || maxFields < 1) throw UsageError({ message: `--max-fields ${opts.maxFields} is not a positive whole number`, hint: 'e.g. --max-fields 60000' });
+        if (!Number.isInteger(maxFields) || maxFields < 1)
+          throw UsageError({ message: `--max-fields ${opts.maxFields} is not a positive whole number`, hint: 'e.g. --max-fields 60000' });
       }
       const { dir, file } = await writeRequests({ config: opts.config, out: opts.out, margin, maxFields });
       const [n, w, s, e] = file.area;

@@ -97,23 +97,31 @@ export async function loadConfig(path: string): Promise<ResolvedConfig> {
   const baseDir = dirname(abs);
   const inputFiles: string[] = [];
   for (const pattern of config.dataset.files) {
-    const matches = globSync(pattern, { cwd: baseDir, absolute: true, onlyFiles: false, ignore: ['**/*.zarr/*', '**/*.zarr/**/*'] }).map((m) => resolve(m)).filter((m) => isInput(m));
+    const matches = globSync(pattern, { cwd: baseDir, absolute: true, onlyFiles: false, ignore: ['**/*.zarr/*', '**/*.zarr/**/*'] })
+      .map((m) => resolve(m))
+      .filter((m) => isInput(m));
     if (matches.length === 0) throw ConfigInputMissing({ pattern, baseDir }, { file: abs, key: 'dataset.files' });
     inputFiles.push(...matches);
   }
   // Zarr stores: URLs as written, folders relative to the config file (their absence is the reader's NetcdfFileNotFound).
-  for (const store of config.dataset.zarr) inputFiles.push(/^https?:\/\//i.test(store) ? store.replace(/\/+$/, '') : resolve(baseDir, store).replace(/\/+$/, ''));
+  for (const store of config.dataset.zarr)
+    inputFiles.push(/^https?:\/\//i.test(store) ? store.replace(/\/+$/, '') : resolve(baseDir, store).replace(/\/+$/, ''));
   const regionsDir = resolve(baseDir, config.regions);
-  const regionFiles = existsSync(regionsDir) && statSync(regionsDir).isDirectory()
-    ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
-    : [];
+  const regionFiles =
+    existsSync(regionsDir) && statSync(regionsDir).isDirectory()
+      ? (await readdir(regionsDir)).filter((f) => f.endsWith('.geojson')).map((f) => join(regionsDir, f))
+      : [];
   if (regionFiles.length === 0) throw ConfigRegionsMissing({ path: regionsDir }, { file: abs, key: 'regions' });
   let workforce: ResolvedConfig['workforce'];
   if (config.workforce) {
     const raster = resolve(baseDir, config.workforce.raster);
     const shares = resolve(baseDir, config.workforce.shares);
-    for (const [key, path] of [['workforce.raster', raster], ['workforce.shares', shares]] as const) {
-      if (!existsSync(path) || !statSync(path).isFile()) throw ConfigWorkforceFileMissing({ key, path, invented: config.workforce.invented }, { file: abs, key });
+    for (const [key, path] of [
+      ['workforce.raster', raster],
+      ['workforce.shares', shares],
+    ] as const) {
+      if (!existsSync(path) || !statSync(path).isFile())
+        throw ConfigWorkforceFileMissing({ key, path, invented: config.workforce.invented }, { file: abs, key });
     }
     workforce = { raster, shares };
   }

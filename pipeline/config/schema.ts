@@ -23,9 +23,7 @@ export const DEFAULT_MONTHS_PER_PIECE = 3;
 export const TARGET_CELLS_PER_TILE = 1024;
 
 const year = z.number().int().min(1940).max(2100);
-const yearRange = z
-  .tuple([year, year])
-  .refine(([a, b]) => a <= b, { message: 'the first year must not be after the last' });
+const yearRange = z.tuple([year, year]).refine(([a, b]) => a <= b, { message: 'the first year must not be after the last' });
 
 /**
  * A list of inputs each named once: a repeated entry is a mistake (the same files twice), and
@@ -65,7 +63,10 @@ export const datasetSchema = z
     invented: z.boolean().default(false),
   })
   .strict()
-  .refine((d) => d.files.length + d.zarr.length > 0, { message: 'name at least one input: NetCDF files (dataset.files) or Zarr stores (dataset.zarr)', path: ['files'] });
+  .refine((d) => d.files.length + d.zarr.length > 0, {
+    message: 'name at least one input: NetCDF files (dataset.files) or Zarr stores (dataset.zarr)',
+    path: ['files'],
+  });
 
 /**
  * The URL path the site is served under: `/` at a host's root, or a sub-folder such as
@@ -120,7 +121,10 @@ export const atlasSchema = z
     /** Output folder of the built site, relative to the config file. */
     output: z.string().default('../dist'),
     /** How the site is hosted: `base`, the URL path it is served under (default `/`). */
-    site: z.object({ base: siteBaseSchema.default('/') }).strict().default({}),
+    site: z
+      .object({ base: siteBaseSchema.default('/') })
+      .strict()
+      .default({}),
     /**
      * Whether each region gets its .xlsx workbook (`data/regions/<id>.xlsx`, exceljs): about
      * 0.035 s of CPU per region, 350 s for 10,000 regions, more than the rest of a region's files

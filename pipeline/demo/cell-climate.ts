@@ -84,11 +84,27 @@ export function makeCellClimate(grid: DemoGrid): CellClimate {
   const n = grid.nLat * grid.nLon;
   const f32 = () => new Float32Array(n);
   const cc: CellClimate = {
-    grid, nCells: n, lat: new Float64Array(n), lon: new Float64Array(n),
-    landFraction: f32(), heightM: f32(), coastDistanceKm: f32(), coastal: f32(), basin: f32(),
-    onshoreE: f32(), onshoreN: f32(), tMean: f32(), tSeasonAmp: f32(), tPeakDay: f32(),
-    tDiurnalAmp: f32(), tdMean: f32(), tdSeasonAmp: f32(), cloudMean: f32(), cloudAfternoon: f32(),
-    windFactor: f32(), solarOffsetH: f32(),
+    grid,
+    nCells: n,
+    lat: new Float64Array(n),
+    lon: new Float64Array(n),
+    landFraction: f32(),
+    heightM: f32(),
+    coastDistanceKm: f32(),
+    coastal: f32(),
+    basin: f32(),
+    onshoreE: f32(),
+    onshoreN: f32(),
+    tMean: f32(),
+    tSeasonAmp: f32(),
+    tPeakDay: f32(),
+    tDiurnalAmp: f32(),
+    tdMean: f32(),
+    tdSeasonAmp: f32(),
+    cloudMean: f32(),
+    cloudAfternoon: f32(),
+    windFactor: f32(),
+    solarOffsetH: f32(),
   };
   const stepKm = 5;
   for (let i = 0; i < grid.nLat; i++) {

@@ -68,22 +68,72 @@ export function writeDemoChangeFactors(path: string, g: DemoGrid, level: number)
     ],
     attrs: [
       text('Conventions', 'CF-1.8'),
-      text('title', `INVENTED change factors for a +${level.toFixed(1)} °C global warming level over the invented territory of Quellmar (heathours demo; not from any climate model)`),
+      text(
+        'title',
+        `INVENTED change factors for a +${level.toFixed(1)} °C global warming level over the invented territory of Quellmar (heathours demo; not from any climate model)`,
+      ),
       text('source', 'invented by heathours demo-data: a smooth made-up pattern, not derived from any climate model, observation or real place'),
-      text('comment', 'Monthly changes (future minus baseline) for the delta change method: tas in K, hurs in percentage points of relative humidity, rsds as a relative change in %. Invented for the demo only.'),
+      text(
+        'comment',
+        'Monthly changes (future minus baseline) for the delta change method: tas in K, hurs in percentage points of relative humidity, rsds as a relative change in %. Invented for the demo only.',
+      ),
       text('history', `heathours demo-data: invented change factors, warming level ${level.toFixed(1)} °C`),
     ],
     vars: [
-      { name: 'time', type: 'double', dims: ['time'], attrs: [text('standard_name', 'time'), text('units', 'days since 2000-01-01 00:00:00'), text('calendar', '360_day'), text('long_name', 'middle of the month of the climatological year')] },
+      {
+        name: 'time',
+        type: 'double',
+        dims: ['time'],
+        attrs: [
+          text('standard_name', 'time'),
+          text('units', 'days since 2000-01-01 00:00:00'),
+          text('calendar', '360_day'),
+          text('long_name', 'middle of the month of the climatological year'),
+        ],
+      },
       { name: 'lat', type: 'double', dims: ['lat'], attrs: [text('standard_name', 'latitude'), text('units', 'degrees_north')] },
       { name: 'lon', type: 'double', dims: ['lon'], attrs: [text('standard_name', 'longitude'), text('units', 'degrees_east')] },
-      { name: 'tas', type: 'float', dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'air_temperature'), text('long_name', 'change of near-surface air temperature (invented)'), text('units', 'K'), text('units_metadata', 'temperature: difference'), fill] },
-      { name: 'hurs', type: 'float', dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'relative_humidity'), text('long_name', 'change of near-surface relative humidity, percentage points (invented)'), text('units', '%'), fill] },
-      { name: 'rsds', type: 'float', dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'surface_downwelling_shortwave_flux_in_air'), text('long_name', 'relative change of surface solar radiation (invented)'), text('units', '%'), fill] },
+      {
+        name: 'tas',
+        type: 'float',
+        dims: ['time', 'lat', 'lon'],
+        attrs: [
+          text('standard_name', 'air_temperature'),
+          text('long_name', 'change of near-surface air temperature (invented)'),
+          text('units', 'K'),
+          text('units_metadata', 'temperature: difference'),
+          fill,
+        ],
+      },
+      {
+        name: 'hurs',
+        type: 'float',
+        dims: ['time', 'lat', 'lon'],
+        attrs: [
+          text('standard_name', 'relative_humidity'),
+          text('long_name', 'change of near-surface relative humidity, percentage points (invented)'),
+          text('units', '%'),
+          fill,
+        ],
+      },
+      {
+        name: 'rsds',
+        type: 'float',
+        dims: ['time', 'lat', 'lon'],
+        attrs: [
+          text('standard_name', 'surface_downwelling_shortwave_flux_in_air'),
+          text('long_name', 'relative change of surface solar radiation (invented)'),
+          text('units', '%'),
+          fill,
+        ],
+      },
     ],
   });
   try {
-    w.writeFixed('time', Array.from({ length: 12 }, (_, m) => 30 * m + 15));
+    w.writeFixed(
+      'time',
+      Array.from({ length: 12 }, (_, m) => 30 * m + 15),
+    );
     w.writeFixed('lat', lat);
     w.writeFixed('lon', lon360);
     for (const which of ['t', 'rh', 'solar'] as const) {

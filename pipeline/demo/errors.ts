@@ -25,8 +25,10 @@ export const DemoLayoutUnknown = defineError<{ layout: string }>({
 export const DemoGridInvalid = defineError<{ grid: string }>({
   code: 'DemoGridInvalid',
   title: 'The grid of the demo data is not valid',
-  message: (p) => `grid ${p.grid} is neither "small", "default", "country" nor a size NLATxNLON@RESOLUTION (at most 1,000,000 cells, a resolution of at most 5°)`,
-  hint: () => 'use --grid default (32 × 34 cells at 0.25°), --grid small (8 × 10 cells at 1°), --grid country (160 × 160 cells at 0.1°) or a size such as --grid 300x300@0.1',
+  message: (p) =>
+    `grid ${p.grid} is neither "small", "default", "country" nor a size NLATxNLON@RESOLUTION (at most 1,000,000 cells, a resolution of at most 5°)`,
+  hint: () =>
+    'use --grid default (32 × 34 cells at 0.25°), --grid small (8 × 10 cells at 1°), --grid country (160 × 160 cells at 0.1°) or a size such as --grid 300x300@0.1',
 });
 
 export const DemoSeedInvalid = defineError<{ seed: string }>({

@@ -53,7 +53,6 @@ export function layoutOfYear(layout: DemoLayout, year: number): 'legacy' | 'netc
   return layout;
 }
 
-
 function resolveGrid(grid: DemoGridChoice | undefined): GridSpec {
   if (grid === undefined || grid === 'default') return DEFAULT_GRID;
   if (grid === 'small') return SMALL_GRID;
@@ -101,7 +100,8 @@ export async function writeDemoDataset(opts: {
   const years = [...new Set(opts.years)].sort((a, b) => a - b);
   if (years.length === 0) throw DemoYearOutOfRange({ year: NaN, first: DEMO_FIRST_YEAR, last: DEMO_LAST_YEAR }, { key: 'years' });
   for (const y of years)
-    if (!Number.isInteger(y) || y < DEMO_FIRST_YEAR || y > DEMO_LAST_YEAR) throw DemoYearOutOfRange({ year: y, first: DEMO_FIRST_YEAR, last: DEMO_LAST_YEAR }, { key: 'years' });
+    if (!Number.isInteger(y) || y < DEMO_FIRST_YEAR || y > DEMO_LAST_YEAR)
+      throw DemoYearOutOfRange({ year: y, first: DEMO_FIRST_YEAR, last: DEMO_LAST_YEAR }, { key: 'years' });
   const spec = resolveGrid(opts.grid);
   checkWritable(opts.outDir);
 
@@ -136,7 +136,10 @@ export async function writeDemoDataset(opts: {
     }
     // The invented population raster (for the workforce weighting): the same for every grid and year.
     const popPath = join(opts.outDir, POPULATION_FILE);
-    const tif = writeGeoTiff(demoPopulation(), { units: 'people', description: 'INVENTED people per pixel of the demo territory (heathours demo-data); not derived from any real data' });
+    const tif = writeGeoTiff(demoPopulation(), {
+      units: 'people',
+      description: 'INVENTED people per pixel of the demo territory (heathours demo-data); not derived from any real data',
+    });
     if (existsSync(popPath) && readFileSync(popPath).equals(tif)) unchanged.push(popPath);
     else {
       writeFileAtomicSync(popPath, tif);

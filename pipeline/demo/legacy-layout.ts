@@ -54,13 +54,40 @@ function varAttrs(name: DemoVariable | 'lsm', scale: number, offset: number): Nc
   return attrs;
 }
 
-function header(cc: CellClimate, numRecords: number, vars: Array<{ name: DemoVariable | 'lsm'; scale: number; offset: number }>, labels: ReturnType<typeof inventedLabels>) {
+function header(
+  cc: CellClimate,
+  numRecords: number,
+  vars: Array<{ name: DemoVariable | 'lsm'; scale: number; offset: number }>,
+  labels: ReturnType<typeof inventedLabels>,
+) {
   const v: Nc3Var[] = [
-    { name: 'longitude', type: 'float', dims: ['longitude'], attrs: [{ name: 'units', value: 'degrees_east' }, { name: 'long_name', value: 'longitude' }] },
-    { name: 'latitude', type: 'float', dims: ['latitude'], attrs: [{ name: 'units', value: 'degrees_north' }, { name: 'long_name', value: 'latitude' }] },
     {
-      name: 'time', type: 'int', dims: ['time'],
-      attrs: [{ name: 'units', value: 'hours since 1900-01-01 00:00:00.0' }, { name: 'long_name', value: 'time' }, { name: 'calendar', value: 'gregorian' }],
+      name: 'longitude',
+      type: 'float',
+      dims: ['longitude'],
+      attrs: [
+        { name: 'units', value: 'degrees_east' },
+        { name: 'long_name', value: 'longitude' },
+      ],
+    },
+    {
+      name: 'latitude',
+      type: 'float',
+      dims: ['latitude'],
+      attrs: [
+        { name: 'units', value: 'degrees_north' },
+        { name: 'long_name', value: 'latitude' },
+      ],
+    },
+    {
+      name: 'time',
+      type: 'int',
+      dims: ['time'],
+      attrs: [
+        { name: 'units', value: 'hours since 1900-01-01 00:00:00.0' },
+        { name: 'long_name', value: 'time' },
+        { name: 'calendar', value: 'gregorian' },
+      ],
     },
     ...vars.map((x): Nc3Var => ({ name: x.name, type: 'short', dims: ['time', 'latitude', 'longitude'], attrs: varAttrs(x.name, x.scale, x.offset) })),
   ];

@@ -27,27 +27,62 @@ function round(values: Float32Array, n: number, step: number): void {
 function coordDims(cc: CellClimate, stamps: BigInt64Array): Nc4Spec['dims'] {
   return [
     {
-      name: 'valid_time', values: stamps,
-      attrs: [['long_name', 'time'], ['standard_name', 'time'], ['units', 'seconds since 1970-01-01'], ['calendar', 'proleptic_gregorian']],
+      name: 'valid_time',
+      values: stamps,
+      attrs: [
+        ['long_name', 'time'],
+        ['standard_name', 'time'],
+        ['units', 'seconds since 1970-01-01'],
+        ['calendar', 'proleptic_gregorian'],
+      ],
     },
     {
-      name: 'latitude', values: cc.grid.lat,
-      attrs: [['units', 'degrees_north'], ['standard_name', 'latitude'], ['long_name', 'latitude'], ['stored_direction', 'decreasing']],
+      name: 'latitude',
+      values: cc.grid.lat,
+      attrs: [
+        ['units', 'degrees_north'],
+        ['standard_name', 'latitude'],
+        ['long_name', 'latitude'],
+        ['stored_direction', 'decreasing'],
+      ],
     },
-    { name: 'longitude', values: cc.grid.lon360, attrs: [['units', 'degrees_east'], ['standard_name', 'longitude'], ['long_name', 'longitude']] },
+    {
+      name: 'longitude',
+      values: cc.grid.lon360,
+      attrs: [
+        ['units', 'degrees_east'],
+        ['standard_name', 'longitude'],
+        ['long_name', 'longitude'],
+      ],
+    },
   ];
 }
 
 function dataVar(cc: CellClimate, name: DemoVariable | 'lsm', nTime: number): Nc4Variable {
   const info = ERA5_VARIABLES[name];
-  const attrs: Nc4Attrs = [['units', info.units], ['long_name', info.long_name]];
+  const attrs: Nc4Attrs = [
+    ['units', info.units],
+    ['long_name', info.long_name],
+  ];
   if (info.standard_name) attrs.push(['standard_name', info.standard_name]);
   attrs.push(['coordinates', 'number expver']);
-  return { name, dims: ['valid_time', 'latitude', 'longitude'], attrs, chunks: [Math.min(nTime, BLOCK_HOURS), cc.grid.nLat, cc.grid.nLon], deflateLevel: DEFLATE_LEVEL };
+  return {
+    name,
+    dims: ['valid_time', 'latitude', 'longitude'],
+    attrs,
+    chunks: [Math.min(nTime, BLOCK_HOURS), cc.grid.nLat, cc.grid.nLon],
+    deflateLevel: DEFLATE_LEVEL,
+  };
 }
 
 function globalAttrs(labels: ReturnType<typeof inventedLabels>): Nc4Attrs {
-  return [['Conventions', 'CF-1.7'], ['institution', 'none (invented demo data)'], ['title', labels.title], ['source', labels.source], ['history', labels.history]];
+  return [
+    ['Conventions', 'CF-1.7'],
+    ['institution', 'none (invented demo data)'],
+    ['title', labels.title],
+    ['source', labels.source],
+    ['history', labels.history],
+  ];
 }
 
 /**
@@ -67,7 +102,16 @@ export function writeNetcdf4Year(path: string, cc: CellClimate, seed: number, ye
   const w = new Netcdf4Writer(path, {
     dims: coordDims(cc, stamps),
     coords: [
-      { kind: 'scalar-int64', name: 'number', value: 0n, attrs: [['long_name', 'ensemble member numerical id'], ['units', '1'], ['standard_name', 'realization']] },
+      {
+        kind: 'scalar-int64',
+        name: 'number',
+        value: 0n,
+        attrs: [
+          ['long_name', 'ensemble member numerical id'],
+          ['units', '1'],
+          ['standard_name', 'realization'],
+        ],
+      },
       { kind: 'strings', name: 'expver', dim: 'valid_time', values: expver, attrs: [['long_name', 'experiment version']] },
     ],
     vars: DEMO_VARIABLES.map((v) => dataVar(cc, v, nHours)),
@@ -99,7 +143,16 @@ export function writeNetcdf4LandSeaMask(path: string, cc: CellClimate, seed: num
   const w = new Netcdf4Writer(path, {
     dims: coordDims(cc, new BigInt64Array([BigInt(INVARIANT_STAMP_MS / 1000)])),
     coords: [
-      { kind: 'scalar-int64', name: 'number', value: 0n, attrs: [['long_name', 'ensemble member numerical id'], ['units', '1'], ['standard_name', 'realization']] },
+      {
+        kind: 'scalar-int64',
+        name: 'number',
+        value: 0n,
+        attrs: [
+          ['long_name', 'ensemble member numerical id'],
+          ['units', '1'],
+          ['standard_name', 'realization'],
+        ],
+      },
       { kind: 'strings', name: 'expver', dim: 'valid_time', values: ['0001'], attrs: [['long_name', 'experiment version']] },
     ],
     vars: [dataVar(cc, 'lsm', 1)],

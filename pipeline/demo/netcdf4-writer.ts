@@ -83,17 +83,21 @@ function putAttrs(target: { create_attribute: H5File['create_attribute'] }, attr
       target.create_attribute(name, value, null, `A${value.length}`);
     } else {
       const data =
-        value.dtype === '<f' ? new Float32Array([value.value])
-        : value.dtype === '<d' ? new Float64Array([value.value])
-        : value.dtype === '<i' ? new Int32Array([value.value])
-        : value.dtype === '<h' ? new Int16Array([value.value])
-        : new BigInt64Array([BigInt(value.value)]);
+        value.dtype === '<f'
+          ? new Float32Array([value.value])
+          : value.dtype === '<d'
+            ? new Float64Array([value.value])
+            : value.dtype === '<i'
+              ? new Int32Array([value.value])
+              : value.dtype === '<h'
+                ? new Int16Array([value.value])
+                : new BigInt64Array([BigInt(value.value)]);
       target.create_attribute(name, data, [], value.dtype);
     }
   }
 }
 
-type H5wasmModule = (typeof import('h5wasm/node'))['default'];
+type H5wasmModule = typeof import('h5wasm/node')['default'];
 let h5wasm: H5wasmModule | undefined;
 
 /**

@@ -99,7 +99,8 @@ export function demoPopulation(): { lat: Float64Array; lon: Float64Array; values
       const cLat = s + size / 2;
       const island = pointInRing(cLon, cLat, OUTLINE);
       // A pixel on the island holds people only if all of it lies over land cells of the default grid.
-      if (island && !(onLand(w + eps, s + eps) && onLand(w + size - eps, s + eps) && onLand(w + eps, s + size - eps) && onLand(w + size - eps, s + size - eps))) continue;
+      if (island && !(onLand(w + eps, s + eps) && onLand(w + size - eps, s + eps) && onLand(w + eps, s + size - eps) && onLand(w + size - eps, s + size - eps)))
+        continue;
       values[y * width + x] = Math.round(density(cLon, cLat) * area * 10) / 10;
     }
   }

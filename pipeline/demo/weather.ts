@@ -285,9 +285,7 @@ export class YearWeather {
 
         // Air temperature [°C].
         const season = cosDoy * this.cosPeak[c] + sinDoy * this.sinPeak[c];
-        let ta =
-          cc.tMean[c] + cc.tSeasonAmp[c] * season + cc.tDiurnalAmp[c] * (1 - 0.5 * cloudDay) * g +
-          (0.7 + 0.7 * f) * aTemp - 1.2 * f * (cloudDay - cm);
+        let ta = cc.tMean[c] + cc.tSeasonAmp[c] * season + cc.tDiurnalAmp[c] * (1 - 0.5 * cloudDay) * g + (0.7 + 0.7 * f) * aTemp - 1.2 * f * (cloudDay - cm);
         if (ta > 42) ta = 42 + 2 * Math.tanh((ta - 42) / 2);
 
         // Dew point [°C]: seasonal moisture, daily surges, sea-breeze moistening on the coast,
@@ -295,8 +293,11 @@ export class YearWeather {
         const seasonTd = cosDoy * this.cosPeakTd[c] + sinDoy * this.sinPeakTd[c];
         const basin = cc.basin[c];
         let td =
-          cc.tdMean[c] + cc.tdSeasonAmp[c] * seasonTd + (1.0 + 2.0 * basin) * aDew +
-          1.0 * f * cc.coastal[c] * (sb > 0 ? sb : 0) - 1.5 * basin * (g > 0 ? g : 0);
+          cc.tdMean[c] +
+          cc.tdSeasonAmp[c] * seasonTd +
+          (1.0 + 2.0 * basin) * aDew +
+          1.0 * f * cc.coastal[c] * (sb > 0 ? sb : 0) -
+          1.5 * basin * (g > 0 ? g : 0);
         if (td > ta - 0.2) td = ta - 0.2;
 
         // Surface pressure [hPa]: sea-level pressure (season, synoptic anomaly, tide) reduced to

@@ -51,7 +51,10 @@ export class CsvParser {
         if (c === 10) continue;
       }
       if (++this.recordChars > MAX_RECORD_CHARS) {
-        this.fail(this.recordLine, `the record that starts on line ${this.recordLine} is longer than ${MAX_RECORD_CHARS} characters${this.state === 2 ? ' (a quote opened in it is never closed)' : ''}`);
+        this.fail(
+          this.recordLine,
+          `the record that starts on line ${this.recordLine} is longer than ${MAX_RECORD_CHARS} characters${this.state === 2 ? ' (a quote opened in it is never closed)' : ''}`,
+        );
       }
       switch (this.state) {
         case 0:

@@ -18,7 +18,11 @@ export class GridPiece {
   readonly values: Float32Array;
   private readonly perField: number;
 
-  constructor(readonly rows: [number, number], readonly nLon: number, readonly nFields: number) {
+  constructor(
+    readonly rows: [number, number],
+    readonly nLon: number,
+    readonly nFields: number,
+  ) {
     this.perField = (rows[1] - rows[0]) * nLon;
     this.values = new Float32Array(nFields * this.perField).fill(NaN);
   }
@@ -45,7 +49,14 @@ export class GridPiece {
  * Field `f` of the whole grid from the tiles' pieces: Float32Array of nLat · nLon, NaN outside
  * the pieces' land cells. `fds` caches open file descriptors by path (close with {@link closePieces}).
  */
-export function readGridField(pieces: readonly GridPieceRef[], f: number, nLat: number, nLon: number, fds: Map<string, number>, out?: Float32Array): Float32Array {
+export function readGridField(
+  pieces: readonly GridPieceRef[],
+  f: number,
+  nLat: number,
+  nLon: number,
+  fds: Map<string, number>,
+  out?: Float32Array,
+): Float32Array {
   const grid = out ?? new Float32Array(nLat * nLon);
   grid.fill(NaN);
   const bytes = Buffer.from(grid.buffer, grid.byteOffset, grid.byteLength);

@@ -51,8 +51,21 @@ const CTORS = { Int32Array, Uint32Array, Float64Array, Int16Array, Uint16Array }
 
 /** The array fields in file order (the histogram last, stored sparse). */
 const FIELDS: ArrayField[] = [
-  'cells', 'coveredHours', 'expectedHours', 'validHours', 'shiftHours', 'aboveAll', 'aboveShift',
-  'lostShift', 'capacityLoss', 'wbgtSum', 'wbgtMax', 'airSum', 'airHours', 'failedHours', 'histogram',
+  'cells',
+  'coveredHours',
+  'expectedHours',
+  'validHours',
+  'shiftHours',
+  'aboveAll',
+  'aboveShift',
+  'lostShift',
+  'capacityLoss',
+  'wbgtSum',
+  'wbgtMax',
+  'airSum',
+  'airHours',
+  'failedHours',
+  'histogram',
 ];
 
 interface FieldEntry {
@@ -108,7 +121,8 @@ export function readPartialHeader(bytes: Uint8Array, file: string): { meta: Part
   if (buf[6] !== PARTIAL_FORMAT) throw PartialFormatUnknown({ file, format: buf[6], expected: PARTIAL_FORMAT });
   const body = buf.subarray(0, buf.length - DIGEST_BYTES);
   const want = buf.subarray(buf.length - DIGEST_BYTES);
-  if (!createHash('sha256').update(body).digest().equals(want)) throw PartialCorrupt({ file, detail: 'checksum mismatch (truncated or changed after it was written)' });
+  if (!createHash('sha256').update(body).digest().equals(want))
+    throw PartialCorrupt({ file, detail: 'checksum mismatch (truncated or changed after it was written)' });
   const hLen = buf.readUInt32LE(MAGIC.length);
   const hStart = MAGIC.length + 4;
   if (hStart + hLen > body.length) throw PartialCorrupt({ file, detail: 'header runs past the end' });
@@ -169,7 +183,8 @@ function decodeSparse(bytes: Uint8Array, file: string): { meta: PartialMeta; par
     slice.set(raw.subarray(off, off + f.bytes));
     off += f.bytes;
     if (f.name === 'histogram') {
-      if (f.length % HIST_LEN !== 0 || (f.bytes & 1) !== 0) throw PartialCorrupt({ file, detail: `histogram of ${f.length} bins is not whole slots of ${HIST_LEN}` });
+      if (f.length % HIST_LEN !== 0 || (f.bytes & 1) !== 0)
+        throw PartialCorrupt({ file, detail: `histogram of ${f.length} bins is not whole slots of ${HIST_LEN}` });
       sparse = new Uint16Array(slice.buffer);
       slots = f.length / HIST_LEN;
       const problem = sparseHistogramProblem(sparse, slots);
@@ -186,7 +201,14 @@ function decodeSparse(bytes: Uint8Array, file: string): { meta: PartialMeta; par
   const { histogram: _, ...fields } = out as unknown as Omit<ShardPartial, 'year' | 'evalKeys' | 'exposures' | 'months'>;
   return {
     meta,
-    partial: { ...fields, sparseHistogram: sparse!, year: meta.year, evalKeys: header.evalKeys, exposures: [...header.exposures], months: [header.months[0], header.months[1]] },
+    partial: {
+      ...fields,
+      sparseHistogram: sparse!,
+      year: meta.year,
+      evalKeys: header.evalKeys,
+      exposures: [...header.exposures],
+      months: [header.months[0], header.months[1]],
+    },
     slots,
   };
 }

@@ -158,7 +158,13 @@ function readPayload(path: string, ref: RegionRecordRef): Buffer {
  * Adds a histogram record's pairs into `acc` (dense pairs, same length as written); with
  * `touched` (one byte per slot), marks each slot the record holds bins of.
  */
-export function readHistogramInto(path: string, ref: RegionRecordRef, acc: Float64Array, add: (a: Float64Array, i: number, b: Float64Array, j: number) => void, touched?: Uint8Array): void {
+export function readHistogramInto(
+  path: string,
+  ref: RegionRecordRef,
+  acc: Float64Array,
+  add: (a: Float64Array, i: number, b: Float64Array, j: number) => void,
+  touched?: Uint8Array,
+): void {
   const p = readPayload(path, ref);
   const slots = (acc.length >> 1) / HIST_LEN;
   let at = 0;

@@ -77,10 +77,7 @@ interface Run<T, R> {
  * so a caller can start them before it knows what they need; tasks wait for the set-up, and a
  * rejected set-up breaks the pool with that reason.
  */
-export function startWorkerPool<T, R>(
-  name: WorkerName,
-  opts: { size: number; init?: unknown; describe?: (task: T) => string },
-): WorkerPool<T, R> {
+export function startWorkerPool<T, R>(name: WorkerName, opts: { size: number; init?: unknown; describe?: (task: T) => string }): WorkerPool<T, R> {
   const size = Math.max(1, Math.floor(opts.size));
   const describe = opts.describe ?? ((_t: T) => `a ${name} task`);
   const workers = Array.from({ length: size }, () => startWorker(name));
@@ -93,7 +90,7 @@ export function startWorkerPool<T, R>(
   let readyWaiters: Array<[() => void, (e: unknown) => void]> = [];
   const flushReady = () => {
     if (broken === undefined && readyCount < size) return;
-    for (const [ok, fail] of readyWaiters) (broken === undefined ? ok() : fail(broken));
+    for (const [ok, fail] of readyWaiters) broken === undefined ? ok() : fail(broken);
     readyWaiters = [];
   };
 
@@ -185,10 +182,11 @@ export function startWorkerPool<T, R>(
 
   return {
     size,
-    ready: () => new Promise<void>((ok, no) => {
-      readyWaiters.push([ok, no]);
-      flushReady();
-    }),
+    ready: () =>
+      new Promise<void>((ok, no) => {
+        readyWaiters.push([ok, no]);
+        flushReady();
+      }),
     async run(tasks, runOpts = {}) {
       if (current) throw new Error(`the ${name} pool is already running`);
       await initPosted;
@@ -197,7 +195,10 @@ export function startWorkerPool<T, R>(
       if (tasks.length === 0) return;
       return new Promise<void>((resolve, reject) => {
         const run: Run<T, R> = {
-          tasks, opts: runOpts, queue: tasks.map((_, i) => i), inFlight: workers.map(() => 0),
+          tasks,
+          opts: runOpts,
+          queue: tasks.map((_, i) => i),
+          inFlight: workers.map(() => 0),
           settle(error) {
             if (current !== run) return;
             current = undefined;

@@ -20,11 +20,7 @@ export interface WorkerFailure {
 }
 
 /** Messages from a worker to the pool. */
-export type FromWorker<R> =
-  | { ready: true }
-  | { id: number; value: R }
-  | { id: number; progress: number }
-  | { id?: number; error: WorkerFailure };
+export type FromWorker<R> = { ready: true } | { id: number; value: R } | { id: number; progress: number } | { id?: number; error: WorkerFailure };
 
 /** What a worker entry does. */
 export interface TaskHandler<I, T, R> {
@@ -37,7 +33,8 @@ export interface TaskHandler<I, T, R> {
 }
 
 function failure(e: unknown): WorkerFailure {
-  if (e instanceof HeathoursError) return { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where, details: e.details };
+  if (e instanceof HeathoursError)
+    return { catalogued: true, code: e.code, title: e.title, message: e.message, hint: e.hint, where: e.where, details: e.details };
   return { catalogued: false, message: (e as Error)?.stack ?? String(e) };
 }
 

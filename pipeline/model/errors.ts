@@ -84,8 +84,7 @@ const registry = new Map<string, ErrorSpec<never>>();
 export function defineError<P>(spec: ErrorSpec<P>): ((p: P, where?: ErrorWhere, details?: string) => HeathoursError) & { code: string } {
   if (registry.has(spec.code)) throw new Error(`error code ${spec.code} is defined twice`);
   registry.set(spec.code, spec as ErrorSpec<never>);
-  const make = (p: P, where: ErrorWhere = {}, details?: string) =>
-    new HeathoursError(spec.code, spec.title, spec.message(p), spec.hint(p), where, details);
+  const make = (p: P, where: ErrorWhere = {}, details?: string) => new HeathoursError(spec.code, spec.title, spec.message(p), spec.hint(p), where, details);
   return Object.assign(make, { code: spec.code });
 }
 

@@ -20,7 +20,11 @@ export function processAlive(pid: number): boolean {
  * Runs `work` holding the lock folder `lockDir`; waits (polling every 200 ms) while another live
  * process holds it, calling `onWait` once. Throws after `timeoutMs`.
  */
-export async function withProcessLock<T>(lockDir: string, work: () => Promise<T>, opts: { timeoutMs?: number; onWait?: (ownerPid: number) => void } = {}): Promise<T> {
+export async function withProcessLock<T>(
+  lockDir: string,
+  work: () => Promise<T>,
+  opts: { timeoutMs?: number; onWait?: (ownerPid: number) => void } = {},
+): Promise<T> {
   const deadline = Date.now() + (opts.timeoutMs ?? 30 * 60_000);
   let told = false;
   for (;;) {

@@ -49,7 +49,9 @@ export function startProgress(label: string, total: number, opts: ProgressOption
     tick(n = 1) {
       value += n;
       if (value / total >= nextReport) {
-        process.stderr.write(`${label}: ${Math.round((100 * value) / total)}% (${show(value)}/${show(total)} ${unit}, ${((Date.now() - t0) / 1000).toFixed(1)} s)\n`);
+        process.stderr.write(
+          `${label}: ${Math.round((100 * value) / total)}% (${show(value)}/${show(total)} ${unit}, ${((Date.now() - t0) / 1000).toFixed(1)} s)\n`,
+        );
         while (value / total >= nextReport) nextReport += 0.1;
       }
     },

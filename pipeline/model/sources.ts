@@ -74,7 +74,8 @@ export const SOURCES: readonly Source[] = [
     year: 2008,
     title: 'Modeling the wet bulb globe temperature using standard meteorological measurements',
     publication: 'Journal of Occupational and Environmental Hygiene 5(10):645–655; reference C code WBGT v1.1 (Argonne National Laboratory)',
-    checked: 'Equations and constants read in the v1.1 reference C code (WBGT v1.1, Argonne); the paper\'s text was not read (its abstract was: outdoor WBGT from standard measurements, within 1 °C of measured WBGT); author list from memory.',
+    checked:
+      "Equations and constants read in the v1.1 reference C code (WBGT v1.1, Argonne); the paper's text was not read (its abstract was: outdoor WBGT from standard measurements, within 1 °C of measured WBGT); author list from memory.",
   },
   {
     id: 'buck1981',
@@ -83,7 +84,8 @@ export const SOURCES: readonly Source[] = [
     year: 1981,
     title: 'New equations for computing vapor pressure and enhancement factor',
     publication: 'Journal of Applied Meteorology 20:1527–1532',
-    checked: 'Coefficients read as used in the Liljegren reference code (esat(), "Buck\'s (1981) approximation (eqn 3)"); checked against the CRC Handbook of Chemistry and Physics (1992–93) table "Vapor pressure of water" within 0.1 % over 0–40 °C.',
+    checked:
+      'Coefficients read as used in the Liljegren reference code (esat(), "Buck\'s (1981) approximation (eqn 3)"); checked against the CRC Handbook of Chemistry and Physics (1992–93) table "Vapor pressure of water" within 0.1 % over 0–40 °C.',
   },
   {
     id: 'bsl1960',
@@ -119,7 +121,8 @@ export const SOURCES: readonly Source[] = [
     year: 1988,
     title: "The Astronomical Almanac's algorithm for approximate solar position (1950–2050)",
     publication: 'Solar Energy 40(3):227–235',
-    checked: 'Formulas as used in the Liljegren reference code (1950–2049); kept for the comparison with the Meeus formulas over those years (cos z within 10⁻⁴).',
+    checked:
+      'Formulas as used in the Liljegren reference code (1950–2049); kept for the comparison with the Meeus formulas over those years (cos z within 10⁻⁴).',
   },
   {
     id: 'meeus1998',
@@ -128,7 +131,8 @@ export const SOURCES: readonly Source[] = [
     year: 1998,
     title: 'Astronomical Algorithms (2nd edition)',
     publication: 'Willmann-Bell, Richmond, Virginia; ch. 12 (sidereal time), ch. 22 (obliquity), ch. 25 (solar coordinates, low accuracy)',
-    checked: 'The formulas and their coefficients are from memory of the book and of NOAA\'s solar calculator, which uses them; checked by their results against the NREL SPA report\'s example and PyEphem 4.1.4 over 1900–2100 (test/physics/sun-position.test.ts).',
+    checked:
+      "The formulas and their coefficients are from memory of the book and of NOAA's solar calculator, which uses them; checked by their results against the NREL SPA report's example and PyEphem 4.1.4 over 1900–2100 (test/physics/sun-position.test.ts).",
   },
   {
     id: 'reda2008',
@@ -137,7 +141,8 @@ export const SOURCES: readonly Source[] = [
     year: 2008,
     title: 'Solar position algorithm for solar radiation applications (revised)',
     publication: 'National Renewable Energy Laboratory, NREL/TP-560-34302 (first published 2004, Solar Energy 76:577–589)',
-    checked: 'The report\'s example values (2003-10-17, Golden, Colorado: declination −9.31434°, right ascension 202.22741°, hour angle 11.10590°, distance 0.9965422974 AU) as reproduced in the test case of an open-source implementation and agreeing with PyEphem 4.1.4; the report itself was not read.',
+    checked:
+      "The report's example values (2003-10-17, Golden, Colorado: declination −9.31434°, right ascension 202.22741°, hour angle 11.10590°, distance 0.9965422974 AU) as reproduced in the test case of an open-source implementation and agreeing with PyEphem 4.1.4; the report itself was not read.",
   },
   {
     id: 'epa2000',
@@ -155,7 +160,8 @@ export const SOURCES: readonly Source[] = [
     year: 2017,
     title: 'Ergonomics of the thermal environment — Assessment of heat stress using the WBGT (wet bulb globe temperature) index',
     publication: 'ISO 7243:2017',
-    checked: 'Scope read in the catalogue abstract (screening over a working day, fit adults). The standard\'s text was not read: the WBGT weighting 0.7·T_nw + 0.2·T_g + 0.1·T_a and the 150 mm standard globe are as Parsons (2006) describes the standard; the continuous limit curves as NIOSH 2016 gives them (secondary).',
+    checked:
+      "Scope read in the catalogue abstract (screening over a working day, fit adults). The standard's text was not read: the WBGT weighting 0.7·T_nw + 0.2·T_g + 0.1·T_a and the 150 mm standard globe are as Parsons (2006) describes the standard; the continuous limit curves as NIOSH 2016 gives them (secondary).",
   },
   {
     id: 'iso7243-1989',
@@ -164,7 +170,8 @@ export const SOURCES: readonly Source[] = [
     year: 1989,
     title: 'Hot environments — Estimation of the heat stress on working man, based on the WBGT-index (wet bulb globe temperature)',
     publication: 'ISO 7243:1989',
-    checked: 'Reference values read in the standard\'s table (classes 0–4, acclimatized and not, with and without air movement) as reproduced in an instrument manual.',
+    checked:
+      "Reference values read in the standard's table (classes 0–4, acclimatized and not, with and without air movement) as reproduced in an instrument manual.",
   },
   {
     id: 'parsons2006',
@@ -173,7 +180,8 @@ export const SOURCES: readonly Source[] = [
     year: 2006,
     title: 'Heat stress standard ISO 7243 and its global application',
     publication: 'Industrial Health 44:368–379',
-    checked: 'Read (abstract and the description of the index): t_g is the temperature of the 150 mm diameter black globe; outdoor WBGT = 0.7·t_nw + 0.2·t_g + 0.1·t_a.',
+    checked:
+      'Read (abstract and the description of the index): t_g is the temperature of the 150 mm diameter black globe; outdoor WBGT = 0.7·t_nw + 0.2·t_g + 0.1·t_a.',
   },
   {
     id: 'osha-otm',
@@ -182,7 +190,8 @@ export const SOURCES: readonly Source[] = [
     year: null,
     title: 'OSHA Technical Manual, Section III, Chapter 4: Heat Stress',
     publication: 'TED 01-00-015',
-    checked: 'The WBGT instrument text read in a reproduction: a globe thermometer of a 15 cm (6-inch) hollow copper sphere painted matte black, exposed at least 25 minutes before reading.',
+    checked:
+      'The WBGT instrument text read in a reproduction: a globe thermometer of a 15 cm (6-inch) hollow copper sphere painted matte black, exposed at least 25 minutes before reading.',
   },
   {
     id: 'oliveira2019',
@@ -201,7 +210,8 @@ export const SOURCES: readonly Source[] = [
     year: 2012,
     title: 'Calculating workplace WBGT from meteorological data: a tool for climate change assessment',
     publication: 'Industrial Health 50:267–278',
-    checked: 'Abstract read (Liljegren et al. 2008 recommended outdoors, Bernard et al. 1999 indoors); that their indoor/shade WBGT takes the globe at the air temperature (no radiant source) is from memory of the paper and of public code citing it.',
+    checked:
+      'Abstract read (Liljegren et al. 2008 recommended outdoors, Bernard et al. 1999 indoors); that their indoor/shade WBGT takes the globe at the air temperature (no radiant source) is from memory of the paper and of public code citing it.',
   },
   {
     id: 'iso8996',
@@ -219,7 +229,8 @@ export const SOURCES: readonly Source[] = [
     year: 2016,
     title: 'Criteria for a Recommended Standard: Occupational Exposure to Heat and Hot Environments',
     publication: 'DHHS (NIOSH) Publication No. 2016-106',
-    checked: 'Title, authors (Jacklitsch, Williams, Musolin, Coca, Kim, Turner), publication number and date read in the NIOSHTIC-2 record; that NIOSH and ACGIH criteria are the same, read in a NIOSH health hazard evaluation report. The REL and RAL curves were read in public code and in code comments citing §8.1, not in the document itself.',
+    checked:
+      'Title, authors (Jacklitsch, Williams, Musolin, Coca, Kim, Turner), publication number and date read in the NIOSHTIC-2 record; that NIOSH and ACGIH criteria are the same, read in a NIOSH health hazard evaluation report. The REL and RAL curves were read in public code and in code comments citing §8.1, not in the document itself.',
   },
   {
     id: 'acgih-tlv',
@@ -228,7 +239,8 @@ export const SOURCES: readonly Source[] = [
     year: null,
     title: 'Heat Stress and Strain: TLV® documentation (clothing adjustment values)',
     publication: 'ACGIH, Cincinnati',
-    checked: 'List of ensembles read in a reproduction; that cotton work uniforms need no clothing adjustment, read in a NIOSH health hazard evaluation citing ACGIH 2014; the other ACGIH values are from memory, as listed on the methods page.',
+    checked:
+      'List of ensembles read in a reproduction; that cotton work uniforms need no clothing adjustment, read in a NIOSH health hazard evaluation citing ACGIH 2014; the other ACGIH values are from memory, as listed on the methods page.',
   },
   {
     id: 'bernard2008',
@@ -238,7 +250,8 @@ export const SOURCES: readonly Source[] = [
     title: 'WBGT clothing adjustment factors for four clothing ensembles and the effects of metabolic demands',
     publication: 'Journal of Occupational and Environmental Hygiene 5(1):1–5',
     doi: '10.1080/15459620701732355',
-    checked: 'Title, pages, DOI and the abstract read at the publisher: factors measured against a baseline of cotton work clothes, 0 for cotton coveralls, 1.0 for Tyvek 1422A, 2.5 for NexGen, 7.5 measured for Tychem QC with the recommendation kept at 10, independent of metabolic rate. Author list from memory.',
+    checked:
+      'Title, pages, DOI and the abstract read at the publisher: factors measured against a baseline of cotton work clothes, 0 for cotton coveralls, 1.0 for Tyvek 1422A, 2.5 for NexGen, 7.5 measured for Tychem QC with the recommendation kept at 10, independent of metabolic rate. Author list from memory.',
   },
   {
     id: 'kjellstrom2018',
@@ -267,7 +280,8 @@ export const SOURCES: readonly Source[] = [
     year: 2013,
     title: 'Reductions in labour capacity from heat stress under climate warming',
     publication: 'Nature Climate Change 3:563–566',
-    checked: 'Formula read in a public library\'s source and docstring; the paper was not read (its basis in NIOSH and military work–rest guidance for heavy work is from memory); title from memory.',
+    checked:
+      "Formula read in a public library's source and docstring; the paper was not read (its basis in NIOSH and military work–rest guidance for heavy work is from memory); title from memory.",
   },
   {
     id: 'hyndman1996',
@@ -292,10 +306,11 @@ export const SOURCES: readonly Source[] = [
     cite: 'Sen 1968',
     authors: 'Sen, P. K.',
     year: 1968,
-    title: 'Estimates of the regression coefficient based on Kendall\'s tau',
+    title: "Estimates of the regression coefficient based on Kendall's tau",
     publication: 'Journal of the American Statistical Association 63(324):1379–1389',
     doi: '10.1080/01621459.1968.10480934',
-    checked: 'The estimator (median of the pairwise slopes) as SciPy\'s theilslopes documentation describes and cites it; the paper was not read; volume, pages and DOI from memory.',
+    checked:
+      "The estimator (median of the pairwise slopes) as SciPy's theilslopes documentation describes and cites it; the paper was not read; volume, pages and DOI from memory.",
   },
   {
     id: 'mann1945',
@@ -305,7 +320,8 @@ export const SOURCES: readonly Source[] = [
     title: 'Nonparametric tests against trend',
     publication: 'Econometrica 13(3):245–259',
     doi: '10.2307/1907187',
-    checked: 'The test statistic S and its normal approximation from memory, checked against SciPy\'s kendalltau (the same test with time as the second variable); the paper was not read; volume, pages and DOI from memory.',
+    checked:
+      "The test statistic S and its normal approximation from memory, checked against SciPy's kendalltau (the same test with time as the second variable); the paper was not read; volume, pages and DOI from memory.",
   },
   {
     id: 'kendall1975',
@@ -314,7 +330,8 @@ export const SOURCES: readonly Source[] = [
     year: 1975,
     title: 'Rank Correlation Methods',
     publication: 'Charles Griffin, London, 4th edition',
-    checked: 'The variance of S with the correction for tied values from memory, checked against SciPy\'s kendalltau; the book was not read; edition and publisher from memory.',
+    checked:
+      "The variance of S with the correction for tied values from memory, checked against SciPy's kendalltau; the book was not read; edition and publisher from memory.",
   },
   {
     id: 'xu2020',
@@ -391,16 +408,52 @@ export interface UnverifiedItem {
  * clothing values from memory are added there from pipeline/work/clothing.ts).
  */
 export const UNVERIFIED: readonly UnverifiedItem[] = [
-  { what: 'WBGT weights 0.7 / 0.2 / 0.1 and the standard globe of ISO 7243', source: 'iso7243-2017', status: 'read in Parsons (2006), which describes the standard; the standard\'s text was not read' },
-  { what: 'Screening limit curves L(M) = 56.7 − 11.5·log₁₀ M (acclimatized) and 59.9 − 14.1·log₁₀ M (unacclimatized)', source: 'niosh2016', status: 'read in public code and in code comments citing the criteria document; not read in the document' },
-  { what: 'Capacity-loss means and standard deviations per work intensity', source: 'kjellstrom2018', status: 'read in two independent public research codes; the paper was not read' },
-  { what: 'Capacity loss for heavy work, 100 − 25·(WBGT − 25)^(2/3) %, and its basis', source: 'dunne2013', status: 'formula read in a public library; the paper was not read' },
-  { what: 'The indoor/in-shade WBGT takes the globe at the air temperature (the sheltered exposure\'s assumption)', source: 'lemke2012', status: 'abstract read; the assumption is from memory of the paper and of public code citing it' },
-  { what: 'Coefficients of the low-accuracy solar coordinates', source: 'meeus1998', status: 'from memory; their results agree with the NREL SPA example and with PyEphem over 1900–2100 (tested)' },
-  { what: 'Typical metabolic rates per ISO class and the task examples of the workload classes', source: 'iso8996', status: 'class boundaries read via ISO 7243:1989; typical values and examples from memory' },
-  { what: 'Variance of the Mann–Kendall statistic with tied values', source: 'kendall1975', status: 'from memory; agrees with SciPy\'s kendalltau on tied series (tested)' },
+  {
+    what: 'WBGT weights 0.7 / 0.2 / 0.1 and the standard globe of ISO 7243',
+    source: 'iso7243-2017',
+    status: "read in Parsons (2006), which describes the standard; the standard's text was not read",
+  },
+  {
+    what: 'Screening limit curves L(M) = 56.7 − 11.5·log₁₀ M (acclimatized) and 59.9 − 14.1·log₁₀ M (unacclimatized)',
+    source: 'niosh2016',
+    status: 'read in public code and in code comments citing the criteria document; not read in the document',
+  },
+  {
+    what: 'Capacity-loss means and standard deviations per work intensity',
+    source: 'kjellstrom2018',
+    status: 'read in two independent public research codes; the paper was not read',
+  },
+  {
+    what: 'Capacity loss for heavy work, 100 − 25·(WBGT − 25)^(2/3) %, and its basis',
+    source: 'dunne2013',
+    status: 'formula read in a public library; the paper was not read',
+  },
+  {
+    what: "The indoor/in-shade WBGT takes the globe at the air temperature (the sheltered exposure's assumption)",
+    source: 'lemke2012',
+    status: 'abstract read; the assumption is from memory of the paper and of public code citing it',
+  },
+  {
+    what: 'Coefficients of the low-accuracy solar coordinates',
+    source: 'meeus1998',
+    status: 'from memory; their results agree with the NREL SPA example and with PyEphem over 1900–2100 (tested)',
+  },
+  {
+    what: 'Typical metabolic rates per ISO class and the task examples of the workload classes',
+    source: 'iso8996',
+    status: 'class boundaries read via ISO 7243:1989; typical values and examples from memory',
+  },
+  {
+    what: 'Variance of the Mann–Kendall statistic with tied values',
+    source: 'kendall1975',
+    status: "from memory; agrees with SciPy's kendalltau on tied series (tested)",
+  },
   { what: 'Completeness rules for normals (≤ 10 missing days a month, ≥ 80 % of the years)', source: 'wmo1203', status: 'from memory' },
-  { what: 'Stability-class power-law exponents of the 2 m wind', source: 'epa2000', status: 'as coded in the Liljegren reference code; the guidance document was not read' },
+  {
+    what: 'Stability-class power-law exponents of the 2 m wind',
+    source: 'epa2000',
+    status: 'as coded in the Liljegren reference code; the guidance document was not read',
+  },
 ];
 
 /** The source with this id (every id of {@link SOURCE_IDS} has one; a test checks it). */

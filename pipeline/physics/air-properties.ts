@@ -4,9 +4,7 @@
  * forms: the solver (`liljegren-solve.ts`) inlines the same formulas with hoisted terms, and the
  * tests pin the two against each other. Temperatures [K], pressure [hPa].
  */
-import {
-  CP_AIR, R_AIR, M_AIR, M_H2O, PRANDTL, SIGMA_LJ_AIR, EPS_K_AIR, MIN_SPEED, KELVIN,
-} from './constants.ts';
+import { CP_AIR, R_AIR, M_AIR, M_H2O, PRANDTL, SIGMA_LJ_AIR, EPS_K_AIR, MIN_SPEED, KELVIN } from './constants.ts';
 import { saturationVaporPressureModel } from './humidity.ts';
 
 /** Air density [kg m⁻³]: `ρ = 100·P/(R_air·T)` (docs/methods.md §6.3). @param tK [K]; @param p [hPa] */
@@ -36,8 +34,9 @@ export function airThermalConductivity(tK: number): number {
 export function vaporDiffusivity(tK: number, p: number): number {
   const tcrit = 132 * 647.3;
   return (
-    3.64e-4 * Math.pow(tK / Math.sqrt(tcrit), 2.334) * Math.pow(36.4 * 218, 1 / 3) * Math.pow(tcrit, 5 / 12) *
-    Math.sqrt(1 / M_AIR + 1 / M_H2O) / (p / 1013.25) * 1e-4
+    ((3.64e-4 * Math.pow(tK / Math.sqrt(tcrit), 2.334) * Math.pow(36.4 * 218, 1 / 3) * Math.pow(tcrit, 5 / 12) * Math.sqrt(1 / M_AIR + 1 / M_H2O)) /
+      (p / 1013.25)) *
+    1e-4
   );
 }
 

@@ -10,8 +10,11 @@
  */
 export function wetBulbStull2011(t: number, rh: number): number {
   return (
-    t * Math.atan(0.151977 * Math.sqrt(rh + 8.313659)) + Math.atan(t + rh) - Math.atan(rh - 1.676331) +
-    0.00391838 * Math.pow(rh, 1.5) * Math.atan(0.023101 * rh) - 4.686035
+    t * Math.atan(0.151977 * Math.sqrt(rh + 8.313659)) +
+    Math.atan(t + rh) -
+    Math.atan(rh - 1.676331) +
+    0.00391838 * Math.pow(rh, 1.5) * Math.atan(0.023101 * rh) -
+    4.686035
   );
 }
 
@@ -56,7 +59,10 @@ export function naturalWetBulbBernard(t: number, tpwb: number, tg: number, v: nu
 export function wbgtIndoorLemkeKjellstrom(t: number, td: number): { tpwb: number; wbgt: number } {
   const es = (x: number) => 6.106 * Math.exp((17.27 * x) / (237.3 + x));
   const ed = es(td);
-  const f = (tw: number) => { const ew = es(tw); return 1556 * ed - 1.484 * ed * tw - 1556 * ew + 1.484 * ew * tw + 1010 * (t - tw); };
+  const f = (tw: number) => {
+    const ew = es(tw);
+    return 1556 * ed - 1.484 * ed * tw - 1556 * ew + 1.484 * ew * tw + 1010 * (t - tw);
+  };
   let lo = Math.min(td, t) - 1;
   let hi = t + 1;
   for (let k = 0; k < 80; k++) {

@@ -82,27 +82,37 @@ export function computeHours(a: PhysicsArrays, t0: number, t1: number, opts: Phy
   const solar = sub(a.solar, i0, i1);
   const g = geometryBlock(
     {
-      time: a.time.subarray(t0, t1), lat: a.lat, lon: a.lon, periodMinutes: opts.periodMinutes ?? 60,
-      solarGlobal: sub(a.solarGlobal, i0, i1), solarDirect: a.solarDirect ? sub(a.solarDirect, i0, i1) : undefined,
+      time: a.time.subarray(t0, t1),
+      lat: a.lat,
+      lon: a.lon,
+      periodMinutes: opts.periodMinutes ?? 60,
+      solarGlobal: sub(a.solarGlobal, i0, i1),
+      solarDirect: a.solarDirect ? sub(a.solarDirect, i0, i1) : undefined,
       convention: opts.convention,
     },
     { cosZenith, directFraction: sub(a.directFraction, i0, i1), solar, status },
   );
   const wind2m = sub(a.wind2m, i0, i1);
-  wind2mStep(
-    { windSpeed: sub(a.windSpeed, i0, i1), cosZenith, solar, height: opts.windHeight ?? 10, urban: a.urban ?? false },
-    wind2m, i1 - i0, nCells,
-  );
+  wind2mStep({ windSpeed: sub(a.windSpeed, i0, i1), cosZenith, solar, height: opts.windHeight ?? 10, urban: a.urban ?? false }, wind2m, i1 - i0, nCells);
   const k = wbgtKernel(
     {
-      airTemperature: sub(a.airTemperature, i0, i1), dewPointTemperature: sub(a.dewPointTemperature, i0, i1),
-      surfacePressure: sub(a.surfacePressure, i0, i1), wind2m, solar, cosZenith, directFraction: sub(a.directFraction, i0, i1),
+      airTemperature: sub(a.airTemperature, i0, i1),
+      dewPointTemperature: sub(a.dewPointTemperature, i0, i1),
+      surfacePressure: sub(a.surfacePressure, i0, i1),
+      wind2m,
+      solar,
+      cosZenith,
+      directFraction: sub(a.directFraction, i0, i1),
     },
     {
-      wbgtSun: sub(a.wbgtSun, i0, i1), wbgtShade: sub(a.wbgtShade, i0, i1),
-      globeSun: a.globeSun && sub(a.globeSun, i0, i1), wetBulbSun: a.wetBulbSun && sub(a.wetBulbSun, i0, i1),
-      globeShade: a.globeShade && sub(a.globeShade, i0, i1), wetBulbShade: a.wetBulbShade && sub(a.wetBulbShade, i0, i1),
-      wbgtShelter: a.wbgtShelter && sub(a.wbgtShelter, i0, i1), globeShelter: a.globeShelter && sub(a.globeShelter, i0, i1),
+      wbgtSun: sub(a.wbgtSun, i0, i1),
+      wbgtShade: sub(a.wbgtShade, i0, i1),
+      globeSun: a.globeSun && sub(a.globeSun, i0, i1),
+      wetBulbSun: a.wetBulbSun && sub(a.wetBulbSun, i0, i1),
+      globeShade: a.globeShade && sub(a.globeShade, i0, i1),
+      wetBulbShade: a.wetBulbShade && sub(a.wetBulbShade, i0, i1),
+      wbgtShelter: a.wbgtShelter && sub(a.wbgtShelter, i0, i1),
+      globeShelter: a.globeShelter && sub(a.globeShelter, i0, i1),
       wetBulbShelter: a.wetBulbShelter && sub(a.wetBulbShelter, i0, i1),
       status,
     },
@@ -142,16 +152,35 @@ export function computeHourlyBlock(block: HourlyBlock, opts: PhysicsOptions = {}
   const n = block.time.length * block.lat.length * block.lon.length;
   const mk = () => new Float32Array(n);
   const out = {
-    cosZenith: mk(), directFraction: mk(), solar: mk(), wind2m: mk(), wbgtSun: mk(), wbgtShade: mk(),
-    globeSun: mk(), wetBulbSun: mk(), globeShade: mk(), wetBulbShade: mk(), status: new Uint8Array(n),
+    cosZenith: mk(),
+    directFraction: mk(),
+    solar: mk(),
+    wind2m: mk(),
+    wbgtSun: mk(),
+    wbgtShade: mk(),
+    globeSun: mk(),
+    wetBulbSun: mk(),
+    globeShade: mk(),
+    wetBulbShade: mk(),
+    status: new Uint8Array(n),
   };
   const counts = computeHours(
     {
-      time: block.time, lat: block.lat, lon: block.lon, airTemperature: f.airTemperature!, dewPointTemperature: f.dewPointTemperature!,
-      surfacePressure: f.surfacePressure!, windSpeed: f.windSpeed10m!, solarGlobal: f.solarGlobal!, solarDirect: f.solarDirect, urban,
+      time: block.time,
+      lat: block.lat,
+      lon: block.lon,
+      airTemperature: f.airTemperature!,
+      dewPointTemperature: f.dewPointTemperature!,
+      surfacePressure: f.surfacePressure!,
+      windSpeed: f.windSpeed10m!,
+      solarGlobal: f.solarGlobal!,
+      solarDirect: f.solarDirect,
+      urban,
       ...out,
     },
-    0, block.time.length, { windHeight: 10, ...opts },
+    0,
+    block.time.length,
+    { windHeight: 10, ...opts },
   );
   return { ...out, counts };
 }

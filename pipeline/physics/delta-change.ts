@@ -131,7 +131,15 @@ export interface MonthlyChanges {
  * @param change the changes; cell k of the arrays is cell `offset + k` of `change`
  * @param counts clamps are added here
  */
-export function applyMonthlyChange(f: ChangeFields, nCells: number, nHours: number, month: ArrayLike<number>, change: MonthlyChanges, offset: number, counts: ChangeCounts): void {
+export function applyMonthlyChange(
+  f: ChangeFields,
+  nCells: number,
+  nHours: number,
+  month: ArrayLike<number>,
+  change: MonthlyChanges,
+  offset: number,
+  counts: ChangeCounts,
+): void {
   const { airTemperature: air, dewPointTemperature: dew, surfacePressure: sp, solarGlobal: sg, solarDirect: sd } = f;
   const nc = change.nCells;
   const dT = change.temperature;

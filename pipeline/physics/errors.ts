@@ -29,7 +29,8 @@ export const PointBadValue = defineError<{ column: string; value: string; expect
   code: 'PointBadValue',
   title: 'A cell of the point CSV is not a number',
   message: (p) => `${p.column} is "${p.value.length > 60 ? `${p.value.slice(0, 60)}…` : p.value}"; expected ${p.expected}`,
-  hint: () => 'write numbers with a decimal point and no thousands separators (1013.25, -3.5, 1.2e3); leave a missing value empty (NA and NaN are read as missing too)',
+  hint: () =>
+    'write numbers with a decimal point and no thousands separators (1013.25, -3.5, 1.2e3); leave a missing value empty (NA and NaN are read as missing too)',
 });
 
 export const PointBadTime = defineError<{ value: string; detail: string }>({

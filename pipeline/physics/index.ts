@@ -7,7 +7,18 @@ export * from './solar-inputs.ts';
 export * from './geometry.ts';
 export * from './wind.ts';
 export * from './air-properties.ts';
-export { CellState, prepareCell, solveCell, psychrometricWetBulb, setGlobe, globeFactors, GLOBE_DIAMETER_RANGE, ROOT_TOLERANCE_K, MAX_ITERATIONS, type GlobeFactors } from './liljegren-solve.ts';
+export {
+  CellState,
+  prepareCell,
+  solveCell,
+  psychrometricWetBulb,
+  setGlobe,
+  globeFactors,
+  GLOBE_DIAMETER_RANGE,
+  ROOT_TOLERANCE_K,
+  MAX_ITERATIONS,
+  type GlobeFactors,
+} from './liljegren-solve.ts';
 export * from './kernel.ts';
 export * from './block.ts';
 export * from './delta-change.ts';

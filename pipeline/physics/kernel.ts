@@ -9,11 +9,33 @@
  * Dew points above the air temperature are clamped to it and counted.
  */
 import {
-  CellState, prepareCell, psychrometricWetBulb, ROOT_TOLERANCE_K, MAX_ITERATIONS,
-  CW0, QG_K, INV_PI, EW_SB, CAP, globeFactors, type GlobeFactors,
+  CellState,
+  prepareCell,
+  psychrometricWetBulb,
+  ROOT_TOLERANCE_K,
+  MAX_ITERATIONS,
+  CW0,
+  QG_K,
+  INV_PI,
+  EW_SB,
+  CAP,
+  globeFactors,
+  type GlobeFactors,
 } from './liljegren-solve.ts';
 import {
-  ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, POW12_TABLE, TABLE_T_MIN, TABLE_STEP, TABLE_N, Y_STEP, Y_N, exact, exact2, BUCK_T_OFFSET_K,
+  ES_TABLE,
+  ZV_TABLE,
+  GLOBE_TABLE,
+  DEW_TABLE,
+  POW12_TABLE,
+  TABLE_T_MIN,
+  TABLE_STEP,
+  TABLE_N,
+  Y_STEP,
+  Y_N,
+  exact,
+  exact2,
+  BUCK_T_OFFSET_K,
 } from './property-tables.ts';
 import { INPUT_LIMITS, STATUS } from './status.ts';
 import { wasmKernel, wasmKernelRange, type WasmInputs } from './wbgt-wasm.ts';
@@ -81,21 +103,38 @@ export interface KernelCounts {
    * `solved` for the mean per cell-hour. Sun solves are skipped (0 iterations) where the solar
    * load is zero, since sun then equals shade.
    */
-  iterations: { globeSun: number; wetBulbSun: number; globeShade: number; wetBulbShade: number; globeShelter: number; wetBulbShelter: number; psychrometric: number };
+  iterations: {
+    globeSun: number;
+    wetBulbSun: number;
+    globeShade: number;
+    wetBulbShade: number;
+    globeShelter: number;
+    wetBulbShelter: number;
+    psychrometric: number;
+  };
   solved: number;
 }
 
 export function emptyCounts(): KernelCounts {
   return {
-    cells: 0, ok: 0, rejected: 0, notConverged: 0, dewPointClamped: 0, solved: 0,
+    cells: 0,
+    ok: 0,
+    rejected: 0,
+    notConverged: 0,
+    dewPointClamped: 0,
+    solved: 0,
     iterations: { globeSun: 0, wetBulbSun: 0, globeShade: 0, wetBulbShade: 0, globeShelter: 0, wetBulbShelter: 0, psychrometric: 0 },
   };
 }
 
 /** Adds `b` into `a` (for merging worker counts). */
 export function addCounts(a: KernelCounts, b: KernelCounts): KernelCounts {
-  a.cells += b.cells; a.ok += b.ok; a.rejected += b.rejected; a.notConverged += b.notConverged;
-  a.dewPointClamped += b.dewPointClamped; a.solved += b.solved;
+  a.cells += b.cells;
+  a.ok += b.ok;
+  a.rejected += b.rejected;
+  a.notConverged += b.notConverged;
+  a.dewPointClamped += b.dewPointClamped;
+  a.solved += b.solved;
   for (const k of Object.keys(a.iterations) as (keyof KernelCounts['iterations'])[]) a.iterations[k] += b.iterations[k];
   return a;
 }
@@ -156,8 +195,18 @@ const XS = new Float64Array(4);
  * @param globe globe diameter factors ({@link globeFactors}); default the reference 2-inch globe
  * @param choice the implementation ({@link KernelChoice}); default `auto`
  */
-export function wbgtKernel(inputs: WbgtInputs, outputs: WbgtOutputs, end: number, start = 0, globe: GlobeFactors = REFERENCE_GLOBE, choice: KernelChoice = 'auto'): KernelCounts {
-  const wasm = choice === 'auto' && end - start >= WASM_MIN_CELLS && outputs.wbgtShelter === undefined && outputs.psychrometric === undefined && typedInputs(inputs) ? wasmKernel() : null;
+export function wbgtKernel(
+  inputs: WbgtInputs,
+  outputs: WbgtOutputs,
+  end: number,
+  start = 0,
+  globe: GlobeFactors = REFERENCE_GLOBE,
+  choice: KernelChoice = 'auto',
+): KernelCounts {
+  const wasm =
+    choice === 'auto' && end - start >= WASM_MIN_CELLS && outputs.wbgtShelter === undefined && outputs.psychrometric === undefined && typedInputs(inputs)
+      ? wasmKernel()
+      : null;
   if (wasm === null) return wbgtKernelJs(inputs, outputs, end, start, globe);
   const counts = emptyCounts();
   // The cells the module hands back go through the JavaScript kernel, one at a time.
@@ -232,8 +281,24 @@ export function wbgtKernelJs(inputs: WbgtInputs, outputs: WbgtOutputs, end: numb
     const cz = CZ[i];
     const fd = FD[i];
     // One combined range test (NaN fails it); the reason is looked up only for a bad cell.
-    if (code !== 0 || !(ta >= TA_MIN && ta <= TA_MAX && td >= TD_MIN && p >= P_MIN && p <= P_MAX && u >= U_MIN && u <= U_MAX &&
-      sol >= S_MIN && sol <= S_MAX && cz >= -1 && cz <= 1 && fd >= 0 && fd <= 1)) {
+    if (
+      code !== 0 ||
+      !(
+        ta >= TA_MIN &&
+        ta <= TA_MAX &&
+        td >= TD_MIN &&
+        p >= P_MIN &&
+        p <= P_MAX &&
+        u >= U_MIN &&
+        u <= U_MAX &&
+        sol >= S_MIN &&
+        sol <= S_MAX &&
+        cz >= -1 &&
+        cz <= 1 &&
+        fd >= 0 &&
+        fd <= 1
+      )
+    ) {
       if (code === 0) code = checkInputs(ta, td, p, u, sol, cz, fd);
       status[i] = code;
       rejected++;
@@ -356,7 +421,7 @@ export function wbgtKernelJs(inputs: WbgtInputs, outputs: WbgtOutputs, end: numb
       let x = taK + (disc0 > 0 ? (-2 * f0) / (fp0 + Math.sqrt(disc0)) : -f0 / fp0);
       let c = lrad;
       // Passes: 0 shade, 1 sun (only with a solar load), 2 shelter (only when asked).
-      for (let pass = 0; ;) {
+      for (let pass = 0; ; ) {
         let lo = -Infinity;
         let hi = Infinity;
         let root = NaN;
@@ -532,7 +597,7 @@ export function wbgtKernelJs(inputs: WbgtInputs, outputs: WbgtOutputs, end: numb
       let curv3 = 0;
       let shadeRoot = NaN;
       // Passes: 0 shade, 1 sun (only with a solar load), 2 shelter (only when asked).
-      for (let pass = 0; ;) {
+      for (let pass = 0; ; ) {
         let lo = -Infinity;
         let hi = Infinity;
         let root = NaN;

@@ -29,9 +29,25 @@
  */
 import { ES_TABLE, ZV_TABLE, GLOBE_TABLE, DEW_TABLE, lookup, lookup2, exact2, exact, pow12, BUCK_T_OFFSET_K } from './property-tables.ts';
 import {
-  STEFAN_BOLTZMANN as SB, CP_AIR, R_AIR, M_AIR, PRANDTL, EMIS_WICK, ALB_WICK, D_WICK, L_WICK,
-  EMIS_GLOBE, ALB_GLOBE, D_GLOBE, EMIS_SFC, ALB_SFC, MIN_SPEED, KELVIN,
-  SIGMA_LJ_AIR, CZA_MIN, EMIS_SHELTER,
+  STEFAN_BOLTZMANN as SB,
+  CP_AIR,
+  R_AIR,
+  M_AIR,
+  PRANDTL,
+  EMIS_WICK,
+  ALB_WICK,
+  D_WICK,
+  L_WICK,
+  EMIS_GLOBE,
+  ALB_GLOBE,
+  D_GLOBE,
+  EMIS_SFC,
+  ALB_SFC,
+  MIN_SPEED,
+  KELVIN,
+  SIGMA_LJ_AIR,
+  CZA_MIN,
+  EMIS_SHELTER,
 } from './constants.ts';
 
 /** Newton stops when a step is smaller than this [K] (remaining error ~2e−7 K, see above). */
@@ -423,7 +439,10 @@ export function wetBulbRoot(s: CellState, radiative: boolean, exposure: Exposure
   let hi = Infinity;
   for (let it = 1; it <= MAX_ITERATIONS; it++) {
     const t = 0.5 * (x + ta);
-    if (!lookup(ES_TABLE, x, L, 0)) { L[0] = exact.es(x); L[1] = exact.esDeriv(x); }
+    if (!lookup(ES_TABLE, x, L, 0)) {
+      L[0] = exact.es(x);
+      L[1] = exact.esDeriv(x);
+    }
     if (!lookup2(ZV_TABLE, t, L, 2)) exact2(ZV_TABLE, t, L, 2);
     const ew = L[0];
     const den = p - ew;

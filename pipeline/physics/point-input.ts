@@ -74,10 +74,18 @@ export function pointInputFromCells(cell: RowCells, at: CellPlace): PointInput {
   return {
     timeMs: parseUtcStamp(cell('time_utc'), at),
     avgMinutes: num('avg_minutes', 60),
-    lat: num('lat', NaN), lon: num('lon', NaN), ta: num('ta_c', NaN),
-    rh: num('rh_pct', NaN), td: num('td_c', NaN), pressure: num('pressure_hpa', NaN),
-    wind: num('wind_ms', NaN), windHeight: num('wind_height_m', 10), urban: flag('urban'),
-    dt: num('dt_c', 0), solar: num('solar_wm2', NaN),
-    directFraction: num('direct_fraction', NaN), cosZenith: num('cos_zenith', NaN),
+    lat: num('lat', NaN),
+    lon: num('lon', NaN),
+    ta: num('ta_c', NaN),
+    rh: num('rh_pct', NaN),
+    td: num('td_c', NaN),
+    pressure: num('pressure_hpa', NaN),
+    wind: num('wind_ms', NaN),
+    windHeight: num('wind_height_m', 10),
+    urban: flag('urban'),
+    dt: num('dt_c', 0),
+    solar: num('solar_wm2', NaN),
+    directFraction: num('direct_fraction', NaN),
+    cosZenith: num('cos_zenith', NaN),
   };
 }

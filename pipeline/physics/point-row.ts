@@ -68,15 +68,39 @@ export interface PointOutput {
 const one = () => new Float64Array(1);
 const I = { ta: one(), td: one(), p: one(), u: one(), s: one(), cz: one(), f: one() };
 const O = {
-  sun: one(), shade: one(), shelter: one(), tg: one(), tw: one(), tgShade: one(), twShade: one(), tgShelter: one(), twShelter: one(), psy: one(),
+  sun: one(),
+  shade: one(),
+  shelter: one(),
+  tg: one(),
+  tw: one(),
+  tgShade: one(),
+  twShade: one(),
+  tgShelter: one(),
+  twShelter: one(),
+  psy: one(),
   status: new Uint8Array(1),
 };
 
 function fail(status: number, partial: Partial<PointOutput> = {}): PointOutput {
   return {
-    status, cosZenith: NaN, directFraction: NaN, solarUsed: NaN, wind2m: NaN, stabilityClass: 0,
-    tg: NaN, tnwb: NaN, tpsy: NaN, wbgt: NaN, tgShade: NaN, tnwbShade: NaN, wbgtShade: NaN, tgShelter: NaN, tnwbShelter: NaN, wbgtShelter: NaN,
-    dewPointClamped: false, ...partial,
+    status,
+    cosZenith: NaN,
+    directFraction: NaN,
+    solarUsed: NaN,
+    wind2m: NaN,
+    stabilityClass: 0,
+    tg: NaN,
+    tnwb: NaN,
+    tpsy: NaN,
+    wbgt: NaN,
+    tgShade: NaN,
+    tnwbShade: NaN,
+    wbgtShade: NaN,
+    tgShelter: NaN,
+    tnwbShelter: NaN,
+    wbgtShelter: NaN,
+    dewPointClamped: false,
+    ...partial,
   };
 }
 
@@ -107,13 +131,28 @@ export function computePoint(r: PointInput, globe: GlobeFactors = REFERENCE_GLOB
   const su = solarUsed(r.solar, cz, sunState(mid).distanceAu, givenF ? r.directFraction : undefined);
   const cls = stabilityClass(cz > 0, r.wind, su.solar, r.dt);
   const u2 = windAt2m(r.wind, r.windHeight, cls, r.urban);
-  I.ta[0] = r.ta; I.td[0] = td; I.p[0] = r.pressure; I.u[0] = u2; I.s[0] = su.solar; I.cz[0] = cz; I.f[0] = su.directFraction;
+  I.ta[0] = r.ta;
+  I.td[0] = td;
+  I.p[0] = r.pressure;
+  I.u[0] = u2;
+  I.s[0] = su.solar;
+  I.cz[0] = cz;
+  I.f[0] = su.directFraction;
   O.status[0] = 0;
   const counts = wbgtKernel(
     { airTemperature: I.ta, dewPointTemperature: I.td, surfacePressure: I.p, wind2m: I.u, solar: I.s, cosZenith: I.cz, directFraction: I.f },
     {
-      wbgtSun: O.sun, wbgtShade: O.shade, globeSun: O.tg, wetBulbSun: O.tw, globeShade: O.tgShade, wetBulbShade: O.twShade,
-      wbgtShelter: O.shelter, globeShelter: O.tgShelter, wetBulbShelter: O.twShelter, psychrometric: O.psy, status: O.status,
+      wbgtSun: O.sun,
+      wbgtShade: O.shade,
+      globeSun: O.tg,
+      wetBulbSun: O.tw,
+      globeShade: O.tgShade,
+      wetBulbShade: O.twShade,
+      wbgtShelter: O.shelter,
+      globeShelter: O.tgShelter,
+      wetBulbShelter: O.twShelter,
+      psychrometric: O.psy,
+      status: O.status,
     },
     1,
     0,
@@ -122,9 +161,18 @@ export function computePoint(r: PointInput, globe: GlobeFactors = REFERENCE_GLOB
   const geo = { cosZenith: cz, directFraction: su.directFraction, solarUsed: su.solar, wind2m: u2, stabilityClass: r.windHeight === 2 ? 0 : cls };
   if (O.status[0] !== 0) return fail(O.status[0], geo);
   return {
-    status: 0, ...geo, tg: O.tg[0], tnwb: O.tw[0], tpsy: O.psy[0], wbgt: O.sun[0],
-    tgShade: O.tgShade[0], tnwbShade: O.twShade[0], wbgtShade: O.shade[0],
-    tgShelter: O.tgShelter[0], tnwbShelter: O.twShelter[0], wbgtShelter: O.shelter[0],
+    status: 0,
+    ...geo,
+    tg: O.tg[0],
+    tnwb: O.tw[0],
+    tpsy: O.psy[0],
+    wbgt: O.sun[0],
+    tgShade: O.tgShade[0],
+    tnwbShade: O.twShade[0],
+    wbgtShade: O.shade[0],
+    tgShelter: O.tgShelter[0],
+    tnwbShelter: O.twShelter[0],
+    wbgtShelter: O.shelter[0],
     dewPointClamped: counts.dewPointClamped > 0,
   };
 }

@@ -12,7 +12,21 @@
  * Z with V = 1/W for the wick, the two parts of h_g for the globe, and e_s with the sky
  * emissivity at the dew point; and `(u·P)^0.6` of the wick coefficient from {@link pow12}.
  */
-import { RATIO, WICK_EXPONENT, MOIST_AIR_FACTOR, PRANDTL, R_AIR, M_AIR, M_H2O, SIGMA_LJ_AIR, EPS_K_AIR, CP_AIR, D_GLOBE, BUCK_1981, KELVIN } from './constants.ts';
+import {
+  RATIO,
+  WICK_EXPONENT,
+  MOIST_AIR_FACTOR,
+  PRANDTL,
+  R_AIR,
+  M_AIR,
+  M_H2O,
+  SIGMA_LJ_AIR,
+  EPS_K_AIR,
+  CP_AIR,
+  D_GLOBE,
+  BUCK_1981,
+  KELVIN,
+} from './constants.ts';
 
 export const TABLE_T_MIN = 150;
 export const TABLE_STEP = 0.25;
@@ -24,8 +38,7 @@ export const OMEGA_B = 0.034 / (0.4 * EPS_K_AIR);
 export const C_MU = (2.6693e-6 * Math.sqrt(M_AIR)) / (SIGMA_LJ_AIR * SIGMA_LJ_AIR);
 const TCRIT = 132 * 647.3;
 const K_D =
-  3.64e-4 * Math.pow(1 / Math.sqrt(TCRIT), 2.334) * Math.pow(36.4 * 218, 1 / 3) * Math.pow(TCRIT, 5 / 12) *
-  Math.sqrt(1 / M_AIR + 1 / M_H2O) * 1013.25 * 1e-4;
+  3.64e-4 * Math.pow(1 / Math.sqrt(TCRIT), 2.334) * Math.pow(36.4 * 218, 1 / 3) * Math.pow(TCRIT, 5 / 12) * Math.sqrt(1 / M_AIR + 1 / M_H2O) * 1013.25 * 1e-4;
 const C_SC = (C_MU * R_AIR) / (100 * K_D);
 const SC_EXP = 0.834;
 const PR_SC = Math.pow(PRANDTL / C_SC, WICK_EXPONENT);
@@ -197,11 +210,20 @@ export function lookup2(tab: Float64Array, T: number, out: Float64Array, slot: n
 /** Exact forms of the two-function tables, same layout as {@link lookup2}. */
 export function exact2(tab: Float64Array, T: number, out: Float64Array, slot: number): void {
   if (tab === ZV_TABLE) {
-    out[slot] = zExact(T); out[slot + 1] = zDeriv(T); out[slot + 2] = vExact(T); out[slot + 3] = vDeriv(T);
+    out[slot] = zExact(T);
+    out[slot + 1] = zDeriv(T);
+    out[slot + 2] = vExact(T);
+    out[slot + 3] = vDeriv(T);
   } else if (tab === GLOBE_TABLE) {
-    out[slot] = globeMExact(T); out[slot + 1] = globeMDeriv(T); out[slot + 2] = globeRExact(T); out[slot + 3] = globeRDeriv(T);
+    out[slot] = globeMExact(T);
+    out[slot + 1] = globeMDeriv(T);
+    out[slot + 2] = globeRExact(T);
+    out[slot + 3] = globeRDeriv(T);
   } else {
-    out[slot] = esExact(T); out[slot + 1] = esDeriv(T); out[slot + 2] = emissivityExact(T); out[slot + 3] = emissivityDeriv(T);
+    out[slot] = esExact(T);
+    out[slot + 1] = esDeriv(T);
+    out[slot + 2] = emissivityExact(T);
+    out[slot + 3] = emissivityDeriv(T);
   }
 }
 

@@ -27,11 +27,33 @@ export const CHUNK = 1024;
 
 /** The constants block, in the order of the module's K_* indices. */
 const CONSTANTS: readonly number[] = [
-  TABLE_T_MIN, 1 / TABLE_STEP, TABLE_N - 1, 1 / Y_STEP, Y_N - 1, KELVIN, EMIS_SFC, ALB_SFC, ALB_WICK, CZA_MIN, MIN_SPEED,
-  QG_K, INV_PI, EW_SB, CAP, CW0, BUCK_T_OFFSET_K, ROOT_TOLERANCE_K,
-  INPUT_LIMITS.airTemperatureC[0], INPUT_LIMITS.airTemperatureC[1], INPUT_LIMITS.dewPointMinC,
-  INPUT_LIMITS.pressureHpa[0], INPUT_LIMITS.pressureHpa[1], INPUT_LIMITS.windMs[0], INPUT_LIMITS.windMs[1],
-  INPUT_LIMITS.solarWm2[0], INPUT_LIMITS.solarWm2[1],
+  TABLE_T_MIN,
+  1 / TABLE_STEP,
+  TABLE_N - 1,
+  1 / Y_STEP,
+  Y_N - 1,
+  KELVIN,
+  EMIS_SFC,
+  ALB_SFC,
+  ALB_WICK,
+  CZA_MIN,
+  MIN_SPEED,
+  QG_K,
+  INV_PI,
+  EW_SB,
+  CAP,
+  CW0,
+  BUCK_T_OFFSET_K,
+  ROOT_TOLERANCE_K,
+  INPUT_LIMITS.airTemperatureC[0],
+  INPUT_LIMITS.airTemperatureC[1],
+  INPUT_LIMITS.dewPointMinC,
+  INPUT_LIMITS.pressureHpa[0],
+  INPUT_LIMITS.pressureHpa[1],
+  INPUT_LIMITS.windMs[0],
+  INPUT_LIMITS.windMs[1],
+  INPUT_LIMITS.solarWm2[0],
+  INPUT_LIMITS.solarWm2[1],
 ];
 
 /** Inputs the module reads, outputs it writes (each `CHUNK` doubles), counts it adds to. */
@@ -69,7 +91,11 @@ export function loadWasmKernel(wasm: typeof WebAssembly | null = globalThis.WebA
   try {
     const bytes = Uint8Array.from(atob(WBGT_WASM_BASE64), (c) => c.charCodeAt(0));
     const inst = new wasm.Instance(new wasm.Module(bytes), {});
-    const ex = inst.exports as { memory: WebAssembly.Memory; layout: (...a: number[]) => void; run: (n: number, io: number, cap: number, cg0: number, invEgSb: number, in32: number, out32: number) => number };
+    const ex = inst.exports as {
+      memory: WebAssembly.Memory;
+      layout: (...a: number[]) => void;
+      run: (n: number, io: number, cap: number, cg0: number, invEgSb: number, in32: number, out32: number) => number;
+    };
     // Layout from 64 KiB (the module keeps its scratch below): constants, the five tables, then
     // the chunk's inputs, status, flags, outputs, counts, single-precision inputs and outputs.
     let at = 65536;
@@ -143,7 +169,15 @@ export interface WasmCounts {
  * Runs the module on cells [start, end): writes the outputs of every cell it computed, and calls
  * `handBack(i)` for each cell it left (in ascending order, after the chunk's outputs are written).
  */
-export function wasmKernelRange(k: WasmKernel, inp: WasmInputs, out: WasmOutputs, start: number, end: number, globe: GlobeFactors, handBack: (i: number) => void): WasmCounts {
+export function wasmKernelRange(
+  k: WasmKernel,
+  inp: WasmInputs,
+  out: WasmOutputs,
+  start: number,
+  end: number,
+  globe: GlobeFactors,
+  handBack: (i: number) => void,
+): WasmCounts {
   const src = [inp.airTemperature, inp.dewPointTemperature, inp.surfacePressure, inp.wind2m, inp.solar, inp.cosZenith, inp.directFraction];
   const dst: Array<Num | undefined> = [out.wbgtSun, out.wbgtShade, out.globeSun, out.wetBulbSun, out.globeShade, out.wetBulbShade];
   const c = k.counts;

@@ -26,13 +26,7 @@ export function stabilityClass(daytime: boolean, speed: number, solar: number, d
 }
 
 /** Day classes by wind row (5) × solar column (4), flattened: index 4·row + column. */
-const DAY_TABLE = Uint8Array.of(
-  1, 1, 2, 4,
-  1, 2, 3, 4,
-  2, 2, 3, 4,
-  3, 3, 4, 4,
-  3, 4, 4, 4,
-);
+const DAY_TABLE = Uint8Array.of(1, 1, 2, 4, 1, 2, 3, 4, 2, 2, 3, 4, 3, 3, 4, 4, 3, 4, 4, 4);
 const NIGHT_UNSTABLE = Uint8Array.of(5, 5, 4);
 const NIGHT_STABLE = Uint8Array.of(6, 6, 4);
 
@@ -87,7 +81,7 @@ export function wind2mStep(inp: WindStepInputs, out: Float32Array | Float64Array
   for (let i = 0; i < n; i++) {
     const u = W[i];
     const cls = stabilityClass(CZ[i] > 0, u, S[i], dT);
-    const urban = urbanAll ?? (urbanCells![i % nCells] !== 0);
+    const urban = urbanAll ?? urbanCells![i % nCells] !== 0;
     if (atRef) out[i] = u;
     else {
       const v = u * factor[cls - 1 + (urban ? 6 : 0)];

@@ -88,7 +88,11 @@ export async function writeAtlasLayers(
         const months = Array.from({ length: PERIODS - 1 }, (_, p) => find(def.id, k, stat, p));
         const year = find(def.id, k, stat, PERIODS - 1);
         const fromZero = def.units === 'h' || def.units.startsWith('person-h');
-        const monthDomain = safeDomain(months.map((f) => f.index), range, fromZero);
+        const monthDomain = safeDomain(
+          months.map((f) => f.index),
+          range,
+          fromZero,
+        );
         const yearDomain = safeDomain([year.index], range, fromZero);
         for (let p = 0; p < PERIODS; p++) {
           const f = p < PERIODS - 1 ? months[p] : year;
@@ -97,8 +101,13 @@ export async function writeAtlasLayers(
           const dir = join(dataDir, 'layers', def.id, def.combos[k]);
           const name = `${stat}-${period}`;
           const style = figureStyle(KIND[def.id], domain, def.units, { title: `${def.label} (${stat === 'p90' ? '90th-percentile year' : 'baseline mean'})` });
-          const files = await writeLayerFiles(dir, name, g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, ${stat}, period ${period}`, noData: -9999 });
-          entries.push(entry(`${def.id}/${def.combos[k]}/${name}`, def.id, def.combos[k], stat, period, def.units, `layers/${def.id}/${def.combos[k]}/`, files));
+          const files = await writeLayerFiles(dir, name, g(field(f.index)), style, {
+            description: `${def.label}, ${def.combos[k]}, ${stat}, period ${period}`,
+            noData: -9999,
+          });
+          entries.push(
+            entry(`${def.id}/${def.combos[k]}/${name}`, def.id, def.combos[k], stat, period, def.units, `layers/${def.id}/${def.combos[k]}/`, files),
+          );
           onLayer();
         }
       }
@@ -112,9 +121,25 @@ export async function writeAtlasLayers(
       const m = Math.max(Math.abs(range.min[f.index]), Math.abs(range.max[f.index]));
       const domain = Number.isFinite(m) && m > 0 ? symmetricDomain(m) : ([-1, 1] as [number, number]);
       const dir = join(dataDir, 'layers', def.id, def.combos[k]);
-      const style = figureStyle('change', domain, trendUnit(def.units), { title: `${def.label}: trend per decade over the years built (Theil–Sen; needs ${MIN_TREND_YEARS} years)` });
-      const files = await writeLayerFiles(dir, 'trend-year', g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, Theil–Sen trend of the annual value per decade over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`, noData: -9999 });
-      entries.push(entry(`${def.id}/${def.combos[k]}/trend-year`, def.id, def.combos[k], 'trend', 'year', trendUnit(def.units), `layers/${def.id}/${def.combos[k]}/`, files));
+      const style = figureStyle('change', domain, trendUnit(def.units), {
+        title: `${def.label}: trend per decade over the years built (Theil–Sen; needs ${MIN_TREND_YEARS} years)`,
+      });
+      const files = await writeLayerFiles(dir, 'trend-year', g(field(f.index)), style, {
+        description: `${def.label}, ${def.combos[k]}, Theil–Sen trend of the annual value per decade over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`,
+        noData: -9999,
+      });
+      entries.push(
+        entry(
+          `${def.id}/${def.combos[k]}/trend-year`,
+          def.id,
+          def.combos[k],
+          'trend',
+          'year',
+          trendUnit(def.units),
+          `layers/${def.id}/${def.combos[k]}/`,
+          files,
+        ),
+      );
       onLayer();
     }
   }
@@ -124,9 +149,16 @@ export async function writeAtlasLayers(
     for (let k = 0; k < def.combos.length; k++) {
       const f = find(def.id, k, 'trend-p', PERIODS - 1);
       const dir = join(dataDir, 'layers', def.id, def.combos[k]);
-      const style = figureStyle('probability', [0, 1], '1', { title: `${def.label}: p-value of the trend over the years built (Mann–Kendall; needs ${MIN_TREND_YEARS} years)` });
-      const files = await writeLayerFiles(dir, 'trend-p-year', g(field(f.index)), style, { description: `${def.label}, ${def.combos[k]}, two-sided Mann–Kendall p-value of the trend of the annual value over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`, noData: -9999 });
-      entries.push(entry(`${def.id}/${def.combos[k]}/trend-p-year`, def.id, def.combos[k], 'trend-p', 'year', '1', `layers/${def.id}/${def.combos[k]}/`, files));
+      const style = figureStyle('probability', [0, 1], '1', {
+        title: `${def.label}: p-value of the trend over the years built (Mann–Kendall; needs ${MIN_TREND_YEARS} years)`,
+      });
+      const files = await writeLayerFiles(dir, 'trend-p-year', g(field(f.index)), style, {
+        description: `${def.label}, ${def.combos[k]}, two-sided Mann–Kendall p-value of the trend of the annual value over the years built (no value with fewer than ${MIN_TREND_YEARS} years)`,
+        noData: -9999,
+      });
+      entries.push(
+        entry(`${def.id}/${def.combos[k]}/trend-p-year`, def.id, def.combos[k], 'trend-p', 'year', '1', `layers/${def.id}/${def.combos[k]}/`, files),
+      );
       onLayer();
     }
   }
@@ -134,10 +166,30 @@ export async function writeAtlasLayers(
   const mat = find(NICHE_FIGURE, 0, 'baseline', PERIODS - 1);
   const cls = find(NICHE_FIGURE, 0, 'class', PERIODS - 1);
   const dir = join(dataDir, 'layers', 'mean-annual-temperature', 'air');
-  const matFiles = await writeLayerFiles(dir, 'baseline-year', g(field(mat.index)), figureStyle('meanAnnualTemperature', safeDomain([mat.index], range, false), 'degC', { title: 'Mean annual temperature, baseline' }), { description: 'Mean annual air temperature over the baseline years', noData: -9999 });
-  entries.push(entry('mean-annual-temperature/air/baseline-year', 'mean-annual-temperature', 'air', 'baseline', 'year', 'degC', 'layers/mean-annual-temperature/air/', matFiles));
+  const matFiles = await writeLayerFiles(
+    dir,
+    'baseline-year',
+    g(field(mat.index)),
+    figureStyle('meanAnnualTemperature', safeDomain([mat.index], range, false), 'degC', { title: 'Mean annual temperature, baseline' }),
+    { description: 'Mean annual air temperature over the baseline years', noData: -9999 },
+  );
+  entries.push(
+    entry(
+      'mean-annual-temperature/air/baseline-year',
+      'mean-annual-temperature',
+      'air',
+      'baseline',
+      'year',
+      'degC',
+      'layers/mean-annual-temperature/air/',
+      matFiles,
+    ),
+  );
   onLayer();
-  const clsFiles = await writeLayerFiles(dir, 'class-year', g(field(cls.index)), nicheClassStyle(), { description: 'Class of the baseline mean annual temperature against the human climate niche', noData: -9999 });
+  const clsFiles = await writeLayerFiles(dir, 'class-year', g(field(cls.index)), nicheClassStyle(), {
+    description: 'Class of the baseline mean annual temperature against the human climate niche',
+    noData: -9999,
+  });
   entries.push(entry('mean-annual-temperature/air/class-year', 'niche-class', 'air', 'class', 'year', '1', 'layers/mean-annual-temperature/air/', clsFiles));
   onLayer();
   return entries;
@@ -163,10 +215,27 @@ function symmetricDomain(m: number): [number, number] {
   return [-hi, hi];
 }
 
-function entry(id: string, figure: string, combo: string, statistic: LayerEntry['statistic'], period: string, units: string, prefix: string, f: LayerFiles): LayerEntry {
+function entry(
+  id: string,
+  figure: string,
+  combo: string,
+  statistic: LayerEntry['statistic'],
+  period: string,
+  units: string,
+  prefix: string,
+  f: LayerFiles,
+): LayerEntry {
   return {
-    id, figure, combo, statistic, period, units,
-    png: `data/${prefix}${f.png}`, tif: `data/${prefix}${f.tif}`, pngSha256: f.pngSha256, tifSha256: f.tifSha256,
+    id,
+    figure,
+    combo,
+    statistic,
+    period,
+    units,
+    png: `data/${prefix}${f.png}`,
+    tif: `data/${prefix}${f.tif}`,
+    pngSha256: f.pngSha256,
+    tifSha256: f.tifSha256,
     coordinates: f.coordinates,
     mapImages: f.mapImages.map((m) => ({ ...m, path: `data/${prefix}${m.path}` })),
     legend: f.legend,

@@ -157,9 +157,7 @@ export function cellFigureChunks(
     if (list) list.push(record);
     else byChunk.set(id, [record]);
   }
-  return [...byChunk.entries()]
-    .map(([id, list]) => ({ id, cells: list.sort((p, q) => p.cell - q.cell) }))
-    .sort((p, q) => p.cells[0].cell - q.cells[0].cell);
+  return [...byChunk.entries()].map(([id, list]) => ({ id, cells: list.sort((p, q) => p.cell - q.cell) })).sort((p, q) => p.cells[0].cell - q.cells[0].cell);
 }
 
 function checkTile(tile: { rows: number; cols: number }): void {
@@ -201,7 +199,13 @@ export function cellFiguresIndex(
     tile: { rows: tile.rows, cols: tile.cols },
     periods: Array.from({ length: PERIODS }, (_, p) => periodLabel(p)),
     statistics: [...CELL_STATISTICS],
-    figures: chosen.map(({ def }) => ({ id: def.id, label: def.label, units: def.units, combos: [...def.combos], inCellTable: CELL_TABLE_FIGURES.includes(def.id) })),
+    figures: chosen.map(({ def }) => ({
+      id: def.id,
+      label: def.label,
+      units: def.units,
+      combos: [...def.combos],
+      inCellTable: CELL_TABLE_FIGURES.includes(def.id),
+    })),
     chunks: sorted.map((c) => ({ id: c.id, path: c.path, cells: c.cells })),
     landCells: sorted.reduce((s, c) => s + c.cells, 0),
     tables: [...tables].sort((a, b) => a.rows[0] - b.rows[0]).map((t) => ({ path: t.path, rows: [t.rows[0], t.rows[1]] })),
@@ -211,4 +215,3 @@ export function cellFiguresIndex(
 
 /** Path of the per-cell NetCDF below the site root. */
 export const CELL_NETCDF_PATH = 'data/atlas-cells.nc';
-

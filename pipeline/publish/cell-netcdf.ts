@@ -52,16 +52,43 @@ export interface CellNetcdfMeta {
  * Writes the file from `field(index)` (the whole grid of a field, row-major, NaN = no data).
  * @param evalKeys evaluation keys, in the combination order of the figures
  */
-export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Float64Array }, defs: readonly FigureDef[], fields: readonly GridField[], meta: CellNetcdfMeta, field: (index: number) => Float32Array): void {
+export function writeCellNetcdf(
+  path: string,
+  grid: { lat: Float64Array; lon: Float64Array },
+  defs: readonly FigureDef[],
+  fields: readonly GridField[],
+  meta: CellNetcdfMeta,
+  field: (index: number) => Float32Array,
+): void {
   const nc = fields.filter((f) => f.netcdf);
   const figures = [...new Set(nc.filter((f) => f.figure !== NICHE_FIGURE).map((f) => f.figure))];
   const evalKeys = defs.find((d) => d.id === figures[0])?.combos ?? [];
   const keyLen = Math.max(1, ...evalKeys.map((k) => k.length));
   const vars: Nc3Var[] = [
-    { name: 'lat', type: 'double', dims: ['lat'], attrs: [attr('standard_name', text('latitude')), attr('long_name', text('latitude of the cell centre')), attr('units', text('degrees_north'))] },
-    { name: 'lon', type: 'double', dims: ['lon'], attrs: [attr('standard_name', text('longitude')), attr('long_name', text('longitude of the cell centre')), attr('units', text('degrees_east'))] },
-    { name: 'month', type: 'int', dims: ['period'], attrs: [attr('long_name', text('local month of the period (1-12); 0 for the whole year')), attr('units', text('1'))] },
-    { name: 'evaluation', type: 'char', dims: ['evaluation', 'evaluation_strlen'], attrs: [attr('long_name', text('work evaluation: workload class.acclimatization.exposure'))] },
+    {
+      name: 'lat',
+      type: 'double',
+      dims: ['lat'],
+      attrs: [attr('standard_name', text('latitude')), attr('long_name', text('latitude of the cell centre')), attr('units', text('degrees_north'))],
+    },
+    {
+      name: 'lon',
+      type: 'double',
+      dims: ['lon'],
+      attrs: [attr('standard_name', text('longitude')), attr('long_name', text('longitude of the cell centre')), attr('units', text('degrees_east'))],
+    },
+    {
+      name: 'month',
+      type: 'int',
+      dims: ['period'],
+      attrs: [attr('long_name', text('local month of the period (1-12); 0 for the whole year')), attr('units', text('1'))],
+    },
+    {
+      name: 'evaluation',
+      type: 'char',
+      dims: ['evaluation', 'evaluation_strlen'],
+      attrs: [attr('long_name', text('work evaluation: workload class.acclimatization.exposure'))],
+    },
   ];
   const order: Array<{ name: string; fields: GridField[]; type: 'float' | 'short' | 'byte' }> = [];
   for (const figure of figures) {
@@ -79,9 +106,14 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
           attr('long_name', text(`${def.label}: ${STAT_WORDS[statistic]}`)),
           attr('units', text(years ? '1' : def.units)),
           attr('_FillValue', years ? { type: 'short', values: [-1] } : { type: 'float', values: [CELL_NETCDF_FILL] }),
-          attr('comment', text(years
-            ? `number of baseline years ${meta.baseline[0]}-${meta.baseline[1]} whose value counted (completeness rule in the atlas manifest)`
-            : `each year's value over the period (a local month, or the year), then the ${STAT_WORDS[statistic]} of the baseline years ${meta.baseline[0]}-${meta.baseline[1]} that count`)),
+          attr(
+            'comment',
+            text(
+              years
+                ? `number of baseline years ${meta.baseline[0]}-${meta.baseline[1]} whose value counted (completeness rule in the atlas manifest)`
+                : `each year's value over the period (a local month, or the year), then the ${STAT_WORDS[statistic]} of the baseline years ${meta.baseline[0]}-${meta.baseline[1]} that count`,
+            ),
+          ),
         ],
       });
       order.push({ name, fields: fs, type: years ? 'short' : 'float' });
@@ -135,10 +167,13 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
       attr('title', text(meta.title)),
       attr('source', text(meta.source)),
       attr('history', text(meta.history)),
-      attr('comment', text(
-        `Per-cell figures of the atlas: statistics over the baseline years ${meta.baseline[0]}-${meta.baseline[1]} of each year's value. Screening values; local regulations and a competent person decide work/rest.` +
-          (meta.invented ? ' INVENTED DATA: made by heathours demo-data for an invented territory; describes no real place.' : ''),
-      )),
+      attr(
+        'comment',
+        text(
+          `Per-cell figures of the atlas: statistics over the baseline years ${meta.baseline[0]}-${meta.baseline[1]} of each year's value. Screening values; local regulations and a competent person decide work/rest.` +
+            (meta.invented ? ' INVENTED DATA: made by heathours demo-data for an invented territory; describes no real place.' : ''),
+        ),
+      ),
       ...(meta.scenario !== undefined ? [attr('scenario', text(meta.scenario))] : []),
     ],
     vars,
@@ -146,7 +181,10 @@ export function writeCellNetcdf(path: string, grid: { lat: Float64Array; lon: Fl
   try {
     w.writeFixed('lat', grid.lat);
     w.writeFixed('lon', grid.lon);
-    w.writeFixed('month', Array.from({ length: PERIODS }, (_, p) => (p < PERIODS - 1 ? p + 1 : 0)));
+    w.writeFixed(
+      'month',
+      Array.from({ length: PERIODS }, (_, p) => (p < PERIODS - 1 ? p + 1 : 0)),
+    );
     const chars = new Uint8Array(evalKeys.length * keyLen);
     evalKeys.forEach((k, i) => chars.set(new TextEncoder().encode(k), i * keyLen));
     w.writeFixed('evaluation', chars);

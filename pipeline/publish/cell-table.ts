@@ -13,7 +13,21 @@ import { periodLabel } from './region-table.ts';
 
 export const CELL_TABLE_FIGURES = ['hours-above-limit-shift', 'hours-lost-shift'];
 
-export const CELL_TABLE_COLUMNS = ['cell_id', 'lat', 'lon', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'mean', 'median', 'p90', 'unit', 'years_used'];
+export const CELL_TABLE_COLUMNS = [
+  'cell_id',
+  'lat',
+  'lon',
+  'period',
+  'figure',
+  'workload_class',
+  'acclimatization',
+  'exposure',
+  'mean',
+  'median',
+  'p90',
+  'unit',
+  'years_used',
+];
 
 /** A number as csvLine writes `roundTo(v, 2)`: two decimals at most, trailing zeros dropped, empty when not finite. */
 function hundredths(v: number): string {
@@ -27,7 +41,14 @@ function hundredths(v: number): string {
  * coordinates once per cell.
  * @param emit receives consecutive pieces of the CSV text
  */
-export function cellTableCsv(figures: readonly CellFigureNormals[], cells: Int32Array, lat: Float64Array, lon: Float64Array, emit: (text: string) => void, header = true): void {
+export function cellTableCsv(
+  figures: readonly CellFigureNormals[],
+  cells: Int32Array,
+  lat: Float64Array,
+  lon: Float64Array,
+  emit: (text: string) => void,
+  header = true,
+): void {
   const nLon = lon.length;
   if (header) emit(csvLine(CELL_TABLE_COLUMNS));
   const chosen = figures.filter((f) => CELL_TABLE_FIGURES.includes(f.def.id));

@@ -104,7 +104,17 @@ function annualRows(csv: string): Map<string, { value: number; unit: string; col
   const lines = csv.trim().split('\n');
   const head = lines[0].split(',');
   const at = (name: string) => head.indexOf(name);
-  const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = ['period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit'].map(at);
+  const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = [
+    'period',
+    'figure',
+    'workload_class',
+    'acclimatization',
+    'exposure',
+    'method',
+    'statistic',
+    'value',
+    'unit',
+  ].map(at);
   for (const line of lines.slice(1)) {
     if (!line.includes(',year,')) continue; // annual rows only (cheap test before splitting)
     const c = line.split(',');
@@ -120,9 +130,19 @@ const isBidNormal = (figure: string, statistic: string) => BID_FIGURES.includes(
 /** Compares the new build with the previous one (null for a first build). */
 export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit = 10): BuildChanges {
   const empty: BuildChanges = {
-    version: 2, hasPrevious: false, yearsAdded: [], yearsRemoved: [], baselineChanged: false,
-    inputs: { added: [], changed: [], removed: [] }, codeChanged: false, configChanged: false,
-    normals: { compared: 0, moved: 0, largest: 0, moves: [] }, latest: [], moves: [], regionsAdded: [], regionsRemoved: [],
+    version: 2,
+    hasPrevious: false,
+    yearsAdded: [],
+    yearsRemoved: [],
+    baselineChanged: false,
+    inputs: { added: [], changed: [], removed: [] },
+    codeChanged: false,
+    configChanged: false,
+    normals: { compared: 0, moved: 0, largest: 0, moves: [] },
+    latest: [],
+    moves: [],
+    regionsAdded: [],
+    regionsRemoved: [],
   };
   if (!prev) return empty;
   const py = new Set(years(prev.years));
@@ -130,7 +150,8 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
   const pin = new Map(prev.inputs.map((f) => [f.name, f.sha256]));
   const nin = new Map(next.inputs.map((f) => [f.name, f.sha256]));
   const order = (x: FigureMove, y: FigureMove) =>
-    Math.abs(y.change) - Math.abs(x.change) || (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
+    Math.abs(y.change) - Math.abs(x.change) ||
+    (x.regionId + x.figure + x.workloadClass + x.statistic < y.regionId + y.figure + y.workloadClass + y.statistic ? -1 : 1);
   // Only the largest moves of each list are kept: a list is cut back to `limit` whenever it doubles.
   const keeper = () => {
     const list: FigureMove[] = [];
@@ -171,8 +192,18 @@ export function compareBuilds(prev: BuildFacts | null, next: BuildFacts, limit =
       if (isBidNormal(figure, statistic)) normalsCompared += 1;
       if (old.value === row.value) continue;
       keep({
-        regionId: id, regionName: next.regionNames.get(id) ?? id, figure, workloadClass, acclimatization, exposure, method, statistic,
-        before: old.value, after: row.value, change: Math.round((row.value - old.value) * 1e6) / 1e6, unit: row.unit,
+        regionId: id,
+        regionName: next.regionNames.get(id) ?? id,
+        figure,
+        workloadClass,
+        acclimatization,
+        exposure,
+        method,
+        statistic,
+        before: old.value,
+        after: row.value,
+        change: Math.round((row.value - old.value) * 1e6) / 1e6,
+        unit: row.unit,
       });
     }
   }

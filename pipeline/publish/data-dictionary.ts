@@ -23,7 +23,6 @@ export const DATA_DICTIONARY_COLUMNS = ['table', 'column', 'code', 'label', 'uni
 
 export type DictionaryRow = Record<(typeof DATA_DICTIONARY_COLUMNS)[number], string>;
 
-
 const REGION_TABLE = 'regions/<region-id>.csv';
 const CELL_TABLE = 'cell-tables/rows-<first>-<last>.csv';
 const EVERY = 'every table';
@@ -47,15 +46,41 @@ export const FIGURE_WORDS: Readonly<Record<string, FigureWords>> = {
   'wbgt-max': { label: 'Highest hourly WBGT', unitWords: 'degrees Celsius (WBGT)', year: 'highest of the year' },
   'air-temperature-mean': { label: 'Mean air temperature', unitWords: 'degrees Celsius', year: 'mean of all hours of the year' },
   // The workforce figures (config `workforce`, pipeline/regions/person-hours.ts).
-  'person-hours-above-limit-shift': { label: "Shift person-hours above the limit, over the region's outdoor workers", unitWords: 'person-hours', year: 'sum of the months' },
-  'person-hours-lost-shift': { label: "Shift person-hours lost to rest breaks, over the region's outdoor workers", unitWords: 'person-hours', year: 'sum of the months' },
-  'full-time-equivalents-lost': { label: 'Full-time equivalents lost (person-hours lost / a year of the shift pattern)', unitWords: 'full-time equivalents', year: 'sum of the months' },
-  'outdoor-work-time-lost': { label: "Share of the outdoor workers' shift time lost to rest breaks", unitWords: 'percent of the shift hours', year: "person-hours lost of the year over the year's shift hours of the outdoor workers" },
-  'person-hours-lost-density': { label: 'Shift person-hours lost per km² of the grid cell', unitWords: 'person-hours per square kilometre', year: 'sum of the months' },
+  'person-hours-above-limit-shift': {
+    label: "Shift person-hours above the limit, over the region's outdoor workers",
+    unitWords: 'person-hours',
+    year: 'sum of the months',
+  },
+  'person-hours-lost-shift': {
+    label: "Shift person-hours lost to rest breaks, over the region's outdoor workers",
+    unitWords: 'person-hours',
+    year: 'sum of the months',
+  },
+  'full-time-equivalents-lost': {
+    label: 'Full-time equivalents lost (person-hours lost / a year of the shift pattern)',
+    unitWords: 'full-time equivalents',
+    year: 'sum of the months',
+  },
+  'outdoor-work-time-lost': {
+    label: "Share of the outdoor workers' shift time lost to rest breaks",
+    unitWords: 'percent of the shift hours',
+    year: "person-hours lost of the year over the year's shift hours of the outdoor workers",
+  },
+  'person-hours-lost-density': {
+    label: 'Shift person-hours lost per km² of the grid cell',
+    unitWords: 'person-hours per square kilometre',
+    year: 'sum of the months',
+  },
 };
 
 /** Codes of the workforce rows: the class column's `all`, the acclimatization and exposure columns' `by-shares`. */
-const WORKFORCE_FIGURE_IDS = new Set(['person-hours-above-limit-shift', 'person-hours-lost-shift', 'full-time-equivalents-lost', 'outdoor-work-time-lost', 'person-hours-lost-density']);
+const WORKFORCE_FIGURE_IDS = new Set([
+  'person-hours-above-limit-shift',
+  'person-hours-lost-shift',
+  'full-time-equivalents-lost',
+  'outdoor-work-time-lost',
+  'person-hours-lost-density',
+]);
 
 /** A figure's label, or its id when it is not one of {@link FIGURE_WORDS}. */
 export function figureWords(figure: string): FigureWords {
@@ -113,22 +138,38 @@ export interface DictionaryInput {
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
 
 const row = (table: string, column: string, code: string, label: string, unit = '', unitInWords = '', description = ''): DictionaryRow => ({
-  table, column, code, label, unit, unit_in_words: unitInWords, description,
+  table,
+  column,
+  code,
+  label,
+  unit,
+  unit_in_words: unitInWords,
+  description,
 });
 
 /** A statistic's short label, with the number of baseline years `n` where it matters. */
 export function statisticShortLabel(statistic: string, n: number): string {
   switch (statistic) {
-    case 'mean': return `Baseline mean (${n} ${n === 1 ? 'year' : 'years'})`;
-    case 'median': return `Baseline median (${n} ${n === 1 ? 'year' : 'years'})`;
-    case 'p90': return p90Label(n);
-    case 'min': return 'Lowest baseline year';
-    case 'max': return 'Highest baseline year';
-    case 'latest': return 'Latest year';
-    case 'worst-cell-mean': return 'Highest cell mean';
-    case 'trend': return 'Trend per decade';
-    case 'trend-p': return 'p-value of the trend';
-    default: return statistic;
+    case 'mean':
+      return `Baseline mean (${n} ${n === 1 ? 'year' : 'years'})`;
+    case 'median':
+      return `Baseline median (${n} ${n === 1 ? 'year' : 'years'})`;
+    case 'p90':
+      return p90Label(n);
+    case 'min':
+      return 'Lowest baseline year';
+    case 'max':
+      return 'Highest baseline year';
+    case 'latest':
+      return 'Latest year';
+    case 'worst-cell-mean':
+      return 'Highest cell mean';
+    case 'trend':
+      return 'Trend per decade';
+    case 'trend-p':
+      return 'p-value of the trend';
+    default:
+      return statistic;
   }
 }
 
@@ -136,16 +177,26 @@ export function statisticShortLabel(statistic: string, n: number): string {
 export function statisticWords(statistic: string, baseline: readonly [number, number], latestYear: number): string {
   const n = baselineYearCount(baseline);
   switch (statistic) {
-    case 'mean': return `Mean of the baseline years ${baseline[0]}–${baseline[1]} (${n} years)`;
-    case 'median': return `Median of the baseline years ${baseline[0]}–${baseline[1]} (${n} years)`;
-    case 'p90': return p90Description(n, baseline);
-    case 'min': return 'Lowest baseline year';
-    case 'max': return 'Highest baseline year';
-    case 'latest': return `The latest year built (${latestYear}), for comparison with the baseline`;
-    case 'worst-cell-mean': return 'Highest baseline mean of any grid cell of the region';
-    case 'trend': return 'How fast the annual value changed over the years built, per decade (whole year only; a trend of the past record, not a projection)';
-    case 'trend-p': return 'How likely a trend at least this steady would be by chance if there were none (whole year only; small: a steady rise or fall)';
-    default: return statistic;
+    case 'mean':
+      return `Mean of the baseline years ${baseline[0]}–${baseline[1]} (${n} years)`;
+    case 'median':
+      return `Median of the baseline years ${baseline[0]}–${baseline[1]} (${n} years)`;
+    case 'p90':
+      return p90Description(n, baseline);
+    case 'min':
+      return 'Lowest baseline year';
+    case 'max':
+      return 'Highest baseline year';
+    case 'latest':
+      return `The latest year built (${latestYear}), for comparison with the baseline`;
+    case 'worst-cell-mean':
+      return 'Highest baseline mean of any grid cell of the region';
+    case 'trend':
+      return 'How fast the annual value changed over the years built, per decade (whole year only; a trend of the past record, not a projection)';
+    case 'trend-p':
+      return 'How likely a trend at least this steady would be by chance if there were none (whole year only; small: a steady rise or fall)';
+    default:
+      return statistic;
   }
 }
 
@@ -170,8 +221,16 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     median: ['Baseline median', 'see unit', statisticWords('median', input.baseline, input.latestYear)],
     p90: ['90th-percentile year', 'see unit', statisticWords('p90', input.baseline, input.latestYear)],
     unit: ['Unit of the value', '', 'h or degC; codes below'],
-    years_used: ['Years used', 'years', 'Baseline years that counted for this row (a year with more than 240 missing hours in the period does not count); 1 for the latest year; for trend and trend-p the years built that have a value (a trend needs 15)'],
-    baseline: ['Years of the statistic', '', 'First–last year of the baseline, the latest year for the statistic latest, or the years built for trend and trend-p'],
+    years_used: [
+      'Years used',
+      'years',
+      'Baseline years that counted for this row (a year with more than 240 missing hours in the period does not count); 1 for the latest year; for trend and trend-p the years built that have a value (a trend needs 15)',
+    ],
+    baseline: [
+      'Years of the statistic',
+      '',
+      'First–last year of the baseline, the latest year for the statistic latest, or the years built for trend and trend-p',
+    ],
   };
   for (const c of REGION_TABLE_COLUMNS) {
     const [label, unit, d] = columnRows[c];
@@ -179,10 +238,24 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
   }
   for (const c of CELL_TABLE_COLUMNS) {
     const [label, unit, d] = columnRows[c];
-    rows.push(row(CELL_TABLE, c, '', label, unit, unit === 'see unit' ? 'as the unit column says' : unit === 'years' ? 'years' : unit === '° N' ? 'degrees north' : unit === '° E' ? 'degrees east' : '', d));
+    rows.push(
+      row(
+        CELL_TABLE,
+        c,
+        '',
+        label,
+        unit,
+        unit === 'see unit' ? 'as the unit column says' : unit === 'years' ? 'years' : unit === '° N' ? 'degrees north' : unit === '° E' ? 'degrees east' : '',
+        d,
+      ),
+    );
   }
-  MONTHS.forEach((m, i) => rows.push(row(EVERY, 'period', String(i + 1).padStart(2, '0'), m, '', '', `The local calendar month (time zone of the atlas); hour figures per month`)));
-  rows.push(row(EVERY, 'period', 'year', 'Whole year', '', '', 'The local calendar year: hour figures summed over the months, temperatures as the figure says'));
+  MONTHS.forEach((m, i) =>
+    rows.push(row(EVERY, 'period', String(i + 1).padStart(2, '0'), m, '', '', `The local calendar month (time zone of the atlas); hour figures per month`)),
+  );
+  rows.push(
+    row(EVERY, 'period', 'year', 'Whole year', '', '', 'The local calendar year: hour figures summed over the months, temperatures as the figure says'),
+  );
   for (const f of input.figures) {
     const w = figureWords(f.id);
     rows.push(row(EVERY, 'figure', f.id, w.label, f.units, valueUnitWords(f.id, f.units, 'month or year'), `${f.label}; the year row: ${w.year}`));
@@ -191,7 +264,18 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     rows.push(row(EVERY, 'workload_class', c.id, `${c.name} (${c.metabolicRate} W)`, 'W', 'watts of metabolic rate while working', c.description ?? ''));
   }
   const workforce = input.figures.some((f) => WORKFORCE_FIGURE_IDS.has(f.id));
-  if (workforce) rows.push(row(EVERY, 'workload_class', 'all', 'All outdoor work', '', '', "Every workload class together, each by its share of the region's people (workforce figures only)"));
+  if (workforce)
+    rows.push(
+      row(
+        EVERY,
+        'workload_class',
+        'all',
+        'All outdoor work',
+        '',
+        '',
+        "Every workload class together, each by its share of the region's people (workforce figures only)",
+      ),
+    );
   for (const a of input.acclimatization) rows.push(row(EVERY, 'acclimatization', a, ACCLIMATIZATION_WORDS[a] ?? a));
   for (const e of input.exposures) rows.push(row(EVERY, 'exposure', e, EXPOSURE_WORDS[e] ?? e));
   if (workforce) {
@@ -199,8 +283,19 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     rows.push(row(EVERY, 'acclimatization', 'by-shares', 'Acclimatized and not, by the shares', '', '', mixed));
     rows.push(row(EVERY, 'exposure', 'by-shares', 'Sun and shade, by the shares', '', '', mixed));
   }
-  rows.push(row(EVERY, 'method', 'limit', 'WBGT screening limit of the workload class', '', '', 'Hours above the limit and hours lost to the rest breaks the limit requires'));
-  for (const v of input.lossViews) rows.push(row(EVERY, 'method', v.id, v.label, '', '', 'A loss function of work capacity against WBGT (capacity-loss figure only)'));
+  rows.push(
+    row(
+      EVERY,
+      'method',
+      'limit',
+      'WBGT screening limit of the workload class',
+      '',
+      '',
+      'Hours above the limit and hours lost to the rest breaks the limit requires',
+    ),
+  );
+  for (const v of input.lossViews)
+    rows.push(row(EVERY, 'method', v.id, v.label, '', '', 'A loss function of work capacity against WBGT (capacity-loss figure only)'));
   const n = baselineYearCount(input.baseline);
   for (const s of Object.keys(input.statistics)) {
     // The P90 sentence is ours (it depends on the baseline's length); the others add the manifest's rule.
@@ -219,11 +314,23 @@ export function dataDictionaryRows(input: DictionaryInput): DictionaryRow[] {
     const words = `${UNIT_WORDS[u] ?? u} per decade`;
     rows.push(row(REGION_TABLE, 'unit', trendUnit(u), words, trendUnit(u), words, 'The statistic trend'));
   }
-  if (!input.figures.some((f) => f.units === '1')) rows.push(row(REGION_TABLE, 'unit', '1', 'dimensionless', '1', 'a number without unit', 'The statistic trend-p (a probability, 0–1)'));
-  rows.push(row(REGION_TABLE, 'baseline', `${b0}-${b1}`, `The baseline ${b0}–${b1}`, '', '', `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean${(input.years ?? input.baseline)[0] === b0 && (input.years ?? input.baseline)[1] === b1 ? ', and trend and trend-p (the years built)' : ''}`));
+  if (!input.figures.some((f) => f.units === '1'))
+    rows.push(row(REGION_TABLE, 'unit', '1', 'dimensionless', '1', 'a number without unit', 'The statistic trend-p (a probability, 0–1)'));
+  rows.push(
+    row(
+      REGION_TABLE,
+      'baseline',
+      `${b0}-${b1}`,
+      `The baseline ${b0}–${b1}`,
+      '',
+      '',
+      `${baselineYearCount(input.baseline)} years; the statistics mean, median, p90, min, max and worst-cell-mean${(input.years ?? input.baseline)[0] === b0 && (input.years ?? input.baseline)[1] === b1 ? ', and trend and trend-p (the years built)' : ''}`,
+    ),
+  );
   rows.push(row(REGION_TABLE, 'baseline', String(input.latestYear), `The latest year ${input.latestYear}`, '', '', 'The statistic latest'));
   const built = input.years ?? input.baseline;
-  if (built[0] !== b0 || built[1] !== b1) rows.push(row(REGION_TABLE, 'baseline', `${built[0]}-${built[1]}`, `The years built ${built[0]}–${built[1]}`, '', '', 'The statistics trend and trend-p'));
+  if (built[0] !== b0 || built[1] !== b1)
+    rows.push(row(REGION_TABLE, 'baseline', `${built[0]}-${built[1]}`, `The years built ${built[0]}–${built[1]}`, '', '', 'The statistics trend and trend-p'));
   return rows;
 }
 

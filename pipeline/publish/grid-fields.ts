@@ -80,11 +80,13 @@ export function gridFields(defs: readonly FigureDef[]): GridField[] {
   }
   for (const id of TRENDED) {
     const def = defs.find((d) => d.id === id);
-    if (def) def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend', period: PERIODS - 1, layer: true, netcdf: false }));
+    if (def)
+      def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend', period: PERIODS - 1, layer: true, netcdf: false }));
   }
   for (const id of TRENDED) {
     const def = defs.find((d) => d.id === id);
-    if (def) def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend-p', period: PERIODS - 1, layer: true, netcdf: false }));
+    if (def)
+      def.combos.forEach((combo, comboIndex) => push({ figure: id, combo, comboIndex, statistic: 'trend-p', period: PERIODS - 1, layer: true, netcdf: false }));
   }
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'baseline', period: PERIODS - 1, layer: true, netcdf: true });
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'class', period: PERIODS - 1, layer: true, netcdf: true });

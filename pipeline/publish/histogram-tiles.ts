@@ -59,8 +59,10 @@ export const HISTOGRAM_TILE_YEAR_MAX_BYTES = TILE_SLOTS * (2 + 2 * HIST_LEN);
  * into `out` from byte `at` (room for {@link HISTOGRAM_TILE_YEAR_MAX_BYTES}) and returns the end.
  */
 export function encodeHistogramTileYearPairs(pairs: Float64Array, touched: Uint8Array, out: Uint8Array, at: number): number {
-  if (pairs.length !== 2 * TILE_SLOTS * HIST_LEN || touched.length !== TILE_SLOTS) throw new RangeError(`a tile year holds ${TILE_SLOTS} slots of ${HIST_LEN} pairs`);
-  if (out.length - at < HISTOGRAM_TILE_YEAR_MAX_BYTES) throw new RangeError(`room for ${HISTOGRAM_TILE_YEAR_MAX_BYTES} bytes needed at byte ${at} of ${out.length}`);
+  if (pairs.length !== 2 * TILE_SLOTS * HIST_LEN || touched.length !== TILE_SLOTS)
+    throw new RangeError(`a tile year holds ${TILE_SLOTS} slots of ${HIST_LEN} pairs`);
+  if (out.length - at < HISTOGRAM_TILE_YEAR_MAX_BYTES)
+    throw new RangeError(`room for ${HISTOGRAM_TILE_YEAR_MAX_BYTES} bytes needed at byte ${at} of ${out.length}`);
   let p = at;
   for (let s = 0; s < TILE_SLOTS; s++) {
     if (touched[s] === 0) {

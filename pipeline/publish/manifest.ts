@@ -72,7 +72,9 @@ export interface ManifestScenario {
   name: string;
   description?: string;
   /** Its parameters: a uniform warming [K], or the change file (name, SHA-256, humidity kind, variables read). */
-  definition: { kind: 'warming'; warming: number } | { kind: 'change-file'; changeFile: string; sha256: string; humidity: 'relative' | 'specific'; variables: string[] };
+  definition:
+    | { kind: 'warming'; warming: number }
+    | { kind: 'change-file'; changeFile: string; sha256: string; humidity: 'relative' | 'specific'; variables: string[] };
   /** In words: the kind, what it changes, its source, and the caveat (pipeline/scenario/describe.ts). */
   words: { kind: string; what: string; source: string; caveat: string };
   /** Range of each change over the land cells and months: temperature [K], humidity [percentage points, or fraction], solar [fraction]. */
@@ -98,7 +100,8 @@ export const STATISTIC_RULES: Record<string, string> = {
   latest: 'the latest year built, for comparison with the baseline',
   'worst-cell-mean': 'highest baseline mean of any grid cell of the region',
   trend: 'Theil-Sen slope of the annual value over every built year with a value, per decade (Sen 1968); empty with fewer than 15 years',
-  'trend-p': 'two-sided Mann-Kendall p-value of that trend (Mann 1945, Kendall 1975; normal approximation with the tie correction); empty with fewer than 15 years',
+  'trend-p':
+    'two-sided Mann-Kendall p-value of that trend (Mann 1945, Kendall 1975; normal approximation with the tie correction); empty with fewer than 15 years',
 };
 
 /** SHA-256 of a file [hex], streamed (a large file is never held in memory). */
@@ -109,7 +112,10 @@ export async function sha256OfFile(path: string): Promise<string> {
 }
 
 /** Lists every file under `root/data` as artefacts, with kinds guessed from the path. */
-export async function listArtefacts(root: string, describe: (path: string) => { kind: ArtefactEntry['kind']; description: string; units?: string }): Promise<ArtefactEntry[]> {
+export async function listArtefacts(
+  root: string,
+  describe: (path: string) => { kind: ArtefactEntry['kind']; description: string; units?: string },
+): Promise<ArtefactEntry[]> {
   const out: ArtefactEntry[] = [];
   async function walk(dir: string): Promise<void> {
     for (const name of (await readdir(dir)).sort()) {

@@ -10,7 +10,11 @@ import { NICHE_CAVEAT, NICHE_CLASSES, NICHE_LABELS, type NicheAssessment } from 
 const round2 = (v: number) => (Number.isFinite(v) ? Math.round(v * 100) / 100 : null);
 
 /** The entries of some cells, comma-separated JSON objects (no brackets). */
-export function nicheCellsJson(a: Pick<NicheAssessment, 'baselineMat' | 'latestMat' | 'shift' | 'baselineClass' | 'baselineDistance'>, cells: Int32Array, grid: { lat: Float64Array; lon: Float64Array }): string {
+export function nicheCellsJson(
+  a: Pick<NicheAssessment, 'baselineMat' | 'latestMat' | 'shift' | 'baselineClass' | 'baselineDistance'>,
+  cells: Int32Array,
+  grid: { lat: Float64Array; lon: Float64Array },
+): string {
   const nLon = grid.lon.length;
   return Array.from(cells, (g, c) =>
     JSON.stringify({

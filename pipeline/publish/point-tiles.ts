@@ -57,7 +57,10 @@ export class PointTileStore {
     const n = this.cells.length;
     const nYc = yc.cells.length;
     if (from < 0 || from + n > nYc || this.cells.some((c, i) => c !== yc.cells[from + i])) {
-      throw PointTileCellsMismatch({ year: yc.year, detail: `${nYc} cells given, ${n} land cells expected in the same order${from > 0 ? ` from position ${from}` : ''}` });
+      throw PointTileCellsMismatch({
+        year: yc.year,
+        detail: `${nYc} cells given, ${n} land cells expected in the same order${from > 0 ? ` from position ${from}` : ''}`,
+      });
     }
     if (yc.histogram.length !== nYc * POINT_YEAR_SIZE) {
       throw PointTileCellsMismatch({ year: yc.year, detail: `histogram holds ${yc.histogram.length} values; ${nYc} cells × ${POINT_YEAR_SIZE} expected` });
@@ -117,7 +120,10 @@ export class PointTileStore {
  * Writes `dataDir/calculator/cells/index.json` for the chunks of every tile (in any order; listed
  * by first cell) and returns its size [B].
  */
-export async function writePointTileIndex(dataDir: string, o: { years: readonly number[]; grid: { lat: ArrayLike<number>; lon: ArrayLike<number> }; chunks: readonly PointChunkEntry[] }): Promise<number> {
+export async function writePointTileIndex(
+  dataDir: string,
+  o: { years: readonly number[]; grid: { lat: ArrayLike<number>; lon: ArrayLike<number> }; chunks: readonly PointChunkEntry[] },
+): Promise<number> {
   const chunks = [...o.chunks].sort((a, b) => a.firstCell - b.firstCell);
   const index: PointTileIndex = {
     version: POINT_TILE_VERSION,

@@ -56,7 +56,12 @@ export const regionWorkbookPath = (id: string) => `regions/${id}.xlsx`;
 const tableSheet = (name: string, t: WideTable): SheetSpec => ({
   name,
   header: t.header,
-  rows: t.rows.map((r): CellValue[] => [...r.keys, ...r.values.map((v) => (Number.isFinite(v) ? v : null)), Number.isFinite(r.yearsUsed) ? r.yearsUsed : null, r.baseline]),
+  rows: t.rows.map((r): CellValue[] => [
+    ...r.keys,
+    ...r.values.map((v) => (Number.isFinite(v) ? v : null)),
+    Number.isFinite(r.yearsUsed) ? r.yearsUsed : null,
+    r.baseline,
+  ]),
   widths: t.header.map((h, i) => (i === 1 ? 48 : i < 7 ? 16 : Math.max(11, h.length + 1))),
 });
 
@@ -84,7 +89,10 @@ export function assumptionRows(region: { id: string; name: string }, info: Regio
     ...(info.workforce
       ? [
           [] as CellValue[],
-          ['Workforce figures', 'person-hours = Σ over the land cells of people × share of the cell inside the region × outdoor-work share × hours per worker; the statistic across the baseline years of each year’s total'] as CellValue[],
+          [
+            'Workforce figures',
+            'person-hours = Σ over the land cells of people × share of the cell inside the region × outdoor-work share × hours per worker; the statistic across the baseline years of each year’s total',
+          ] as CellValue[],
           ...info.workforce.map(([k, v]): CellValue[] => [k, v]),
         ]
       : []),
@@ -118,12 +126,21 @@ export function regionWorkbookSheets(region: { id: string; name: string }, table
  * Writes `<id>.wide.csv` and, unless `workbook` is false (config `regionWorkbooks`), `<id>.xlsx`
  * under `dataDir/regions/` from the region's tidy CSV text.
  */
-export async function writeRegionSpreadsheets(dataDir: string, region: { id: string; name: string }, tidy: string, info: RegionSheetInfo, workbook = true): Promise<void> {
+export async function writeRegionSpreadsheets(
+  dataDir: string,
+  region: { id: string; name: string },
+  tidy: string,
+  info: RegionSheetInfo,
+  workbook = true,
+): Promise<void> {
   const tables = regionWideTables(tidy, info.figureLabels);
   const hours = tables.find((t) => t.unit === 'h');
   if (hours) await writeFileAtomic(join(dataDir, regionWidePath(region.id)), wideCsv(hours));
   if (!workbook) return;
-  const bytes = await workbookBytes(regionWorkbookSheets(region, tables, info), { title: `${info.atlasTitle}: ${region.name}`, created: new Date(info.buildTime) });
+  const bytes = await workbookBytes(regionWorkbookSheets(region, tables, info), {
+    title: `${info.atlasTitle}: ${region.name}`,
+    created: new Date(info.buildTime),
+  });
   await writeFileAtomic(join(dataDir, regionWorkbookPath(region.id)), bytes);
 }
 
@@ -140,7 +157,14 @@ export interface RegionSheetFacts {
   baseline: [number, number];
   timeZone: string;
   work: {
-    settings: { limitModel: string; airMovement: boolean; acclimatization: readonly string[]; exposures: readonly string[]; restLocation: string; clothing: { ensemble?: string; hood?: boolean; cav?: number } };
+    settings: {
+      limitModel: string;
+      airMovement: boolean;
+      acclimatization: readonly string[];
+      exposures: readonly string[];
+      restLocation: string;
+      clothing: { ensemble?: string; hood?: boolean; cav?: number };
+    };
     clothingAdjustment: number;
     rest: { metabolicRate: number };
     shift: { start: number; end: number; days: readonly string[] };
@@ -158,7 +182,10 @@ export function regionSheetInfo(f: RegionSheetFacts): RegionSheetInfo {
   const w = f.work;
   const s = w.settings;
   const pad = (h: number) => `${String(h % 24).padStart(2, '0')}:00`;
-  const clothing = s.clothing.cav !== undefined ? `a clothing adjustment value of ${s.clothing.cav} °C-WBGT` : `${s.clothing.ensemble ?? 'work-clothes'}${s.clothing.hood ? ' with hood' : ''}`;
+  const clothing =
+    s.clothing.cav !== undefined
+      ? `a clothing adjustment value of ${s.clothing.cav} °C-WBGT`
+      : `${s.clothing.ensemble ?? 'work-clothes'}${s.clothing.hood ? ' with hood' : ''}`;
   return {
     atlasTitle: f.title,
     invented: f.invented,
@@ -171,7 +198,12 @@ export function regionSheetInfo(f: RegionSheetFacts): RegionSheetInfo {
     baseline: f.baseline,
     timeZone: f.timeZone,
     work: [
-      ['Limit model', s.limitModel === 'curve-2017' ? 'continuous curves (NIOSH 2016 REL/RAL, ISO 7243:2017 form)' : `ISO 7243:1989 table${s.airMovement ? ', air movement' : ''}`],
+      [
+        'Limit model',
+        s.limitModel === 'curve-2017'
+          ? 'continuous curves (NIOSH 2016 REL/RAL, ISO 7243:2017 form)'
+          : `ISO 7243:1989 table${s.airMovement ? ', air movement' : ''}`,
+      ],
       ['Acclimatization', s.acclimatization.join(', ')],
       ['Exposure', exposureLine(s.exposures)],
       ['Breaks', s.restLocation === 'shade' ? 'in the shade' : 'in the same place as the work'],

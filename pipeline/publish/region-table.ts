@@ -16,7 +16,18 @@ import { comboColumns } from './combo.ts';
 import { csvLine, roundTo } from '../formats/csv.ts';
 
 export const REGION_TABLE_COLUMNS = [
-  'region_id', 'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit', 'years_used', 'baseline',
+  'region_id',
+  'period',
+  'figure',
+  'workload_class',
+  'acclimatization',
+  'exposure',
+  'method',
+  'statistic',
+  'value',
+  'unit',
+  'years_used',
+  'baseline',
 ] as const;
 
 export const STATISTICS = ['mean', 'median', 'p90', 'min', 'max', 'latest', 'worst-cell-mean'] as const;
@@ -37,7 +48,13 @@ export function periodLabel(p: number): string {
 }
 
 /** The table of one region (its figures' normals hold that region alone: items period · nCombo + combo). */
-export function regionTableCsv(regionId: string, figures: readonly RegionFigureNormals[], baseline: [number, number], latestYear: number, built?: readonly [number, number]): string {
+export function regionTableCsv(
+  regionId: string,
+  figures: readonly RegionFigureNormals[],
+  baseline: [number, number],
+  latestYear: number,
+  built?: readonly [number, number],
+): string {
   let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
   const base = `${baseline[0]}-${baseline[1]}`;
   for (let p = 0; p < PERIODS; p++) {
@@ -50,19 +67,61 @@ export function regionTableCsv(regionId: string, figures: readonly RegionFigureN
         const cc = comboColumns(def.id, def.combos[k]);
         const r = fn.region;
         const stats: Record<(typeof STATISTICS)[number], number> = {
-          mean: r.mean[i], median: r.median[i], p90: r.p90[i], min: r.min[i], max: r.max[i], latest: r.latest[i], 'worst-cell-mean': fn.worstValue[i],
+          mean: r.mean[i],
+          median: r.median[i],
+          p90: r.p90[i],
+          min: r.min[i],
+          max: r.max[i],
+          latest: r.latest[i],
+          'worst-cell-mean': fn.worstValue[i],
         };
         for (const s of STATISTICS) {
           out += csvLine([
-            regionId, periodLabel(p), def.id, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, s,
-            roundTo(stats[s], digits), def.units, s === 'latest' ? 1 : r.yearsUsed[i], s === 'latest' ? String(latestYear) : base,
+            regionId,
+            periodLabel(p),
+            def.id,
+            cc.workload_class,
+            cc.acclimatization,
+            cc.exposure,
+            cc.method,
+            s,
+            roundTo(stats[s], digits),
+            def.units,
+            s === 'latest' ? 1 : r.yearsUsed[i],
+            s === 'latest' ? String(latestYear) : base,
           ]);
         }
         const tr = fn.trend;
         if (tr && p === ANNUAL) {
           const span = built ? `${built[0]}-${built[1]}` : base;
-          out += csvLine([regionId, 'year', def.id, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, 'trend', roundTo(tr.slopePerDecade[k], digits), trendUnit(def.units), tr.years[k], span]);
-          out += csvLine([regionId, 'year', def.id, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, 'trend-p', pValueText(tr.pValue[k]), '1', tr.years[k], span]);
+          out += csvLine([
+            regionId,
+            'year',
+            def.id,
+            cc.workload_class,
+            cc.acclimatization,
+            cc.exposure,
+            cc.method,
+            'trend',
+            roundTo(tr.slopePerDecade[k], digits),
+            trendUnit(def.units),
+            tr.years[k],
+            span,
+          ]);
+          out += csvLine([
+            regionId,
+            'year',
+            def.id,
+            cc.workload_class,
+            cc.acclimatization,
+            cc.exposure,
+            cc.method,
+            'trend-p',
+            pValueText(tr.pValue[k]),
+            '1',
+            tr.years[k],
+            span,
+          ]);
         }
       }
     }

@@ -54,13 +54,35 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
     return i;
   };
   const [cPeriod, cFigure, cClass, cAccl, cExp, cMethod, cStat, cValue, cUnit, cYears, cBase] = [
-    'period', 'figure', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic', 'value', 'unit', 'years_used', 'baseline',
+    'period',
+    'figure',
+    'workload_class',
+    'acclimatization',
+    'exposure',
+    'method',
+    'statistic',
+    'value',
+    'unit',
+    'years_used',
+    'baseline',
   ].map(col);
   const tables = new Map<string, WideTable>();
   const index = new Map<string, WideTable['rows'][number]>();
   // The pipeline's own column order (region-table.ts): a row's key is then one slice of its line,
   // from the figure to the statistic, and only the first line of each row is split.
-  const ownOrder = cPeriod === 1 && cFigure === 2 && cClass === 3 && cAccl === 4 && cExp === 5 && cMethod === 6 && cStat === 7 && cValue === 8 && cUnit === 9 && cYears === 10 && cBase === 11 && head.length === 12;
+  const ownOrder =
+    cPeriod === 1 &&
+    cFigure === 2 &&
+    cClass === 3 &&
+    cAccl === 4 &&
+    cExp === 5 &&
+    cMethod === 6 &&
+    cStat === 7 &&
+    cValue === 8 &&
+    cUnit === 9 &&
+    cYears === 10 &&
+    cBase === 11 &&
+    head.length === 12;
   for (let l = 1; l < lines.length; l++) {
     const line = lines[l];
     if (line === '') continue;

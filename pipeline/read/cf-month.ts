@@ -25,10 +25,23 @@ const MODEL_CALENDARS: Record<string, number[]> = {
 
 /** Length of one unit of a time axis [days]. */
 const UNIT_DAYS: Record<string, number> = {
-  second: 1 / 86400, seconds: 1 / 86400, sec: 1 / 86400, secs: 1 / 86400, s: 1 / 86400,
-  minute: 1 / 1440, minutes: 1 / 1440, min: 1 / 1440, mins: 1 / 1440,
-  hour: 1 / 24, hours: 1 / 24, hr: 1 / 24, hrs: 1 / 24, h: 1 / 24,
-  day: 1, days: 1, d: 1,
+  second: 1 / 86400,
+  seconds: 1 / 86400,
+  sec: 1 / 86400,
+  secs: 1 / 86400,
+  s: 1 / 86400,
+  minute: 1 / 1440,
+  minutes: 1 / 1440,
+  min: 1 / 1440,
+  mins: 1 / 1440,
+  hour: 1 / 24,
+  hours: 1 / 24,
+  hr: 1 / 24,
+  hrs: 1 / 24,
+  h: 1 / 24,
+  day: 1,
+  days: 1,
+  d: 1,
 };
 
 const UNITS_RE = /^\s*([A-Za-z]+)\s+since\s+(-?\d{1,4})-(\d{1,2})-(\d{1,2})(?:(?:T|\s+)(\d{1,2}):(\d{1,2})(?::(\d{1,2}(?:\.\d*)?))?)?\s*(?:Z|UTC)?\s*$/i;
@@ -54,7 +67,8 @@ export function monthsOfTimes(values: ArrayLike<number>, units: string, calendar
   const unitDays = UNIT_DAYS[m[1].toLowerCase()];
   if (unitDays === undefined) throw NetcdfTimeUnits({ units, detail: `"${m[1]}" is not a unit of fixed length (CF conventions §4.4)` });
   const [month, day] = [Number(m[3]), Number(m[4])];
-  if (month < 1 || month > 12 || day < 1 || day > lengths[month - 1]) throw NetcdfTimeUnits({ units, detail: `the reference date is not a date of the ${cal} calendar` });
+  if (month < 1 || month > 12 || day < 1 || day > lengths[month - 1])
+    throw NetcdfTimeUnits({ units, detail: `the reference date is not a date of the ${cal} calendar` });
   const yearDays = lengths.reduce((s, x) => s + x, 0);
   // Day of the year of the reference instant (0 = 1 January 00:00), fractional.
   let ref = day - 1 + (Number(m[5] ?? 0) * 60 + Number(m[6] ?? 0) + Number(m[7] ?? 0) / 60) / 1440;

@@ -16,7 +16,10 @@ export interface ScaleOffset {
 export function scaleOffsetOf(v: Pick<SourceVariable, 'attrs'>): ScaleOffset {
   const scale = attrNumber(v, 'scale_factor');
   const offset = attrNumber(v, 'add_offset');
-  return { scale: scale !== undefined && Number.isFinite(scale) && scale !== 0 ? scale : 1, offset: offset !== undefined && Number.isFinite(offset) ? offset : 0 };
+  return {
+    scale: scale !== undefined && Number.isFinite(scale) && scale !== 0 ? scale : 1,
+    offset: offset !== undefined && Number.isFinite(offset) ? offset : 0,
+  };
 }
 
 /** Whether `v` is packed (has a scale factor or offset other than 1 and 0). */

@@ -27,17 +27,29 @@ export interface TimeCoding {
 }
 
 const UNIT_MS: Record<string, number> = {
-  second: 1000, seconds: 1000, sec: 1000, secs: 1000, s: 1000,
-  minute: 60_000, minutes: 60_000, min: 60_000, mins: 60_000,
-  hour: 3_600_000, hours: 3_600_000, hr: 3_600_000, hrs: 3_600_000, h: 3_600_000,
-  day: 86_400_000, days: 86_400_000, d: 86_400_000,
+  second: 1000,
+  seconds: 1000,
+  sec: 1000,
+  secs: 1000,
+  s: 1000,
+  minute: 60_000,
+  minutes: 60_000,
+  min: 60_000,
+  mins: 60_000,
+  hour: 3_600_000,
+  hours: 3_600_000,
+  hr: 3_600_000,
+  hrs: 3_600_000,
+  h: 3_600_000,
+  day: 86_400_000,
+  days: 86_400_000,
+  d: 86_400_000,
 };
 
 /** First instant of the Gregorian calendar [ms since 1970-01-01 UTC]: 1582-10-15T00:00Z. */
 export const GREGORIAN_START_MS = utcMs(1582, 10, 15, 0, 0, 0);
 
-const DATE_RE =
-  /^(-?\d{1,4})-(\d{1,2})-(\d{1,2})(?:(?:T|\s+)(\d{1,2}):(\d{1,2})(?::(\d{1,2}(?:\.\d*)?))?)?\s*(Z|UTC|GMT|[+-]\d{1,2}(?::?\d{2})?)?$/i;
+const DATE_RE = /^(-?\d{1,4})-(\d{1,2})-(\d{1,2})(?:(?:T|\s+)(\d{1,2}):(\d{1,2})(?::(\d{1,2}(?:\.\d*)?))?)?\s*(Z|UTC|GMT|[+-]\d{1,2}(?::?\d{2})?)?$/i;
 
 /** Milliseconds since 1970 of a proleptic Gregorian date (works for years 0-99 too). */
 export function utcMs(y: number, mo: number, d: number, h: number, mi: number, s: number): number {
@@ -106,7 +118,8 @@ export function decodeTimes(values: ArrayLike<number>, c: TimeCoding): Float64Ar
   for (let i = 0; i < values.length; i++) {
     out[i] = c.referenceMs + Math.round(values[i] * c.unitMs);
     // ECMAScript dates reach ±8.64e15 ms (±273,790 years) around 1970: beyond is no date at all.
-    if (!(Math.abs(out[i]) <= MAX_DATE_MS)) throw NetcdfTimeValueInvalid({ index: i, value: String(values[i]), detail: 'not a date any calendar holds (a missing or damaged time value?)' });
+    if (!(Math.abs(out[i]) <= MAX_DATE_MS))
+      throw NetcdfTimeValueInvalid({ index: i, value: String(values[i]), detail: 'not a date any calendar holds (a missing or damaged time value?)' });
   }
   if ((c.calendar === 'standard' || c.calendar === 'gregorian') && out.some((t) => t < GREGORIAN_START_MS)) {
     throw NetcdfCalendarUnsupported({ calendar: c.calendar, detail: 'some times lie before 1582-10-15, where this calendar is Julian' });

@@ -28,7 +28,14 @@ import { decodeScaleOffset, scaleOffsetOf } from './cf-scale.ts';
 import { monthsOfTimes } from './cf-month.ts';
 import { axisOf, coordinateOf } from './coordinates.ts';
 import { baseName } from './era5-variables.ts';
-import { ChangeFileHumidityMismatch, ChangeFileNoTemperature, ChangeFileNotADifference, ChangeFileNotMonthly, NetcdfDimensionUnsupported, NetcdfGridUnsupported } from './errors.ts';
+import {
+  ChangeFileHumidityMismatch,
+  ChangeFileNoTemperature,
+  ChangeFileNotADifference,
+  ChangeFileNotMonthly,
+  NetcdfDimensionUnsupported,
+  NetcdfGridUnsupported,
+} from './errors.ts';
 import { normalizeLatitude, normalizeLongitude, type AxisMap } from './grid-normalize.ts';
 import { openSourceFile } from './open-file.ts';
 import { isNumericType, type SourceFile, type SourceVariable } from './source.ts';
@@ -132,7 +139,14 @@ async function monthAxis(sf: SourceFile, v: SourceVariable, dim: number): Promis
   return index;
 }
 
-async function describeVariable(sf: SourceFile, v: SourceVariable, role: ChangeRole, kind: UnitKind, latVar: SourceVariable, lonVar: SourceVariable): Promise<ChangeVariable> {
+async function describeVariable(
+  sf: SourceFile,
+  v: SourceVariable,
+  role: ChangeRole,
+  kind: UnitKind,
+  latVar: SourceVariable,
+  lonVar: SourceVariable,
+): Promise<ChangeVariable> {
   const where = { file: sf.path, variable: v.name };
   const nd = v.dims.length;
   const latDim = v.dims.indexOf(latVar.dims[0]);
@@ -142,18 +156,27 @@ async function describeVariable(sf: SourceFile, v: SourceVariable, role: ChangeR
   }
   const long = v.shape.flatMap((s, i) => (i < nd - 2 && s > 1 ? [i] : []));
   if (long.length > 1) {
-    throw NetcdfDimensionUnsupported({ detail: `${v.name} has more than one axis besides latitude and longitude longer than 1 (${long.map((i) => `${v.dims[i]} of ${v.shape[i]}`).join(', ')})` }, where);
+    throw NetcdfDimensionUnsupported(
+      {
+        detail: `${v.name} has more than one axis besides latitude and longitude longer than 1 (${long.map((i) => `${v.dims[i]} of ${v.shape[i]}`).join(', ')})`,
+      },
+      where,
+    );
   }
   if (long.length === 0 || v.shape[long[0]] !== 12) {
-    const detail = long.length === 0
-      ? `it has no time axis (dims ${v.dims.join(', ')}): one change per calendar month is needed`
-      : `its axis ${v.dims[long[0]]} has ${v.shape[long[0]]} entries, not 12 (one per calendar month)`;
+    const detail =
+      long.length === 0
+        ? `it has no time axis (dims ${v.dims.join(', ')}): one change per calendar month is needed`
+        : `its axis ${v.dims[long[0]]} has ${v.shape[long[0]]} entries, not 12 (one per calendar month)`;
     throw ChangeFileNotMonthly({ path: sf.path, variable: v.name, detail }, where);
   }
   const units = attrText(v, 'units') ?? '';
   conversionFor(kind, units, where);
   if (role === 'temperature' && /on_scale/i.test(attrText(v, 'units_metadata') ?? '')) {
-    throw ChangeFileNotADifference({ path: sf.path, variable: v.name, detail: 'its units_metadata says "temperature: on_scale" (temperatures, not differences)' }, where);
+    throw ChangeFileNotADifference(
+      { path: sf.path, variable: v.name, detail: 'its units_metadata says "temperature: on_scale" (temperatures, not differences)' },
+      where,
+    );
   }
   return { role, name: v.name, units, monthDim: long[0], latDim, lonDim, monthIndex: await monthAxis(sf, v, long[0]) };
 }
@@ -176,7 +199,8 @@ async function describe(sf: SourceFile, humidityKind: HumidityChangeKind): Promi
   const file = sf.path;
   const latVar = axisVariable(sf, 'lat');
   const lonVar = axisVariable(sf, 'lon');
-  if (!latVar || !lonVar) throw NetcdfGridUnsupported({ detail: `${file}: no 1-D latitude and longitude coordinate variables (degrees_north, degrees_east)` }, { file });
+  if (!latVar || !lonVar)
+    throw NetcdfGridUnsupported({ detail: `${file}: no 1-D latitude and longitude coordinate variables (degrees_north, degrees_east)` }, { file });
   const lat = normalizeLatitude(await sf.readNumbers(latVar), file);
   const lon = snap(normalizeLongitude(await sf.readNumbers(lonVar), file));
   const used = new Set<string>();

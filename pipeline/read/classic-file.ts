@@ -17,7 +17,19 @@ interface ByteReader {
 import { HeaderNeedsBytes, parseClassicHeader, type ClassicHeader } from './classic-header.ts';
 import { NetcdfFileTruncated, NetcdfHeaderInvalid, NetcdfReadFailed } from './errors.ts';
 import type { NetcdfFormat } from './format.ts';
-import { denseStrides, product, rawTypeBytes, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
+import {
+  denseStrides,
+  product,
+  rawTypeBytes,
+  type AttrValue,
+  type RawArray,
+  type RawType,
+  type SlabRequest,
+  type SlabSink,
+  type SourceDimension,
+  type SourceFile,
+  type SourceVariable,
+} from './source.ts';
 
 /** Where a classic variable's bytes lie. */
 interface ClassicLayout {
@@ -95,9 +107,7 @@ function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, f
   let expected = 0;
   for (const v of variables) {
     const L = layouts.get(v)!;
-    const end = L.record
-      ? (numRecs > 0 ? L.begin + (numRecs - 1) * recordSize + perRecord(v) : 0)
-      : L.begin + product(v.shape) * L.valueBytes;
+    const end = L.record ? (numRecs > 0 ? L.begin + (numRecs - 1) * recordSize + perRecord(v) : 0) : L.begin + product(v.shape) * L.valueBytes;
     expected = Math.max(expected, end);
   }
   if (bytes < expected) {
@@ -165,11 +175,7 @@ function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, f
     let dest = 0;
     while (r < runs.length) {
       let last = r;
-      while (
-        last + 1 < runs.length &&
-        runs[last + 1] - (runs[last] + runBytes) <= MAX_GAP &&
-        runs[last + 1] + runBytes - runs[r] <= MAX_WINDOW
-      ) last++;
+      while (last + 1 < runs.length && runs[last + 1] - (runs[last] + runBytes) <= MAX_GAP && runs[last + 1] + runBytes - runs[r] <= MAX_WINDOW) last++;
       const winStart = runs[r];
       const winLen = runs[last] + runBytes - winStart;
       if (last === r || winLen === (last - r + 1) * runBytes) {
@@ -211,7 +217,6 @@ function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, f
     return stride;
   }
 
-
   /**
    * Reads the requests in windows of whole dim-0 slices (records): one byte range per window
    * for all requests whose dim-0 steps agree (the variables of a record interleave per record),
@@ -252,7 +257,10 @@ function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, f
       if (wanted < MIN_USE * perSlice && perSlice > MAX_GAP) {
         // Sparse selection (a small tile of a large grid): gather runs, then native values.
         if (grp.length > 1) {
-          for (const x of grp) await readSlabs([{ v: x.v, start: reqs[g.indexOf(x)].start, count: reqs[g.indexOf(x)].count }], (_i, slab, from, n) => sink(g.indexOf(x), slab, from, n));
+          for (const x of grp)
+            await readSlabs([{ v: x.v, start: reqs[g.indexOf(x)].start, count: reqs[g.indexOf(x)].count }], (_i, slab, from, n) =>
+              sink(g.indexOf(x), slab, from, n),
+            );
           continue;
         }
         const x = grp[0];
@@ -295,15 +303,29 @@ function buildClassicFile(fh: ByteReader, header: ClassicHeader, path: string, f
     read,
     readSlabs,
     async readNumbers(v) {
-      const raw = await read(v, v.shape.map(() => 0), v.shape);
+      const raw = await read(
+        v,
+        v.shape.map(() => 0),
+        v.shape,
+      );
       return Float64Array.from(raw as ArrayLike<number>);
     },
     async readStrings(v) {
-      const raw = await readBytes(v, v.shape.map(() => 0), v.shape);
+      const raw = await readBytes(
+        v,
+        v.shape.map(() => 0),
+        v.shape,
+      );
       const len = v.shape.length > 0 ? v.shape[v.shape.length - 1] : 1;
       const out: string[] = [];
       const dec = new TextDecoder('latin1');
-      for (let i = 0; i < raw.length; i += len) out.push(dec.decode(raw.subarray(i, i + len)).replace(/\0+$/, '').trim());
+      for (let i = 0; i < raw.length; i += len)
+        out.push(
+          dec
+            .decode(raw.subarray(i, i + len))
+            .replace(/\0+$/, '')
+            .trim(),
+        );
       return out;
     },
     close: () => fh.close(),
@@ -340,13 +362,19 @@ function checkLayout(
   }
   spans.sort((a, b) => a.from - b.from);
   for (let i = 1; i < spans.length; i++) {
-    if (spans[i].from < spans[i - 1].to) bad(spans[i].v, `its data (bytes ${spans[i].from}-${spans[i].to}) overlap those of ${spans[i - 1].v.name} (bytes ${spans[i - 1].from}-${spans[i - 1].to})`);
+    if (spans[i].from < spans[i - 1].to)
+      bad(
+        spans[i].v,
+        `its data (bytes ${spans[i].from}-${spans[i].to}) overlap those of ${spans[i - 1].v.name} (bytes ${spans[i - 1].from}-${spans[i - 1].to})`,
+      );
   }
   const last = spans[spans.length - 1];
-  if (last && Number.isFinite(recStart) && last.to > recStart) bad(last.v, `its data (bytes ${last.from}-${last.to}) run into the records, which start at byte ${recStart}`);
+  if (last && Number.isFinite(recStart) && last.to > recStart)
+    bad(last.v, `its data (bytes ${last.from}-${last.to}) run into the records, which start at byte ${recStart}`);
   for (const v of variables) {
     const L = layouts.get(v)!;
-    if (L.record && L.begin - recStart + perRecord(v) > recordSize) bad(v, `its data offset ${L.begin} puts it outside the record of ${recordSize} bytes that starts at byte ${recStart}`);
+    if (L.record && L.begin - recStart + perRecord(v) > recordSize)
+      bad(v, `its data offset ${L.begin} puts it outside the record of ${recordSize} bytes that starts at byte ${recStart}`);
   }
 }
 
@@ -410,12 +438,24 @@ async function readAt(fh: ByteReader, path: string, buf: Uint8Array, offset: num
 export function bigEndianToNative(raw: Uint8Array, type: RawType): RawArray {
   const buf = Buffer.from(raw.buffer, raw.byteOffset, raw.byteLength);
   switch (type) {
-    case 'byte': return new Int8Array(raw.buffer, raw.byteOffset, raw.byteLength);
-    case 'char': case 'ubyte': return raw;
-    case 'short': buf.swap16(); return new Int16Array(raw.buffer, raw.byteOffset, raw.byteLength / 2);
-    case 'int': buf.swap32(); return new Int32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
-    case 'float': buf.swap32(); return new Float32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
-    case 'double': buf.swap64(); return new Float64Array(raw.buffer, raw.byteOffset, raw.byteLength / 8);
-    default: throw new Error(`cannot read values of type ${type}`);
+    case 'byte':
+      return new Int8Array(raw.buffer, raw.byteOffset, raw.byteLength);
+    case 'char':
+    case 'ubyte':
+      return raw;
+    case 'short':
+      buf.swap16();
+      return new Int16Array(raw.buffer, raw.byteOffset, raw.byteLength / 2);
+    case 'int':
+      buf.swap32();
+      return new Int32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
+    case 'float':
+      buf.swap32();
+      return new Float32Array(raw.buffer, raw.byteOffset, raw.byteLength / 4);
+    case 'double':
+      buf.swap64();
+      return new Float64Array(raw.buffer, raw.byteOffset, raw.byteLength / 8);
+    default:
+      throw new Error(`cannot read values of type ${type}`);
   }
 }

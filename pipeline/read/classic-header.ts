@@ -109,7 +109,11 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
   const need = (n: number, what: string) => {
     if (p + n <= head.length && p + n <= MAX_HEADER_BYTES) return;
     if (p + n > fileBytes) throw NetcdfFileTruncated({ path, bytes: fileBytes, expected: p + n, detail: `the header ends inside ${what}` }, { file: path });
-    if (p + n > MAX_HEADER_BYTES) bad(`${what} would end the header after ${p + n} bytes, beyond the ${MAX_HEADER_BYTES >> 20} MiB a header may take: a count or length before it is damaged`, p);
+    if (p + n > MAX_HEADER_BYTES)
+      bad(
+        `${what} would end the header after ${p + n} bytes, beyond the ${MAX_HEADER_BYTES >> 20} MiB a header may take: a count or length before it is damaged`,
+        p,
+      );
     throw new HeaderNeedsBytes(Math.min(fileBytes, MAX_HEADER_BYTES, Math.max(p + n, head.length * 4)));
   };
   const u32 = (what: string) => {
@@ -174,7 +178,11 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
       const at = p;
       const ne = u32(`the length of attribute ${an} of ${owner}`);
       if (ne * info.bytes > fileBytes - p) bad(`attribute ${an} of ${owner} claims ${ne} values, more than the file holds`, at);
-      if (ne * info.bytes > MAX_ATTRIBUTE_BYTES) bad(`attribute ${an} of ${owner} claims ${ne} values (${ne * info.bytes} bytes), more than the ${MAX_ATTRIBUTE_BYTES >> 20} MiB an attribute may hold: its length is damaged`, at);
+      if (ne * info.bytes > MAX_ATTRIBUTE_BYTES)
+        bad(
+          `attribute ${an} of ${owner} claims ${ne} values (${ne * info.bytes} bytes), more than the ${MAX_ATTRIBUTE_BYTES >> 20} MiB an attribute may hold: its length is damaged`,
+          at,
+        );
       const bytes = ne * info.bytes;
       const padded = (bytes + 3) & ~3;
       need(padded, `attribute ${an} of ${owner}`);
@@ -215,7 +223,8 @@ export function parseClassicHeader(head: Uint8Array, fileBytes: number, path: st
         const at = p;
         const id = u32(`dimension ${k + 1} of variable ${vn}`);
         if (id >= dims.length) bad(`variable ${vn} names dimension ${id}, but the file has ${dims.length} dimension(s)`, at, { variable: vn });
-        if (id === recId && k > 0) bad(`variable ${vn} has the unlimited dimension ${dims[id].name} in place ${k + 1}; it may only be first`, at, { variable: vn });
+        if (id === recId && k > 0)
+          bad(`variable ${vn} has the unlimited dimension ${dims[id].name} in place ${k + 1}; it may only be first`, at, { variable: vn });
         dimIds.push(id);
       }
       const attrs = attributes(`variable ${vn}`);
@@ -235,11 +244,20 @@ function attributeValue(view: DataView, p: number, type: ClassicType, n: number)
   const out = new Array<number>(n);
   for (let i = 0; i < n; i++) {
     switch (type) {
-      case 'byte': out[i] = view.getInt8(p + i); break;
-      case 'short': out[i] = view.getInt16(p + 2 * i); break;
-      case 'int': out[i] = view.getInt32(p + 4 * i); break;
-      case 'float': out[i] = view.getFloat32(p + 4 * i); break;
-      default: out[i] = view.getFloat64(p + 8 * i);
+      case 'byte':
+        out[i] = view.getInt8(p + i);
+        break;
+      case 'short':
+        out[i] = view.getInt16(p + 2 * i);
+        break;
+      case 'int':
+        out[i] = view.getInt32(p + 4 * i);
+        break;
+      case 'float':
+        out[i] = view.getFloat32(p + 4 * i);
+        break;
+      default:
+        out[i] = view.getFloat64(p + 8 * i);
     }
   }
   return n === 1 ? out[0] : out;

@@ -63,18 +63,28 @@ export function formatCoverage(r: CoverageReport): string {
   };
   for (const v of r.variables) {
     for (const gap of v.gaps) {
-      add(v.variable, '✗', `missing ${gap.hours} h, stamps ${gap.from} to ${gap.to}, between ${name(gap.before)} and ${name(gap.after)}; they would be in the download(s) of ${gap.months.join(', ')}`);
+      add(
+        v.variable,
+        '✗',
+        `missing ${gap.hours} h, stamps ${gap.from} to ${gap.to}, between ${name(gap.before)} and ${name(gap.after)}; they would be in the download(s) of ${gap.months.join(', ')}`,
+      );
     }
     for (const d of v.duplicates) {
       add(
         v.variable,
         '✗',
         `${d.hours} h in two files with the same expver, stamps ${d.from} to ${d.to}: ${name(d.files[0])} and ${name(d.files[1])}; ` +
-          (d.differing > 0 ? `values differ in ${d.differing} of them (largest difference ${round(d.maxDifference)} in the file's units)` : 'values agree (within one packing step)'),
+          (d.differing > 0
+            ? `values differ in ${d.differing} of them (largest difference ${round(d.maxDifference)} in the file's units)`
+            : 'values agree (within one packing step)'),
       );
     }
     for (const t of v.era5t) {
-      add(v.variable, 'T', `${t.hours} h preliminary ERA5T (expver 5), stamps ${t.from} to ${t.to}, in ${t.files.map(name).join(', ')}; replace them with final ERA5 when it is published (about 2–3 months later, from memory of the data store's release notes)`);
+      add(
+        v.variable,
+        'T',
+        `${t.hours} h preliminary ERA5T (expver 5), stamps ${t.from} to ${t.to}, in ${t.files.map(name).join(', ')}; replace them with final ERA5 when it is published (about 2–3 months later, from memory of the data store's release notes)`,
+      );
     }
   }
   if (findings.size > 0) lines.push('');
@@ -82,7 +92,10 @@ export function formatCoverage(r: CoverageReport): string {
     const [mark, text] = key.split('\0');
     lines.push(`${mark} ${vars.join(', ')}: ${text}`);
   }
-  for (const o of r.otherGrid) lines.push(`✗ ${name(o.file)} is on another grid (${o.grid.lat} × ${o.grid.lon} points, spacing ${Math.abs(o.grid.dLat)}°): ${o.detail}; another product (ERA5-Land is 0.1°, ERA5 0.25°) or area? left out of the table`);
+  for (const o of r.otherGrid)
+    lines.push(
+      `✗ ${name(o.file)} is on another grid (${o.grid.lat} × ${o.grid.lon} points, spacing ${Math.abs(o.grid.dLat)}°): ${o.detail}; another product (ERA5-Land is 0.1°, ERA5 0.25°) or area? left out of the table`,
+    );
   return lines.join('\n');
 }
 
@@ -106,11 +119,16 @@ export function coverageProblems(r: CoverageReport, maxMissing: number): string[
         const y = new Date(Date.parse(gap.from) - 3_600_000).getUTCFullYear();
         const y2 = new Date(Date.parse(gap.to) - 3_600_000).getUTCFullYear();
         if (!years.has(y) && !years.has(y2)) continue;
-        out.push(`${v.variable}: ${gap.hours} h missing, stamps ${gap.from} to ${gap.to} (between ${name(gap.before)} and ${name(gap.after)}; the download(s) of ${gap.months.join(', ')} would hold them)`);
+        out.push(
+          `${v.variable}: ${gap.hours} h missing, stamps ${gap.from} to ${gap.to} (between ${name(gap.before)} and ${name(gap.after)}; the download(s) of ${gap.months.join(', ')} would hold them)`,
+        );
       }
     }
     for (const d of v.duplicates) {
-      out.push(`${v.variable}: ${d.hours} h twice with the same expver, stamps ${d.from} to ${d.to}, in ${name(d.files[0])} and ${name(d.files[1])}` + (d.differing > 0 ? ` (values differ in ${d.differing} h)` : ' (same values)'));
+      out.push(
+        `${v.variable}: ${d.hours} h twice with the same expver, stamps ${d.from} to ${d.to}, in ${name(d.files[0])} and ${name(d.files[1])}` +
+          (d.differing > 0 ? ` (values differ in ${d.differing} h)` : ' (same values)'),
+      );
     }
   }
   for (const o of r.otherGrid) out.push(`${name(o.file)} is on another grid: ${o.detail}`);

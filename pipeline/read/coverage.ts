@@ -114,7 +114,10 @@ function gridOf(f: AnalysedFile): CoverageFile['grid'] {
 }
 
 function sameGrid(a: AnalysedFile, b: AnalysedFile): string | null {
-  for (const [k, x, y] of [['latitude', a.lat.values, b.lat.values], ['longitude', a.lon.values, b.lon.values]] as const) {
+  for (const [k, x, y] of [
+    ['latitude', a.lat.values, b.lat.values],
+    ['longitude', a.lon.values, b.lon.values],
+  ] as const) {
     if (x.length !== y.length) return `${x.length} ${k} points against ${y.length}`;
     for (let i = 0; i < x.length; i++) if (Math.abs(x[i] - y[i]) > 1e-4) return `${k} point ${i} is ${x[i]} against ${y[i]}`;
   }
@@ -135,7 +138,14 @@ export async function checkCoverage(paths: string[], opts: CoverageOptions = {})
 /** The coverage of analysed files (left open). */
 export async function coverageOf(all: AnalysedFile[], opts: CoverageOptions = {}): Promise<CoverageReport> {
   const name = (f: AnalysedFile) => f.info.name;
-  const described: CoverageFile[] = all.map((f) => ({ name: name(f), path: f.sf.path, grid: gridOf(f), variables: f.info.variables, timeStart: f.info.timeStart, timeEnd: f.info.timeEnd }));
+  const described: CoverageFile[] = all.map((f) => ({
+    name: name(f),
+    path: f.sf.path,
+    grid: gridOf(f),
+    variables: f.info.variables,
+    timeStart: f.info.timeStart,
+    timeEnd: f.info.timeEnd,
+  }));
   // The reference grid: the one most files share (the first such file's).
   let ref: AnalysedFile | undefined;
   let best = 0;
@@ -273,7 +283,14 @@ export async function coverageOf(all: AnalysedFile[], opts: CoverageOptions = {}
           maxDifference = Math.max(maxDifference, diff.max);
         }
       }
-      duplicates.push({ from: isoSeconds(stampOf(dups[i].h)), to: isoSeconds(stampOf(dups[j].h)), hours: j - i + 1, files: [files[dups[i].a].sf.path, files[dups[i].b].sf.path], differing, maxDifference });
+      duplicates.push({
+        from: isoSeconds(stampOf(dups[i].h)),
+        to: isoSeconds(stampOf(dups[j].h)),
+        hours: j - i + 1,
+        files: [files[dups[i].a].sf.path, files[dups[i].b].sf.path],
+        differing,
+        maxDifference,
+      });
       i = j + 1;
     }
     // ERA5T runs.

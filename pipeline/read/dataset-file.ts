@@ -98,7 +98,8 @@ async function analyse(sf: SourceFile, digest: boolean, known?: string): Promise
   const file = sf.path;
   const latVar = findAxisVar(sf, 'lat');
   const lonVar = findAxisVar(sf, 'lon');
-  if (!latVar || !lonVar) throw NetcdfGridUnsupported({ detail: `${file}: no 1-D latitude and longitude coordinate variables (degrees_north, degrees_east)` }, { file });
+  if (!latVar || !lonVar)
+    throw NetcdfGridUnsupported({ detail: `${file}: no 1-D latitude and longitude coordinate variables (degrees_north, degrees_east)` }, { file });
   const lat = normalizeLatitude(await sf.readNumbers(latVar), file);
   const lon = normalizeLongitude(await sf.readNumbers(lonVar), file);
 
@@ -124,7 +125,10 @@ async function analyse(sf: SourceFile, digest: boolean, known?: string): Promise
     for (let i = 0; i < n - 2; i++) {
       if (i === tDim || i === eDim) continue;
       if (v.shape[i] !== 1) {
-        throw NetcdfDimensionUnsupported({ detail: `${v.name} has dimension ${v.dims[i]} of length ${v.shape[i]} (only time, expver, latitude and longitude may be longer than 1)` }, where);
+        throw NetcdfDimensionUnsupported(
+          { detail: `${v.name} has dimension ${v.dims[i]} of length ${v.shape[i]} (only time, expver, latitude and longitude may be longer than 1)` },
+          where,
+        );
       }
     }
     if (tDim < 0 && role.short !== 'lsm') {
@@ -189,6 +193,7 @@ async function analyse(sf: SourceFile, digest: boolean, known?: string): Promise
     timeEnd: times && times.length > 0 ? isoSeconds(times[times.length - 1]) : '',
     variables: shorts,
   };
-  const expverLabels = expverOrder && expverVar ? (isNumericType(expverVar.type) ? Array.from(await sf.readNumbers(expverVar)) : await sf.readStrings(expverVar)) : undefined;
+  const expverLabels =
+    expverOrder && expverVar ? (isNumericType(expverVar.type) ? Array.from(await sf.readNumbers(expverVar)) : await sf.readStrings(expverVar)) : undefined;
   return { sf, info, lat, lon, times, timeRanks, expverOrder, ...(expverLabels ? { expverLabels } : {}), vars, byName };
 }

@@ -11,7 +11,15 @@ import { denseStrides, type RawSlab, type SlabRequest } from './source.ts';
 import { fileDigests } from './file-digests.ts';
 import { analyseFile, HOUR_MS, type AnalysedFile, type FileVariable } from './dataset-file.ts';
 import { ERA5_ROLES, baseName, type Era5Short } from './era5-variables.ts';
-import { MissingNetcdfVariable, NetcdfBlockOutOfRange, NetcdfChunkDamaged, NetcdfDataUnreadable, NetcdfGridMismatch, NetcdfNoFiles, NetcdfReadFailed } from './errors.ts';
+import {
+  MissingNetcdfVariable,
+  NetcdfBlockOutOfRange,
+  NetcdfChunkDamaged,
+  NetcdfDataUnreadable,
+  NetcdfGridMismatch,
+  NetcdfNoFiles,
+  NetcdfReadFailed,
+} from './errors.ts';
 import { HeathoursError } from '../model/errors.ts';
 import { sourceRuns } from './grid-normalize.ts';
 import { buildHourAxis, type HourAxis } from './hour-index.ts';
@@ -127,7 +135,6 @@ export interface SummaryChunkCache {
   set(key: string, value: Record<string, SummaryAccumulator>): void;
 }
 
-
 /** Hour-index ranges [c0, c1) of the hours (stamps are hour ends [ms]) that start in one UTC year. */
 export function utcYearChunks(start: number, count: number): Array<[number, number]> {
   const out: Array<[number, number]> = [];
@@ -204,7 +211,11 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
       const first = await ds.decodeWholeField(f, fv, 0);
       let lo = Infinity;
       let hi = -Infinity;
-      for (const x of first) if (x === x) { if (x < lo) lo = x; if (x > hi) hi = x; }
+      for (const x of first)
+        if (x === x) {
+          if (x < lo) lo = x;
+          if (x > hi) hi = x;
+        }
       const [plo, phi] = PLAUSIBLE[fv.role.plausible];
       const scale = era5Land && fv.conversion.accumulated ? 24 : 1; // up to 24 h accumulated
       if (scale !== 1) {
@@ -224,7 +235,17 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
       const so = scaleOffsetOf(v);
       const role = ERA5_ROLES.find((r) => r.short === 'lsm')!;
       const n = v.dims.length;
-      fv = { v, role, units: attrText(v, 'units') ?? '', conversion: { k: 1, c: 0, accumulated: false }, plan: makeDecodePlan(maskSpecOf(v, so), so), tDim: n > 2 ? 0 : -1, eDim: -1, latDim: n - 2, lonDim: n - 1 };
+      fv = {
+        v,
+        role,
+        units: attrText(v, 'units') ?? '',
+        conversion: { k: 1, c: 0, accumulated: false },
+        plan: makeDecodePlan(maskSpecOf(v, so), so),
+        tDim: n > 2 ? 0 : -1,
+        eDim: -1,
+        latDim: n - 2,
+        lonDim: n - 1,
+      };
     }
     if (fv) {
       landFraction = await ds.decodeWholeField(f, fv, 0);
@@ -242,7 +263,11 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
     }
     landMask = new Uint8Array(ny * nx);
     landCells = 0;
-    for (let i = 0; i < landMask.length; i++) if (landFraction[i] >= opts.landSeaMask.threshold) { landMask[i] = 1; landCells++; }
+    for (let i = 0; i < landMask.length; i++)
+      if (landFraction[i] >= opts.landSeaMask.threshold) {
+        landMask[i] = 1;
+        landCells++;
+      }
   }
 
   // A summary chunk's key: its hours, the variables, and the files (name, SHA-256) holding them.
@@ -254,7 +279,9 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
       .filter((f) => f.timeStart && Date.parse(f.timeEnd) >= from && Date.parse(f.timeStart) <= to)
       .map((f) => `${f.name}:${f.sha256}`)
       .sort();
-    return createHash('sha256').update(JSON.stringify({ version: 1, from, to, variables, held })).digest('hex');
+    return createHash('sha256')
+      .update(JSON.stringify({ version: 1, from, to, variables, held }))
+      .digest('hex');
   };
 
   /** Min, max, sum and counts of every variable over hours [c0, c1) of the whole grid. */
@@ -332,9 +359,29 @@ async function assemble(files: AnalysedFile[], opts: OpenDatasetOptions): Promis
         };
       });
       if (landFraction) {
-        let min = Infinity, max = -Infinity, sum = 0, n = 0, fill = 0;
-        for (const v of landFraction) if (v === v) { min = Math.min(min, v); max = Math.max(max, v); sum += v; n++; } else fill++;
-        out.push({ name: 'landFraction', source: maskName, units: '1', sourceUnits: '1', long_name: CANONICAL_FIELDS.landFraction.long_name, min, max, mean: n ? sum / n : NaN, fillCount: fill });
+        let min = Infinity,
+          max = -Infinity,
+          sum = 0,
+          n = 0,
+          fill = 0;
+        for (const v of landFraction)
+          if (v === v) {
+            min = Math.min(min, v);
+            max = Math.max(max, v);
+            sum += v;
+            n++;
+          } else fill++;
+        out.push({
+          name: 'landFraction',
+          source: maskName,
+          units: '1',
+          sourceUnits: '1',
+          long_name: CANONICAL_FIELDS.landFraction.long_name,
+          min,
+          max,
+          mean: n ? sum / n : NaN,
+          fillCount: fill,
+        });
       }
       return out;
     },
@@ -503,7 +550,9 @@ class DatasetReader {
       throw NetcdfBlockOutOfRange({ detail: `hours [${t0}, ${t0 + nt}) asked for; the dataset has hours [0, ${this.axis.count})` });
     }
     if (!(tile.y0 >= 0 && tile.y1 <= ny && tile.y0 < tile.y1 && tile.x0 >= 0 && tile.x1 <= nx && tile.x0 < tile.x1)) {
-      throw NetcdfBlockOutOfRange({ detail: `tile rows [${tile.y0}, ${tile.y1}) columns [${tile.x0}, ${tile.x1}) asked for; the grid has ${ny} rows and ${nx} columns` });
+      throw NetcdfBlockOutOfRange({
+        detail: `tile rows [${tile.y0}, ${tile.y1}) columns [${tile.x0}, ${tile.x1}) asked for; the grid has ${ny} rows and ${nx} columns`,
+      });
     }
     const cells = tileSize(tile);
     const fields: HourlyBlock['fields'] = {};
@@ -586,7 +635,11 @@ function withHours(e: unknown, f: AnalysedFile, jobs: Job[]): unknown {
   const stamp = (i: number) => (f.times && i >= 0 && i < f.times.length ? isoSeconds(f.times[i]) : 'the static field');
   const first = Math.min(...pick.map((j) => j.tStart));
   const last = Math.max(...pick.map((j) => j.tStart + j.nt - 1));
-  return NetcdfDataUnreadable({ path: f.sf.path, variable, from: stamp(first), to: stamp(last), detail: e.message.replace(`${f.sf.path}: `, '') }, { file: f.sf.path, variable }, e.details);
+  return NetcdfDataUnreadable(
+    { path: f.sf.path, variable, from: stamp(first), to: stamp(last), detail: e.message.replace(`${f.sf.path}: `, '') },
+    { file: f.sf.path, variable },
+    e.details,
+  );
 }
 
 /** 10 m wind speed [m/s] from its components [m/s], into `out` (a plain function: its arguments stay in registers). */

@@ -228,12 +228,20 @@ function valueGetter(slab: RawSlab): (at: number) => number {
     return (at) => d[at];
   }
   switch (slab.type) {
-    case 'byte': return (at) => dv.getInt8(at);
-    case 'char': case 'ubyte': return (at) => dv.getUint8(at);
-    case 'short': return (at) => dv.getInt16(at, false);
-    case 'int': return (at) => dv.getInt32(at, false);
-    case 'float': return (at) => dv.getFloat32(at, false);
-    case 'double': return (at) => dv.getFloat64(at, false);
-    default: throw new Error(`cannot decode values of type ${slab.type}`);
+    case 'byte':
+      return (at) => dv.getInt8(at);
+    case 'char':
+    case 'ubyte':
+      return (at) => dv.getUint8(at);
+    case 'short':
+      return (at) => dv.getInt16(at, false);
+    case 'int':
+      return (at) => dv.getInt32(at, false);
+    case 'float':
+      return (at) => dv.getFloat32(at, false);
+    case 'double':
+      return (at) => dv.getFloat64(at, false);
+    default:
+      throw new Error(`cannot decode values of type ${slab.type}`);
   }
 }

@@ -167,10 +167,18 @@ export function planRequests(p: PlanRequestsInput): RequestsFile {
   const dataset = DATASET[p.product];
   const base = (variable: string[], year: string[], month: string[], day: string[], time: string[]) => ({
     ...(p.product === 'era5' ? { product_type: ['reanalysis' as const] } : {}),
-    variable, year, month, day, time, area, data_format: 'netcdf' as const, download_format: 'zip' as const,
+    variable,
+    year,
+    month,
+    day,
+    time,
+    area,
+    data_format: 'netcdf' as const,
+    download_format: 'zip' as const,
   });
   const out: DownloadRequest[] = [];
-  const push = (r: Omit<DownloadRequest, 'present'>, months: { year: number; months: number[] } | null) => out.push({ ...r, present: p.isPresent ? p.isPresent(r, months) : false });
+  const push = (r: Omit<DownloadRequest, 'present'>, months: { year: number; months: number[] } | null) =>
+    out.push({ ...r, present: p.isPresent ? p.isPresent(r, months) : false });
   const prefix = p.product === 'era5' ? 'era5' : 'era5-land';
   for (let y = p.years[0]; y <= p.years[1]; y++) {
     // Variable groups: all together unless one month is over the limit.
@@ -185,43 +193,67 @@ export function planRequests(p: PlanRequestsInput): RequestsFile {
         const fields = g.length * hoursInMonths(y, m, m1);
         const months = Array.from({ length: m1 - m + 1 }, (_, i) => m + i);
         const tag = `${y}-${pad2(m)}${m1 > m ? `-${pad2(m1)}` : ''}${groups.length > 1 ? `-v${gi + 1}` : ''}`;
-        push({
-          dataset,
-          request: base(g.map((v) => v.name), [String(y)], months.map(pad2), DAYS, TIMES),
-          target: `${prefix}-${tag}.zip`,
-          purpose: `year ${y}, month${m1 > m ? `s ${pad2(m)}-${pad2(m1)}` : ` ${pad2(m)}`}${groups.length > 1 ? `, variables ${g.map((v) => v.short).join(', ')}` : ''}`,
-          fields,
-          bytesEstimate: fields * points * 4,
-        }, { year: y, months });
+        push(
+          {
+            dataset,
+            request: base(
+              g.map((v) => v.name),
+              [String(y)],
+              months.map(pad2),
+              DAYS,
+              TIMES,
+            ),
+            target: `${prefix}-${tag}.zip`,
+            purpose: `year ${y}, month${m1 > m ? `s ${pad2(m)}-${pad2(m1)}` : ` ${pad2(m)}`}${groups.length > 1 ? `, variables ${g.map((v) => v.short).join(', ')}` : ''}`,
+            fields,
+            bytesEstimate: fields * points * 4,
+          },
+          { year: y, months },
+        );
         m = m1 + 1;
       }
     }
   }
   // The last hour of the last year ends at 00:00 on 1 January of the next year.
   const next = p.years[1] + 1;
-  push({
-    dataset,
-    request: base(vars.map((v) => v.name), [String(next)], ['01'], ['01'], ['00:00']),
-    target: `${prefix}-${next}-01-01T00.zip`,
-    purpose: `the last hour of ${p.years[1]} (stamp ${next}-01-01T00:00Z, the end of the hour)`,
-    fields: vars.length,
-    bytesEstimate: vars.length * points * 4,
-  }, null);
-  if (p.landSeaMask) {
-    push({
+  push(
+    {
       dataset,
-      request: base(['land_sea_mask'], [String(p.years[0])], ['01'], ['01'], ['00:00']),
-      target: `${prefix}-land-sea-mask.zip`,
-      purpose: 'land-sea mask (invariant: one hour)',
-      fields: 1,
-      bytesEstimate: points * 4,
-    }, null);
+      request: base(
+        vars.map((v) => v.name),
+        [String(next)],
+        ['01'],
+        ['01'],
+        ['00:00'],
+      ),
+      target: `${prefix}-${next}-01-01T00.zip`,
+      purpose: `the last hour of ${p.years[1]} (stamp ${next}-01-01T00:00Z, the end of the hour)`,
+      fields: vars.length,
+      bytesEstimate: vars.length * points * 4,
+    },
+    null,
+  );
+  if (p.landSeaMask) {
+    push(
+      {
+        dataset,
+        request: base(['land_sea_mask'], [String(p.years[0])], ['01'], ['01'], ['00:00']),
+        target: `${prefix}-land-sea-mask.zip`,
+        purpose: 'land-sea mask (invariant: one hour)',
+        fields: 1,
+        bytesEstimate: points * 4,
+      },
+      null,
+    );
   }
   return {
     atlas: p.atlas,
     product: p.product,
     fieldLimit: limit,
-    fieldLimitSource: p.fieldLimit !== undefined ? 'given with --max-fields' : `from memory of the data store's "CDS limits" page (${FIELD_LIMIT.era5} fields per request for ERA5 single levels, ${FIELD_LIMIT['era5-land']} for ERA5-Land); not checked against the store's current limits`,
+    fieldLimitSource:
+      p.fieldLimit !== undefined
+        ? 'given with --max-fields'
+        : `from memory of the data store's "CDS limits" page (${FIELD_LIMIT.era5} fields per request for ERA5 single levels, ${FIELD_LIMIT['era5-land']} for ERA5-Land); not checked against the store's current limits`,
     regionsBox: p.regionsBox,
     margin: p.margin,
     area,

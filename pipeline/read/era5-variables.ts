@@ -24,24 +24,111 @@ export interface Era5Role {
 }
 
 export const ERA5_ROLES: Era5Role[] = [
-  { short: 't2m', canonical: 'airTemperature', kind: 'temperature', plausible: 'temperature', aliases: ['2m_temperature', '2t', 't2', 'var167'], standardNames: [], longNames: ['2 metre temperature', '2m temperature', '2 m temperature'] },
-  { short: 'd2m', canonical: 'dewPointTemperature', kind: 'temperature', plausible: 'temperature', aliases: ['2m_dewpoint_temperature', '2d', 'var168'], standardNames: ['dew_point_temperature'], longNames: ['2 metre dewpoint temperature', '2m dewpoint temperature', '2 metre dew point temperature'] },
-  { short: 'u10', canonical: 'windSpeed10m', kind: 'speed', plausible: 'speed', aliases: ['10m_u_component_of_wind', '10u', 'var165'], standardNames: [], longNames: ['10 metre u wind component', '10m u component of wind', '10 metre u-component of wind'] },
-  { short: 'v10', canonical: 'windSpeed10m', kind: 'speed', plausible: 'speed', aliases: ['10m_v_component_of_wind', '10v', 'var166'], standardNames: [], longNames: ['10 metre v wind component', '10m v component of wind', '10 metre v-component of wind'] },
-  { short: 'sp', canonical: 'surfacePressure', kind: 'pressure', plausible: 'pressure', aliases: ['surface_pressure', 'var134'], standardNames: ['surface_air_pressure'], longNames: ['surface pressure'] },
-  { short: 'ssrd', canonical: 'solarGlobal', kind: 'accumulatedEnergy', plausible: 'flux', aliases: ['surface_solar_radiation_downwards', 'var169'], standardNames: ['surface_downwelling_shortwave_flux_in_air'], longNames: ['surface solar radiation downwards', 'surface short-wave (solar) radiation downwards'] },
-  { short: 'fdir', canonical: 'solarDirect', kind: 'accumulatedEnergy', plausible: 'flux', aliases: ['total_sky_direct_solar_radiation_at_surface', 'var228021'], standardNames: ['surface_direct_downwelling_shortwave_flux_in_air'], longNames: ['total sky direct solar radiation at surface'] },
-  { short: 'strd', canonical: 'thermalDown', kind: 'accumulatedEnergy', plausible: 'flux', aliases: ['surface_thermal_radiation_downwards', 'var175'], standardNames: ['surface_downwelling_longwave_flux_in_air'], longNames: ['surface thermal radiation downwards', 'surface long-wave (thermal) radiation downwards'] },
-  { short: 'lsm', canonical: 'landFraction', kind: 'fraction', plausible: 'fraction', aliases: ['land_sea_mask', 'var172'], standardNames: ['land_binary_mask', 'land_area_fraction'], longNames: ['land-sea mask', 'land sea mask'] },
+  {
+    short: 't2m',
+    canonical: 'airTemperature',
+    kind: 'temperature',
+    plausible: 'temperature',
+    aliases: ['2m_temperature', '2t', 't2', 'var167'],
+    standardNames: [],
+    longNames: ['2 metre temperature', '2m temperature', '2 m temperature'],
+  },
+  {
+    short: 'd2m',
+    canonical: 'dewPointTemperature',
+    kind: 'temperature',
+    plausible: 'temperature',
+    aliases: ['2m_dewpoint_temperature', '2d', 'var168'],
+    standardNames: ['dew_point_temperature'],
+    longNames: ['2 metre dewpoint temperature', '2m dewpoint temperature', '2 metre dew point temperature'],
+  },
+  {
+    short: 'u10',
+    canonical: 'windSpeed10m',
+    kind: 'speed',
+    plausible: 'speed',
+    aliases: ['10m_u_component_of_wind', '10u', 'var165'],
+    standardNames: [],
+    longNames: ['10 metre u wind component', '10m u component of wind', '10 metre u-component of wind'],
+  },
+  {
+    short: 'v10',
+    canonical: 'windSpeed10m',
+    kind: 'speed',
+    plausible: 'speed',
+    aliases: ['10m_v_component_of_wind', '10v', 'var166'],
+    standardNames: [],
+    longNames: ['10 metre v wind component', '10m v component of wind', '10 metre v-component of wind'],
+  },
+  {
+    short: 'sp',
+    canonical: 'surfacePressure',
+    kind: 'pressure',
+    plausible: 'pressure',
+    aliases: ['surface_pressure', 'var134'],
+    standardNames: ['surface_air_pressure'],
+    longNames: ['surface pressure'],
+  },
+  {
+    short: 'ssrd',
+    canonical: 'solarGlobal',
+    kind: 'accumulatedEnergy',
+    plausible: 'flux',
+    aliases: ['surface_solar_radiation_downwards', 'var169'],
+    standardNames: ['surface_downwelling_shortwave_flux_in_air'],
+    longNames: ['surface solar radiation downwards', 'surface short-wave (solar) radiation downwards'],
+  },
+  {
+    short: 'fdir',
+    canonical: 'solarDirect',
+    kind: 'accumulatedEnergy',
+    plausible: 'flux',
+    aliases: ['total_sky_direct_solar_radiation_at_surface', 'var228021'],
+    standardNames: ['surface_direct_downwelling_shortwave_flux_in_air'],
+    longNames: ['total sky direct solar radiation at surface'],
+  },
+  {
+    short: 'strd',
+    canonical: 'thermalDown',
+    kind: 'accumulatedEnergy',
+    plausible: 'flux',
+    aliases: ['surface_thermal_radiation_downwards', 'var175'],
+    standardNames: ['surface_downwelling_longwave_flux_in_air'],
+    longNames: ['surface thermal radiation downwards', 'surface long-wave (thermal) radiation downwards'],
+  },
+  {
+    short: 'lsm',
+    canonical: 'landFraction',
+    kind: 'fraction',
+    plausible: 'fraction',
+    aliases: ['land_sea_mask', 'var172'],
+    standardNames: ['land_binary_mask', 'land_area_fraction'],
+    longNames: ['land-sea mask', 'land sea mask'],
+  },
 ];
 
 /**
  * Array names of the analysis-ready ERA5 Zarr stores: the data store's request names of the
  * variables (also its `variable` keys in download requests, download-request.ts), kept as aliases above.
  */
-export const STORE_NAMES: ReadonlySet<string> = new Set(['2m_temperature', '2m_dewpoint_temperature', '10m_u_component_of_wind', '10m_v_component_of_wind', 'surface_pressure', 'surface_solar_radiation_downwards', 'total_sky_direct_solar_radiation_at_surface', 'surface_thermal_radiation_downwards', 'land_sea_mask']);
+export const STORE_NAMES: ReadonlySet<string> = new Set([
+  '2m_temperature',
+  '2m_dewpoint_temperature',
+  '10m_u_component_of_wind',
+  '10m_v_component_of_wind',
+  'surface_pressure',
+  'surface_solar_radiation_downwards',
+  'total_sky_direct_solar_radiation_at_surface',
+  'surface_thermal_radiation_downwards',
+  'land_sea_mask',
+]);
 
-const norm = (s: string) => s.trim().toLowerCase().replace(/\s+/g, ' ').replace(/\bmeter\b/g, 'metre');
+const norm = (s: string) =>
+  s
+    .trim()
+    .toLowerCase()
+    .replace(/\s+/g, ' ')
+    .replace(/\bmeter\b/g, 'metre');
 
 /** Base name of a (possibly group-qualified) variable. */
 export function baseName(name: string): string {

@@ -29,8 +29,7 @@ export const NetcdfFileEmpty = defineError<{ path: string }>({
 export const NetcdfFileTruncated = defineError<{ path: string; bytes: number; expected: number | null; detail: string }>({
   code: 'NetcdfFileTruncated',
   title: 'An input file is cut short',
-  message: (p) =>
-    `${p.path} has ${p.bytes} bytes` + (p.expected !== null ? ` but its header says it needs at least ${p.expected}` : '') + ` (${p.detail})`,
+  message: (p) => `${p.path} has ${p.bytes} bytes` + (p.expected !== null ? ` but its header says it needs at least ${p.expected}` : '') + ` (${p.detail})`,
   hint: () => 'the download or copy was interrupted; fetch the file again and compare its size or checksum',
 });
 
@@ -153,7 +152,8 @@ export const NetcdfTimeGap = defineError<{ from: string; to: string; where: stri
   code: 'NetcdfTimeGap',
   title: 'The hourly time axis of the dataset has a gap',
   message: (p) => `no data for the hours ${p.from} to ${p.to} (end of hour, UTC), ${p.where}`,
-  hint: () => 'add the file(s) for the missing months, or restrict the configuration to years without gaps; a gap inside one file means a time value of it is damaged (fetch it again)',
+  hint: () =>
+    'add the file(s) for the missing months, or restrict the configuration to years without gaps; a gap inside one file means a time value of it is damaged (fetch it again)',
 });
 
 export const NetcdfDuplicateHours = defineError<{ variable: string; hour: string; fileA: string; fileB: string }>({
@@ -184,14 +184,15 @@ export const NetcdfReadStuck = defineError<{ path: string; what: string; seconds
     p.again
       ? `${p.path}: ${p.what} did not finish within ${p.seconds} s earlier in this run, and the file has not changed since; the HDF5 library loops on damaged metadata of this file`
       : `${p.path}: ${p.what} did not finish within ${p.seconds} s; the HDF5 library loops on damaged metadata of this file`,
-  hint: () => 'the file is damaged: fetch it again and compare its size or checksum with the source (netCDF-C\'s ncdump loops on such a file too)',
+  hint: () => "the file is damaged: fetch it again and compare its size or checksum with the source (netCDF-C's ncdump loops on such a file too)",
 });
 
 export const NetcdfDataUnreadable = defineError<{ path: string; variable: string; from: string; to: string; detail: string }>({
   code: 'NetcdfDataUnreadable',
   title: 'Values of a NetCDF file cannot be read',
   message: (p) => `${p.path}: ${p.variable} for the hours ${p.from} to ${p.to} (end of hour, UTC) cannot be read: ${p.detail}`,
-  hint: () => 'the file is damaged in its data (a compressed chunk does not inflate, or its index points nowhere): fetch it again; `ncdump -v VAR FILE` stops at the same place',
+  hint: () =>
+    'the file is damaged in its data (a compressed chunk does not inflate, or its index points nowhere): fetch it again; `ncdump -v VAR FILE` stops at the same place',
 });
 
 /** The one GDAL command that reprojects a count raster to EPSG:4326 while keeping its totals (shown in hints). */
@@ -201,7 +202,8 @@ export const WorkforceRasterUnreadable = defineError<{ path: string; detail: str
   code: 'WorkforceRasterUnreadable',
   title: 'The workforce raster cannot be read as a GeoTIFF',
   message: (p) => `${p.path}: ${p.detail}`,
-  hint: () => 'check that workforce.raster is a GeoTIFF (gdalinfo shows its driver and size) and that it was copied whole; compressed files are fine (DEFLATE, LZW, ZSTD)',
+  hint: () =>
+    'check that workforce.raster is a GeoTIFF (gdalinfo shows its driver and size) and that it was copied whole; compressed files are fine (DEFLATE, LZW, ZSTD)',
 });
 
 export const WorkforceRasterBands = defineError<{ path: string; bands: number }>({
@@ -263,7 +265,8 @@ export const ZipArchiveUnreadable = defineError<{ path: string; detail: string }
   code: 'ZipArchiveUnreadable',
   title: 'A ZIP archive cannot be read',
   message: (p) => `${p.path} is not a readable ZIP archive: ${p.detail}`,
-  hint: () => 'the download was probably interrupted (a ZIP keeps its table of contents at the very end); fetch the archive again and compare its size, or test it with `unzip -t`',
+  hint: () =>
+    'the download was probably interrupted (a ZIP keeps its table of contents at the very end); fetch the archive again and compare its size, or test it with `unzip -t`',
 });
 
 export const ZipArchiveEmpty = defineError<{ path: string }>({
@@ -323,8 +326,10 @@ export const ZarrStoreUnreachable = defineError<{ location: string; detail: stri
 export const ZarrStoreUnlisted = defineError<{ location: string }>({
   code: 'ZarrStoreUnlisted',
   title: 'A Zarr store over HTTP has no consolidated metadata',
-  message: (p) => `${p.location} has no consolidated metadata (.zmetadata, or consolidated_metadata in zarr.json), and a store over HTTP cannot be listed otherwise`,
-  hint: () => 'consolidate the store\'s metadata where it is written (zarr.consolidate_metadata, or xarray\'s to_zarr(consolidated=True)), or copy it to a local folder and name the folder in dataset.zarr',
+  message: (p) =>
+    `${p.location} has no consolidated metadata (.zmetadata, or consolidated_metadata in zarr.json), and a store over HTTP cannot be listed otherwise`,
+  hint: () =>
+    "consolidate the store's metadata where it is written (zarr.consolidate_metadata, or xarray's to_zarr(consolidated=True)), or copy it to a local folder and name the folder in dataset.zarr",
 });
 
 export const ZarrMetadataInvalid = defineError<{ location: string; detail: string }>({
@@ -340,7 +345,8 @@ export const ZarrGridMismatch = defineError<{ location: string; dimension: strin
   code: 'ZarrGridMismatch',
   title: 'Arrays of a Zarr store disagree on a dimension',
   message: (p) => `${p.location}: dimension ${p.dimension} has length ${p.sizeA} in array ${p.variableA} but ${p.sizeB} in array ${p.variableB}`,
-  hint: () => 'all variables of one store must share their grid and hours; put variables on other grids or hours into a store of their own, or regrid them first (e.g. `cdo remapbil`)',
+  hint: () =>
+    'all variables of one store must share their grid and hours; put variables on other grids or hours into a store of their own, or regrid them first (e.g. `cdo remapbil`)',
 });
 
 export const ZarrChunkUnreadable = defineError<{ location: string; variable: string; slab: string; detail: string }>({

@@ -5,14 +5,7 @@
  * empty files, anything else) are catalogued errors that say what to convert with.
  */
 import { open, stat } from 'node:fs/promises';
-import {
-  NetcdfCdf5Unsupported,
-  NetcdfFileEmpty,
-  NetcdfFileNotFound,
-  NetcdfFileTruncated,
-  NetcdfGribFile,
-  NetcdfUnknownFormat,
-} from './errors.ts';
+import { NetcdfCdf5Unsupported, NetcdfFileEmpty, NetcdfFileNotFound, NetcdfFileTruncated, NetcdfGribFile, NetcdfUnknownFormat } from './errors.ts';
 
 /** File formats the reader can open (names as in pipeline/read/inventory-types.ts). */
 export type NetcdfFormat = 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';

@@ -16,7 +16,7 @@ export interface AxisMap {
 
 /** Wraps a longitude into [-180, 180) [° E]. */
 export function wrapLongitude(lon: number): number {
-  const w = (((lon + 180) % 360) + 360) % 360 - 180;
+  const w = ((((lon + 180) % 360) + 360) % 360) - 180;
   return w === 180 ? -180 : w;
 }
 
@@ -54,7 +54,10 @@ export function normalizeLongitude(lon: ArrayLike<number>, where: string): AxisM
   pairs.sort((a, b) => a.w - b.w);
   for (let i = 1; i < n; i++) {
     if (Math.abs(pairs[i].w - pairs[i - 1].w) < 1e-9) {
-      throw NetcdfGridUnsupported({ detail: `${where}: longitude ${pairs[i].w} appears twice after wrapping (a grid that repeats its first column at +360?)` }, { file: where });
+      throw NetcdfGridUnsupported(
+        { detail: `${where}: longitude ${pairs[i].w} appears twice after wrapping (a grid that repeats its first column at +360?)` },
+        { file: where },
+      );
     }
   }
   let cut = -1; // rotate so that the canonical axis starts after the widest gap

@@ -26,7 +26,9 @@ export const LITTLE_ENDIAN_HOST = endianness() === 'LE';
 function inflateChunk(b: Uint8Array, expected: number): Promise<Buffer> {
   return new Promise((resolve, reject) => {
     // One output buffer of the chunk's size; a stream that would inflate to more stops there.
-    inflate(b, { chunkSize: Math.max(64, Math.min(expected + 64, 1 << 30)), maxOutputLength: Math.max(1, expected) }, (e, out) => (e ? reject(e) : resolve(out)));
+    inflate(b, { chunkSize: Math.max(64, Math.min(expected + 64, 1 << 30)), maxOutputLength: Math.max(1, expected) }, (e, out) =>
+      e ? reject(e) : resolve(out),
+    );
   });
 }
 
@@ -94,7 +96,16 @@ export function unshuffle(src: Uint8Array, dst: Uint8Array, size: number): void 
  * through `scratch` (a chunk's bytes). Runs that are contiguous in both the chunk and the slab
  * are copied as one.
  */
-export function scatterChunk(idx: ChunkIndex, origin: number[], chunk: Uint8Array, off: number[], cnt: number[], out: Uint8Array, shuffled = false, scratch?: Uint8Array): void {
+export function scatterChunk(
+  idx: ChunkIndex,
+  origin: number[],
+  chunk: Uint8Array,
+  off: number[],
+  cnt: number[],
+  out: Uint8Array,
+  shuffled = false,
+  scratch?: Uint8Array,
+): void {
   const rank = origin.length;
   const E = idx.elementBytes;
   if (shuffled && E !== 2 && E !== 4) {
@@ -224,7 +235,10 @@ export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
   for (const lin of list) if (idx.address[lin] < 0) return false;
   const chunkBytes = idx.chunk.reduce((a, b) => a * b, 1) * idx.elementBytes;
   const damaged = (lin: number, detail: string) =>
-    NetcdfChunkDamaged({ path: r.path, variable: r.variable, chunk: chunkLabel(r.dims, chunkOrigin(idx, lin)), at: idx.address[lin], size: idx.size[lin], detail }, { file: r.path, variable: r.variable });
+    NetcdfChunkDamaged(
+      { path: r.path, variable: r.variable, chunk: chunkLabel(r.dims, chunkOrigin(idx, lin)), at: idx.address[lin], size: idx.size[lin], detail },
+      { file: r.path, variable: r.variable },
+    );
   // Stored bytes: checked against the file, then read in one go when the chunks lie close together.
   let lo = Infinity;
   let hi = 0;
@@ -267,7 +281,10 @@ export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
         try {
           b = sync ? inflateSync(b, { chunkSize: Math.max(64, chunkBytes + 64), maxOutputLength: Math.max(1, chunkBytes) }) : await inflateChunk(b, chunkBytes);
         } catch (e) {
-          const why = (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE' ? `it inflates to more than the ${chunkBytes} bytes of a chunk` : `it does not inflate (${(e as Error).message})`;
+          const why =
+            (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE'
+              ? `it inflates to more than the ${chunkBytes} bytes of a chunk`
+              : `it does not inflate (${(e as Error).message})`;
           throw damaged(lin, why);
         }
       } else if (idx.elementBytes > 1) {

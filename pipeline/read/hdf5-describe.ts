@@ -20,7 +20,16 @@ const HIDDEN_ATTRS = new Set(['CLASS', 'NAME', 'REFERENCE_LIST', 'DIMENSION_LIST
 /** NAME of a dimension scale that is a dimension without a coordinate variable (netCDF-C). */
 const PURE_DIMENSION = 'This is a netCDF dimension but not a netCDF variable';
 
-export interface H5Metadata { type: number; size: number; signed?: boolean; vlen?: boolean; littleEndian?: boolean; shape?: number[] | null; maxshape?: number[] | null; chunks?: number[] | null }
+export interface H5Metadata {
+  type: number;
+  size: number;
+  signed?: boolean;
+  vlen?: boolean;
+  littleEndian?: boolean;
+  shape?: number[] | null;
+  maxshape?: number[] | null;
+  chunks?: number[] | null;
+}
 
 export interface Hdf5Variable {
   /** Name with group path, no leading slash (`grp1/T`). */
@@ -55,10 +64,14 @@ export function rawType(m: H5Metadata): RawType {
   if (m.type === 0) {
     const s = m.signed !== false;
     switch (m.size) {
-      case 1: return s ? 'byte' : 'ubyte';
-      case 2: return s ? 'short' : 'ushort';
-      case 4: return s ? 'int' : 'uint';
-      case 8: return s ? 'int64' : 'uint64';
+      case 1:
+        return s ? 'byte' : 'ubyte';
+      case 2:
+        return s ? 'short' : 'ushort';
+      case 4:
+        return s ? 'int' : 'uint';
+      case 8:
+        return s ? 'int64' : 'uint64';
     }
   }
   if (m.type === 1) return m.size === 4 ? 'float' : m.size === 8 ? 'double' : 'other';
@@ -139,7 +152,12 @@ export function describeHdf5(f: H5File, h5: H5Classes): Hdf5Description {
     const type = rawType(meta);
     const chunk0 = Number(meta.chunks?.[0] ?? 1);
     variables.push({
-      name, dims, shape, type, attrs, attrTypes,
+      name,
+      dims,
+      shape,
+      type,
+      attrs,
+      attrTypes,
       chunk0: Number.isSafeInteger(chunk0) && chunk0 >= 1 ? chunk0 : 1,
       valueBytes: Number(meta.size) || 0,
       plain: PLAIN.has(type) && meta.vlen !== true && meta.littleEndian !== false,
@@ -166,7 +184,13 @@ export function readHdf5Strings(f: H5File, name: string, h5: H5Classes, shape: n
     const len = shape.length > 0 ? shape[shape.length - 1] : 1;
     const dec = new TextDecoder('latin1');
     const res: string[] = [];
-    for (let i = 0; i < out.length; i += len) res.push(dec.decode(new Uint8Array(out.buffer, out.byteOffset + i, len)).replace(/\0+$/, '').trim());
+    for (let i = 0; i < out.length; i += len)
+      res.push(
+        dec
+          .decode(new Uint8Array(out.buffer, out.byteOffset + i, len))
+          .replace(/\0+$/, '')
+          .trim(),
+      );
     return res;
   }
   return [];

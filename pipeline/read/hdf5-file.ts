@@ -32,7 +32,14 @@ import { denseStrides, product, type RawArray, type RawType, type SlabRequest, t
 
 /** Typed-array constructor for values read straight from the wasm heap, by raw type. */
 const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => RawArray>> = {
-  byte: Int8Array, ubyte: Uint8Array, short: Int16Array, ushort: Uint16Array, int: Int32Array, uint: Uint32Array, float: Float32Array, double: Float64Array,
+  byte: Int8Array,
+  ubyte: Uint8Array,
+  short: Int16Array,
+  ushort: Uint16Array,
+  int: Int32Array,
+  uint: Uint32Array,
+  float: Float32Array,
+  double: Float64Array,
 };
 
 /** The last chunk(s) read of a variable along its first dimension, kept for the next block. */
@@ -97,7 +104,8 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
     sizes = e.message;
   }
   if (eof === null && bytes < 48) throw NetcdfFileTruncated({ path, bytes, expected: null, detail: 'the HDF5 superblock is incomplete' }, { file: path });
-  if (eof !== null && bytes < eof) throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
+  if (eof !== null && bytes < eof)
+    throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
   const d = await describeNetcdf4(path);
   ready ??= import('h5wasm/node').then(async (m) => {
     h5wasm = m.default;
@@ -121,11 +129,19 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
  */
 function h5call<T>(path: string, what: string, fn: () => T, variable?: string): T {
   const where = variable ? { file: path, variable } : { file: path };
-  if (stopped) throw NetcdfReadFailed({ path, detail: `${what}: the HDF5 library stopped earlier in this run (${stopped}); run the command again without the damaged file` }, where);
+  if (stopped)
+    throw NetcdfReadFailed(
+      { path, detail: `${what}: the HDF5 library stopped earlier in this run (${stopped}); run the command again without the damaged file` },
+      where,
+    );
   const r = quietly(fn);
   if (r.error === undefined) return r.value as T;
   if (isAbort(r.error)) stopped = `on ${path}`;
-  throw NetcdfReadFailed({ path, detail: `${what}${variable ? ` of variable ${variable}` : ''}: ${hdf5Reason(r.error, r.printed)}` }, where, r.printed || undefined);
+  throw NetcdfReadFailed(
+    { path, detail: `${what}${variable ? ` of variable ${variable}` : ''}: ${hdf5Reason(r.error, r.printed)}` },
+    where,
+    r.printed || undefined,
+  );
 }
 
 /**
@@ -197,15 +213,28 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
       if (heapPtr) h5module._free(heapPtr);
       heapBytes = 0;
       heapPtr = h5module._malloc(nbytes);
-      if (!heapPtr) throw NetcdfReadFailed({ path, detail: `variable ${v.name}: could not allocate ${nbytes} bytes for a read` }, { file: path, variable: v.name });
+      if (!heapPtr)
+        throw NetcdfReadFailed({ path, detail: `variable ${v.name}: could not allocate ${nbytes} bytes for a read` }, { file: path, variable: v.name });
       heapBytes = nbytes;
     }
     const slab = `[${off.map((o, i) => `${o}:${o + cnt[i]}`).join(', ')}]`;
-    const status = h5call(path, `reading hyperslab ${slab}`, () => {
-      const st = h5module.get_dataset_data(f.file_id, `/${v.name}`, cnt.map(BigInt), off.map(BigInt), cnt.map(() => 1n), BigInt(heapPtr));
-      if (st < 0) throw new Error(`status ${st}`);
-      return st;
-    }, v.name);
+    const status = h5call(
+      path,
+      `reading hyperslab ${slab}`,
+      () => {
+        const st = h5module.get_dataset_data(
+          f.file_id,
+          `/${v.name}`,
+          cnt.map(BigInt),
+          off.map(BigInt),
+          cnt.map(() => 1n),
+          BigInt(heapPtr),
+        );
+        if (st < 0) throw new Error(`status ${st}`);
+        return st;
+      },
+      v.name,
+    );
     return new View(h5module.HEAPU8.buffer, heapPtr, total);
   }
 
@@ -303,7 +332,11 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     read,
     readSlabs,
     async readNumbers(v) {
-      const raw = await this.read(v, v.shape.map(() => 0), v.shape);
+      const raw = await this.read(
+        v,
+        v.shape.map(() => 0),
+        v.shape,
+      );
       return raw instanceof Float64Array ? raw : Float64Array.from(raw);
     },
     // Text lives in HDF5's global heap, where damage can make the library loop: read it in the

@@ -56,8 +56,14 @@ export function globalHeapProblem(bytes: Uint8Array, lengthBytes: number, at = 0
     const step = index > 0 ? objectHeader + Math.ceil(objectSize / 8) * 8 : objectSize;
     if (step === 0 || step % 8 !== 0 || p + step > size) {
       const what = index === 0 ? 'the free space' : `object ${index}`;
-      return `the global heap collection at byte ${at} is damaged: ${what} at byte ${at + p} claims ${objectSize} bytes, ` +
-        (step === 0 ? 'so its walk cannot advance (the HDF5 library would loop for ever)' : p + step > size ? `beyond the collection's ${size} bytes` : 'which breaks the 8-byte alignment of the objects after it');
+      return (
+        `the global heap collection at byte ${at} is damaged: ${what} at byte ${at + p} claims ${objectSize} bytes, ` +
+        (step === 0
+          ? 'so its walk cannot advance (the HDF5 library would loop for ever)'
+          : p + step > size
+            ? `beyond the collection's ${size} bytes`
+            : 'which breaks the 8-byte alignment of the objects after it')
+      );
     }
     p += step;
   }
@@ -101,7 +107,10 @@ export function guardedReads<T>(path: string, fn: () => T): { value?: T; error?:
     let got = new Uint8Array(buffer.buffer, start, n);
     if (got[0] !== GCOL[0] || got[1] !== GCOL[1] || got[2] !== GCOL[2] || got[3] !== GCOL[3] || got[4] !== 1) return n;
     const at = position === null || position === undefined ? -1 : Number(position);
-    const size = lengthBytes === 8 ? Number(new DataView(got.buffer, got.byteOffset + 8, 8).getBigUint64(0, true)) : new DataView(got.buffer, got.byteOffset + 8, 4).getUint32(0, true);
+    const size =
+      lengthBytes === 8
+        ? Number(new DataView(got.buffer, got.byteOffset + 8, 8).getBigUint64(0, true))
+        : new DataView(got.buffer, got.byteOffset + 8, 4).getUint32(0, true);
     // HDF5 reads a large collection in two parts (the first 4096 bytes, then the rest): the whole
     // collection is read here at its first part and checked then.
     if (size > n && at >= 0 && size <= MAX_CHECKED) {

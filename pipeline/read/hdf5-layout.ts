@@ -157,7 +157,7 @@ export async function objectHeaderMessages(read: ReadAt, at: number, s: Hdf5Size
       end = length - 4;
     }
     // A version 2 header's first block holds messages up to its checksum, which follows the block.
-    const headerBytes = v2 ? 4 + ((flags & 0x04) ? 2 : 0) : 8;
+    const headerBytes = v2 ? 4 + (flags & 0x04 ? 2 : 0) : 8;
     while (p + headerBytes <= end) {
       let type: number;
       let size: number;
@@ -229,7 +229,14 @@ export function parseLayout(d: Uint8Array, s: Hdf5Sizes): { btree: number; dims:
  * Reads a variable's chunk index from its object header at `header` [bytes]. `shape` and
  * `elementBytes` come from the metadata already described; a layout that disagrees is refused.
  */
-export async function readChunkIndex(read: ReadAt, s: Hdf5Sizes, header: number, shape: number[], elementBytes: number, fileBytes: number): Promise<ChunkIndex> {
+export async function readChunkIndex(
+  read: ReadAt,
+  s: Hdf5Sizes,
+  header: number,
+  shape: number[],
+  elementBytes: number,
+  fileBytes: number,
+): Promise<ChunkIndex> {
   const messages = await objectHeaderMessages(read, header, s);
   const layoutMsg = messages.find((m) => m.type === 0x0008);
   if (!layoutMsg) return refuse('no data layout message');
@@ -246,14 +253,21 @@ export async function readChunkIndex(read: ReadAt, s: Hdf5Sizes, header: number,
   if (filterMsg && filterMsg.flags & 0x02) refuse('a shared filter pipeline message');
   const filters = filterMsg ? parseFilters(filterMsg.data) : [];
   for (const f of filters) {
-    if (f.id !== FILTER_DEFLATE && f.id !== FILTER_SHUFFLE) refuse(`filter ${f.id} (${f.id === 3 ? 'Fletcher-32' : f.id === 4 ? 'szip' : f.id === 5 ? 'n-bit' : f.id === 6 ? 'scale-offset' : 'a registered plugin'})`);
-    if (f.id === FILTER_SHUFFLE && f.params.length > 0 && f.params[0] !== elementBytes) refuse(`shuffle of ${f.params[0]}-byte elements for ${elementBytes}-byte values`);
+    if (f.id !== FILTER_DEFLATE && f.id !== FILTER_SHUFFLE)
+      refuse(
+        `filter ${f.id} (${f.id === 3 ? 'Fletcher-32' : f.id === 4 ? 'szip' : f.id === 5 ? 'n-bit' : f.id === 6 ? 'scale-offset' : 'a registered plugin'})`,
+      );
+    if (f.id === FILTER_SHUFFLE && f.params.length > 0 && f.params[0] !== elementBytes)
+      refuse(`shuffle of ${f.params[0]}-byte elements for ${elementBytes}-byte values`);
   }
   const grid = shape.map((n, i) => Math.ceil(n / chunk[i]));
   const count = grid.reduce((a, b) => a * b, 1);
   if (count > MAX_CHUNKS) refuse(`${count} chunks`);
   const idx: ChunkIndex = {
-    chunk, grid, elementBytes, filters,
+    chunk,
+    grid,
+    elementBytes,
+    filters,
     address: new Float64Array(count).fill(-1),
     size: new Float64Array(count),
     mask: new Uint32Array(count),
@@ -263,7 +277,16 @@ export async function readChunkIndex(read: ReadAt, s: Hdf5Sizes, header: number,
 }
 
 /** Visits a version 1 B-tree of raw data chunks (§III.A.1, node type 1), filling `idx`. */
-async function walkBtree(read: ReadAt, s: Hdf5Sizes, at: number, wantLevel: number, idx: ChunkIndex, rank: number, fileBytes: number, seen: { nodes: number; limit: number }): Promise<void> {
+async function walkBtree(
+  read: ReadAt,
+  s: Hdf5Sizes,
+  at: number,
+  wantLevel: number,
+  idx: ChunkIndex,
+  rank: number,
+  fileBytes: number,
+  seen: { nodes: number; limit: number },
+): Promise<void> {
   if (++seen.nodes > seen.limit) refuse('a chunk B-tree with more nodes than the variable has chunks');
   const O = s.offsets;
   const head = await readExact(read, at, 8 + 2 * O, 'chunk B-tree node');

@@ -14,9 +14,7 @@ import { guardedReads } from './hdf5-heap-check.ts';
 export type MetaQuery = { op: 'describe'; path: string } | { op: 'strings'; path: string; variable: string; shape: number[] };
 /** `heapCheck: false` leaves global heap collections unchecked (hdf5-heap-check.ts; tests only). */
 export type MetaRequest = MetaQuery & { id: number; heapCheck?: boolean };
-export type MetaAnswer =
-  | { id: number; ok: true; result: unknown }
-  | { id: number; ok: false; reason: string; printed: string; stopped: boolean };
+export type MetaAnswer = { id: number; ok: true; result: unknown } | { id: number; ok: false; reason: string; printed: string; stopped: boolean };
 
 await h5wasm.ready;
 const classes = { Group: h5wasm.Group, Dataset: h5wasm.Dataset };
@@ -48,9 +46,10 @@ parentPort!.on('message', (req: MetaRequest) => {
     return g.value;
   });
   const stopped = r.error !== undefined && isAbort(r.error);
-  const answer: MetaAnswer = r.error === undefined
-    ? { id: req.id, ok: true, result: r.value }
-    : { id: req.id, ok: false, reason: refused ?? hdf5Reason(r.error, r.printed), printed: r.printed, stopped };
+  const answer: MetaAnswer =
+    r.error === undefined
+      ? { id: req.id, ok: true, result: r.value }
+      : { id: req.id, ok: false, reason: refused ?? hdf5Reason(r.error, r.printed), printed: r.printed, stopped };
   parentPort!.postMessage(answer);
   // An aborted WebAssembly instance cannot be used again: end, and the next request starts a new worker.
   if (stopped) process.exit(0);

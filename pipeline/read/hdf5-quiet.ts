@@ -48,7 +48,7 @@ export function quietly<T>(fn: () => T): { value?: T; error?: unknown; printed: 
 /** Whether an error from h5wasm means the WebAssembly instance stopped (Emscripten `abort()`). */
 export function isAbort(e: unknown): boolean {
   const m = (e as Error)?.message ?? String(e);
-  return /Aborted\(|program has already aborted|RuntimeError: (unreachable|memory access out of bounds)/.test(m) || (e instanceof WebAssembly.RuntimeError);
+  return /Aborted\(|program has already aborted|RuntimeError: (unreachable|memory access out of bounds)/.test(m) || e instanceof WebAssembly.RuntimeError;
 }
 
 /** A short text for an h5wasm error: its message, or HDF5's own last "minor:" line. */

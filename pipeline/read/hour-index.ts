@@ -62,7 +62,10 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
         const prev = tab.file[h];
         if (prev >= 0) {
           if (rk[h] === r) {
-            throw NetcdfDuplicateHours({ variable: short, hour: isoSeconds(f.times[i]), fileA: name(files[prev]), fileB: name(f) }, { file: f.sf.path, variable: fv.v.name });
+            throw NetcdfDuplicateHours(
+              { variable: short, hour: isoSeconds(f.times[i]), fileA: name(files[prev]), fileB: name(f) },
+              { file: f.sf.path, variable: fv.v.name },
+            );
           }
           if (rk[h] < r) continue; // the one already there is more final
         }
@@ -109,8 +112,17 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
         while (tab.file[b] < 0) b--;
         const inFiles = new Set<string>();
         for (let k = a; k <= b; k++) if (tab.file[k] >= 0) inFiles.add(name(files[tab.file[k]]));
-        const lacking = [...tables.keys()].filter((s2) => s2 !== short && tables.get(s2)!.file.subarray(a, b + 1).some((x) => x < 0));
-        notes.push(`${short} has the hours ${isoSeconds(lo + a * HOUR_MS)} to ${isoSeconds(lo + b * HOUR_MS)} (in ${[...inFiles].join(', ')}) that ${lacking.join(', ')} lack(s); they are left out (the dataset keeps the hours every variable has)`);
+        const lacking = [...tables.keys()].filter(
+          (s2) =>
+            s2 !== short &&
+            tables
+              .get(s2)!
+              .file.subarray(a, b + 1)
+              .some((x) => x < 0),
+        );
+        notes.push(
+          `${short} has the hours ${isoSeconds(lo + a * HOUR_MS)} to ${isoSeconds(lo + b * HOUR_MS)} (in ${[...inFiles].join(', ')}) that ${lacking.join(', ')} lack(s); they are left out (the dataset keeps the hours every variable has)`,
+        );
       }
     }
     const n = last - first + 1;
@@ -132,9 +144,10 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
     };
     const before = fileAt(h - 1)!;
     const after = fileAt(e + 1)!;
-    const where = before === after
-      ? `inside ${name(before)}: its time axis jumps from ${isoSeconds(lo + (h - 1) * HOUR_MS)} to ${isoSeconds(lo + (e + 1) * HOUR_MS)}`
-      : `between ${name(before)} (ending ${isoSeconds(lo + (h - 1) * HOUR_MS)}) and ${name(after)} (starting ${isoSeconds(lo + (e + 1) * HOUR_MS)}); no input file holds these hours`;
+    const where =
+      before === after
+        ? `inside ${name(before)}: its time axis jumps from ${isoSeconds(lo + (h - 1) * HOUR_MS)} to ${isoSeconds(lo + (e + 1) * HOUR_MS)}`
+        : `between ${name(before)} (ending ${isoSeconds(lo + (h - 1) * HOUR_MS)}) and ${name(after)} (starting ${isoSeconds(lo + (e + 1) * HOUR_MS)}); no input file holds these hours`;
     const at = before === after ? before.sf.path : `${before.sf.path}, ${after.sf.path}`;
     throw NetcdfTimeGap({ from: isoSeconds(lo + h * HOUR_MS), to: isoSeconds(lo + e * HOUR_MS), where }, { file: at });
   }
@@ -147,7 +160,10 @@ export function buildHourAxis(files: AnalysedFile[]): HourAxis {
     const others = new Set<string>();
     for (const [s2, t2] of tables) if (s2 !== short) for (let k = h; k <= e; k++) if (t2.file[k] >= 0) others.add(name(files[t2.file[k]]));
     throw MissingNetcdfVariable(
-      { name: short, detail: `it is missing for the hours ${isoSeconds(lo + h * HOUR_MS)} to ${isoSeconds(lo + e * HOUR_MS)}, which ${[...others].join(', ') || 'other files'} cover for other variables` },
+      {
+        name: short,
+        detail: `it is missing for the hours ${isoSeconds(lo + h * HOUR_MS)} to ${isoSeconds(lo + e * HOUR_MS)}, which ${[...others].join(', ') || 'other files'} cover for other variables`,
+      },
       { file: [...others][0], variable: short },
     );
   }

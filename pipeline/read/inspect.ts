@@ -149,7 +149,10 @@ async function inspectVariable(sf: SourceFile, v: SourceVariable, isCoordinate: 
 }
 
 /** Min / max / mean / missing count of a numeric variable, decoded, streamed in slabs. */
-export async function streamStats(sf: SourceFile, v: SourceVariable): Promise<{ min: number | null; max: number | null; mean: number | null; missing: number }> {
+export async function streamStats(
+  sf: SourceFile,
+  v: SourceVariable,
+): Promise<{ min: number | null; max: number | null; mean: number | null; missing: number }> {
   const so = scaleOffsetOf(v);
   const plan = makeDecodePlan(maskSpecOf(v, so), so);
   const n = v.shape.length;

@@ -22,7 +22,14 @@ export interface OpenSourceOptions {
  * member; an HTTP(S) URL, a path ending in `.zarr` or a folder opens a Zarr store (zarr-store.ts).
  */
 export async function openSourceFile(path: string, opts: OpenSourceOptions = {}): Promise<SourceFile> {
-  if (isZarrLocation(path) || (await stat(path).then((s) => s.isDirectory(), () => false))) return openZarrStore(path);
+  if (
+    isZarrLocation(path) ||
+    (await stat(path).then(
+      (s) => s.isDirectory(),
+      () => false,
+    ))
+  )
+    return openZarrStore(path);
   if (parseMemberPath(path)) return openMember(path, opts);
   const { format, bytes } = await detectFormat(path);
   if (format === 'netcdf4') return openHdf5File(path, bytes);

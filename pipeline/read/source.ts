@@ -114,11 +114,23 @@ export interface SourceFile {
 /** Size [bytes] of one value of a fixed-size raw type. */
 export function rawTypeBytes(t: RawType): number {
   switch (t) {
-    case 'byte': case 'ubyte': case 'char': return 1;
-    case 'short': case 'ushort': return 2;
-    case 'int': case 'uint': case 'float': return 4;
-    case 'int64': case 'uint64': case 'double': return 8;
-    default: return 0;
+    case 'byte':
+    case 'ubyte':
+    case 'char':
+      return 1;
+    case 'short':
+    case 'ushort':
+      return 2;
+    case 'int':
+    case 'uint':
+    case 'float':
+      return 4;
+    case 'int64':
+    case 'uint64':
+    case 'double':
+      return 8;
+    default:
+      return 0;
   }
 }
 

@@ -134,13 +134,7 @@ export const PLAUSIBLE: Record<string, [number, number]> = {
  * Checks decoded values [canonical units] against the plausible range of `range`; throws a
  * catalogued error naming the variable, with a diagnosis for kelvin labelled as Celsius.
  */
-export function checkPlausible(
-  range: keyof typeof PLAUSIBLE,
-  units: string,
-  min: number,
-  max: number,
-  where: { file?: string; variable?: string },
-): void {
+export function checkPlausible(range: keyof typeof PLAUSIBLE, units: string, min: number, max: number, where: { file?: string; variable?: string }): void {
   if (!Number.isFinite(min) || !Number.isFinite(max)) return;
   const [lo, hi] = PLAUSIBLE[range];
   if (min >= lo && max <= hi) return;

@@ -93,15 +93,23 @@ function checkCrs(path: string, keys: Record<string, unknown> | null): void {
   const model = keys.GTModelTypeGeoKey;
   if (model === MODEL_PROJECTED || keys.ProjectedCSTypeGeoKey !== undefined) {
     const code = keys.ProjectedCSTypeGeoKey;
-    throw WorkforceRasterCrs({ path, crs: code !== undefined && code !== USER_DEFINED ? `projected, EPSG:${code}` : 'a projected (user-defined) coordinate system' }, { file: path });
+    throw WorkforceRasterCrs(
+      { path, crs: code !== undefined && code !== USER_DEFINED ? `projected, EPSG:${code}` : 'a projected (user-defined) coordinate system' },
+      { file: path },
+    );
   }
   if (model !== MODEL_GEOGRAPHIC) throw WorkforceRasterCrs({ path, crs: `model type ${String(model)} (not geographic)` }, { file: path });
   const gcs = keys.GeographicTypeGeoKey;
   const datum = keys.GeogGeodeticDatumGeoKey;
   const wgs84 = gcs === GCS_WGS84 || ((gcs === undefined || gcs === USER_DEFINED) && datum === DATUM_WGS84);
-  if (!wgs84) throw WorkforceRasterCrs({ path, crs: gcs !== undefined && gcs !== USER_DEFINED ? `geographic, EPSG:${gcs}` : `geographic with datum ${String(datum)}` }, { file: path });
+  if (!wgs84)
+    throw WorkforceRasterCrs(
+      { path, crs: gcs !== undefined && gcs !== USER_DEFINED ? `geographic, EPSG:${gcs}` : `geographic with datum ${String(datum)}` },
+      { file: path },
+    );
   const unit = keys.GeogAngularUnitsGeoKey;
-  if (unit !== undefined && unit !== ANGULAR_DEGREE) throw WorkforceRasterCrs({ path, crs: `EPSG:4326 with angular unit ${String(unit)} (not degrees)` }, { file: path });
+  if (unit !== undefined && unit !== ANGULAR_DEGREE)
+    throw WorkforceRasterCrs({ path, crs: `EPSG:4326 with angular unit ${String(unit)} (not degrees)` }, { file: path });
 }
 
 function georeference(path: string, image: GeoTIFFImage): Pick<WorkforceRaster, 'west' | 'dLon' | 'top' | 'dLatRow'> {
@@ -112,13 +120,15 @@ function georeference(path: string, image: GeoTIFFImage): Pick<WorkforceRaster, 
   const transform = num(fd.getValue('ModelTransformation'));
   let west: number, dLon: number, top: number, dLatRow: number;
   if (scale && tie && tie.length >= 6) {
-    if (!(scale[0] > 0) || !(scale[1] !== 0) || !Number.isFinite(scale[1])) throw WorkforceRasterGeoreference({ path, detail: `pixel scale ${scale[0]}, ${scale[1]}` }, { file: path });
+    if (!(scale[0] > 0) || !(scale[1] !== 0) || !Number.isFinite(scale[1]))
+      throw WorkforceRasterGeoreference({ path, detail: `pixel scale ${scale[0]}, ${scale[1]}` }, { file: path });
     dLon = scale[0];
     dLatRow = -scale[1];
     west = tie[3] - tie[0] * dLon;
     top = tie[4] - tie[1] * dLatRow;
   } else if (transform && transform.length >= 8) {
-    if (transform[1] !== 0 || transform[4] !== 0) throw WorkforceRasterGeoreference({ path, detail: `a rotated or sheared transformation (terms ${transform[1]}, ${transform[4]})` }, { file: path });
+    if (transform[1] !== 0 || transform[4] !== 0)
+      throw WorkforceRasterGeoreference({ path, detail: `a rotated or sheared transformation (terms ${transform[1]}, ${transform[4]})` }, { file: path });
     dLon = transform[0];
     dLatRow = transform[5];
     west = transform[3];
@@ -137,7 +147,10 @@ function georeference(path: string, image: GeoTIFFImage): Pick<WorkforceRaster, 
     throw WorkforceRasterGeoreference({ path, detail: `it spans ${dLon * image.getWidth()}° of longitude, more than once around the globe` }, { file: path });
   }
   if (![west, dLon, top, dLatRow].every(Number.isFinite) || south < -90 - 1e-6 || north > 90 + 1e-6 || west < -540 || west + dLon * image.getWidth() > 540) {
-    throw WorkforceRasterGeoreference({ path, detail: `extent lon ${west} … ${west + dLon * image.getWidth()}, lat ${south} … ${north} is not on the globe in degrees` }, { file: path });
+    throw WorkforceRasterGeoreference(
+      { path, detail: `extent lon ${west} … ${west + dLon * image.getWidth()}, lat ${south} … ${north} is not on the globe in degrees` },
+      { file: path },
+    );
   }
   return { west, dLon, top, dLatRow };
 }

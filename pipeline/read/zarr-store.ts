@@ -26,7 +26,18 @@ import * as zarr from 'zarrita';
 import FileSystemStore from '@zarrita/storage/fs';
 import { HeathoursError } from '../model/errors.ts';
 import { NetcdfFileNotFound, ZarrChunkUnreadable, ZarrGridMismatch, ZarrMetadataInvalid, ZarrStoreUnlisted, ZarrStoreUnreachable } from './errors.ts';
-import { denseStrides, product, type AttrValue, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceDimension, type SourceFile, type SourceVariable } from './source.ts';
+import {
+  denseStrides,
+  product,
+  type AttrValue,
+  type RawArray,
+  type RawType,
+  type SlabRequest,
+  type SlabSink,
+  type SourceDimension,
+  type SourceFile,
+  type SourceVariable,
+} from './source.ts';
 
 /**
  * zlib (RFC 1950) and gzip (RFC 1952) chunks inflated by Node's own zlib in one synchronous call,
@@ -49,7 +60,12 @@ function inflateCodec(gzip: boolean) {
     }
   };
 }
-for (const [name, gzip] of [['zlib', false], ['numcodecs.zlib', false], ['gzip', true], ['numcodecs.gzip', true]] as const) {
+for (const [name, gzip] of [
+  ['zlib', false],
+  ['numcodecs.zlib', false],
+  ['gzip', true],
+  ['numcodecs.gzip', true],
+] as const) {
   const codec = inflateCodec(gzip);
   zarr.registry.set(name, () => codec as never);
 }
@@ -70,17 +86,28 @@ export interface ZarrOpenOptions {
 /** Storage type of a zarrita data type. */
 function rawTypeOf(dtype: string): RawType {
   switch (dtype) {
-    case 'int8': return 'byte';
-    case 'uint8': return 'ubyte';
-    case 'int16': return 'short';
-    case 'uint16': return 'ushort';
-    case 'int32': return 'int';
-    case 'uint32': return 'uint';
-    case 'int64': return 'int64';
-    case 'uint64': return 'uint64';
-    case 'float32': return 'float';
-    case 'float64': return 'double';
-    default: return /^v2:[US]/.test(dtype) || dtype === 'string' ? 'string' : 'other';
+    case 'int8':
+      return 'byte';
+    case 'uint8':
+      return 'ubyte';
+    case 'int16':
+      return 'short';
+    case 'uint16':
+      return 'ushort';
+    case 'int32':
+      return 'int';
+    case 'uint32':
+      return 'uint';
+    case 'int64':
+      return 'int64';
+    case 'uint64':
+      return 'uint64';
+    case 'float32':
+      return 'float';
+    case 'float64':
+      return 'double';
+    default:
+      return /^v2:[US]/.test(dtype) || dtype === 'string' ? 'string' : 'other';
   }
 }
 
@@ -181,7 +208,13 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
     const shape = arr.shape.map(Number);
     const dn = arr.dimensionNames ?? (shape.length === 1 ? [name] : undefined);
     if (!dn || dn.length !== shape.length) {
-      throw ZarrMetadataInvalid({ location: path, detail: `array ${name} names no dimensions (xarray's _ARRAY_DIMENSIONS attribute in Zarr v2, dimension_names in Zarr v3) for its ${shape.length} axes` }, { file: path, variable: name });
+      throw ZarrMetadataInvalid(
+        {
+          location: path,
+          detail: `array ${name} names no dimensions (xarray's _ARRAY_DIMENSIONS attribute in Zarr v2, dimension_names in Zarr v3) for its ${shape.length} axes`,
+        },
+        { file: path, variable: name },
+      );
     }
     const type = rawTypeOf(String(arr.dtype));
     const attrs: Record<string, AttrValue> = {};
@@ -191,7 +224,7 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
       const val = attrValue(x);
       if (val === undefined) continue;
       attrs[k] = val;
-      attrTypes[k] = typeof val === 'number' || Array.isArray(val) && typeof val[0] === 'number' ? 'double' : 'char';
+      attrTypes[k] = typeof val === 'number' || (Array.isArray(val) && typeof val[0] === 'number') ? 'double' : 'char';
     }
     // xarray keeps the CF _FillValue as the array's fill_value; give it back as the attribute (NaN needs none: it is missing anyway).
     const fv = arr.fillValue;
@@ -203,18 +236,32 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
       const d = dims.get(dn[i]);
       if (!d) dims.set(dn[i], { name: dn[i], size: shape[i], unlimited: false, by: name });
       else if (d.size !== shape[i]) {
-        throw ZarrGridMismatch({ location: path, dimension: dn[i], variableA: d.by, sizeA: d.size, variableB: name, sizeB: shape[i] }, { file: path, variable: name });
+        throw ZarrGridMismatch(
+          { location: path, dimension: dn[i], variableA: d.by, sizeA: d.size, variableB: name, sizeB: shape[i] },
+          { file: path, variable: name },
+        );
       }
     }
     const v: SourceVariable = { name, dims: [...dn], shape, type, attrs, attrTypes };
     variables.push(v);
     arrays.set(v, arr);
-    metaDigest.update(JSON.stringify({ name, shape, chunks: arr.chunks, dtype: String(arr.dtype), dims: dn, fill: String(fv), attrs: Object.entries(arr.attrs).sort(([a], [b]) => (a < b ? -1 : 1)) }));
+    metaDigest.update(
+      JSON.stringify({
+        name,
+        shape,
+        chunks: arr.chunks,
+        dtype: String(arr.dtype),
+        dims: dn,
+        fill: String(fv),
+        attrs: Object.entries(arr.attrs).sort(([a], [b]) => (a < b ? -1 : 1)),
+      }),
+    );
   }
   const digest = metaDigest.digest('hex');
   // Nominal size [bytes]: the values as stored, uncompressed (a store's real size would need a listing).
   let bytes = 0;
-  for (const v of variables) bytes += product(v.shape) * (String(arrays.get(v)!.dtype).match(/(\d+)$/) ? Number(String(arrays.get(v)!.dtype).match(/(\d+)$/)![1]) / 8 : 1);
+  for (const v of variables)
+    bytes += product(v.shape) * (String(arrays.get(v)!.dtype).match(/(\d+)$/) ? Number(String(arrays.get(v)!.dtype).match(/(\d+)$/)![1]) / 8 : 1);
 
   const arrOf = (v: SourceVariable) => {
     const a = arrays.get(v);
@@ -232,9 +279,13 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
       return { data: out.data, strides: out.stride };
     } catch (e) {
       const why = unreachableReason(e);
-      if (why !== null) throw ZarrStoreUnreachable({ location: path, detail: `reading ${v.name}: ${why}`, timeoutS: timeoutMs / 1000 }, { file: path, variable: v.name });
+      if (why !== null)
+        throw ZarrStoreUnreachable({ location: path, detail: `reading ${v.name}: ${why}`, timeoutS: timeoutMs / 1000 }, { file: path, variable: v.name });
       const slab = start.map((s, i) => `${s}:${s + count[i]}`).join(', ');
-      throw ZarrChunkUnreadable({ location: path, variable: v.name, slab: `[${slab}]`, detail: e instanceof Error ? e.message : String(e) }, { file: path, variable: v.name });
+      throw ZarrChunkUnreadable(
+        { location: path, variable: v.name, slab: `[${slab}]`, detail: e instanceof Error ? e.message : String(e) },
+        { file: path, variable: v.name },
+      );
     }
   }
 
@@ -304,11 +355,19 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
     read,
     readSlabs,
     async readNumbers(v) {
-      const raw = await read(v, v.shape.map(() => 0), v.shape);
+      const raw = await read(
+        v,
+        v.shape.map(() => 0),
+        v.shape,
+      );
       return raw instanceof Float64Array ? raw : Float64Array.from(raw);
     },
     async readStrings(v) {
-      const { data } = await readRaw(v, v.shape.map(() => 0), v.shape);
+      const { data } = await readRaw(
+        v,
+        v.shape.map(() => 0),
+        v.shape,
+      );
       if (data && typeof data === 'object' && Symbol.iterator in data) return Array.from(data as Iterable<unknown>, (x) => String(x).trim());
       return [String(data)];
     },

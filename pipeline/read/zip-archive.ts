@@ -122,7 +122,13 @@ function readCentralDirectory(archive: string): Promise<ZipMember[]> {
         zip.readLocalFileHeader(entry, { minimal: true }, (e2: Error | null, local?: { fileDataStart: number }) => {
           if (e2 || !local) return fail(unreadable(e2 ?? new Error(`no local header for ${entry.fileName}`)));
           if (local.fileDataStart + entry.compressedSize > zip.fileSize) {
-            return fail(unreadable(new Error(`member ${entry.fileName} runs past the end of the archive (its data end at byte ${local.fileDataStart + entry.compressedSize}, the archive has ${zip.fileSize})`)));
+            return fail(
+              unreadable(
+                new Error(
+                  `member ${entry.fileName} runs past the end of the archive (its data end at byte ${local.fileDataStart + entry.compressedSize}, the archive has ${zip.fileSize})`,
+                ),
+              ),
+            );
           }
           out.push({
             name: entry.fileName,
@@ -168,7 +174,10 @@ export async function findMember(path: string): Promise<{ archive: string; membe
   if (!m) throw NetcdfFileNotFound({ path }, { file: path });
   if (m.encrypted) throw ZipMemberUnsupported({ path: ref.archive, member: m.name, detail: 'it is encrypted' }, { file: path });
   if (m.method !== 0 && m.method !== 8) {
-    throw ZipMemberUnsupported({ path: ref.archive, member: m.name, detail: `compression method ${m.method} (only 0 stored and 8 deflated are read, APPNOTE §4.4.5)` }, { file: path });
+    throw ZipMemberUnsupported(
+      { path: ref.archive, member: m.name, detail: `compression method ${m.method} (only 0 stored and 8 deflated are read, APPNOTE §4.4.5)` },
+      { file: path },
+    );
   }
   return { archive: ref.archive, member: m };
 }
@@ -212,8 +221,11 @@ export async function sha256Range(r: ByteRange, expectCrc?: { crc32: number; arc
   if (expectCrc) {
     const where = { file: memberPath(expectCrc.archive, expectCrc.member) };
     if (n !== r.length) throw ZipMemberDamaged({ path: expectCrc.archive, member: expectCrc.member, detail: `${n} bytes of ${r.length} could be read` }, where);
-    if ((crc >>> 0) !== expectCrc.crc32) {
-      throw ZipMemberDamaged({ path: expectCrc.archive, member: expectCrc.member, detail: `its CRC-32 is ${hex(crc)}, the archive's directory says ${hex(expectCrc.crc32)}` }, where);
+    if (crc >>> 0 !== expectCrc.crc32) {
+      throw ZipMemberDamaged(
+        { path: expectCrc.archive, member: expectCrc.member, detail: `its CRC-32 is ${hex(crc)}, the archive's directory says ${hex(expectCrc.crc32)}` },
+        where,
+      );
     }
   }
   return h.digest('hex');
@@ -270,8 +282,10 @@ export async function memberFile(archive: string, m: ZipMember, cacheDir: string
       }
       throw ZipMemberDamaged({ path: archive, member: m.name, detail: `it does not inflate: ${(e as Error).message}` }, where);
     }
-    if (n !== m.uncompressedSize) throw ZipMemberDamaged({ path: archive, member: m.name, detail: `it unpacks to ${n} bytes, the archive's directory says ${m.uncompressedSize}` }, where);
-    if ((crc >>> 0) !== m.crc32) throw ZipMemberDamaged({ path: archive, member: m.name, detail: `its CRC-32 is ${hex(crc)}, the archive's directory says ${hex(m.crc32)}` }, where);
+    if (n !== m.uncompressedSize)
+      throw ZipMemberDamaged({ path: archive, member: m.name, detail: `it unpacks to ${n} bytes, the archive's directory says ${m.uncompressedSize}` }, where);
+    if (crc >>> 0 !== m.crc32)
+      throw ZipMemberDamaged({ path: archive, member: m.name, detail: `its CRC-32 is ${hex(crc)}, the archive's directory says ${hex(m.crc32)}` }, where);
     await rename(tmp, target);
     return target;
   } finally {

@@ -84,7 +84,13 @@ export const histPerMonth = (nCells: number): number => HOURS * nCells * N_EXPOS
  * and dropped); one of the right length is taken from it and cleared instead of allocating a new
  * one (tens of MB per shard, whose fresh pages cost more than clearing).
  */
-export function createPartial(year: number, cells: Int32Array, evaluations: readonly WorkEvaluation[], months: [number, number] = [0, MONTHS], spare?: Uint16Array[]): ShardPartial {
+export function createPartial(
+  year: number,
+  cells: Int32Array,
+  evaluations: readonly WorkEvaluation[],
+  months: [number, number] = [0, MONTHS],
+  spare?: Uint16Array[],
+): ShardPartial {
   const nc = cells.length;
   const nE = evaluations.length;
   const cm = nc * MONTHS;
@@ -181,7 +187,8 @@ export interface ReduceScratch {
 export function buildCav(evaluations: readonly WorkEvaluation[]): number {
   const cav = evaluations.length > 0 ? evaluations[0].kernel.k.cav : 0;
   for (const e of evaluations) {
-    if (e.kernel.k.cav !== cav) throw new RangeError(`evaluation ${e.key} has clothing adjustment ${e.kernel.k.cav}, ${evaluations[0].key} has ${cav}: a build has one clothing`);
+    if (e.kernel.k.cav !== cav)
+      throw new RangeError(`evaluation ${e.key} has clothing adjustment ${e.kernel.k.cav}, ${evaluations[0].key} has ${cav}: a build has one clothing`);
   }
   return cav;
 }

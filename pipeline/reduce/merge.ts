@@ -65,7 +65,13 @@ export interface MergeOptions {
  * error naming the shards), and the covered hours are the most any tile has. Every cell of
  * `cells` must be covered.
  */
-export function mergeYear(year: number, cells: Int32Array, partials: readonly ShardPartial[], names: readonly string[] = [], options: MergeOptions = {}): YearCounts {
+export function mergeYear(
+  year: number,
+  cells: Int32Array,
+  partials: readonly ShardPartial[],
+  names: readonly string[] = [],
+  options: MergeOptions = {},
+): YearCounts {
   const merger = new YearMerger(year, cells, options);
   partials.forEach((p, pi) => merger.add(p, names[pi]));
   return merger.finish();

@@ -82,7 +82,8 @@ export function regionCellWeights(region: Region, grid: HorizontalGrid | GridCel
           m = clipHalfPlane(scratch.a.data, m, 1, latEdges[j + 1], false, scratch.strip);
           if (m < 3) continue;
           const strip = scratch.strip.data;
-          let sw = Infinity, se = -Infinity;
+          let sw = Infinity,
+            se = -Infinity;
           for (let i = 0; i < m; i++) {
             sw = Math.min(sw, strip[2 * i]);
             se = Math.max(se, strip[2 * i]);
@@ -152,7 +153,10 @@ export function regionCellWeights(region: Region, grid: HorizontalGrid | GridCel
 
 /** [west, south, east, north] over all polygons of a region [° E, ° N]. */
 export function regionBbox(region: Region): [number, number, number, number] {
-  let w = Infinity, s = Infinity, e = -Infinity, n = -Infinity;
+  let w = Infinity,
+    s = Infinity,
+    e = -Infinity,
+    n = -Infinity;
   for (const p of region.polygons) {
     w = Math.min(w, p.bbox[0]);
     s = Math.min(s, p.bbox[1]);

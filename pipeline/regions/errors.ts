@@ -117,7 +117,7 @@ export const RegionOutsideGrid = defineError<{ region: string; bbox: string; gri
   code: 'RegionOutsideGrid',
   title: 'A region does not overlap the data grid',
   message: (p) => `region ${p.region} (${p.bbox}) does not overlap any cell of the grid (${p.grid})`,
-  hint: () => 'check the region\'s coordinates, or extend the data files to cover it; remove the region if it belongs to another atlas',
+  hint: () => "check the region's coordinates, or extend the data files to cover it; remove the region if it belongs to another atlas",
 });
 
 export const RegionNoLandCells = defineError<{ region: string }>({
@@ -177,7 +177,8 @@ export const WorkforceSharesBadValue = defineError<{ file: string; row: number; 
   code: 'WorkforceSharesBadValue',
   title: 'A value of the workforce shares table is not a share from 0 to 1',
   message: (p) => `${p.file} line ${p.row}: ${p.column} "${p.value}" ${p.detail}`,
-  hint: () => 'write shares as fractions from 0 to 1 with a decimal point (0.12, not 12 % or 0,12); leave acclimatized_share or sun_share empty for the stated default',
+  hint: () =>
+    'write shares as fractions from 0 to 1 with a decimal point (0.12, not 12 % or 0,12); leave acclimatized_share or sun_share empty for the stated default',
 });
 
 export const WorkforceSharesDuplicate = defineError<{ file: string; row: number; first: number; region: string; workloadClass: string }>({
@@ -204,8 +205,10 @@ export const WorkforceSharesClassUnknown = defineError<{ file: string; row: numb
 export const WorkforceSharesSum = defineError<{ file: string; region: string; sum: number; rows: string }>({
   code: 'WorkforceSharesSum',
   title: "A region's workforce shares add up to more than 1",
-  message: (p) => `${p.file}: the shares of region ${p.region} add up to ${p.sum.toFixed(4)} (lines ${p.rows}); a person does one class of outdoor work, so they cannot exceed 1`,
-  hint: () => 'each share is the fraction of all people who do that class of outdoor work; lower them so they add up to 1 or less (the rest do no outdoor work)',
+  message: (p) =>
+    `${p.file}: the shares of region ${p.region} add up to ${p.sum.toFixed(4)} (lines ${p.rows}); a person does one class of outdoor work, so they cannot exceed 1`,
+  hint: () =>
+    'each share is the fraction of all people who do that class of outdoor work; lower them so they add up to 1 or less (the rest do no outdoor work)',
 });
 
 export const WorkforceSharesMissing = defineError<{ file: string; region: string }>({

@@ -27,7 +27,8 @@ export interface GridCells {
 const SPACING_TOLERANCE = 1e-4;
 
 function axisSpacing(c: Float64Array, name: string): number {
-  if (c.length < 2) throw RegionGridInvalid({ detail: `the grid has ${c.length} ${name} centre(s); at least 2 are needed to know the cell size` }, { variable: name });
+  if (c.length < 2)
+    throw RegionGridInvalid({ detail: `the grid has ${c.length} ${name} centre(s); at least 2 are needed to know the cell size` }, { variable: name });
   const d = (c[c.length - 1] - c[0]) / (c.length - 1);
   if (!(d > 0)) throw RegionGridInvalid({ detail: `${name} centres are not ascending (${c[0]} … ${c[c.length - 1]})` }, { variable: name });
   for (let i = 1; i < c.length; i++) {

@@ -141,7 +141,10 @@ function interiorCorner(ring: Float64Array, other: Float64Array): number | undef
 
 /** [west, south, east, north] of a flat ring [° E, ° N]. */
 export function ringBbox(ring: Float64Array): [number, number, number, number] {
-  let w = Infinity, s = Infinity, e = -Infinity, n = -Infinity;
+  let w = Infinity,
+    s = Infinity,
+    e = -Infinity,
+    n = -Infinity;
   for (let i = 0; i < ring.length; i += 2) {
     w = Math.min(w, ring[i]);
     e = Math.max(e, ring[i]);

@@ -31,7 +31,8 @@ export const PERSON_HOURS_DENSITY = 'person-hours-lost-density';
 export function personHoursDensityDef(): FigureDef {
   return {
     id: PERSON_HOURS_DENSITY,
-    label: 'Shift person-hours lost to the rest breaks the limit requires, per km² of the grid cell (people of the workforce raster × outdoor-work shares × hours per worker)',
+    label:
+      'Shift person-hours lost to the rest breaks the limit requires, per km² of the grid cell (people of the workforce raster × outdoor-work shares × hours per worker)',
     units: 'person-h km-2',
     combos: [ALL_CLASSES],
     annual: 'sum',
@@ -42,9 +43,27 @@ export function personHoursDensityDef(): FigureDef {
 export function workforceRegionDefs(classIds: readonly string[]): FigureDef[] {
   const combos = [...classIds, ALL_CLASSES];
   return [
-    { id: 'person-hours-above-limit-shift', label: "Shift person-hours with WBGT above the limit, over the region's outdoor workers", units: 'person-h', combos, annual: 'sum' },
-    { id: 'person-hours-lost-shift', label: "Shift person-hours lost to the rest breaks the limit requires, over the region's outdoor workers", units: 'person-h', combos, annual: 'sum' },
-    { id: 'full-time-equivalents-lost', label: "Full-time equivalents lost: person-hours lost / the hours of a year of the shift pattern", units: 'FTE', combos, annual: 'sum' },
+    {
+      id: 'person-hours-above-limit-shift',
+      label: "Shift person-hours with WBGT above the limit, over the region's outdoor workers",
+      units: 'person-h',
+      combos,
+      annual: 'sum',
+    },
+    {
+      id: 'person-hours-lost-shift',
+      label: "Shift person-hours lost to the rest breaks the limit requires, over the region's outdoor workers",
+      units: 'person-h',
+      combos,
+      annual: 'sum',
+    },
+    {
+      id: 'full-time-equivalents-lost',
+      label: 'Full-time equivalents lost: person-hours lost / the hours of a year of the shift pattern',
+      units: 'FTE',
+      combos,
+      annual: 'sum',
+    },
     { id: 'outdoor-work-time-lost', label: "Share of the outdoor workers' shift time lost to rest breaks", units: '%', combos, annual: 'sum' },
   ];
 }
@@ -58,7 +77,14 @@ export function workforceRegionDefs(classIds: readonly string[]): FigureDef[] {
  * @param areaKm2 each cell's area [km²]
  * @returns per cell × period [person-h km⁻²], NaN without a value
  */
-export function personHoursDensity(lost: Float64Array, nEval: number, people: Float64Array, profile: Int32Array, weights: Float64Array, areaKm2: Float64Array): Float64Array {
+export function personHoursDensity(
+  lost: Float64Array,
+  nEval: number,
+  people: Float64Array,
+  profile: Int32Array,
+  weights: Float64Array,
+  areaKm2: Float64Array,
+): Float64Array {
   const nCells = people.length;
   const out = new Float64Array(nCells * PERIODS).fill(NaN);
   for (let c = 0; c < nCells; c++) {

@@ -31,7 +31,6 @@ import { ringAreaSr } from './spherical-area.ts';
 
 const RAD = Math.PI / 180;
 
-
 /**
  * A window of pixels that overlaps the grid: columns [col0, col1) and rows [row0, row1) of the
  * raster, its longitudes moved by `shift` [°] (a multiple of 360) to meet the grid's longitudes.
@@ -325,7 +324,14 @@ export class GridAggregator {
   }
 
   result(): PeopleOnGrid {
-    return { cells: this.cells, people: this.people, offLand: this.offLand, outsideGrid: this.outsideGrid, pixels: this.pixels, noDataPixels: this.noDataPixels };
+    return {
+      cells: this.cells,
+      people: this.people,
+      offLand: this.offLand,
+      outsideGrid: this.outsideGrid,
+      pixels: this.pixels,
+      noDataPixels: this.noDataPixels,
+    };
   }
 }
 export type { PixelLayout } from '../model/grid.ts';

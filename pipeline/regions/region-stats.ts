@@ -48,7 +48,10 @@ export function regionFieldStats(
   options: RegionStatsOptions = {},
 ): RegionFieldStats {
   if (fields.length !== nFields * nCells) {
-    throw RegionFieldShape({ detail: `fields hold ${fields.length} values; ${nFields} fields × ${nCells} cells need ${nFields * nCells}` }, { variable: 'fields' });
+    throw RegionFieldShape(
+      { detail: `fields hold ${fields.length} values; ${nFields} fields × ${nCells} cells need ${nFields * nCells}` },
+      { variable: 'fields' },
+    );
   }
   const nc = w.cells.length;
   if (nc > 0 && w.cells[nc - 1] >= nCells) {
@@ -66,8 +69,10 @@ export function regionFieldStats(
     const base = f * nCells;
     let sw = 0;
     let swx = 0;
-    let hi = -Infinity, lo = Infinity;
-    let hiCell = -1, loCell = -1;
+    let hi = -Infinity,
+      lo = Infinity;
+    let hiCell = -1,
+      loCell = -1;
     for (let k = 0; k < nc; k++) {
       const c = cells[k];
       const x = fields[base + c];

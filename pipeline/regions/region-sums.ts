@@ -147,7 +147,15 @@ export function weightedMeans(pairs: Float64Array, nQuantities: number): Float64
  * @param slots slots per year (months × local hours) and `run` values per cell and slot
  * @param touched when given (one byte per slot), each slot a count was added to is set to 1
  */
-export function addWeightedHistograms(acc: Float64Array, hist: Uint16Array, nCells: number, slots: number, run: number, rc: RegionTileCells, touched?: Uint8Array): void {
+export function addWeightedHistograms(
+  acc: Float64Array,
+  hist: Uint16Array,
+  nCells: number,
+  slots: number,
+  run: number,
+  rc: RegionTileCells,
+  touched?: Uint8Array,
+): void {
   // Bins are read two at a time: most pairs are empty.
   const pairs = (hist.byteOffset & 3) === 0 && (run & 1) === 0 ? new Uint32Array(hist.buffer, hist.byteOffset, hist.length >> 1) : undefined;
   for (let s = 0; s < slots; s++) {

@@ -7,14 +7,7 @@
  * is refused.
  */
 import type { ErrorWhere } from '../model/errors.ts';
-import {
-  RegionAroundPole,
-  RegionBadPosition,
-  RegionCoordinateOutOfRange,
-  RegionRingDegenerate,
-  RegionRingNotClosed,
-  RegionRingTooShort,
-} from './errors.ts';
+import { RegionAroundPole, RegionBadPosition, RegionCoordinateOutOfRange, RegionRingDegenerate, RegionRingNotClosed, RegionRingTooShort } from './errors.ts';
 
 /**
  * Twice the signed planar area of a flat ring in lon/lat (shoelace formula) [°²];
@@ -83,7 +76,10 @@ export function prepareRing(coords: unknown, region: string, where: ErrorWhere):
 
 /** Whether every corner of a flat ring lies on the line through its first two corners. */
 function allOnOneLine(ring: Float64Array): boolean {
-  const ax = ring[0], ay = ring[1], bx = ring[2], by = ring[3];
+  const ax = ring[0],
+    ay = ring[1],
+    bx = ring[2],
+    by = ring[3];
   for (let i = 4; i < ring.length; i += 2) {
     if ((bx - ax) * (ring[i + 1] - ay) - (by - ay) * (ring[i] - ax) !== 0) return false;
   }

@@ -34,8 +34,14 @@ function onSegment(ax: number, ay: number, bx: number, by: number, px: number, p
  * end-to-end), 2 proper crossing, 3 collinear overlap of positive length. Also a contact point.
  */
 export function segmentContact(
-  ax: number, ay: number, bx: number, by: number,
-  cx: number, cy: number, dx: number, dy: number,
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  cx: number,
+  cy: number,
+  dx: number,
+  dy: number,
 ): { kind: 0 | 1 | 2 | 3; x: number; y: number } {
   const o1 = orient(ax, ay, bx, by, cx, cy);
   const o2 = orient(ax, ay, bx, by, dx, dy);

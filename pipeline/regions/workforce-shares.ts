@@ -105,7 +105,12 @@ interface Row {
  * @param regionIds the atlas's regions, in build order
  * @param evaluations the atlas's evaluations, in order
  */
-export function parseWorkforceShares(records: ReadonlyArray<readonly [number, readonly string[]]>, file: string, regionIds: readonly string[], evaluations: readonly ShareEvaluation[]): WorkforceShares {
+export function parseWorkforceShares(
+  records: ReadonlyArray<readonly [number, readonly string[]]>,
+  file: string,
+  regionIds: readonly string[],
+  evaluations: readonly ShareEvaluation[],
+): WorkforceShares {
   if (records.length === 0) throw WorkforceSharesColumns({ file, detail: 'the file is empty (no header)' }, { file });
   const header = records[0][1].map((h) => h.trim().replace(/^\uFEFF/, ''));
   const missing = REQUIRED.filter((c) => !header.includes(c));
@@ -135,7 +140,8 @@ export function parseWorkforceShares(records: ReadonlyArray<readonly [number, re
     if (region !== DEFAULT_REGION && !known.has(region)) {
       throw WorkforceSharesRegionUnknown({ file, row: line, region, known: listSome(regionIds) }, { file, row: line });
     }
-    if (!classIds.includes(workloadClass)) throw WorkforceSharesClassUnknown({ file, row: line, workloadClass, known: classIds.join(', ') }, { file, row: line });
+    if (!classIds.includes(workloadClass))
+      throw WorkforceSharesClassUnknown({ file, row: line, workloadClass, known: classIds.join(', ') }, { file, row: line });
     const key = `${region}\0${workloadClass}`;
     const first = seen.get(key);
     if (first !== undefined) throw WorkforceSharesDuplicate({ file, row: line, first, region, workloadClass }, { file, row: line });
@@ -156,7 +162,10 @@ export function parseWorkforceShares(records: ReadonlyArray<readonly [number, re
     if (mine.length === 0) return undefined;
     const total = mine.reduce((s, r) => s + r.share, 0);
     if (total > 1 + SUM_TOLERANCE) {
-      throw WorkforceSharesSum({ file, region: source === DEFAULT_REGION ? '* (the default)' : `"${source}"`, sum: total, rows: mine.map((r) => r.line).join(', ') }, { file, row: mine[0].line });
+      throw WorkforceSharesSum(
+        { file, region: source === DEFAULT_REGION ? '* (the default)' : `"${source}"`, sum: total, rows: mine.map((r) => r.line).join(', ') },
+        { file, row: mine[0].line },
+      );
     }
     const classes = classIds.map((id) => {
       const r = mine.find((x) => x.workloadClass === id);
@@ -166,7 +175,10 @@ export function parseWorkforceShares(records: ReadonlyArray<readonly [number, re
       const w = new Float64Array(evaluations.length);
       evaluations.forEach((e, i) => {
         if (e.workloadClass !== c.workloadClass) return;
-        w[i] = c.share * (e.acclimatization === 'acclimatized' ? c.acclimatized : 1 - c.acclimatized) * (e.exposure === 'sun' ? c.sun : e.exposure === 'shade' ? 1 - c.sun : 0);
+        w[i] =
+          c.share *
+          (e.acclimatization === 'acclimatized' ? c.acclimatized : 1 - c.acclimatized) *
+          (e.exposure === 'sun' ? c.sun : e.exposure === 'shade' ? 1 - c.sun : 0);
       });
       return w;
     });
@@ -179,7 +191,9 @@ export function parseWorkforceShares(records: ReadonlyArray<readonly [number, re
           const w = (acc === 'acclimatized' ? c.acclimatized : 1 - c.acclimatized) * (exp === 'sun' ? c.sun : 1 - c.sun);
           if (!(w > 0)) continue;
           if (evaluations.some((e) => e.workloadClass === c.workloadClass && e.acclimatization === acc && e.exposure === exp)) continue;
-          const evaluated = [...new Set(evaluations.filter((e) => e.workloadClass === c.workloadClass).map((e) => `${e.acclimatization} in the ${e.exposure}`))].join(', ');
+          const evaluated = [
+            ...new Set(evaluations.filter((e) => e.workloadClass === c.workloadClass).map((e) => `${e.acclimatization} in the ${e.exposure}`)),
+          ].join(', ');
           throw WorkforceSharesEvaluation({ file, row: line, needs: `${c.workloadClass} work, ${acc}, in the ${exp}`, evaluated }, { file, row: line });
         }
       }

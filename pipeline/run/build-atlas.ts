@@ -114,7 +114,11 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   const pool: ShardPool = startShardPool(jobs, new Promise<WorkerInit>((resolve, reject) => (setUp = { resolve, reject })));
   let plan: BuildPlan;
   try {
-    plan = await planBuild(rc, { jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours }, log);
+    plan = await planBuild(
+      rc,
+      { jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours },
+      log,
+    );
   } catch (e) {
     setUp!.reject(e);
     await pool.close();
@@ -148,19 +152,27 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
       estimate: plan.estimate,
     });
     if (o.shard) {
-      log.info(`slice ${o.shard.k}/${o.shard.n} done: ${compute.computed} computed, ${compute.partials.size - compute.computed} reused, ${(compute.partialBytes / 1e6).toFixed(1)} MB of partials`);
+      log.info(
+        `slice ${o.shard.k}/${o.shard.n} done: ${compute.computed} computed, ${compute.partials.size - compute.computed} reused, ${(compute.partialBytes / 1e6).toFixed(1)} MB of partials`,
+      );
       return report(0, 0);
     }
     if (o.mergeSlice && o.mergeDir) {
       // One task of a distributed merge: its bands into DIR/bands, each finished with band.json.
       const dir = o.mergeDir;
       const key = bandsKey(plan);
-      const merged = await mergeStage(plan, compute.partials, {
-        dataDir: (b, v) => join(bandDir(dir, b.rows, v), 'data'),
-        scratchDir: (b, v) => join(bandDir(dir, b.rows, v), 'scratch'),
-        done: (b, v) => bandDone(dir, key, b.rows, v),
-        finished: (b, v, s) => writeBand(dir, key, b.blocks, s, v),
-      }, log, o.quiet);
+      const merged = await mergeStage(
+        plan,
+        compute.partials,
+        {
+          dataDir: (b, v) => join(bandDir(dir, b.rows, v), 'data'),
+          scratchDir: (b, v) => join(bandDir(dir, b.rows, v), 'scratch'),
+          done: (b, v) => bandDone(dir, key, b.rows, v),
+          finished: (b, v, s) => writeBand(dir, key, b.blocks, s, v),
+        },
+        log,
+        o.quiet,
+      );
       log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
       return report(0, merged.seconds);
     }
@@ -189,8 +201,19 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }
-      for (let vi = 0; vi < plan.variants.length; vi++) await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
-      await publishStage({ plan, tiles, compute, stage, outDir, summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined, generated, log, quiet: o.quiet });
+      for (let vi = 0; vi < plan.variants.length; vi++)
+        await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
+      await publishStage({
+        plan,
+        tiles,
+        compute,
+        stage,
+        outDir,
+        summaryCacheDir: cacheDir ? join(cacheDir, 'summary') : undefined,
+        generated,
+        log,
+        quiet: o.quiet,
+      });
       await rm(scratch, { recursive: true, force: true });
       if (o.dataOnly) {
         const { replaceDirAtomic } = await import('../model/effects.ts');
@@ -217,6 +240,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
 /** A full disk while publishing becomes the catalogued DiskFull; other errors pass unchanged. */
 function diskFull(e: unknown, path: string): unknown {
   const code = (e as NodeJS.ErrnoException)?.code;
-  if (code === 'ENOSPC' || code === 'EDQUOT') return DiskFull({ path: (e as NodeJS.ErrnoException).path ?? path, what: 'publishing the atlas' }, { file: (e as NodeJS.ErrnoException).path ?? path });
+  if (code === 'ENOSPC' || code === 'EDQUOT')
+    return DiskFull({ path: (e as NodeJS.ErrnoException).path ?? path, what: 'publishing the atlas' }, { file: (e as NodeJS.ErrnoException).path ?? path });
   return e;
 }

@@ -65,7 +65,7 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   for (const line of describeSources(keyed, sources)) log.info(line);
 
   const partials = new Map<string, string>();
-  const storeDir = mode.kind === 'slice' ? sliceDir(mode) : mode.kind === 'cache' ? mode.cacheDir ?? mode.scratchDir : undefined;
+  const storeDir = mode.kind === 'slice' ? sliceDir(mode) : mode.kind === 'cache' ? (mode.cacheDir ?? mode.scratchDir) : undefined;
   const stores: ShardStores = {};
   keyed.forEach((kd, i) => {
     const s = sources[i];
@@ -73,7 +73,16 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
     else {
       const path = partialPath(storeDir!, kd.shard.id);
       partials.set(kd.shard.id, path);
-      stores[kd.shard.id] = { path, meta: { shardId: kd.shard.id, year: kd.shard.year, tileIndex: kd.shard.tileIndex, key: kd.key, provenance: kd.provenance as unknown as Record<string, unknown> } };
+      stores[kd.shard.id] = {
+        path,
+        meta: {
+          shardId: kd.shard.id,
+          year: kd.shard.year,
+          tileIndex: kd.shard.tileIndex,
+          key: kd.key,
+          provenance: kd.provenance as unknown as Record<string, unknown>,
+        },
+      };
     }
   });
   // A task computes only its shards that are not there already; their reads are still shared.
@@ -85,7 +94,9 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   const physics = emptyCounts();
   const timing = { read: 0, physics: 0, reduce: 0 };
   const labelOf = new Map(plan.variants.flatMap((v) => v.shards.map((s) => [s.id, v.label] as const)));
-  const byVariant: Record<string, VariantCounts> = Object.fromEntries(plan.variants.map((v) => [v.label, { cellHours: 0, physics: emptyCounts(), change: emptyChangeCounts() }]));
+  const byVariant: Record<string, VariantCounts> = Object.fromEntries(
+    plan.variants.map((v) => [v.label, { cellHours: 0, physics: emptyCounts(), change: emptyChangeCounts() }]),
+  );
   const countIn = (id: string, cellHoursOf: number, p: KernelCounts, c: ChangeCounts | undefined) => {
     const v = byVariant[labelOf.get(id) ?? 'baseline'];
     v.cellHours += cellHoursOf;
@@ -113,8 +124,12 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   const seconds = (Date.now() - t0) / 1000;
   const ns = (ms: number) => (ms * 1e6) / Math.max(1, cellHours);
   if (nShards > 0) {
-    log.info(`computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${seconds.toFixed(1)} s (${(cellHours / seconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`);
-    log.info(`worker time per land cell-hour: read ${ns(timing.read).toFixed(0)} ns, physics ${ns(timing.physics).toFixed(0)} ns, reduce ${ns(timing.reduce).toFixed(0)} ns`);
+    log.info(
+      `computed ${(cellHours / 1e6).toFixed(1)} M cell-hours in ${seconds.toFixed(1)} s (${(cellHours / seconds / 1e6).toFixed(2)} M/s); ${physics.notConverged} not converged, ${physics.rejected} rejected, ${physics.dewPointClamped} dew points clamped`,
+    );
+    log.info(
+      `worker time per land cell-hour: read ${ns(timing.read).toFixed(0)} ns, physics ${ns(timing.physics).toFixed(0)} ns, reduce ${ns(timing.reduce).toFixed(0)} ns`,
+    );
   }
   // Counts of the whole record (reused shards report what their computation counted).
   let allCellHours = cellHours;
@@ -128,7 +143,9 @@ export async function computeStage(plan: BuildPlan, mode: ComputeMode, log: Logg
   for (const v of plan.variants) {
     const c = byVariant[v.label].change;
     if (v.scenario !== undefined && c.humidityClampedHigh + c.humidityClampedLow > 0) {
-      log.info(`scenario ${v.label}: relative humidity clamped to 100 % in ${c.humidityClampedHigh} cell-hours and to the 1 % floor in ${c.humidityClampedLow} (the change would have taken it beyond)`);
+      log.info(
+        `scenario ${v.label}: relative humidity clamped to 100 % in ${c.humidityClampedHigh} cell-hours and to the 1 % floor in ${c.humidityClampedLow} (the change would have taken it beyond)`,
+      );
     }
   }
   return {
@@ -149,7 +166,13 @@ export function workerInit(plan: BuildPlan) {
   const cfg = plan.rc.config;
   return {
     files: plan.rc.inputFiles,
-    datasetOptions: { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask, digests: false, reuseBlockBuffers: true, memberCache: memberCacheDir(plan.rc) },
+    datasetOptions: {
+      product: cfg.dataset.product,
+      landSeaMask: cfg.dataset.landSeaMask,
+      digests: false,
+      reuseBlockBuffers: true,
+      memberCache: memberCacheDir(plan.rc),
+    },
     context: plan.context,
   };
 }

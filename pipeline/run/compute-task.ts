@@ -8,7 +8,16 @@
  * Memory is bounded by one block of the group and the group's partials, never by the record.
  */
 import type { Dataset } from '../read/index.ts';
-import { computeHours, emptyCounts, addCounts, applyMonthlyChange, emptyChangeCounts, type ChangeCounts, type KernelCounts, type PhysicsArrays } from '../physics/index.ts';
+import {
+  computeHours,
+  emptyCounts,
+  addCounts,
+  applyMonthlyChange,
+  emptyChangeCounts,
+  type ChangeCounts,
+  type KernelCounts,
+  type PhysicsArrays,
+} from '../physics/index.ts';
 import { allocLocalHours, countedExposures, localHoursInto, type LocalHours, type WorkEvaluation, type WorkShift } from '../work/index.ts';
 import { accumulateBlock, createPartial, reuseScratch, type ReduceScratch, type ShardPartial } from '../reduce/accumulator.ts';
 import type { PhysicsSettings } from '../physics/settings.ts';
@@ -168,7 +177,13 @@ async function tileChange(ctx: ShardContext, shard: ShardSpec, grid: { lat: Floa
  * caller promises to keep nothing of a partial's histogram past `onShard`'s return: the array is
  * then reused by the next task in this thread (the build's workers, which encode and drop).
  */
-export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardContext, onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>, recycle = false): Promise<void> {
+export async function computeTask(
+  ds: Dataset,
+  task: ComputeTask,
+  ctx: ShardContext,
+  onShard: (shard: ShardSpec, r: ShardResult) => void | Promise<void>,
+  recycle = false,
+): Promise<void> {
   const first = task.shards[0];
   const y0 = first.tile.y0;
   const y1 = task.shards[task.shards.length - 1].tile.y1;
@@ -218,7 +233,14 @@ export async function computeTask(ds: Dataset, task: ComputeTask, ctx: ShardCont
 }
 
 /** One block for one tile: gather its land cells, physics by grid row, back to time-major, reduce. */
-function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['readBlock']>>, nt: number, nBlock: number, buf: BlockBuffers, ctx: ShardContext): void {
+function computeTileBlock(
+  tile: TileState,
+  block: Awaited<ReturnType<Dataset['readBlock']>>,
+  nt: number,
+  nBlock: number,
+  buf: BlockBuffers,
+  ctx: ShardContext,
+): void {
   const { shard, pos, runs, runLon, timing } = tile;
   const cells = shard.cells;
   const nLand = cells.length;
@@ -273,8 +295,19 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
       const a = r.j0 * nt;
       const e = r.j1 * nt;
       applyMonthlyChange(
-        { airTemperature: inp.air.subarray(a, e), dewPointTemperature: inp.dew.subarray(a, e), surfacePressure: inp.sp.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined },
-        nr, nt, local.month, tile.change, r.j0, tile.changeCounts,
+        {
+          airTemperature: inp.air.subarray(a, e),
+          dewPointTemperature: inp.dew.subarray(a, e),
+          surfacePressure: inp.sp.subarray(a, e),
+          solarGlobal: inp.sg.subarray(a, e),
+          solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
+        },
+        nr,
+        nt,
+        local.month,
+        tile.change,
+        r.j0,
+        tile.changeCounts,
       );
     }
   }
@@ -288,11 +321,21 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
     const a = r.j0 * nt;
     const e = r.j1 * nt;
     const arrays: PhysicsArrays = {
-      time: block.time, lat: rowLat, lon,
-      airTemperature: inp.air.subarray(a, e), dewPointTemperature: inp.dew.subarray(a, e), surfacePressure: inp.sp.subarray(a, e),
-      windSpeed: inp.wind.subarray(a, e), solarGlobal: inp.sg.subarray(a, e), solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
-      cosZenith: out.cosZenith.subarray(a, e), directFraction: out.directFraction.subarray(a, e), solar: out.solar.subarray(a, e),
-      wind2m: out.wind2m.subarray(a, e), wbgtSun: out.wbgtSun.subarray(a, e), wbgtShade: out.wbgtShade.subarray(a, e),
+      time: block.time,
+      lat: rowLat,
+      lon,
+      airTemperature: inp.air.subarray(a, e),
+      dewPointTemperature: inp.dew.subarray(a, e),
+      surfacePressure: inp.sp.subarray(a, e),
+      windSpeed: inp.wind.subarray(a, e),
+      solarGlobal: inp.sg.subarray(a, e),
+      solarDirect: sd !== undefined ? inp.sd.subarray(a, e) : undefined,
+      cosZenith: out.cosZenith.subarray(a, e),
+      directFraction: out.directFraction.subarray(a, e),
+      solar: out.solar.subarray(a, e),
+      wind2m: out.wind2m.subarray(a, e),
+      wbgtSun: out.wbgtSun.subarray(a, e),
+      wbgtShade: out.wbgtShade.subarray(a, e),
       // The shelter pass runs in the JavaScript kernel (the WebAssembly kernel has no shelter pass).
       wbgtShelter: buf.shelter?.out.subarray(a, e),
       status: out.status.subarray(a, e),
@@ -314,8 +357,14 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
     accumulateBlock(
       tile.partial,
       {
-        nHours: nt, cellBase: cellBase.subarray(0, nLand), cellStride: cellStride.subarray(0, nLand),
-        wbgtSun: out.wbgtSun.subarray(0, n), wbgtShade: out.wbgtShade.subarray(0, n), wbgtShelter: buf.shelter?.out.subarray(0, n), airTemperature: inp.air.subarray(0, n), local,
+        nHours: nt,
+        cellBase: cellBase.subarray(0, nLand),
+        cellStride: cellStride.subarray(0, nLand),
+        wbgtSun: out.wbgtSun.subarray(0, n),
+        wbgtShade: out.wbgtShade.subarray(0, n),
+        wbgtShelter: buf.shelter?.out.subarray(0, n),
+        airTemperature: inp.air.subarray(0, n),
+        local,
       },
       ctx.evaluations,
       scratch,
@@ -345,7 +394,14 @@ function computeTileBlock(tile: TileState, block: Awaited<ReturnType<Dataset['re
   }
   accumulateBlock(
     tile.partial,
-    { nHours: nt, wbgtSun: gSun.subarray(0, nt * nLand), wbgtShade: gShade.subarray(0, nt * nLand), wbgtShelter: buf.shelter?.g.subarray(0, nt * nLand), airTemperature: gAir.subarray(0, nt * nLand), local },
+    {
+      nHours: nt,
+      wbgtSun: gSun.subarray(0, nt * nLand),
+      wbgtShade: gShade.subarray(0, nt * nLand),
+      wbgtShelter: buf.shelter?.g.subarray(0, nt * nLand),
+      airTemperature: gAir.subarray(0, nt * nLand),
+      local,
+    },
     ctx.evaluations,
     scratch,
   );

@@ -26,7 +26,7 @@ export const PartialsDuplicated = defineError<{ shardId: string; files: string[]
   code: 'PartialsDuplicated',
   title: 'A shard has more than one partial',
   message: (p) => `shard ${p.shardId} is in ${p.files.length} partial files: ${p.files.join(', ')}`,
-  hint: () => 'the slices overlap (runs with different --shard N into one folder?): keep one run\'s slice-K-of-N folders and delete the others',
+  hint: () => "the slices overlap (runs with different --shard N into one folder?): keep one run's slice-K-of-N folders and delete the others",
 });
 
 export const PartialsForeign = defineError<{ file: string; shardId: string; why: string }>({
@@ -53,8 +53,10 @@ export const ShardSliceInvalid = defineError<{ text: string }>({
 export const MemoryBudgetTooSmall = defineError<{ budget: number; need: number; what: string }>({
   code: 'MemoryBudgetTooSmall',
   title: 'The memory budget cannot hold one tile of the build',
-  message: (p) => `the memory budget of ${(p.budget / 1024 ** 2).toFixed(0)} MB is too small for ${p.what}: about ${(p.need / 1024 ** 2).toFixed(0)} MB are needed`,
-  hint: () => 'give the build more memory (--memory or the config key `memory`, e.g. --memory 4G), use fewer workers (--jobs), make shard tiles smaller (shards.cellsPerTile) or pieces of years shorter (shards.monthsPerPiece: 1)',
+  message: (p) =>
+    `the memory budget of ${(p.budget / 1024 ** 2).toFixed(0)} MB is too small for ${p.what}: about ${(p.need / 1024 ** 2).toFixed(0)} MB are needed`,
+  hint: () =>
+    'give the build more memory (--memory or the config key `memory`, e.g. --memory 4G), use fewer workers (--jobs), make shard tiles smaller (shards.cellsPerTile) or pieces of years shorter (shards.monthsPerPiece: 1)',
 });
 
 export const MemoryBudgetInvalid = defineError<{ text: string }>({
@@ -68,21 +70,25 @@ export const DiskFull = defineError<{ path: string; what: string }>({
   code: 'DiskFull',
   title: 'The disk is full',
   message: (p) => `no space left on the device while ${p.what} (${p.path}); nothing was published and the previous output is untouched`,
-  hint: () => 'free space on that disk or build elsewhere (--out, and --cache for the partials); `heathours build` prints the disk it expects to need before it starts',
+  hint: () =>
+    'free space on that disk or build elsewhere (--out, and --cache for the partials); `heathours build` prints the disk it expects to need before it starts',
 });
 
 export const BandsIncomplete = defineError<{ missing: number; blocks: number; first: string[]; dir: string }>({
   code: 'BandsIncomplete',
   title: 'Merged bands are missing',
-  message: (p) => `${p.missing} of the ${p.blocks} blocks of rows have no merged band under ${p.dir}: ${p.first.join(', ')}${p.missing > p.first.length ? ', …' : ''}`,
-  hint: () => 'run every merge task (`heathours build --merge DIR --tile K/N` for K = 1 … N) to the end before `--assemble DIR`; a task that failed can be run again and keeps the bands it finished',
+  message: (p) =>
+    `${p.missing} of the ${p.blocks} blocks of rows have no merged band under ${p.dir}: ${p.first.join(', ')}${p.missing > p.first.length ? ', …' : ''}`,
+  hint: () =>
+    'run every merge task (`heathours build --merge DIR --tile K/N` for K = 1 … N) to the end before `--assemble DIR`; a task that failed can be run again and keeps the bands it finished',
 });
 
 export const BandsDuplicated = defineError<{ block: string; bands: string[] }>({
   code: 'BandsDuplicated',
   title: 'Two merged bands hold the same rows',
   message: (p) => `the block of rows ${p.block} is in the bands ${p.bands.join(' and ')}`,
-  hint: () => 'merge tasks of two different --tile K/N splits wrote into one folder: keep one run\'s bands (delete DIR/bands) and run the merge tasks of one N again',
+  hint: () =>
+    "merge tasks of two different --tile K/N splits wrote into one folder: keep one run's bands (delete DIR/bands) and run the merge tasks of one N again",
 });
 
 export const BandsForeign = defineError<{ band: string; why: string }>({
@@ -96,5 +102,6 @@ export const MergeSliceInvalid = defineError<{ text: string }>({
   code: 'MergeSliceInvalid',
   title: 'The --tile value is not K/N',
   message: (p) => `--tile "${p.text}" is not K/N with 1 ≤ K ≤ N (e.g. 2/4)`,
-  hint: () => 'pass the merge slice as K/N with --merge DIR, e.g. --merge /shared/partials --tile 1/4 … --tile 4/4; with a Slurm array use --tile "${SLURM_ARRAY_TASK_ID}/N"',
+  hint: () =>
+    'pass the merge slice as K/N with --merge DIR, e.g. --merge /shared/partials --tile 1/4 … --tile 4/4; with a Slurm array use --tile "${SLURM_ARRAY_TASK_ID}/N"',
 });

@@ -18,52 +18,67 @@ const slug = z.string().regex(/^[a-z0-9][a-z0-9-]*$/);
 const year = z.number().int();
 const rate = z.number().positive().max(1000);
 
-const manifestPartSchema = z.object({
-  atlas: z.object({ title: z.string().min(1), invented: z.boolean() }).passthrough(),
-  buildTime: z.string().min(1),
-  codeVersion: z.string().min(1),
-  configDigest: z.string().min(1),
-  inputs: z.array(z.unknown()),
-  timeZone: z.string().min(1),
-  work: z
-    .object({
-      rest: z.object({ metabolicRate: rate }).passthrough(),
-      classes: z.array(z.object({ id: slug, name: z.string().min(1), metabolicRate: rate, description: z.string() }).passthrough()).min(1),
-      limitModel: z.enum(['curve-2017', 'table-1989']),
-      airMovement: z.boolean(),
-      acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
-      exposures: z.array(z.enum(['sun', 'shade', 'shelter'])).min(1),
-      restLocation: z.enum(['same-place', 'shade']),
-      clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
-      shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),
-    })
-    .passthrough(),
-  scenarioCaveat: z.string().min(1).optional(),
-  scenarios: z
-    .array(
-      z.object({
-        id: slug,
-        name: z.string().min(1),
-        words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1) }).passthrough(),
-        dataPath: z.string().regex(/^data\/scenarios\/[a-z0-9][a-z0-9-]*\/$/),
-      }).passthrough(),
-    )
-    .optional(),
-}).passthrough();
+const manifestPartSchema = z
+  .object({
+    atlas: z.object({ title: z.string().min(1), invented: z.boolean() }).passthrough(),
+    buildTime: z.string().min(1),
+    codeVersion: z.string().min(1),
+    configDigest: z.string().min(1),
+    inputs: z.array(z.unknown()),
+    timeZone: z.string().min(1),
+    work: z
+      .object({
+        rest: z.object({ metabolicRate: rate }).passthrough(),
+        classes: z.array(z.object({ id: slug, name: z.string().min(1), metabolicRate: rate, description: z.string() }).passthrough()).min(1),
+        limitModel: z.enum(['curve-2017', 'table-1989']),
+        airMovement: z.boolean(),
+        acclimatization: z.array(z.enum(['acclimatized', 'unacclimatized'])).min(1),
+        exposures: z.array(z.enum(['sun', 'shade', 'shelter'])).min(1),
+        restLocation: z.enum(['same-place', 'shade']),
+        clothing: z.object({ ensemble: z.string().optional(), hood: z.boolean().optional(), cav: z.number().optional() }),
+        shift: z.object({ start: z.number(), end: z.number(), days: z.array(z.string()).min(1) }),
+      })
+      .passthrough(),
+    scenarioCaveat: z.string().min(1).optional(),
+    scenarios: z
+      .array(
+        z
+          .object({
+            id: slug,
+            name: z.string().min(1),
+            words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1) }).passthrough(),
+            dataPath: z.string().regex(/^data\/scenarios\/[a-z0-9][a-z0-9-]*\/$/),
+          })
+          .passthrough(),
+      )
+      .optional(),
+  })
+  .passthrough();
 
-const calculatorSchema = z.object({
-  version: z.literal(1),
-  years: z.array(year).min(1),
-  baseline: z.tuple([year, year]),
-  regions: z.array(z.object({ id: slug, name: z.string().min(1), path: z.string().min(1) }).passthrough()),
-}).passthrough();
+const calculatorSchema = z
+  .object({
+    version: z.literal(1),
+    years: z.array(year).min(1),
+    baseline: z.tuple([year, year]),
+    regions: z.array(z.object({ id: slug, name: z.string().min(1), path: z.string().min(1) }).passthrough()),
+  })
+  .passthrough();
 
-const cellsSchema = z.object({
-  version: z.literal(1),
-  years: z.array(year).min(1),
-  grid: z.object({ nLat: z.number().int().positive(), nLon: z.number().int().positive(), lat0: z.number(), dLat: z.number(), lon0: z.number(), dLon: z.number() }),
-  chunks: z.array(z.object({ path: z.string().min(1), firstCell: z.number().int().nonnegative(), lastCell: z.number().int().nonnegative() }).passthrough()),
-}).passthrough();
+const cellsSchema = z
+  .object({
+    version: z.literal(1),
+    years: z.array(year).min(1),
+    grid: z.object({
+      nLat: z.number().int().positive(),
+      nLon: z.number().int().positive(),
+      lat0: z.number(),
+      dLat: z.number(),
+      lon0: z.number(),
+      dLon: z.number(),
+    }),
+    chunks: z.array(z.object({ path: z.string().min(1), firstCell: z.number().int().nonnegative(), lastCell: z.number().int().nonnegative() }).passthrough()),
+  })
+  .passthrough();
 
 async function readJson<T>(path: string, schema: z.ZodType<T>): Promise<T> {
   let raw: unknown;
@@ -73,7 +88,8 @@ async function readJson<T>(path: string, schema: z.ZodType<T>): Promise<T> {
     throw EstimateAtlasInvalid({ path, problems: [`not readable JSON (${(e as Error).message})`] }, { file: path });
   }
   const r = schema.safeParse(raw);
-  if (!r.success) throw EstimateAtlasInvalid({ path, problems: r.error.issues.slice(0, 5).map((i) => `${i.path.join('.') || '(top)'}: ${i.message}`) }, { file: path });
+  if (!r.success)
+    throw EstimateAtlasInvalid({ path, problems: r.error.issues.slice(0, 5).map((i) => `${i.path.join('.') || '(top)'}: ${i.message}`) }, { file: path });
   return r.data;
 }
 
@@ -95,14 +111,18 @@ export async function openEstimateAtlas(dir: string): Promise<EstimateAtlas> {
   const root = existsSync(join(abs, 'data', 'manifest.json')) ? abs : existsSync(join(abs, 'manifest.json')) ? resolve(abs, '..') : null;
   if (root === null) throw EstimateAtlasNotFound({ dir: abs, missing: 'data/manifest.json (nor manifest.json)' }, { file: abs });
   const calcPath = join(root, 'data', 'calculator', 'index.json');
-  if (!existsSync(calcPath)) throw EstimateAtlasNotFound({ dir: root, missing: 'data/calculator/index.json: the atlas was built without calculator tiles' }, { file: calcPath });
+  if (!existsSync(calcPath))
+    throw EstimateAtlasNotFound({ dir: root, missing: 'data/calculator/index.json: the atlas was built without calculator tiles' }, { file: calcPath });
   const manifestFile = join(root, 'data', 'manifest.json');
   const manifest = await readJson(manifestFile, manifestPartSchema);
   const calculator = await readJson(calcPath, calculatorSchema);
   const cellsPath = join(root, 'data', 'calculator', 'cells', 'index.json');
   const cells = existsSync(cellsPath) ? await readJson(cellsPath, cellsSchema) : null;
   if (cells && cells.years.join() !== calculator.years.join()) {
-    throw EstimateAtlasInvalid({ path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calculator.years.join(', ')}`] }, { file: cellsPath });
+    throw EstimateAtlasInvalid(
+      { path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calculator.years.join(', ')}`] },
+      { file: cellsPath },
+    );
   }
   const ctx = makeEstimateContext({
     manifest: manifest as Parameters<typeof makeEstimateContext>[0]['manifest'],

@@ -64,7 +64,12 @@ export function estimateBuild(e: EstimateInput): BuildEstimate {
   const site = SITE_S + e.regions * SITE_S_PER_REGION;
   const total = compute + merge + publish + site;
   const partials = v * e.cells * e.years * PARTIAL_B_PER_CELL_YEAR;
-  const output = v * (e.cells * OUTPUT_B_PER_CELL + e.cells * e.years * OUTPUT_B_PER_CELL_YEAR + e.regions * (OUTPUT_B_PER_REGION + e.years * OUTPUT_B_PER_REGION_YEAR) + e.nGrid * e.fields * 5);
+  const output =
+    v *
+    (e.cells * OUTPUT_B_PER_CELL +
+      e.cells * e.years * OUTPUT_B_PER_CELL_YEAR +
+      e.regions * (OUTPUT_B_PER_REGION + e.years * OUTPUT_B_PER_REGION_YEAR) +
+      e.nGrid * e.fields * 5);
   const scratch = e.nGrid * e.fields * 4 + v * e.regions * e.years * SCRATCH_B_PER_REGION_YEAR;
   const peakMemory = Math.max(e.memory.computePeak, e.memory.mergePeak);
   const min = (s: number) => (s >= 90 ? `${(s / 60).toFixed(1)} min` : `${s.toFixed(0)} s`);

@@ -97,7 +97,8 @@ export interface MemoryPlan {
  */
 export function computeTaskBytes(land: number, rows: number, maxTile: number, m: MemoryInput, blockHours: number, variants = 1): number {
   const shelter = (m.exposures ?? 2) > 2;
-  const partials = variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * (COUNTS_PER_CELL_MONTH(m.evaluations) + (shelter ? SHELTER_PER_CELL_MONTH : 0)));
+  const partials =
+    variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * (COUNTS_PER_CELL_MONTH(m.evaluations) + (shelter ? SHELTER_PER_CELL_MONTH : 0)));
   const block = rows * m.nLon * blockHours * BLOCK_FIELDS * 4;
   const tile = maxTile * blockHours * (TILE_ARRAYS + (shelter ? SHELTER_TILE_ARRAYS : 0)) * 4;
   return partials + block + tile;
@@ -180,7 +181,11 @@ export function planMemory(m: MemoryInput): MemoryPlan {
     let land = landOf(m.blocks[i]);
     if (mergeTileBytes(land, y1 - y0, m) > perWorker) {
       const need = MAIN_BASE + m.jobs * (WORKER_BASE + mergeTileBytes(land, y1 - y0, m));
-      throw MemoryBudgetTooSmall({ budget: m.budget, need, what: `merging grid rows ${y0}-${y1 - 1} (${land} land cells) over ${m.years} years on ${m.jobs} worker(s)` });
+      throw MemoryBudgetTooSmall({
+        budget: m.budget,
+        need,
+        what: `merging grid rows ${y0}-${y1 - 1} (${land} land cells) over ${m.years} years on ${m.jobs} worker(s)`,
+      });
     }
     let j = i + 1;
     while (j < m.blocks.length) {

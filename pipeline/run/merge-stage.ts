@@ -46,7 +46,13 @@ export function mergeTaskId(band: MergeBand, v: BuildVariant): string {
  * Merges every band of the plan. `partials` maps shard ids to their files; `target` says where
  * each band's files go.
  */
-export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, string>, target: BandTarget, log: Logger, quiet?: boolean): Promise<MergeOutcome> {
+export async function mergeStage(
+  plan: BuildPlan,
+  partials: ReadonlyMap<string, string>,
+  target: BandTarget,
+  log: Logger,
+  quiet?: boolean,
+): Promise<MergeOutcome> {
   const cfg = plan.rc.config;
   const todo = plan.variants.flatMap((variant, vi) => plan.bands.filter((b) => !target.done?.(b, variant)).map((band) => ({ band, variant, vi })));
   const all = plan.bands.length * plan.variants.length;
@@ -79,7 +85,9 @@ export async function mergeStage(plan: BuildPlan, partials: ReadonlyMap<string, 
   const byId = new Map<string, MergeTileSummary>();
   const progress = startProgress('merge', inputs.length, { quiet });
   const t0 = Date.now();
-  log.info(`merging ${inputs.length} band(s) of rows${plan.variants.length > 1 ? ` (the record and ${plan.variants.length - 1} scenario(s))` : ''} on ${plan.jobs} worker(s): normals, trends, niche, cell tables, map chunks, calculator tiles`);
+  log.info(
+    `merging ${inputs.length} band(s) of rows${plan.variants.length > 1 ? ` (the record and ${plan.variants.length - 1} scenario(s))` : ''} on ${plan.jobs} worker(s): normals, trends, niche, cell tables, map chunks, calculator tiles`,
+  );
   await runTasks(
     inputs.map((tile): PoolTask => ({ kind: 'merge', tile })),
     workerInit(plan),

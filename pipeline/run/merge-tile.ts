@@ -15,19 +15,20 @@
  */
 import { mkdirSync, openSync, closeSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
-import { computeNormals, annualCellTrends, annualMeanFromMonthlySums, assessNiche, nicheClassCode, MONTHLY_COMPLETENESS, type Normals } from '../climate/index.ts';
+import {
+  computeNormals,
+  annualCellTrends,
+  annualMeanFromMonthlySums,
+  assessNiche,
+  nicheClassCode,
+  MONTHLY_COMPLETENESS,
+  type Normals,
+} from '../climate/index.ts';
 import { YearMerger, CELL_YEAR_HIST, type YearCounts } from '../reduce/merge.ts';
 import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../reduce/layout.ts';
 import { figureDefs, yearFigures, shiftHourValues, PERIODS, type FigureDef } from '../reduce/figures.ts';
 import { personHoursDensity, personHoursDensityDef } from '../regions/person-hours.ts';
-import {
-  addWeightedHistograms,
-  addWeightedMeans,
-  addWorstCells,
-  addYearValues,
-  emptyFigureSums,
-  type RegionTileCells,
-} from '../regions/region-sums.ts';
+import { addWeightedHistograms, addWeightedMeans, addWorstCells, addYearValues, emptyFigureSums, type RegionTileCells } from '../regions/region-sums.ts';
 import { readPartialFileSparse } from './partial-store.ts';
 import { RegionPartWriter, RECORD_WORKFORCE, type RegionRecordRef } from '../formats/region-parts.ts';
 import { GridPiece, type GridPieceRef } from '../formats/grid-pieces.ts';

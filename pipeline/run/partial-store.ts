@@ -55,9 +55,7 @@ export function readPartialFileSparse(path: string): { meta: PartialMeta; partia
 }
 
 /** What the cache holds for one shard. */
-export type CacheVerdict =
-  | { status: 'fresh'; path: string; meta: PartialMeta }
-  | { status: 'missing' | 'stale' | 'corrupt'; path: string; reason: string };
+export type CacheVerdict = { status: 'fresh'; path: string; meta: PartialMeta } | { status: 'missing' | 'stale' | 'corrupt'; path: string; reason: string };
 
 /**
  * Looks a shard up in the cache folder `dir`: fresh when a whole file with the same key is there;

@@ -74,8 +74,11 @@ export async function startPhysicsPool(arrays: PhysicsArrays, size = availablePa
         counts.timeOutOfRange += r.counts.timeOutOfRange;
       }
       return {
-        counts, workerMs: res.map((r) => r.ms), workerCpuNs: res.map((r) => r.cpuNs),
-        workerStartMs: res.map((r) => r.startMs), workerEndMs: res.map((r) => r.endMs),
+        counts,
+        workerMs: res.map((r) => r.ms),
+        workerCpuNs: res.map((r) => r.cpuNs),
+        workerStartMs: res.map((r) => r.startMs),
+        workerEndMs: res.map((r) => r.endMs),
       };
     },
     close: () => pool.close(),

@@ -140,7 +140,10 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   const classesPath = resolve(dirname(rc.path), cfg.work.classesFile);
   if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
   const classesText = readFileSync(classesPath, 'utf8');
-  const allClasses = parseWorkloadClasses(parseYamlStrict(classesText, (detail) => ConfigSyntax({ detail }, { file: classesPath })), classesPath);
+  const allClasses = parseWorkloadClasses(
+    parseYamlStrict(classesText, (detail) => ConfigSyntax({ detail }, { file: classesPath })),
+    classesPath,
+  );
   const work = resolveWorkSettings(cfg.work, allClasses, { file: rc.path });
   const regions: Region[] = rc.regionFiles.flatMap((f) => parseRegionFile(readFileSync(f, 'utf8'), f));
   checkUniqueRegionIds(regions);
@@ -153,7 +156,9 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   if (workforceDigests) digest.update(`\0workforce ${workforceDigests.raster} ${workforceDigests.shares}`);
   const configDigest = digest.digest('hex');
 
-  log.info(`heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`);
+  log.info(
+    `heathours build: atlas "${cfg.id}", ${rc.inputFiles.length} input file(s), ${regions.length} region(s), ${work.evaluations.length} work evaluations`,
+  );
   const baselineWarning = shortBaselineWarning(cfg.baseline);
   if (baselineWarning) log.warn(baselineWarning);
   const datasetOptions = { product: cfg.dataset.product, landSeaMask: cfg.dataset.landSeaMask };
@@ -181,7 +186,15 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
 
     // The shards, each with its provenance and cache key.
     const years = range(cfg.years[0], cfg.years[1]);
-    const shards = planShards(nLat, nLon, land, years, (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece), cfg.shards.cellsPerTile, cfg.shards.monthsPerPiece);
+    const shards = planShards(
+      nLat,
+      nLon,
+      land,
+      years,
+      (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece),
+      cfg.shards.cellsPerTile,
+      cfg.shards.monthsPerPiece,
+    );
     const settings = { ...datasetOptions, timeZone: cfg.timeZone, shift: work.shift, evaluations: work.evaluations, physics: cfg.physics };
     // Scenarios: resolved, and checked over every land cell before anything is computed.
     const scenarios: ScenarioSpec[] = [];
@@ -201,20 +214,28 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
         const f = (x: number) => (Math.round(x * 100) / 100).toFixed(2);
         log.info(
           `scenario ${sc.id} (${sc.kind === 'warming' ? `uniform warming ${sc.warming} K` : `change factors ${sc.file}`}): air temperature ${f(check.temperature.min)} … ${f(check.temperature.max)} K` +
-            (check.humidity ? `, humidity ${f(check.humidity.min)} … ${f(check.humidity.max)} ${sc.kind === 'change-file' && sc.humidity === 'specific' ? '(relative change of q)' : 'points of RH'}` : '') +
-            (check.solar ? `, solar ${f(check.solar.min * 100)} … ${f(check.solar.max * 100)} %` : '') + ' over the land cells and months',
+            (check.humidity
+              ? `, humidity ${f(check.humidity.min)} … ${f(check.humidity.max)} ${sc.kind === 'change-file' && sc.humidity === 'specific' ? '(relative change of q)' : 'points of RH'}`
+              : '') +
+            (check.solar ? `, solar ${f(check.solar.min * 100)} … ${f(check.solar.max * 100)} %` : '') +
+            ' over the land cells and months',
         );
       }
     } finally {
       await closeChangeFiles();
     }
-    const keyed: KeyedShard[] = variants.flatMap((v) => v.shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings, v.scenario) })));
+    const keyed: KeyedShard[] = variants.flatMap((v) =>
+      v.shards.map((shard) => ({ shard, ...shardProvenance(shard, ds.files, ds.time, settings, v.scenario) })),
+    );
     const tiles: BuildPlan['tiles'] = [];
     for (const s of shards) if (!tiles[s.tileIndex]) tiles[s.tileIndex] = { y0: s.tile.y0, y1: s.tile.y1, cells: s.cells.length };
     const jobs = Math.max(1, o.jobs ?? availableParallelism());
 
     // What fits the memory budget.
-    const defs = figureDefs(work.evaluations.map((e) => e.key), countedExposures(work.evaluations));
+    const defs = figureDefs(
+      work.evaluations.map((e) => e.key),
+      countedExposures(work.evaluations),
+    );
     if (workforce) defs.push(workforce.densityDef);
     const fields = gridFields(defs);
     const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
@@ -235,11 +256,25 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       maxBlockHours: BLOCK_HOURS,
       variants: variants.length,
     });
-    const tasks = computeTasks(variants.map((v) => v.shards), memory);
+    const tasks = computeTasks(
+      variants.map((v) => v.shards),
+      memory,
+    );
     const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
     if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
-    const estimate = estimateBuild({ shards: variants.flatMap((v) => v.shards), cells: nLand, nGrid, years: years.length, regions: regions.length, jobs, fields: fields.length, memory, evaluations: work.evaluations.length, variants: variants.length });
+    const estimate = estimateBuild({
+      shards: variants.flatMap((v) => v.shards),
+      cells: nLand,
+      nGrid,
+      years: years.length,
+      regions: regions.length,
+      jobs,
+      fields: fields.length,
+      memory,
+      evaluations: work.evaluations.length,
+      variants: variants.length,
+    });
     log.info(
       `plan: ${nLand} land cells of ${nGrid}, ${keyed.length} shards (${tiles.length} tile(s) × pieces of ${years.length} year(s)${variants.length > 1 ? ` × the record and ${scenarios.length} scenario(s)` : ''}) in ${tasks.length} compute tasks ` +
         `(${memory.groups.length} group(s) of tiles read together, blocks of ${memory.blockHours} h), ${bands.length} merge band(s), ${jobs} worker(s)`,
@@ -250,7 +285,29 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     );
     log.info(`estimate: ${estimate.text}`);
     return {
-      rc, work, configDigest, regions, weights, ds, years, latestYear, cells, nGrid, landInRow, shards, keyed, scenarios, variants, tiles, tasks, blocks: allBlocks, bands, defs, fields, memory, jobs,
+      rc,
+      work,
+      configDigest,
+      regions,
+      weights,
+      ds,
+      years,
+      latestYear,
+      cells,
+      nGrid,
+      landInRow,
+      shards,
+      keyed,
+      scenarios,
+      variants,
+      tiles,
+      tasks,
+      blocks: allBlocks,
+      bands,
+      defs,
+      fields,
+      memory,
+      jobs,
       context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon, scenarios },
       estimate,
       workforce,
@@ -305,7 +362,14 @@ function computeTasks(variants: ReadonlyArray<readonly ShardSpec[]>, memory: Mem
 }
 
 /** The merge bands with their cells, the shard tiles they read and the regions they overlap. */
-function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray<[number, number]>, cells: Int32Array, nLon: number, tiles: BuildPlan['tiles'], weights: readonly CellWeights[]): MergeBand[] {
+function mergeBands(
+  rows: ReadonlyArray<[number, number]>,
+  blocks: ReadonlyArray<[number, number]>,
+  cells: Int32Array,
+  nLon: number,
+  tiles: BuildPlan['tiles'],
+  weights: readonly CellWeights[],
+): MergeBand[] {
   // Which band each land cell is in, and its position there.
   const bands: MergeBand[] = rows.map(([y0, y1]) => {
     const a = lowerBound(cells, y0 * nLon);
@@ -350,7 +414,14 @@ function mergeBands(rows: ReadonlyArray<[number, number]>, blocks: ReadonlyArray
  * region, P their sum over the region; area weights for a region without people, whose
  * person-hours are then 0).
  */
-function addBandWorkforce(bands: MergeBand[], cells: Int32Array, grid: BuildPlan['ds']['grid'], weights: readonly CellWeights[], wf: WorkforcePlan, nEval: number): void {
+function addBandWorkforce(
+  bands: MergeBand[],
+  cells: Int32Array,
+  grid: BuildPlan['ds']['grid'],
+  weights: readonly CellWeights[],
+  wf: WorkforcePlan,
+  nEval: number,
+): void {
   const g = describeGridCells(grid);
   const R2 = EARTH_RADIUS_KM * EARTH_RADIUS_KM;
   for (const band of bands) {
@@ -408,12 +479,17 @@ async function checkInputCoverage(rc: ResolvedConfig, maxMissing: number, log: L
   const problems = coverageProblems(cov, maxMissing);
   if (problems.length > 0) {
     throw InputsIncomplete(
-      { years: `${years[0]}–${years[1]}`, problems, rule: maxMissing === 0 ? 'every hour of every built year' : `at most ${maxMissing} missing hour(s) per year and variable (--max-missing-hours)` },
+      {
+        years: `${years[0]}–${years[1]}`,
+        problems,
+        rule: maxMissing === 0 ? 'every hour of every built year' : `at most ${maxMissing} missing hour(s) per year and variable (--max-missing-hours)`,
+      },
       { file: rc.path, key: 'dataset.files' },
     );
   }
   const t = cov.variables.find((v) => v.era5t.length > 0);
-  for (const run of t?.era5t ?? []) log.warn(`${run.hours} h of ${t!.variable} are preliminary ERA5T (stamps ${run.from} to ${run.to}); rebuild with final ERA5 when it is published`);
+  for (const run of t?.era5t ?? [])
+    log.warn(`${run.hours} h of ${t!.variable} are preliminary ERA5T (stamps ${run.from} to ${run.to}); rebuild with final ERA5 when it is published`);
 }
 
 /** Where ZIP members that cannot be read in place are unpacked (pipeline/read/zip-archive.ts). */
@@ -432,7 +508,6 @@ function checkYears(time: { start: number; count: number }, years: [number, numb
   }
 }
 
-
 /** Keys of the configuration that change how a build runs, never what it publishes. */
 const EXECUTION_KEYS = new Set(['memory', 'shards', 'cache']);
 
@@ -443,7 +518,15 @@ const EXECUTION_KEYS = new Set(['memory', 'shards', 'cache']);
  */
 export function resultConfigText(cfg: object): string {
   const canonical = (v: unknown): unknown =>
-    Array.isArray(v) ? v.map(canonical) : v !== null && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canonical((v as Record<string, unknown>)[k])])) : v;
+    Array.isArray(v)
+      ? v.map(canonical)
+      : v !== null && typeof v === 'object'
+        ? Object.fromEntries(
+            Object.keys(v)
+              .sort()
+              .map((k) => [k, canonical((v as Record<string, unknown>)[k])]),
+          )
+        : v;
   const top = Object.fromEntries(Object.entries(cfg).filter(([k]) => !EXECUTION_KEYS.has(k)));
   return JSON.stringify(canonical(top));
 }

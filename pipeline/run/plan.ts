@@ -55,7 +55,10 @@ export function yearPieces(time: { start: number; count: number }, year: number,
     // An hour belongs to the UTC year it starts in (its stamp is its end).
     const u = new Date(stamp(a) - HOUR_MS).getUTCFullYear();
     const b = Math.min(h1, Math.ceil((Date.UTC(u + 1, 0, 1) + HOUR_MS - time.start) / HOUR_MS));
-    const local = localHours(Float64Array.from({ length: b - a }, (_, i) => stamp(a + i)), timeZone);
+    const local = localHours(
+      Float64Array.from({ length: b - a }, (_, i) => stamp(a + i)),
+      timeZone,
+    );
     let from = a;
     let group = -1;
     let m0 = 0;
@@ -156,7 +159,16 @@ export function planShards(
       const month = monthsPerPiece < 12 ? `-m${String(piece.months[0] + 1).padStart(2, '0')}` : '';
       const suffix = `${piece.utcYear === year ? '' : `-u${piece.utcYear}`}${month}`;
       tiles.forEach((t, i) =>
-        shards.push({ id: `t${String(i).padStart(2, '0')}-y${year}${suffix}`, tileIndex: i, tile: t.tile, year, utcYear: piece.utcYear, hours: piece.hours, months: piece.months, cells: t.cells }),
+        shards.push({
+          id: `t${String(i).padStart(2, '0')}-y${year}${suffix}`,
+          tileIndex: i,
+          tile: t.tile,
+          year,
+          utcYear: piece.utcYear,
+          hours: piece.hours,
+          months: piece.months,
+          cells: t.cells,
+        }),
       );
     }
   }

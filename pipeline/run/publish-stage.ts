@@ -103,17 +103,32 @@ async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): 
     years: cfg.years,
     baseline: cfg.baseline,
     inputs: plan.ds.files,
-    regionTables: tablesOnDisk(dataDir, plan.regions.map((r) => r.id)),
+    regionTables: tablesOnDisk(
+      dataDir,
+      plan.regions.map((r) => r.id),
+    ),
     regionNames: new Map(plan.regions.map((rg) => [rg.id, rg.name])),
   });
   await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
   if (changes.hasPrevious) {
-    log.info(`since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`);
+    log.info(
+      `since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`,
+    );
   }
-  await writeFile(join(p.stage, DATA_DICTIONARY_PATH), dataDictionaryCsv({
-    figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], classes: plan.work.classes, acclimatization: plan.work.settings.acclimatization, exposures: plan.work.settings.exposures,
-    lossViews: LOSS_VIEWS, statistics: STATISTIC_RULES, baseline: cfg.baseline, latestYear: plan.latestYear, years: [plan.years[0], plan.years[plan.years.length - 1]],
-  }));
+  await writeFile(
+    join(p.stage, DATA_DICTIONARY_PATH),
+    dataDictionaryCsv({
+      figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])],
+      classes: plan.work.classes,
+      acclimatization: plan.work.settings.acclimatization,
+      exposures: plan.work.settings.exposures,
+      lossViews: LOSS_VIEWS,
+      statistics: STATISTIC_RULES,
+      baseline: cfg.baseline,
+      latestYear: plan.latestYear,
+      years: [plan.years[0], plan.years[plan.years.length - 1]],
+    }),
+  );
 
   const artefacts = await listArtefacts(p.stage, describeArtefact);
   const work = plan.work;
@@ -151,7 +166,10 @@ async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): 
         id: sc.id,
         name: sc.name,
         ...(sc.description !== undefined ? { description: sc.description } : {}),
-        definition: sc.kind === 'warming' ? { kind: 'warming', warming: sc.warming } : { kind: 'change-file', changeFile: sc.file, sha256: sc.sha256, humidity: sc.humidity, variables: v.check!.variables },
+        definition:
+          sc.kind === 'warming'
+            ? { kind: 'warming', warming: sc.warming }
+            : { kind: 'change-file', changeFile: sc.file, sha256: sc.sha256, humidity: sc.humidity, variables: v.check!.variables },
         words: describeScenario(sc, v.check),
         changes: { temperature: v.check!.temperature, humidity: v.check!.humidity, solar: v.check!.solar },
         dataPath: `data/${v.dataPath}/`,
@@ -210,27 +228,51 @@ async function publishVariant(p: PublishInput, v: BuildVariant, tiles: readonly 
     progress.done();
     log.info(`${layers.length} map layers drawn (PNG and tiled GeoTIFF)${sc ? ` for scenario ${sc.id}` : ''}; writing the per-cell NetCDF`);
     const words = sc ? describeScenario(sc, v.check) : undefined;
-    writeCellNetcdf(join(p.stage, at(CELL_NETCDF_PATH)), grid, plan.defs, plan.fields, {
-      title: sc ? `${cfg.title}: scenario ${sc.name} (a what-if, not a forecast)` : cfg.title,
-      invented: cfg.dataset.invented,
-      source: `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})` + (sc ? `; scenario ${sc.id}: ${words!.what} ${words!.source}` : ''),
-      // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
-      history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
-      baseline: cfg.baseline,
-      ...(sc ? { scenario: words!.caveat } : {}),
-    }, field);
+    writeCellNetcdf(
+      join(p.stage, at(CELL_NETCDF_PATH)),
+      grid,
+      plan.defs,
+      plan.fields,
+      {
+        title: sc ? `${cfg.title}: scenario ${sc.name} (a what-if, not a forecast)` : cfg.title,
+        invented: cfg.dataset.invented,
+        source:
+          `heathours ${CODE_VERSION} from ${plan.ds.files.length} input file(s) (${cfg.dataset.product})` +
+          (sc ? `; scenario ${sc.id}: ${words!.what} ${words!.source}` : ''),
+        // No clock time: the same inputs and settings give the same bytes (the build time is in the manifest).
+        history: `heathours ${CODE_VERSION} build of atlas ${cfg.id}`,
+        baseline: cfg.baseline,
+        ...(sc ? { scenario: words!.caveat } : {}),
+      },
+      field,
+    );
   } finally {
     closePieces(fds);
   }
 
   // Indexes of the per-cell files, and niche.json from the bands' entries.
   const tables = tiles.flatMap((t) => t.cellTables.map((c) => ({ path: at(c.path), rows: c.rows })));
-  const index = cellFiguresIndex(plan.defs, grid, tiles.flatMap((t) => t.cellChunks), DEFAULT_CELL_TILE, tables);
-  await writeFile(join(dataDir, 'cells', 'index.json'), JSON.stringify({ ...index, chunks: index.chunks.map((c) => ({ ...c, path: at(c.path) })), netcdf: at(index.netcdf) }));
+  const index = cellFiguresIndex(
+    plan.defs,
+    grid,
+    tiles.flatMap((t) => t.cellChunks),
+    DEFAULT_CELL_TILE,
+    tables,
+  );
+  await writeFile(
+    join(dataDir, 'cells', 'index.json'),
+    JSON.stringify({ ...index, chunks: index.chunks.map((c) => ({ ...c, path: at(c.path) })), netcdf: at(index.netcdf) }),
+  );
   await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks.map((c) => ({ ...c, path: at(c.path) }))) });
   const hist = histogramIndex(plan.years, cfg.baseline, plan.regions);
   await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify({ ...hist, regions: hist.regions.map((r) => ({ ...r, path: at(r.path) })) }));
-  await joinFiles(join(dataDir, 'niche.json'), nicheJsonHead(), tiles.map((t) => t.nicheFragment), ',', NICHE_JSON_TAIL);
+  await joinFiles(
+    join(dataDir, 'niche.json'),
+    nicheJsonHead(),
+    tiles.map((t) => t.nicheFragment),
+    ',',
+    NICHE_JSON_TAIL,
+  );
   return layers;
 }
 
@@ -314,7 +356,16 @@ function readPreviousFacts(dataDir: string): BuildFacts | null {
     const gj = JSON.parse(readFileSync(join(dataDir, 'regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> };
     const ids = gj.features.map((f) => f.properties.id);
     const regionNames = new Map(gj.features.map((f) => [f.properties.id, f.properties.name]));
-    return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tablesOnDisk(dataDir, ids), regionNames };
+    return {
+      buildTime: m.buildTime,
+      codeVersion: m.codeVersion,
+      configDigest: m.configDigest,
+      years: m.years,
+      baseline: m.baseline,
+      inputs: m.inputs,
+      regionTables: tablesOnDisk(dataDir, ids),
+      regionNames,
+    };
   } catch {
     return null;
   }
@@ -331,20 +382,54 @@ function describeArtefact(path: string): { kind: Manifest['artefacts'][number]['
 function describeRecordArtefact(path: string): { kind: Manifest['artefacts'][number]['kind']; description: string; units?: string } {
   if (path.endsWith('.png')) return { kind: 'layer-png', description: 'map layer (Web Mercator rows), see layers[]' };
   if (path.endsWith('.tif')) return { kind: 'layer-geotiff', description: 'map layer, Float32 GeoTIFF with internal tiles, EPSG:4326' };
-  if (path === DATA_DICTIONARY_PATH) return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell tables' };
-  if (path.endsWith('.wide.csv')) return { kind: 'table', description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic', units: 'h per worker (in each month header)' };
-  if (path.endsWith('.xlsx')) return { kind: 'table', description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions', units: 'h per worker, °C (in the headers)' };
-  if (path.endsWith('.nc')) return { kind: 'netcdf', description: 'per-cell figures of the whole grid, CF-1.8 NetCDF (64-bit offset): shift hours above the limit and hours lost per worker (baseline mean, median, P90 year, years used) by period and evaluation, mean annual temperature and its niche class', units: 'per variable (units attribute)' };
+  if (path === DATA_DICTIONARY_PATH)
+    return { kind: 'table', description: 'data dictionary: label, unit and unit in words of every column and code of the region tables and the cell tables' };
+  if (path.endsWith('.wide.csv'))
+    return {
+      kind: 'table',
+      description: 'region table for spreadsheets: hours per worker with the months across, one row per figure, class, acclimatization, exposure and statistic',
+      units: 'h per worker (in each month header)',
+    };
+  if (path.endsWith('.xlsx'))
+    return {
+      kind: 'table',
+      description: 'region workbook: hours and temperatures by month, the assumptions (build, data, work settings, statistics) and the cautions',
+      units: 'h per worker, °C (in the headers)',
+    };
+  if (path.endsWith('.nc'))
+    return {
+      kind: 'netcdf',
+      description:
+        'per-cell figures of the whole grid, CF-1.8 NetCDF (64-bit offset): shift hours above the limit and hours lost per worker (baseline mean, median, P90 year, years used) by period and evaluation, mean annual temperature and its niche class',
+      units: 'per variable (units attribute)',
+    };
   if (path.endsWith('.csv')) {
     return path.includes('/regions/')
       ? { kind: 'table', description: 'region table: statistics across years per month, workload class, acclimatization and exposure', units: 'unit column' }
       : { kind: 'table', description: 'per-cell table of one band of grid rows: shift hours above the limit and hours lost', units: 'h' };
   }
-  if (path.includes('/calculator/cells/')) return { kind: path.endsWith('.bin') ? 'histogram' : 'json', description: 'calculator histograms of hourly WBGT per grid cell (whole hours per year, month, local hour and exposure; format in pipeline/publish/point-tile-codec.ts, chunks in calculator/cells/index.json)', units: 'h' };
-  if (path.endsWith('.bin')) return { kind: 'histogram', description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)', units: 'h' };
+  if (path.includes('/calculator/cells/'))
+    return {
+      kind: path.endsWith('.bin') ? 'histogram' : 'json',
+      description:
+        'calculator histograms of hourly WBGT per grid cell (whole hours per year, month, local hour and exposure; format in pipeline/publish/point-tile-codec.ts, chunks in calculator/cells/index.json)',
+      units: 'h',
+    };
+  if (path.endsWith('.bin'))
+    return {
+      kind: 'histogram',
+      description: 'calculator histograms of hourly WBGT per year, month, local hour and exposure (format in calculator/index.json)',
+      units: 'h',
+    };
   if (path.endsWith('.geojson')) return { kind: 'geojson', description: 'region outlines' };
   if (path.endsWith('changes.json')) return { kind: 'json', description: 'what changed since the previous build: years, inputs, the figures that moved most' };
-  if (path.startsWith('data/cells/')) return { kind: 'json', description: 'per-cell figures for the map, in tiles (the numbers of the cell tables, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)', units: 'per figure in data/cells/index.json' };
+  if (path.startsWith('data/cells/'))
+    return {
+      kind: 'json',
+      description:
+        'per-cell figures for the map, in tiles (the numbers of the cell tables, plus mean WBGT, capacity loss and the niche; layout in data/cells/index.json)',
+      units: 'per figure in data/cells/index.json',
+    };
   return { kind: 'json', description: path.endsWith('inventory.json') ? 'dataset inventory' : 'data for the site' };
 }
 

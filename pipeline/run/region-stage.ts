@@ -13,7 +13,16 @@ import { CELL_YEAR_HIST } from '../reduce/merge.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { addFigureSums, regionYearValues, weightedMeans, type RegionFigureSums } from '../regions/region-sums.ts';
 import { ddAddAll, ddAddPair } from '../regions/double-double.ts';
-import { readFigureSums, readHistogramInto, readMeans, RECORD_FIGURES, RECORD_HISTOGRAM, RECORD_MEANS, RECORD_WORKFORCE, type RegionRecordRef } from '../formats/region-parts.ts';
+import {
+  readFigureSums,
+  readHistogramInto,
+  readMeans,
+  RECORD_FIGURES,
+  RECORD_HISTOGRAM,
+  RECORD_MEANS,
+  RECORD_WORKFORCE,
+  type RegionRecordRef,
+} from '../formats/region-parts.ts';
 import { regionWorkforceYears } from '../regions/person-hours.ts';
 import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE } from '../regions/workforce-shares.ts';
 import type { Normals } from '../climate/index.ts';
@@ -35,15 +44,31 @@ export interface RegionOutcome {
   seconds: number;
 }
 
-export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles: readonly MergeTileSummary[], dataDir: string, generated: string, log: Logger, quiet?: boolean): Promise<RegionOutcome> {
+export async function regionStage(
+  plan: BuildPlan,
+  variant: BuildVariant,
+  tiles: readonly MergeTileSummary[],
+  dataDir: string,
+  generated: string,
+  log: Logger,
+  quiet?: boolean,
+): Promise<RegionOutcome> {
   const t0 = Date.now();
   const cfg = plan.rc.config;
   // What the region workbooks' assumptions sheet says of the build (and of the scenario).
   const sc = variant.scenario;
   const sheetInfo = {
     ...regionSheetInfo({
-      ...cfg, ...cfg.dataset, buildTime: generated, codeVersion: CODE_VERSION, configDigest: plan.configDigest, inputFiles: plan.ds.files.length,
-      work: plan.work, figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])], statistics: STATISTIC_RULES, cautions: CAUTIONS,
+      ...cfg,
+      ...cfg.dataset,
+      buildTime: generated,
+      codeVersion: CODE_VERSION,
+      configDigest: plan.configDigest,
+      inputFiles: plan.ds.files.length,
+      work: plan.work,
+      figures: [...plan.defs, ...(plan.workforce?.regionDefs ?? [])],
+      statistics: STATISTIC_RULES,
+      cautions: CAUTIONS,
     }),
     ...(sc ? { scenario: { name: sc.name, ...describeScenario(sc, variant.check) } } : {}),
   };
@@ -82,8 +107,16 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
     const figures: RegionFigureNormals[] = plan.defs.map((def, i) => {
       const nItems = PERIODS * def.combos.length;
       const values = sums ? regionYearValues(sums[i]) : new Float64Array(nY * nItems).fill(NaN);
-      const normals = computeNormals({ years: plan.years, values, nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
-      return { def, region: normals, worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN), trend: computeTrends({ years: plan.years, values, nItems }, annualItems(def.combos.length)) };
+      const normals = computeNormals(
+        { years: plan.years, values, nItems },
+        { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS },
+      );
+      return {
+        def,
+        region: normals,
+        worstValue: sums ? sums[i].worstValue : new Float64Array(nItems).fill(NaN),
+        trend: computeTrends({ years: plan.years, values, nItems }, annualItems(def.combos.length)),
+      };
     });
     // Person-hours, full-time equivalents and the share of outdoor work time lost: the region's
     // people-weighted hours per worker, times its people and shares (pipeline/regions/person-hours.ts).
@@ -103,8 +136,16 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
       const years = regionWorkforceYears(hours, people, profile, wf.annualHours);
       const wfFigures = wf.regionDefs.map((def, i): RegionFigureNormals => {
         const nItems = PERIODS * def.combos.length;
-        const normals = computeNormals({ years: plan.years, values: years[i], nItems }, { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS });
-        return { def, region: normals, worstValue: new Float64Array(nItems).fill(NaN), trend: computeTrends({ years: plan.years, values: years[i], nItems }, annualItems(def.combos.length)) };
+        const normals = computeNormals(
+          { years: plan.years, values: years[i], nItems },
+          { baseline: cfg.baseline, latestYear: plan.latestYear, rule: MONTHLY_COMPLETENESS },
+        );
+        return {
+          def,
+          region: normals,
+          worstValue: new Float64Array(nItems).fill(NaN),
+          trend: computeTrends({ years: plan.years, values: years[i], nItems }, annualItems(def.combos.length)),
+        };
       });
       figures.push(...wfFigures);
       const annual = (i: number) => annualAll(wfFigures[i].region, wf.regionDefs[i].combos.length);
@@ -121,13 +162,27 @@ export async function regionStage(plan: BuildPlan, variant: BuildVariant, tiles:
       workforceRows = [
         ['People (workforce raster)', `${wf.config.name}, ${wf.config.year}${wf.config.invented ? ' (INVENTED)' : ''}; licence: ${wf.config.licence}`],
         ['People in the region', `${Math.round(people)} on its land cells (the raster's people of each cell × the share of the cell inside the region)`],
-        ['Outdoor-work shares', `${profile.classes.filter((c) => c.share > 0).map((c) => `${c.workloadClass} ${c.share} (acclimatized ${c.acclimatized}, in the sun ${c.sun})`).join('; ') || 'none'} — from the ${profile.source === '*' ? 'default rows' : "region's own rows"}`],
+        [
+          'Outdoor-work shares',
+          `${
+            profile.classes
+              .filter((c) => c.share > 0)
+              .map((c) => `${c.workloadClass} ${c.share} (acclimatized ${c.acclimatized}, in the sun ${c.sun})`)
+              .join('; ') || 'none'
+          } — from the ${profile.source === '*' ? 'default rows' : "region's own rows"}`,
+        ],
         ['Full-time equivalent', `${wf.annualHours} h: a year of the shift pattern (hours per shift × days per week × 52)`],
       ];
     }
     const table = regionTableCsv(region.id, figures, cfg.baseline, plan.latestYear, [plan.years[0], plan.years[nY - 1]]);
     writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
-    await writeRegionSpreadsheets(dataDir, region, table, workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo, cfg.regionWorkbooks);
+    await writeRegionSpreadsheets(
+      dataDir,
+      region,
+      table,
+      workforceRows.length > 0 ? { ...sheetInfo, workforce: workforceRows } : sheetInfo,
+      cfg.regionWorkbooks,
+    );
     // Mean annual temperature against the niche.
     const [mat, latest] = weightedMeans(means, 2);
     writeFileSync(

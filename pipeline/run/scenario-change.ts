@@ -50,14 +50,25 @@ function centres(cells: Int32Array, grid: { lat: Float64Array; lon: Float64Array
   return { lat: Float64Array.from(cells, (c) => grid.lat[Math.floor(c / nLon)]), lon: Float64Array.from(cells, (c) => grid.lon[c % nLon]) };
 }
 
-async function interpolate(cf: ChangeFile, v: ChangeVariable, w: ReturnType<typeof bilinearWeights>, at: { lat: Float64Array; lon: Float64Array }): Promise<Float64Array> {
+async function interpolate(
+  cf: ChangeFile,
+  v: ChangeVariable,
+  w: ReturnType<typeof bilinearWeights>,
+  at: { lat: Float64Array; lon: Float64Array },
+): Promise<Float64Array> {
   const [r0, r1] = rowsNeeded(w);
   const rows = await cf.readRows(v, r0, r1);
   const out = new Float64Array(12 * w.n);
   const miss = interpolateMonths(w, rows, r0, r1 - r0, cf.lon.values.length, out);
   if (miss !== null) {
     throw ChangeValueMissing(
-      { file: cf.name, variable: v.name, lat: Math.round(at.lat[miss.point] * 1e4) / 1e4, lon: Math.round(at.lon[miss.point] * 1e4) / 1e4, month: miss.month + 1 },
+      {
+        file: cf.name,
+        variable: v.name,
+        lat: Math.round(at.lat[miss.point] * 1e4) / 1e4,
+        lon: Math.round(at.lon[miss.point] * 1e4) / 1e4,
+        month: miss.month + 1,
+      },
       { file: cf.path, variable: v.name },
     );
   }

@@ -47,7 +47,11 @@ function sourceFiles(path: string): string[] {
 /** SHA-256 of the shard-computing sources [hex, 16 digits]; same sources, same digest. */
 export const COMPUTE_CODE_DIGEST: string = (() => {
   const h = createHash('sha256');
-  for (const f of COMPUTE_SOURCES.flatMap(sourceFiles)) h.update(f).update('\0').update(readFileSync(join(PIPELINE, f))).update('\0');
+  for (const f of COMPUTE_SOURCES.flatMap(sourceFiles))
+    h.update(f)
+      .update('\0')
+      .update(readFileSync(join(PIPELINE, f)))
+      .update('\0');
   return h.digest('hex').slice(0, 16);
 })();
 
@@ -124,12 +128,24 @@ export function inputsForHours(files: readonly DatasetFileInfo[], time: { start:
 }
 
 /** The provenance of `shard` (of `scenario`, or of the record) and its cache key [hex]. */
-export function shardProvenance(shard: ShardSpec, files: readonly DatasetFileInfo[], time: { start: number }, s: ComputeSettings, scenario?: ScenarioSpec): { provenance: ShardProvenance; key: string } {
+export function shardProvenance(
+  shard: ShardSpec,
+  files: readonly DatasetFileInfo[],
+  time: { start: number },
+  s: ComputeSettings,
+  scenario?: ScenarioSpec,
+): { provenance: ShardProvenance; key: string } {
   const provenance: ShardProvenance = {
     code: { version: CODE_VERSION, sources: COMPUTE_CODE_DIGEST, partialFormat: PARTIAL_FORMAT },
     inputs: inputsForHours(files, time, shard.hours),
     settings: settingsPart(s),
-    shard: { year: shard.year, utcYear: shard.utcYear, hours: hoursIso(time, shard.hours), tile: shard.tile, cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16) },
+    shard: {
+      year: shard.year,
+      utcYear: shard.utcYear,
+      hours: hoursIso(time, shard.hours),
+      tile: shard.tile,
+      cells: sha(new Uint8Array(shard.cells.buffer, shard.cells.byteOffset, shard.cells.byteLength)).slice(0, 16),
+    },
     scenario: scenarioPart(scenario),
   };
   return { provenance, key: sha(JSON.stringify(provenance)) };
@@ -161,15 +177,24 @@ export function explainChange(old: ShardProvenance, now: ShardProvenance): strin
     why.push(`physics settings changed (globe diameter ${os?.physics?.globeDiameter ?? 'unset'} → ${ns.physics.globeDiameter} m)`);
   }
   if (JSON.stringify(os?.evaluations) !== JSON.stringify(ns.evaluations)) why.push(describeEvaluationChange(os?.evaluations ?? [], ns.evaluations));
-  if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours)) why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
-  if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile)) why.push('the tile holds other cells (grid, mask or tiling changed)');
-  if (JSON.stringify(old.scenario ?? null) !== JSON.stringify(now.scenario ?? null)) why.push(describeScenarioChange(old.scenario ?? null, now.scenario ?? null));
+  if (JSON.stringify(old.shard?.hours) !== JSON.stringify(now.shard.hours))
+    why.push(`its hours are now ${now.shard.hours.join(' to ')} (were ${old.shard?.hours?.join(' to ')})`);
+  if (old.shard?.cells !== now.shard.cells || JSON.stringify(old.shard?.tile) !== JSON.stringify(now.shard.tile))
+    why.push('the tile holds other cells (grid, mask or tiling changed)');
+  if (JSON.stringify(old.scenario ?? null) !== JSON.stringify(now.scenario ?? null))
+    why.push(describeScenarioChange(old.scenario ?? null, now.scenario ?? null));
   return why;
 }
 
 function describeScenarioChange(a: ScenarioPart | null, b: ScenarioPart | null): string {
-  const words = (p: ScenarioPart | null) => (p === null ? 'the record' : 'warming' in p ? `a uniform warming of ${p.warming} K` : `the change file ${p.changeFile} (${p.humidity} humidity, SHA-256 ${p.sha256.slice(0, 12)}…)`);
-  if (a !== null && b !== null && 'changeFile' in a && 'changeFile' in b && a.changeFile === b.changeFile && a.humidity === b.humidity) return `the scenario's change file ${b.changeFile} changed`;
+  const words = (p: ScenarioPart | null) =>
+    p === null
+      ? 'the record'
+      : 'warming' in p
+        ? `a uniform warming of ${p.warming} K`
+        : `the change file ${p.changeFile} (${p.humidity} humidity, SHA-256 ${p.sha256.slice(0, 12)}…)`;
+  if (a !== null && b !== null && 'changeFile' in a && 'changeFile' in b && a.changeFile === b.changeFile && a.humidity === b.humidity)
+    return `the scenario's change file ${b.changeFile} changed`;
   return `the scenario changed: ${words(a)} → ${words(b)}`;
 }
 

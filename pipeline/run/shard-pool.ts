@@ -44,7 +44,10 @@ export interface ShardReport {
 }
 
 /** What a worker answers per task: the shards' reports of a compute task, a merge band's summary. */
-export type PoolResult = { kind: 'compute'; shards: ShardReport[] } | { kind: 'merge'; summary: MergeTileSummary } | { kind: 'summary'; key: string; part: SummaryPart };
+export type PoolResult =
+  | { kind: 'compute'; shards: ShardReport[] }
+  | { kind: 'merge'; summary: MergeTileSummary }
+  | { kind: 'summary'; key: string; part: SummaryPart };
 
 export interface PoolHandlers {
   /** A shard of a compute task is computed and its partial written (reported as the task ends). */
@@ -87,7 +90,13 @@ function describe(t: PoolTask): string {
  * handler's exception, a worker's error or `signal` stops the run (no new tasks; a pool started
  * here is terminated, a kept one takes no further run) and is thrown.
  */
-export async function runTasks(tasks: readonly PoolTask[], workers: WorkerInit | ShardPool, jobs: number, handlers: PoolHandlers, signal?: AbortSignal): Promise<void> {
+export async function runTasks(
+  tasks: readonly PoolTask[],
+  workers: WorkerInit | ShardPool,
+  jobs: number,
+  handlers: PoolHandlers,
+  signal?: AbortSignal,
+): Promise<void> {
   if (tasks.length === 0) return;
   const opts: RunOptions<PoolTask, PoolResult> = {
     // Up to two tasks in flight per worker while the queue is long: the worker starts its next

@@ -18,9 +18,7 @@ export interface KeyedShard {
 }
 
 /** The decision for one shard. */
-export type ShardSource =
-  | { kind: 'file'; path: string; meta: PartialMeta; why: string }
-  | { kind: 'compute'; why: string; storePath?: string };
+export type ShardSource = { kind: 'file'; path: string; meta: PartialMeta; why: string } | { kind: 'compute'; why: string; storePath?: string };
 
 /**
  * Looks every shard up in the cache folder `dir` (undefined: no cache, compute all). A damaged
@@ -50,13 +48,18 @@ export function sourcesFromPartials(keyed: readonly KeyedShard[], dir: string): 
   for (const [id, files] of byId) {
     if (files.length > 1) throw PartialsDuplicated({ shardId: id, files: files.map((f) => f.name) }, { file: dir });
     if (!planned.has(id)) {
-      throw PartialsInconsistent({ detail: `${files[0].name} holds shard ${id}, which this build's plan does not have (another grid, mask, years or shards.cellsPerTile?)` }, { file: dir });
+      throw PartialsInconsistent(
+        { detail: `${files[0].name} holds shard ${id}, which this build's plan does not have (another grid, mask, years or shards.cellsPerTile?)` },
+        { file: dir },
+      );
     }
   }
   const missing = keyed.filter((k) => !byId.has(k.shard.id)).map((k) => k.shard.id);
   if (missing.length > 0) {
     throw PartialsIncomplete(
-      { detail: `${missing.length} of ${keyed.length} shard(s) have no partial under ${dir}: ${missing.slice(0, 12).join(', ')}${missing.length > 12 ? ', …' : ''}` },
+      {
+        detail: `${missing.length} of ${keyed.length} shard(s) have no partial under ${dir}: ${missing.slice(0, 12).join(', ')}${missing.length > 12 ? ', …' : ''}`,
+      },
       { file: dir },
     );
   }

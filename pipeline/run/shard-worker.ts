@@ -27,22 +27,42 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
       ds ??= await openDataset(init!.files, { ...init!.datasetOptions });
       if (t.kind === 'summary') return { kind: 'summary', key: t.key, part: await ds.summariseChunk(t.hours[0], t.hours[1]) };
       const shards: ShardReport[] = [];
-      await computeTask(ds, t.task, init!.context, (shard, r) => {
-        const store = t.stores[shard.id];
-        const te = performance.now();
-        const physics = { ...r.physics } as unknown as Record<string, number>;
-        const change = { ...r.change } as unknown as Record<string, number>;
-        const storedBytes = writePartialFile(store.path, r.partial, { ...store.meta, report: { cellHours: r.cellHours, physics, ...(shard.scenario !== undefined ? { change } : {}) } });
-        shards.push({ shardId: shard.id, physics: r.physics, change: r.change, cellHours: r.cellHours, timing: r.timing, storedBytes, storeMs: performance.now() - te });
-        progress(1);
-        // The partial is encoded and written: nothing of it is kept, so its arrays may be reused.
-      }, true);
+      await computeTask(
+        ds,
+        t.task,
+        init!.context,
+        (shard, r) => {
+          const store = t.stores[shard.id];
+          const te = performance.now();
+          const physics = { ...r.physics } as unknown as Record<string, number>;
+          const change = { ...r.change } as unknown as Record<string, number>;
+          const storedBytes = writePartialFile(store.path, r.partial, {
+            ...store.meta,
+            report: { cellHours: r.cellHours, physics, ...(shard.scenario !== undefined ? { change } : {}) },
+          });
+          shards.push({
+            shardId: shard.id,
+            physics: r.physics,
+            change: r.change,
+            cellHours: r.cellHours,
+            timing: r.timing,
+            storedBytes,
+            storeMs: performance.now() - te,
+          });
+          progress(1);
+          // The partial is encoded and written: nothing of it is kept, so its arrays may be reused.
+        },
+        true,
+      );
       return { kind: 'compute', shards };
     } catch (e) {
       const code = (e as NodeJS.ErrnoException)?.code;
       if (code !== 'ENOSPC' && code !== 'EDQUOT') throw e;
       const path = (e as NodeJS.ErrnoException).path;
-      throw DiskFull({ path: path ?? '(a file of the build)', what: t.kind === 'compute' ? 'writing partials' : 'writing a band of the atlas' }, { file: path });
+      throw DiskFull(
+        { path: path ?? '(a file of the build)', what: t.kind === 'compute' ? 'writing partials' : 'writing a band of the atlas' },
+        { file: path },
+      );
     }
   },
 });

@@ -95,16 +95,22 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
       const cwd = process.cwd();
       process.chdir(PROJECT_ROOT);
       try {
-        await withProcessLock(join(PROJECT_ROOT, '.astro-build.lock'), () =>
-          build({
-            root: PROJECT_ROOT,
-            outDir: tmp,
-            cacheDir,
-            mode: 'production',
-            base: opts.base ?? '/',
-            logLevel: opts.quiet ? 'error' : 'info',
-          }),
-          { onWait: (pid) => { if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`); } },
+        await withProcessLock(
+          join(PROJECT_ROOT, '.astro-build.lock'),
+          () =>
+            build({
+              root: PROJECT_ROOT,
+              outDir: tmp,
+              cacheDir,
+              mode: 'production',
+              base: opts.base ?? '/',
+              logLevel: opts.quiet ? 'error' : 'info',
+            }),
+          {
+            onWait: (pid) => {
+              if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`);
+            },
+          },
         );
       } finally {
         process.chdir(cwd);

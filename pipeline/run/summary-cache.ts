@@ -28,7 +28,10 @@ export function fileSummaryCache(dir: string): SummaryChunkCache {
       }
     },
     set(key, value) {
-      writeFileAtomicSync(join(dir, `${key}.json`), JSON.stringify(value, (_k, v) => (v === Infinity || v === -Infinity ? null : v)));
+      writeFileAtomicSync(
+        join(dir, `${key}.json`),
+        JSON.stringify(value, (_k, v) => (v === Infinity || v === -Infinity ? null : v)),
+      );
     },
   };
 }

@@ -50,7 +50,7 @@ export async function aggregateRasterFile(path: string, grid: HorizontalGrid, ce
       const rows = Math.max(block, Math.floor(STRIP_PIXELS / width / block) * block);
       // Strips end on block boundaries, so no block is decoded twice.
       for (let r0 = win.row0; r0 < win.row1; ) {
-        const r1 = Math.min(win.row1, (Math.floor(r0 / block) * block) + rows);
+        const r1 = Math.min(win.row1, Math.floor(r0 / block) * block + rows);
         const values = await raster.read(win.col0, r0, win.col1, r1);
         agg.addRows(win, r0, r1 - r0, values);
         strips++;

@@ -161,7 +161,12 @@ async function readShareRecords(path: string): Promise<Array<[number, string[]]>
 }
 
 /** Every region's part inside the grid must lie (to {@link REQUIRED_RASTER_COVERAGE}) inside the raster's extent. */
-function checkCoverage(path: string, r: Pick<AggregateOutcome['raster'], 'west' | 'dLon' | 'width' | 'top' | 'dLatRow' | 'height'>, grid: HorizontalGrid, regions: readonly Region[]): void {
+function checkCoverage(
+  path: string,
+  r: Pick<AggregateOutcome['raster'], 'west' | 'dLon' | 'width' | 'top' | 'dLatRow' | 'height'>,
+  grid: HorizontalGrid,
+  regions: readonly Region[],
+): void {
   const g = describeGridCells(grid);
   const gridRect: LonLatRectangle = { west: g.lonEdges[0], east: g.lonEdges[g.nLon], south: g.latEdges[0], north: g.latEdges[g.nLat] };
   const y2 = r.top + r.dLatRow * r.height;

@@ -78,7 +78,9 @@ export function describeExtent(src: SourceGrid): string {
   const f = (x: number) => String(Math.round(x * 1e4) / 1e4);
   const { lat, lon } = src;
   const la = [lat[0] - (lat[1] - lat[0]) / 2, lat[lat.length - 1] + (lat[lat.length - 1] - lat[lat.length - 2]) / 2];
-  const lo = isGlobalLongitude(lon) ? 'every longitude' : `${f(lon[0] - (lon[1] - lon[0]) / 2)}° to ${f(lon[lon.length - 1] + (lon[lon.length - 1] - lon[lon.length - 2]) / 2)}° E`;
+  const lo = isGlobalLongitude(lon)
+    ? 'every longitude'
+    : `${f(lon[0] - (lon[1] - lon[0]) / 2)}° to ${f(lon[lon.length - 1] + (lon[lon.length - 1] - lon[lon.length - 2]) / 2)}° E`;
   return `${f(la[0])}° to ${f(la[1])}° N, ${lo}`;
 }
 
@@ -93,7 +95,15 @@ export function bilinearWeights(src: SourceGrid, lat: ArrayLike<number>, lon: Ar
     throw ChangeGridInvalid({ file, detail: `its grid has ${src.lat.length} latitude(s) × ${src.lon.length} longitude(s)` }, { file });
   }
   const n = lat.length;
-  const w: BilinearWeights = { n, y0: new Int32Array(n), y1: new Int32Array(n), x0: new Int32Array(n), x1: new Int32Array(n), wy: new Float64Array(n), wx: new Float64Array(n) };
+  const w: BilinearWeights = {
+    n,
+    y0: new Int32Array(n),
+    y1: new Int32Array(n),
+    x0: new Int32Array(n),
+    x1: new Int32Array(n),
+    wy: new Float64Array(n),
+    wx: new Float64Array(n),
+  };
   const sl = src.lon;
   const nl = sl.length;
   const global = isGlobalLongitude(sl);
@@ -105,7 +115,7 @@ export function bilinearWeights(src: SourceGrid, lat: ArrayLike<number>, lon: Ar
     if (by === null) throw notCovered(k);
     [w.y0[k], w.y1[k], w.wy[k]] = by;
     if (global) {
-      const q = sl[0] + (((lon[k] - sl[0]) % 360) + 360) % 360;
+      const q = sl[0] + ((((lon[k] - sl[0]) % 360) + 360) % 360);
       if (q <= sl[nl - 1] + EPS) {
         const bx = bracket(sl, Math.min(q, sl[nl - 1]))!;
         [w.x0[k], w.x1[k], w.wx[k]] = bx;
@@ -140,7 +150,14 @@ export function rowsNeeded(w: BilinearWeights): [number, number] {
  * @param out per month × point: `out[m · n + k]`; NaN where none of the four points has a value
  * @returns the first (point, month) without a value, or null
  */
-export function interpolateMonths(w: BilinearWeights, values: Float64Array, r0: number, nRows: number, nLon: number, out: Float64Array): { point: number; month: number } | null {
+export function interpolateMonths(
+  w: BilinearWeights,
+  values: Float64Array,
+  r0: number,
+  nRows: number,
+  nLon: number,
+  out: Float64Array,
+): { point: number; month: number } | null {
   let missing: { point: number; month: number } | null = null;
   for (let m = 0; m < 12; m++) {
     const base = m * nRows;

@@ -38,13 +38,26 @@ export const scenarioSchema = z
   .strict()
   .superRefine((s, ctx) => {
     if ((s.warming === undefined) === (s.changeFile === undefined)) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['warming'], message: 'give either `warming` (K) or `changeFile` (a NetCDF of monthly changes), one of the two' });
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['warming'],
+        message: 'give either `warming` (K) or `changeFile` (a NetCDF of monthly changes), one of the two',
+      });
     }
     if (s.changeFile !== undefined && s.humidity === undefined) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['humidity'], message: 'say what the change file\'s humidity change is: `relative` (relative humidity, kept where the file has none) or `specific` (specific humidity, kept where the file has none)' });
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['humidity'],
+        message:
+          "say what the change file's humidity change is: `relative` (relative humidity, kept where the file has none) or `specific` (specific humidity, kept where the file has none)",
+      });
     }
     if (s.warming !== undefined && s.humidity !== undefined) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['humidity'], message: '`humidity` goes with `changeFile`; a uniform warming keeps relative humidity' });
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['humidity'],
+        message: '`humidity` goes with `changeFile`; a uniform warming keeps relative humidity',
+      });
     }
   });
 
@@ -70,10 +83,18 @@ export function checkScenarioIds(list: readonly Pick<ScenarioConfig, 'id'>[], fi
   list.forEach((s, i) => {
     const where = { file, key: `scenarios[${i}].id` };
     if (!SCENARIO_ID_PATTERN.test(s.id)) {
-      const why = s.id === '' ? 'is empty' : /[A-Z]/.test(s.id) ? 'has upper-case letters' : /^-/.test(s.id) ? 'starts with a dash' : `has characters other than a-z, 0-9 and - (${JSON.stringify(s.id.replace(/[a-z0-9-]/g, ''))})`;
+      const why =
+        s.id === ''
+          ? 'is empty'
+          : /[A-Z]/.test(s.id)
+            ? 'has upper-case letters'
+            : /^-/.test(s.id)
+              ? 'starts with a dash'
+              : `has characters other than a-z, 0-9 and - (${JSON.stringify(s.id.replace(/[a-z0-9-]/g, ''))})`;
       throw ScenarioIdInvalid({ id: s.id, why }, where);
     }
-    if ((RESERVED_SCENARIO_IDS as readonly string[]).includes(s.id)) throw ScenarioIdInvalid({ id: s.id, why: 'is reserved: the record itself is the baseline' }, where);
+    if ((RESERVED_SCENARIO_IDS as readonly string[]).includes(s.id))
+      throw ScenarioIdInvalid({ id: s.id, why: 'is reserved: the record itself is the baseline' }, where);
     if (seen.has(s.id)) throw ScenarioIdDuplicate({ id: s.id }, where);
     seen.add(s.id);
   });

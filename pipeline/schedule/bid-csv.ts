@@ -30,16 +30,21 @@ export function bidCsv(j: BidJson): string {
   if (j.invented) out += commentLine('INVENTED DATA: this atlas is built from invented, synthetic data; no real place or climate is described.');
   out += commentLine('Screening estimate from histograms of modelled hourly WBGT: not safety advice, not a site measurement, not a forecast.');
   for (const [k, v] of Object.entries(j.settings)) out += commentLine(`${k}: ${v}`);
-  out += commentLine(`Atlas build ${j.atlas.buildTime}, code ${j.atlas.codeVersion}, configuration ${j.atlas.configDigest.slice(0, 12)}, ${j.atlas.inputFiles} input files.`);
+  out += commentLine(
+    `Atlas build ${j.atlas.buildTime}, code ${j.atlas.codeVersion}, configuration ${j.atlas.configDigest.slice(0, 12)}, ${j.atlas.inputFiles} input files.`,
+  );
   out += commentLine(`How: ${j.approximation}`);
-  out += commentLine(`Statistics across ${j.weatherYears.length} weather years (${j.weatherYears.join(', ')}): mean, median and 90th-percentile year (Hyndman-Fan type 7); cost of heat = crew-hours lost x rate + calendar days added x daily cost.`);
+  out += commentLine(
+    `Statistics across ${j.weatherYears.length} weather years (${j.weatherYears.join(', ')}): mean, median and 90th-percentile year (Hyndman-Fan type 7); cost of heat = crew-hours lost x rate + calendar days added x daily cost.`,
+  );
   for (const c of j.cautions) out += commentLine(`Caution: ${c}`);
   for (const sc of j.scenarios) out += commentLine(`Scenario ${sc.id}: ${sc.name} (${sc.kind}). ${sc.what} Source: ${sc.source}`);
   if (j.scenarios.length > 0) out += commentLine(`Scenarios: ${j.scenarioCaveat}`);
   out += csvLine([...BID_CSV_COLUMNS]);
   const cur = j.costs.currency;
   const schedule = (section: string, kase: string, s: Parameters<typeof scheduleValue>[0]) => {
-    for (const row of SCHEDULE_ROWS) for (const st of STATISTICS) out += csvLine([section, kase, row.key, st.key, scheduleValue(s, row, st.key), rowUnit(row, cur)]);
+    for (const row of SCHEDULE_ROWS)
+      for (const st of STATISTICS) out += csvLine([section, kase, row.key, st.key, scheduleValue(s, row, st.key), rowUnit(row, cur)]);
   };
   const hf = (kase: string, h: BidJson['heatFree']) => {
     out += csvLine(['heat-free', kase, 'finishDate', 'value', h.finishDate, 'date']);
@@ -49,7 +54,8 @@ export function bidCsv(j: BidJson): string {
   schedule('schedule', j.job.start, j);
   hf(j.job.start, j.heatFree);
   for (const y of j.years) {
-    for (const row of SCHEDULE_ROWS) out += csvLine(['year', String(y.weatherYear), row.key, 'value', y[row.key === 'finishDate' ? 'finishDate' : row.key], rowUnit(row, cur)]);
+    for (const row of SCHEDULE_ROWS)
+      out += csvLine(['year', String(y.weatherYear), row.key, 'value', y[row.key === 'finishDate' ? 'finishDate' : row.key], rowUnit(row, cur)]);
   }
   for (const m of j.startMonths) schedule('start-month', m.start, m);
   for (const p of j.shiftPatterns) schedule('shift-pattern', `${p.shift.join(' and ')}, ${p.days}`, p);

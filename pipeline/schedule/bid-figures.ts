@@ -42,7 +42,11 @@ function scheduleFields(s: ScheduleSpread) {
   };
 }
 
-const heatFree = (s: ScheduleSpread) => ({ finishDate: formatDay(s.heatFree.finishDay), workingDays: s.heatFree.workingDays, calendarDays: s.heatFree.calendarDays });
+const heatFree = (s: ScheduleSpread) => ({
+  finishDate: formatDay(s.heatFree.finishDay),
+  workingDays: s.heatFree.workingDays,
+  calendarDays: s.heatFree.calendarDays,
+});
 
 /** The answers of one run: weather years, the schedule across them, each year, the start months, shift patterns, crew. */
 function answerFields(run: BidRun) {
@@ -65,11 +69,23 @@ function answerFields(run: BidRun) {
       cost: r2(y.cost),
     })),
     startMonths: a.startMonths.map((m, i) => ({ month: i + 1, start: formatDay(m.start), heatFree: heatFree(m), ...scheduleFields(m) })),
-    shiftPatterns: a.patterns.map((p) => ({ shift: p.pattern.spans.map(formatSpan), days: formatDays(p.pattern.days), hoursPerDay: r2(hoursPerDay(p.pattern)), heatFree: heatFree(p), ...scheduleFields(p) })),
+    shiftPatterns: a.patterns.map((p) => ({
+      shift: p.pattern.spans.map(formatSpan),
+      days: formatDays(p.pattern.days),
+      hoursPerDay: r2(hoursPerDay(p.pattern)),
+      heatFree: heatFree(p),
+      ...scheduleFields(p),
+    })),
     crewForDeadline:
       a.crewForDeadline === null
         ? null
-        : { deadline: formatDay(a.crewForDeadline.deadline), crew: a.crewForDeadline.crew, finishDate: dates(a.crewForDeadline.schedule.start, a.crewForDeadline.schedule.calendarDays), addedWorkingDays: stat(a.crewForDeadline.schedule.addedWorkingDays), cost: stat(a.crewForDeadline.schedule.cost) },
+        : {
+            deadline: formatDay(a.crewForDeadline.deadline),
+            crew: a.crewForDeadline.crew,
+            finishDate: dates(a.crewForDeadline.schedule.start, a.crewForDeadline.schedule.calendarDays),
+            addedWorkingDays: stat(a.crewForDeadline.schedule.addedWorkingDays),
+            cost: stat(a.crewForDeadline.schedule.cost),
+          },
   };
 }
 
@@ -92,12 +108,32 @@ export function bidFigures(run: BidRun, inputs: EstimateInputs, ctx: EstimateCon
   return {
     format: BID_JSON_FORMAT,
     invented: ctx.invented,
-    atlas: { title: ctx.build.title, buildTime: ctx.build.buildTime, codeVersion: ctx.build.codeVersion, configDigest: ctx.build.configDigest, inputFiles: ctx.build.inputs, timeZone: ctx.timeZone },
+    atlas: {
+      title: ctx.build.title,
+      buildTime: ctx.build.buildTime,
+      codeVersion: ctx.build.codeVersion,
+      configDigest: ctx.build.configDigest,
+      inputFiles: ctx.build.inputs,
+      timeZone: ctx.timeZone,
+    },
     place:
       place.kind === 'region'
         ? { kind: 'region' as const, id: place.id, name: place.name }
-        : { kind: 'cell' as const, cell: place.cell, lat: place.centre.lat, lon: place.centre.lon, requested: place.requested, distanceKm: r2(place.distanceKm), movedToLand: place.movedToLand },
-    settings: Object.fromEntries([...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, a.weatherYears, run.weather.skipped)].map((l) => [l.key, lineTextC(l)])),
+        : {
+            kind: 'cell' as const,
+            cell: place.cell,
+            lat: place.centre.lat,
+            lon: place.centre.lon,
+            requested: place.requested,
+            distanceKm: r2(place.distanceKm),
+            movedToLand: place.movedToLand,
+          },
+    settings: Object.fromEntries(
+      [...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, a.weatherYears, run.weather.skipped)].map((l) => [
+        l.key,
+        lineTextC(l),
+      ]),
+    ),
     job: {
       start: formatDay(inputs.job.start),
       workHours: inputs.job.workHours,

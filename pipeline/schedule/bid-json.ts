@@ -31,5 +31,3 @@ export function bidJson(run: BidRun, inputs: EstimateInputs, ctx: EstimateContex
 export type BidJson = ReturnType<typeof bidJson>;
 /** One scenario's entry of {@link BidJson}. */
 export type BidScenarioJson = BidJson['scenarios'][number];
-
-

@@ -12,7 +12,16 @@ import { SCHEDULE_ROWS, STATISTICS, rowUnit, scheduleValue } from './bid-table.t
 /** The sheets of an estimate's workbook. */
 export function bidSheets(j: BidJson): SheetSpec[] {
   const cur = j.costs.currency || 'currency units';
-  const hf: Record<string, CellValue> = { finishDate: j.heatFree.finishDate, workingDays: j.heatFree.workingDays, calendarDays: j.heatFree.calendarDays, addedWorkingDays: 0, addedCalendarDays: 0, crewHoursLost: 0, crewHoursAbove: 0, cost: 0 };
+  const hf: Record<string, CellValue> = {
+    finishDate: j.heatFree.finishDate,
+    workingDays: j.heatFree.workingDays,
+    calendarDays: j.heatFree.calendarDays,
+    addedWorkingDays: 0,
+    addedCalendarDays: 0,
+    crewHoursLost: 0,
+    crewHoursAbove: 0,
+    cost: 0,
+  };
   const stats = (s: Parameters<typeof scheduleValue>[0], r: (typeof SCHEDULE_ROWS)[number]) => STATISTICS.map((st) => scheduleValue(s, r, st.key));
   return [
     {
@@ -33,7 +42,13 @@ export function bidSheets(j: BidJson): SheetSpec[] {
     },
     {
       name: 'Shift patterns',
-      header: ['Shift', 'Days', 'Paid hours a day', 'Finish without heat', ...SCHEDULE_ROWS.flatMap((r) => STATISTICS.map((s) => `${r.label}, ${s.label} [${rowUnit(r, cur)}]`))],
+      header: [
+        'Shift',
+        'Days',
+        'Paid hours a day',
+        'Finish without heat',
+        ...SCHEDULE_ROWS.flatMap((r) => STATISTICS.map((s) => `${r.label}, ${s.label} [${rowUnit(r, cur)}]`)),
+      ],
       rows: j.shiftPatterns.map((p) => [p.shift.join(' and '), p.days, p.hoursPerDay, p.heatFree.finishDate, ...SCHEDULE_ROWS.flatMap((r) => stats(p, r))]),
     },
     {
@@ -44,8 +59,14 @@ export function bidSheets(j: BidJson): SheetSpec[] {
         ['Atlas', j.atlas.title],
         ['Built', `${j.atlas.buildTime}, code ${j.atlas.codeVersion}, configuration ${j.atlas.configDigest}, ${j.atlas.inputFiles} input files`],
         ...Object.entries(j.settings).map(([k, v]): CellValue[] => [k, v]),
-        ['Crew for the deadline', j.crewForDeadline ? `${j.crewForDeadline.crew} workers finish by ${j.crewForDeadline.deadline} in the 90th-percentile year` : 'no deadline given'],
-        ['Statistics', `mean, median and 90th-percentile year (Hyndman-Fan type 7) across ${j.weatherYears.length} weather years: ${j.weatherYears.join(', ')}`],
+        [
+          'Crew for the deadline',
+          j.crewForDeadline ? `${j.crewForDeadline.crew} workers finish by ${j.crewForDeadline.deadline} in the 90th-percentile year` : 'no deadline given',
+        ],
+        [
+          'Statistics',
+          `mean, median and 90th-percentile year (Hyndman-Fan type 7) across ${j.weatherYears.length} weather years: ${j.weatherYears.join(', ')}`,
+        ],
         ['Cost of heat', `crew-hours lost × ${j.costs.ratePerCrewHour} ${cur} + calendar days added × ${j.costs.dailyCost} ${cur}`],
         ['How the figures are made', j.approximation],
         ['Not a forecast', 'the figures replay the weather of past years; they say what those years would have done to this job'],
@@ -60,7 +81,15 @@ export function bidSheets(j: BidJson): SheetSpec[] {
             name: 'What-if climates',
             header: ['Figure', 'Unit', 'Statistic', 'Record (past weather)', ...j.scenarios.map((sc) => `${sc.name} (${sc.id})`)],
             rows: [
-              ...SCHEDULE_ROWS.flatMap((r) => STATISTICS.map((st): CellValue[] => [r.label, rowUnit(r, cur), st.label, scheduleValue(j, r, st.key), ...j.scenarios.map((sc) => scheduleValue(sc, r, st.key))])),
+              ...SCHEDULE_ROWS.flatMap((r) =>
+                STATISTICS.map((st): CellValue[] => [
+                  r.label,
+                  rowUnit(r, cur),
+                  st.label,
+                  scheduleValue(j, r, st.key),
+                  ...j.scenarios.map((sc) => scheduleValue(sc, r, st.key)),
+                ]),
+              ),
               ...j.scenarios.map((sc): CellValue[] => [`${sc.id}: ${sc.kind}`, '', '', `${sc.what} Source: ${sc.source}`]),
               ['Not a forecast', '', '', j.scenarioCaveat],
             ],

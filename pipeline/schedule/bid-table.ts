@@ -6,7 +6,15 @@ import type { BidJson } from './bid-json.ts';
 import { grouped } from './settings-text.ts';
 
 /** A figure of a schedule (keys of the JSON's schedule fields). */
-export type ScheduleKey = 'finishDate' | 'workingDays' | 'calendarDays' | 'addedWorkingDays' | 'addedCalendarDays' | 'crewHoursLost' | 'crewHoursAbove' | 'cost';
+export type ScheduleKey =
+  | 'finishDate'
+  | 'workingDays'
+  | 'calendarDays'
+  | 'addedWorkingDays'
+  | 'addedCalendarDays'
+  | 'crewHoursLost'
+  | 'crewHoursAbove'
+  | 'cost';
 
 export interface ScheduleRow {
   key: ScheduleKey;

@@ -119,7 +119,8 @@ export function scheduleSpread(job: Job, costs: Costs, weather: readonly Weather
  */
 export function crewForDeadline(job: Job, costs: Costs, weather: readonly WeatherYear[], deadline: number): CrewForDeadline {
   const label = formatDay(deadline);
-  if (deadline < job.start) throw ScheduleDeadlineUnreachable({ deadline: label, problem: `it is before the start ${formatDay(job.start)}` }, { key: 'deadline' });
+  if (deadline < job.start)
+    throw ScheduleDeadlineUnreachable({ deadline: label, problem: `it is before the start ${formatDay(job.start)}` }, { key: 'deadline' });
   const meets = (crew: number): { ok: boolean; s: ScheduleSpread | null } => {
     let s: ScheduleSpread;
     try {
@@ -134,7 +135,10 @@ export function crewForDeadline(job: Job, costs: Costs, weather: readonly Weathe
   const most = meets(MAX_CREW);
   if (!most.ok || most.s === null) {
     throw ScheduleDeadlineUnreachable(
-      { deadline: label, problem: `even ${MAX_CREW.toLocaleString('en-US')} workers finish at P90 on ${most.s ? formatDay(dayOfSpan(job.start, most.s.calendarDays.p90)) : 'no day within the replay horizon'} (the first working day on or after the start is the earliest possible finish)` },
+      {
+        deadline: label,
+        problem: `even ${MAX_CREW.toLocaleString('en-US')} workers finish at P90 on ${most.s ? formatDay(dayOfSpan(job.start, most.s.calendarDays.p90)) : 'no day within the replay horizon'} (the first working day on or after the start is the earliest possible finish)`,
+      },
       { key: 'deadline' },
     );
   }

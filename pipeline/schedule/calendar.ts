@@ -70,7 +70,8 @@ export function parseDay(text: string, name: string): number {
   const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(t);
   if (!m) throw ScheduleDateInvalid({ name, value: text, problem: 'not a date written YYYY-MM-DD' }, { key: name });
   const [year, month, day] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  if (year < MIN_YEAR || year > MAX_YEAR) throw ScheduleDateInvalid({ name, value: text, problem: `the year is outside ${MIN_YEAR}–${MAX_YEAR}` }, { key: name });
+  if (year < MIN_YEAR || year > MAX_YEAR)
+    throw ScheduleDateInvalid({ name, value: text, problem: `the year is outside ${MIN_YEAR}–${MAX_YEAR}` }, { key: name });
   if (month < 1 || month > 12 || day < 1 || day > daysInMonth(year, month)) {
     throw ScheduleDateInvalid({ name, value: text, problem: 'no such day in the calendar' }, { key: name });
   }

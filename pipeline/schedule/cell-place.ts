@@ -33,7 +33,12 @@ export function greatCircleKm(lat1: number, lon1: number, lat2: number, lon2: nu
  * The nearest land cell to a point and its distance [km]. Catalogued errors:
  * EstimatePointOutsideGrid (via rowColAt's caller), EstimateCellInvalid (no land cell at all).
  */
-export async function nearestLandCell(ctx: EstimateContext, lat: number, lon: number, load: AtlasLoader): Promise<{ cell: number; distanceKm: number; chunk: PointChunk }> {
+export async function nearestLandCell(
+  ctx: EstimateContext,
+  lat: number,
+  lon: number,
+  load: AtlasLoader,
+): Promise<{ cell: number; distanceKm: number; chunk: PointChunk }> {
   const cells = ctx.cells;
   if (!cells) throw EstimateCellInvalid({ value: `${lat},${lon}`, problem: 'this atlas publishes no per-cell data' }, { key: 'lat' });
   const g = cells.grid;
@@ -99,7 +104,11 @@ export async function nearestLandCell(ctx: EstimateContext, lat: number, lon: nu
  * A grid cell or a point resolved and its histograms (place.ts loadPlace for these kinds).
  * Catalogued errors of cell-tiles.ts, nearestLandCell, and whatever the loader throws.
  */
-export async function loadCellPlace(place: Exclude<EstimatePlace, { kind: 'region' }>, ctx: EstimateContext, load: AtlasLoader): Promise<{ place: ResolvedPlace; histograms: Float64Array[] }> {
+export async function loadCellPlace(
+  place: Exclude<EstimatePlace, { kind: 'region' }>,
+  ctx: EstimateContext,
+  load: AtlasLoader,
+): Promise<{ place: ResolvedPlace; histograms: Float64Array[] }> {
   const grid = ctx.cells!.grid;
   if (place.kind === 'cell') {
     const chunk = chunkForCell(ctx, place.cell);

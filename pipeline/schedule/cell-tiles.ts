@@ -24,6 +24,7 @@ export function cellTileHistograms(bytes: Uint8Array, path: string, cell: number
   const chunk = parsePointChunk(bytes, path);
   if (chunk.nYears !== ctx.years.length) throw EstimateYearsMismatch({ path, expected: ctx.years.length, got: chunk.nYears }, { file: path });
   const years = cellHistograms(chunk, cell);
-  if (years === null) throw EstimateCellInvalid({ value: String(cell), problem: 'not a land cell of this atlas (sea cells are not computed)' }, { key: 'cell' });
+  if (years === null)
+    throw EstimateCellInvalid({ value: String(cell), problem: 'not a land cell of this atlas (sea cells are not computed)' }, { key: 'cell' });
   return years;
 }

@@ -131,11 +131,25 @@ export function makeEstimateContext(p: EstimateContextParts): EstimateContext {
     classes: w.classes.map((c) => ({ id: c.id, name: c.name, metabolicRate: c.metabolicRate, description: c.description })),
     limitModel: w.limitModel,
     airMovement: w.airMovement,
-    defaults: { classId, acclimatization: w.acclimatization[0], exposure: w.exposures.find((x) => x !== 'shelter') ?? 'sun', restLocation: w.restLocation, clothing, shift: p.shift },
+    defaults: {
+      classId,
+      acclimatization: w.acclimatization[0],
+      exposure: w.exposures.find((x) => x !== 'shelter') ?? 'sun',
+      restLocation: w.restLocation,
+      clothing,
+      shift: p.shift,
+    },
     regions: p.calculator.regions.map((r) => ({ id: r.id, name: r.name, path: r.path })),
     cells: p.cells ? { grid: p.cells.grid, chunks: p.cells.chunks.map((c) => ({ path: c.path, firstCell: c.firstCell, lastCell: c.lastCell })) } : null,
     build: { title: m.atlas.title, buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, inputs: m.inputs.length },
-    scenarios: (m.scenarios ?? []).map((s) => ({ id: s.id, name: s.name, kind: s.words.kind, what: s.words.what, source: s.words.source, dataPath: s.dataPath })),
+    scenarios: (m.scenarios ?? []).map((s) => ({
+      id: s.id,
+      name: s.name,
+      kind: s.words.kind,
+      what: s.words.what,
+      source: s.words.source,
+      dataPath: s.dataPath,
+    })),
     scenarioCaveat: m.scenarios && m.scenarios.length > 0 ? (m.scenarioCaveat ?? '') : '',
   };
 }

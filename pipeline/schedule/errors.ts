@@ -42,7 +42,8 @@ export const ScheduleHolidayInvalid = defineError<{ line: number; value: string;
   code: 'ScheduleHolidayInvalid',
   title: 'A line of the holiday list is not a date',
   message: (p) => `line ${p.line}, "${p.value}": ${p.problem}`,
-  hint: () => 'list one non-working date per line as YYYY-MM-DD; text after the date (a name) is allowed after a comma or a space; lines starting with # are comments',
+  hint: () =>
+    'list one non-working date per line as YYYY-MM-DD; text after the date (a name) is allowed after a comma or a space; lines starting with # are comments',
 });
 
 export const ScheduleTooManyPatterns = defineError<{ count: number; max: number }>({
@@ -63,7 +64,8 @@ export const ScheduleNotFinished = defineError<{ maxYears: number; detail: strin
   code: 'ScheduleNotFinished',
   title: 'The job does not finish within the replay horizon',
   message: (p) => `the work is not done ${p.maxYears} years after the start (${p.detail})`,
-  hint: () => 'check the quantity of work (crew-hours), the crew size, the shift and the work days; heat may also take every hour of the chosen shift: try cooler hours or rest in the shade',
+  hint: () =>
+    'check the quantity of work (crew-hours), the crew size, the shift and the work days; heat may also take every hour of the chosen shift: try cooler hours or rest in the shade',
 });
 
 export const ScheduleDeadlineUnreachable = defineError<{ deadline: string; problem: string }>({
@@ -120,7 +122,8 @@ export const EstimatePeriodInvalid = defineError<{ problem: string }>({
   code: 'EstimatePeriodInvalid',
   title: 'The project period is not a valid span of months',
   message: (p) => p.problem,
-  hint: () => 'give the first and last month of the project as YYYY-MM (e.g. 2027-04 to 2028-03), last not before first, at most 20 years; or leave both empty for one year',
+  hint: () =>
+    'give the first and last month of the project as YYYY-MM (e.g. 2027-04 to 2028-03), last not before first, at most 20 years; or leave both empty for one year',
 });
 
 export const EstimateDataUnavailable = defineError<{ path: string; detail: string }>({

@@ -12,7 +12,16 @@ import type { Weekday } from '../work/shifts.ts';
 import type { Exposure } from '../work/work-settings.ts';
 import { daysFromCivil, formatDay, parseDay } from './calendar.ts';
 import type { EstimateContext, EstimateGrid } from './context.ts';
-import { EstimateCellInvalid, EstimateChoiceUnknown, EstimateMonthsEmpty, EstimateNumberInvalid, EstimatePointOutsideGrid, EstimateRegionUnknown, EstimateScenarioUnknown, ScheduleTooManyPatterns } from './errors.ts';
+import {
+  EstimateCellInvalid,
+  EstimateChoiceUnknown,
+  EstimateMonthsEmpty,
+  EstimateNumberInvalid,
+  EstimatePointOutsideGrid,
+  EstimateRegionUnknown,
+  EstimateScenarioUnknown,
+  ScheduleTooManyPatterns,
+} from './errors.ts';
 import { parseCrew, parseCurrency, parseDailyCost, parseHolidays, parseRate, parseWorkHours, type Costs } from './job.ts';
 import { parseYearMonth, type YearMonth } from './project-period.ts';
 import { makePattern, parseDays, parseShiftSpan, patternFromWorkShift, type ShiftPattern } from './shift-pattern.ts';
@@ -143,7 +152,11 @@ export function parseCellId(text: string, ctx: EstimateContext): number {
   const t = text.trim();
   if (!/^\d+$/.test(t)) throw EstimateCellInvalid({ value: text, problem: 'not a whole number' }, { key: 'cell' });
   const cell = Number(t);
-  if (cell >= g.nLat * g.nLon) throw EstimateCellInvalid({ value: text, problem: `outside the grid of ${g.nLat} × ${g.nLon} = ${g.nLat * g.nLon} cells (ids 0–${g.nLat * g.nLon - 1})` }, { key: 'cell' });
+  if (cell >= g.nLat * g.nLon)
+    throw EstimateCellInvalid(
+      { value: text, problem: `outside the grid of ${g.nLat} × ${g.nLon} = ${g.nLat * g.nLon} cells (ids 0–${g.nLat * g.nLon - 1})` },
+      { key: 'cell' },
+    );
   return cell;
 }
 
@@ -195,7 +208,10 @@ export function cellCentre(grid: EstimateGrid, cell: number): { lat: number; lon
 
 /** Shift spans from text: `07:00-17:00`, `05:00-11:00, 15:00-19:00`, `05:00-11:00 and 15:00-19:00`. */
 export function splitSpans(text: string): string[] {
-  return text.split(/\s*(?:[,;+]|\band\b)\s*/).map((s) => s.trim()).filter((s) => s !== '');
+  return text
+    .split(/\s*(?:[,;+]|\band\b)\s*/)
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
 }
 
 /** The default start of a job: 1 January of the year after the atlas was built. */
@@ -223,7 +239,12 @@ export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: Temperat
   const work = choice(raw.work, 'work', [...classIds, CUSTOM], ctx.defaults.classId);
   const workRate =
     work === CUSTOM
-      ? num(raw['metabolic-rate'], 'metabolic-rate', `a work metabolic rate above the rest rate ${ctx.restRate} W and at most 1000 W`, (v) => v > ctx.restRate && v <= 1000)
+      ? num(
+          raw['metabolic-rate'],
+          'metabolic-rate',
+          `a work metabolic rate above the rest rate ${ctx.restRate} W and at most 1000 W`,
+          (v) => v > ctx.restRate && v <= 1000,
+        )
       : ctx.classes.find((c) => c.id === work)!.metabolicRate;
 
   const acclimatization = choice(raw.acclimatization, 'acclimatization', ACCLIMATIZATION_STATES, ctx.defaults.acclimatization);
@@ -235,7 +256,13 @@ export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: Temperat
   const ensemble = choice(raw.clothing, 'clothing', [...ensembles, CUSTOM], 'cav' in d ? CUSTOM : d.ensemble);
   let clothing: EstimateInputs['clothing'];
   if (ensemble === CUSTOM) {
-    const typed = raw.cav === undefined && 'cav' in d ? d.cav : celsiusDeltaFrom(num(raw.cav, 'cav', `a clothing adjustment value [${unit === 'F' ? '°F' : '°C'}-WBGT]`, () => true), unit);
+    const typed =
+      raw.cav === undefined && 'cav' in d
+        ? d.cav
+        : celsiusDeltaFrom(
+            num(raw.cav, 'cav', `a clothing adjustment value [${unit === 'F' ? '°F' : '°C'}-WBGT]`, () => true),
+            unit,
+          );
     clothing = { ensemble: null, hood: false, cav: clothingAdjustment({ cav: typed }, { key: 'cav' }) };
   } else {
     const hood = raw.hood === undefined ? !('cav' in d) && d.ensemble === ensemble && d.hood : raw.hood === 'on' || raw.hood === 'true';
@@ -247,10 +274,19 @@ export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: Temperat
   const restKind = choice(raw.rest, 'rest', ['same-place', 'shade', 'fixed'] as const, ctx.defaults.restLocation);
   const rest: RestChoice =
     restKind === 'fixed'
-      ? { kind: 'fixed', wbgt: celsiusFrom(num(raw['rest-wbgt'], 'rest-wbgt', `the measured WBGT of the rest place [${unit === 'F' ? '°F' : '°C'}]`, (v) => Number.isFinite(v)), unit) }
+      ? {
+          kind: 'fixed',
+          wbgt: celsiusFrom(
+            num(raw['rest-wbgt'], 'rest-wbgt', `the measured WBGT of the rest place [${unit === 'F' ? '°F' : '°C'}]`, (v) => Number.isFinite(v)),
+            unit,
+          ),
+        }
       : { kind: restKind };
   if (rest.kind === 'fixed' && !(rest.wbgt >= 0 && rest.wbgt <= 45)) {
-    throw EstimateNumberInvalid({ name: 'rest-wbgt', value: raw['rest-wbgt'] ?? '', expected: 'a rest-place WBGT from 0 to 45 °C (32 to 113 °F)' }, { key: 'rest-wbgt' });
+    throw EstimateNumberInvalid(
+      { name: 'rest-wbgt', value: raw['rest-wbgt'] ?? '', expected: 'a rest-place WBGT from 0 to 45 °C (32 to 113 °F)' },
+      { key: 'rest-wbgt' },
+    );
   }
 
   const atlasShift = patternFromWorkShift(ctx.defaults.shift);
@@ -287,7 +323,25 @@ export function parseInputs(raw: RawInputs, ctx: EstimateContext, unit: Temperat
   };
 
   const scenarios = parseScenarios(raw.scenario ?? [], ctx);
-  return { place, classId: work === CUSTOM ? null : work, workRate, acclimatization, limitModel, airMovement, clothing, exposure, rest, shift, otherPatterns, workMonths: wm, period, crew, job, costs, scenarios };
+  return {
+    place,
+    classId: work === CUSTOM ? null : work,
+    workRate,
+    acclimatization,
+    limitModel,
+    airMovement,
+    clothing,
+    exposure,
+    rest,
+    shift,
+    otherPatterns,
+    workMonths: wm,
+    period,
+    crew,
+    job,
+    costs,
+    scenarios,
+  };
 }
 
 /**

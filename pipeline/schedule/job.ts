@@ -69,7 +69,10 @@ export function parseCurrency(text: string | undefined, name = 'currency'): stri
   // eslint-disable-next-line no-control-regex
   // biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what this test looks for
   if (t.length > MAX_CURRENCY_LENGTH || /[\u0000-\u001f\u007f]/.test(t)) {
-    throw ScheduleNumberInvalid({ name, value: text ?? '', expected: `a currency label of at most ${MAX_CURRENCY_LENGTH} characters (e.g. EUR, USD, AED)` }, { key: name });
+    throw ScheduleNumberInvalid(
+      { name, value: text ?? '', expected: `a currency label of at most ${MAX_CURRENCY_LENGTH} characters (e.g. EUR, USD, AED)` },
+      { key: name },
+    );
   }
   return t;
 }

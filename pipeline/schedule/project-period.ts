@@ -37,7 +37,11 @@ export function monthOccurrences(period: { start: YearMonth; end: YearMonth } | 
   const n = monthsBetween(period.start, period.end);
   const label = (x: YearMonth) => `${x.year}-${String(x.month).padStart(2, '0')}`;
   if (n < 1) throw EstimatePeriodInvalid({ problem: `the last month ${label(period.end)} is before the first ${label(period.start)}` }, { key: 'period-end' });
-  if (n > MAX_PERIOD_MONTHS) throw EstimatePeriodInvalid({ problem: `${n} months from ${label(period.start)} to ${label(period.end)}; at most ${MAX_PERIOD_MONTHS}` }, { key: 'period-end' });
+  if (n > MAX_PERIOD_MONTHS)
+    throw EstimatePeriodInvalid(
+      { problem: `${n} months from ${label(period.start)} to ${label(period.end)}; at most ${MAX_PERIOD_MONTHS}` },
+      { key: 'period-end' },
+    );
   for (let i = 0; i < n; i++) occ[(period.start.month - 1 + i) % 12]++;
   return occ;
 }

@@ -41,7 +41,11 @@ export function scenarioContext(ctx: EstimateContext, s: EstimateScenario): Esti
  * Runs the bid with the record's deadline; when the deadline cannot be met, runs it again
  * without and says why (the schedule is still wanted). Catalogued errors of runBid otherwise.
  */
-export function runBidKeepingSchedule(histograms: readonly Float64Array[], inputs: EstimateInputs, ctx: EstimateContext): { run: BidRun; deadlineProblem: string | null } {
+export function runBidKeepingSchedule(
+  histograms: readonly Float64Array[],
+  inputs: EstimateInputs,
+  ctx: EstimateContext,
+): { run: BidRun; deadlineProblem: string | null } {
   try {
     return { run: runBid(histograms, inputs, ctx), deadlineProblem: null };
   } catch (e) {

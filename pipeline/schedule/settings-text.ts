@@ -71,11 +71,18 @@ export function settingLines(i: EstimateInputs, ctx: EstimateContext, place: Res
     {
       key: 'clothing',
       label: 'Clothing',
-      parts: [`${ens ? ens.name : 'Clothing adjustment value typed in'}${i.clothing.hood ? ` with hood (+${HOOD_CAV})` : ''}, adjustment `, { deltaC: i.clothing.cav }],
+      parts: [
+        `${ens ? ens.name : 'Clothing adjustment value typed in'}${i.clothing.hood ? ` with hood (+${HOOD_CAV})` : ''}, adjustment `,
+        { deltaC: i.clothing.cav },
+      ],
     },
     { key: 'exposure', label: 'Exposure', parts: [i.exposure === 'sun' ? 'work in the sun' : 'work in the shade (open sky, sun removed)'] },
     { key: 'rest', label: 'Breaks', parts: rest },
-    { key: 'shift', label: 'Shift', parts: [`${formatPattern(i.shift)}, local time (${ctx.timeZone}), ${fixed(hoursPerDay(i.shift), 2)} paid hours a work day`] },
+    {
+      key: 'shift',
+      label: 'Shift',
+      parts: [`${formatPattern(i.shift)}, local time (${ctx.timeZone}), ${fixed(hoursPerDay(i.shift), 2)} paid hours a work day`],
+    },
   ];
 }
 
@@ -88,7 +95,11 @@ export function jobLines(i: EstimateInputs): SettingLine[] {
     { key: 'work-hours', label: 'Quantity of work', parts: [`${grouped(i.job.workHours, 1).replace(/\.0$/, '')} crew-hours`] },
     { key: 'crew', label: 'Crew', parts: [`${grouped(i.crew)} worker${i.crew === 1 ? '' : 's'}`] },
     { key: 'holidays', label: 'Holidays', parts: [hol.length === 0 ? 'none listed' : `${hol.length}: ${hol.join(', ')}`] },
-    { key: 'costs', label: 'Costs', parts: [`${grouped(i.costs.rate, 2)} ${cur} per crew-hour; ${grouped(i.costs.dailyCost, 2)} ${cur} per calendar day of site overheads`] },
+    {
+      key: 'costs',
+      label: 'Costs',
+      parts: [`${grouped(i.costs.rate, 2)} ${cur} per crew-hour; ${grouped(i.costs.dailyCost, 2)} ${cur} per calendar day of site overheads`],
+    },
     { key: 'deadline', label: 'Deadline', parts: [i.job.deadline === null ? 'none given' : formatDay(i.job.deadline)] },
   ];
 }

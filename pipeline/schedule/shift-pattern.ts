@@ -75,11 +75,15 @@ export function formatSpan(s: ShiftSpan): string {
  */
 export function parseDays(text: string): Weekday[] {
   const out = new Set<number>();
-  const parts = text.toLowerCase().split(/[,\s]+/).filter((p) => p !== '');
+  const parts = text
+    .toLowerCase()
+    .split(/[,\s]+/)
+    .filter((p) => p !== '');
   if (parts.length === 0) throw ScheduleDaysInvalid({ value: text, problem: 'no day given' }, { key: 'days' });
   const index = (d: string): number => {
     const i = WEEKDAYS.indexOf(d.slice(0, 3) as Weekday);
-    if (i < 0 || !/^[a-z]{3,9}$/.test(d) || !WEEKDAYS[i].startsWith(d.slice(0, 3))) throw ScheduleDaysInvalid({ value: text, problem: `"${d}" is not a weekday` }, { key: 'days' });
+    if (i < 0 || !/^[a-z]{3,9}$/.test(d) || !WEEKDAYS[i].startsWith(d.slice(0, 3)))
+      throw ScheduleDaysInvalid({ value: text, problem: `"${d}" is not a weekday` }, { key: 'days' });
     return i;
   };
   for (const part of parts) {
@@ -122,7 +126,10 @@ export function makePattern(spans: readonly ShiftSpan[], days: readonly Weekday[
       const a = sorted[i];
       const b = all[j];
       if (a.start < b.end && b.start < a.end) {
-        throw ScheduleShiftInvalid({ value: label, problem: `${formatSpan(a)} overlaps ${formatSpan(b)}${j >= sorted.length ? ' of the next day' : ''}` }, { key: 'shift' });
+        throw ScheduleShiftInvalid(
+          { value: label, problem: `${formatSpan(a)} overlaps ${formatSpan(b)}${j >= sorted.length ? ' of the next day' : ''}` },
+          { key: 'shift' },
+        );
       }
     }
   }

@@ -54,7 +54,12 @@ export interface SlotFigures {
  * Catalogued error from pipeline/work: LimitOutsideHistogram (threshold below 5 °C or above 45 °C).
  */
 export function slotFigures(hist: Float64Array, s: SlotSettings, need?: ArrayLike<number>): SlotFigures {
-  const out: SlotFigures = { valid: new Float64Array(YEAR_SLOTS), hours: new Float64Array(YEAR_SLOTS), above: new Float64Array(YEAR_SLOTS), lost: new Float64Array(YEAR_SLOTS) };
+  const out: SlotFigures = {
+    valid: new Float64Array(YEAR_SLOTS),
+    hours: new Float64Array(YEAR_SLOTS),
+    above: new Float64Array(YEAR_SLOTS),
+    lost: new Float64Array(YEAR_SLOTS),
+  };
   const x = s.exposure === 'sun' ? 0 : 1;
   const paired = s.rest.kind === 'shade' && x === 0;
   const fixed = s.rest.kind === 'fixed' ? s.rest.wbgt : null;

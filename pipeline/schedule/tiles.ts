@@ -17,7 +17,8 @@ export function regionTileHistograms(bytes: Uint8Array, path: string, ctx: Estim
   }
   for (const h of years) {
     for (let i = 0; i < h.length; i++) {
-      if (Number.isNaN(h[i])) throw EstimateDataUnavailable({ path, detail: `the tile ends early; it is not a region tile of ${ctx.years.length} years` }, { file: path });
+      if (Number.isNaN(h[i]))
+        throw EstimateDataUnavailable({ path, detail: `the tile ends early; it is not a region tile of ${ctx.years.length} years` }, { file: path });
     }
   }
   return years;

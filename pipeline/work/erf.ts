@@ -86,7 +86,5 @@ export function normalCdfFast(z: number): number {
   const t = u - i;
   const t2 = t * t;
   const t3 = t2 * t;
-  return (
-    (2 * t3 - 3 * t2 + 1) * PHI[i] + (t3 - 2 * t2 + t) * SLOPE_H[i] + (3 * t2 - 2 * t3) * PHI[i + 1] + (t3 - t2) * SLOPE_H[i + 1]
-  );
+  return (2 * t3 - 3 * t2 + 1) * PHI[i] + (t3 - 2 * t2 + t) * SLOPE_H[i] + (3 * t2 - 2 * t3) * PHI[i + 1] + (t3 - t2) * SLOPE_H[i + 1];
 }

@@ -9,8 +9,7 @@ export const WorkloadClassesInvalid = defineError<{ problems: string[] }>({
   code: 'WorkloadClassesInvalid',
   title: 'The workload classes file has invalid or unknown keys',
   message: (p) => p.problems.join('; '),
-  hint: () =>
-    'each class needs id (lower-case slug), name, metabolicRate [W] and description; see pipeline/work/README.md and content/workload-classes.yaml',
+  hint: () => 'each class needs id (lower-case slug), name, metabolicRate [W] and description; see pipeline/work/README.md and content/workload-classes.yaml',
 });
 
 export const WorkloadClassDuplicate = defineError<{ id: string }>({

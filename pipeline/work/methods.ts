@@ -21,7 +21,13 @@ function c(symbol: string, name: string, value: number, unit: string, code: stri
 
 const A_ACC = c('a_acc', 'intercept, acclimatized (REL)', LIMIT_CURVE_2017.acclimatized.intercept, '°C-WBGT', `${LC}#LIMIT_CURVE_2017.acclimatized.intercept`);
 const B_ACC = c('b_acc', 'slope, acclimatized (REL)', LIMIT_CURVE_2017.acclimatized.slope, '°C-WBGT', `${LC}#LIMIT_CURVE_2017.acclimatized.slope`);
-const A_UN = c('a_un', 'intercept, unacclimatized (RAL)', LIMIT_CURVE_2017.unacclimatized.intercept, '°C-WBGT', `${LC}#LIMIT_CURVE_2017.unacclimatized.intercept`);
+const A_UN = c(
+  'a_un',
+  'intercept, unacclimatized (RAL)',
+  LIMIT_CURVE_2017.unacclimatized.intercept,
+  '°C-WBGT',
+  `${LC}#LIMIT_CURVE_2017.unacclimatized.intercept`,
+);
 const B_UN = c('b_un', 'slope, unacclimatized (RAL)', LIMIT_CURVE_2017.unacclimatized.slope, '°C-WBGT', `${LC}#LIMIT_CURVE_2017.unacclimatized.slope`);
 
 const ISO_CLASSES = ['0', '1', '2', '3', '4'];
@@ -44,9 +50,21 @@ const TABLE_CONSTANTS: MethodConstant[] = [
 
 const CAV_CONSTANTS: MethodConstant[] = [
   ...CLOTHING_ENSEMBLES.map((e, i) =>
-    c(`CAV_${e.id}`, `${e.name} (${e.sourceTag === 'verified' ? 'value read in the source' : 'value from memory'})`, e.cav, '°C-WBGT', `pipeline/work/clothing.ts#CLOTHING_ENSEMBLES.${i}.cav`),
+    c(
+      `CAV_${e.id}`,
+      `${e.name} (${e.sourceTag === 'verified' ? 'value read in the source' : 'value from memory'})`,
+      e.cav,
+      '°C-WBGT',
+      `pipeline/work/clothing.ts#CLOTHING_ENSEMBLES.${i}.cav`,
+    ),
   ),
-  c('CAV_hood', `hood with any ensemble (${HOOD_CAV_SOURCE_TAG === 'verified' ? 'value read in the source' : 'value from memory'})`, HOOD_CAV, '°C-WBGT', 'pipeline/work/clothing.ts#HOOD_CAV'),
+  c(
+    'CAV_hood',
+    `hood with any ensemble (${HOOD_CAV_SOURCE_TAG === 'verified' ? 'value read in the source' : 'value from memory'})`,
+    HOOD_CAV,
+    '°C-WBGT',
+    'pipeline/work/clothing.ts#HOOD_CAV',
+  ),
   c('CAV_max', 'largest clothing adjustment accepted', MAX_CAV, '°C-WBGT', 'pipeline/work/clothing.ts#MAX_CAV'),
 ];
 
@@ -71,13 +89,26 @@ export const WORK_METHODS: MethodGroup = {
     {
       id: 'limit-curve',
       name: 'Screening limit (continuous curves)',
-      summary: 'The WBGT limit for a time-weighted metabolic rate, for acclimatized workers (recommended exposure limit) and for workers not used to the heat (recommended alert limit).',
+      summary:
+        'The WBGT limit for a time-weighted metabolic rate, for acclimatized workers (recommended exposure limit) and for workers not used to the heat (recommended alert limit).',
       equation: [eq`L(M) = ${A_ACC} − ${B_ACC}·log₁₀ M   (acclimatized)`, eq`L(M) = ${A_UN} − ${B_UN}·log₁₀ M   (unacclimatized)`],
       symbols: [
         { symbol: 'M', meaning: 'metabolic rate, 1-hour time-weighted average, whole body', unit: 'W' },
         { symbol: 'L', meaning: 'screening limit, 1-hour time-weighted average WBGT', unit: '°C-WBGT' },
       ],
-      constants: [A_ACC, B_ACC, A_UN, B_UN, c('M_max', 'largest metabolic rate accepted (larger values are taken as a mistake)', MAX_METABOLIC_RATE_W, 'W', 'pipeline/work/workload-classes.ts#MAX_METABOLIC_RATE_W')],
+      constants: [
+        A_ACC,
+        B_ACC,
+        A_UN,
+        B_UN,
+        c(
+          'M_max',
+          'largest metabolic rate accepted (larger values are taken as a mistake)',
+          MAX_METABOLIC_RATE_W,
+          'W',
+          'pipeline/work/workload-classes.ts#MAX_METABOLIC_RATE_W',
+        ),
+      ],
       sources: ['niosh2016', 'iso7243-2017'],
       code: [`${LC} limitCurve2017()`],
       notes: ['Limit model "curve-2017". M is in W (a rate in W m⁻² times 1.8 m² gives W).'],
@@ -85,7 +116,8 @@ export const WORK_METHODS: MethodGroup = {
     {
       id: 'limit-table-1989',
       name: 'Screening limit (ISO 7243:1989 table)',
-      summary: 'The alternative limit model "table-1989": the reference values per metabolic-rate class, linear in M between the classes\u2019 typical rates and flat outside them (our rule; at the typical rates it gives the table exactly).',
+      summary:
+        'The alternative limit model "table-1989": the reference values per metabolic-rate class, linear in M between the classes\u2019 typical rates and flat outside them (our rule; at the typical rates it gives the table exactly).',
       equation: ['L(M) = L_k + (M − M_k)·(L_k+1 − L_k)/(M_k+1 − M_k)   for M_k ≤ M ≤ M_k+1;   L(M ≤ M_0) = L_0,   L(M ≥ M_4) = L_4'],
       symbols: [{ symbol: 'M_k, L_k', meaning: 'typical rate and reference value of ISO class k', unit: 'W, °C-WBGT' }],
       constants: TABLE_CONSTANTS,
@@ -95,18 +127,22 @@ export const WORK_METHODS: MethodGroup = {
     {
       id: 'clothing',
       name: 'Clothing adjustment',
-      summary: 'Clothing that hinders the loss of heat is accounted for by adding a clothing adjustment value (CAV) to the WBGT, at work and at rest alike (the same clothes).',
+      summary:
+        'Clothing that hinders the loss of heat is accounted for by adding a clothing adjustment value (CAV) to the WBGT, at work and at rest alike (the same clothes).',
       equation: ['WBGT_eff = WBGT + CAV'],
       symbols: [{ symbol: 'CAV', meaning: 'clothing adjustment value', unit: '°C-WBGT' }],
       constants: CAV_CONSTANTS,
       sources: ['acgih-tlv', 'bernard2008'],
       code: ['pipeline/work/clothing.ts clothingAdjustment()'],
-      notes: ['Vapour-barrier coveralls use the larger ACGIH value (from memory) rather than the 10 kept by Bernard et al. 2008; such ensembles may need monitoring of the workers instead of a WBGT screen.'],
+      notes: [
+        'Vapour-barrier coveralls use the larger ACGIH value (from memory) rather than the 10 kept by Bernard et al. 2008; such ensembles may need monitoring of the workers instead of a WBGT screen.',
+      ],
     },
     {
       id: 'above-limit',
       name: 'Hours above the limit',
-      summary: 'An hour is above the limit when its effective WBGT at the work place exceeds the limit at the work rate; an hour exactly at the limit is not above it; an hour without a value is never above it.',
+      summary:
+        'An hour is above the limit when its effective WBGT at the work place exceeds the limit at the work rate; an hour exactly at the limit is not above it; an hour without a value is never above it.',
       equation: ['above ⇔ WBGT_w + CAV > L(M_w)', 'H_above = Σ over the hours of the month (all hours, or shift hours only) of 1[above]'],
       symbols: [
         { symbol: 'WBGT_w', meaning: 'WBGT at the work place (sun or shade)', unit: '°C' },
@@ -120,7 +156,8 @@ export const WORK_METHODS: MethodGroup = {
     {
       id: 'work-fraction',
       name: 'Allowable work fraction and hours lost',
-      summary: 'The largest share f of an hour that can be worked at M_w, resting the remainder at M_r, so that the hour\u2019s time-weighted WBGT stays within the limit at the hour\u2019s time-weighted metabolic rate. The rest of the hour is lost to rest breaks.',
+      summary:
+        'The largest share f of an hour that can be worked at M_w, resting the remainder at M_r, so that the hour\u2019s time-weighted WBGT stays within the limit at the hour\u2019s time-weighted metabolic rate. The rest of the hour is lost to rest breaks.',
       equation: [
         'f·WBGT_w + (1 − f)·WBGT_r + CAV ≤ L(f·M_w + (1 − f)·M_r)',
         'rest in the same place, curve model:   M_lim = 10^((a − WBGT_eff)/b),   f = (M_lim − M_r)/(M_w − M_r), clipped to [0, 1]',
@@ -147,7 +184,9 @@ export const WORK_METHODS: MethodGroup = {
       name: 'Shift hours in local time',
       summary: 'Shift figures count only the hours of the work shift, in the atlas\u2019s time zone (daylight saving from the time-zone database).',
       equation: ['in shift ⇔ the whole hour, in local clock time, lies inside one shift: shift start ≤ local start and local end ≤ shift end, on a listed day'],
-      symbols: [{ symbol: 'local start, local end', meaning: 'the hour\u2019s start and end in local time (data are stamped at the end of the hour, UTC)', unit: 'h' }],
+      symbols: [
+        { symbol: 'local start, local end', meaning: 'the hour\u2019s start and end in local time (data are stamped at the end of the hour, UTC)', unit: 'h' },
+      ],
       constants: [],
       sources: ['ecmwf-era5'],
       code: ['pipeline/work/shifts.ts localHours(), localHoursInto()'],
@@ -156,7 +195,8 @@ export const WORK_METHODS: MethodGroup = {
     {
       id: 'capacity-loss-kjellstrom',
       name: 'Capacity loss (Kjellstrom et al. 2018)',
-      summary: 'The share of an hour\u2019s work capacity lost at a WBGT, as a cumulative normal per work intensity: a population-level estimate from the climate-impact literature, not work/rest advice.',
+      summary:
+        'The share of an hour\u2019s work capacity lost at a WBGT, as a cumulative normal per work intensity: a population-level estimate from the climate-impact literature, not work/rest advice.',
       equation: ['loss(WBGT) = Φ((WBGT − μ)/σ) = ½·[1 + erf((WBGT − μ)/(σ·√2))]', 'capacity-loss hours = Σ over the shift hours of loss(WBGT + CAV)'],
       symbols: [
         { symbol: 'Φ', meaning: 'standard normal distribution function', unit: '–' },
@@ -164,7 +204,11 @@ export const WORK_METHODS: MethodGroup = {
       ],
       constants: KJ,
       sources: ['kjellstrom2018', 'brode2018'],
-      code: ['pipeline/work/capacity-loss.ts kjellstrom2018Loss(), kjellstrom2018LossInto()', 'pipeline/work/erf.ts normalCdf(), normalCdfFast()', 'pipeline/reduce/accumulator.ts (lossCav)'],
+      code: [
+        'pipeline/work/capacity-loss.ts kjellstrom2018Loss(), kjellstrom2018LossInto()',
+        'pipeline/work/erf.ts normalCdf(), normalCdfFast()',
+        'pipeline/reduce/accumulator.ts (lossCav)',
+      ],
       notes: [
         'Clothing: the loss functions describe workers in ordinary light work clothes (the companion study of Bröde et al. 2018 states 0.6 clo, "light work clothes"). The clothing adjustment value is the WBGT increment that makes an ensemble count like such clothes, so the functions are given the effective WBGT, WBGT + CAV; with work clothes (CAV 0) that is the bare WBGT. Measured on the demo: see "Modelling choices and their effect on the demo".',
       ],
@@ -178,12 +222,15 @@ export const WORK_METHODS: MethodGroup = {
       constants: [DN0, DN1],
       sources: ['dunne2013'],
       code: [`${DUNNE}, dunne2013LossInto()`],
-      notes: ['Dunne et al. applied it to daily maximum WBGT; here it is applied to each shift hour, at the effective WBGT (WBGT + CAV) like the Kjellstrom functions.'],
+      notes: [
+        'Dunne et al. applied it to daily maximum WBGT; here it is applied to each shift hour, at the effective WBGT (WBGT + CAV) like the Kjellstrom functions.',
+      ],
     },
     {
       id: 'histogram-estimate',
       name: 'Estimates from WBGT histograms (the calculator)',
-      summary: 'The calculator works from counts of hours per WBGT bin instead of the hours themselves. Hours are taken as spread evenly within a bin; the bin holding the threshold counts the share above it.',
+      summary:
+        'The calculator works from counts of hours per WBGT bin instead of the hours themselves. Hours are taken as spread evenly within a bin; the bin holding the threshold counts the share above it.',
       equation: [
         'threshold = L(M_w) − CAV',
         'hours above from a bin [lower, upper) holding the threshold = count·(upper − threshold)/(upper − lower)',

@@ -55,7 +55,10 @@ export function annualShiftHours(shift: WorkShift): number {
  */
 export function validateShift(raw: { start: number; end: number; days: readonly string[] }, where: ErrorWhere = {}): WorkShift {
   const { start, end } = raw;
-  for (const [name, v] of [['start', start], ['end', end]] as const) {
+  for (const [name, v] of [
+    ['start', start],
+    ['end', end],
+  ] as const) {
     if (!Number.isInteger(v) || v < 0 || v > 24) {
       throw WorkShiftInvalid({ problem: `shift ${name} ${v} is not a whole hour from 0 to 24` }, where);
     }

@@ -40,7 +40,10 @@ export class ZoneOffsets {
   private readonly fmt: Intl.DateTimeFormat;
   private readonly years = new Map<number, YearSegments>();
 
-  constructor(readonly zone: string, where: ErrorWhere = {}) {
+  constructor(
+    readonly zone: string,
+    where: ErrorWhere = {},
+  ) {
     try {
       this.fmt = new Intl.DateTimeFormat('en-US', {
         timeZone: zone,
@@ -60,15 +63,32 @@ export class ZoneOffsets {
   /** Offset [ms] at `utcMs`, straight from Intl (slow; the segments use it). */
   exactOffset(utcMs: number): number {
     const t = Math.floor(utcMs / 1000) * 1000;
-    let y = 0, mo = 0, d = 0, h = 0, mi = 0, s = 0;
+    let y = 0,
+      mo = 0,
+      d = 0,
+      h = 0,
+      mi = 0,
+      s = 0;
     for (const p of this.fmt.formatToParts(t)) {
       switch (p.type) {
-        case 'year': y = Number(p.value); break;
-        case 'month': mo = Number(p.value); break;
-        case 'day': d = Number(p.value); break;
-        case 'hour': h = Number(p.value) % 24; break;
-        case 'minute': mi = Number(p.value); break;
-        case 'second': s = Number(p.value); break;
+        case 'year':
+          y = Number(p.value);
+          break;
+        case 'month':
+          mo = Number(p.value);
+          break;
+        case 'day':
+          d = Number(p.value);
+          break;
+        case 'hour':
+          h = Number(p.value) % 24;
+          break;
+        case 'minute':
+          mi = Number(p.value);
+          break;
+        case 'second':
+          s = Number(p.value);
+          break;
       }
     }
     return Date.UTC(y, mo - 1, d, h, mi, s) - t;

@@ -84,7 +84,10 @@ interface KernelConstants {
 export function prepareWorkKernel(params: WorkFractionParams): WorkKernel {
   const { workRate, restRate, limit } = params;
   const cav = params.clothingAdjustment ?? 0;
-  for (const [id, v] of [['work rate', workRate], ['rest rate', restRate]] as const) {
+  for (const [id, v] of [
+    ['work rate', workRate],
+    ['rest rate', restRate],
+  ] as const) {
     if (!Number.isFinite(v) || v <= 0 || v > MAX_METABOLIC_RATE_W) throw MetabolicRateOutOfRange({ id, value: v });
   }
   if (restRate >= workRate) throw RestRateNotBelowWork({ id: 'work rate', rest: restRate, work: workRate });

@@ -54,10 +54,7 @@ export const workSettingsSchema = z
     /** Table model only: perceptible air movement (classes 3–4 column). */
     airMovement: z.boolean().default(false),
     /** Acclimatization states to compute. */
-    acclimatization: uniqueList(z.enum(ACCLIMATIZATION_STATES as [Acclimatization, ...Acclimatization[]])).default([
-      'acclimatized',
-      'unacclimatized',
-    ]),
+    acclimatization: uniqueList(z.enum(ACCLIMATIZATION_STATES as [Acclimatization, ...Acclimatization[]])).default(['acclimatized', 'unacclimatized']),
     /** Exposures to compute; `shelter` (under a roof or canopy) is opt-in. */
     exposures: uniqueList(z.enum(EXPOSURES as [Exposure, ...Exposure[]])).default(['sun', 'shade']),
     /** Where breaks are taken. `shade` means: in the shade WBGT of the same cell and hour. */
@@ -167,7 +164,13 @@ export function resolveWorkSettings(settings: WorkSettings, all: WorkloadClasses
  * {@link workFractionInto}. Above the limit ⇔ out[i] < 1. No allocation. A RangeError when a
  * shelter evaluation is given no shelter WBGT.
  */
-export function evaluationFractionInto(out: Float32Array, wbgtSun: Float32Array, wbgtShade: Float32Array, e: WorkEvaluation, wbgtShelter?: Float32Array): Float32Array {
+export function evaluationFractionInto(
+  out: Float32Array,
+  wbgtSun: Float32Array,
+  wbgtShade: Float32Array,
+  e: WorkEvaluation,
+  wbgtShelter?: Float32Array,
+): Float32Array {
   const work = exposureWbgt(e.exposure, wbgtSun, wbgtShade, wbgtShelter);
   return workFractionInto(out, work, e.restWbgt === 'shade' ? wbgtShade : null, e.kernel);
 }

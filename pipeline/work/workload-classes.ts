@@ -8,13 +8,7 @@
  * (docs/methods.md §8.1 column "M (W, 1.8 m² body)").
  */
 import { z } from 'zod';
-import {
-  MetabolicRateOutOfRange,
-  RestRateNotBelowWork,
-  WorkloadClassDuplicate,
-  WorkloadClassUnknown,
-  WorkloadClassesInvalid,
-} from './errors.ts';
+import { MetabolicRateOutOfRange, RestRateNotBelowWork, WorkloadClassDuplicate, WorkloadClassUnknown, WorkloadClassesInvalid } from './errors.ts';
 import type { ErrorWhere } from '../model/errors.ts';
 import { MAX_METABOLIC_RATE_W } from './limit-curves.ts';
 

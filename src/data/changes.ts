@@ -35,7 +35,12 @@ export const changesSchema = z.object({
   inputs: z.object({ added: z.array(z.string()), changed: z.array(z.string()), removed: z.array(z.string()) }),
   codeChanged: z.boolean(),
   configChanged: z.boolean(),
-  normals: z.object({ compared: z.number().int().nonnegative(), moved: z.number().int().nonnegative(), largest: z.number().nonnegative(), moves: z.array(move) }),
+  normals: z.object({
+    compared: z.number().int().nonnegative(),
+    moved: z.number().int().nonnegative(),
+    largest: z.number().nonnegative(),
+    moves: z.array(move),
+  }),
   latest: z.array(move),
   moves: z.array(move),
   regionsAdded: z.array(z.string()),

@@ -32,7 +32,14 @@ const cellsSchema = z
   .object({
     version: z.literal(1),
     years: z.array(year).min(1),
-    grid: z.object({ nLat: z.number().int().positive(), nLon: z.number().int().positive(), lat0: z.number(), dLat: z.number(), lon0: z.number(), dLon: z.number() }),
+    grid: z.object({
+      nLat: z.number().int().positive(),
+      nLon: z.number().int().positive(),
+      lat0: z.number(),
+      dLat: z.number(),
+      lon0: z.number(),
+      dLon: z.number(),
+    }),
     chunks: z.array(z.object({ path: z.string().min(1), firstCell: z.number().int().nonnegative(), lastCell: z.number().int().nonnegative() }).passthrough()),
   })
   .passthrough();
@@ -46,7 +53,10 @@ export function loadEstimateContext(dataDir: string = siteDataDir()): { ctx: Est
   const cellsPath = join(dataDir, 'data', 'calculator', 'cells', 'index.json');
   const cells = existsSync(cellsPath) ? readValidatedJson(cellsPath, cellsSchema, 'cell tile index (data/calculator/cells/index.json)') : null;
   if (cells && cells.years.join() !== calc.years.join()) {
-    throw SiteDataInvalid({ path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calc.years.join(', ')}`] }, { file: cellsPath, key: 'years' });
+    throw SiteDataInvalid(
+      { path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calc.years.join(', ')}`] },
+      { file: cellsPath, key: 'years' },
+    );
   }
   const ctx = makeEstimateContext({
     manifest: m,

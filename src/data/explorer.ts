@@ -39,7 +39,13 @@ export function loadExplorerValues(dataDir: string = siteDataDir()): Record<stri
   const hit = valuesCache.get(dataDir);
   if (hit) return hit;
   const manifest = explorerLayers(dataDir);
-  const values = manifest ? regionLayerValues(dataDir, loadExplorerCatalogue(dataDir).regions.map((r) => r.id), manifest.layers) : {};
+  const values = manifest
+    ? regionLayerValues(
+        dataDir,
+        loadExplorerCatalogue(dataDir).regions.map((r) => r.id),
+        manifest.layers,
+      )
+    : {};
   valuesCache.set(dataDir, values);
   return values;
 }
@@ -98,7 +104,12 @@ export function loadScenarioValues(scenarioId: string, dataDir: string = siteDat
     const byTif = new Map(sc.layers.map((l) => [l.tif, l]));
     const layers = shown.layers.map((l, i) => ({ ...byTif.get(l.tif)!, id: String(i) }));
     const regionsDir = `${sc.dataPath.replace(/\/$/, '')}/regions`;
-    const values = regionLayerValues(dataDir, loadExplorerCatalogue(dataDir).regions.map((r) => r.id), layers, regionsDir);
+    const values = regionLayerValues(
+      dataDir,
+      loadExplorerCatalogue(dataDir).regions.map((r) => r.id),
+      layers,
+      regionsDir,
+    );
     out = layers.map((l) => values[l.id]);
   }
   scenarioValuesCache.set(k, out);

@@ -62,7 +62,9 @@ const layerSchema = z.object({
   pngSha256: sha256,
   tifSha256: sha256,
   coordinates: corners,
-  mapImages: z.array(z.object({ path: dataPath, sha256, coordinates: corners, width: z.number().int().positive(), height: z.number().int().positive() })).min(1),
+  mapImages: z
+    .array(z.object({ path: dataPath, sha256, coordinates: corners, width: z.number().int().positive(), height: z.number().int().positive() }))
+    .min(1),
   legend: legendSchema,
 });
 
@@ -128,7 +130,11 @@ export const manifestWorkforceSchema = z.object({
     sampleType: z.string(),
     noData: z.union([z.number(), z.string(), z.null()]),
   }),
-  shares: z.object({ file: z.string().min(1), sha256, defaults: z.object({ acclimatizedShare: z.number().min(0).max(1), sunShare: z.number().min(0).max(1) }) }),
+  shares: z.object({
+    file: z.string().min(1),
+    sha256,
+    defaults: z.object({ acclimatizedShare: z.number().min(0).max(1), sunShare: z.number().min(0).max(1) }),
+  }),
   /** [people] */
   peopleOnLand: z.number().nonnegative(),
   peopleOffLand: z.number().nonnegative(),
@@ -146,7 +152,13 @@ const scenarioSchema = z.object({
   description: z.string().optional(),
   definition: z.union([
     z.object({ kind: z.literal('warming'), warming: z.number() }),
-    z.object({ kind: z.literal('change-file'), changeFile: z.string(), sha256: z.string(), humidity: z.enum(['relative', 'specific']), variables: z.array(z.string()) }),
+    z.object({
+      kind: z.literal('change-file'),
+      changeFile: z.string(),
+      sha256: z.string(),
+      humidity: z.enum(['relative', 'specific']),
+      variables: z.array(z.string()),
+    }),
   ]),
   words: z.object({ kind: z.string().min(1), what: z.string().min(1), source: z.string().min(1), caveat: z.string().min(1) }),
   changes: z.object({ temperature: changeRange, humidity: changeRange.nullable(), solar: changeRange.nullable() }),

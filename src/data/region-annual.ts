@@ -34,12 +34,19 @@ export function comboKey(workloadClass: string, acclimatization: string, exposur
  * Reads the annual hours lost of each region; `withWorkforce` adds the workforce figures;
  * `scenarioId` reads that what-if climate's tables (data/scenarios/<id>/regions/) instead of the record's.
  */
-export function loadRegionAnnuals(regions: ReadonlyArray<{ id: string; name: string }>, dataDir: string = siteDataDir(), withWorkforce = false, scenarioId?: string): RegionAnnual[] {
+export function loadRegionAnnuals(
+  regions: ReadonlyArray<{ id: string; name: string }>,
+  dataDir: string = siteDataDir(),
+  withWorkforce = false,
+  scenarioId?: string,
+): RegionAnnual[] {
   return regions.map((r) => {
     const hoursLost = new Map<string, number>();
     const workforce = withWorkforce ? new Map<string, number>() : undefined;
     const keep = (period: string, figure: string, statistic: string) =>
-      period === YEAR_PERIOD && ((figure === FIGURE_HOURS_LOST && statistic === 'mean') || (workforce !== undefined && WORKFORCE.has(figure) && (statistic === 'mean' || statistic === 'p90')));
+      period === YEAR_PERIOD &&
+      ((figure === FIGURE_HOURS_LOST && statistic === 'mean') ||
+        (workforce !== undefined && WORKFORCE.has(figure) && (statistic === 'mean' || statistic === 'p90')));
     for (const row of loadRegionYearRows(r.id, dataDir, keep, scenarioId)) {
       if (row.period !== YEAR_PERIOD) continue;
       if (row.figure === FIGURE_HOURS_LOST && row.statistic === 'mean') {

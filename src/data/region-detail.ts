@@ -13,7 +13,10 @@ import { readValidatedJson } from './read-json.ts';
 
 const nicheClass = z.enum(NICHE_CLASSES as unknown as [string, ...string[]]).nullable();
 /** [°C], null → NaN. */
-const celsius = z.number().nullable().transform((v) => (v === null ? NaN : v));
+const celsius = z
+  .number()
+  .nullable()
+  .transform((v) => (v === null ? NaN : v));
 
 /** An annual workforce figure: baseline mean and 90th-percentile year, null when withheld. */
 const annualFigure = z.object({ mean: z.number().nullable(), p90: z.number().nullable(), yearsUsed: z.number().int().nonnegative() });
@@ -27,7 +30,9 @@ export const regionWorkforceSchema = z.object({
   people: z.number().nonnegative(),
   /** People × Σ class shares [people]. */
   outdoorWorkers: z.number().nonnegative(),
-  shares: z.array(z.object({ workloadClass: z.string().min(1), share: z.number().min(0).max(1), acclimatized: z.number().min(0).max(1), sun: z.number().min(0).max(1) })),
+  shares: z.array(
+    z.object({ workloadClass: z.string().min(1), share: z.number().min(0).max(1), acclimatized: z.number().min(0).max(1), sun: z.number().min(0).max(1) }),
+  ),
   /** Whose rows of the shares table: the default rows or the region's own. */
   sharesFrom: z.string().min(1),
   defaults: z.object({ acclimatizedShare: z.number(), sunShare: z.number() }),
@@ -35,7 +40,12 @@ export const regionWorkforceSchema = z.object({
   annualHours: z.number().positive(),
   raster: z.object({ name: z.string().min(1), year: z.number().int(), licence: z.string().min(1), invented: z.boolean() }),
   /** All classes together, whole year [person-h, person-h, FTE, %]. */
-  year: z.object({ personHoursAbove: annualFigure, personHoursLost: annualFigure, fullTimeEquivalentsLost: annualFigure, outdoorWorkTimeLostPercent: annualFigure }),
+  year: z.object({
+    personHoursAbove: annualFigure,
+    personHoursLost: annualFigure,
+    fullTimeEquivalentsLost: annualFigure,
+    outdoorWorkTimeLostPercent: annualFigure,
+  }),
 });
 
 export type RegionWorkforce = z.infer<typeof regionWorkforceSchema>;

@@ -25,7 +25,12 @@ export function loadEstimateDifference(regionId: string, figures: RegionFigures,
   return result;
 }
 
-function computeDifference(regionId: string, figures: RegionFigures, dataDir: string, loaded: ReturnType<typeof loadEstimateContext>): EstimateDifference | null {
+function computeDifference(
+  regionId: string,
+  figures: RegionFigures,
+  dataDir: string,
+  loaded: ReturnType<typeof loadEstimateContext>,
+): EstimateDifference | null {
   if (!loaded) return null;
   const entry = loaded.ctx.regions.find((r) => r.id === regionId);
   if (!entry) return null;

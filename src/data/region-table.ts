@@ -117,7 +117,8 @@ export function parseRegionTable(text: string, path: string, regionId: string, k
 function checkRow(f: string[], row: number, path: string, regionId: string, keep: RowFilter | undefined): RegionTableRow | undefined {
   const want = REGION_TABLE_COLUMNS as readonly string[];
   const where = `row ${row}`;
-  const bad = (column: string, problem: string) => SiteDataInvalid({ path, problems: [`${where}, column ${column}: ${problem}`] }, { file: path, key: `${where}.${column}` });
+  const bad = (column: string, problem: string) =>
+    SiteDataInvalid({ path, problems: [`${where}, column ${column}: ${problem}`] }, { file: path, key: `${where}.${column}` });
   if (f.length !== want.length) throw bad('(all)', `${f.length} fields, expected ${want.length}`);
   if (keep && !keep(f[1], f[2], f[7])) return undefined;
   if (f[0] !== regionId) throw bad('region_id', `"${f[0]}" is not the region "${regionId}" of this file`);

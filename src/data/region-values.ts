@@ -50,11 +50,13 @@ function readRegionTable(path: string, statistics: ReadonlySet<string>): Map<str
     if (line === '') continue;
     if (line.includes('"')) return readRegionTableSlow(path, text, statistics);
     const c = line.split(',');
-    if (c.length !== cols.length) throw SiteDataInvalid({ path, problems: [`row ${i + 2}: ${c.length} fields, the header has ${cols.length}`] }, { file: path, row: i + 2 });
+    if (c.length !== cols.length)
+      throw SiteDataInvalid({ path, problems: [`row ${i + 2}: ${c.length} fields, the header has ${cols.length}`] }, { file: path, row: i + 2 });
     if (!statistics.has(c[at.statistic])) continue;
     const raw = c[at.value];
     const v = raw === '' ? NaN : Number(raw);
-    if (Number.isNaN(v) && raw !== '') throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${raw}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
+    if (Number.isNaN(v) && raw !== '')
+      throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${raw}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
     out.set(key(c[at.period], c[at.figure], c[at.workload_class], c[at.acclimatization], c[at.exposure], c[at.method], c[at.statistic]), v);
   }
   return out;
@@ -69,7 +71,8 @@ function readRegionTableSlow(path: string, text: string, statistics: ReadonlySet
     if (missing.length > 0) throw SiteDataInvalid({ path, problems: [`row ${i + 2}: no column ${missing.join(', ')}`] }, { file: path, row: i + 2 });
     if (!statistics.has(r.statistic)) return;
     const v = r.value === '' ? NaN : Number(r.value);
-    if (Number.isNaN(v) && r.value !== '') throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${r.value}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
+    if (Number.isNaN(v) && r.value !== '')
+      throw SiteDataInvalid({ path, problems: [`row ${i + 2}: value "${r.value}" is not a number`] }, { file: path, row: i + 2, key: 'value' });
     out.set(key(r.period, r.figure, r.workload_class, r.acclimatization, r.exposure, r.method, r.statistic), v);
   });
   return out;
@@ -82,7 +85,12 @@ function readRegionTableSlow(path: string, text: string, statistics: ReadonlySet
  * @param regionsDir folder of the region tables and summaries below `dataDir`: the record's
  *   `data/regions`, or a scenario's `data/scenarios/<id>/regions`
  */
-export function regionLayerValues(dataDir: string, regionIds: string[], layers: ManifestLayer[], regionsDir = 'data/regions'): Record<string, Array<number | null>> {
+export function regionLayerValues(
+  dataDir: string,
+  regionIds: string[],
+  layers: ManifestLayer[],
+  regionsDir = 'data/regions',
+): Record<string, Array<number | null>> {
   const statistics = new Set(layers.map((l) => l.statistic));
   const keys = layers.map((layer) => {
     if (layer.figure === 'mean-annual-temperature' || layer.figure === 'niche-class') return '';

@@ -29,7 +29,8 @@ export function dataAttribution(atlas: Pick<DatasetInventory['atlas'], 'invented
   const configured = atlas.attribution ? [atlas.attribution] : [];
   if (atlas.invented) {
     return {
-      licence: 'The input data are invented: synthetic weather for a fictional territory, made by heathours demo-data. No real place or climate is described, and no third-party data licence applies.',
+      licence:
+        'The input data are invented: synthetic weather for a fictional territory, made by heathours demo-data. No real place or climate is described, and no third-party data licence applies.',
       credit: ['Invented data, for demonstration only.', ...configured],
     };
   }
@@ -44,6 +45,7 @@ export function dataAttribution(atlas: Pick<DatasetInventory['atlas'], 'invented
     citation: landOnly
       ? 'Muñoz Sabater, J. (2019): ERA5-Land hourly data from 1950 to present. Copernicus Climate Change Service (C3S) Climate Data Store (CDS). doi:10.24381/cds.e2161bac'
       : 'Hersbach, H. et al. (2023): ERA5 hourly data on single levels from 1940 to present. Copernicus Climate Change Service (C3S) Climate Data Store (CDS). doi:10.24381/cds.adbb2d47',
-    caveat: 'The credit line and the citation are written from memory of the Copernicus licence and the dataset pages; check them against the current licence and dataset page before relying on them.',
+    caveat:
+      'The credit line and the citation are written from memory of the Copernicus licence and the dataset pages; check them against the current licence and dataset page before relying on them.',
   };
 }

@@ -59,7 +59,10 @@ function nestRings(rings: Ring[]): Position[][][] {
 function cutAtAntimeridian(geo: Feature | FeatureCollection): Ring[][] {
   // Equirectangular with scale 180/π and no translation maps (λ, φ) to (lon, −lat) in degrees;
   // precision 0 turns resampling off, so only the antimeridian cut changes the outline.
-  const projection = geoEquirectangular().scale(180 / Math.PI).translate([0, 0]).precision(0);
+  const projection = geoEquirectangular()
+    .scale(180 / Math.PI)
+    .translate([0, 0])
+    .precision(0);
   const polygons: Ring[][] = [];
   let rings: Ring[] = [];
   let ring: Ring = [];

@@ -62,7 +62,8 @@ export interface DownloadGroups {
 }
 
 const STAT_ORDER = ['mean', 'median', 'p90', 'trend', 'trend-p', 'baseline', 'class'];
-const byStat = (a: string, b: string) => (STAT_ORDER.indexOf(a) + 99 * Number(!STAT_ORDER.includes(a))) - (STAT_ORDER.indexOf(b) + 99 * Number(!STAT_ORDER.includes(b))) || a.localeCompare(b);
+const byStat = (a: string, b: string) =>
+  STAT_ORDER.indexOf(a) + 99 * Number(!STAT_ORDER.includes(a)) - (STAT_ORDER.indexOf(b) + 99 * Number(!STAT_ORDER.includes(b))) || a.localeCompare(b);
 
 /** The layers `layers` grouped by figure and combination; their files are marked in `used`. */
 function figureGroups(m: SiteManifest, layers: readonly ManifestLayer[], byPath: ReadonlyMap<string, ManifestArtefact>, used: Set<string>): FigureGroup[] {
@@ -78,7 +79,14 @@ function figureGroups(m: SiteManifest, layers: readonly ManifestLayer[], byPath:
     let fig = figures.get(layer.figure);
     if (!fig) {
       const def = figureLabels.get(layer.figure);
-      fig = { id: layer.figure, label: def?.label ?? layer.legend.title ?? layer.figure, units: def?.units ?? layer.units, combos: [], layerCount: 0, bytes: 0 };
+      fig = {
+        id: layer.figure,
+        label: def?.label ?? layer.legend.title ?? layer.figure,
+        units: def?.units ?? layer.units,
+        combos: [],
+        layerCount: 0,
+        bytes: 0,
+      };
       figures.set(layer.figure, fig);
     }
     let combo = fig.combos.find((c) => c.combo === layer.combo);
@@ -154,11 +162,41 @@ export interface FileGroup {
 }
 
 const FILE_GROUPS: ReadonlyArray<Omit<FileGroup, 'files' | 'bytes'> & { test: (path: string) => boolean }> = [
-  { id: 'site', title: 'Atlas files', about: 'The dataset inventory, the region outlines, what changed since the previous build, and the niche class of each cell.', open: true, test: (p) => /^data\/[^/]+$/.test(p) },
-  { id: 'region-summaries', title: 'Region summaries', about: 'Per region: grid cells covered, area, mean annual temperature against the human climate niche (JSON).', open: false, test: (p) => /^data\/regions\/[^/]+\.json$/.test(p) },
-  { id: 'region-tiles', title: 'Calculator tiles per region', about: 'Hours of WBGT per bin, year, month, local hour and exposure for each region; the calculator reads them (format in calculator/index.json).', open: false, test: (p) => /^data\/calculator\/[^/]+$/.test(p) },
-  { id: 'cell-tiles', title: 'Calculator tiles per grid cell', about: 'The same histograms for every land cell, in chunks of consecutive cells; the calculator reads them for a point.', open: false, test: (p) => p.startsWith('data/calculator/cells/') },
-  { id: 'cell-figures', title: 'Per-cell figures for the map', about: 'The numbers of the cell tables and more, in small tiles that the map page reads for a clicked cell.', open: false, test: (p) => p.startsWith('data/cells/') },
+  {
+    id: 'site',
+    title: 'Atlas files',
+    about: 'The dataset inventory, the region outlines, what changed since the previous build, and the niche class of each cell.',
+    open: true,
+    test: (p) => /^data\/[^/]+$/.test(p),
+  },
+  {
+    id: 'region-summaries',
+    title: 'Region summaries',
+    about: 'Per region: grid cells covered, area, mean annual temperature against the human climate niche (JSON).',
+    open: false,
+    test: (p) => /^data\/regions\/[^/]+\.json$/.test(p),
+  },
+  {
+    id: 'region-tiles',
+    title: 'Calculator tiles per region',
+    about: 'Hours of WBGT per bin, year, month, local hour and exposure for each region; the calculator reads them (format in calculator/index.json).',
+    open: false,
+    test: (p) => /^data\/calculator\/[^/]+$/.test(p),
+  },
+  {
+    id: 'cell-tiles',
+    title: 'Calculator tiles per grid cell',
+    about: 'The same histograms for every land cell, in chunks of consecutive cells; the calculator reads them for a point.',
+    open: false,
+    test: (p) => p.startsWith('data/calculator/cells/'),
+  },
+  {
+    id: 'cell-figures',
+    title: 'Per-cell figures for the map',
+    about: 'The numbers of the cell tables and more, in small tiles that the map page reads for a clicked cell.',
+    open: false,
+    test: (p) => p.startsWith('data/cells/'),
+  },
 ];
 
 /**

@@ -35,7 +35,11 @@ export const MAP_FIGURE_LABELS: Readonly<Record<string, string>> = {
 };
 
 export const ACCLIMATIZATION_LABELS: Readonly<Record<string, string>> = { acclimatized: 'Acclimatized', unacclimatized: 'Not acclimatized' };
-export const EXPOSURE_LABELS: Readonly<Record<string, string>> = { sun: 'In the sun', shade: 'In the shade (open sky, sun removed)', shelter: 'Under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)' };
+export const EXPOSURE_LABELS: Readonly<Record<string, string>> = {
+  sun: 'In the sun',
+  shade: 'In the shade (open sky, sun removed)',
+  shelter: 'Under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)',
+};
 export const STATISTIC_LABELS: Readonly<Record<string, string>> = {
   mean: 'Mean year',
   trend: 'Trend per decade (Theil–Sen)',
@@ -156,28 +160,74 @@ export function explorerCatalogue(manifest: ManifestLayers, regions: RegionColle
     const def = manifest.figures.find((f) => f.id === id);
     const first = layers.find((l) => l.figure === id)!;
     const title = legends[first.legend].title ?? id;
-    const source = id === PERSON_HOURS_DENSITY && manifest.workforce ? { source: workforceSourceLine(manifest.workforce), sourceInvented: manifest.workforce.invented } : {};
-    return { id, label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title, description: def?.label ?? title.replace(/\s*\(.*\)$/, ''), units: first.units, unitWords: unitWordsOf(id, first.units), ...source };
+    const source =
+      id === PERSON_HOURS_DENSITY && manifest.workforce ? { source: workforceSourceLine(manifest.workforce), sourceInvented: manifest.workforce.invented } : {};
+    return {
+      id,
+      label: MAP_FIGURE_LABELS[id] ?? def?.label ?? title,
+      description: def?.label ?? title.replace(/\s*\(.*\)$/, ''),
+      units: first.units,
+      unitWords: unitWordsOf(id, first.units),
+      ...source,
+    };
   });
 
   const classes = manifest.work.classes;
   const pick = (get: (v: LayerView) => string | undefined) => layers.map((l) => get(l.view)).filter((v): v is string => v !== undefined);
   const choice = (ids: string[], label: (id: string) => string): ExplorerChoice[] => ids.map((id) => ({ id, label: label(id) }));
   const lossLabel = (id: string) => (LOSS_VIEWS.find((v) => v.id === id)?.label ?? id).replace(/^Capacity loss, /, '');
-  const classIds = ordered(pick((v) => v.workloadClass), classes.map((c) => c.id));
+  const classIds = ordered(
+    pick((v) => v.workloadClass),
+    classes.map((c) => c.id),
+  );
   const choices: ExplorerCatalogue['choices'] = {
     workloadClass: choice(classIds, (id) => {
       const c = classes.find((x) => x.id === id);
       return c ? `${c.name} (${c.metabolicRate} W)` : id;
     }),
-    acclimatization: choice(ordered(pick((v) => v.acclimatization), manifest.work.acclimatization), (id) => ACCLIMATIZATION_LABELS[id] ?? id),
-    exposure: choice(ordered(pick((v) => v.exposure), manifest.work.exposures), (id) => EXPOSURE_LABELS[id] ?? id),
-    loss: choice(ordered(pick((v) => v.loss), LOSS_VIEWS.map((v) => v.id)), lossLabel),
-    statistic: choice(ordered(layers.map((l) => l.statistic), ['mean', 'p90', 'trend', 'trend-p', 'baseline', 'class']), (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline))),
-    period: choice(ordered(layers.map((l) => l.period), [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year']), periodName),
+    acclimatization: choice(
+      ordered(
+        pick((v) => v.acclimatization),
+        manifest.work.acclimatization,
+      ),
+      (id) => ACCLIMATIZATION_LABELS[id] ?? id,
+    ),
+    exposure: choice(
+      ordered(
+        pick((v) => v.exposure),
+        manifest.work.exposures,
+      ),
+      (id) => EXPOSURE_LABELS[id] ?? id,
+    ),
+    loss: choice(
+      ordered(
+        pick((v) => v.loss),
+        LOSS_VIEWS.map((v) => v.id),
+      ),
+      lossLabel,
+    ),
+    statistic: choice(
+      ordered(
+        layers.map((l) => l.statistic),
+        ['mean', 'p90', 'trend', 'trend-p', 'baseline', 'class'],
+      ),
+      (id) => statisticChoiceLabel(id, baselineYearCount(manifest.baseline)),
+    ),
+    period: choice(
+      ordered(
+        layers.map((l) => l.period),
+        [...MONTH_NAMES.map((_, i) => String(i + 1).padStart(2, '0')), 'year'],
+      ),
+      periodName,
+    ),
   };
 
-  const regionList: ExplorerRegion[] = regions.features.map((f) => ({ id: f.properties.id, name: f.properties.name, bbox: bboxOf(f), label: labelPoint(f.geometry) }));
+  const regionList: ExplorerRegion[] = regions.features.map((f) => ({
+    id: f.properties.id,
+    name: f.properties.name,
+    bbox: bboxOf(f),
+    label: labelPoint(f.geometry),
+  }));
   const defaultFigure = figureIds.includes('hours-lost-shift') ? 'hours-lost-shift' : (figureIds[0] ?? '');
   const defaults = {
     figure: defaultFigure,

@@ -65,7 +65,16 @@ export function explorerScenarios(manifest: ManifestLayers, catalogue: ExplorerC
         legends.push(l.legend);
         legendIndex.set(k, li);
       }
-      return [{ ...twin, units: l.units, images: l.mapImages.map((m) => ({ path: m.path, coordinates: m.coordinates })), legend: li, tif: l.tif, values: scenarioValuesPath(sc.id, i) }];
+      return [
+        {
+          ...twin,
+          units: l.units,
+          images: l.mapImages.map((m) => ({ path: m.path, coordinates: m.coordinates })),
+          legend: li,
+          tif: l.tif,
+          values: scenarioValuesPath(sc.id, i),
+        },
+      ];
     });
     return { ...words[s], layers, legends };
   });

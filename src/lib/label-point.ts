@@ -41,7 +41,7 @@ export function labelPoint(geometry: Polygon | MultiPolygon): [number, number] {
     const xs = crossings(poly, y);
     for (let i = 0; i + 1 < xs.length; i += 2) {
       // Prefer lines near the middle: a segment counts less the farther its line is from it.
-      const weight = 1 - 0.5 * Math.abs(k - (lines + 1) / 2) / ((lines + 1) / 2);
+      const weight = 1 - (0.5 * Math.abs(k - (lines + 1) / 2)) / ((lines + 1) / 2);
       const length = (xs[i + 1] - xs[i]) * weight;
       if (length > bestLength) {
         bestLength = length;

@@ -8,7 +8,10 @@
 
 /** A CSS string literal of `text`: quotes and backslashes escaped, line breaks as spaces. */
 export function cssString(text: string): string {
-  return `"${text.replace(/\\/g, '\\\\').replace(/"/g, '\\"').replace(/[\r\n\f]+/g, ' ')}"`;
+  return `"${text
+    .replace(/\\/g, '\\\\')
+    .replace(/"/g, '\\"')
+    .replace(/[\r\n\f]+/g, ' ')}"`;
 }
 
 export interface PrintFooterFacts {

@@ -65,7 +65,10 @@ export function regionFileOf(path: string, ids: ReadonlySet<string>): string | u
 }
 
 /** The per-region files of `artefacts` ({@link regionFileOf}) on each page of `pages`, in the page's order of regions, with their count and total size [bytes]. */
-export function regionFilesByPage<A extends { path: string; bytes: number }>(pages: readonly RegionListPage[], artefacts: readonly A[]): Array<{ page: RegionListPage; files: Array<{ region: string; artefact: A }>; bytes: number }> {
+export function regionFilesByPage<A extends { path: string; bytes: number }>(
+  pages: readonly RegionListPage[],
+  artefacts: readonly A[],
+): Array<{ page: RegionListPage; files: Array<{ region: string; artefact: A }>; bytes: number }> {
   const ids = new Set(pages.flatMap((p) => p.regions.map((r) => r.id)));
   const byRegion = new Map<string, A[]>();
   for (const a of artefacts) {

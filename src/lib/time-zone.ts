@@ -7,9 +7,9 @@
 
 /** The UTC offset of `zone` at the instant `ms` [ms since 1970 UTC], as "UTC+05:30" / "UTC−10:00" / "UTC+00:00". */
 export function utcOffsetAt(zone: string, ms: number): string {
-  const part = new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'longOffset' })
-    .formatToParts(new Date(ms))
-    .find((p) => p.type === 'timeZoneName')?.value ?? 'GMT';
+  const part =
+    new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'longOffset' }).formatToParts(new Date(ms)).find((p) => p.type === 'timeZoneName')
+      ?.value ?? 'GMT';
   // "GMT-10:00", "GMT+05:30", or "GMT" for a zero offset.
   const m = /^GMT([+-])(\d{2}):(\d{2})$/.exec(part);
   if (!m) return 'UTC+00:00';

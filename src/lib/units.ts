@@ -81,7 +81,10 @@ export function currentUnit(): TemperatureUnit {
 export function temperatureTextIn(text: string, unit: TemperatureUnit): string {
   if (unit === 'C') return text;
   const f = (s: string) => String(Number(temperatureIn(Number(s.replace('\u2212', '-')), unit).toFixed(1))).replace('-', '\u2212');
-  return text.replace(/([\u2212-]?\d+(?:\.\d+)?)(?:–([\u2212-]?\d+(?:\.\d+)?))? °C/g, (_m, a: string, b?: string) => `${f(a)}${b ? `–${f(b)}` : ''} ${unitSymbol(unit)}`);
+  return text.replace(
+    /([\u2212-]?\d+(?:\.\d+)?)(?:–([\u2212-]?\d+(?:\.\d+)?))? °C/g,
+    (_m, a: string, b?: string) => `${f(a)}${b ? `–${f(b)}` : ''} ${unitSymbol(unit)}`,
+  );
 }
 
 /** A list of temperatures sharing one unit: "11, 15, 20, 25 or 29 °C" [values in °C]. */

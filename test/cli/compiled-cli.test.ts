@@ -19,7 +19,12 @@ import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 
 const PYTHON = '/usr/bin/python3';
 const run = (args: string[], input?: string) =>
-  spawnSync(process.execPath, [CLI_COMPILED, ...args], { encoding: 'utf8', input, maxBuffer: 64 << 20, env: { ...process.env, HEATHOURS_BUILD_TIME: '2026-06-01T00:00:00.000Z' } });
+  spawnSync(process.execPath, [CLI_COMPILED, ...args], {
+    encoding: 'utf8',
+    input,
+    maxBuffer: 64 << 20,
+    env: { ...process.env, HEATHOURS_BUILD_TIME: '2026-06-01T00:00:00.000Z' },
+  });
 
 let dir = '';
 
@@ -31,12 +36,15 @@ beforeAll(() => {
 
 /** Every .js file under compiled/. */
 function compiledFiles(d = join(ROOT, 'compiled')): string[] {
-  return readdirSync(d, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? compiledFiles(join(d, e.name)) : e.name.endsWith('.js') ? [join(d, e.name)] : []));
+  return readdirSync(d, { withFileTypes: true }).flatMap((e) =>
+    e.isDirectory() ? compiledFiles(join(d, e.name)) : e.name.endsWith('.js') ? [join(d, e.name)] : [],
+  );
 }
 
 describe('the compiled command', () => {
   it('holds the command and one file per worker entry, and loads no TypeScript runner', () => {
-    for (const name of ['cli.js', 'workers/shard.js', 'workers/physics.js', 'workers/demo-year.js']) expect(existsSync(join(ROOT, 'compiled', name)), name).toBe(true);
+    for (const name of ['cli.js', 'workers/shard.js', 'workers/physics.js', 'workers/demo-year.js'])
+      expect(existsSync(join(ROOT, 'compiled', name)), name).toBe(true);
     const withTsx = compiledFiles().filter((f) => /(from\s*["']tsx|import\(\s*["']tsx)/.test(readFileSync(f, 'utf8')));
     expect(withTsx).toEqual([]);
     const sources = JSON.parse(readFileSync(join(ROOT, 'compiled/sources.json'), 'utf8')) as { files: string[] };
@@ -58,28 +66,55 @@ describe('the compiled command', () => {
   it('errors --json gives each error its exit status and hint', () => {
     const r = run(['errors', '--json']);
     expect(r.status).toBe(0);
-    const rows = r.stdout.trim().split('\n').map((l) => JSON.parse(l) as { code: string; exit: number; hint: string });
+    const rows = r.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as { code: string; exit: number; hint: string });
     expect(rows.length).toBeGreaterThan(100);
     expect(rows.find((x) => x.code === 'NetcdfGribFile')).toMatchObject({ exit: 3, hint: expect.stringContaining('grib_to_netcdf') });
     expect(rows.find((x) => x.code === 'ConfigNotFound')).toMatchObject({ exit: 2, hint: expect.stringContaining('--config') });
   });
 
   it('inspect --json of classic and NetCDF-4 files: the same report as the sources, and the min, max and mean netCDF-C computes (python3-netcdf4)', async () => {
-    const spec = { layout: 'legacy' as const, start: '2021-07-01T00:00:00Z', hours: 48, lat: [12, 11.5, 11, 10.5], lon: [100, 100.5, 101], vars: ['t2m', 'd2m', 'sp'] as const };
-    const files = [writeFixture(dir, 'classic', { ...spec, vars: [...spec.vars] }, 'nc3'), writeFixture(dir, 'nc4', { ...spec, vars: [...spec.vars], chunkHours: 24 }, 'nc4')];
+    const spec = {
+      layout: 'legacy' as const,
+      start: '2021-07-01T00:00:00Z',
+      hours: 48,
+      lat: [12, 11.5, 11, 10.5],
+      lon: [100, 100.5, 101],
+      vars: ['t2m', 'd2m', 'sp'] as const,
+    };
+    const files = [
+      writeFixture(dir, 'classic', { ...spec, vars: [...spec.vars] }, 'nc3'),
+      writeFixture(dir, 'nc4', { ...spec, vars: [...spec.vars], chunkHours: 24 }, 'nc4'),
+    ];
     const r = run(['inspect', '--json', ...files]);
     expect(r.status, r.stderr).toBe(0);
-    const reports = r.stdout.trim().split('\n').map((l) => JSON.parse(l));
+    const reports = r.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l));
     for (let i = 0; i < files.length; i++) expect(reports[i]).toEqual(JSON.parse(JSON.stringify(await inspectFile(files[i]))));
     // netCDF-C (Debian python3-netcdf4, unpacking and masking as CF says) on the same files.
-    const py = spawnSync(PYTHON, ['-c', `
+    const py = spawnSync(
+      PYTHON,
+      [
+        '-c',
+        `
 import sys, json, netCDF4
 for path in sys.argv[1:]:
     with netCDF4.Dataset(path) as ds:
         print(json.dumps({n: [float(v[:].min()), float(v[:].max()), float(v[:].mean())] for n, v in ds.variables.items() if n in ('t2m', 'd2m', 'sp')}))
-`, ...files], { encoding: 'utf8' });
+`,
+        ...files,
+      ],
+      { encoding: 'utf8' },
+    );
     expect(py.status, py.stderr).toBe(0);
-    const ref = py.stdout.trim().split('\n').map((l) => JSON.parse(l) as Record<string, [number, number, number]>);
+    const ref = py.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as Record<string, [number, number, number]>);
     for (let i = 0; i < files.length; i++) {
       for (const [name, [min, max, mean]] of Object.entries(ref[i])) {
         const v = reports[i].variables.find((x: { name: string }) => x.name === name);
@@ -105,9 +140,15 @@ for path in sys.argv[1:]:
     } finally {
       delete process.env.HEATHOURS_BUILD_TIME;
     }
-    const regions = readdirSync(join(dir, 'out-ts/data/regions')).filter((f) => f.endsWith('.csv')).sort();
+    const regions = readdirSync(join(dir, 'out-ts/data/regions'))
+      .filter((f) => f.endsWith('.csv'))
+      .sort();
     expect(regions.length).toBeGreaterThan(0);
-    expect(readdirSync(join(dir, 'out-compiled/data/regions')).filter((f) => f.endsWith('.csv')).sort()).toEqual(regions);
+    expect(
+      readdirSync(join(dir, 'out-compiled/data/regions'))
+        .filter((f) => f.endsWith('.csv'))
+        .sort(),
+    ).toEqual(regions);
     const tables = readdirSync(join(dir, 'out-ts/data/cell-tables')).map((t) => `cell-tables/${t}`);
     expect(tables.length).toBeGreaterThan(0);
     for (const f of [...regions.map((r) => `regions/${r}`), ...tables, 'atlas-cells.nc']) {
@@ -116,10 +157,12 @@ for path in sys.argv[1:]:
   }, 240_000);
 
   it('point reads standard input and writes standard output with -, the same bytes as from and to files', () => {
-    const csv = ['time_utc,lat,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2',
+    const csv = [
+      'time_utc,lat,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2',
       '2024-07-15T03:00:00Z,25.2,55.3,31.5,55,1005,3.2,650',
       '2024-07-15T09:00:00Z,25.2,55.3,38.0,30,1003,4.0,820',
-      '2024-07-15T21:00:00Z,25.2,55.3,29.0,70,1006,1.5,0'].join('\n');
+      '2024-07-15T21:00:00Z,25.2,55.3,29.0,70,1006,1.5,0',
+    ].join('\n');
     const inFile = join(dir, 'point-in.csv');
     writeFileSync(inFile, `${csv}\n`);
     const files = run(['point', '--in', inFile, '--out', join(dir, 'point-out.csv'), '--quiet']);
@@ -148,10 +191,16 @@ for path in sys.argv[1:]:
 
   it('a reader that closes the pipe stops `errors` and `point --out -` quietly with 141, no stack trace', async () => {
     const rows = ['time_utc,lat,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2'];
-    for (let h = 0; h < 20_000; h++) rows.push(`2024-07-${String(1 + Math.floor(h / 24) % 28).padStart(2, '0')}T${String(h % 24).padStart(2, '0')}:00:00Z,25.2,55.3,31.5,55,1005,3.2,${h % 24 > 6 && h % 24 < 18 ? 600 : 0}`);
+    for (let h = 0; h < 20_000; h++)
+      rows.push(
+        `2024-07-${String(1 + (Math.floor(h / 24) % 28)).padStart(2, '0')}T${String(h % 24).padStart(2, '0')}:00:00Z,25.2,55.3,31.5,55,1005,3.2,${h % 24 > 6 && h % 24 < 18 ? 600 : 0}`,
+      );
     const big = join(dir, 'point-big.csv');
     writeFileSync(big, `${rows.join('\n')}\n`);
-    for (const args of [['errors', '--json'], ['point', '--in', big, '--out', '-', '--quiet']]) {
+    for (const args of [
+      ['errors', '--json'],
+      ['point', '--in', big, '--out', '-', '--quiet'],
+    ]) {
       const child = spawn(process.execPath, [CLI_COMPILED, ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
       let stderr = '';
       child.stderr.on('data', (b) => (stderr += String(b)));

@@ -17,9 +17,18 @@ vi.mock('../../pipeline/commands/index.ts', async () => {
   const { NetcdfFileNotFound } = await import('../../pipeline/read/errors.ts');
   return {
     commands: [
-      (p: Command) => p.command('bad-usage').action(() => { throw UsageError({ message: '--x is wrong', hint: 'pass --x 1' }, { key: '--x' }); }),
-      (p: Command) => p.command('bad-data').action(() => { throw NetcdfFileNotFound({ path: '/nowhere/a.nc' }, { file: '/nowhere/a.nc' }); }),
-      (p: Command) => p.command('bug').action(() => { throw new TypeError('x is undefined'); }),
+      (p: Command) =>
+        p.command('bad-usage').action(() => {
+          throw UsageError({ message: '--x is wrong', hint: 'pass --x 1' }, { key: '--x' });
+        }),
+      (p: Command) =>
+        p.command('bad-data').action(() => {
+          throw NetcdfFileNotFound({ path: '/nowhere/a.nc' }, { file: '/nowhere/a.nc' });
+        }),
+      (p: Command) =>
+        p.command('bug').action(() => {
+          throw new TypeError('x is undefined');
+        }),
     ],
   };
 });

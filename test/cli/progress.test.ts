@@ -26,7 +26,12 @@ describe('progress lines off a terminal', () => {
       for (let i = 0; i < 4; i++) p.tick();
       p.done();
     });
-    expect(got.map((l) => l.replace(/, [\d.]+ s\)$/, ')'))).toEqual(['shards: 25% (1/4 shards)', 'shards: 50% (2/4 shards)', 'shards: 75% (3/4 shards)', 'shards: 100% (4/4 shards)']);
+    expect(got.map((l) => l.replace(/, [\d.]+ s\)$/, ')'))).toEqual([
+      'shards: 25% (1/4 shards)',
+      'shards: 50% (2/4 shards)',
+      'shards: 75% (3/4 shards)',
+      'shards: 100% (4/4 shards)',
+    ]);
   });
 
   it('show a count of bytes in MB when asked (point: MB read), and nothing when quiet', () => {

@@ -23,7 +23,7 @@ describe('annualMeanFromMonthlySums', () => {
     expect(out[0]).toBeCloseTo((10 * (8760 - 672)) / 8760, 12);
   });
 
-  it('missing hours inside the allowance do not tilt the year (a month\'s mean is sum / valid hours)', () => {
+  it("missing hours inside the allowance do not tilt the year (a month's mean is sum / valid hours)", () => {
     const means = HOURS.map((_, m) => m); // month m has mean m °C
     const valid = [...HOURS];
     valid[6] = 744 - 200; // July lost 200 h: still counts (≤ 240 h)

@@ -1,2 +1,1 @@
 export { expectCatalogued } from '../helpers/catalogued.ts';
-

@@ -4,10 +4,7 @@ import { computeNormals } from '../../pipeline/climate/normals.ts';
 import { quantile } from '../../pipeline/climate/quantile.ts';
 import { expectCatalogued } from './helpers.ts';
 
-const METHODS_COUNTS = [
-  40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146,
-  148, 154,
-];
+const METHODS_COUNTS = [40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146, 148, 154];
 const range = (a: number, b: number) => Array.from({ length: b - a + 1 }, (_, i) => a + i);
 
 describe('computeNormals', () => {
@@ -122,12 +119,31 @@ describe('computeNormals', () => {
   it('bad inputs are catalogued errors: shape, year order, period, hour counts, latest year, rule', () => {
     const years = range(2001, 2005);
     const values = new Float64Array(10);
-    expectCatalogued(() => computeNormals({ years, values, nItems: 3 }, { baseline: [2001, 2005] }), 'ClimateShapeMismatch', /holds 10 values; years × items needs 15/);
-    expectCatalogued(() => computeNormals({ years: [2001, 2003, 2002, 2004, 2005], values, nItems: 2 }, { baseline: [2001, 2005] }), 'ClimateYearsNotAscending', /year 2002 at row 3/);
-    expectCatalogued(() => computeNormals({ years: [2001, 2001, 2002, 2003, 2004], values, nItems: 2 }, { baseline: [2001, 2005] }), 'ClimateYearsNotAscending');
-    expectCatalogued(() => computeNormals({ years, values, nItems: 2 }, { baseline: [1961, 1990] }), 'ClimatePeriodNotInStack', /baseline 1961–1990 shares no year with the stack \(2001–2005\)/);
+    expectCatalogued(
+      () => computeNormals({ years, values, nItems: 3 }, { baseline: [2001, 2005] }),
+      'ClimateShapeMismatch',
+      /holds 10 values; years × items needs 15/,
+    );
+    expectCatalogued(
+      () => computeNormals({ years: [2001, 2003, 2002, 2004, 2005], values, nItems: 2 }, { baseline: [2001, 2005] }),
+      'ClimateYearsNotAscending',
+      /year 2002 at row 3/,
+    );
+    expectCatalogued(
+      () => computeNormals({ years: [2001, 2001, 2002, 2003, 2004], values, nItems: 2 }, { baseline: [2001, 2005] }),
+      'ClimateYearsNotAscending',
+    );
+    expectCatalogued(
+      () => computeNormals({ years, values, nItems: 2 }, { baseline: [1961, 1990] }),
+      'ClimatePeriodNotInStack',
+      /baseline 1961–1990 shares no year with the stack \(2001–2005\)/,
+    );
     expectCatalogued(() => computeNormals({ years, values, nItems: 2 }, { baseline: [2005, 2001] }), 'ClimateBadPeriod');
-    expectCatalogued(() => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], latestYear: 2030 }), 'ClimatePeriodNotInStack', /latest year/);
+    expectCatalogued(
+      () => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], latestYear: 2030 }),
+      'ClimatePeriodNotInStack',
+      /latest year/,
+    );
     const expectedHours = new Float64Array(10).fill(744);
     const validHours = new Float64Array(10).fill(744);
     validHours[5] = 745;
@@ -138,7 +154,13 @@ describe('computeNormals', () => {
     );
     expect(err.where.row).toBe(3);
     expectCatalogued(() => computeNormals({ years, values, nItems: 2, validHours }, { baseline: [2001, 2005] }), 'ClimateShapeMismatch', /expectedHours/);
-    expectCatalogued(() => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], rule: { maxMissingHours: 240, minYearShare: 0 } }), 'ClimateBadRule');
-    expectCatalogued(() => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], rule: { maxMissingHours: -1, minYearShare: 0.8 } }), 'ClimateBadRule');
+    expectCatalogued(
+      () => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], rule: { maxMissingHours: 240, minYearShare: 0 } }),
+      'ClimateBadRule',
+    );
+    expectCatalogued(
+      () => computeNormals({ years, values, nItems: 2 }, { baseline: [2001, 2005], rule: { maxMissingHours: -1, minYearShare: 0.8 } }),
+      'ClimateBadRule',
+    );
   });
 });

@@ -3,10 +3,7 @@ import { quantile, quantileSorted } from '../../pipeline/climate/quantile.ts';
 import { expectCatalogued } from './helpers.ts';
 
 // docs/methods.md §10.1 check values: 30 sorted yearly exceedance counts [h].
-const METHODS_COUNTS = [
-  40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146,
-  148, 154,
-];
+const METHODS_COUNTS = [40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146, 148, 154];
 
 describe('quantile (Hyndman–Fan type 7)', () => {
   it('gives the docs/methods.md §10.1 worked example: n = 30 counts → median 101.0 h, P90 142.4 h', () => {

@@ -19,7 +19,10 @@ const X2 = [12.5, 11.0, 14.0, 11.0, 13.5, 12.0, 11.0, 15.0, 12.0, 13.0, 11.5, 14
 const Y3 = [2000, 2001, 2002, 2004, 2005, 2006, 2007, 2009, 2010, 2011, 2012, 2013, 2014, 2016, 2017, 2018];
 const X3 = [3.0, 2.5, 4.0, 3.5, 5.0, 4.5, 6.0, 5.5, 5.0, 7.0, 6.5, 8.0, 7.5, 9.0, 8.0, 9.5];
 /** 30 years 1991–2020, falling; scipy: slope −1.4000000000000012, p 1.4655533068712225e-09; S = −339, Var S = 3141.666…. */
-const X4 = [200.0, 200.5, 195.8, 190.8, 192.1, 187.6, 192.6, 198.9, 186.6, 184.6, 189.9, 187.8, 185.0, 177.5, 181.6, 184.7, 171.1, 175.2, 165.2, 167.6, 162.9, 171.3, 163.8, 171.7, 169.7, 166.4, 151.1, 161.7, 163.3, 163.0];
+const X4 = [
+  200.0, 200.5, 195.8, 190.8, 192.1, 187.6, 192.6, 198.9, 186.6, 184.6, 189.9, 187.8, 185.0, 177.5, 181.6, 184.7, 171.1, 175.2, 165.2, 167.6, 162.9, 171.3,
+  163.8, 171.7, 169.7, 166.4, 151.1, 161.7, 163.3, 163.0,
+];
 
 describe('Theil–Sen slope and Mann–Kendall test', () => {
   it('the Theil–Sen slope equals scipy.stats.theilslopes on four series (ties, gaps in the years, falling)', () => {
@@ -81,7 +84,7 @@ describe('Theil–Sen slope and Mann–Kendall test', () => {
     expect(only.slopePerDecade[0]).toBe(tr.slopePerDecade[2]);
   });
 
-  it('the per-cell trends of the merge (annualCellTrends, the trend-year and trend-p-year layers) take each cell × combination\'s whole-year value and give scipy\'s slope and p-value, cell-major', () => {
+  it("the per-cell trends of the merge (annualCellTrends, the trend-year and trend-p-year layers) take each cell × combination's whole-year value and give scipy's slope and p-value, cell-major", () => {
     // 2 cells × 13 periods × 2 combinations over 1991–2020 (30 years); only the year (period 12) carries the pinned series:
     // cell 0: X4 (combination 0) and X1 on 2001–2020 (combination 1); cell 1: X2 on 1995–2010 (0) and a constant (1).
     // Months hold values that would change every result if they were taken.

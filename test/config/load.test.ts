@@ -49,7 +49,11 @@ describe('atlas configuration', () => {
   });
 
   it('months per piece of a year must divide 12: 5 is a ConfigInvalid error naming shards.monthsPerPiece', () => {
-    expectError(() => parseConfig(demoText + '\nshards: { monthsPerPiece: 5 }\n', 'a.yaml'), 'ConfigInvalid', /shards\.monthsPerPiece: must be 1, 2, 3, 4, 6 or 12/);
+    expectError(
+      () => parseConfig(demoText + '\nshards: { monthsPerPiece: 5 }\n', 'a.yaml'),
+      'ConfigInvalid',
+      /shards\.monthsPerPiece: must be 1, 2, 3, 4, 6 or 12/,
+    );
     expect(parseConfig(demoText + '\nshards: { monthsPerPiece: 12 }\n', 'a.yaml').shards.monthsPerPiece).toBe(12);
     expect(parseConfig(demoText, 'a.yaml').shards).toEqual({ cellsPerTile: 1024, cellsPerBlock: 1024, monthsPerPiece: 3 });
   });
@@ -66,13 +70,17 @@ describe('atlas configuration', () => {
 
   it('a second YAML document after "---" (was: silently ignored, its settings lost) is a ConfigSyntax error naming its line', () => {
     const lines = demoText.split('\n').length;
-    expectError(() => parseConfig(`${demoText}---\nsite:\n  title: second\n`, 'a.yaml'), 'ConfigSyntax', new RegExp(`holds 2 YAML documents \\(the second starts on line ${lines}, after "---"\\)`));
+    expectError(
+      () => parseConfig(`${demoText}---\nsite:\n  title: second\n`, 'a.yaml'),
+      'ConfigSyntax',
+      new RegExp(`holds 2 YAML documents \\(the second starts on line ${lines}, after "---"\\)`),
+    );
     // One document with an explicit start marker, and a file of comments only, stay as they were.
     expect(parseConfig(`---\n${demoText}`, 'a.yaml').id).toBe('demo');
     expectError(() => parseConfig('# nothing here\n', 'a.yaml'), 'ConfigInvalid');
   });
 
-  it('the demo\'s data line repeated 5,000 more times (fuzz mutants 3964 and, with a byte order mark and a second document, 4407 of seed 1) ends before any search of the disk: ConfigInvalid naming the pattern listed 5,001 times, ConfigSyntax for the second document (was: 5,001 searches, 2.5 s of CPU)', async () => {
+  it("the demo's data line repeated 5,000 more times (fuzz mutants 3964 and, with a byte order mark and a second document, 4407 of seed 1) ends before any search of the disk: ConfigInvalid naming the pattern listed 5,001 times, ConfigSyntax for the second document (was: 5,001 searches, 2.5 s of CPU)", async () => {
     const line = '    - ../data/demo/*.nc';
     expect(demoText).toContain(`${line}\n`);
     const repeated = demoText.replace(`${line}\n`, `${line}\n`.repeat(5001));
@@ -87,9 +95,19 @@ describe('atlas configuration', () => {
       await loadConfig(file).catch((e) => (err = e));
       // Both come from parseConfig, which loadConfig runs before it searches the disk for any
       // input (measured on the mutants alone: 2.5 s → 0.38 s of CPU, the YAML parse of 5,000 lines).
-      expectError(() => { throw err; }, code, re);
+      expectError(
+        () => {
+          throw err;
+        },
+        code,
+        re,
+      );
     }
-    expectError(() => parseConfig(demoText.replace('files:', 'files: []\n  zarr: [a.zarr, b.zarr, a.zarr]\n  x_files:'), 'a.yaml'), 'ConfigInvalid', /dataset\.zarr: "a\.zarr" is listed 2 times/);
+    expectError(
+      () => parseConfig(demoText.replace('files:', 'files: []\n  zarr: [a.zarr, b.zarr, a.zarr]\n  x_files:'), 'a.yaml'),
+      'ConfigInvalid',
+      /dataset\.zarr: "a\.zarr" is listed 2 times/,
+    );
   });
 
   it('a missing config file, an input pattern that matches nothing and a missing regions folder are each catalogued', async () => {

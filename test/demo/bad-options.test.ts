@@ -27,12 +27,16 @@ async function expectCode(p: Promise<unknown> | (() => unknown), code: string): 
 describe('demo-data: bad options give catalogued errors and write nothing', () => {
   it('every demo error is in the catalogue', () => {
     const codes = errorCatalogue().map((e) => e.code);
-    for (const c of ['DemoYearsInvalid', 'DemoYearOutOfRange', 'DemoLayoutUnknown', 'DemoGridInvalid', 'DemoSeedInvalid', 'DemoOutputUnwritable']) expect(codes).toContain(c);
+    for (const c of ['DemoYearsInvalid', 'DemoYearOutOfRange', 'DemoLayoutUnknown', 'DemoGridInvalid', 'DemoSeedInvalid', 'DemoOutputUnwritable'])
+      expect(codes).toContain(c);
   });
 
   it('--years 1800 is DemoYearOutOfRange and the output folder stays empty', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'heathours-bad-'));
-    const err = await expectCode(writeDemoDataset({ outDir: dir, years: parseYears('1800'), layout: 'mixed', grid: 'small', quiet: true }), 'DemoYearOutOfRange');
+    const err = await expectCode(
+      writeDemoDataset({ outDir: dir, years: parseYears('1800'), layout: 'mixed', grid: 'small', quiet: true }),
+      'DemoYearOutOfRange',
+    );
     expect(err.message).toMatch(/1800/);
     expect(readdirSync(dir)).toEqual([]);
   });
@@ -51,7 +55,10 @@ describe('demo-data: bad options give catalogued errors and write nothing', () =
 
   it('a bad grid and a bad seed are catalogued', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'heathours-bad-'));
-    await expectCode(writeDemoDataset({ outDir: dir, years: [2020], layout: 'mixed', grid: { nLat: 0, nLon: 3, resolution: 1 }, quiet: true }), 'DemoGridInvalid');
+    await expectCode(
+      writeDemoDataset({ outDir: dir, years: [2020], layout: 'mixed', grid: { nLat: 0, nLon: 3, resolution: 1 }, quiet: true }),
+      'DemoGridInvalid',
+    );
     await expectCode(writeDemoDataset({ outDir: dir, years: [2020], layout: 'mixed', grid: 'small', seed: -1, quiet: true }), 'DemoSeedInvalid');
     expect(readdirSync(dir)).toEqual([]);
   });
@@ -60,7 +67,10 @@ describe('demo-data: bad options give catalogued errors and write nothing', () =
     const base = mkdtempSync(join(tmpdir(), 'heathours-bad-'));
     const file = join(base, 'plain-file');
     writeFileSync(file, 'not a folder');
-    const err = await expectCode(writeDemoDataset({ outDir: join(file, 'demo'), years: [2020], layout: 'mixed', grid: 'small', quiet: true }), 'DemoOutputUnwritable');
+    const err = await expectCode(
+      writeDemoDataset({ outDir: join(file, 'demo'), years: [2020], layout: 'mixed', grid: 'small', quiet: true }),
+      'DemoOutputUnwritable',
+    );
     expect(err.where.file).toBe(join(file, 'demo'));
     expect(readdirSync(base)).toEqual(['plain-file']);
   });

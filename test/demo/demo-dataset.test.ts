@@ -31,7 +31,7 @@ beforeAll(async () => {
 }, 300_000);
 
 describe('writeDemoDataset, small grid, mixed layout', () => {
-  it('writes the mask, the invented population raster, one file per year and the two scenarios\' change files, and nothing else (no temporary files left)', () => {
+  it("writes the mask, the invented population raster, one file per year and the two scenarios' change files, and nothing else (no temporary files left)", () => {
     expect(filesA.map((f) => f.slice(dirA.length + 1))).toEqual([LSM_FILE, POPULATION_FILE, yearFileName(2022), yearFileName(2023)]);
     expect(readdirSync(dirA).sort()).toEqual([LSM_FILE, POPULATION_FILE, yearFileName(2022), yearFileName(2023), 'scenarios'].sort());
     expect(readdirSync(join(dirA, 'scenarios')).sort()).toEqual(DEMO_WARMING_LEVELS.map((l) => changeFactorFile(l).slice('scenarios/'.length)).sort());
@@ -135,7 +135,8 @@ describe('writeDemoDataset, small grid, mixed layout', () => {
   });
 
   it('the same seed gives the same bytes in every file (both layouts), whether years are written in worker threads or not', () => {
-    for (const f of [...readdirSync(dirA).filter((f) => f.endsWith('.nc')), ...DEMO_WARMING_LEVELS.map(changeFactorFile)]) expect(sha(join(dirB, f))).toBe(sha(join(dirA, f)));
+    for (const f of [...readdirSync(dirA).filter((f) => f.endsWith('.nc')), ...DEMO_WARMING_LEVELS.map(changeFactorFile)])
+      expect(sha(join(dirB, f))).toBe(sha(join(dirA, f)));
   });
 
   it('adding a year writes only that year and leaves the old files byte-identical', async () => {

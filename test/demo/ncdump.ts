@@ -13,7 +13,11 @@ export function dataValues(cdl: string, name: string): number[] {
   const data = cdl.slice(cdl.indexOf('\ndata:'));
   const m = new RegExp(`\\n ${name} =([^;]*);`).exec(data);
   if (!m) throw new Error(`no data for ${name}`);
-  return m[1].split(',').map((s) => s.trim()).filter((s) => s.length > 0).map((s) => (s === '_' ? NaN : Number(s.replace(/[sfLb]$/, ''))));
+  return m[1]
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s.length > 0)
+    .map((s) => (s === '_' ? NaN : Number(s.replace(/[sfLb]$/, ''))));
 }
 
 /** The strings listed for `name = "…", … ;` in the data section. */

@@ -19,7 +19,18 @@ const spec = (): Nc4Spec => ({
     { kind: 'scalar-int64', name: 'number', value: 0n, attrs: [['units', '1']] },
     { kind: 'strings', name: 'expver', dim: 'valid_time', values: ['0001', '0001', '0005'], attrs: [] },
   ],
-  vars: [{ name: 'x', dims: ['valid_time', 'latitude', 'longitude'], attrs: [['units', 'K'], ['scale', { dtype: '<d', value: 0.5 }]], chunks: [2, 2, 2], deflateLevel: 1 }],
+  vars: [
+    {
+      name: 'x',
+      dims: ['valid_time', 'latitude', 'longitude'],
+      attrs: [
+        ['units', 'K'],
+        ['scale', { dtype: '<d', value: 0.5 }],
+      ],
+      chunks: [2, 2, 2],
+      deflateLevel: 1,
+    },
+  ],
   globalAttrs: [['title', 'writer check (invented values)']],
 });
 

@@ -104,7 +104,9 @@ describe('the invented territory and its districts', () => {
 
   it('the committed content/regions/*.geojson files are exactly what territory.ts produces', () => {
     const files = regionFiles();
-    const committed = readdirSync(REGIONS_DIR).filter((f) => f.endsWith('.geojson')).sort();
+    const committed = readdirSync(REGIONS_DIR)
+      .filter((f) => f.endsWith('.geojson'))
+      .sort();
     expect(committed).toEqual([...files.keys()].sort());
     for (const [name, text] of files) expect(readFileSync(new URL(name, REGIONS_DIR), 'utf8')).toBe(text);
   });

@@ -26,14 +26,22 @@ beforeAll(() => {
 function cellWhere(pick: (c: number) => number): number {
   let best = -1;
   let bestV = -Infinity;
-  for (let c = 0; c < cc.nCells; c++) if (pick(c) > bestV) { bestV = pick(c); best = c; }
+  for (let c = 0; c < cc.nCells; c++)
+    if (pick(c) > bestV) {
+      bestV = pick(c);
+      best = c;
+    }
   return best;
 }
 
 const mean = (v: DemoBlock[keyof DemoBlock], c: number, keep: (t: number) => boolean = () => true): number => {
   let s = 0;
   let n = 0;
-  for (let t = 0; t < N_HOURS; t++) if (keep(t)) { s += v[t * cc.nCells + c]; n++; }
+  for (let t = 0; t < N_HOURS; t++)
+    if (keep(t)) {
+      s += v[t * cc.nCells + c];
+      n++;
+    }
   return s / n;
 };
 
@@ -97,11 +105,20 @@ describe('invented demo weather, small grid, 2021', () => {
     const coast = cellWhere((c) => (cc.landFraction[c] >= 0.5 ? cc.coastal[c] : -1));
     const lstOf = (t: number) => ((((stamps[t] % 86.4e6) / 3.6e6 + cc.lon[coast] / 15) % 24) + 24) % 24;
     const onshore = (t: number) => year.u10[t * cc.nCells + coast] * cc.onshoreE[coast] + year.v10[t * cc.nCells + coast] * cc.onshoreN[coast];
-    let aft = 0, nA = 0, pre = 0, nP = 0;
+    let aft = 0,
+      nA = 0,
+      pre = 0,
+      nP = 0;
     for (let t = 0; t < N_HOURS; t++) {
       const h = lstOf(t);
-      if (h >= 13 && h <= 16) { aft += onshore(t); nA++; }
-      if (h >= 2 && h <= 5) { pre += onshore(t); nP++; }
+      if (h >= 13 && h <= 16) {
+        aft += onshore(t);
+        nA++;
+      }
+      if (h >= 2 && h <= 5) {
+        pre += onshore(t);
+        nP++;
+      }
     }
     expect(aft / nA - pre / nP).toBeGreaterThan(0.8);
   });
@@ -116,8 +133,18 @@ describe('invented demo weather, small grid, 2021', () => {
       const o = t * cc.nCells + coast;
       const ssrd = year.ssrd[o] / 3600;
       const r = computePoint({
-        timeMs: stamps[t], avgMinutes: 60, lat: cc.lat[coast], lon: cc.lon[coast], ta: year.t2m[o] - 273.15, td: year.d2m[o] - 273.15,
-        pressure: year.sp[o] / 100, wind: Math.hypot(year.u10[o], year.v10[o]), windHeight: 10, urban: false, dt: 0, solar: ssrd,
+        timeMs: stamps[t],
+        avgMinutes: 60,
+        lat: cc.lat[coast],
+        lon: cc.lon[coast],
+        ta: year.t2m[o] - 273.15,
+        td: year.d2m[o] - 273.15,
+        pressure: year.sp[o] / 100,
+        wind: Math.hypot(year.u10[o], year.v10[o]),
+        windHeight: 10,
+        urban: false,
+        dt: 0,
+        solar: ssrd,
         directFraction: ssrd > 0 ? year.fdir[o] / year.ssrd[o] : 0,
       });
       if (Number.isFinite(r.wbgt)) wbgt.push(r.wbgt);

@@ -30,16 +30,25 @@ function parseAll(text: string, pieces = 1): CsvRecord[] {
 }
 
 describe('CSV reading and writing (RFC 4180)', () => {
-  it('what csvLine writes, Python\'s csv module reads back field for field', () => {
+  it("what csvLine writes, Python's csv module reads back field for field", () => {
     const path = join(dir, 'ours.csv');
     writeFileSync(path, ROWS.map(csvLine).join(''));
-    const py = execFileSync('/usr/bin/python3', ['-c', 'import csv,json,sys; print(json.dumps(list(csv.reader(open(sys.argv[1], newline="", encoding="utf-8")))))', path], { encoding: 'utf8' });
+    const py = execFileSync(
+      '/usr/bin/python3',
+      ['-c', 'import csv,json,sys; print(json.dumps(list(csv.reader(open(sys.argv[1], newline="", encoding="utf-8")))))', path],
+      { encoding: 'utf8' },
+    );
     expect(JSON.parse(py)).toEqual(ROWS);
   });
 
-  it('what Python\'s csv module writes (CRLF, a byte order mark added as spreadsheets do), we read, with each record\'s first line', async () => {
+  it("what Python's csv module writes (CRLF, a byte order mark added as spreadsheets do), we read, with each record's first line", async () => {
     const path = join(dir, 'python.csv');
-    execFileSync('/usr/bin/python3', ['-c', 'import csv,json,sys; f=open(sys.argv[1],"w",newline="",encoding="utf-8-sig"); csv.writer(f).writerows(json.loads(sys.argv[2])); f.close()', path, JSON.stringify(ROWS)]);
+    execFileSync('/usr/bin/python3', [
+      '-c',
+      'import csv,json,sys; f=open(sys.argv[1],"w",newline="",encoding="utf-8-sig"); csv.writer(f).writerows(json.loads(sys.argv[2])); f.close()',
+      path,
+      JSON.stringify(ROWS),
+    ]);
     const recs: CsvRecord[] = [];
     for await (const r of readCsvRecords(path)) recs.push(r);
     expect(recs.map((r) => r[1])).toEqual(ROWS);
@@ -49,7 +58,11 @@ describe('CSV reading and writing (RFC 4180)', () => {
   it('pieces of any size, LF, CRLF or CR line ends and blank lines give the same records', () => {
     const lf = 'a,b\n1,"x\ny"\n\n2,3\n';
     const want = parseAll(lf).map((r) => r[1]);
-    expect(want).toEqual([['a', 'b'], ['1', 'x\ny'], ['2', '3']]);
+    expect(want).toEqual([
+      ['a', 'b'],
+      ['1', 'x\ny'],
+      ['2', '3'],
+    ]);
     for (const t of [lf, lf.replace(/\n/g, '\r\n'), lf.replace(/\n/g, '\r'), `\ufeff${lf}`, lf.trimEnd()]) {
       for (const pieces of [1, 3, t.length]) expect(parseAll(t, pieces).map((r) => r[1])).toEqual(want);
     }
@@ -59,6 +72,10 @@ describe('CSV reading and writing (RFC 4180)', () => {
     expectCatalogued(() => parseAll('a,b\n1,"open\n2,3\n'), 'CsvMalformed', /opened on line 2 is never closed[\s\S]*row 2/);
     expectCatalogued(() => parseAll('a,b\n"x"y,1\n'), 'CsvMalformed', /line 2, field 1: text after the closing quote/);
     expectCatalogued(() => parseAll('a,b\nx"y,1\n'), 'CsvMalformed', /line 2, field 1: a quote inside an unquoted field/);
-    expectCatalogued(() => parseAll(`a,b\n"${'x'.repeat(MAX_RECORD_CHARS)}`), 'CsvMalformed', /longer than \d+ characters \(a quote opened in it is never closed\)/);
+    expectCatalogued(
+      () => parseAll(`a,b\n"${'x'.repeat(MAX_RECORD_CHARS)}`),
+      'CsvMalformed',
+      /longer than \d+ characters \(a quote opened in it is never closed\)/,
+    );
   });
 });

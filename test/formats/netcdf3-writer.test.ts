@@ -24,8 +24,13 @@ const header = (numRecords: number): Nc3Header => ({
     { name: 'time', type: 'int', dims: ['time'], attrs: [{ name: 'units', value: 'hours since 1900-01-01 00:00:00.0' }] },
     // 3 shorts = 6 bytes per record: padded to 8 inside each record (spec: vsize rounded up to 4).
     {
-      name: 'a', type: 'short', dims: ['time', 'x'],
-      attrs: [{ name: 'scale_factor', value: { type: 'double', values: [0.5] } }, { name: '_FillValue', value: { type: 'short', values: [-32767] } }],
+      name: 'a',
+      type: 'short',
+      dims: ['time', 'x'],
+      attrs: [
+        { name: 'scale_factor', value: { type: 'double', values: [0.5] } },
+        { name: '_FillValue', value: { type: 'short', values: [-32767] } },
+      ],
     },
     { name: 'b', type: 'float', dims: ['time', 'x'], attrs: [] },
   ],
@@ -64,7 +69,10 @@ describe('Netcdf3Writer (NetCDF-3 classic, CDF-1)', () => {
     // record slab with its padding (vsize bytes: 4 shorts for 3 values), so compare the first 3.
     const r = new NetCDFReader(readFileSync(path));
     const a = r.getDataVariable('a') as number[][];
-    expect(a.map((rec) => rec.slice(0, 3))).toEqual([[-32767, 2, 32766], [-1, 0, 1]]);
+    expect(a.map((rec) => rec.slice(0, 3))).toEqual([
+      [-32767, 2, 32766],
+      [-1, 0, 1],
+    ]);
     expect(r.getDataVariable('x')).toEqual([1.5, 2.5, -3.25]);
     expect(r.version).toBe('classic format');
     expect(readdirSync(dir)).toEqual(['a.nc']);
@@ -73,7 +81,10 @@ describe('Netcdf3Writer (NetCDF-3 classic, CDF-1)', () => {
   it('a single record variable of shorts is not padded within the record (spec special case)', () => {
     const path = join(fresh(), 'one.nc');
     const w = new Netcdf3Writer(path, {
-      dims: [{ name: 'time', length: 'unlimited' }, { name: 'x', length: 3 }],
+      dims: [
+        { name: 'time', length: 'unlimited' },
+        { name: 'x', length: 3 },
+      ],
       attrs: [],
       vars: [{ name: 's', type: 'short', dims: ['time', 'x'], attrs: [] }],
       numRecords: 3,
@@ -82,7 +93,17 @@ describe('Netcdf3Writer (NetCDF-3 classic, CDF-1)', () => {
     w.close();
     expect(dataValues(ncdump(path), 's')).toEqual([0, 10, 20, 1, 11, 21, 2, 12, 22]);
     // header + 3 records × 6 bytes, no padding between records
-    expect(readFileSync(path).length).toBe(new Netcdf3Writer(join(fresh(), 'x.nc'), { dims: [{ name: 'time', length: 'unlimited' }, { name: 'x', length: 3 }], attrs: [], vars: [{ name: 's', type: 'short', dims: ['time', 'x'], attrs: [] }], numRecords: 0 }).beginOf('s') + 18);
+    expect(readFileSync(path).length).toBe(
+      new Netcdf3Writer(join(fresh(), 'x.nc'), {
+        dims: [
+          { name: 'time', length: 'unlimited' },
+          { name: 'x', length: 3 },
+        ],
+        attrs: [],
+        vars: [{ name: 's', type: 'short', dims: ['time', 'x'], attrs: [] }],
+        numRecords: 0,
+      }).beginOf('s') + 18,
+    );
   });
 
   it('closing before every declared record is written throws and leaves no file, not even a temporary one', () => {

@@ -13,7 +13,7 @@ const HOUR = 3_600_000;
 /** A partial filled from invented hourly WBGT (a diurnal cycle plus seeded noise, some NaN hours). */
 function inventedPartial(nc = 9, nt = 24 * 50): ShardPartial {
   let s = 12345;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const start = Date.UTC(2021, 4, 1);
   const time = Float64Array.from({ length: nt }, (_, t) => start + (t + 1) * HOUR);
   const sun = new Float32Array(nt * nc);
@@ -25,13 +25,29 @@ function inventedPartial(nc = 9, nt = 24 * 50): ShardPartial {
     sun[i] = i % 101 === 0 ? NaN : shade[i] + Math.max(0, 3 * d);
     air[i] = shade[i] + 4;
   }
-  const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => 10 + i * 2), work.evaluations);
+  const p = createPartial(
+    2021,
+    Int32Array.from({ length: nc }, (_, i) => 10 + i * 2),
+    work.evaluations,
+  );
   const scratch = createScratch(nt * nc, work.evaluations);
-  accumulateBlock(p, { nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local: localHours(time, 'Etc/GMT+10', work.shift) }, work.evaluations, scratch);
+  accumulateBlock(
+    p,
+    { nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local: localHours(time, 'Etc/GMT+10', work.shift) },
+    work.evaluations,
+    scratch,
+  );
   return p;
 }
 
-const meta: PartialMeta = { shardId: 't00-y2021', year: 2021, tileIndex: 0, key: 'k'.repeat(64), provenance: { a: 1 }, report: { cellHours: 10, physics: { notConverged: 0 } } };
+const meta: PartialMeta = {
+  shardId: 't00-y2021',
+  year: 2021,
+  tileIndex: 0,
+  key: 'k'.repeat(64),
+  provenance: { a: 1 },
+  report: { cellHours: 10, physics: { notConverged: 0 } },
+};
 
 describe('partial files', () => {
   it('decode to exactly the arrays that were encoded (every field, the sparse histogram included)', () => {
@@ -61,7 +77,11 @@ describe('partial files', () => {
     const flipped = Uint8Array.from(bytes);
     flipped[Math.floor(bytes.length / 2)] ^= 0x40;
     expectCatalogued(() => decodePartial(flipped, 'flip.hhp'), 'PartialCorrupt', /flip\.hhp/);
-    expectCatalogued(() => readPartialHeader(new TextEncoder().encode('CDF\x01 not a partial at all, but long enough to look at'), 'x.nc'), 'PartialCorrupt', /x\.nc.*does not start/);
+    expectCatalogued(
+      () => readPartialHeader(new TextEncoder().encode('CDF\x01 not a partial at all, but long enough to look at'), 'x.nc'),
+      'PartialCorrupt',
+      /x\.nc.*does not start/,
+    );
     const other = Uint8Array.from(bytes);
     other[6] = PARTIAL_FORMAT + 1;
     expectCatalogued(() => readPartialHeader(other, 'new.hhp'), 'PartialFormatUnknown', /new\.hhp is partial format/);

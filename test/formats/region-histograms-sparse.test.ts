@@ -12,7 +12,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { RegionPartWriter, readHistogramInto, RECORD_HISTOGRAM } from '../../pipeline/formats/region-parts.ts';
-import { decodeHistogramTile, encodeHistogramTile, encodeHistogramTileYearPairs, HISTOGRAM_TILE_YEAR_MAX_BYTES } from '../../pipeline/publish/histogram-tiles.ts';
+import {
+  decodeHistogramTile,
+  encodeHistogramTile,
+  encodeHistogramTileYearPairs,
+  HISTOGRAM_TILE_YEAR_MAX_BYTES,
+} from '../../pipeline/publish/histogram-tiles.ts';
 import { CELL_YEAR_HIST } from '../../pipeline/reduce/merge.ts';
 import { HIST_LEN, HOURS, MONTHS, N_EXPOSURES } from '../../pipeline/reduce/layout.ts';
 import { ddAdd, ddAddPair } from '../../pipeline/regions/double-double.ts';
@@ -24,7 +29,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function rng(seed: number): () => number {
   let s = seed >>> 0;
-  return () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  return () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
 }
 
 /** Double-double pairs of one year with counts in about a fifth of the slots; the slots marked. */
@@ -53,7 +58,7 @@ function sparseYear(seed: number): { pairs: Float64Array; touched: Uint8Array } 
   return { pairs, touched };
 }
 
-describe('sparse region histograms give the dense encoders\' bytes', () => {
+describe("sparse region histograms give the dense encoders' bytes", () => {
   it('a calculator tile encoded year by year from double-double pairs equals encodeHistogramTile of the float32 years', () => {
     const years = [11, 12, 13].map(sparseYear);
     const dense = years.map(({ pairs }) => {

@@ -43,10 +43,26 @@ export function inventedPointCsv(): string {
     const stamp = new Date(Date.UTC(2021, 6, 14, 1 + h)).toISOString().replace('.000', '');
     const rh = h % 3 === 0 ? '' : (60 - 15 * Math.sin((2 * Math.PI * (hour - 9)) / 24)).toFixed(1);
     const td = h % 3 === 0 ? (ta - 8).toFixed(2) : '';
-    rows.push([
-      h % 2 === 0 ? '"Yard 4, north gate (invented)"' : 'Yard 4 (invented)', stamp, '60', '-12.375', '-150.125', ta.toFixed(2), rh, td, '1008.5',
-      (2 + Math.cos(h)).toFixed(2), h % 5 === 0 ? '2' : '10', h % 7 === 0 ? '1' : '0', '0', solar.toFixed(1), h % 4 === 0 && solar > 0 ? '0.7' : '', '',
-    ].join(','));
+    rows.push(
+      [
+        h % 2 === 0 ? '"Yard 4, north gate (invented)"' : 'Yard 4 (invented)',
+        stamp,
+        '60',
+        '-12.375',
+        '-150.125',
+        ta.toFixed(2),
+        rh,
+        td,
+        '1008.5',
+        (2 + Math.cos(h)).toFixed(2),
+        h % 5 === 0 ? '2' : '10',
+        h % 7 === 0 ? '1' : '0',
+        '0',
+        solar.toFixed(1),
+        h % 4 === 0 && solar > 0 ? '0.7' : '',
+        '',
+      ].join(','),
+    );
   }
   return `${rows.join('\n')}\n`;
 }

@@ -47,63 +47,71 @@ beforeAll(async () => {
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('a damaged data chunk found while a shard reads it', () => {
-  it('fails the build with NetcdfDataUnreadable naming the file, the variable (as ncdump finds it) and hours that hold the chunk; the previous output is untouched', { timeout: 400_000 }, async () => {
-    const cfg = join(dir, 'atlas.yaml');
-    const out = join(dir, 'out');
-    await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false });
-    const before = digestTree(out);
-
-    // Zero 512 bytes inside the 27th chunk in file order (a mid-year chunk of some variable).
-    const file = join(dir, 'inputs', yearFileName(YEAR));
-    const bytes = readFileSync(file);
-    const map = mapHdf5(bytes);
-    const [a, b] = map.chunks[26];
-    bytes.fill(0, a + Math.floor((b - a) / 2) - 256, a + Math.floor((b - a) / 2) + 256);
-    writeFileSync(file, bytes);
-
-    // netCDF-C (Debian's ncdump) fails on exactly one variable, the damaged one.
-    const failing = VARIABLES.filter((v) => spawnSync('ncdump', ['-v', v, file], { stdio: 'ignore' }).status !== 0);
-    expect(failing).toHaveLength(1);
-    const variable = failing[0];
-    expect(execFileSync('ncdump', ['-h', file], { encoding: 'utf8' })).toContain(`float ${variable}(valid_time, latitude, longitude)`);
-
-    let err: unknown;
-    try {
+  it(
+    'fails the build with NetcdfDataUnreadable naming the file, the variable (as ncdump finds it) and hours that hold the chunk; the previous output is untouched',
+    { timeout: 400_000 },
+    async () => {
+      const cfg = join(dir, 'atlas.yaml');
+      const out = join(dir, 'out');
       await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false });
-    } catch (e) {
-      err = e;
-    }
-    expect(err).toBeInstanceOf(HeathoursError);
-    const e = err as HeathoursError;
-    expect(e.code).toBe('NetcdfDataUnreadable');
-    expect(e.where).toMatchObject({ file, variable });
-    const m = /for the hours (\S+) to (\S+) \(end of hour, UTC\)/.exec(e.message);
-    expect(m, e.message).not.toBeNull();
-    expect(e.hint.length).toBeGreaterThan(10);
+      const before = digestTree(out);
 
-    // The reported hours hold the damaged chunk, located by netCDF-C through Debian's
-    // python3-netcdf4 (reading the variable block by block of 168 hours).
-    const py = `import netCDF4, sys
+      // Zero 512 bytes inside the 27th chunk in file order (a mid-year chunk of some variable).
+      const file = join(dir, 'inputs', yearFileName(YEAR));
+      const bytes = readFileSync(file);
+      const map = mapHdf5(bytes);
+      const [a, b] = map.chunks[26];
+      bytes.fill(0, a + Math.floor((b - a) / 2) - 256, a + Math.floor((b - a) / 2) + 256);
+      writeFileSync(file, bytes);
+
+      // netCDF-C (Debian's ncdump) fails on exactly one variable, the damaged one.
+      const failing = VARIABLES.filter((v) => spawnSync('ncdump', ['-v', v, file], { stdio: 'ignore' }).status !== 0);
+      expect(failing).toHaveLength(1);
+      const variable = failing[0];
+      expect(execFileSync('ncdump', ['-h', file], { encoding: 'utf8' })).toContain(`float ${variable}(valid_time, latitude, longitude)`);
+
+      let err: unknown;
+      try {
+        await buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false });
+      } catch (e) {
+        err = e;
+      }
+      expect(err).toBeInstanceOf(HeathoursError);
+      const e = err as HeathoursError;
+      expect(e.code).toBe('NetcdfDataUnreadable');
+      expect(e.where).toMatchObject({ file, variable });
+      const m = /for the hours (\S+) to (\S+) \(end of hour, UTC\)/.exec(e.message);
+      expect(m, e.message).not.toBeNull();
+      expect(e.hint.length).toBeGreaterThan(10);
+
+      // The reported hours hold the damaged chunk, located by netCDF-C through Debian's
+      // python3-netcdf4 (reading the variable block by block of 168 hours).
+      const py = `import netCDF4, sys
 v = netCDF4.Dataset(sys.argv[1])[sys.argv[2]]
 for k in range(0, v.shape[0], ${CHUNK_HOURS}):
     try:
         v[k:k + ${CHUNK_HOURS}]
     except Exception:
         print(k); break`;
-    const bad = Number(execFileSync('/usr/bin/python3', ['-c', py, file, variable], { encoding: 'utf8' }).trim());
-    expect(Number.isInteger(bad)).toBe(true);
-    const chunkFrom = Date.UTC(YEAR, 0, 1, 1) + bad * 3_600_000;
-    const first = Date.parse(m![1]);
-    const last = Date.parse(m![2]);
-    expect(first <= chunkFrom && last >= chunkFrom, `hours ${m![1]} to ${m![2]} miss the damaged chunk from ${new Date(chunkFrom).toISOString()}`).toBe(true);
-    // Nothing half-published: the output is byte for byte the first build's, no staging left.
-    expect(digestTree(out)).toBe(before);
-    expect(readdirSync(dir).filter((f) => f.includes('.stage-') || f.endsWith('.tmp'))).toEqual([]);
-    // The CLI prints it as a catalogued error and exits with 3 (an input-data error), without HDF5's diagnostics.
-    const cli = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'build', '--config', cfg, '--data-only', '--no-cache', '--jobs', '1', '--quiet'], { encoding: 'utf8' });
-    expect(cli.status).toBe(3);
-    expect(cli.stderr).toContain('error [NetcdfDataUnreadable]');
-    expect(cli.stderr).not.toMatch(/HDF5-DIAG|major:|minor:/);
-    expect(digestTree(out)).toBe(before);
-  });
+      const bad = Number(execFileSync('/usr/bin/python3', ['-c', py, file, variable], { encoding: 'utf8' }).trim());
+      expect(Number.isInteger(bad)).toBe(true);
+      const chunkFrom = Date.UTC(YEAR, 0, 1, 1) + bad * 3_600_000;
+      const first = Date.parse(m![1]);
+      const last = Date.parse(m![2]);
+      expect(first <= chunkFrom && last >= chunkFrom, `hours ${m![1]} to ${m![2]} miss the damaged chunk from ${new Date(chunkFrom).toISOString()}`).toBe(true);
+      // Nothing half-published: the output is byte for byte the first build's, no staging left.
+      expect(digestTree(out)).toBe(before);
+      expect(readdirSync(dir).filter((f) => f.includes('.stage-') || f.endsWith('.tmp'))).toEqual([]);
+      // The CLI prints it as a catalogued error and exits with 3 (an input-data error), without HDF5's diagnostics.
+      const cli = spawnSync(
+        process.execPath,
+        [join(ROOT, 'bin/heathours.mjs'), 'build', '--config', cfg, '--data-only', '--no-cache', '--jobs', '1', '--quiet'],
+        { encoding: 'utf8' },
+      );
+      expect(cli.status).toBe(3);
+      expect(cli.stderr).toContain('error [NetcdfDataUnreadable]');
+      expect(cli.stderr).not.toMatch(/HDF5-DIAG|major:|minor:/);
+      expect(digestTree(out)).toBe(before);
+    },
+  );
 });

@@ -8,7 +8,11 @@ import { hash4 } from '../../pipeline/demo/random.ts';
 
 export class Draw {
   private k = 0;
-  constructor(private readonly seed: number, private readonly stream: number, private readonly index: number) {}
+  constructor(
+    private readonly seed: number,
+    private readonly stream: number,
+    private readonly index: number,
+  ) {}
 
   /** Uniform in [0, 1). */
   next(): number {

@@ -40,7 +40,8 @@ export function mapText(bytes: Uint8Array): TextMap {
     const c = bytes[i];
     if (c === 0x0a && i + 1 < bytes.length) lines.push(i + 1);
     // , " : - # space [ ] { } newline: where a CSV field or a YAML token starts or ends.
-    if (c === 0x2c || c === 0x22 || c === 0x3a || c === 0x2d || c === 0x23 || c === 0x20 || c === 0x5b || c === 0x5d || c === 0x7b || c === 0x7d || c === 0x0a) tokens.push(i);
+    if (c === 0x2c || c === 0x22 || c === 0x3a || c === 0x2d || c === 0x23 || c === 0x20 || c === 0x5b || c === 0x5d || c === 0x7b || c === 0x7d || c === 0x0a)
+      tokens.push(i);
   }
   return { lines, tokens };
 }
@@ -104,7 +105,11 @@ function findTruncationPoints(base: Base): number[] {
 /** Makes mutant `index` of `base` under `seed`. */
 export function makeMutant(base: Base, seed: number, index: number): Mutant {
   const cuts = truncationPoints(base);
-  if (index < cuts.length) return { bytes: base.bytes.slice(0, cuts[index]), recipe: [`truncate at ${cuts[index]} of ${base.bytes.length} bytes (structure boundary ${index + 1} of ${cuts.length})`] };
+  if (index < cuts.length)
+    return {
+      bytes: base.bytes.slice(0, cuts[index]),
+      recipe: [`truncate at ${cuts[index]} of ${base.bytes.length} bytes (structure boundary ${index + 1} of ${cuts.length})`],
+    };
   const d = new Draw(seed, STREAM[base.format], index);
   let bytes: Uint8Array = base.bytes.slice();
   const recipe: string[] = [];
@@ -120,8 +125,36 @@ export function makeMutant(base: Base, seed: number, index: number): Mutant {
 /** Values that break header numbers: zero, small, sign and width edges, around the file size. */
 function extremes(old: number, size: number, width: number): number[] {
   const max = width === 8 ? 2 ** 53 : 2 ** 32 - 1;
-  return [0, 1, 2, 3, 4, 5, 6, 7, 8, 10, 11, 12, 0x7f, 0x80, 0xff, 0x7fff, 0xffff, 0x7fffffff, 0x80000000, 0xffffffff, max, old + 1, old - 1, old * 2, old + 4096, size, size + 1, size - 1]
-    .map((v) => Math.max(0, Math.min(max, Math.round(v))));
+  return [
+    0,
+    1,
+    2,
+    3,
+    4,
+    5,
+    6,
+    7,
+    8,
+    10,
+    11,
+    12,
+    0x7f,
+    0x80,
+    0xff,
+    0x7fff,
+    0xffff,
+    0x7fffffff,
+    0x80000000,
+    0xffffffff,
+    max,
+    old + 1,
+    old - 1,
+    old * 2,
+    old + 4096,
+    size,
+    size + 1,
+    size - 1,
+  ].map((v) => Math.max(0, Math.min(max, Math.round(v))));
 }
 
 /** A position in the metadata (header / HDF5 metadata) with the given probability, else anywhere. */
@@ -240,15 +273,104 @@ const enc = new TextEncoder();
 
 /** Replacement tokens: empty, not numbers, extremes, times with and without zones, long text. */
 const CSV_VALUES = [
-  '', ' ', 'NaN', 'nan', 'NA', 'null', 'Infinity', '-Infinity', '1e309', '-1e309', '9'.repeat(400), '1e-400', '-0', '0x1F', '1_000', '1,5', '12abc', 'abc',
-  '"', '""', '"a""b"', '"unclosed', 'x'.repeat(70_000), '1e308', '-1e308', '2147483648', '-2147483649',
-  '2024-07-15 12:00', '2024-07-15T12:00', '2024-07-15T12:00Z', '2024-07-15T12:00:00+09:00', '2024-07-15T12:00:00-0300', '2024-07-15', '2024-13-45T99:99Z',
-  '15/07/2024 12:00', 'July 15 2024', '275760-09-13T00:00:00Z', '+275760-09-14T00:00:00Z', '1949-12-31T23:00Z', '2050-01-01T01:00Z', '2024-07-15T24:00Z', '1721044800', '\u00a0', '\t',
+  '',
+  ' ',
+  'NaN',
+  'nan',
+  'NA',
+  'null',
+  'Infinity',
+  '-Infinity',
+  '1e309',
+  '-1e309',
+  '9'.repeat(400),
+  '1e-400',
+  '-0',
+  '0x1F',
+  '1_000',
+  '1,5',
+  '12abc',
+  'abc',
+  '"',
+  '""',
+  '"a""b"',
+  '"unclosed',
+  'x'.repeat(70_000),
+  '1e308',
+  '-1e308',
+  '2147483648',
+  '-2147483649',
+  '2024-07-15 12:00',
+  '2024-07-15T12:00',
+  '2024-07-15T12:00Z',
+  '2024-07-15T12:00:00+09:00',
+  '2024-07-15T12:00:00-0300',
+  '2024-07-15',
+  '2024-13-45T99:99Z',
+  '15/07/2024 12:00',
+  'July 15 2024',
+  '275760-09-13T00:00:00Z',
+  '+275760-09-14T00:00:00Z',
+  '1949-12-31T23:00Z',
+  '2050-01-01T01:00Z',
+  '2024-07-15T24:00Z',
+  '1721044800',
+  '\u00a0',
+  '\t',
 ];
 const YAML_VALUES = [
-  '', '~', 'null', '.nan', '.inf', '-.inf', '1e309', '9'.repeat(400), '0x1F', '0o17', 'true', 'no', '"', "'", '[', ']', '{', '}', '{a: [1, {b: }', '*undefined', '&a', '!!binary AAAA',
-  '!!js/function "x"', '!!str', '!!int "x"', '!!float', '!!map {}', '!!seq []', '<<: *x', '? complex', '|', '>-', '@', '`', '%YAML 1.1', '---', '...', 'x'.repeat(70_000),
-  'Etc/GMT+99', 'Mars/Olympus', '../../../../..', '/', '**', '[2020, 2024, 2030]', '[2030, 2020]', '[-1e309, 1e309]', '2020', '[]', '{}', '-1', '0.5', '1e6',
+  '',
+  '~',
+  'null',
+  '.nan',
+  '.inf',
+  '-.inf',
+  '1e309',
+  '9'.repeat(400),
+  '0x1F',
+  '0o17',
+  'true',
+  'no',
+  '"',
+  "'",
+  '[',
+  ']',
+  '{',
+  '}',
+  '{a: [1, {b: }',
+  '*undefined',
+  '&a',
+  '!!binary AAAA',
+  '!!js/function "x"',
+  '!!str',
+  '!!int "x"',
+  '!!float',
+  '!!map {}',
+  '!!seq []',
+  '<<: *x',
+  '? complex',
+  '|',
+  '>-',
+  '@',
+  '`',
+  '%YAML 1.1',
+  '---',
+  '...',
+  'x'.repeat(70_000),
+  'Etc/GMT+99',
+  'Mars/Olympus',
+  '../../../../..',
+  '/',
+  '**',
+  '[2020, 2024, 2030]',
+  '[2030, 2020]',
+  '[-1e309, 1e309]',
+  '2020',
+  '[]',
+  '{}',
+  '-1',
+  '0.5',
+  '1e6',
 ];
 const CSV_CHARS = ['"', ',', '\n', '\r', '\r\n', '\t', '\u0000', '\ufeff', ' ', ';', '\\', '\u00e9', '\ud83d\ude00'];
 const YAML_CHARS = [':', ' ', '\t', '\n', '-', '#', '&', '*', '!', '{', '}', '[', ']', '"', "'", '|', '>', '%', '@', '`', ',', '?', '\u0000', '\ufeff', '\r'];
@@ -285,7 +407,9 @@ function textStep(base: Base, bytes: Uint8Array, d: Draw, recipe: string[]): Uin
     case 0: {
       const [a, b] = tokenAt(bytes, d.int(len), csv);
       const v = d.pick(csv ? CSV_VALUES : YAML_VALUES);
-      recipe.push(`replace bytes ${a}-${b} ${JSON.stringify(new TextDecoder().decode(bytes.subarray(a, b)).slice(0, 40))} with ${JSON.stringify(v.length > 40 ? `${v.slice(0, 20)}… (${v.length} characters)` : v)}`);
+      recipe.push(
+        `replace bytes ${a}-${b} ${JSON.stringify(new TextDecoder().decode(bytes.subarray(a, b)).slice(0, 40))} with ${JSON.stringify(v.length > 40 ? `${v.slice(0, 20)}… (${v.length} characters)` : v)}`,
+      );
       return splice(bytes, a, b - a, enc.encode(v));
     }
     case 1: {

@@ -82,7 +82,10 @@ export async function runFuzzPool(tasks: readonly FuzzTask[], o: PoolOptions): P
             resolve(res);
           };
           const fail = (outcome: Outcome, message: string) =>
-            finish({ ...task, outcome, steps: [{ step: 'worker', outcome, message, ms: performance.now() - t0 }], ms: performance.now() - t0, ...started }, true);
+            finish(
+              { ...task, outcome, steps: [{ step: 'worker', outcome, message, ms: performance.now() - t0 }], ms: performance.now() - t0, ...started },
+              true,
+            );
           const onMsg = (m: { started?: { path: string; recipe: string[] }; done?: TaskResult; restart?: boolean; failed?: string }) => {
             if (m.started) {
               started = { path: m.started.path, recipe: m.started.recipe };

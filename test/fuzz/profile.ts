@@ -57,14 +57,23 @@ async function main(): Promise<void> {
     let starts = 0;
     const cpu0 = process.cpuUsage();
     const { summaries, poolSeconds: seconds } = await runCampaign({
-      count, seed, workers, timeoutMs: 60_000, dir, mutantDir: values.mutants, formats: [format], depth,
+      count,
+      seed,
+      workers,
+      timeoutMs: 60_000,
+      dir,
+      mutantDir: values.mutants,
+      formats: [format],
+      depth,
       onResult: (r) => results.push(r),
       onWorkerStart: () => starts++,
     });
     const cpu = process.cpuUsage(cpu0);
     const s = summaries[0];
     const ms = results.map((r) => r.ms).sort((a, b) => a - b);
-    const counts = Object.entries(s.counts).map(([k, v]) => `${k} ${v}`).join(', ');
+    const counts = Object.entries(s.counts)
+      .map(([k, v]) => `${k} ${v}`)
+      .join(', ');
     process.stdout.write(
       `\n${format}: ${s.mutants} mutants in ${seconds.toFixed(1)} s wall, bases aside (${(s.mutants / seconds).toFixed(2)} mutants/s, ${workers} worker(s), depth ${depth}, seed ${seed}); ` +
         `process CPU ${((cpu.user + cpu.system) / 1e6).toFixed(1)} s\n` +
@@ -77,8 +86,10 @@ async function main(): Promise<void> {
     for (const r of results) for (const x of r.steps) byStep.set(`${x.step} ${x.outcome}`, (byStep.get(`${x.step} ${x.outcome}`) ?? 0) + x.ms / 1000);
     const inMutants = results.reduce((a, r) => a + r.ms, 0) / 1000;
     process.stdout.write(
-      `  time [s]: ${[...byStep].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ${v.toFixed(1)}`).join(', ')}; ` +
-        `outside the mutants' own time ${(seconds * workers - inMutants).toFixed(1)} of ${(seconds * workers).toFixed(1)} worker-seconds\n`,
+      `  time [s]: ${[...byStep]
+        .sort((a, b) => b[1] - a[1])
+        .map(([k, v]) => `${k} ${v.toFixed(1)}`)
+        .join(', ')}; ` + `outside the mutants' own time ${(seconds * workers - inMutants).toFixed(1)} of ${(seconds * workers).toFixed(1)} worker-seconds\n`,
     );
     for (const r of [...results].sort((a, b) => b.ms - a.ms).slice(0, top)) {
       const steps = r.steps.map((x) => `${x.step} ${x.ms.toFixed(0)} ms ${x.outcome}${x.code ? ` [${x.code}]` : ''}`).join(', ');

@@ -33,19 +33,23 @@ const campaign = () => (run ??= runCampaign({ count: 0, counts: COUNTS, seed: SE
 
 describe(`damaged files (fuzz seed ${SEED})`, () => {
   for (const format of FORMATS) {
-    it(`${format}: every one of ${COUNTS[format]} damaged files is read or ends in a catalogued error naming it, within the time limit and without printing`, { timeout: 600_000 }, async () => {
-      const { summaries } = await campaign();
-      const s = summaries.find((x) => x.format === format)!;
-      if (s.defects.length > 0) keep = true;
-      const report = s.defects.slice(0, 5).map(describeDefect).join('\n\n');
-      expect(s.defects.length, `${s.defects.length} defect(s) of ${s.mutants} (seed ${SEED}); mutant files kept under ${dir}\n\n${report}`).toBe(0);
-      expect(s.mutants).toBe(COUNTS[format]);
-      // A NetCDF file cut short is never read as if whole.
-      if (format.startsWith('netcdf')) expect(s.sweepRead, 'truncated NetCDF files read without an error').toBe(0);
-      expect(s.sweep).toBeGreaterThan(30);
-      // Both outcomes occur: the damage is neither always harmless nor always fatal.
-      expect(s.counts.catalogued).toBeGreaterThan(0);
-      expect(s.counts.read).toBeGreaterThan(0);
-    });
+    it(
+      `${format}: every one of ${COUNTS[format]} damaged files is read or ends in a catalogued error naming it, within the time limit and without printing`,
+      { timeout: 600_000 },
+      async () => {
+        const { summaries } = await campaign();
+        const s = summaries.find((x) => x.format === format)!;
+        if (s.defects.length > 0) keep = true;
+        const report = s.defects.slice(0, 5).map(describeDefect).join('\n\n');
+        expect(s.defects.length, `${s.defects.length} defect(s) of ${s.mutants} (seed ${SEED}); mutant files kept under ${dir}\n\n${report}`).toBe(0);
+        expect(s.mutants).toBe(COUNTS[format]);
+        // A NetCDF file cut short is never read as if whole.
+        if (format.startsWith('netcdf')) expect(s.sweepRead, 'truncated NetCDF files read without an error').toBe(0);
+        expect(s.sweep).toBeGreaterThan(30);
+        // Both outcomes occur: the damage is neither always harmless nor always fatal.
+        expect(s.counts.catalogued).toBeGreaterThan(0);
+        expect(s.counts.read).toBeGreaterThan(0);
+      },
+    );
   }
 });

@@ -27,7 +27,16 @@ import { setHdf5MetadataTimeout } from '../../pipeline/read/hdf5-meta.ts';
 export const DEFAULT_BASES_DIR = join(tmpdir(), 'heathours-fuzz-bases');
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({ options: { format: { type: 'string' }, seed: { type: 'string' }, index: { type: 'string' }, out: { type: 'string' }, bases: { type: 'string' }, run: { type: 'boolean' } } });
+  const { values } = parseArgs({
+    options: {
+      format: { type: 'string' },
+      seed: { type: 'string' },
+      index: { type: 'string' },
+      out: { type: 'string' },
+      bases: { type: 'string' },
+      run: { type: 'boolean' },
+    },
+  });
   const format = values.format as FormatId;
   if (!FORMATS.includes(format) || values.seed === undefined || values.index === undefined || !values.out) {
     process.stderr.write(`usage: npx tsx test/fuzz/regenerate.ts --format ${FORMATS.join('|')} --seed N --index N --out FILE [--bases DIR] [--run]\n`);

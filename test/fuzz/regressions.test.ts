@@ -39,7 +39,11 @@ describe('NetCDF-3 header damage', () => {
   it('a variable naming a dimension the file lacks (was: TypeError reading "name") is NetcdfHeaderInvalid naming the variable and byte', async () => {
     const f = join(FX, 'classic-dimension-id-out-of-range.nc');
     expect(ncdumpRefuses(f)).toBe(true);
-    const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /variable lsm names dimension 7, but the file has 3 dimension\(s\) \(header byte \d+\)/);
+    const e = await expectCataloguedAsync(
+      inspectFile(f),
+      'NetcdfHeaderInvalid',
+      /variable lsm names dimension 7, but the file has 3 dimension\(s\) \(header byte \d+\)/,
+    );
     expect(e.where).toMatchObject({ file: f, variable: 'lsm' });
   });
 
@@ -52,7 +56,11 @@ describe('NetCDF-3 header damage', () => {
   it('an attribute whose count has a flipped bit (was: megabytes read as its value, then an error about the bytes after it) is NetcdfHeaderInvalid naming that attribute, read no further', async () => {
     const f = join(FX, 'classic-attribute-length-bit-flip.nc');
     expect(ncdumpRefuses(f)).toBe(true);
-    await expectCataloguedAsync(inspectFile(f), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values, more than the file holds \(header byte 92\)/);
+    await expectCataloguedAsync(
+      inspectFile(f),
+      'NetcdfHeaderInvalid',
+      /attribute Conventions of the file claims 2097158 values, more than the file holds \(header byte 92\)/,
+    );
     // Padded with zeros to 3 MiB, the file could hold the 2 MiB the count claims: the cap on an
     // attribute's size names it (before: "the name of attribute 2 of the file is 0 bytes long
     // (header byte 2097256)", after reading 2 MiB of data as its value).
@@ -61,7 +69,11 @@ describe('NetCDF-3 header damage', () => {
     truncateSync(padded, 3 << 20);
     try {
       expect(ncdumpRefuses(padded)).toBe(true);
-      await expectCataloguedAsync(inspectFile(padded), 'NetcdfHeaderInvalid', /attribute Conventions of the file claims 2097158 values \(2097158 bytes\), more than the 1 MiB an attribute may hold: its length is damaged \(header byte 92\)/);
+      await expectCataloguedAsync(
+        inspectFile(padded),
+        'NetcdfHeaderInvalid',
+        /attribute Conventions of the file claims 2097158 values \(2097158 bytes\), more than the 1 MiB an attribute may hold: its length is damaged \(header byte 92\)/,
+      );
     } finally {
       rmSync(padded);
     }
@@ -86,7 +98,11 @@ describe('NetCDF-3 header damage', () => {
       v.setUint32(p + 12, 1_000_000);
       p += each;
     }
-    expectCatalogued(() => parseClassicHeader(head, head.length, 'many-attributes.nc'), 'NetcdfHeaderInvalid', /attribute a16 of the file would end the header after 17000\d+ bytes, beyond the 16 MiB a header may take/);
+    expectCatalogued(
+      () => parseClassicHeader(head, head.length, 'many-attributes.nc'),
+      'NetcdfHeaderInvalid',
+      /attribute a16 of the file would end the header after 17000\d+ bytes, beyond the 16 MiB a header may take/,
+    );
     // 16 of them (16 MB, under 16 MiB) are a header like any other.
     const sixteen = head.slice(0, 24 + 16 * each + 8);
     new DataView(sixteen.buffer).setUint32(20, 16);
@@ -94,9 +110,13 @@ describe('NetCDF-3 header damage', () => {
     expect(parseClassicHeader(sixteen, sixteen.length, 'sixteen-attributes.nc').globalAttributes).toHaveLength(16);
   });
 
-  it('a time value beyond any date (was: RangeError) is NetcdfTimeValueInvalid at the file and time variable; inspect lists it as the axis\'s problem', async () => {
+  it("a time value beyond any date (was: RangeError) is NetcdfTimeValueInvalid at the file and time variable; inspect lists it as the axis's problem", async () => {
     const f = join(FX, 'classic-time-beyond-any-date.nc');
-    const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'] }), 'NetcdfTimeValueInvalid', /time value 1e\+300 \(step 2\)/);
+    const e = await expectCataloguedAsync(
+      openDataset([f], { product: 'era5', require: ['airTemperature'] }),
+      'NetcdfTimeValueInvalid',
+      /time value 1e\+300 \(step 2\)/,
+    );
     expect(e.where).toMatchObject({ file: f, variable: 'time' });
     const r = await inspectFile(f);
     expect(r.timeAxes[0].problem?.code).toBe('NetcdfTimeValueInvalid');
@@ -125,7 +145,11 @@ describe('NetCDF-4 (HDF5) damage', () => {
     expect(nc.signal ?? nc.error?.message).toBeTruthy(); // killed at its time limit: it loops
     setHdf5MetadataTimeout(3_000);
     try {
-      const e = await expectCataloguedAsync(inspectFile(f), 'NetcdfReadFailed', /reading the metadata: the global heap collection at byte 6144 is damaged: the free space at byte \d+ claims 0 bytes, so its walk cannot advance/);
+      const e = await expectCataloguedAsync(
+        inspectFile(f),
+        'NetcdfReadFailed',
+        /reading the metadata: the global heap collection at byte 6144 is damaged: the free space at byte \d+ claims 0 bytes, so its walk cannot advance/,
+      );
       // Refused by the check, not ended by the 3 s time limit (that is NetcdfReadStuck).
       expect(e.where).toMatchObject({ file: f });
     } finally {
@@ -187,7 +211,11 @@ describe('NetCDF-4 (HDF5) damage', () => {
     // Debian's ncdump (netCDF-C over native HDF5) prints the labels of both files: the damage is
     // found by the HDF5 build inside h5wasm, which checks the object's size and aborts.
     expect(spawnSync('ncdump', ['-v', 'expver', sound], { encoding: 'utf8' }).stdout).toMatch(/expver = "0001", "0005" ;/);
-    const e = await expectCataloguedAsync(openDataset([f], { product: 'era5', require: ['airTemperature'], digests: false }), 'NetcdfReadFailed', /reading the text of variable expver: .*Aborted[\s\S]*object size does not match/);
+    const e = await expectCataloguedAsync(
+      openDataset([f], { product: 'era5', require: ['airTemperature'], digests: false }),
+      'NetcdfReadFailed',
+      /reading the text of variable expver: .*Aborted[\s\S]*object size does not match/,
+    );
     expect(e.where).toMatchObject({ file: f, variable: 'expver' });
     // Asked right after (the worker that aborted is still on its way out): a new worker answers.
     expect((await describeNetcdf4(sound)).variables.map((v) => v.name)).toContain('expver');
@@ -201,7 +229,11 @@ describe('NetCDF-4 (HDF5) damage', () => {
 describe('text inputs', () => {
   it('a quote never closed after the header (was: the process died of an unhandled stream error) is CsvMalformed naming line 2, with no output left', async () => {
     const o = join(out, 'quote.csv');
-    await expectCataloguedAsync(runPoint(join(FX, 'point-unclosed-quote.csv'), o, { quiet: true }), 'CsvMalformed', /opened on line 2 is never closed[\s\S]*row 2/);
+    await expectCataloguedAsync(
+      runPoint(join(FX, 'point-unclosed-quote.csv'), o, { quiet: true }),
+      'CsvMalformed',
+      /opened on line 2 is never closed[\s\S]*row 2/,
+    );
     expect(readdirSync(out)).toEqual([]);
   });
 
@@ -212,14 +244,23 @@ describe('text inputs', () => {
     const cfg = join(out, 'atlas.yaml');
     // The demo's atlas.yaml without its workforce and scenarios (their files are not there: this is about the classes file).
     const demo = readFileSync(join(ROOT, 'content/atlas.yaml'), 'utf8').replace(/^(workforce|scenarios):\n(?:(?: .*|#.*)?\n)*/gm, '');
-    writeFileSync(cfg, demo.replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`));
-    const e = await expectCataloguedAsync(buildAtlas({ configPath: cfg, outDir: join(out, 'dist'), jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ConfigSyntax');
+    writeFileSync(
+      cfg,
+      demo.replace('../data/demo/*.nc', 'x.nc').replace('regions: regions', `regions: ${join(ROOT, 'content/regions')}\nwork:\n  classesFile: classes.yaml`),
+    );
+    const e = await expectCataloguedAsync(
+      buildAtlas({ configPath: cfg, outDir: join(out, 'dist'), jobs: 1, quiet: true, dataOnly: true, cache: false }),
+      'ConfigSyntax',
+    );
     expect(e.where.file).toBe(classes);
     for (const f of ['classes.yaml', 'x.nc', 'atlas.yaml']) rmSync(join(out, f));
   });
 
   it('aliases that expand too far, or come before their anchor (was: ReferenceError), are ConfigSyntax naming the file', () => {
-    for (const [name, re] of [['atlas-alias-bomb.yaml', /alias/i], ['atlas-alias-before-anchor.yaml', /alias|anchor/i]] as const) {
+    for (const [name, re] of [
+      ['atlas-alias-bomb.yaml', /alias/i],
+      ['atlas-alias-before-anchor.yaml', /alias|anchor/i],
+    ] as const) {
       const f = join(FX, name);
       expectCatalogued(() => parseConfig(readFileSync(f, 'utf8'), f), 'ConfigSyntax', re);
     }

@@ -10,7 +10,28 @@
  */
 
 /** Four-byte signatures of HDF5 metadata blocks (specification §III and §IV). */
-const SIGNATURES = ['OHDR', 'OCHK', 'TREE', 'HEAP', 'GCOL', 'SNOD', 'BTHD', 'BTIN', 'BTLF', 'FRHP', 'FHDB', 'FHIB', 'FSHD', 'FSSE', 'SMTB', 'EAHD', 'EAIB', 'EADB', 'FAHD', 'FADB'];
+const SIGNATURES = [
+  'OHDR',
+  'OCHK',
+  'TREE',
+  'HEAP',
+  'GCOL',
+  'SNOD',
+  'BTHD',
+  'BTIN',
+  'BTLF',
+  'FRHP',
+  'FHDB',
+  'FHIB',
+  'FSHD',
+  'FSSE',
+  'SMTB',
+  'EAHD',
+  'EAIB',
+  'EADB',
+  'FAHD',
+  'FADB',
+];
 
 export interface Hdf5Map {
   /** Superblock size [bytes]. */
@@ -52,7 +73,10 @@ export function mapHdf5(bytes: Uint8Array): Hdf5Map {
       let ok = used > 0;
       for (let i = 0; ok && i < used; i++) {
         const key = o + 24 + i * (keyBytes + 8);
-        if (key + keyBytes + 8 > bytes.length) { ok = false; break; }
+        if (key + keyBytes + 8 > bytes.length) {
+          ok = false;
+          break;
+        }
         const size = view.getUint32(key, true);
         const addr = Number(view.getBigUint64(key + keyBytes, true));
         if (size === 0 || addr < 48 || addr + size > bytes.length) ok = false;

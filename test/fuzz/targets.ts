@@ -37,32 +37,39 @@ export type Depth = 'full' | 'quick';
 
 export function stepsFor(format: FormatId, path: string, bases: BasePaths, depth: Depth = 'full'): Step[] {
   if (format === 'point-csv') {
-    return [{
-      name: 'point',
-      run: async () => {
-        const out = join(dirname(path), `${basename(path)}.out.csv`);
-        try {
-          await runPoint(path, out, { quiet: true });
-        } catch (e) {
-          // Nothing half-written: no output and no temporary file beside it.
-          const left = readdirSync(dirname(path)).filter((f) => f.startsWith(`${basename(path)}.out`));
-          if (left.length > 0) throw new Error(`a failed point run left ${left.join(', ')} behind`);
-          throw e;
-        }
+    return [
+      {
+        name: 'point',
+        run: async () => {
+          const out = join(dirname(path), `${basename(path)}.out.csv`);
+          try {
+            await runPoint(path, out, { quiet: true });
+          } catch (e) {
+            // Nothing half-written: no output and no temporary file beside it.
+            const left = readdirSync(dirname(path)).filter((f) => f.startsWith(`${basename(path)}.out`));
+            if (left.length > 0) throw new Error(`a failed point run left ${left.join(', ')} behind`);
+            throw e;
+          }
+        },
       },
-    }];
+    ];
   }
   if (format === 'atlas-yaml') {
-    return [{
-      name: 'config',
-      run: async () => {
-        const rc = await loadConfig(path);
-        const classesPath = resolve(dirname(rc.path), rc.config.work.classesFile);
-        if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
-        const classes = parseWorkloadClasses(parseYamlStrict(readFileSync(classesPath, 'utf8'), (detail) => ConfigSyntax({ detail }, { file: classesPath })), classesPath);
-        resolveWorkSettings(rc.config.work, classes, { file: rc.path });
+    return [
+      {
+        name: 'config',
+        run: async () => {
+          const rc = await loadConfig(path);
+          const classesPath = resolve(dirname(rc.path), rc.config.work.classesFile);
+          if (!existsSync(classesPath)) throw WorkloadClassesFileMissing({ path: classesPath }, { file: rc.path, key: 'work.classesFile' });
+          const classes = parseWorkloadClasses(
+            parseYamlStrict(readFileSync(classesPath, 'utf8'), (detail) => ConfigSyntax({ detail }, { file: classesPath })),
+            classesPath,
+          );
+          resolveWorkSettings(rc.config.work, classes, { file: rc.path });
+        },
       },
-    }];
+    ];
   }
   const lsm = format === 'netcdf4' ? bases.lsm.netcdf4 : bases.lsm.netcdf3;
   return [
@@ -70,11 +77,17 @@ export function stepsFor(format: FormatId, path: string, bases: BasePaths, depth
     {
       name: 'dataset',
       run: async () => {
-        const ds = await openDataset([path, lsm], { product: 'era5', landSeaMask: { variable: 'lsm', threshold: 0.5 }, digests: false, reuseBlockBuffers: true });
+        const ds = await openDataset([path, lsm], {
+          product: 'era5',
+          landSeaMask: { variable: 'lsm', threshold: 0.5 },
+          digests: false,
+          reuseBlockBuffers: true,
+        });
         try {
           const tile = { y0: 0, y1: ds.grid.lat.length, x0: 0, x1: ds.grid.lon.length };
           const n = ds.time.count;
-          const starts = depth === 'full' ? Array.from({ length: Math.ceil(n / BLOCK_HOURS) }, (_, k) => k * BLOCK_HOURS) : [...new Set([0, Math.max(0, n - BLOCK_HOURS)])];
+          const starts =
+            depth === 'full' ? Array.from({ length: Math.ceil(n / BLOCK_HOURS) }, (_, k) => k * BLOCK_HOURS) : [...new Set([0, Math.max(0, n - BLOCK_HOURS)])];
           for (const t0 of starts) await ds.readBlock(t0, Math.min(BLOCK_HOURS, n - t0), tile);
         } finally {
           await ds.close();

@@ -8,7 +8,9 @@ import { join } from 'node:path';
 /** @param dataDir the `data` folder */
 export function readCellTables(dataDir: string): string {
   const dir = join(dataDir, 'cell-tables');
-  const files = readdirSync(dir).filter((f) => f.endsWith('.csv')).sort();
+  const files = readdirSync(dir)
+    .filter((f) => f.endsWith('.csv'))
+    .sort();
   if (files.length === 0) throw new Error(`no per-cell tables in ${dir}`);
   return files
     .map((f, i) => {

@@ -105,7 +105,20 @@ export async function startSlurmCluster(dir: string): Promise<SlurmCluster> {
     }
     if (mungePid !== undefined && alive(mungePid)) process.kill(mungePid, 'SIGTERM');
   };
-  const logs = () => ['slurmctld.log', 'slurmd.log'].map((f) => `--- ${f}\n${existsSync(join(dir, 'log', f)) ? readFileSync(join(dir, 'log', f), 'utf8').split('\n').slice(-30).join('\n') : '(none)'}`).join('\n');
+  const logs = () =>
+    ['slurmctld.log', 'slurmd.log']
+      .map(
+        (f) =>
+          `--- ${f}\n${
+            existsSync(join(dir, 'log', f))
+              ? readFileSync(join(dir, 'log', f), 'utf8')
+                  .split('\n')
+                  .slice(-30)
+                  .join('\n')
+              : '(none)'
+          }`,
+      )
+      .join('\n');
   // The node is ready when sinfo shows it idle.
   const deadline = Date.now() + 60_000;
   for (;;) {

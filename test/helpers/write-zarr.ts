@@ -21,15 +21,62 @@ import type { RawType, SourceVariable } from '../../pipeline/read/source.ts';
 
 /** Store names of the ERA5 short names (the data store's request names). */
 export const STORE_NAME: Record<string, string> = {
-  t2m: '2m_temperature', d2m: '2m_dewpoint_temperature', u10: '10m_u_component_of_wind', v10: '10m_v_component_of_wind',
-  sp: 'surface_pressure', ssrd: 'surface_solar_radiation_downwards', fdir: 'total_sky_direct_solar_radiation_at_surface',
-  strd: 'surface_thermal_radiation_downwards', lsm: 'land_sea_mask',
+  t2m: '2m_temperature',
+  d2m: '2m_dewpoint_temperature',
+  u10: '10m_u_component_of_wind',
+  v10: '10m_v_component_of_wind',
+  sp: 'surface_pressure',
+  ssrd: 'surface_solar_radiation_downwards',
+  fdir: 'total_sky_direct_solar_radiation_at_surface',
+  strd: 'surface_thermal_radiation_downwards',
+  lsm: 'land_sea_mask',
 };
 
-const V2_DTYPE: Partial<Record<RawType, string>> = { byte: '|i1', ubyte: '|u1', short: '<i2', ushort: '<u2', int: '<i4', uint: '<u4', int64: '<i8', float: '<f4', double: '<f8' };
-const V3_DTYPE: Partial<Record<RawType, string>> = { byte: 'int8', ubyte: 'uint8', short: 'int16', ushort: 'uint16', int: 'int32', uint: 'uint32', int64: 'int64', float: 'float32', double: 'float64' };
-const CTOR: Partial<Record<RawType, new (n: number) => ArrayLike<number> & { buffer: ArrayBufferLike; byteOffset: number; byteLength: number; set(a: ArrayLike<number>, o?: number): void; fill(v: number): unknown }>> = {
-  byte: Int8Array, ubyte: Uint8Array, short: Int16Array, ushort: Uint16Array, int: Int32Array, uint: Uint32Array, float: Float32Array, double: Float64Array, int64: Float64Array,
+const V2_DTYPE: Partial<Record<RawType, string>> = {
+  byte: '|i1',
+  ubyte: '|u1',
+  short: '<i2',
+  ushort: '<u2',
+  int: '<i4',
+  uint: '<u4',
+  int64: '<i8',
+  float: '<f4',
+  double: '<f8',
+};
+const V3_DTYPE: Partial<Record<RawType, string>> = {
+  byte: 'int8',
+  ubyte: 'uint8',
+  short: 'int16',
+  ushort: 'uint16',
+  int: 'int32',
+  uint: 'uint32',
+  int64: 'int64',
+  float: 'float32',
+  double: 'float64',
+};
+const CTOR: Partial<
+  Record<
+    RawType,
+    new (
+      n: number,
+    ) => ArrayLike<number> & {
+      buffer: ArrayBufferLike;
+      byteOffset: number;
+      byteLength: number;
+      set(a: ArrayLike<number>, o?: number): void;
+      fill(v: number): unknown;
+    }
+  >
+> = {
+  byte: Int8Array,
+  ubyte: Uint8Array,
+  short: Int16Array,
+  ushort: Uint16Array,
+  int: Int32Array,
+  uint: Uint32Array,
+  float: Float32Array,
+  double: Float64Array,
+  int64: Float64Array,
 };
 
 export interface WriteZarrOptions {
@@ -77,13 +124,22 @@ export async function writeZarrFromNetcdf(sources: string[], dir: string, o: Wri
   return written;
 }
 
-async function writeArray(sf: Awaited<ReturnType<typeof openSourceFile>>, v: SourceVariable, name: string, dir: string, o: WriteZarrOptions, level: number, meta: Record<string, unknown>): Promise<void> {
+async function writeArray(
+  sf: Awaited<ReturnType<typeof openSourceFile>>,
+  v: SourceVariable,
+  name: string,
+  dir: string,
+  o: WriteZarrOptions,
+  level: number,
+  meta: Record<string, unknown>,
+): Promise<void> {
   const Ctor = CTOR[v.type];
   if (!Ctor) throw new Error(`${v.name}: type ${v.type} not written`);
   const type: RawType = v.type === 'int64' ? 'double' : v.type; // int64 values are read as doubles
   const chunks = v.shape.map((n, i) => (i === 0 && v.dims.length > 1 ? Math.min(o.chunkHours, n) : n));
   const attrs: Record<string, unknown> = {};
-  for (const [k, x] of Object.entries(v.attrs)) attrs[k] = typeof x === 'number' ? jsonNumber(x) : Array.isArray(x) ? x.map((e) => (typeof e === 'number' ? jsonNumber(e) : e)) : x;
+  for (const [k, x] of Object.entries(v.attrs))
+    attrs[k] = typeof x === 'number' ? jsonNumber(x) : Array.isArray(x) ? x.map((e) => (typeof e === 'number' ? jsonNumber(e) : e)) : x;
   let fill: number | null = null;
   if (o.version === 2 && typeof v.attrs._FillValue === 'number') {
     fill = v.attrs._FillValue;
@@ -92,7 +148,16 @@ async function writeArray(sf: Awaited<ReturnType<typeof openSourceFile>>, v: Sou
   const a = join(dir, name);
   mkdirSync(a, { recursive: true });
   if (o.version === 2) {
-    const zarray = { zarr_format: 2, shape: v.shape, chunks, dtype: V2_DTYPE[type], compressor: { id: 'zlib', level }, fill_value: fill === null ? null : jsonNumber(fill), order: 'C', filters: null };
+    const zarray = {
+      zarr_format: 2,
+      shape: v.shape,
+      chunks,
+      dtype: V2_DTYPE[type],
+      compressor: { id: 'zlib', level },
+      fill_value: fill === null ? null : jsonNumber(fill),
+      order: 'C',
+      filters: null,
+    };
     const zattrs = { ...attrs, _ARRAY_DIMENSIONS: v.dims };
     writeFileSync(join(a, '.zarray'), JSON.stringify(zarray));
     writeFileSync(join(a, '.zattrs'), JSON.stringify(zattrs));
@@ -100,13 +165,24 @@ async function writeArray(sf: Awaited<ReturnType<typeof openSourceFile>>, v: Sou
     meta[`${name}/.zattrs`] = zattrs;
   } else {
     const fv = typeof v.attrs._FillValue === 'number' ? jsonNumber(v.attrs._FillValue) : type === 'float' || type === 'double' ? 'NaN' : 0;
-    writeFileSync(join(a, 'zarr.json'), JSON.stringify({
-      zarr_format: 3, node_type: 'array', shape: v.shape, data_type: V3_DTYPE[type],
-      chunk_grid: { name: 'regular', configuration: { chunk_shape: chunks } },
-      chunk_key_encoding: { name: 'default', configuration: { separator: '/' } },
-      fill_value: fv, codecs: [{ name: 'bytes', configuration: { endian: 'little' } }, { name: 'gzip', configuration: { level } }],
-      attributes: attrs, dimension_names: v.dims,
-    }));
+    writeFileSync(
+      join(a, 'zarr.json'),
+      JSON.stringify({
+        zarr_format: 3,
+        node_type: 'array',
+        shape: v.shape,
+        data_type: V3_DTYPE[type],
+        chunk_grid: { name: 'regular', configuration: { chunk_shape: chunks } },
+        chunk_key_encoding: { name: 'default', configuration: { separator: '/' } },
+        fill_value: fv,
+        codecs: [
+          { name: 'bytes', configuration: { endian: 'little' } },
+          { name: 'gzip', configuration: { level } },
+        ],
+        attributes: attrs,
+        dimension_names: v.dims,
+      }),
+    );
   }
   // Chunks along the first dimension only (the grid is one chunk); the last one padded to full size.
   const n0 = v.shape[0];

@@ -22,23 +22,41 @@ import type { ShardSpec } from '../../pipeline/run/plan.ts';
 
 /** A small seeded block of weather on shared arrays: 30 hours × 6 × 7 cells, July 2021, 0–40 °C. */
 function arrays(): PhysicsArrays {
-  const nT = 30, nY = 6, nX = 7, n = nT * nY * nX;
+  const nT = 30,
+    nY = 6,
+    nX = 7,
+    n = nT * nY * nX;
   let s = 12345;
-  const rnd = () => ((s = (s * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff);
+  const rnd = () => (s = (s * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
   const f = () => sharedFloat32(n);
   const a: PhysicsArrays = {
     time: Float64Array.from({ length: nT }, (_, t) => Date.UTC(2021, 6, 15, t)),
-    lat: Float64Array.from({ length: nY }, (_, i) => 5 + 4 * i), lon: Float64Array.from({ length: nX }, (_, i) => 20 + 6 * i),
-    airTemperature: f(), dewPointTemperature: f(), surfacePressure: f(), windSpeed: f(), solarGlobal: f(), solarDirect: f(),
-    cosZenith: f(), directFraction: f(), solar: f(), wind2m: f(), wbgtSun: f(), wbgtShade: f(),
-    globeSun: f(), wetBulbSun: f(), globeShade: f(), wetBulbShade: f(), status: sharedUint8(n),
+    lat: Float64Array.from({ length: nY }, (_, i) => 5 + 4 * i),
+    lon: Float64Array.from({ length: nX }, (_, i) => 20 + 6 * i),
+    airTemperature: f(),
+    dewPointTemperature: f(),
+    surfacePressure: f(),
+    windSpeed: f(),
+    solarGlobal: f(),
+    solarDirect: f(),
+    cosZenith: f(),
+    directFraction: f(),
+    solar: f(),
+    wind2m: f(),
+    wbgtSun: f(),
+    wbgtShade: f(),
+    globeSun: f(),
+    wetBulbSun: f(),
+    globeShade: f(),
+    wetBulbShade: f(),
+    status: sharedUint8(n),
   };
   for (let i = 0; i < n; i++) {
     a.airTemperature[i] = 40 * rnd();
     a.dewPointTemperature[i] = a.airTemperature[i] - 1 - 20 * rnd();
     a.surfacePressure[i] = 900 + 120 * rnd();
     a.windSpeed[i] = 0.2 + 8 * rnd();
-    a.solarGlobal[i] = (Math.floor(i / (nY * nX)) % 24) > 12 ? 900 * rnd() : 0;
+    a.solarGlobal[i] = Math.floor(i / (nY * nX)) % 24 > 12 ? 900 * rnd() : 0;
     a.solarDirect![i] = NaN;
   }
   return a;
@@ -68,7 +86,12 @@ describe('the worker pool', () => {
     const job = (year: number, path: string): YearJob => ({ path, grid: SMALL_GRID, seed: 7, year, layout: 'legacy', preliminaryFromMs: Infinity });
     const jobs = [job(2021, join(dir, 'a.nc')), job(2022, join(dir, 'not-a-folder', 'b.nc')), job(2023, join(dir, 'c.nc'))];
     let hours = 0;
-    const run = runInWorkers<YearJob, void>('demo-year', jobs, { size: 2, describe: (j) => `demo year ${j.year}`, onProgress: (_j, h) => (hours += h), onFailure: 'drain' });
+    const run = runInWorkers<YearJob, void>('demo-year', jobs, {
+      size: 2,
+      describe: (j) => `demo year ${j.year}`,
+      onProgress: (_j, h) => (hours += h),
+      onFailure: 'drain',
+    });
     await expect(run).rejects.toThrow(/^demo year 2022 failed in a worker: Error: (ENOTDIR|EEXIST)/);
     // 2021 was being written when 2022 failed: it finished (two passes over its 8,760 hours: the
     // packing ranges, then the values); 2022 failed opening its file after its first pass; 2023
@@ -81,7 +104,10 @@ describe('the worker pool', () => {
   it('a catalogued error raised in a worker arrives as the same catalogued error (a compute task whose input file is missing)', async () => {
     const init = { files: ['/nowhere/era5-2021.nc'], datasetOptions: { product: 'era5' as const, digests: false }, context: {} as WorkerInit['context'] };
     const shard = { id: 't00-y2021-m01' } as ShardSpec;
-    const err = await runTasks([{ kind: 'compute', task: { id: 'g00-y2021-m01', shards: [shard], blockHours: 744 }, stores: {} }], init, 1, {}).then(() => undefined, (e: unknown) => e);
+    const err = await runTasks([{ kind: 'compute', task: { id: 'g00-y2021-m01', shards: [shard], blockHours: 744 }, stores: {} }], init, 1, {}).then(
+      () => undefined,
+      (e: unknown) => e,
+    );
     expect(err).toBeInstanceOf(HeathoursError);
     expect((err as HeathoursError).code).toBe('NetcdfFileNotFound');
     expect((err as HeathoursError).where.file).toBe('/nowhere/era5-2021.nc');
@@ -93,21 +119,27 @@ describe('the worker pool', () => {
     const pool = startShardPool(1, new Promise<WorkerInit>((ok) => (give = ok)));
     try {
       const task = { kind: 'compute' as const, task: { id: 'g00-y2021-m01', shards: [{ id: 't00-y2021-m01' } as ShardSpec], blockHours: 744 }, stores: {} };
-      const first = runTasks([task], pool, 1, {}).then(() => undefined, (e: unknown) => e);
+      const first = runTasks([task], pool, 1, {}).then(
+        () => undefined,
+        (e: unknown) => e,
+      );
       // The worker reads the files the set-up names, given only now.
       give({ files: ['/later/era5-2021.nc'], datasetOptions: { product: 'era5' as const, digests: false }, context: {} as WorkerInit['context'] });
       const err = await first;
       expect((err as HeathoursError).code).toBe('NetcdfFileNotFound');
       expect((err as HeathoursError).where.file).toBe('/later/era5-2021.nc');
       // That run failed with its one task answered (nothing in flight): the kept pool serves the next run.
-      const again = await runTasks([task], pool, 1, {}).then(() => undefined, (e: unknown) => e);
+      const again = await runTasks([task], pool, 1, {}).then(
+        () => undefined,
+        (e: unknown) => e,
+      );
       expect((again as HeathoursError).code).toBe('NetcdfFileNotFound');
     } finally {
       await pool.close();
     }
   }, 60_000);
 
-  it('a set-up that fails stops the pool started before it: a run rejects with the set-up\'s reason', async () => {
+  it("a set-up that fails stops the pool started before it: a run rejects with the set-up's reason", async () => {
     const pool = startShardPool(2, Promise.reject(new Error('the plan failed')));
     try {
       await expect(runTasks([{ kind: 'summary', hours: [0, 1], key: 'k' }], pool, 2, {})).rejects.toThrow('the plan failed');

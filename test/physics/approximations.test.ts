@@ -21,7 +21,11 @@ describe('simplified estimates (approximations)', () => {
     expect(naturalWetBulbBernard(30, 22, 45, 2.0)).toBeCloseTo(25.65, 2);
   });
   it('wbgtIndoorLemkeKjellstrom gives Tpwb/WBGT 22.97/25.29, 27.49/29.97, 23.10/28.68 °C (docs/methods.md §7.2)', () => {
-    for (const [t, td, tp, w] of [[30, 20, 22.97, 25.29], [35, 25, 27.49, 29.97], [40, 15, 23.1, 28.68]]) {
+    for (const [t, td, tp, w] of [
+      [30, 20, 22.97, 25.29],
+      [35, 25, 27.49, 29.97],
+      [40, 15, 23.1, 28.68],
+    ]) {
       const r = wbgtIndoorLemkeKjellstrom(t, td);
       expect(r.tpwb).toBeCloseTo(tp, 1);
       expect(r.wbgt).toBeCloseTo(w, 1);

@@ -9,8 +9,18 @@ import { runPoint } from '../../pipeline/commands/point.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
 
 const base: PointInput = {
-  timeMs: Date.UTC(2010, 6, 1, 12), avgMinutes: 60, lat: 10, lon: 0, ta: 30, rh: 50, pressure: 1000,
-  wind: 2, windHeight: 10, urban: false, dt: 0, solar: 700,
+  timeMs: Date.UTC(2010, 6, 1, 12),
+  avgMinutes: 60,
+  lat: 10,
+  lon: 0,
+  ta: 30,
+  rh: 50,
+  pressure: 1000,
+  wind: 2,
+  windHeight: 10,
+  urban: false,
+  dt: 0,
+  solar: 700,
 };
 
 describe('out-of-range inputs get a status, not a number', () => {
@@ -62,16 +72,22 @@ describe('heathours point files', () => {
   it('a missing required column is named; a missing file is PointInputNotFound', async () => {
     const inp = join(dir, 'nolat.csv');
     writeFileSync(inp, 'time_utc,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2\n');
-    await expect(runPoint(inp, join(dir, 'o.csv'), { quiet: true })).rejects.toMatchObject({ code: 'PointMissingColumn', message: expect.stringContaining('"lat"') });
+    await expect(runPoint(inp, join(dir, 'o.csv'), { quiet: true })).rejects.toMatchObject({
+      code: 'PointMissingColumn',
+      message: expect.stringContaining('"lat"'),
+    });
     await expect(runPoint(join(dir, 'none.csv'), join(dir, 'o.csv'), { quiet: true })).rejects.toMatchObject({ code: 'PointInputNotFound' });
   });
   it('quoted fields and CRLF are read; a bad row gets empty outputs and a status and the run goes on', async () => {
     const inp = join(dir, 'ok.csv');
-    writeFileSync(inp, [
-      'site,time_utc,lat,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2',
-      '"Yard, north",2007-07-15T18:30:00Z,41.88,-87.63,32,50,1000,3,800',
-      '"say ""hi""",2007-07-15T18:30:00Z,41.88,-87.63,32,0,1000,3,800',
-    ].join('\r\n') + '\r\n');
+    writeFileSync(
+      inp,
+      [
+        'site,time_utc,lat,lon,ta_c,rh_pct,pressure_hpa,wind_ms,solar_wm2',
+        '"Yard, north",2007-07-15T18:30:00Z,41.88,-87.63,32,50,1000,3,800',
+        '"say ""hi""",2007-07-15T18:30:00Z,41.88,-87.63,32,0,1000,3,800',
+      ].join('\r\n') + '\r\n',
+    );
     const out = join(dir, 'ok-out.csv');
     const s = await runPoint(inp, out, { quiet: true, globeDiameter: 0.0508 }); // the reference's 2-inch globe
     expect(s.rows).toBe(2);
@@ -80,8 +96,19 @@ describe('heathours point files', () => {
     const lines = readFileSync(out, 'utf8').trim().split('\r\n');
     const head = lines[0].split(',');
     expect(head.slice(9, 22)).toEqual([
-      'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
-      'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
+      'cos_zenith',
+      'direct_fraction',
+      'wind_2m_ms',
+      'tg_c',
+      'tnwb_c',
+      'tpsy_c',
+      'wbgt_c',
+      'tg_shade_c',
+      'tnwb_shade_c',
+      'wbgt_shade_c',
+      'tg_shelter_c',
+      'tnwb_shelter_c',
+      'wbgt_shelter_c',
     ]);
     expect(head.at(-1)).toBe('status');
     expect(lines[1].startsWith('"Yard, north",')).toBe(true);

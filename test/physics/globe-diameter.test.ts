@@ -31,15 +31,26 @@ const SCIPY: Array<[[number, number, number, number, number, number, number], nu
   [[35, 40, 1000, 2.0, 900, 0.8, 0.9], 50.208782, 57.412948],
   [[25, 80, 1010, 0.5, 0, 0.0, 0.5], 23.931044, 23.480819],
   [[40, 20, 950, 3.0, 1000, 0.85, 0.95], 53.651237, 60.406179],
-  [[32, 60, 1005, 0.2, 650, 0.6, 0.45], 62.341458, 70.711170],
+  [[32, 60, 1005, 0.2, 650, 0.6, 0.45], 62.341458, 70.71117],
 ];
 
 function globeAt(d: number, [ta, rh, p, u, s, f, cz]: number[]): { tg: number; wbgt: number } {
   const a = (x: number) => Float64Array.of(x);
   const o = { wbgtSun: a(0), wbgtShade: a(0), globeSun: a(0), status: new Uint8Array(1) };
   wbgtKernel(
-    { airTemperature: a(ta), dewPointTemperature: a(dewPointFromRelativeHumidity(ta, rh)), surfacePressure: a(p), wind2m: a(u), solar: a(s), cosZenith: a(cz), directFraction: a(f) },
-    o, 1, 0, globeFactors(d),
+    {
+      airTemperature: a(ta),
+      dewPointTemperature: a(dewPointFromRelativeHumidity(ta, rh)),
+      surfacePressure: a(p),
+      wind2m: a(u),
+      solar: a(s),
+      cosZenith: a(cz),
+      directFraction: a(f),
+    },
+    o,
+    1,
+    0,
+    globeFactors(d),
   );
   expect(o.status[0]).toBe(0);
   return { tg: o.globeSun[0], wbgt: o.wbgtSun[0] };
@@ -68,7 +79,11 @@ describe('the globe diameter', () => {
     const demo = readFileSync(new URL('../../content/atlas.yaml', import.meta.url), 'utf8');
     expect(parseConfig(demo, 'a.yaml').physics).toEqual({ globeDiameter: 0.15 });
     expect(parseConfig(`${demo}\nphysics: { globeDiameter: 0.0508 }\n`, 'a.yaml').physics.globeDiameter).toBe(0.0508);
-    expectCatalogued(() => parseConfig(`${demo}\nphysics: { globeDiameter: 150 }\n`, 'a.yaml'), 'ConfigInvalid', /physics\.globeDiameter: must be at most 0\.3 m \(the diameter is in metres/);
+    expectCatalogued(
+      () => parseConfig(`${demo}\nphysics: { globeDiameter: 150 }\n`, 'a.yaml'),
+      'ConfigInvalid',
+      /physics\.globeDiameter: must be at most 0\.3 m \(the diameter is in metres/,
+    );
     expectCatalogued(() => parseConfig(`${demo}\nphysics: { globe: 0.15 }\n`, 'a.yaml'), 'ConfigInvalid', /physics: unknown key\(s\) "globe"/);
   });
 
@@ -79,7 +94,10 @@ describe('the globe diameter', () => {
     await expect(runPoint(inp, join(dir, 'out.csv'), { quiet: true, globeDiameter: 150 })).rejects.toMatchObject({ code: 'PointOptionInvalid' });
     expect(existsSync(join(dir, 'out.csv'))).toBe(false);
     await runPoint(inp, join(dir, 'out.csv'), { quiet: true });
-    const [head, row] = readFileSync(join(dir, 'out.csv'), 'utf8').trim().split('\r\n').map((l) => l.split(','));
+    const [head, row] = readFileSync(join(dir, 'out.csv'), 'utf8')
+      .trim()
+      .split('\r\n')
+      .map((l) => l.split(','));
     const v = (k: string) => Number(row[head.indexOf(k)]);
     expect(v('wbgt_shelter_c')).toBeGreaterThan(v('wbgt_shade_c'));
     expect(v('wbgt_c')).toBeGreaterThan(v('wbgt_shelter_c'));
@@ -93,12 +111,24 @@ describe('the globe diameter', () => {
     const read = [...src.matchAll(/\b(?:cell|num|flag)\('([a-z_0-9]+)'/g)].map((m) => m[1]);
     expect(read.length).toBeGreaterThan(12);
     for (const c of read) expect(POINT_HELP, c).toContain(c);
-    for (const c of ['tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c', 'tpsy_c', 'status']) expect(POINT_HELP).toContain(c);
+    for (const c of ['tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c', 'tpsy_c', 'status'])
+      expect(POINT_HELP).toContain(c);
   });
 
   it('enters every shard\u2019s cache key: a changed diameter recomputes the shard and says why', () => {
-    const base = { code: { version: 'x', sources: 'y', partialFormat: 1 }, inputs: [], shard: { year: 2021, utcYear: 2021, hours: ['a', 'b'], tile: { y0: 0, y1: 1, x0: 0, x1: 1 }, cells: 'c' } };
-    const settings = (d: number) => ({ product: 'era5', landSeaMask: null, timeZone: 'UTC', shift: { start: 7, end: 17, days: ['mon'] }, evaluations: [], physics: { globeDiameter: d } });
+    const base = {
+      code: { version: 'x', sources: 'y', partialFormat: 1 },
+      inputs: [],
+      shard: { year: 2021, utcYear: 2021, hours: ['a', 'b'], tile: { y0: 0, y1: 1, x0: 0, x1: 1 }, cells: 'c' },
+    };
+    const settings = (d: number) => ({
+      product: 'era5',
+      landSeaMask: null,
+      timeZone: 'UTC',
+      shift: { start: 7, end: 17, days: ['mon'] },
+      evaluations: [],
+      physics: { globeDiameter: d },
+    });
     const old = { ...base, settings: settings(0.0508) } as unknown as ShardProvenance;
     const now = { ...base, settings: settings(0.15) } as unknown as ShardProvenance;
     expect(explainChange(old, now)).toEqual(['physics settings changed (globe diameter 0.0508 → 0.15 m)']);

@@ -1,16 +1,36 @@
 import { describe, it, expect } from 'vitest';
 import {
-  saturationVaporPressureBuck1981, saturationVaporPressureHylandWexler, saturationVaporPressureBuck1996,
-  relativeHumidityFromDewPoint, vaporPressureFromDewPoint, dewPointFromVaporPressure,
+  saturationVaporPressureBuck1981,
+  saturationVaporPressureHylandWexler,
+  saturationVaporPressureBuck1996,
+  relativeHumidityFromDewPoint,
+  vaporPressureFromDewPoint,
+  dewPointFromVaporPressure,
 } from '../../pipeline/physics/humidity.ts';
 import {
-  cosZenithInstant, cosZenithApparentInstant, noaaCosZenith, noaaDeclination, noaaEquationOfTime, noaaFractionalYear,
-  periodCosines, cosZenithPeriodMean, solarYearSupported, earthSunDistanceAu, topOfAtmosphereIrradiance,
-  apparentCosZenith, apparentCosZenithFast,
+  cosZenithInstant,
+  cosZenithApparentInstant,
+  noaaCosZenith,
+  noaaDeclination,
+  noaaEquationOfTime,
+  noaaFractionalYear,
+  periodCosines,
+  cosZenithPeriodMean,
+  solarYearSupported,
+  earthSunDistanceAu,
+  topOfAtmosphereIrradiance,
+  apparentCosZenith,
+  apparentCosZenithFast,
 } from '../../pipeline/physics/solar-position.ts';
 
 // CRC Handbook of Chemistry and Physics 1992–93, "Vapor pressure of water" [kPa] (docs/methods.md §3.3).
-const CRC: [number, number][] = [[0, 0.61129], [10, 1.2281], [20, 2.3388], [30, 4.2455], [40, 7.3814]];
+const CRC: [number, number][] = [
+  [0, 0.61129],
+  [10, 1.2281],
+  [20, 2.3388],
+  [30, 4.2455],
+  [40, 7.3814],
+];
 
 describe('saturation vapour pressure', () => {
   it('saturationVaporPressureBuck1981 matches the CRC Handbook table within 0.1 % over 0–40 °C', () => {
@@ -52,7 +72,12 @@ describe('solar geometry', () => {
     expect(cosZenithInstant(Date.UTC(2024, 5, 21, 12), 23.44, 0)).toBeCloseTo(1, 3);
   });
   it('hour-mean cosines match the docs/methods.md §4.2 table (30 °N 0 °E, doy 172) within 0.002', () => {
-    const rows: [number, number, number][] = [[6, 0.0915, 0.0968], [7, 0.298, 0.298], [13, 0.985, 0.985], [19, 0.1004, 0.1014]];
+    const rows: [number, number, number][] = [
+      [6, 0.0915, 0.0968],
+      [7, 0.298, 0.298],
+      [13, 0.985, 0.985],
+      [19, 0.1004, 0.1014],
+    ];
     for (const [end, mean, sun] of rows) {
       const pc = periodCosines(Date.UTC(2024, 5, 20, end), 60, 30, 0);
       expect(Math.abs(pc.mean - mean)).toBeLessThan(0.002);
@@ -81,7 +106,9 @@ describe('solar geometry', () => {
     // Reference: the exact form in the same file (Michalsky 1988 refraction); dense sweep plus the
     // cut-off at −0.56°, the split between the tables, and the top where the result is 1.
     let worst = 0;
-    const check = (c: number) => { worst = Math.max(worst, Math.abs(apparentCosZenithFast(c) - apparentCosZenith(c))); };
+    const check = (c: number) => {
+      worst = Math.max(worst, Math.abs(apparentCosZenithFast(c) - apparentCosZenith(c)));
+    };
     for (let k = 0; k <= 200_000; k++) check(-0.02 + (1.02 * k) / 200_000 + 1e-9 * Math.sin(k));
     for (const c of [-1, -0.0098, Math.sin((-0.56 * Math.PI) / 180), 0, 0.01, 0.7499999999, 0.75, 0.99999999, 1 - 1e-12, 1, 1.0000001]) check(c);
     expect(worst).toBeLessThan(1e-12);

@@ -56,7 +56,11 @@ describe('pinned intermediates (hand-computed from docs/methods.md §6.3–§6.4
   });
   it('the solver’s hoisted wick coefficient C_w·W(T) equals h_w, and Z(T) equals ΔH/RATIO·(Pr/Sc)^0.56', () => {
     const s = new CellState();
-    for (const [pp, uu] of [[1013.25, 1], [700, 0.05], [950, 7]]) {
+    for (const [pp, uu] of [
+      [1013.25, 1],
+      [700, 0.05],
+      [950, 7],
+    ]) {
       prepareCell(s, 30, 19, pp, uu, 0, 0, 0.5);
       for (const t of [270, 303.15, 330]) {
         expect((s.cw * wExact(t)) / P.cylinderHeatTransfer(D_WICK, t, pp, uu)).toBeCloseTo(1, 10);
@@ -67,7 +71,11 @@ describe('pinned intermediates (hand-computed from docs/methods.md §6.3–§6.4
   it('property tables reproduce e_s, Z and W to a relative 1e-8 over 200–380 K', () => {
     const out = new Float64Array(2);
     for (let t = 200; t < 380; t += 0.0731) {
-      for (const [tab, f] of [[ES_TABLE, esExact], [Z_TABLE, zExact], [W_TABLE, wExact]] as const) {
+      for (const [tab, f] of [
+        [ES_TABLE, esExact],
+        [Z_TABLE, zExact],
+        [W_TABLE, wExact],
+      ] as const) {
         expect(lookup(tab, t, out, 0)).toBe(true);
         expect(Math.abs(out[0] / f(t) - 1)).toBeLessThan(1e-8);
       }

@@ -20,9 +20,13 @@ describe('the fast kernel equals the readable solver', () => {
     const states = Array.from({ length: N }, (_, i) => state(r, i % 8));
     const a = () => new Float64Array(N);
     const inputs = {
-      airTemperature: Float64Array.from(states, (s) => s.ta), dewPointTemperature: Float64Array.from(states, (s) => s.td),
-      surfacePressure: Float64Array.from(states, (s) => s.p), wind2m: Float64Array.from(states, (s) => s.u),
-      solar: Float64Array.from(states, (s) => s.sol), cosZenith: Float64Array.from(states, (s) => s.cz), directFraction: Float64Array.from(states, (s) => s.fd),
+      airTemperature: Float64Array.from(states, (s) => s.ta),
+      dewPointTemperature: Float64Array.from(states, (s) => s.td),
+      surfacePressure: Float64Array.from(states, (s) => s.p),
+      wind2m: Float64Array.from(states, (s) => s.u),
+      solar: Float64Array.from(states, (s) => s.sol),
+      cosZenith: Float64Array.from(states, (s) => s.cz),
+      directFraction: Float64Array.from(states, (s) => s.fd),
     };
     const s = new CellState();
     let compared = 0;
@@ -31,8 +35,17 @@ describe('the fast kernel equals the readable solver', () => {
     for (const d of [D_GLOBE, D_GLOBE_STANDARD]) {
       const g = globeFactors(d);
       const o = {
-        wbgtSun: a(), wbgtShade: a(), globeSun: a(), wetBulbSun: a(), globeShade: a(), wetBulbShade: a(),
-        wbgtShelter: a(), globeShelter: a(), wetBulbShelter: a(), psychrometric: a(), status: new Uint8Array(N),
+        wbgtSun: a(),
+        wbgtShade: a(),
+        globeSun: a(),
+        wetBulbSun: a(),
+        globeShade: a(),
+        wetBulbShade: a(),
+        wbgtShelter: a(),
+        globeShelter: a(),
+        wetBulbShelter: a(),
+        psychrometric: a(),
+        status: new Uint8Array(N),
       };
       const counts = wbgtKernel(inputs, o, N, 0, g);
       expect(counts.ok).toBe(N);
@@ -44,10 +57,15 @@ describe('the fast kernel equals the readable solver', () => {
         const tpsy = psychrometricWetBulb(s);
         const wbgt = (tw: number, tg: number) => 0.7 * (tw - KELVIN) + 0.2 * (tg - KELVIN) + 0.1 * x.ta;
         const pairs: Array<[number, number]> = [
-          [o.globeShade[i], s.tgShade - KELVIN], [o.wetBulbShade[i], s.twShade - KELVIN],
-          [o.globeSun[i], s.tgSun - KELVIN], [o.wetBulbSun[i], s.twSun - KELVIN],
-          [o.globeShelter[i], s.tgShelter - KELVIN], [o.wetBulbShelter[i], s.twShelter - KELVIN],
-          [o.wbgtShade[i], wbgt(s.twShade, s.tgShade)], [o.wbgtSun[i], wbgt(s.twSun, s.tgSun)], [o.wbgtShelter[i], wbgt(s.twShelter, s.tgShelter)],
+          [o.globeShade[i], s.tgShade - KELVIN],
+          [o.wetBulbShade[i], s.twShade - KELVIN],
+          [o.globeSun[i], s.tgSun - KELVIN],
+          [o.wetBulbSun[i], s.twSun - KELVIN],
+          [o.globeShelter[i], s.tgShelter - KELVIN],
+          [o.wetBulbShelter[i], s.twShelter - KELVIN],
+          [o.wbgtShade[i], wbgt(s.twShade, s.tgShade)],
+          [o.wbgtSun[i], wbgt(s.twSun, s.tgSun)],
+          [o.wbgtShelter[i], wbgt(s.twShelter, s.tgShelter)],
           [o.psychrometric[i], tpsy - KELVIN],
         ];
         for (const [fast, readable] of pairs) {

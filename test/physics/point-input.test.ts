@@ -39,7 +39,10 @@ describe('time_utc is UTC', () => {
     const inp = file(`${HEAD}\n${ROW('2024-07-15 12:00')}\n${ROW('2024-07-15T12:00Z')}\n`);
     const results = ['UTC', 'Asia/Tokyo'].map((tz) => {
       const o = out();
-      const r = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'point', '--in', inp, '--out', o, '--quiet'], { encoding: 'utf8', env: { ...process.env, TZ: tz } });
+      const r = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'point', '--in', inp, '--out', o, '--quiet'], {
+        encoding: 'utf8',
+        env: { ...process.env, TZ: tz },
+      });
       expect(r.status, r.stderr).toBe(0);
       return wbgtOf(o);
     });
@@ -51,7 +54,8 @@ describe('time_utc is UTC', () => {
   it('Z, +00:00, -0000 and a space or T are accepted; a contradicting offset is PointTimeNotUtc, an impossible date PointBadTime, naming the row', async () => {
     const at = { path: 'x.csv', row: 7 };
     const t = Date.UTC(2024, 6, 15, 12);
-    for (const s of ['2024-07-15T12:00Z', '2024-07-15 12:00:00+00:00', '2024-07-15T12:00:00.000-0000', '2024-07-15T12:00']) expect(parseUtcStamp(s, at)).toBe(t);
+    for (const s of ['2024-07-15T12:00Z', '2024-07-15 12:00:00+00:00', '2024-07-15T12:00:00.000-0000', '2024-07-15T12:00'])
+      expect(parseUtcStamp(s, at)).toBe(t);
     expectCatalogued(() => parseUtcStamp('2024-07-15T12:00+09:00', at), 'PointTimeNotUtc', /offset \+09:00[\s\S]*row 7/);
     expectCatalogued(() => parseUtcStamp('2024-02-30T12:00Z', at), 'PointBadTime', /not a date and time of the calendar/);
     expectCatalogued(() => parseUtcStamp('15/07/2024 12:00', at), 'PointBadTime', /ISO 8601/);
@@ -83,15 +87,27 @@ describe('damaged point tables', () => {
   });
 
   it('a row with more or fewer fields than the header is PointBadRow naming the line', async () => {
-    await expectCataloguedAsync(runPoint(file(`${HEAD}\n${ROW('2024-07-15T12:00Z')},9\n`), out(), { quiet: true }), 'PointBadRow', /line 2 has 9 field\(s\), the header has 8/);
-    await expectCataloguedAsync(runPoint(file(`${HEAD}\n${ROW('2024-07-15T12:00Z').replace(/,800$/, '')}\n`), out(), { quiet: true }), 'PointBadRow', /line 2 has 7 field/);
+    await expectCataloguedAsync(
+      runPoint(file(`${HEAD}\n${ROW('2024-07-15T12:00Z')},9\n`), out(), { quiet: true }),
+      'PointBadRow',
+      /line 2 has 9 field\(s\), the header has 8/,
+    );
+    await expectCataloguedAsync(
+      runPoint(file(`${HEAD}\n${ROW('2024-07-15T12:00Z').replace(/,800$/, '')}\n`), out(), { quiet: true }),
+      'PointBadRow',
+      /line 2 has 7 field/,
+    );
     await expectCataloguedAsync(runPoint(file(`${HEAD},lat\n`), out(), { quiet: true }), 'PointBadRow', /names column "lat" twice/);
   });
 
   it('a cell that is not a decimal number, or too large to be one, is PointBadValue naming row and column; NA, NaN and empty are missing; 1e300 °C is a row status', async () => {
     for (const bad of ['12abc', '0x1F', '1,5', 'Infinity', '1e309', '9'.repeat(400)]) {
       const inp = file(`${HEAD}\n${ROW('2024-07-15T12:00Z', bad.includes(',') ? `"${bad}"` : bad)}\n`);
-      await expectCataloguedAsync(runPoint(inp, out(), { quiet: true }), 'PointBadValue', /ta_c is "[^"]*"; expected a (finite )?decimal number[\s\S]*key ta_c, row 2/);
+      await expectCataloguedAsync(
+        runPoint(inp, out(), { quiet: true }),
+        'PointBadValue',
+        /ta_c is "[^"]*"; expected a (finite )?decimal number[\s\S]*key ta_c, row 2/,
+      );
     }
     const inp = file(`${HEAD}\n${ROW('2024-07-15T12:00Z', 'NA')}\n${ROW('2024-07-15T12:00Z', '')}\n${ROW('2024-07-15T12:00Z', '1e300')}\n`);
     const s = await runPoint(inp, out(), { quiet: true });

@@ -19,8 +19,17 @@ const dir = mkdtempSync(join(tmpdir(), 'heathours-point-work-'));
 
 /** A night row (no solar, so sun WBGT = shade WBGT) with the air temperature left free. */
 const night: Omit<PointInput, 'ta'> = {
-  timeMs: Date.UTC(2010, 6, 1, 0), avgMinutes: 60, lat: 0, lon: 0, rh: 60, pressure: 1013.25,
-  wind: 2, windHeight: 10, urban: false, dt: 0, solar: 0,
+  timeMs: Date.UTC(2010, 6, 1, 0),
+  avgMinutes: 60,
+  lat: 0,
+  lon: 0,
+  rh: 60,
+  pressure: 1013.25,
+  wind: 2,
+  windHeight: 10,
+  urban: false,
+  dt: 0,
+  solar: 0,
 };
 
 /** Air temperature [°C] at which the row's WBGT is `target` [°C], by bisection (WBGT rises with Ta). */
@@ -55,11 +64,35 @@ describe('point work columns', () => {
     await runPoint(inp, join(dir, 'a.csv'), { quiet: true });
     const { head } = readOut(join(dir, 'a.csv'));
     expect(head).toEqual([
-      'time_utc', 'lat', 'lon', 'ta_c', 'rh_pct', 'pressure_hpa', 'wind_ms', 'solar_wm2',
-      'cos_zenith', 'direct_fraction', 'wind_2m_ms', 'tg_c', 'tnwb_c', 'tpsy_c', 'wbgt_c',
-      'tg_shade_c', 'tnwb_shade_c', 'wbgt_shade_c', 'tg_shelter_c', 'tnwb_shelter_c', 'wbgt_shelter_c',
-      'limit_low_c', 'work_fraction_low', 'limit_moderate_c', 'work_fraction_moderate',
-      'limit_high_c', 'work_fraction_high', 'limit_very_high_c', 'work_fraction_very_high',
+      'time_utc',
+      'lat',
+      'lon',
+      'ta_c',
+      'rh_pct',
+      'pressure_hpa',
+      'wind_ms',
+      'solar_wm2',
+      'cos_zenith',
+      'direct_fraction',
+      'wind_2m_ms',
+      'tg_c',
+      'tnwb_c',
+      'tpsy_c',
+      'wbgt_c',
+      'tg_shade_c',
+      'tnwb_shade_c',
+      'wbgt_shade_c',
+      'tg_shelter_c',
+      'tnwb_shelter_c',
+      'wbgt_shelter_c',
+      'limit_low_c',
+      'work_fraction_low',
+      'limit_moderate_c',
+      'work_fraction_moderate',
+      'limit_high_c',
+      'work_fraction_high',
+      'limit_very_high_c',
+      'work_fraction_very_high',
       'status',
     ]);
     expect(classColumns('very-high')).toEqual(['limit_very_high_c', 'work_fraction_very_high']);
@@ -96,18 +129,26 @@ describe('point work columns', () => {
 
   it('--classes FILE uses that file’s classes and rest rate; a missing or invalid file is a catalogued error', async () => {
     const yaml = join(dir, 'classes.yaml');
-    writeFileSync(yaml, [
-      'rest: { name: Rest, metabolicRate: 115, description: Break. }',
-      'classes:',
-      '  - { id: heavy-dig, name: Digging, metabolicRate: 415, description: Digging trenches. }',
-    ].join('\n'));
+    writeFileSync(
+      yaml,
+      [
+        'rest: { name: Rest, metabolicRate: 115, description: Break. }',
+        'classes:',
+        '  - { id: heavy-dig, name: Digging, metabolicRate: 415, description: Digging trenches. }',
+      ].join('\n'),
+    );
     await runPoint(inp, join(dir, 'e.csv'), { quiet: true, classesFile: yaml });
     const { head, rows } = readOut(join(dir, 'e.csv'));
     expect(head.slice(-3)).toEqual(['limit_heavy_dig_c', 'work_fraction_heavy_dig', 'status']);
     expect(Math.abs(Number(rows[0].work_fraction_heavy_dig) - 0.66)).toBeLessThan(0.0015);
-    await expect(runPoint(inp, join(dir, 'f.csv'), { quiet: true, classesFile: join(dir, 'none.yaml') })).rejects.toMatchObject({ code: 'PointClassesNotFound' });
+    await expect(runPoint(inp, join(dir, 'f.csv'), { quiet: true, classesFile: join(dir, 'none.yaml') })).rejects.toMatchObject({
+      code: 'PointClassesNotFound',
+    });
     const bad = join(dir, 'bad.yaml');
-    writeFileSync(bad, 'rest: { name: Rest, metabolicRate: 115, description: Break. }\nclasses:\n  - { id: x, name: X, metabolicRate: 100, description: Too low. }\n');
+    writeFileSync(
+      bad,
+      'rest: { name: Rest, metabolicRate: 115, description: Break. }\nclasses:\n  - { id: x, name: X, metabolicRate: 100, description: Too low. }\n',
+    );
     await expect(runPoint(inp, join(dir, 'g.csv'), { quiet: true, classesFile: bad })).rejects.toMatchObject({ code: 'RestRateNotBelowWork' });
     const broken = join(dir, 'broken.yaml');
     writeFileSync(broken, 'rest: [unclosed\n');

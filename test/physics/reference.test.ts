@@ -24,7 +24,19 @@ const rows = csv.slice(1).map((l) => {
 function kernelOne(ta: number, rh: number, p: number, u2: number, s: number, f: number, cz: number) {
   const a = (x: number) => Float64Array.of(x);
   const o = { wbgtSun: a(0), wbgtShade: a(0), globeSun: a(0), wetBulbSun: a(0), psychrometric: a(0), status: new Uint8Array(1) };
-  wbgtKernel({ airTemperature: a(ta), dewPointTemperature: a(dewPointFromRelativeHumidity(ta, rh)), surfacePressure: a(p), wind2m: a(u2), solar: a(s), cosZenith: a(cz), directFraction: a(f) }, o, 1);
+  wbgtKernel(
+    {
+      airTemperature: a(ta),
+      dewPointTemperature: a(dewPointFromRelativeHumidity(ta, rh)),
+      surfacePressure: a(p),
+      wind2m: a(u2),
+      solar: a(s),
+      cosZenith: a(cz),
+      directFraction: a(f),
+    },
+    o,
+    1,
+  );
   return { status: o.status[0], tg: o.globeSun[0], tnwb: o.wetBulbSun[0], tpsy: o.psychrometric[0], wbgt: o.wbgtSun[0] };
 }
 
@@ -37,7 +49,12 @@ describe('Liljegren reference table', () => {
     for (const r of rows) {
       const k = kernelOne(r.ta_c, r.rh_pct, r.pressure_hpa, r.wind2m_est_ms, r.solar_used_wm2, r.fdir, r.cos_zenith);
       expect(k.status, `row ${r.id}`).toBe(0);
-      for (const [ours, ref] of [[k.wbgt, r.wbgt_c], [k.tg, r.tg_c], [k.tnwb, r.tnwb_c], [k.tpsy, r.tpsy_c]]) {
+      for (const [ours, ref] of [
+        [k.wbgt, r.wbgt_c],
+        [k.tg, r.tg_c],
+        [k.tnwb, r.tnwb_c],
+        [k.tpsy, r.tpsy_c],
+      ]) {
         worst = Math.max(worst, Math.abs(ours - ref));
         expect(Math.abs(ours - ref), `row ${r.id}`).toBeLessThan(0.05);
       }
@@ -61,12 +78,27 @@ describe('Liljegren reference table', () => {
       if (r.cos_zenith < 0.2 || leapAfter2000(r.year)) continue;
       const timeMs = Date.UTC(r.year, r.month - 1, r.day, r.hour, r.minute) - r.gmt_offset_h * 3_600_000;
       const o = computePoint({
-        timeMs, avgMinutes: r.avg_period_min, lat: r.lat, lon: r.lon, ta: r.ta_c, rh: r.rh_pct, pressure: r.pressure_hpa,
-        wind: r.wind_ms, windHeight: r.wind_height_m, urban: r.urban === 1, dt: r.dt_c, solar: r.solar_wm2,
+        timeMs,
+        avgMinutes: r.avg_period_min,
+        lat: r.lat,
+        lon: r.lon,
+        ta: r.ta_c,
+        rh: r.rh_pct,
+        pressure: r.pressure_hpa,
+        wind: r.wind_ms,
+        windHeight: r.wind_height_m,
+        urban: r.urban === 1,
+        dt: r.dt_c,
+        solar: r.solar_wm2,
       });
       expect(o.status, `row ${r.id}`).toBe(0);
       expect(Math.abs(o.cosZenith - r.cos_zenith), `row ${r.id} cos z`).toBeLessThan(0.001);
-      for (const [ours, ref] of [[o.wbgt, r.wbgt_c], [o.tg, r.tg_c], [o.tnwb, r.tnwb_c]]) expect(Math.abs(ours - ref), `row ${r.id}`).toBeLessThan(0.05);
+      for (const [ours, ref] of [
+        [o.wbgt, r.wbgt_c],
+        [o.tg, r.tg_c],
+        [o.tnwb, r.tnwb_c],
+      ])
+        expect(Math.abs(ours - ref), `row ${r.id}`).toBeLessThan(0.05);
       n++;
     }
     expect(n).toBeGreaterThan(50);
@@ -76,9 +108,20 @@ describe('Liljegren reference table', () => {
     for (const r of rows) {
       const timeMs = Date.UTC(r.year, r.month - 1, r.day, r.hour, r.minute) - r.gmt_offset_h * 3_600_000;
       const o = computePoint({
-        timeMs, avgMinutes: r.avg_period_min, lat: r.lat, lon: r.lon, ta: r.ta_c, rh: r.rh_pct, pressure: r.pressure_hpa,
-        wind: r.wind_ms, windHeight: r.wind_height_m, urban: r.urban === 1, dt: r.dt_c, solar: r.solar_wm2,
-        cosZenith: r.cos_zenith, directFraction: r.cos_zenith >= 0.00873 ? r.fdir : undefined,
+        timeMs,
+        avgMinutes: r.avg_period_min,
+        lat: r.lat,
+        lon: r.lon,
+        ta: r.ta_c,
+        rh: r.rh_pct,
+        pressure: r.pressure_hpa,
+        wind: r.wind_ms,
+        windHeight: r.wind_height_m,
+        urban: r.urban === 1,
+        dt: r.dt_c,
+        solar: r.solar_wm2,
+        cosZenith: r.cos_zenith,
+        directFraction: r.cos_zenith >= 0.00873 ? r.fdir : undefined,
       });
       expect(o.status, `row ${r.id}`).toBe(0);
       expect(Math.abs(o.wind2m - r.wind2m_est_ms), `row ${r.id} wind`).toBeLessThan(1e-4);
@@ -93,8 +136,18 @@ describe('Liljegren reference table', () => {
       if (leapAfter2000(r.year)) continue;
       const timeMs = Date.UTC(r.year, r.month - 1, r.day, r.hour, r.minute) - r.gmt_offset_h * 3_600_000;
       const o = computePoint({
-        timeMs, avgMinutes: r.avg_period_min, lat: r.lat, lon: r.lon, ta: r.ta_c, rh: r.rh_pct, pressure: r.pressure_hpa,
-        wind: r.wind_ms, windHeight: r.wind_height_m, urban: r.urban === 1, dt: r.dt_c, solar: r.solar_wm2,
+        timeMs,
+        avgMinutes: r.avg_period_min,
+        lat: r.lat,
+        lon: r.lon,
+        ta: r.ta_c,
+        rh: r.rh_pct,
+        pressure: r.pressure_hpa,
+        wind: r.wind_ms,
+        windHeight: r.wind_height_m,
+        urban: r.urban === 1,
+        dt: r.dt_c,
+        solar: r.solar_wm2,
       });
       expect(Math.abs(o.directFraction - r.fdir), `row ${r.id}`).toBeLessThan(0.005);
     }
@@ -126,8 +179,18 @@ describe('docs/methods.md §6.9 check values (reference C compiled locally)', ()
   });
   it('the full Chicago call (2007-07-15 12:30 LST, UTC−6, 60 min) gives u2 2.680 m/s and WBGT 29.836 °C within 0.03 °C', () => {
     const o = computePoint({
-      timeMs: Date.UTC(2007, 6, 15, 18, 30), avgMinutes: 60, lat: 41.88, lon: -87.63, ta: 32, rh: 50, pressure: 1000,
-      wind: 3, windHeight: 10, urban: false, dt: 0, solar: 800,
+      timeMs: Date.UTC(2007, 6, 15, 18, 30),
+      avgMinutes: 60,
+      lat: 41.88,
+      lon: -87.63,
+      ta: 32,
+      rh: 50,
+      pressure: 1000,
+      wind: 3,
+      windHeight: 10,
+      urban: false,
+      dt: 0,
+      solar: 800,
     });
     expect(o.wind2m).toBeCloseTo(2.68, 3);
     expect(Math.abs(o.tg - 44.801)).toBeLessThan(0.03);

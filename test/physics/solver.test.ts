@@ -9,7 +9,18 @@ import * as P from '../../pipeline/physics/air-properties.ts';
 import { wbgtKernel } from '../../pipeline/physics/kernel.ts';
 import { CellState, prepareCell } from '../../pipeline/physics/liljegren-solve.ts';
 import { directFractionEstimate, directFractionExact } from '../../pipeline/physics/solar-inputs.ts';
-import { D_GLOBE, D_WICK, EMIS_GLOBE, EMIS_SFC, EMIS_WICK, RATIO, PRANDTL, STEFAN_BOLTZMANN as SB, KELVIN, WICK_EXPONENT } from '../../pipeline/physics/constants.ts';
+import {
+  D_GLOBE,
+  D_WICK,
+  EMIS_GLOBE,
+  EMIS_SFC,
+  EMIS_WICK,
+  RATIO,
+  PRANDTL,
+  STEFAN_BOLTZMANN as SB,
+  KELVIN,
+  WICK_EXPONENT,
+} from '../../pipeline/physics/constants.ts';
 
 function bisect(f: (x: number) => number, lo: number, hi: number): number {
   for (let k = 0; k < 200 && hi - lo > 1e-11; k++) {
@@ -46,7 +57,11 @@ describe('solver roots', () => {
       const fd = 0.9 * r();
       const a = (x: number) => Float64Array.of(x);
       const o = { wbgtSun: a(0), wbgtShade: a(0), globeSun: a(0), wetBulbSun: a(0), globeShade: a(0), wetBulbShade: a(0), status: new Uint8Array(1) };
-      wbgtKernel({ airTemperature: a(ta), dewPointTemperature: a(td), surfacePressure: a(p), wind2m: a(u), solar: a(sol), cosZenith: a(cz), directFraction: a(fd) }, o, 1);
+      wbgtKernel(
+        { airTemperature: a(ta), dewPointTemperature: a(td), surfacePressure: a(p), wind2m: a(u), solar: a(sol), cosZenith: a(cz), directFraction: a(fd) },
+        o,
+        1,
+      );
       expect(o.status[0]).toBe(0);
       prepareCell(s, ta, td, p, u, sol, fd, cz); // only for the solar loads Q_g, Q_w (inputs of the balances)
       const TA = ta + KELVIN;
@@ -76,7 +91,11 @@ describe('solver roots', () => {
   it('with no solar load, sun values are exactly the shade values (same balance, solved once)', () => {
     const a = (x: number) => Float64Array.of(x);
     const o = { wbgtSun: a(0), wbgtShade: a(0), globeSun: a(0), wetBulbSun: a(0), globeShade: a(0), wetBulbShade: a(0), status: new Uint8Array(1) };
-    wbgtKernel({ airTemperature: a(27), dewPointTemperature: a(18), surfacePressure: a(1000), wind2m: a(1.5), solar: a(0), cosZenith: a(-0.3), directFraction: a(0) }, o, 1);
+    wbgtKernel(
+      { airTemperature: a(27), dewPointTemperature: a(18), surfacePressure: a(1000), wind2m: a(1.5), solar: a(0), cosZenith: a(-0.3), directFraction: a(0) },
+      o,
+      1,
+    );
     expect(o.wbgtSun[0]).toBe(o.wbgtShade[0]);
     expect(o.globeSun[0]).toBe(o.globeShade[0]);
   });

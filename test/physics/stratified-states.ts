@@ -15,7 +15,15 @@ export function rng(seed: number): () => number {
   };
 }
 
-export interface State { ta: number; td: number; p: number; u: number; sol: number; cz: number; fd: number }
+export interface State {
+  ta: number;
+  td: number;
+  p: number;
+  u: number;
+  sol: number;
+  cz: number;
+  fd: number;
+}
 
 /** One state of a stratum: `kind` picks the edge case. */
 export function state(r: () => number, kind: number): State {

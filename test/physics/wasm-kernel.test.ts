@@ -31,8 +31,13 @@ function outputs(n: number, kind: 'f32' | 'f64'): Outputs {
 function inputsOf(states: ReturnType<typeof state>[], kind: 'f32' | 'f64'): WbgtInputs {
   const from = (f: (s: ReturnType<typeof state>) => number) => (kind === 'f32' ? Float32Array.from(states, f) : Float64Array.from(states, f));
   return {
-    airTemperature: from((s) => s.ta), dewPointTemperature: from((s) => s.td), surfacePressure: from((s) => s.p),
-    wind2m: from((s) => s.u), solar: from((s) => s.sol), cosZenith: from((s) => s.cz), directFraction: from((s) => s.fd),
+    airTemperature: from((s) => s.ta),
+    dewPointTemperature: from((s) => s.td),
+    surfacePressure: from((s) => s.p),
+    wind2m: from((s) => s.u),
+    solar: from((s) => s.sol),
+    cosZenith: from((s) => s.cz),
+    directFraction: from((s) => s.fd),
   };
 }
 
@@ -57,7 +62,7 @@ describe('the WebAssembly kernel', () => {
     expect(wasmKernel()).not.toBeNull();
   });
 
-  it('gives the JavaScript kernel\'s doubles bit for bit, with the same statuses and counts, on the seeded benchmark input (1,000,000 cell-hours of geometry, wind and physics in single precision, as the build runs it)', () => {
+  it("gives the JavaScript kernel's doubles bit for bit, with the same statuses and counts, on the seeded benchmark input (1,000,000 cell-hours of geometry, wind and physics in single precision, as the build runs it)", () => {
     const a = makeArrays();
     const n = a.wbgtSun.length;
     const c1 = computeHours(a, 0, 100, { kernel: 'js' });
@@ -71,7 +76,9 @@ describe('the WebAssembly kernel', () => {
     let diff = 0;
     for (let i = 0; i < n; i++) {
       let same = a.status[i] === jsStatus[i];
-      FIELDS.forEach((f, k) => { same &&= Object.is(a[f]![i], js[k][i]); });
+      FIELDS.forEach((f, k) => {
+        same &&= Object.is(a[f]![i], js[k][i]);
+      });
       if (!same) diff++;
     }
     expect(diff).toBe(0);
@@ -100,9 +107,12 @@ describe('the WebAssembly kernel', () => {
           solveCell(s, false);
           const wbgt = (tw: number, tg: number) => 0.7 * (tw - KELVIN) + 0.2 * (tg - KELVIN) + 0.1 * x.ta;
           const pairs: Array<[number, number]> = [
-            [oW.globeShade[i], s.tgShade - KELVIN], [oW.wetBulbShade[i], s.twShade - KELVIN],
-            [oW.globeSun[i], s.tgSun - KELVIN], [oW.wetBulbSun[i], s.twSun - KELVIN],
-            [oW.wbgtShade[i], wbgt(s.twShade, s.tgShade)], [oW.wbgtSun[i], wbgt(s.twSun, s.tgSun)],
+            [oW.globeShade[i], s.tgShade - KELVIN],
+            [oW.wetBulbShade[i], s.twShade - KELVIN],
+            [oW.globeSun[i], s.tgSun - KELVIN],
+            [oW.wetBulbSun[i], s.twSun - KELVIN],
+            [oW.wbgtShade[i], wbgt(s.twShade, s.tgShade)],
+            [oW.wbgtSun[i], wbgt(s.twSun, s.tgSun)],
           ];
           for (const [fast, readable] of pairs) {
             const e = Math.abs(fast - readable);
@@ -123,7 +133,10 @@ describe('the WebAssembly kernel', () => {
     const st = Array.from({ length: N }, (_, i) => STATES[i % STATES.length]);
     const inp = inputsOf(st, 'f64') as Record<keyof WbgtInputs, Float64Array>;
     const bad = new Map<number, number>();
-    const set = (i: number, f: keyof WbgtInputs, v: number, code: number) => { inp[f][i] = v; bad.set(i, code); };
+    const set = (i: number, f: keyof WbgtInputs, v: number, code: number) => {
+      inp[f][i] = v;
+      bad.set(i, code);
+    };
     set(10, 'airTemperature', NaN, STATUS.missingInput);
     set(CHUNK - 1, 'airTemperature', 61, STATUS.airTemperatureOutOfRange);
     set(CHUNK, 'dewPointTemperature', -95, STATUS.humidityOutOfRange);
@@ -139,7 +152,10 @@ describe('the WebAssembly kernel', () => {
     bad.set(20, STATUS.timeOutOfRange);
     const handed: number[] = [];
     const g = globeFactors(D_GLOBE_STANDARD);
-    const w = wasmKernelRange(k, inp, oW, start, N, g, (i) => { handed.push(i); wbgtKernelJs(inp, oW, i + 1, i, g); });
+    const w = wasmKernelRange(k, inp, oW, start, N, g, (i) => {
+      handed.push(i);
+      wbgtKernelJs(inp, oW, i + 1, i, g);
+    });
     wbgtKernelJs(inp, oJs, N, start, g);
     // Every bad cell went back; any other cell handed back is one whose solve left the module's
     // regular path (a safeguarded step), and the JavaScript kernel computed it.
@@ -158,7 +174,10 @@ describe('the WebAssembly kernel', () => {
 
   it('takes short calls (below 8 cells), shelter and psychrometric outputs and plain-array inputs through the JavaScript kernel, with the same results', () => {
     const st = STATES.slice(0, 6);
-    for (const inp of [inputsOf(st, 'f64'), Object.fromEntries(Object.entries(inputsOf(STATES.slice(0, 40), 'f64')).map(([key, v]) => [key, Array.from(v)])) as unknown as WbgtInputs]) {
+    for (const inp of [
+      inputsOf(st, 'f64'),
+      Object.fromEntries(Object.entries(inputsOf(STATES.slice(0, 40), 'f64')).map(([key, v]) => [key, Array.from(v)])) as unknown as WbgtInputs,
+    ]) {
       const n = inp.airTemperature.length;
       const a = outputs(n, 'f64');
       const b = outputs(n, 'f64');
@@ -175,7 +194,12 @@ describe('without WebAssembly SIMD', () => {
   });
 
   it('the loader gives null where the runtime rejects the module (a compiler without SIMD throws a CompileError) or has no WebAssembly', () => {
-    const noSimd = { ...WebAssembly, Module: function Module() { throw new WebAssembly.CompileError('invalid opcode 0xfd (SIMD prefix)'); } } as unknown as typeof WebAssembly;
+    const noSimd = {
+      ...WebAssembly,
+      Module: function Module() {
+        throw new WebAssembly.CompileError('invalid opcode 0xfd (SIMD prefix)');
+      },
+    } as unknown as typeof WebAssembly;
     expect(loadWasmKernel(noSimd)).toBeNull();
     expect(loadWasmKernel(null)).toBeNull();
     expect(loadWasmKernel(WebAssembly)).not.toBeNull();
@@ -183,7 +207,12 @@ describe('without WebAssembly SIMD', () => {
 
   it('wbgtKernel falls back to the JavaScript kernel and gives the same results', async () => {
     const realWasm = WebAssembly;
-    vi.stubGlobal('WebAssembly', { ...realWasm, Module: function Module() { throw new realWasm.CompileError('invalid opcode 0xfd (SIMD prefix)'); } });
+    vi.stubGlobal('WebAssembly', {
+      ...realWasm,
+      Module: function Module() {
+        throw new realWasm.CompileError('invalid opcode 0xfd (SIMD prefix)');
+      },
+    });
     vi.resetModules();
     const fresh = await import('../../pipeline/physics/kernel.ts');
     const freshWasm = await import('../../pipeline/physics/wbgt-wasm.ts');

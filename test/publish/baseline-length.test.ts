@@ -20,7 +20,15 @@ import { quantileSorted } from '../../pipeline/climate/quantile.ts';
 
 /** NumPy's P90 of each list of values and its version, from Debian's python3-numpy (one process). */
 function numpyP90(lists: number[][]): { p90: number[]; version: string } {
-  const out = execFileSync('/usr/bin/python3', ['-c', 'import json,sys,numpy as np; v=json.loads(sys.argv[1]); print(json.dumps([[float(np.percentile(x, 90)) for x in v], np.__version__]))', JSON.stringify(lists)], { encoding: 'utf8' });
+  const out = execFileSync(
+    '/usr/bin/python3',
+    [
+      '-c',
+      'import json,sys,numpy as np; v=json.loads(sys.argv[1]); print(json.dumps([[float(np.percentile(x, 90)) for x in v], np.__version__]))',
+      JSON.stringify(lists),
+    ],
+    { encoding: 'utf8' },
+  );
   const [p90, version] = JSON.parse(out) as [number[], string];
   return { p90, version };
 }
@@ -28,7 +36,10 @@ function numpyP90(lists: number[][]): { p90: number[]; version: string } {
 describe('the 90th-percentile year of a short baseline', () => {
   it('a baseline of 4 years puts the type-7 P90 70 % of the way from the second-highest year to the highest, as NumPy computes it', () => {
     const years = [40, 52, 61, 97]; // invented counts [h]
-    const { p90: [p90], version } = numpyP90([years]);
+    const {
+      p90: [p90],
+      version,
+    } = numpyP90([years]);
     expect(version).toMatch(/^\d+\.\d+/);
     expect(p90).toBeCloseTo(61 + 0.7 * (97 - 61), 10);
     expect(p90Rank(4)).toBeCloseTo(3.7, 12);
@@ -58,7 +69,9 @@ describe('the 90th-percentile year of a short baseline', () => {
     expect(p90Label(1)).toBe('P90 of 1 year (near the highest)');
     expect(p90Label(30)).toBe('P90 of 30 years (a hot year, about 1 in 10)');
     expect(p90Description(4, [2020, 2023])).toContain('it is not a 1-in-10 year');
-    expect(p90Description(30, [1991, 2020])).toBe('90th-percentile year of the baseline 1991–2020 (30 years; Hyndman–Fan type 7): a hot year: about 1 year in 10 is higher');
+    expect(p90Description(30, [1991, 2020])).toBe(
+      '90th-percentile year of the baseline 1991–2020 (30 years; Hyndman–Fan type 7): a hot year: about 1 year in 10 is higher',
+    );
     expect(p90Position(1)).toBe('the one baseline year itself');
   });
 

@@ -154,7 +154,10 @@ function tinyInput(): { figures: CellFigureNormals[]; cells: Int32Array; grid: {
     mean[5] = NaN;
     return { mean, median: mean.map((v) => v + 1), p90: mean.map((v) => v + 2), yearsUsed: Uint16Array.from({ length: nItems }, () => 3) };
   };
-  const figures = CELL_FIGURES.map((id, j) => ({ def: { id, label: id, units: 'h', combos: ['only'], annual: 'sum' }, cell: normals(100 * j) })) as unknown as CellFigureNormals[];
+  const figures = CELL_FIGURES.map((id, j) => ({
+    def: { id, label: id, units: 'h', combos: ['only'], annual: 'sum' },
+    cell: normals(100 * j),
+  })) as unknown as CellFigureNormals[];
   const niche = {
     baselineMat: Float64Array.from([12.345, NaN, 30]),
     latestMat: Float64Array.from([12.5, NaN, 30.25]),
@@ -169,8 +172,17 @@ describe('cellFigureChunks on a hand-made grid', () => {
   it('cuts the cells into 2 × 2 tiles, rounds to 2 decimals, and writes a missing value as null', () => {
     const t = tinyInput();
     const chunks = cellFigureChunks(t.figures, t.cells, t.grid, t.niche, { rows: 2, cols: 2 });
-    const ix = cellFiguresIndex(defsOf(t.figures), t.grid, chunks.map((c) => ({ id: c.id, path: `data/cells/${c.id}.json`, cells: c.cells.length, firstCell: c.cells[0].cell })), { rows: 2, cols: 2 });
-    expect(chunks.map((c) => [c.id, c.cells.map((r) => r.cell)])).toEqual([['r0c0', [1]], ['r0c1', [7]], ['r1c1', [13]]]);
+    const ix = cellFiguresIndex(
+      defsOf(t.figures),
+      t.grid,
+      chunks.map((c) => ({ id: c.id, path: `data/cells/${c.id}.json`, cells: c.cells.length, firstCell: c.cells[0].cell })),
+      { rows: 2, cols: 2 },
+    );
+    expect(chunks.map((c) => [c.id, c.cells.map((r) => r.cell)])).toEqual([
+      ['r0c0', [1]],
+      ['r0c1', [7]],
+      ['r1c1', [13]],
+    ]);
     expect(ix.grid).toEqual({ nLat: 3, nLon: 5, lat0: 10, lon0: 60, dLat: 0.5, dLon: 0.5 });
     const second = chunks[1].cells[0];
     expect(second.lat).toBe(10.5);

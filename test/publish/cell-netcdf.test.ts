@@ -53,7 +53,16 @@ describe('the per-cell NetCDF', () => {
     // Every row as: variable, period index, evaluation key, cell → the expected mean, median, p90, years.
     const wanted = rows.slice(1).map((line) => {
       const c = line.split(',');
-      return [c[col('figure')].replace(/-/g, '_'), periods.indexOf(c[col('period')]), `${c[col('workload_class')]}.${c[col('acclimatization')]}.${c[col('exposure')]}`, Number(c[col('cell_id')]), c[col('mean')], c[col('median')], c[col('p90')], Number(c[col('years_used')])];
+      return [
+        c[col('figure')].replace(/-/g, '_'),
+        periods.indexOf(c[col('period')]),
+        `${c[col('workload_class')]}.${c[col('acclimatization')]}.${c[col('exposure')]}`,
+        Number(c[col('cell_id')]),
+        c[col('mean')],
+        c[col('median')],
+        c[col('p90')],
+        Number(c[col('years_used')]),
+      ];
     });
     writeFileSync(join(work, 'rows.json'), JSON.stringify(wanted));
     const script = `
@@ -100,7 +109,10 @@ describe('the map layers as GDAL reads them', () => {
     const layer = m.layers.find((l) => l.figure === 'hours-lost-shift' && l.period === '07' && l.statistic === 'mean')!;
     const r = spawnSync('gdalinfo', ['-json', '-stats', '--config', 'GDAL_PAM_ENABLED', 'NO', join(dataDir, '..', layer.tif)], { encoding: 'utf8' });
     expect(r.status, r.stderr).toBe(0);
-    const info = JSON.parse(r.stdout) as { bands: Array<{ block: number[]; noDataValue: number; type: string; maximum?: number }>; coordinateSystem: { wkt: string } };
+    const info = JSON.parse(r.stdout) as {
+      bands: Array<{ block: number[]; noDataValue: number; type: string; maximum?: number }>;
+      coordinateSystem: { wkt: string };
+    };
     expect(info.bands[0].block).toEqual([16, 16]);
     expect(info.bands[0].type).toBe('Float32');
     expect(info.bands[0].noDataValue).toBe(-9999);
@@ -122,14 +134,25 @@ describe('the map layers as GDAL reads them', () => {
     const info = JSON.parse(r.stdout) as { size: number[]; bands: Array<{ block: number[]; overviews: Array<{ size: number[] }> }>; geoTransform: number[] };
     expect(info.size).toEqual([600, 700]);
     expect(info.bands[0].block).toEqual([256, 256]);
-    expect(info.bands[0].overviews.map((o) => o.size)).toEqual([[300, 350], [150, 175]]);
+    expect(info.bands[0].overviews.map((o) => o.size)).toEqual([
+      [300, 350],
+      [150, 175],
+    ]);
     expect(info.geoTransform[0]).toBeCloseTo(19.95, 9);
     expect(info.geoTransform[3]).toBeCloseTo(59.95, 9);
     // A few pixels through gdal_translate to text: row 0 is the northern edge.
     const xyz = spawnSync('gdal_translate', ['-q', '-of', 'XYZ', '-srcwin', '10', '0', '3', '2', path, '/vsistdout/'], { encoding: 'utf8' });
     expect(xyz.status, xyz.stderr).toBe(0);
-    const got = xyz.stdout.trim().split('\n').map((l) => Number(l.trim().split(/\s+/)[2]));
-    const want = [0, 1].flatMap((row) => [10, 11, 12].map((x) => { const i = (nLat - 1 - row) * nLon + x; return Number.isNaN(values[i]) ? -9999 : values[i]; }));
+    const got = xyz.stdout
+      .trim()
+      .split('\n')
+      .map((l) => Number(l.trim().split(/\s+/)[2]));
+    const want = [0, 1].flatMap((row) =>
+      [10, 11, 12].map((x) => {
+        const i = (nLat - 1 - row) * nLon + x;
+        return Number.isNaN(values[i]) ? -9999 : values[i];
+      }),
+    );
     got.forEach((v, i) => expect(v).toBeCloseTo(want[i], 3));
   });
 });

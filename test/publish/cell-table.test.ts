@@ -17,7 +17,7 @@ import type { Normals } from '../../pipeline/climate/index.ts';
 
 function inventedNormals(nCells: number, nC: number, seed: number): Normals {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const n = nCells * PERIODS * nC;
   const pick = (i: number) => {
     const r = rnd();
@@ -32,10 +32,13 @@ function inventedNormals(nCells: number, nC: number, seed: number): Normals {
 }
 
 describe('the per-cell table', () => {
-  it('equals csvLine of every row\'s fields, and parses back to them (a unit with a comma quoted)', () => {
+  it("equals csvLine of every row's fields, and parses back to them (a unit with a comma quoted)", () => {
     const keys = ['heavy.acclimatized.sun', 'heavy.unacclimatized.shade', 'light.acclimatized.sun'];
     const defs = figureDefs(keys);
-    const figures: CellFigureNormals[] = defs.map((def, k) => ({ def: def.id === 'hours-lost-shift' ? { ...def, units: 'h, per worker' } : def, cell: inventedNormals(3, def.combos.length, 7 + k) }));
+    const figures: CellFigureNormals[] = defs.map((def, k) => ({
+      def: def.id === 'hours-lost-shift' ? { ...def, units: 'h, per worker' } : def,
+      cell: inventedNormals(3, def.combos.length, 7 + k),
+    }));
     const cells = Int32Array.of(5, 17, 40);
     const lat = Float64Array.from({ length: 8 }, (_, i) => -10.123456 + 0.25 * i);
     const lon = Float64Array.from({ length: 6 }, (_, i) => 170.00004 + 0.25 * i);
@@ -51,7 +54,21 @@ describe('the per-cell table', () => {
           fn.def.combos.forEach((key, k) => {
             const i = (c * PERIODS + p) * fn.def.combos.length + k;
             const cc = comboColumns(fn.def.id, key);
-            const row = [g, roundTo(lat[Math.floor(g / 6)], 4), roundTo(lon[g % 6], 4), periodLabel(p), fn.def.id, cc.workload_class, cc.acclimatization, cc.exposure, roundTo(fn.cell.mean[i], 2), roundTo(fn.cell.median[i], 2), roundTo(fn.cell.p90[i], 2), fn.def.units, fn.cell.yearsUsed[i]];
+            const row = [
+              g,
+              roundTo(lat[Math.floor(g / 6)], 4),
+              roundTo(lon[g % 6], 4),
+              periodLabel(p),
+              fn.def.id,
+              cc.workload_class,
+              cc.acclimatization,
+              cc.exposure,
+              roundTo(fn.cell.mean[i], 2),
+              roundTo(fn.cell.median[i], 2),
+              roundTo(fn.cell.p90[i], 2),
+              fn.def.units,
+              fn.cell.yearsUsed[i],
+            ];
             rows.push(row);
             want += csvLine(row);
           });

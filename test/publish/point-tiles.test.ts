@@ -34,7 +34,7 @@ const HOUR = 3_600_000;
 /** Random whole-hour histograms of one cell-year: some empty slots, counts 0–255, bins up to both open ends. */
 function randomCellYear(seed: number): Uint16Array {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const h = new Uint16Array(POINT_YEAR_SIZE);
   for (let slot = 0; slot < POINT_SLOTS; slot++) {
     const r = rnd();
@@ -50,14 +50,15 @@ function randomCellYear(seed: number): Uint16Array {
 function cellYear(hist: Uint16Array, c: number, nCells: number): Uint16Array {
   const out = new Uint16Array(POINT_YEAR_SIZE);
   const run = N_EXPOSURES * HIST_LEN;
-  for (let m = 0; m < MONTHS; m++) for (let h = 0; h < HOURS; h++) out.set(hist.subarray(histogramSlot(m, h, c, nCells), histogramSlot(m, h, c, nCells) + run), (m * HOURS + h) * run);
+  for (let m = 0; m < MONTHS; m++)
+    for (let h = 0; h < HOURS; h++) out.set(hist.subarray(histogramSlot(m, h, c, nCells), histogramSlot(m, h, c, nCells) + run), (m * HOURS + h) * run);
   return out;
 }
 
 /** One local year of invented hourly WBGT for `cells`, through the real accumulator (as a shard would). */
 function inventedYear(year: number, cells: Int32Array, seed: number): YearCounts {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const start = Date.UTC(year, 0, 1, 10); // local midnight in Etc/GMT+10
   const nt = (Date.UTC(year + 1, 0, 1) - Date.UTC(year, 0, 1)) / HOUR;
   const nc = cells.length;
@@ -143,7 +144,11 @@ describe('per-cell histogram tiles as the build publishes them', () => {
     store.addYear(ys[0]);
     const dir = mkdtempSync(join(tmpdir(), 'hh-point-tiles-'));
     const written = await store.write(dir, { years: [2021, 2022], targetBytes: 20_000, prefix: 'band-' });
-    await writePointTileIndex(dir, { years: [2022, 2021], grid: { lat: [10, 11, 12], lon: [60, 61, 62, 63, 64, 65, 66, 67, 68, 69] }, chunks: [...written].reverse() });
+    await writePointTileIndex(dir, {
+      years: [2022, 2021],
+      grid: { lat: [10, 11, 12], lon: [60, 61, 62, 63, 64, 65, 66, 67, 68, 69] },
+      chunks: [...written].reverse(),
+    });
     const index = JSON.parse(readFileSync(join(dir, 'calculator/cells/index.json'), 'utf8')) as PointTileIndex;
     expect(index.years).toEqual([2021, 2022]);
     expect(index.grid).toEqual({ nLat: 3, nLon: 10, lat0: 10, dLat: 1, lon0: 60, dLon: 1 });

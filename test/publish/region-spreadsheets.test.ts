@@ -28,7 +28,9 @@ beforeAll(async () => {
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
 function tidy(id: string): Map<string, string> {
-  const lines = readFileSync(join(dataDir, 'data/regions', `${id}.csv`), 'utf8').trim().split('\n');
+  const lines = readFileSync(join(dataDir, 'data/regions', `${id}.csv`), 'utf8')
+    .trim()
+    .split('\n');
   const head = splitCsvRecord(lines[0])!;
   const m = new Map<string, string>();
   for (const l of lines.slice(1)) {
@@ -41,7 +43,11 @@ function tidy(id: string): Map<string, string> {
 describe('region spreadsheets', () => {
   it('the wide CSV, read by Python’s csv module, has one row per figure × class × acclimatization × exposure × method × statistic in hours, the months and the year across with “[h per worker]” in each header, and the tidy table’s values', async () => {
     const id = 'sollent-coast';
-    const py = await run('/usr/bin/python3', ['-c', 'import csv, json, sys; print(json.dumps(list(csv.reader(open(sys.argv[1], encoding="utf-8-sig")))))', join(dataDir, 'data/regions', `${id}.wide.csv`)]);
+    const py = await run('/usr/bin/python3', [
+      '-c',
+      'import csv, json, sys; print(json.dumps(list(csv.reader(open(sys.argv[1], encoding="utf-8-sig")))))',
+      join(dataDir, 'data/regions', `${id}.wide.csv`),
+    ]);
     const rows = JSON.parse(py.stdout) as string[][];
     const head = rows[0];
     expect(head.slice(0, 7)).toEqual(['figure', 'figure_label', 'workload_class', 'acclimatization', 'exposure', 'method', 'statistic']);
@@ -66,14 +72,31 @@ describe('region spreadsheets', () => {
 
   it('the workbook, read by openpyxl, holds the hours and temperatures by month (numbers, as in the tidy table), the assumptions with the invented-data label, the build and the work settings, and every caution', async () => {
     const id = 'kell-highlands';
-    const py = await run('/usr/bin/python3', ['-c', [
-      'import json, sys, openpyxl',
-      'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
-      'print(json.dumps({ws.title: [list(r) for r in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
-    ].join('\n'), join(dataDir, 'data/regions', `${id}.xlsx`)], { maxBuffer: 1 << 26 });
+    const py = await run(
+      '/usr/bin/python3',
+      [
+        '-c',
+        [
+          'import json, sys, openpyxl',
+          'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
+          'print(json.dumps({ws.title: [list(r) for r in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
+        ].join('\n'),
+        join(dataDir, 'data/regions', `${id}.xlsx`),
+      ],
+      { maxBuffer: 1 << 26 },
+    );
     const book = JSON.parse(py.stdout) as Record<string, Array<Array<string | number | null>>>;
     // The test atlas weights by an invented people raster, so the workforce sheets sit between (pipeline/publish/region-spreadsheets.ts WORKFORCE_SHEETS).
-    expect(Object.keys(book)).toEqual(['Hours by month', 'Temperatures by month', 'Person-hours by month', 'Full-time equivalents by month', 'Outdoor time lost by month', 'Person-hours per km² by month', 'Assumptions', 'Cautions']);
+    expect(Object.keys(book)).toEqual([
+      'Hours by month',
+      'Temperatures by month',
+      'Person-hours by month',
+      'Full-time equivalents by month',
+      'Outdoor time lost by month',
+      'Person-hours per km² by month',
+      'Assumptions',
+      'Cautions',
+    ]);
     const t = tidy(id);
     const hours = book['Hours by month'];
     expect(hours[0][7]).toBe('Jan [h per worker]');
@@ -91,7 +114,11 @@ describe('region spreadsheets', () => {
     expect(assumptions).toContain('Kell');
     expect(assumptions).toMatch(/Baseline/);
     expect(assumptions).toMatch(/Limit model/);
-    const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as { buildTime: string; work: { cautions: Array<{ text: string }> }; artefacts: Array<{ path: string; kind: string; description: string }> };
+    const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as {
+      buildTime: string;
+      work: { cautions: Array<{ text: string }> };
+      artefacts: Array<{ path: string; kind: string; description: string }>;
+    };
     expect(assumptions).toContain(manifest.buildTime);
     expect(book.Cautions.slice(1).map((r) => r[0])).toEqual(manifest.work.cautions.map((c) => c.text));
     // Both files are listed in the manifest as tables with their own descriptions.
@@ -103,7 +130,8 @@ describe('region spreadsheets', () => {
   });
 
   it('regionWideTables keeps hours and temperatures apart and leaves an empty cell empty', () => {
-    const text = 'region_id,period,figure,workload_class,acclimatization,exposure,method,statistic,value,unit,years_used,baseline\n' +
+    const text =
+      'region_id,period,figure,workload_class,acclimatization,exposure,method,statistic,value,unit,years_used,baseline\n' +
       'x,01,hours-lost-shift,low,acclimatized,sun,limit,mean,1.5,h,3,2001-2003\n' +
       'x,02,hours-lost-shift,low,acclimatized,sun,limit,mean,,h,2,2001-2003\n' +
       'x,01,wbgt-mean,,,sun,,mean,21.25,degC,3,2001-2003\n';
@@ -130,7 +158,10 @@ describe('region spreadsheets', () => {
 
   it("regionWideTables gives the same tables from a real region table whether its columns come in the pipeline's order (one slice per line) or in another order (every line split)", () => {
     const text = readFileSync(join(dataDir, 'data/regions', 'varn-shore.csv'), 'utf8');
-    const lines = text.trim().split('\n').map((l) => l.split(','));
+    const lines = text
+      .trim()
+      .split('\n')
+      .map((l) => l.split(','));
     const order = [11, 0, 10, 9, 8, 7, 6, 5, 4, 3, 2, 1];
     const moved = `${lines.map((f) => order.map((i) => f[i]).join(',')).join('\n')}\n`;
     const labels = new Map([['hours-lost-shift', 'Hours lost']]);
@@ -144,8 +175,21 @@ describe('region spreadsheets', () => {
     try {
       const text = readFileSync(join(dataDir, 'data/regions', 'sollent-coast.csv'), 'utf8');
       const info: RegionSheetInfo = {
-        atlasTitle: 'Test atlas (invented data)', invented: true, attribution: '', buildTime: '2026-01-01T00:00:00.000Z', codeVersion: 't', configDigest: 'c', inputFiles: 1,
-        years: [2021, 2023], baseline: [2021, 2022], timeZone: 'Etc/GMT+10', work: [], classes: [], figureLabels: new Map(), statistics: {}, cautions: [],
+        atlasTitle: 'Test atlas (invented data)',
+        invented: true,
+        attribution: '',
+        buildTime: '2026-01-01T00:00:00.000Z',
+        codeVersion: 't',
+        configDigest: 'c',
+        inputFiles: 1,
+        years: [2021, 2023],
+        baseline: [2021, 2022],
+        timeZone: 'Etc/GMT+10',
+        work: [],
+        classes: [],
+        figureLabels: new Map(),
+        statistics: {},
+        cautions: [],
       };
       await writeRegionSpreadsheets(dir, { id: 'a', name: 'A' }, text, info, false);
       expect(existsSync(join(dir, 'regions/a.wide.csv'))).toBe(true);

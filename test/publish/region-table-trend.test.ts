@@ -21,12 +21,18 @@ function table(years: number[], series: number[]): string[][] {
   const region = computeNormals({ years, values, nItems }, { baseline, latestYear: baseline[1] });
   const trend = computeTrends({ years, values, nItems }, [PERIODS - 1]);
   const csv = regionTableCsv('r', [{ def, region, worstValue: new Float64Array(nItems).fill(NaN), trend }], baseline, baseline[1], baseline);
-  return csv.trim().split('\n').map((l) => l.split(','));
+  return csv
+    .trim()
+    .split('\n')
+    .map((l) => l.split(','));
 }
 
 describe('trend rows of the region table', () => {
   it('gives the Theil–Sen slope per decade (15 h per decade: scipy theilslopes 1.5 per year) and the Mann–Kendall p-value (scipy kendalltau 9.5027e-07, written to 3 significant digits) for the year only', () => {
-    const rows = table(Array.from({ length: 20 }, (_, i) => 2001 + i), X1);
+    const rows = table(
+      Array.from({ length: 20 }, (_, i) => 2001 + i),
+      X1,
+    );
     const trend = rows.filter((r) => r[7] === 'trend');
     const p = rows.filter((r) => r[7] === 'trend-p');
     expect(trend).toEqual([['r', 'year', 'hours-lost-shift', 'moderate', 'acclimatized', 'sun', 'limit', 'trend', '15', 'h decade-1', '20', '2001-2020']]);
@@ -34,7 +40,10 @@ describe('trend rows of the region table', () => {
   });
 
   it('leaves the trend and its p-value empty with fewer than 15 years, and says how many years there were', () => {
-    const rows = table(Array.from({ length: 14 }, (_, i) => 2001 + i), X1.slice(0, 14));
+    const rows = table(
+      Array.from({ length: 14 }, (_, i) => 2001 + i),
+      X1.slice(0, 14),
+    );
     expect(rows.filter((r) => r[7] === 'trend' || r[7] === 'trend-p').map((r) => [r[7], r[8], r[9], r[10]])).toEqual([
       ['trend', '', 'h decade-1', '14'],
       ['trend-p', '', '1', '14'],

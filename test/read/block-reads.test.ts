@@ -41,7 +41,9 @@ describe('block reads', () => {
     const lat = [10, 10.25, 10.5];
     const lon = [-0.5, -0.25, 0, 0.25];
     let worst = 0;
-    for (let t = 0; t < 60; t++) for (let y = 0; y < 3; y++) for (let i = 0; i < 4; i++) worst = Math.max(worst, Math.abs(x[t * 12 + y * 4 + i] - pattern('t2m', Date.UTC(2020, 0, 1, t), lat[y], lon[i])));
+    for (let t = 0; t < 60; t++)
+      for (let y = 0; y < 3; y++)
+        for (let i = 0; i < 4; i++) worst = Math.max(worst, Math.abs(x[t * 12 + y * 4 + i] - pattern('t2m', Date.UTC(2020, 0, 1, t), lat[y], lon[i])));
     expect(worst).toBeLessThan(1e-4);
   });
 
@@ -54,8 +56,7 @@ describe('block reads', () => {
     const part = await readInBlocks([file], 13, true, tile);
     for (const f of FIELDS) {
       for (let t = 0; t < 60; t++)
-        for (let y = 0; y < 2; y++)
-          for (let i = 0; i < 2; i++) expect(part.out[f][t * 4 + y * 2 + i]).toBe(whole.out[f][t * 12 + (y + 1) * 4 + (i + 1)]);
+        for (let y = 0; y < 2; y++) for (let i = 0; i < 2; i++) expect(part.out[f][t * 4 + y * 2 + i]).toBe(whole.out[f][t * 12 + (y + 1) * 4 + (i + 1)]);
     }
   });
 

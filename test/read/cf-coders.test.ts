@@ -27,11 +27,16 @@ describe('CF packing coder (CF conventions §8.1: unpacked = packed * scale_fact
 
   it('encode(decode(p)) is the identity on packed integers (property, fast-check)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 1e-4, max: 10, noNaN: true }), fc.double({ min: -300, max: 300, noNaN: true }), fc.array(fc.integer({ min: -32767, max: 32767 })), (scale, offset, p) => {
-        const so = { scale, offset };
-        const again = encodeScaleOffset(decodeScaleOffset(p, so), so, 'short');
-        return p.every((v, i) => again[i] === v);
-      }),
+      fc.property(
+        fc.double({ min: 1e-4, max: 10, noNaN: true }),
+        fc.double({ min: -300, max: 300, noNaN: true }),
+        fc.array(fc.integer({ min: -32767, max: 32767 })),
+        (scale, offset, p) => {
+          const so = { scale, offset };
+          const again = encodeScaleOffset(decodeScaleOffset(p, so), so, 'short');
+          return p.every((v, i) => again[i] === v);
+        },
+      ),
     );
   });
 });
@@ -48,14 +53,22 @@ describe('CF missing-data coder (CF conventions §2.5.1)', () => {
   });
 
   it('_FillValue, missing_value, NaN already in the data and valid_range all count as missing', () => {
-    const v = { type: 'short' as const, attrs: { _FillValue: -999, missing_value: -998, valid_range: [-500, 500] }, attrTypes: { _FillValue: 'short' as const, missing_value: 'short' as const, valid_range: 'short' as const } };
+    const v = {
+      type: 'short' as const,
+      attrs: { _FillValue: -999, missing_value: -998, valid_range: [-500, 500] },
+      attrTypes: { _FillValue: 'short' as const, missing_value: 'short' as const, valid_range: 'short' as const },
+    };
     const m = maskSpecOf(v, { scale: 1, offset: 0 });
     const out = decodeMask([-999, -998, 0, 501, -501, 500, NaN], m);
     expect(Array.from(out).map((x) => (Number.isNaN(x) ? 'm' : x))).toEqual(['m', 'm', 0, 'm', 'm', 500, 'm']);
   });
 
   it('a valid_range typed like the unpacked data is turned into packed units (CF §8.1)', () => {
-    const v = { type: 'short' as const, attrs: { scale_factor: 0.01, add_offset: 0, valid_min: -3.0 }, attrTypes: { scale_factor: 'float' as const, add_offset: 'float' as const, valid_min: 'float' as const } };
+    const v = {
+      type: 'short' as const,
+      attrs: { scale_factor: 0.01, add_offset: 0, valid_min: -3.0 },
+      attrTypes: { scale_factor: 'float' as const, add_offset: 'float' as const, valid_min: 'float' as const },
+    };
     const m = maskSpecOf(v, { scale: 0.01, offset: 0 });
     expect(m.validMin).toBeCloseTo(-300, 9);
   });
@@ -73,7 +86,10 @@ describe('CF missing-data coder (CF conventions §2.5.1)', () => {
         const out = new Float32Array(raw.length);
         const missing = decodeRun(Int16Array.from(raw), 0, raw.length, out, 0, p);
         const ref = decodeScaleOffset(decodeMask(raw, spec), so);
-        return missing === raw.filter((x) => x === -32767).length && raw.every((_, i) => (Number.isNaN(ref[i]) ? Number.isNaN(out[i]) : Math.abs(out[i] - Math.fround(ref[i] - 273.15)) < 1e-3));
+        return (
+          missing === raw.filter((x) => x === -32767).length &&
+          raw.every((_, i) => (Number.isNaN(ref[i]) ? Number.isNaN(out[i]) : Math.abs(out[i] - Math.fround(ref[i] - 273.15)) < 1e-3))
+        );
       }),
     );
   });
@@ -81,7 +97,9 @@ describe('CF missing-data coder (CF conventions §2.5.1)', () => {
 
 describe('CF time coder (CF conventions §4.4)', () => {
   it('decode(encode(t)) returns t for whole seconds in hours/seconds/days/minutes codings (property, fast-check)', () => {
-    const codings = ['hours since 1900-01-01 00:00:00.0', 'seconds since 1970-01-01', 'days since 1950-01-01', 'minutes since 2000-01-01T00:00:00Z'].map((u) => parseTimeUnits(u, 'proleptic_gregorian'));
+    const codings = ['hours since 1900-01-01 00:00:00.0', 'seconds since 1970-01-01', 'days since 1950-01-01', 'minutes since 2000-01-01T00:00:00Z'].map((u) =>
+      parseTimeUnits(u, 'proleptic_gregorian'),
+    );
     fc.assert(
       fc.property(fc.integer({ min: -2_000_000_000, max: 4_000_000_000 }), fc.integer({ min: 0, max: 3 }), (sec, ci) => {
         const ms = sec * 1000;

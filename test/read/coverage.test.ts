@@ -28,7 +28,9 @@ beforeAll(async () => {
   // The same January again, with t2m 1 K warmer in the 10 hours of stamps 2020-01-10T01:00Z … 10:00Z.
   const warm0 = Date.UTC(2020, 0, 10, 1);
   paths.janB = fx('jan-again', {
-    layout: 'legacy', start: '2020-01-01T01:00:00Z', hours: 744,
+    layout: 'legacy',
+    start: '2020-01-01T01:00:00Z',
+    hours: 744,
     value: (v, ms, la, lo) => toSource(v, pattern(v, ms, la, lo)) + (v === 't2m' && ms >= warm0 && ms < warm0 + 10 * H ? 1 : 0),
   });
   // February with 24 hours left out: indices 100–123, stamps 2020-02-05T05:00Z … 2020-02-06T04:00Z.
@@ -61,7 +63,14 @@ describe('coverage check of monthly files', () => {
       expect(v.gaps).toEqual([
         { from: '2020-02-05T05:00:00Z', to: '2020-02-06T04:00:00Z', hours: 24, before: paths.feb, after: paths.feb, months: ['2020-02'] },
         // 1 May 2020 01:00 to 1 January 2021 00:00: 245 days × 24 h = 5880 h.
-        { from: '2020-05-01T01:00:00Z', to: '2021-01-01T00:00:00Z', hours: 5880, before: paths.apr, after: null, months: ['2020-05', '2020-06', '2020-07', '2020-08', '2020-09', '2020-10', '2020-11', '2020-12', '2021-01'] },
+        {
+          from: '2020-05-01T01:00:00Z',
+          to: '2021-01-01T00:00:00Z',
+          hours: 5880,
+          before: paths.apr,
+          after: null,
+          months: ['2020-05', '2020-06', '2020-07', '2020-08', '2020-09', '2020-10', '2020-11', '2020-12', '2021-01'],
+        },
       ]);
     }
   });
@@ -93,9 +102,15 @@ describe('coverage check of monthly files', () => {
     expect(text).toContain('d2m, sp, ssrd, t2m, u10, v10: hours present by month');
     expect(text).toMatch(/\n2020 +okD +✗672 +okD +okT +✗0 +✗0 +✗0 +✗0 +✗0 +✗0 +✗0 +✗0\n/);
     expect(text).toContain('✗ d2m, sp, ssrd, t2m, u10, v10: missing 24 h, stamps 2020-02-05T05:00:00Z to 2020-02-06T04:00:00Z, between feb.nc and feb.nc');
-    expect(text).toContain('✗ t2m: 744 h in two files with the same expver, stamps 2020-01-01T01:00:00Z to 2020-02-01T00:00:00Z: jan-again.nc and jan.nc; values differ in 10 of them');
-    expect(text).toContain('✗ d2m, sp, ssrd, u10, v10: 744 h in two files with the same expver, stamps 2020-01-01T01:00:00Z to 2020-02-01T00:00:00Z: jan-again.nc and jan.nc; values agree');
-    expect(text).toContain('T d2m, sp, ssrd, t2m, u10, v10: 720 h preliminary ERA5T (expver 5), stamps 2020-04-01T01:00:00Z to 2020-05-01T00:00:00Z, in apr.nc');
+    expect(text).toContain(
+      '✗ t2m: 744 h in two files with the same expver, stamps 2020-01-01T01:00:00Z to 2020-02-01T00:00:00Z: jan-again.nc and jan.nc; values differ in 10 of them',
+    );
+    expect(text).toContain(
+      '✗ d2m, sp, ssrd, u10, v10: 744 h in two files with the same expver, stamps 2020-01-01T01:00:00Z to 2020-02-01T00:00:00Z: jan-again.nc and jan.nc; values agree',
+    );
+    expect(text).toContain(
+      'T d2m, sp, ssrd, t2m, u10, v10: 720 h preliminary ERA5T (expver 5), stamps 2020-04-01T01:00:00Z to 2020-05-01T00:00:00Z, in apr.nc',
+    );
     expect(text).toContain('✗ land.nc is on another grid (2 × 3 points, spacing 0.1°)');
   });
 

@@ -20,7 +20,11 @@ const fx = (spec: Partial<FixtureSpec> & Pick<FixtureSpec, 'layout'>, kind?: 'nc
   writeFixture(dir, `f${n++}`, { start: '2020-01-01T00:00:00Z', hours: 24, lat: LAT_DESC, lon: LON_360, vars: ALL, ...spec }, kind);
 
 /** Max |read − pattern| of a canonical field over a block, with the pattern mapped like the reader. */
-function maxError(block: Awaited<ReturnType<Awaited<ReturnType<typeof openDataset>>['readBlock']>>, field: 'airTemperature' | 'surfacePressure' | 'solarGlobal' | 'windSpeed10m' | 'dewPointTemperature', expected: (ms: number, lat: number, lon: number) => number): number {
+function maxError(
+  block: Awaited<ReturnType<Awaited<ReturnType<typeof openDataset>>['readBlock']>>,
+  field: 'airTemperature' | 'surfacePressure' | 'solarGlobal' | 'windSpeed10m' | 'dewPointTemperature',
+  expected: (ms: number, lat: number, lon: number) => number,
+): number {
   const x = block.fields[field]!;
   const nx = block.lon.length;
   const cells = block.lat.length * nx;
@@ -84,13 +88,16 @@ describe('openDataset on ERA5 layouts (fixtures from ncgen)', () => {
     await ds2.close();
   });
 
-  it('the summary of chunks summarised elsewhere (as the build\'s workers do) equals the summary read in one go, and fills the cache', async () => {
+  it("the summary of chunks summarised elsewhere (as the build's workers do) equals the summary read in one go, and fills the cache", async () => {
     // Hours stamped 31 Dec 2020 00:00 … 1 Jan 2021 23:00 (stamps are hour ends): two UTC years, the
     // 25th stamp (1 Jan 00:00) ending the last hour that starts in 2020.
     const a = fx({ layout: 'legacy', start: '2020-12-31T00:00:00Z', hours: 48 });
     const ds = await openDataset([a], { product: 'era5' });
     const chunks = ds.summaryChunks();
-    expect(chunks.map((c) => c.hours)).toEqual([[0, 25], [25, 48]]);
+    expect(chunks.map((c) => c.hours)).toEqual([
+      [0, 25],
+      [25, 48],
+    ]);
     const whole = await ds.summary();
     const parts = new Map(await Promise.all(chunks.map(async (c) => [c.key, await ds.summariseChunk(c.hours[0], c.hours[1])] as const)));
     const kept = new Map<string, unknown>();
@@ -103,7 +110,16 @@ describe('openDataset on ERA5 layouts (fixtures from ncgen)', () => {
 
   it('expver along valid_time: where final ERA5 ("0001") and ERA5T ("0005") files share hours, final wins and no hour is counted twice', async () => {
     const fin = fx({ layout: 'cds2024', hours: 12, lon: [-0.5, -0.25, 0, 0.25], expver: Array(12).fill('0001') });
-    const pre = fx({ layout: 'cds2024', hours: 24, lon: [-0.5, -0.25, 0, 0.25], expver: Array(24).fill('0005'), value: (v, ms, la, lo) => (v === 't2m' ? 310 : toSource(v, pattern(v, ms, la, lo))) }, 'nc4');
+    const pre = fx(
+      {
+        layout: 'cds2024',
+        hours: 24,
+        lon: [-0.5, -0.25, 0, 0.25],
+        expver: Array(24).fill('0005'),
+        value: (v, ms, la, lo) => (v === 't2m' ? 310 : toSource(v, pattern(v, ms, la, lo))),
+      },
+      'nc4',
+    );
     const ds = await openDataset([pre, fin], { product: 'era5' });
     expect(ds.time.count).toBe(24);
     const b = await ds.readBlock(0, 24, { y0: 0, y1: 3, x0: 0, x1: 4 });
@@ -131,7 +147,19 @@ describe('openDataset on ERA5 layouts (fixtures from ncgen)', () => {
       for (let k = hour - 1; k >= 0; k--) s += pattern('ssrd', ms - k * H, la, lo) * 3600;
       return s;
     };
-    const file = fx({ layout: 'legacy', start: '2020-01-01T01:00:00Z', hours: 30, value: (v, ms, la, lo) => (v === 'ssrd' ? accumulated(ms, la, lo) : v === 't2m' || v === 'd2m' ? pattern(v, ms, la, lo) + 273.15 : v === 'sp' ? pattern(v, ms, la, lo) * 100 : pattern(v, ms, la, lo)) });
+    const file = fx({
+      layout: 'legacy',
+      start: '2020-01-01T01:00:00Z',
+      hours: 30,
+      value: (v, ms, la, lo) =>
+        v === 'ssrd'
+          ? accumulated(ms, la, lo)
+          : v === 't2m' || v === 'd2m'
+            ? pattern(v, ms, la, lo) + 273.15
+            : v === 'sp'
+              ? pattern(v, ms, la, lo) * 100
+              : pattern(v, ms, la, lo),
+    });
     const ds = await openDataset([file], { product: 'era5-land' });
     expect(ds.time.start).toBe(start);
     const b = await ds.readBlock(0, 30, { y0: 0, y1: 3, x0: 0, x1: 4 });
@@ -162,7 +190,11 @@ describe('openDataset bad inputs: each a catalogued error naming the file', () =
     const a = fx({ layout: 'legacy' });
     const b = fx({ layout: 'legacy', start: '2020-01-02T00:00:00Z', vars: ['t2m', 'sp', 'u10', 'v10', 'ssrd'] });
     const c = fx({ layout: 'legacy', start: '2020-01-03T00:00:00Z' });
-    await expectCatalogued(openDataset([a, b, c], { product: 'era5' }), 'MissingNetcdfVariable', /d2m: it is missing for the hours 2020-01-02T00:00:00Z to 2020-01-02T23:00:00Z, which f\d+\.nc cover/);
+    await expectCatalogued(
+      openDataset([a, b, c], { product: 'era5' }),
+      'MissingNetcdfVariable',
+      /d2m: it is missing for the hours 2020-01-02T00:00:00Z to 2020-01-02T23:00:00Z, which f\d+\.nc cover/,
+    );
   });
 
   it('a variable present for the first day only: the dataset keeps the common day and reports the hours the others have alone', async () => {
@@ -176,7 +208,11 @@ describe('openDataset bad inputs: each a catalogued error naming the file', () =
   });
 
   it('the configured land-sea mask variable missing from every file is MissingNetcdfVariable', async () => {
-    await expectCatalogued(openDataset([fx({ layout: 'legacy' })], { product: 'era5', landSeaMask: { variable: 'lsm', threshold: 0.5 } }), 'MissingNetcdfVariable', /lsm/);
+    await expectCatalogued(
+      openDataset([fx({ layout: 'legacy' })], { product: 'era5', landSeaMask: { variable: 'lsm', threshold: 0.5 } }),
+      'MissingNetcdfVariable',
+      /lsm/,
+    );
   });
 
   it('an unknown unit is NetcdfUnitUnknown naming the variable and file', async () => {
@@ -200,13 +236,21 @@ describe('openDataset bad inputs: each a catalogued error naming the file', () =
   it('a gap in the hourly axis is NetcdfTimeGap naming the hours and the files on both sides', async () => {
     const a = fx({ layout: 'legacy' });
     const b = fx({ layout: 'legacy', start: '2020-01-02T03:00:00Z' });
-    await expectCatalogued(openDataset([a, b], { product: 'era5' }), 'NetcdfTimeGap', /2020-01-02T00:00:00Z to 2020-01-02T02:00:00Z.*between f\d+\.nc \(ending 2020-01-01T23:00:00Z\) and f\d+\.nc \(starting 2020-01-02T03:00:00Z\); no input file holds these hours[\s\S]*at: file \/.*f\d+\.nc, \/.*f\d+\.nc/);
+    await expectCatalogued(
+      openDataset([a, b], { product: 'era5' }),
+      'NetcdfTimeGap',
+      /2020-01-02T00:00:00Z to 2020-01-02T02:00:00Z.*between f\d+\.nc \(ending 2020-01-01T23:00:00Z\) and f\d+\.nc \(starting 2020-01-02T03:00:00Z\); no input file holds these hours[\s\S]*at: file \/.*f\d+\.nc, \/.*f\d+\.nc/,
+    );
   });
 
   it('a gap inside one file (its time axis skips hours) is NetcdfTimeGap naming that file once, at: that file, not the land-sea mask listed first', async () => {
     const mask = fx({ layout: 'legacy', hours: 1, vars: ['lsm'] });
     const a = fx({ layout: 'legacy', skip: [5, 6] });
-    const e = await expectCatalogued(openDataset([mask, a], { product: 'era5' }), 'NetcdfTimeGap', /2020-01-01T05:00:00Z to 2020-01-01T06:00:00Z.*inside f\d+\.nc: its time axis jumps from 2020-01-01T04:00:00Z to 2020-01-01T07:00:00Z/);
+    const e = await expectCatalogued(
+      openDataset([mask, a], { product: 'era5' }),
+      'NetcdfTimeGap',
+      /2020-01-01T05:00:00Z to 2020-01-01T06:00:00Z.*inside f\d+\.nc: its time axis jumps from 2020-01-01T04:00:00Z to 2020-01-01T07:00:00Z/,
+    );
     expect(e.where.file).toBe(a);
   });
 
@@ -222,7 +266,11 @@ variables: int time(time) ; time:units = "hours since 1900-01-01" ; float latitu
 float longitude(longitude) ; longitude:units = "degrees_east" ; float t2m(time, number, latitude, longitude) ; t2m:units = "K" ;
 data: time = 1051896, 1051897 ; latitude = 1, 0 ; longitude = 0, 1 ; t2m = ${Array(24).fill(290).join(',')} ; }`;
     const { ncgen } = await import('../fixtures/read/era5-cdl.ts');
-    await expectCatalogued(openDataset([ncgen(dir, 'ens', cdl)], { product: 'era5', require: ['airTemperature'] }), 'NetcdfDimensionUnsupported', /number of length 3/);
+    await expectCatalogued(
+      openDataset([ncgen(dir, 'ens', cdl)], { product: 'era5', require: ['airTemperature'] }),
+      'NetcdfDimensionUnsupported',
+      /number of length 3/,
+    );
   });
 
   it('readBlock outside the dataset is NetcdfBlockOutOfRange', async () => {

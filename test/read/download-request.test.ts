@@ -39,7 +39,15 @@ describe('download requests for the demo atlas', () => {
     ]);
     const r0 = file.requests[0];
     expect(r0.dataset).toBe('reanalysis-era5-single-levels');
-    expect(r0.request.variable).toEqual(['2m_temperature', '2m_dewpoint_temperature', 'surface_pressure', '10m_u_component_of_wind', '10m_v_component_of_wind', 'surface_solar_radiation_downwards', 'total_sky_direct_solar_radiation_at_surface']);
+    expect(r0.request.variable).toEqual([
+      '2m_temperature',
+      '2m_dewpoint_temperature',
+      'surface_pressure',
+      '10m_u_component_of_wind',
+      '10m_v_component_of_wind',
+      'surface_solar_radiation_downwards',
+      'total_sky_direct_solar_radiation_at_surface',
+    ]);
     expect(r0.request.month).toHaveLength(12);
     expect(r0.request.day).toHaveLength(31);
     expect(r0.request.time).toHaveLength(24);

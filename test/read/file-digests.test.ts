@@ -23,7 +23,10 @@ describe('input file digests', () => {
 
   it('hashes each file on a worker thread to the SHA-256 sha256sum gives', async () => {
     const got = await fileDigests(files, { workers: 2, minBytes: 0 });
-    const want = execFileSync('sha256sum', files, { encoding: 'utf8' }).trim().split('\n').map((l) => l.split(/\s+/)[0]);
+    const want = execFileSync('sha256sum', files, { encoding: 'utf8' })
+      .trim()
+      .split('\n')
+      .map((l) => l.split(/\s+/)[0]);
     expect(files.map((f) => got.get(f))).toEqual(want);
   });
 

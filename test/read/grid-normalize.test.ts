@@ -17,7 +17,10 @@ describe('grid convention (pipeline/model/grid.ts: lat ascending, lon ascending 
     expect(m.values[0]).toBe(-180);
     expect(m.values[1439]).toBe(179.75);
     expect(m.source[0]).toBe(720);
-    expect(sourceRuns(m.source, 0, 1440)).toEqual([{ to: 0, from: 720, length: 720 }, { to: 720, from: 0, length: 720 }]);
+    expect(sourceRuns(m.source, 0, 1440)).toEqual([
+      { to: 0, from: 720, length: 720 },
+      { to: 720, from: 0, length: 720 },
+    ]);
   });
 
   it('a regional grid crossing 180° in 0–360 form keeps continuous longitudes 169.0625 … 236.875 (as in flxf06.gdas.1979.grb2.nc)', () => {

@@ -46,15 +46,30 @@ function collectionsOf(bytes: Uint8Array): number[] {
 }
 
 describe('global heap collections (HDF5 specification §III.E)', () => {
-  it('a collection built by the specification\'s table passes: objects of 4 and 9 bytes padded to 8, free space to the end', () => {
-    expect(globalHeapProblem(collection(4096, [[1, '0001'], [2, 'nine char']]), 8)).toBeNull();
+  it("a collection built by the specification's table passes: objects of 4 and 9 bytes padded to 8, free space to the end", () => {
+    expect(
+      globalHeapProblem(
+        collection(4096, [
+          [1, '0001'],
+          [2, 'nine char'],
+        ]),
+        8,
+      ),
+    ).toBeNull();
     // A tail too short for an object header counts as free space (HDF5 does the same).
     const b = collection(4096, [[1, 'x'.repeat(4096 - 16 - 16 - 8)]]);
     expect(globalHeapProblem(b, 8)).toBeNull();
   });
 
-  it('a free-space object of size 0 is refused (the walk would not advance), naming the collection and the object\'s byte', () => {
-    const b = collection(4096, [[1, '0001'], [2, '0005']], 0);
+  it("a free-space object of size 0 is refused (the walk would not advance), naming the collection and the object's byte", () => {
+    const b = collection(
+      4096,
+      [
+        [1, '0001'],
+        [2, '0005'],
+      ],
+      0,
+    );
     expect(globalHeapProblem(b, 8, 6144)).toBe(
       'the global heap collection at byte 6144 is damaged: the free space at byte 6208 claims 0 bytes, so its walk cannot advance (the HDF5 library would loop for ever)',
     );
@@ -101,7 +116,9 @@ describe('global heap collections (HDF5 specification §III.E)', () => {
   it('the damaged fixture on which HDF5 loops is refused at its one collection', () => {
     const bad = new Uint8Array(readFileSync(join(FX, 'netcdf4-global-heap-empty-free-space.nc')));
     const [at] = collectionsOf(bad);
-    expect(globalHeapProblem(bad.subarray(at), 8, at)).toMatch(/^the global heap collection at byte 6144 is damaged: the free space at byte \d+ claims 0 bytes/);
+    expect(globalHeapProblem(bad.subarray(at), 8, at)).toMatch(
+      /^the global heap collection at byte 6144 is damaged: the free space at byte \d+ claims 0 bytes/,
+    );
   });
 });
 

@@ -15,7 +15,10 @@ describe('heathours inspect', () => {
   it('--json prints one object per file with format, dims, roles and decoded ranges (reduced.nc and esku_heat_budget.cdf)', () => {
     const r = run('--json', REAL + 'reduced.nc', REAL + 'esku_heat_budget.cdf');
     expect(r.status).toBe(0);
-    const [a, b] = r.stdout.trim().split('\n').map((l) => JSON.parse(l));
+    const [a, b] = r.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l));
     expect(a.format).toBe('netcdf3-classic');
     expect(a.variables.find((v: { name: string }) => v.name === 'sst')).toMatchObject({ fillCount: 4448, role: 'other', units: 'degree_C' });
     expect(b.timeAxes[0].problem.code).toBe('NetcdfCalendarUnsupported');
@@ -51,9 +54,17 @@ describe('heathours inspect', () => {
     expect(rep.files.map((f: { name: string }) => f.name)).toEqual(['day1.nc', 'day3.nc']);
     const t2m = rep.variables.find((v: { variable: string }) => v.variable === 't2m');
     // Stamps 2020-01-02T01:00Z … 2020-01-03T00:00Z: the 24 hours of 2 January.
-    expect(t2m.gaps[0]).toMatchObject({ from: '2020-01-02T01:00:00Z', to: '2020-01-03T00:00:00Z', hours: 24, before: join(d, 'first.zip') + '!/day1.nc', after: join(d, 'day3.nc') });
+    expect(t2m.gaps[0]).toMatchObject({
+      from: '2020-01-02T01:00:00Z',
+      to: '2020-01-03T00:00:00Z',
+      hours: 24,
+      before: join(d, 'first.zip') + '!/day1.nc',
+      after: join(d, 'day3.nc'),
+    });
     const text = run('--coverage', d);
-    expect(text.stdout).toMatch(/✗ d2m, sp, ssrd, t2m, u10, v10: missing 24 h, stamps 2020-01-02T01:00:00Z to 2020-01-03T00:00:00Z, between first\.zip!\/day1\.nc and day3\.nc/);
+    expect(text.stdout).toMatch(
+      /✗ d2m, sp, ssrd, t2m, u10, v10: missing 24 h, stamps 2020-01-02T01:00:00Z to 2020-01-03T00:00:00Z, between first\.zip!\/day1\.nc and day3\.nc/,
+    );
     const bad = run('--coverage', '--years', '2021-2020', d);
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/error \[UsageError\]/);

@@ -241,7 +241,11 @@ describe('damaged chunks', () => {
     try {
       const v = varOf(sf, 'f4');
       let pieces = 0;
-      const e = await expectCataloguedAsync(sf.readSlabs([{ v, start: [0, 0, 0], count: v.shape }], () => pieces++), 'NetcdfChunkDamaged', /variable f4, the chunk starting at time 5, lat 0, lon 7 .*does not inflate/);
+      const e = await expectCataloguedAsync(
+        sf.readSlabs([{ v, start: [0, 0, 0], count: v.shape }], () => pieces++),
+        'NetcdfChunkDamaged',
+        /variable f4, the chunk starting at time 5, lat 0, lon 7 .*does not inflate/,
+      );
       expect(e.message).toContain(file);
       expect(pieces).toBe(0);
       // Chunks before the damage still read.
@@ -263,7 +267,11 @@ describe('damaged chunks', () => {
     const sf = await openSourceFile(file);
     try {
       const v = varOf(sf, 'i2');
-      await expectCataloguedAsync(sf.readSlabs([{ v, start: [0, 0, 0], count: [5, 3, 7] }], () => undefined), 'NetcdfChunkDamaged', new RegExp(`variable i2, the chunk starting at time 0, lat 0, lon 0 .*holds ${chunkBytes - 6} bytes where a chunk has ${chunkBytes}`));
+      await expectCataloguedAsync(
+        sf.readSlabs([{ v, start: [0, 0, 0], count: [5, 3, 7] }], () => undefined),
+        'NetcdfChunkDamaged',
+        new RegExp(`variable i2, the chunk starting at time 0, lat 0, lon 0 .*holds ${chunkBytes - 6} bytes where a chunk has ${chunkBytes}`),
+      );
     } finally {
       await sf.close();
     }
@@ -271,14 +279,26 @@ describe('damaged chunks', () => {
 
   it('readBlock meeting a damaged chunk restates it as NetcdfDataUnreadable with the variable, the hours read and the chunk', async () => {
     // ncgen (netcdf-bin) writes the ERA5 2024 layout: float32, deflate 1 + shuffle, chunks of 24 h.
-    const file = writeFixture(dir, 'era5-damaged', { layout: 'cds2024', start: '2020-01-01T00:00:00Z', hours: 60, lat: [10.5, 10.25, 10], lon: [0, 0.25, 0.5, 0.75], vars: ['t2m'], chunkHours: 24 });
+    const file = writeFixture(dir, 'era5-damaged', {
+      layout: 'cds2024',
+      start: '2020-01-01T00:00:00Z',
+      hours: 60,
+      lat: [10.5, 10.25, 10],
+      lon: [0, 0.25, 0.5, 0.75],
+      vars: ['t2m'],
+      chunkHours: 24,
+    });
     const { at, size } = await chunkAt(file, 't2m', 1);
     patch(file, at + 2, new Uint8Array(Math.min(32, size - 2)).fill(0xff));
     const ds = await openDataset([file], { product: 'era5', require: ['airTemperature'], digests: false });
     try {
       const tile = { y0: 0, y1: 3, x0: 0, x1: 4 };
       await ds.readBlock(0, 20, tile); // the first chunk is sound
-      const e = await expectCataloguedAsync(ds.readBlock(20, 30, tile), 'NetcdfDataUnreadable', /t2m for the hours 2020-01-01T20:00:00Z to 2020-01-03T01:00:00Z .*the chunk starting at valid_time 24, latitude 0, longitude 0/);
+      const e = await expectCataloguedAsync(
+        ds.readBlock(20, 30, tile),
+        'NetcdfDataUnreadable',
+        /t2m for the hours 2020-01-01T20:00:00Z to 2020-01-03T01:00:00Z .*the chunk starting at valid_time 24, latitude 0, longitude 0/,
+      );
       expect(e.where).toMatchObject({ file, variable: 't2m' });
     } finally {
       await ds.close();

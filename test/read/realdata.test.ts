@@ -20,7 +20,10 @@ function ncdumpValues(file: string, variable: string): Array<number | null> {
   const text = execFileSync('ncdump', ['-v', variable, file], { encoding: 'utf8', maxBuffer: 1 << 28 });
   const data = text.slice(text.indexOf('data:'));
   const body = data.slice(data.indexOf(`${variable} =`) + variable.length + 2, data.lastIndexOf(';'));
-  return body.split(/[,\s]+/).filter((s) => s.length > 0).map((s) => (s === '_' || /nan/i.test(s) ? null : Number(s)));
+  return body
+    .split(/[,\s]+/)
+    .filter((s) => s.length > 0)
+    .map((s) => (s === '_' || /nan/i.test(s) ? null : Number(s)));
 }
 
 function ncdumpStats(vals: Array<number | null>, scale = 1) {

@@ -35,7 +35,11 @@ beforeAll(() => {
 describe('people rasters heathours reads', () => {
   it('reads the size and georeference gdalinfo reports, and the no-data value GDAL wrote', async () => {
     gdal(['gdal_translate', '-q', '-a_nodata', '-99999', '-ot', 'Int32', join(dir, 'ok.tif'), join(dir, 'int.tif')]);
-    const info = JSON.parse(execFileSync('gdalinfo', ['-json', join(dir, 'int.tif')], { encoding: 'utf8' })) as { size: number[]; geoTransform: number[]; bands: Array<{ noDataValue: number; type: string }> };
+    const info = JSON.parse(execFileSync('gdalinfo', ['-json', join(dir, 'int.tif')], { encoding: 'utf8' })) as {
+      size: number[];
+      geoTransform: number[];
+      bands: Array<{ noDataValue: number; type: string }>;
+    };
     const r = await openWorkforceRaster(join(dir, 'int.tif'));
     expect([r.width, r.height]).toEqual(info.size);
     expect(r.west).toBeCloseTo(info.geoTransform[0], 12);
@@ -103,10 +107,32 @@ describe('people rasters heathours refuses, with a catalogued error and the fix'
     writeFileSync(join(dir, 'text.tif'), 'region_id,workload_class,share\n');
     await expectCataloguedAsync(openWorkforceRaster(join(dir, 'text.tif')), 'WorkforceRasterUnreadable', /text\.tif/);
     // A larger raster whose pixels fill most of the file, cut so that its header is whole but its last strips are gone.
-    gdal(['gdal_translate', '-q', '-outsize', '400', '300', '-r', 'bilinear', '-co', 'COMPRESS=DEFLATE', '-co', 'PREDICTOR=3', join(dir, 'ok.tif'), join(dir, 'deflate.tif')]);
+    gdal([
+      'gdal_translate',
+      '-q',
+      '-outsize',
+      '400',
+      '300',
+      '-r',
+      'bilinear',
+      '-co',
+      'COMPRESS=DEFLATE',
+      '-co',
+      'PREDICTOR=3',
+      join(dir, 'ok.tif'),
+      join(dir, 'deflate.tif'),
+    ]);
     const bytes = readFileSync(join(dir, 'deflate.tif'));
     writeFileSync(join(dir, 'cut.tif'), bytes.subarray(0, Math.floor(bytes.length * 0.8)));
     const grid = { lat: Float64Array.from({ length: 5 }, (_, j) => -6.25 + j * 0.2), lon: Float64Array.from({ length: 8 }, (_, i) => 100.3 + i * 0.2) };
-    await expectCataloguedAsync(aggregateRasterFile(join(dir, 'cut.tif'), grid, Int32Array.from({ length: 40 }, (_, i) => i)), 'WorkforceRasterUnreadable', /cut\.tif/);
+    await expectCataloguedAsync(
+      aggregateRasterFile(
+        join(dir, 'cut.tif'),
+        grid,
+        Int32Array.from({ length: 40 }, (_, i) => i),
+      ),
+      'WorkforceRasterUnreadable',
+      /cut\.tif/,
+    );
   });
 });

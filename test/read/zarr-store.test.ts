@@ -52,7 +52,10 @@ afterAll(async () => {
 });
 
 async function values(paths: string[]) {
-  const ds = await openDataset(paths, { product: 'era5', require: ['airTemperature', 'dewPointTemperature', 'surfacePressure', 'windSpeed10m', 'solarGlobal', 'solarDirect', 'thermalDown'] });
+  const ds = await openDataset(paths, {
+    product: 'era5',
+    require: ['airTemperature', 'dewPointTemperature', 'surfacePressure', 'windSpeed10m', 'solarGlobal', 'solarDirect', 'thermalDown'],
+  });
   try {
     const b = await ds.readBlock(0, ds.time.count, tile);
     const fields = Object.fromEntries(Object.entries(b.fields).map(([k, x]) => [k, Array.from(x!)]));
@@ -63,7 +66,10 @@ async function values(paths: string[]) {
 }
 
 describe('a Zarr store in the analysis-ready ERA5 layout reads the values of the same NetCDF file', () => {
-  for (const [layout, kind] of [['legacy', 'nc3'], ['cds2024', 'nc4']] as const) {
+  for (const [layout, kind] of [
+    ['legacy', 'nc3'],
+    ['cds2024', 'nc4'],
+  ] as const) {
     for (const version of [2, 3] as const) {
       it(`${layout} values (ncgen ${kind}) as a Zarr v${version} store: same grid, hours and decoded fields, from disk and over HTTP`, async () => {
         const nc = fx({ layout }, kind);
@@ -92,8 +98,16 @@ describe('a Zarr store in the analysis-ready ERA5 layout reads the values of the
 
   it('a store with the variables split over two stores (instant and accumulated) joins them as the NetCDF streams are joined', async () => {
     const nc = fx({ layout: 'legacy' });
-    await writeZarrFromNetcdf([nc], join(dir, 'inst.zarr'), { version: 2, chunkHours: 5, omit: ['surface_solar_radiation_downwards', 'total_sky_direct_solar_radiation_at_surface', 'surface_thermal_radiation_downwards'] });
-    await writeZarrFromNetcdf([nc], join(dir, 'acc.zarr'), { version: 2, chunkHours: 5, omit: ['2m_temperature', '2m_dewpoint_temperature', 'surface_pressure', '10m_u_component_of_wind', '10m_v_component_of_wind'] });
+    await writeZarrFromNetcdf([nc], join(dir, 'inst.zarr'), {
+      version: 2,
+      chunkHours: 5,
+      omit: ['surface_solar_radiation_downwards', 'total_sky_direct_solar_radiation_at_surface', 'surface_thermal_radiation_downwards'],
+    });
+    await writeZarrFromNetcdf([nc], join(dir, 'acc.zarr'), {
+      version: 2,
+      chunkHours: 5,
+      omit: ['2m_temperature', '2m_dewpoint_temperature', 'surface_pressure', '10m_u_component_of_wind', '10m_v_component_of_wind'],
+    });
     expect((await values([join(dir, 'inst.zarr'), join(dir, 'acc.zarr')])).fields).toEqual((await values([nc])).fields);
   });
 });
@@ -152,7 +166,11 @@ describe('broken Zarr stores end in catalogued errors', () => {
     const meta = JSON.parse(readFileSync(join(p, '.zmetadata'), 'utf8'));
     meta.metadata['surface_pressure/.zarray'].shape[2] = 5;
     writeFileSync(join(p, '.zmetadata'), JSON.stringify(meta));
-    await expectCatalogued(openDataset([p], { product: 'era5' }), 'ZarrGridMismatch', /dimension longitude has length 4 in array .* but 5 in array surface_pressure/);
+    await expectCatalogued(
+      openDataset([p], { product: 'era5' }),
+      'ZarrGridMismatch',
+      /dimension longitude has length 4 in array .* but 5 in array surface_pressure/,
+    );
   });
 
   it('damaged metadata: ZarrMetadataInvalid (consolidated metadata that is not JSON; an array without dimension names)', async () => {

@@ -20,7 +20,12 @@ const INSTANT: Short[] = ['t2m', 'd2m', 'sp', 'u10', 'v10'];
 const ACCUM: Short[] = ['ssrd'];
 let n = 0;
 const fx = (spec: Partial<FixtureSpec> & Pick<FixtureSpec, 'layout'>, kind?: 'nc3' | 'nc4') =>
-  writeFixture(dir, `f${n++}`, { start: '2020-01-01T00:00:00Z', hours: 24, lat: [10.5, 10.25, 10], lon: [-0.5, -0.25, 0, 0.25], vars: [...INSTANT, ...ACCUM], ...spec }, kind);
+  writeFixture(
+    dir,
+    `f${n++}`,
+    { start: '2020-01-01T00:00:00Z', hours: 24, lat: [10.5, 10.25, 10], lon: [-0.5, -0.25, 0, 0.25], vars: [...INSTANT, ...ACCUM], ...spec },
+    kind,
+  );
 
 /** Zips `files` under the given member names with Info-ZIP (`-0` stored, `-9` deflated); `-j` drops folders. */
 function zip(name: string, members: Record<string, string>, level: '-0' | '-9'): string {
@@ -39,14 +44,24 @@ async function values(paths: string[], memberCache: string) {
   const ds = await openDataset(paths, { product: 'era5', memberCache });
   try {
     const b = await ds.readBlock(0, ds.time.count, tile);
-    return { files: ds.files, time: ds.time, notes: ds.notes, t2m: Array.from(b.fields.airTemperature!), ssrd: Array.from(b.fields.solarGlobal!), wind: Array.from(b.fields.windSpeed10m!) };
+    return {
+      files: ds.files,
+      time: ds.time,
+      notes: ds.notes,
+      t2m: Array.from(b.fields.airTemperature!),
+      ssrd: Array.from(b.fields.solarGlobal!),
+      wind: Array.from(b.fields.windSpeed10m!),
+    };
   } finally {
     await ds.close();
   }
 }
 
 describe('ZIP archives of the two streams (Info-ZIP zip, ncgen members)', () => {
-  for (const [layout, kind] of [['legacy', 'nc3'], ['cds2024', 'nc4']] as const) {
+  for (const [layout, kind] of [
+    ['legacy', 'nc3'],
+    ['cds2024', 'nc4'],
+  ] as const) {
     for (const level of ['-0', '-9'] as const) {
       it(`${layout} members, ${level === '-0' ? 'stored' : 'deflated'}: the archive reads the same values, names, sizes and SHA-256 as the unzipped files`, async () => {
         const extra = layout === 'cds2024' ? { expver: Array(24).fill('0001') } : {};
@@ -58,7 +73,9 @@ describe('ZIP archives of the two streams (Info-ZIP zip, ncgen members)', () => 
         const plainDir = join(dir, `plain${n++}`);
         execFileSync('mkdir', ['-p', plainDir]);
         execFileSync('unzip', ['-q', archive, '-d', plainDir]);
-        const plain = readdirSync(plainDir).map((f) => join(plainDir, f)).sort();
+        const plain = readdirSync(plainDir)
+          .map((f) => join(plainDir, f))
+          .sort();
         const fromZip = await values([archive], cache);
         const fromFiles = await values(plain, join(dir, `cache${n++}`));
         expect(fromZip.t2m).toEqual(fromFiles.t2m);

@@ -22,7 +22,7 @@ const HOUR = 3_600_000;
 /** Seeded invented hourly WBGT for `nc` cells over `nt` hours from `start` (a diurnal cycle plus noise). */
 function inventedBlock(nc: number, nt: number, start: number, seed: number, nanEvery = 0) {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const time = Float64Array.from({ length: nt }, (_, t) => start + (t + 1) * HOUR);
   const sun = new Float32Array(nt * nc);
   const shade = new Float32Array(nt * nc);
@@ -43,7 +43,11 @@ function inventedBlock(nc: number, nt: number, start: number, seed: number, nanE
 function run(evals: readonly WorkEvaluation[], general: boolean, nc: number, nt: number, seed: number, tz = 'Etc/GMT+10'): ShardPartial {
   const start = Date.UTC(2021, 5, 20);
   const b = inventedBlock(nc, nt, start, seed, 97);
-  const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => i * 3), evals);
+  const p = createPartial(
+    2021,
+    Int32Array.from({ length: nc }, (_, i) => i * 3),
+    evals,
+  );
   const scratch = createScratch(nt * nc, evals, general);
   const local = localHours(b.time, tz, work.shift);
   accumulateBlock(p, { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local }, evals, scratch);
@@ -51,7 +55,14 @@ function run(evals: readonly WorkEvaluation[], general: boolean, nc: number, nt:
 }
 
 /** Counts hours [t0, t1) of invented block `b` (UTC−10) for `cells` into a new partial of 2021 holding `months`, with `scratch`. */
-function countPiece(b: ReturnType<typeof inventedBlock>, cells: Int32Array, t0: number, t1: number, scratch: ReduceScratch, months: [number, number] = [0, 12]): ShardPartial {
+function countPiece(
+  b: ReturnType<typeof inventedBlock>,
+  cells: Int32Array,
+  t0: number,
+  t1: number,
+  scratch: ReduceScratch,
+  months: [number, number] = [0, 12],
+): ShardPartial {
   const nc = cells.length;
   const p = createPartial(2021, cells, work.evaluations, months);
   const sl = (a: Float32Array) => a.subarray(t0 * nc, t1 * nc);
@@ -98,14 +109,19 @@ describe('per-shard accumulation', () => {
     });
   });
 
-  it('hours are assigned to the local month and only to the partial\'s local year (Etc/GMT+10: 31 Dec 14:00 UTC is still December)', () => {
+  it("hours are assigned to the local month and only to the partial's local year (Etc/GMT+10: 31 Dec 14:00 UTC is still December)", () => {
     const evals = work.evaluations;
     const nc = 1;
     const start = Date.UTC(2021, 11, 31, 0);
     const b = inventedBlock(nc, 24, start, 3);
     const p = createPartial(2021, Int32Array.of(0), evals);
     const scratch = createScratch(24 * nc, evals);
-    accumulateBlock(p, { nHours: 24, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local: localHours(b.time, 'Etc/GMT+10', work.shift) }, evals, scratch);
+    accumulateBlock(
+      p,
+      { nHours: 24, wbgtSun: b.sun, wbgtShade: b.shade, airTemperature: b.air, local: localHours(b.time, 'Etc/GMT+10', work.shift) },
+      evals,
+      scratch,
+    );
     // Hours ending 01:00 … 24:00 UTC on 31 Dec start 14:00 on 30 Dec … 13:00 on 31 Dec local: all December 2021.
     expect(p.coveredHours[11]).toBe(24);
     expect(p.validHours[11]).toBe(24);
@@ -120,13 +136,28 @@ describe('merging partials', () => {
     const split = (from: number, to: number) => {
       const q = createPartial(2021, whole.cells.slice(from, to), evals);
       const per = (f: keyof ShardPartial) => (whole[f] as ArrayLike<number>).length / nc;
-      for (const f of ['validHours', 'shiftHours', 'aboveAll', 'aboveShift', 'lostShift', 'capacityLoss', 'wbgtSum', 'wbgtMax', 'airSum', 'airHours', 'failedHours'] as const) {
+      for (const f of [
+        'validHours',
+        'shiftHours',
+        'aboveAll',
+        'aboveShift',
+        'lostShift',
+        'capacityLoss',
+        'wbgtSum',
+        'wbgtMax',
+        'airSum',
+        'airHours',
+        'failedHours',
+      ] as const) {
         const w = per(f);
-        (q[f] as unknown as { set(a: ArrayLike<number>): void }).set((whole[f] as unknown as { subarray(a: number, b: number): ArrayLike<number> }).subarray(from * w, to * w));
+        (q[f] as unknown as { set(a: ArrayLike<number>): void }).set(
+          (whole[f] as unknown as { subarray(a: number, b: number): ArrayLike<number> }).subarray(from * w, to * w),
+        );
       }
       // The histogram is month-major (month × hour × cell × exposure × bin): copy the cells' runs.
       const run = N_EXPOSURES * HIST_LEN;
-      for (let mh = 0; mh < MONTHS * HOURS; mh++) q.histogram.set(whole.histogram.subarray((mh * nc + from) * run, (mh * nc + to) * run), mh * (to - from) * run);
+      for (let mh = 0; mh < MONTHS * HOURS; mh++)
+        q.histogram.set(whole.histogram.subarray((mh * nc + from) * run, (mh * nc + to) * run), mh * (to - from) * run);
       q.coveredHours.set(whole.coveredHours);
       return q;
     };
@@ -140,7 +171,7 @@ describe('merging partials', () => {
     expect(a.histogram.some((x) => x > 0)).toBe(true);
   });
 
-  it('a merge over a subset of a partial\'s cells keeps exactly those cells, and refuses the others unless asked to skip them', () => {
+  it("a merge over a subset of a partial's cells keeps exactly those cells, and refuses the others unless asked to skip them", () => {
     const evals = work.evaluations;
     const whole = run(evals, false, 4, 24 * 5, 9);
     const all = mergeYear(2021, whole.cells, [whole]);
@@ -152,13 +183,15 @@ describe('merging partials', () => {
     expect(sub.histogram.length).toBe(2 * CELL_YEAR_HIST);
     for (let m = 0; m < MONTHS; m++) {
       for (let h = 0; h < HOURS; h++) {
-        expect(sub.histogram.subarray(histogramSlot(m, h, 0, 2), histogramSlot(m, h, 2, 2))).toEqual(all.histogram.subarray(histogramSlot(m, h, 1, 4), histogramSlot(m, h, 3, 4)));
+        expect(sub.histogram.subarray(histogramSlot(m, h, 0, 2), histogramSlot(m, h, 2, 2))).toEqual(
+          all.histogram.subarray(histogramSlot(m, h, 1, 4), histogramSlot(m, h, 3, 4)),
+        );
       }
     }
     expect(() => mergeYear(2021, some, [whole], ['t00-y2021'])).toThrow(/holds cell 0, which is not a land cell/);
   });
 
-  it('the pieces of a tile\'s year (split by time) add up to the tile computed whole, covered hours summed', () => {
+  it("the pieces of a tile's year (split by time) add up to the tile computed whole, covered hours summed", () => {
     const evals = work.evaluations;
     const nc = 3;
     const nt = 24 * 6;
@@ -172,7 +205,7 @@ describe('merging partials', () => {
     expect(Array.from(split.coveredHours).reduce((x, y) => x + y, 0)).toBe(nt);
   });
 
-  it('monthly pieces, each holding only its month of histograms, add up to the whole, and an hour outside a piece\'s months is refused', () => {
+  it("monthly pieces, each holding only its month of histograms, add up to the whole, and an hour outside a piece's months is refused", () => {
     const evals = work.evaluations;
     const nc = 4;
     const nt = 24 * 70;

@@ -26,7 +26,7 @@ const HOUR = 3_600_000;
 /** Seeded invented hourly WBGT in sun, shade and shelter (shelter = shade + 0.1 … 0.6 °C) for `nc` cells over `nt` hours of June 2021. */
 function inventedBlock(nc: number, nt: number, seed: number) {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const time = Float64Array.from({ length: nt }, (_, t) => Date.UTC(2021, 5, 10) + (t + 1) * HOUR);
   const sun = new Float32Array(nt * nc);
   const shade = new Float32Array(nt * nc);
@@ -48,9 +48,18 @@ function inventedBlock(nc: number, nt: number, seed: number) {
 
 function count(evaluations: typeof withShelter.evaluations, general: boolean, nc: number, nt: number, seed: number, shelterArray = true): ShardPartial {
   const b = inventedBlock(nc, nt, seed);
-  const p = createPartial(2021, Int32Array.from({ length: nc }, (_, i) => i), evaluations);
+  const p = createPartial(
+    2021,
+    Int32Array.from({ length: nc }, (_, i) => i),
+    evaluations,
+  );
   const local = localHours(b.time, 'Etc/GMT+10', withShelter.shift);
-  accumulateBlock(p, { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, wbgtShelter: shelterArray ? b.shelter : undefined, airTemperature: b.air, local }, evaluations, createScratch(nt * nc, evaluations, general));
+  accumulateBlock(
+    p,
+    { nHours: nt, wbgtSun: b.sun, wbgtShade: b.shade, wbgtShelter: shelterArray ? b.shelter : undefined, airTemperature: b.air, local },
+    evaluations,
+    createScratch(nt * nc, evaluations, general),
+  );
   return p;
 }
 

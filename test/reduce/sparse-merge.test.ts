@@ -27,7 +27,7 @@ const meta: PartialMeta = { shardId: 't00-y2021', year: 2021, tileIndex: 0, key:
 /** Invented hourly WBGT for `nc` cells over `nt` hours from 20 June 2021 (seeded). */
 function block(nc: number, nt: number, seed: number) {
   let s = seed >>> 0;
-  const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+  const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
   const start = Date.UTC(2021, 5, 20);
   const time = Float64Array.from({ length: nt }, (_, t) => start + (t + 1) * HOUR);
   const sun = new Float32Array(nt * nc);
@@ -43,7 +43,15 @@ function block(nc: number, nt: number, seed: number) {
 }
 
 /** Hours [t0, t1) of `b` for `cells` (the first `cells.length` of the block's cells) into a partial holding `months`. */
-function piece(b: ReturnType<typeof block>, nc: number, cells: Int32Array, c0: number, t0: number, t1: number, months: [number, number] = [0, 12]): ShardPartial {
+function piece(
+  b: ReturnType<typeof block>,
+  nc: number,
+  cells: Int32Array,
+  c0: number,
+  t0: number,
+  t1: number,
+  months: [number, number] = [0, 12],
+): ShardPartial {
   const n = cells.length;
   const p = createPartial(2021, cells, work.evaluations, months);
   const pick = (a: Float32Array) => {
@@ -52,7 +60,12 @@ function piece(b: ReturnType<typeof block>, nc: number, cells: Int32Array, c0: n
     return out;
   };
   const local = localHours(b.time.subarray(t0, t1), 'Etc/GMT+10', work.shift);
-  accumulateBlock(p, { nHours: t1 - t0, wbgtSun: pick(b.sun), wbgtShade: pick(b.shade), airTemperature: pick(b.air), local }, work.evaluations, createScratch((t1 - t0) * n, work.evaluations));
+  accumulateBlock(
+    p,
+    { nHours: t1 - t0, wbgtSun: pick(b.sun), wbgtShade: pick(b.shade), airTemperature: pick(b.air), local },
+    work.evaluations,
+    createScratch((t1 - t0) * n, work.evaluations),
+  );
   return p;
 }
 
@@ -133,7 +146,7 @@ describe('merging sparse histograms', () => {
 
   it('the sparse form is the same read two bins at a time (aligned) as one at a time (unaligned), and each slot runs exactly from its first to its last non-empty bin', () => {
     let r = 99;
-    const rnd = () => ((r = (r * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+    const rnd = () => (r = (r * 1664525 + 1013904223) >>> 0) / 2 ** 32;
     const slots = 400;
     const h = new Uint16Array(slots * HIST_LEN);
     for (let s = 0; s < slots; s++) {

@@ -21,7 +21,7 @@ describe('a block in the physics layout', () => {
     const nc = 8;
     const nt = 24 * 40;
     let s = 4242;
-    const rnd = () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+    const rnd = () => (s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32;
     const start = Date.UTC(2021, 11, 5);
     const time = Float64Array.from({ length: nt }, (_, t) => start + (t + 1) * HOUR);
     const sun = new Float32Array(nt * nc);
@@ -60,7 +60,15 @@ describe('a block in the physics layout', () => {
       return p;
     };
     const timeMajor = count({ nHours: nt, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local });
-    const strided = count({ nHours: nt, cellBase: base, cellStride: stride, wbgtSun: toRuns(sun), wbgtShade: toRuns(shade), airTemperature: toRuns(air), local });
+    const strided = count({
+      nHours: nt,
+      cellBase: base,
+      cellStride: stride,
+      wbgtSun: toRuns(sun),
+      wbgtShade: toRuns(shade),
+      airTemperature: toRuns(air),
+      local,
+    });
     expect(timeMajor.aboveShift.some((x) => x > 0)).toBe(true);
     expect(timeMajor.failedHours.some((x) => x > 0)).toBe(true);
     expect(Array.from(timeMajor.coveredHours).reduce((a, b) => a + b, 0)).toBeLessThan(nt); // some hours are local 2022
@@ -71,6 +79,8 @@ describe('a block in the physics layout', () => {
         expect(Buffer.from(v.buffer, v.byteOffset, v.byteLength).equals(Buffer.from(x.buffer, x.byteOffset, x.byteLength)), k).toBe(true);
       } else expect(w, k).toEqual(v);
     }
-    expect(() => count({ nHours: nt, cellBase: base, cellStride: stride, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local }, true)).toThrow(/needs a time-major block/);
+    expect(() => count({ nHours: nt, cellBase: base, cellStride: stride, wbgtSun: sun, wbgtShade: shade, airTemperature: air, local }, true)).toThrow(
+      /needs a time-major block/,
+    );
   });
 });

@@ -42,10 +42,19 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     expect(w.coveredFraction).toBeCloseTo(1, 12);
   });
 
-  it('a triangle that cuts the west half out of a cell gives fraction 0.5 exactly (a meridian bisects a cell\'s area)', () => {
+  it("a triangle that cuts the west half out of a cell gives fraction 0.5 exactly (a meridian bisects a cell's area)", () => {
     // Triangle (11.5, 0) (11.5, 3) (5, 1.5): inside cell (1 °N–2 °N, 11–12 °E) it is exactly the west half (hand-checked: its
     // slanted edges pass the cell's west edge at 1.5 ± 1.5·(6/6.5) °N, outside 1–2 °N).
-    const w = regionCellWeights(one([[[11.5, 0], [11.5, 3], [5, 1.5]]]), g4);
+    const w = regionCellWeights(
+      one([
+        [
+          [11.5, 0],
+          [11.5, 3],
+          [5, 1.5],
+        ],
+      ]),
+      g4,
+    );
     expect(byCell(w)[5]).toBeCloseTo(0.5, 12);
   });
 
@@ -54,12 +63,21 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     const b = RAD;
     const want = (1 - Math.cos(b)) / (b * Math.sin(b));
     const gEq = grid(0.5, 2, 0.5, 2);
-    const w = regionCellWeights(one([[[0, 0], [1, 0], [1, 1]]]), gEq);
+    const w = regionCellWeights(
+      one([
+        [
+          [0, 0],
+          [1, 0],
+          [1, 1],
+        ],
+      ]),
+      gEq,
+    );
     expect(w.fraction[0]).toBeCloseTo(want, 11); // the closed form itself loses ~1e-13 to 1 − cos b
     expect(Math.abs(w.fraction[0] - 0.5)).toBeLessThan(2e-5);
   });
 
-  it('a polygon with a hole leaves the hole\'s cells out and halves the cell a hole half covers', () => {
+  it("a polygon with a hole leaves the hole's cells out and halves the cell a hole half covers", () => {
     const w = regionCellWeights(one([rect(10, 0, 14, 4), rect(11, 1, 13, 3)]), g4);
     expect(w.cells).toHaveLength(12);
     for (const c of [5, 6, 9, 10]) expect(byCell(w)[c]).toBeUndefined();
@@ -70,7 +88,14 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
 
   it('a region across the antimeridian written in −180…180 matches a grid running 170…190 °E', () => {
     const gd = grid(-4.5, 10, 170.5, 20); // centres 170.5 … 189.5 °E
-    const r = one([[[175, -2], [-175, -2], [-175, 2], [175, 2]]]);
+    const r = one([
+      [
+        [175, -2],
+        [-175, -2],
+        [-175, 2],
+        [175, 2],
+      ],
+    ]);
     const w = regionCellWeights(r, gd);
     expect(w.cells).toHaveLength(40); // 10 columns (175…185) × 4 rows (−2…2)
     for (const f of w.fraction) expect(f).toBeCloseTo(1, 12);
@@ -97,7 +122,11 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
   it('a region split at ±180 into a MultiPolygon (RFC 7946 §3.1.9) gives the same cells as the continuous one', () => {
     const gd = grid(-4.5, 10, 170.5, 20);
     const split = parseRegionGeoJson(
-      { type: 'Feature', properties: { id: 'split', name: 'Split' }, geometry: { type: 'MultiPolygon', coordinates: [[[...rect(175, -2, 180, 2), [175, -2]]], [[...rect(-180, -2, -175, 2), [-180, -2]]]] } },
+      {
+        type: 'Feature',
+        properties: { id: 'split', name: 'Split' },
+        geometry: { type: 'MultiPolygon', coordinates: [[[...rect(175, -2, 180, 2), [175, -2]]], [[...rect(-180, -2, -175, 2), [-180, -2]]]] },
+      },
       'f',
     )[0];
     const a = regionCellWeights(split, gd);
@@ -106,7 +135,7 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     a.area.forEach((x, k) => expect(x).toBeCloseTo(b.area[k], 9));
   });
 
-  it('total covered area equals the polygon\'s area within 1e-9, and that area agrees with d3-geo geoArea within 1e-6', () => {
+  it("total covered area equals the polygon's area within 1e-9, and that area agrees with d3-geo geoArea within 1e-6", () => {
     // An irregular concave 12-corner star over a 10×10 grid of 0.5° cells at 40–45 °N.
     const g10 = grid(40.25, 10, 20.25, 10, 0.5);
     const star: Pos[] = Array.from({ length: 12 }, (_, i) => {
@@ -144,7 +173,11 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
   });
 
   it('a region that misses the grid is RegionOutsideGrid naming the file and region', () => {
-    const e = expectCatalogued(() => regionCellWeights(one([rect(50, 50, 51, 51)], 'far-away', 'content/regions/far.geojson'), g4), 'RegionOutsideGrid', /region "far-away" \(lon 50…51, lat 50…51\)/);
+    const e = expectCatalogued(
+      () => regionCellWeights(one([rect(50, 50, 51, 51)], 'far-away', 'content/regions/far.geojson'), g4),
+      'RegionOutsideGrid',
+      /region "far-away" \(lon 50…51, lat 50…51\)/,
+    );
     expect(e.where.file).toBe('content/regions/far.geojson');
     // Touching the grid's edge only is not overlapping.
     expectCatalogued(() => regionCellWeights(one([rect(14, 0, 15, 1)]), g4), 'RegionOutsideGrid');
@@ -171,20 +204,26 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     expectCatalogued(() => applyLandMask(w, new Uint8Array(4)), 'RegionFieldShape');
   });
 
-  it('1,000 regions tiling a 40×60 grid: every cell\'s fractions sum to 1 within 1e-9 (its time: npm run bench -- --only region-weights-1000)', () => {
+  it("1,000 regions tiling a 40×60 grid: every cell's fractions sum to 1 within 1e-9 (its time: npm run bench -- --only region-weights-1000)", () => {
     // A jittered 25 × 40 lattice of quadrilaterals exactly covering the grid (invented test shapes).
     const d = 0.25;
     const gBig = grid(10 + d / 2, 40, 30 + d / 2, 60, d);
-    const ny = 25, nx = 40;
-    const W = 30, S = 10, E = 30 + 60 * d, N = 10 + 40 * d;
+    const ny = 25,
+      nx = 40;
+    const W = 30,
+      S = 10,
+      E = 30 + 60 * d,
+      N = 10 + 40 * d;
     let seed = 7;
-    const rnd = () => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
-    const vx: number[][] = [], vy: number[][] = [];
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5;
+    const vx: number[][] = [],
+      vy: number[][] = [];
     for (let j = 0; j <= ny; j++) {
       vx.push([]);
       vy.push([]);
       for (let i = 0; i <= nx; i++) {
-        const edgeX = i === 0 || i === nx, edgeY = j === 0 || j === ny;
+        const edgeX = i === 0 || i === nx,
+          edgeY = j === 0 || j === ny;
         vx[j].push(W + ((E - W) * i) / nx + (edgeX ? 0 : 0.3 * rnd() * ((E - W) / nx)));
         vy[j].push(S + ((N - S) * j) / ny + (edgeY ? 0 : 0.3 * rnd() * ((N - S) / ny)));
       }
@@ -192,7 +231,12 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
     const features = [];
     for (let j = 0; j < ny; j++) {
       for (let i = 0; i < nx; i++) {
-        const ring: Pos[] = [[vx[j][i], vy[j][i]], [vx[j][i + 1], vy[j][i + 1]], [vx[j + 1][i + 1], vy[j + 1][i + 1]], [vx[j + 1][i], vy[j + 1][i]]];
+        const ring: Pos[] = [
+          [vx[j][i], vy[j][i]],
+          [vx[j][i + 1], vy[j][i + 1]],
+          [vx[j + 1][i + 1], vy[j + 1][i + 1]],
+          [vx[j + 1][i], vy[j + 1][i]],
+        ];
         features.push(polygonFeature(`q-${j}-${i}`, [ring]));
       }
     }

@@ -26,5 +26,10 @@ export function collection(...features: unknown[]) {
 
 /** Axis-aligned rectangle ring, counter-clockwise [° E, ° N]. */
 export function rect(w: number, s: number, e: number, n: number): Pos[] {
-  return [[w, s], [e, s], [e, n], [w, n]];
+  return [
+    [w, s],
+    [e, s],
+    [e, n],
+    [w, n],
+  ];
 }

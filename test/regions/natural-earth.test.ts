@@ -14,7 +14,9 @@ import { grid } from './helpers.ts';
 // Outside reference data: Natural Earth 1:50m country outlines as packaged by world-atlas 2.0.2 (a general-purpose
 // open dataset); outside reference code: d3-geo 3.1.2 geoArea. Neither is part of heathours.
 const require = createRequire(import.meta.url);
-const topo = JSON.parse(readFileSync(require.resolve('world-atlas/countries-50m.json'), 'utf8')) as Topology<{ countries: GeometryCollection<{ name: string }> }>;
+const topo = JSON.parse(readFileSync(require.resolve('world-atlas/countries-50m.json'), 'utf8')) as Topology<{
+  countries: GeometryCollection<{ name: string }>;
+}>;
 const countries = (feature(topo, topo.objects.countries) as FeatureCollection<Geometry, { name: string }>).features;
 const asRegion = (f: Feature<Geometry, { name: string }>, i: number) =>
   parseRegionGeoJson({ type: 'Feature', properties: { id: `c-${i}`, name: f.properties.name }, geometry: f.geometry }, 'countries-50m.json')[0];

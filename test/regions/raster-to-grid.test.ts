@@ -10,7 +10,14 @@ const R2 = EARTH_RADIUS_KM * EARTH_RADIUS_KM;
 const allCells = (n: number) => Int32Array.from({ length: n }, (_, i) => i);
 
 /** Aggregates a whole raster held in memory, reading it in strips of `strip` rows. */
-function aggregate(layout: PixelLayout, values: Float32Array | Float64Array, gridCentres: ReturnType<typeof grid>, land?: Int32Array, noData: number | null = null, strip = 3) {
+function aggregate(
+  layout: PixelLayout,
+  values: Float32Array | Float64Array,
+  gridCentres: ReturnType<typeof grid>,
+  land?: Int32Array,
+  noData: number | null = null,
+  strip = 3,
+) {
   const g = describeGridCells(gridCentres);
   const cells = land ?? allCells(g.nLat * g.nLon);
   const agg = new GridAggregator(g, cells, layout, noData, 'test.tif');

@@ -60,7 +60,11 @@ describe('region sums built tile by tile', () => {
       return s;
     };
     const whole = regionYearValues(partOf(0, n));
-    for (const cuts of [[0, 50, n], [0, 1, 2, 90, n], [0, 17, 34, 51, 68, 85, 102, 119, n]]) {
+    for (const cuts of [
+      [0, 50, n],
+      [0, 1, 2, 90, n],
+      [0, 17, 34, 51, 68, 85, 102, 119, n],
+    ]) {
       const parts = cuts.slice(0, -1).map((a, i) => partOf(a, cuts[i + 1]));
       for (const order of [parts, [...parts].reverse()]) {
         const acc = emptyFigureSums(1, nF);
@@ -118,8 +122,20 @@ describe('region sums built tile by tile', () => {
     const first = new Float64Array(2 * 12);
     const second = new Float64Array(2 * 12);
     const cells = share(weight, 0, 60);
-    addWeightedHistograms(first, hist, 60, 3, 4, { ...cells, local: cells.local.slice(0, 25), cells: cells.cells.slice(0, 25), weight: cells.weight.slice(0, 25), histWeight: cells.histWeight.slice(0, 25) });
-    addWeightedHistograms(second, hist, 60, 3, 4, { ...cells, local: cells.local.slice(25), cells: cells.cells.slice(25), weight: cells.weight.slice(25), histWeight: cells.histWeight.slice(25) });
+    addWeightedHistograms(first, hist, 60, 3, 4, {
+      ...cells,
+      local: cells.local.slice(0, 25),
+      cells: cells.cells.slice(0, 25),
+      weight: cells.weight.slice(0, 25),
+      histWeight: cells.histWeight.slice(0, 25),
+    });
+    addWeightedHistograms(second, hist, 60, 3, 4, {
+      ...cells,
+      local: cells.local.slice(25),
+      cells: cells.cells.slice(25),
+      weight: cells.weight.slice(25),
+      histWeight: cells.histWeight.slice(25),
+    });
     addHistogramPairs(second, first);
     for (let i = 0; i < 12; i++) expect(ddValue(second, i)).toBe(ddValue(all, i));
   });
@@ -134,7 +150,9 @@ describe('double-double sums', () => {
       ddAdd(pair, 0, x);
       plain += x;
     }
-    const py = spawnSync('/usr/bin/python3', ['-c', `import math; print(repr(math.fsum([${xs.map((x) => x.toExponential(20)).join(',')}])))`], { encoding: 'utf8' });
+    const py = spawnSync('/usr/bin/python3', ['-c', `import math; print(repr(math.fsum([${xs.map((x) => x.toExponential(20)).join(',')}])))`], {
+      encoding: 'utf8',
+    });
     expect(py.status, py.stderr).toBe(0);
     const fsum = Number(py.stdout.trim());
     expect(ddValue(pair, 0)).toBe(fsum);

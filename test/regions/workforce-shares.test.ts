@@ -11,7 +11,10 @@ const REGIONS = ['north', 'south', 'east'];
 
 /** Records as readCsvRecords yields them (line numbers from 1). */
 function records(text: string): Array<[number, string[]]> {
-  return text.trim().split('\n').map((l, i) => [i + 1, splitCsvRecord(l)!]);
+  return text
+    .trim()
+    .split('\n')
+    .map((l, i) => [i + 1, splitCsvRecord(l)!]);
 }
 const parse = (text: string, evals = EVALS) => parseWorkforceShares(records(text), 'shares.csv', REGIONS, evals);
 
@@ -53,7 +56,11 @@ south,heavy,0.2`);
 
 describe('bad shares tables are catalogued errors naming the file and line', () => {
   it('shares adding up to more than 1 for a region', () => {
-    expectCatalogued(() => parse('region_id,workload_class,share\nnorth,heavy,0.7\nnorth,moderate,0.4\n*,heavy,0.1'), 'WorkforceSharesSum', /"north".*1\.1000.*lines 2, 3/);
+    expectCatalogued(
+      () => parse('region_id,workload_class,share\nnorth,heavy,0.7\nnorth,moderate,0.4\n*,heavy,0.1'),
+      'WorkforceSharesSum',
+      /"north".*1\.1000.*lines 2, 3/,
+    );
     expectCatalogued(() => parse('region_id,workload_class,share\n*,heavy,0.7\n*,moderate,0.31'), 'WorkforceSharesSum', /\* \(the default\)/);
   });
 
@@ -67,7 +74,11 @@ describe('bad shares tables are catalogued errors naming the file and line', () 
   });
 
   it('missing, unknown or repeated columns', () => {
-    expectCatalogued(() => parse('region,workload_class,share\n*,heavy,0.1'), 'WorkforceSharesColumns', /missing column\(s\) region_id.*unknown column\(s\) "region"/);
+    expectCatalogued(
+      () => parse('region,workload_class,share\n*,heavy,0.1'),
+      'WorkforceSharesColumns',
+      /missing column\(s\) region_id.*unknown column\(s\) "region"/,
+    );
     expectCatalogued(() => parse('region_id,workload_class,share,sun_shares\n*,heavy,0.1,1'), 'WorkforceSharesColumns', /"sun_shares"/);
     expectCatalogued(() => parseWorkforceShares([], 'shares.csv', REGIONS, EVALS), 'WorkforceSharesColumns', /empty/);
     expectCatalogued(() => parse('region_id,workload_class,share'), 'WorkforceSharesEmpty');
@@ -85,7 +96,11 @@ describe('bad shares tables are catalogued errors naming the file and line', () 
 
   it('shares that put workers in an acclimatization state or exposure the atlas does not evaluate', () => {
     const sunOnly = EVALS.filter((e) => e.exposure === 'sun');
-    expectCatalogued(() => parse('region_id,workload_class,share,sun_share\n*,heavy,0.1,0.5', sunOnly), 'WorkforceSharesEvaluation', /heavy work, acclimatized, in the shade/);
+    expectCatalogued(
+      () => parse('region_id,workload_class,share,sun_share\n*,heavy,0.1,0.5', sunOnly),
+      'WorkforceSharesEvaluation',
+      /heavy work, acclimatized, in the shade/,
+    );
     // All in the sun: the shade evaluation is not needed.
     expect(parse('region_id,workload_class,share\n*,heavy,0.1', sunOnly).regions[0].total).toBe(0.1);
   });

@@ -23,14 +23,18 @@ describe('test/fixtures/realdata', () => {
   const provenance = readFileSync(fixturePath('realdata', 'PROVENANCE.md'), 'utf8');
 
   it('every data file is listed in SHA256SUMS and matches its digest (sha256sum -c), five files', () => {
-    const data = readdirSync(fixturePath('realdata')).filter((f) => /\.(nc|cdf)$/.test(f)).sort();
+    const data = readdirSync(fixturePath('realdata'))
+      .filter((f) => /\.(nc|cdf)$/.test(f))
+      .sort();
     expect(sums.map((s) => s.file).sort()).toEqual(data);
     expect(data).toHaveLength(5);
     for (const s of sums) expect(sha256(fixturePath('realdata', s.file)), s.file).toBe(s.digest);
   });
 
   it('PROVENANCE.md names each file with its Debian package and licence, and the licence texts are beside them', () => {
-    const rows = new Map([...provenance.matchAll(/^\| `([^`]+)` \| (\S+) [^|]*\|[^|]*\| ([^|]+) \|$/gm)].map((m) => [m[1], { pkg: m[2], licence: m[3].trim() }]));
+    const rows = new Map(
+      [...provenance.matchAll(/^\| `([^`]+)` \| (\S+) [^|]*\|[^|]*\| ([^|]+) \|$/gm)].map((m) => [m[1], { pkg: m[2], licence: m[3].trim() }]),
+    );
     for (const s of sums) {
       const row = rows.get(s.file);
       expect(row, s.file).toBeDefined();

@@ -79,7 +79,9 @@ function layerOf(path: string): number {
 
 /** The imports that go up the layers, in words. */
 function backEdges(imports: readonly Import[]): string[] {
-  return imports.filter((i) => layerOf(i.to) > layerOf(i.from)).map((i) => `${i.from}:${i.line} imports ${i.to} (${LAYERS[layerOf(i.from)]} may not import ${LAYERS[layerOf(i.to)]})`);
+  return imports
+    .filter((i) => layerOf(i.to) > layerOf(i.from))
+    .map((i) => `${i.from}:${i.line} imports ${i.to} (${LAYERS[layerOf(i.from)]} may not import ${LAYERS[layerOf(i.to)]})`);
 }
 
 const FILES = [...sourceFiles('pipeline'), ...sourceFiles('src')];
@@ -97,7 +99,9 @@ describe('the layer rules of DEVELOPERS.md', () => {
   });
 
   it('the pure folders do no file, process or thread work', () => {
-    const bad = IMPORTS.filter((i) => PURE.some((p) => i.from.startsWith(`${p}/`)) && IMPURE_MODULES.test(i.to)).map((i) => `${i.from}:${i.line} imports ${i.to}`);
+    const bad = IMPORTS.filter((i) => PURE.some((p) => i.from.startsWith(`${p}/`)) && IMPURE_MODULES.test(i.to)).map(
+      (i) => `${i.from}:${i.line} imports ${i.to}`,
+    );
     expect(bad).toEqual([]);
   });
 

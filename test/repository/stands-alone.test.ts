@@ -33,7 +33,8 @@ function walk(dir: string, out: string[]): void {
 function textFiles(): Array<{ rel: string; text: string }> {
   const paths: string[] = [];
   for (const f of FOLDERS) if (statSync(join(ROOT, f), { throwIfNoEntry: false })?.isDirectory()) walk(join(ROOT, f), paths);
-  for (const e of readdirSync(ROOT, { withFileTypes: true })) if (e.isFile() && e.name !== 'package-lock.json' && e.name !== '.git') paths.push(join(ROOT, e.name));
+  for (const e of readdirSync(ROOT, { withFileTypes: true }))
+    if (e.isFile() && e.name !== 'package-lock.json' && e.name !== '.git') paths.push(join(ROOT, e.name));
   const out: Array<{ rel: string; text: string }> = [];
   for (const p of paths) {
     const buf = readFileSync(p);
@@ -66,7 +67,16 @@ describe('the repository stands alone', () => {
   it('reads a few hundred of its own text files: sources, tests, documents and configuration', () => {
     expect(FILES.length).toBeGreaterThan(300);
     const rels = FILES.map((f) => f.rel);
-    for (const f of ['README.md', 'DEVELOPERS.md', 'docs/methods.md', 'pipeline/physics/kernel.ts', 'src/pages/methods/index.astro', 'test/helpers/fixtures.ts', '.ci/run']) expect(rels).toContain(f);
+    for (const f of [
+      'README.md',
+      'DEVELOPERS.md',
+      'docs/methods.md',
+      'pipeline/physics/kernel.ts',
+      'src/pages/methods/index.astro',
+      'test/helpers/fixtures.ts',
+      '.ci/run',
+    ])
+      expect(rels).toContain(f);
   });
 
   it('no test, source or document refers to check material beside the repository (../shared) or to an absolute /work path', () => {
@@ -78,7 +88,8 @@ describe('the repository stands alone', () => {
     const hits: string[] = [];
     for (const f of FILES) {
       f.text.split('\n').forEach((line, i) => {
-        for (const m of line.matchAll(/methods\.md/gi)) if (line.slice(Math.max(0, m.index - 5), m.index + 10) !== 'docs/methods.md') hits.push(`${f.rel}:${i + 1}: ${line.trim().slice(0, 120)}`);
+        for (const m of line.matchAll(/methods\.md/gi))
+          if (line.slice(Math.max(0, m.index - 5), m.index + 10) !== 'docs/methods.md') hits.push(`${f.rel}:${i + 1}: ${line.trim().slice(0, 120)}`);
       });
     }
     expect(hits).toEqual([]);

@@ -36,7 +36,10 @@ async function expectBuildError(yaml: string, code: string, name: string): Promi
     expect(e).toBeInstanceOf(HeathoursError);
     expect((e as HeathoursError).code).toBe(code);
     expect(existsSync(out), 'nothing is published after a failed build').toBe(false);
-    expect(readdirSync(dir).filter((f) => f.includes('.stage-')), 'no staging folder is left').toEqual([]);
+    expect(
+      readdirSync(dir).filter((f) => f.includes('.stage-')),
+      'no staging folder is left',
+    ).toEqual([]);
     return e as HeathoursError;
   }
   throw new Error(`expected ${code}`);
@@ -56,18 +59,30 @@ describe('heathours build on the invented small demo', () => {
     const m1 = JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest;
     const m2 = JSON.parse(readFileSync(join(dir, 'out2/data/manifest.json'), 'utf8')) as Manifest;
     // The inventory and the region workbooks state the build time (the workbooks are byte-identical for the same build time: test/run/distributed.test.ts).
-    const digests = (m: Manifest) => m.artefacts.filter((a) => !a.path.endsWith('inventory.json') && !a.path.endsWith('.xlsx')).map((a) => `${a.path} ${a.sha256}`);
+    const digests = (m: Manifest) =>
+      m.artefacts.filter((a) => !a.path.endsWith('inventory.json') && !a.path.endsWith('.xlsx')).map((a) => `${a.path} ${a.sha256}`);
     expect(digests(m1)).toEqual(digests(m2));
     expect(m1.artefacts.length).toBeGreaterThan(100);
   });
 
   it('publishes the same tables and layers whether years are cut into months, quarters (the default) or whole years, and tiles into bands of 8 cells or one', async () => {
     // The inventory and the region workbooks state the build time (the workbooks are byte-identical for the same build time: test/run/distributed.test.ts).
-    const digests = (m: Manifest) => m.artefacts.filter((a) => !a.path.endsWith('inventory.json') && !a.path.endsWith('.xlsx')).map((a) => `${a.path} ${a.sha256}`);
+    const digests = (m: Manifest) =>
+      m.artefacts.filter((a) => !a.path.endsWith('inventory.json') && !a.path.endsWith('.xlsx')).map((a) => `${a.path} ${a.sha256}`);
     const ref = digests(JSON.parse(readFileSync(join(dir, 'out1/data/manifest.json'), 'utf8')) as Manifest);
-    for (const [name, shards] of [['months', '{ monthsPerPiece: 1, cellsPerTile: 8 }'], ['years', '{ monthsPerPiece: 12 }']] as const) {
+    for (const [name, shards] of [
+      ['months', '{ monthsPerPiece: 1, cellsPerTile: 8 }'],
+      ['years', '{ monthsPerPiece: 12 }'],
+    ] as const) {
       writeFileSync(join(dir, `atlas-${name}.yaml`), atlasYaml(`shards: ${shards}\n`));
-      const r = await buildAtlas({ configPath: join(dir, `atlas-${name}.yaml`), outDir: join(dir, `out-${name}`), jobs: 2, quiet: true, dataOnly: true, cache: false });
+      const r = await buildAtlas({
+        configPath: join(dir, `atlas-${name}.yaml`),
+        outDir: join(dir, `out-${name}`),
+        jobs: 2,
+        quiet: true,
+        dataOnly: true,
+        cache: false,
+      });
       expect(r.shards, name).toBeGreaterThan(name === 'months' ? 24 : 2);
       const m = JSON.parse(readFileSync(join(dir, `out-${name}/data/manifest.json`), 'utf8')) as Manifest;
       expect(digests(m), name).toEqual(ref);
@@ -82,8 +97,17 @@ describe('heathours build on the invented small demo', () => {
       expect(bytes.length).toBe(a.bytes);
     }
     // The inputs are the NetCDF files; demo-data also writes change files (scenarios/) and a people raster this config does not use.
-    expect(m.inputs.map((i) => i.name).sort()).toEqual(readdirSync(join(dir, 'inputs')).filter((f) => f.endsWith('.nc')).sort());
-    for (const i of m.inputs) expect(i.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'inputs', i.name))).digest('hex'));
+    expect(m.inputs.map((i) => i.name).sort()).toEqual(
+      readdirSync(join(dir, 'inputs'))
+        .filter((f) => f.endsWith('.nc'))
+        .sort(),
+    );
+    for (const i of m.inputs)
+      expect(i.sha256).toBe(
+        createHash('sha256')
+          .update(readFileSync(join(dir, 'inputs', i.name)))
+          .digest('hex'),
+      );
     expect(m.atlas.invented).toBe(true);
     expect(m.counts.cellHours).toBeGreaterThan(0);
   });
@@ -94,7 +118,11 @@ describe('heathours build on the invented small demo', () => {
     for (const f of files) {
       const rows = parseCsv(readFileSync(join(dir, 'out1/data/regions', f), 'utf8'));
       const get = (period: string, figure: string, key: string, stat: string) =>
-        Number(rows.find((r) => r.period === period && r.figure === figure && `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key && r.statistic === stat)?.value);
+        Number(
+          rows.find(
+            (r) => r.period === period && r.figure === figure && `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key && r.statistic === stat,
+          )?.value,
+        );
       for (const key of ['moderate.acclimatized.sun', 'very-high.unacclimatized.shade']) {
         for (const period of ['07', 'year']) {
           const lost = get(period, 'hours-lost-shift', key, 'mean');
@@ -108,9 +136,13 @@ describe('heathours build on the invented small demo', () => {
       // Hours and °C, each also per decade in the trend rows, and the trend's p-value (1).
       expect(new Set(rows.map((r) => r.unit))).toEqual(new Set(['h', 'degC', 'h decade-1', 'degC decade-1', '1']));
       // More work, more hours above the limit (same exposure and acclimatization).
-      expect(get('year', 'hours-above-limit-shift', 'very-high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(get('year', 'hours-above-limit-shift', 'low.acclimatized.sun', 'mean'));
+      expect(get('year', 'hours-above-limit-shift', 'very-high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(
+        get('year', 'hours-above-limit-shift', 'low.acclimatized.sun', 'mean'),
+      );
       // Sun is never kinder than shade.
-      expect(get('year', 'hours-lost-shift', 'high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(get('year', 'hours-lost-shift', 'high.acclimatized.shade', 'mean'));
+      expect(get('year', 'hours-lost-shift', 'high.acclimatized.sun', 'mean')).toBeGreaterThanOrEqual(
+        get('year', 'hours-lost-shift', 'high.acclimatized.shade', 'mean'),
+      );
     }
   });
 
@@ -119,7 +151,17 @@ describe('heathours build on the invented small demo', () => {
     const id = index.regions[0].id as string;
     const years = decodeHistogramTile(readFileSync(join(dir, 'out1/data/calculator', `${id}.bin`)), index.years.length);
     const rows = parseCsv(readFileSync(join(dir, 'out1/data/regions', `${id}.csv`), 'utf8'));
-    const tableValue = Number(rows.find((r) => r.period === '07' && r.figure === 'hours-above-limit-all' && r.workload_class === 'high' && r.acclimatization === 'acclimatized' && r.exposure === 'sun' && r.statistic === 'mean')!.value);
+    const tableValue = Number(
+      rows.find(
+        (r) =>
+          r.period === '07' &&
+          r.figure === 'hours-above-limit-all' &&
+          r.workload_class === 'high' &&
+          r.acclimatization === 'acclimatized' &&
+          r.exposure === 'sun' &&
+          r.statistic === 'mean',
+      )!.value,
+    );
     const kernel = prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'curve-2017', acclimatization: 'acclimatized' } });
     expect(kernel.limitWork).toBeCloseTo(limitCurve2017(415, 'acclimatized'), 12);
     let total = 0;
@@ -127,7 +169,7 @@ describe('heathours build on the invented small demo', () => {
     for (const hist of years) {
       const counts = new Float64Array(HIST_LEN);
       for (let h = 0; h < HOURS; h++) {
-        const base = ((6 * HOURS + h) * N_EXPOSURES) * HIST_LEN;
+        const base = (6 * HOURS + h) * N_EXPOSURES * HIST_LEN;
         for (let b = 0; b < HIST_LEN; b++) counts[b] += hist[base + b];
       }
       const e = estimateFromHistogram(HIST_EDGES, counts, kernel);
@@ -143,8 +185,16 @@ describe('heathours build on the invented small demo', () => {
     const lost = m.layers.filter((l) => l.figure === 'hours-lost-shift' && l.combo === 'high.acclimatized.sun' && l.statistic === 'mean');
     expect(lost.map((l) => l.period)).toEqual(['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']);
     for (const l of lost) {
-      expect(readFileSync(join(dir, 'out1', l.png)).subarray(1, 4).toString()).toBe('PNG');
-      expect(readFileSync(join(dir, 'out1', l.tif)).subarray(0, 2).toString()).toBe('II');
+      expect(
+        readFileSync(join(dir, 'out1', l.png))
+          .subarray(1, 4)
+          .toString(),
+      ).toBe('PNG');
+      expect(
+        readFileSync(join(dir, 'out1', l.tif))
+          .subarray(0, 2)
+          .toString(),
+      ).toBe('II');
       expect(l.legend.units).toBe('h');
     }
   });
@@ -195,7 +245,25 @@ describe('heathours build refuses bad input and publishes nothing', () => {
   it('a region outside the grid', async () => {
     const regions = join(dir, 'far-regions');
     mkdirSync(regions, { recursive: true });
-    writeFileSync(join(regions, 'far.geojson'), JSON.stringify({ type: 'Feature', properties: { id: 'far-away', name: 'Far away' }, geometry: { type: 'Polygon', coordinates: [[[10, 10], [11, 10], [11, 11], [10, 11], [10, 10]]] } }));
+    writeFileSync(
+      join(regions, 'far.geojson'),
+      JSON.stringify({
+        type: 'Feature',
+        properties: { id: 'far-away', name: 'Far away' },
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [10, 10],
+              [11, 10],
+              [11, 11],
+              [10, 11],
+              [10, 10],
+            ],
+          ],
+        },
+      }),
+    );
     await expectBuildError(atlasYaml('', regions), 'RegionOutsideGrid', 'region-outside');
   });
 
@@ -203,7 +271,25 @@ describe('heathours build refuses bad input and publishes nothing', () => {
     const regions = join(dir, 'bowtie-regions');
     mkdirSync(regions, { recursive: true });
     copyFileSync(join(ROOT, 'content/regions/drovan-basin.geojson'), join(regions, 'drovan-basin.geojson'));
-    writeFileSync(join(regions, 'bowtie.geojson'), JSON.stringify({ type: 'Feature', properties: { id: 'bowtie', name: 'Bow tie' }, geometry: { type: 'Polygon', coordinates: [[[-146, 19], [-145, 20], [-145, 19], [-146, 20], [-146, 19]]] } }));
+    writeFileSync(
+      join(regions, 'bowtie.geojson'),
+      JSON.stringify({
+        type: 'Feature',
+        properties: { id: 'bowtie', name: 'Bow tie' },
+        geometry: {
+          type: 'Polygon',
+          coordinates: [
+            [
+              [-146, 19],
+              [-145, 20],
+              [-145, 19],
+              [-146, 20],
+              [-146, 19],
+            ],
+          ],
+        },
+      }),
+    );
     const e = await expectBuildError(atlasYaml('', regions), 'RegionSelfIntersecting', 'bowtie');
     expect(e.where.file).toContain('bowtie.geojson');
   });

@@ -58,9 +58,21 @@ beforeAll(async () => {
   for (let i = 1; i < cc.nCells; i++) if (cc.landFraction[i] > cc.landFraction[best]) best = i;
   expect(cc.landFraction[best]).toBeGreaterThan(0.9);
   const [lon, lat] = [cc.lon[best], cc.lat[best]];
-  const ring = [[lon - 0.2, lat - 0.2], [lon + 0.2, lat - 0.2], [lon + 0.2, lat + 0.2], [lon - 0.2, lat + 0.2], [lon - 0.2, lat - 0.2]];
+  const ring = [
+    [lon - 0.2, lat - 0.2],
+    [lon + 0.2, lat - 0.2],
+    [lon + 0.2, lat + 0.2],
+    [lon - 0.2, lat + 0.2],
+    [lon - 0.2, lat - 0.2],
+  ];
   mkdirSync(join(dir, 'regions'));
-  writeFileSync(join(dir, 'regions/one-cell.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { id: 'one-cell', name: 'One cell (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }] }));
+  writeFileSync(
+    join(dir, 'regions/one-cell.geojson'),
+    JSON.stringify({
+      type: 'FeatureCollection',
+      features: [{ type: 'Feature', properties: { id: 'one-cell', name: 'One cell (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }],
+    }),
+  );
   writeFileSync(
     join(dir, 'atlas.yaml'),
     `id: trend15
@@ -104,13 +116,21 @@ describe('the per-cell trend of a record of 15 years and more', () => {
     }
   });
 
-  it('gives the one-cell region\'s cell the slope and p-value of the region table\'s trend rows (3 significant digits there), for hours above the limit and hours lost, every combination', async () => {
+  it("gives the one-cell region's cell the slope and p-value of the region table's trend rows (3 significant digits there), for hours above the limit and hours lost, every combination", async () => {
     const rows = regionRows();
     let compared = 0;
     let withValue = 0;
     for (const l of manifest.layers.filter((x) => x.statistic === 'trend' || x.statistic === 'trend-p')) {
       const [cls, accl, exposure] = l.combo.split('.');
-      const row = rows.find((r) => r.period === 'year' && r.figure === l.figure && r.workload_class === cls && r.acclimatization === accl && r.exposure === exposure && r.statistic === l.statistic);
+      const row = rows.find(
+        (r) =>
+          r.period === 'year' &&
+          r.figure === l.figure &&
+          r.workload_class === cls &&
+          r.acclimatization === accl &&
+          r.exposure === exposure &&
+          r.statistic === l.statistic,
+      );
       expect(row, l.id).toBeDefined();
       expect(Number(row!.years_used)).toBeGreaterThanOrEqual(MIN_TREND_YEARS);
       const cell = await tifValue(l.tif, regionCell);
@@ -140,11 +160,21 @@ describe('the per-cell trend of a record of 15 years and more', () => {
     expect(catalogue.choices.statistic.map((c) => c.id)).toEqual(expect.arrayContaining(['trend', 'trend-p']));
     for (const l of trendLayers) expect(trendNote(catalogue, l)).toBeNull();
     // A record of 14 years built gets the note, naming both numbers.
-    expect(trendNote({ ...catalogue, years: [Y0 + 2, Y1] }, trendLayers[0])).toBe(`A trend needs at least ${MIN_TREND_YEARS} years; this record has ${MIN_TREND_YEARS - 1} (${Y0 + 2}–${Y1}), so the layer has no values.`);
+    expect(trendNote({ ...catalogue, years: [Y0 + 2, Y1] }, trendLayers[0])).toBe(
+      `A trend needs at least ${MIN_TREND_YEARS} years; this record has ${MIN_TREND_YEARS - 1} (${Y0 + 2}–${Y1}), so the layer has no values.`,
+    );
     const values = loadExplorerValues(join(dir, 'out'));
     const rows = regionRows();
     const p = trendLayers.find((l) => l.statistic === 'trend-p' && l.figure === 'hours-lost-shift')!;
-    const row = rows.find((r) => r.period === 'year' && r.figure === 'hours-lost-shift' && r.workload_class === p.view.workloadClass && r.acclimatization === p.view.acclimatization && r.exposure === p.view.exposure && r.statistic === 'trend-p')!;
+    const row = rows.find(
+      (r) =>
+        r.period === 'year' &&
+        r.figure === 'hours-lost-shift' &&
+        r.workload_class === p.view.workloadClass &&
+        r.acclimatization === p.view.acclimatization &&
+        r.exposure === p.view.exposure &&
+        r.statistic === 'trend-p',
+    )!;
     expect(values[p.id]).toEqual([Number(row.value)]);
   });
 });

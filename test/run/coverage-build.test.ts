@@ -31,7 +31,9 @@ describe('the coverage check at the start of build', () => {
       'InputsIncomplete',
       /t2m: 8760 h missing, stamps 2023-01-01T01:00:00Z to 2024-01-01T00:00:00Z \(between era5-demo-2022-again\.nc and era5-demo-2024\.nc; the download\(s\) of 2023-01, .*, 2023-12, 2024-01 would hold them\)/,
     );
-    expect(err.message).toMatch(/t2m: 8760 h twice with the same expver, stamps 2022-01-01T01:00:00Z to 2023-01-01T00:00:00Z, in era5-demo-2022-again\.nc and era5-demo-2022\.nc \(same values\)/);
+    expect(err.message).toMatch(
+      /t2m: 8760 h twice with the same expver, stamps 2022-01-01T01:00:00Z to 2023-01-01T00:00:00Z, in era5-demo-2022-again\.nc and era5-demo-2022\.nc \(same values\)/,
+    );
     expect(err.message).toContain('(every hour of every built year)');
     expect(existsSync(join(dir, 'out'))).toBe(false);
     expect(readdirSync(dir).filter((f) => f.includes('.stage-'))).toEqual([]);
@@ -39,7 +41,10 @@ describe('the coverage check at the start of build', () => {
 
   it('built years past the data are still YearsOutsideData (checked on the span the coverage found, before completeness)', async () => {
     const cfg = join(dir, 'beyond.yaml');
-    writeFileSync(cfg, readFileSync(join(dir, 'atlas.yaml'), 'utf8').replace('years: [2022, 2024]', 'years: [2022, 2026]').replace('output: out', 'output: out-beyond'));
+    writeFileSync(
+      cfg,
+      readFileSync(join(dir, 'atlas.yaml'), 'utf8').replace('years: [2022, 2024]', 'years: [2022, 2026]').replace('output: out', 'output: out-beyond'),
+    );
     await expectCataloguedAsync(buildAtlas({ configPath: cfg, jobs: 1, quiet: true, dataOnly: true, cache: false }), 'YearsOutsideData');
     expect(existsSync(join(dir, 'out-beyond'))).toBe(false);
   }, 300_000);

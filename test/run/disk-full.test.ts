@@ -56,7 +56,11 @@ describe('a disk that fills up while the atlas is published', () => {
       return s.bavail * s.bsize;
     })();
     writeFileSync(join(disk, 'ballast'), Buffer.alloc(Math.max(0, free - 2 * 1024 * 1024)));
-    const e = await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: out, jobs: 2, quiet: true, dataOnly: true, cache: false }), 'DiskFull', /no space left on the device/);
+    const e = await expectCataloguedAsync(
+      buildAtlas({ configPath: join(dir, 'atlas.yaml'), outDir: out, jobs: 2, quiet: true, dataOnly: true, cache: false }),
+      'DiskFull',
+      /no space left on the device/,
+    );
     expect(e.hint).toMatch(/free space/);
     expect(digestTree(out)).toBe(before);
     expect(readdirSync(disk).sort()).toEqual(['ballast', 'out']);

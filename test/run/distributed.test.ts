@@ -68,7 +68,9 @@ async function cli(args: string[]): Promise<{ stdout: string; stderr: string }> 
 async function distributed(n: number, parts: string, out: string): Promise<void> {
   const ks = Array.from({ length: n }, (_, i) => i + 1);
   while (ks.length > 0) {
-    await Promise.all(ks.splice(0, 2).map((k) => cli(['build', '--config', 'atlas.yaml', '--shard', `${k}/${n}`, '--partials', parts, '--jobs', '1', '--quiet'])));
+    await Promise.all(
+      ks.splice(0, 2).map((k) => cli(['build', '--config', 'atlas.yaml', '--shard', `${k}/${n}`, '--partials', parts, '--jobs', '1', '--quiet'])),
+    );
   }
   await cli(['build', '--config', 'atlas.yaml', '--merge', parts, '--out', out, '--data-only', '--quiet']);
 }
@@ -111,7 +113,8 @@ describe('distributed merge: heathours build --merge DIR --tile K/N, then --asse
     const parts = join(dir, 'parts-m');
     rmSync(join(parts, 'bands'), { recursive: true, force: true });
     await mergeSlices(2, 'parts-m', '', [1]);
-    const assemble = (out: string) => buildAtlas({ configPath: join(dir, 'atlas.yaml'), assembleDir: parts, outDir: join(dir, out), jobs: 1, quiet: true, dataOnly: true });
+    const assemble = (out: string) =>
+      buildAtlas({ configPath: join(dir, 'atlas.yaml'), assembleDir: parts, outDir: join(dir, out), jobs: 1, quiet: true, dataOnly: true });
     await expectCataloguedAsync(assemble('out-missing'), 'BandsIncomplete', /1 of the 2 blocks of rows have no merged band/);
     expect(existsSync(join(dir, 'out-missing'))).toBe(false);
     // The one slice of a split into 1 holds both blocks; slice 1 of 2 holds the first: one block in two bands.
@@ -135,8 +138,12 @@ describe('distributed merge: heathours build --merge DIR --tile K/N, then --asse
   }, 600_000);
 
   it('a bad --tile value is MergeSliceInvalid, and --tile without --merge a usage error', async () => {
-    await expect(cli(['build', '--config', 'atlas.yaml', '--merge', 'parts-m', '--tile', '3/2'])).rejects.toMatchObject({ stderr: expect.stringMatching(/MergeSliceInvalid/) });
-    await expect(cli(['build', '--config', 'atlas.yaml', '--tile', '1/2'])).rejects.toMatchObject({ stderr: expect.stringMatching(/--tile K\/N slices a distributed merge and needs --merge DIR/) });
+    await expect(cli(['build', '--config', 'atlas.yaml', '--merge', 'parts-m', '--tile', '3/2'])).rejects.toMatchObject({
+      stderr: expect.stringMatching(/MergeSliceInvalid/),
+    });
+    await expect(cli(['build', '--config', 'atlas.yaml', '--tile', '1/2'])).rejects.toMatchObject({
+      stderr: expect.stringMatching(/--tile K\/N slices a distributed merge and needs --merge DIR/),
+    });
   }, 120_000);
 });
 
@@ -262,7 +269,11 @@ describe('the partial cache and the yearly rebuild', () => {
     mkdirSync(k);
     cpSync(join(dir, 'inputs'), join(k, 'inputs'), { recursive: true });
     writeFileSync(join(k, 'atlas.yaml'), atlasYaml());
-    const child = spawn(process.execPath, [CLI, 'build', '--config', 'atlas.yaml', '--data-only', '--jobs', '1', '--quiet'], { cwd: k, env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME }, stdio: 'ignore' });
+    const child = spawn(process.execPath, [CLI, 'build', '--config', 'atlas.yaml', '--data-only', '--jobs', '1', '--quiet'], {
+      cwd: k,
+      env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME },
+      stdio: 'ignore',
+    });
     const cache = join(k, '.heathours-cache/dist');
     const done = () => (existsSync(cache) ? readdirSync(cache).filter((f) => f.endsWith('.hhp')).length : 0);
     const t0 = Date.now();
@@ -276,7 +287,10 @@ describe('the partial cache and the yearly rebuild', () => {
     expect(r.reused).toBeGreaterThanOrEqual(finished);
     expect(r.computed).toBe(r.shards - r.reused);
     expectSameTree(join(dir, 'ref/data'), join(k, 'out/data'));
-    expect(readdirSync(cache).filter((f) => f.endsWith('.tmp')), 'temporary files of the killed writer are cleaned up').toEqual([]);
+    expect(
+      readdirSync(cache).filter((f) => f.endsWith('.tmp')),
+      'temporary files of the killed writer are cleaned up',
+    ).toEqual([]);
   }, 300_000);
 
   it('a second build on the same output stops with a clear error while the first one runs, and the first finishes intact', async () => {
@@ -285,7 +299,11 @@ describe('the partial cache and the yearly rebuild', () => {
     const first = buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false });
     const t0 = Date.now();
     while (!existsSync(`${out}.build-lock`) && Date.now() - t0 < 30_000) await new Promise((r) => setTimeout(r, 20));
-    await expectCataloguedAsync(buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false }), 'BuildLocked', /already writing .*locked/);
+    await expectCataloguedAsync(
+      buildAtlas({ configPath: cfg, outDir: out, jobs: 1, quiet: true, dataOnly: true, cache: false }),
+      'BuildLocked',
+      /already writing .*locked/,
+    );
     await first;
     expectSameTree(join(dir, 'ref/data'), join(out, 'data'));
     expect(existsSync(`${out}.build-lock`)).toBe(false);

@@ -34,7 +34,11 @@ describe('the shard plan', () => {
   it('cuts each UTC year into local quarters: the pieces cover every hour of the range once, each inside one quarter, named by its first local month', () => {
     const p = yearPieces(time, 2022, 'Etc/GMT+10', 3);
     expect(p.map((x) => [x.utcYear, x.months])).toEqual([
-      [2022, [0, 3]], [2022, [3, 6]], [2022, [6, 9]], [2022, [9, 12]], [2023, [11, 12]],
+      [2022, [0, 3]],
+      [2022, [3, 6]],
+      [2022, [6, 9]],
+      [2022, [9, 12]],
+      [2023, [11, 12]],
     ]);
     // Contiguous and complete: the same hours as the whole-year pieces.
     const whole = yearPieces(time, 2022, 'Etc/GMT+10');

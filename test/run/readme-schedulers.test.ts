@@ -16,10 +16,15 @@ const README = readFileSync(new URL('../../README.md', import.meta.url), 'utf8')
 const blocks = (lang: string) => [...README.matchAll(new RegExp('```' + lang + '\\n([\\s\\S]*?)```', 'g'))].map((m) => m[1]);
 
 describe('the README scheduler examples', () => {
-  const docs = () => blocks('yaml').flatMap((b) => parseAllDocuments(b).map((d) => d.toJS())).filter((d) => d !== null && typeof d === 'object' && 'kind' in d); // the Kubernetes objects, not the config examples
+  const docs = () =>
+    blocks('yaml')
+      .flatMap((b) => parseAllDocuments(b).map((d) => d.toJS()))
+      .filter((d) => d !== null && typeof d === 'object' && 'kind' in d); // the Kubernetes objects, not the config examples
   /** The `heathours build` arguments of an Indexed Job for completion index i, as /bin/sh expands them. */
   const argsAt = (job: { spec: { template: { spec: { containers: Array<{ args: string[] }> } } } }, i: number) =>
-    execFileSync('/bin/sh', ['-c', `echo ${job.spec.template.spec.containers[0].args.join(' ').replace(/^node bin\/heathours\.mjs /, '')}`], { env: { JOB_COMPLETION_INDEX: String(i) } }).toString();
+    execFileSync('/bin/sh', ['-c', `echo ${job.spec.template.spec.containers[0].args.join(' ').replace(/^node bin\/heathours\.mjs /, '')}`], {
+      env: { JOB_COMPLETION_INDEX: String(i) },
+    }).toString();
 
   it('the Kubernetes manifests have the fields a cluster needs: two Indexed Jobs and a Job, Never restart, requests, the shared volume', () => {
     const jobs = docs();
@@ -72,9 +77,17 @@ describe('the README scheduler examples', () => {
     const program = new Command();
     register(program);
     const known = new Set(program.commands.find((c) => c.name() === 'build')!.options.map((o) => o.long));
-    const used = new Set([...README.matchAll(/heathours(?:\.mjs)?"?,? "?build"?[^\n`]*(?:\\\n[^\n`]*)*/g)].flatMap((m) => [...m[0].matchAll(/--[a-z-]+/g)].map((f) => f[0])));
-    for (const d of blocks('yaml').join('\n').matchAll(/"(--[a-z-]+)"/g)) used.add(d[1]);
-    for (const d of blocks('sh').join('\n').matchAll(/ (--(?:shard|partials|jobs|memory|merge|tile|assemble|out|config|quiet))\b/g)) used.add(d[1]);
+    const used = new Set(
+      [...README.matchAll(/heathours(?:\.mjs)?"?,? "?build"?[^\n`]*(?:\\\n[^\n`]*)*/g)].flatMap((m) => [...m[0].matchAll(/--[a-z-]+/g)].map((f) => f[0])),
+    );
+    for (const d of blocks('yaml')
+      .join('\n')
+      .matchAll(/"(--[a-z-]+)"/g))
+      used.add(d[1]);
+    for (const d of blocks('sh')
+      .join('\n')
+      .matchAll(/ (--(?:shard|partials|jobs|memory|merge|tile|assemble|out|config|quiet))\b/g))
+      used.add(d[1]);
     expect(used.size).toBeGreaterThan(8);
     for (const f of used) expect(known, f).toContain(f);
   });

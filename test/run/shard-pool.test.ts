@@ -27,7 +27,9 @@ function tasks(): PoolTask[] {
   return shards.map((shard) => ({
     kind: 'compute',
     task: { id: shard.id, shards: [shard], blockHours: 744 },
-    stores: { [shard.id]: { path: join(out, `${shard.id}.hhp`), meta: { shardId: shard.id, year: shard.year, tileIndex: shard.tileIndex, key: 'k', provenance: {} } } },
+    stores: {
+      [shard.id]: { path: join(out, `${shard.id}.hhp`), meta: { shardId: shard.id, year: shard.year, tileIndex: shard.tileIndex, key: 'k', provenance: {} } },
+    },
   }));
 }
 
@@ -44,7 +46,11 @@ beforeAll(async () => {
   const nLon = ds.grid.lon.length;
   shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
-  init = { files: paths, datasetOptions: { ...options, digests: false }, context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon, scenarios: [] } };
+  init = {
+    files: paths,
+    datasetOptions: { ...options, digests: false },
+    context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon, scenarios: [] },
+  };
 }, 120_000);
 
 describe('the build pool', () => {
@@ -71,12 +77,18 @@ describe('the build pool', () => {
   it('stops when the caller aborts: the promise rejects with the reason and no report is handed over after it', async () => {
     const stop = new AbortController();
     let after = 0;
-    const run = runTasks(tasks(), init, 2, {
-      onShard: () => {
-        if (stop.signal.aborted) after += 1;
-        else stop.abort(new Error('the caller gave up'));
+    const run = runTasks(
+      tasks(),
+      init,
+      2,
+      {
+        onShard: () => {
+          if (stop.signal.aborted) after += 1;
+          else stop.abort(new Error('the caller gave up'));
+        },
       },
-    }, stop.signal);
+      stop.signal,
+    );
     await expect(run).rejects.toThrow('the caller gave up');
     expect(after).toBe(0);
   }, 120_000);

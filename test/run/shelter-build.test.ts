@@ -81,7 +81,9 @@ describe('the sheltered exposure built on the invented small demo', () => {
     let compared = 0;
     let more = 0;
     for (const f of readdirSync(data).filter((x) => x.endsWith('.csv') && !x.endsWith('.wide.csv'))) {
-      const rows = parseCsv(readFileSync(join(data, f), 'utf8')).filter((r) => r.figure.startsWith('hours-above-limit') || r.figure === 'hours-lost-shift' || r.figure === 'wbgt-mean' || r.figure === 'wbgt-max');
+      const rows = parseCsv(readFileSync(join(data, f), 'utf8')).filter(
+        (r) => r.figure.startsWith('hours-above-limit') || r.figure === 'hours-lost-shift' || r.figure === 'wbgt-mean' || r.figure === 'wbgt-max',
+      );
       const byKey = new Map(rows.map((r) => [[r.period, r.figure, r.workload_class, r.acclimatization, r.method, r.statistic, r.exposure].join('|'), r.value]));
       for (const r of rows) {
         if (r.exposure !== 'shelter' || r.value === '') continue;
@@ -100,15 +102,19 @@ describe('the sheltered exposure built on the invented small demo', () => {
   it('with the shelter, the data dictionary, manifest and region tables name the exposure and its model (Lemke & Kjellstrom 2012)', () => {
     const data = join(dir, 'out-shelter/data');
     const dict = readFileSync(join(data, 'data-dictionary.csv'), 'utf8');
-    expect(dict).toMatch(/exposure,shelter,"Working under a shelter \(a roof or canopy, the shelter a black surface at the air temperature, after Lemke & Kjellstrom 2012\)"/);
+    expect(dict).toMatch(
+      /exposure,shelter,"Working under a shelter \(a roof or canopy, the shelter a black surface at the air temperature, after Lemke & Kjellstrom 2012\)"/,
+    );
     const manifest = JSON.parse(readFileSync(join(data, 'manifest.json'), 'utf8')) as { work: { exposures: string[] } };
     expect(manifest.work.exposures).toEqual(['sun', 'shade', 'shelter']);
     const table = readFileSync(join(data, 'regions/sollent-coast.csv'), 'utf8');
     expect(table).toContain(',capacity-loss-shift,,,shelter,kjellstrom-300w,mean,');
   });
 
-  it('the shelter WBGT the build counts for a cell-hour is heathours point\'s wbgt_shelter_c for the same inputs (a land cell, every hour of local July 2022)', async () => {
-    const inputs = readdirSync(join(dir, 'inputs')).filter((f) => f.endsWith('.nc')).map((f) => join(dir, 'inputs', f));
+  it("the shelter WBGT the build counts for a cell-hour is heathours point's wbgt_shelter_c for the same inputs (a land cell, every hour of local July 2022)", async () => {
+    const inputs = readdirSync(join(dir, 'inputs'))
+      .filter((f) => f.endsWith('.nc'))
+      .map((f) => join(dir, 'inputs', f));
     const ds = await openDataset(inputs, { product: 'era5', landSeaMask: { variable: 'lsm', threshold: 0.5 } } as never);
     try {
       const nLon = ds.grid.lon.length;
@@ -122,7 +128,22 @@ describe('the sheltered exposure built on the invented small demo', () => {
       let partial: ShardPartial | undefined;
       await computeTask(
         ds,
-        { id: 'g-test', blockHours: nt, shards: [{ id: 't-test', tileIndex: 0, tile: { y0: y, y1: y + 1, x0: 0, x1: nLon }, year: 2022, utcYear: 2022, hours: [h0, h0 + nt], months: [6, 7], cells: Int32Array.of(cell) }] },
+        {
+          id: 'g-test',
+          blockHours: nt,
+          shards: [
+            {
+              id: 't-test',
+              tileIndex: 0,
+              tile: { y0: y, y1: y + 1, x0: 0, x1: nLon },
+              year: 2022,
+              utcYear: 2022,
+              hours: [h0, h0 + nt],
+              months: [6, 7],
+              cells: Int32Array.of(cell),
+            },
+          ],
+        },
         { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: { globeDiameter: D_GLOBE_STANDARD }, nLon, scenarios: [] },
         (_s, r) => {
           partial = r.partial;
@@ -133,7 +154,18 @@ describe('the sheltered exposure built on the invented small demo', () => {
       const f = block.fields;
       const lines = ['time_utc,lat,lon,ta_c,td_c,pressure_hpa,wind_ms,solar_wm2'];
       for (let t = 0; t < nt; t++) {
-        lines.push([new Date(block.time[t]).toISOString(), ds.grid.lat[y], ds.grid.lon[cell % nLon], f.airTemperature![t], f.dewPointTemperature![t], f.surfacePressure![t], f.windSpeed10m![t], f.solarGlobal![t]].join(','));
+        lines.push(
+          [
+            new Date(block.time[t]).toISOString(),
+            ds.grid.lat[y],
+            ds.grid.lon[cell % nLon],
+            f.airTemperature![t],
+            f.dewPointTemperature![t],
+            f.surfacePressure![t],
+            f.windSpeed10m![t],
+            f.solarGlobal![t],
+          ].join(','),
+        );
       }
       writeFileSync(join(dir, 'point-in.csv'), `${lines.join('\n')}\n`);
       await runPoint(join(dir, 'point-in.csv'), join(dir, 'point-out.csv'), { quiet: true });
@@ -160,7 +192,9 @@ describe('the sheltered exposure built on the invented small demo', () => {
       // to the centi-degree, the month's sum to one centi-degree per hour at a rounding edge.
       expect(Math.abs(p.wbgtMax[cm * 3 + 2] - max)).toBeLessThanOrEqual(1);
       expect(Math.abs(p.wbgtSum[cm * 3 + 2] - sum)).toBeLessThanOrEqual(edge);
-      console.log(`shelter WBGT, local July 2022: build sum ${p.wbgtSum[cm * 3 + 2]} max ${p.wbgtMax[cm * 3 + 2]}, point sum ${sum} max ${max} [centi-°C], ${edge} hours at a rounding edge`);
+      console.log(
+        `shelter WBGT, local July 2022: build sum ${p.wbgtSum[cm * 3 + 2]} max ${p.wbgtMax[cm * 3 + 2]}, point sum ${sum} max ${max} [centi-°C], ${edge} hours at a rounding edge`,
+      );
       // And the shelter is warmer than the open-sky shade in every hour's sum.
       expect(p.wbgtSum[cm * 3 + 2]).toBeGreaterThan(p.wbgtSum[cm * 3 + 1]);
     } finally {

@@ -45,7 +45,10 @@ beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'hh-slurm-'));
   if (!existsSync(join(ROOT, 'compiled', 'cli.js'))) execFileSync('npm', ['run', 'compile'], { cwd: ROOT, stdio: 'ignore' });
   await writeDemoDataset({ outDir: join(dir, 'inputs'), years: [2021, 2022], layout: 'mixed', grid: 'small', quiet: true });
-  writeFileSync(join(dir, 'atlas.yaml'), `${testAtlasYaml({ id: 'slurm', title: 'Slurm test atlas (invented data)', years: [2021, 2022], shards: '{ cellsPerTile: 16, cellsPerBlock: 12 }' })}`);
+  writeFileSync(
+    join(dir, 'atlas.yaml'),
+    `${testAtlasYaml({ id: 'slurm', title: 'Slurm test atlas (invented data)', years: [2021, 2022], shards: '{ cellsPerTile: 16, cellsPerBlock: 12 }' })}`,
+  );
   cluster = await startSlurmCluster(join(dir, 'slurm'));
 }, 300_000);
 
@@ -83,15 +86,23 @@ describe('the README Slurm script on a one-node Slurm cluster', () => {
     }
     expect(c.jobStates(String(first)).length).toBe(4);
     expect(c.jobStates(String(first + 1)).length).toBe(2);
-    expect(readdirSync(join(dir, 'parts')).filter((n) => n.startsWith('slice-')).sort()).toEqual(['slice-1-of-4', 'slice-2-of-4', 'slice-3-of-4', 'slice-4-of-4']);
+    expect(
+      readdirSync(join(dir, 'parts'))
+        .filter((n) => n.startsWith('slice-'))
+        .sort(),
+    ).toEqual(['slice-1-of-4', 'slice-2-of-4', 'slice-3-of-4', 'slice-4-of-4']);
     expect(readdirSync(join(dir, 'parts', 'bands')).length).toBe(2);
 
     // The same atlas on one machine.
-    const one = spawnSync(process.execPath, [join(ROOT, 'bin/heathours.mjs'), 'build', '--config', join(dir, 'atlas.yaml'), '--out', join(dir, 'site-one'), '--no-cache', '--quiet'], {
-      cwd: dir,
-      env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME },
-      encoding: 'utf8',
-    });
+    const one = spawnSync(
+      process.execPath,
+      [join(ROOT, 'bin/heathours.mjs'), 'build', '--config', join(dir, 'atlas.yaml'), '--out', join(dir, 'site-one'), '--no-cache', '--quiet'],
+      {
+        cwd: dir,
+        env: { ...process.env, HEATHOURS_BUILD_TIME: BUILD_TIME },
+        encoding: 'utf8',
+      },
+    );
     expect(one.status, one.stderr).toBe(0);
     const a = tree(join(dir, 'site-one'));
     const b = tree(join(dir, 'site-slurm'));

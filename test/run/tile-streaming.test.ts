@@ -75,7 +75,7 @@ describe('a build within a small memory budget', () => {
     }
   }, 120_000);
 
-  it('publishes the same per-cell figures: tables, map chunks, NetCDF, layers and niche, and every cell\'s calculator histograms', () => {
+  it("publishes the same per-cell figures: tables, map chunks, NetCDF, layers and niche, and every cell's calculator histograms", () => {
     const data = (name: string) => join(dir, `out-${name}/data`);
     expect(readCellTables(data('small'))).toBe(readCellTables(data('big')));
     // Blocks of 32 cells against one block of the whole grid: the tables are cut differently, and hold the same rows.
@@ -85,8 +85,10 @@ describe('a build within a small memory budget', () => {
       if (f === 'index.json') continue;
       expect(readFileSync(join(data('small'), 'cells', f)), f).toEqual(readFileSync(join(data('big'), 'cells', f)));
     }
-    for (const f of ['atlas-cells.nc', 'niche.json', 'regions.geojson']) expect(readFileSync(join(data('small'), f)), f).toEqual(readFileSync(join(data('big'), f)));
-    const layers = (name: string) => (JSON.parse(readFileSync(join(data(name), 'manifest.json'), 'utf8')) as Manifest).layers.map((l) => `${l.id} ${l.pngSha256} ${l.tifSha256}`);
+    for (const f of ['atlas-cells.nc', 'niche.json', 'regions.geojson'])
+      expect(readFileSync(join(data('small'), f)), f).toEqual(readFileSync(join(data('big'), f)));
+    const layers = (name: string) =>
+      (JSON.parse(readFileSync(join(data(name), 'manifest.json'), 'utf8')) as Manifest).layers.map((l) => `${l.id} ${l.pngSha256} ${l.tifSha256}`);
     expect(layers('small')).toEqual(layers('big'));
     // The calculator's per-cell tiles are cut per band, so compare cell by cell.
     const cells = (name: string) => {
@@ -94,7 +96,13 @@ describe('a build within a small memory budget', () => {
       const out = new Map<number, string>();
       for (const c of index.chunks) {
         const chunk = parsePointChunk(new Uint8Array(readFileSync(join(data(name), c.path.replace(/^data\//, '')))), c.path);
-        for (const cell of chunk.cells) out.set(cell, cellHistograms(chunk, cell)!.map((h) => Array.from(h).join(',')).join('|'));
+        for (const cell of chunk.cells)
+          out.set(
+            cell,
+            cellHistograms(chunk, cell)!
+              .map((h) => Array.from(h).join(','))
+              .join('|'),
+          );
       }
       return out;
     };
@@ -124,15 +132,35 @@ describe('a build within a small memory budget', () => {
 describe('a memory budget that cannot hold one tile', () => {
   it('is MemoryBudgetTooSmall, saying how much is needed, before anything is computed or published', async () => {
     writeFileSync(join(dir, 'tiny.yaml'), yaml('memory: 200M\n'));
-    const e = await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'tiny.yaml'), outDir: join(dir, 'out-tiny'), jobs: 2, quiet: true, dataOnly: true, cache: false }), 'MemoryBudgetTooSmall', /200 MB is too small .* about \d+ MB are needed/);
+    const e = await expectCataloguedAsync(
+      buildAtlas({ configPath: join(dir, 'tiny.yaml'), outDir: join(dir, 'out-tiny'), jobs: 2, quiet: true, dataOnly: true, cache: false }),
+      'MemoryBudgetTooSmall',
+      /200 MB is too small .* about \d+ MB are needed/,
+    );
     expect(e.hint).toMatch(/--memory/);
     expect(existsSync(join(dir, 'out-tiny'))).toBe(false);
   });
 
   it('a budget that is not a size is MemoryBudgetInvalid naming the key', async () => {
     writeFileSync(join(dir, 'words.yaml'), yaml('memory: lots\n'));
-    const e = await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'words.yaml'), outDir: join(dir, 'out-words'), jobs: 1, quiet: true, dataOnly: true, cache: false }), 'MemoryBudgetInvalid', /"lots" is not a memory size/);
+    const e = await expectCataloguedAsync(
+      buildAtlas({ configPath: join(dir, 'words.yaml'), outDir: join(dir, 'out-words'), jobs: 1, quiet: true, dataOnly: true, cache: false }),
+      'MemoryBudgetInvalid',
+      /"lots" is not a memory size/,
+    );
     expect(e.where.key).toBe('memory');
-    await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'big.yaml'), outDir: join(dir, 'out-words'), jobs: 1, memory: '3 bananas', quiet: true, dataOnly: true, cache: false }), 'MemoryBudgetInvalid', /3 bananas/);
+    await expectCataloguedAsync(
+      buildAtlas({
+        configPath: join(dir, 'big.yaml'),
+        outDir: join(dir, 'out-words'),
+        jobs: 1,
+        memory: '3 bananas',
+        quiet: true,
+        dataOnly: true,
+        cache: false,
+      }),
+      'MemoryBudgetInvalid',
+      /3 bananas/,
+    );
   });
 });

@@ -73,15 +73,48 @@ beforeAll(() => {
   writeRaster(join(dir, 'people.tif'), rasterValues());
   // The same pixels as GDAL writes them: DEFLATE strips with the floating-point predictor, and LZW tiles.
   execFileSync('gdal_translate', ['-q', '-co', 'COMPRESS=DEFLATE', '-co', 'PREDICTOR=3', join(dir, 'people.tif'), join(dir, 'deflate.tif')]);
-  execFileSync('gdal_translate', ['-q', '-co', 'COMPRESS=LZW', '-co', 'TILED=YES', '-co', 'BLOCKXSIZE=64', '-co', 'BLOCKYSIZE=64', join(dir, 'people.tif'), join(dir, 'lzw.tif')]);
+  execFileSync('gdal_translate', [
+    '-q',
+    '-co',
+    'COMPRESS=LZW',
+    '-co',
+    'TILED=YES',
+    '-co',
+    'BLOCKXSIZE=64',
+    '-co',
+    'BLOCKYSIZE=64',
+    join(dir, 'people.tif'),
+    join(dir, 'lzw.tif'),
+  ]);
 });
 
 describe(`people per cell against GDAL's gdalwarp -r sum (${GDAL_VERSION})`, () => {
   it('every cell of the atlas grid holds the people gdalwarp -r sum gives it, within 0.5 %', async () => {
-    const ours = await aggregateRasterFile(join(dir, 'people.tif'), GRID, Int32Array.from({ length: 20 * 27 }, (_, i) => i));
+    const ours = await aggregateRasterFile(
+      join(dir, 'people.tif'),
+      GRID,
+      Int32Array.from({ length: 20 * 27 }, (_, i) => i),
+    );
     const west = GRID.lon[0] - 0.05;
     const south = GRID.lat[0] - 0.05;
-    execFileSync('gdalwarp', ['-q', '-overwrite', '-r', 'sum', '-ot', 'Float64', '-te', String(west), String(south), String(west + 2.7), String(south + 2.0), '-ts', '27', '20', join(dir, 'people.tif'), join(dir, 'gdal-sum.tif')]);
+    execFileSync('gdalwarp', [
+      '-q',
+      '-overwrite',
+      '-r',
+      'sum',
+      '-ot',
+      'Float64',
+      '-te',
+      String(west),
+      String(south),
+      String(west + 2.7),
+      String(south + 2.0),
+      '-ts',
+      '27',
+      '20',
+      join(dir, 'people.tif'),
+      join(dir, 'gdal-sum.tif'),
+    ]);
     const gdal = await readGdalGrid(join(dir, 'gdal-sum.tif'));
     let worst = 0;
     for (let k = 0; k < gdal.length; k++) {
@@ -105,7 +138,11 @@ describe(`people per cell against GDAL's gdalwarp -r sum (${GDAL_VERSION})`, () 
   });
 
   it('the total on the grid equals the raster total inside the grid, summed by Python over the pixels (numpy, Debian python3-numpy)', async () => {
-    const ours = await aggregateRasterFile(join(dir, 'people.tif'), GRID, Int32Array.from({ length: 20 * 27 }, (_, i) => i));
+    const ours = await aggregateRasterFile(
+      join(dir, 'people.tif'),
+      GRID,
+      Int32Array.from({ length: 20 * 27 }, (_, i) => i),
+    );
     const values = rasterValues();
     writeFileSync(join(dir, 'values.f32'), Buffer.from(values.buffer));
     // numpy sums the pixels weighted by the share of each pixel inside the grid's rectangle (degrees in longitude, sin φ in latitude).

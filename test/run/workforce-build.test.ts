@@ -48,7 +48,14 @@ const DEFAULT_WEIGHTS: Record<string, number> = {
   'very-high.unacclimatized.sun': 0.01 * 0.1 * 1, // 0.001
 };
 /** A test region of exactly two land cells of the small grid (centres 20 °N, 146 and 145 °W). */
-const TWO_CELLS = { lon: [-146.5, -144.5], lat: [19.5, 20.5], centres: [[-146, 20], [-145, 20]] as const };
+const TWO_CELLS = {
+  lon: [-146.5, -144.5],
+  lat: [19.5, 20.5],
+  centres: [
+    [-146, 20],
+    [-145, 20],
+  ] as const,
+};
 
 function atlasYaml(workforce: string, regions = join(dir, 'regions')): string {
   return `${testAtlasYaml({ id: 'people', title: 'Workforce test atlas (invented data)', years: [2022, 2023], regions })}${workforce}`;
@@ -64,7 +71,10 @@ const workforceKey = (raster = `inputs/${POPULATION_FILE}`, shares = 'shares.csv
 `;
 
 function parseCsv(text: string): Record<string, string>[] {
-  const [head, ...rows] = text.replace(/^\uFEFF/, '').trim().split('\n');
+  const [head, ...rows] = text
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .split('\n');
   const cols = head.split(',');
   return rows.map((r) => Object.fromEntries(r.split(',').map((v, i) => [cols[i], v])));
 }
@@ -72,7 +82,24 @@ function parseCsv(text: string): Record<string, string>[] {
 /** People per cell of the small grid by GDAL: gdalwarp -r sum of the raster onto the grid's extent, rows south to north. */
 async function gdalPeople(): Promise<{ at: (lon: number, lat: number) => number; total: number }> {
   // The small grid: 8 × 10 cells of 1°, centres 17…24 °N, 150…141 °W (edges 16.5…24.5, −150.5…−140.5).
-  execFileSync('gdalwarp', ['-q', '-overwrite', '-r', 'sum', '-ot', 'Float64', '-te', '-150.5', '16.5', '-140.5', '24.5', '-ts', '10', '8', join(dir, 'inputs', POPULATION_FILE), join(dir, 'gdal-sum.tif')]);
+  execFileSync('gdalwarp', [
+    '-q',
+    '-overwrite',
+    '-r',
+    'sum',
+    '-ot',
+    'Float64',
+    '-te',
+    '-150.5',
+    '16.5',
+    '-140.5',
+    '24.5',
+    '-ts',
+    '10',
+    '8',
+    join(dir, 'inputs', POPULATION_FILE),
+    join(dir, 'gdal-sum.tif'),
+  ]);
   const tif = await fromFile(join(dir, 'gdal-sum.tif'));
   const v = (await (await tif.getImage(0)).readRasters({ interleave: true })) as unknown as Float64Array;
   await tif.close();
@@ -108,7 +135,22 @@ beforeAll(async () => {
   const [s, n] = TWO_CELLS.lat;
   writeFileSync(
     join(dir, 'regions', 'zz-two-cells.geojson'),
-    JSON.stringify({ type: 'Feature', properties: { id: 'two-cells', name: 'Two cells (test)' }, geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] } }),
+    JSON.stringify({
+      type: 'Feature',
+      properties: { id: 'two-cells', name: 'Two cells (test)' },
+      geometry: {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [w, s],
+            [e, s],
+            [e, n],
+            [w, n],
+            [w, s],
+          ],
+        ],
+      },
+    }),
   );
   writeFileSync(join(dir, 'shares.csv'), SHARES);
   writeFileSync(join(dir, 'atlas.yaml'), atlasYaml(workforceKey()));
@@ -123,7 +165,12 @@ describe('heathours build with a workforce raster and shares (invented small dem
     const expected = TWO_CELLS.centres.reduce((sum, [lon, lat]) => sum + g.at(lon, lat), 0);
     expect(expected).toBeGreaterThan(1e4);
     expect(Math.abs(summary.workforce.people / expected - 1)).toBeLessThan(0.005);
-    expect(summary.workforce.raster).toEqual({ name: 'Invented people of the test territory', year: 2024, licence: 'Invented for the test; no licence applies', invented: true });
+    expect(summary.workforce.raster).toEqual({
+      name: 'Invented people of the test territory',
+      year: 2024,
+      licence: 'Invented for the test; no licence applies',
+      invented: true,
+    });
     expect(summary.workforce.outdoorWorkers).toBeCloseTo(summary.workforce.people * 0.12, 6);
   });
 
@@ -131,13 +178,24 @@ describe('heathours build with a workforce raster and shares (invented small dem
     const g = await gdalPeople();
     const cellRows = readdirSync(join(out, 'data/cell-tables')).flatMap((f) => parseCsv(readFileSync(join(out, 'data/cell-tables', f), 'utf8')));
     const hours = (lon: number, lat: number, figure: string, key: string) => {
-      const row = cellRows.find((r) => Number(r.lon) === lon && Number(r.lat) === lat && r.period === '07' && r.figure === figure && `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key);
+      const row = cellRows.find(
+        (r) =>
+          Number(r.lon) === lon &&
+          Number(r.lat) === lat &&
+          r.period === '07' &&
+          r.figure === figure &&
+          `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key,
+      );
       return Number(row!.mean);
     };
     const byHand = (figure: string) =>
-      TWO_CELLS.centres.reduce((sum, [lon, lat]) => sum + g.at(lon, lat) * Object.entries(DEFAULT_WEIGHTS).reduce((s, [key, w]) => s + w * hours(lon, lat, figure, key), 0), 0);
+      TWO_CELLS.centres.reduce(
+        (sum, [lon, lat]) => sum + g.at(lon, lat) * Object.entries(DEFAULT_WEIGHTS).reduce((s, [key, w]) => s + w * hours(lon, lat, figure, key), 0),
+        0,
+      );
     const table = parseCsv(readFileSync(join(out, 'data/regions/two-cells.csv'), 'utf8'));
-    const get = (period: string, figure: string, cls: string, stat: string) => table.find((r) => r.period === period && r.figure === figure && r.workload_class === cls && r.statistic === stat)!;
+    const get = (period: string, figure: string, cls: string, stat: string) =>
+      table.find((r) => r.period === period && r.figure === figure && r.workload_class === cls && r.statistic === stat)!;
     const lost = get('07', 'person-hours-lost-shift', 'all', 'mean');
     const above = get('07', 'person-hours-above-limit-shift', 'all', 'mean');
     expect(lost.unit).toBe('person-h');
@@ -154,7 +212,9 @@ describe('heathours build with a workforce raster and shares (invented small dem
     // The classes add up to all, and P90 year ≥ mean.
     const classes = ['low', 'moderate', 'high', 'very-high'].reduce((s, c) => s + Number(get('year', 'person-hours-lost-shift', c, 'mean').value), 0);
     expect(classes / Number(get('year', 'person-hours-lost-shift', 'all', 'mean').value)).toBeCloseTo(1, 5);
-    expect(Number(get('year', 'person-hours-lost-shift', 'all', 'p90').value)).toBeGreaterThanOrEqual(Number(get('year', 'person-hours-lost-shift', 'all', 'mean').value));
+    expect(Number(get('year', 'person-hours-lost-shift', 'all', 'p90').value)).toBeGreaterThanOrEqual(
+      Number(get('year', 'person-hours-lost-shift', 'all', 'mean').value),
+    );
   });
 
   it('the map layer of person-hours lost per km² holds people × Σ weight × hours / cell area for a cell (by hand)', async () => {
@@ -171,18 +231,32 @@ describe('heathours build with a workforce raster and shares (invented small dem
     const value = v[Math.floor(north - lat) * img.getWidth() + Math.floor(lon - west)];
     const g = await gdalPeople();
     const cellRows = readdirSync(join(out, 'data/cell-tables')).flatMap((f) => parseCsv(readFileSync(join(out, 'data/cell-tables', f), 'utf8')));
-    const h = (key: string) => Number(cellRows.find((r) => Number(r.lon) === lon && Number(r.lat) === lat && r.period === '07' && r.figure === 'hours-lost-shift' && `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key)!.mean);
+    const h = (key: string) =>
+      Number(
+        cellRows.find(
+          (r) =>
+            Number(r.lon) === lon &&
+            Number(r.lat) === lat &&
+            r.period === '07' &&
+            r.figure === 'hours-lost-shift' &&
+            `${r.workload_class}.${r.acclimatization}.${r.exposure}` === key,
+        )!.mean,
+      );
     const areaKm2 = EARTH_RADIUS_KM ** 2 * rectangleAreaSr(lon - 0.5, lon + 0.5, lat - 0.5, lat + 0.5);
     const byHand = (g.at(lon, lat) * Object.entries(DEFAULT_WEIGHTS).reduce((s, [k, w]) => s + w * h(k), 0)) / areaKm2;
     expect(value / byHand).toBeCloseTo(1, 3);
   });
 
-  it('the manifest states the raster (name, year, licence, digest) and where its people went; people on land and over sea add up to GDAL\'s sum over the grid', async () => {
+  it("the manifest states the raster (name, year, licence, digest) and where its people went; people on land and over sea add up to GDAL's sum over the grid", async () => {
     const m = JSON.parse(readFileSync(join(out, 'data/manifest.json'), 'utf8')) as Manifest;
     const wf = m.workforce!;
     expect(wf.name).toBe('Invented people of the test territory');
     expect(wf.invented).toBe(true);
-    expect(wf.raster.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'inputs', POPULATION_FILE))).digest('hex'));
+    expect(wf.raster.sha256).toBe(
+      createHash('sha256')
+        .update(readFileSync(join(dir, 'inputs', POPULATION_FILE)))
+        .digest('hex'),
+    );
     expect(wf.annualHours).toBe(3120);
     expect(wf.peopleOffLand).toBeGreaterThan(0);
     const g = await gdalPeople();
@@ -200,16 +274,34 @@ describe('heathours build with a workforce raster and shares (invented small dem
   it('region summaries, tables and workbooks carry the workforce figures with units; a region with rows of its own uses them', () => {
     const varn = JSON.parse(readFileSync(join(out, 'data/regions/varn-shore.json'), 'utf8'));
     expect(varn.workforce.sharesFrom).toBe('rows of this region');
-    expect(varn.workforce.shares.find((c: { workloadClass: string }) => c.workloadClass === 'moderate')).toEqual({ workloadClass: 'moderate', share: 0.2, acclimatized: 0.5, sun: 0.5 });
+    expect(varn.workforce.shares.find((c: { workloadClass: string }) => c.workloadClass === 'moderate')).toEqual({
+      workloadClass: 'moderate',
+      share: 0.2,
+      acclimatized: 0.5,
+      sun: 0.5,
+    });
     expect(varn.workforce.year.personHoursLost.mean).toBeGreaterThan(0);
     const units = new Set(parseCsv(readFileSync(join(out, 'data/regions/varn-shore.csv'), 'utf8')).map((r) => r.unit));
     const base = ['h', 'degC', 'person-h km-2', 'person-h', 'FTE', '%'];
     // Each unit also per decade (the trend rows) and the Mann–Kendall p-value's 1.
     expect(units).toEqual(new Set([...base, ...base.map((u) => `${u} decade-1`), '1']));
     // The workbook gains the workforce sheets (read back by Python's openpyxl, Debian python3-openpyxl).
-    const sheets = execFileSync('/usr/bin/python3', ['-c', `import openpyxl; print('|'.join(openpyxl.load_workbook('${join(out, 'data/regions/varn-shore.xlsx')}').sheetnames))`], { encoding: 'utf8' }).trim().split('|');
+    const sheets = execFileSync(
+      '/usr/bin/python3',
+      ['-c', `import openpyxl; print('|'.join(openpyxl.load_workbook('${join(out, 'data/regions/varn-shore.xlsx')}').sheetnames))`],
+      { encoding: 'utf8' },
+    )
+      .trim()
+      .split('|');
     expect(sheets).toEqual(expect.arrayContaining(['Person-hours by month', 'Full-time equivalents by month', 'Outdoor time lost by month']));
-    const assumptions = execFileSync('/usr/bin/python3', ['-c', `import openpyxl; ws=openpyxl.load_workbook('${join(out, 'data/regions/varn-shore.xlsx')}')['Assumptions']; print('\\n'.join(str(r[1]) for r in ws.iter_rows(values_only=True)))`], { encoding: 'utf8' });
+    const assumptions = execFileSync(
+      '/usr/bin/python3',
+      [
+        '-c',
+        `import openpyxl; ws=openpyxl.load_workbook('${join(out, 'data/regions/varn-shore.xlsx')}')['Assumptions']; print('\\n'.join(str(r[1]) for r in ws.iter_rows(values_only=True)))`,
+      ],
+      { encoding: 'utf8' },
+    );
     expect(assumptions).toContain('Invented people of the test territory, 2024 (INVENTED); licence: Invented for the test; no licence applies');
   });
 });

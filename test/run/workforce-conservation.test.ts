@@ -123,7 +123,8 @@ describe('people are conserved from the raster to the regions', () => {
     const lat = Float64Array.from({ length: height }, (_, j) => south + (j + 0.5) * d);
     const lon = Float64Array.from({ length: width }, (_, i) => west + (i + 0.5) * d);
     const values = new Float32Array(width * height);
-    for (let j = 0; j < height; j++) for (let i = 0; i < width; i++) values[j * width + i] = 5 + 4 * Math.sin(lon[i] * 3) * Math.cos(lat[j] * 2) + (lon[i] + 151) * 2;
+    for (let j = 0; j < height; j++)
+      for (let i = 0; i < width; i++) values[j * width + i] = 5 + 4 * Math.sin(lon[i] * 3) * Math.cos(lat[j] * 2) + (lon[i] + 151) * 2;
     writeFileSync(join(dir, 'varying.tif'), writeGeoTiff({ lat, lon, values }, { units: 'people', description: 'varying (test)' }));
     const { grid } = demoGrid();
     const all = new Uint8Array(grid.lat.length * grid.lon.length).fill(1);

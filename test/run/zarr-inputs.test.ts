@@ -86,7 +86,10 @@ describe('build from Zarr stores', () => {
     expect(regionTables.length).toBeGreaterThan(5);
     const differingFrom = (other: Map<string, Buffer>) => {
       expect([...other.keys()].sort()).toEqual([...nc.keys()].sort());
-      return [...nc].filter(([p, b]) => !b.equals(other.get(p)!)).map(([p]) => p).sort();
+      return [...nc]
+        .filter(([p, b]) => !b.equals(other.get(p)!))
+        .map(([p]) => p)
+        .sort();
     };
     // Same configuration text: only the inputs' description differs.
     expect(differingFrom(local)).toEqual(['data/inventory.json', 'data/manifest.json']);
@@ -97,12 +100,19 @@ describe('build from Zarr stores', () => {
     const unzipped = (m: Map<string, Buffer>, p: string, name: string) => {
       const f = join(dir, `${name}-${p.replace(/\//g, '_')}`);
       writeFileSync(f, m.get(p)!);
-      return execFileSync('unzip', ['-p', f], { maxBuffer: 1 << 28 }).toString('latin1').split(digest(m)).join('DIGEST');
+      return execFileSync('unzip', ['-p', f], { maxBuffer: 1 << 28 })
+        .toString('latin1')
+        .split(digest(m))
+        .join('DIGEST');
     };
     expect(digest(remote)).not.toBe(digest(nc));
     for (const p of xlsx) expect(unzipped(remote, p, 'remote')).toBe(unzipped(nc, p, 'nc'));
-    const inv = (m: Map<string, Buffer>) => JSON.parse(m.get('data/inventory.json')!.toString('utf8')) as { files: Array<{ name: string; format: string; layout: string }>; variables: unknown };
-    expect(inv(local).files.map((f) => [f.name, f.format, f.layout])).toEqual([['era5-demo-2022.zarr', 'zarr', 'era5-zarr'], ['era5-demo-lsm.zarr', 'zarr', 'era5-zarr']]);
+    const inv = (m: Map<string, Buffer>) =>
+      JSON.parse(m.get('data/inventory.json')!.toString('utf8')) as { files: Array<{ name: string; format: string; layout: string }>; variables: unknown };
+    expect(inv(local).files.map((f) => [f.name, f.format, f.layout])).toEqual([
+      ['era5-demo-2022.zarr', 'zarr', 'era5-zarr'],
+      ['era5-demo-lsm.zarr', 'zarr', 'era5-zarr'],
+    ]);
     expect(inv(local).variables).toEqual(inv(nc).variables);
     expect(inv(remote).files).toEqual(inv(local).files);
   }, 900_000);

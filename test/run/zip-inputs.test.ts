@@ -90,7 +90,10 @@ beforeAll(async () => {
   writeFileSync(join(dir, 'split.py'), SPLIT_PY);
   execFileSync('python3', [join(dir, 'split.py'), join(dir, 'demo/era5-demo-2022.nc'), monthly]);
   execFileSync('cp', [join(dir, 'demo/era5-demo-lsm.nc'), join(monthly, 'era5-lsm.nc')]);
-  for (const [name, level] of [['stored', '-0'], ['deflated', '-6']]) {
+  for (const [name, level] of [
+    ['stored', '-0'],
+    ['deflated', '-6'],
+  ]) {
     mkdirSync(join(dir, name, 'inputs'), { recursive: true });
     execFileSync('zip', ['-q', '-X', level, '-j', join(dir, name, 'inputs/era5-2022.zip'), ...members]);
   }
@@ -118,7 +121,8 @@ describe('build from ZIP archives of the two streams', () => {
     expect(inv.files.map((f) => f.name).sort()).toEqual(['era5-2022-accum.nc', 'era5-2022-instant.nc', 'era5-lsm.nc']);
     // Only the deflated archive's three members were unpacked into the build's cache folder;
     // stored NetCDF-3 members are read in place.
-    const unpacked = (name: string) => (existsSync(join(dir, name, '.heathours-cache/zip-members')) ? readdirSync(join(dir, name, '.heathours-cache/zip-members')) : []);
+    const unpacked = (name: string) =>
+      existsSync(join(dir, name, '.heathours-cache/zip-members')) ? readdirSync(join(dir, name, '.heathours-cache/zip-members')) : [];
     expect(unpacked('stored')).toEqual([]);
     expect(unpacked('deflated').filter((f) => f.endsWith('.nc'))).toHaveLength(3);
   }, 600_000);
@@ -127,13 +131,23 @@ describe('build from ZIP archives of the two streams', () => {
     const plain = tree(join(dir, 'plain/out'));
     const monthly = await build('monthly');
     expect([...monthly.keys()].sort()).toEqual([...plain.keys()].sort());
-    const differing = [...plain].filter(([p, b]) => !b.equals(monthly.get(p)!)).map(([p]) => p).sort();
+    const differing = [...plain]
+      .filter(([p, b]) => !b.equals(monthly.get(p)!))
+      .map(([p]) => p)
+      .sort();
     // inventory.json lists the input files; manifest.json lists them and the digests of the
     // others; each region workbook and the per-cell NetCDF's `source` attribute state the number
     // of input files (3 against 13).
-    expect(differing).toEqual(['data/atlas-cells.nc', 'data/inventory.json', 'data/manifest.json', ...[...plain.keys()].filter((p) => p.endsWith('.xlsx'))].sort());
+    expect(differing).toEqual(
+      ['data/atlas-cells.nc', 'data/inventory.json', 'data/manifest.json', ...[...plain.keys()].filter((p) => p.endsWith('.xlsx'))].sort(),
+    );
     // The per-cell NetCDF differs in that attribute only: netCDF-C's ncdump prints the same header and values otherwise.
-    const dump = (name: string) => execFileSync('ncdump', [join(dir, name, 'out/data/atlas-cells.nc')], { maxBuffer: 1 << 28 }).toString().split('\n').slice(1).filter((l) => !/^\t\t:source = /.test(l));
+    const dump = (name: string) =>
+      execFileSync('ncdump', [join(dir, name, 'out/data/atlas-cells.nc')], { maxBuffer: 1 << 28 })
+        .toString()
+        .split('\n')
+        .slice(1)
+        .filter((l) => !/^\t\t:source = /.test(l));
     const [a, b] = [dump('plain'), dump('monthly')];
     expect(a.length).toBeGreaterThan(100);
     expect(b).toEqual(a);

@@ -35,11 +35,23 @@ function writeChangeFile(name: string, f: FileSpec): string {
   const months = f.months ?? 12;
   const text = (n: string, value: string): Nc3Attr => ({ name: n, value });
   const vars = [
-    { name: 'time', type: 'double' as const, dims: ['time'], attrs: [text('standard_name', 'time'), text('units', 'days since 2000-01-01'), text('calendar', '360_day')] },
+    {
+      name: 'time',
+      type: 'double' as const,
+      dims: ['time'],
+      attrs: [text('standard_name', 'time'), text('units', 'days since 2000-01-01'), text('calendar', '360_day')],
+    },
     { name: 'lat', type: 'double' as const, dims: ['lat'], attrs: [text('standard_name', 'latitude'), text('units', 'degrees_north')] },
     { name: 'lon', type: 'double' as const, dims: ['lon'], attrs: [text('standard_name', 'longitude'), text('units', 'degrees_east')] },
-    { name: 'tas', type: 'double' as const, dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'air_temperature'), text('units', f.tasUnits ?? 'K'), text('units_metadata', 'temperature: difference')] },
-    ...(f.hurs ? [{ name: 'hurs', type: 'double' as const, dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'relative_humidity'), text('units', '%')] }] : []),
+    {
+      name: 'tas',
+      type: 'double' as const,
+      dims: ['time', 'lat', 'lon'],
+      attrs: [text('standard_name', 'air_temperature'), text('units', f.tasUnits ?? 'K'), text('units_metadata', 'temperature: difference')],
+    },
+    ...(f.hurs
+      ? [{ name: 'hurs', type: 'double' as const, dims: ['time', 'lat', 'lon'], attrs: [text('standard_name', 'relative_humidity'), text('units', '%')] }]
+      : []),
   ];
   const w = new Netcdf3Writer(path, {
     format: 'classic',
@@ -59,7 +71,10 @@ function writeChangeFile(name: string, f: FileSpec): string {
         for (let x = 0; x < f.lon.length; x++) v[(m * f.lat.length + y) * f.lon.length + x] = fn(m + 1, f.lat[y], f.lon[x] >= 180 ? f.lon[x] - 360 : f.lon[x]);
     return v;
   };
-  w.writeFixed('time', Array.from({ length: months }, (_, m) => 30 * m + 15));
+  w.writeFixed(
+    'time',
+    Array.from({ length: months }, (_, m) => 30 * m + 15),
+  );
   w.writeFixed('lat', f.lat);
   w.writeFixed('lon', f.lon);
   w.writeFixed('tas', field(f.tas));
@@ -68,7 +83,15 @@ function writeChangeFile(name: string, f: FileSpec): string {
   return path;
 }
 
-const spec = (path: string, humidity: 'relative' | 'specific' = 'relative'): ScenarioSpec => ({ id: 'test', name: 'test', kind: 'change-file', path, file: path, sha256: '0'.repeat(64), humidity });
+const spec = (path: string, humidity: 'relative' | 'specific' = 'relative'): ScenarioSpec => ({
+  id: 'test',
+  name: 'test',
+  kind: 'change-file',
+  path,
+  file: path,
+  sha256: '0'.repeat(64),
+  humidity,
+});
 const axis = (a: number, n: number, step: number) => Array.from({ length: n }, (_, i) => a + step * i);
 /** A 1° source grid around the atlas: 19…22 °N, 147…143 °W, in −180…180 and in 0–360. */
 const LAT = axis(19, 4, 1);
@@ -103,24 +126,44 @@ describe('a change file on the atlas grid', () => {
 
   it('gives identical changes for a file in 0–360 longitudes and its copy in −180–180 (humidity too)', async () => {
     const hurs = (m: number, lat: number, lon: number) => Math.sin(m + lat) * 3 + 0.01 * lon;
-    const a = await scenarioCellChange(spec(writeChangeFile('lon180.nc', { lat: LAT, lon: LON, tas: (m, la, lo) => Math.cos(m * la) + 0.037 * (lo + 145), hurs })), ALL, GRID);
-    const b = await scenarioCellChange(spec(writeChangeFile('lon360.nc', { lat: LAT, lon: LON360, tas: (m, la, lo) => Math.cos(m * la) + 0.037 * (lo + 145), hurs })), ALL, GRID);
+    const a = await scenarioCellChange(
+      spec(writeChangeFile('lon180.nc', { lat: LAT, lon: LON, tas: (m, la, lo) => Math.cos(m * la) + 0.037 * (lo + 145), hurs })),
+      ALL,
+      GRID,
+    );
+    const b = await scenarioCellChange(
+      spec(writeChangeFile('lon360.nc', { lat: LAT, lon: LON360, tas: (m, la, lo) => Math.cos(m * la) + 0.037 * (lo + 145), hurs })),
+      ALL,
+      GRID,
+    );
     expect(Buffer.from(a.temperature.buffer).equals(Buffer.from(b.temperature.buffer))).toBe(true);
     expect(Buffer.from(a.humidity!.buffer).equals(Buffer.from(b.humidity!.buffer))).toBe(true);
   });
 
   it('refuses a file without a time axis of 12 months (ChangeFileNotMonthly)', async () => {
-    await expectCataloguedAsync(scenarioCellChange(spec(writeChangeFile('eleven.nc', { lat: LAT, lon: LON, months: 11, tas: linear })), ALL, GRID), 'ChangeFileNotMonthly', /11 entries, not 12/);
+    await expectCataloguedAsync(
+      scenarioCellChange(spec(writeChangeFile('eleven.nc', { lat: LAT, lon: LON, months: 11, tas: linear })), ALL, GRID),
+      'ChangeFileNotMonthly',
+      /11 entries, not 12/,
+    );
   });
 
   it('refuses a grid that does not cover the atlas (ChangeGridNotCovering), naming the cell', async () => {
     // Ends at 146 °W: the atlas's easternmost cells (144.875 °W) lie more than half a step beyond.
-    await expectCataloguedAsync(scenarioCellChange(spec(writeChangeFile('short.nc', { lat: LAT, lon: axis(-149, 4, 1), tas: linear })), ALL, GRID), 'ChangeGridNotCovering', /does not cover the atlas cell/);
+    await expectCataloguedAsync(
+      scenarioCellChange(spec(writeChangeFile('short.nc', { lat: LAT, lon: axis(-149, 4, 1), tas: linear })), ALL, GRID),
+      'ChangeGridNotCovering',
+      /does not cover the atlas cell/,
+    );
   });
 
   it('refuses a relative-humidity change beyond ±100 points (HumidityChangeOutOfRange), naming the month', async () => {
     const hurs = (m: number) => (m === 7 ? 120 : 2);
-    await expectCataloguedAsync(scenarioCellChange(spec(writeChangeFile('wet.nc', { lat: LAT, lon: LON, tas: linear, hurs })), ALL, GRID), 'HumidityChangeOutOfRange', /month 7/);
+    await expectCataloguedAsync(
+      scenarioCellChange(spec(writeChangeFile('wet.nc', { lat: LAT, lon: LON, tas: linear, hurs })), ALL, GRID),
+      'HumidityChangeOutOfRange',
+      /month 7/,
+    );
   });
 
   it('refuses a scenario id that is not a slug, reserved or repeated (ScenarioIdInvalid, ScenarioIdDuplicate)', () => {

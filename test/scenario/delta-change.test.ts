@@ -5,7 +5,13 @@
  * and counted.
  */
 import { describe, expect, it } from 'vitest';
-import { applyMonthlyChange, dewPointAfterRelativeChange, dewPointAfterSpecificChange, emptyChangeCounts, type MonthlyChanges } from '../../pipeline/physics/delta-change.ts';
+import {
+  applyMonthlyChange,
+  dewPointAfterRelativeChange,
+  dewPointAfterSpecificChange,
+  emptyChangeCounts,
+  type MonthlyChanges,
+} from '../../pipeline/physics/delta-change.ts';
 import { dewPointFromRelativeHumidity, relativeHumidityFromDewPoint } from '../../pipeline/physics/humidity.ts';
 import { checkCellChange, uniformWarming } from '../../pipeline/scenario/cell-change.ts';
 import { expectCatalogued } from '../helpers/catalogued.ts';
@@ -73,8 +79,20 @@ describe('the delta change method, hour by hour', () => {
     const air = mk((i) => 20 + i * 0.37);
     air[5] = NaN;
     const dew = mk((i) => 10 + i * 0.21);
-    const fields = { airTemperature: air.slice(), dewPointTemperature: dew.slice(), surfacePressure: mk(() => 1000), solarGlobal: mk((i) => i * 10), solarDirect: mk((i) => i * 5) };
-    const change: MonthlyChanges = { nCells: n, temperature: new Float64Array(12 * n), humidityKind: 'relative', humidity: new Float64Array(12 * n), solar: new Float64Array(12 * n) };
+    const fields = {
+      airTemperature: air.slice(),
+      dewPointTemperature: dew.slice(),
+      surfacePressure: mk(() => 1000),
+      solarGlobal: mk((i) => i * 10),
+      solarDirect: mk((i) => i * 5),
+    };
+    const change: MonthlyChanges = {
+      nCells: n,
+      temperature: new Float64Array(12 * n),
+      humidityKind: 'relative',
+      humidity: new Float64Array(12 * n),
+      solar: new Float64Array(12 * n),
+    };
     const counts = emptyChangeCounts();
     applyMonthlyChange(fields, n, hours, [7, 7, 7, 8], change, 0, counts);
     expect(Buffer.from(fields.airTemperature.buffer).equals(Buffer.from(air.buffer))).toBe(true);
@@ -85,12 +103,28 @@ describe('the delta change method, hour by hour', () => {
 
   it('a humidity change past saturation is clamped to RH 100 % and counted; one below 1 % is clamped to 1 % and counted, never silent', () => {
     const n = 2;
-    const change: MonthlyChanges = { nCells: n, temperature: new Float64Array(12 * n).fill(1), humidityKind: 'relative', humidity: new Float64Array(12 * n), solar: null };
+    const change: MonthlyChanges = {
+      nCells: n,
+      temperature: new Float64Array(12 * n).fill(1),
+      humidityKind: 'relative',
+      humidity: new Float64Array(12 * n),
+      solar: null,
+    };
     change.humidity![6 * n + 0] = 40; // July, cell 0: RH 80 % + 40 points → 100 %
     change.humidity![6 * n + 1] = -60; // July, cell 1: RH 30 % − 60 points → 1 %
     const t = [30, 30, 30, 30];
-    const td = [dewPointFromRelativeHumidity(30, 80), dewPointFromRelativeHumidity(30, 30), dewPointFromRelativeHumidity(30, 80), dewPointFromRelativeHumidity(30, 30)];
-    const fields = { airTemperature: Float32Array.from(t), dewPointTemperature: Float32Array.from(td), surfacePressure: new Float32Array(4).fill(1000), solarGlobal: new Float32Array(4) };
+    const td = [
+      dewPointFromRelativeHumidity(30, 80),
+      dewPointFromRelativeHumidity(30, 30),
+      dewPointFromRelativeHumidity(30, 80),
+      dewPointFromRelativeHumidity(30, 30),
+    ];
+    const fields = {
+      airTemperature: Float32Array.from(t),
+      dewPointTemperature: Float32Array.from(td),
+      surfacePressure: new Float32Array(4).fill(1000),
+      solarGlobal: new Float32Array(4),
+    };
     const counts = emptyChangeCounts();
     applyMonthlyChange(fields, n, 2, [7, 7], change, 0, counts);
     expect(counts).toEqual({ humidityClampedHigh: 2, humidityClampedLow: 2 });

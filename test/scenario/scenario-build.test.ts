@@ -37,7 +37,11 @@ function writeZeros(path: string, months = 12): void {
   const w = new Netcdf3Writer(path, {
     format: 'classic',
     numRecords: 0,
-    dims: [{ name: 'month', length: months }, { name: 'lat', length: lat.length }, { name: 'lon', length: lon.length }],
+    dims: [
+      { name: 'month', length: months },
+      { name: 'lat', length: lat.length },
+      { name: 'lon', length: lon.length },
+    ],
     attrs: [a('Conventions', 'CF-1.8'), a('title', 'zero changes (test)')],
     vars: [
       { name: 'month', type: 'int', dims: ['month'], attrs: [a('long_name', 'calendar month')] },
@@ -48,16 +52,24 @@ function writeZeros(path: string, months = 12): void {
       { name: 'rsds', type: 'float', dims: ['month', 'lat', 'lon'], attrs: [a('standard_name', 'surface_downwelling_shortwave_flux_in_air'), a('units', '%')] },
     ],
   });
-  w.writeFixed('month', Array.from({ length: months }, (_, m) => m + 1));
+  w.writeFixed(
+    'month',
+    Array.from({ length: months }, (_, m) => m + 1),
+  );
   w.writeFixed('lat', lat);
   w.writeFixed('lon', lon);
   for (const v of ['tas', 'hurs', 'rsds']) w.writeFixed(v, new Float32Array(months * lat.length * lon.length));
   w.close();
 }
 
-interface Row { [k: string]: string }
+interface Row {
+  [k: string]: string;
+}
 function readCsv(path: string): Row[] {
-  const [head, ...rows] = readFileSync(path, 'utf8').replace(/^\uFEFF/, '').trim().split('\n');
+  const [head, ...rows] = readFileSync(path, 'utf8')
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .split('\n');
   const cols = head.split(',');
   return rows.map((r) => Object.fromEntries(r.split(',').map((v, i) => [cols[i], v])));
 }
@@ -110,7 +122,12 @@ describe('scenarios through the build (invented small demo)', () => {
     const regionFiles = readdirSync(join(out, 'data/regions')).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv'));
     expect(regionFiles.length).toBeGreaterThan(0);
     for (const f of regionFiles) {
-      const load = (root: string) => new Map(readCsv(join(root, 'regions', f)).filter((r) => FIGURES.has(r.figure) && r.value !== '').map((r) => [key(r), Number(r.value)]));
+      const load = (root: string) =>
+        new Map(
+          readCsv(join(root, 'regions', f))
+            .filter((r) => FIGURES.has(r.figure) && r.value !== '')
+            .map((r) => [key(r), Number(r.value)]),
+        );
       const b = load(join(out, 'data'));
       const s1 = load(join(out, 'data/scenarios/level-1-5'));
       const s2 = load(join(out, 'data/scenarios/level-2'));
@@ -126,7 +143,9 @@ describe('scenarios through the build (invented small demo)', () => {
   });
 
   it('publishes a trend layer per combination of hours above the limit and hours lost (whole year, h per decade), for the record and each scenario, holding no value with 2 years built (a trend needs 15)', async () => {
-    const manifest = JSON.parse(readFileSync(join(out, 'data/manifest.json'), 'utf8')) as Manifest & { scenarios: Array<{ id: string; layers: Manifest['layers'] }> };
+    const manifest = JSON.parse(readFileSync(join(out, 'data/manifest.json'), 'utf8')) as Manifest & {
+      scenarios: Array<{ id: string; layers: Manifest['layers'] }>;
+    };
     for (const layers of [manifest.layers, ...manifest.scenarios.map((s) => s.layers)]) {
       const trend = layers.filter((l) => l.statistic === 'trend');
       const w = manifest.work as { classes: unknown[]; acclimatization: unknown[]; exposures: unknown[] };
@@ -151,14 +170,22 @@ describe('scenarios through the build (invented small demo)', () => {
     writeZeros(join(dir, 'eleven.nc'), 11);
     writeFileSync(join(dir, 'bad.yaml'), yaml('  - { id: eleven, name: Eleven months, changeFile: eleven.nc, humidity: relative }\n'));
     const target = join(dir, 'out-bad');
-    await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'bad.yaml'), outDir: target, jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ChangeFileNotMonthly', /11 entries/);
+    await expectCataloguedAsync(
+      buildAtlas({ configPath: join(dir, 'bad.yaml'), outDir: target, jobs: 1, quiet: true, dataOnly: true, cache: false }),
+      'ChangeFileNotMonthly',
+      /11 entries/,
+    );
     expect(existsSync(target)).toBe(false);
   });
 
   it('a scenario id that is not a slug stops the build with ScenarioIdInvalid and publishes nothing', async () => {
     writeFileSync(join(dir, 'badid.yaml'), yaml('  - { id: Plus 2, name: Two, warming: 2 }\n'));
     const target = join(dir, 'out-badid');
-    await expectCataloguedAsync(buildAtlas({ configPath: join(dir, 'badid.yaml'), outDir: target, jobs: 1, quiet: true, dataOnly: true, cache: false }), 'ScenarioIdInvalid', /Plus 2/);
+    await expectCataloguedAsync(
+      buildAtlas({ configPath: join(dir, 'badid.yaml'), outDir: target, jobs: 1, quiet: true, dataOnly: true, cache: false }),
+      'ScenarioIdInvalid',
+      /Plus 2/,
+    );
     expect(existsSync(target)).toBe(false);
   });
 });

@@ -39,7 +39,17 @@ beforeAll(async () => {
   tmp = mkdtempSync(join(tmpdir(), 'estimate-cli-'));
 }, 600_000);
 
-const base = (o: Partial<EstimateOptions> = {}): EstimateOptions => ({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', ...o });
+const base = (o: Partial<EstimateOptions> = {}): EstimateOptions => ({
+  atlas: dataDir,
+  region: 'sollent-coast',
+  start: '2027-05-03',
+  workHours: '20000',
+  crew: '20',
+  rate: '35',
+  dailyCost: '1500',
+  currency: 'EUR',
+  ...o,
+});
 
 /** Every number anywhere in the JSON. */
 function numbers(v: unknown, out: number[] = []): number[] {
@@ -51,7 +61,31 @@ function numbers(v: unknown, out: number[] = []): number[] {
 
 describe('heathours estimate', () => {
   it('--json holds finishDate, addedWorkingDays and crewHoursLost as {mean,p50,p90}, cost {mean,p90}, 12 startMonths with addedWorkingDays {p50,p90}, one years entry per replayed year; no number is NaN; the process exits 0', async () => {
-    const { stdout } = await run(process.execPath, [join(PROJECT_ROOT, 'bin/heathours.mjs'), 'estimate', '--atlas', dataDir, '--region', 'sollent-coast', '--start', '2027-05-03', '--work-hours', '20000', '--crew', '20', '--rate', '35', '--daily-cost', '1500', '--currency', 'EUR', '--json'], { maxBuffer: 1 << 24 });
+    const { stdout } = await run(
+      process.execPath,
+      [
+        join(PROJECT_ROOT, 'bin/heathours.mjs'),
+        'estimate',
+        '--atlas',
+        dataDir,
+        '--region',
+        'sollent-coast',
+        '--start',
+        '2027-05-03',
+        '--work-hours',
+        '20000',
+        '--crew',
+        '20',
+        '--rate',
+        '35',
+        '--daily-cost',
+        '1500',
+        '--currency',
+        'EUR',
+        '--json',
+      ],
+      { maxBuffer: 1 << 24 },
+    );
     const j = JSON.parse(stdout) as BidJson;
     for (const k of ['finishDate', 'addedWorkingDays', 'crewHoursLost'] as const) expect(Object.keys(j[k]).sort()).toEqual(['mean', 'p50', 'p90']);
     expect(j.finishDate.p90).toMatch(/^\d{4}-\d{2}-\d{2}$/);
@@ -99,7 +133,9 @@ describe('heathours estimate', () => {
       const inputs = parseInputs({ region: region.id }, atlas.ctx, 'C');
       const { histograms } = await loadPlace(inputs.place, atlas.ctx, atlas.load);
       const w = weatherYears(histograms, atlas.ctx.years, { kernel: inputKernel(inputs, atlas.ctx), exposure: 'sun', rest: { kind: 'same-place' } }).usable;
-      const monthLoss = Array.from({ length: 12 }, (_, m) => w.reduce((s, y) => s + y.lostRate.subarray(m * 24 + 7, m * 24 + 17).reduce((a, b) => a + b, 0), 0));
+      const monthLoss = Array.from({ length: 12 }, (_, m) =>
+        w.reduce((s, y) => s + y.lostRate.subarray(m * 24 + 7, m * 24 + 17).reduce((a, b) => a + b, 0), 0),
+      );
       const hottest = monthLoss.indexOf(Math.max(...monthLoss));
       const coolest = monthLoss.indexOf(Math.min(...monthLoss));
       expect(hottest).not.toBe(coolest);
@@ -136,7 +172,11 @@ describe('heathours estimate', () => {
     // Nearest: no land cell centre is closer (brute force over every land cell).
     const rad = Math.PI / 180;
     const hav = (a: { lat: number; lon: number }) =>
-      2 * 6371.0088 * Math.asin(Math.sqrt(Math.sin(((a.lat - p.lat) * rad) / 2) ** 2 + Math.cos(a.lat * rad) * Math.cos(p.lat * rad) * Math.sin(((a.lon - p.lon) * rad) / 2) ** 2));
+      2 *
+      6371.0088 *
+      Math.asin(
+        Math.sqrt(Math.sin(((a.lat - p.lat) * rad) / 2) ** 2 + Math.cos(a.lat * rad) * Math.cos(p.lat * rad) * Math.sin(((a.lon - p.lon) * rad) / 2) ** 2),
+      );
     const best = Math.min(...[...land].map((c) => hav(cellCentre(g, c))));
     expect(j.place.distanceKm).toBeCloseTo(best, 1);
     // One grid step at these latitudes is about 111 km × the step in degrees.
@@ -147,17 +187,47 @@ describe('heathours estimate', () => {
   it('--csv and --xlsx write files that Python’s csv module and openpyxl read back with the same figures, the assumptions and the cautions', async () => {
     const csvPath = join(tmp, 'bid.csv');
     const xlsxPath = join(tmp, 'bid.xlsx');
-    await run(process.execPath, [join(PROJECT_ROOT, 'bin/heathours.mjs'), 'estimate', '--atlas', dataDir, '--region', 'sollent-coast', '--start', '2027-05-03', '--crew', '20', '--rate', '35', '--daily-cost', '1500', '--currency', 'EUR', '--csv', csvPath, '--xlsx', xlsxPath, '--json'], { maxBuffer: 1 << 24 });
+    await run(
+      process.execPath,
+      [
+        join(PROJECT_ROOT, 'bin/heathours.mjs'),
+        'estimate',
+        '--atlas',
+        dataDir,
+        '--region',
+        'sollent-coast',
+        '--start',
+        '2027-05-03',
+        '--crew',
+        '20',
+        '--rate',
+        '35',
+        '--daily-cost',
+        '1500',
+        '--currency',
+        'EUR',
+        '--csv',
+        csvPath,
+        '--xlsx',
+        xlsxPath,
+        '--json',
+      ],
+      { maxBuffer: 1 << 24 },
+    );
     const j = await runEstimateCommand(base({ workHours: undefined }));
     const text = readFileSync(csvPath, 'utf8');
     expect(text.charCodeAt(0)).toBe(0xfeff);
-    const py = await run('/usr/bin/python3', ['-c', [
-      'import csv, json, sys',
-      'rows = list(csv.reader(open(sys.argv[1], encoding="utf-8-sig")))',
-      'comments = [r for r in rows if r and r[0] == "#"]',
-      'data = [r for r in rows if r and r[0] != "#"]',
-      'print(json.dumps({"comments": comments, "head": data[0], "rows": data[1:]}))',
-    ].join('\n'), csvPath]);
+    const py = await run('/usr/bin/python3', [
+      '-c',
+      [
+        'import csv, json, sys',
+        'rows = list(csv.reader(open(sys.argv[1], encoding="utf-8-sig")))',
+        'comments = [r for r in rows if r and r[0] == "#"]',
+        'data = [r for r in rows if r and r[0] != "#"]',
+        'print(json.dumps({"comments": comments, "head": data[0], "rows": data[1:]}))',
+      ].join('\n'),
+      csvPath,
+    ]);
     const parsed = JSON.parse(py.stdout) as { comments: string[][]; head: string[]; rows: string[][] };
     for (const c of parsed.comments) expect(c).toHaveLength(2);
     expect(parsed.comments.map((c) => c[1]).join('\n')).toContain('INVENTED DATA');
@@ -166,11 +236,15 @@ describe('heathours estimate', () => {
     expect(Number(get('schedule', 'crewHoursLost', 'p90'))).toBe(j.crewHoursLost.p90);
     expect(get('schedule', 'finishDate', 'p90')).toBe(j.finishDate.p90);
     expect(Number(get('schedule', 'cost', 'mean'))).toBe(j.cost.mean);
-    const xl = await run('/usr/bin/python3', ['-c', [
-      'import json, sys, openpyxl',
-      'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
-      'print(json.dumps({ws.title: [[c for c in row] for row in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
-    ].join('\n'), xlsxPath]);
+    const xl = await run('/usr/bin/python3', [
+      '-c',
+      [
+        'import json, sys, openpyxl',
+        'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
+        'print(json.dumps({ws.title: [[c for c in row] for row in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
+      ].join('\n'),
+      xlsxPath,
+    ]);
     const book = JSON.parse(xl.stdout) as Record<string, Array<Array<string | number | null>>>;
     expect(Object.keys(book)).toEqual(['Schedule', 'Years', 'Start months', 'Shift patterns', 'Assumptions', 'Cautions']);
     const sched = book.Schedule;
@@ -214,7 +288,16 @@ describe('heathours estimate', () => {
     await bad({ holidays: join(tmp, 'missing.txt') }, 'ScheduleHolidayInvalid', /cannot be read/);
     await expectCataloguedAsync(() => runEstimateCommand(base({ atlas: tmp })), 'EstimateAtlasNotFound', /data\/manifest\.json/);
     // The command itself prints the error with its hint and exits with status 2.
-    const r = await run(process.execPath, [join(PROJECT_ROOT, 'bin/heathours.mjs'), 'estimate', '--atlas', dataDir, '--region', 'sollent-coast', '--crew', 'many']).catch((x: { code: number; stderr: string }) => x);
+    const r = await run(process.execPath, [
+      join(PROJECT_ROOT, 'bin/heathours.mjs'),
+      'estimate',
+      '--atlas',
+      dataDir,
+      '--region',
+      'sollent-coast',
+      '--crew',
+      'many',
+    ]).catch((x: { code: number; stderr: string }) => x);
     expect((r as { code: number }).code).toBe(2);
     expect((r as { stderr: string }).stderr).toMatch(/ScheduleNumberInvalid[\s\S]*hint:/);
   });

@@ -39,7 +39,17 @@ beforeAll(async () => {
   atlas = await openEstimateAtlas(dataDir);
 }, 900_000);
 
-const base = (o: Partial<EstimateOptions> = {}): EstimateOptions => ({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', ...o });
+const base = (o: Partial<EstimateOptions> = {}): EstimateOptions => ({
+  atlas: dataDir,
+  region: 'sollent-coast',
+  start: '2027-05-03',
+  workHours: '20000',
+  crew: '20',
+  rate: '35',
+  dailyCost: '1500',
+  currency: 'EUR',
+  ...o,
+});
 
 describe('the estimate on the atlas\u2019s scenarios', () => {
   it('the context lists the scenario with the manifest\u2019s words, and its tiles are the record\u2019s paths moved into data/scenarios/<id>/, present in the build', () => {
@@ -85,7 +95,23 @@ describe('the estimate on the atlas\u2019s scenarios', () => {
     const j = await runEstimateCommand(base({ scenarios: 'all', deadline: '2027-09-15' }));
     expect(j.scenarios).toHaveLength(1);
     const s = j.scenarios[0];
-    for (const k of ['weatherYears', 'weatherYearsLeftOut', 'heatFree', 'finishDate', 'workingDays', 'calendarDays', 'addedWorkingDays', 'addedCalendarDays', 'crewHoursLost', 'crewHoursAbove', 'cost', 'years', 'startMonths', 'shiftPatterns', 'crewForDeadline'] as const) {
+    for (const k of [
+      'weatherYears',
+      'weatherYearsLeftOut',
+      'heatFree',
+      'finishDate',
+      'workingDays',
+      'calendarDays',
+      'addedWorkingDays',
+      'addedCalendarDays',
+      'crewHoursLost',
+      'crewHoursAbove',
+      'cost',
+      'years',
+      'startMonths',
+      'shiftPatterns',
+      'crewForDeadline',
+    ] as const) {
       expect(s, k).toHaveProperty(k);
       expect(typeof s[k], k).toBe(typeof j[k]);
     }
@@ -117,11 +143,15 @@ describe('the estimate on the atlas\u2019s scenarios', () => {
     const j = await runEstimateCommand(base({ scenarios: 'all' }));
     const path = join(mkdtempSync(join(tmpdir(), 'estimate-scenario-xlsx-')), 'bid.xlsx');
     writeFileSync(path, await workbookBytes(bidSheets(j), { title: 'test', created: new Date(j.atlas.buildTime) }));
-    const xl = await run('/usr/bin/python3', ['-c', [
-      'import json, sys, openpyxl',
-      'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
-      'print(json.dumps({ws.title: [[c for c in row] for row in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
-    ].join('\n'), path]);
+    const xl = await run('/usr/bin/python3', [
+      '-c',
+      [
+        'import json, sys, openpyxl',
+        'wb = openpyxl.load_workbook(sys.argv[1], read_only=True)',
+        'print(json.dumps({ws.title: [[c for c in row] for row in ws.iter_rows(values_only=True)] for ws in wb.worksheets}, default=str))',
+      ].join('\n'),
+      path,
+    ]);
     const book = JSON.parse(xl.stdout) as Record<string, Array<Array<string | number | null>>>;
     expect(Object.keys(book)).toEqual(['Schedule', 'Years', 'Start months', 'Shift patterns', 'Assumptions', 'Cautions', 'What-if climates']);
     const sheet = book['What-if climates'];
@@ -144,7 +174,11 @@ describe('the estimate on the atlas\u2019s scenarios', () => {
     expect(parseScenarios(['all', ID], atlas.ctx)).toEqual([ID]);
     const out = mkdtempSync(join(tmpdir(), 'estimate-scenario-'));
     const csvPath = join(out, 'bid.csv');
-    const r = await run(process.execPath, [join(PROJECT_ROOT, 'bin/heathours-ts.mjs'), 'estimate', '--atlas', dataDir, '--region', 'sollent-coast', '--scenario', 'plus-9k', '--csv', csvPath], { maxBuffer: 1 << 24 }).catch((x: { code: number; stderr: string }) => x);
+    const r = await run(
+      process.execPath,
+      [join(PROJECT_ROOT, 'bin/heathours-ts.mjs'), 'estimate', '--atlas', dataDir, '--region', 'sollent-coast', '--scenario', 'plus-9k', '--csv', csvPath],
+      { maxBuffer: 1 << 24 },
+    ).catch((x: { code: number; stderr: string }) => x);
     expect((r as { code: number }).code).toBe(2);
     expect((r as { stderr: string }).stderr).toMatch(new RegExp(`EstimateScenarioUnknown[\\s\\S]*hint: use one of: ${ID}`));
     expect(existsSync(csvPath)).toBe(false);

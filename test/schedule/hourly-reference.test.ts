@@ -36,9 +36,12 @@ let globeDiameter = 0;
 beforeAll(async () => {
   const data = await buildPipelineData();
   atlas = await openEstimateAtlas(data.dataDir);
-  globeDiameter = (JSON.parse(readFileSync(join(data.dataDir, 'data', 'manifest.json'), 'utf8')) as { physics: { globeDiameter: number } }).physics.globeDiameter;
+  globeDiameter = (JSON.parse(readFileSync(join(data.dataDir, 'data', 'manifest.json'), 'utf8')) as { physics: { globeDiameter: number } }).physics
+    .globeDiameter;
   const dir = join(dirname(data.configPath), 'inputs');
-  inputs = readdirSync(dir).filter((f) => f.endsWith('.nc')).map((f) => join(dir, f));
+  inputs = readdirSync(dir)
+    .filter((f) => f.endsWith('.nc'))
+    .map((f) => join(dir, f));
 }, 600_000);
 
 const DAY = 86_400_000;
@@ -76,7 +79,16 @@ interface HourlyOutcome {
  * `years[(first + job year offset) mod n]` on the same month and day (29 February → 28 in a
  * common year); a missing hour takes the same hour of the day before.
  */
-function hourlyReplay(wbgt: Map<number, number>, years: number[], first: number, start: string, work: number, crew: number, kernel: WorkKernel, pattern: ReturnType<typeof parsePattern>): HourlyOutcome {
+function hourlyReplay(
+  wbgt: Map<number, number>,
+  years: number[],
+  first: number,
+  start: string,
+  work: number,
+  crew: number,
+  kernel: WorkKernel,
+  pattern: ReturnType<typeof parsePattern>,
+): HourlyOutcome {
   const weights = hourWeights(pattern);
   const mask = dayMask(pattern);
   const t0 = Date.parse(`${start}T00:00:00Z`);
@@ -141,7 +153,11 @@ describe('the day-by-day replay against an hour-by-hour replay of the same weath
       const wbgt = await hourlyWbgt(cell);
       const { histograms } = await loadPlace({ kind: 'cell', cell }, atlas.ctx, atlas.load);
       for (const s of settings) {
-        const kernel = prepareWorkKernel({ workRate: s.workRate, restRate: atlas.ctx.restRate, limit: { model: 'curve-2017', acclimatization: s.acclimatization } });
+        const kernel = prepareWorkKernel({
+          workRate: s.workRate,
+          restRate: atlas.ctx.restRate,
+          limit: { model: 'curve-2017', acclimatization: s.acclimatization },
+        });
         const weather = weatherYears(histograms, atlas.ctx.years, { kernel, exposure: 'sun', rest: { kind: 'same-place' } }).usable;
         const years = weather.map((w) => w.year);
         for (let m = 1; m <= 12; m++) {

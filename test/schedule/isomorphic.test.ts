@@ -16,7 +16,9 @@ describe('pipeline/schedule is pure and isomorphic', () => {
   it('imports only its own files, single files of work, climate and publish (the tile decoders, csv.ts; workbook.ts for a type), and the error machinery', () => {
     expect(files.length).toBeGreaterThan(15);
     for (const f of files) {
-      const code = readFileSync(new URL(f, dir), 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+      const code = readFileSync(new URL(f, dir), 'utf8')
+        .replace(/\/\*[\s\S]*?\*\//g, '')
+        .replace(/\/\/.*$/gm, '');
       expect(code, f).not.toMatch(/from\s+['"]node:|\bprocess\.|\bBuffer\b|\brequire\(/);
       for (const m of code.matchAll(/^(import\s+(type\s+)?[^;]*?from\s+['"]([^'"]+)['"])/gm)) {
         const spec = m[3];

@@ -119,7 +119,10 @@ describe('the replay, worked by hand', () => {
   it('a job longer than the record wraps to its first year: two weather years, a job starting in December in each', () => {
     // Weather A loses nothing, B loses half of every January hour.
     const A = weather(2021, new Array(12).fill(0));
-    const B = weather(2022, Array.from({ length: 12 }, (_, m) => (m === 0 ? 0.5 : 0)));
+    const B = weather(
+      2022,
+      Array.from({ length: 12 }, (_, m) => (m === 0 ? 0.5 : 0)),
+    );
     const j = job({ start: day('2027-12-01'), workHours: 50 * 40 });
     const fromA = replay(j, [A, B], 0); // December 2027 with A, January 2028 with B
     const fromB = replay(j, [A, B], 1); // December 2027 with B, January 2028 with A (wrapped)
@@ -130,7 +133,12 @@ describe('the replay, worked by hand', () => {
 
   it('a night shift 22:00–06:00 on 31 March takes the hours after midnight from April’s weather', () => {
     const night = parsePattern(['22:00-06:00'], 'mon-sun');
-    const w = [weather(2021, Array.from({ length: 12 }, (_, m) => (m === 3 ? 0.5 : 0)))];
+    const w = [
+      weather(
+        2021,
+        Array.from({ length: 12 }, (_, m) => (m === 3 ? 0.5 : 0)),
+      ),
+    ];
     const days: ReplayDay[] = [];
     replay({ start: day('2027-03-31'), workHours: 8, crew: 1, pattern: night, holidays: new Set() }, w, 0, (d) => days.push(d));
     // 2 h in March (no loss) + 6 h in April losing half: 5 productive, so a second night is needed.
@@ -142,7 +150,12 @@ describe('the replay, worked by hand', () => {
 
 describe('the bid’s answers', () => {
   // Five invented weather years: hours lost in July grow from 10 % to 50 %.
-  const years = [0.1, 0.2, 0.3, 0.4, 0.5].map((l, i) => weather(2020 + i, Array.from({ length: 12 }, (_, m) => (m === 6 ? l : m === 5 || m === 7 ? l / 2 : 0))));
+  const years = [0.1, 0.2, 0.3, 0.4, 0.5].map((l, i) =>
+    weather(
+      2020 + i,
+      Array.from({ length: 12 }, (_, m) => (m === 6 ? l : m === 5 || m === 7 ? l / 2 : 0)),
+    ),
+  );
   const j: Job = { start: day('2027-06-01'), workHours: 20_000, crew: 20, pattern: dayShift, holidays: new Set() };
   const costs: Costs = { rate: 30, dailyCost: 2000, currency: 'XYZ' };
 
@@ -188,7 +201,11 @@ describe('the bid’s answers', () => {
     expectCatalogued(() => answerBid({ job: j, costs, otherPatterns: [p, p, p, p] }, years), 'ScheduleTooManyPatterns');
     const empty = new Float64Array(YEAR_HISTOGRAM_SIZE);
     const kernel = prepareWorkKernel({ workRate: 300, restRate: 115, limit: { model: 'curve-2017', acclimatization: 'acclimatized' } });
-    expectCatalogued(() => weatherYears([empty], [2021], { kernel, exposure: 'sun', rest: { kind: 'same-place' } }), 'ScheduleNoWeatherYears', /month 1 lacks 744/);
+    expectCatalogued(
+      () => weatherYears([empty], [2021], { kernel, exposure: 'sun', rest: { kind: 'same-place' } }),
+      'ScheduleNoWeatherYears',
+      /month 1 lacks 744/,
+    );
   });
 });
 

@@ -105,7 +105,10 @@ describe('every built page', () => {
         const rgba = (s: string): [number, number, number, number] => {
           const m = s.match(/rgba?\(([^)]+)\)/);
           if (!m) return [0, 0, 0, 0];
-          const p = m[1].split(/[ ,/]+/).filter(Boolean).map(Number);
+          const p = m[1]
+            .split(/[ ,/]+/)
+            .filter(Boolean)
+            .map(Number);
           return [p[0], p[1], p[2], p.length > 3 ? p[3] : 1];
         };
         const out: Array<{ text: string; fg: number[]; bg: number[]; large: boolean }> = [];
@@ -148,7 +151,9 @@ describe('every built page', () => {
         mainId: document.querySelector('main')?.id,
         footers: document.querySelectorAll('body > footer').length,
         navNames: [...document.querySelectorAll('header nav')].map((n) => n.getAttribute('aria-label')),
-        loose: [...document.body.children].filter((e) => !['HEADER', 'MAIN', 'FOOTER', 'ASIDE', 'NAV', 'SCRIPT'].includes(e.tagName) && !e.classList.contains('skip-link')).map((e) => e.tagName),
+        loose: [...document.body.children]
+          .filter((e) => !['HEADER', 'MAIN', 'FOOTER', 'ASIDE', 'NAV', 'SCRIPT'].includes(e.tagName) && !e.classList.contains('skip-link'))
+          .map((e) => e.tagName),
         asidesNamed: [...document.querySelectorAll('body > aside')].every((a) => (a.getAttribute('aria-label') ?? '') !== ''),
         lang: document.documentElement.lang,
       }));
@@ -159,7 +164,10 @@ describe('every built page', () => {
   it('has one h1 and never skips a heading level', async () => {
     for (const rel of pages) {
       const levels = await visited.get(rel)!.page.$$eval('h1, h2, h3, h4, h5, h6', (hs) => hs.map((h) => Number(h.tagName[1])));
-      expect(levels.filter((l) => l === 1), rel).toHaveLength(1);
+      expect(
+        levels.filter((l) => l === 1),
+        rel,
+      ).toHaveLength(1);
       expect(levels[0], rel).toBe(1);
       levels.forEach((l, i) => {
         if (i > 0) expect(l - levels[i - 1], `${rel}: h${levels[i - 1]} then h${l}`).toBeLessThanOrEqual(1);
@@ -173,7 +181,9 @@ describe('every built page', () => {
       const html = readFileSync(join(build.distDir, rel), 'utf8').replace(/<noscript>[\s\S]*?<\/noscript>/g, '<noscript></noscript>');
       const written: Record<string, number> = {};
       for (const m of html.matchAll(/<([a-z][a-z0-9-]*)(?=[\s>/])/gi)) written[m[1].toLowerCase()] = (written[m[1].toLowerCase()] ?? 0) + 1;
-      const parsed = await visited.get(rel)!.page.evaluate((tags) => Object.fromEntries(tags.map((t) => [t, document.getElementsByTagName(t).length])), Object.keys(written));
+      const parsed = await visited
+        .get(rel)!
+        .page.evaluate((tags) => Object.fromEntries(tags.map((t) => [t, document.getElementsByTagName(t).length])), Object.keys(written));
       expect(parsed, rel).toEqual(written);
     }
   });
@@ -184,7 +194,11 @@ describe('keyboard and print', () => {
     for (const path of ['/', '/methods/', '/downloads/']) {
       const { page } = await session.open(path);
       await page.keyboard.press('Tab');
-      const first = await page.evaluate(() => ({ cls: document.activeElement?.className, href: document.activeElement?.getAttribute('href'), top: document.activeElement?.getBoundingClientRect().top ?? -1 }));
+      const first = await page.evaluate(() => ({
+        cls: document.activeElement?.className,
+        href: document.activeElement?.getAttribute('href'),
+        top: document.activeElement?.getBoundingClientRect().top ?? -1,
+      }));
       expect(first.cls, path).toBe('skip-link');
       expect(first.href, path).toBe('#content');
       expect(first.top, path).toBeGreaterThanOrEqual(0);

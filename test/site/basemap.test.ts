@@ -31,16 +31,20 @@ describe('landFromTopology', () => {
   const polygons = land.features[0].geometry.coordinates;
 
   it('has no ring step longer than 180° of longitude, so MapLibre never draws across the map', () => {
-    for (const poly of polygons) for (const ring of poly) for (let i = 1; i < ring.length; i++) {
-      expect(Math.abs(ring[i][0] - ring[i - 1][0])).toBeLessThanOrEqual(180);
-    }
+    for (const poly of polygons)
+      for (const ring of poly)
+        for (let i = 1; i < ring.length; i++) {
+          expect(Math.abs(ring[i][0] - ring[i - 1][0])).toBeLessThanOrEqual(180);
+        }
   });
 
   it('keeps every coordinate within ±180° E and the Web Mercator latitude limit', () => {
-    for (const poly of polygons) for (const ring of poly) for (const [x, y] of ring) {
-      expect(Math.abs(x)).toBeLessThanOrEqual(180);
-      expect(Math.abs(y)).toBeLessThanOrEqual(85.06);
-    }
+    for (const poly of polygons)
+      for (const ring of poly)
+        for (const [x, y] of ring) {
+          expect(Math.abs(x)).toBeLessThanOrEqual(180);
+          expect(Math.abs(y)).toBeLessThanOrEqual(85.06);
+        }
   });
 
   it('classifies a 5° grid of points as land or sea as d3-geo does on the original outlines (≥ 99.5 % agree)', () => {
@@ -69,11 +73,34 @@ describe('landFromTopology', () => {
 
 describe('bordersFromTopology and splitAtAntimeridian', () => {
   it('splits a line where it wraps from +179° to −179°', () => {
-    expect(splitAtAntimeridian([[170, 0], [179, 1], [-179, 2], [-170, 3]])).toEqual([
-      [[170, 0], [179, 1]],
-      [[-179, 2], [-170, 3]],
+    expect(
+      splitAtAntimeridian([
+        [170, 0],
+        [179, 1],
+        [-179, 2],
+        [-170, 3],
+      ]),
+    ).toEqual([
+      [
+        [170, 0],
+        [179, 1],
+      ],
+      [
+        [-179, 2],
+        [-170, 3],
+      ],
     ]);
-    expect(splitAtAntimeridian([[0, 0], [10, 0]])).toEqual([[[0, 0], [10, 0]]]);
+    expect(
+      splitAtAntimeridian([
+        [0, 0],
+        [10, 0],
+      ]),
+    ).toEqual([
+      [
+        [0, 0],
+        [10, 0],
+      ],
+    ]);
   });
 
   it('leaves no border step longer than 180° of longitude', () => {

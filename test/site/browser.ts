@@ -99,7 +99,10 @@ async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> 
       writeFileSync(join(lockDir, 'pid'), String(process.pid));
       break;
     } catch {
-      const age = await stat(lockDir).then((s) => Date.now() - s.mtimeMs, () => 0);
+      const age = await stat(lockDir).then(
+        (s) => Date.now() - s.mtimeMs,
+        () => 0,
+      );
       // A test run killed while building leaves its lock behind: take it over at once.
       if (age > 300_000 || lockOwnerGone(lockDir)) await rm(lockDir, { recursive: true, force: true });
       if (Date.now() > deadline) throw new Error(`timed out waiting for the site build lock ${lockDir}`);
@@ -268,7 +271,9 @@ export async function readDataTable(page: Page, selector: string): Promise<Array
 /** A table of labelled rows: `data-key` of each row → its value cell's text. */
 export async function readKeyValueTable(page: Page, selector: string): Promise<Record<string, string>> {
   return page.$eval(selector, (table) =>
-    Object.fromEntries([...table.querySelectorAll('tbody tr')].map((tr) => [tr.getAttribute('data-key') ?? '', (tr.querySelector('td')?.textContent ?? '').trim()])),
+    Object.fromEntries(
+      [...table.querySelectorAll('tbody tr')].map((tr) => [tr.getAttribute('data-key') ?? '', (tr.querySelector('td')?.textContent ?? '').trim()]),
+    ),
   );
 }
 
@@ -286,7 +291,9 @@ export async function waitForMapIdle(page: Page, mapId: string, timeout = 30_000
 export async function mapPixelAt(page: Page, mapId: string, lngLat: [number, number]): Promise<{ rgb: Rgb; x: number; y: number; inside: boolean }> {
   return page.evaluate(
     ([id, lonlat]) => {
-      const map = (globalThis as unknown as { heathoursMaps: Record<string, { project(p: [number, number]): { x: number; y: number }; getCanvas(): HTMLCanvasElement }> }).heathoursMaps[id];
+      const map = (
+        globalThis as unknown as { heathoursMaps: Record<string, { project(p: [number, number]): { x: number; y: number }; getCanvas(): HTMLCanvasElement }> }
+      ).heathoursMaps[id];
       const canvas = map.getCanvas();
       const scale = canvas.width / canvas.clientWidth;
       const p = map.project(lonlat);

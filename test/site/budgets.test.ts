@@ -67,12 +67,15 @@ async function measure(path: string): Promise<PageWeight> {
         else if (type === 'script' || ext === 'js' || ext === 'mjs') {
           w.js += body.length;
           w.scripts[url.pathname] = body.length;
-        }
-        else if (type === 'image' || ['png', 'svg', 'jpg', 'webp', 'ico'].includes(ext)) w.images += body.length;
+        } else if (type === 'image' || ['png', 'svg', 'jpg', 'webp', 'ico'].includes(ext)) w.images += body.length;
         else if (type === 'font') w.fonts += body.length;
         else if (type === 'fetch' || type === 'xhr' || ['json', 'geojson', 'csv', 'bin', 'tif'].includes(ext)) w.data += body.length;
         else w.other += body.length;
-        if ((ext === 'js' || ext === 'mjs' || type === 'script') && /maplibre/i.test(url.pathname + body.toString('latin1', 0, Math.min(body.length, 4_000_000)))) w.maplibre.push(url.pathname);
+        if (
+          (ext === 'js' || ext === 'mjs' || type === 'script') &&
+          /maplibre/i.test(url.pathname + body.toString('latin1', 0, Math.min(body.length, 4_000_000)))
+        )
+          w.maplibre.push(url.pathname);
       })(),
     );
   };
@@ -95,8 +98,11 @@ beforeAll(async () => {
   for (const rel of htmlFiles(build.distDir).sort()) weights.push(await measure(`/${rel.replace(/index\.html$/, '')}`));
   const kB = (n: number) => (n / 1000).toFixed(1).padStart(8);
   process.stderr.write(`page weights [kB] (HTML + CSS + JS + images; data fetched beside):\n`);
-  process.stderr.write(`${'page'.padEnd(34)}${'weight'.padStart(8)}${'html'.padStart(8)}${'css'.padStart(8)}${'js'.padStart(8)}${'img'.padStart(8)}${'data'.padStart(8)}  requests\n`);
-  for (const w of weights) process.stderr.write(`${w.path.padEnd(34)}${kB(w.weight)}${kB(w.html)}${kB(w.css)}${kB(w.js)}${kB(w.images)}${kB(w.data)}  ${w.requests}\n`);
+  process.stderr.write(
+    `${'page'.padEnd(34)}${'weight'.padStart(8)}${'html'.padStart(8)}${'css'.padStart(8)}${'js'.padStart(8)}${'img'.padStart(8)}${'data'.padStart(8)}  requests\n`,
+  );
+  for (const w of weights)
+    process.stderr.write(`${w.path.padEnd(34)}${kB(w.weight)}${kB(w.html)}${kB(w.css)}${kB(w.js)}${kB(w.images)}${kB(w.data)}  ${w.requests}\n`);
   mkdirSync(ARTIFACTS_DIR, { recursive: true });
   writeFileSync(join(ARTIFACTS_DIR, 'budgets.json'), `${JSON.stringify(weights, null, 1)}\n`);
 }, 900_000); // a fresh clone builds the test data and the site first
@@ -147,7 +153,9 @@ describe('page budgets', () => {
     const w = weights.find((x) => x.path === '/estimate/')!;
     expect(w, 'the estimate page is built').toBeDefined();
     const own = ownScript(w);
-    process.stderr.write(`estimate page own script: ${own.bytes} B in ${own.files.length} files (${own.files.map((f) => `${f.split('/').pop()} ${w.scripts[f]}`).join(', ')}); site-wide: ${[...siteWideScripts()].map((f) => `${f.split('/').pop()} ${w.scripts[f]}`).join(', ')}\n`);
+    process.stderr.write(
+      `estimate page own script: ${own.bytes} B in ${own.files.length} files (${own.files.map((f) => `${f.split('/').pop()} ${w.scripts[f]}`).join(', ')}); site-wide: ${[...siteWideScripts()].map((f) => `${f.split('/').pop()} ${w.scripts[f]}`).join(', ')}\n`,
+    );
     expect(own.files.length, 'the page loads a script of its own').toBeGreaterThan(0);
     expect(own.bytes).toBeLessThan(ESTIMATE_OWN_SCRIPT_BUDGET);
     // The on-demand chunks exist in the build and were not loaded on opening.
@@ -156,7 +164,11 @@ describe('page budgets', () => {
     const lazy = assets.filter((f) => /^(monthly-detail|cell-place|bid-csv|bid-json)\./.test(f));
     expect(lazy.length, lazy.join(', ')).toBe(4);
     process.stderr.write(`on demand: ${lazy.map((f) => `${f} ${statSync(join(build.distDir, 'assets', f)).size}`).join(', ')}\n`);
-    for (const f of lazy) expect(Object.keys(w.scripts).some((u) => u.endsWith(`/${f}`)), f).toBe(false);
+    for (const f of lazy)
+      expect(
+        Object.keys(w.scripts).some((u) => u.endsWith(`/${f}`)),
+        f,
+      ).toBe(false);
   });
 
   it('made no request beyond 127.0.0.1', () => {

@@ -30,7 +30,12 @@ const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', '
 /** A colour as `#rrggbb` in lower case (d3-scale-chromatic returns `#rrggbb` or `rgb(r, g, b)`). */
 const hex = (c: string) => {
   const m = /^rgb\((\d+), ?(\d+), ?(\d+)\)$/.exec(c);
-  return m ? `#${m.slice(1).map((v) => Number(v).toString(16).padStart(2, '0')).join('')}` : c.toLowerCase();
+  return m
+    ? `#${m
+        .slice(1)
+        .map((v) => Number(v).toString(16).padStart(2, '0'))
+        .join('')}`
+    : c.toLowerCase();
 };
 
 describe('monthly bar chart', () => {
@@ -184,7 +189,18 @@ describe('niche strip', () => {
 
 describe('home region map', () => {
   // An RFC 7946 polygon (exterior counter-clockwise), 1° × 1°, and a second one beside it.
-  const ccw = (w: number, s: number): Polygon => ({ type: 'Polygon', coordinates: [[[w, s], [w + 1, s], [w + 1, s + 1], [w, s + 1], [w, s]]] });
+  const ccw = (w: number, s: number): Polygon => ({
+    type: 'Polygon',
+    coordinates: [
+      [
+        [w, s],
+        [w + 1, s],
+        [w + 1, s + 1],
+        [w, s + 1],
+        [w, s],
+      ],
+    ],
+  });
 
   it('rewinds RFC 7946 rings so d3-geo reads the small polygon, not the rest of the sphere', () => {
     const p = ccw(-146, 20);
@@ -255,14 +271,26 @@ describe('figures behind the charts', () => {
   });
 
   it('an hour is above a limit only when WBGT plus the clothing adjustment is strictly above it; runs of such hours read as clock ranges', () => {
-    const limit: ClassLimit = { workloadClass: 'm', className: 'M', metabolicRate: 300, acclimatization: 'acclimatized', limit: 28.21, clothingAdjustment: 1, threshold: 27.21 };
+    const limit: ClassLimit = {
+      workloadClass: 'm',
+      className: 'M',
+      metabolicRate: 300,
+      acclimatization: 'acclimatized',
+      limit: 28.21,
+      clothingAdjustment: 1,
+      threshold: 27.21,
+    };
     expect(isAbove(27.21, limit)).toBe(false);
     expect(isAbove(27.22, limit)).toBe(true);
     expect(isAbove(NaN, limit)).toBe(false);
     const values = new Float64Array(12 * 24).fill(20);
     for (const h of [10, 11, 12, 13, 16, 23]) values[6 * 24 + h] = 30;
     const runs = hoursAbove({ statistic: 'median', exposure: 'sun', years: [2021], values, hours: new Float64Array(12 * 24) }, 6, limit);
-    expect(runs).toEqual([{ start: 10, end: 14 }, { start: 16, end: 17 }, { start: 23, end: 24 }]);
+    expect(runs).toEqual([
+      { start: 10, end: 14 },
+      { start: 16, end: 17 },
+      { start: 23, end: 24 },
+    ]);
     expect(formatRuns(runs)).toBe('10:00–14:00, 16:00–17:00, 23:00–24:00');
     expect(runHours(runs)).toBe(6);
     expect(formatRuns([])).toBe('none');
@@ -291,7 +319,11 @@ describe('figures behind the charts', () => {
     expect(isAbove(23, limits[2])).toBe(false);
     // No class called moderate: the first class is the default, and it comes first.
     expect(defaultWorkloadClass({ work } as unknown as AtlasManifest).id).toBe('light');
-    expect(classesDefaultFirst({ work: { ...work, classes: [...work.classes, { id: 'moderate', name: 'M', metabolicRate: 300 }] } } as unknown as AtlasManifest).map((c) => c.id)).toEqual(['moderate', 'light', 'heavy']);
+    expect(
+      classesDefaultFirst({ work: { ...work, classes: [...work.classes, { id: 'moderate', name: 'M', metabolicRate: 300 }] } } as unknown as AtlasManifest).map(
+        (c) => c.id,
+      ),
+    ).toEqual(['moderate', 'light', 'heavy']);
   });
 
   it('ranks most hours first, regions without a value last, equal values by name', () => {

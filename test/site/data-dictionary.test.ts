@@ -33,7 +33,9 @@ function pythonCsv(paths: string[], encoding: string): Array<{ header: string[];
     '        out.append({"header": r.fieldnames, "rows": rows})',
     'print(json.dumps(out))',
   ].join('\n');
-  return JSON.parse(execFileSync('/usr/bin/python3', ['-c', code, JSON.stringify(paths), encoding], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 })) as Array<{ header: string[]; rows: Array<Record<string, string>> }>;
+  return JSON.parse(
+    execFileSync('/usr/bin/python3', ['-c', code, JSON.stringify(paths), encoding], { encoding: 'utf8', maxBuffer: 256 * 1024 * 1024 }),
+  ) as Array<{ header: string[]; rows: Array<Record<string, string>> }>;
 }
 
 describe('the data dictionary beside the tables', () => {
@@ -48,8 +50,12 @@ describe('the data dictionary beside the tables', () => {
   it('explains every column, and every code found in the region tables and the cell table, with a label; hour figures carry their unit in words', () => {
     const [dict] = pythonCsv([join(dataDir, DATA_DICTIONARY_PATH)], 'utf-8-sig');
     // The tidy region tables (the wide ones carry their labels and units in their own header) and the cell tables.
-    const regionFiles = readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv')).map((f) => join(dataDir, 'data/regions', f));
-    const cellFiles = readdirSync(join(dataDir, 'data/cell-tables')).filter((f) => f.endsWith('.csv')).map((f) => join(dataDir, 'data/cell-tables', f));
+    const regionFiles = readdirSync(join(dataDir, 'data/regions'))
+      .filter((f) => f.endsWith('.csv') && !f.endsWith('.wide.csv'))
+      .map((f) => join(dataDir, 'data/regions', f));
+    const cellFiles = readdirSync(join(dataDir, 'data/cell-tables'))
+      .filter((f) => f.endsWith('.csv'))
+      .map((f) => join(dataDir, 'data/cell-tables', f));
     expect(cellFiles.length).toBeGreaterThan(0);
     const tables = pythonCsv([...regionFiles, ...cellFiles], 'utf-8');
     const columnRow = (table: string, column: string) => dict.rows.find((r) => r.table === table && r.column === column && r.code === '');
@@ -75,14 +81,25 @@ describe('the data dictionary beside the tables', () => {
     expect(lost).toMatchObject({ unit: 'h', unit_in_words: 'hours per worker per month or year', label: figureWords('hours-lost-shift').label });
     expect(dict.rows.find((r) => r.column === 'unit' && r.code === 'degC')!.unit_in_words).toBe('degrees Celsius');
     // The workforce rows (the test atlas weights by the demo's invented population): their figures, codes and units are explained too.
-    expect(dict.rows.find((r) => r.column === 'figure' && r.code === 'person-hours-lost-shift')).toMatchObject({ unit: 'person-h', unit_in_words: 'person-hours' });
+    expect(dict.rows.find((r) => r.column === 'figure' && r.code === 'person-hours-lost-shift')).toMatchObject({
+      unit: 'person-h',
+      unit_in_words: 'person-hours',
+    });
     expect(dict.rows.find((r) => r.column === 'figure' && r.code === 'full-time-equivalents-lost')).toMatchObject({ unit: 'FTE' });
     expect(dict.rows.find((r) => r.column === 'workload_class' && r.code === 'all')!.label).toBe('All outdoor work');
-    for (const column of ['acclimatization', 'exposure']) expect(dict.rows.find((r) => r.column === column && r.code === 'by-shares'), column).toBeDefined();
-    for (const unit of ['person-h', 'person-h km-2', 'FTE', '%']) expect(dict.rows.find((r) => r.column === 'unit' && r.code === unit), unit).toBeDefined();
+    for (const column of ['acclimatization', 'exposure'])
+      expect(
+        dict.rows.find((r) => r.column === column && r.code === 'by-shares'),
+        column,
+      ).toBeDefined();
+    for (const unit of ['person-h', 'person-h km-2', 'FTE', '%'])
+      expect(
+        dict.rows.find((r) => r.column === 'unit' && r.code === unit),
+        unit,
+      ).toBeDefined();
   });
 
-  it('labels the P90 honestly for the test atlas\'s 2-year baseline: its number of years, and that it is not a 1-in-10 year', () => {
+  it("labels the P90 honestly for the test atlas's 2-year baseline: its number of years, and that it is not a 1-in-10 year", () => {
     const [dict] = pythonCsv([join(dataDir, DATA_DICTIONARY_PATH)], 'utf-8-sig');
     const p90 = dict.rows.find((r) => r.column === 'statistic' && r.code === 'p90')!;
     expect(p90.label).toBe('P90 of 2 years (near the highest)');
@@ -91,7 +108,9 @@ describe('the data dictionary beside the tables', () => {
   });
 
   it("the build warned about the test atlas's 2-year baseline, once, naming it and the rule", () => {
-    const lines = readFileSync(warningsPath, 'utf8').split('\n').filter((l) => /baseline/.test(l));
+    const lines = readFileSync(warningsPath, 'utf8')
+      .split('\n')
+      .filter((l) => /baseline/.test(l));
     expect(lines).toHaveLength(1);
     expect(lines[0]).toMatch(/the baseline 2021–2022 has 2 years, fewer than the 10 a 90th-percentile \(P90\) year needs/);
   });
@@ -108,7 +127,9 @@ describe('the data dictionary beside the tables', () => {
       latestYear: 2023,
     });
     const code = 'import csv, io, json, sys; print(json.dumps(list(csv.DictReader(io.StringIO(sys.stdin.read())))))';
-    const rows = JSON.parse(execFileSync('/usr/bin/python3', ['-c', code], { input: text.replace(/^\ufeff/, ''), encoding: 'utf8' })) as Array<Record<string, string>>;
+    const rows = JSON.parse(execFileSync('/usr/bin/python3', ['-c', code], { input: text.replace(/^\ufeff/, ''), encoding: 'utf8' })) as Array<
+      Record<string, string>
+    >;
     expect(rows.find((r) => r.code === 'x')!.label).toBe('Odd, "quoted" class (300 W)');
     expect(rows.find((r) => r.code === 'hours-lost-shift')!.description).toBe('Lost, "per worker"; the year row: sum of the months');
   });

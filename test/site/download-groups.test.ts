@@ -19,7 +19,10 @@ const layer = (root: string, stat: 'mean' | 'p90', period: string) => ({
   png: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.png`,
   tif: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.tif`,
 });
-const layerFiles = (root: string, stat: 'mean' | 'p90', period: string) => [art(layer(root, stat, period).png, 'layer-png', 100), art(layer(root, stat, period).tif, 'layer-geotiff', 1000)];
+const layerFiles = (root: string, stat: 'mean' | 'p90', period: string) => [
+  art(layer(root, stat, period).png, 'layer-png', 100),
+  art(layer(root, stat, period).tif, 'layer-geotiff', 1000),
+];
 
 function manifest(): SiteManifest {
   const baseLayers = [layer('data/', 'mean', 'year'), layer('data/', 'p90', 'year')];
@@ -44,7 +47,12 @@ function manifest(): SiteManifest {
         id: 'warm-2k',
         name: 'Uniform warming of 2 K',
         dataPath: 'data/scenarios/warm-2k/',
-        words: { kind: 'Uniform warming', what: 'Every hour 2 K warmer, relative humidity kept.', source: 'Set in the configuration', caveat: 'A what-if, not a forecast.' },
+        words: {
+          kind: 'Uniform warming',
+          what: 'Every hour 2 K warmer, relative humidity kept.',
+          source: 'Set in the configuration',
+          caveat: 'A what-if, not a forecast.',
+        },
         layers: scenLayers,
       },
     ],
@@ -52,7 +60,7 @@ function manifest(): SiteManifest {
 }
 
 describe('downloads grouping with scenarios', () => {
-  it('puts a scenario\'s layers and files in its own group and lists every artefact exactly once', () => {
+  it("puts a scenario's layers and files in its own group and lists every artefact exactly once", () => {
     const m = manifest();
     const g = downloadGroups(m);
     expect(g.scenarios.map((s) => s.id)).toEqual(['warm-2k']);
@@ -71,7 +79,10 @@ describe('downloads grouping with scenarios', () => {
     ];
     expect(listed.some((p) => p.startsWith('data/scenarios/'))).toBe(false);
     expect(g.figures[0].layerCount).toBe(2);
-    const scenarioListed = [...sc.files.map((a) => a.path), ...sc.figures.flatMap((f) => f.combos.flatMap((c) => [...c.cells.values()].flatMap((d) => [d.tif.path, d.png.path])))];
+    const scenarioListed = [
+      ...sc.files.map((a) => a.path),
+      ...sc.figures.flatMap((f) => f.combos.flatMap((c) => [...c.cells.values()].flatMap((d) => [d.tif.path, d.png.path]))),
+    ];
     const all = [...listed, ...scenarioListed].sort();
     expect(all).toEqual(m.artefacts.map((a) => a.path).sort());
   });

@@ -132,7 +132,9 @@ describe('the downloads page', () => {
   });
 
   it('names each figure with its label and units from the manifest', async () => {
-    const heads = await page.$$eval('section.layer-figure', (ss) => ss.map((s) => ({ id: s.getAttribute('data-figure'), h: s.querySelector('h3')?.textContent, facts: s.querySelector('.layer-figure-facts')?.textContent })));
+    const heads = await page.$$eval('section.layer-figure', (ss) =>
+      ss.map((s) => ({ id: s.getAttribute('data-figure'), h: s.querySelector('h3')?.textContent, facts: s.querySelector('.layer-figure-facts')?.textContent })),
+    );
     for (const f of manifest.figures.filter((f) => manifest.layers.some((l) => l.figure === f.id))) {
       const h = heads.find((x) => x.id === f.id);
       expect(h?.h).toBe(f.label);
@@ -162,9 +164,9 @@ describe('the downloads page', () => {
   });
 
   it('shows the region named with HTML as text beside its files, and says the data are invented', async () => {
-    const oddName = (JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> }).features.find(
-      (f) => f.properties.id === 'odd-name',
-    )!.properties.name;
+    const oddName = (
+      JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> }
+    ).features.find((f) => f.properties.id === 'odd-name')!.properties.name;
     const names = await page.$$eval('tr[data-path*="odd-name"] .region-name', (els) => els.map((e) => e.textContent));
     expect(names.length).toBeGreaterThanOrEqual(3);
     for (const n of names) expect(n).toBe(oddName);

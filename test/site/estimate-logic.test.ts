@@ -57,13 +57,21 @@ const pad = (m: number) => String(m + 1).padStart(2, '0');
 
 /** A tidy CSV as row objects. */
 function readCsv(path: string): Array<Record<string, string>> {
-  const lines = readFileSync(path, 'utf8').trim().split('\n').filter((l) => !l.startsWith('#'));
+  const lines = readFileSync(path, 'utf8')
+    .trim()
+    .split('\n')
+    .filter((l) => !l.startsWith('#'));
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
 
 function regionTable(dir: string, id: string): Map<string, number> {
-  return new Map(readCsv(join(dir, 'data/regions', `${id}.csv`)).map((r) => [`${r.period}|${r.figure}|${r.workload_class}.${r.acclimatization}.${r.exposure}|${r.statistic}`, Number(r.value)]));
+  return new Map(
+    readCsv(join(dir, 'data/regions', `${id}.csv`)).map((r) => [
+      `${r.period}|${r.figure}|${r.workload_class}.${r.acclimatization}.${r.exposure}|${r.statistic}`,
+      Number(r.value),
+    ]),
+  );
 }
 
 function regionHist(id: string): Float64Array[] {
@@ -178,7 +186,8 @@ describe('monthly figures from a histogram (hand-computed)', () => {
     const [shares] = shiftShares([2021], 'Etc/GMT+10', parsePattern(['00:00-24:00'], 'mon-sun'));
     const kernel = (acclimatization: 'acclimatized' | 'unacclimatized') =>
       prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model: 'curve-2017', acclimatization }, clothingAdjustment: 0.875 });
-    const lost = (k: ReturnType<typeof kernel>, rest: 'same-place' | 'shade') => monthlyFigures(hist, shares, { kernel: k, exposure: 'sun', rest: { kind: rest } }).lost[3] / 4;
+    const lost = (k: ReturnType<typeof kernel>, rest: 'same-place' | 'shade') =>
+      monthlyFigures(hist, shares, { kernel: k, exposure: 'sun', rest: { kind: rest } }).lost[3] / 4;
     expect(1 - lost(kernel('acclimatized'), 'same-place')).toBeCloseTo(0.189, 3);
     expect(1 - lost(kernel('acclimatized'), 'shade')).toBeCloseTo(0.532, 3);
     expect(1 - lost(kernel('unacclimatized'), 'same-place')).toBe(0);
@@ -194,7 +203,14 @@ describe('statistics across the baseline years (pipeline/climate, type 7)', () =
     const shuffled = counts.map((c, i) => counts[(i * 7) % 30]);
     const perYear: MonthlyYear[] = shuffled.map((c, i) => {
       const expected = Float64Array.from({ length: 12 }, (_, m) => 24 * new Date(Date.UTC(1991 + i, m + 1, 0)).getUTCDate());
-      return { year: 1991 + i, validHours: expected.slice(), expectedHours: expected, shiftHours: new Float64Array(12).fill(200), above: new Float64Array(12).fill(c), lost: new Float64Array(12).fill(c / 2) };
+      return {
+        year: 1991 + i,
+        validHours: expected.slice(),
+        expectedHours: expected,
+        shiftHours: new Float64Array(12).fill(200),
+        above: new Float64Array(12).fill(c),
+        lost: new Float64Array(12).fill(c / 2),
+      };
     });
     const occ = new Uint16Array(12);
     occ[0] = 1;
@@ -212,7 +228,14 @@ describe('statistics across the baseline years (pipeline/climate, type 7)', () =
       const expected = Float64Array.from({ length: 12 }, (_, m) => 24 * new Date(Date.UTC(year, m + 1, 0)).getUTCDate());
       const valid = expected.slice();
       valid[0] -= missingJan;
-      return { year, validHours: valid, expectedHours: expected, shiftHours: new Float64Array(12).fill(200), above: Float64Array.from(above), lost: Float64Array.from(above, (a) => a / 4) };
+      return {
+        year,
+        validHours: valid,
+        expectedHours: expected,
+        shiftHours: new Float64Array(12).fill(200),
+        above: Float64Array.from(above),
+        lost: Float64Array.from(above, (a) => a / 4),
+      };
     };
     const a = [10, 20, 0, 0, 0, 0, 0, 0, 0, 0, 30, 40];
     const b = [14, 10, 0, 0, 0, 0, 0, 0, 0, 0, 50, 30];
@@ -256,7 +279,11 @@ describe('against the published tables of the invented small demo', () => {
         }
       }
     }
-    process.stderr.write(`region tables, ${checks} month × setting checks:\n  ${Object.entries(worst).map(([k, w]) => w.report(k)).join('\n  ')}\n`);
+    process.stderr.write(
+      `region tables, ${checks} month × setting checks:\n  ${Object.entries(worst)
+        .map(([k, w]) => w.report(k))
+        .join('\n  ')}\n`,
+    );
     expect(checks).toBe(ctx.regions.length * ctx.classes.length * 4 * 12);
     expect(worst.aboveMean.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.aboveMean);
     expect(worst.aboveP90.share).toBeLessThanOrEqual(REGION_TABLE_TOLERANCE.aboveP90);
@@ -276,7 +303,12 @@ describe('against the published tables of the invented small demo', () => {
           const r = estimate(hist, { region: region.id, work: cls.id, acclimatization, exposure: 'sun', shifts: '00:00-24:00', days: ALL_DAYS });
           for (let m = 0; m < 12; m++) {
             const q = r.statistics.months[m];
-            w.add(q.above.mean, table.get(`${pad(m)}|hours-above-limit-all|${cls.id}.${acclimatization}.sun|mean`)!, q.shiftHours.mean, `${region.id} ${pad(m)} ${cls.id} ${acclimatization}`);
+            w.add(
+              q.above.mean,
+              table.get(`${pad(m)}|hours-above-limit-all|${cls.id}.${acclimatization}.sun|mean`)!,
+              q.shiftHours.mean,
+              `${region.id} ${pad(m)} ${cls.id} ${acclimatization}`,
+            );
           }
         }
       }
@@ -313,7 +345,11 @@ describe('against the published tables of the invented small demo', () => {
         }
       }
     }
-    process.stderr.write(`cell table, ${cells.length} cells:\n  ${Object.entries(worst).map(([k, w]) => w.report(k)).join('\n  ')}\n`);
+    process.stderr.write(
+      `cell table, ${cells.length} cells:\n  ${Object.entries(worst)
+        .map(([k, w]) => w.report(k))
+        .join('\n  ')}\n`,
+    );
     expect(worst.aboveMean.share).toBeLessThanOrEqual(0.035);
     expect(worst.aboveP90.share).toBeLessThanOrEqual(0.042);
     expect(worst.lostMean.share).toBeLessThanOrEqual(0.015);
@@ -341,7 +377,11 @@ describe('against the published tables of the invented small demo', () => {
         }
       }
     }
-    process.stderr.write(`rest in shade vs the pipeline:\n  ${Object.entries(worst).map(([k, w]) => w.report(k)).join('\n  ')}\n`);
+    process.stderr.write(
+      `rest in shade vs the pipeline:\n  ${Object.entries(worst)
+        .map(([k, w]) => w.report(k))
+        .join('\n  ')}\n`,
+    );
     expect(shadeHelps, 'rest in shade saves hours in the pipeline’s own figures').toBeGreaterThan(20);
     expect(worst.mean.share).toBeLessThanOrEqual(0.0055);
     expect(worst.p90.share).toBeLessThanOrEqual(0.009);
@@ -391,7 +431,13 @@ describe('inputs, URL and CSV', () => {
   });
 
   it('the CSV download starts with a byte order mark, holds the invented-data label, the settings and the cautions as #,"text" lines (two fields each, commas quoted: Python csv reads them so), units in every column name, and one line per table row with the same values', () => {
-    const r = estimate(regionHist(ctx.regions[0].id), { region: ctx.regions[0].id, months: ['5', '6', '7'], 'period-start': '2027-05', 'period-end': '2028-07', crew: '12' });
+    const r = estimate(regionHist(ctx.regions[0].id), {
+      region: ctx.regions[0].id,
+      months: ['5', '6', '7'],
+      'period-start': '2027-05',
+      'period-end': '2028-07',
+      crew: '12',
+    });
     const text = estimateCsv(r, ctx, atlasTitle, { kind: 'region', id: ctx.regions[0].id, name: ctx.regions[0].name });
     expect(text.startsWith('\uFEFF#,')).toBe(true);
     const csv = text.slice(1);
@@ -399,7 +445,11 @@ describe('inputs, URL and CSV', () => {
     expect(commentLines.some((l) => l.includes(','))).toBe(true);
     for (const l of commentLines) expect(splitCsvRecord(l), l).toHaveLength(2);
     // Python's csv module (an outside RFC 4180 reader) splits every comment line into exactly '#' and the text.
-    const py = execFileSync('/usr/bin/python3', ['-c', 'import csv,sys,json; print(json.dumps([r for r in csv.reader(open(sys.argv[1], encoding="utf-8-sig")) if r and r[0] == "#"]))', writeTemp(text)], { encoding: 'utf8' });
+    const py = execFileSync(
+      '/usr/bin/python3',
+      ['-c', 'import csv,sys,json; print(json.dumps([r for r in csv.reader(open(sys.argv[1], encoding="utf-8-sig")) if r and r[0] == "#"]))', writeTemp(text)],
+      { encoding: 'utf8' },
+    );
     const pyRows = JSON.parse(py) as string[][];
     expect(pyRows.length).toBe(commentLines.length);
     for (const row of pyRows) expect(row.length).toBe(2);
@@ -429,7 +479,11 @@ function writeTemp(text: string): string {
 }
 
 function readCsvText(text: string): Array<Record<string, string>> {
-  const lines = text.replace(/^\uFEFF/, '').trim().split('\n').filter((l) => !l.startsWith('#'));
+  const lines = text
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .split('\n')
+    .filter((l) => !l.startsWith('#'));
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }

@@ -50,7 +50,11 @@ afterAll(async () => {
 const pad = (m: number) => String(m + 1).padStart(2, '0');
 
 function readCsv(text: string): Array<Record<string, string>> {
-  const lines = text.replace(/^\uFEFF/, '').trim().split('\n').filter((l) => !l.startsWith('#'));
+  const lines = text
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .split('\n')
+    .filter((l) => !l.startsWith('#'));
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
@@ -86,7 +90,11 @@ async function change(p: Page, act: () => Promise<unknown>): Promise<void> {
 async function totalRow(p: Page): Promise<Record<string, number>> {
   const rows = await readDataTable(p, '#estimate-table');
   const total = rows[rows.length - 1];
-  return Object.fromEntries(Object.entries(total).filter(([k]) => k !== 'period').map(([k, v]) => [k, parseShownNumber(v)]));
+  return Object.fromEntries(
+    Object.entries(total)
+      .filter(([k]) => k !== 'period')
+      .map(([k, v]) => [k, parseShownNumber(v)]),
+  );
 }
 
 describe('the estimate page', () => {
@@ -105,18 +113,41 @@ describe('the estimate page', () => {
     const rows = await readDataTable(page.page, '#estimate-table');
     expect(rows.length).toBe(13);
     expect(rows.map((r) => r.period)).toEqual([
-      'January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December', 'One year of work months',
+      'January',
+      'February',
+      'March',
+      'April',
+      'May',
+      'June',
+      'July',
+      'August',
+      'September',
+      'October',
+      'November',
+      'December',
+      'One year of work months',
     ]);
     // The same code in Node gives the same numbers (to the decimal shown).
     const hist = regionTileHistograms(new Uint8Array(readFileSync(join(dataDir, region.path))), region.path, ctx);
     const expected = estimateRows(runEstimate(hist, parseInputs({ region: region.id }, ctx, 'C'), ctx));
     rows.forEach((row, i) => {
-      for (const c of ESTIMATE_COLUMNS) expect(Math.abs(parseShownNumber(row[c.key]) - expected[i].values[c.key]), `${row.period} ${c.key}`).toBeLessThanOrEqual(0.5 * 10 ** -c.digits + 1e-9);
+      for (const c of ESTIMATE_COLUMNS)
+        expect(Math.abs(parseShownNumber(row[c.key]) - expected[i].values[c.key]), `${row.period} ${c.key}`).toBeLessThanOrEqual(0.5 * 10 ** -c.digits + 1e-9);
     });
     // The region table of the pipeline (default class moderate, acclimatized, sun).
     const csv = readCsv(readFileSync(join(dataDir, 'data/regions', `${region.id}.csv`), 'utf8'));
     const get = (m: number, figure: string, stat: string) =>
-      Number(csv.find((r) => r.period === pad(m) && r.figure === figure && r.workload_class === 'moderate' && r.acclimatization === 'acclimatized' && r.exposure === 'sun' && r.statistic === stat)!.value);
+      Number(
+        csv.find(
+          (r) =>
+            r.period === pad(m) &&
+            r.figure === figure &&
+            r.workload_class === 'moderate' &&
+            r.acclimatization === 'acclimatized' &&
+            r.exposure === 'sun' &&
+            r.statistic === stat,
+        )!.value,
+      );
     let positive = 0;
     for (let m = 0; m < 12; m++) {
       const shift = parseShownNumber(rows[m].shift_hours);
@@ -180,7 +211,8 @@ describe('the estimate page', () => {
     expect(Object.keys(csv[0])).toEqual(['period', 'label', ...ESTIMATE_COLUMNS.map((c) => c.csv)]);
     csv.forEach((row, i) => {
       expect(row.label).toBe(table[i].period);
-      for (const c of ESTIMATE_COLUMNS) expect(Math.abs(Number(row[c.csv]) - parseShownNumber(table[i][c.key])), `${row.period} ${c.csv}`).toBeLessThanOrEqual(0.5 * 10 ** -c.digits + 1e-9);
+      for (const c of ESTIMATE_COLUMNS)
+        expect(Math.abs(Number(row[c.csv]) - parseShownNumber(table[i][c.key])), `${row.period} ${c.csv}`).toBeLessThanOrEqual(0.5 * 10 ** -c.digits + 1e-9);
     });
     expect(await page.cspViolations()).toEqual([]);
   });
@@ -225,7 +257,15 @@ describe('the estimate page', () => {
     const rows = await readDataTable(p.page, '#estimate-table');
     const cells = readCsv(readCellTables(join(dataDir, 'data')));
     for (let m = 0; m < 12; m++) {
-      const r = cells.find((x) => x.cell_id === String(cell) && x.period === pad(m) && x.figure === 'hours-above-limit-shift' && x.workload_class === 'moderate' && x.acclimatization === 'acclimatized' && x.exposure === 'sun')!;
+      const r = cells.find(
+        (x) =>
+          x.cell_id === String(cell) &&
+          x.period === pad(m) &&
+          x.figure === 'hours-above-limit-shift' &&
+          x.workload_class === 'moderate' &&
+          x.acclimatization === 'acclimatized' &&
+          x.exposure === 'sun',
+      )!;
       expect(Math.abs(parseShownNumber(rows[m].above_mean) - Number(r.mean))).toBeLessThanOrEqual(0.035 * parseShownNumber(rows[m].shift_hours) + 0.05);
     }
     const bad = await session.open('/estimate/?cell=99999');
@@ -260,19 +300,34 @@ describe('the estimate page', () => {
   });
 
   it('the job’s schedule on the page equals `heathours estimate` for the same inputs: the JSON download field for field, and every shown figure', async () => {
-    const q = 'region=sollent-coast&start=2027-05-03&work-hours=20000&crew=20&rate=35&daily-cost=1500&currency=EUR&compare=05%3A00-11%3A00%2C+15%3A00-19%3A00&compare=20%3A00-04%3A00&deadline=2027-09-15';
+    const q =
+      'region=sollent-coast&start=2027-05-03&work-hours=20000&crew=20&rate=35&daily-cost=1500&currency=EUR&compare=05%3A00-11%3A00%2C+15%3A00-19%3A00&compare=20%3A00-04%3A00&deadline=2027-09-15';
     const w = await session.open(`/estimate/?${q}`);
     const p = w.page;
     await settled(p, 0);
     expect(await p.getAttribute('#estimate-app', 'data-state')).toBe('ready');
     const fromPage = await downloadJson(p);
     // The page replays every scenario of the atlas unless the reader unticks it; the CLI when asked (--scenarios all).
-    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'sollent-coast', start: '2027-05-03', workHours: '20000', crew: '20', rate: '35', dailyCost: '1500', currency: 'EUR', compareShift: ['05:00-11:00, 15:00-19:00', '20:00-04:00'], deadline: '2027-09-15', scenarios: 'all' });
+    const fromCli = await runEstimateCommand({
+      atlas: dataDir,
+      region: 'sollent-coast',
+      start: '2027-05-03',
+      workHours: '20000',
+      crew: '20',
+      rate: '35',
+      dailyCost: '1500',
+      currency: 'EUR',
+      compareShift: ['05:00-11:00, 15:00-19:00', '20:00-04:00'],
+      deadline: '2027-09-15',
+      scenarios: 'all',
+    });
     expect(fromCli.scenarios.map((s) => s.id)).toEqual([PIPELINE_DATA_SCENARIO.id]);
     expect(fromPage).toEqual(fromCli);
     expect(fromPage.crewForDeadline).not.toBeNull();
     // The schedule table shows the JSON's numbers with the table's decimals.
-    const shown = await p.$$eval('#bid-schedule tbody tr', (trs) => trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })));
+    const shown = await p.$$eval('#bid-schedule tbody tr', (trs) =>
+      trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })),
+    );
     expect(shown.map((r) => r.key)).toEqual(SCHEDULE_ROWS.map((r) => r.key));
     for (const r of shown) {
       const row = SCHEDULE_ROWS.find((x) => x.key === r.key)!;
@@ -289,12 +344,24 @@ describe('the estimate page', () => {
 
   it('a scenario on the page gives the numbers of `heathours estimate --scenario`: the JSON field for field and the side-by-side table, with what the scenario is and that it is a what-if, not a forecast', async () => {
     const id = PIPELINE_DATA_SCENARIO.id;
-    const w = await session.open(`/estimate/?region=tessick-coast&start=2027-04-05&work-hours=30000&crew=12&rate=40&daily-cost=900&currency=EUR&scenario=${id}`);
+    const w = await session.open(
+      `/estimate/?region=tessick-coast&start=2027-04-05&work-hours=30000&crew=12&rate=40&daily-cost=900&currency=EUR&scenario=${id}`,
+    );
     const p = w.page;
     await settled(p, 0);
     expect(await p.getAttribute('#estimate-app', 'data-state')).toBe('ready');
     const fromPage = await downloadJson(p);
-    const fromCli = await runEstimateCommand({ atlas: dataDir, region: 'tessick-coast', start: '2027-04-05', workHours: '30000', crew: '12', rate: '40', dailyCost: '900', currency: 'EUR', scenario: [id] });
+    const fromCli = await runEstimateCommand({
+      atlas: dataDir,
+      region: 'tessick-coast',
+      start: '2027-04-05',
+      workHours: '30000',
+      crew: '12',
+      rate: '40',
+      dailyCost: '900',
+      currency: 'EUR',
+      scenario: [id],
+    });
     expect(fromPage).toEqual(fromCli);
     const sc = fromCli.scenarios[0];
     expect(sc.id).toBe(id);
@@ -306,7 +373,9 @@ describe('the estimate page', () => {
     expect(sc.finishDate.p90 >= fromCli.finishDate.p90).toBe(true);
     expect(sc.addedWorkingDays.mean).toBeGreaterThan(fromCli.addedWorkingDays.mean);
     expect(await p.isVisible('#bid-scenarios')).toBe(true);
-    const rows = await p.$$eval('#bid-scenario-table tbody tr', (trs) => trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })));
+    const rows = await p.$$eval('#bid-scenario-table tbody tr', (trs) =>
+      trs.map((tr) => ({ key: tr.getAttribute('data-row'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '') })),
+    );
     expect(rows.map((r) => r.key)).toEqual(SCENARIO_LINES.map((l) => l.key));
     rows.forEach((r, i) => expect(r.cells).toEqual([SCENARIO_LINES[i].value(fromCli), SCENARIO_LINES[i].value(sc)]));
     const words = (await p.textContent('#bid-scenarios'))!;
@@ -375,9 +444,20 @@ describe('the estimate page', () => {
     const p = w.page;
     await settled(p, 0);
     await p.emulateMedia({ media: 'print' });
-    for (const sel of ['#bid-headline', '#bid-schedule', '#bid-settings', '#bid-build', '#bid-start-months', '#bid-shifts', '.bid-print-cautions', '.bid-print-title']) expect(await p.isVisible(sel), sel).toBe(true);
+    for (const sel of [
+      '#bid-headline',
+      '#bid-schedule',
+      '#bid-settings',
+      '#bid-build',
+      '#bid-start-months',
+      '#bid-shifts',
+      '.bid-print-cautions',
+      '.bid-print-title',
+    ])
+      expect(await p.isVisible(sel), sel).toBe(true);
     // The what-if table stays on the screen: with it the summary would not fit one page.
-    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv', '#bid-scenarios']) expect(await p.isVisible(sel), sel).toBe(false);
+    for (const sel of ['#estimate-form', '.estimate-notes', '#bid-start-chart', '#estimate-table', '#bid-csv', '#bid-scenarios'])
+      expect(await p.isVisible(sel), sel).toBe(false);
     expect(await p.textContent('.bid-print-title')).toContain('INVENTED DATA');
     expect(await p.textContent('#bid-build')).toContain(ctx.build.buildTime);
     await p.screenshot({ path: join(ARTIFACTS_DIR, 'estimate-print.png'), fullPage: true });

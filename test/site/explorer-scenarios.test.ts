@@ -12,8 +12,23 @@ import { SCENARIO_CAVEAT } from '../../pipeline/scenario/describe.ts';
 import type { ManifestLayers } from '../../src/data/manifest-layers.ts';
 import type { ExplorerCatalogue } from '../../src/components/map/explorer/catalogue.ts';
 
-const corners = [[0, 1], [1, 1], [1, 0], [0, 0]] as [[number, number], [number, number], [number, number], [number, number]];
-const legend = (max: number) => ({ kind: 'continuous', units: 'h', ramp: 'Reds', reversed: false, domain: [0, max], stops: [{ value: 0, color: '#ffffff' }], labels: [], outOfDomain: 'clamped', noData: { color: 'transparent', meaning: 'sea' } });
+const corners = [
+  [0, 1],
+  [1, 1],
+  [1, 0],
+  [0, 0],
+] as [[number, number], [number, number], [number, number], [number, number]];
+const legend = (max: number) => ({
+  kind: 'continuous',
+  units: 'h',
+  ramp: 'Reds',
+  reversed: false,
+  domain: [0, max],
+  stops: [{ value: 0, color: '#ffffff' }],
+  labels: [],
+  outOfDomain: 'clamped',
+  noData: { color: 'transparent', meaning: 'sea' },
+});
 const mLayer = (root: string, stat: string, period: string, max: number) => ({
   id: `hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}`,
   figure: 'hours-lost-shift',
@@ -50,7 +65,11 @@ function inputs(withScenario = true) {
             name: 'Uniform warming of 2 K',
             dataPath: 'data/scenarios/warm-2k/',
             words: { kind: 'Uniform warming', what: 'Every hour 2 K warmer.', source: 'The configuration', caveat: 'x' },
-            layers: [mLayer('data/scenarios/warm-2k/', 'mean', '07', 200), mLayer('data/scenarios/warm-2k/', 'mean', 'year', 800), mLayer('data/scenarios/warm-2k/', 'p90', 'year', 900)],
+            layers: [
+              mLayer('data/scenarios/warm-2k/', 'mean', '07', 200),
+              mLayer('data/scenarios/warm-2k/', 'mean', 'year', 800),
+              mLayer('data/scenarios/warm-2k/', 'p90', 'year', 900),
+            ],
           },
         ]
       : undefined,
@@ -60,13 +79,19 @@ function inputs(withScenario = true) {
   return { manifest, catalogue };
 }
 
-describe('the map explorer\'s scenario list', () => {
-  it('gives each scenario layer its baseline twin\'s id and view with the scenario\'s own files, legend and values path', () => {
+describe("the map explorer's scenario list", () => {
+  it("gives each scenario layer its baseline twin's id and view with the scenario's own files, legend and values path", () => {
     const { manifest, catalogue } = inputs();
     const list = explorerScenarios(manifest, catalogue);
     expect(list).toHaveLength(1);
     const sc = list[0];
-    expect([sc.id, sc.name, sc.kind, sc.what, sc.source]).toEqual(['warm-2k', 'Uniform warming of 2 K', 'Uniform warming', 'Every hour 2 K warmer.', 'The configuration']);
+    expect([sc.id, sc.name, sc.kind, sc.what, sc.source]).toEqual([
+      'warm-2k',
+      'Uniform warming of 2 K',
+      'Uniform warming',
+      'Every hour 2 K warmer.',
+      'The configuration',
+    ]);
     expect(sc.layersFile).toBe(scenarioLayersPath('warm-2k'));
     expect(sc.layersFile).toBe('map/scenarios/warm-2k.json');
     expect(sc.cellsIndex).toBe('data/scenarios/warm-2k/cells/index.json');
@@ -79,13 +104,26 @@ describe('the map explorer\'s scenario list', () => {
       expect(l.values).toBe(scenarioValuesPath('warm-2k', i));
       expect(l.values).toBe(`map/scenarios/warm-2k/values/${i}.json`);
     });
-    expect(sc.legends.map((g) => g.domain)).toEqual([[0, 200], [0, 800]]);
+    expect(sc.legends.map((g) => g.domain)).toEqual([
+      [0, 200],
+      [0, 800],
+    ]);
     expect(sc.layers.map((l) => l.legend)).toEqual([0, 1]);
     // The words the page writes at build time carry no layers.
-    expect(scenarioWords(manifest)).toEqual([{ id: 'warm-2k', name: 'Uniform warming of 2 K', kind: 'Uniform warming', what: 'Every hour 2 K warmer.', source: 'The configuration', layersFile: sc.layersFile, cellsIndex: sc.cellsIndex }]);
+    expect(scenarioWords(manifest)).toEqual([
+      {
+        id: 'warm-2k',
+        name: 'Uniform warming of 2 K',
+        kind: 'Uniform warming',
+        what: 'Every hour 2 K warmer.',
+        source: 'The configuration',
+        layersFile: sc.layersFile,
+        cellsIndex: sc.cellsIndex,
+      },
+    ]);
   });
 
-  it('is empty without scenarios; the caveat is the manifest\'s, else the pipeline\'s own (what-if, not a forecast; day-to-day weather kept, monthly means changed)', () => {
+  it("is empty without scenarios; the caveat is the manifest's, else the pipeline's own (what-if, not a forecast; day-to-day weather kept, monthly means changed)", () => {
     const { manifest, catalogue } = inputs(false);
     expect(explorerScenarios(manifest, catalogue)).toEqual([]);
     expect(scenarioWords(manifest)).toEqual([]);
@@ -98,8 +136,8 @@ describe('the map explorer\'s scenario list', () => {
   });
 });
 
-describe('the map explorer\'s scenario values, from data the pipeline built', () => {
-  it('gives each scenario layer the scenario region table\'s value, and more hours lost than the baseline for a 2 K warming', async () => {
+describe("the map explorer's scenario values, from data the pipeline built", () => {
+  it("gives each scenario layer the scenario region table's value, and more hours lost than the baseline for a 2 K warming", async () => {
     const { buildPipelineData, PIPELINE_DATA_SCENARIO } = await import('./pipeline-data.ts');
     const { loadExplorerCatalogue, loadExplorerScenarios, loadExplorerValues, loadScenarioValues } = await import('../../src/data/explorer.ts');
     const { existsSync, readFileSync } = await import('node:fs');
@@ -116,13 +154,32 @@ describe('the map explorer\'s scenario values, from data the pipeline built', ()
     const values = loadScenarioValues(sc.id, dataDir);
     expect(values).toHaveLength(sc.layers.length);
     // The default layer: its value for the first region, read straight from the scenario's region table.
-    const li = sc.layers.findIndex((l) => l.figure === 'hours-lost-shift' && l.statistic === 'mean' && l.period === 'year' && l.view.workloadClass === 'moderate' && l.view.acclimatization === 'acclimatized' && l.view.exposure === 'sun');
+    const li = sc.layers.findIndex(
+      (l) =>
+        l.figure === 'hours-lost-shift' &&
+        l.statistic === 'mean' &&
+        l.period === 'year' &&
+        l.view.workloadClass === 'moderate' &&
+        l.view.acclimatization === 'acclimatized' &&
+        l.view.exposure === 'sun',
+    );
     expect(li).toBeGreaterThanOrEqual(0);
     const region = catalogue.regions[0].id;
     const csv = readFileSync(join(dataDir, 'data', 'scenarios', sc.id, 'regions', `${region}.csv`), 'utf8').split('\n');
     const cols = csv[0].split(',');
     const at = (k: string) => cols.indexOf(k);
-    const row = csv.slice(1).map((l) => l.split(',')).find((c) => c[at('period')] === 'year' && c[at('figure')] === 'hours-lost-shift' && c[at('workload_class')] === 'moderate' && c[at('acclimatization')] === 'acclimatized' && c[at('exposure')] === 'sun' && c[at('statistic')] === 'mean')!;
+    const row = csv
+      .slice(1)
+      .map((l) => l.split(','))
+      .find(
+        (c) =>
+          c[at('period')] === 'year' &&
+          c[at('figure')] === 'hours-lost-shift' &&
+          c[at('workload_class')] === 'moderate' &&
+          c[at('acclimatization')] === 'acclimatized' &&
+          c[at('exposure')] === 'sun' &&
+          c[at('statistic')] === 'mean',
+      )!;
     expect(values[li][0]).toBe(Number(row[at('value')]));
     // Warming never lowers hours lost: every region's scenario value ≥ the baseline's.
     const base = loadExplorerValues(dataDir)[sc.layers[li].id];

@@ -20,13 +20,17 @@ const MODEL: Record<string, RegExp> = {
 describe('exposure words', () => {
   it('the data dictionary, the region report and the map name every exposure with its model', () => {
     for (const x of EXPOSURES) {
-      for (const [where, words] of [['data dictionary', DICTIONARY_WORDS], ['region report', REPORT_WORDS], ['map', MAP_LABELS]] as const) {
+      for (const [where, words] of [
+        ['data dictionary', DICTIONARY_WORDS],
+        ['region report', REPORT_WORDS],
+        ['map', MAP_LABELS],
+      ] as const) {
         expect(words[x], `${where}: ${x}`).toMatch(MODEL[x]);
       }
     }
   });
 
-  it('the shelter\'s source is in the bibliography under the cited name', () => {
+  it("the shelter's source is in the bibliography under the cited name", () => {
     expect(sourceById('lemke2012').cite).toBe('Lemke & Kjellstrom 2012');
   });
 

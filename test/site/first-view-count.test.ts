@@ -24,22 +24,40 @@ function put(path: string, text: string): void {
 
 beforeAll(() => {
   dist = mkdtempSync(join(tmpdir(), 'hh-first-view-'));
-  put('map/index.html', [
-    '<link rel="stylesheet" href="/assets/a.css"><link rel="stylesheet" href="/print.css" media="print">',
-    '<script type="module" src="/assets/page.js"></script>',
-    '<div data-catalogue-url="/map/explorer.json" data-regions-url="/data/regions.geojson"></div>',
-    '<table id="region-values" data-layer-id="L1"></table><p data-print-url="/data/big.csv"></p>',
-  ].join(''));
+  put(
+    'map/index.html',
+    [
+      '<link rel="stylesheet" href="/assets/a.css"><link rel="stylesheet" href="/print.css" media="print">',
+      '<script type="module" src="/assets/page.js"></script>',
+      '<div data-catalogue-url="/map/explorer.json" data-regions-url="/data/regions.geojson"></div>',
+      '<table id="region-values" data-layer-id="L1"></table><p data-print-url="/data/big.csv"></p>',
+    ].join(''),
+  );
   put('assets/a.css', 'body{}'.repeat(50));
   put('print.css', '@page{}'.repeat(100));
   put('assets/page.js', 'import{x}from"./chunk.js";const w="/assets/worker.mjs";import("./lazy.js");');
   put('assets/chunk.js', 'export const x=1;'.repeat(20));
   put('assets/worker.mjs', 'self.onmessage=()=>{};'.repeat(10));
   put('assets/lazy.js', 'export default 1;'.repeat(1000));
-  put('map/explorer.json', JSON.stringify({
-    layers: [{ id: 'L1', images: [{ path: 'data/layers/l1.png' }], values: 'map/values/0.json' }, { id: 'L2', images: [{ path: 'data/layers/l2.png' }], values: 'map/values/1.json' }],
-    regionIndex: { count: 3, maxDrawn: 5, byName: [{ path: 'map/regions/name-0.json', from: 'a' }], byId: [{ path: 'map/regions/id-0.json', from: 'a' }], areas: [{ path: 'map/regions/area-0.json', bbox: [0, 0, 1, 1], count: 2 }, { path: 'map/regions/area-1.json', bbox: [1, 0, 2, 1], count: 1 }] },
-  }));
+  put(
+    'map/explorer.json',
+    JSON.stringify({
+      layers: [
+        { id: 'L1', images: [{ path: 'data/layers/l1.png' }], values: 'map/values/0.json' },
+        { id: 'L2', images: [{ path: 'data/layers/l2.png' }], values: 'map/values/1.json' },
+      ],
+      regionIndex: {
+        count: 3,
+        maxDrawn: 5,
+        byName: [{ path: 'map/regions/name-0.json', from: 'a' }],
+        byId: [{ path: 'map/regions/id-0.json', from: 'a' }],
+        areas: [
+          { path: 'map/regions/area-0.json', bbox: [0, 0, 1, 1], count: 2 },
+          { path: 'map/regions/area-1.json', bbox: [1, 0, 2, 1], count: 1 },
+        ],
+      },
+    }),
+  );
   put('data/regions.geojson', '{"type":"FeatureCollection","features":[]}');
   put('map/values/0.json', '[1,2,3]');
   put('map/values/1.json', '[4,5,6]');
@@ -56,7 +74,19 @@ afterAll(() => rmSync(dist, { recursive: true, force: true }));
 
 describe('first-view byte counter (bench/first-view.mjs)', () => {
   it('counts the page, its screen stylesheet, its scripts and static imports, the worker, the data fetched at start, the opening layer with its values and the area pieces drawn, and nothing else', () => {
-    const counted = ['map/index.html', 'assets/a.css', 'assets/page.js', 'assets/chunk.js', 'assets/worker.mjs', 'map/explorer.json', 'data/regions.geojson', 'data/layers/l1.png', 'map/values/0.json', 'map/regions/area-0.json', 'map/regions/area-1.json'];
+    const counted = [
+      'map/index.html',
+      'assets/a.css',
+      'assets/page.js',
+      'assets/chunk.js',
+      'assets/worker.mjs',
+      'map/explorer.json',
+      'data/regions.geojson',
+      'data/layers/l1.png',
+      'map/values/0.json',
+      'map/regions/area-0.json',
+      'map/regions/area-1.json',
+    ];
     const r = firstViewBytes(dist, 'map/');
     expect(r.files).toBe(counted.length);
     expect(r.bytes).toBe(counted.reduce((s, p) => s + sizes[p], 0));

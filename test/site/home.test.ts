@@ -67,7 +67,9 @@ function luminance(hex: string): number {
 
 beforeAll(async () => {
   ({ dataDir } = await buildPipelineData());
-  regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map((f: { properties: { id: string; name: string } }) => f.properties);
+  regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map(
+    (f: { properties: { id: string; name: string } }) => f.properties,
+  );
   classes = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')).work.classes;
   const build = await buildTestSite(dataDir);
   session = await startSiteSession(build.distDir);
@@ -106,7 +108,13 @@ describe('the home page with the atlas figures', () => {
   it('draws the map as SVG at build time: one outline per region, linked to its report and darker for more hours lost', async () => {
     const noJs = await session.open('/', { javaScript: false });
     const shapes = await noJs.page.$$eval('#region-map a[data-region-id]', (as) =>
-      as.map((a) => ({ id: a.getAttribute('data-region-id')!, href: a.getAttribute('href')!, fill: a.querySelector('path')!.getAttribute('fill')!, d: a.querySelector('path')!.getAttribute('d')!, value: a.querySelector('path')!.getAttribute('data-value')! })),
+      as.map((a) => ({
+        id: a.getAttribute('data-region-id')!,
+        href: a.getAttribute('href')!,
+        fill: a.querySelector('path')!.getAttribute('fill')!,
+        d: a.querySelector('path')!.getAttribute('d')!,
+        value: a.querySelector('path')!.getAttribute('data-value')!,
+      })),
     );
     expect(shapes.map((s) => s.id).sort()).toEqual(regions.map((r) => r.id).sort());
     for (const s of shapes) {
@@ -130,14 +138,29 @@ describe('the home page with the atlas figures', () => {
   it("ranks the regions by person-hours lost (all outdoor work, baseline mean) in the CSV order, each column equal to the CSV and the region JSON's people, under the raster's source line", async () => {
     const key = 'person-hours-lost-shift.mean';
     expect(await home.page.getAttribute('#workforce-ranking', 'data-sort-key')).toBe(key);
-    const want = [...regions].map((r) => ({ ...r, v: annualWorkforce(r.id, 'person-hours-lost-shift', 'mean') })).sort((a, b) => b.v - a.v || a.name.localeCompare(b.name)).map((r) => r.id);
+    const want = [...regions]
+      .map((r) => ({ ...r, v: annualWorkforce(r.id, 'person-hours-lost-shift', 'mean') }))
+      .sort((a, b) => b.v - a.v || a.name.localeCompare(b.name))
+      .map((r) => r.id);
     const keys = (await home.page.$$eval('#workforce-ranking thead th[data-key]', (ths) => ths.map((t) => t.getAttribute('data-key')!))).slice(2);
     expect(keys).toEqual([
-      'people', 'outdoor-workers',
-      ...['person-hours-above-limit-shift', 'person-hours-lost-shift', 'full-time-equivalents-lost', 'outdoor-work-time-lost'].flatMap((f) => [`${f}.mean`, `${f}.p90`]),
+      'people',
+      'outdoor-workers',
+      ...['person-hours-above-limit-shift', 'person-hours-lost-shift', 'full-time-equivalents-lost', 'outdoor-work-time-lost'].flatMap((f) => [
+        `${f}.mean`,
+        `${f}.p90`,
+      ]),
     ]);
     const byRow = await home.page.$$eval('#workforce-ranking tbody tr', (trs) =>
-      trs.map((tr) => ({ id: tr.getAttribute('data-region-id')!, cells: Object.fromEntries([...tr.querySelectorAll('td[data-col]')].map((td) => [td.getAttribute('data-col')!, { value: td.getAttribute('data-value')!, shown: (td.textContent ?? '').trim() }])) })),
+      trs.map((tr) => ({
+        id: tr.getAttribute('data-region-id')!,
+        cells: Object.fromEntries(
+          [...tr.querySelectorAll('td[data-col]')].map((td) => [
+            td.getAttribute('data-col')!,
+            { value: td.getAttribute('data-value')!, shown: (td.textContent ?? '').trim() },
+          ]),
+        ),
+      })),
     );
     expect(byRow.map((r) => r.id)).toEqual(want);
     for (const r of byRow) {
@@ -163,8 +186,13 @@ describe('the home page with the atlas figures', () => {
     const page = (await session.open('/')).page;
     const before = await ranking(page, 'moderate.acclimatized.sun');
     await page.selectOption('[data-ranking-control][data-for="workforce-ranking"] select', 'full-time-equivalents-lost.p90');
-    const ids = await page.$$eval('#workforce-ranking tbody tr', (trs) => trs.map((tr) => [tr.getAttribute('data-region-id')!, tr.querySelector('td.rank')!.textContent!.trim()]));
-    const want = [...regions].map((r) => ({ ...r, v: annualWorkforce(r.id, 'full-time-equivalents-lost', 'p90') })).sort((a, b) => b.v - a.v || a.name.localeCompare(b.name)).map((r) => r.id);
+    const ids = await page.$$eval('#workforce-ranking tbody tr', (trs) =>
+      trs.map((tr) => [tr.getAttribute('data-region-id')!, tr.querySelector('td.rank')!.textContent!.trim()]),
+    );
+    const want = [...regions]
+      .map((r) => ({ ...r, v: annualWorkforce(r.id, 'full-time-equivalents-lost', 'p90') }))
+      .sort((a, b) => b.v - a.v || a.name.localeCompare(b.name))
+      .map((r) => r.id);
     expect(ids.map((x) => x[0])).toEqual(want);
     expect(ids.map((x) => x[1])).toEqual(want.map((_, i) => String(i + 1)));
     expect(await ranking(page, 'moderate.acclimatized.sun')).toEqual(before);

@@ -61,13 +61,15 @@ describe('no page scrolls sideways', () => {
         if (path === '/map/') await page.waitForSelector('#explorer-map[data-map-state="idle"]', { timeout: 30_000 });
         if (path === '/estimate/') await page.waitForTimeout(500);
         const r = (await page.evaluate(PROBE)) as { documentWidth: number; windowWidth: number; sticking: string[] };
-        if (r.documentWidth > r.windowWidth || r.sticking.length > 0) problems.push(`${path}: ${r.documentWidth} px wide in a ${r.windowWidth} px window; ${r.sticking.join(', ')}`);
+        if (r.documentWidth > r.windowWidth || r.sticking.length > 0)
+          problems.push(`${path}: ${r.documentWidth} px wide in a ${r.windowWidth} px window; ${r.sticking.join(', ')}`);
         if (width === 1366) {
           // On a laptop no table hides columns (or its caption) behind its own scroll bar.
           const hidden = (await page.evaluate(HIDDEN_COLUMNS)) as string[];
           if (hidden.length > 0) problems.push(`${path}: tables wider than their box: ${hidden.join(', ')}`);
         }
-        if (width === 390 && (path === '/' || path.startsWith('/regions/sollent-coast/'))) await screenshot(page, `layout-390${path.replace(/\//g, '-').replace(/-$/, '')}`);
+        if (width === 390 && (path === '/' || path.startsWith('/regions/sollent-coast/')))
+          await screenshot(page, `layout-390${path.replace(/\//g, '-').replace(/-$/, '')}`);
         await page.close();
       }
       expect(problems).toEqual([]);
@@ -94,7 +96,9 @@ describe('no page scrolls sideways', () => {
     const height = await page.evaluate(() => document.documentElement.scrollHeight);
     process.stderr.write(`downloads page: ${height} px at 1366 px wide\n`);
     expect(height).toBeLessThan(6000);
-    const groups = await page.$$eval('details.file-group', (ds) => ds.map((d) => ({ id: d.getAttribute('data-file-group'), open: (d as HTMLDetailsElement).open, rows: d.querySelectorAll('tbody tr').length })));
+    const groups = await page.$$eval('details.file-group', (ds) =>
+      ds.map((d) => ({ id: d.getAttribute('data-file-group'), open: (d as HTMLDetailsElement).open, rows: d.querySelectorAll('tbody tr').length })),
+    );
     expect(groups.map((g) => g.id)).toEqual(['site', 'region-summaries', 'region-tiles', 'cell-tiles', 'cell-figures']);
     expect(groups.filter((g) => g.open).map((g) => g.id)).toEqual(['site']);
     for (const g of groups) expect(g.rows, g.id!).toBeGreaterThan(0);

@@ -99,7 +99,16 @@ describe(`atlases of ${N} and ${2 * N} regions`, () => {
       byIndex.forEach((id, i) => {
         if (i % 25 !== 0) return;
         const rows = parseCsvObjects(readFileSync(join(b.dataDir, 'data', 'regions', `${id}.csv`), 'utf8'));
-        const row = rows.find((x) => x.period === l.period && x.figure === l.figure && x.statistic === l.statistic && x.workload_class === l.view.workloadClass && x.acclimatization === l.view.acclimatization && x.exposure === l.view.exposure && x.method === 'limit')!;
+        const row = rows.find(
+          (x) =>
+            x.period === l.period &&
+            x.figure === l.figure &&
+            x.statistic === l.statistic &&
+            x.workload_class === l.view.workloadClass &&
+            x.acclimatization === l.view.acclimatization &&
+            x.exposure === l.view.exposure &&
+            x.method === 'limit',
+        )!;
         expect(values[i], `${id} ${l.id}`).toBe(row.value === '' ? null : Number(row.value));
       });
     }
@@ -108,7 +117,9 @@ describe(`atlases of ${N} and ${2 * N} regions`, () => {
   it('keep the map page first view under 2 MB as gzip sends it, 2N regions within 3 % of N, and the catalogue the same size', () => {
     const a = firstViewBytes(built[N].dist, 'map/');
     const b = firstViewBytes(built[2 * N].dist, 'map/');
-    process.stdout.write(`many-regions: map first view at ${N} regions ${a.bytes} B stored, ${a.gzipBytes} B gzip; at ${2 * N}: ${b.bytes} B stored, ${b.gzipBytes} B gzip; largest ${b.largest.join('; ')}\n`);
+    process.stdout.write(
+      `many-regions: map first view at ${N} regions ${a.bytes} B stored, ${a.gzipBytes} B gzip; at ${2 * N}: ${b.bytes} B stored, ${b.gzipBytes} B gzip; largest ${b.largest.join('; ')}\n`,
+    );
     expect(b.gzipBytes).toBeLessThan(2e6);
     expect(Math.abs(growth(a.gzipBytes, b.gzipBytes))).toBeLessThan(0.03);
     expect(Math.abs(growth(gzipOf(built[N], 'map/explorer.json'), gzipOf(built[2 * N], 'map/explorer.json')))).toBeLessThan(0.01);
@@ -151,7 +162,8 @@ describe(`atlases of ${N} and ${2 * N} regions`, () => {
     expect([...files].sort()).toEqual([...perRegion].sort());
     // The downloads page keeps every other file, and links every region file page.
     const downloads = read(b, 'downloads/index.html');
-    for (const p of manifest.artefacts.map((x) => x.path).filter((p) => !perRegion.includes(p) && !p.startsWith('data/layers/'))) expect(downloads, p).toContain(`data-path="${p}"`);
+    for (const p of manifest.artefacts.map((x) => x.path).filter((p) => !perRegion.includes(p) && !p.startsWith('data/layers/')))
+      expect(downloads, p).toContain(`data-path="${p}"`);
     for (const k of readdirSync(join(b.dist, 'downloads/regions'))) expect(downloads).toContain(`downloads/regions/${k}/`);
   });
 

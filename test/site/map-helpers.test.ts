@@ -39,12 +39,18 @@ beforeAll(async () => {
   const manifest = loadManifestLayers(dataDir)!;
   const layers = manifest.layers;
   catalogue = explorerCatalogue(manifest, loadRegions(dataDir));
-  values = regionLayerValues(dataDir, catalogue.regions.map((r) => r.id), layers);
+  values = regionLayerValues(
+    dataDir,
+    catalogue.regions.map((r) => r.id),
+    layers,
+  );
 }, 300_000);
 
 describe('the explorer catalogue of a real pipeline build', () => {
   it('holds every manifest layer once, with its images, GeoTIFF and an equal legend', () => {
-    const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as { layers: Array<{ id: string; tif: string; mapImages: Array<{ path: string }>; legend: unknown }> };
+    const manifest = JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as {
+      layers: Array<{ id: string; tif: string; mapImages: Array<{ path: string }>; legend: unknown }>;
+    };
     const shown = manifest.layers;
     expect(shown.some((l) => l.id.endsWith('/trend-year'))).toBe(true);
     expect(shown.some((l) => l.id.endsWith('/trend-p-year'))).toBe(true);
@@ -79,14 +85,17 @@ describe('the explorer catalogue of a real pipeline build', () => {
           const row = rows.find((x) => x.period === layer.period && x.figure === layer.figure && x.statistic === layer.statistic)!;
           expect(row, `${id} ${layer.id}`).toBeDefined();
           expect(got).toBe(row.value === '' ? null : Number(row.value));
-        }
-        else {
+        } else {
           const v = layer.view;
           const row = rows.find(
             (x) =>
-              x.period === layer.period && x.figure === layer.figure && x.statistic === layer.statistic &&
-              x.workload_class === (v.workloadClass ?? '') && x.acclimatization === (v.acclimatization ?? '') &&
-              x.exposure === (v.exposure ?? '') && x.method === (v.loss ?? (layer.figure.startsWith('hours-') ? 'limit' : '')),
+              x.period === layer.period &&
+              x.figure === layer.figure &&
+              x.statistic === layer.statistic &&
+              x.workload_class === (v.workloadClass ?? '') &&
+              x.acclimatization === (v.acclimatization ?? '') &&
+              x.exposure === (v.exposure ?? '') &&
+              x.method === (v.loss ?? (layer.figure.startsWith('hours-') ? 'limit' : '')),
           )!;
           expect(row, `${id} ${layer.id}`).toBeDefined();
           expect(got).toBe(row.value === '' ? null : Number(row.value));
@@ -99,7 +108,13 @@ describe('the explorer catalogue of a real pipeline build', () => {
 
   it('offers our own labels, the published choices only, and a default view that is a published layer', () => {
     expect(catalogue.figures.map((f) => f.label)).toEqual([
-      'Hours above the limit', 'Hours lost to rest breaks', 'Mean WBGT', 'Capacity loss', 'Mean annual temperature', 'Human climate niche class', 'Person-hours lost per km²',
+      'Hours above the limit',
+      'Hours lost to rest breaks',
+      'Mean WBGT',
+      'Capacity loss',
+      'Mean annual temperature',
+      'Human climate niche class',
+      'Person-hours lost per km²',
     ]);
     expect(catalogue.choices.workloadClass.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
     expect(catalogue.choices.workloadClass[1].label).toBe('Moderate work rate (300 W)');
@@ -113,7 +128,12 @@ describe('the explorer catalogue of a real pipeline build', () => {
     expect(trendNote(catalogue, trendLayer)).toBe('A trend needs at least 15 years; this record has 3 (2021–2023), so the layer has no values.');
     expect(trendNote(catalogue, resolveView(catalogue, parseViewState('', catalogue)).layer!)).toBeNull();
     expect(describeLayer(catalogue, trendLayer).statistic).toBe('Trend per decade (Theil–Sen), years built 2021–2023');
-    expect(layerUnitWords(catalogue.figures.find((f) => f.id === 'hours-lost-shift'), trendLayer)).toBe('change of the yearly value per decade (h decade-1)');
+    expect(
+      layerUnitWords(
+        catalogue.figures.find((f) => f.id === 'hours-lost-shift'),
+        trendLayer,
+      ),
+    ).toBe('change of the yearly value per decade (h decade-1)');
     const pLayer = resolveView(catalogue, parseViewState('?stat=trend-p', catalogue)).layer!;
     expect(pLayer.id).toBe('hours-lost-shift/moderate.acclimatized.sun/trend-p-year');
     expect(catalogue.legends[pLayer.legend].domain).toEqual([0, 1]);
@@ -124,7 +144,10 @@ describe('the explorer catalogue of a real pipeline build', () => {
     expect(catalogue.choices.statistic[1].label).toBe('P90 of 2 years (near the highest)');
     expect(catalogue.baselineYears).toBe(2);
     expect(catalogue.baselineWarning).toMatch(/^the baseline 2021–2022 has 2 years/);
-    expect(catalogue.figures.find((f) => f.id === 'hours-lost-shift')!.unitWords).toEqual({ month: 'hours per worker per month', year: 'hours per worker per year' });
+    expect(catalogue.figures.find((f) => f.id === 'hours-lost-shift')!.unitWords).toEqual({
+      month: 'hours per worker per month',
+      year: 'hours per worker per year',
+    });
     expect(catalogue.choices.period.map((c) => c.id)).toEqual(['01', '02', '03', '04', '05', '06', '07', '08', '09', '10', '11', '12', 'year']);
     const r = resolveView(catalogue, parseViewState('', catalogue));
     expect(r.layer?.id).toBe('hours-lost-shift/moderate.acclimatized.sun/mean-year');
@@ -135,8 +158,18 @@ describe('the explorer catalogue of a real pipeline build', () => {
 describe('the view in the URL', () => {
   it('round-trips every part of the view through the query, keeping other parameters', () => {
     const state: ViewState = {
-      figure: 'hours-above-limit-shift', workloadClass: 'high', acclimatization: 'unacclimatized', exposure: 'shade', loss: 'dunne-heavy',
-      statistic: 'p90', period: '08', centre: [-146.25, 20.5], zoom: 5.5, cell: 33, region: 'drovan-basin', scenario: 'warm-2k',
+      figure: 'hours-above-limit-shift',
+      workloadClass: 'high',
+      acclimatization: 'unacclimatized',
+      exposure: 'shade',
+      loss: 'dunne-heavy',
+      statistic: 'p90',
+      period: '08',
+      centre: [-146.25, 20.5],
+      zoom: 5.5,
+      cell: 33,
+      region: 'drovan-basin',
+      scenario: 'warm-2k',
     };
     const q = viewQuery(state, '?units=F&layer=old');
     expect(new URLSearchParams(q).get('units')).toBe('F');
@@ -156,7 +189,9 @@ describe('the view in the URL', () => {
 
   it('settles a wish nobody published on the nearest published layer and keeps choices the figure lacks', () => {
     // Capacity loss has no P90 and no workload class: the mean is shown, the class is kept for later.
-    const r = resolveView(catalogue, { ...parseViewState('?layer=capacity-loss-shift&stat=p90&class=high&loss=kjellstrom-400w&exposure=shade&month=05', catalogue) });
+    const r = resolveView(catalogue, {
+      ...parseViewState('?layer=capacity-loss-shift&stat=p90&class=high&loss=kjellstrom-400w&exposure=shade&month=05', catalogue),
+    });
     expect(r.layer?.id).toBe('capacity-loss-shift/kjellstrom-400w.shade/mean-05');
     expect(r.state.statistic).toBe('mean');
     expect(r.state.workloadClass).toBe('high');
@@ -181,7 +216,13 @@ describe('cells on the map', () => {
     expect(cellAt(g, -150.51, 20)).toBeNull();
     expect(cellAt(g, -145, 24.51)).toBeNull();
     expect(cellCentre(g, 23)).toEqual([-147, 19]);
-    expect(cellPolygon(g, 23).geometry.coordinates[0]).toEqual([[-147.5, 18.5], [-146.5, 18.5], [-146.5, 19.5], [-147.5, 19.5], [-147.5, 18.5]]);
+    expect(cellPolygon(g, 23).geometry.coordinates[0]).toEqual([
+      [-147.5, 18.5],
+      [-146.5, 18.5],
+      [-146.5, 19.5],
+      [-147.5, 19.5],
+      [-147.5, 18.5],
+    ]);
   });
 
   it('moves the cursor one cell at a time and stops at the grid edge', () => {
@@ -201,7 +242,13 @@ describe('which region holds or is nearest to a point', () => {
   /** d3-geo wants clockwise exteriors; GeoJSON's are counter-clockwise: flip a polygon bigger than a hemisphere. */
   function d3Shape(f: Feature<Polygon | MultiPolygon>): Feature<Polygon | MultiPolygon> {
     const polys = f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates;
-    return { ...f, geometry: { type: 'MultiPolygon', coordinates: polys.map((rings) => (geoArea({ type: 'Polygon', coordinates: rings }) > 2 * Math.PI ? rings.map((r) => [...r].reverse()) : rings)) } };
+    return {
+      ...f,
+      geometry: {
+        type: 'MultiPolygon',
+        coordinates: polys.map((rings) => (geoArea({ type: 'Polygon', coordinates: rings }) > 2 * Math.PI ? rings.map((r) => [...r].reverse()) : rings)),
+      },
+    };
   }
 
   it('agrees with d3-geo on the demo regions for a lattice of points, inside and out', () => {
@@ -241,7 +288,25 @@ describe('which region holds or is nearest to a point', () => {
   });
 
   it('treats a hole as outside and measures 1° of latitude as 111.2 km', () => {
-    const square: Polygon = { type: 'Polygon', coordinates: [[[0, 0], [4, 0], [4, 4], [0, 4], [0, 0]], [[1, 1], [1, 3], [3, 3], [3, 1], [1, 1]]] };
+    const square: Polygon = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [0, 0],
+          [4, 0],
+          [4, 4],
+          [0, 4],
+          [0, 0],
+        ],
+        [
+          [1, 1],
+          [1, 3],
+          [3, 3],
+          [3, 1],
+          [1, 1],
+        ],
+      ],
+    };
     expect(outlineHolds(square, [0.5, 0.5])).toBe(true);
     expect(outlineHolds(square, [2, 2])).toBe(false);
     expect(distanceToOutlineKm(square, [2, 5])).toBeCloseTo(111.195, 2);
@@ -270,7 +335,11 @@ describe('reading the pipeline’s tables for the map page', () => {
   afterAll(() => rmSync(work, { recursive: true, force: true }));
 
   it('parses quoted CSV fields with commas, quotes and line breaks', () => {
-    expect(parseCsv('a,b\n"x, y","say ""hi"""\n"two\nlines",\n')).toEqual([['a', 'b'], ['x, y', 'say "hi"'], ['two\nlines', '']]);
+    expect(parseCsv('a,b\n"x, y","say ""hi"""\n"two\nlines",\n')).toEqual([
+      ['a', 'b'],
+      ['x, y', 'say "hi"'],
+      ['two\nlines', ''],
+    ]);
   });
 
   it('fails with SiteDataMissing when a region table is absent', () => {
@@ -335,34 +404,122 @@ describe('the map search box (map-search.ts)', () => {
 });
 
 describe('the legend range note (legend-range.ts)', () => {
-  const legend = (domain: [number, number], units = 'h') => ({ kind: 'continuous', units, domain, stops: [], labels: [], ramp: 'Reds', reversed: false, outOfDomain: 'clamped', noData: { color: 'transparent', meaning: '' } }) as never;
+  const legend = (domain: [number, number], units = 'h') =>
+    ({
+      kind: 'continuous',
+      units,
+      domain,
+      stops: [],
+      labels: [],
+      ramp: 'Reds',
+      reversed: false,
+      outOfDomain: 'clamped',
+      noData: { color: 'transparent', meaning: '' },
+    }) as never;
 
   it('states the unit in words and which views share the range', () => {
     expect(legendRangeNote(legend([0, 130]), { figure: 'hours-lost-shift', period: '07', unitWords: 'hours per worker per month' }, 'C')).toBe(
       'Unit: hours per worker per month. Colours span 0–130 h, a range shared by the twelve months of this view, so they compare; the whole year has its own.',
     );
-    expect(legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C')).toContain('the range of the whole year');
+    expect(legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C')).toContain(
+      'the range of the whole year',
+    );
   });
 
-  it('says when the range changed from the view shown before (same figure), in the reader\'s temperature unit', () => {
-    const note = legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 130] });
+  it("says when the range changed from the view shown before (same figure), in the reader's temperature unit", () => {
+    const note = legendRangeNote(legend([0, 650]), { figure: 'hours-lost-shift', period: 'year', unitWords: 'hours per worker per year' }, 'C', {
+      figure: 'hours-lost-shift',
+      units: 'h',
+      domain: [0, 130],
+    });
     expect(note).toContain('The range changed with this view (it was 0–130 h): compare colours only within one range.');
-    expect(legendRangeNote(legend([0, 130]), { figure: 'hours-lost-shift', period: '08', unitWords: 'u' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 130] })).not.toContain('changed');
-    expect(legendRangeNote(legend([0, 130]), { figure: 'hours-above-limit-shift', period: '08', unitWords: 'u' }, 'C', { figure: 'hours-lost-shift', units: 'h', domain: [0, 650] })).not.toContain('changed');
+    expect(
+      legendRangeNote(legend([0, 130]), { figure: 'hours-lost-shift', period: '08', unitWords: 'u' }, 'C', {
+        figure: 'hours-lost-shift',
+        units: 'h',
+        domain: [0, 130],
+      }),
+    ).not.toContain('changed');
+    expect(
+      legendRangeNote(legend([0, 130]), { figure: 'hours-above-limit-shift', period: '08', unitWords: 'u' }, 'C', {
+        figure: 'hours-lost-shift',
+        units: 'h',
+        domain: [0, 650],
+      }),
+    ).not.toContain('changed');
     // 20–30 °C shown in °F: 68.0–86.0 °F (°F = °C × 9/5 + 32).
-    expect(legendRangeNote(legend([20, 30], 'degC'), { figure: 'wbgt-mean', period: '07', unitWords: 'degrees Celsius (WBGT)' }, 'F', { figure: 'wbgt-mean', units: 'degC', domain: [10, 30] })).toContain('Colours span 68.0–86.0 °F');
+    expect(
+      legendRangeNote(legend([20, 30], 'degC'), { figure: 'wbgt-mean', period: '07', unitWords: 'degrees Celsius (WBGT)' }, 'F', {
+        figure: 'wbgt-mean',
+        units: 'degC',
+        domain: [10, 30],
+      }),
+    ).toContain('Colours span 68.0–86.0 °F');
   });
 });
 
 describe('region names on the map (label-point.ts)', () => {
   it('puts each name inside its outline, also for a U-shaped region whose centroid lies outside it and for a ring with a hole (d3-geo geoContains)', () => {
-    const u: Polygon = { type: 'Polygon', coordinates: [[[0, 0], [3, 0], [3, 3], [2, 3], [2, 1], [1, 1], [1, 3], [0, 3], [0, 0]]] };
-    const holed: Polygon = { type: 'Polygon', coordinates: [[[0, 0], [4, 0], [4, 4], [0, 4], [0, 0]], [[1, 1], [1, 3], [3, 3], [3, 1], [1, 1]]] };
-    const multi: MultiPolygon = { type: 'MultiPolygon', coordinates: [[[[10, 10], [10.5, 10], [10.5, 10.5], [10, 10]]], u.coordinates] };
+    const u: Polygon = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [0, 0],
+          [3, 0],
+          [3, 3],
+          [2, 3],
+          [2, 1],
+          [1, 1],
+          [1, 3],
+          [0, 3],
+          [0, 0],
+        ],
+      ],
+    };
+    const holed: Polygon = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [0, 0],
+          [4, 0],
+          [4, 4],
+          [0, 4],
+          [0, 0],
+        ],
+        [
+          [1, 1],
+          [1, 3],
+          [3, 3],
+          [3, 1],
+          [1, 1],
+        ],
+      ],
+    };
+    const multi: MultiPolygon = {
+      type: 'MultiPolygon',
+      coordinates: [
+        [
+          [
+            [10, 10],
+            [10.5, 10],
+            [10.5, 10.5],
+            [10, 10],
+          ],
+        ],
+        u.coordinates,
+      ],
+    };
     // d3-geo wants exterior rings clockwise (spherical winding): rewind a polygon that would enclose more than half the sphere.
     const forD3 = (g: Polygon | MultiPolygon): Feature => {
       const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
-      return { type: 'Feature', properties: {}, geometry: { type: 'MultiPolygon', coordinates: polys.map((rings) => (geoArea({ type: 'Polygon', coordinates: rings }) > 2 * Math.PI ? rings.map((r) => [...r].reverse()) : rings)) } };
+      return {
+        type: 'Feature',
+        properties: {},
+        geometry: {
+          type: 'MultiPolygon',
+          coordinates: polys.map((rings) => (geoArea({ type: 'Polygon', coordinates: rings }) > 2 * Math.PI ? rings.map((r) => [...r].reverse()) : rings)),
+        },
+      };
     };
     expect(geoContains(forD3(u), [1.5, 2])).toBe(false); // the notch of the U: its centroid's side
     expect(geoContains(forD3(holed), [2, 2])).toBe(false); // the hole

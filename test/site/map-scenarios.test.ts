@@ -41,7 +41,15 @@ function csvRows(rel: string): Array<Record<string, string>> {
 /** The year's mean shift hours lost per worker of a region, in the record or the scenario. */
 function annualLost(region: string, scenarioId: string | null, cls = 'moderate', accl = 'acclimatized', exposure = 'sun'): number {
   const rows = csvRows(scenarioId ? `data/scenarios/${scenarioId}/regions/${region}.csv` : `data/regions/${region}.csv`);
-  const r = rows.find((x) => x.period === 'year' && x.figure === 'hours-lost-shift' && x.workload_class === cls && x.acclimatization === accl && x.exposure === exposure && x.statistic === 'mean')!;
+  const r = rows.find(
+    (x) =>
+      x.period === 'year' &&
+      x.figure === 'hours-lost-shift' &&
+      x.workload_class === cls &&
+      x.acclimatization === accl &&
+      x.exposure === exposure &&
+      x.statistic === 'mean',
+  )!;
   return Number(r.value);
 }
 
@@ -57,7 +65,10 @@ function legendColour(legend: LayerEntry['legend'], v: number): Rgb {
   const f = chromatic[`interpolate${legend.ramp}` as keyof typeof chromatic] as unknown as (t: number) => string;
   const s = f(legend.reversed ? 1 - t : t);
   if (s.startsWith('#')) return [1, 3, 5].map((i) => parseInt(s.slice(i, i + 2), 16)) as Rgb;
-  return s.match(/[\d.]+/g)!.slice(0, 3).map((x) => Math.round(+x)) as Rgb;
+  return s
+    .match(/[\d.]+/g)!
+    .slice(0, 3)
+    .map((x) => Math.round(+x)) as Rgb;
 }
 
 async function waitForView(page: Page, layerId: string, climate: string): Promise<void> {
@@ -66,7 +77,9 @@ async function waitForView(page: Page, layerId: string, climate: string): Promis
 
 /** Values of the region table's shown rows, by region id. */
 async function tableValues(page: Page): Promise<Map<string, number | null>> {
-  const rows = await page.$$eval('#region-values tbody tr', (trs) => trs.map((tr) => [tr.getAttribute('data-region-id')!, tr.querySelector('td[data-key="value"]')!.getAttribute('data-value')!] as const));
+  const rows = await page.$$eval('#region-values tbody tr', (trs) =>
+    trs.map((tr) => [tr.getAttribute('data-region-id')!, tr.querySelector('td[data-key="value"]')!.getAttribute('data-value')!] as const),
+  );
   return new Map(rows.map(([id, v]) => [id, v === '' ? null : Number(v)]));
 }
 
@@ -84,7 +97,7 @@ afterAll(async () => {
   await session?.close();
 });
 
-describe('the map explorer\'s climate switch', () => {
+describe("the map explorer's climate switch", () => {
   let map: WatchedPage;
   const requests: string[] = [];
 
@@ -96,7 +109,10 @@ describe('the map explorer\'s climate switch', () => {
 
   it('opens on the record and fetches nothing of a scenario until one is chosen', async () => {
     const options = await map.page.$$eval('#map-scenario option', (os) => os.map((o) => [(o as HTMLOptionElement).value, o.textContent!.trim()]));
-    expect(options).toEqual([['', 'The record (baseline)'], [SID, `What-if: ${scenario.name}`]]);
+    expect(options).toEqual([
+      ['', 'The record (baseline)'],
+      [SID, `What-if: ${scenario.name}`],
+    ]);
     expect(await map.page.isHidden('#map-scenario-about')).toBe(true);
     // Requests made before the page script wired its listener are in the first view; none of them is a scenario's.
     const firstView = await map.page.evaluate(() => performance.getEntriesByType('resource').map((e) => new URL(e.name).pathname));
@@ -108,7 +124,7 @@ describe('the map explorer\'s climate switch', () => {
     process.stderr.write(`map first view with one scenario: ${counted.files} files, ${counted.bytes} B, ${counted.gzipBytes} B gzip\n`);
   });
 
-  it('draws the scenario\'s layer in its legend\'s colours, shows its words and the caveat, and fills the region table from its own tables', async () => {
+  it("draws the scenario's layer in its legend's colours, shows its words and the caveat, and fills the region table from its own tables", async () => {
     const page = map.page;
     const baseValues = await tableValues(page);
     await page.selectOption('#map-scenario', SID);
@@ -138,12 +154,18 @@ describe('the map explorer\'s climate switch', () => {
     expect(warmer).toBeGreaterThan(0);
     // The drawn colours: the scenario GeoTIFF's value at each land cell through the legend's ramp.
     if (await page.isChecked('#map-outlines')) await page.uncheck('#map-outlines');
-    await page.evaluate(() => new Promise<void>((r) => {
-      const m = (globalThis as unknown as { heathoursMaps: Record<string, { once(e: string, f: () => void): void; triggerRepaint(): void }> }).heathoursMaps['explorer-map'];
-      m.once('idle', () => r());
-      m.triggerRepaint();
-    }));
-    const cellsIndex = JSON.parse(read('data/cells/index.json').toString('utf8')) as { grid: { nLat: number; nLon: number; lat0: number; lon0: number; dLat: number; dLon: number } };
+    await page.evaluate(
+      () =>
+        new Promise<void>((r) => {
+          const m = (globalThis as unknown as { heathoursMaps: Record<string, { once(e: string, f: () => void): void; triggerRepaint(): void }> })
+            .heathoursMaps['explorer-map'];
+          m.once('idle', () => r());
+          m.triggerRepaint();
+        }),
+    );
+    const cellsIndex = JSON.parse(read('data/cells/index.json').toString('utf8')) as {
+      grid: { nLat: number; nLon: number; lat0: number; lon0: number; dLat: number; dLon: number };
+    };
     const g = cellsIndex.grid;
     const band = await tifValues(layer as unknown as LayerEntry);
     const baseBand = await tifValues(manifest.layers.find((l) => l.id === DEFAULT_LAYER)!);
@@ -157,7 +179,13 @@ describe('the map explorer\'s climate switch', () => {
         if (!px.inside) continue;
         expect(colourDistance(px.rgb, legendColour(layer.legend as LayerEntry['legend'], v)), `cell ${y * g.nLon + x}`).toBeLessThanOrEqual(6);
         checked++;
-        if (colourDistance(legendColour(layer.legend as LayerEntry['legend'], v), legendColour(layer.legend as LayerEntry['legend'], baseBand[(g.nLat - 1 - y) * g.nLon + x])) > 6) differs++;
+        if (
+          colourDistance(
+            legendColour(layer.legend as LayerEntry['legend'], v),
+            legendColour(layer.legend as LayerEntry['legend'], baseBand[(g.nLat - 1 - y) * g.nLon + x]),
+          ) > 6
+        )
+          differs++;
       }
     }
     expect(checked).toBeGreaterThan(20);
@@ -165,14 +193,20 @@ describe('the map explorer\'s climate switch', () => {
     await screenshot(page, 'map-scenario');
   });
 
-  it('keeps the scenario across a change of view and shows a selected cell\'s figures of the scenario, then returns to the record', async () => {
+  it("keeps the scenario across a change of view and shows a selected cell's figures of the scenario, then returns to the record", async () => {
     const page = map.page;
     await page.selectOption('select[data-choice="period"]', '07');
     const july = 'hours-lost-shift/moderate.acclimatized.sun/mean-07';
     await waitForView(page, july, SID);
     // A land cell: the first of the scenario's per-cell chunks.
-    const scIndex = JSON.parse(read(`data/scenarios/${SID}/cells/index.json`).toString('utf8')) as { chunks: Array<{ id: string }>; figures: Array<{ id: string; combos: string[] }>; periods: string[] };
-    const chunk = JSON.parse(read(`data/scenarios/${SID}/cells/${scIndex.chunks[0].id}.json`).toString('utf8')) as { cells: Array<{ cell: number; figures: Record<string, number[][][]> }> };
+    const scIndex = JSON.parse(read(`data/scenarios/${SID}/cells/index.json`).toString('utf8')) as {
+      chunks: Array<{ id: string }>;
+      figures: Array<{ id: string; combos: string[] }>;
+      periods: string[];
+    };
+    const chunk = JSON.parse(read(`data/scenarios/${SID}/cells/${scIndex.chunks[0].id}.json`).toString('utf8')) as {
+      cells: Array<{ cell: number; figures: Record<string, number[][][]> }>;
+    };
     const rec = chunk.cells[0];
     const nLon = JSON.parse(read('data/cells/index.json').toString('utf8')).grid.nLon as number;
     const url = new URL(page.url());
@@ -223,8 +257,8 @@ describe('the map explorer\'s climate switch', () => {
   });
 });
 
-describe('the home page\'s ranking by climate', () => {
-  it('ranks by the record by default and, when a what-if climate is chosen, by that climate\'s own tables with its words and the caveat', async () => {
+describe("the home page's ranking by climate", () => {
+  it("ranks by the record by default and, when a what-if climate is chosen, by that climate's own tables with its words and the caveat", async () => {
     const home = await session.open('/');
     const page = home.page;
     await page.waitForSelector('#ranking-scenario-control:not([hidden])');
@@ -254,7 +288,7 @@ describe('the home page\'s ranking by climate', () => {
     expect(home.pageErrors).toEqual([]);
   });
 
-  it('without JavaScript shows every climate\'s ranking, each captioned, with the words and the caveat', async () => {
+  it("without JavaScript shows every climate's ranking, each captioned, with the words and the caveat", async () => {
     const home = await session.open('/', { javaScript: false });
     expect(await home.page.isVisible('#ranking')).toBe(true);
     expect(await home.page.isVisible(`#ranking-${SID}`)).toBe(true);

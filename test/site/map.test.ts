@@ -16,16 +16,7 @@ import * as chromatic from 'd3-scale-chromatic';
 import { geoArea, geoContains, geoDistance, geoInterpolate } from 'd3-geo';
 import type { Feature, MultiPolygon, Polygon, Position } from 'geojson';
 import type { Page } from 'playwright-core';
-import {
-  buildTestSite,
-  colourDistance,
-  mapPixelAt,
-  parseShownNumber,
-  screenshot,
-  startSiteSession,
-  type SiteSession,
-  type WatchedPage,
-} from './browser.ts';
+import { buildTestSite, colourDistance, mapPixelAt, parseShownNumber, screenshot, startSiteSession, type SiteSession, type WatchedPage } from './browser.ts';
 import { buildPipelineData } from './pipeline-data.ts';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import type { LayerEntry } from '../../pipeline/publish/atlas-layers.ts';
@@ -135,17 +126,24 @@ async function landPixels(page: Page): Promise<Map<number, Rgb>> {
 
 async function hideOutlines(page: Page): Promise<void> {
   if (await page.isChecked('#map-outlines')) await page.uncheck('#map-outlines');
-  await page.evaluate(() => new Promise<void>((r) => {
-    const m = (globalThis as unknown as { heathoursMaps: Record<string, { once(e: string, f: () => void): void; triggerRepaint(): void }> }).heathoursMaps['explorer-map'];
-    m.once('idle', () => r());
-    m.triggerRepaint();
-  }));
+  await page.evaluate(
+    () =>
+      new Promise<void>((r) => {
+        const m = (globalThis as unknown as { heathoursMaps: Record<string, { once(e: string, f: () => void): void; triggerRepaint(): void }> }).heathoursMaps[
+          'explorer-map'
+        ];
+        m.once('idle', () => r());
+        m.triggerRepaint();
+      }),
+  );
 }
 
 /** Screen point [CSS px, page] of a geographic point on the map. */
 async function screenPoint(page: Page, lngLat: [number, number]): Promise<{ x: number; y: number }> {
   return page.evaluate((p) => {
-    const m = (globalThis as unknown as { heathoursMaps: Record<string, { project(p: [number, number]): { x: number; y: number }; getCanvas(): HTMLCanvasElement }> }).heathoursMaps['explorer-map'];
+    const m = (
+      globalThis as unknown as { heathoursMaps: Record<string, { project(p: [number, number]): { x: number; y: number }; getCanvas(): HTMLCanvasElement }> }
+    ).heathoursMaps['explorer-map'];
     const r = m.getCanvas().getBoundingClientRect();
     const q = m.project(p);
     return { x: r.left + q.x, y: r.top + q.y };
@@ -156,7 +154,10 @@ async function screenPoint(page: Page, lngLat: [number, number]): Promise<{ x: n
 async function panelTable(page: Page): Promise<Record<string, Record<string, string>>> {
   return page.$$eval('#cell-figures tbody tr', (trs) =>
     Object.fromEntries(
-      trs.map((tr) => [tr.getAttribute('data-period'), Object.fromEntries([...tr.querySelectorAll('td')].map((td) => [td.getAttribute('data-key'), (td.textContent ?? '').trim()]))]),
+      trs.map((tr) => [
+        tr.getAttribute('data-period'),
+        Object.fromEntries([...tr.querySelectorAll('td')].map((td) => [td.getAttribute('data-key'), (td.textContent ?? '').trim()])),
+      ]),
     ),
   );
 }
@@ -175,10 +176,12 @@ function d3Polygon(f: Feature<Polygon | MultiPolygon>): Feature<Polygon | MultiP
 function outlineDistance(f: Feature<Polygon | MultiPolygon>, p: [number, number]): number {
   const polys = f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates;
   let best = Infinity;
-  for (const rings of polys) for (const ring of rings) for (let i = 0; i + 1 < ring.length; i++) {
-    const along = geoInterpolate(ring[i] as [number, number], ring[i + 1] as [number, number]);
-    for (let k = 0; k <= 50; k++) best = Math.min(best, geoDistance(p, along(k / 50) as Position as [number, number]));
-  }
+  for (const rings of polys)
+    for (const ring of rings)
+      for (let i = 0; i + 1 < ring.length; i++) {
+        const along = geoInterpolate(ring[i] as [number, number], ring[i + 1] as [number, number]);
+        for (let k = 0; k <= 50; k++) best = Math.min(best, geoDistance(p, along(k / 50) as Position as [number, number]));
+      }
   return best;
 }
 
@@ -223,10 +226,41 @@ describe('the map page', () => {
     const { page } = shared;
     await hideOutlines(page);
     const cases: Array<{ figure: string; combo: string; statistic: string; period: string; set: Array<[string, string]> }> = [
-      { figure: 'hours-lost-shift', combo: 'high.acclimatized.sun', statistic: 'p90', period: '07', set: [['figure', 'hours-lost-shift'], ['workloadClass', 'high'], ['statistic', 'p90'], ['period', '07']] },
-      { figure: 'wbgt-mean', combo: 'shade', statistic: 'mean', period: '03', set: [['figure', 'wbgt-mean'], ['exposure', 'shade'], ['period', '03']] },
+      {
+        figure: 'hours-lost-shift',
+        combo: 'high.acclimatized.sun',
+        statistic: 'p90',
+        period: '07',
+        set: [
+          ['figure', 'hours-lost-shift'],
+          ['workloadClass', 'high'],
+          ['statistic', 'p90'],
+          ['period', '07'],
+        ],
+      },
+      {
+        figure: 'wbgt-mean',
+        combo: 'shade',
+        statistic: 'mean',
+        period: '03',
+        set: [
+          ['figure', 'wbgt-mean'],
+          ['exposure', 'shade'],
+          ['period', '03'],
+        ],
+      },
       { figure: 'niche-class', combo: 'air', statistic: 'class', period: 'year', set: [['figure', 'niche-class']] },
-      { figure: 'person-hours-lost-density', combo: 'all', statistic: 'mean', period: '07', set: [['figure', 'person-hours-lost-density'], ['statistic', 'mean'], ['period', '07']] },
+      {
+        figure: 'person-hours-lost-density',
+        combo: 'all',
+        statistic: 'mean',
+        period: '07',
+        set: [
+          ['figure', 'person-hours-lost-density'],
+          ['statistic', 'mean'],
+          ['period', '07'],
+        ],
+      },
     ];
     for (const c of cases) {
       for (const [k, v] of c.set) await choose(page, k, v);
@@ -287,8 +321,14 @@ describe('the map page', () => {
     }
     expect(classPair, 'two workload classes whose July maps differ in some cells only').toBeDefined();
     const pairs: Array<[[string, string], [string, string]]> = [
-      [['moderate', '01'], ['moderate', '07']],
-      [[classPair![0], '07'], [classPair![1], '07']],
+      [
+        ['moderate', '01'],
+        ['moderate', '07'],
+      ],
+      [
+        [classPair![0], '07'],
+        [classPair![1], '07'],
+      ],
     ];
     for (const [a, b] of pairs) {
       const la = findLayer('hours-above-limit-shift', `${a[0]}.acclimatized.sun`, 'mean', a[1]);
@@ -343,7 +383,9 @@ describe('the map page', () => {
       await choose(page, 'figure', figure);
       const layers = mapped.filter((l) => l.figure === figure);
       for (const key of ['workloadClass', 'acclimatization', 'exposure', 'loss', 'statistic', 'period']) {
-        const want = new Set(layers.map((l) => (key === 'statistic' ? l.statistic : key === 'period' ? l.period : parts(l)[key])).filter((v) => v !== undefined));
+        const want = new Set(
+          layers.map((l) => (key === 'statistic' ? l.statistic : key === 'period' ? l.period : parts(l)[key])).filter((v) => v !== undefined),
+        );
         const shown = await page.isVisible(`[data-control="${key}"]`);
         expect(shown, `${figure}: ${key} control shown`).toBe(want.size > 0);
         if (want.size === 0) continue;
@@ -368,7 +410,8 @@ describe('the map page', () => {
     await page.waitForSelector(`#${MAP}[data-map-state="idle"]`);
     // A land cell with non-zero hours inside exactly one region (d3-geo decides "inside").
     const shapes = regionsGeo.features.map((f) => ({ id: f.properties.id, d3: d3Polygon(f), f }));
-    const rowsOf = (cell: number) => atlasRows.filter((r) => Number(r.cell_id) === cell && r.workload_class === 'high' && r.acclimatization === 'unacclimatized' && r.exposure === 'shade');
+    const rowsOf = (cell: number) =>
+      atlasRows.filter((r) => Number(r.cell_id) === cell && r.workload_class === 'high' && r.acclimatization === 'unacclimatized' && r.exposure === 'shade');
     const cell = landCells.find((c) => shapes.filter((s) => geoContains(s.d3, cellCentre(c))).length === 1 && rowsOf(c).some((r) => Number(r.mean) > 0))!;
     expect(cell).toBeDefined();
     const holder = shapes.find((s) => geoContains(s.d3, cellCentre(cell)))!;
@@ -393,14 +436,22 @@ describe('the map page', () => {
     expect(await page.getAttribute('#cell-panel a[data-cell-estimate]', 'href')).toBe(`/estimate/?cell=${cell}`);
     expect(new URL(page.url()).searchParams.get('cell')).toBe(String(cell));
     // The panel's value of the drawn layer is the cell's value in its GeoTIFF (2 decimals).
-    const layer = findLayer('hours-lost-shift', 'high.unacclimatized.shade', 'mean', (await page.inputValue('select[data-choice="period"]')));
+    const layer = findLayer('hours-lost-shift', 'high.unacclimatized.shade', 'mean', await page.inputValue('select[data-choice="period"]'));
     const shownValue = Number(await page.getAttribute('#cell-panel [data-key="layer-value"] strong', 'data-value'));
     expect(Math.abs(shownValue - (await tifValues(layer)).get(cell)!)).toBeLessThanOrEqual(0.005 + 1e-4);
     // Changing the class re-draws the panel for the new combination.
     await choose(page, 'workloadClass', 'low');
     await page.waitForSelector('#cell-figures[data-combo="low.unacclimatized.shade"]');
     const low = await panelTable(page);
-    const julyLow = atlasRows.find((r) => Number(r.cell_id) === cell && r.period === '07' && r.figure === 'hours-lost-shift' && r.workload_class === 'low' && r.acclimatization === 'unacclimatized' && r.exposure === 'shade')!;
+    const julyLow = atlasRows.find(
+      (r) =>
+        Number(r.cell_id) === cell &&
+        r.period === '07' &&
+        r.figure === 'hours-lost-shift' &&
+        r.workload_class === 'low' &&
+        r.acclimatization === 'unacclimatized' &&
+        r.exposure === 'shade',
+    )!;
     expect(parseShownNumber(low['07']['hours-lost-shift.mean'])).toBe(Number(julyLow.mean));
   });
 
@@ -477,24 +528,45 @@ describe('the map page', () => {
     await page.fill('#cell-lon', String(cellCentre(cell)[0]));
     await page.click('#cell-picker button[type="submit"]');
     await page.waitForSelector(`#cell-panel[data-state="ready"][data-cell="${cell}"]`);
-    await page.evaluate(() => new Promise<void>((r) => {
-      const m = (globalThis as unknown as { heathoursMaps: Record<string, { jumpTo(o: object): void; once(e: string, f: () => void): void }> }).heathoursMaps['explorer-map'];
-      m.once('moveend', () => r());
-      m.jumpTo({ center: [-146.25, 20.5], zoom: 5.5 });
-    }));
+    await page.evaluate(
+      () =>
+        new Promise<void>((r) => {
+          const m = (globalThis as unknown as { heathoursMaps: Record<string, { jumpTo(o: object): void; once(e: string, f: () => void): void }> })
+            .heathoursMaps['explorer-map'];
+          m.once('moveend', () => r());
+          m.jumpTo({ center: [-146.25, 20.5], zoom: 5.5 });
+        }),
+    );
     const url = new URL(page.url());
     expect(Object.fromEntries(url.searchParams)).toMatchObject({
-      layer: 'hours-above-limit-shift', class: 'high', accl: 'unacclimatized', exposure: 'shade', stat: 'p90', month: '08',
-      cell: String(cell), lon: '-146.2500', lat: '20.5000', zoom: '5.50',
+      layer: 'hours-above-limit-shift',
+      class: 'high',
+      accl: 'unacclimatized',
+      exposure: 'shade',
+      stat: 'p90',
+      month: '08',
+      cell: String(cell),
+      lon: '-146.2500',
+      lat: '20.5000',
+      zoom: '5.50',
     });
     const again = await session.open(`${url.pathname}${url.search}`);
     await waitForLayer(again.page, layer.id);
-    for (const [k, v] of [['figure', 'hours-above-limit-shift'], ['workloadClass', 'high'], ['acclimatization', 'unacclimatized'], ['exposure', 'shade'], ['statistic', 'p90'], ['period', '08']]) {
+    for (const [k, v] of [
+      ['figure', 'hours-above-limit-shift'],
+      ['workloadClass', 'high'],
+      ['acclimatization', 'unacclimatized'],
+      ['exposure', 'shade'],
+      ['statistic', 'p90'],
+      ['period', '08'],
+    ]) {
       expect(await again.page.inputValue(`select[data-choice="${k}"]`), k).toBe(v);
     }
     await again.page.waitForSelector(`#cell-panel[data-state="ready"][data-cell="${cell}"]`);
     const view = await again.page.evaluate(() => {
-      const m = (globalThis as unknown as { heathoursMaps: Record<string, { getCenter(): { lng: number; lat: number }; getZoom(): number }> }).heathoursMaps['explorer-map'];
+      const m = (globalThis as unknown as { heathoursMaps: Record<string, { getCenter(): { lng: number; lat: number }; getZoom(): number }> }).heathoursMaps[
+        'explorer-map'
+      ];
       return { lng: m.getCenter().lng, lat: m.getCenter().lat, zoom: m.getZoom() };
     });
     expect(view.lng).toBeCloseTo(-146.25, 3);
@@ -512,7 +584,11 @@ describe('the map page', () => {
     const [w, e] = [Math.min(...pts.map((p) => p[0])), Math.max(...pts.map((p) => p[0]))];
     const [s, n] = [Math.min(...pts.map((p) => p[1])), Math.max(...pts.map((p) => p[1]))];
     const b = await page.evaluate(() => {
-      const m = (globalThis as unknown as { heathoursMaps: Record<string, { getBounds(): { getWest(): number; getEast(): number; getSouth(): number; getNorth(): number } }> }).heathoursMaps['explorer-map'];
+      const m = (
+        globalThis as unknown as {
+          heathoursMaps: Record<string, { getBounds(): { getWest(): number; getEast(): number; getSouth(): number; getNorth(): number } }>;
+        }
+      ).heathoursMaps['explorer-map'];
       const x = m.getBounds();
       return { w: x.getWest(), e: x.getEast(), s: x.getSouth(), n: x.getNorth() };
     });
@@ -522,7 +598,9 @@ describe('the map page', () => {
     expect(b.n).toBeGreaterThanOrEqual(n);
     // Fitted: the region fills most of the view in one direction.
     expect(Math.max((e - w) / (b.e - b.w), (n - s) / (b.n - b.s))).toBeGreaterThan(0.6);
-    const filter = await page.evaluate(() => (globalThis as unknown as { heathoursMaps: Record<string, { getFilter(id: string): unknown }> }).heathoursMaps['explorer-map'].getFilter('region-focus'));
+    const filter = await page.evaluate(() =>
+      (globalThis as unknown as { heathoursMaps: Record<string, { getFilter(id: string): unknown }> }).heathoursMaps['explorer-map'].getFilter('region-focus'),
+    );
     expect(filter).toEqual(['==', ['get', 'id'], id]);
   });
 
@@ -548,7 +626,8 @@ describe('the map page', () => {
     await choose(page, 'period', '07');
     const layer = findLayer('wbgt-mean', 'sun', 'mean', '07');
     await waitForLayer(page, layer.id);
-    const ticks = () => page.$$eval('#map-legend [data-legend-value]', (els) => els.map((e) => ({ v: Number(e.getAttribute('data-legend-value')), text: e.textContent ?? '' })));
+    const ticks = () =>
+      page.$$eval('#map-legend [data-legend-value]', (els) => els.map((e) => ({ v: Number(e.getAttribute('data-legend-value')), text: e.textContent ?? '' })));
     for (const { v, text } of await ticks()) expect(parseShownNumber(text)).toBeCloseTo(v, 1);
     // The cell panel (a land cell is selected on this page) writes temperatures in °C too.
     await page.waitForSelector('#cell-panel[data-state="ready"]');
@@ -567,9 +646,15 @@ describe('the map page', () => {
       expect(await page.textContent('#map-legend')).toContain('84.2 °F');
       expect(await page.textContent('#map-legend')).not.toContain('°C');
       await choose(page, 'figure', 'wbgt-mean');
-      const here = await page.$eval('#cell-panel [data-key="layer-value"] strong', (e) => ({ c: Number(e.getAttribute('data-value')), text: e.textContent ?? '' }));
+      const here = await page.$eval('#cell-panel [data-key="layer-value"] strong', (e) => ({
+        c: Number(e.getAttribute('data-value')),
+        text: e.textContent ?? '',
+      }));
       expect(parseShownNumber(here.text.replace(' °F', ''))).toBeCloseTo((here.c * 9) / 5 + 32, 1);
-      const region = await page.$eval('#region-values tbody tr td[data-key="value"]', (td) => ({ c: Number(td.getAttribute('data-value')), text: td.textContent ?? '' }));
+      const region = await page.$eval('#region-values tbody tr td[data-key="value"]', (td) => ({
+        c: Number(td.getAttribute('data-value')),
+        text: td.textContent ?? '',
+      }));
       expect(region.text).toMatch(/°F$/);
       expect(parseShownNumber(region.text.replace(' °F', ''))).toBeCloseTo((region.c * 9) / 5 + 32, 1);
       expect(await page.textContent('#region-values th[data-key="value"]')).toBe('Value [°F]');
@@ -594,11 +679,22 @@ describe('the map page', () => {
     await waitForLayer(page, layer.id);
     expect(await page.getAttribute('#region-values', 'data-layer-id')).toBe(layer.id);
     expect(fetched).toContain(`/map/values/${manifest.layers.findIndex((l) => l.id === layer.id)}.json`);
-    const rows = await page.$$eval('#region-values tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-region-id')!, value: tr.querySelector('td[data-key="value"]')!.getAttribute('data-value') ?? '' })));
+    const rows = await page.$$eval('#region-values tbody tr', (trs) =>
+      trs.map((tr) => ({ id: tr.getAttribute('data-region-id')!, value: tr.querySelector('td[data-key="value"]')!.getAttribute('data-value') ?? '' })),
+    );
     expect(rows.length).toBe(regionsGeo.features.length);
     for (const r of rows) {
       const csv = parseCsv(read(`data/regions/${r.id}.csv`).toString('utf8'));
-      const row = csv.find((x) => x.period === '08' && x.figure === 'hours-above-limit-shift' && x.workload_class === 'high' && x.acclimatization === 'acclimatized' && x.exposure === 'sun' && x.method === 'limit' && x.statistic === 'p90')!;
+      const row = csv.find(
+        (x) =>
+          x.period === '08' &&
+          x.figure === 'hours-above-limit-shift' &&
+          x.workload_class === 'high' &&
+          x.acclimatization === 'acclimatized' &&
+          x.exposure === 'sun' &&
+          x.method === 'limit' &&
+          x.statistic === 'p90',
+      )!;
       expect(r.value === '' ? '' : Number(r.value), r.id).toBe(row.value === '' ? '' : Number(row.value));
     }
   });
@@ -624,7 +720,16 @@ describe('the map page', () => {
       expect(r.report).toBe(`/regions/${r.id}/`);
       expect(r.map).toBe(`/map/?region=${r.id}`);
       const csv = parseCsv(read(`data/regions/${r.id}.csv`).toString('utf8'));
-      const row = csv.find((x) => x.period === layer.period && x.figure === layer.figure && x.workload_class === cls && x.acclimatization === accl && x.exposure === exposure && x.method === 'limit' && x.statistic === layer.statistic)!;
+      const row = csv.find(
+        (x) =>
+          x.period === layer.period &&
+          x.figure === layer.figure &&
+          x.workload_class === cls &&
+          x.acclimatization === accl &&
+          x.exposure === exposure &&
+          x.method === 'limit' &&
+          x.statistic === layer.statistic,
+      )!;
       expect(Math.abs(parseShownNumber(r.value.replace(' h', '')) - Number(row.value)), r.id).toBeLessThanOrEqual(0.05 + 1e-9);
     }
   });

@@ -18,7 +18,16 @@ import { CLIMATE_METHODS } from '../../pipeline/climate/methods.ts';
 import { REGION_METHODS } from '../../pipeline/regions/methods.ts';
 import { SOURCES, SOURCE_IDS, formatMethodNumber, parseMethodNumber, type MethodConstant, type MethodDescriptor } from '../../pipeline/model/sources.ts';
 import { PHYSICS_CONSTANTS } from '../../pipeline/physics/constants.ts';
-import { airThermalConductivity, airViscosity, atmosphericEmissivity, cylinderHeatTransfer, latentHeat, reynoldsNumber, sphereHeatTransfer, vaporDiffusivity } from '../../pipeline/physics/air-properties.ts';
+import {
+  airThermalConductivity,
+  airViscosity,
+  atmosphericEmissivity,
+  cylinderHeatTransfer,
+  latentHeat,
+  reynoldsNumber,
+  sphereHeatTransfer,
+  vaporDiffusivity,
+} from '../../pipeline/physics/air-properties.ts';
 import { refractionDeg, sunState } from '../../pipeline/physics/solar-position.ts';
 import { directFractionExact } from '../../pipeline/physics/solar-inputs.ts';
 import { computePoint } from '../../pipeline/physics/point-row.ts';
@@ -65,11 +74,20 @@ const LITERAL_CHECKS: Record<string, () => void> = {
   },
   'pipeline/physics/air-properties.ts vaporDiffusivity()': () => {
     const id = 'air-properties';
-    for (const [T, P] of [[280, 1013.25], [305, 900], [330, 1040]]) {
+    for (const [T, P] of [
+      [280, 1013.25],
+      [305, 900],
+      [330, 1040],
+    ]) {
       const tc = k(id, 'T_c,a') * k(id, 'T_c,w');
       const d =
-        k(id, 'D₀') * (T / Math.sqrt(tc)) ** k(id, 'n_D') * (k(id, 'P_c,a') * k(id, 'P_c,w')) ** (1 / 3) * tc ** (5 / 12) *
-        Math.sqrt(1 / k(id, 'M_a') + 1 / k(id, 'M_w')) / (P / k(id, 'P₀')) * 1e-4;
+        ((k(id, 'D₀') *
+          (T / Math.sqrt(tc)) ** k(id, 'n_D') *
+          (k(id, 'P_c,a') * k(id, 'P_c,w')) ** (1 / 3) *
+          tc ** (5 / 12) *
+          Math.sqrt(1 / k(id, 'M_a') + 1 / k(id, 'M_w'))) /
+          (P / k(id, 'P₀'))) *
+        1e-4;
       expect(close(d, vaporDiffusivity(T, P), 1e-12), `T=${T}`).toBe(true);
     }
   },
@@ -83,7 +101,11 @@ const LITERAL_CHECKS: Record<string, () => void> = {
   },
   'pipeline/physics/air-properties.ts sphereHeatTransfer()': () => {
     const id = 'heat-transfer';
-    for (const [T, P, u] of [[300, 1000, 0.05], [310, 950, 2], [290, 1013, 6]]) {
+    for (const [T, P, u] of [
+      [300, 1000, 0.05],
+      [310, 950, 2],
+      [290, 1013, 6],
+    ]) {
       const re = reynoldsNumber(k(id, 'D_g'), T, P, u);
       const nu = 2 + k(id, 'a_s') * Math.sqrt(re) * k(id, 'Pr') ** k(id, 'n_s');
       expect(close((nu * airThermalConductivity(T)) / k(id, 'D_g'), sphereHeatTransfer(k(id, 'D_g'), T, P, u))).toBe(true);
@@ -92,7 +114,10 @@ const LITERAL_CHECKS: Record<string, () => void> = {
   },
   'pipeline/physics/air-properties.ts cylinderHeatTransfer()': () => {
     const id = 'heat-transfer';
-    for (const [T, P, u] of [[300, 1000, 0.5], [310, 950, 3]]) {
+    for (const [T, P, u] of [
+      [300, 1000, 0.5],
+      [310, 950, 3],
+    ]) {
       const re = reynoldsNumber(k(id, 'D_w'), T, P, u);
       const nu = k(id, 'a_c') * re ** k(id, 'm_c') * k(id, 'Pr') ** k(id, 'n_c');
       expect(close((nu * airThermalConductivity(T)) / k(id, 'D_w'), cylinderHeatTransfer(k(id, 'D_w'), T, P, u))).toBe(true);
@@ -107,13 +132,18 @@ const LITERAL_CHECKS: Record<string, () => void> = {
       const L0 = k(id, 'L₀,₀') + k(id, 'L₀,₁') * T + k(id, 'L₀,₂') * T * T;
       const M = k(id, 'M₀') + k(id, 'M₁') * T - k(id, 'M₂') * T * T;
       const e = k(id, 'e₀') - k(id, 'e₁') * T - k(id, 'e₂') * T * T;
-      const C = (k(id, 'C₁,₀') - k(id, 'C₁,₁') * T - k(id, 'C₁,₂') * T * T) * Math.sin(M * RAD) + (k(id, 'C₂,₀') - k(id, 'C₂,₁') * T) * Math.sin(2 * M * RAD) + k(id, 'C₃') * Math.sin(3 * M * RAD);
+      const C =
+        (k(id, 'C₁,₀') - k(id, 'C₁,₁') * T - k(id, 'C₁,₂') * T * T) * Math.sin(M * RAD) +
+        (k(id, 'C₂,₀') - k(id, 'C₂,₁') * T) * Math.sin(2 * M * RAD) +
+        k(id, 'C₃') * Math.sin(3 * M * RAD);
       const R = (k(id, 'a_R') * (1 - e * e)) / (1 + e * Math.cos((M + C) * RAD));
       const om = k(id, 'Ω₀') - k(id, 'Ω₁') * T;
       const lam = L0 + C - k(id, 'κ') - k(id, 'ψ₁') * Math.sin(om * RAD);
       const eps = k(id, 'ε₀,₀') - (k(id, 'ε₀,₁') * T + k(id, 'ε₀,₂') * T * T - k(id, 'ε₀,₃') * T ** 3) / 3600 + k(id, 'ε₁') * Math.cos(om * RAD);
       const dec = Math.asin(Math.sin(eps * RAD) * Math.sin(lam * RAD));
-      const theta = wrap(k(id, 'θ₀,₀') + k(id, 'θ₀,₁') * days + k(id, 'θ₀,₂') * T * T - T ** 3 / k(id, 'θ₀,₃') - k(id, 'ψ₁') * Math.sin(om * RAD) * Math.cos(eps * RAD)) * RAD;
+      const theta =
+        wrap(k(id, 'θ₀,₀') + k(id, 'θ₀,₁') * days + k(id, 'θ₀,₂') * T * T - T ** 3 / k(id, 'θ₀,₃') - k(id, 'ψ₁') * Math.sin(om * RAD) * Math.cos(eps * RAD)) *
+        RAD;
       const s = sunState(t);
       expect(Math.abs(s.declination - dec), iso).toBeLessThan(1e-9);
       // Sidereal time grows 361° a day: the day count's rounding (1e−10 d) allows 1e−7 rad here.
@@ -179,8 +209,26 @@ describe('the constants of the methods page', () => {
 
   it('the kernel weights WBGT exactly as the WBGT method shows (sun: wet bulb, globe, air)', () => {
     const id = 'wbgt';
-    for (const [ta, rh, solar, wind] of [[30, 50, 800, 3], [35, 40, 900, 2], [25, 80, 0, 1], [40, 20, 1000, 4]]) {
-      const out = computePoint({ timeMs: Date.parse('2021-07-15T22:00:00Z'), avgMinutes: 60, lat: 20, lon: -145, ta, rh, pressure: 1005, wind, windHeight: 10, urban: false, dt: 0, solar });
+    for (const [ta, rh, solar, wind] of [
+      [30, 50, 800, 3],
+      [35, 40, 900, 2],
+      [25, 80, 0, 1],
+      [40, 20, 1000, 4],
+    ]) {
+      const out = computePoint({
+        timeMs: Date.parse('2021-07-15T22:00:00Z'),
+        avgMinutes: 60,
+        lat: 20,
+        lon: -145,
+        ta,
+        rh,
+        pressure: 1005,
+        wind,
+        windHeight: 10,
+        urban: false,
+        dt: 0,
+        solar,
+      });
       expect(out.status).toBe(0);
       const want = k(id, 'w_nw') * out.tnwb + k(id, 'w_g') * out.tg + k(id, 'w_a') * ta;
       expect(Math.abs(out.wbgt - want), `Ta ${ta}`).toBeLessThan(1e-12);
@@ -206,7 +254,11 @@ describe('the constants of the methods page', () => {
 
   it('cover the physics stage\u2019s own constants table: each entry of PHYSICS_CONSTANTS is shown with some method', () => {
     const physics = PHYSICS_METHODS.methods.flatMap((m) => m.constants);
-    for (const pc of PHYSICS_CONSTANTS) expect(physics.some((c) => Object.is(c.value, pc.value)), `${pc.name} (${pc.value})`).toBe(true);
+    for (const pc of PHYSICS_CONSTANTS)
+      expect(
+        physics.some((c) => Object.is(c.value, pc.value)),
+        `${pc.name} (${pc.value})`,
+      ).toBe(true);
   });
 });
 

@@ -48,7 +48,13 @@ afterAll(async () => {
 describe('the methods page', () => {
   it('shows every constant as the pipeline holds it: each cell\u2019s value is the export its code reference names, printed exactly', async () => {
     const cells = await page.$$eval('[data-constant]', (tds) =>
-      tds.map((td) => ({ method: td.closest('[data-method]')?.getAttribute('data-method') ?? '', symbol: td.getAttribute('data-constant') ?? '', value: td.getAttribute('data-value') ?? '', code: td.getAttribute('data-code') ?? '', text: (td.textContent ?? '').trim() })),
+      tds.map((td) => ({
+        method: td.closest('[data-method]')?.getAttribute('data-method') ?? '',
+        symbol: td.getAttribute('data-constant') ?? '',
+        value: td.getAttribute('data-value') ?? '',
+        code: td.getAttribute('data-code') ?? '',
+        text: (td.textContent ?? '').trim(),
+      })),
     );
     expect(cells.length).toBe(METHODS.reduce((n, m) => n + m.constants.length, 0));
     let exported = 0;
@@ -68,7 +74,11 @@ describe('the methods page', () => {
 
   it('shows every method of every stage with its equation lines, in the descriptors\u2019 order', async () => {
     const shown = await page.$$eval('article.method', (as) =>
-      as.map((a) => ({ id: a.getAttribute('data-method'), name: a.querySelector('h3')?.textContent, lines: [...a.querySelectorAll('[data-equation] code')].map((c) => c.textContent) })),
+      as.map((a) => ({
+        id: a.getAttribute('data-method'),
+        name: a.querySelector('h3')?.textContent,
+        lines: [...a.querySelectorAll('[data-equation] code')].map((c) => c.textContent),
+      })),
     );
     expect(shown.map((s) => s.id)).toEqual(METHODS.map((m) => m.id));
     METHODS.forEach((m, i) => {
@@ -127,7 +137,11 @@ describe('the methods page', () => {
     const check: Record<number, [number, number]> = { 180: [30.76, 28.1], 300: [28.21, 24.97], 415: [26.59, 22.99], 520: [25.47, 21.6] };
     expect(manifest.work.limitModel).toBe('curve-2017');
     const rows = await page.$$eval('#class-limits tbody tr', (trs) =>
-      trs.map((tr) => ({ rate: Number(tr.children[1].textContent), acc: Number(tr.querySelector('[data-limit="acclimatized"] [data-temp-c]')?.getAttribute('data-temp-c')), un: Number(tr.querySelector('[data-limit="unacclimatized"] [data-temp-c]')?.getAttribute('data-temp-c')) })),
+      trs.map((tr) => ({
+        rate: Number(tr.children[1].textContent),
+        acc: Number(tr.querySelector('[data-limit="acclimatized"] [data-temp-c]')?.getAttribute('data-temp-c')),
+        un: Number(tr.querySelector('[data-limit="unacclimatized"] [data-temp-c]')?.getAttribute('data-temp-c')),
+      })),
     );
     expect(rows.map((r) => r.rate)).toEqual(manifest.work.classes.map((c) => c.metabolicRate));
     for (const r of rows) {
@@ -138,7 +152,9 @@ describe('the methods page', () => {
 
   it('carries the cautions in full, and each caution of the tables with its source', async () => {
     expect(await page.$$eval('.cautions li', (lis) => lis.map((li) => li.getAttribute('data-caution')))).toEqual(CAUTIONS.map((c) => c.id));
-    const rows = await page.$$eval('#caution-table tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-caution-source'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent) })));
+    const rows = await page.$$eval('#caution-table tbody tr', (trs) =>
+      trs.map((tr) => ({ id: tr.getAttribute('data-caution-source'), cells: [...tr.querySelectorAll('td')].map((td) => td.textContent) })),
+    );
     expect(rows.map((r) => r.id)).toEqual(manifest.work.cautions.map((c) => c.id));
     manifest.work.cautions.forEach((c, i) => expect(rows[i].cells).toEqual([c.text, c.basis]));
     const text = ((await page.textContent('main')) ?? '').toLowerCase();
@@ -161,7 +177,9 @@ describe('the methods page', () => {
   });
 
   it('keeps what is not verified in one list, each row linked to its source; option labels carry no such words, and the page cites no methods document outside the repository', async () => {
-    const rows = await page.$$eval('#unverified-table tbody tr', (trs) => trs.map((tr) => ({ id: tr.getAttribute('data-unverified'), href: tr.querySelector('a')?.getAttribute('href') })));
+    const rows = await page.$$eval('#unverified-table tbody tr', (trs) =>
+      trs.map((tr) => ({ id: tr.getAttribute('data-unverified'), href: tr.querySelector('a')?.getAttribute('href') })),
+    );
     const fromMemory = CLOTHING_ENSEMBLES.filter((e) => e.sourceTag === 'from-memory').length + (HOOD_CAV_SOURCE_TAG === 'from-memory' ? 1 : 0);
     expect(rows.length).toBe(UNVERIFIED.length + fromMemory);
     for (const r of rows) expect(r.href).toBe(`#ref-${r.id}`);

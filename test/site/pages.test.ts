@@ -70,9 +70,13 @@ describe('the home page', () => {
   it('states the atlas title, years, baseline, grid extent, the invented-data label and the attribution from the inventory', async () => {
     const { page } = home;
     expect(await page.textContent('h1')).toBe(inventory.atlas.title);
-    const facts = await page.$$eval('#coverage dd[data-key]', (dds) => Object.fromEntries(dds.map((d) => [d.getAttribute('data-key'), (d.textContent ?? '').trim()])));
+    const facts = await page.$$eval('#coverage dd[data-key]', (dds) =>
+      Object.fromEntries(dds.map((d) => [d.getAttribute('data-key'), (d.textContent ?? '').trim()])),
+    );
     expect(facts.years).toBe(`${inventory.atlas.years[0]}–${inventory.atlas.years[1]}`);
-    expect(facts.baseline).toBe(`${inventory.atlas.baseline[0]}–${inventory.atlas.baseline[1]} (${inventory.atlas.baseline[1] - inventory.atlas.baseline[0] + 1} years)`);
+    expect(facts.baseline).toBe(
+      `${inventory.atlas.baseline[0]}–${inventory.atlas.baseline[1]} (${inventory.atlas.baseline[1] - inventory.atlas.baseline[0] + 1} years)`,
+    );
     // Etc/GMT+10 is ten hours behind UTC (POSIX signs of the tz database's Etc zones).
     expect(facts['time-zone']).toBe('UTC\u221210:00 (Etc/GMT+10)');
     // The test atlas's 2-year baseline is too short for a 1-in-10 year: the page says so.
@@ -91,7 +95,9 @@ describe('the home page', () => {
 
   it('lists every region by name and id, and carries all six cautions in full and in the footer', async () => {
     const { page } = home;
-    const shown = await page.$$eval('#regions li', (lis) => lis.map((li) => ({ id: li.getAttribute('data-region-id'), name: li.querySelector('.region-name')?.textContent })));
+    const shown = await page.$$eval('#regions li', (lis) =>
+      lis.map((li) => ({ id: li.getAttribute('data-region-id'), name: li.querySelector('.region-name')?.textContent })),
+    );
     expect(shown).toHaveLength(regions.features.length);
     for (const f of regions.features) expect(shown).toContainEqual({ id: f.properties.id, name: f.properties.name });
     const cautionIds = await page.$$eval('.cautions li', (lis) => lis.map((li) => li.getAttribute('data-caution')));
@@ -100,7 +106,16 @@ describe('the home page', () => {
     for (const c of CAUTIONS) expect(footer).toContain(c.short);
     // The cautions of DESIGN.md §7, by their key words.
     const text = (await page.textContent('.cautions')) ?? '';
-    for (const words of ['screening', 'acclimatized', 'grid box', 'protective equipment', 'Local regulations', 'competent person', 'heat illness', 'medical help']) {
+    for (const words of [
+      'screening',
+      'acclimatized',
+      'grid box',
+      'protective equipment',
+      'Local regulations',
+      'competent person',
+      'heat illness',
+      'medical help',
+    ]) {
       expect(text.toLowerCase()).toContain(words.toLowerCase().replace('acclimatized', 'used to the heat'));
     }
   });
@@ -179,7 +194,11 @@ describe('the data inventory page', () => {
     // Test points, classified by world-atlas itself: the island of Hawaii, west of the invented
     // territory, is land (three points well inside its 1:110m outline); the open Pacific south-east
     // of the grid is sea.
-    const landPoints: Array<[number, number]> = [[-155.5, 19.6], [-155.6, 19.5], [-155.3, 19.7]];
+    const landPoints: Array<[number, number]> = [
+      [-155.5, 19.6],
+      [-155.6, 19.5],
+      [-155.3, 19.7],
+    ];
     const seaPoint: [number, number] = [-137.5, 15];
     for (const p of landPoints) expect(geoContains(land, p)).toBe(true);
     expect(geoContains(land, seaPoint)).toBe(false);

@@ -64,7 +64,10 @@ async function withLock<T>(lockDir: string, work: () => Promise<T>): Promise<T> 
       await mkdir(lockDir);
       break;
     } catch {
-      const age = await stat(lockDir).then((s) => Date.now() - s.mtimeMs, () => 0);
+      const age = await stat(lockDir).then(
+        (s) => Date.now() - s.mtimeMs,
+        () => 0,
+      );
       if (age > 600_000) await rm(lockDir, { recursive: true, force: true });
       if (Date.now() > deadline) throw new Error(`timed out waiting for the pipeline data lock ${lockDir}`);
       await new Promise((r) => setTimeout(r, 250));
@@ -101,7 +104,8 @@ export async function buildPipelineData(opts: { withScenario?: boolean } = {}): 
     await rm(root, { recursive: true, force: true });
     mkdirSync(join(root, 'regions'), { recursive: true });
     for (const f of [...listFiles(join(PROJECT_ROOT, 'content/regions')), ...listFiles(ODD_REGIONS)]) {
-      if (f.endsWith('.geojson')) cpSync(f, join(root, 'regions', relative(f.endsWith('odd-name.geojson') ? ODD_REGIONS : join(PROJECT_ROOT, 'content/regions'), f)));
+      if (f.endsWith('.geojson'))
+        cpSync(f, join(root, 'regions', relative(f.endsWith('odd-name.geojson') ? ODD_REGIONS : join(PROJECT_ROOT, 'content/regions'), f)));
     }
     const { writeDemoDataset } = await import('../../pipeline/demo/index.ts');
     const { POPULATION_FILE } = await import('../../pipeline/demo/population.ts');

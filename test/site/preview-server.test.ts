@@ -127,7 +127,15 @@ describe('startPreviewServer', () => {
   });
 
   it('never serves a file outside its folder, whatever the spelling of ..', async () => {
-    for (const path of ['/../secret.txt', '/assets/../../secret.txt', '/%2e%2e/secret.txt', '/%2E%2E%2Fsecret.txt', '/assets/%2e%2e/%2e%2e/secret.txt', '/..%5csecret.txt', '/%00/index.html']) {
+    for (const path of [
+      '/../secret.txt',
+      '/assets/../../secret.txt',
+      '/%2e%2e/secret.txt',
+      '/%2E%2E%2Fsecret.txt',
+      '/assets/%2e%2e/%2e%2e/secret.txt',
+      '/..%5csecret.txt',
+      '/%00/index.html',
+    ]) {
       const res = await rawGet(server.port, path);
       expect(res.status, path).toBeGreaterThanOrEqual(400);
       expect(res.body, path).not.toContain('outside the site');
@@ -220,7 +228,8 @@ describe('the preview server on a built site', () => {
     };
     walk(distDir, '');
     expect(htmlFiles(distDir).length).toBeGreaterThanOrEqual(4);
-    for (const ext of ['.html', '.css', '.js', '.mjs', '.json', '.geojson', '.csv', '.tif', '.png', '.svg', '.bin']) expect(byExt.has(ext), `the built site has a ${ext} file`).toBe(true);
+    for (const ext of ['.html', '.css', '.js', '.mjs', '.json', '.geojson', '.csv', '.tif', '.png', '.svg', '.bin'])
+      expect(byExt.has(ext), `the built site has a ${ext} file`).toBe(true);
     const built = await startPreviewServer({ dir: distDir, port: 0 });
     try {
       for (const [ext, rel] of byExt) {

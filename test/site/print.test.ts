@@ -21,7 +21,9 @@ let buildTime = '';
 beforeAll(async () => {
   const dataDir = (await buildPipelineData()).dataDir;
   const distDir = (await buildTestSite(dataDir)).distDir;
-  regions = (JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> }).features.map((f) => f.properties);
+  regions = (
+    JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')) as { features: Array<{ properties: { id: string; name: string } }> }
+  ).features.map((f) => f.properties);
   buildTime = (JSON.parse(readFileSync(join(dataDir, 'data/manifest.json'), 'utf8')) as { buildTime: string }).buildTime;
   session = await startSiteSession(distDir);
 }, 900_000);
@@ -78,10 +80,12 @@ describe('the printed region report', () => {
     const { page } = await session.open('/regions/sollent-coast/');
     await page.emulateMedia({ media: 'print' });
     expect(await page.isVisible('#print-downloads')).toBe(true);
-    for (const sel of ['#region-files', '#region-layers', 'details.class-tables', '.report-actions', '.site-header nav']) expect(await page.isVisible(sel), sel).toBe(false);
+    for (const sel of ['#region-files', '#region-layers', 'details.class-tables', '.report-actions', '.site-header nav'])
+      expect(await page.isVisible(sel), sel).toBe(false);
     expect(await page.isVisible('#print-other-classes')).toBe(true);
     const line = (await page.textContent('#print-downloads'))!.replace(/\s+/g, ' ');
-    for (const path of ['data/regions/sollent-coast.csv', 'data/data-dictionary.csv', 'regions/sollent-coast/summary/', 'downloads/']) expect(line).toContain(new URL(path, session.baseUrl).href);
+    for (const path of ['data/regions/sollent-coast.csv', 'data/data-dictionary.csv', 'regions/sollent-coast/summary/', 'downloads/'])
+      expect(line).toContain(new URL(path, session.baseUrl).href);
     const p = await print('/regions/sollent-coast/', 'report-downloads');
     const all = p.text.join('\n').replace(/\s+/g, '');
     expect(all).toContain(new URL('data/regions/sollent-coast.csv', session.baseUrl).href);
@@ -92,10 +96,12 @@ describe('the printed region report', () => {
     const { page } = await session.open('/regions/sollent-coast/');
     await page.emulateMedia({ media: 'print' });
     const cells = await page.$$eval('.region-report table th, .region-report table td', (all) =>
-      all.filter((c) => (c as HTMLElement).offsetParent !== null).map((c) => {
-        const s = getComputedStyle(c);
-        return { style: `${s.hyphens}|${s.overflowWrap}|${s.wordBreak}`, text: (c as HTMLElement).innerText };
-      }),
+      all
+        .filter((c) => (c as HTMLElement).offsetParent !== null)
+        .map((c) => {
+          const s = getComputedStyle(c);
+          return { style: `${s.hyphens}|${s.overflowWrap}|${s.wordBreak}`, text: (c as HTMLElement).innerText };
+        }),
     );
     await page.close();
     expect(cells.length).toBeGreaterThan(300);

@@ -37,9 +37,17 @@ beforeAll(() => {
     const ring = (f.geometry as Polygon).coordinates[0];
     const xs = ring.map((c) => c[0]);
     const ys = ring.map((c) => c[1]);
-    return { id: f.properties.id, name: f.properties.name, bbox: [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)], label: labelPoint(f.geometry) };
+    return {
+      id: f.properties.id,
+      name: f.properties.name,
+      bbox: [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)],
+      label: labelPoint(f.geometry),
+    };
   });
-  made = regionPieces(regions, features.map((f) => f.geometry));
+  made = regionPieces(
+    regions,
+    features.map((f) => f.geometry),
+  );
 });
 
 describe('regions in pieces (region-index.ts)', () => {
@@ -93,8 +101,11 @@ describe('the map page region loader (region-loader.ts)', () => {
   it('finds the regions holding a point, or the nearest, as regionsForPoint does on every outline, fetching few area pieces for a point in a region', async () => {
     const shapes = features.map((f) => ({ id: f.properties.id, geometry: f.geometry }));
     let seed = 12345;
-    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
-    const [w, s, e, n] = made.index.areas.reduce((b, a) => [Math.min(b[0], a.bbox[0]), Math.min(b[1], a.bbox[1]), Math.max(b[2], a.bbox[2]), Math.max(b[3], a.bbox[3])], [Infinity, Infinity, -Infinity, -Infinity]);
+    const rnd = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+    const [w, s, e, n] = made.index.areas.reduce(
+      (b, a) => [Math.min(b[0], a.bbox[0]), Math.min(b[1], a.bbox[1]), Math.max(b[2], a.bbox[2]), Math.max(b[3], a.bbox[3])],
+      [Infinity, Infinity, -Infinity, -Infinity],
+    );
     let inside = 0;
     // Points over the regions' extent and up to 3° beyond it, and the label point of every 50th region (inside it).
     const points: Array<[number, number]> = [

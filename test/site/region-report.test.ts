@@ -41,13 +41,23 @@ let manifest: {
 
 /** The region's CSV, read here with a plain split (the tables hold no quoted fields). */
 function csvRows(id: string, scenario?: string): Array<Record<string, string>> {
-  const lines = readFileSync(join(dataDir, 'data', ...(scenario ? ['scenarios', scenario] : []), 'regions', `${id}.csv`), 'utf8').trim().split('\n');
+  const lines = readFileSync(join(dataDir, 'data', ...(scenario ? ['scenarios', scenario] : []), 'regions', `${id}.csv`), 'utf8')
+    .trim()
+    .split('\n');
   const head = lines[0].split(',');
   return lines.slice(1).map((l) => Object.fromEntries(l.split(',').map((v, i) => [head[i], v])));
 }
 
 function csvValue(rows: Array<Record<string, string>>, k: { period: string; figure: string; cls: string; acc: string; exp: string; stat: string }): string {
-  const r = rows.find((x) => x.period === k.period && x.figure === k.figure && x.workload_class === k.cls && x.acclimatization === k.acc && x.exposure === k.exp && x.statistic === k.stat);
+  const r = rows.find(
+    (x) =>
+      x.period === k.period &&
+      x.figure === k.figure &&
+      x.workload_class === k.cls &&
+      x.acclimatization === k.acc &&
+      x.exposure === k.exp &&
+      x.statistic === k.stat,
+  );
   if (!r) throw new Error(`no CSV row for ${JSON.stringify(k)}`);
   return r.value;
 }
@@ -59,7 +69,10 @@ function expectShown(text: string, value: number): void {
 }
 
 /** A table whose header cells carry `data-key` (over one or two header rows) and whose rows start with a row header. */
-async function readKeyedTable(page: Page, selector: string): Promise<{ keys: string[]; rows: Array<{ attrs: Record<string, string>; cells: Array<{ text: string; value: string | null }> }> }> {
+async function readKeyedTable(
+  page: Page,
+  selector: string,
+): Promise<{ keys: string[]; rows: Array<{ attrs: Record<string, string>; cells: Array<{ text: string; value: string | null }> }> }> {
   return page.$eval(selector, (table) => {
     const keys = [...table.querySelectorAll('thead th[data-key]')].map((th) => th.getAttribute('data-key') ?? '');
     const rows = [...table.querySelectorAll('tbody tr')].map((tr) => ({
@@ -85,7 +98,9 @@ afterAll(async () => {
 
 describe('the region report page', () => {
   it('exists for every region of the data folder, titled with the region name', async () => {
-    const regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map((f: { properties: { id: string } }) => f.properties.id);
+    const regions = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map(
+      (f: { properties: { id: string } }) => f.properties.id,
+    );
     const pages = htmlFiles(build.distDir).filter((f) => f.startsWith('regions/'));
     // A report and its one-page summary for a bid file per region.
     expect(pages.sort()).toEqual(regions.flatMap((id: string) => [`regions/${id}/index.html`, `regions/${id}/summary/index.html`]).sort());
@@ -140,7 +155,9 @@ describe('the region report page', () => {
         .sort((a, b) => b.v - a.v)
         .slice(0, 3)
         .map((m) => m.p);
-      expect(await report.page.$$eval(`#worst-months li[data-state="${acc}"] [data-month]`, (els) => els.map((e) => e.getAttribute('data-month')))).toEqual(months);
+      expect(await report.page.$$eval(`#worst-months li[data-state="${acc}"] [data-month]`, (els) => els.map((e) => e.getAttribute('data-month')))).toEqual(
+        months,
+      );
     }
   });
 
@@ -157,7 +174,12 @@ describe('the region report page', () => {
     // People: data/regions/<id>.json workforce.people (the conservation against GDAL is test/run/workforce-build.test.ts).
     expect(Number(await report.page.getAttribute('#workforce-facts tr[data-key="people"] td', 'data-value'))).toBe(summary.workforce.people);
     expectShown((await report.page.textContent('#workforce-facts tr[data-key="people"] td'))!.split(' (')[0], Math.round(summary.workforce.people));
-    const figureOf: Record<string, string> = { above: 'person-hours-above-limit-shift', lost: 'person-hours-lost-shift', fte: 'full-time-equivalents-lost', share: 'outdoor-work-time-lost' };
+    const figureOf: Record<string, string> = {
+      above: 'person-hours-above-limit-shift',
+      lost: 'person-hours-lost-shift',
+      fte: 'full-time-equivalents-lost',
+      share: 'outdoor-work-time-lost',
+    };
     const check = async (selector: string, period: (r: Record<string, string>) => string, cls: (r: Record<string, string>) => string, nRows: number) => {
       const t = await readKeyedTable(report.page, selector);
       expect(t.rows).toHaveLength(nRows);
@@ -171,8 +193,18 @@ describe('the region report page', () => {
         });
       }
     };
-    await check('#workforce-by-class', () => 'year', (a) => a['data-row'], manifest.work.classes.length + 1);
-    await check('#workforce-by-month', (a) => a['data-row'], () => 'all', 13);
+    await check(
+      '#workforce-by-class',
+      () => 'year',
+      (a) => a['data-row'],
+      manifest.work.classes.length + 1,
+    );
+    await check(
+      '#workforce-by-month',
+      (a) => a['data-row'],
+      () => 'all',
+      13,
+    );
     // FTE = person-hours lost / the hours of a year of the shift pattern (Mon–Sat 07–17: 10 h × 6 days × 52 weeks = 3,120 h, by hand).
     const lost = Number(csvValue(rows, { period: 'year', figure: 'person-hours-lost-shift', cls: 'all', acc: 'by-shares', exp: 'by-shares', stat: 'mean' }));
     const fte = Number(csvValue(rows, { period: 'year', figure: 'full-time-equivalents-lost', cls: 'all', acc: 'by-shares', exp: 'by-shares', stat: 'mean' }));
@@ -192,7 +224,10 @@ describe('the region report page', () => {
     const warm = csvRows(REGION, sc);
     const t = await report.page.$eval('#scenario-table', (table) => ({
       columns: [...table.querySelectorAll('thead th[data-column]')].map((th) => th.getAttribute('data-column')),
-      rows: [...table.querySelectorAll('tbody tr')].map((tr) => ({ period: tr.getAttribute('data-period'), values: [...tr.querySelectorAll('td')].map((td) => td.getAttribute('data-value')) })),
+      rows: [...table.querySelectorAll('tbody tr')].map((tr) => ({
+        period: tr.getAttribute('data-period'),
+        values: [...tr.querySelectorAll('td')].map((td) => td.getAttribute('data-value')),
+      })),
     }));
     expect(t.columns).toEqual(['baseline', sc]);
     expect(t.rows.at(-1)!.period).toBe('year');
@@ -214,7 +249,10 @@ describe('the region report page', () => {
     const page = report.page;
     const sc = PIPELINE_DATA_SCENARIO.id;
     expect(await page.isVisible('[data-scenario-switch]')).toBe(true);
-    const visibleColumns = () => page.$$eval('#scenario-table thead th[data-column]', (ths) => ths.filter((th) => (th as HTMLElement).offsetParent !== null).map((th) => th.getAttribute('data-column')));
+    const visibleColumns = () =>
+      page.$$eval('#scenario-table thead th[data-column]', (ths) =>
+        ths.filter((th) => (th as HTMLElement).offsetParent !== null).map((th) => th.getAttribute('data-column')),
+      );
     await page.selectOption('#scenario-choice', sc);
     expect(await visibleColumns()).toEqual(['baseline', sc]);
     expect(await page.getAttribute('#scenarios', 'data-scenario')).toBe(sc);
@@ -253,13 +291,20 @@ describe('the region report page', () => {
     const tiles = decodeHistogramTile(new Uint8Array(readFileSync(join(dataDir, 'data/calculator', `${REGION}.bin`))), index.years.length);
     const edges: number[] = index.bins.edges;
     const nBins = edges.length + 1;
-    const use = index.years.map((y: number, i: number) => [y, i]).filter(([y]: number[]) => y >= index.baseline[0] && y <= index.baseline[1]).map(([, i]: number[]) => i);
+    const use = index.years
+      .map((y: number, i: number) => [y, i])
+      .filter(([y]: number[]) => y >= index.baseline[0] && y <= index.baseline[1])
+      .map(([, i]: number[]) => i);
     /** Median by bisection on the cumulative hours, hours spread evenly in each closed bin. */
     function median(m: number, h: number): number {
       const counts = new Array(nBins).fill(0);
       for (const y of use) for (let b = 0; b < nBins; b++) counts[b] += tiles[y][((m * 24 + h) * 2 + 0) * nBins + b];
       const total = counts.reduce((s, c) => s + c, 0);
-      const cdf = (x: number) => counts.reduce((s, c, b) => (b === 0 || b === nBins - 1 ? s + (b === 0 ? c : 0) : s + c * Math.min(1, Math.max(0, (x - edges[b - 1]) / (edges[b] - edges[b - 1])))), 0);
+      const cdf = (x: number) =>
+        counts.reduce(
+          (s, c, b) => (b === 0 || b === nBins - 1 ? s + (b === 0 ? c : 0) : s + c * Math.min(1, Math.max(0, (x - edges[b - 1]) / (edges[b] - edges[b - 1])))),
+          0,
+        );
       let lo = edges[0];
       let hi = edges[edges.length - 1];
       for (let k = 0; k < 60; k++) {
@@ -269,14 +314,18 @@ describe('the region report page', () => {
       }
       return hi;
     }
-    const shown = await report.page.$$eval('#hour-table tbody tr', (trs) => trs.map((tr) => [...tr.querySelectorAll('td [data-temp-c]')].map((s) => Number(s.getAttribute('data-temp-c')))));
+    const shown = await report.page.$$eval('#hour-table tbody tr', (trs) =>
+      trs.map((tr) => [...tr.querySelectorAll('td [data-temp-c]')].map((s) => Number(s.getAttribute('data-temp-c')))),
+    );
     expect(shown).toHaveLength(24);
     for (let h = 0; h < 24; h++) for (let m = 0; m < 12; m++) expect(shown[h][m]).toBeCloseTo(median(m, h), 2);
   });
 
   it('marks, without JavaScript, the cells above the limit of the default class for acclimatized workers (WBGT + clothing adjustment > 28.21 °C)', async () => {
     const noJs = await session.open(`/regions/${REGION}/`, { javaScript: false });
-    const cells = await noJs.page.$$eval('#hour-table tbody td', (tds) => tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })));
+    const cells = await noJs.page.$$eval('#hour-table tbody td', (tds) =>
+      tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })),
+    );
     const limit = 56.7 - 11.5 * Math.log10(300); // NIOSH REL, docs/methods.md §8.2
     let marked = 0;
     for (const x of cells) {
@@ -303,7 +352,10 @@ describe('the region report page', () => {
     expect(await page.isVisible('svg.heat-map')).toBe(true);
     // Bars are the CSV means: the July bar of acclimatized workers.
     const july = await page.getAttribute('svg.monthly-bars rect[data-series="acclimatized"][data-category="Jul"]', 'data-value');
-    expect(Number(july)).toBeCloseTo(Number(csvValue(csvRows(REGION), { period: '07', figure: 'hours-lost-shift', cls: 'moderate', acc: 'acclimatized', exp: 'sun', stat: 'mean' })), 3);
+    expect(Number(july)).toBeCloseTo(
+      Number(csvValue(csvRows(REGION), { period: '07', figure: 'hours-lost-shift', cls: 'moderate', acc: 'acclimatized', exp: 'sun', stat: 'mean' })),
+      3,
+    );
     expect(noJs.pageErrors).toEqual([]);
   });
 
@@ -311,7 +363,9 @@ describe('the region report page', () => {
     const { page } = report;
     await page.selectOption('[data-mark-control] select', 'high');
     await page.check('[data-mark-control] input[value="unacclimatized"]');
-    const cells = await page.$$eval('#hour-table tbody td', (tds) => tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })));
+    const cells = await page.$$eval('#hour-table tbody td', (tds) =>
+      tds.map((td) => ({ above: td.classList.contains('above'), c: Number(td.querySelector('[data-temp-c]')!.getAttribute('data-temp-c')) })),
+    );
     const limit = 59.9 - 14.1 * Math.log10(415); // NIOSH RAL, docs/methods.md §8.2 (415 W → 22.99 °C)
     for (const x of cells) if (Math.abs(x.c - limit) >= 0.002) expect(x.above).toBe(x.c > limit);
     expect(await page.textContent('[data-mark-label]')).toBe('High work rate, unacclimatized workers');
@@ -322,7 +376,9 @@ describe('the region report page', () => {
 
   it('converts every temperature to °F with the header switch (°F = °C × 9/5 + 32), the SVG legends included', async () => {
     const page = (await session.open(`/regions/${REGION}/?units=F`)).page;
-    const spans = await page.$$eval('[data-temp-c]', (els) => els.map((e) => [e.getAttribute('data-temp-c'), e.getAttribute('data-digits'), (e.textContent ?? '').trim()]));
+    const spans = await page.$$eval('[data-temp-c]', (els) =>
+      els.map((e) => [e.getAttribute('data-temp-c'), e.getAttribute('data-digits'), (e.textContent ?? '').trim()]),
+    );
     expect(spans.length).toBeGreaterThan(300);
     for (const [c, digits, shownText] of spans) {
       if (c === 'NaN') continue;
@@ -340,16 +396,26 @@ describe('the region report page', () => {
     expect(Number(await page.getAttribute('#niche-values tr[data-key="baseline"] [data-temp-c]', 'data-temp-c'))).toBeCloseTo(detail.niche.baselineMat, 3);
     expect(Number(await page.getAttribute('#niche-values tr[data-key="latest"] [data-temp-c]', 'data-temp-c'))).toBeCloseTo(detail.niche.latestMat, 3);
     // The class name follows the °C/°F switch; in °C it is the summary's label.
-    expect(await page.getAttribute('#niche-values tr[data-key="baseline"] [data-temp-text]', 'data-temp-text')).toBe(detail.niche.labels[detail.niche.baselineClass]);
+    expect(await page.getAttribute('#niche-values tr[data-key="baseline"] [data-temp-text]', 'data-temp-text')).toBe(
+      detail.niche.labels[detail.niche.baselineClass],
+    );
     expect(Number(await page.getAttribute('svg.niche-strip [data-marker="baseline"]', 'data-value'))).toBeCloseTo(detail.niche.baselineMat, 3);
     expect(await page.textContent('#niche-caveat')).toContain('not a value at a point');
     const bands = await page.$$eval('svg.niche-strip .bands rect', (rs) => rs.map((r) => [r.getAttribute('data-band'), Number(r.getAttribute('data-from'))]));
-    expect(bands.filter(([, from]) => [11, 15, 20, 25, 29].includes(from as number)).map(([b]) => b)).toEqual(['core', 'margin', 'second', 'margin', 'outside']);
+    expect(bands.filter(([, from]) => [11, 15, 20, 25, 29].includes(from as number)).map(([b]) => b)).toEqual([
+      'core',
+      'margin',
+      'second',
+      'margin',
+      'outside',
+    ]);
   });
 
   it('offers the region CSV and the annual GeoTIFF layers, each link served with the size the page states', async () => {
     const { page } = report;
-    const links = await page.$$eval('#downloads tbody tr', (trs) => trs.map((tr) => [tr.querySelector('a')!.getAttribute('href')!, Number(tr.querySelector('[data-bytes]')!.getAttribute('data-bytes'))] as const));
+    const links = await page.$$eval('#downloads tbody tr', (trs) =>
+      trs.map((tr) => [tr.querySelector('a')!.getAttribute('href')!, Number(tr.querySelector('[data-bytes]')!.getAttribute('data-bytes'))] as const),
+    );
     const hrefs = links.map(([h]) => h);
     expect(hrefs).toContain(`/data/regions/${REGION}.csv`);
     const tifs = hrefs.filter((h) => h.endsWith('.tif'));
@@ -387,10 +453,12 @@ describe('the region report page', () => {
   it('prints cleanly: no navigation, switches or controls; the default class, the charts, the hour table and a source line with full addresses kept (pages and words: print.test.ts)', async () => {
     const page = (await session.open(`/regions/${REGION}/`)).page;
     await page.emulateMedia({ media: 'print' });
-    for (const sel of ['.site-header nav', '.unit-switch', '.report-actions', '[data-mark-control]', '.site-footer']) expect(await page.isVisible(sel), sel).toBe(false);
+    for (const sel of ['.site-header nav', '.unit-switch', '.report-actions', '[data-mark-control]', '.site-footer'])
+      expect(await page.isVisible(sel), sel).toBe(false);
     expect(await page.isVisible('#print-source')).toBe(true);
     expect(await page.textContent('[data-page-url]')).toBe(new URL(`regions/${REGION}/`, session.baseUrl).href);
-    for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges']) expect(await page.isVisible(sel), sel).toBe(true);
+    for (const sel of ['svg.monthly-bars', 'svg.heat-map', 'svg.niche-strip', '#monthly-moderate-sun', '#hour-table', '#hour-ranges'])
+      expect(await page.isVisible(sel), sel).toBe(true);
     expect(await page.isVisible('#monthly-high-sun')).toBe(false);
     expect(await page.$eval('#hour-table', (t) => getComputedStyle(t).breakInside)).toBe('avoid');
     // The workforce view is left to the web page (the four printed pages are full); the printed note says so.

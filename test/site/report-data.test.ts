@@ -49,10 +49,22 @@ function copy(): string {
 describe('reading what the pipeline published', () => {
   it('reads a region table row for row, and the filtered and tail reads keep exactly the rows they ask for', () => {
     const all = loadRegionTable(REGION, work);
-    const lines = readFileSync(join(work, 'data/regions', `${REGION}.csv`), 'utf8').trim().split('\n');
+    const lines = readFileSync(join(work, 'data/regions', `${REGION}.csv`), 'utf8')
+      .trim()
+      .split('\n');
     expect(all).toHaveLength(lines.length - 1);
     const f = lines[1].split(',');
-    expect(all[0]).toMatchObject({ period: f[1], figure: f[2], workloadClass: f[3], acclimatization: f[4], exposure: f[5], statistic: f[7], value: Number(f[8]), yearsUsed: Number(f[10]), baseline: f[11] });
+    expect(all[0]).toMatchObject({
+      period: f[1],
+      figure: f[2],
+      workloadClass: f[3],
+      acclimatization: f[4],
+      exposure: f[5],
+      statistic: f[7],
+      value: Number(f[8]),
+      yearsUsed: Number(f[10]),
+      baseline: f[11],
+    });
     const keep = (p: string, fig: string, s: string) => fig === 'hours-lost-shift' && s === 'p90' && p !== '03';
     expect(loadRegionTable(REGION, work, keep)).toEqual(all.filter((r) => keep(r.period, r.figure, r.statistic)));
     const yearKeep = (_p: string, fig: string, s: string) => fig === 'hours-lost-shift' && s === 'mean';
@@ -74,14 +86,26 @@ describe('reading what the pipeline published', () => {
       }
     }
     const shade = loadPooledHistograms(REGION, work, index, 'shade');
-    expect(shade.counts[12 * HIST_LEN + 100]).toBeCloseTo(use.reduce((s, [, i]) => s + tiles[i][(12 * 2 + 1) * HIST_LEN + 100], 0), 9);
+    expect(shade.counts[12 * HIST_LEN + 100]).toBeCloseTo(
+      use.reduce((s, [, i]) => s + tiles[i][(12 * 2 + 1) * HIST_LEN + 100], 0),
+      9,
+    );
   });
 
   it('assembles a report from the manifest, the table, the summary and the tile', () => {
     const r = loadRegionReport(REGION, work);
     expect(r.name).toBe(JSON.parse(readFileSync(join(work, 'data/regions', `${REGION}.json`), 'utf8')).name);
     expect(r.manifest.work.classes.map((c) => c.id)).toEqual(['low', 'moderate', 'high', 'very-high']);
-    expect(r.figures.get({ figure: 'hours-lost-shift', period: 'year', workloadClass: 'moderate', acclimatization: 'acclimatized', exposure: 'sun', statistic: 'mean' })).toBeGreaterThan(0);
+    expect(
+      r.figures.get({
+        figure: 'hours-lost-shift',
+        period: 'year',
+        workloadClass: 'moderate',
+        acclimatization: 'acclimatized',
+        exposure: 'sun',
+        statistic: 'mean',
+      }),
+    ).toBeGreaterThan(0);
     expect(r.matrix.values.every((v) => Number.isFinite(v))).toBe(true);
   });
 
@@ -111,7 +135,14 @@ describe('reading what the pipeline published', () => {
     }
     expect(compared).toBe(2 * 13 * r.manifest.work.classes.length * r.manifest.work.acclimatization.length * r.manifest.work.exposures.length * 2);
     // The trend rows are the report's alone.
-    const trendKey = { figure: 'hours-lost-shift', period: 'year', workloadClass: 'moderate', acclimatization: 'acclimatized', exposure: 'sun', statistic: 'trend' };
+    const trendKey = {
+      figure: 'hours-lost-shift',
+      period: 'year',
+      workloadClass: 'moderate',
+      acclimatization: 'acclimatized',
+      exposure: 'sun',
+      statistic: 'trend',
+    };
     expect(r.figures.has(trendKey)).toBe(true);
     expect(s.figures.has(trendKey)).toBe(false);
   });
@@ -214,7 +245,10 @@ describe('bad data files are catalogued errors naming the file and where', () =>
     const d = JSON.parse(readFileSync(file, 'utf8'));
     expect(d.workforce.people, 'the test atlas weights by a workforce raster').toBeGreaterThan(0);
     writeFileSync(file, JSON.stringify({ ...d, workforce: { ...d.workforce, people: -1 } }));
-    expect(expectCatalogued(() => loadRegionDetail(REGION, dir), 'SiteDataInvalid', /workforce\.people/).where).toMatchObject({ file, key: 'workforce.people' });
+    expect(expectCatalogued(() => loadRegionDetail(REGION, dir), 'SiteDataInvalid', /workforce\.people/).where).toMatchObject({
+      file,
+      key: 'workforce.people',
+    });
     const mf = join(dir, 'data/manifest.json');
     const m = JSON.parse(readFileSync(mf, 'utf8'));
     delete m.workforce.licence;

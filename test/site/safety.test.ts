@@ -94,7 +94,8 @@ describe('every built page', () => {
         for (const [name, value] of tagAttributes(tag)) {
           expect(name, `${rel}: ${tag}`).not.toBe('style');
           expect(name.startsWith('on'), `${rel}: ${tag}`).toBe(false);
-          if (['src', 'href', 'action', 'srcset', 'poster', 'data'].includes(name)) expect(value, `${rel}: ${tag}`).not.toMatch(/^\s*((https?|ftp|wss?):)?\/\//i);
+          if (['src', 'href', 'action', 'srcset', 'poster', 'data'].includes(name))
+            expect(value, `${rel}: ${tag}`).not.toMatch(/^\s*((https?|ftp|wss?):)?\/\//i);
         }
       }
     }

@@ -84,7 +84,9 @@ describe('a site built for /sub/atlas/', () => {
     session.context.on('requestfailed', (r) => failed.push(`failed ${r.url()}`));
     const home = (await session.open(`${BASE}`)).page;
     expect(await home.textContent('h1')).toContain('Site test atlas');
-    const links = await home.$$eval('a[href]', (as) => as.map((a) => new URL(a.getAttribute('href') ?? '', location.href).href).filter((h) => h.startsWith(location.origin)));
+    const links = await home.$$eval('a[href]', (as) =>
+      as.map((a) => new URL(a.getAttribute('href') ?? '', location.href).href).filter((h) => h.startsWith(location.origin)),
+    );
     expect(links.length).toBeGreaterThan(10);
     for (const l of new Set(links.map((h) => h.split('#')[0]))) {
       const status = (await fetch(l, { method: 'HEAD' })).status;

@@ -25,14 +25,15 @@ function zoneinfoOffsets(): Record<string, [number, number]> {
   return JSON.parse(execFileSync('/usr/bin/python3', ['-c', code, JSON.stringify(ZONES)], { encoding: 'utf8' })) as Record<string, [number, number]>;
 }
 
-const shown = (minutes: number) => `UTC${minutes < 0 ? '\u2212' : '+'}${String(Math.floor(Math.abs(minutes) / 60)).padStart(2, '0')}:${String(Math.abs(minutes) % 60).padStart(2, '0')}`;
+const shown = (minutes: number) =>
+  `UTC${minutes < 0 ? '\u2212' : '+'}${String(Math.floor(Math.abs(minutes) / 60)).padStart(2, '0')}:${String(Math.abs(minutes) % 60).padStart(2, '0')}`;
 
 describe('time zones in words', () => {
   it('Etc/GMT+10, which readers take for UTC+10, is shown as UTC−10:00 with its name beside', () => {
     expect(formatTimeZone('Etc/GMT+10', 2024)).toBe('UTC\u221210:00 (Etc/GMT+10)');
   });
 
-  it('every offset equals Python zoneinfo\'s for 1 January and 1 July, and a zone with daylight saving shows both', () => {
+  it("every offset equals Python zoneinfo's for 1 January and 1 July, and a zone with daylight saving shows both", () => {
     const want = zoneinfoOffsets();
     for (const z of ZONES) {
       const [jan, jul] = want[z];

@@ -40,10 +40,22 @@ interface Shown {
 async function shown(page: Page): Promise<Shown> {
   return page.evaluate(() => ({
     units: document.documentElement.dataset.units,
-    pressed: Object.fromEntries([...document.querySelectorAll('[data-unit-choice]')].map((b) => [b.getAttribute('data-unit-choice'), b.getAttribute('aria-pressed')])),
+    pressed: Object.fromEntries(
+      [...document.querySelectorAll('[data-unit-choice]')].map((b) => [b.getAttribute('data-unit-choice'), b.getAttribute('aria-pressed')]),
+    ),
     hidden: [...document.querySelectorAll<HTMLButtonElement>('[data-unit-choice]')].map((b) => b.hidden),
-    temps: [...document.querySelectorAll<HTMLElement>('[data-temp-c]')].map((e) => ({ c: Number(e.dataset.tempC), digits: Number(e.dataset.digits ?? 1), signed: e.hasAttribute('data-temp-signed'), text: e.textContent ?? '' })),
-    deltas: [...document.querySelectorAll<HTMLElement>('[data-temp-delta-c]')].map((e) => ({ c: Number(e.dataset.tempDeltaC), digits: Number(e.dataset.digits ?? 1), plus: e.dataset.deltaSign !== 'none', text: e.textContent ?? '' })),
+    temps: [...document.querySelectorAll<HTMLElement>('[data-temp-c]')].map((e) => ({
+      c: Number(e.dataset.tempC),
+      digits: Number(e.dataset.digits ?? 1),
+      signed: e.hasAttribute('data-temp-signed'),
+      text: e.textContent ?? '',
+    })),
+    deltas: [...document.querySelectorAll<HTMLElement>('[data-temp-delta-c]')].map((e) => ({
+      c: Number(e.dataset.tempDeltaC),
+      digits: Number(e.dataset.digits ?? 1),
+      plus: e.dataset.deltaSign !== 'none',
+      text: e.textContent ?? '',
+    })),
     labels: [...document.querySelectorAll('[data-unit-label]')].map((e) => e.textContent ?? ''),
   }));
 }
@@ -83,7 +95,9 @@ describe('the °C/°F switch', () => {
     const { page } = await session.open('/methods/');
     await page.evaluate(() => {
       (globalThis as unknown as { __units: string[] }).__units = [];
-      document.addEventListener('heathours:units', (e) => (globalThis as unknown as { __units: string[] }).__units.push((e as CustomEvent<{ unit: string }>).detail.unit));
+      document.addEventListener('heathours:units', (e) =>
+        (globalThis as unknown as { __units: string[] }).__units.push((e as CustomEvent<{ unit: string }>).detail.unit),
+      );
     });
     const before = await shown(page);
     await page.click('[data-unit-choice="F"]');
@@ -197,9 +211,11 @@ describe('every temperature follows the switch', () => {
     expect(formatTemperatureList([11, 15, 20, 25, 29], 'F')).toBe('51.8, 59, 68, 77 or 84.2 °F');
   });
 
-  it('a page shown in °F keeps no °C text outside what names a file\'s or a published formula\'s unit, on every page but the calculator', async () => {
+  it("a page shown in °F keeps no °C text outside what names a file's or a published formula's unit, on every page but the calculator", async () => {
     const left: string[] = [];
-    const pages = htmlFiles(build.distDir).map((f) => `/${f.replace(/index\.html$/, '')}`).filter((p) => p !== '/estimate/');
+    const pages = htmlFiles(build.distDir)
+      .map((f) => `/${f.replace(/index\.html$/, '')}`)
+      .filter((p) => p !== '/estimate/');
     for (const path of pages) {
       const { page } = await session.open(`${path}?units=F`);
       if (path === '/map/') await page.waitForSelector('#explorer-map[data-map-state="idle"]', { timeout: 30_000 });
@@ -213,7 +229,10 @@ describe('every temperature follows the switch', () => {
 
   it('the region report in °F: niche classes, the caveat (its words in °C exactly those of the pipeline) and the limit marks convert', async () => {
     const { page } = await session.open('/regions/sollent-coast/?units=C');
-    const caveatC = (await page.textContent('#niche-caveat'))!.replace(/^\s*Caveat\.\s*/, '').replace(/\s+/g, ' ').trim();
+    const caveatC = (await page.textContent('#niche-caveat'))!
+      .replace(/^\s*Caveat\.\s*/, '')
+      .replace(/\s+/g, ' ')
+      .trim();
     expect(caveatC).toBe(NICHE_CAVEAT);
     await page.click('[data-unit-choice="F"]');
     const caveatF = (await page.textContent('#niche-caveat'))!;
@@ -236,4 +255,3 @@ describe('every temperature follows the switch', () => {
     await page.close();
   });
 });
-

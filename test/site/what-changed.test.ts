@@ -30,21 +30,40 @@ function facts(dataDir: string, transform: (csv: string) => string = (c) => c): 
   for (const f of readdirSync(join(dataDir, 'data/regions')).filter((f) => f.endsWith('.csv'))) {
     tables.set(f.replace(/\.csv$/, ''), transform(readFileSync(join(dataDir, 'data/regions', f), 'utf8')));
   }
-  return { buildTime: m.buildTime, codeVersion: m.codeVersion, configDigest: m.configDigest, years: m.years, baseline: m.baseline, inputs: m.inputs, regionTables: tablesInMemory(tables), regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])) };
+  return {
+    buildTime: m.buildTime,
+    codeVersion: m.codeVersion,
+    configDigest: m.configDigest,
+    years: m.years,
+    baseline: m.baseline,
+    inputs: m.inputs,
+    regionTables: tablesInMemory(tables),
+    regionNames: new Map(gj.features.map((f) => [f.properties.id, f.properties.name])),
+  };
 }
 
 beforeAll(async () => {
   const pd = await buildPipelineData();
   firstHtml = readFileSync(join((await buildTestSite(pd.dataDir)).distDir, 'index.html'), 'utf8');
-  classNames = new Map((JSON.parse(readFileSync(join(pd.dataDir, 'data/manifest.json'), 'utf8')).work.classes as Array<{ id: string; name: string }>).map((c) => [c.id, c.name]));
+  classNames = new Map(
+    (JSON.parse(readFileSync(join(pd.dataDir, 'data/manifest.json'), 'utf8')).work.classes as Array<{ id: string; name: string }>).map((c) => [c.id, c.name]),
+  );
   const next = facts(pd.dataDir);
   const lowered = (csv: string) =>
-    csv.split('\n').map((line) => {
-      const c = line.split(',');
-      if (c[1] === 'year' && c[9] === 'h' && c[8] !== '') c[8] = String(Math.round(Number(c[8]) * 0.9 * 100) / 100);
-      return c.join(',');
-    }).join('\n');
-  const prev = { ...facts(pd.dataDir, lowered), years: [2021, 2022] as [number, number], inputs: next.inputs.filter((f) => f.name !== 'era5-demo-2023.nc'), buildTime: '2025-06-01T00:00:00.000Z' };
+    csv
+      .split('\n')
+      .map((line) => {
+        const c = line.split(',');
+        if (c[1] === 'year' && c[9] === 'h' && c[8] !== '') c[8] = String(Math.round(Number(c[8]) * 0.9 * 100) / 100);
+        return c.join(',');
+      })
+      .join('\n');
+  const prev = {
+    ...facts(pd.dataDir, lowered),
+    years: [2021, 2022] as [number, number],
+    inputs: next.inputs.filter((f) => f.name !== 'era5-demo-2023.nc'),
+    buildTime: '2025-06-01T00:00:00.000Z',
+  };
   changes = compareBuilds(prev, next);
   same = compareBuilds({ ...next, buildTime: '2025-06-01T00:00:00.000Z' }, next);
   const dir = mkdtempSync(join(tmpdir(), 'hh-changes-'));
@@ -54,7 +73,16 @@ beforeAll(async () => {
 }, 900_000);
 
 /** The text of an HTML fragment: tags dropped, entities of Astro's escaping decoded, spaces folded. */
-const text = (html: string) => html.replace(/<[^>]+>/g, ' ').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&amp;/g, '&').replace(/\s+/g, ' ').trim();
+const text = (html: string) =>
+  html
+    .replace(/<[^>]+>/g, ' ')
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;/g, "'")
+    .replace(/&amp;/g, '&')
+    .replace(/\s+/g, ' ')
+    .trim();
 
 describe('what changed since the previous build, on the home page', () => {
   it('a first build says there is nothing to compare with yet', () => {
@@ -77,7 +105,11 @@ describe('what changed since the previous build, on the home page', () => {
   it('lists the largest moves of the normals in words, in the order compareBuilds gives: no raw figure or class id, honest P90 labels', () => {
     const section = updatedHtml.slice(updatedHtml.indexOf('id="change-normals"'));
     const table = section.slice(0, section.indexOf('</table>'));
-    const rows = [...table.matchAll(/<tr data-figure="([^"]+)" data-statistic="([^"]+)">(.*?)<\/tr>/g)].map((m) => ({ figure: m[1], statistic: m[2], cells: [...m[3].matchAll(/<td[^>]*>(.*?)<\/td>/g)].map((c) => text(c[1])) }));
+    const rows = [...table.matchAll(/<tr data-figure="([^"]+)" data-statistic="([^"]+)">(.*?)<\/tr>/g)].map((m) => ({
+      figure: m[1],
+      statistic: m[2],
+      cells: [...m[3].matchAll(/<td[^>]*>(.*?)<\/td>/g)].map((c) => text(c[1])),
+    }));
     expect(rows.length).toBe(changes.normals.moves.length);
     rows.forEach((r, i) => {
       const m = changes.normals.moves[i];
@@ -97,7 +129,7 @@ describe('what changed since the previous build, on the home page', () => {
     expect(updatedHtml.slice(updatedHtml.indexOf('id="what-changed"'))).not.toContain('<script>alert(2)</script>');
   });
 
-  it('keeps the latest year apart: its moves are folded and called one year\'s weather', () => {
+  it("keeps the latest year apart: its moves are folded and called one year's weather", () => {
     const section = updatedHtml.slice(updatedHtml.indexOf('id="changes-latest"'));
     expect(changes.latest.length).toBeGreaterThan(0);
     expect(changes.latest.every((m) => m.statistic === 'latest')).toBe(true);
@@ -112,6 +144,8 @@ describe('what changed since the previous build, on the home page', () => {
     const moved = { ...same, baselineChanged: true, previous: { ...same.previous!, baseline: [2020, 2021] as [number, number] } };
     expect(baselineWords(moved, [2021, 2022])).toBe('The baseline changed from 2020–2021 to 2021–2022, so every normal was recomputed.');
     const code = { ...changes, codeChanged: true, inputs: { ...changes.inputs, changed: ['a.nc'] } };
-    expect(baselineWords(code, [2021, 2022])).toBe('The baseline (2021–2022) is unchanged; the normals moved because input files changed, the heathours version changed.');
+    expect(baselineWords(code, [2021, 2022])).toBe(
+      'The baseline (2021–2022) is unchanged; the normals moved because input files changed, the heathours version changed.',
+    );
   });
 });

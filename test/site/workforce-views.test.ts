@@ -57,7 +57,9 @@ describe('the workforce views of the site', () => {
 
   it('every region summary has workforce.people, and the people of the regions that do not overlap sum to at most the people on land', () => {
     const manifest = loadManifest(dataDir);
-    const ids = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map((f: { properties: { id: string } }) => f.properties.id) as string[];
+    const ids = JSON.parse(readFileSync(join(dataDir, 'data/regions.geojson'), 'utf8')).features.map(
+      (f: { properties: { id: string } }) => f.properties.id,
+    ) as string[];
     let districts = 0;
     for (const id of ids) {
       const d = loadRegionDetail(id, dataDir);
@@ -118,11 +120,14 @@ describe('the workforce views of the site', () => {
     }
   });
 
-  it("the downloads page (person-hours layers) and the methods page (licence of the data) name the raster with its year and licence, marked invented", async () => {
+  it('the downloads page (person-hours layers) and the methods page (licence of the data) name the raster with its year and licence, marked invented', async () => {
     const { distDir } = await buildTestSite(dataDir);
     const text = (html: string, id: string) => {
       const m = new RegExp(`<p[^>]*id="${id}"[^>]*>([\\s\\S]*?)</p>`).exec(html);
-      return (m?.[1] ?? '').replace(/<[^>]+>/g, '').replace(/\s+/g, ' ').trim();
+      return (m?.[1] ?? '')
+        .replace(/<[^>]+>/g, '')
+        .replace(/\s+/g, ' ')
+        .trim();
     };
     const want = `Invented people. ${workforceSourceLine({ ...PIPELINE_DATA_WORKFORCE, invented: true })}`;
     expect(text(readFileSync(join(distDir, 'downloads/index.html'), 'utf8'), 'layers-workforce-source')).toBe(want);

@@ -1,11 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  dunne2013Loss,
-  dunne2013LossInto,
-  kjellstrom2018Loss,
-  kjellstrom2018LossInto,
-  type KjellstromIntensity,
-} from '../../pipeline/work/capacity-loss.ts';
+import { dunne2013Loss, dunne2013LossInto, kjellstrom2018Loss, kjellstrom2018LossInto, type KjellstromIntensity } from '../../pipeline/work/capacity-loss.ts';
 import { expectWorkError } from './helpers.ts';
 
 describe('capacity-loss functions', () => {

@@ -54,7 +54,9 @@ describe('histogram estimate of hours above the limit and hours lost', () => {
     expect(WBGT_BIN_EDGES[0]).toBe(WBGT_BIN_LOWER);
     expect(WBGT_BIN_EDGES[160]).toBe(WBGT_BIN_UPPER);
     expect(WBGT_HISTOGRAM_LENGTH).toBe(162);
-    expect([wbgtBinIndex(4.99), wbgtBinIndex(5), wbgtBinIndex(5.24), wbgtBinIndex(5.25), wbgtBinIndex(44.99), wbgtBinIndex(45), wbgtBinIndex(NaN)]).toEqual([0, 1, 1, 2, 160, 161, -1]);
+    expect([wbgtBinIndex(4.99), wbgtBinIndex(5), wbgtBinIndex(5.24), wbgtBinIndex(5.25), wbgtBinIndex(44.99), wbgtBinIndex(45), wbgtBinIndex(NaN)]).toEqual([
+      0, 1, 1, 2, 160, 161, -1,
+    ]);
   });
 
   it('on an invented 5-year hourly series, month by month, the histogram answer is within 1 % of the hours of the direct hourly computation, for 4 classes × 2 acclimatization × 2 models × 3 clothing values', () => {

@@ -10,7 +10,9 @@ describe('pipeline/work is pure and isomorphic', () => {
   it('no file under pipeline/work imports node: modules or uses process, fs, Buffer or require', () => {
     expect(files.length).toBeGreaterThan(10);
     for (const f of files) {
-      const code = readFileSync(new URL(f, dir), 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+      const code = readFileSync(new URL(f, dir), 'utf8')
+        .replace(/\/\*[\s\S]*?\*\//g, '')
+        .replace(/\/\/.*$/gm, '');
       expect(code, f).not.toMatch(/from\s+['"]node:|from\s+['"](fs|path|os|url|worker_threads)['"]|\bprocess\.|\bBuffer\b|\brequire\(/);
       for (const m of code.matchAll(/from\s+['"]([^'"]+)['"]/g)) {
         const spec = m[1];

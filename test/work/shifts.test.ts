@@ -17,7 +17,10 @@ describe('local hours and work shifts', () => {
     for (const r of rows) byZone.set(r.zone, [...(byZone.get(r.zone) ?? []), r]);
     expect(byZone.size).toBe(10);
     for (const [zone, rs] of byZone) {
-      const out = localHours(rs.map((r) => Number(r.end_utc_ms)), zone);
+      const out = localHours(
+        rs.map((r) => Number(r.end_utc_ms)),
+        zone,
+      );
       rs.forEach((r, i) => {
         const got = [out.year[i], out.month[i], out.day[i], out.hour[i], out.weekday[i]];
         const want = [r.year, r.month, r.day, r.hour, r.weekday_iso].map(Number);

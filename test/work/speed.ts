@@ -66,7 +66,9 @@ for (const restLocation of ['same-place', 'shade'] as const) {
   }
   let checksum = 0;
   for (const o of outs) for (let i = 0; i < n; i++) checksum += o[i] + (o[i] < 1 ? 1 : 0);
-  console.log(`${`all ${r.evaluations.length} evaluations, rest ${restLocation}, per cell-hour`.padEnd(58)} ${((bestMs * 1e6) / n).toFixed(2).padStart(8)} ns/cell-hour  n=${n}  checksum=${checksum.toFixed(3)}`);
+  console.log(
+    `${`all ${r.evaluations.length} evaluations, rest ${restLocation}, per cell-hour`.padEnd(58)} ${((bestMs * 1e6) / n).toFixed(2).padStart(8)} ns/cell-hour  n=${n}  checksum=${checksum.toFixed(3)}`,
+  );
 }
 
 const hours = Float64Array.from({ length: 50_000 }, (_, i) => Date.UTC(2001, 0, 1) + (i + 1) * 3_600_000);
@@ -74,5 +76,9 @@ for (const zone of ['America/Chicago', 'Asia/Kolkata']) {
   const t0 = performance.now();
   const first = localHours(hours, zone);
   const firstMs = performance.now() - t0;
-  best(`localHours ${zone} (first call incl. offset table: ${firstMs.toFixed(1)} ms)`, hours.length, () => sum(localHours(hours, zone).inShift) + sum(first.hour));
+  best(
+    `localHours ${zone} (first call incl. offset table: ${firstMs.toFixed(1)} ms)`,
+    hours.length,
+    () => sum(localHours(hours, zone).inShift) + sum(first.hour),
+  );
 }

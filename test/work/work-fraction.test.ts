@@ -31,7 +31,11 @@ describe('allowable work fraction', () => {
 
   it('the limiting rate M_lim = 10^((56.7 − WBGT)/11.5) is 313.1 / 231.9 / 171.7 W at 28 / 29.5 / 31 °C (docs/methods.md §8.6)', () => {
     const k = heavy('acclimatized');
-    for (const [w, mlim] of [[28, 313.1], [29.5, 231.9], [31, 171.7]]) {
+    for (const [w, mlim] of [
+      [28, 313.1],
+      [29.5, 231.9],
+      [31, 171.7],
+    ]) {
       const f = allowableWorkFraction(w, null, k);
       expect(115 + f * 300).toBeCloseTo(mlim, 1);
       expect(limitCurve2017(mlim, 'acclimatized')).toBeCloseTo(w, 2);
@@ -53,23 +57,33 @@ describe('allowable work fraction', () => {
 
   it('the same-place fraction satisfies the time-weighted limit equation exactly where 0 < f < 1 (docs/methods.md §8.6)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 15, max: 40, noNaN: true }), fc.constantFrom(180, 300, 415, 520), fc.constantFrom<LimitChoice['acclimatization']>('acclimatized', 'unacclimatized'), (w, m, acc) => {
-        const k = prepareWorkKernel({ workRate: m, restRate: 115, limit: { model: 'curve-2017', acclimatization: acc } });
-        const f = allowableWorkFraction(w, null, k);
-        if (f > 0 && f < 1) expect(Math.abs(limitCurve2017(f * m + (1 - f) * 115, acc) - w)).toBeLessThan(1e-9);
-      }),
+      fc.property(
+        fc.double({ min: 15, max: 40, noNaN: true }),
+        fc.constantFrom(180, 300, 415, 520),
+        fc.constantFrom<LimitChoice['acclimatization']>('acclimatized', 'unacclimatized'),
+        (w, m, acc) => {
+          const k = prepareWorkKernel({ workRate: m, restRate: 115, limit: { model: 'curve-2017', acclimatization: acc } });
+          const f = allowableWorkFraction(w, null, k);
+          if (f > 0 && f < 1) expect(Math.abs(limitCurve2017(f * m + (1 - f) * 115, acc) - w)).toBeLessThan(1e-9);
+        },
+      ),
     );
   });
 
   it('the table-1989 fraction satisfies f·W_w + (1 − f)·W_r = L(f·M_w + (1 − f)·M_r) where 0 < f < 1', () => {
     const limit: LimitChoice = { model: 'table-1989', acclimatization: 'unacclimatized', airMovement: true };
     fc.assert(
-      fc.property(fc.double({ min: 15, max: 40, noNaN: true }), fc.double({ min: 10, max: 40, noNaN: true }), fc.constantFrom(180, 300, 415, 520, 650), (w, r0, m) => {
-        const k = prepareWorkKernel({ workRate: m, restRate: 115, limit });
-        const r = Math.min(r0, w);
-        const f = allowableWorkFraction(w, r0, k);
-        if (f > 0 && f < 1) expect(Math.abs(f * w + (1 - f) * r - limitWbgt(f * m + (1 - f) * 115, limit))).toBeLessThan(1e-9);
-      }),
+      fc.property(
+        fc.double({ min: 15, max: 40, noNaN: true }),
+        fc.double({ min: 10, max: 40, noNaN: true }),
+        fc.constantFrom(180, 300, 415, 520, 650),
+        (w, r0, m) => {
+          const k = prepareWorkKernel({ workRate: m, restRate: 115, limit });
+          const r = Math.min(r0, w);
+          const f = allowableWorkFraction(w, r0, k);
+          if (f > 0 && f < 1) expect(Math.abs(f * w + (1 - f) * r - limitWbgt(f * m + (1 - f) * 115, limit))).toBeLessThan(1e-9);
+        },
+      ),
     );
   });
 
@@ -111,13 +125,18 @@ describe('allowable work fraction', () => {
 
   it('the fraction falls as WBGT rises, and resting somewhere cooler never lowers it (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 20, max: 40, noNaN: true }), fc.double({ min: 0, max: 3, noNaN: true }), fc.double({ min: 0, max: 8, noNaN: true }), (w, dw, cooler) => {
-        for (const model of ['curve-2017', 'table-1989'] as const) {
-          const k = prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model, acclimatization: 'acclimatized' } });
-          expect(allowableWorkFraction(w + dw, null, k)).toBeLessThanOrEqual(allowableWorkFraction(w, null, k) + 1e-12);
-          expect(allowableWorkFraction(w, w - cooler, k)).toBeGreaterThanOrEqual(allowableWorkFraction(w, null, k) - 1e-12);
-        }
-      }),
+      fc.property(
+        fc.double({ min: 20, max: 40, noNaN: true }),
+        fc.double({ min: 0, max: 3, noNaN: true }),
+        fc.double({ min: 0, max: 8, noNaN: true }),
+        (w, dw, cooler) => {
+          for (const model of ['curve-2017', 'table-1989'] as const) {
+            const k = prepareWorkKernel({ workRate: 415, restRate: 115, limit: { model, acclimatization: 'acclimatized' } });
+            expect(allowableWorkFraction(w + dw, null, k)).toBeLessThanOrEqual(allowableWorkFraction(w, null, k) + 1e-12);
+            expect(allowableWorkFraction(w, w - cooler, k)).toBeGreaterThanOrEqual(allowableWorkFraction(w, null, k) - 1e-12);
+          }
+        },
+      ),
     );
   });
 
@@ -127,8 +146,14 @@ describe('allowable work fraction', () => {
   });
 
   it('the clothing adjustment is added to the WBGT: CAV 2 at 27 °C equals bare 29 °C (docs/methods.md §8.4)', () => {
-    expect(allowableWorkFraction(27, null, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(allowableWorkFraction(29, null, heavy('acclimatized')), 12);
-    expect(allowableWorkFraction(27, 24, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(allowableWorkFraction(29, 26, heavy('acclimatized')), 9);
+    expect(allowableWorkFraction(27, null, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(
+      allowableWorkFraction(29, null, heavy('acclimatized')),
+      12,
+    );
+    expect(allowableWorkFraction(27, 24, heavy('acclimatized', { clothingAdjustment: 2 }))).toBeCloseTo(
+      allowableWorkFraction(29, 26, heavy('acclimatized')),
+      9,
+    );
   });
 
   it('workFractionInto and aboveLimitInto agree with the scalar functions (Float32 rounding) for every model and rest place', () => {

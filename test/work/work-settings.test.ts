@@ -55,7 +55,11 @@ shift: { start: 6, end: 14, days: [sun, mon, tue, wed, thu] }
   });
 
   it('a class not in the classes file is a WorkloadClassUnknown error', () => {
-    expectWorkError(() => resolveWorkSettings(parseWorkSettings({ classes: ['low', 'digging'] }), DEFAULT_WORKLOAD_CLASSES), 'WorkloadClassUnknown', /"digging"/);
+    expectWorkError(
+      () => resolveWorkSettings(parseWorkSettings({ classes: ['low', 'digging'] }), DEFAULT_WORKLOAD_CLASSES),
+      'WorkloadClassUnknown',
+      /"digging"/,
+    );
   });
 
   it('a bad shift, weekday or clothing is a catalogued error at the work key', () => {

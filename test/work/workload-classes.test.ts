@@ -1,12 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { parse } from 'yaml';
-import {
-  DEFAULT_WORKLOAD_CLASSES,
-  parseWorkloadClasses,
-  selectWorkloadClasses,
-  type WorkloadClasses,
-} from '../../pipeline/work/workload-classes.ts';
+import { DEFAULT_WORKLOAD_CLASSES, parseWorkloadClasses, selectWorkloadClasses, type WorkloadClasses } from '../../pipeline/work/workload-classes.ts';
 import { expectWorkError } from './helpers.ts';
 
 const shipped = parse(readFileSync(new URL('../../content/workload-classes.yaml', import.meta.url), 'utf8')) as unknown;
@@ -93,7 +88,11 @@ describe('workload classes', () => {
 
   it('selecting an unknown class id is a WorkloadClassUnknown error listing the defined ids', () => {
     expect(selectWorkloadClasses(DEFAULT_WORKLOAD_CLASSES, ['high', 'low']).map((c) => c.id)).toEqual(['high', 'low']);
-    const err = expectWorkError(() => selectWorkloadClasses(DEFAULT_WORKLOAD_CLASSES, ['low', 'heavy']), 'WorkloadClassUnknown', /defined classes: low, moderate, high, very-high/);
+    const err = expectWorkError(
+      () => selectWorkloadClasses(DEFAULT_WORKLOAD_CLASSES, ['low', 'heavy']),
+      'WorkloadClassUnknown',
+      /defined classes: low, moderate, high, very-high/,
+    );
     expect(err.where.key).toBe('work.classes.1');
   });
 });

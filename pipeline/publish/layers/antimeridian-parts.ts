@@ -43,6 +43,7 @@ export function antimeridianParts(rgba: Uint8Array, width: number, height: numbe
   const cut = Math.round(((180 - west) / (east - west)) * width);
   const parts: RasterPart[] = [];
   if (cut > 0) parts.push({ rgba: columns(rgba, width, height, 0, cut), width: cut, height, coordinates: corners(west, 180, north, south) });
-  if (cut < width) parts.push({ rgba: columns(rgba, width, height, cut, width), width: width - cut, height, coordinates: corners(-180, east - 360, north, south) });
+  if (cut < width)
+    parts.push({ rgba: columns(rgba, width, height, cut, width), width: width - cut, height, coordinates: corners(-180, east - 360, north, south) });
   return parts;
 }

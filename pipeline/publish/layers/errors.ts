@@ -19,8 +19,7 @@ export const LayerGridIrregular = defineError<{ axis: 'lat' | 'lon'; index: numb
   code: 'LayerGridIrregular',
   title: 'The layer grid is not regular or not ascending',
   message: (p) =>
-    `${p.axis} step ${p.index}→${p.index + 1} is ${p.step} ° but the mean step is ${p.expected} °` +
-    (p.expected <= 0 ? ' (coordinates must ascend)' : ''),
+    `${p.axis} step ${p.index}→${p.index + 1} is ${p.step} ° but the mean step is ${p.expected} °` + (p.expected <= 0 ? ' (coordinates must ascend)' : ''),
   hint: (p) =>
     p.axis === 'lat'
       ? 'latitudes must be equally spaced and ascending south to north (pipeline/model/grid.ts); flip descending files in read'

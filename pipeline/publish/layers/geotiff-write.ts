@@ -93,7 +93,11 @@ export function writeGeoTiff(grid: LayerGridInput, meta: GeoTiffMeta): Uint8Arra
     if (!Number.isFinite(noData)) throw LayerNoDataValueInvalid({ noData, reason: 'must be finite (leave it out to keep NaN)' });
     const f32 = Math.fround(noData);
     for (let i = 0; i < grid.values.length; i++) {
-      if (grid.values[i] === f32) throw LayerNoDataValueInvalid({ noData, reason: `the cell at grid row ${Math.floor(i / nx)}, column ${i % nx} (row 0 the southernmost) has this value` }, { variable: 'values' });
+      if (grid.values[i] === f32)
+        throw LayerNoDataValueInvalid(
+          { noData, reason: `the cell at grid row ${Math.floor(i / nx)}, column ${i % nx} (row 0 the southernmost) has this value` },
+          { variable: 'values' },
+        );
     }
   }
 

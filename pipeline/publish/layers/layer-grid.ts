@@ -3,12 +3,7 @@
  * and the cell *edges* that the PNG corners and the GeoTIFF tiepoint are placed at.
  * Convention: pipeline/model/grid.ts (cell centres, latitude south → north, longitude west → east).
  */
-import {
-  LayerCoordinateInvalid,
-  LayerGridEmpty,
-  LayerGridIrregular,
-  LayerValuesLength,
-} from './errors.ts';
+import { LayerCoordinateInvalid, LayerGridEmpty, LayerGridIrregular, LayerValuesLength } from './errors.ts';
 
 /** What every layer function takes: cell-centre coordinates and one value per cell. */
 export interface LayerGridInput {

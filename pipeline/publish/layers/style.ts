@@ -161,7 +161,10 @@ function compileCategorical(style: CategoricalStyle): CompiledStyle {
     if (Number.isNaN(v) || transparent.has(v)) return 0;
     const c = byValue.get(v);
     if (c === undefined) {
-      throw LayerCategoriesInvalid({ problem: `a cell holds ${v}, which is not the code of any class (${[...byValue.keys()].join(', ')})` }, { variable: 'values' });
+      throw LayerCategoriesInvalid(
+        { problem: `a cell holds ${v}, which is not the code of any class (${[...byValue.keys()].join(', ')})` },
+        { variable: 'values' },
+      );
     }
     return c;
   };

@@ -73,7 +73,12 @@ async function startMap(container: HTMLElement): Promise<void> {
     source: 'grid-extent',
     paint: { 'fill-color': cssRgb(MAP_COLOURS.gridFill), 'fill-opacity': GRID_FILL_OPACITY, 'fill-antialias': false },
   });
-  map.addLayer({ id: 'grid-cells', type: 'line', source: 'grid-cells', paint: { 'line-color': cssRgb(MAP_COLOURS.gridLine), 'line-width': 0.5, 'line-opacity': 0.6 } });
+  map.addLayer({
+    id: 'grid-cells',
+    type: 'line',
+    source: 'grid-cells',
+    paint: { 'line-color': cssRgb(MAP_COLOURS.gridLine), 'line-width': 0.5, 'line-opacity': 0.6 },
+  });
   map.addLayer({ id: 'grid-extent-edge', type: 'line', source: 'grid-extent', paint: { 'line-color': cssRgb(MAP_COLOURS.gridLine), 'line-width': 1.5 } });
   map.addLayer({ id: 'regions', type: 'line', source: 'regions', paint: { 'line-color': cssRgb(MAP_COLOURS.region), 'line-width': 1.8 } });
 

@@ -28,7 +28,18 @@ export function gridExtentPolygon(g: GridSpec): Feature<Polygon> {
   return {
     type: 'Feature',
     properties: { kind: 'grid-extent' },
-    geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] },
+    geometry: {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [w, s],
+          [e, s],
+          [e, n],
+          [w, n],
+          [w, s],
+        ],
+      ],
+    },
   };
 }
 
@@ -43,12 +54,32 @@ export function gridCellLines(g: GridSpec): FeatureCollection<LineString> {
     const south = g.latMin - g.dLat / 2;
     for (let i = 0; i <= g.nLon; i++) {
       const lon = w + i * g.dLon;
-      features.push({ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[lon, s], [lon, n]] } });
+      features.push({
+        type: 'Feature',
+        properties: {},
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [lon, s],
+            [lon, n],
+          ],
+        },
+      });
     }
     for (let j = 0; j <= g.nLat; j++) {
       const lat = south + j * g.dLat;
       if (lat < s || lat > n) continue;
-      features.push({ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[w, lat], [e, lat]] } });
+      features.push({
+        type: 'Feature',
+        properties: {},
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [w, lat],
+            [e, lat],
+          ],
+        },
+      });
     }
   }
   return { type: 'FeatureCollection', features };

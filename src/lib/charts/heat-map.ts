@@ -57,8 +57,14 @@ export function buildHeatMap(spec: HeatMapSpec): HeatMapGeometry {
   const right = width - 12;
   const top = 22;
   const bottom = top + cellH * spec.rows.length;
-  const x = scaleBand<number>().domain(spec.columns.map((_, i) => i)).range([left, right]).paddingInner(0.04);
-  const y = scaleBand<number>().domain(spec.rows.map((_, i) => i)).range([top, bottom]).paddingInner(0.08);
+  const x = scaleBand<number>()
+    .domain(spec.columns.map((_, i) => i))
+    .range([left, right])
+    .paddingInner(0.04);
+  const y = scaleBand<number>()
+    .domain(spec.rows.map((_, i) => i))
+    .range([top, bottom])
+    .paddingInner(0.08);
   const colour = wbgtColourScale(spec.domain);
   const cells: HeatCell[] = [];
   spec.columns.forEach((_, c) => {

@@ -75,10 +75,16 @@ export function buildMonthlyBars(spec: MonthlyBarsSpec): MonthlyBarsGeometry {
   const m = spec.margin ?? { top: 12, right: 12, bottom: 28, left: 48 };
   const plot = { left: m.left, right: width - m.right, top: m.top, bottom: height - m.bottom };
   const x = scaleBand<string>().domain(spec.categories).range([plot.left, plot.right]).paddingInner(0.2).paddingOuter(0.1);
-  const inner = scaleBand<string>().domain(spec.series.map((s) => s.key)).range([0, x.bandwidth()]).paddingInner(0.08);
+  const inner = scaleBand<string>()
+    .domain(spec.series.map((s) => s.key))
+    .range([0, x.bandwidth()])
+    .paddingInner(0.08);
   let top = 0;
   for (const s of spec.series) for (const v of s.values) for (const n of [v.mean, v.p90]) if (Number.isFinite(n) && n > top) top = n;
-  const y = scaleLinear().domain([0, top > 0 ? top : 1]).nice().range([plot.bottom, plot.top]);
+  const y = scaleLinear()
+    .domain([0, top > 0 ? top : 1])
+    .nice()
+    .range([plot.bottom, plot.top]);
   const bars: Bar[] = [];
   const marks: P90Mark[] = [];
   for (const s of spec.series) {
@@ -95,7 +101,13 @@ export function buildMonthlyBars(spec: MonthlyBarsSpec): MonthlyBarsGeometry {
     colour: s.colour,
     d: marks
       .filter((mk) => mk.series === s.key)
-      .map((mk) => lineOf([[mk.x1, mk.y], [mk.x2, mk.y]]) ?? '')
+      .map(
+        (mk) =>
+          lineOf([
+            [mk.x1, mk.y],
+            [mk.x2, mk.y],
+          ]) ?? '',
+      )
       .join(''),
   }));
   return {

@@ -76,7 +76,9 @@ export interface LegendGeometry {
 /** A horizontal legend of `n` swatches from `x` to `x + width` for `colour` over its domain. */
 export function buildLegend(colour: ScaleSequential<string>, x: number, width: number, n = 24, tickCount = 6): LegendGeometry {
   const [d0, d1] = colour.domain();
-  const pos = scaleLinear().domain([d0, d1]).range([x, x + width]);
+  const pos = scaleLinear()
+    .domain([d0, d1])
+    .range([x, x + width]);
   const w = width / n;
   const swatches: LegendSwatch[] = Array.from({ length: n }, (_, i) => {
     const value = d0 + ((i + 0.5) / n) * (d1 - d0);

@@ -74,7 +74,14 @@ export function buildRegionMap(spec: { regions: MapRegionInput[]; width?: number
   const features: Array<Feature<RegionGeometry>> = spec.regions.map((r) => ({ type: 'Feature', properties: { id: r.id }, geometry: rewindForD3(r.geometry) }));
   const fc: FeatureCollection<RegionGeometry> = { type: 'FeatureCollection', features };
   const projection = geoMercator();
-  if (features.length > 0) projection.fitExtent([[10, 10], [width - 10, height - legendSpace - 10]], fc);
+  if (features.length > 0)
+    projection.fitExtent(
+      [
+        [10, 10],
+        [width - 10, height - legendSpace - 10],
+      ],
+      fc,
+    );
   const path = geoPath(projection).digits(1);
   let top = 0;
   for (const r of spec.regions) if (Number.isFinite(r.value) && r.value > top) top = r.value;
@@ -91,7 +98,12 @@ export function buildRegionMap(spec: { regions: MapRegionInput[]; width?: number
     const [w, n] = projection.invert!([0, 0])!;
     const [e, s] = projection.invert!([width, height - legendSpace])!;
     step = graticuleStep(Math.max(e - w, n - s));
-    const g = geoGraticule().step([step, step]).extent([[w, s], [e, n]]);
+    const g = geoGraticule()
+      .step([step, step])
+      .extent([
+        [w, s],
+        [e, n],
+      ]);
     graticule = path(g()) ?? '';
   }
   const legendY = height - legendSpace + 8;

@@ -27,7 +27,9 @@ export function estimateCsv(r: EstimateResult, ctx: EstimateContext, atlasTitle:
   if (ctx.invented) out += commentLine('INVENTED DATA: this atlas is built from invented, synthetic data; no real place or climate is described.');
   out += commentLine('Screening estimate from histograms of modelled hourly WBGT; not safety advice and not a site measurement.');
   for (const line of summaryLines(r, ctx, place)) out += commentLine(`${line.label}: ${summaryText(line, 'C')}`);
-  out += commentLine('Statistics: mean and 90th-percentile year (Hyndman-Fan type 7) across the baseline years; monthly rows are for one such month, the last row for the whole period.');
+  out += commentLine(
+    'Statistics: mean and 90th-percentile year (Hyndman-Fan type 7) across the baseline years; monthly rows are for one such month, the last row for the whole period.',
+  );
   out += commentLine(`Cautions: ${CAUTION_SUMMARY}`);
   out += csvLine(['period', 'label', ...ESTIMATE_COLUMNS.map((c) => c.csv)]);
   for (const row of estimateRows(r)) {

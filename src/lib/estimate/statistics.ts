@@ -82,8 +82,7 @@ export function estimateStatistics(perYear: readonly MonthlyYear[], baseline: [n
   const total = computeNormals({ years, values: totals, nItems: NQ }, { baseline, rule });
 
   const stats = (n: typeof monthly, i: number): FigureStats => ({ mean: n.mean[i], p90: n.p90[i], yearsUsed: n.yearsUsed[i] });
-  const pack = (n: typeof monthly, base: number): QuantityStats =>
-    Object.fromEntries(QUANTITIES.map((q, k) => [q, stats(n, base + k)])) as QuantityStats;
+  const pack = (n: typeof monthly, base: number): QuantityStats => Object.fromEntries(QUANTITIES.map((q, k) => [q, stats(n, base + k)])) as QuantityStats;
   return {
     months: Array.from({ length: 12 }, (_, m) => pack(monthly, m * NQ)),
     total: pack(total, 0),

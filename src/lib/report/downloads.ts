@@ -92,7 +92,13 @@ export function annualLayerDownloads(manifest: AtlasManifest, defaultClass: stri
       const byClass = classIds.has(cls);
       return {
         path: l.tif,
-        what: label.get(l.figure) ?? (l.figure === 'mean-annual-temperature' ? 'Mean annual temperature' : l.figure === 'niche-class' ? 'Mean annual temperature against the human climate niche (class codes)' : l.figure),
+        what:
+          label.get(l.figure) ??
+          (l.figure === 'mean-annual-temperature'
+            ? 'Mean annual temperature'
+            : l.figure === 'niche-class'
+              ? 'Mean annual temperature against the human climate niche (class codes)'
+              : l.figure),
         format: 'GeoTIFF',
         units: l.units === '1' ? 'class code' : l.units === 'h' ? 'h per worker per year' : formatUnits(l.units),
         bytes: size(l.tif),

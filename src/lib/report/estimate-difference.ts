@@ -47,7 +47,14 @@ export function estimateDifference(regionId: string, histograms: readonly Float6
   const result = runEstimate(histograms, inputs, ctx);
   const d = ctx.defaults;
   const months: MonthDifference[] = MONTH_PERIODS.map((period, m) => {
-    const report = figures.get({ figure: FIGURE_HOURS_LOST, period, workloadClass: d.classId, acclimatization: d.acclimatization, exposure: d.exposure, statistic: 'mean' });
+    const report = figures.get({
+      figure: FIGURE_HOURS_LOST,
+      period,
+      workloadClass: d.classId,
+      acclimatization: d.acclimatization,
+      exposure: d.exposure,
+      statistic: 'mean',
+    });
     const stats = result.statistics.months[m];
     const estimate = stats.lost.mean;
     return { period, report, estimate, difference: estimate - report, shiftHours: stats.shiftHours.mean };

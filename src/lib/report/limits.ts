@@ -29,7 +29,15 @@ export function classLimits(manifest: AtlasManifest): ClassLimit[] {
   for (const c of w.classes) {
     for (const a of w.acclimatization) {
       const limit = limitWbgt(c.metabolicRate, { model: w.limitModel as LimitModelId, acclimatization: a as Acclimatization, airMovement: w.airMovement });
-      out.push({ workloadClass: c.id, className: c.name, metabolicRate: c.metabolicRate, acclimatization: a, limit, clothingAdjustment: w.clothingAdjustment, threshold: limit - w.clothingAdjustment });
+      out.push({
+        workloadClass: c.id,
+        className: c.name,
+        metabolicRate: c.metabolicRate,
+        acclimatization: a,
+        limit,
+        clothingAdjustment: w.clothingAdjustment,
+        threshold: limit - w.clothingAdjustment,
+      });
     }
   }
   return out;

@@ -40,7 +40,17 @@ export function indexRegionTable(rows: readonly RegionTableRow[]): RegionFigures
   const map = new Map<string, number>();
   for (const r of rows) {
     if (r.method !== 'limit' && r.method !== '') continue;
-    map.set(keyOf({ figure: r.figure, period: r.period, workloadClass: r.workloadClass, acclimatization: r.acclimatization, exposure: r.exposure, statistic: r.statistic }), r.value);
+    map.set(
+      keyOf({
+        figure: r.figure,
+        period: r.period,
+        workloadClass: r.workloadClass,
+        acclimatization: r.acclimatization,
+        exposure: r.exposure,
+        statistic: r.statistic,
+      }),
+      r.value,
+    );
   }
   return {
     get: (k) => map.get(keyOf(k)) ?? NaN,

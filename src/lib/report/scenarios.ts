@@ -39,7 +39,13 @@ export interface ScenarioComparison {
  * The comparison table: the (at most three) worst months by mean hours lost in the record, or in
  * the last scenario when the record has none, then the year.
  */
-export function scenarioComparison(base: RegionFigures, scenarios: readonly ReportScenario[], workloadClass: string, acclimatization: string, exposure: string): ScenarioComparison {
+export function scenarioComparison(
+  base: RegionFigures,
+  scenarios: readonly ReportScenario[],
+  workloadClass: string,
+  acclimatization: string,
+  exposure: string,
+): ScenarioComparison {
   let months = worstMonths(base, workloadClass, acclimatization, exposure);
   let monthsFrom = 'baseline';
   if (months.length === 0 && scenarios.length > 0) {

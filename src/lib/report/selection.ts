@@ -34,4 +34,8 @@ export function defaultExposure(manifest: AtlasManifest): string {
 
 /** Plain words for an acclimatization state or an exposure. */
 export const ACCLIMATIZATION_WORDS: Readonly<Record<string, string>> = { acclimatized: 'acclimatized', unacclimatized: 'unacclimatized' };
-export const EXPOSURE_WORDS: Readonly<Record<string, string>> = { sun: 'in the sun', shade: 'in the shade (open sky, sun removed)', shelter: 'under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)' };
+export const EXPOSURE_WORDS: Readonly<Record<string, string>> = {
+  sun: 'in the sun',
+  shade: 'in the shade (open sky, sun removed)',
+  shelter: 'under a shelter (a roof or canopy, a shelter at air temperature — Lemke & Kjellstrom 2012)',
+};

@@ -26,9 +26,16 @@ export interface TrendModel {
 }
 
 /** The trend rows of one workload class and exposure, for each acclimatization state. */
-export function trendModel(fig: RegionFigures, years: readonly [number, number], workloadClass: string, exposure: string, states: readonly string[]): TrendModel {
+export function trendModel(
+  fig: RegionFigures,
+  years: readonly [number, number],
+  workloadClass: string,
+  exposure: string,
+  states: readonly string[],
+): TrendModel {
   const yearsBuilt = years[1] - years[0] + 1;
-  const get = (acclimatization: string, statistic: string) => fig.get({ figure: FIGURE_HOURS_LOST, period: YEAR_PERIOD, workloadClass, acclimatization, exposure, statistic });
+  const get = (acclimatization: string, statistic: string) =>
+    fig.get({ figure: FIGURE_HOURS_LOST, period: YEAR_PERIOD, workloadClass, acclimatization, exposure, statistic });
   return {
     yearsBuilt,
     minYears: MIN_TREND_YEARS,

@@ -58,7 +58,14 @@ const FIGURES = [
 /** The columns: each figure as mean and as the P90 year (`p90Head` words the P90, e.g. "P90 of 4 years"). */
 export function workforceColumns(p90Head: string): WorkforceColumn[] {
   return FIGURES.flatMap((f) =>
-    (['mean', 'p90'] as const).map((s) => ({ key: `${f.short}-${s}`, figure: f.id, statistic: s, head: `${f.words}, ${s === 'mean' ? 'mean' : p90Head}`, unit: f.unit, digits: f.digits })),
+    (['mean', 'p90'] as const).map((s) => ({
+      key: `${f.short}-${s}`,
+      figure: f.id,
+      statistic: s,
+      head: `${f.words}, ${s === 'mean' ? 'mean' : p90Head}`,
+      unit: f.unit,
+      digits: f.digits,
+    })),
   );
 }
 
@@ -76,11 +83,22 @@ function workforceValue(fig: RegionFigures, c: WorkforceColumn, period: string, 
 
 /** Whether the region's table holds the workforce figures. */
 export function hasWorkforceFigures(fig: RegionFigures): boolean {
-  return fig.has({ figure: FIGURE_PERSON_HOURS_LOST, period: YEAR_PERIOD, workloadClass: ALL_CLASSES, acclimatization: BY_SHARES, exposure: BY_SHARES, statistic: 'mean' });
+  return fig.has({
+    figure: FIGURE_PERSON_HOURS_LOST,
+    period: YEAR_PERIOD,
+    workloadClass: ALL_CLASSES,
+    acclimatization: BY_SHARES,
+    exposure: BY_SHARES,
+    statistic: 'mean',
+  });
 }
 
 /** The whole year per workload class, then all classes together. */
-export function workforceByClass(fig: RegionFigures, classes: ReadonlyArray<{ id: string; name: string }>, columns: readonly WorkforceColumn[]): WorkforceRow[] {
+export function workforceByClass(
+  fig: RegionFigures,
+  classes: ReadonlyArray<{ id: string; name: string }>,
+  columns: readonly WorkforceColumn[],
+): WorkforceRow[] {
   return [...classes.map((c) => ({ key: c.id, name: c.name })), { key: ALL_CLASSES, name: 'All outdoor work' }].map((r) => ({
     ...r,
     values: columns.map((c) => workforceValue(fig, c, YEAR_PERIOD, r.key)),
@@ -89,7 +107,11 @@ export function workforceByClass(fig: RegionFigures, classes: ReadonlyArray<{ id
 
 /** The twelve months and the whole year for one class id or `all`. */
 export function workforceByMonth(fig: RegionFigures, combo: string, columns: readonly WorkforceColumn[]): WorkforceRow[] {
-  return [...MONTH_PERIODS, YEAR_PERIOD].map((period) => ({ key: period, name: periodName(period), values: columns.map((c) => workforceValue(fig, c, period, combo)) }));
+  return [...MONTH_PERIODS, YEAR_PERIOD].map((period) => ({
+    key: period,
+    name: periodName(period),
+    values: columns.map((c) => workforceValue(fig, c, period, combo)),
+  }));
 }
 
 /** A column of the home page's workforce ranking (src/components/report/RankingTable.astro). */
@@ -118,7 +140,14 @@ export function workforceRankingColumns(p90Head: string): WorkforceRankingColumn
     ...workforceColumns(p90Head).map((c) => {
       const group = c.head.slice(0, c.head.lastIndexOf(', '));
       const short = c.statistic === 'mean' ? 'mean' : 'P90';
-      return { key: `${c.figure}.${c.statistic}`, label: `${group}, ${c.statistic === 'mean' ? 'mean' : p90Head}`, group, short, unit: c.unit, digits: c.digits };
+      return {
+        key: `${c.figure}.${c.statistic}`,
+        label: `${group}, ${c.statistic === 'mean' ? 'mean' : p90Head}`,
+        group,
+        short,
+        unit: c.unit,
+        digits: c.digits,
+      };
     }),
   ];
 }

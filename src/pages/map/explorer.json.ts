@@ -10,5 +10,4 @@
 import type { APIRoute } from 'astro';
 import { loadPublishedCatalogue } from '../../data/explorer.ts';
 
-export const GET: APIRoute = () =>
-  new Response(JSON.stringify(loadPublishedCatalogue()), { headers: { 'Content-Type': 'application/json' } });
+export const GET: APIRoute = () => new Response(JSON.stringify(loadPublishedCatalogue()), { headers: { 'Content-Type': 'application/json' } });

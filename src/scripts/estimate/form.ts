@@ -12,8 +12,31 @@ import { formatTemperatureDelta, temperatureDeltaIn, temperatureIn, type Tempera
 
 /** Single-value fields, in the order they go into the URL. */
 const SINGLE = [
-  'place', 'region', 'cell', 'lat', 'lon', 'work', 'metabolic-rate', 'acclimatization', 'limit-model', 'clothing', 'cav', 'exposure', 'rest', 'rest-wbgt',
-  'shifts', 'start', 'work-hours', 'crew', 'holidays', 'deadline', 'rate', 'daily-cost', 'currency', 'period-start', 'period-end',
+  'place',
+  'region',
+  'cell',
+  'lat',
+  'lon',
+  'work',
+  'metabolic-rate',
+  'acclimatization',
+  'limit-model',
+  'clothing',
+  'cav',
+  'exposure',
+  'rest',
+  'rest-wbgt',
+  'shifts',
+  'start',
+  'work-hours',
+  'crew',
+  'holidays',
+  'deadline',
+  'rate',
+  'daily-cost',
+  'currency',
+  'period-start',
+  'period-end',
 ] as const;
 /** Check boxes that are on or off. */
 const FLAGS = ['air-movement', 'hood'] as const;

@@ -28,7 +28,12 @@ const form = document.getElementById('estimate-form');
 const byId = <T extends HTMLElement>(id: string) => document.getElementById(id) as T;
 
 if (app && form instanceof HTMLFormElement) {
-  const { ctx, atlasTitle, base, colour } = JSON.parse(app.dataset.context ?? '{}') as { ctx: EstimateContext; atlasTitle: string; base: string; colour: string };
+  const { ctx, atlasTitle, base, colour } = JSON.parse(app.dataset.context ?? '{}') as {
+    ctx: EstimateContext;
+    atlasTitle: string;
+    base: string;
+    colour: string;
+  };
   const load = siteLoader(base);
   const status = byId('estimate-status');
   const errorBox = byId('estimate-error');
@@ -84,7 +89,11 @@ if (app && form instanceof HTMLFormElement) {
       const json: BidFigures = bidFigures(bid, inputs, ctx, place, scenarios);
       const unit = currentUnit();
       const limit = { limitWork: bid.kernel.limitWork, threshold: bid.kernel.threshold };
-      renderSummary(byId('bid-settings'), [...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, json.weatherYears, json.weatherYearsLeftOut)], unit);
+      renderSummary(
+        byId('bid-settings'),
+        [...settingLines(inputs, ctx, place, limit), ...jobLines(inputs), weatherLine(ctx, json.weatherYears, json.weatherYearsLeftOut)],
+        unit,
+      );
       byId('bid-headline').textContent = headline(json);
       byId('bid-place').textContent = placeText(place);
       renderSchedule(byId<HTMLTableElement>('bid-schedule').tBodies[0], json);
@@ -94,7 +103,8 @@ if (app && form instanceof HTMLFormElement) {
       renderShifts(byId<HTMLTableElement>('bid-shifts'), json);
       renderScenarios(byId('bid-scenarios'), json);
       byId('bid-crew').textContent = crewText(json, deadlineError);
-      byId('bid-build').textContent = `${ctx.build.title}${ctx.invented ? ' (INVENTED DATA)' : ''}; built ${ctx.build.buildTime}, code ${ctx.build.codeVersion}, configuration ${ctx.build.configDigest.slice(0, 12)}, ${ctx.build.inputs} input files; weather years ${json.weatherYears.join(', ')}.`;
+      byId('bid-build').textContent =
+        `${ctx.build.title}${ctx.invented ? ' (INVENTED DATA)' : ''}; built ${ctx.build.buildTime}, code ${ctx.build.codeVersion}, configuration ${ctx.build.configDigest.slice(0, 12)}, ${ctx.build.inputs} input files; weather years ${json.weatherYears.join(', ')}.`;
       const name = (ext: string) => estimateFileName({ inputs }, place, ext, 'bid');
       shown = { figures: json, name, csv: false, json: false };
       if (monthlyBox?.open) {

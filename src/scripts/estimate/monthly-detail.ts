@@ -39,9 +39,21 @@ export function renderTable(tbody: HTMLTableSectionElement, r: EstimateResult): 
  * Runs the monthly estimate for the place's histograms and draws it: settings, table, CSV link.
  * Catalogued errors of runEstimate (EstimatePeriodInvalid, those of pipeline/work).
  */
-export function showMonthly(histograms: readonly Float64Array[], inputs: EstimateInputs, ctx: EstimateContext, place: ResolvedPlace, atlasTitle: string, unit: TemperatureUnit): void {
+export function showMonthly(
+  histograms: readonly Float64Array[],
+  inputs: EstimateInputs,
+  ctx: EstimateContext,
+  place: ResolvedPlace,
+  atlasTitle: string,
+  unit: TemperatureUnit,
+): void {
   const r = runEstimate(histograms, inputs, ctx);
   renderSummary(document.getElementById('estimate-summary')!, summaryLines(r, ctx, place), unit);
   renderTable((document.getElementById('estimate-table') as HTMLTableElement).tBodies[0], r);
-  setDownload(document.getElementById('estimate-csv') as HTMLAnchorElement, estimateCsv(r, ctx, atlasTitle, place), 'text/csv;charset=utf-8', estimateFileName(r, place, 'csv', 'monthly'));
+  setDownload(
+    document.getElementById('estimate-csv') as HTMLAnchorElement,
+    estimateCsv(r, ctx, atlasTitle, place),
+    'text/csv;charset=utf-8',
+    estimateFileName(r, place, 'csv', 'monthly'),
+  );
 }

@@ -50,11 +50,24 @@ export function headline(j: BidJson): string {
 /** The schedule table: one row per figure, mean / median / P90 / heat-free. */
 export function renderSchedule(tbody: HTMLTableSectionElement, j: BidJson): void {
   tbody.replaceChildren();
-  const heatFree: Partial<Record<ScheduleKey, number | string>> = { finishDate: j.heatFree.finishDate, workingDays: j.heatFree.workingDays, calendarDays: j.heatFree.calendarDays, addedWorkingDays: 0, addedCalendarDays: 0, crewHoursLost: 0, crewHoursAbove: 0, cost: 0 };
+  const heatFree: Partial<Record<ScheduleKey, number | string>> = {
+    finishDate: j.heatFree.finishDate,
+    workingDays: j.heatFree.workingDays,
+    calendarDays: j.heatFree.calendarDays,
+    addedWorkingDays: 0,
+    addedCalendarDays: 0,
+    crewHoursLost: 0,
+    crewHoursAbove: 0,
+    cost: 0,
+  };
   for (const r of SCHEDULE_ROWS) {
     tbody.append(
       row(
-        [{ text: `${r.label} [${rowUnit(r, j.costs.currency)}]`, header: true }, ...STATISTICS.map((s) => ({ text: showValue(scheduleValue(j, r, s.key), r), num: true })), { text: showValue(heatFree[r.key] ?? '', r), num: true }],
+        [
+          { text: `${r.label} [${rowUnit(r, j.costs.currency)}]`, header: true },
+          ...STATISTICS.map((s) => ({ text: showValue(scheduleValue(j, r, s.key), r), num: true })),
+          { text: showValue(heatFree[r.key] ?? '', r), num: true },
+        ],
         r.key,
       ),
     );
@@ -65,7 +78,9 @@ export function renderSchedule(tbody: HTMLTableSectionElement, j: BidJson): void
 export function renderYears(tbody: HTMLTableSectionElement, j: BidJson): void {
   tbody.replaceChildren();
   for (const y of j.years) {
-    tbody.append(row([{ text: String(y.weatherYear), header: true }, ...SCHEDULE_ROWS.map((r) => ({ text: showValue(y[r.key], r), num: true }))], String(y.weatherYear)));
+    tbody.append(
+      row([{ text: String(y.weatherYear), header: true }, ...SCHEDULE_ROWS.map((r) => ({ text: showValue(y[r.key], r), num: true }))], String(y.weatherYear)),
+    );
   }
 }
 
@@ -118,11 +133,26 @@ export function renderStartChart(svg: SVGSVGElement, j: BidJson, colour: string)
   }
   j.startMonths.forEach((s, i) => {
     const x = m.left + i * bw;
-    const b = add('rect', { x: x + bw * 0.2, y: y(s.addedWorkingDays.p50), width: bw * 0.6, height: Math.max(0, y(0) - y(s.addedWorkingDays.p50)), fill: colour, 'data-month': i + 1, 'data-p50': s.addedWorkingDays.p50 });
+    const b = add('rect', {
+      x: x + bw * 0.2,
+      y: y(s.addedWorkingDays.p50),
+      width: bw * 0.6,
+      height: Math.max(0, y(0) - y(s.addedWorkingDays.p50)),
+      fill: colour,
+      'data-month': i + 1,
+      'data-p50': s.addedWorkingDays.p50,
+    });
     const t = document.createElementNS(SVG, 'title');
     t.textContent = `${MONTHS[i]}: ${show(s.addedWorkingDays.p50, 'addedWorkingDays')} days (median), ${show(s.addedWorkingDays.p90, 'addedWorkingDays')} (P90)`;
     b.append(t);
-    add('line', { x1: x + bw * 0.12, x2: x + bw * 0.88, y1: y(s.addedWorkingDays.p90), y2: y(s.addedWorkingDays.p90), class: 'p90-tick', 'data-p90': s.addedWorkingDays.p90 });
+    add('line', {
+      x1: x + bw * 0.12,
+      x2: x + bw * 0.88,
+      y1: y(s.addedWorkingDays.p90),
+      y2: y(s.addedWorkingDays.p90),
+      class: 'p90-tick',
+      'data-p90': s.addedWorkingDays.p90,
+    });
     add('text', { x: x + bw / 2, y: H - 10, 'text-anchor': 'middle', class: 'tick' }, MONTHS[i]);
   });
   add('text', { x: 4, y: 10, class: 'tick' }, 'days');
@@ -137,7 +167,9 @@ function niceStep(max: number): number {
 /** The shift patterns side by side: one column per pattern. */
 export function renderShifts(table: HTMLTableElement, j: BidJson): void {
   const head = table.tHead ?? table.createTHead();
-  head.replaceChildren(row([{ text: 'Figure', header: false }, ...j.shiftPatterns.map((p) => `${p.shift.join(' and ')}, ${p.days} (${p.hoursPerDay} h a day)`)]));
+  head.replaceChildren(
+    row([{ text: 'Figure', header: false }, ...j.shiftPatterns.map((p) => `${p.shift.join(' and ')}, ${p.days} (${p.hoursPerDay} h a day)`)]),
+  );
   for (const th of head.querySelectorAll('td')) {
     const h = el('th', th.textContent ?? '');
     h.setAttribute('scope', 'col');
@@ -150,7 +182,10 @@ export function renderShifts(table: HTMLTableElement, j: BidJson): void {
     ['Finish, median year', (p) => p.finishDate.p50],
     ['Finish, P90 year', (p) => p.finishDate.p90],
     ['Calendar days, P90 year', (p) => show(p.calendarDays.p90, 'calendarDays')],
-    ['Working days added by heat, median / P90', (p) => `${show(p.addedWorkingDays.p50, 'addedWorkingDays')} / ${show(p.addedWorkingDays.p90, 'addedWorkingDays')}`],
+    [
+      'Working days added by heat, median / P90',
+      (p) => `${show(p.addedWorkingDays.p50, 'addedWorkingDays')} / ${show(p.addedWorkingDays.p90, 'addedWorkingDays')}`,
+    ],
     ['Crew-hours lost, median / P90', (p) => `${show(p.crewHoursLost.p50, 'crewHoursLost')} / ${show(p.crewHoursLost.p90, 'crewHoursLost')}`],
     [`Cost of heat, median / P90 [${j.costs.currency || 'currency units'}]`, (p) => `${show(p.cost.p50, 'cost')} / ${show(p.cost.p90, 'cost')}`],
   ];
@@ -166,7 +201,11 @@ export function crewText(j: BidJson, error: string | null): string {
 }
 
 /** The figures of the what-if table, one row each: label and the value of a run. */
-export const SCENARIO_LINES: ReadonlyArray<{ key: string; label: (cur: string) => string; value: (x: Pick<BidJson, 'finishDate' | 'addedWorkingDays' | 'cost'>) => string }> = [
+export const SCENARIO_LINES: ReadonlyArray<{
+  key: string;
+  label: (cur: string) => string;
+  value: (x: Pick<BidJson, 'finishDate' | 'addedWorkingDays' | 'cost'>) => string;
+}> = [
   { key: 'finish-p50', label: () => 'Finish, median year', value: (x) => x.finishDate.p50 },
   { key: 'finish-p90', label: () => 'Finish, P90 year', value: (x) => x.finishDate.p90 },
   { key: 'added-p50', label: () => 'Working days added by heat, median', value: (x) => show(x.addedWorkingDays.p50, 'addedWorkingDays') },
@@ -195,13 +234,21 @@ export function renderScenarios(section: HTMLElement, j: BidJson): void {
   body.replaceChildren();
   const cur = j.costs.currency || 'currency units';
   for (const line of SCENARIO_LINES) {
-    body.append(row([{ text: line.label(cur), header: true }, { text: line.value(j), num: true }, ...j.scenarios.map((s) => ({ text: line.value(s), num: true }))], line.key));
+    body.append(
+      row(
+        [{ text: line.label(cur), header: true }, { text: line.value(j), num: true }, ...j.scenarios.map((s) => ({ text: line.value(s), num: true }))],
+        line.key,
+      ),
+    );
   }
   section.querySelector('#bid-scenario-caveat')!.textContent = j.scenarioCaveat;
   const words = section.querySelector('#bid-scenario-words')!;
   words.replaceChildren(
     ...j.scenarios.map((s) => {
-      const li = el('li', `${s.name} (${s.id}, ${s.kind}): ${s.what} Source: ${s.source}${s.deadlineProblem ? ` Crew for the deadline: ${s.deadlineProblem}` : ''}`);
+      const li = el(
+        'li',
+        `${s.name} (${s.id}, ${s.kind}): ${s.what} Source: ${s.source}${s.deadlineProblem ? ` Crew for the deadline: ${s.deadlineProblem}` : ''}`,
+      );
       li.dataset.scenario = s.id;
       return li;
     }),

@@ -19,7 +19,12 @@ describe('layers across the antimeridian', () => {
     expect(layer.coordinates[1][0]).toBe(181.125);
     expect(layer.parts).toHaveLength(2);
     const [w, e] = layer.parts;
-    expect(w.coordinates).toEqual([[178.875, layer.coordinates[0][1]], [180, layer.coordinates[0][1]], [180, layer.coordinates[2][1]], [178.875, layer.coordinates[2][1]]]);
+    expect(w.coordinates).toEqual([
+      [178.875, layer.coordinates[0][1]],
+      [180, layer.coordinates[0][1]],
+      [180, layer.coordinates[2][1]],
+      [178.875, layer.coordinates[2][1]],
+    ]);
     expect(e.coordinates[0][0]).toBe(-180);
     expect(e.coordinates[1][0]).toBeCloseTo(-178.875, 12);
     expect([w.width, e.width]).toEqual([36, 36]);

@@ -9,10 +9,7 @@ import { expectCatalogued, regularGrid } from './helpers.ts';
 // Checks against the project's own grid convention (pipeline/model/grid.ts) and catalogue.
 const style: ContinuousStyle = { kind: 'continuous', ramp: 'viridis', domain: [0, 10], units: 'h' };
 const good = () => regularGrid(10.5, 1, 4, 20.5, 1, 5, (y, x) => y + x);
-const both = (grid: ReturnType<typeof good>) => [
-  () => renderLayerPng(grid, style),
-  () => writeGeoTiff(grid, { units: 'h', description: 'x' }),
-];
+const both = (grid: ReturnType<typeof good>) => [() => renderLayerPng(grid, style), () => writeGeoTiff(grid, { units: 'h', description: 'x' })];
 
 describe('bad layer input gives catalogued errors, for the PNG and the GeoTIFF alike', () => {
   it('values length ≠ ny·nx is LayerValuesLength, naming both sizes', () => {
@@ -63,7 +60,12 @@ describe('bad layer input gives catalogued errors, for the PNG and the GeoTIFF a
   });
 
   it('a domain with min ≥ max or a non-finite end is LayerDomainInvalid', () => {
-    for (const domain of [[5, 5], [10, 0], [0, NaN], [-Infinity, 1]] as [number, number][]) {
+    for (const domain of [
+      [5, 5],
+      [10, 0],
+      [0, NaN],
+      [-Infinity, 1],
+    ] as [number, number][]) {
       expectCatalogued(() => renderLayerPng(good(), { ...style, domain }), 'LayerDomainInvalid', /min must be finite and less than max/);
     }
   });
@@ -79,7 +81,18 @@ describe('bad layer input gives catalogued errors, for the PNG and the GeoTIFF a
   it('categorical classes with duplicate codes, bad colours, empty labels, or a cell code no class has are LayerCategoriesInvalid', () => {
     const base = { kind: 'categorical' as const, units: '1' };
     expectCatalogued(() => compileStyle({ ...base, classes: [] }), 'LayerCategoriesInvalid', /no classes/);
-    expectCatalogued(() => compileStyle({ ...base, classes: [{ value: 1, label: 'a', color: '#000000' }, { value: 1, label: 'b', color: '#ffffff' }] }), 'LayerCategoriesInvalid', /used twice/);
+    expectCatalogued(
+      () =>
+        compileStyle({
+          ...base,
+          classes: [
+            { value: 1, label: 'a', color: '#000000' },
+            { value: 1, label: 'b', color: '#ffffff' },
+          ],
+        }),
+      'LayerCategoriesInvalid',
+      /used twice/,
+    );
     expectCatalogued(() => compileStyle({ ...base, classes: [{ value: 1, label: 'a', color: 'red' }] }), 'LayerCategoriesInvalid', /not #rrggbb/);
     expectCatalogued(() => compileStyle({ ...base, classes: [{ value: 1, label: ' ', color: '#112233' }] }), 'LayerCategoriesInvalid', /empty label/);
     expectCatalogued(() => compileStyle({ ...base, classes: [{ value: 1.5, label: 'a', color: '#112233' }] }), 'LayerCategoriesInvalid', /non-integer/);
@@ -89,7 +102,18 @@ describe('bad layer input gives catalogued errors, for the PNG and the GeoTIFF a
 
   it('every layer error is registered in the catalogue through pipeline/commands/catalogue.ts', () => {
     const codes = errorCatalogue().map((e) => e.code);
-    for (const c of ['LayerGridEmpty', 'LayerValuesLength', 'LayerGridIrregular', 'LayerCoordinateInvalid', 'LayerDomainInvalid', 'LayerClassesInvalid', 'LayerRampUnknown', 'LayerCategoriesInvalid', 'LayerNoData', 'LayerNoDataValueInvalid']) {
+    for (const c of [
+      'LayerGridEmpty',
+      'LayerValuesLength',
+      'LayerGridIrregular',
+      'LayerCoordinateInvalid',
+      'LayerDomainInvalid',
+      'LayerClassesInvalid',
+      'LayerRampUnknown',
+      'LayerCategoriesInvalid',
+      'LayerNoData',
+      'LayerNoDataValueInvalid',
+    ]) {
       expect(codes).toContain(c);
     }
   });

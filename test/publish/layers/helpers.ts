@@ -11,7 +11,6 @@ export function regularGrid(lat0: number, dLat: number, ny: number, lon0: number
   return { lat, lon, values };
 }
 
-
 export interface Decoded {
   width: number;
   height: number;

@@ -42,7 +42,12 @@ const layers: Record<string, LayerPng> = {};
 
 function page(layer: LayerPng, name: string, bounds: [[number, number], [number, number]]): string {
   const sources = Object.fromEntries(layer.parts.map((part, i) => [`l${i}`, { type: 'image', url: `/${name}.${i}.png`, coordinates: part.coordinates }]));
-  const rasters = layer.parts.map((_, i) => ({ id: `l${i}`, type: 'raster', source: `l${i}`, paint: { 'raster-resampling': 'nearest', 'raster-fade-duration': 0 } }));
+  const rasters = layer.parts.map((_, i) => ({
+    id: `l${i}`,
+    type: 'raster',
+    source: `l${i}`,
+    paint: { 'raster-resampling': 'nearest', 'raster-fade-duration': 0 },
+  }));
   return `<!doctype html><html><head><style>html,body{margin:0}#m{width:600px;height:700px}</style></head><body><div id="m"></div>
 <script type="module">
 import * as maplibregl from '/ml/maplibre-gl.mjs';
@@ -71,10 +76,20 @@ beforeAll(async () => {
       res.end(Buffer.from(layers[name].parts[Number(part)].png));
     } else if (url === '/tall.html') {
       res.writeHead(200, { 'content-type': 'text/html' });
-      res.end(page(layers.tall, 'tall', [[0, 20], [60, 60]]));
+      res.end(
+        page(layers.tall, 'tall', [
+          [0, 20],
+          [60, 60],
+        ]),
+      );
     } else if (url === '/dateline.html') {
       res.writeHead(200, { 'content-type': 'text/html' });
-      res.end(page(layers.dateline, 'dateline', [[175, -11], [185, 0]]));
+      res.end(
+        page(layers.dateline, 'dateline', [
+          [175, -11],
+          [185, 0],
+        ]),
+      );
     } else {
       res.writeHead(404);
       res.end();
@@ -88,7 +103,16 @@ beforeAll(async () => {
     executablePath: '/usr/bin/chromium',
     headless: true,
     viewport: { width: 600, height: 700 },
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--enable-unsafe-swiftshader'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--enable-unsafe-swiftshader',
+    ],
   });
   await context.route('**/*', (route) => {
     if (route.request().url().startsWith(base)) return route.continue();
@@ -112,7 +136,10 @@ async function shoot(name: string): Promise<{ p: Page; at: (x: number, y: number
   await p.waitForFunction(() => (window as unknown as { ready?: boolean }).ready === true, undefined, { timeout: 15_000 });
   const shot = await p.screenshot({ type: 'png' });
   const { data, info } = await sharp(shot).raw().toBuffer({ resolveWithObject: true });
-  return { p, at: (x, y) => data.subarray((Math.round(y) * info.width + Math.round(x)) * info.channels, (Math.round(y) * info.width + Math.round(x)) * info.channels + 3) };
+  return {
+    p,
+    at: (x, y) => data.subarray((Math.round(y) * info.width + Math.round(x)) * info.channels, (Math.round(y) * info.width + Math.round(x)) * info.channels + 3),
+  };
 }
 
 describe('MapLibre 6.20 draws the PNG layer where its own projection puts each cell', () => {

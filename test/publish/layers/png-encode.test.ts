@@ -18,10 +18,11 @@ describe('encodePngRgba', () => {
     const img = await decodePng(encodePngRgba(rgba, w, h));
     expect([img.width, img.height, img.channels]).toEqual([w, h, 4]);
     let diff = 0;
-    for (let y = 0; y < h; y++) for (let x = 0; x < w; x++) {
-      const p = img.at(x, y);
-      for (let k = 0; k < 4; k++) if (p[k] !== rgba[(y * w + x) * 4 + k]) diff++;
-    }
+    for (let y = 0; y < h; y++)
+      for (let x = 0; x < w; x++) {
+        const p = img.at(x, y);
+        for (let k = 0; k < 4; k++) if (p[k] !== rgba[(y * w + x) * 4 + k]) diff++;
+      }
     expect(diff).toBe(0);
   });
 

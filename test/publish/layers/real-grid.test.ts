@@ -41,7 +41,12 @@ describe('a real 1/8° grid (bcsd_obs_1999.nc, July tas)', () => {
     const domain = niceDomain(july, { fromZero: false });
     expect(domain[0]).toBeLessThan(domain[1]);
     const layer = renderLayerPng({ lat, lon, values: july }, figureStyle('meanAnnualTemperature', domain, 'degC'));
-    expect(layer.coordinates).toEqual([[-85, 37.125], [-74.875, 37.125], [-74.875, 33], [-85, 33]]);
+    expect(layer.coordinates).toEqual([
+      [-85, 37.125],
+      [-74.875, 37.125],
+      [-74.875, 33],
+      [-85, 33],
+    ]);
     const img = await decodePng(layer.png);
     let clear = 0;
     for (let y = 0; y < img.height; y++) for (let x = 0; x < img.width; x++) if (img.at(x, y)[3] === 0) clear++;

@@ -57,7 +57,7 @@ describe('renderLayerPng', () => {
     expect([img.width, img.height, img.channels]).toEqual([layer.width, layer.height, 4]);
     expect(layer.width).toBe(nx * 8);
     // Height: Mercator span of 20–60 °N in units of one pixel's width (1°/8 in radians).
-    const expected = (mercY(60) - mercY(20)) / ((Math.PI / 180) / 8);
+    const expected = (mercY(60) - mercY(20)) / (Math.PI / 180 / 8);
     expect(Math.abs(layer.height - expected)).toBeLessThanOrEqual(1);
   });
 
@@ -103,7 +103,13 @@ describe('renderLayerPng', () => {
     const style: ContinuousStyle = { kind: 'continuous', ramp: 'YlOrRd', domain: [0, 200], units: 'h' };
     const layer = renderLayerPng(g, style);
     const img = await decodePng(layer.png);
-    for (const [y, x] of [[0, 0], [11, 15], [6, 7], [3, 12], [11, 0]]) {
+    for (const [y, x] of [
+      [0, 0],
+      [11, 15],
+      [6, 7],
+      [3, 12],
+      [11, 0],
+    ]) {
       const v = 10 * y + x;
       const want = cssToRgb(interpolateYlOrRd(v / 200));
       const px = img.at(colOfLon(g.lon[x], -3, 1, layer.width), rowOfLat(g.lat[y], 50, 53, layer.height));

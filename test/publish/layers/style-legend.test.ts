@@ -160,7 +160,8 @@ describe('ramps', () => {
       const nearest = Math.min(...hours.map((h) => Math.hypot(h[0] - p[0], h[1] - p[1], h[2] - p[2])));
       expect(nearest, `p = ${t}`).toBeGreaterThan(20);
     }
-    for (const [name, m] of Object.entries(DEFICIENCIES)) expect(deltaE(simulate(m, hexToRgb(stops[0].color)), simulate(m, hexToRgb(stops[stops.length - 1].color))), name).toBeGreaterThan(40);
+    for (const [name, m] of Object.entries(DEFICIENCIES))
+      expect(deltaE(simulate(m, hexToRgb(stops[0].color)), simulate(m, hexToRgb(stops[stops.length - 1].color))), name).toBeGreaterThan(40);
   });
 });
 

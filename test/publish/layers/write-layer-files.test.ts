@@ -25,6 +25,11 @@ describe('writeLayerFiles', () => {
     expect(im.getBoundingBox()).toEqual([30, 20, 38, 26]);
     expect(((await im.getGDALMetadata(0)) as Record<string, string>).UNITTYPE).toBe('h');
     expect(out.legend.ramp).toBe('Reds');
-    expect(out.coordinates).toEqual([[30, 26], [38, 26], [38, 20], [30, 20]]);
+    expect(out.coordinates).toEqual([
+      [30, 26],
+      [38, 26],
+      [38, 20],
+      [30, 20],
+    ]);
   });
 });

@@ -45,7 +45,22 @@ export function cellPolygon(g: CellGrid, id: number): Feature<Polygon> {
   const e = lon + g.dLon / 2;
   const s = Math.max(-MERCATOR_LAT, lat - g.dLat / 2);
   const n = Math.min(MERCATOR_LAT, lat + g.dLat / 2);
-  return { type: 'Feature', properties: { cell: id }, geometry: { type: 'Polygon', coordinates: [[[w, s], [e, s], [e, n], [w, n], [w, s]]] } };
+  return {
+    type: 'Feature',
+    properties: { cell: id },
+    geometry: {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [w, s],
+          [e, s],
+          [e, n],
+          [w, n],
+          [w, s],
+        ],
+      ],
+    },
+  };
 }
 
 /** The cell `dx` columns east and `dy` rows north of `id`, kept inside the grid. */

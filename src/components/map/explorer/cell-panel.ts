@@ -83,7 +83,12 @@ export function layerValueAtCell(ctx: Pick<PanelContext, 'index' | 'layer'>, rec
   const values = record.figures[layer.figure];
   if (!fig || !values) return null;
   const v = layer.view;
-  const combo = layer.figure === 'capacity-loss-shift' ? `${v.loss}.${v.exposure}` : layer.figure === 'wbgt-mean' ? `${v.exposure}` : `${v.workloadClass}.${v.acclimatization}.${v.exposure}`;
+  const combo =
+    layer.figure === 'capacity-loss-shift'
+      ? `${v.loss}.${v.exposure}`
+      : layer.figure === 'wbgt-mean'
+        ? `${v.exposure}`
+        : `${v.workloadClass}.${v.acclimatization}.${v.exposure}`;
   const k = fig.combos.indexOf(combo);
   const p = ctx.index.periods.indexOf(layer.period);
   if (k < 0 || p < 0) return null;
@@ -106,7 +111,11 @@ function figuresTable(ctx: PanelContext, record: CellRecord): HTMLTableElement |
   const exp = ctx.catalogue.choices.exposure.find((c) => c.id === s.exposure)?.label ?? s.exposure ?? '';
   const [b0, b1] = ctx.catalogue.baseline;
   table.append(
-    el('caption', {}, `${ctx.scenarioName ? `What-if climate “${ctx.scenarioName}” (not a forecast): ` : ''}Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in its per-cell table (CSV).`),
+    el(
+      'caption',
+      {},
+      `${ctx.scenarioName ? `What-if climate “${ctx.scenarioName}” (not a forecast): ` : ''}Shift hours per worker per month [h], ${cls}, ${acc.toLowerCase()}, ${exp.toLowerCase()}: statistics of the baseline years ${b0}–${b1}, the numbers of this cell's rows in its per-cell table (CSV).`,
+    ),
   );
   const thead = el('thead');
   const r1 = el('tr');
@@ -170,7 +179,10 @@ export function renderCellPanel(panel: HTMLElement, ctx: PanelContext, cell: num
     const legend = ctx.catalogue.legends[ctx.layer.legend];
     const value = layerValueAtCell(ctx, record);
     const p = el('p', { class: 'cell-layer-value', 'data-key': 'layer-value' });
-    p.append(`${[d.figure, d.view, d.period, d.statistic].filter((x) => x).join(', ')}: `, el('strong', { 'data-value': value === null ? '' : String(value) }, formatLayerValue(value, ctx.layer.units, ctx.unit, legend, 2)));
+    p.append(
+      `${[d.figure, d.view, d.period, d.statistic].filter((x) => x).join(', ')}: `,
+      el('strong', { 'data-value': value === null ? '' : String(value) }, formatLayerValue(value, ctx.layer.units, ctx.unit, legend, 2)),
+    );
     panel.append(p);
   }
   panel.append(figuresTable(ctx, record));

@@ -31,11 +31,19 @@ function fill(select: HTMLSelectElement, options: Array<{ id: string; label: str
 
 /** Shows each control with the options of the settled view and selects its values. */
 export function syncControls(c: ControlElements, catalogue: ExplorerCatalogue, options: Record<ChoiceKey, string[]>, state: ViewState): void {
-  fill(c.figure, catalogue.figures.map((f) => ({ id: f.id, label: f.label })), state.figure);
+  fill(
+    c.figure,
+    catalogue.figures.map((f) => ({ id: f.id, label: f.label })),
+    state.figure,
+  );
   for (const key of CHOICE_KEYS) {
     const ids = options[key];
     const labels = catalogue.choices[key];
-    fill(c.selects[key], ids.map((id) => ({ id, label: labels.find((x) => x.id === id)?.label ?? id })), state[key]);
+    fill(
+      c.selects[key],
+      ids.map((id) => ({ id, label: labels.find((x) => x.id === id)?.label ?? id })),
+      state[key],
+    );
     const wrap = c.selects[key].closest<HTMLElement>('[data-control]');
     // A control with one option left still says what is shown (e.g. the only statistic), but cannot change it.
     if (wrap) wrap.hidden = ids.length === 0;

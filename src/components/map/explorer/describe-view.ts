@@ -32,7 +32,9 @@ export function describeLayer(catalogue: ExplorerCatalogue, layer: ExplorerLayer
   // Niche figures carry the baseline's length, and a caution when it is shorter than the niche's 20 years.
   const niche = layer.figure === 'niche-class' || layer.figure === 'mean-annual-temperature';
   const n = baselineYears(catalogue.baseline);
-  const length = niche ? ` (${n} year${n === 1 ? '' : 's'}${n < NICHE_BASELINE_YEARS ? `; the niche was described with ${NICHE_BASELINE_YEARS}+ years` : ''})` : '';
+  const length = niche
+    ? ` (${n} year${n === 1 ? '' : 's'}${n < NICHE_BASELINE_YEARS ? `; the niche was described with ${NICHE_BASELINE_YEARS}+ years` : ''})`
+    : '';
   return {
     figure: figureLabel(catalogue, layer.figure),
     view: parts.join(', '),

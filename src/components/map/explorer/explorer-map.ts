@@ -84,7 +84,13 @@ export class ExplorerMap {
     m.addLayer({ id: 'land', type: 'fill', source: 'land', paint: { 'fill-color': cssRgb(MAP_COLOURS.land), 'fill-antialias': false } });
     m.addLayer({ id: 'borders', type: 'line', source: 'borders', paint: { 'line-color': cssRgb(MAP_COLOURS.border), 'line-width': 0.6 } });
     m.addLayer({ id: 'regions', type: 'line', source: 'regions', paint: { 'line-color': cssRgb(MAP_COLOURS.region), 'line-width': 1.4 } });
-    m.addLayer({ id: 'region-focus', type: 'line', source: 'regions', filter: ['==', ['get', 'id'], ''], paint: { 'line-color': EXPLORER_LINES.focus, 'line-width': 3 } });
+    m.addLayer({
+      id: 'region-focus',
+      type: 'line',
+      source: 'regions',
+      filter: ['==', ['get', 'id'], ''],
+      paint: { 'line-color': EXPLORER_LINES.focus, 'line-width': 3 },
+    });
     m.addLayer({ id: 'cursor', type: 'line', source: 'cursor', paint: { 'line-color': EXPLORER_LINES.cursor, 'line-width': 2, 'line-dasharray': [2, 1] } });
     m.addLayer({ id: 'selected-halo', type: 'line', source: 'selected', paint: { 'line-color': EXPLORER_LINES.selectedHalo, 'line-width': 4 } });
     m.addLayer({ id: 'selected', type: 'line', source: 'selected', paint: { 'line-color': EXPLORER_LINES.selected, 'line-width': 2 } });
@@ -169,10 +175,14 @@ export class ExplorerMap {
   }
 
   setCursor(feature: GeoJSON.Feature<Geometry> | null): void {
-    void this.pending.then(() => (this.map.getSource('cursor') as maplibregl.GeoJSONSource).setData(feature ? { type: 'FeatureCollection', features: [feature] } : EMPTY));
+    void this.pending.then(() =>
+      (this.map.getSource('cursor') as maplibregl.GeoJSONSource).setData(feature ? { type: 'FeatureCollection', features: [feature] } : EMPTY),
+    );
   }
 
   setSelected(feature: GeoJSON.Feature<Geometry> | null): void {
-    void this.pending.then(() => (this.map.getSource('selected') as maplibregl.GeoJSONSource).setData(feature ? { type: 'FeatureCollection', features: [feature] } : EMPTY));
+    void this.pending.then(() =>
+      (this.map.getSource('selected') as maplibregl.GeoJSONSource).setData(feature ? { type: 'FeatureCollection', features: [feature] } : EMPTY),
+    );
   }
 }

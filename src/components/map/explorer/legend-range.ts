@@ -55,7 +55,10 @@ export function legendRangeNote(
  * record's trend "change of the yearly value per decade (h decade-1)" and, for its p-value,
  * "probability from 0 to 1 (Mann–Kendall p-value)".
  */
-export function layerUnitWords(fig: { unitWords: { month: string; year: string } } | undefined, layer: { statistic: string; period: string; units: string }): string {
+export function layerUnitWords(
+  fig: { unitWords: { month: string; year: string } } | undefined,
+  layer: { statistic: string; period: string; units: string },
+): string {
   if (layer.statistic === 'trend') return `change of the yearly value per decade (${layer.units})`;
   if (layer.statistic === 'trend-p') return 'probability from 0 to 1 (Mann–Kendall p-value of the trend)';
   return fig ? fig.unitWords[layer.period === 'year' ? 'year' : 'month'] : layer.units;

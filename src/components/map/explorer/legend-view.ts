@@ -74,7 +74,9 @@ export function renderLegend(box: HTMLElement, legend: ExplorerLegend, title: st
     head.append(span);
   }
   box.append(head);
-  const caption = legend.domain ? `Colour ramp from ${legendTickLabel(legend, 0, unit)} to ${legendTickLabel(legend, legend.stops.length - 1, unit)} ${u}` : 'Classes';
+  const caption = legend.domain
+    ? `Colour ramp from ${legendTickLabel(legend, 0, unit)} to ${legendTickLabel(legend, legend.stops.length - 1, unit)} ${u}`
+    : 'Classes';
   box.append(legend.kind === 'continuous' ? continuous(legend, unit, caption) : classes(legend, unit));
   const notes = el('p', 'legend-notes');
   notes.textContent =

@@ -97,7 +97,12 @@ async function start(root: HTMLElement): Promise<void> {
   let state: ViewState = resolveView(catalogue, parseViewState(location.search, catalogue)).state;
   let layer: ExplorerLayer | undefined;
   const regionBox = async (id: string | undefined) => (id === undefined ? undefined : (await loader.byId(id))?.bbox);
-  const [w, s, e, n] = [grid.lon0 - grid.dLon / 2, grid.lat0 - grid.dLat / 2, grid.lon0 + (grid.nLon - 0.5) * grid.dLon, grid.lat0 + (grid.nLat - 0.5) * grid.dLat];
+  const [w, s, e, n] = [
+    grid.lon0 - grid.dLon / 2,
+    grid.lat0 - grid.dLat / 2,
+    grid.lon0 + (grid.nLon - 0.5) * grid.dLon,
+    grid.lat0 + (grid.nLat - 0.5) * grid.dLat,
+  ];
   const explorer = new ExplorerMap({
     container: mapBox,
     base,
@@ -118,7 +123,9 @@ async function start(root: HTMLElement): Promise<void> {
   const writeUrl = () => history.replaceState(null, '', `${location.pathname}${viewQuery(state, location.search)}${location.hash}`);
 
   // The selected cell and its record (null: not a land cell), and the keyboard cursor.
-  let selected: { cell: number; record: CellRecord | null; index: CellFiguresIndex; indexPath: string; regions: ReturnType<typeof regionsForPoint> } | undefined;
+  let selected:
+    | { cell: number; record: CellRecord | null; index: CellFiguresIndex; indexPath: string; regions: ReturnType<typeof regionsForPoint> }
+    | undefined;
   let cursor: number | undefined;
   // Per-cell figures of the record (data/cells/) and of each scenario shown (data/scenarios/<id>/cells/), fetched when needed.
   const chunks = new Map<string, Promise<CellChunk>>();
@@ -150,7 +157,16 @@ async function start(root: HTMLElement): Promise<void> {
     const centre = cellCentre(grid, selected.cell);
     renderCellPanel(
       panel,
-      { base, catalogue: withKnownRegions(), index: selected.index, state, layer, unit: currentUnit(), regions: selected.regions, scenarioName: scenario?.name },
+      {
+        base,
+        catalogue: withKnownRegions(),
+        index: selected.index,
+        state,
+        layer,
+        unit: currentUnit(),
+        regions: selected.regions,
+        scenarioName: scenario?.name,
+      },
       selected.cell,
       centre,
       selected.record,
@@ -251,7 +267,12 @@ async function start(root: HTMLElement): Promise<void> {
     tif.append(a);
     legendBox.append(tif);
     if (regionTable && shownValues?.layer === layer) updateRegionTable(regionTable, shown, layer, unit, shownValues.values);
-    map.getCanvas().setAttribute('aria-label', `Map: ${scenario ? `what-if climate ${scenario.name}, ` : ''}${describeLayerLine(shown, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`);
+    map
+      .getCanvas()
+      .setAttribute(
+        'aria-label',
+        `Map: ${scenario ? `what-if climate ${scenario.name}, ` : ''}${describeLayerLine(shown, layer)}. Arrow keys move a cell cursor, Enter shows the cell's figures, plus and minus zoom.`,
+      );
     renderPanel();
   }
 
@@ -348,7 +369,9 @@ async function start(root: HTMLElement): Promise<void> {
     if (token !== viewToken) return;
     explorer.showRegions(r.pieces ?? []);
     mapBox.dataset.regionsDrawn = String(r.pieces ? r.pieces.reduce((sum, p) => sum + p.regions.length, 0) : 0);
-    regionsNote.textContent = r.pieces ? '' : `About ${r.count.toLocaleString('en')} regions lie in this view, more than the map outlines at once: zoom in to see their outlines and names, or find one by name above.`;
+    regionsNote.textContent = r.pieces
+      ? ''
+      : `About ${r.count.toLocaleString('en')} regions lie in this view, more than the map outlines at once: zoom in to see their outlines and names, or find one by name above.`;
   }
 
   // Camera in the URL.

@@ -11,10 +11,7 @@
 import type { ExplorerRegion } from './catalogue.ts';
 import { foldName } from './region-index.ts';
 
-export type SearchResult =
-  | { kind: 'region'; id: string; name: string }
-  | { kind: 'point'; lat: number; lon: number }
-  | { kind: 'none'; message: string };
+export type SearchResult = { kind: 'region'; id: string; name: string } | { kind: 'point'; lat: number; lon: number } | { kind: 'none'; message: string };
 
 const fold = foldName;
 
@@ -32,7 +29,8 @@ export function parseCoordinates(text: string): SearchResult | null {
   // Latitude first, unless the letters say the longitude came first ("145.25 W 20.5 N").
   const lonFirst = (first.h !== undefined && 'EW'.includes(first.h)) || (second.h !== undefined && 'NS'.includes(second.h));
   const [la, lo] = lonFirst ? [second, first] : [first, second];
-  if ((la.h && !'NS'.includes(la.h)) || (lo.h && !'EW'.includes(lo.h))) return { kind: 'none', message: 'Give one latitude (N or S) and one longitude (E or W).' };
+  if ((la.h && !'NS'.includes(la.h)) || (lo.h && !'EW'.includes(lo.h)))
+    return { kind: 'none', message: 'Give one latitude (N or S) and one longitude (E or W).' };
   if ((la.h && la.v < 0) || (lo.h && lo.v < 0)) return { kind: 'none', message: 'A coordinate with N, S, E or W takes no minus sign.' };
   const lat = la.h === 'S' ? -la.v : la.v;
   const lon = lo.h === 'W' ? -lo.v : lo.v;
@@ -55,6 +53,13 @@ export function searchMap(text: string, regions: readonly ExplorerRegion[]): Sea
   const found = pick(starts) ?? (starts.length === 0 ? pick(named.filter((x) => x.n.includes(q))) : null);
   if (found) return found;
   const many = starts.length > 1 ? starts : named.filter((x) => x.n.includes(q));
-  if (many.length > 1) return { kind: 'none', message: `${many.length} regions match: ${many.slice(0, 5).map((x) => x.r.name).join(', ')}${many.length > 5 ? ', …' : ''}. Type more of the name.` };
+  if (many.length > 1)
+    return {
+      kind: 'none',
+      message: `${many.length} regions match: ${many
+        .slice(0, 5)
+        .map((x) => x.r.name)
+        .join(', ')}${many.length > 5 ? ', …' : ''}. Type more of the name.`,
+    };
   return { kind: 'none', message: `No region is named like “${text.trim()}”, and it is not a latitude and longitude.` };
 }

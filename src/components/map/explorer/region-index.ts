@@ -43,8 +43,11 @@ export interface RegionAreaPiece {
 export type { RegionIndex } from './catalogue.ts';
 import type { RegionIndex } from './catalogue.ts';
 
-// biome-ignore lint/suspicious/noMisleadingCharacterClass: the range is the combining diacritical marks, removed after NFD on purpose
-export const foldName = (s: string) => s.normalize('NFD').replace(/[\u0300-\u036f]/g, '').toLowerCase().trim().replace(/\s+/g, ' ');
+/** Combining diacritical marks (U+0300–U+036F), removed after NFD on purpose. */
+// biome-ignore lint/suspicious/noMisleadingCharacterClass: a class of combining marks alone, matched one by one
+const COMBINING_MARKS = /[\u0300-\u036f]/g;
+
+export const foldName = (s: string) => s.normalize('NFD').replace(COMBINING_MARKS, '').toLowerCase().trim().replace(/\s+/g, ' ');
 
 /** Path below the site's base of a piece. */
 export const regionPiecePath = (kind: 'name' | 'id' | 'area', k: number) => `map/regions/${kind}-${k}.json`;
@@ -90,12 +93,18 @@ export function regionPieces(
 ): { index: RegionIndex; pieces: Map<string, RegionListPiece | RegionAreaPiece> } {
   const all: PieceRegion[] = regions.map((r, i) => ({ ...r, i }));
   const pieces = new Map<string, RegionListPiece | RegionAreaPiece>();
-  const byName = chunks([...all].sort((a, b) => cmp(foldName(a.name), foldName(b.name)) || cmp(a.id, b.id)), size).map((list, k) => {
+  const byName = chunks(
+    [...all].sort((a, b) => cmp(foldName(a.name), foldName(b.name)) || cmp(a.id, b.id)),
+    size,
+  ).map((list, k) => {
     const path = regionPiecePath('name', k);
     pieces.set(path, { regions: list });
     return { path, from: foldName(list[0].name) };
   });
-  const byId = chunks([...all].sort((a, b) => cmp(a.id, b.id)), size).map((list, k) => {
+  const byId = chunks(
+    [...all].sort((a, b) => cmp(a.id, b.id)),
+    size,
+  ).map((list, k) => {
     const path = regionPiecePath('id', k);
     pieces.set(path, { regions: list });
     return { path, from: list[0].id };
@@ -104,7 +113,10 @@ export function regionPieces(
     const path = regionPiecePath('area', k);
     pieces.set(path, {
       regions: list,
-      outlines: { type: 'FeatureCollection', features: list.map((r) => ({ type: 'Feature', properties: { id: r.id, name: r.name }, geometry: geometry[r.i] })) },
+      outlines: {
+        type: 'FeatureCollection',
+        features: list.map((r) => ({ type: 'Feature', properties: { id: r.id, name: r.name }, geometry: geometry[r.i] })),
+      },
     });
     return { path, bbox: unionBox(list), count: list.length };
   });

@@ -11,10 +11,17 @@ import { describeLayerLine } from './describe-view.ts';
 import { formatLayerValue, unitLabel } from './value-format.ts';
 
 /** `values`: the layer's value per region, in the order of the catalogue's regions (its `values` file); each row names its place in that order (`data-region-index`). */
-export function updateRegionTable(table: HTMLTableElement, catalogue: ExplorerCatalogue, layer: ExplorerLayer, unit: TemperatureUnit, values: ReadonlyArray<number | null>): void {
+export function updateRegionTable(
+  table: HTMLTableElement,
+  catalogue: ExplorerCatalogue,
+  layer: ExplorerLayer,
+  unit: TemperatureUnit,
+  values: ReadonlyArray<number | null>,
+): void {
   const legend = catalogue.legends[layer.legend];
   const caption = table.querySelector('caption');
-  if (caption) caption.textContent = `${describeLayerLine(catalogue, layer)}: value for each region (area-weighted mean over its grid cells${catalogue.invented ? '; invented data' : ''}).`;
+  if (caption)
+    caption.textContent = `${describeLayerLine(catalogue, layer)}: value for each region (area-weighted mean over its grid cells${catalogue.invented ? '; invented data' : ''}).`;
   const head = table.querySelector<HTMLElement>('th[data-key="value"]');
   const u = unitLabel(layer.units, unit);
   if (head) head.textContent = legend.kind === 'categorical' ? 'Class' : `Value${u ? ` [${u}]` : ''}`;

@@ -7,7 +7,10 @@ import type { APIRoute, GetStaticPaths } from 'astro';
 import { loadExplorerRegionPieces } from '../../../data/explorer.ts';
 
 export const getStaticPaths: GetStaticPaths = () =>
-  [...loadExplorerRegionPieces().pieces.keys()].map((path) => ({ params: { piece: path.replace(/^map\/regions\//, '').replace(/\.json$/, '') }, props: { path } }));
+  [...loadExplorerRegionPieces().pieces.keys()].map((path) => ({
+    params: { piece: path.replace(/^map\/regions\//, '').replace(/\.json$/, '') },
+    props: { path },
+  }));
 
 export const GET: APIRoute = ({ props }) =>
   new Response(JSON.stringify(loadExplorerRegionPieces().pieces.get((props as { path: string }).path)), { headers: { 'Content-Type': 'application/json' } });

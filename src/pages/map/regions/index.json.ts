@@ -6,5 +6,4 @@
 import type { APIRoute } from 'astro';
 import { loadExplorerRegionPieces } from '../../../data/explorer.ts';
 
-export const GET: APIRoute = () =>
-  new Response(JSON.stringify(loadExplorerRegionPieces().index), { headers: { 'Content-Type': 'application/json' } });
+export const GET: APIRoute = () => new Response(JSON.stringify(loadExplorerRegionPieces().index), { headers: { 'Content-Type': 'application/json' } });

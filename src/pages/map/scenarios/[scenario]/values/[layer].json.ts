@@ -10,7 +10,10 @@ import { loadExplorerScenarios, loadScenarioValues } from '../../../../../data/e
 
 export const getStaticPaths: GetStaticPaths = () =>
   loadExplorerScenarios().flatMap((sc) =>
-    sc.layers.map((l, i) => ({ params: { scenario: sc.id, layer: l.values.slice(l.values.lastIndexOf('/') + 1, -'.json'.length) }, props: { scenario: sc.id, index: i } })),
+    sc.layers.map((l, i) => ({
+      params: { scenario: sc.id, layer: l.values.slice(l.values.lastIndexOf('/') + 1, -'.json'.length) },
+      props: { scenario: sc.id, index: i },
+    })),
   );
 
 export const GET: APIRoute = ({ props }) => {
