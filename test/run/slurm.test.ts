@@ -92,6 +92,10 @@ describe('the README Slurm script on a one-node Slurm cluster', () => {
         .sort(),
     ).toEqual(['slice-1-of-4', 'slice-2-of-4', 'slice-3-of-4', 'slice-4-of-4']);
     expect(readdirSync(join(dir, 'parts', 'bands')).length).toBe(2);
+    // One log a task, beside the partials (4 shard tasks + 2 merge tasks + the assemble step);
+    // none in the repository, where the script changes directory to run the command.
+    expect(readdirSync(join(dir, 'logs')).filter((n) => n.endsWith('.out')).length).toBe(7);
+    expect(readdirSync(ROOT).filter((n) => /^slurm-.*\.out$/.test(n))).toEqual([]);
 
     // The same atlas on one machine.
     const one = spawnSync(
