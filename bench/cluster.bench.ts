@@ -16,38 +16,21 @@
  * Every build runs as a separate process.
  */
 import { execFileSync, spawn, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
-import { join, relative } from 'node:path';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ensureDemoData, DEMO_DATA_DIR } from './pipeline-runs.ts';
 import { startSlurmCluster } from '../test/helpers/slurm-cluster.ts';
 import type { Bench, BenchFigure } from './types.ts';
+import { readTree, treeDifferences } from '../test/helpers/file-tree.ts';
 
 const ROOT = fileURLToPath(new URL('../', import.meta.url)).replace(/\/$/, '');
 const DIR = join(ROOT, '.cache', 'bench', 'cluster');
 const CLI = join(ROOT, 'bin', 'heathours.mjs');
 const BUILD_TIME = '2026-06-01T00:00:00.000Z';
 
-function tree(d: string): Map<string, Buffer> {
-  const out = new Map<string, Buffer>();
-  const walk = (p: string) => {
-    for (const e of readdirSync(p, { withFileTypes: true })) {
-      const q = join(p, e.name);
-      if (e.isDirectory()) walk(q);
-      else out.set(relative(d, q), readFileSync(q));
-    }
-  };
-  walk(d);
-  return out;
-}
-
-function sameTree(a: string, b: string): boolean {
-  const ta = tree(a);
-  const tb = tree(b);
-  if (ta.size !== tb.size) return false;
-  for (const [k, v] of ta) if (!tb.get(k)?.equals(v)) return false;
-  return true;
-}
+/** Whether two folders hold the same files with the same bytes. */
+const sameTree = (a: string, b: string): boolean => treeDifferences(readTree(a), readTree(b)).length === 0;
 
 /** One `heathours build …` process; returns its wall time [s]. */
 function cli(args: string[], cwd = DIR): number {

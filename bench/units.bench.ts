@@ -20,8 +20,7 @@ import { regionFieldStats } from '../pipeline/regions/region-stats.ts';
 import { computeNormals } from '../pipeline/climate/normals.ts';
 import type { HorizontalGrid } from '../pipeline/model/grid.ts';
 import type { Bench, BenchFigure } from './types.ts';
-
-type Pos = [number, number];
+import { jitteredLattice } from '../test/regions/helpers.ts';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const round = (x: number, d = 3) => Math.round(x * 10 ** d) / 10 ** d;
@@ -32,50 +31,6 @@ function grid(lat0: number, nLat: number, lon0: number, nLon: number, d: number)
     lat: Float64Array.from({ length: nLat }, (_, i) => lat0 + i * d),
     lon: Float64Array.from({ length: nLon }, (_, i) => lon0 + i * d),
   };
-}
-
-const feature = (id: string, ring: Pos[]) => ({
-  type: 'Feature',
-  properties: { id, name: `Region ${id}` },
-  geometry: { type: 'Polygon', coordinates: [[...ring, ring[0]]] },
-});
-const collection = (features: unknown[]) => ({ type: 'FeatureCollection', features });
-
-/** A jittered 25 × 40 lattice of quadrilaterals exactly covering 30–45 °E, 10–20 °N (invented shapes). */
-function lattice(): unknown {
-  const d = 0.25;
-  const ny = 25,
-    nx = 40;
-  const W = 30,
-    S = 10,
-    E = 30 + 60 * d,
-    N = 10 + 40 * d;
-  let seed = 7;
-  const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5;
-  const vx: number[][] = [],
-    vy: number[][] = [];
-  for (let j = 0; j <= ny; j++) {
-    vx.push([]);
-    vy.push([]);
-    for (let i = 0; i <= nx; i++) {
-      const edgeX = i === 0 || i === nx,
-        edgeY = j === 0 || j === ny;
-      vx[j].push(W + ((E - W) * i) / nx + (edgeX ? 0 : 0.3 * rnd() * ((E - W) / nx)));
-      vy[j].push(S + ((N - S) * j) / ny + (edgeY ? 0 : 0.3 * rnd() * ((N - S) / ny)));
-    }
-  }
-  const features = [];
-  for (let j = 0; j < ny; j++)
-    for (let i = 0; i < nx; i++)
-      features.push(
-        feature(`q-${j}-${i}`, [
-          [vx[j][i], vy[j][i]],
-          [vx[j][i + 1], vy[j][i + 1]],
-          [vx[j + 1][i + 1], vy[j + 1][i + 1]],
-          [vx[j + 1][i], vy[j + 1][i]],
-        ]),
-      );
-  return collection(features);
 }
 
 function layerRender(): BenchFigure[] {
@@ -110,7 +65,7 @@ function layerRender(): BenchFigure[] {
 function regionWeights(): BenchFigure[] {
   const g = grid(10.125, 40, 30.125, 60, 0.25);
   const tp = performance.now();
-  const regions = parseRegionGeoJson(lattice(), 'lattice.geojson');
+  const regions = parseRegionGeoJson(jitteredLattice(), 'lattice.geojson');
   const parseMs = performance.now() - tp;
   const t0 = performance.now();
   const all = allRegionCellWeights(regions, g);
@@ -131,7 +86,7 @@ function regionWeights(): BenchFigure[] {
 
 function regionStats(): BenchFigure[] {
   const g = grid(10.125, 40, 30.125, 60, 0.25);
-  const weights = allRegionCellWeights(parseRegionGeoJson(lattice(), 'lattice.geojson'), g);
+  const weights = allRegionCellWeights(parseRegionGeoJson(jitteredLattice(), 'lattice.geojson'), g);
   const nFields = 120,
     nCells = 2400;
   const fields = new Float32Array(nFields * nCells).map((_, k) => (k * 2654435761) % 1000);

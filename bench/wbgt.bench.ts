@@ -10,7 +10,7 @@
  * clearness 0.1–0.95 of the top of atmosphere, a third of the cells with ERA5-style direct solar.
  */
 import type { Bench, BenchFigure } from './types.ts';
-import { computeHours, type PhysicsArrays } from '../pipeline/physics/block.ts';
+import { allocatePhysicsArrays, computeHours, type PhysicsArrays } from '../pipeline/physics/block.ts';
 import { startPhysicsPool, type PoolRun } from '../pipeline/run/physics-pool.ts';
 import { sharedFloat32, sharedUint8 } from '../pipeline/infra/shared-memory.ts';
 import { threadCpuNs } from '../pipeline/infra/thread-cpu.ts';
@@ -34,35 +34,12 @@ function mulberry32(seed: number): () => number {
 
 export function makeArrays(): PhysicsArrays {
   const nCells = NY * NX;
-  const n = NT * nCells;
   const rnd = mulberry32(20240521);
   const time = new Float64Array(NT);
   for (let t = 0; t < NT; t++) time[t] = Date.UTC(2010, t % 2 === 0 ? 6 : 11, 10 + Math.floor(t / 48), t % 24);
   const lat = new Float64Array(NY).map((_, i) => -30 + (70 * i) / (NY - 1));
   const lon = new Float64Array(NX).map((_, i) => -120 + (240 * i) / (NX - 1));
-  const f = () => sharedFloat32(n);
-  const a: PhysicsArrays = {
-    time,
-    lat,
-    lon,
-    airTemperature: f(),
-    dewPointTemperature: f(),
-    surfacePressure: f(),
-    windSpeed: f(),
-    solarGlobal: f(),
-    solarDirect: f(),
-    cosZenith: f(),
-    directFraction: f(),
-    solar: f(),
-    wind2m: f(),
-    wbgtSun: f(),
-    wbgtShade: f(),
-    globeSun: f(),
-    wetBulbSun: f(),
-    globeShade: f(),
-    wetBulbShade: f(),
-    status: sharedUint8(n),
-  };
+  const a = allocatePhysicsArrays(time, lat, lon, sharedFloat32, sharedUint8);
   for (let t = 0; t < NT; t++) {
     for (let y = 0; y < NY; y++) {
       for (let x = 0; x < NX; x++) {

@@ -52,6 +52,44 @@ export interface PhysicsArrays {
   status: Uint8Array;
 }
 
+/**
+ * Every input and output array of the physics step for `time.length × lat.length × lon.length`
+ * cell-hours, the optional globe and wet-bulb outputs included, allocated by `float` and `byte`
+ * (plain typed arrays, or views on SharedArrayBuffers for worker threads). Inputs start at 0.
+ */
+export function allocatePhysicsArrays(
+  time: Float64Array,
+  lat: Float64Array,
+  lon: Float64Array,
+  float: (n: number) => Float32Array = (n) => new Float32Array(n),
+  byte: (n: number) => Uint8Array = (n) => new Uint8Array(n),
+): PhysicsArrays & Required<Pick<PhysicsArrays, 'globeSun' | 'wetBulbSun' | 'globeShade' | 'wetBulbShade'>> {
+  const n = time.length * lat.length * lon.length;
+  const f = () => float(n);
+  return {
+    time,
+    lat,
+    lon,
+    airTemperature: f(),
+    dewPointTemperature: f(),
+    surfacePressure: f(),
+    windSpeed: f(),
+    solarGlobal: f(),
+    solarDirect: f(),
+    cosZenith: f(),
+    directFraction: f(),
+    solar: f(),
+    wind2m: f(),
+    wbgtSun: f(),
+    wbgtShade: f(),
+    globeSun: f(),
+    wetBulbSun: f(),
+    globeShade: f(),
+    wetBulbShade: f(),
+    status: byte(n),
+  };
+}
+
 export interface PhysicsOptions {
   /** Averaging period of the radiation [min], default 60 (ERA5 hourly). */
   periodMinutes?: number;

@@ -9,6 +9,7 @@
  * one region at a time (the tables are read through `regionTables.get`, so a build with many
  * regions never holds them all), keeping only the largest moves of each list.
  */
+import { REGION_TABLE_COLUMNS } from './region-table.ts';
 
 /** Region tables by id, read one at a time. */
 export interface RegionTables {
@@ -104,17 +105,8 @@ function annualRows(csv: string): Map<string, { value: number; unit: string; col
   const lines = csv.trim().split('\n');
   const head = lines[0].split(',');
   const at = (name: string) => head.indexOf(name);
-  const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = [
-    'period',
-    'figure',
-    'workload_class',
-    'acclimatization',
-    'exposure',
-    'method',
-    'statistic',
-    'value',
-    'unit',
-  ].map(at);
+  // period, figure, workload_class, acclimatization, exposure, method, statistic, value, unit
+  const [iP, iF, iC, iA, iE, iM, iS, iV, iU] = REGION_TABLE_COLUMNS.slice(1, 10).map(at);
   for (const line of lines.slice(1)) {
     if (!line.includes(',year,')) continue; // annual rows only (cheap test before splitting)
     const c = line.split(',');

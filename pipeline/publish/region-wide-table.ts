@@ -7,8 +7,8 @@
  * header carries one unit. Pure: the tidy text in, rows out; the CSV and workbook writers are
  * region-spreadsheets.ts.
  */
-import { splitCsvRecord } from '../formats/csv.ts';
-import { csvLine } from '../formats/csv.ts';
+import { csvLine, splitCsvRecord } from '../formats/csv.ts';
+import { REGION_TABLE_COLUMNS } from './region-table.ts';
 
 const MONTH_ABBR = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 const PERIODS = [...MONTH_ABBR.map((_, i) => String(i + 1).padStart(2, '0')), 'year'];
@@ -53,19 +53,8 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
     if (i < 0) throw new Error(`region table has no column ${name}`);
     return i;
   };
-  const [cPeriod, cFigure, cClass, cAccl, cExp, cMethod, cStat, cValue, cUnit, cYears, cBase] = [
-    'period',
-    'figure',
-    'workload_class',
-    'acclimatization',
-    'exposure',
-    'method',
-    'statistic',
-    'value',
-    'unit',
-    'years_used',
-    'baseline',
-  ].map(col);
+  // period, figure, workload_class, acclimatization, exposure, method, statistic, value, unit, years_used, baseline
+  const [cPeriod, cFigure, cClass, cAccl, cExp, cMethod, cStat, cValue, cUnit, cYears, cBase] = REGION_TABLE_COLUMNS.slice(1).map(col);
   const tables = new Map<string, WideTable>();
   const index = new Map<string, WideTable['rows'][number]>();
   // The pipeline's own column order (region-table.ts): a row's key is then one slice of its line,

@@ -7,7 +7,6 @@
 import { statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { runInWorkers } from '../infra/worker-pool.ts';
-import { sha256File } from './dataset-file.ts';
 
 /** Below this many bytes in all, the files are hashed on this thread [B]. */
 export const THREADED_DIGEST_BYTES = 256 * 1024 * 1024;

@@ -13,9 +13,9 @@ import { makeEstimateContext, type EstimateContext } from '../schedule/context.t
 import { EstimateAtlasInvalid, EstimateAtlasNotFound, EstimateDataUnavailable } from '../schedule/errors.ts';
 import type { AtlasLoader } from '../schedule/place.ts';
 import { validateShift } from '../work/shifts.ts';
+import { calculatorIndexSchema, cellChunkIndexSchema } from '../publish/calculator-index-schema.ts';
 
 const slug = z.string().regex(/^[a-z0-9][a-z0-9-]*$/);
-const year = z.number().int();
 const rate = z.number().positive().max(1000);
 
 const manifestPartSchema = z
@@ -55,31 +55,6 @@ const manifestPartSchema = z
   })
   .passthrough();
 
-const calculatorSchema = z
-  .object({
-    version: z.literal(1),
-    years: z.array(year).min(1),
-    baseline: z.tuple([year, year]),
-    regions: z.array(z.object({ id: slug, name: z.string().min(1), path: z.string().min(1) }).passthrough()),
-  })
-  .passthrough();
-
-const cellsSchema = z
-  .object({
-    version: z.literal(1),
-    years: z.array(year).min(1),
-    grid: z.object({
-      nLat: z.number().int().positive(),
-      nLon: z.number().int().positive(),
-      lat0: z.number(),
-      dLat: z.number(),
-      lon0: z.number(),
-      dLon: z.number(),
-    }),
-    chunks: z.array(z.object({ path: z.string().min(1), firstCell: z.number().int().nonnegative(), lastCell: z.number().int().nonnegative() }).passthrough()),
-  })
-  .passthrough();
-
 async function readJson<T>(path: string, schema: z.ZodType<T>): Promise<T> {
   let raw: unknown;
   try {
@@ -115,9 +90,9 @@ export async function openEstimateAtlas(dir: string): Promise<EstimateAtlas> {
     throw EstimateAtlasNotFound({ dir: root, missing: 'data/calculator/index.json: the atlas was built without calculator tiles' }, { file: calcPath });
   const manifestFile = join(root, 'data', 'manifest.json');
   const manifest = await readJson(manifestFile, manifestPartSchema);
-  const calculator = await readJson(calcPath, calculatorSchema);
+  const calculator = await readJson(calcPath, calculatorIndexSchema);
   const cellsPath = join(root, 'data', 'calculator', 'cells', 'index.json');
-  const cells = existsSync(cellsPath) ? await readJson(cellsPath, cellsSchema) : null;
+  const cells = existsSync(cellsPath) ? await readJson(cellsPath, cellChunkIndexSchema) : null;
   if (cells && cells.years.join() !== calculator.years.join()) {
     throw EstimateAtlasInvalid(
       { path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calculator.years.join(', ')}`] },

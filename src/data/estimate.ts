@@ -8,50 +8,22 @@
  */
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { z } from 'zod';
 import { validateShift } from '../../pipeline/work/shifts.ts';
 import { makeEstimateContext, type EstimateContext } from '../../pipeline/schedule/context.ts';
 import { siteDataDir } from './data-dir.ts';
 import { readValidatedJson } from './read-json.ts';
 import { loadManifest, manifestPath } from './manifest.ts';
 import { SiteDataInvalid } from './errors.ts';
-
-const slug = z.string().regex(/^[a-z0-9][a-z0-9-]*$/);
-const year = z.number().int();
-
-const calculatorSchema = z
-  .object({
-    version: z.literal(1),
-    years: z.array(year).min(1),
-    baseline: z.tuple([year, year]),
-    regions: z.array(z.object({ id: slug, name: z.string().min(1), path: z.string().min(1) })),
-  })
-  .passthrough();
-
-const cellsSchema = z
-  .object({
-    version: z.literal(1),
-    years: z.array(year).min(1),
-    grid: z.object({
-      nLat: z.number().int().positive(),
-      nLon: z.number().int().positive(),
-      lat0: z.number(),
-      dLat: z.number(),
-      lon0: z.number(),
-      dLon: z.number(),
-    }),
-    chunks: z.array(z.object({ path: z.string().min(1), firstCell: z.number().int().nonnegative(), lastCell: z.number().int().nonnegative() }).passthrough()),
-  })
-  .passthrough();
+import { calculatorIndexSchema, cellChunkIndexSchema } from '../../pipeline/publish/calculator-index-schema.ts';
 
 /** The calculator's context and the atlas title, or null when the data folder has no calculator index. */
 export function loadEstimateContext(dataDir: string = siteDataDir()): { ctx: EstimateContext; atlasTitle: string } | null {
   const calcPath = join(dataDir, 'data', 'calculator', 'index.json');
   if (!existsSync(calcPath)) return null;
-  const calc = readValidatedJson(calcPath, calculatorSchema, 'calculator index (data/calculator/index.json)');
+  const calc = readValidatedJson(calcPath, calculatorIndexSchema, 'calculator index (data/calculator/index.json)');
   const m = loadManifest(dataDir);
   const cellsPath = join(dataDir, 'data', 'calculator', 'cells', 'index.json');
-  const cells = existsSync(cellsPath) ? readValidatedJson(cellsPath, cellsSchema, 'cell tile index (data/calculator/cells/index.json)') : null;
+  const cells = existsSync(cellsPath) ? readValidatedJson(cellsPath, cellChunkIndexSchema, 'cell tile index (data/calculator/cells/index.json)') : null;
   if (cells && cells.years.join() !== calc.years.join()) {
     throw SiteDataInvalid(
       { path: cellsPath, problems: [`years ${cells.years.join(', ')} differ from the calculator index's ${calc.years.join(', ')}`] },

@@ -13,7 +13,7 @@ describe('quantile (Hyndman–Fan type 7)', () => {
   });
 
   it('does not depend on the input order (the same 30 counts shuffled)', () => {
-    const shuffled = [...METHODS_COUNTS].reverse().map((v, i, a) => a[(i * 7) % a.length]);
+    const shuffled = [...METHODS_COUNTS].reverse().map((_v, i, a) => a[(i * 7) % a.length]);
     expect([...shuffled].sort((a, b) => a - b)).toEqual(METHODS_COUNTS);
     expect(quantile(shuffled, 0.9).value).toBeCloseTo(142.4, 12);
   });

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { computeHours, type PhysicsArrays } from '../../pipeline/physics/block.ts';
+import { allocatePhysicsArrays, computeHours, type PhysicsArrays } from '../../pipeline/physics/block.ts';
 import { startPhysicsPool } from '../../pipeline/run/physics-pool.ts';
 import { sharedFloat32, sharedUint8 } from '../../pipeline/infra/shared-memory.ts';
 import { runInWorkers } from '../../pipeline/infra/worker-pool.ts';
@@ -28,29 +28,13 @@ function arrays(): PhysicsArrays {
     n = nT * nY * nX;
   let s = 12345;
   const rnd = () => (s = (s * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
-  const f = () => sharedFloat32(n);
-  const a: PhysicsArrays = {
-    time: Float64Array.from({ length: nT }, (_, t) => Date.UTC(2021, 6, 15, t)),
-    lat: Float64Array.from({ length: nY }, (_, i) => 5 + 4 * i),
-    lon: Float64Array.from({ length: nX }, (_, i) => 20 + 6 * i),
-    airTemperature: f(),
-    dewPointTemperature: f(),
-    surfacePressure: f(),
-    windSpeed: f(),
-    solarGlobal: f(),
-    solarDirect: f(),
-    cosZenith: f(),
-    directFraction: f(),
-    solar: f(),
-    wind2m: f(),
-    wbgtSun: f(),
-    wbgtShade: f(),
-    globeSun: f(),
-    wetBulbSun: f(),
-    globeShade: f(),
-    wetBulbShade: f(),
-    status: sharedUint8(n),
-  };
+  const a = allocatePhysicsArrays(
+    Float64Array.from({ length: nT }, (_, t) => Date.UTC(2021, 6, 15, t)),
+    Float64Array.from({ length: nY }, (_, i) => 5 + 4 * i),
+    Float64Array.from({ length: nX }, (_, i) => 20 + 6 * i),
+    sharedFloat32,
+    sharedUint8,
+  );
   for (let i = 0; i < n; i++) {
     a.airTemperature[i] = 40 * rnd();
     a.dewPointTemperature[i] = a.airTemperature[i] - 1 - 20 * rnd();

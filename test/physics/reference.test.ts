@@ -6,7 +6,6 @@
  */
 import { describe, it, expect } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { wbgtKernel } from '../../pipeline/physics/kernel.ts';
 import { computePoint } from '../../pipeline/physics/point-row.ts';
 import { dewPointFromRelativeHumidity } from '../../pipeline/physics/humidity.ts';

@@ -15,7 +15,6 @@ import { MONTHS, N_EXPOSURES, N_LOSS, LOSS_VIEWS } from '../../pipeline/reduce/l
 import { localHours, parseWorkloadClasses, resolveWorkSettings, workSettingsSchema } from '../../pipeline/work/index.ts';
 
 const classes = parseWorkloadClasses(parse(readFileSync(new URL('../../content/workload-classes.yaml', import.meta.url), 'utf8')));
-const HOUR = 3_600_000;
 /** Three shift hours (local 11–14 h on Thursday 2021-07-15 in UTC−10), hour ends in UTC. */
 const TIME = Float64Array.from([0, 1, 2], (k) => Date.UTC(2021, 6, 15, 22 + k));
 /** Invented WBGT in the sun and in the shade [°C], one cell. */

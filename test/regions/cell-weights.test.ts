@@ -5,7 +5,7 @@ import { applyLandMask } from '../../pipeline/regions/land-mask.ts';
 import { parseRegionGeoJson } from '../../pipeline/regions/parse-regions.ts';
 import { EARTH_RADIUS_KM, rectangleAreaSr, ringAreaSr } from '../../pipeline/regions/spherical-area.ts';
 import type { Region } from '../../pipeline/regions/region.ts';
-import { collection, expectCatalogued, grid, polygonFeature, rect } from './helpers.ts';
+import { expectCatalogued, grid, jitteredLattice, polygonFeature, rect } from './helpers.ts';
 
 type Pos = [number, number];
 const RAD = Math.PI / 180;
@@ -206,41 +206,8 @@ describe('region cell weights (exact clipping, areas on the sphere)', () => {
 
   it("1,000 regions tiling a 40×60 grid: every cell's fractions sum to 1 within 1e-9 (its time: npm run bench -- --only region-weights-1000)", () => {
     // A jittered 25 × 40 lattice of quadrilaterals exactly covering the grid (invented test shapes).
-    const d = 0.25;
-    const gBig = grid(10 + d / 2, 40, 30 + d / 2, 60, d);
-    const ny = 25,
-      nx = 40;
-    const W = 30,
-      S = 10,
-      E = 30 + 60 * d,
-      N = 10 + 40 * d;
-    let seed = 7;
-    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5;
-    const vx: number[][] = [],
-      vy: number[][] = [];
-    for (let j = 0; j <= ny; j++) {
-      vx.push([]);
-      vy.push([]);
-      for (let i = 0; i <= nx; i++) {
-        const edgeX = i === 0 || i === nx,
-          edgeY = j === 0 || j === ny;
-        vx[j].push(W + ((E - W) * i) / nx + (edgeX ? 0 : 0.3 * rnd() * ((E - W) / nx)));
-        vy[j].push(S + ((N - S) * j) / ny + (edgeY ? 0 : 0.3 * rnd() * ((N - S) / ny)));
-      }
-    }
-    const features = [];
-    for (let j = 0; j < ny; j++) {
-      for (let i = 0; i < nx; i++) {
-        const ring: Pos[] = [
-          [vx[j][i], vy[j][i]],
-          [vx[j][i + 1], vy[j][i + 1]],
-          [vx[j + 1][i + 1], vy[j + 1][i + 1]],
-          [vx[j + 1][i], vy[j + 1][i]],
-        ];
-        features.push(polygonFeature(`q-${j}-${i}`, [ring]));
-      }
-    }
-    const regions = parseRegionGeoJson(collection(...features), 'tiles.geojson');
+    const gBig = grid(10 + 0.25 / 2, 40, 30 + 0.25 / 2, 60, 0.25);
+    const regions = parseRegionGeoJson(jitteredLattice(), 'tiles.geojson');
     const all = allRegionCellWeights(regions, gBig);
     const sum = new Float64Array(2400);
     for (const w of all) w.cells.forEach((c, k) => (sum[c] += w.fraction[k]));

@@ -33,3 +33,41 @@ export function rect(w: number, s: number, e: number, n: number): Pos[] {
     [w, n],
   ];
 }
+
+/**
+ * 1,000 invented regions: a jittered 25 × 40 lattice of quadrilaterals exactly covering 30–45 °E,
+ * 10–20 °N (interior vertices moved by up to ±15 % of a step, seeded; outer edges straight), as
+ * a GeoJSON FeatureCollection with ids `q-<row>-<column>`. Tiles a 40 × 60 grid of 0.25° cells.
+ */
+export function jitteredLattice() {
+  const d = 0.25;
+  const ny = 25;
+  const nx = 40;
+  const [W, S, E, N] = [30, 10, 30 + 60 * d, 10 + 40 * d];
+  let seed = 7;
+  const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647 - 0.5;
+  const vx: number[][] = [];
+  const vy: number[][] = [];
+  for (let j = 0; j <= ny; j++) {
+    vx.push([]);
+    vy.push([]);
+    for (let i = 0; i <= nx; i++) {
+      const edgeX = i === 0 || i === nx;
+      const edgeY = j === 0 || j === ny;
+      vx[j].push(W + ((E - W) * i) / nx + (edgeX ? 0 : 0.3 * rnd() * ((E - W) / nx)));
+      vy[j].push(S + ((N - S) * j) / ny + (edgeY ? 0 : 0.3 * rnd() * ((N - S) / ny)));
+    }
+  }
+  const features = [];
+  for (let j = 0; j < ny; j++)
+    for (let i = 0; i < nx; i++) {
+      const ring: Pos[] = [
+        [vx[j][i], vy[j][i]],
+        [vx[j][i + 1], vy[j][i + 1]],
+        [vx[j + 1][i + 1], vy[j + 1][i + 1]],
+        [vx[j + 1][i], vy[j + 1][i]],
+      ];
+      features.push(polygonFeature(`q-${j}-${i}`, [ring]));
+    }
+  return collection(...features);
+}

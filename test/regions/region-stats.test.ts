@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { allRegionCellWeights, regionCellWeights } from '../../pipeline/regions/cell-weights.ts';
+import { regionCellWeights } from '../../pipeline/regions/cell-weights.ts';
 import { cellCentre, describeGridCells } from '../../pipeline/regions/grid-cells.ts';
 import { parseRegionGeoJson } from '../../pipeline/regions/parse-regions.ts';
 import { regionFieldStats } from '../../pipeline/regions/region-stats.ts';
-import { collection, expectCatalogued, grid, polygonFeature, rect } from './helpers.ts';
+import { expectCatalogued, grid, polygonFeature, rect } from './helpers.ts';
 
 const RAD = Math.PI / 180;
 const g4 = grid(0.5, 4, 10.5, 4); // 4×4 cells of 1°, 0–4 °N, 10–14 °E

@@ -8,13 +8,14 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { execFile, spawn } from 'node:child_process';
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative } from 'node:path';
+import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas, type BuildReport } from '../../pipeline/run/build-atlas.ts';
 import { expectCataloguedAsync } from '../helpers/catalogued.ts';
 import { CLI_TS } from '../helpers/cli.ts';
 import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
+import { readTree, treeDifferences } from '../helpers/file-tree.ts';
 
 const run = promisify(execFile);
 const ROOT = new URL('../../', import.meta.url).pathname;
@@ -28,23 +29,9 @@ function atlasYaml(opts: { years?: [number, number]; baseline?: [number, number]
   return `${testAtlasYaml({ id: 'dist', title: opts.title ?? 'Distributed test atlas (invented data)', years: [y0, y1], baseline: [b0, b1], files: `${opts.inputs ?? 'inputs'}/*.nc`, shards: '{ cellsPerTile: 16, cellsPerBlock: 12 }', classesFile: opts.classesFile ?? join(ROOT, 'content/workload-classes.yaml') })}`;
 }
 
-/** Every file under `d`, relative path → bytes. */
-function tree(d: string): Map<string, Buffer> {
-  const out = new Map<string, Buffer>();
-  const walk = (p: string) => {
-    for (const e of readdirSync(p, { withFileTypes: true })) {
-      const q = join(p, e.name);
-      if (e.isDirectory()) walk(q);
-      else out.set(relative(d, q), readFileSync(q));
-    }
-  };
-  walk(d);
-  return out;
-}
-
 function expectSameTree(a: string, b: string, except: string[] = []): void {
-  const ta = tree(a);
-  const tb = tree(b);
+  const ta = readTree(a);
+  const tb = readTree(b);
   for (const x of except) {
     ta.delete(x);
     tb.delete(x);
@@ -55,9 +42,7 @@ function expectSameTree(a: string, b: string, except: string[] = []): void {
       t.set('manifest.json', Buffer.from(JSON.stringify(m)));
     }
   }
-  expect([...ta.keys()].sort()).toEqual([...tb.keys()].sort());
-  const differing = [...ta].filter(([k, v]) => !v.equals(tb.get(k)!)).map(([k]) => k);
-  expect(differing, 'files whose bytes differ').toEqual([]);
+  expect(treeDifferences(ta, tb), 'files missing on one side or whose bytes differ').toEqual([]);
 }
 
 async function cli(args: string[]): Promise<{ stdout: string; stderr: string }> {

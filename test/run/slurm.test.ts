@@ -9,10 +9,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative } from 'node:path';
+import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { startSlurmCluster, type SlurmCluster } from '../helpers/slurm-cluster.ts';
 import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
+import { readTree, treeDifferences } from '../helpers/file-tree.ts';
 
 const ROOT = new URL('../../', import.meta.url).pathname.replace(/\/$/, '');
 const BUILD_TIME = '2026-06-01T00:00:00.000Z';
@@ -25,20 +26,6 @@ function readmeScript(): string {
   const m = /<!-- slurm-script[^>]*-->\n```sh\n([\s\S]*?)```/.exec(readme);
   if (!m) throw new Error('README.md has no Slurm script after a `<!-- slurm-script … -->` marker');
   return m[1];
-}
-
-/** Every file under `d`: relative path → bytes. */
-function tree(d: string): Map<string, Buffer> {
-  const out = new Map<string, Buffer>();
-  const walk = (p: string) => {
-    for (const e of readdirSync(p, { withFileTypes: true })) {
-      const q = join(p, e.name);
-      if (e.isDirectory()) walk(q);
-      else out.set(relative(d, q), readFileSync(q));
-    }
-  };
-  walk(d);
-  return out;
 }
 
 beforeAll(async () => {
@@ -108,11 +95,9 @@ describe('the README Slurm script on a one-node Slurm cluster', () => {
       },
     );
     expect(one.status, one.stderr).toBe(0);
-    const a = tree(join(dir, 'site-one'));
-    const b = tree(join(dir, 'site-slurm'));
-    expect([...b.keys()].sort()).toEqual([...a.keys()].sort());
-    const differing = [...a].filter(([k, v]) => !v.equals(b.get(k)!)).map(([k]) => k);
-    expect(differing, 'files whose bytes differ').toEqual([]);
+    const a = readTree(join(dir, 'site-one'));
+    const b = readTree(join(dir, 'site-slurm'));
+    expect(treeDifferences(a, b), 'files missing on one side or whose bytes differ').toEqual([]);
     expect(a.size).toBeGreaterThan(100);
   }, 1_500_000);
 });

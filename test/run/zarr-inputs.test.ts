@@ -9,14 +9,15 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createServer, type Server } from 'node:http';
 import { execFileSync } from 'node:child_process';
-import { cpSync, createReadStream, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { cpSync, createReadStream, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
-import { join, normalize, relative } from 'node:path';
+import { join, normalize } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
 import { writeZarrFromNetcdf } from '../helpers/write-zarr.ts';
+import { readTree, treeDifferences } from '../helpers/file-tree.ts';
 
 let dir = '';
 let server: Server;
@@ -25,25 +26,12 @@ let baseUrl = '';
 /** The configuration; `inputs` is the only line that differs between builds (written into a fixed-text file by name). */
 const atlasYaml = (inputs: string) => testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2022], datasetInputs: inputs });
 
-function tree(root: string): Map<string, Buffer> {
-  const out = new Map<string, Buffer>();
-  const walk = (d: string) => {
-    for (const e of readdirSync(d, { withFileTypes: true })) {
-      const p = join(d, e.name);
-      if (e.isDirectory()) walk(p);
-      else out.set(relative(root, p), readFileSync(p));
-    }
-  };
-  walk(root);
-  return out;
-}
-
 async function build(name: string, inputs: string): Promise<Map<string, Buffer>> {
   const cfg = join(dir, name, 'atlas.yaml');
   mkdirSync(join(dir, name), { recursive: true });
   writeFileSync(cfg, atlasYaml(inputs));
   await buildAtlas({ configPath: cfg, outDir: join(dir, name, 'out'), jobs: 1, quiet: true, dataOnly: true, cache: false });
-  return tree(join(dir, name, 'out'));
+  return readTree(join(dir, name, 'out'));
 }
 
 const savedTime = process.env.HEATHOURS_BUILD_TIME;
@@ -84,13 +72,7 @@ describe('build from Zarr stores', () => {
     expect(nc.size).toBeGreaterThan(50);
     const regionTables = [...nc.keys()].filter((p) => /region/i.test(p) && /\.(csv|json|xlsx)$/.test(p));
     expect(regionTables.length).toBeGreaterThan(5);
-    const differingFrom = (other: Map<string, Buffer>) => {
-      expect([...other.keys()].sort()).toEqual([...nc.keys()].sort());
-      return [...nc]
-        .filter(([p, b]) => !b.equals(other.get(p)!))
-        .map(([p]) => p)
-        .sort();
-    };
+    const differingFrom = (other: Map<string, Buffer>) => treeDifferences(nc, other);
     // Same configuration text: only the inputs' description differs.
     expect(differingFrom(local)).toEqual(['data/inventory.json', 'data/manifest.json']);
     // Over HTTP the configuration names URLs: the workbooks also state its other digest, and differ in nothing else (Info-ZIP's unzip -p).

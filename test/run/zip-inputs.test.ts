@@ -6,12 +6,13 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, relative } from 'node:path';
+import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { buildAtlas } from '../../pipeline/run/build-atlas.ts';
 import { testAtlasYaml } from '../helpers/atlas-yaml.ts';
+import { readTree, treeDifferences } from '../helpers/file-tree.ts';
 
 let dir = '';
 const INSTANT = 'time,latitude,longitude,t2m,d2m,sp,u10,v10';
@@ -20,26 +21,12 @@ const ACCUM = 'time,latitude,longitude,ssrd,fdir,strd';
 /** The same configuration text for every build (its digest is part of what is published). */
 const ATLAS_YAML = `${testAtlasYaml({ id: 'small', title: 'Small test atlas (invented data)', years: [2022, 2022], files: 'inputs/*' })}`;
 
-/** Every file under `root` with its bytes, by relative path. */
-function tree(root: string): Map<string, Buffer> {
-  const out = new Map<string, Buffer>();
-  const walk = (d: string) => {
-    for (const e of readdirSync(d, { withFileTypes: true })) {
-      const p = join(d, e.name);
-      if (e.isDirectory()) walk(p);
-      else out.set(relative(root, p), readFileSync(p));
-    }
-  };
-  walk(root);
-  return out;
-}
-
 /** Builds the atlas of folder `name` (its inputs/ already there). */
 async function build(name: string): Promise<Map<string, Buffer>> {
   const cfg = join(dir, name, 'atlas.yaml');
   writeFileSync(cfg, ATLAS_YAML);
   await buildAtlas({ configPath: cfg, outDir: join(dir, name, 'out'), jobs: 1, quiet: true, dataOnly: true, cache: false });
-  return tree(join(dir, name, 'out'));
+  return readTree(join(dir, name, 'out'));
 }
 
 /**
@@ -112,9 +99,7 @@ describe('build from ZIP archives of the two streams', () => {
     const deflated = await build('deflated');
     expect(plain.size).toBeGreaterThan(50);
     for (const other of [stored, deflated]) {
-      expect([...other.keys()].sort()).toEqual([...plain.keys()].sort());
-      const differing = [...plain].filter(([p, b]) => !b.equals(other.get(p)!)).map(([p]) => p);
-      expect(differing).toEqual([]);
+      expect(treeDifferences(plain, other)).toEqual([]);
     }
     // The inventory lists the members under the names unzip gives them, with the stream files' SHA-256.
     const inv = JSON.parse(plain.get('data/inventory.json')!.toString('utf8')) as { files: Array<{ name: string }> };
@@ -128,13 +113,9 @@ describe('build from ZIP archives of the two streams', () => {
   }, 600_000);
 
   it('monthly files of the same hours publish the same figures as the yearly streams: only the files that list the inputs differ', async () => {
-    const plain = tree(join(dir, 'plain/out'));
+    const plain = readTree(join(dir, 'plain/out'));
     const monthly = await build('monthly');
-    expect([...monthly.keys()].sort()).toEqual([...plain.keys()].sort());
-    const differing = [...plain]
-      .filter(([p, b]) => !b.equals(monthly.get(p)!))
-      .map(([p]) => p)
-      .sort();
+    const differing = treeDifferences(plain, monthly);
     // inventory.json lists the input files; manifest.json lists them and the digests of the
     // others; each region workbook and the per-cell NetCDF's `source` attribute state the number
     // of input files (3 against 13).

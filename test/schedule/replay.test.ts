@@ -23,7 +23,6 @@ import { expectCatalogued } from '../helpers/catalogued.ts';
 
 const day = (s: string) => parseDay(s, 'test');
 const dayShift = parsePattern(['07:00-17:00'], 'mon-sat');
-const noCost: Costs = { rate: 0, dailyCost: 0, currency: 'EUR' };
 
 /** A weather year with `lostRate` per month (index 0 = January) at every hour of the day. */
 function weather(year: number, lostByMonth: number[], aboveByMonth = lostByMonth.map((l) => (l > 0 ? 1 : 0))): WeatherYear {

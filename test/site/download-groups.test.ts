@@ -6,19 +6,11 @@
 import { describe, expect, it } from 'vitest';
 import { downloadGroups } from '../../src/lib/downloads.ts';
 import type { ManifestArtefact, SiteManifest } from '../../src/data/manifest.ts';
+import { manifestLayer } from './manifest-layer.ts';
 
 const SHA = 'a'.repeat(64);
 const art = (path: string, kind: ManifestArtefact['kind'], bytes: number): ManifestArtefact => ({ path, kind, description: path, bytes, sha256: SHA });
-const layer = (root: string, stat: 'mean' | 'p90', period: string) => ({
-  id: `hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}`,
-  figure: 'hours-lost-shift',
-  combo: 'moderate.acclimatized.sun',
-  statistic: stat,
-  period,
-  units: 'h',
-  png: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.png`,
-  tif: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.tif`,
-});
+const layer = (root: string, stat: 'mean' | 'p90', period: string) => manifestLayer(root, stat, period);
 const layerFiles = (root: string, stat: 'mean' | 'p90', period: string) => [
   art(layer(root, stat, period).png, 'layer-png', 100),
   art(layer(root, stat, period).tif, 'layer-geotiff', 1000),

@@ -16,7 +16,6 @@ import { tmpdir } from 'node:os';
 import { splitCsvRecord } from '../../pipeline/formats/csv.ts';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { buildPipelineData } from './pipeline-data.ts';
 import { buildRestShadeData } from './rest-shade-data.ts';
 import { loadEstimateContext } from '../../src/data/estimate.ts';
 import type { EstimateContext } from '../../pipeline/schedule/context.ts';
@@ -200,7 +199,7 @@ describe('monthly figures from a histogram (hand-computed)', () => {
 describe('statistics across the baseline years (pipeline/climate, type 7)', () => {
   it('the P90 year of the docs/methods.md §10.1 example (30 years, given unsorted) is 142.4 h and the mean is their mean', () => {
     const counts = [40, 43, 48, 52, 55, 57, 66, 72, 74, 88, 89, 95, 97, 97, 100, 102, 103, 112, 117, 123, 129, 137, 137, 137, 138, 140, 142, 146, 148, 154];
-    const shuffled = counts.map((c, i) => counts[(i * 7) % 30]);
+    const shuffled = counts.map((_c, i) => counts[(i * 7) % 30]);
     const perYear: MonthlyYear[] = shuffled.map((c, i) => {
       const expected = Float64Array.from({ length: 12 }, (_, m) => 24 * new Date(Date.UTC(1991 + i, m + 1, 0)).getUTCDate());
       return {

@@ -11,6 +11,7 @@ import { explorerScenarios, scenarioCaveat, scenarioLayersPath, scenarioValuesPa
 import { SCENARIO_CAVEAT } from '../../pipeline/scenario/describe.ts';
 import type { ManifestLayers } from '../../src/data/manifest-layers.ts';
 import type { ExplorerCatalogue } from '../../src/components/map/explorer/catalogue.ts';
+import { manifestLayer } from './manifest-layer.ts';
 
 const corners = [
   [0, 1],
@@ -29,18 +30,10 @@ const legend = (max: number) => ({
   outOfDomain: 'clamped',
   noData: { color: 'transparent', meaning: 'sea' },
 });
-const mLayer = (root: string, stat: string, period: string, max: number) => ({
-  id: `hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}`,
-  figure: 'hours-lost-shift',
-  combo: 'moderate.acclimatized.sun',
-  statistic: stat,
-  period,
-  units: 'h',
-  png: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.png`,
-  tif: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.tif`,
-  mapImages: [{ path: `${root}layers/hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}.png`, coordinates: corners }],
-  legend: legend(max),
-});
+const mLayer = (root: string, stat: string, period: string, max: number) => {
+  const l = manifestLayer(root, stat, period);
+  return { ...l, mapImages: [{ path: l.png, coordinates: corners }], legend: legend(max) };
+};
 const cLayer = (stat: string, period: string, legendIndex: number, n: number) => ({
   id: `hours-lost-shift/moderate.acclimatized.sun/${stat}-${period}`,
   figure: 'hours-lost-shift',

@@ -18,7 +18,6 @@ import { loadRegionDetail } from '../../src/data/region-detail.ts';
 import { loadRegionReport } from '../../src/data/region-report.ts';
 import { loadRegionAnnuals } from '../../src/data/region-annual.ts';
 import { loadExplorerCatalogue } from '../../src/data/explorer.ts';
-import { indexRegionTable } from '../../src/lib/report/region-figures.ts';
 import {
   ALL_CLASSES,
   hasWorkforceFigures,
