@@ -243,6 +243,11 @@ describe('the region report page', () => {
     expect(text).toContain('uniform warming');
     expect(text).toMatch(/what-if, not a forecast/i);
     expect(text).toMatch(/day-to-day and hour-to-hour weather is kept and only monthly means change/);
+    // The words are the shared block (src/components/ScenarioWords.astro) the map and home use.
+    expect(await report.page.textContent('#scenarios #region-scenario-about.scenario-words [data-scenario-caveat]')).toMatch(/what-if, not a forecast/i);
+    expect(await report.page.$$eval('#region-scenario-about [data-scenario-about]', (lis) => lis.map((li) => li.getAttribute('data-scenario-about')))).toEqual([
+      PIPELINE_DATA_SCENARIO.id,
+    ]);
   });
 
   it('the scenario switch shows the baseline beside the chosen scenario alone, and every scenario again; without JavaScript the switch is hidden and all columns show', async () => {
