@@ -18,7 +18,7 @@ import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
-import { gridCellCount, landCellsOf, type LandCells } from '../model/grid.ts';
+import { gridCellCount, landCellsOf, rowRange, type LandCells } from '../model/grid.ts';
 import { planShards, scenarioShards, yearPieces, type ShardSpec } from './plan.ts';
 import type { ScenarioSpec } from '../scenario/settings.ts';
 import { sha256File } from '../read/dataset-file.ts';
@@ -250,7 +250,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       variants.map((v) => v.shards),
       memory,
     );
-    const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
+    const bands = mergeBands(memory.mergeBands, blocks, landCells, tiles, weights);
     if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
     const estimate = estimateBuild({
@@ -353,22 +353,20 @@ function computeTasks(variants: ReadonlyArray<readonly ShardSpec[]>, memory: Mem
 function mergeBands(
   rows: ReadonlyArray<[number, number]>,
   blocks: ReadonlyArray<[number, number]>,
-  cells: Int32Array,
-  nLon: number,
+  land: LandCells,
   tiles: BuildPlan['tiles'],
   weights: readonly CellWeights[],
 ): MergeBand[] {
+  const { ids: cells, nx: nLon } = land;
   // Which band each land cell is in, and its position there.
   const bands: MergeBand[] = rows.map(([y0, y1]) => {
-    const a = lowerBound(cells, y0 * nLon);
-    const b = lowerBound(cells, y1 * nLon);
+    const [a, b] = rowRange(land, y0, y1);
     const tileIdx = tiles.flatMap((t, i) => (t.y0 < y1 && t.y1 > y0 ? [i] : []));
     const subset = tileIdx.some((i) => tiles[i].y0 < y0 || tiles[i].y1 > y1);
     const mine = blocks.filter(([b0, b1]) => b0 >= y0 && b1 <= y1).map(([b0, b1]): [number, number] => [b0, b1]);
     return { id: rowsId([y0, y1]), rows: [y0, y1], blocks: mine, cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
   });
-  const nLat = cells.length > 0 ? Math.floor(cells[cells.length - 1] / nLon) + 1 : 0;
-  const bandOfRow = new Int32Array(nLat).fill(-1);
+  const bandOfRow = new Int32Array(land.ny).fill(-1);
   rows.forEach(([y0, y1], i) => bandOfRow.fill(i, y0, y1));
   weights.forEach((w, r) => {
     // The region's land weights, their sum for its histograms (in the order of its cells).
@@ -376,6 +374,7 @@ function mergeBands(
     for (let j = 0; j < w.cells.length; j++) total += w.weight[j];
     const byBand = new Map<number, number[]>();
     for (let j = 0; j < w.cells.length; j++) {
+      // Hot loop: plain row = id / nx.
       const bi = bandOfRow[Math.floor(w.cells[j] / nLon)] ?? -1;
       if (bi < 0) continue;
       const list = byBand.get(bi) ?? [];
