@@ -58,3 +58,76 @@ export interface PixelLayout {
   top: number;
   dLatRow: number;
 }
+
+/**
+ * The land cells of a horizontal grid: which cells the pipeline computes, with their row-major ids.
+ * Cell (y, x) has the id `y * nx + x` (row 0 the southernmost); `ids` lists the land cells'
+ * ids ascending, so the land cells of rows [y0, y1) are `ids[rowStart[y0] … rowStart[y1])`.
+ * Stages hand this on instead of raw offsets; hot loops may index with plain offsets.
+ */
+export interface LandCells {
+  grid: HorizontalGrid;
+  /** Rows (latitudes) and columns (longitudes) [cells]. */
+  ny: number;
+  nx: number;
+  /** Land cells' row-major ids, ascending. */
+  ids: Int32Array;
+  /** Land cells in each row [cells] (length ny). */
+  perRow: Int32Array;
+  /** Position in `ids` of each row's first land cell (length ny + 1, the last = ids.length). */
+  rowStart: Int32Array;
+}
+
+/**
+ * The land cells of `grid` under `mask` (1 = land, row-major; undefined = every cell).
+ * @param mask one byte per cell of the grid, `mask[y * nx + x]`
+ */
+export function landCellsOf(grid: HorizontalGrid, mask?: ArrayLike<number>): LandCells {
+  const ny = grid.lat.length;
+  const nx = grid.lon.length;
+  const perRow = new Int32Array(ny);
+  const rowStart = new Int32Array(ny + 1);
+  let n = 0;
+  for (let y = 0; y < ny; y++) {
+    rowStart[y] = n;
+    // Hot loop: plain offsets.
+    for (let x = 0, i = y * nx; x < nx; x++, i++) if (!mask || mask[i] === 1) perRow[y]++;
+    n += perRow[y];
+  }
+  rowStart[ny] = n;
+  const ids = new Int32Array(n);
+  for (let i = 0, k = 0; i < ny * nx; i++) if (!mask || mask[i] === 1) ids[k++] = i;
+  return { grid, ny, nx, ids, perRow, rowStart };
+}
+
+/** Number of cells of the whole grid, land or not [cells]. */
+export function gridCellCount(l: LandCells): number {
+  return l.ny * l.nx;
+}
+
+/** Row-major id of cell (y, x) of the grid (land or not). */
+export function cellIndex(l: LandCells, y: number, x: number): number {
+  return y * l.nx + x;
+}
+
+/** Row y and column x of the cell with row-major id `id`. */
+export function cellRowCol(l: LandCells, id: number): { y: number; x: number } {
+  return { y: Math.floor(id / l.nx), x: id % l.nx };
+}
+
+/** Positions [k0, k1) in `l.ids` of the land cells of rows [y0, y1). */
+export function rowRange(l: LandCells, y0: number, y1: number): [number, number] {
+  return [l.rowStart[y0], l.rowStart[y1]];
+}
+
+/** The land cells' ids inside a tile, ascending. */
+export function tileCells(l: LandCells, t: Tile): Int32Array {
+  const out: number[] = [];
+  for (let y = t.y0; y < t.y1; y++) {
+    for (let k = l.rowStart[y]; k < l.rowStart[y + 1]; k++) {
+      const x = l.ids[k] - y * l.nx;
+      if (x >= t.x0 && x < t.x1) out.push(l.ids[k]);
+    }
+  }
+  return Int32Array.from(out);
+}

@@ -18,6 +18,7 @@ import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
+import { gridCellCount, landCellsOf, rowRange, type LandCells } from '../model/grid.ts';
 import { planShards, scenarioShards, yearPieces, type ShardSpec } from './plan.ts';
 import type { ScenarioSpec } from '../scenario/settings.ts';
 import { sha256File } from '../read/dataset-file.ts';
@@ -102,10 +103,8 @@ export interface BuildPlan {
   ds: Dataset;
   years: number[];
   latestYear: number;
-  /** Land cells (global indices, ascending), the grid's cell count, land cells per row. */
-  cells: Int32Array;
-  nGrid: number;
-  landInRow: Int32Array;
+  /** The grid's land cells: their row-major ids (ascending), land cells per row. */
+  land: LandCells;
   /** The record's shards (the baseline); each variant's are in `variants`. */
   shards: ShardSpec[];
   /** Every shard of every variant with its provenance and cache key. */
@@ -167,29 +166,20 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   for (const note of ds.notes) log.warn(note);
   try {
     checkYears(ds.time, cfg.years, 'years', rc.path);
-    const nLat = ds.grid.lat.length;
     const nLon = ds.grid.lon.length;
-    const nGrid = nLat * nLon;
-    const land = ds.landMask ?? new Uint8Array(nGrid).fill(1);
-    const landInRow = new Int32Array(nLat);
-    let nLand = 0;
-    for (let i = 0; i < nGrid; i++) {
-      if (land[i] !== 1) continue;
-      nLand++;
-      landInRow[Math.floor(i / nLon)]++;
-    }
+    const landCells = landCellsOf(ds.grid, ds.landMask);
+    const { ids: cells, perRow: landInRow } = landCells;
+    const nGrid = gridCellCount(landCells);
+    const nLand = cells.length;
     if (nLand === 0) throw NoLandCells({ detail: `the land-sea mask leaves none of the ${nGrid} cells` }, { file: rc.path, key: 'dataset.landSeaMask' });
-    const cells = new Int32Array(nLand);
-    for (let i = 0, k = 0; i < nGrid; i++) if (land[i] === 1) cells[k++] = i;
+    const land = ds.landMask ?? new Uint8Array(nGrid).fill(1);
     const weights = allRegionCellWeights(regions, ds.grid).map((w) => applyLandMask(w, land));
     const workforce = await planWorkforce(rc, ds.grid, cells, regions, weights, work.evaluations, work.shift, log);
 
     // The shards, each with its provenance and cache key.
     const years = range(cfg.years[0], cfg.years[1]);
     const shards = planShards(
-      nLat,
-      nLon,
-      land,
+      landCells,
       years,
       (y) => yearPieces(ds.time, y, cfg.timeZone, cfg.shards.monthsPerPiece),
       cfg.shards.cellsPerTile,
@@ -260,7 +250,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       variants.map((v) => v.shards),
       memory,
     );
-    const bands = mergeBands(memory.mergeBands, blocks, cells, nLon, tiles, weights);
+    const bands = mergeBands(memory.mergeBands, blocks, landCells, tiles, weights);
     if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
     const estimate = estimateBuild({
@@ -293,9 +283,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       ds,
       years,
       latestYear,
-      cells,
-      nGrid,
-      landInRow,
+      land: landCells,
       shards,
       keyed,
       scenarios,
@@ -365,22 +353,20 @@ function computeTasks(variants: ReadonlyArray<readonly ShardSpec[]>, memory: Mem
 function mergeBands(
   rows: ReadonlyArray<[number, number]>,
   blocks: ReadonlyArray<[number, number]>,
-  cells: Int32Array,
-  nLon: number,
+  land: LandCells,
   tiles: BuildPlan['tiles'],
   weights: readonly CellWeights[],
 ): MergeBand[] {
+  const { ids: cells, nx: nLon } = land;
   // Which band each land cell is in, and its position there.
   const bands: MergeBand[] = rows.map(([y0, y1]) => {
-    const a = lowerBound(cells, y0 * nLon);
-    const b = lowerBound(cells, y1 * nLon);
+    const [a, b] = rowRange(land, y0, y1);
     const tileIdx = tiles.flatMap((t, i) => (t.y0 < y1 && t.y1 > y0 ? [i] : []));
     const subset = tileIdx.some((i) => tiles[i].y0 < y0 || tiles[i].y1 > y1);
     const mine = blocks.filter(([b0, b1]) => b0 >= y0 && b1 <= y1).map(([b0, b1]): [number, number] => [b0, b1]);
     return { id: rowsId([y0, y1]), rows: [y0, y1], blocks: mine, cells: cells.slice(a, b), tiles: tileIdx, subset, regions: [] };
   });
-  const nLat = cells.length > 0 ? Math.floor(cells[cells.length - 1] / nLon) + 1 : 0;
-  const bandOfRow = new Int32Array(nLat).fill(-1);
+  const bandOfRow = new Int32Array(land.ny).fill(-1);
   rows.forEach(([y0, y1], i) => bandOfRow.fill(i, y0, y1));
   weights.forEach((w, r) => {
     // The region's land weights, their sum for its histograms (in the order of its cells).
@@ -388,6 +374,7 @@ function mergeBands(
     for (let j = 0; j < w.cells.length; j++) total += w.weight[j];
     const byBand = new Map<number, number[]>();
     for (let j = 0; j < w.cells.length; j++) {
+      // Hot loop: plain row = id / nx.
       const bi = bandOfRow[Math.floor(w.cells[j] / nLon)] ?? -1;
       if (bi < 0) continue;
       const list = byBand.get(bi) ?? [];

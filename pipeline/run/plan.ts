@@ -9,7 +9,7 @@
  * counts, and pieces of one tile and year add up, so any partition of the plan merges to
  * identical results (DESIGN.md §3).
  */
-import type { Tile } from '../model/grid.ts';
+import { type LandCells, rowRange, type Tile } from '../model/grid.ts';
 import { localHours } from '../work/index.ts';
 
 const HOUR_MS = 3_600_000;
@@ -119,27 +119,19 @@ export function scenarioShards(shards: readonly ShardSpec[], scenario: string): 
 /**
  * Cuts the grid into bands of whole rows holding about {@link TARGET_CELLS_PER_TILE} land
  * cells each and crosses them with the pieces of the years. Tiles without land are dropped.
- * @param nLat rows, nLon columns of the grid
- * @param land 1 where a cell is computed (row-major), or undefined for all cells
+ * @param land the grid's land cells ({@link landCellsOf})
  * @param pieces the pieces of each local year ({@link yearPieces})
  * @param cellsPerTile land cells aimed at per tile [cells] (config `shards.cellsPerTile`)
  * @param monthsPerPiece the months per piece the pieces were cut with [months], for the names
  */
 export function planShards(
-  nLat: number,
-  nLon: number,
-  land: Uint8Array | undefined,
+  land: LandCells,
   years: readonly number[],
   pieces: (year: number) => YearPiece[],
   cellsPerTile = TARGET_CELLS_PER_TILE,
   monthsPerPiece = 12,
 ): ShardSpec[] {
-  const landInRow = new Int32Array(nLat);
-  for (let y = 0; y < nLat; y++) {
-    let n = 0;
-    for (let x = 0; x < nLon; x++) if (!land || land[y * nLon + x] === 1) n++;
-    landInRow[y] = n;
-  }
+  const { ny: nLat, nx: nLon, perRow: landInRow } = land;
   const tiles: Array<{ tile: Tile; cells: Int32Array }> = [];
   let y0 = 0;
   while (y0 < nLat) {
@@ -147,9 +139,8 @@ export function planShards(
     let n = 0;
     while (y1 < nLat && (n === 0 || n + landInRow[y1] <= cellsPerTile)) n += landInRow[y1++];
     if (n > 0) {
-      const cells: number[] = [];
-      for (let y = y0; y < y1; y++) for (let x = 0; x < nLon; x++) if (!land || land[y * nLon + x] === 1) cells.push(y * nLon + x);
-      tiles.push({ tile: { y0, y1, x0: 0, x1: nLon }, cells: Int32Array.from(cells) });
+      const [k0, k1] = rowRange(land, y0, y1);
+      tiles.push({ tile: { y0, y1, x0: 0, x1: nLon }, cells: land.ids.slice(k0, k1) });
     }
     y0 = y1;
   }

@@ -149,7 +149,7 @@ async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): 
     statistics: STATISTIC_RULES,
     counts: {
       shards: plan.shards.length,
-      landCells: plan.cells.length,
+      landCells: plan.land.ids.length,
       cellHours: p.compute.byVariant.baseline.cellHours,
       notConverged: p.compute.byVariant.baseline.physics.notConverged,
       rejected: p.compute.byVariant.baseline.physics.rejected,

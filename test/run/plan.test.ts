@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
+import { landCellsOf } from '../../pipeline/model/grid.ts';
 import { planShards, sliceShards, yearPieces } from '../../pipeline/run/plan.ts';
 
 const HOUR = 3_600_000;
 // Hourly data with end-of-hour stamps from 2021-01-01 01:00 UTC to 2024-01-01 00:00 UTC (three UTC years).
 const time = { start: Date.UTC(2021, 0, 1, 1), count: 3 * 8760 };
+// A 4-row × 3-column grid (coordinates invented for the test).
+const grid43 = { lat: Float64Array.of(0, 1, 2, 3), lon: Float64Array.of(10, 11, 12) };
 const stamp = (h: number) => new Date(time.start + h * HOUR).toISOString();
 
 describe('the shard plan', () => {
@@ -24,7 +27,7 @@ describe('the shard plan', () => {
 
   it('names shards by tile, year and piece, and slices K of N take every N-th shard', () => {
     const land = Uint8Array.from({ length: 4 * 3 }, (_, i) => (i % 3 === 0 ? 0 : 1));
-    const shards = planShards(4, 3, land, [2022], (y) => yearPieces(time, y, 'Etc/GMT+10'), 4);
+    const shards = planShards(landCellsOf(grid43, land), [2022], (y) => yearPieces(time, y, 'Etc/GMT+10'), 4);
     expect(shards.map((s) => s.id)).toEqual(['t00-y2022', 't01-y2022', 't00-y2022-u2023', 't01-y2022-u2023']);
     expect(shards.every((s) => s.cells.length === 4)).toBe(true);
     expect(sliceShards(shards, 2, 3).map((s) => s.id)).toEqual(['t01-y2022']);
@@ -48,7 +51,7 @@ describe('the shard plan', () => {
     // The second quarter starts at local 1 April 00:00 = 10:00 UTC (its first hour ends 11:00).
     expect(stamp(p[1].hours[0])).toBe('2022-04-01T11:00:00.000Z');
     const land = Uint8Array.from({ length: 4 * 3 }, () => 1);
-    const shards = planShards(4, 3, land, [2022], (y) => yearPieces(time, y, 'Etc/GMT+10', 3), 1024, 3);
+    const shards = planShards(landCellsOf(grid43, land), [2022], (y) => yearPieces(time, y, 'Etc/GMT+10', 3), 1024, 3);
     expect(shards.map((s) => s.id)).toEqual(['t00-y2022-m01', 't00-y2022-m04', 't00-y2022-m07', 't00-y2022-m10', 't00-y2022-u2023-m12']);
   });
 

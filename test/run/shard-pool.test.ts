@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { writeDemoDataset } from '../../pipeline/demo/index.ts';
 import { openDataset } from '../../pipeline/read/index.ts';
+import { landCellsOf } from '../../pipeline/model/grid.ts';
 import { planShards, yearPieces, type ShardSpec } from '../../pipeline/run/plan.ts';
 import { runTasks, type PoolTask } from '../../pipeline/run/shard-pool.ts';
 import { readPartialFile } from '../../pipeline/run/partial-store.ts';
@@ -44,7 +45,7 @@ beforeAll(async () => {
   const classes = parseWorkloadClasses(parse(readFileSync(join(ROOT, 'content/workload-classes.yaml'), 'utf8')));
   const work = resolveWorkSettings(workSettingsSchema.parse(undefined), classes);
   const nLon = ds.grid.lon.length;
-  shards = planShards(ds.grid.lat.length, nLon, ds.landMask, [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
+  shards = planShards(landCellsOf(ds.grid, ds.landMask), [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
   init = {
     files: paths,
