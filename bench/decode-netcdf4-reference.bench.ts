@@ -2,8 +2,8 @@
  * decode-netcdf4-vs-reference: the NetCDF-4 reader's decode rate against the reference library
  * reading the same file in the same run, as a ratio (ours ÷ reference, values per second of wall
  * time; CPU ratio beside). Ours: `Dataset.readBlock` month blocks (744 h) of the whole grid, as
- * decode-netcdf4 measures it, with raw chunk reads (node:zlib on the thread pool, and inflating in
- * this thread beside it: HEATHOURS_NETCDF4_INFLATE=sync; pipeline/read/hdf5-chunks.ts) and,
+ * decode-netcdf4 measures it, with raw chunk reads (one reused node:zlib stream in this thread, and
+ * on libuv's thread pool beside it: HEATHOURS_NETCDF4_INFLATE=pool; pipeline/read/hdf5-chunks.ts) and,
  * before them, with every variable through the HDF5 library (HEATHOURS_NETCDF4_RAW=0, h5wasm).
  * Reference: Debian's python3-netcdf4 (netCDF-C with its HDF5) reading the same variables in the
  * same blocks as stored numbers (no mask, no scaling: less work than ours, which also masks,
@@ -61,10 +61,10 @@ function reference(file: string, names: string[]): Reference | string {
 const ALL_FIELDS: CanonicalName[] = ['airTemperature', 'dewPointTemperature', 'surfacePressure', 'windSpeed10m', 'solarGlobal', 'solarDirect', 'thermalDown'];
 
 /** Our rate: warm-up, then best of 3 (as decode-netcdf4), with raw reads on or off. */
-async function ours(files: string[], require: CanonicalName[], raw: boolean, sync = false): Promise<{ best: StreamResult; runs: string }> {
+async function ours(files: string[], require: CanonicalName[], raw: boolean, pool = false): Promise<{ best: StreamResult; runs: string }> {
   const was = process.env.HEATHOURS_NETCDF4_RAW;
   process.env.HEATHOURS_NETCDF4_RAW = raw ? '1' : '0';
-  if (sync) process.env.HEATHOURS_NETCDF4_INFLATE = 'sync';
+  if (pool) process.env.HEATHOURS_NETCDF4_INFLATE = 'pool';
   try {
     await streamAll(files, { reuse: true, require });
     const runs: StreamResult[] = [];
@@ -93,15 +93,15 @@ async function figure(label: string, files: string[], require: CanonicalName[]):
   const { file, names } = await sourceNames(files, require);
   const after = await ours(files, require, true);
   const before = await ours(files, require, false);
-  const sync = await ours(files, require, true, true);
+  const pool = await ours(files, require, true, true);
   const ref = reference(file, names);
   const rate = (r: StreamResult, cpu = false) => r.values / (cpu ? r.cpuSeconds : r.seconds);
   const out: Record<string, string | number> = {
     [`${label}Ours`]: `${(rate(after.best) / 1e6).toFixed(1)} M/s wall, ${(rate(after.best, true) / 1e6).toFixed(1)} M/s CPU (runs ${after.runs})`,
     [`${label}Before`]: `${(rate(before.best) / 1e6).toFixed(1)} M/s wall, ${(rate(before.best, true) / 1e6).toFixed(1)} M/s CPU (HDF5 library, runs ${before.runs})`,
-    [`${label}OursInflateSync`]: `${(rate(sync.best) / 1e6).toFixed(1)} M/s wall, ${(rate(sync.best, true) / 1e6).toFixed(1)} M/s CPU (runs ${sync.runs})`,
+    [`${label}OursInflatePool`]: `${(rate(pool.best) / 1e6).toFixed(1)} M/s wall, ${(rate(pool.best, true) / 1e6).toFixed(1)} M/s CPU (runs ${pool.runs})`,
     [`${label}AfterOverBefore`]: Number((rate(after.best) / rate(before.best)).toFixed(2)),
-    [`${label}Checksums`]: `${after.best.checksum.toFixed(3)}/${before.best.checksum.toFixed(3)}/${sync.best.checksum.toFixed(3)}`,
+    [`${label}Checksums`]: `${after.best.checksum.toFixed(3)}/${before.best.checksum.toFixed(3)}/${pool.best.checksum.toFixed(3)}`,
   };
   if (typeof ref === 'string') out[`${label}Reference`] = ref;
   else {

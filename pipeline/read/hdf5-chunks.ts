@@ -1,9 +1,10 @@
 /**
  * Hyperslabs of chunked NetCDF-4 variables read without the HDF5 library: the chunks a slab
  * touches are found in the variable's chunk index (hdf5-layout.ts), their stored bytes read with
- * plain file reads, inflated by node:zlib on libuv's thread pool (several chunks in flight, so
- * inflating runs beside the copying), the byte shuffle undone in JS, and the values copied into a
- * dense row-major array of the slab's shape, exactly what the HDF5 library returns.
+ * plain file reads, inflated by node:zlib (one reused stream and output buffer in this thread;
+ * or, on request, on libuv's thread pool with several chunks in flight), the byte shuffle undone
+ * in JS, and the values copied into a dense row-major array of the slab's shape, exactly what the
+ * HDF5 library returns.
  *
  * Filters: HDF5's deflate filter stores a zlib stream (RFC 1950) per chunk (H5Zdeflate.c); its
  * shuffle filter stores byte k of every value together, plane after plane, with the bytes of a
@@ -12,7 +13,7 @@
  * `NetcdfChunkDamaged` naming the file, the variable and the chunk; nothing is handed out then.
  */
 import { endianness } from 'node:os';
-import { inflate, inflateSync } from 'node:zlib';
+import { Inflate, constants as zlibConstants, inflate, inflateSync } from 'node:zlib';
 import type { FileHandle } from 'node:fs/promises';
 import { NetcdfChunkDamaged } from './errors.ts';
 import { FILTER_DEFLATE, FILTER_SHUFFLE, type ChunkIndex } from './hdf5-layout.ts';
@@ -30,6 +31,58 @@ function inflateChunk(b: Uint8Array, expected: number): Promise<Buffer> {
       e ? reject(e) : resolve(out),
     );
   });
+}
+
+/**
+ * One zlib inflate stream reused for every chunk of this thread, writing into one reused buffer:
+ * no stream set up and no output allocated per chunk. The stream is reset before each chunk and
+ * dropped after a failure. Uses the stream's native handle (`_handle.writeSync`, as node:zlib's
+ * own inflateSync does), so a node:zlib that no longer has it falls back to inflateSync.
+ */
+interface NativeInflate {
+  _handle?: {
+    writeSync(flush: number, src: Uint8Array, srcOff: number, srcLen: number, dst: Uint8Array, dstOff: number, dstLen: number): void;
+    onerror: (message: string, errno: number) => void;
+  };
+  _writeState?: Uint32Array;
+  reset(): void;
+}
+let reusedInflate: NativeInflate | null = null;
+let reusedOut = new Uint8Array(0);
+
+/**
+ * Inflates the zlib stream `src` (RFC 1950) of a chunk of `expected` bytes; the result is a view
+ * of a reused buffer, valid until the next call in this thread [bytes]. Throws with code
+ * ERR_BUFFER_TOO_LARGE when the stream holds more than `expected` bytes, or zlib's error.
+ */
+export function inflateChunkSync(src: Uint8Array, expected: number): Uint8Array {
+  if (reusedOut.length < expected + 1) reusedOut = new Uint8Array(expected + 1);
+  let z = reusedInflate;
+  if (z) z.reset();
+  else z = reusedInflate = new Inflate() as unknown as NativeInflate;
+  const h = z._handle;
+  const state = z._writeState;
+  if (!h || !state || typeof h.writeSync !== 'function') {
+    reusedInflate = null;
+    const out = inflateSync(src, { chunkSize: Math.max(64, expected + 64), maxOutputLength: Math.max(1, expected) });
+    return out;
+  }
+  let failure: Error | null = null;
+  h.onerror = (message: string, errno: number) => {
+    failure = Object.assign(new Error(message), { errno });
+  };
+  // One byte more than a chunk: a stream that fills it holds more than a chunk.
+  h.writeSync(zlibConstants.Z_FINISH, src, 0, src.length, reusedOut, 0, expected + 1);
+  if (failure) {
+    reusedInflate = null;
+    throw failure;
+  }
+  const written = expected + 1 - state[0];
+  if (written > expected) {
+    reusedInflate = null;
+    throw Object.assign(new Error(`inflates to more than ${expected} bytes`), { code: 'ERR_BUFFER_TOO_LARGE' });
+  }
+  return reusedOut.subarray(0, written);
 }
 
 /** Where the chunk of linear index `lin` starts along each dimension [values]. */
@@ -217,12 +270,14 @@ export interface RawSlabRead {
 const MAX_SPAN = 64 << 20;
 
 /**
- * How chunks are inflated: `pool` (node:zlib's asynchronous inflate on libuv's thread pool,
- * {@link CHUNKS_IN_FLIGHT} at once, the copying in this thread meanwhile) or `sync` (inflateSync
- * in this thread, less CPU per chunk, no overlap). HEATHOURS_NETCDF4_INFLATE=sync picks the latter.
+ * How chunks are inflated: `sync` (the default: one reused zlib stream in this thread inflating
+ * into one reused buffer, {@link inflateChunkSync}; least CPU per chunk) or `pool` (node:zlib's
+ * asynchronous inflate on libuv's thread pool, {@link CHUNKS_IN_FLIGHT} at once, the copying in
+ * this thread meanwhile; more CPU per chunk, a new buffer each). HEATHOURS_NETCDF4_INFLATE=pool
+ * picks the latter.
  */
 export type InflateMode = 'pool' | 'sync';
-export const inflateMode = (): InflateMode => (process.env.HEATHOURS_NETCDF4_INFLATE === 'sync' ? 'sync' : 'pool');
+export const inflateMode = (): InflateMode => (process.env.HEATHOURS_NETCDF4_INFLATE === 'pool' ? 'pool' : 'sync');
 
 /**
  * Reads the slab [off, off + cnt) of a variable into `out`. Returns false, having written
@@ -279,7 +334,7 @@ export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
       if (mask & (1 << k)) continue;
       if (idx.filters[k].id === FILTER_DEFLATE) {
         try {
-          b = sync ? inflateSync(b, { chunkSize: Math.max(64, chunkBytes + 64), maxOutputLength: Math.max(1, chunkBytes) }) : await inflateChunk(b, chunkBytes);
+          b = sync ? inflateChunkSync(b, chunkBytes) : await inflateChunk(b, chunkBytes);
         } catch (e) {
           const why =
             (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE'

@@ -15,7 +15,7 @@ import { decodeRun, makeDecodePlan } from './decode.ts';
 import { recognizeEra5 } from './era5-variables.ts';
 import { detectLayout, type Layout } from './layout.ts';
 import { openSourceFile } from './open-file.ts';
-import { isNumericType, product, type AttrValue, type SourceFile, type SourceVariable } from './source.ts';
+import { isNumericType, product, type AttrValue, type RawArray, type SourceFile, type SourceVariable } from './source.ts';
 import { checkPlausible, findConversion, kindOfUnits } from './units.ts';
 import { HeathoursError } from '../model/errors.ts';
 import type { CanonicalName } from '../model/fields.ts';
@@ -169,6 +169,22 @@ export async function streamStats(
   const outer = v.shape.slice(0, split);
   const total = product(outer);
   const buf = new Float32Array(n === 0 ? 1 : Math.min(SLAB_VALUES, inner * Math.min(step, v.shape[split] ?? 1)));
+  const consume = (raw: RawArray, from: number, m: number): void => {
+    const out = m <= buf.length ? buf : new Float32Array(m);
+    missing += decodeRun(raw, from, m, out, 0, plan);
+    // Selects rather than branches: real fields are noisy, and a mispredicted branch per value
+    // costs more than the select.
+    for (let i = 0; i < m; i++) {
+      const x = out[i];
+      if (x === x) {
+        min = x < min ? x : min;
+        max = x > max ? x : max;
+        sum += x;
+        valid++;
+      }
+    }
+  };
+  const slabs = sf.format === 'netcdf4' && n > 0;
   for (let o = 0; o < total; o++) {
     const idx: number[] = [];
     let rem = o;
@@ -181,20 +197,14 @@ export async function streamStats(
       const cnt = Math.min(step, len - s0);
       const start = n === 0 ? [] : [...idx, s0, ...v.shape.slice(split + 1).map(() => 0)];
       const count = n === 0 ? [] : [...outer.map(() => 1), cnt, ...v.shape.slice(split + 1)];
-      const raw = await sf.read(v, start, count);
-      const m = raw.length;
-      const out = m <= buf.length ? buf : new Float32Array(m);
-      missing += decodeRun(raw, 0, m, out, 0, plan);
-      // Selects rather than branches: real fields are noisy, and a mispredicted branch per value
-      // costs more than the select.
-      for (let i = 0; i < m; i++) {
-        const x = out[i];
-        if (x === x) {
-          min = x < min ? x : min;
-          max = x > max ? x : max;
-          sum += x;
-          valid++;
-        }
+      if (slabs) {
+        // NetCDF-4: the raw-chunk path (pipeline/read/hdf5-chunks.ts) where it applies; each piece
+        // holds whole rows of the slab, dense, from `base` on.
+        const row = product(count.slice(1));
+        await sf.readSlabs([{ v, start, count }], (_i, slab, _from, rows) => consume(slab.data, slab.base, rows * row));
+      } else {
+        const raw = await sf.read(v, start, count);
+        consume(raw, 0, raw.length);
       }
     }
   }

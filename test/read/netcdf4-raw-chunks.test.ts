@@ -13,12 +13,12 @@ import { execFileSync } from 'node:child_process';
 import { copyFileSync, mkdtempSync, openSync, readSync, rmSync, statSync, writeSync, closeSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { deflateSync } from 'node:zlib';
+import { deflateSync, inflateSync } from 'node:zlib';
 import { openSourceFile } from '../../pipeline/read/open-file.ts';
 import { netcdf4ReadPath } from '../../pipeline/read/hdf5-file.ts';
 import { describeNetcdf4 } from '../../pipeline/read/hdf5-meta.ts';
 import { readChunkIndex, superblockSizes } from '../../pipeline/read/hdf5-layout.ts';
-import { unshuffle } from '../../pipeline/read/hdf5-chunks.ts';
+import { inflateChunkSync, unshuffle } from '../../pipeline/read/hdf5-chunks.ts';
 import type { RawArray, SourceFile, SourceVariable } from '../../pipeline/read/source.ts';
 import { fixturePath } from '../helpers/fixtures.ts';
 import { openDataset } from '../../pipeline/read/index.ts';
@@ -143,10 +143,10 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
     }
   });
 
-  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs, inflated on the pool or in this thread', async () => {
+  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs, inflated in this thread (reused stream) or on the pool', async () => {
     for (const file of [packed, copied]) await sameAsReference(file);
-    // The same with every chunk inflated in this thread (HEATHOURS_NETCDF4_INFLATE=sync).
-    process.env.HEATHOURS_NETCDF4_INFLATE = 'sync';
+    // The same with every chunk inflated on libuv's thread pool (HEATHOURS_NETCDF4_INFLATE=pool).
+    process.env.HEATHOURS_NETCDF4_INFLATE = 'pool';
     try {
       await sameAsReference(packed);
     } finally {
@@ -253,6 +253,56 @@ describe('damaged chunks', () => {
       expect(ok).toEqual(asArray(referenceBytes(packed, 'f4'), new Float32Array(0)).slice(0, 5 * 10 * 17));
     } finally {
       await sf.close();
+    }
+  });
+
+  it('the reused inflate stream gives the bytes that were deflated (zlib levels 1 and 9, as node:zlib inflateSync does), refuses a stream longer than the chunk or cut short, and inflates the next chunk right after a refusal', () => {
+    const a = new Uint8Array(50_000).map((_, i) => (i * 7919) % 251);
+    const b = new Uint8Array(50_000).map((_, i) => (i >> 4) & 0xff);
+    for (const [src, level] of [
+      [a, 1],
+      [b, 9],
+      [a, 9],
+    ] as const) {
+      const z = deflateSync(src, { level });
+      const out = inflateChunkSync(z, src.length);
+      expect(out.length).toBe(src.length);
+      expect(Buffer.compare(Buffer.from(out), Buffer.from(src))).toBe(0);
+      expect(Buffer.compare(Buffer.from(out), inflateSync(z))).toBe(0);
+    }
+    // One byte more than the chunk: refused as too large, then a good stream inflates right.
+    expect(() => inflateChunkSync(deflateSync(a), a.length - 1)).toThrow(expect.objectContaining({ code: 'ERR_BUFFER_TOO_LARGE' }));
+    expect(Buffer.compare(Buffer.from(inflateChunkSync(deflateSync(b), b.length)), Buffer.from(b))).toBe(0);
+    // A stream cut short is zlib's error (as inflateSync says: unexpected end of file), then a good one inflates right.
+    const z = deflateSync(a);
+    expect(() => inflateSync(z.subarray(0, z.length >> 1))).toThrow(/unexpected end of file/);
+    expect(() => inflateChunkSync(z.subarray(0, z.length >> 1), a.length)).toThrow(/unexpected end of file/);
+    expect(() => inflateChunkSync(Uint8Array.of(1, 2, 3, 4, 5, 6), a.length)).toThrow(/incorrect header check/);
+    expect(Buffer.compare(Buffer.from(inflateChunkSync(z, a.length)), Buffer.from(a))).toBe(0);
+  });
+
+  it('a chunk that inflates to more bytes than a chunk holds is NetcdfChunkDamaged saying so, in this thread and on the pool', async () => {
+    const file = join(dir, 'too-long.nc');
+    copyFileSync(packed, file);
+    const { at, size, idx } = await chunkAt(file, 'i2', 0);
+    const chunkBytes = idx.chunk.reduce((a, b) => a * b, 1) * 2;
+    const long = deflateSync(new Uint8Array(chunkBytes + 6));
+    expect(long.length).toBeLessThanOrEqual(size);
+    patch(file, at, long);
+    for (const mode of ['sync', 'pool']) {
+      process.env.HEATHOURS_NETCDF4_INFLATE = mode;
+      const sf = await openSourceFile(file);
+      try {
+        const v = varOf(sf, 'i2');
+        await expectCataloguedAsync(
+          sf.readSlabs([{ v, start: [0, 0, 0], count: [5, 3, 7] }], () => undefined),
+          'NetcdfChunkDamaged',
+          new RegExp(`variable i2, the chunk starting at time 0, lat 0, lon 0 .*inflates to more than the ${chunkBytes} bytes of a chunk`),
+        );
+      } finally {
+        delete process.env.HEATHOURS_NETCDF4_INFLATE;
+        await sf.close();
+      }
     }
   });
 

@@ -91,6 +91,34 @@ describe('inspect on real files from Debian packages', () => {
     expect(byName(r, 'U').problems).toEqual([]);
   });
 
+  it('nc4uvt.nc (libncarg-data): the statistics of T and U, read from the raw chunks (shuffle + deflate), equal the minimum, maximum and mean of the values ncdump prints', async () => {
+    const r = await inspectFile(REAL + 'nc4uvt.nc');
+    for (const name of ['T', 'U']) {
+      // ncdump -v prints the root group's variable first; its values run to the first ';'.
+      const text = execFileSync('ncdump', ['-v', name, REAL + 'nc4uvt.nc'], { encoding: 'utf8', maxBuffer: 1 << 28 });
+      const data = text.slice(text.indexOf('data:'));
+      const from = data.indexOf(`${name} =`) + name.length + 2;
+      const ref = data
+        .slice(from, data.indexOf(';', from))
+        .split(/[,\s]+/)
+        .filter((t) => t.length > 0)
+        .map((t) => (t === '_' ? null : Number(t)));
+      expect(ref.every((x) => x === null || Number.isFinite(x))).toBe(true);
+      const ok = ref.filter((x): x is number => x !== null);
+      const v = byName(r, name);
+      expect(v.min).toBeCloseTo(
+        ok.reduce((a, b) => Math.min(a, b), Infinity),
+        3,
+      );
+      expect(v.max).toBeCloseTo(
+        ok.reduce((a, b) => Math.max(a, b), -Infinity),
+        3,
+      );
+      expect(v.mean!).toBeCloseTo(ok.reduce((a, b) => a + b, 0) / ok.length, 2);
+      expect(v.fillCount).toBe(ref.length - ok.length);
+    }
+  });
+
   it('esku_heat_budget.cdf (ferret-datasets): year-0 axis "hour since 0000-01-01" is reported undecodable with the reason; FSR 0 … 311.5 W/M2 with the positive 1e34 fill masked', async () => {
     const r = await inspectFile(REAL + 'esku_heat_budget.cdf');
     const t = r.timeAxes.find((a) => a.variable === 'TIME')!;
