@@ -12,7 +12,6 @@
  * in the same place, clothing adjustment `--cav` (default 0). Screening values only: local
  * regulations and a competent person decide (docs/methods.md §14).
  */
-import type { Command } from 'commander';
 import { createWriteStream, existsSync, statSync } from 'node:fs';
 import { rename, rm, mkdir } from 'node:fs/promises';
 import { dirname } from 'node:path';
@@ -59,28 +58,7 @@ const PHYSICS_OUTPUT = [
   'wbgt_shelter_c',
 ] as const;
 
-/** The columns `point` reads and writes, as `heathours point --help` prints them after the options. */
-export const POINT_HELP = `
-Input columns (header names; order is free; one row per hour):
-  required  time_utc       end of the averaging period, ISO 8601 (e.g. 2024-07-15T12:00:00Z)
-            lat, lon       position [degrees north, degrees east]
-            ta_c           air temperature [°C]
-            rh_pct | td_c  relative humidity [%] or dew point [°C] (rh_pct is used when both are given)
-            pressure_hpa   surface pressure [hPa]
-            wind_ms        wind speed at wind_height_m [m/s]
-            solar_wm2      global horizontal solar irradiance, mean over the period [W/m²]
-  optional  avg_minutes    length of the averaging period [min] (default 60)
-            wind_height_m  height of the wind measurement [m] (default 10; 2 = used as is)
-            urban          1 for the urban wind-profile exponents, 0 rural (default 0)
-            dt_c           vertical temperature difference for night stability [°C] (default 0)
-            direct_fraction  direct-beam share of the solar [0-1] (default: estimated)
-            cos_zenith     cosine of the solar zenith (default: computed for the period's middle)
-
-Output: the input columns, then cos_zenith, direct_fraction, wind_2m_ms; in the sun tg_c, tnwb_c,
-tpsy_c, wbgt_c; in the open-sky shade (the sun removed) tg_shade_c, tnwb_shade_c, wbgt_shade_c;
-under a shelter at air temperature (roof, canopy) tg_shelter_c, tnwb_shelter_c, wbgt_shelter_c
-[°C]; per workload class limit_<class>_c and work_fraction_<class>; status (ok, or why a row has
-no values). Screening values for fit, hydrated workers; a competent person decides work/rest.`;
+export { POINT_HELP } from './point-help.ts';
 
 /** The shipped workload classes (content/workload-classes.yaml), the default of `--classes`. */
 export const DEFAULT_CLASSES_FILE = packagePath('content', 'workload-classes.yaml');
@@ -279,41 +257,34 @@ export async function runPoint(inPath: string, outPath: string, opts: { quiet?: 
   }
 }
 
-export function register(program: Command): void {
-  program
-    .command('point')
-    .description('hourly WBGT (sun, open-sky shade and shelter; Liljegren method) and work limits for tabular weather data: one row per hour')
-    .requiredOption('--in <file>', 'input CSV, - for standard input (columns: time_utc, lat, lon, ta_c, rh_pct or td_c, pressure_hpa, wind_ms, solar_wm2, ...)')
-    .requiredOption('--out <file>', 'output CSV, - for standard output: the input columns plus the computed ones and a status')
-    .option('--classes <file>', 'workload classes (YAML like content/workload-classes.yaml); default: the shipped classes')
-    .option('--unacclimatized', 'use the limit curve for unacclimatized workers (default: acclimatized)')
-    .option('--cav <value>', 'clothing adjustment value added to the WBGT [°C-WBGT], default 0')
-    .option(
-      '--globe-diameter <m>',
-      'diameter of the black globe [m]: 0.15 the standard globe (default), 0.0508 the 2-inch globe of the reference implementation',
-    )
-    .option('--quiet', 'no progress output')
-    .addHelpText('after', POINT_HELP)
-    .action(async (opts: { in: string; out: string; quiet?: boolean; classes?: string; unacclimatized?: boolean; cav?: string; globeDiameter?: string }) => {
-      const cav = opts.cav === undefined ? 0 : Number(opts.cav);
-      if (opts.cav !== undefined && (opts.cav.trim() === '' || !Number.isFinite(cav))) {
-        throw PointOptionInvalid({ option: '--cav', value: opts.cav, expected: 'a number of °C-WBGT from 0 to 20' });
-      }
-      const globeDiameter = opts.globeDiameter === undefined ? undefined : Number(opts.globeDiameter);
-      if (opts.globeDiameter !== undefined && (opts.globeDiameter.trim() === '' || !Number.isFinite(globeDiameter))) {
-        throw PointOptionInvalid({
-          option: '--globe-diameter',
-          value: opts.globeDiameter,
-          expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}`,
-        });
-      }
-      const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav, globeDiameter });
-      const rest = Object.entries(s.byStatus)
-        .filter(([k]) => k !== 'ok')
-        .map(([k, v]) => `${k} ${v}`)
-        .join(', ');
-      process.stderr.write(
-        `point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`,
-      );
+/** What `heathours point` does once its options are parsed (loaded only when the command runs). */
+export async function pointAction(opts: {
+  in: string;
+  out: string;
+  quiet?: boolean;
+  classes?: string;
+  unacclimatized?: boolean;
+  cav?: string;
+  globeDiameter?: string;
+}): Promise<void> {
+  const cav = opts.cav === undefined ? 0 : Number(opts.cav);
+  if (opts.cav !== undefined && (opts.cav.trim() === '' || !Number.isFinite(cav))) {
+    throw PointOptionInvalid({ option: '--cav', value: opts.cav, expected: 'a number of °C-WBGT from 0 to 20' });
+  }
+  const globeDiameter = opts.globeDiameter === undefined ? undefined : Number(opts.globeDiameter);
+  if (opts.globeDiameter !== undefined && (opts.globeDiameter.trim() === '' || !Number.isFinite(globeDiameter))) {
+    throw PointOptionInvalid({
+      option: '--globe-diameter',
+      value: opts.globeDiameter,
+      expected: `a diameter in metres from ${GLOBE_DIAMETER_RANGE[0]} to ${GLOBE_DIAMETER_RANGE[1]}`,
     });
+  }
+  const s = await runPoint(opts.in, opts.out, { quiet: opts.quiet, classesFile: opts.classes, unacclimatized: opts.unacclimatized, cav, globeDiameter });
+  const rest = Object.entries(s.byStatus)
+    .filter(([k]) => k !== 'ok')
+    .map(([k, v]) => `${k} ${v}`)
+    .join(', ');
+  process.stderr.write(
+    `point: ${s.rows} rows, ${s.ok} computed${rest ? `; not computed: ${rest}` : ''}; dew point clamped to air temperature in ${s.dewPointClamped}\n`,
+  );
 }

@@ -4,7 +4,6 @@
  * script for the store's official client (DIR/download.py). No network: the user runs the
  * script where they have an account.
  */
-import type { Command } from 'commander';
 import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { mkdir, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
@@ -99,34 +98,24 @@ const SHORT_OF: Record<string, string> = {
   land_sea_mask: 'lsm',
 };
 
-export function register(program: Command): void {
-  program
-    .command('request')
-    .description(
-      "write the data-store download requests the atlas needs (requests.json) and a Python script for the store's official client (download.py); no network",
-    )
-    .option('--config <file>', 'atlas configuration', 'content/atlas.yaml')
-    .option('--out <dir>', 'download folder (default: the folder of the first dataset.files pattern)')
-    .option('--margin <degrees>', "margin around the regions' bounding box [°], before snapping to the product grid", '0.5')
-    .option('--max-fields <n>', 'per-request limit of the store [fields = variables × hours] (default: 120000 for ERA5, 12000 for ERA5-Land, from memory)')
-    .action(async (opts: { config: string; out?: string; margin: string; maxFields?: string }) => {
-      const margin = Number(opts.margin);
-      if (!Number.isFinite(margin) || margin < 0 || margin > 10)
-        throw UsageError({ message: `--margin ${opts.margin} is not a number of degrees from 0 to 10`, hint: 'e.g. --margin 0.5' });
-      let maxFields: number | undefined;
-      if (opts.maxFields !== undefined) {
-        maxFields = Number(opts.maxFields);
-        if (!Number.isInteger(maxFields) || maxFields < 1)
-          throw UsageError({ message: `--max-fields ${opts.maxFields} is not a positive whole number`, hint: 'e.g. --max-fields 60000' });
-      }
-      const { dir, file } = await writeRequests({ config: opts.config, out: opts.out, margin, maxFields });
-      const [n, w, s, e] = file.area;
-      process.stdout.write(
-        `${file.totalFiles} request(s) for atlas "${file.atlas}" (${file.product}), area N ${n} W ${w} S ${s} E ${e} (${file.gridPoints.lat} × ${file.gridPoints.lon} points), ` +
-          `at most ${file.fieldLimit} fields each (${file.fieldLimitSource})\n` +
-          `about ${(file.totalBytesEstimate / 1e9).toFixed(2)} GB before compression; ${file.totalFiles - file.missingFiles} already present, ${file.missingFiles} to download\n` +
-          file.requests.map((r) => `  ${r.present ? 'present ' : 'missing '} ${r.target}: ${r.purpose}, ${r.fields} fields`).join('\n') +
-          `\nwrote ${join(dir, 'requests.json')} and ${join(dir, 'download.py')}: run \`python3 ${join(dir, 'download.py')}\` where you have a data-store account\n`,
-      );
-    });
+/** What `heathours request` does once its options are parsed (loaded only when the command runs). */
+export async function requestAction(opts: { config: string; out?: string; margin: string; maxFields?: string }): Promise<void> {
+  const margin = Number(opts.margin);
+  if (!Number.isFinite(margin) || margin < 0 || margin > 10)
+    throw UsageError({ message: `--margin ${opts.margin} is not a number of degrees from 0 to 10`, hint: 'e.g. --margin 0.5' });
+  let maxFields: number | undefined;
+  if (opts.maxFields !== undefined) {
+    maxFields = Number(opts.maxFields);
+    if (!Number.isInteger(maxFields) || maxFields < 1)
+      throw UsageError({ message: `--max-fields ${opts.maxFields} is not a positive whole number`, hint: 'e.g. --max-fields 60000' });
+  }
+  const { dir, file } = await writeRequests({ config: opts.config, out: opts.out, margin, maxFields });
+  const [n, w, s, e] = file.area;
+  process.stdout.write(
+    `${file.totalFiles} request(s) for atlas "${file.atlas}" (${file.product}), area N ${n} W ${w} S ${s} E ${e} (${file.gridPoints.lat} × ${file.gridPoints.lon} points), ` +
+      `at most ${file.fieldLimit} fields each (${file.fieldLimitSource})\n` +
+      `about ${(file.totalBytesEstimate / 1e9).toFixed(2)} GB before compression; ${file.totalFiles - file.missingFiles} already present, ${file.missingFiles} to download\n` +
+      file.requests.map((r) => `  ${r.present ? 'present ' : 'missing '} ${r.target}: ${r.purpose}, ${r.fields} fields`).join('\n') +
+      `\nwrote ${join(dir, 'requests.json')} and ${join(dir, 'download.py')}: run \`python3 ${join(dir, 'download.py')}\` where you have a data-store account\n`,
+  );
 }

@@ -52,6 +52,27 @@ describe('the compiled command', () => {
     expect(sources.files).toContain('pipeline/run/shard-worker.ts');
   });
 
+  it('starts light: what compiled/cli.js imports before a command runs is under 100 kB of its own code and no package but commander and cli-progress (exceljs, h5wasm, sharp, zod, yaml, the physics tables load in the commands that use them)', () => {
+    const seen = new Set<string>();
+    const packages = new Set<string>();
+    let bytes = 0;
+    const walk = (f: string) => {
+      if (seen.has(f)) return;
+      seen.add(f);
+      const text = readFileSync(f, 'utf8');
+      bytes += text.length;
+      // Static imports and re-exports only (esbuild writes `from "…"`); `import("…")` is lazy.
+      for (const m of text.matchAll(/^(?:import|export)\s[^;]*?from\s+"([^"]+)"|^import\s+"([^"]+)"/gms)) {
+        const spec = m[1] ?? m[2];
+        if (spec.startsWith('.')) walk(join(f, '..', spec));
+        else if (!spec.startsWith('node:')) packages.add(spec.split('/')[0]);
+      }
+    };
+    walk(join(ROOT, 'compiled', 'cli.js'));
+    expect([...packages].sort()).toEqual(['cli-progress', 'commander']);
+    expect(bytes).toBeLessThan(100_000);
+  });
+
   it('--help lists every command and the exit statuses; --version and -v print the package version', () => {
     const help = run(['--help']);
     expect(help.status).toBe(0);

@@ -17,11 +17,15 @@ import { requestsFileSchema, snappedArea } from '../../pipeline/read/download-re
 const ROOT = new URL('../../', import.meta.url).pathname;
 const dir = mkdtempSync(join(tmpdir(), 'hh-request-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
+// A copy of content/: its dataset.files (../data/demo/*.nc) then finds no inputs, whether or not
+// this clone holds a built demo (which would mark its years present).
+cpSync(join(ROOT, 'content'), join(dir, 'content'), { recursive: true });
+const ATLAS = join(dir, 'content/atlas.yaml');
 
 describe('download requests for the demo atlas', () => {
   it('area, variables, years and one request per year match the hand-checked expectation; requests.json parses against the schema', async () => {
     const out = join(dir, 'era5');
-    const { file } = await writeRequests({ config: join(ROOT, 'content/atlas.yaml'), out });
+    const { file } = await writeRequests({ config: ATLAS, out });
     const json = requestsFileSchema.parse(JSON.parse(readFileSync(join(out, 'requests.json'), 'utf8')));
     expect(json).toEqual(file);
     expect(file.regionsBox.map((x) => Math.round(x * 1e4) / 1e4)).toEqual([-149.2828, 16.6073, -142.2259, 23.3976]);
@@ -60,7 +64,7 @@ describe('download requests for the demo atlas', () => {
   });
 
   it('a lower limit splits years into runs of whole months under it (hand count: 2020 Jan–May 3648 h, Jun–Oct 3672 h, Nov–Dec 1464 h at 7 fields per hour ≤ 30 000)', async () => {
-    const { file } = await writeRequests({ config: join(ROOT, 'content/atlas.yaml'), out: join(dir, 'split'), maxFields: 30_000 });
+    const { file } = await writeRequests({ config: ATLAS, out: join(dir, 'split'), maxFields: 30_000 });
     const y2020 = file.requests.filter((r) => r.purpose.startsWith('year 2020'));
     expect(y2020.map((r) => [r.target, r.fields])).toEqual([
       ['era5-2020-01-05.zip', 7 * 3648],
@@ -93,7 +97,7 @@ describe('download requests for the demo atlas', () => {
     const out = join(dir, 'present');
     mkdirSync(out);
     writeFileSync(join(out, 'era5-2021-01-12.zip'), 'x');
-    const { file } = await writeRequests({ config: join(ROOT, 'content/atlas.yaml'), out });
+    const { file } = await writeRequests({ config: ATLAS, out });
     expect(file.requests.filter((r) => r.present).map((r) => r.target)).toEqual(['era5-2021-01-12.zip']);
     expect(file.missingFiles).toBe(6);
   });
