@@ -16,7 +16,7 @@ import { endianness } from 'node:os';
 import { Inflate, constants as zlibConstants, inflate, inflateSync } from 'node:zlib';
 import type { FileHandle } from 'node:fs/promises';
 import { NetcdfChunkDamaged } from './errors.ts';
-import { FILTER_DEFLATE, FILTER_SHUFFLE, type ChunkIndex } from './hdf5-layout.ts';
+import { FILTER_DEFLATE, type ChunkIndex } from './hdf5-layout.ts';
 
 /** Chunks read and inflated at once (libuv's thread pool has 4 threads unless UV_THREADPOOL_SIZE says otherwise). */
 export const CHUNKS_IN_FLIGHT = 6;

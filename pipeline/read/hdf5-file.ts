@@ -218,7 +218,7 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
       heapBytes = nbytes;
     }
     const slab = `[${off.map((o, i) => `${o}:${o + cnt[i]}`).join(', ')}]`;
-    const status = h5call(
+    h5call(
       path,
       `reading hyperslab ${slab}`,
       () => {
