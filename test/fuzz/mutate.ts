@@ -248,13 +248,17 @@ function binaryStep(base: Base, bytes: Uint8Array, d: Draw, recipe: string[]): U
       return out;
     }
     default: {
-      const { at, where } = position(base, len, d, 0.8);
+      const pos = position(base, len, d, 0.8);
+      // A position of the undamaged file may lie past the end of one an earlier step cut short.
+      const at = Math.min(pos.at, len);
+      const where = pos.where;
       const n = 1 + d.int(8);
       if (d.next() < 0.5) {
-        recipe.push(`lose ${n} bytes at ${at} (${where})`);
-        const out = new Uint8Array(Math.max(0, len - n));
+        const k = Math.min(n, len - at);
+        recipe.push(`lose ${k} bytes at ${at} (${where})`);
+        const out = new Uint8Array(len - k);
         out.set(bytes.subarray(0, at));
-        out.set(bytes.subarray(Math.min(len, at + n)), at);
+        out.set(bytes.subarray(at + k), at);
         return out;
       }
       recipe.push(`double ${n} bytes at ${at} (${where})`);
