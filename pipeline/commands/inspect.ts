@@ -4,7 +4,7 @@
  */
 import type { Command } from 'commander';
 import type { FileInspection } from '../read/index.ts';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { closeSync, existsSync, openSync, readdirSync, readSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { startProgress } from '../model/progress.ts';
 import { UsageError } from '../model/errors.ts';
@@ -62,6 +62,23 @@ export function expandInputArgs(args: string[]): string[] {
   return out;
 }
 
+/** Whether a path is a local file that starts with the HDF5 signature (NetCDF-4). */
+function isHdf5File(path: string): boolean {
+  let fd: number | undefined;
+  try {
+    fd = openSync(path, 'r');
+    const head = Buffer.alloc(8);
+    return readSync(fd, head, 0, 8, 0) === 8 && head.equals(HDF5_SIGNATURE);
+  } catch {
+    return false; // not a local file: the readers say what it is
+  } finally {
+    if (fd !== undefined) closeSync(fd);
+  }
+}
+
+/** The 8 bytes an HDF5 file starts with (HDF5 File Format Specification §II.A, format signature). */
+const HDF5_SIGNATURE = Buffer.from([0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a]);
+
 export function register(program: Command): void {
   program
     .command('inspect')
@@ -94,6 +111,8 @@ export function register(program: Command): void {
         process.stdout.write(opts.json ? `${JSON.stringify(r)}\n` : `${formatCoverage(r)}\n`);
         return;
       }
+      // NetCDF-4 among the files: the HDF5 metadata worker starts while the readers load.
+      if (files.some(isHdf5File)) (await import('../read/hdf5-meta.ts')).startHdf5Metadata();
       const { inspectFile } = await import('../read/index.ts');
       const progress = startProgress('inspect', files.length, { quiet: files.length < 3 || opts.json === true, unit: 'files' });
       for (const f of files) {

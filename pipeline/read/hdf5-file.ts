@@ -107,19 +107,17 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   if (eof !== null && bytes < eof)
     throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
   const d = await describeNetcdf4(path);
+  return buildHdf5File(path, bytes, d, sizes);
+}
+
+/** Loads h5wasm in this thread (once). */
+async function loadHdf5Library(): Promise<void> {
   ready ??= import('h5wasm/node').then(async (m) => {
     h5wasm = m.default;
     await h5wasm.ready;
     h5module = m.Module as unknown as H5Module;
   });
   await ready;
-  const f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
-  try {
-    return buildHdf5File(f, path, bytes, d, sizes);
-  } catch (e) {
-    quietly(() => f.close());
-    throw e;
-  }
 }
 
 /**
@@ -146,7 +144,8 @@ function h5call<T>(path: string, what: string, fn: () => T, variable?: string): 
 
 /**
  * How a variable's hyperslabs are read: `node:zlib` (its chunks read and inflated directly,
- * hdf5-chunks.ts) or, with the reason, `HDF5 library: …` (h5wasm, as for every variable before).
+ * hdf5-chunks.ts), `contiguous` (its bytes read directly, as one chunk) or, with the reason,
+ * `HDF5 library: …` (h5wasm).
  */
 export type Netcdf4ReadPath = string;
 
@@ -161,7 +160,7 @@ export async function netcdf4ReadPath(sf: SourceFile, v: SourceVariable): Promis
  */
 const rawOff = (): boolean => process.env.HEATHOURS_NETCDF4_RAW === '0';
 
-function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<ReturnType<typeof describeNetcdf4>>, sizes: Hdf5Sizes | string): SourceFile {
+function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof describeNetcdf4>>, sizes: Hdf5Sizes | string): SourceFile {
   const variables: SourceVariable[] = [];
   const info = new Map<SourceVariable, Hdf5Variable>();
   for (const hv of d.variables) {
@@ -174,18 +173,32 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     if (!hv) throw new Error(`variable ${v.name} is not in ${path}`);
     return hv;
   };
+  // The HDF5 library opens the file only when a variable needs it (a layout or filter the raw
+  // chunk reader leaves to it, a scalar, chunks never written): a file whose variables are all
+  // read from their raw chunks never loads h5wasm in this thread (~0.3 s and its heap).
+  let f: H5File | undefined;
+  const library = async (): Promise<H5File> => {
+    if (!f) {
+      await loadHdf5Library();
+      f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
+    }
+    return f;
+  };
   const datasets = new Map<SourceVariable, H5Dataset>();
-  const dsOf = (v: SourceVariable): H5Dataset => {
+  const dsOf = (file: H5File, v: SourceVariable): H5Dataset => {
     let ds = datasets.get(v);
     if (!ds) {
-      ds = new h5wasm.Dataset(f.file_id, `/${v.name}`);
+      ds = new h5wasm.Dataset(file.file_id, `/${v.name}`);
       datasets.set(v, ds);
     }
     return ds;
   };
 
+  /** Reads a hyperslab into a new array: from the raw chunks where they serve, else through the library. */
   async function read(v: SourceVariable, start: number[], count: number[]): Promise<RawArray> {
-    const ds = dsOf(v);
+    const raw = count.some((c) => c === 0) ? null : await readRaw(v, start, count, true);
+    if (raw) return raw;
+    const ds = dsOf(await library(), v);
     const out = h5call(path, 'reading values', () => (v.shape.length === 0 ? ds.value : ds.slice(start.map((s, i) => [s, s + count[i]]))), v.name) as unknown;
     if (out instanceof BigInt64Array || out instanceof BigUint64Array) return Float64Array.from(out, (x) => Number(x));
     if (typeof out === 'number') return Float64Array.of(out);
@@ -203,10 +216,11 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
    * Reads a hyperslab into the reused heap buffer and returns a view on it (valid until the next
    * read or allocation in wasm); falls back to `slice` (a copy) for other value types.
    */
-  function readDirect(v: SourceVariable, off: number[], cnt: number[]): RawArray | null {
+  async function readDirect(v: SourceVariable, off: number[], cnt: number[]): Promise<RawArray | null> {
     const hv = infoOf(v);
     const View = HEAP_VIEW[v.type];
     if (!View || !hv.plain) return null;
+    const file = await library();
     const total = product(cnt);
     const nbytes = total * hv.valueBytes;
     if (heapBytes < nbytes) {
@@ -223,7 +237,7 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
       `reading hyperslab ${slab}`,
       () => {
         const st = h5module.get_dataset_data(
-          f.file_id,
+          file.file_id,
           `/${v.name}`,
           cnt.map(BigInt),
           off.map(BigInt),
@@ -240,14 +254,15 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
 
   // Raw chunk reads: the file handle, each variable's chunk index (or why there is none), and
   // the reused output buffer.
-  let fh: FileHandle | undefined;
+  // Opened once, on first use (reads may start side by side).
+  let fh: Promise<FileHandle> | undefined;
+  const handle = (): Promise<FileHandle> => (fh ??= open(path, 'r'));
   const indexes = new Map<SourceVariable, Promise<ChunkIndex | string>>();
   let rawBuf = new ArrayBuffer(0);
   const libraryOnly = rawOff();
   const readAt = async (at: number, n: number): Promise<Uint8Array> => {
-    fh ??= await open(path, 'r');
     const b = Buffer.allocUnsafe(n);
-    const { bytesRead } = await fh.read(b, 0, n, at);
+    const { bytesRead } = await (await handle()).read(b, 0, n, at);
     return b.subarray(0, bytesRead);
   };
   function indexOf(v: SourceVariable): Promise<ChunkIndex | string> {
@@ -272,18 +287,21 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     return p;
   }
 
-  /** Reads a hyperslab from the raw chunks into the reused buffer, or null (the HDF5 library reads it). */
-  async function readRaw(v: SourceVariable, off: number[], cnt: number[]): Promise<RawArray | null> {
+  /**
+   * Reads a hyperslab from the raw chunks into the reused buffer (a new one when `fresh`: the
+   * caller keeps it, and reads may run side by side), or null (the HDF5 library reads it).
+   */
+  async function readRaw(v: SourceVariable, off: number[], cnt: number[], fresh = false): Promise<RawArray | null> {
     if (v.shape.length === 0) return null;
     const idx = await indexOf(v);
     if (typeof idx === 'string') return null;
     const View = HEAP_VIEW[v.type]!;
     const nbytes = product(cnt) * idx.elementBytes;
-    if (rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
-    const out = new Uint8Array(rawBuf, 0, nbytes);
-    fh ??= await open(path, 'r');
-    const ok = await readRawSlab({ fh, path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
-    return ok ? new View(rawBuf, 0, nbytes / idx.elementBytes) : null;
+    if (!fresh && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
+    const buf = fresh ? new ArrayBuffer(nbytes) : rawBuf;
+    const out = new Uint8Array(buf, 0, nbytes);
+    const ok = await readRawSlab({ fh: await handle(), path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
+    return ok ? new View(buf, 0, nbytes / idx.elementBytes) : null;
   }
 
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
@@ -313,7 +331,7 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
       const off = [a0, ...start.slice(1)];
       const cnt = [a1 - a0, ...count.slice(1)];
       const strides = denseStrides(cnt);
-      const data = (await readRaw(v, off, cnt)) ?? readDirect(v, off, cnt) ?? (await read(v, off, cnt));
+      const data = (await readRaw(v, off, cnt)) ?? (await readDirect(v, off, cnt)) ?? (await read(v, off, cnt));
       sink(i, { data, view: null, type: v.type, base: (s0 - a0) * strides[0], strides }, done, e0 - s0);
       if (a1 > e0) {
         const k0 = Math.max(a0, Math.floor((a1 - 1) / C) * C);
@@ -344,18 +362,21 @@ function buildHdf5File(f: H5File, path: string, bytes: number, d: Awaited<Return
     readStrings: (v) => readNetcdf4Strings(path, v.name, v.shape),
     async readPath(v: SourceVariable): Promise<Netcdf4ReadPath> {
       const idx = await indexOf(v);
-      return typeof idx === 'string' ? idx : 'node:zlib';
+      return typeof idx === 'string' ? idx : idx.contiguous ? 'contiguous' : 'node:zlib';
     },
     async close() {
       indexes.clear();
       rawBuf = new ArrayBuffer(0);
-      if (fh) await fh.close();
+      const h = fh;
       fh = undefined;
+      if (h) await (await h.catch(() => undefined))?.close();
       if (heapPtr && !stopped) h5module._free(heapPtr);
       heapPtr = 0;
       heapBytes = 0;
       carry.clear();
-      if (!stopped) quietly(() => f.close());
+      const file = f;
+      f = undefined;
+      if (file && !stopped) quietly(() => file.close());
     },
   };
 }

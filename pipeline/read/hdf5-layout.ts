@@ -51,6 +51,8 @@ export interface ChunkIndex {
   size: Float64Array;
   /** Per chunk: filter mask (bit i set: filter i was skipped for this chunk). */
   mask: Uint32Array;
+  /** Set for a contiguous variable, indexed as one unfiltered chunk spanning it. */
+  contiguous?: true;
 }
 
 /** Sizes of file addresses and lengths, and the base all addresses are relative to [bytes]. */
@@ -212,17 +214,46 @@ export function parseFilters(d: Uint8Array): Hdf5Filter[] {
   return out;
 }
 
-/** Chunk shape and B-tree address from a Data Layout message (§IV.A.2.i, version 3, chunked). */
-export function parseLayout(d: Uint8Array, s: Hdf5Sizes): { btree: number; dims: number[] } {
+/** A Data Layout message (§IV.A.2.i, version 3): chunked (B-tree address, chunk shape) or contiguous. */
+export type Hdf5Layout = { kind: 'chunked'; btree: number; dims: number[] } | { kind: 'contiguous'; address: number; size: number };
+
+/** Reads a Data Layout message, version 3: class 1 (contiguous) or 2 (chunked); others are refused. */
+export function parseLayout(d: Uint8Array, s: Hdf5Sizes): Hdf5Layout {
   const version = d[0];
   if (version !== 3) refuse(`data layout version ${version} (version 4 chunk indexes are read by the HDF5 library)`);
-  if (d[1] !== 2) refuse(`data layout class ${d[1]} (not chunked)`);
+  if (d[1] === 1) return { kind: 'contiguous', address: addr(d, 2, s.offsets), size: le(d, 2 + s.offsets, s.lengths) };
+  if (d[1] !== 2) refuse(`data layout class ${d[1]} (neither contiguous nor chunked)`);
   const ndims = d[2];
   if (ndims < 1 || ndims > 33) refuse(`chunk dimensionality ${ndims}`);
   const btree = addr(d, 3, s.offsets);
   const dims: number[] = [];
   for (let i = 0; i < ndims; i++) dims.push(le(d, 3 + s.offsets + 4 * i, 4));
-  return { btree, dims };
+  return { kind: 'chunked', btree, dims };
+}
+
+/** Largest contiguous variable read whole as one chunk [bytes]: coordinates; larger ones go through the HDF5 library's hyperslabs. */
+const MAX_CONTIGUOUS_BYTES = 1 << 24;
+
+/**
+ * A contiguous variable as an index of one unfiltered chunk that spans the whole variable
+ * (the address -1 when HDF5 never wrote it: all fill values).
+ */
+function contiguousIndex(l: { address: number; size: number }, shape: number[], elementBytes: number, fileBytes: number): ChunkIndex {
+  if (shape.length === 0 || shape.some((n) => n < 1)) refuse('a contiguous variable without values along every dimension');
+  const bytes = shape.reduce((a, b) => a * b, elementBytes);
+  if (bytes > MAX_CONTIGUOUS_BYTES) refuse(`a contiguous variable of ${bytes} bytes`);
+  if (l.address !== -1 && l.size !== bytes) refuse(`contiguous storage of ${l.size} bytes for ${bytes} bytes of values`);
+  if (l.address !== -1 && l.address + l.size > fileBytes) refuse(`contiguous storage at byte ${l.address} runs past the end of the file`);
+  return {
+    chunk: [...shape],
+    grid: shape.map(() => 1),
+    elementBytes,
+    filters: [],
+    address: Float64Array.of(l.address),
+    size: Float64Array.of(l.address === -1 ? 0 : bytes),
+    mask: new Uint32Array(1),
+    contiguous: true,
+  };
 }
 
 /**
@@ -241,7 +272,9 @@ export async function readChunkIndex(
   const layoutMsg = messages.find((m) => m.type === 0x0008);
   if (!layoutMsg) return refuse('no data layout message');
   if (layoutMsg.flags & 0x02) refuse('a shared data layout message');
-  const { btree, dims } = parseLayout(layoutMsg.data, s);
+  const layout = parseLayout(layoutMsg.data, s);
+  if (layout.kind === 'contiguous') return contiguousIndex(layout, shape, elementBytes, fileBytes);
+  const { btree, dims } = layout;
   const rank = shape.length;
   if (dims.length !== rank + 1) refuse(`chunks of rank ${dims.length - 1} for a variable of rank ${rank}`);
   if (dims[rank] !== elementBytes) refuse(`chunk element size ${dims[rank]} for values of ${elementBytes} bytes`);

@@ -75,6 +75,15 @@ function lost(w: Worker): void {
 /** The worker each waiting request was sent to. */
 const owner = new Map<number, Worker>();
 
+/**
+ * Starts the metadata worker now, if none runs, so that its start (~0.4 s: loading HDF5's
+ * WebAssembly) overlaps the caller's own start instead of delaying the first NetCDF-4 file.
+ * Idle, it does not keep the process alive.
+ */
+export function startHdf5Metadata(): void {
+  worker ??= start();
+}
+
 /** Sends one request; the answer, `'timeout'`, or `'lost'` when the worker died meanwhile. */
 async function send(req: MetaQuery): Promise<MetaAnswer | 'timeout' | 'lost'> {
   worker ??= start();

@@ -51,6 +51,24 @@ function asArray(b: Buffer, like: RawArray): number[] {
   return Array.from(new C(copy.buffer));
 }
 
+/** Values read by the HDF5 library (h5wasm) alone: the file opened with HEATHOURS_NETCDF4_RAW=0. */
+async function libraryValues(file: string, name: string, start: number[], count: number[]): Promise<RawArray> {
+  process.env.HEATHOURS_NETCDF4_RAW = '0';
+  let sf: SourceFile;
+  try {
+    sf = await openSourceFile(file);
+  } finally {
+    delete process.env.HEATHOURS_NETCDF4_RAW;
+  }
+  try {
+    const v = varOf(sf, name);
+    expect(await netcdf4ReadPath(sf, v)).toBe('HDF5 library: HEATHOURS_NETCDF4_RAW=0');
+    return await sf.read(v, start, count);
+  } finally {
+    await sf.close();
+  }
+}
+
 /** A slab read through `readSlabs`, gathered into a dense row-major array of `count`. */
 async function slab(sf: SourceFile, v: SourceVariable, start: number[], count: number[]): Promise<number[]> {
   const inner = count.slice(1).reduce((a, b) => a * b, 1);
@@ -102,6 +120,9 @@ v = d.createVariable('fl', 'f4', ('time', 'lat', 'lon'), zlib=True, shuffle=True
 v[:] = numpy.arange(240, dtype='f4').reshape(12, 4, 5) * 0.5
 p = d.createVariable('part', 'f4', ('time', 'lat', 'lon'), zlib=True, shuffle=True, chunksizes=(4, 2, 5), fill_value=-99.0)
 p[4:8, :, :] = numpy.arange(80, dtype='f4').reshape(4, 4, 5)
+c = d.createVariable('lat', 'f8', ('lat',), contiguous=True)
+c[:] = [10.5, 10.25, 10.0, 9.75]
+e = d.createVariable('never', 'i2', ('lat', 'lon'), contiguous=True, fill_value=-7)
 d.close()
 `;
 
@@ -130,14 +151,15 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
         expect(await netcdf4ReadPath(sf, v)).toBe('node:zlib');
         const zero = v.shape.map(() => 0);
         const raw = await slab(sf, v, zero, v.shape);
-        const lib = await sf.read(v, zero, v.shape);
+        const lib = await libraryValues(file, name, zero, v.shape);
         expect(raw).toEqual(Array.from(lib));
         expect(raw).toEqual(asArray(referenceBytes(file, name), lib));
+        expect(Array.from(await sf.read(v, zero, v.shape))).toEqual(raw);
       }
       // A slab inside the chunks (chunks 1 × 7 × 32 × 64): levels 3-10, rows 20-50, columns 60-70.
       const t = varOf(sf, 'T');
       const part = await slab(sf, t, [0, 3, 20, 60], [1, 8, 31, 11]);
-      expect(part).toEqual(Array.from(await sf.read(t, [0, 3, 20, 60], [1, 8, 31, 11])));
+      expect(part).toEqual(Array.from(await libraryValues(file, 'T', [0, 3, 20, 60], [1, 8, 31, 11])));
     } finally {
       await sf.close();
     }
@@ -160,10 +182,11 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
       for (const name of ['f4', 'i2', 'f8', 'i4', 'u1']) {
         const v = varOf(sf, name);
         expect(await netcdf4ReadPath(sf, v)).toBe('node:zlib');
-        const lib = await sf.read(v, [0, 0, 0], v.shape);
+        const lib = await libraryValues(packed, name, [0, 0, 0], v.shape);
         const ref = asArray(referenceBytes(packed, name), lib);
         expect(await slab(sf, v, [0, 0, 0], v.shape)).toEqual(ref);
         expect(Array.from(lib)).toEqual(ref);
+        expect(Array.from(await sf.read(v, [0, 0, 0], v.shape))).toEqual(ref);
         // Odd slab: hours 4-20, rows 2-8, columns 6-16 (cuts chunks in every dimension).
         const want: number[] = [];
         for (let t = 4; t < 21; t++) for (let y = 2; y < 9; y++) for (let x = 6; x < 17; x++) want.push(ref[(t * 10 + y) * 17 + x]);
@@ -229,6 +252,27 @@ function patch(file: string, at: number, bytes: Uint8Array): void {
   writeSync(fd, bytes, 0, bytes.length, at);
   closeSync(fd);
 }
+
+describe('NetCDF-4 variables stored contiguously', () => {
+  it('a contiguous coordinate (python3-netcdf4, contiguous=True) is read from its bytes without the HDF5 library, equal to python3-netcdf4; one never written reads as its fill value through the library', async () => {
+    const sf = await openSourceFile(direct);
+    try {
+      const lat = varOf(sf, 'lat');
+      expect(await netcdf4ReadPath(sf, lat)).toBe('contiguous');
+      const values = await sf.read(lat, [0], [4]);
+      expect(Array.from(values)).toEqual(asArray(referenceBytes(direct, 'lat'), values));
+      expect(Array.from(values)).toEqual([10.5, 10.25, 10.0, 9.75]);
+      expect(Array.from(await sf.read(lat, [1], [2]))).toEqual([10.25, 10.0]);
+      expect(Array.from(await sf.readNumbers(lat))).toEqual([10.5, 10.25, 10.0, 9.75]);
+      const never = varOf(sf, 'never');
+      const fill = await sf.read(never, [0, 0], never.shape);
+      expect(Array.from(fill)).toEqual(asArray(referenceBytes(direct, 'never'), fill));
+      expect(new Set(fill)).toEqual(new Set([-7]));
+    } finally {
+      await sf.close();
+    }
+  });
+});
 
 describe('damaged chunks', () => {
   it('a chunk whose deflate stream is overwritten is NetcdfChunkDamaged naming the file, variable and chunk, and nothing is handed out', async () => {
