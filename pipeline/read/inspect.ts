@@ -171,26 +171,44 @@ export async function streamStats(
   const buf = new Float32Array(n === 0 ? 1 : Math.min(SLAB_VALUES, inner * Math.min(step, v.shape[split] ?? 1)));
   const consume = (raw: RawArray, from: number, m: number): void => {
     const out = m <= buf.length ? buf : new Float32Array(m);
-    missing += decodeRun(raw, from, m, out, 0, plan);
+    const gone = decodeRun(raw, from, m, out, 0, plan);
+    missing += gone;
     // Sums in locals, written back once: a captured `let` changed per value is a boxed number in
-    // V8, one allocation per value (this loop took 26 ns a value that way, ~1 ns now). Selects
-    // rather than branches: real fields are noisy, and a mispredicted branch costs more.
+    // V8, one allocation per value (26 ns a value that way). Selects rather than branches: real
+    // fields are noisy, and a mispredicted branch costs more. A run without missing values skips
+    // the test for them (3-4× faster); the values are summed in the same order either way.
     let lo = min;
     let hi = max;
-    let s = 0;
+    let s = sum;
     let k = 0;
-    for (let i = 0; i < m; i++) {
-      const x = out[i];
-      if (x === x) {
+    if (gone === 0) {
+      for (let i = 0; i < m; i++) {
+        const x = out[i];
         lo = x < lo ? x : lo;
         hi = x > hi ? x : hi;
         s += x;
-        k++;
+      }
+      k = m;
+    }
+    // A NaN the decoding did not count (a damaged scale factor, Inf × 0): the checked loop.
+    if (gone !== 0 || s !== s) {
+      lo = min;
+      hi = max;
+      s = sum;
+      k = 0;
+      for (let i = 0; i < m; i++) {
+        const x = out[i];
+        if (x === x) {
+          lo = x < lo ? x : lo;
+          hi = x > hi ? x : hi;
+          s += x;
+          k++;
+        }
       }
     }
     min = lo;
     max = hi;
-    sum += s;
+    sum = s;
     valid += k;
   };
   const slabs = sf.format === 'netcdf4' && n > 0;
