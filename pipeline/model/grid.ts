@@ -182,8 +182,8 @@ export function idsInRows(l: CellGrid, ids: Int32Array, y0: number, y1: number):
   return [lowerBound(ids, y0 * nx), lowerBound(ids, y1 * nx)];
 }
 
-/** First index of an ascending array whose value is ≥ v. */
-function lowerBound(a: Int32Array, v: number): number {
+/** First index of an ascending array (cell ids, say) whose value is ≥ v (a.length when none). */
+export function lowerBound(a: ArrayLike<number>, v: number): number {
   let lo = 0;
   let hi = a.length;
   while (lo < hi) {

@@ -15,7 +15,7 @@ import { ClipBuffer, clipHalfPlane } from './clip-rectangle.ts';
 import { cellAreaSr, describeGridCells, type GridCells } from './grid-cells.ts';
 import type { Region } from './region.ts';
 import { planarSignedArea2 } from './ring-prep.ts';
-import { EARTH_RADIUS_KM, rectangleAreaSr, ringAreaSr } from './spherical-area.ts';
+import { EARTH_RADIUS_KM, ringAreaSr } from './spherical-area.ts';
 
 /** A region's cells, sparse, in ascending cell index. */
 export interface CellWeights {

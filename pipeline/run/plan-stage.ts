@@ -18,7 +18,7 @@ import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
-import { gridCellCount, landCellsOf, rowRange, type LandCells } from '../model/grid.ts';
+import { gridCellCount, landCellsOf, lowerBound, rowRange, type LandCells } from '../model/grid.ts';
 import { planShards, scenarioShards, yearPieces, type ShardSpec } from './plan.ts';
 import type { ScenarioSpec } from '../scenario/settings.ts';
 import { sha256File } from '../read/dataset-file.ts';
@@ -420,18 +420,6 @@ function addBandWorkforce(bands: MergeBand[], land: LandCells, weights: readonly
       regions,
     };
   }
-}
-
-/** First index of a sorted array whose value is ≥ x. */
-function lowerBound(a: ArrayLike<number>, x: number): number {
-  let lo = 0;
-  let hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < x) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }
 
 function range(a: number, b: number): number[] {
