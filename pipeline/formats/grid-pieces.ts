@@ -5,6 +5,7 @@
  * publish stage reads one field from every piece at a time ({@link readGridField}).
  */
 import { closeSync, openSync, readSync, writeSync } from 'node:fs';
+import type { Grid, GridAttrs, HorizontalGrid } from '../model/grid.ts';
 
 /** Where a tile's piece file is and which rows it holds. */
 export interface GridPieceRef {
@@ -46,26 +47,31 @@ export class GridPiece {
 }
 
 /**
- * Field `f` of the whole grid from the tiles' pieces: Float32Array of nLat · nLon, NaN outside
- * the pieces' land cells. `fds` caches open file descriptors by path (close with {@link closePieces}).
+ * Field `f` of the whole grid from the tiles' pieces, as a labelled grid: dims `["lat", "lon"]`,
+ * the grid's coordinates, `attrs` (its units), data a Float32Array of nLat · nLon (row-major, NaN
+ * outside the pieces' land cells). `fds` caches open file descriptors by path (close with
+ * {@link closePieces}); `out` (nLat · nLon) is filled and returned as the data when given.
  */
 export function readGridField(
   pieces: readonly GridPieceRef[],
   f: number,
-  nLat: number,
-  nLon: number,
+  horizontal: HorizontalGrid,
+  attrs: GridAttrs,
   fds: Map<string, number>,
   out?: Float32Array,
-): Float32Array {
-  const grid = out ?? new Float32Array(nLat * nLon);
-  grid.fill(NaN);
-  const bytes = Buffer.from(grid.buffer, grid.byteOffset, grid.byteLength);
+): Grid<Float32Array> {
+  const nLat = horizontal.lat.length;
+  const nLon = horizontal.lon.length;
+  const data = out ?? new Float32Array(nLat * nLon);
+  data.fill(NaN);
+  const bytes = Buffer.from(data.buffer, data.byteOffset, data.byteLength);
   for (const p of pieces) {
     let fd = fds.get(p.path);
     if (fd === undefined) {
       fd = openSync(p.path, 'r');
       fds.set(p.path, fd);
     }
+    // Byte offsets of the piece's rows in the field: whole rows, so plain offsets.
     const perField = (p.rows[1] - p.rows[0]) * nLon * 4;
     const at = p.rows[0] * nLon * 4;
     let done = 0;
@@ -75,7 +81,7 @@ export function readGridField(
       done += n;
     }
   }
-  return grid;
+  return { dims: ['lat', 'lon'], coords: { lat: horizontal.lat, lon: horizontal.lon }, attrs, data };
 }
 
 export function closePieces(fds: Map<string, number>): void {

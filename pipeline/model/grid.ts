@@ -100,24 +100,98 @@ export function landCellsOf(grid: HorizontalGrid, mask?: ArrayLike<number>): Lan
   return { grid, ny, nx, ids, perRow, rowStart };
 }
 
+/** A horizontal grid or its land cells: what the cell helpers below need (the number of columns). */
+export type CellGrid = HorizontalGrid | LandCells;
+
+/** Columns (longitudes) of a grid [cells]. */
+function columns(g: CellGrid): number {
+  return 'nx' in g ? g.nx : g.lon.length;
+}
+
+/** The coordinates of a grid or its land cells. */
+function coordinatesOf(g: CellGrid): HorizontalGrid {
+  return 'nx' in g ? g.grid : g;
+}
+
 /** Number of cells of the whole grid, land or not [cells]. */
-export function gridCellCount(l: LandCells): number {
-  return l.ny * l.nx;
+export function gridCellCount(l: CellGrid): number {
+  const g = coordinatesOf(l);
+  return g.lat.length * g.lon.length;
 }
 
 /** Row-major id of cell (y, x) of the grid (land or not). */
-export function cellIndex(l: LandCells, y: number, x: number): number {
-  return y * l.nx + x;
+export function cellIndex(l: CellGrid, y: number, x: number): number {
+  return y * columns(l) + x;
+}
+
+/** Row y (0 the southernmost) of the cell with row-major id `id`. */
+export function cellRow(l: CellGrid, id: number): number {
+  return Math.floor(id / columns(l));
 }
 
 /** Row y and column x of the cell with row-major id `id`. */
-export function cellRowCol(l: LandCells, id: number): { y: number; x: number } {
-  return { y: Math.floor(id / l.nx), x: id % l.nx };
+export function cellRowCol(l: CellGrid, id: number): { y: number; x: number } {
+  const nx = columns(l);
+  const y = Math.floor(id / nx);
+  return { y, x: id - y * nx };
+}
+
+/** Row, column and centre [° N, ° E] of the cell with row-major id `id`. */
+export function cellCentre(l: CellGrid, id: number): { row: number; col: number; lat: number; lon: number } {
+  const g = coordinatesOf(l);
+  const { y, x } = cellRowCol(l, id);
+  return { row: y, col: x, lat: g.lat[y], lon: g.lon[x] };
+}
+
+/** Centres of cells given by row-major ids, one entry per id [° N, ° E]. */
+export function cellCentres(l: CellGrid, ids: ArrayLike<number>): HorizontalGrid {
+  const g = coordinatesOf(l);
+  const nx = columns(l);
+  const lat = new Float64Array(ids.length);
+  const lon = new Float64Array(ids.length);
+  // Hot loop: plain offsets.
+  for (let k = 0; k < ids.length; k++) {
+    const y = Math.floor(ids[k] / nx);
+    lat[k] = g.lat[y];
+    lon[k] = g.lon[ids[k] - y * nx];
+  }
+  return { lat, lon };
+}
+
+/** Whether `id` is the row-major id of a cell of the grid (an integer in [0, cells)). */
+export function isCellOf(l: CellGrid, id: number): boolean {
+  return Number.isInteger(id) && id >= 0 && id < gridCellCount(l);
 }
 
 /** Positions [k0, k1) in `l.ids` of the land cells of rows [y0, y1). */
 export function rowRange(l: LandCells, y0: number, y1: number): [number, number] {
   return [l.rowStart[y0], l.rowStart[y1]];
+}
+
+/** Land cells in rows [y0, y1) [cells]. */
+export function landInRows(l: LandCells, y0: number, y1: number): number {
+  return l.rowStart[y1] - l.rowStart[y0];
+}
+
+/**
+ * Positions [k0, k1) of the cells of rows [y0, y1) in `ids`, any ascending list of row-major ids
+ * (the land cells of a tile or a band, say) — {@link rowRange} for a part of the land cells.
+ */
+export function idsInRows(l: CellGrid, ids: Int32Array, y0: number, y1: number): [number, number] {
+  const nx = columns(l);
+  return [lowerBound(ids, y0 * nx), lowerBound(ids, y1 * nx)];
+}
+
+/** First index of an ascending array (cell ids, say) whose value is ≥ v (a.length when none). */
+export function lowerBound(a: ArrayLike<number>, v: number): number {
+  let lo = 0;
+  let hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid] < v) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }
 
 /** The land cells' ids inside a tile, ascending. */

@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import { figureStyle, nicheClassStyle, niceDomain, writeLayerFiles, type FigureKind, type LayerFiles, type LegendSpec } from './layers/index.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
 import { periodLabel, trendUnit } from './region-table.ts';
-import type { HorizontalGrid } from '../model/grid.ts';
+import type { Grid } from '../model/grid.ts';
 import { MAPPED, NICHE_FIGURE, TRENDED, type GridField } from './grid-fields.ts';
 import { MIN_TREND_YEARS } from '../climate/trend.ts';
 
@@ -65,19 +65,18 @@ export function countLayers(fields: readonly GridField[]): number {
 /**
  * Draws every layer in the order the manifest lists them (figures in definition order, then
  * combination, statistic, period; the niche last).
- * @param field the whole grid of field `index`, row-major [unit of the field], NaN = no data
+ * @param field the whole grid of field `index` as a labelled grid (dims lat, lon; its coordinates and units), NaN = no data
  */
 export async function writeAtlasLayers(
   dataDir: string,
-  grid: HorizontalGrid,
   defs: readonly FigureDef[],
   fields: readonly GridField[],
   range: FieldRange,
-  field: (index: number) => Float32Array,
+  field: (index: number) => Grid<Float32Array>,
   onLayer: () => void = () => {},
 ): Promise<LayerEntry[]> {
   const entries: LayerEntry[] = [];
-  const g = (values: Float32Array) => ({ lat: grid.lat, lon: grid.lon, values });
+  const g = (f: Grid<Float32Array>) => ({ lat: f.coords.lat, lon: f.coords.lon, values: f.data });
   const find = (figure: string, comboIndex: number, statistic: string, period: number) =>
     fields.find((f) => f.figure === figure && f.comboIndex === comboIndex && f.statistic === statistic && f.period === period && f.layer)!;
   for (const def of defs) {

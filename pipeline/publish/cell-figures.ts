@@ -20,7 +20,7 @@
 import { join } from 'node:path';
 import type { CellFigureNormals, CellNiche } from './figure-normals.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
-import type { HorizontalGrid } from '../model/grid.ts';
+import { cellCentre, gridCellCount, isCellOf, type HorizontalGrid } from '../model/grid.ts';
 import { writeFileAtomic } from '../model/effects.ts';
 import { NICHE_CLASSES } from '../climate/index.ts';
 import { CELL_TABLE_FIGURES } from './cell-table.ts';
@@ -113,20 +113,16 @@ export function cellFigureChunks(
   tile: { rows: number; cols: number } = DEFAULT_CELL_TILE,
 ): CellChunk[] {
   checkTile(tile);
-  const nLat = grid.lat.length;
-  const nLon = grid.lon.length;
-  const nGrid = nLat * nLon;
   const chosen = chosenCellFigures(figures);
   const byChunk = new Map<string, CellRecord[]>();
   for (let c = 0; c < cells.length; c++) {
     const g = cells[c];
-    if (!Number.isInteger(g) || g < 0 || g >= nGrid) throw CellOutsideGrid({ cell: g, nGrid }, { key: `cells[${c}]` });
-    const y = Math.floor(g / nLon);
-    const x = g % nLon;
+    if (!isCellOf(grid, g)) throw CellOutsideGrid({ cell: g, nGrid: gridCellCount(grid) }, { key: `cells[${c}]` });
+    const { row: y, col: x, lat, lon } = cellCentre(grid, g);
     const record: CellRecord = {
       cell: g,
-      lat: roundTo(grid.lat[y], 4),
-      lon: roundTo(grid.lon[x], 4),
+      lat: roundTo(lat, 4),
+      lon: roundTo(lon, 4),
       figures: {},
       niche: {
         baselineMat: finiteOrNull(roundTo(niche.baselineMat[c], 2)),

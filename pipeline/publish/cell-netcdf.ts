@@ -16,6 +16,7 @@ import { Netcdf3Writer, type Nc3Attr, type Nc3Var } from '../formats/netcdf3-wri
 import { NICHE_CLASSES } from '../climate/index.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
 import type { GridField } from './grid-fields.ts';
+import type { Grid, HorizontalGrid } from '../model/grid.ts';
 import { NICHE_FIGURE } from './grid-fields.ts';
 
 /** Fill value of the float variables (as in the GeoTIFF layers) [unit of the variable]. */
@@ -49,16 +50,18 @@ export interface CellNetcdfMeta {
 }
 
 /**
- * Writes the file from `field(index)` (the whole grid of a field, row-major, NaN = no data).
- * @param evalKeys evaluation keys, in the combination order of the figures
+ * Writes the file from `field(index)` (the whole grid of a field as a labelled grid: dims lat,
+ * lon on `grid`'s coordinates, NaN = no data; a field on another grid or in other units than the
+ * variable's is refused).
+ * @param grid the horizontal grid of every field (the file's lat and lon)
  */
 export function writeCellNetcdf(
   path: string,
-  grid: { lat: Float64Array; lon: Float64Array },
+  grid: HorizontalGrid,
   defs: readonly FigureDef[],
   fields: readonly GridField[],
   meta: CellNetcdfMeta,
-  field: (index: number) => Float32Array,
+  field: (index: number) => Grid<Float32Array>,
 ): void {
   const nc = fields.filter((f) => f.netcdf);
   const figures = [...new Set(nc.filter((f) => f.figure !== NICHE_FIGURE).map((f) => f.figure))];
@@ -90,7 +93,7 @@ export function writeCellNetcdf(
       attrs: [attr('long_name', text('work evaluation: workload class.acclimatization.exposure'))],
     },
   ];
-  const order: Array<{ name: string; fields: GridField[]; type: 'float' | 'short' | 'byte' }> = [];
+  const order: Array<{ name: string; fields: GridField[]; type: 'float' | 'short' | 'byte'; units: string }> = [];
   for (const figure of figures) {
     const def = defs.find((d) => d.id === figure)!;
     for (const statistic of ['mean', 'median', 'p90', 'years'] as const) {
@@ -116,7 +119,7 @@ export function writeCellNetcdf(
           ),
         ],
       });
-      order.push({ name, fields: fs, type: years ? 'short' : 'float' });
+      order.push({ name, fields: fs, type: years ? 'short' : 'float', units: years ? '1' : def.units });
     }
   }
   const niche = nc.filter((f) => f.figure === NICHE_FIGURE);
@@ -136,7 +139,7 @@ export function writeCellNetcdf(
         attr('comment', text('mean of the annual means of the baseline years that count')),
       ],
     });
-    order.push({ name: 'mean_annual_temperature', fields: [mat], type: 'float' });
+    order.push({ name: 'mean_annual_temperature', fields: [mat], type: 'float', units: 'degC' });
   }
   if (cls) {
     vars.push({
@@ -150,7 +153,7 @@ export function writeCellNetcdf(
         attr('flag_meanings', text(NICHE_CLASSES.join(' '))),
       ],
     });
-    order.push({ name: 'niche_class', fields: [cls], type: 'byte' });
+    order.push({ name: 'niche_class', fields: [cls], type: 'byte', units: '1' });
   }
   const w = new Netcdf3Writer(path, {
     format: '64bit-offset',
@@ -190,7 +193,7 @@ export function writeCellNetcdf(
     w.writeFixed('evaluation', chars);
     for (const v of order) {
       for (const f of v.fields) {
-        const g = field(f.index);
+        const g = onGrid(field(f.index), grid, v.units, v.name);
         const out = v.type === 'float' ? new Float32Array(g.length) : new Int16Array(g.length);
         const fill = v.type === 'float' ? CELL_NETCDF_FILL : v.type === 'short' ? -1 : CLASS_FILL;
         for (let i = 0; i < g.length; i++) out[i] = Number.isFinite(g[i]) ? g[i] : fill;
@@ -202,4 +205,14 @@ export function writeCellNetcdf(
     w.abort();
     throw e;
   }
+}
+
+/** The data of a field after checking it lies on `grid` (dims lat, lon; the same coordinates) in `units`; a RangeError names the variable otherwise. */
+function onGrid(f: Grid<Float32Array>, grid: HorizontalGrid, units: string, name: string): Float32Array {
+  const same = (a: Float64Array, b: Float64Array) => a === b || (a.length === b.length && a.every((v, i) => v === b[i]));
+  const ok =
+    f.dims.join(',') === 'lat,lon' && same(f.coords.lat, grid.lat) && same(f.coords.lon, grid.lon) && f.data.length === grid.lat.length * grid.lon.length;
+  if (!ok) throw new RangeError(`per-cell NetCDF: a field of ${name} is not on the file's (lat, lon) grid`);
+  if (f.attrs.units !== units) throw new RangeError(`per-cell NetCDF: a field of ${name} is in ${f.attrs.units}, the variable in ${units}`);
+  return f.data;
 }

@@ -6,6 +6,7 @@
  * table is never one string.
  */
 import type { CellFigureNormals } from './figure-normals.ts';
+import { cellCentre, type HorizontalGrid } from '../model/grid.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
 import { csvField, csvLine, roundTo } from '../formats/csv.ts';
@@ -44,12 +45,10 @@ function hundredths(v: number): string {
 export function cellTableCsv(
   figures: readonly CellFigureNormals[],
   cells: Int32Array,
-  lat: Float64Array,
-  lon: Float64Array,
+  grid: HorizontalGrid,
   emit: (text: string) => void,
   header = true,
 ): void {
-  const nLon = lon.length;
   if (header) emit(csvLine(CELL_TABLE_COLUMNS));
   const chosen = figures.filter((f) => CELL_TABLE_FIGURES.includes(f.def.id));
   // Per period × chosen figure × combination: the text between the coordinates and the mean, and
@@ -68,7 +67,8 @@ export function cellTableCsv(
   }
   for (let c = 0; c < cells.length; c++) {
     const g = cells[c];
-    const head = [g, roundTo(lat[Math.floor(g / nLon)], 4), roundTo(lon[g % nLon], 4)].map(csvField).join(',');
+    const { lat, lon } = cellCentre(grid, g);
+    const head = [g, roundTo(lat, 4), roundTo(lon, 4)].map(csvField).join(',');
     let text = '';
     let r = 0;
     for (let p = 0; p < PERIODS; p++) {

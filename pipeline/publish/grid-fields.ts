@@ -7,6 +7,7 @@
  */
 import { CELL_TABLE_FIGURES } from './cell-table.ts';
 import { PERIODS, type FigureDef } from '../reduce/figures.ts';
+import { trendUnit } from './region-table.ts';
 
 /** Statistics of the per-cell fields: normals across the baseline, years used, the niche. */
 export type GridStatistic = 'mean' | 'median' | 'p90' | 'years' | 'baseline' | 'class' | 'trend' | 'trend-p';
@@ -91,4 +92,16 @@ export function gridFields(defs: readonly FigureDef[]): GridField[] {
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'baseline', period: PERIODS - 1, layer: true, netcdf: true });
   push({ figure: NICHE_FIGURE, combo: 'air', comboIndex: 0, statistic: 'class', period: PERIODS - 1, layer: true, netcdf: true });
   return out;
+}
+
+/**
+ * Units of a gridded field, as the per-cell NetCDF and the layers label it: the figure's units
+ * for its statistics, per decade for a trend, 1 for years used, p-values and the niche class,
+ * degC for the mean annual temperature.
+ */
+export function gridFieldUnits(defs: readonly FigureDef[], f: GridField): string {
+  if (f.statistic === 'years' || f.statistic === 'class' || f.statistic === 'trend-p') return '1';
+  if (f.figure === NICHE_FIGURE) return 'degC';
+  const units = defs.find((d) => d.id === f.figure)!.units;
+  return f.statistic === 'trend' ? trendUnit(units) : units;
 }

@@ -5,6 +5,7 @@
  * stage wraps them ({@link nicheJsonHead}, {@link NICHE_JSON_TAIL}); the bytes equal
  * `JSON.stringify({ caveat, labels, cells })` of the whole list.
  */
+import { cellCentre, type HorizontalGrid } from '../model/grid.ts';
 import { NICHE_CAVEAT, NICHE_CLASSES, NICHE_LABELS, type NicheAssessment } from '../climate/index.ts';
 
 const round2 = (v: number) => (Number.isFinite(v) ? Math.round(v * 100) / 100 : null);
@@ -13,21 +14,21 @@ const round2 = (v: number) => (Number.isFinite(v) ? Math.round(v * 100) / 100 : 
 export function nicheCellsJson(
   a: Pick<NicheAssessment, 'baselineMat' | 'latestMat' | 'shift' | 'baselineClass' | 'baselineDistance'>,
   cells: Int32Array,
-  grid: { lat: Float64Array; lon: Float64Array },
+  grid: HorizontalGrid,
 ): string {
-  const nLon = grid.lon.length;
-  return Array.from(cells, (g, c) =>
-    JSON.stringify({
+  return Array.from(cells, (g, c) => {
+    const { lat, lon } = cellCentre(grid, g);
+    return JSON.stringify({
       cell: g,
-      lat: grid.lat[Math.floor(g / nLon)],
-      lon: grid.lon[g % nLon],
+      lat,
+      lon,
       baselineMat: round2(a.baselineMat[c]),
       latestMat: round2(a.latestMat[c]),
       shift: round2(a.shift[c]),
       baselineClass: Number.isFinite(a.baselineMat[c]) ? NICHE_CLASSES[a.baselineClass[c]] : null,
       distanceToMainMode: round2(a.baselineDistance[c]),
-    }),
-  ).join(',');
+    });
+  }).join(',');
 }
 
 /** The text before the first cell entry. */

@@ -29,6 +29,7 @@ import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
 import type { Hdf5Variable } from './hdf5-describe.ts';
 import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
 import { denseStrides, product, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceFile, type SourceVariable } from './source.ts';
+import { ChunkCarry } from './chunk-carry.ts';
 
 /** Typed-array constructor for values read straight from the wasm heap, by raw type. */
 const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => RawArray>> = {
@@ -41,17 +42,6 @@ const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: 
   float: Float32Array,
   double: Float64Array,
 };
-
-/** The last chunk(s) read of a variable along its first dimension, kept for the next block. */
-interface Carry {
-  /** Start and count of the other dimensions, as text. */
-  key: string;
-  /** First-dimension indices [from, to) held. */
-  from: number;
-  to: number;
-  data: RawArray;
-  strides: number[];
-}
 
 let ready: Promise<unknown> | undefined;
 
@@ -210,7 +200,7 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
   // A wasm heap buffer reused by every hyperslab read of this file, and the carried chunks.
   let heapPtr = 0;
   let heapBytes = 0;
-  const carry = new Map<SourceVariable, Carry>();
+  const carry = new ChunkCarry<SourceVariable>();
 
   /**
    * Reads a hyperslab into the reused heap buffer and returns a view on it (valid until the next
@@ -311,32 +301,20 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
         if (v.shape.length === 0) sink(i, { data: await read(v, start, count), view: null, type: v.type, base: 0, strides: [] }, 0, 1);
         continue;
       }
-      const key = `${start.slice(1).join(',')}|${count.slice(1).join(',')}`;
-      let s0 = start[0];
-      const e0 = start[0] + count[0];
-      let done = 0;
-      const c = carry.get(v);
-      if (c && c.key === key && s0 >= c.from && s0 < c.to) {
-        const upto = Math.min(e0, c.to);
-        sink(i, { data: c.data, view: null, type: v.type, base: (s0 - c.from) * c.strides[0], strides: c.strides }, 0, upto - s0);
-        done = upto - s0;
-        s0 = upto;
-      }
-      if (s0 >= e0) continue;
       // Whole chunks along the first dimension: each chunk is inflated once per block, and the
       // last one is kept for the block after (blocks rarely end on a chunk boundary).
-      const C = infoOf(v).chunk0;
-      const a0 = C > 1 ? Math.floor(s0 / C) * C : s0;
-      const a1 = C > 1 ? Math.min(v.shape[0], Math.ceil(e0 / C) * C) : e0;
-      const off = [a0, ...start.slice(1)];
-      const cnt = [a1 - a0, ...count.slice(1)];
-      const strides = denseStrides(cnt);
-      const data = (await readRaw(v, off, cnt)) ?? (await readDirect(v, off, cnt)) ?? (await read(v, off, cnt));
-      sink(i, { data, view: null, type: v.type, base: (s0 - a0) * strides[0], strides }, done, e0 - s0);
-      if (a1 > e0) {
-        const k0 = Math.max(a0, Math.floor((a1 - 1) / C) * C);
-        carry.set(v, { key, from: k0, to: a1, data: data.slice((k0 - a0) * strides[0], (a1 - a0) * strides[0]), strides });
-      } else carry.delete(v);
+      await carry.read(
+        v,
+        start,
+        count,
+        infoOf(v).chunk0,
+        v.shape[0],
+        async (off, cnt) => ({
+          data: (await readRaw(v, off, cnt)) ?? (await readDirect(v, off, cnt)) ?? (await read(v, off, cnt)),
+          strides: denseStrides(cnt),
+        }),
+        (data, base, strides, at, n) => sink(i, { data, view: null, type: v.type, base, strides }, at, n),
+      );
     }
   }
 

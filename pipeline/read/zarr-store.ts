@@ -26,6 +26,7 @@ import * as zarr from 'zarrita';
 import FileSystemStore from '@zarrita/storage/fs';
 import { HeathoursError } from '../model/errors.ts';
 import { NetcdfFileNotFound, ZarrChunkUnreadable, ZarrGridMismatch, ZarrMetadataInvalid, ZarrStoreUnlisted, ZarrStoreUnreachable } from './errors.ts';
+import { ChunkCarry } from './chunk-carry.ts';
 import {
   denseStrides,
   product,
@@ -303,7 +304,7 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
   }
 
   // The last chunk(s) read of each variable along its first dimension, kept for the next block.
-  const carry = new Map<SourceVariable, { key: string; from: number; to: number; data: RawArray; strides: number[] }>();
+  const carry = new ChunkCarry<SourceVariable>();
 
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
     for (let i = 0; i < reqs.length; i++) {
@@ -318,30 +319,18 @@ export async function openZarrStore(location: string, opts: ZarrOpenOptions = {}
       }
       // As the NetCDF-4 reader does (hdf5-file.ts): whole chunks along the first dimension, each
       // decoded once per block, and the last one kept for the block after.
-      const key = `${start.slice(1).join(',')}|${count.slice(1).join(',')}`;
-      let s0 = start[0];
-      const e0 = start[0] + count[0];
-      let done = 0;
-      const c = carry.get(v);
-      if (c && c.key === key && s0 >= c.from && s0 < c.to) {
-        const upto = Math.min(e0, c.to);
-        sink(i, { data: c.data, view: null, type: typeOf(c.data), base: (s0 - c.from) * c.strides[0], strides: c.strides }, 0, upto - s0);
-        done = upto - s0;
-        s0 = upto;
-      }
-      if (s0 >= e0) continue;
-      const C = arrOf(v).chunks[0];
-      const a0 = C > 1 ? Math.floor(s0 / C) * C : s0;
-      const a1 = C > 1 ? Math.min(v.shape[0], Math.ceil(e0 / C) * C) : e0;
-      const cnt = [a1 - a0, ...count.slice(1)];
-      const { data, strides } = await readRaw(v, [a0, ...start.slice(1)], cnt);
-      const raw = asRaw(v, data);
-      const st = strides.length === cnt.length ? strides : denseStrides(cnt);
-      sink(i, { data: raw, view: null, type: typeOf(raw), base: (s0 - a0) * st[0], strides: st }, done, e0 - s0);
-      if (a1 > e0) {
-        const k0 = Math.max(a0, Math.floor((a1 - 1) / C) * C);
-        carry.set(v, { key, from: k0, to: a1, data: raw.slice((k0 - a0) * st[0], (a1 - a0) * st[0]), strides: st });
-      } else carry.delete(v);
+      await carry.read(
+        v,
+        start,
+        count,
+        arrOf(v).chunks[0],
+        v.shape[0],
+        async (off, cnt) => {
+          const { data, strides } = await readRaw(v, off, cnt);
+          return { data: asRaw(v, data), strides: strides.length === cnt.length ? strides : denseStrides(cnt) };
+        },
+        (data, base, strides, at, n) => sink(i, { data, view: null, type: typeOf(data), base, strides }, at, n),
+      );
     }
   }
 

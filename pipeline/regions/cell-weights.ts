@@ -9,13 +9,13 @@
  * continuous too; each polygon is tried at every 360° offset that overlaps the grid, so a region
  * written as 175…185 or as 175…−175 matches a grid running 170…190 or −180…180 alike.
  */
-import type { HorizontalGrid } from '../model/grid.ts';
+import { cellIndex, type HorizontalGrid } from '../model/grid.ts';
 import { RegionOutsideGrid } from './errors.ts';
 import { ClipBuffer, clipHalfPlane } from './clip-rectangle.ts';
-import { describeGridCells, type GridCells } from './grid-cells.ts';
+import { cellAreaSr, describeGridCells, type GridCells } from './grid-cells.ts';
 import type { Region } from './region.ts';
 import { planarSignedArea2 } from './ring-prep.ts';
-import { EARTH_RADIUS_KM, rectangleAreaSr, ringAreaSr } from './spherical-area.ts';
+import { EARTH_RADIUS_KM, ringAreaSr } from './spherical-area.ts';
 
 /** A region's cells, sparse, in ascending cell index. */
 export interface CellWeights {
@@ -97,7 +97,7 @@ export function regionCellWeights(region: Region, grid: HorizontalGrid | GridCel
             if (q < 3) continue;
             const a = sign * ringAreaSr(scratch.piece.data, q);
             if (a === 0) continue;
-            const cell = j * nLon + i;
+            const cell = cellIndex(g, j, i);
             acc.set(cell, (acc.get(cell) ?? 0) + a);
           }
         }
@@ -110,9 +110,7 @@ export function regionCellWeights(region: Region, grid: HorizontalGrid | GridCel
   const fraction: number[] = [];
   const areaSr: number[] = [];
   for (const cell of keys) {
-    const row = Math.floor(cell / nLon);
-    const col = cell - row * nLon;
-    const cellSr = rectangleAreaSr(lonEdges[col], lonEdges[col + 1], latEdges[row], latEdges[row + 1]);
+    const cellSr = cellAreaSr(g, cell);
     const a = acc.get(cell)!;
     const f = a / cellSr;
     if (!(f > MIN_FRACTION)) continue;

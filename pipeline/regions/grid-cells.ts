@@ -5,8 +5,9 @@
  * clamped to ±90° (ERA5 puts centres on the poles, so its polar cells are half cells).
  * Cell index = row · nLon + column, rows south to north (pipeline/model/fields.ts).
  */
-import type { HorizontalGrid } from '../model/grid.ts';
+import { cellCentre, cellRowCol, type HorizontalGrid } from '../model/grid.ts';
 import { RegionGridInvalid } from './errors.ts';
+import { rectangleAreaSr } from './spherical-area.ts';
 
 export interface GridCells {
   nLat: number;
@@ -57,10 +58,11 @@ export function describeGridCells(grid: HorizontalGrid): GridCells {
   return { nLat: lat.length, nLon: lon.length, dLat, dLon, latEdges, lonEdges, lat, lon };
 }
 
-/** Row, column and centre of a cell index. */
-export function cellCentre(cells: GridCells | HorizontalGrid, cell: number): { row: number; col: number; lat: number; lon: number } {
-  const nLon = cells.lon.length;
-  const row = Math.floor(cell / nLon);
-  const col = cell - row * nLon;
-  return { row, col, lat: cells.lat[row], lon: cells.lon[col] };
+/** Row, column and centre of a cell index (pipeline/model/grid.ts). */
+export { cellCentre };
+
+/** Area of a cell on the unit sphere, Δλ·(sin φ2 − sin φ1) between its edges [sr] (spherical-area.ts, rectangleAreaSr). */
+export function cellAreaSr(cells: GridCells, cell: number): number {
+  const { y, x } = cellRowCol(cells, cell);
+  return rectangleAreaSr(cells.lonEdges[x], cells.lonEdges[x + 1], cells.latEdges[y], cells.latEdges[y + 1]);
 }

@@ -8,6 +8,7 @@
  * Memory is bounded by one block of the group and the group's partials, never by the record.
  */
 import type { Dataset } from '../read/index.ts';
+import { cellRow, cellRowCol, type CellGrid, type HorizontalGrid } from '../model/grid.ts';
 import {
   computeHours,
   emptyCounts,
@@ -35,8 +36,8 @@ export interface ShardContext {
   shift: WorkShift;
   /** Modelling choices of the physics (globe diameter). */
   physics: PhysicsSettings;
-  /** Grid columns (to turn global cell indices into block positions). */
-  nLon: number;
+  /** The dataset's horizontal grid (to turn global cell ids into rows, columns and block positions). */
+  grid: HorizontalGrid;
   /** The scenarios of the build: a shard with `scenario` set has that one's changes applied before the physics. */
   scenarios: ScenarioSpec[];
 }
@@ -70,13 +71,13 @@ export interface LandRun {
 }
 
 /**
- * Splits ascending global cell indices (row-major, `nLon` columns) into one run per grid row;
- * `y0` is the block's first row.
+ * Splits ascending global cell ids (row-major over `grid`) into one run per grid row; `y0` is the
+ * block's first row.
  */
-export function landRuns(cells: Int32Array, nLon: number, y0: number): LandRun[] {
+export function landRuns(cells: Int32Array, grid: CellGrid, y0: number): LandRun[] {
   const runs: LandRun[] = [];
   for (let j = 0; j < cells.length; j++) {
-    const row = Math.floor(cells[j] / nLon) - y0;
+    const row = cellRow(grid, cells[j]) - y0;
     const last = runs[runs.length - 1];
     if (last !== undefined && last.row === row) last.j1 = j + 1;
     else runs.push({ row, j0: j, j1: j + 1 });
@@ -187,15 +188,18 @@ export async function computeTask(
   const first = task.shards[0];
   const y0 = first.tile.y0;
   const y1 = task.shards[task.shards.length - 1].tile.y1;
-  const group = { y0, y1, x0: 0, x1: ctx.nLon };
-  const nCols = ctx.nLon;
+  const nCols = ctx.grid.lon.length;
+  const group = { y0, y1, x0: 0, x1: nCols };
   const nBlock = (y1 - y0) * nCols;
   const tiles: TileState[] = task.shards.map((shard) => {
-    const runs = landRuns(shard.cells, ctx.nLon, y0);
+    const runs = landRuns(shard.cells, ctx.grid, y0);
     return {
       shard,
       partial: createPartial(shard.year, shard.cells, ctx.evaluations, shard.months, recycle ? spareHistograms : undefined),
-      pos: Int32Array.from(shard.cells, (c) => (Math.floor(c / ctx.nLon) - y0) * nCols + (c % ctx.nLon)),
+      pos: Int32Array.from(shard.cells, (c) => {
+        const { y, x } = cellRowCol(ctx.grid, c);
+        return (y - y0) * nCols + x;
+      }),
       runs,
       runLon: runs.map((r) => new Float64Array(r.j1 - r.j0)),
       physics: emptyCounts(),
@@ -244,6 +248,7 @@ function computeTileBlock(
   const { shard, pos, runs, runLon, timing } = tile;
   const cells = shard.cells;
   const nLand = cells.length;
+  const nCols = ctx.grid.lon.length;
   const { scratch, inp, out, gSun, gShade, gAir, local } = buf;
   let tick = performance.now();
   const lap = (k: keyof typeof timing) => {
@@ -316,7 +321,8 @@ function computeTileBlock(
   for (let ri = 0; ri < runs.length; ri++) {
     const r = runs[ri];
     const lon = runLon[ri];
-    for (let k = 0; k < lon.length; k++) lon[k] = block.lon[cells[r.j0 + k] % ctx.nLon];
+    // Hot loop: the block spans whole rows, so a cell's column is its id modulo the columns.
+    for (let k = 0; k < lon.length; k++) lon[k] = block.lon[cells[r.j0 + k] % nCols];
     rowLat[0] = block.lat[r.row];
     const a = r.j0 * nt;
     const e = r.j1 * nt;

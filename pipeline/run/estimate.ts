@@ -7,6 +7,7 @@
 import type { ShardSpec } from './plan.ts';
 import type { MemoryPlan } from './memory-plan.ts';
 import { formatBytes } from './memory-plan.ts';
+import { gridCellCount, type LandCells } from '../model/grid.ts';
 
 /** Worker time per land cell-hour computed: read, physics and reduction [s] (about 0.87 M cell-hours/s per worker). */
 const COMPUTE_S_PER_CELL_HOUR = 1.15e-6;
@@ -33,8 +34,8 @@ const SCRATCH_B_PER_REGION_YEAR = 300_000;
 
 export interface EstimateInput {
   shards: readonly ShardSpec[];
-  cells: number;
-  nGrid: number;
+  /** The grid's land cells (how many, of how many cells). */
+  land: LandCells;
   years: number;
   regions: number;
   jobs: number;
@@ -54,7 +55,8 @@ export interface BuildEstimate {
   text: string;
 }
 
-export function estimateBuild(e: EstimateInput): BuildEstimate {
+export function estimateBuild(input: EstimateInput): BuildEstimate {
+  const e = { ...input, cells: input.land.ids.length, nGrid: gridCellCount(input.land) };
   let cellHours = 0;
   for (const s of e.shards) cellHours += s.cells.length * (s.hours[1] - s.hours[0]);
   const v = Math.max(1, e.variants ?? 1);

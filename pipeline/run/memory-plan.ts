@@ -19,6 +19,7 @@ import { histPerMonth } from '../reduce/accumulator.ts';
 import { MONTHS } from '../reduce/layout.ts';
 import { PERIODS } from '../reduce/figures.ts';
 import { MemoryBudgetTooSmall } from './errors.ts';
+import { landInRows, type LandCells } from '../model/grid.ts';
 
 const MB = 1024 * 1024;
 
@@ -46,9 +47,8 @@ const SHELTER_PER_CELL_MONTH = (4 + 2) * 4;
 export interface MemoryInput {
   budget: number;
   jobs: number;
-  nLon: number;
-  /** Land cells of each grid row [cells]. */
-  landInRow: Int32Array;
+  /** The grid's land cells (its columns, land cells per row). */
+  land: LandCells;
   /** The shard tiles: rows [y0, y1) and land cells. */
   tiles: ReadonlyArray<{ y0: number; y1: number; cells: number }>;
   years: number;
@@ -99,7 +99,7 @@ export function computeTaskBytes(land: number, rows: number, maxTile: number, m:
   const shelter = (m.exposures ?? 2) > 2;
   const partials =
     variants * land * (m.monthsPerPiece * histPerMonth(1) * 2 + MONTHS * (COUNTS_PER_CELL_MONTH(m.evaluations) + (shelter ? SHELTER_PER_CELL_MONTH : 0)));
-  const block = rows * m.nLon * blockHours * BLOCK_FIELDS * 4;
+  const block = rows * m.land.nx * blockHours * BLOCK_FIELDS * 4;
   const tile = maxTile * blockHours * (TILE_ARRAYS + (shelter ? SHELTER_TILE_ARRAYS : 0)) * 4;
   return partials + block + tile;
 }
@@ -111,7 +111,7 @@ export function mergeTileBytes(land: number, rows: number, m: MemoryInput): numb
   const stacks = fields * m.years * 8;
   const normals = fields * 8 * 11;
   const point = land * m.years * 4500;
-  const piece = rows * m.nLon * m.gridFields * 4;
+  const piece = rows * m.land.nx * m.gridFields * 4;
   return year + stacks + normals + point + piece;
 }
 
@@ -121,20 +121,20 @@ export function mergeTileBytes(land: number, rows: number, m: MemoryInput): numb
  * out. They depend on the grid, its land cells and that setting only, so the published files are
  * the same whatever the memory budget, the number of workers or the machine.
  */
-export function publicationBlocks(landInRow: Int32Array, rowAlign: number, target: number): Array<[number, number]> {
-  const nLat = landInRow.length;
+export function publicationBlocks(land: LandCells, rowAlign: number, target: number): Array<[number, number]> {
+  const nLat = land.ny;
   const out: Array<[number, number]> = [];
   for (let y0 = 0; y0 < nLat; ) {
     let y1 = Math.min(nLat, y0 + rowAlign);
-    let land = sum(landInRow, y0, y1);
+    let n = landInRows(land, y0, y1);
     while (y1 < nLat) {
       const next = Math.min(nLat, y1 + rowAlign);
-      const more = land + sum(landInRow, y1, next);
-      if (land > 0 && more > target) break;
-      land = more;
+      const more = n + landInRows(land, y1, next);
+      if (n > 0 && more > target) break;
+      n = more;
       y1 = next;
     }
-    if (land > 0) out.push([y0, y1]);
+    if (n > 0) out.push([y0, y1]);
     y0 = y1;
   }
   return out;
@@ -174,7 +174,7 @@ export function planMemory(m: MemoryInput): MemoryPlan {
   // Merge: bands of consecutive publication blocks, as many land cells as fit.
   const mergeBands: Array<[number, number]> = [];
   let mergePeakTile = 0;
-  const landOf = (b: readonly [number, number]) => sum(m.landInRow, b[0], b[1]);
+  const landOf = (b: readonly [number, number]) => landInRows(m.land, b[0], b[1]);
   for (let i = 0; i < m.blocks.length; ) {
     const [y0] = m.blocks[i];
     let y1 = m.blocks[i][1];
@@ -214,12 +214,6 @@ export function planMemory(m: MemoryInput): MemoryPlan {
     computePeak: MAIN_BASE + m.jobs * (WORKER_BASE + computePeakTask),
     mergePeak: MAIN_BASE + m.jobs * (WORKER_BASE + mergePeakTile),
   };
-}
-
-function sum(a: Int32Array, from: number, to: number): number {
-  let s = 0;
-  for (let i = from; i < to; i++) s += a[i];
-  return s;
 }
 
 /**

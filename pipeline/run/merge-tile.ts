@@ -39,6 +39,7 @@ import { PointTileStore, type PointChunkEntry } from '../publish/point-tiles.ts'
 import { nicheCellsJson } from '../publish/niche-json.ts';
 import type { CellFigureNormals, CellNiche } from '../publish/figure-normals.ts';
 import { rowsId } from './rows-id.ts';
+import { idsInRows } from '../model/grid.ts';
 
 /**
  * A band's part of the workforce (config `workforce`): per band cell the people, the share profile
@@ -149,18 +150,6 @@ function sliceNormals(n: Normals, a: number, b: number): Normals {
   };
 }
 
-/** First index of a sorted array whose value is ≥ x. */
-function lowerBound(a: Int32Array, x: number): number {
-  let lo = 0;
-  let hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < x) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
 export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary> {
   const nCells = t.cells.length;
   const nY = t.years.length;
@@ -168,8 +157,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
   // The cells of each publication block: positions [c0, c1) in the tile's cells.
   const nLon = t.grid.lon.length;
   const blockCells = t.blocks.map((rows) => {
-    const c0 = lowerBound(t.cells, rows[0] * nLon);
-    const c1 = lowerBound(t.cells, rows[1] * nLon);
+    const [c0, c1] = idsInRows(t.grid, t.cells, rows[0], rows[1]);
     return { rows, c0, c1, point: new PointTileStore(t.cells.slice(c0, c1)) };
   });
   const regionFile = new RegionPartWriter(join(t.scratchDir, `${t.id}.regions`));
@@ -291,7 +279,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       const id = rowsId(b.rows);
       const table = new TextFile(join(t.dataDir, 'cell-tables', `${id}.csv`));
       const sub = normals.map((n) => ({ def: n.def, cell: sliceNormals(n.cell, b.c0 * PERIODS * n.def.combos.length, b.c1 * PERIODS * n.def.combos.length) }));
-      cellTableCsv(sub, t.cells.slice(b.c0, b.c1), t.grid.lat, t.grid.lon, (s) => table.add(s));
+      cellTableCsv(sub, t.cells.slice(b.c0, b.c1), t.grid, (s) => table.add(s));
       table.close();
       cellTables.push({ path: `data/cell-tables/${id}.csv`, rows: b.rows, bytes: table.bytes });
       pointChunks.push(...(await b.point.write(t.dataDir, { years: t.years, prefix: `${id}-` })));

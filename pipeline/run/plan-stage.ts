@@ -18,7 +18,7 @@ import { figureDefs, type FigureDef } from '../reduce/figures.ts';
 import { gridFields, type GridField } from '../publish/grid-fields.ts';
 import { DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import type { Logger } from '../model/effects.ts';
-import { gridCellCount, landCellsOf, rowRange, type LandCells } from '../model/grid.ts';
+import { gridCellCount, landCellsOf, lowerBound, rowRange, type LandCells } from '../model/grid.ts';
 import { planShards, scenarioShards, yearPieces, type ShardSpec } from './plan.ts';
 import type { ScenarioSpec } from '../scenario/settings.ts';
 import { sha256File } from '../read/dataset-file.ts';
@@ -30,8 +30,8 @@ import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, public
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
 import { rowsId } from './rows-id.ts';
 import { planWorkforce, type WorkforcePlan } from './workforce-plan.ts';
-import { describeGridCells } from '../regions/grid-cells.ts';
-import { EARTH_RADIUS_KM, rectangleAreaSr } from '../regions/spherical-area.ts';
+import { cellAreaSr, describeGridCells } from '../regions/grid-cells.ts';
+import { EARTH_RADIUS_KM } from '../regions/spherical-area.ts';
 import type { BandWorkforce } from './merge-tile.ts';
 import { MemoryBudgetInvalid, NoLandCells, WorkloadClassesFileMissing, YearsOutsideData } from './errors.ts';
 import { checkCoverage } from '../read/coverage.ts';
@@ -166,9 +166,8 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
   for (const note of ds.notes) log.warn(note);
   try {
     checkYears(ds.time, cfg.years, 'years', rc.path);
-    const nLon = ds.grid.lon.length;
     const landCells = landCellsOf(ds.grid, ds.landMask);
-    const { ids: cells, perRow: landInRow } = landCells;
+    const cells = landCells.ids;
     const nGrid = gridCellCount(landCells);
     const nLand = cells.length;
     if (nLand === 0) throw NoLandCells({ detail: `the land-sea mask leaves none of the ${nGrid} cells` }, { file: rc.path, key: 'dataset.landSeaMask' });
@@ -228,13 +227,12 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
     );
     if (workforce) defs.push(workforce.densityDef);
     const fields = gridFields(defs);
-    const allBlocks = publicationBlocks(landInRow, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
+    const allBlocks = publicationBlocks(landCells, DEFAULT_CELL_TILE.rows, cfg.shards.cellsPerBlock);
     const blocks = o.noMerge ? [] : o.mergeSlice ? sliceBlocks(allBlocks, o.mergeSlice.k, o.mergeSlice.n) : allBlocks;
     const memory = planMemory({
       budget,
       jobs,
-      nLon,
-      landInRow,
+      land: landCells,
       tiles,
       years: years.length,
       monthsPerPiece: cfg.shards.monthsPerPiece,
@@ -251,12 +249,11 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       memory,
     );
     const bands = mergeBands(memory.mergeBands, blocks, landCells, tiles, weights);
-    if (workforce) addBandWorkforce(bands, cells, ds.grid, weights, workforce, work.evaluations.length);
+    if (workforce) addBandWorkforce(bands, landCells, weights, workforce, work.evaluations.length);
     const latestYear = years[years.length - 1];
     const estimate = estimateBuild({
       shards: variants.flatMap((v) => v.shards),
-      cells: nLand,
-      nGrid,
+      land: landCells,
       years: years.length,
       regions: regions.length,
       jobs,
@@ -296,7 +293,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       fields,
       memory,
       jobs,
-      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, nLon, scenarios },
+      context: { evaluations: work.evaluations, timeZone: cfg.timeZone, shift: work.shift, physics: cfg.physics, grid: ds.grid, scenarios },
       estimate,
       workforce,
       workforceDigests,
@@ -401,24 +398,13 @@ function mergeBands(
  * region, P their sum over the region; area weights for a region without people, whose
  * person-hours are then 0).
  */
-function addBandWorkforce(
-  bands: MergeBand[],
-  cells: Int32Array,
-  grid: BuildPlan['ds']['grid'],
-  weights: readonly CellWeights[],
-  wf: WorkforcePlan,
-  nEval: number,
-): void {
-  const g = describeGridCells(grid);
+function addBandWorkforce(bands: MergeBand[], land: LandCells, weights: readonly CellWeights[], wf: WorkforcePlan, nEval: number): void {
+  const g = describeGridCells(land.grid);
   const R2 = EARTH_RADIUS_KM * EARTH_RADIUS_KM;
   for (const band of bands) {
-    const a = lowerBound(cells, band.cells[0]);
-    const b = a + band.cells.length;
-    const areaKm2 = Float64Array.from(band.cells, (c) => {
-      const row = Math.floor(c / g.nLon);
-      const col = c - row * g.nLon;
-      return R2 * rectangleAreaSr(g.lonEdges[col], g.lonEdges[col + 1], g.latEdges[row], g.latEdges[row + 1]);
-    });
+    // The band's cells are the land cells of its rows: positions [a, b) in the plan's lists.
+    const [a, b] = rowRange(land, band.rows[0], band.rows[1]);
+    const areaKm2 = Float64Array.from(band.cells, (c) => R2 * cellAreaSr(g, c));
     const regions: RegionTileCells[] = band.regions.map((rc) => {
       const w = weights[rc.region];
       const total = wf.regionPeople[rc.region];
@@ -434,18 +420,6 @@ function addBandWorkforce(
       regions,
     };
   }
-}
-
-/** First index of a sorted array whose value is ≥ x. */
-function lowerBound(a: ArrayLike<number>, x: number): number {
-  let lo = 0;
-  let hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < x) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }
 
 function range(a: number, b: number): number[] {

@@ -16,6 +16,8 @@ import { startProgress } from '../model/progress.ts';
 import { closePieces, readGridField } from '../formats/grid-pieces.ts';
 import { addFieldRange, countLayers, emptyFieldRange, writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { writeCellNetcdf } from '../publish/cell-netcdf.ts';
+import { gridFieldUnits } from '../publish/grid-fields.ts';
+import { gridCellCount } from '../model/grid.ts';
 import { cellFiguresIndex, CELL_NETCDF_PATH, DEFAULT_CELL_TILE } from '../publish/cell-figures.ts';
 import { writePointTileIndex } from '../publish/point-tiles.ts';
 import { histogramIndex } from '../publish/histogram-tiles.ts';
@@ -205,8 +207,6 @@ async function publishVariant(p: PublishInput, v: BuildVariant, tiles: readonly 
   const grid = plan.ds.grid;
   const dataDir = join(p.stage, 'data', v.dataPath);
   const at = (path: string) => variantPath(path, v);
-  const nLat = grid.lat.length;
-  const nLon = grid.lon.length;
   const sc = v.scenario;
 
   // Gridded fields: layers and the NetCDF, one field at a time from the bands' pieces.
@@ -214,12 +214,12 @@ async function publishVariant(p: PublishInput, v: BuildVariant, tiles: readonly 
   for (const t of tiles) addFieldRange(range, { min: t.fieldMin, max: t.fieldMax });
   const pieces = tiles.map((t) => t.piece);
   const fds = new Map<string, number>();
-  const buffer = new Float32Array(nLat * nLon);
-  const field = (i: number) => readGridField(pieces, i, nLat, nLon, fds, buffer);
+  const buffer = new Float32Array(gridCellCount(grid));
+  const field = (i: number) => readGridField(pieces, i, grid, { units: gridFieldUnits(plan.defs, plan.fields[i]) }, fds, buffer);
   let layers: Manifest['layers'];
   try {
     const progress = startProgress(sc ? `layers (${sc.id})` : 'layers', countLayers(plan.fields), { quiet: p.quiet });
-    layers = (await writeAtlasLayers(dataDir, grid, plan.defs, plan.fields, range, field, () => progress.tick())).map((l) => ({
+    layers = (await writeAtlasLayers(dataDir, plan.defs, plan.fields, range, field, () => progress.tick())).map((l) => ({
       ...l,
       png: at(l.png),
       tif: at(l.tif),

@@ -14,6 +14,7 @@ import { checkCellChange, uniformWarming, type CellChange } from '../scenario/ce
 import { ChangeValueMissing } from '../scenario/errors.ts';
 import type { ScenarioSpec } from '../scenario/settings.ts';
 import type { ChangeRange, ScenarioCheck } from '../scenario/describe.ts';
+import { cellCentres } from '../model/grid.ts';
 
 export type { ChangeRange, ScenarioCheck };
 
@@ -42,12 +43,6 @@ export async function closeChangeFiles(): Promise<void> {
       // It failed to open: nothing to close.
     }
   }
-}
-
-/** Centres of global cells (row-major, `nLon` columns) [° N, ° E]. */
-function centres(cells: Int32Array, grid: { lat: Float64Array; lon: Float64Array }): { lat: Float64Array; lon: Float64Array } {
-  const nLon = grid.lon.length;
-  return { lat: Float64Array.from(cells, (c) => grid.lat[Math.floor(c / nLon)]), lon: Float64Array.from(cells, (c) => grid.lon[c % nLon]) };
 }
 
 async function interpolate(
@@ -82,7 +77,7 @@ async function interpolate(
 export async function scenarioCellChange(spec: ScenarioSpec, cells: Int32Array, grid: { lat: Float64Array; lon: Float64Array }): Promise<CellChange> {
   if (spec.kind === 'warming') return uniformWarming(cells.length, spec.warming);
   const cf = await changeFile(spec.path, spec.humidity);
-  const at = centres(cells, grid);
+  const at = cellCentres(grid, cells);
   const w = bilinearWeights({ lat: cf.lat.values, lon: cf.lon.values }, at.lat, at.lon, cf.name);
   const change: CellChange = {
     nCells: cells.length,

@@ -8,7 +8,7 @@
  */
 import type { ResolvedConfig } from '../config/load.ts';
 import type { WorkforceConfig } from '../config/schema.ts';
-import type { HorizontalGrid } from '../model/grid.ts';
+import { lowerBound, type HorizontalGrid } from '../model/grid.ts';
 import type { Logger } from '../model/effects.ts';
 import { readCsvRecords } from '../formats/csv-file.ts';
 import { HeathoursError } from '../model/errors.ts';
@@ -202,12 +202,6 @@ function round(x: number): number {
 
 /** Position of a global cell index among the land cells, −1 when it is not a land cell. */
 function landIndex(cells: Int32Array, cell: number): number {
-  let lo = 0;
-  let hi = cells.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (cells[mid] < cell) lo = mid + 1;
-    else hi = mid;
-  }
+  const lo = lowerBound(cells, cell);
   return lo < cells.length && cells[lo] === cell ? lo : -1;
 }

@@ -1,5 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { cellIndex, cellRowCol, gridCellCount, landCellsOf, rowRange, tileCells } from '../../pipeline/model/grid.ts';
+import {
+  cellCentre,
+  cellCentres,
+  cellIndex,
+  cellRow,
+  cellRowCol,
+  gridCellCount,
+  idsInRows,
+  isCellOf,
+  landCellsOf,
+  landInRows,
+  rowRange,
+  tileCells,
+} from '../../pipeline/model/grid.ts';
 
 // A 4-row × 3-column grid (coordinates invented for the test) and its land mask, rows south to north:
 //   row 0: sea land land; row 1: all sea; row 2: land sea land; row 3: all land.
@@ -36,5 +49,32 @@ describe('the land cells of a grid', () => {
     const l = landCellsOf(grid);
     expect(l.ids.length).toBe(12);
     expect(Array.from(l.perRow)).toEqual([3, 3, 3, 3]);
+  });
+
+  it('give the row, column and centre of a cell from the grid or its land cells alike (numpy unravel_index([1, 8, 11], (4, 3)) = rows [0, 2, 3], columns [1, 2, 2])', () => {
+    const l = landCellsOf(grid, mask);
+    for (const g of [grid, l]) {
+      expect(cellCentre(g, 7)).toEqual({ row: 2, col: 1, lat: 0.5, lon: 11 });
+      expect(cellRow(g, 11)).toBe(3);
+      expect(cellRowCol(g, 8)).toEqual({ y: 2, x: 2 });
+      expect(gridCellCount(g)).toBe(12);
+      const c = cellCentres(g, Int32Array.of(1, 8, 11));
+      expect([Array.from(c.lat), Array.from(c.lon)]).toEqual([
+        [-1.5, 0.5, 1.5],
+        [11, 12, 12],
+      ]);
+    }
+  });
+
+  it('tell an id of the grid from one outside it (integers 0 … 11 only)', () => {
+    expect([0, 11].map((id) => isCellOf(grid, id))).toEqual([true, true]);
+    expect([-1, 12, 1.5, Number.NaN].map((id) => isCellOf(grid, id))).toEqual([false, false, false, false]);
+  });
+
+  it('find the cells of a band of rows in part of the land cells as numpy searchsorted does, and count the land of a band (m[0:3].sum() = 4)', () => {
+    // numpy: searchsorted([2, 8, 10, 11], [2 * 3, 3 * 3]) = [1, 2].
+    expect(idsInRows(grid, Int32Array.of(2, 8, 10, 11), 2, 3)).toEqual([1, 2]);
+    expect(idsInRows(grid, Int32Array.of(2, 8, 10, 11), 0, 4)).toEqual([0, 4]);
+    expect(landInRows(landCellsOf(grid, mask), 0, 3)).toBe(4);
   });
 });

@@ -43,7 +43,7 @@ describe('the per-cell table', () => {
     const lat = Float64Array.from({ length: 8 }, (_, i) => -10.123456 + 0.25 * i);
     const lon = Float64Array.from({ length: 6 }, (_, i) => 170.00004 + 0.25 * i);
     const pieces: string[] = [];
-    cellTableCsv(figures, cells, lat, lon, (t) => pieces.push(t));
+    cellTableCsv(figures, cells, { lat, lon }, (t) => pieces.push(t));
     expect(pieces.length).toBe(1 + cells.length);
     let want = csvLine(CELL_TABLE_COLUMNS);
     const rows: Array<Array<string | number>> = [];

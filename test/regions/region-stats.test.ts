@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { regionCellWeights } from '../../pipeline/regions/cell-weights.ts';
-import { cellCentre, describeGridCells } from '../../pipeline/regions/grid-cells.ts';
+import { cellAreaSr, cellCentre, describeGridCells } from '../../pipeline/regions/grid-cells.ts';
 import { parseRegionGeoJson } from '../../pipeline/regions/parse-regions.ts';
 import { regionFieldStats } from '../../pipeline/regions/region-stats.ts';
 import { expectCatalogued, grid, polygonFeature, rect } from './helpers.ts';
@@ -72,5 +72,14 @@ describe('region statistics of per-cell fields', () => {
   it('fields of the wrong shape are RegionFieldShape', () => {
     expectCatalogued(() => regionFieldStats(w, new Float64Array(15), 1, 16), 'RegionFieldShape', /15 values; 1 fields × 16 cells need 16/);
     expectCatalogued(() => regionFieldStats(w, new Float64Array(8), 1, 8), 'RegionFieldShape', /uses cell 10/);
+  });
+});
+
+describe('the area of a grid cell', () => {
+  it('is Δλ·(sin φ2 − sin φ1) on the unit sphere: cell 1 of the 1° grid (0–1 °N, 11–12 °E) is 3.046019547268505e-4 sr (numpy 2.4.6: deg2rad(1)·(sin(deg2rad(1)) − sin 0))', () => {
+    const g = describeGridCells(g4);
+    expect(cellAreaSr(g, 1)).toBeCloseTo(3.046019547268505e-4, 15);
+    // Cell 13 lies in the row 3–4 °N (numpy 2.4.6: deg2rad(1)·(sin(deg2rad(4)) − sin(deg2rad(3))) = 3.040453877969118e-4).
+    expect(cellAreaSr(g, 13)).toBeCloseTo(3.040453877969118e-4, 15);
   });
 });

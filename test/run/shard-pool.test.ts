@@ -44,13 +44,13 @@ beforeAll(async () => {
   const ds = await openDataset(paths, options);
   const classes = parseWorkloadClasses(parse(readFileSync(join(ROOT, 'content/workload-classes.yaml'), 'utf8')));
   const work = resolveWorkSettings(workSettingsSchema.parse(undefined), classes);
-  const nLon = ds.grid.lon.length;
+  const grid = ds.grid;
   shards = planShards(landCellsOf(ds.grid, ds.landMask), [2022], (y) => yearPieces(ds.time, y, 'Etc/GMT+10', 1), 1024, 1);
   await ds.close();
   init = {
     files: paths,
     datasetOptions: { ...options, digests: false },
-    context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), nLon, scenarios: [] },
+    context: { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: physicsSettingsSchema.parse(undefined), grid, scenarios: [] },
   };
 }, 120_000);
 

@@ -144,7 +144,14 @@ describe('the sheltered exposure built on the invented small demo', () => {
             },
           ],
         },
-        { evaluations: work.evaluations, timeZone: 'Etc/GMT+10', shift: work.shift, physics: { globeDiameter: D_GLOBE_STANDARD }, nLon, scenarios: [] },
+        {
+          evaluations: work.evaluations,
+          timeZone: 'Etc/GMT+10',
+          shift: work.shift,
+          physics: { globeDiameter: D_GLOBE_STANDARD },
+          grid: ds.grid,
+          scenarios: [],
+        },
         (_s, r) => {
           partial = r.partial;
         },
