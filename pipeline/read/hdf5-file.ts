@@ -2,8 +2,9 @@
  * NetCDF-4 files, read through HDF5 with h5wasm. What the file holds (dimensions from HDF5
  * dimension scales, groups, variables, attributes) is described by the metadata worker
  * (hdf5-meta.ts, hdf5-describe.ts) under a time limit, since HDF5 can loop for ever on damaged
- * metadata; values are read here by hyperslab (`get_dataset_data` into the wasm heap), so memory
- * is bounded by what is requested. Every h5wasm call runs quietly (hdf5-quiet.ts): HDF5's own
+ * metadata; values are read here from the raw chunks (hdf5-chunks.ts) or, where those do not
+ * serve, by hyperslab (`get_dataset_data` into the wasm heap, the library opened on first need),
+ * so memory is bounded by what is requested. Every h5wasm call runs quietly (hdf5-quiet.ts): HDF5's own
  * diagnostics never reach the terminal; they become the details of the catalogued error.
  */
 import { open, type FileHandle } from 'node:fs/promises';
