@@ -20,6 +20,7 @@ export const WORKER_ENTRIES = {
   'demo-year': 'demo/year-worker',
   'hdf5-meta': 'read/hdf5-meta-worker',
   digest: 'read/digest-worker',
+  'site-digest': 'run/site-digest-worker',
 } as const;
 
 export type WorkerName = keyof typeof WORKER_ENTRIES;

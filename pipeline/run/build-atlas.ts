@@ -220,7 +220,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         await replaceDirAtomic(outDir, async (tmp) => rename(dataDir, join(tmp, 'data')));
       } else {
         log.info('building the site');
-        await buildSite({ dataDir: stage, outDir, quiet: o.quiet, moveData: true, base: cfg.site.base });
+        await buildSite({ dataDir: stage, outDir, quiet: o.quiet, moveData: true, base: cfg.site.base, jobs: o.jobs });
       }
       const totalSeconds = (Date.now() - t0) / 1000;
       log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s (estimated ${plan.estimate.seconds.total.toFixed(0)} s)`);

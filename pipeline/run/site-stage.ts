@@ -11,7 +11,7 @@
  */
 import { cp, mkdir, mkdtemp, rename, rm, stat } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { replaceDirAtomic } from '../model/effects.ts';
 import { withProcessLock } from '../model/lock.ts';
@@ -21,6 +21,9 @@ import { loadInventory } from '../../src/data/inventory.ts';
 import { loadRegions } from '../../src/data/regions.ts';
 import { loadManifest } from '../../src/data/manifest.ts';
 import { SiteBuildFailed, SiteDataMissing, SiteOutputUnwritable } from '../../src/data/errors.ts';
+import { buildSiteInParts, siteParts } from './site-parts.ts';
+import { gatherSiteDigest } from './site-digest.ts';
+import { SITE_DIGEST_ENV } from '../../src/data/site-digest.ts';
 
 /** The project root: where astro.config.mjs and src/ live. */
 const PROJECT_ROOT = `${PACKAGE_ROOT}/`;
@@ -42,18 +45,20 @@ export interface BuildSiteOptions {
    * disk as `outDir`): no second copy of a large atlas's data.
    */
   moveData?: boolean;
+  /** Cores the build may use [count]; default all. Large atlases are built by that many Astro processes (site-parts.ts). */
+  jobs?: number;
 }
 
 /** Environment variable that carries the site's base path into astro.config.mjs. */
 export const SITE_BASE_ENV = 'HEATHOURS_SITE_BASE';
 
-/** Checks the data folder before the (slow) Astro build, with catalogued errors. */
-export function checkSiteData(dataDir: string): void {
+/** Checks the data folder before the (slow) Astro build, with catalogued errors; the number of regions. */
+export function checkSiteData(dataDir: string): number {
   const dataFolder = join(dataDir, 'data');
   if (!existsSync(dataFolder)) throw SiteDataMissing({ path: dataFolder, what: 'data folder' }, { file: dataFolder });
   loadManifest(dataDir);
   loadInventory(dataDir);
-  loadRegions(dataDir);
+  return loadRegions(dataDir).features.length;
 }
 
 /** Checks that `outDir` is a folder (or absent) whose parent exists or can be made. */
@@ -71,66 +76,93 @@ async function checkOutput(outDir: string): Promise<void> {
 export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   const dataDir = resolve(opts.dataDir);
   const outDir = resolve(opts.outDir);
-  checkSiteData(dataDir);
+  const regions = checkSiteData(dataDir);
   await checkOutput(outDir);
   const started = Date.now();
+  const jobs = opts.jobs ?? availableParallelism();
+  const parts = siteParts(regions, jobs);
   await replaceDirAtomic(outDir, async (tmp) => {
-    const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
-    const previous = process.env[DATA_DIR_ENV];
-    const previousBase = process.env[SITE_BASE_ENV];
-    // Vite lets a BASE_URL variable of the environment (vitest sets one, so may a CI) win over
-    // Astro's base in import.meta.env.BASE_URL: it is taken away for the build.
-    const previousBaseUrl = process.env.BASE_URL;
-    delete process.env.BASE_URL;
-    process.env[DATA_DIR_ENV] = dataDir;
-    process.env[SITE_BASE_ENV] = opts.base ?? '/';
-    process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
+    // What the pages need from the region tables, read once (pipeline/run/site-digest.ts).
+    const digestDir = await mkdtemp(join(tmpdir(), 'heathours-site-digest-'));
     try {
-      const { build } = await import('astro');
-      // Astro writes .astro/ in the project root: one Astro build at a time on this machine.
-      // Astro runs the pages' server code from the output folder, and that code finds its npm
-      // packages from the working folder: the build runs in the project root wherever the command
-      // was started (an output folder outside the project, e.g. /srv/site, failed with "Cannot
-      // find package" when started elsewhere).
-      const cwd = process.cwd();
-      process.chdir(PROJECT_ROOT);
-      try {
+      await gatherSiteDigest(dataDir, digestDir, jobs, opts.quiet);
+      if (parts > 1) {
         await withProcessLock(
           join(PROJECT_ROOT, '.astro-build.lock'),
-          () =>
-            build({
-              root: PROJECT_ROOT,
-              outDir: tmp,
-              cacheDir,
-              mode: 'production',
-              base: opts.base ?? '/',
-              logLevel: opts.quiet ? 'error' : 'info',
-            }),
-          {
-            onWait: (pid) => {
-              if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`);
-            },
-          },
+          () => buildSiteInParts({ dataDir, digestDir, outDir: tmp, parts, base: opts.base ?? '/', quiet: opts.quiet }),
+          { onWait: (pid) => waiting(pid, opts) },
         );
-      } finally {
-        process.chdir(cwd);
-      }
-    } catch (e) {
-      const err = e as Error & { code?: string; hint?: string };
-      const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));
-      throw SiteBuildFailed({ detail });
+      } else await buildInProcess(tmp, dataDir, digestDir, opts);
     } finally {
-      if (previous === undefined) delete process.env[DATA_DIR_ENV];
-      else process.env[DATA_DIR_ENV] = previous;
-      if (previousBase === undefined) delete process.env[SITE_BASE_ENV];
-      else process.env[SITE_BASE_ENV] = previousBase;
-      if (previousBaseUrl !== undefined) process.env.BASE_URL = previousBaseUrl;
-      await rm(cacheDir, { recursive: true, force: true });
+      await rm(digestDir, { recursive: true, force: true });
     }
     // Astro 5 leaves its (empty) content-layer modules next to the pages; they are not part of the site.
     for (const leftover of ASTRO_LEFTOVERS) await rm(join(tmp, leftover), { force: true });
     if (opts.moveData) await rename(join(dataDir, 'data'), join(tmp, 'data'));
     else await cp(join(dataDir, 'data'), join(tmp, 'data'), { recursive: true });
   });
-  if (!opts.quiet) process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
+  if (!opts.quiet)
+    process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s${parts > 1 ? ` by ${parts} Astro processes` : ''}\n`);
+}
+
+function waiting(pid: number, opts: BuildSiteOptions): void {
+  if (!opts.quiet) process.stderr.write(`site: waiting for another site build (pid ${pid}) to finish\n`);
+}
+
+/** Astro's build of every page in this process, into `tmp`. */
+async function buildInProcess(tmp: string, dataDir: string, digestDir: string, opts: BuildSiteOptions): Promise<void> {
+  const cacheDir = await mkdtemp(join(tmpdir(), 'heathours-astro-cache-'));
+  const previous = process.env[DATA_DIR_ENV];
+  const previousDigest = process.env[SITE_DIGEST_ENV];
+  const previousBase = process.env[SITE_BASE_ENV];
+  // Vite lets a BASE_URL variable of the environment (vitest sets one, so may a CI) win over
+  // Astro's base in import.meta.env.BASE_URL: it is taken away for the build.
+  const previousBaseUrl = process.env.BASE_URL;
+  delete process.env.BASE_URL;
+  process.env[DATA_DIR_ENV] = dataDir;
+  process.env[SITE_DIGEST_ENV] = digestDir;
+  process.env[SITE_BASE_ENV] = opts.base ?? '/';
+  process.env.ASTRO_TELEMETRY_DISABLED ??= '1';
+  try {
+    const { build } = await import('astro');
+    // Astro writes .astro/ in the project root: one Astro build at a time on this machine.
+    // Astro runs the pages' server code from the output folder, and that code finds its npm
+    // packages from the working folder: the build runs in the project root wherever the command
+    // was started (an output folder outside the project, e.g. /srv/site, failed with "Cannot
+    // find package" when started elsewhere).
+    const cwd = process.cwd();
+    process.chdir(PROJECT_ROOT);
+    try {
+      await withProcessLock(
+        join(PROJECT_ROOT, '.astro-build.lock'),
+        () =>
+          build({
+            root: PROJECT_ROOT,
+            outDir: tmp,
+            cacheDir,
+            mode: 'production',
+            base: opts.base ?? '/',
+            logLevel: opts.quiet ? 'error' : 'info',
+          }),
+        { onWait: (pid) => waiting(pid, opts) },
+      );
+    } finally {
+      process.chdir(cwd);
+    }
+  } catch (e) {
+    const err = e as Error & { code?: string; hint?: string };
+    const detail = err.hint ? `${err.message} (${err.hint})` : (err.message ?? String(e));
+    throw SiteBuildFailed({ detail });
+  } finally {
+    restore(DATA_DIR_ENV, previous);
+    restore(SITE_DIGEST_ENV, previousDigest);
+    restore(SITE_BASE_ENV, previousBase);
+    if (previousBaseUrl !== undefined) process.env.BASE_URL = previousBaseUrl;
+    await rm(cacheDir, { recursive: true, force: true });
+  }
+}
+
+function restore(name: string, value: string | undefined): void {
+  if (value === undefined) delete process.env[name];
+  else process.env[name] = value;
 }

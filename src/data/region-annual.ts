@@ -8,6 +8,7 @@
 import { loadRegionYearRows } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
 import { loadRegionDetail } from './region-detail.ts';
+import { withinDigest } from './site-digest.ts';
 import { FIGURE_HOURS_LOST, YEAR_PERIOD } from '../lib/report/region-figures.ts';
 import { ALL_CLASSES, WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
 
@@ -43,10 +44,13 @@ export function loadRegionAnnuals(
   return regions.map((r) => {
     const hoursLost = new Map<string, number>();
     const workforce = withWorkforce ? new Map<string, number>() : undefined;
-    const keep = (period: string, figure: string, statistic: string) =>
-      period === YEAR_PERIOD &&
-      ((figure === FIGURE_HOURS_LOST && statistic === 'mean') ||
-        (workforce !== undefined && WORKFORCE.has(figure) && (statistic === 'mean' || statistic === 'p90')));
+    // Hours lost (mean) and the workforce figures (mean, P90): among the rows the site stage gathers.
+    const keep = withinDigest(
+      (period, figure, statistic) =>
+        period === YEAR_PERIOD &&
+        ((figure === FIGURE_HOURS_LOST && statistic === 'mean') ||
+          (workforce !== undefined && WORKFORCE.has(figure) && (statistic === 'mean' || statistic === 'p90'))),
+    );
     for (const row of loadRegionYearRows(r.id, dataDir, keep, scenarioId)) {
       if (row.period !== YEAR_PERIOD) continue;
       if (row.figure === FIGURE_HOURS_LOST && row.statistic === 'mean') {

@@ -11,7 +11,7 @@ import { loadRegionTable } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
 import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
 import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
-import { WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
+import { DIGEST_KEEP, withinDigest } from './site-digest.ts';
 import type { ReportScenario } from '../lib/report/scenarios.ts';
 
 export interface RegionReport {
@@ -28,12 +28,10 @@ export interface RegionReport {
   scenarioCaveat: string;
 }
 
-/** The figures and statistics of the table a report shows (the niche comes from the region's JSON). */
-const REPORT_FIGURES = new Set<string>([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, ...WORKFORCE_FIGURES]);
-const REPORT_STATISTICS = new Set(['mean', 'p90', 'trend', 'trend-p']);
-const keep = (_period: string, figure: string, statistic: string) => REPORT_FIGURES.has(figure) && REPORT_STATISTICS.has(statistic);
+/** The figures and statistics of the table a report shows (the niche comes from the region's JSON): those the site stage gathers. */
+const keep = DIGEST_KEEP;
 /** A scenario's table: its means only (the side-by-side comparison). */
-const keepScenario = (_period: string, figure: string, statistic: string) => REPORT_FIGURES.has(figure) && statistic === 'mean';
+const keepScenario = withinDigest((period, figure, statistic) => DIGEST_KEEP(period, figure, statistic) && statistic === 'mean');
 
 let indexCache: { dir: string; index: HistogramIndex } | undefined;
 
@@ -42,7 +40,7 @@ export type RegionSummaryData = Pick<RegionReport, 'id' | 'name' | 'manifest' | 
 
 /** The figures and statistics the one-page summary shows (and the estimate comparison reads): means and P90 of hours above and lost. */
 const SUMMARY_FIGURES = new Set<string>([FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST]);
-const keepSummary = (_period: string, figure: string, statistic: string) => SUMMARY_FIGURES.has(figure) && (statistic === 'mean' || statistic === 'p90');
+const keepSummary = withinDigest((_period, figure, statistic) => SUMMARY_FIGURES.has(figure) && (statistic === 'mean' || statistic === 'p90'));
 
 /**
  * Loads what the one-page summary of region `regionId` shows: unlike {@link loadRegionReport} it

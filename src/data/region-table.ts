@@ -11,6 +11,7 @@ import { REGION_TABLE_COLUMNS } from '../../pipeline/publish/region-table.ts';
 import { parseCsv } from './csv.ts';
 import { siteDataDir } from './data-dir.ts';
 import { SiteDataInvalid, SiteDataMissing, SiteDataUnreadable } from './errors.ts';
+import { gatheredRows } from './site-digest.ts';
 
 /** One row of a region table. */
 export interface RegionTableRow {
@@ -142,8 +143,14 @@ function checkRow(f: string[], row: number, path: string, regionId: string, keep
   };
 }
 
-/** Reads and checks the table of region `regionId` (default data folder: the build's); `keep` as in {@link parseRegionTable}. */
+/**
+ * Reads and checks the table of region `regionId` (default data folder: the build's); `keep` as in
+ * {@link parseRegionTable}. A filter marked `withinDigest` is served from the rows the site stage
+ * gathered before the build when there are (./site-digest.ts), without reading the table.
+ */
 export function loadRegionTable(regionId: string, dataDir: string = siteDataDir(), keep?: RowFilter, scenarioId?: string): RegionTableRow[] {
+  const gathered = keep && gatheredRows(regionId, keep, scenarioId);
+  if (gathered) return gathered;
   const path = regionTablePath(dataDir, regionId, scenarioId);
   const rel = scenarioId ? `data/scenarios/${scenarioId}/regions/${regionId}.csv` : `data/regions/${regionId}.csv`;
   if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (${rel})` }, { file: path });
@@ -161,6 +168,8 @@ export function loadRegionYearRows(regionId: string, dataDir: string = siteDataD
   const rel = scenarioId ? `data/scenarios/${scenarioId}/regions/${regionId}.csv` : `data/regions/${regionId}.csv`;
   if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (${rel})` }, { file: path });
   const yearOnly: RowFilter = (period, figure, statistic) => period === 'year' && (keep ? keep(period, figure, statistic) : true);
+  const gathered = keep && gatheredRows(regionId, keep, scenarioId);
+  if (gathered) return gathered.filter((r) => r.period === 'year');
   const fd = openSync(path, 'r');
   let head: string;
   let tail: string;

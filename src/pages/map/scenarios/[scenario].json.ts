@@ -6,8 +6,11 @@
  */
 import type { APIRoute, GetStaticPaths } from 'astro';
 import { loadExplorerScenarios } from '../../../data/explorer.ts';
+import { rendersShared } from '../../../lib/site-part.ts';
 
-export const getStaticPaths: GetStaticPaths = () => loadExplorerScenarios().map((sc) => ({ params: { scenario: sc.id }, props: { id: sc.id } }));
+// Endpoints of many regions: only part 0 of a site built in parts renders them (lib/site-part.ts).
+export const getStaticPaths: GetStaticPaths = () =>
+  !rendersShared() ? [] : loadExplorerScenarios().map((sc) => ({ params: { scenario: sc.id }, props: { id: sc.id } }));
 
 export const GET: APIRoute = ({ props }) => {
   const sc = loadExplorerScenarios().find((s) => s.id === (props as { id: string }).id);

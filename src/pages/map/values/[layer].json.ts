@@ -5,8 +5,11 @@
  */
 import type { APIRoute, GetStaticPaths } from 'astro';
 import { loadExplorerCatalogue, loadExplorerValues } from '../../../data/explorer.ts';
+import { rendersShared } from '../../../lib/site-part.ts';
 
-export const getStaticPaths: GetStaticPaths = () => loadExplorerCatalogue().layers.map((l, i) => ({ params: { layer: String(i) }, props: { id: l.id } }));
+// Endpoints of many regions: only part 0 of a site built in parts renders them (lib/site-part.ts).
+export const getStaticPaths: GetStaticPaths = () =>
+  !rendersShared() ? [] : loadExplorerCatalogue().layers.map((l, i) => ({ params: { layer: String(i) }, props: { id: l.id } }));
 
 export const GET: APIRoute = ({ props }) =>
   new Response(JSON.stringify(loadExplorerValues()[(props as { id: string }).id] ?? []), { headers: { 'Content-Type': 'application/json' } });

@@ -7,14 +7,18 @@
  */
 import type { APIRoute, GetStaticPaths } from 'astro';
 import { loadExplorerScenarios, loadScenarioValues } from '../../../../../data/explorer.ts';
+import { rendersShared } from '../../../../../lib/site-part.ts';
 
+// Endpoints of many regions: only part 0 of a site built in parts renders them (lib/site-part.ts).
 export const getStaticPaths: GetStaticPaths = () =>
-  loadExplorerScenarios().flatMap((sc) =>
-    sc.layers.map((l, i) => ({
-      params: { scenario: sc.id, layer: l.values.slice(l.values.lastIndexOf('/') + 1, -'.json'.length) },
-      props: { scenario: sc.id, index: i },
-    })),
-  );
+  !rendersShared()
+    ? []
+    : loadExplorerScenarios().flatMap((sc) =>
+        sc.layers.map((l, i) => ({
+          params: { scenario: sc.id, layer: l.values.slice(l.values.lastIndexOf('/') + 1, -'.json'.length) },
+          props: { scenario: sc.id, index: i },
+        })),
+      );
 
 export const GET: APIRoute = ({ props }) => {
   const { scenario, index } = props as { scenario: string; index: number };
