@@ -7,8 +7,9 @@
  * largest cost of the region stage; content/README.md). `heathours build --data-only` and then the
  * Astro site run in child processes (bench/regions-1000-child.mjs); the figure splits the time by
  * stage (compute, merge, regions, layers, inventory and manifest, site), each also as CPU seconds,
- * with the peak resident memory of each child and the machine's load average (wall time on a
- * shared machine depends on the load). First views are counted from the built files
+ * with the peak resident memory of each child (and of each Astro process of a site built in
+ * parts, pipeline/run/site-parts.ts; the site's CPU seconds count those processes too) and the
+ * machine's load average (wall time on a shared machine depends on the load). First views are counted from the built files
  * (bench/first-view.mjs), stored and gzip-compressed.
  *
  * `HEATHOURS_BENCH_REGIONS=N` builds N regions instead (e.g. 2,000 for a shorter run); the figure
@@ -65,6 +66,8 @@ export const bench: Bench = {
       siteSeconds: round1(s.seconds),
       siteCpuSeconds: round1(s.cpuSeconds),
       sitePeakRssMB: Math.round(Number(s.peakRssMB)),
+      siteParts: Number(s.parts),
+      sitePartPeakRssMB: (s.partPeakRssMB as number[]).join('/'),
       regionPages: Number(s.regionPages),
       mapFirstViewKB: kB(view.map.bytes),
       mapFirstViewGzipKB: kB(view.map.gzipBytes),

@@ -4,7 +4,8 @@
 // Plain JavaScript: nothing here needs TypeScript (Astro compiles the pages itself), so the
 // compiled CLI and the sources start the same file.
 //   node site-part-child.mjs ROOT OUT_DIR CACHE_DIR BASE QUIET(0|1)
-// Exits 0 when built; otherwise 1, the error's message (and Astro's hint) on the last line of
+// Exits 0 when built, its peak resident memory on the last line of stderr as JSON
+// `{"sitePartPeakRssMB": N}`; otherwise 1, the error's message (and Astro's hint) on the last line of
 // stderr as JSON `{"siteBuildFailed": "…"}`.
 import { build } from 'astro';
 
@@ -16,5 +17,7 @@ try {
   process.stderr.write(`\n${JSON.stringify({ siteBuildFailed: detail })}\n`);
   process.exit(1);
 }
+// The part's peak memory, for the site stage's report (last line of stderr).
+process.stderr.write(`\n${JSON.stringify({ sitePartPeakRssMB: Math.round(process.resourceUsage().maxRSS / 1024) })}\n`);
 // Astro's build can leave handles open (file watchers of Vite's cache); the part is done.
 process.exit(0);

@@ -7,8 +7,9 @@
  *
  * The parts are then joined into part 0's folder: each other part's `regions/<id>/` folders are
  * moved in (a region already there is a catalogued failure), and every other file a part wrote
- * (assets, the static pages every part renders) must be byte-identical to part 0's, so a part
- * that bundled its scripts differently cannot slip through (test/site/site-parts.test.ts checks
+ * but its HTML pages (assets, scripts, styles, the JSON endpoints every part renders) must be
+ * byte-identical to part 0's, so a part that bundled its scripts differently cannot slip through
+ * (the other pages of a part > 0 are dropped: part 0's are kept) (test/site/site-parts.test.ts checks
  * the joined site against a one-process build, file by file).
  */
 import { spawn } from 'node:child_process';
@@ -68,7 +69,7 @@ interface PartRun {
 }
 
 /** Builds the site in `parts` Astro processes side by side and joins them into `outDir` (see the file comment). */
-export async function buildSiteInParts(o: SitePartsOptions): Promise<void> {
+export async function buildSiteInParts(o: SitePartsOptions): Promise<number[]> {
   const runs: PartRun[] = [];
   try {
     for (let k = 0; k < o.parts; k++) {
@@ -89,6 +90,7 @@ export async function buildSiteInParts(o: SitePartsOptions): Promise<void> {
       throw (outcomes[failed] as PromiseRejectedResult).reason;
     }
     for (const r of runs.slice(1)) await joinPart(o.outDir, r, o.parts);
+    return outcomes.map((x) => (x as PromiseFulfilledResult<number>).value);
   } finally {
     for (const r of runs) {
       await rm(r.cacheDir, { recursive: true, force: true });
@@ -98,8 +100,11 @@ export async function buildSiteInParts(o: SitePartsOptions): Promise<void> {
   }
 }
 
-/** Starts one part's Astro process; `done` settles when it ends (a catalogued SiteBuildFailed naming the part when it fails). */
-function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<void>; stop: () => void } {
+/**
+ * Starts one part's Astro process; `done` settles when it ends, with the part's peak resident
+ * memory [MB] (NaN when it did not say), or a catalogued SiteBuildFailed naming the part.
+ */
+function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<number>; stop: () => void } {
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     [DATA_DIR_ENV]: o.dataDir,
@@ -123,11 +128,11 @@ function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<void>; stop: 
     if (!o.quiet && r.index === 0) process.stderr.write(s);
     stderr = (stderr + s).slice(-STDERR_KEPT);
   });
-  const done = new Promise<void>((resolve, reject) => {
+  const done = new Promise<number>((resolve, reject) => {
     child.on('error', (e) => reject(SiteBuildFailed({ detail: `site part ${r.index + 1} of ${o.parts} did not start: ${e.message}` })));
     child.on('close', (code, signal) => {
-      if (code === 0) return resolve();
       const last = stderr.trim().split('\n').pop() ?? '';
+      if (code === 0) return resolve(Number(/"sitePartPeakRssMB":(\d+)/.exec(last)?.[1] ?? NaN));
       let detail: string;
       try {
         detail = (JSON.parse(last) as { siteBuildFailed: string }).siteBuildFailed;
@@ -152,6 +157,8 @@ async function joinPart(outDir: string, r: PartRun, parts: number): Promise<void
   }
   for await (const file of walk(r.outDir)) {
     const rel = relative(r.outDir, file);
+    // The pages every part renders are part 0's (the others may skip their data: the home page's ranking).
+    if (rel.endsWith('.html')) continue;
     const [mine, theirs] = await Promise.all([readFile(file), readFile(join(outDir, rel)).catch(() => undefined)]);
     if (theirs === undefined) throw fail(`${rel} is not in part 1's site`);
     if (!mine.equals(theirs)) throw fail(`${rel} differs from part 1's (sha256 ${digest(mine)} against ${digest(theirs)})`);

@@ -72,8 +72,16 @@ async function checkOutput(outDir: string): Promise<void> {
   }
 }
 
+/** What a site build did. */
+export interface SiteBuildReport {
+  /** Astro processes that rendered the pages (1: this process). */
+  parts: number;
+  /** Peak resident memory of each Astro process of a build in parts [MB]; empty for one. */
+  partPeakRssMB: number[];
+}
+
 /** Builds the static site from `dataDir` into `outDir` (see the file comment). */
-export async function buildSite(opts: BuildSiteOptions): Promise<void> {
+export async function buildSite(opts: BuildSiteOptions): Promise<SiteBuildReport> {
   const dataDir = resolve(opts.dataDir);
   const outDir = resolve(opts.outDir);
   const regions = checkSiteData(dataDir);
@@ -81,13 +89,14 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   const started = Date.now();
   const jobs = opts.jobs ?? availableParallelism();
   const parts = siteParts(regions, jobs);
+  let partPeakRssMB: number[] = [];
   await replaceDirAtomic(outDir, async (tmp) => {
     // What the pages need from the region tables, read once (pipeline/run/site-digest.ts).
     const digestDir = await mkdtemp(join(tmpdir(), 'heathours-site-digest-'));
     try {
       await gatherSiteDigest(dataDir, digestDir, jobs, opts.quiet);
       if (parts > 1) {
-        await withProcessLock(
+        partPeakRssMB = await withProcessLock(
           join(PROJECT_ROOT, '.astro-build.lock'),
           () => buildSiteInParts({ dataDir, digestDir, outDir: tmp, parts, base: opts.base ?? '/', quiet: opts.quiet }),
           { onWait: (pid) => waiting(pid, opts) },
@@ -103,6 +112,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<void> {
   });
   if (!opts.quiet)
     process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s${parts > 1 ? ` by ${parts} Astro processes` : ''}\n`);
+  return { parts, partPeakRssMB };
 }
 
 function waiting(pid: number, opts: BuildSiteOptions): void {

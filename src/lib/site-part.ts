@@ -4,9 +4,10 @@
  * `HEATHOURS_SITE_PART` (K from 0). Part 0 renders every page and endpoint but the region pages
  * of the other parts; part K > 0 renders the region reports and summaries of the regions whose
  * index i in regions.geojson has i mod N = K, and none of the pages that list or sum many regions
- * (those of getStaticPaths below return nothing there). The pages every part renders anyway
- * (Astro builds every static page) are the same in every part; the site stage keeps part 0's and
- * checks that the others match. Unset: one process, every page.
+ * (their getStaticPaths return nothing there). The static pages every part renders anyway (Astro
+ * builds every static page) are kept from part 0 only, so a part > 0 may skip their data (the home
+ * page's ranking of every region); the site stage checks that every other file the parts share
+ * (scripts, styles, JSON endpoints) is byte-identical. Unset: one process, every page.
  */
 
 /** The environment variable that names the part of the site this Astro process renders. */

@@ -5,11 +5,17 @@
  * database through Intl (Node's and the browser's ICU), never from the name. Pure.
  */
 
+/** One formatter per time zone: making one costs far more than using it (every region page asks). */
+const formats = new Map<string, Intl.DateTimeFormat>();
+
 /** The UTC offset of `zone` at the instant `ms` [ms since 1970 UTC], as "UTC+05:30" / "UTC−10:00" / "UTC+00:00". */
 export function utcOffsetAt(zone: string, ms: number): string {
-  const part =
-    new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'longOffset' }).formatToParts(new Date(ms)).find((p) => p.type === 'timeZoneName')
-      ?.value ?? 'GMT';
+  let format = formats.get(zone);
+  if (!format) {
+    format = new Intl.DateTimeFormat('en-US', { timeZone: zone, timeZoneName: 'longOffset' });
+    formats.set(zone, format);
+  }
+  const part = format.formatToParts(new Date(ms)).find((p) => p.type === 'timeZoneName')?.value ?? 'GMT';
   // "GMT-10:00", "GMT+05:30", or "GMT" for a zero offset.
   const m = /^GMT([+-])(\d{2}):(\d{2})$/.exec(part);
   if (!m) return 'UTC+00:00';
