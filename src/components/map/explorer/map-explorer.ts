@@ -445,9 +445,10 @@ async function start(root: HTMLElement): Promise<void> {
     ev.preventDefault();
     search.dataset.result = 'loading';
     const r = await loader.search(must<HTMLInputElement>(search, '[name="q"]').value);
-    search.dataset.result = r.kind;
+    // data-result says the search is done: set last, after the map, the address and the words.
     if (r.kind === 'none') {
       searchResult.textContent = r.message;
+      search.dataset.result = r.kind;
       return;
     }
     if (r.kind === 'region') {
@@ -456,8 +457,10 @@ async function start(root: HTMLElement): Promise<void> {
       map.fitBounds((await regionBox(r.id))!, { padding: 30, maxZoom: 8, duration: 0 });
       writeUrl();
       searchResult.textContent = `${r.name}: shown and outlined on the map.`;
+      search.dataset.result = r.kind;
       return;
     }
+    search.dataset.result = r.kind;
     const hit = cellAt(grid, r.lon, r.lat);
     if (!hit) {
       searchResult.textContent = `${formatLat(r.lat)}, ${formatLon(r.lon)} is outside the atlas grid.`;
