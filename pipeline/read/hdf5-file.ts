@@ -101,6 +101,11 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
   return buildHdf5File(path, bytes, d, sizes);
 }
 
+/** Whether h5wasm has been asked for in this thread (tests: a file described and read in JavaScript never loads it). */
+export function hdf5LibraryLoaded(): boolean {
+  return ready !== undefined;
+}
+
 /** Loads h5wasm in this thread (once). */
 async function loadHdf5Library(): Promise<void> {
   ready ??= import('h5wasm/node').then(async (m) => {
@@ -167,14 +172,13 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
   // The HDF5 library opens the file only when a variable needs it (a layout or filter the raw
   // chunk reader leaves to it, a scalar, chunks never written): a file whose variables are all
   // read from their raw chunks never loads h5wasm in this thread (~0.3 s and its heap).
-  let f: H5File | undefined;
-  const library = async (): Promise<H5File> => {
-    if (!f) {
+  // One promise, as the file handle below: reads that start side by side open the file once.
+  let f: Promise<H5File> | undefined;
+  const library = (): Promise<H5File> =>
+    (f ??= (async () => {
       await loadHdf5Library();
-      f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
-    }
-    return f;
-  };
+      return h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
+    })());
   const datasets = new Map<SourceVariable, H5Dataset>();
   const dsOf = (file: H5File, v: SourceVariable): H5Dataset => {
     let ds = datasets.get(v);
@@ -355,7 +359,8 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
       carry.clear();
       const file = f;
       f = undefined;
-      if (file && !stopped) quietly(() => file.close());
+      const opened = file ? await file.catch(() => undefined) : undefined;
+      if (opened && !stopped) quietly(() => opened.close());
     },
   };
 }
