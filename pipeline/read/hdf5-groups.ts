@@ -4,13 +4,15 @@
  * storage"; a Link Info message, §IV.A.2.c, says whether creation order is tracked and indexed);
  * old-style groups keep a Symbol Table message (§IV.A.2.r) pointing at a version 1 B-tree of
  * group nodes (§III.A.1, node type 0) whose leaves are symbol table nodes "SNOD" (§III.B) of
- * symbol table entries (§III.C), their names in a local heap "HEAP" (§III.D). Dense link storage
- * (a fractal heap and a version 2 B-tree) is refused: the caller falls back to the HDF5 library.
+ * symbol table entries (§III.C), their names in a local heap "HEAP" (§III.D). Groups with many
+ * links keep them densely: Link messages in a fractal heap indexed by a version 2 B-tree
+ * (hdf5-dense.ts).
  *
  * Members come back in the order the HDF5 library lists them (H5Literate2): by creation order when
  * the group indexes it, else by name (byte order, as strcmp). Every node is visited once (a cycle
  * is refused) and counts are checked against the bytes read before they are looped over.
  */
+import { btree2Records, FractalHeap } from './hdf5-dense.ts';
 import type { Message, ReadAt } from './hdf5-layout.ts';
 import { MSG_LINK, MSG_LINK_INFO, MSG_SYMBOL_TABLE, parseLink, parseLinkInfo, parseSymbolTable, type HardLink } from './hdf5-messages.ts';
 import { addr, le, refuse, type Hdf5Sizes } from './hdf5-struct.ts';
@@ -46,12 +48,20 @@ export async function groupMembers(read: ReadAt, messages: Message[], s: Hdf5Siz
     await groupBtree(read, btree, -1, s, fileBytes, names, links, budget);
   } else {
     const info = messages.find((m) => m.type === MSG_LINK_INFO);
+    links = messages.filter((m) => m.type === MSG_LINK).map((m) => parseLink(m.data, s));
     if (info) {
       const li = parseLinkInfo(info.data, s);
-      if (li.dense) refuse('links stored densely (fractal heap)');
       indexed = li.indexed;
+      if (li.heap >= 0) {
+        // Dense storage: the link messages are objects of a fractal heap, indexed by name
+        // (version 2 B-tree record type 5: name hash, heap ID).
+        if (links.length > 0) refuse('a group with both dense and compact links');
+        if (budget.visited.has(li.heap)) refuse(`a link heap at byte ${li.heap} reached twice`);
+        budget.visited.add(li.heap);
+        const heap = await FractalHeap.open(read, li.heap, s, fileBytes);
+        for (const r of await btree2Records(read, li.names, 5, s, fileBytes)) links.push(parseLink(await heap.object(r.subarray(4)), s));
+      }
     }
-    links = messages.filter((m) => m.type === MSG_LINK).map((m) => parseLink(m.data, s));
     budget.members += links.length;
   }
   if (budget.members > MAX_MEMBERS) refuse(`more than ${MAX_MEMBERS} group members`);

@@ -6,7 +6,8 @@
  * messages of datasets and their attributes (hdf5-messages.ts), the global heap for
  * DIMENSION_LIST and variable-length strings (hdf5-global-heap.ts, hdf5-attr-values.ts).
  *
- * Whatever it does not read (dense link or attribute storage, layout version 4, shared or
+ * Dense links and attributes are read from their fractal heaps (hdf5-dense.ts). Whatever it
+ * does not read (huge fractal heaps or deep B-trees, layout version 4, shared or
  * committed datatypes, user-defined types, soft links, big-endian attributes) or what does not
  * hold together (a bound, a checksum, a cycle, a count beyond the bytes there are) makes it
  * answer `{ declined: reason }`: the caller then asks the metadata worker, as before. It never
@@ -16,6 +17,7 @@
 import { open } from 'node:fs/promises';
 import { attributeValue, dimensionList, rawTypeOf } from './hdf5-attr-values.ts';
 import type { Hdf5Description, Hdf5Variable } from './hdf5-describe.ts';
+import { btree2Records, FractalHeap } from './hdf5-dense.ts';
 import { GlobalHeap } from './hdf5-global-heap.ts';
 import { groupMembers, isGroup, type WalkBudget } from './hdf5-groups.ts';
 import { parseLayout, readObjectHeader, type Message, type ReadAt } from './hdf5-layout.ts';
@@ -31,7 +33,7 @@ import {
   parseDatatype,
   type RawAttribute,
 } from './hdf5-messages.ts';
-import { RawLayoutRefused, readSuperblock, refuse, SUPERBLOCK_BYTES, type Hdf5Sizes } from './hdf5-struct.ts';
+import { le, RawLayoutRefused, readSuperblock, refuse, SUPERBLOCK_BYTES, type Hdf5Sizes } from './hdf5-struct.ts';
 import type { AttrValue, RawType, SourceDimension } from './source.ts';
 
 /** The JS reader's answer: the description, or why the file is left to the HDF5 library. */
@@ -112,10 +114,9 @@ interface Found {
 }
 
 /** The attributes of an object header, in the order the HDF5 library lists them (H5Aiterate2). */
-function attributes(messages: Message[], s: Hdf5Sizes): RawAttribute[] {
+async function attributes(read: ReadAt, messages: Message[], s: Hdf5Sizes, fileBytes: number): Promise<RawAttribute[]> {
   const infoMsg = messages.find((m) => m.type === MSG_ATTRIBUTE_INFO);
   const info = infoMsg ? parseAttributeInfo(infoMsg.data, s) : undefined;
-  if (info?.dense) refuse('attributes stored densely (fractal heap)');
   const out: RawAttribute[] = [];
   let position = 0;
   for (const m of messages) {
@@ -123,6 +124,17 @@ function attributes(messages: Message[], s: Hdf5Sizes): RawAttribute[] {
     if (m.flags & 0x02) refuse('a shared attribute message');
     out.push(parseAttribute(m.data, s, m.order ?? position));
     position++;
+  }
+  if (info && info.heap >= 0) {
+    // Dense storage: attribute messages in a fractal heap, indexed by name (version 2 B-tree
+    // record type 8: heap ID, message flags, creation order, name hash).
+    if (out.length > 0) refuse('an object with both dense and compact attributes');
+    const heap = await FractalHeap.open(read, info.heap, s, fileBytes);
+    for (const r of await btree2Records(read, info.names, 8, s, fileBytes)) {
+      if (r.length < 17) refuse('attribute name index records cut short');
+      if (r[8] & 0x02) refuse('a shared attribute message');
+      out.push(parseAttribute(await heap.object(r.subarray(0, 8)), s, le(r, 9, 4)));
+    }
   }
   const names = new Set<string>();
   for (const a of out) {
@@ -168,7 +180,7 @@ async function describe(read: ReadAt, bytes: number): Promise<Hdf5Description> {
     byAddress.set(d.header, d.name);
   }
   const heap = new GlobalHeap(read, s, bytes);
-  const rootAttrs = attributes(rootMessages, s);
+  const rootAttrs = await attributes(read, rootMessages, s, bytes);
   let netcdf = rootAttrs.some((a) => a.name === '_NCProperties');
   const dimSizes = new Map<string, SourceDimension>();
   const variables: Hdf5Variable[] = [];
@@ -185,7 +197,7 @@ async function describe(read: ReadAt, bytes: number): Promise<Hdf5Description> {
     const type = rawTypeOf(dtype) ?? refuse(`variable ${name} is of a type the JavaScript reader leaves to the HDF5 library`);
     const layout = parseLayout(one(MSG_LAYOUT, 'data layout').data, s);
     const shape = space.dims;
-    const raw = attributes(messages, s);
+    const raw = await attributes(read, messages, s, bytes);
     const rawByName = new Map(raw.map((a) => [a.name, a]));
     const cls = rawByName.get('CLASS');
     const isScale = cls !== undefined && (await attributeValue(cls, heap, s)).value === 'DIMENSION_SCALE';

@@ -228,24 +228,32 @@ export function parseLink(d: Uint8Array, s: Hdf5Sizes): HardLink {
   return order === undefined ? { name, address } : { name, address, order };
 }
 
-/** The Link Info message (§IV.A.2.c): creation order flags and whether links are stored densely. */
-export function parseLinkInfo(d: Uint8Array, s: Hdf5Sizes): { tracked: boolean; indexed: boolean; dense: boolean } {
+/** Creation order flags of a Link Info or Attribute Info message, and where dense storage lives (-1: none) [bytes]. */
+export interface DenseInfo {
+  tracked: boolean;
+  indexed: boolean;
+  /** Fractal heap of the link or attribute messages, or -1 when they are in the object header. */
+  heap: number;
+  /** Version 2 B-tree indexing them by name. */
+  names: number;
+}
+
+/** The Link Info message (§IV.A.2.c). */
+export function parseLinkInfo(d: Uint8Array, s: Hdf5Sizes): DenseInfo {
   const version = le(d, 0, 1);
   if (version !== 0) refuse(`link info version ${version}`);
   const flags = le(d, 1, 1);
   const p = 2 + (flags & 0x01 ? 8 : 0);
-  const heap = addr(d, p, s.offsets);
-  return { tracked: (flags & 0x01) !== 0, indexed: (flags & 0x02) !== 0, dense: heap !== -1 };
+  return { tracked: (flags & 0x01) !== 0, indexed: (flags & 0x02) !== 0, heap: addr(d, p, s.offsets), names: addr(d, p + s.offsets, s.offsets) };
 }
 
-/** The Attribute Info message (§IV.A.2.v): creation order flags and whether attributes are stored densely. */
-export function parseAttributeInfo(d: Uint8Array, s: Hdf5Sizes): { tracked: boolean; indexed: boolean; dense: boolean } {
+/** The Attribute Info message (§IV.A.2.v). */
+export function parseAttributeInfo(d: Uint8Array, s: Hdf5Sizes): DenseInfo {
   const version = le(d, 0, 1);
   if (version !== 0) refuse(`attribute info version ${version}`);
   const flags = le(d, 1, 1);
   const p = 2 + (flags & 0x01 ? 2 : 0);
-  const heap = addr(d, p, s.offsets);
-  return { tracked: (flags & 0x01) !== 0, indexed: (flags & 0x02) !== 0, dense: heap !== -1 };
+  return { tracked: (flags & 0x01) !== 0, indexed: (flags & 0x02) !== 0, heap: addr(d, p, s.offsets), names: addr(d, p + s.offsets, s.offsets) };
 }
 
 /** The Symbol Table message (§IV.A.2.r): the group's version 1 B-tree and local heap [bytes]. */
