@@ -44,6 +44,12 @@ const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: 
   double: Float64Array,
 };
 
+/** 64-bit integer arrays, read from the raw chunks and handed out as doubles (as the library path does). */
+const WIDE: Partial<Record<RawType, new (b: ArrayBuffer, o: number, n: number) => BigInt64Array | BigUint64Array>> = {
+  int64: BigInt64Array,
+  uint64: BigUint64Array,
+};
+
 let ready: Promise<unknown> | undefined;
 
 /**
@@ -268,7 +274,8 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
         if (libraryOnly) return 'HDF5 library: HEATHOURS_NETCDF4_RAW=0';
         if (typeof sizes === 'string') return `HDF5 library: ${sizes}`;
         if (!LITTLE_ENDIAN_HOST) return 'HDF5 library: a big-endian machine';
-        if (!hv.plain || !HEAP_VIEW[v.type]) return `HDF5 library: values of type ${v.type} that are not plain little-endian numbers`;
+        if (!(hv.plain && HEAP_VIEW[v.type]) && !(WIDE[v.type] && hv.valueBytes === 8))
+          return `HDF5 library: values of type ${v.type} that are not plain little-endian numbers`;
         if (hv.header === null) return 'HDF5 library: no object header address';
         try {
           return await readChunkIndex(readAt, sizes, hv.header, v.shape, hv.valueBytes, bytes);
@@ -287,16 +294,29 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
    * caller keeps it, and reads may run side by side), or null (the HDF5 library reads it).
    */
   async function readRaw(v: SourceVariable, off: number[], cnt: number[], fresh = false): Promise<RawArray | null> {
-    if (v.shape.length === 0) return null;
     const idx = await indexOf(v);
     if (typeof idx === 'string') return null;
-    const View = HEAP_VIEW[v.type]!;
+    // 64-bit integers (ERA5's `valid_time`, `number`) become doubles, as the library path gives them.
+    const wide = WIDE[v.type];
+    const View = HEAP_VIEW[v.type];
+    const typed = (buf: ArrayBuffer, n: number): RawArray =>
+      wide ? Float64Array.from(new wide(buf, 0, n), (x) => Number(x)) : new (View as NonNullable<typeof View>)(buf, 0, n);
+    if (v.shape.length === 0) {
+      // A scalar: one value at the address of its contiguous or compact storage.
+      if (!idx.contiguous || idx.address[0] < 0) return null;
+      const b = await readAt(idx.address[0], idx.elementBytes);
+      if (b.length < idx.elementBytes) return null;
+      const one = new ArrayBuffer(idx.elementBytes);
+      new Uint8Array(one).set(b);
+      return typed(one, 1);
+    }
     const nbytes = product(cnt) * idx.elementBytes;
-    if (!fresh && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
-    const buf = fresh ? new ArrayBuffer(nbytes) : rawBuf;
+    const own = fresh || wide !== undefined;
+    if (!own && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
+    const buf = own ? new ArrayBuffer(nbytes) : rawBuf;
     const out = new Uint8Array(buf, 0, nbytes);
     const ok = await readRawSlab({ fh: await handle(), path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
-    return ok ? new View(buf, 0, nbytes / idx.elementBytes) : null;
+    return ok ? typed(buf, nbytes / idx.elementBytes) : null;
   }
 
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {

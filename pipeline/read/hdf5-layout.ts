@@ -65,6 +65,8 @@ export interface Message {
   type: number;
   flags: number;
   data: Uint8Array;
+  /** Where the data lie in the file [bytes]. */
+  at: number;
   order?: number;
 }
 
@@ -155,7 +157,7 @@ export async function readObjectHeader(read: ReadAt, at: number, s: Hdf5Sizes): 
       const data = b.subarray(d0, d0 + size);
       if (type === 0x10) {
         blocks.push({ at: addr(data, 0, s.offsets), length: le(data, s.offsets, s.lengths) });
-      } else out.push(order === undefined ? { type, flags: mflags, data } : { type, flags: mflags, data, order });
+      } else out.push(order === undefined ? { type, flags: mflags, data, at: bAt + d0 } : { type, flags: mflags, data, at: bAt + d0, order });
       p = d0 + size;
       if (!v2) p = (p + 7) & ~7;
     }
@@ -223,11 +225,11 @@ export function parseLayout(d: Uint8Array, s: Hdf5Sizes): Hdf5Layout {
 const MAX_CONTIGUOUS_BYTES = 1 << 24;
 
 /**
- * A contiguous variable as an index of one unfiltered chunk that spans the whole variable
- * (the address -1 when HDF5 never wrote it: all fill values).
+ * A contiguous (or compact) variable as an index of one unfiltered chunk that spans the whole
+ * variable (the address -1 when HDF5 never wrote it: all fill values); a scalar is one value.
  */
 function contiguousIndex(l: { address: number; size: number }, shape: number[], elementBytes: number, fileBytes: number): ChunkIndex {
-  if (shape.length === 0 || shape.some((n) => n < 1)) refuse('a contiguous variable without values along every dimension');
+  if (shape.some((n) => n < 1)) refuse('a contiguous variable without values along every dimension');
   const bytes = shape.reduce((a, b) => a * b, elementBytes);
   if (bytes > MAX_CONTIGUOUS_BYTES) refuse(`a contiguous variable of ${bytes} bytes`);
   if (l.address !== -1 && l.size !== bytes) refuse(`contiguous storage of ${l.size} bytes for ${bytes} bytes of values`);
@@ -257,14 +259,21 @@ export async function readChunkIndex(
   fileBytes: number,
 ): Promise<ChunkIndex> {
   const messages = await objectHeaderMessages(read, header, s);
+  const rank = shape.length;
   const layoutMsg = messages.find((m) => m.type === 0x0008);
   if (!layoutMsg) return refuse('no data layout message');
   if (layoutMsg.flags & 0x02) refuse('a shared data layout message');
+  // Values must be little-endian numbers (Datatype message, §IV.A.2.d: bit 0 of the class bit field).
+  const typeMsg = messages.find((m) => m.type === 0x0003);
+  if (!typeMsg || typeMsg.flags & 0x02) refuse('no datatype message of its own');
+  const cls = le((typeMsg as Message).data, 0, 1) & 0x0f;
+  if ((cls === 0 || cls === 1) && le((typeMsg as Message).data, 1, 1) & 0x41) refuse('big-endian values');
   const layout = parseLayout(layoutMsg.data, s);
-  if (layout.kind === 'compact') return refuse('compact storage (values inside the object header)');
+  // Compact storage: the values are the layout message's own bytes (after version, class and size).
+  if (layout.kind === 'compact') return contiguousIndex({ address: layoutMsg.at + 4, size: layout.data.length }, shape, elementBytes, fileBytes);
   if (layout.kind === 'contiguous') return contiguousIndex(layout, shape, elementBytes, fileBytes);
+  if (rank === 0) refuse('a chunked scalar');
   const { btree, dims } = layout;
-  const rank = shape.length;
   if (dims.length !== rank + 1) refuse(`chunks of rank ${dims.length - 1} for a variable of rank ${rank}`);
   if (dims[rank] !== elementBytes) refuse(`chunk element size ${dims[rank]} for values of ${elementBytes} bytes`);
   const chunk = dims.slice(0, rank);
