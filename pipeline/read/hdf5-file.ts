@@ -26,6 +26,7 @@ let stopped = '';
 import { NetcdfFileTruncated, NetcdfReadFailed } from './errors.ts';
 import { LITTLE_ENDIAN_HOST, readRawSlab } from './hdf5-chunks.ts';
 import { RawLayoutRefused, readChunkIndex, superblockSizes, type ChunkIndex, type Hdf5Sizes } from './hdf5-layout.ts';
+import { superblockEndOfFile } from './hdf5-struct.ts';
 import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
 import type { Hdf5Variable } from './hdf5-describe.ts';
 import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
@@ -66,21 +67,7 @@ export function hdf5StoppedIn(): string {
  * §II.A "Disk Format: Level 0A - Format Signature and Superblock", versions 0-3), or null.
  */
 export function hdf5EndOfFileAddress(head: Uint8Array): number | null {
-  if (head.length < 16) return null;
-  const version = head[8];
-  const view = new DataView(head.buffer, head.byteOffset, head.byteLength);
-  let sizeOfOffsets: number;
-  let at: number;
-  if (version === 0 || version === 1) {
-    sizeOfOffsets = head[13];
-    at = (version === 0 ? 24 : 28) + 2 * sizeOfOffsets;
-  } else if (version === 2 || version === 3) {
-    sizeOfOffsets = head[9];
-    at = 12 + 2 * sizeOfOffsets;
-  } else return null;
-  if (sizeOfOffsets !== 8 && sizeOfOffsets !== 4) return null;
-  if (head.length < at + sizeOfOffsets) return null;
-  return sizeOfOffsets === 8 ? Number(view.getBigUint64(at, true)) : view.getUint32(at, true);
+  return superblockEndOfFile(head);
 }
 
 /** Opens a NetCDF-4 file whose size [bytes] is known; rejects truncated and non-NetCDF HDF5. */

@@ -68,20 +68,9 @@ export const SUPERBLOCK_BYTES = 128;
  */
 export function readSuperblock(head: Uint8Array): Hdf5Superblock {
   if (!hasHdf5Signature(head)) refuse('no HDF5 superblock at byte 0');
-  const version = head[8];
-  let offsets: number;
-  let lengths: number;
-  let baseAt: number;
-  if (version === 0 || version === 1) {
-    offsets = le(head, 13, 1);
-    lengths = le(head, 14, 1);
-    baseAt = version === 0 ? 24 : 28;
-  } else if (version === 2 || version === 3) {
-    offsets = le(head, 9, 1);
-    lengths = le(head, 10, 1);
-    baseAt = 12;
-  } else return refuse(`superblock version ${version}`);
-  if ((offsets !== 4 && offsets !== 8) || (lengths !== 4 && lengths !== 8)) refuse(`sizes of offsets ${offsets} and lengths ${lengths}`);
+  const f = superblockFields(head);
+  if (typeof f === 'string') return refuse(f);
+  const { version, offsets, lengths, baseAt } = f;
   const base = addr(head, baseAt, offsets);
   if (base !== 0) refuse(`base address ${base} (a user block)`);
   let root: number;
@@ -101,6 +90,40 @@ export function readSuperblock(head: Uint8Array): Hdf5Superblock {
   }
   if (root < 0) refuse('no root group address');
   return { version, offsets, lengths, base, root, eof };
+}
+
+/**
+ * Where the superblock's fields lie (§II.A): its version, sizes of offsets and lengths [bytes]
+ * and the byte where the base address starts (the end-of-file address follows two addresses
+ * later in every version), or what is wrong.
+ */
+function superblockFields(head: Uint8Array): { version: number; offsets: number; lengths: number; baseAt: number } | string {
+  if (head.length < 16) return 'a superblock cut short';
+  const version = head[8];
+  let offsets: number;
+  let lengths: number;
+  let baseAt: number;
+  if (version === 0 || version === 1) {
+    offsets = head[13];
+    lengths = head[14];
+    baseAt = version === 0 ? 24 : 28;
+  } else if (version === 2 || version === 3) {
+    offsets = head[9];
+    lengths = head[10];
+    baseAt = 12;
+  } else return `superblock version ${version}`;
+  if ((offsets !== 4 && offsets !== 8) || (lengths !== 4 && lengths !== 8)) return `sizes of offsets ${offsets} and lengths ${lengths}`;
+  return { version, offsets, lengths, baseAt };
+}
+
+/** The end-of-file address the superblock records [bytes] (§II.A, versions 0–3; the undefined address reads as 2^64 - 1), or null when it cannot be had. */
+export function superblockEndOfFile(head: Uint8Array): number | null {
+  const f = superblockFields(head);
+  if (typeof f === 'string') return null;
+  const at = f.baseAt + 2 * f.offsets;
+  if (head.length < at + f.offsets) return null;
+  // Beyond 2^53 the number is approximate, still far beyond any file (the caller compares sizes).
+  return le(head, at, f.offsets);
 }
 
 /** Superblock fields the chunk reader needs (§II.A, versions 0–3, at offset 0). */
