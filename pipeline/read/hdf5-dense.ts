@@ -131,7 +131,7 @@ export class FractalHeap {
     p += 2 + 2 * L + 2 + 2;
     const root = addr(h, p, O);
     const rows = le(h, p + O, 2);
-    const pow2 = (x: number) => x > 0 && Number.isSafeInteger(x) && (x & (x - 1)) === 0;
+    const pow2 = (x: number) => x > 0 && Number.isSafeInteger(x) && Number.isInteger(Math.log2(x));
     if (width < 1 || width > 1024 || !pow2(startSize) || !pow2(maxDirect) || maxDirect < startSize || maxHeapBits < 1 || maxHeapBits > 53)
       refuse('a fractal heap whose doubling table does not hold together');
     const offBytes = Math.ceil(maxHeapBits / 8);
@@ -171,6 +171,18 @@ export class FractalHeap {
     const block = this.blocks.find((b) => offset >= b.offset && offset < b.offset + b.size);
     if (!block) return refuse(`fractal heap offset ${offset} in no direct block`);
     if (offset + length > block.offset + block.size || length < 1) refuse(`a fractal heap object of ${length} bytes past its block`);
+    const b = await this.directBlock(block);
+    const headerBytes = 5 + this.O + this.offBytes;
+    const start = offset - block.offset;
+    if (start < headerBytes + (this.checksummed ? 4 : 0)) refuse('a fractal heap object inside its block header');
+    return b.subarray(start, start + length);
+  }
+
+  /** The last direct block read, checked once (a heap's objects are read one after another). */
+  private last: { at: number; bytes: Uint8Array } | undefined;
+
+  private async directBlock(block: { offset: number; size: number; at: number }): Promise<Uint8Array> {
+    if (this.last?.at === block.at) return this.last.bytes;
     const b = await exact(this.read, block.at, block.size, this.fileBytes, 'fractal heap direct block');
     signature(b, 'FHDB', block.at);
     if (addr(b, 5, this.O) !== this.heapAt) refuse('a fractal heap direct block of another heap');
@@ -183,8 +195,7 @@ export class FractalHeap {
       copy.fill(0, headerBytes, headerBytes + 4);
       if (lookup3(copy) !== stored) refuse(`the fractal heap direct block checksum at byte ${block.at} does not match`);
     }
-    const start = offset - block.offset;
-    if (start < headerBytes + (this.checksummed ? 4 : 0)) refuse('a fractal heap object inside its block header');
-    return b.subarray(start, start + length);
+    this.last = { at: block.at, bytes: b };
+    return b;
   }
 }

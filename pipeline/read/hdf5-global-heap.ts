@@ -12,10 +12,10 @@ import type { ReadAt } from './hdf5-layout.ts';
 import { globalHeapProblem } from './hdf5-heap-check.ts';
 import { addr, le, refuse, type Hdf5Sizes } from './hdf5-struct.ts';
 
-/** Largest collection read [bytes] (the check in hdf5-heap-check.ts reads as much). */
-const MAX_COLLECTION = 64 * 1024 * 1024;
+/** Largest collection read [bytes]; a larger one is declined (netCDF-C's collections hold kilobytes). */
+const MAX_COLLECTION = 16 * 1024 * 1024;
 /** Most collections kept at once (memory stays bounded by this times {@link MAX_COLLECTION}; NetCDF-4 files have one or a few). */
-const KEPT = 8;
+const KEPT = 4;
 
 /** The objects of global heap collections, read on demand. */
 export class GlobalHeap {
