@@ -10,7 +10,7 @@
  * §III.E (global heap IDs in variable-length data). Anything else is refused.
  */
 import type { AttrValue, RawType } from './source.ts';
-import { GlobalHeap, heapId } from './hdf5-global-heap.ts';
+import { type GlobalHeap, heapId } from './hdf5-global-heap.ts';
 import type { Datatype, RawAttribute } from './hdf5-messages.ts';
 import { le, refuse, type Hdf5Sizes } from './hdf5-struct.ts';
 

@@ -157,14 +157,14 @@ async function describe(read: ReadAt, bytes: number): Promise<Hdf5Description> {
     if (at < 0 || at >= bytes) refuse(`an object header address ${at} outside the file`);
     return (await readObjectHeader(read, at, s)).messages;
   };
-  const walk = async (at: number, messages: Message[], prefix: string, depth: number): Promise<void> => {
+  const walk = async (messages: Message[], prefix: string, depth: number): Promise<void> => {
     if (depth > MAX_DEPTH) refuse(`groups nested more than ${MAX_DEPTH} deep at ${prefix}`);
     for (const link of await groupMembers(read, messages, s, bytes, budget)) {
       const m = await header(link.address);
       if (isGroup(m)) {
         if (groups.has(link.address)) refuse(`group ${prefix}${link.name} reached twice`);
         groups.add(link.address);
-        await walk(link.address, m, `${prefix}${link.name}/`, depth + 1);
+        await walk(m, `${prefix}${link.name}/`, depth + 1);
       } else if (m.some((x) => x.type === MSG_LAYOUT)) datasets.push({ name: `${prefix}${link.name}`, header: link.address, messages: m });
       else refuse(`${prefix}${link.name} is neither a group nor a variable (a committed datatype?)`);
     }
@@ -172,7 +172,7 @@ async function describe(read: ReadAt, bytes: number): Promise<Hdf5Description> {
   const rootMessages = await header(sb.root);
   if (!isGroup(rootMessages)) refuse('the root object is not a group');
   groups.add(sb.root);
-  await walk(sb.root, rootMessages, '', 0);
+  await walk(rootMessages, '', 0);
 
   const byAddress = new Map<number, string>();
   for (const d of datasets) {
