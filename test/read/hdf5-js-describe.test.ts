@@ -176,6 +176,28 @@ describe('NetCDF-4 metadata read in JavaScript', () => {
     expect(netcdf4MetadataFallback(f)).toBeUndefined();
   });
 
+  it('a flipped bit in a fractal heap, a version 2 B-tree header or leaf, or an object header continuation block of a python3-netcdf4 file makes the reader decline, naming the checksum that does not match', async () => {
+    const src = fixturePath('netcdf4-variety', 'many-attrs.nc');
+    const base = readFileSync(src);
+    const cases: Array<[string, RegExp]> = [
+      ['FRHP', /fractal heap header checksum/],
+      ['BTHD', /version 2 B-tree header checksum/],
+      ['BTLF', /version 2 B-tree leaf checksum/],
+      ['OCHK', /continuation block at byte \d+ does not match/],
+    ];
+    for (const [sig, reason] of cases) {
+      const at = base.indexOf(sig);
+      expect(at, sig).toBeGreaterThan(0);
+      const b = Buffer.from(base);
+      // A byte inside the structure, after its signature and version.
+      b[at + 6] ^= 0x10;
+      const f = join(dir, `damaged-${sig}.nc`);
+      writeFileSync(f, b);
+      const js = await describeHdf5Js(f, b.length);
+      expect('declined' in js && js.declined, sig).toMatch(reason);
+    }
+  });
+
   it(
     "400 copies of a python3-netcdf4 file with a flipped bit in their metadata are each described or declined with a reason, never a throw, and a description kept is the library's",
     { timeout: 300_000 },
