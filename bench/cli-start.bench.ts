@@ -40,9 +40,9 @@ interface Timed {
   stdout: string;
 }
 
-function once(cmd: string, args: string[], t: Timed): void {
+function once(cmd: string, args: string[], t: Timed, env?: Record<string, string>): void {
   const t0 = performance.now();
-  const r = spawnSync(cmd, args, { encoding: 'utf8', maxBuffer: 1 << 26 });
+  const r = spawnSync(cmd, args, { encoding: 'utf8', maxBuffer: 1 << 26, env: env ? { ...process.env, ...env } : process.env });
   const ms = performance.now() - t0;
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed (${r.status}): ${r.stderr}`);
   t.ms.push(ms);
@@ -66,7 +66,7 @@ export const bench: Bench = {
     const [netcdf4] = benchInputs('netcdf4', [2021]);
     const reference = spawnSync(PYTHON, ['-c', 'import netCDF4, numpy'], { encoding: 'utf8' }).status === 0;
 
-    const runs: Record<string, [string, string[]]> = {
+    const runs: Record<string, [string, string[]] | [string, string[], Record<string, string>]> = {
       node: [process.execPath, ['-e', '0']],
       help: [process.execPath, [COMPILED, '--help']],
       helpTs: [process.execPath, [SOURCES, '--help']],
@@ -74,12 +74,14 @@ export const bench: Bench = {
       classicTs: [process.execPath, [SOURCES, 'inspect', '--json', classic]],
       netcdf4: [process.execPath, [COMPILED, 'inspect', '--json', netcdf4]],
       netcdf4Ts: [process.execPath, [SOURCES, 'inspect', '--json', netcdf4]],
+      // The same with the metadata described by the HDF5 library in its worker, as before the JavaScript reader.
+      netcdf4Library: [process.execPath, [COMPILED, 'inspect', '--json', netcdf4], { HEATHOURS_NETCDF4_JSMETA: '0' }],
       ...(reference
         ? { classicRef: [PYTHON, ['-c', REFERENCE, classic]] as [string, string[]], netcdf4Ref: [PYTHON, ['-c', REFERENCE, netcdf4]] as [string, string[]] }
         : {}),
     };
     const t: Record<string, Timed> = Object.fromEntries(Object.keys(runs).map((k) => [k, { ms: [], stdout: '' }]));
-    for (let round = 0; round < RUNS; round++) for (const [k, [cmd, args]] of Object.entries(runs)) once(cmd, args, t[k]);
+    for (let round = 0; round < RUNS; round++) for (const [k, [cmd, args, env]] of Object.entries(runs)) once(cmd, args, t[k], env);
     const m = (k: string) => median(t[k].ms);
 
     const timing = `median of ${RUNS} whole-process runs each, commands interleaved round by round; wall clock on a shared 2-core machine (compare the ratios, measured in the same run)`;
@@ -113,6 +115,12 @@ export const bench: Bench = {
         timing,
         checksum: `t2m mean ${t2m.mean?.toFixed(4)}, ${t2m.fillCount} missing`,
       };
+      if (kind === 'netcdf4') {
+        fig.metadataByLibraryMs = r0(m('netcdf4Library'));
+        fig.metadataByLibrary = 'HEATHOURS_NETCDF4_JSMETA=0: the metadata described by HDF5 (h5wasm) in its worker';
+        fig.sameOutputWithLibrary = t.netcdf4Library.stdout === t.netcdf4.stdout;
+        if (reference) fig.ratioLibraryToNetcdfC = r2(m('netcdf4Library') / m('netcdf4Ref'));
+      }
       if (reference) {
         const ref = t[`${kind}Ref`].stdout
           .split('\n')

@@ -8,6 +8,7 @@ import { closeSync, existsSync, openSync, readdirSync, readSync, statSync } from
 import { join } from 'node:path';
 import { startProgress } from '../model/progress.ts';
 import { UsageError } from '../model/errors.ts';
+import { hasHdf5Signature } from '../read/hdf5-struct.ts';
 
 function fmt(x: number | null): string {
   if (x === null) return '-';
@@ -68,16 +69,13 @@ function isHdf5File(path: string): boolean {
   try {
     fd = openSync(path, 'r');
     const head = Buffer.alloc(8);
-    return readSync(fd, head, 0, 8, 0) === 8 && head.equals(HDF5_SIGNATURE);
+    return readSync(fd, head, 0, 8, 0) === 8 && hasHdf5Signature(head);
   } catch {
     return false; // not a local file: the readers say what it is
   } finally {
     if (fd !== undefined) closeSync(fd);
   }
 }
-
-/** The 8 bytes an HDF5 file starts with (HDF5 File Format Specification §II.A, format signature). */
-const HDF5_SIGNATURE = Buffer.from([0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a]);
 
 export function register(program: Command): void {
   program
@@ -111,8 +109,10 @@ export function register(program: Command): void {
         process.stdout.write(opts.json ? `${JSON.stringify(r)}\n` : `${formatCoverage(r)}\n`);
         return;
       }
-      // NetCDF-4 among the files: the HDF5 metadata worker starts while the readers load.
-      if (files.some(isHdf5File)) (await import('../read/hdf5-meta.ts')).startHdf5Metadata();
+      // NetCDF-4 files are described in JavaScript (hdf5-js-describe.ts), the HDF5 library's
+      // worker started only for a file that reader declines. When it is turned off
+      // (HEATHOURS_NETCDF4_JSMETA=0), the worker starts while the readers load.
+      if (process.env.HEATHOURS_NETCDF4_JSMETA === '0' && files.some(isHdf5File)) (await import('../read/hdf5-meta.ts')).startHdf5Metadata();
       const { inspectFile } = await import('../read/index.ts');
       const progress = startProgress('inspect', files.length, { quiet: files.length < 3 || opts.json === true, unit: 'files' });
       for (const f of files) {

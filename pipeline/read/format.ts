@@ -6,15 +6,13 @@
  */
 import { open, stat } from 'node:fs/promises';
 import { NetcdfCdf5Unsupported, NetcdfFileEmpty, NetcdfFileNotFound, NetcdfFileTruncated, NetcdfGribFile, NetcdfUnknownFormat } from './errors.ts';
+import { hasHdf5Signature } from './hdf5-struct.ts';
 
 /** File formats the reader can open (names as in pipeline/read/inventory-types.ts). */
 export type NetcdfFormat = 'netcdf3-classic' | 'netcdf3-64bit-offset' | 'netcdf4';
 
 /** What an input is read as: a NetCDF format, or a Zarr store (zarr-store.ts). */
 export type InputFormat = NetcdfFormat | 'zarr';
-
-/** HDF5 format signature: \x89 H D F \r \n \x1a \n. */
-const HDF5_SIGNATURE = [0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a];
 
 /** Classifies the first bytes of a file; `path` names the file in errors. */
 export function formatFromMagic(head: Uint8Array, path: string): NetcdfFormat {
@@ -26,7 +24,7 @@ export function formatFromMagic(head: Uint8Array, path: string): NetcdfFormat {
     if (c(3) === 2) return 'netcdf3-64bit-offset';
     if (c(3) === 5) throw NetcdfCdf5Unsupported({ path }, { file: path });
   }
-  if (HDF5_SIGNATURE.every((b, i) => c(i) === b)) return 'netcdf4';
+  if (hasHdf5Signature(head)) return 'netcdf4';
   if (c(0) === 0x47 && c(1) === 0x52 && c(2) === 0x49 && c(3) === 0x42) throw NetcdfGribFile({ path }, { file: path });
   const magic = [...head.subarray(0, 8)].map((b) => (b >= 0x20 && b < 0x7f ? String.fromCharCode(b) : `\\x${b.toString(16).padStart(2, '0')}`)).join('');
   throw NetcdfUnknownFormat({ path, magic }, { file: path });

@@ -26,6 +26,7 @@ let stopped = '';
 import { NetcdfFileTruncated, NetcdfReadFailed } from './errors.ts';
 import { LITTLE_ENDIAN_HOST, readRawSlab } from './hdf5-chunks.ts';
 import { RawLayoutRefused, readChunkIndex, superblockSizes, type ChunkIndex, type Hdf5Sizes } from './hdf5-layout.ts';
+import { superblockEndOfFile } from './hdf5-struct.ts';
 import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
 import type { Hdf5Variable } from './hdf5-describe.ts';
 import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
@@ -44,6 +45,12 @@ const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: 
   double: Float64Array,
 };
 
+/** 64-bit integer arrays, read from the raw chunks and handed out as doubles (as the library path does). */
+const WIDE: Partial<Record<RawType, new (b: ArrayBuffer, o: number, n: number) => BigInt64Array | BigUint64Array>> = {
+  int64: BigInt64Array,
+  uint64: BigUint64Array,
+};
+
 let ready: Promise<unknown> | undefined;
 
 /**
@@ -60,21 +67,7 @@ export function hdf5StoppedIn(): string {
  * §II.A "Disk Format: Level 0A - Format Signature and Superblock", versions 0-3), or null.
  */
 export function hdf5EndOfFileAddress(head: Uint8Array): number | null {
-  if (head.length < 16) return null;
-  const version = head[8];
-  const view = new DataView(head.buffer, head.byteOffset, head.byteLength);
-  let sizeOfOffsets: number;
-  let at: number;
-  if (version === 0 || version === 1) {
-    sizeOfOffsets = head[13];
-    at = (version === 0 ? 24 : 28) + 2 * sizeOfOffsets;
-  } else if (version === 2 || version === 3) {
-    sizeOfOffsets = head[9];
-    at = 12 + 2 * sizeOfOffsets;
-  } else return null;
-  if (sizeOfOffsets !== 8 && sizeOfOffsets !== 4) return null;
-  if (head.length < at + sizeOfOffsets) return null;
-  return sizeOfOffsets === 8 ? Number(view.getBigUint64(at, true)) : view.getUint32(at, true);
+  return superblockEndOfFile(head);
 }
 
 /** Opens a NetCDF-4 file whose size [bytes] is known; rejects truncated and non-NetCDF HDF5. */
@@ -99,6 +92,11 @@ export async function openHdf5File(path: string, bytes: number): Promise<SourceF
     throw NetcdfFileTruncated({ path, bytes, expected: eof, detail: 'the HDF5 superblock records a longer file' }, { file: path });
   const d = await describeNetcdf4(path);
   return buildHdf5File(path, bytes, d, sizes);
+}
+
+/** Whether h5wasm has been asked for in this thread (tests: a file described and read in JavaScript never loads it). */
+export function hdf5LibraryLoaded(): boolean {
+  return ready !== undefined;
 }
 
 /** Loads h5wasm in this thread (once). */
@@ -167,14 +165,13 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
   // The HDF5 library opens the file only when a variable needs it (a layout or filter the raw
   // chunk reader leaves to it, a scalar, chunks never written): a file whose variables are all
   // read from their raw chunks never loads h5wasm in this thread (~0.3 s and its heap).
-  let f: H5File | undefined;
-  const library = async (): Promise<H5File> => {
-    if (!f) {
+  // One promise, as the file handle below: reads that start side by side open the file once.
+  let f: Promise<H5File> | undefined;
+  const library = (): Promise<H5File> =>
+    (f ??= (async () => {
       await loadHdf5Library();
-      f = h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
-    }
-    return f;
-  };
+      return h5call(path, 'opening it', () => new h5wasm.File(path, 'r'));
+    })());
   const datasets = new Map<SourceVariable, H5Dataset>();
   const dsOf = (file: H5File, v: SourceVariable): H5Dataset => {
     let ds = datasets.get(v);
@@ -264,7 +261,8 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
         if (libraryOnly) return 'HDF5 library: HEATHOURS_NETCDF4_RAW=0';
         if (typeof sizes === 'string') return `HDF5 library: ${sizes}`;
         if (!LITTLE_ENDIAN_HOST) return 'HDF5 library: a big-endian machine';
-        if (!hv.plain || !HEAP_VIEW[v.type]) return `HDF5 library: values of type ${v.type} that are not plain little-endian numbers`;
+        if (!(hv.plain && HEAP_VIEW[v.type]) && !(WIDE[v.type] && hv.valueBytes === 8))
+          return `HDF5 library: values of type ${v.type} that are not plain little-endian numbers`;
         if (hv.header === null) return 'HDF5 library: no object header address';
         try {
           return await readChunkIndex(readAt, sizes, hv.header, v.shape, hv.valueBytes, bytes);
@@ -283,16 +281,29 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
    * caller keeps it, and reads may run side by side), or null (the HDF5 library reads it).
    */
   async function readRaw(v: SourceVariable, off: number[], cnt: number[], fresh = false): Promise<RawArray | null> {
-    if (v.shape.length === 0) return null;
     const idx = await indexOf(v);
     if (typeof idx === 'string') return null;
-    const View = HEAP_VIEW[v.type]!;
+    // 64-bit integers (ERA5's `valid_time`, `number`) become doubles, as the library path gives them.
+    const wide = WIDE[v.type];
+    const View = HEAP_VIEW[v.type];
+    const typed = (buf: ArrayBuffer, n: number): RawArray =>
+      wide ? Float64Array.from(new wide(buf, 0, n), (x) => Number(x)) : new (View as NonNullable<typeof View>)(buf, 0, n);
+    if (v.shape.length === 0) {
+      // A scalar: one value at the address of its contiguous or compact storage.
+      if (!idx.contiguous || idx.address[0] < 0) return null;
+      const b = await readAt(idx.address[0], idx.elementBytes);
+      if (b.length < idx.elementBytes) return null;
+      const one = new ArrayBuffer(idx.elementBytes);
+      new Uint8Array(one).set(b);
+      return typed(one, 1);
+    }
     const nbytes = product(cnt) * idx.elementBytes;
-    if (!fresh && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
-    const buf = fresh ? new ArrayBuffer(nbytes) : rawBuf;
+    const own = fresh || wide !== undefined;
+    if (!own && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
+    const buf = own ? new ArrayBuffer(nbytes) : rawBuf;
     const out = new Uint8Array(buf, 0, nbytes);
     const ok = await readRawSlab({ fh: await handle(), path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
-    return ok ? new View(buf, 0, nbytes / idx.elementBytes) : null;
+    return ok ? typed(buf, nbytes / idx.elementBytes) : null;
   }
 
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
@@ -355,7 +366,8 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
       carry.clear();
       const file = f;
       f = undefined;
-      if (file && !stopped) quietly(() => file.close());
+      const opened = file ? await file.catch(() => undefined) : undefined;
+      if (opened && !stopped) quietly(() => opened.close());
     },
   };
 }

@@ -15,15 +15,13 @@
  * for long or allocate much.
  */
 
+import { lookup3 } from './hdf5-checksum.ts';
+import { addr, le, refuse, RawLayoutRefused, superblockSizes, type Hdf5Sizes } from './hdf5-struct.ts';
+
+export { RawLayoutRefused, superblockSizes, type Hdf5Sizes };
+
 /** Reads `length` bytes at file offset `at` [bytes]; fewer only at the end of the file. */
 export type ReadAt = (at: number, length: number) => Promise<Uint8Array>;
-
-/** Why a variable's chunks are not read directly (the caller falls back to the HDF5 library). */
-export class RawLayoutRefused extends Error {}
-
-const refuse = (why: string): never => {
-  throw new RawLayoutRefused(why);
-};
 
 /** HDF5 filter ids (H5Zpublic.h; Format Specification §IV.A.2.l). */
 export const FILTER_DEFLATE = 1;
@@ -55,13 +53,6 @@ export interface ChunkIndex {
   contiguous?: true;
 }
 
-/** Sizes of file addresses and lengths, and the base all addresses are relative to [bytes]. */
-export interface Hdf5Sizes {
-  offsets: number;
-  lengths: number;
-  base: number;
-}
-
 /** Most chunks one variable's index may list (keeps a damaged count from allocating much). */
 const MAX_CHUNKS = 1 << 24;
 /** Largest chunk read directly [bytes] (HDF5 itself limits a chunk to 4 GiB). */
@@ -69,51 +60,21 @@ const MAX_CHUNK_BYTES = 1 << 30;
 /** Most object header continuation blocks followed. */
 const MAX_CONTINUATIONS = 64;
 
-function le(b: Uint8Array, at: number, n: number): number {
-  if (at + n > b.length) refuse(`structure cut short (wanted ${n} bytes at ${at} of ${b.length})`);
-  let x = 0;
-  for (let i = n - 1; i >= 0; i--) x = x * 256 + b[at + i];
-  return x;
-}
-
-/** An address field, or -1 for the undefined address (all bits set, Format Specification §I). */
-function addr(b: Uint8Array, at: number, n: number): number {
-  let all = true;
-  for (let i = 0; i < n; i++) if (b[at + i] !== 0xff) all = false;
-  if (all && at + n <= b.length) return -1;
-  const x = le(b, at, n);
-  if (!Number.isSafeInteger(x)) refuse('an address beyond 2^53 bytes');
-  return x;
-}
-
-/** Superblock fields this reader needs (Format Specification §II.A, versions 0-3, at offset 0). */
-export function superblockSizes(head: Uint8Array): Hdf5Sizes {
-  const sig = [0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a];
-  for (let i = 0; i < 8; i++) if (head[i] !== sig[i]) refuse('no HDF5 superblock at byte 0');
-  const version = head[8];
-  let offsets: number;
-  let lengths: number;
-  let baseAt: number;
-  if (version === 0 || version === 1) {
-    offsets = head[13];
-    lengths = head[14];
-    baseAt = version === 0 ? 24 : 28;
-  } else if (version === 2 || version === 3) {
-    offsets = head[9];
-    lengths = head[10];
-    baseAt = 12;
-  } else return refuse(`superblock version ${version}`);
-  if ((offsets !== 4 && offsets !== 8) || (lengths !== 4 && lengths !== 8)) refuse(`sizes of offsets ${offsets} and lengths ${lengths}`);
-  const base = addr(head, baseAt, offsets);
-  if (base !== 0) refuse(`base address ${base} (a user block)`);
-  return { offsets, lengths, base };
-}
-
-/** One header message: its type and data. */
-interface Message {
+/** One header message: its type, flags (§IV.A.1.a: bit 1 shared), data and creation order (version 2 headers that track it). */
+export interface Message {
   type: number;
   flags: number;
   data: Uint8Array;
+  /** Where the data lie in the file [bytes]. */
+  at: number;
+  order?: number;
+}
+
+/** An object header's messages and its flags (§IV.A.1.b; 0 for a version 1 header). */
+export interface ObjectHeader {
+  version: 1 | 2;
+  flags: number;
+  messages: Message[];
 }
 
 async function readExact(read: ReadAt, at: number, n: number, what: string): Promise<Uint8Array> {
@@ -125,6 +86,15 @@ async function readExact(read: ReadAt, at: number, n: number, what: string): Pro
 
 /** The messages of an object header, continuation blocks followed (§IV.A.1.a version 1, §IV.A.1.b version 2). */
 export async function objectHeaderMessages(read: ReadAt, at: number, s: Hdf5Sizes): Promise<Message[]> {
+  return (await readObjectHeader(read, at, s)).messages;
+}
+
+/**
+ * Reads an object header (§IV.A.1.a version 1, §IV.A.1.b version 2), following its continuation
+ * messages (type 0x0010, §IV.A.2.q) up to {@link MAX_CONTINUATIONS} blocks; a version 2 header's
+ * first block and every continuation block ("OCHK") must match their lookup3 checksums.
+ */
+export async function readObjectHeader(read: ReadAt, at: number, s: Hdf5Sizes): Promise<ObjectHeader> {
   const head = await readExact(read, at, 16, 'object header');
   const out: Message[] = [];
   const blocks: Array<{ at: number; length: number }> = [];
@@ -138,13 +108,17 @@ export async function objectHeaderMessages(read: ReadAt, at: number, s: Hdf5Size
     v2 = true;
     if (head[4] !== 2) refuse(`object header version ${head[4]}`);
     flags = head[5];
+    if (flags & 0xc0) refuse(`object header flags ${flags} with reserved bits set`);
     let p = 6;
     if (flags & 0x20) p += 16;
     if (flags & 0x10) p += 4;
     const sizeBytes = 1 << (flags & 3);
     const pre = await readExact(read, at, p + sizeBytes, 'object header');
     const size = le(pre, p, sizeBytes);
-    // Messages start after the size field; the block ends with a 4-byte checksum.
+    // Messages start after the size field; the block ends with a 4-byte checksum of everything before it.
+    const whole = await readExact(read, at, p + sizeBytes + size + 4, 'object header');
+    if (lookup3(whole.subarray(0, p + sizeBytes + size)) !== le(whole, p + sizeBytes + size, 4))
+      refuse(`the object header checksum at byte ${at} does not match`);
     blocks.push({ at: at + p + sizeBytes, length: size });
   } else refuse(`object header version ${head[0]}`);
   for (let k = 0; k < blocks.length; k++) {
@@ -155,19 +129,24 @@ export async function objectHeaderMessages(read: ReadAt, at: number, s: Hdf5Size
     let end = length;
     if (v2 && k > 0) {
       if (!(b[0] === 0x4f && b[1] === 0x43 && b[2] === 0x48 && b[3] === 0x4b)) refuse('an object header continuation block without its OCHK signature');
+      if (length < 8 || lookup3(b.subarray(0, length - 4)) !== le(b, length - 4, 4))
+        refuse(`the checksum of the continuation block at byte ${bAt} does not match`);
       p = 4;
       end = length - 4;
     }
     // A version 2 header's first block holds messages up to its checksum, which follows the block.
-    const headerBytes = v2 ? 4 + (flags & 0x04 ? 2 : 0) : 8;
+    const tracked = v2 && (flags & 0x04) !== 0;
+    const headerBytes = v2 ? 4 + (tracked ? 2 : 0) : 8;
     while (p + headerBytes <= end) {
       let type: number;
       let size: number;
       let mflags: number;
+      let order: number | undefined;
       if (v2) {
         type = b[p];
         size = le(b, p + 1, 2);
         mflags = b[p + 3];
+        if (tracked) order = le(b, p + 4, 2);
       } else {
         type = le(b, p, 2);
         size = le(b, p + 2, 2);
@@ -178,12 +157,12 @@ export async function objectHeaderMessages(read: ReadAt, at: number, s: Hdf5Size
       const data = b.subarray(d0, d0 + size);
       if (type === 0x10) {
         blocks.push({ at: addr(data, 0, s.offsets), length: le(data, s.offsets, s.lengths) });
-      } else out.push({ type, flags: mflags, data });
+      } else out.push(order === undefined ? { type, flags: mflags, data, at: bAt + d0 } : { type, flags: mflags, data, at: bAt + d0, order });
       p = d0 + size;
       if (!v2) p = (p + 7) & ~7;
     }
   }
-  return out;
+  return { version: v2 ? 2 : 1, flags, messages: out };
 }
 
 /** The Filter Pipeline message (§IV.A.2.l, versions 1 and 2). */
@@ -214,16 +193,27 @@ export function parseFilters(d: Uint8Array): Hdf5Filter[] {
   return out;
 }
 
-/** A Data Layout message (§IV.A.2.i, version 3): chunked (B-tree address, chunk shape) or contiguous. */
-export type Hdf5Layout = { kind: 'chunked'; btree: number; dims: number[] } | { kind: 'contiguous'; address: number; size: number };
+/**
+ * A Data Layout message (§IV.A.2.i, version 3): chunked (B-tree address, chunk shape with the
+ * element size last), contiguous (address, size [bytes]) or compact (the values themselves).
+ */
+export type Hdf5Layout =
+  | { kind: 'chunked'; btree: number; dims: number[] }
+  | { kind: 'contiguous'; address: number; size: number }
+  | { kind: 'compact'; data: Uint8Array };
 
-/** Reads a Data Layout message, version 3: class 1 (contiguous) or 2 (chunked); others are refused. */
+/** Reads a Data Layout message, version 3: class 0 (compact), 1 (contiguous) or 2 (chunked); other versions are refused. */
 export function parseLayout(d: Uint8Array, s: Hdf5Sizes): Hdf5Layout {
   const version = d[0];
   if (version !== 3) refuse(`data layout version ${version} (version 4 chunk indexes are read by the HDF5 library)`);
+  if (d[1] === 0) {
+    const size = le(d, 2, 2);
+    if (4 + size > d.length) refuse(`compact data of ${size} bytes in a layout message of ${d.length}`);
+    return { kind: 'compact', data: d.subarray(4, 4 + size) };
+  }
   if (d[1] === 1) return { kind: 'contiguous', address: addr(d, 2, s.offsets), size: le(d, 2 + s.offsets, s.lengths) };
-  if (d[1] !== 2) refuse(`data layout class ${d[1]} (neither contiguous nor chunked)`);
-  const ndims = d[2];
+  if (d[1] !== 2) refuse(`data layout class ${d[1]} (neither compact, contiguous nor chunked)`);
+  const ndims = le(d, 2, 1);
   if (ndims < 1 || ndims > 33) refuse(`chunk dimensionality ${ndims}`);
   const btree = addr(d, 3, s.offsets);
   const dims: number[] = [];
@@ -235,11 +225,11 @@ export function parseLayout(d: Uint8Array, s: Hdf5Sizes): Hdf5Layout {
 const MAX_CONTIGUOUS_BYTES = 1 << 24;
 
 /**
- * A contiguous variable as an index of one unfiltered chunk that spans the whole variable
- * (the address -1 when HDF5 never wrote it: all fill values).
+ * A contiguous (or compact) variable as an index of one unfiltered chunk that spans the whole
+ * variable (the address -1 when HDF5 never wrote it: all fill values); a scalar is one value.
  */
 function contiguousIndex(l: { address: number; size: number }, shape: number[], elementBytes: number, fileBytes: number): ChunkIndex {
-  if (shape.length === 0 || shape.some((n) => n < 1)) refuse('a contiguous variable without values along every dimension');
+  if (shape.some((n) => n < 1)) refuse('a contiguous variable without values along every dimension');
   const bytes = shape.reduce((a, b) => a * b, elementBytes);
   if (bytes > MAX_CONTIGUOUS_BYTES) refuse(`a contiguous variable of ${bytes} bytes`);
   if (l.address !== -1 && l.size !== bytes) refuse(`contiguous storage of ${l.size} bytes for ${bytes} bytes of values`);
@@ -269,13 +259,21 @@ export async function readChunkIndex(
   fileBytes: number,
 ): Promise<ChunkIndex> {
   const messages = await objectHeaderMessages(read, header, s);
+  const rank = shape.length;
   const layoutMsg = messages.find((m) => m.type === 0x0008);
   if (!layoutMsg) return refuse('no data layout message');
   if (layoutMsg.flags & 0x02) refuse('a shared data layout message');
+  // Values must be little-endian numbers (Datatype message, §IV.A.2.d: bit 0 of the class bit field).
+  const typeMsg = messages.find((m) => m.type === 0x0003);
+  if (!typeMsg || typeMsg.flags & 0x02) refuse('no datatype message of its own');
+  const cls = le((typeMsg as Message).data, 0, 1) & 0x0f;
+  if ((cls === 0 || cls === 1) && le((typeMsg as Message).data, 1, 1) & 0x41) refuse('big-endian values');
   const layout = parseLayout(layoutMsg.data, s);
+  // Compact storage: the values are the layout message's own bytes (after version, class and size).
+  if (layout.kind === 'compact') return contiguousIndex({ address: layoutMsg.at + 4, size: layout.data.length }, shape, elementBytes, fileBytes);
   if (layout.kind === 'contiguous') return contiguousIndex(layout, shape, elementBytes, fileBytes);
+  if (rank === 0) refuse('a chunked scalar');
   const { btree, dims } = layout;
-  const rank = shape.length;
   if (dims.length !== rank + 1) refuse(`chunks of rank ${dims.length - 1} for a variable of rank ${rank}`);
   if (dims[rank] !== elementBytes) refuse(`chunk element size ${dims[rank]} for values of ${elementBytes} bytes`);
   const chunk = dims.slice(0, rank);

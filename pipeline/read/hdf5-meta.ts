@@ -11,6 +11,7 @@ import type { Worker } from 'node:worker_threads';
 import { startWorker } from '../infra/worker-pool.ts';
 import { NetcdfNotNetcdf4, NetcdfReadFailed, NetcdfReadStuck } from './errors.ts';
 import type { Hdf5Description } from './hdf5-describe.ts';
+import { describeHdf5Js, jsMetaOff } from './hdf5-js-describe.ts';
 import type { MetaAnswer, MetaQuery } from './hdf5-meta-worker.ts';
 
 /**
@@ -43,7 +44,16 @@ let nextId = 1;
 /** Requests waiting for an answer; `'lost'` when their worker died on another request. */
 const pending = new Map<number, (a: MetaAnswer | 'lost') => void>();
 
+/** Metadata workers started in this process (tests: a file the JavaScript reader describes starts none). */
+let started = 0;
+
+/** How many metadata workers this process has started. */
+export function hdf5MetadataWorkersStarted(): number {
+  return started;
+}
+
 function start(): { w: Worker; ready: Promise<void> } {
+  started++;
   const w = startWorker('hdf5-meta');
   const ready = new Promise<void>((resolve, reject) => {
     w.on('message', (m: MetaAnswer | { ready: true }) => {
@@ -160,9 +170,36 @@ async function ask(req: MetaQuery, what: string): Promise<unknown> {
   return answer.result;
 }
 
-/** Describes a NetCDF-4 file (dimensions, variables, attributes); refuses HDF5 that is not NetCDF-4. */
+/** Why the last description of each file was left to the HDF5 library (tests and benchmarks; bounded like {@link stuck}). */
+const declinedWhy = new Map<string, string>();
+
+/** Why the JavaScript reader left the file at `path` to the HDF5 library when it was last described, or undefined when it described it. */
+export function netcdf4MetadataFallback(path: string): string | undefined {
+  return declinedWhy.get(path);
+}
+
+/**
+ * Describes a NetCDF-4 file (dimensions, variables, attributes); refuses HDF5 that is not
+ * NetCDF-4. The JavaScript reader (hdf5-js-describe.ts) tries first; the metadata worker, and so
+ * HDF5's WebAssembly, starts only for a file it declines (or with HEATHOURS_NETCDF4_JSMETA=0).
+ */
 export async function describeNetcdf4(path: string): Promise<Hdf5Description> {
-  const d = (await ask({ op: 'describe', path }, 'reading the metadata')) as Hdf5Description;
+  let d: Hdf5Description | undefined;
+  declinedWhy.delete(path);
+  if (!jsMetaOff()) {
+    let bytes: number | undefined;
+    try {
+      bytes = statSync(path).size;
+    } catch {
+      // gone: the worker's own open says why
+    }
+    const js = bytes === undefined ? { declined: 'the file could not be read' } : await describeHdf5Js(path, bytes);
+    if ('declined' in js) {
+      declinedWhy.set(path, js.declined);
+      if (declinedWhy.size > STUCK_KEPT) declinedWhy.delete(declinedWhy.keys().next().value as string);
+    } else d = js;
+  } else declinedWhy.set(path, 'HEATHOURS_NETCDF4_JSMETA=0');
+  d ??= (await ask({ op: 'describe', path }, 'reading the metadata')) as Hdf5Description;
   if (!d.netcdf) throw NetcdfNotNetcdf4({ path }, { file: path });
   return d;
 }
