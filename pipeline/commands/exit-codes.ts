@@ -100,6 +100,7 @@ export const USAGE_ERRORS: readonly string[] = [
 
 /** Catalogued errors that exit with {@link EXIT.data}. */
 export const DATA_ERRORS: readonly string[] = [
+  'RegionWriteFailed',
   'NetcdfFileNotFound',
   'NetcdfFileEmpty',
   'NetcdfFileTruncated',

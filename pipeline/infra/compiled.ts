@@ -21,6 +21,7 @@ export const WORKER_ENTRIES = {
   'hdf5-meta': 'read/hdf5-meta-worker',
   digest: 'read/digest-worker',
   'site-digest': 'run/site-digest-worker',
+  region: 'run/region-worker',
 } as const;
 
 export type WorkerName = keyof typeof WORKER_ENTRIES;

@@ -60,6 +60,8 @@ export interface BuildAtlasOptions {
   assembleDir?: string;
   /** Hours a built year may miss per variable before the coverage check stops the build [h]; default 0. */
   maxMissingHours?: number;
+  /** Fewest regions the region stage runs on the worker threads (default REGION_POOL_MIN; tests lower it). */
+  regionPoolMin?: number;
 }
 
 export interface BuildReport {
@@ -202,7 +204,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         mergeSeconds = merged.seconds;
       }
       for (let vi = 0; vi < plan.variants.length; vi++)
-        await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet);
+        await regionStage(plan, plan.variants[vi], tiles[vi], join(dataDir, plan.variants[vi].dataPath), generated, log, o.quiet, jobs, o.regionPoolMin);
       await publishStage({
         plan,
         tiles,

@@ -105,3 +105,11 @@ export const MergeSliceInvalid = defineError<{ text: string }>({
   hint: () =>
     'pass the merge slice as K/N with --merge DIR, e.g. --merge /shared/partials --tile 1/4 … --tile 4/4; with a Slurm array use --tile "${SLURM_ARRAY_TASK_ID}/N"',
 });
+
+export const RegionWriteFailed = defineError<{ region: string; dataDir: string; detail: string }>({
+  code: 'RegionWriteFailed',
+  title: "A region's files could not be made",
+  message: (p) => `region ${p.region}: its table, summary or calculator tile in ${p.dataDir} could not be made: ${p.detail}`,
+  hint: () =>
+    'the build stopped and published nothing; check the merged band files of the build and the free space of the output folder, then run the build again',
+});
