@@ -3,10 +3,9 @@
  * configuration digest, build time) and every artefact it published with its path, kind, units
  * and digest. The site and users read it to find and trust the files.
  */
-import { createHash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
 import { readdir, stat } from 'node:fs/promises';
 import { join, relative } from 'node:path';
+import { sha256OfFile } from '../model/file-sha256.ts';
 import type { InventoryFile } from '../read/inventory-types.ts';
 import type { LayerEntry } from './atlas-layers.ts';
 
@@ -104,12 +103,8 @@ export const STATISTIC_RULES: Record<string, string> = {
     'two-sided Mann-Kendall p-value of that trend (Mann 1945, Kendall 1975; normal approximation with the tie correction); empty with fewer than 15 years',
 };
 
-/** SHA-256 of a file [hex], streamed (a large file is never held in memory). */
-export async function sha256OfFile(path: string): Promise<string> {
-  const h = createHash('sha256');
-  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) h.update(chunk as Buffer);
-  return h.digest('hex');
-}
+/** SHA-256 of a file [hex] (pipeline/model/file-sha256.ts). */
+export { sha256OfFile };
 
 /** Lists every file under `root/data` as artefacts, with kinds guessed from the path. */
 export async function listArtefacts(

@@ -3,8 +3,7 @@
  * stamps, its ERA5 variables with their decoding plans (packing and mask of this file, unit
  * conversion into canonical units), and how its expver labels rank (final ERA5 before ERA5T).
  */
-import { createReadStream } from 'node:fs';
-import { createHash } from 'node:crypto';
+import { sha256OfFile } from '../model/file-sha256.ts';
 import { attrText } from './attrs.ts';
 import { maskSpecOf } from './cf-mask.ts';
 import { scaleOffsetOf } from './cf-scale.ts';
@@ -58,9 +57,7 @@ export interface AnalysedFile {
 
 /** SHA-256 of a file's bytes, hex, streamed. */
 export async function sha256File(path: string): Promise<string> {
-  const h = createHash('sha256');
-  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) h.update(chunk as Buffer);
-  return h.digest('hex');
+  return sha256OfFile(path);
 }
 
 /** Rank of an expver label: 1 / "0001" is final ERA5 (0), 5 / "0005" is ERA5T (1), others 2. */
