@@ -13,25 +13,8 @@ import { siteDataDir } from './data-dir.ts';
 import { SiteDataInvalid, SiteDataMissing, SiteDataUnreadable } from './errors.ts';
 import { gatheredRows } from './site-digest.ts';
 
-/** One row of a region table. */
-export interface RegionTableRow {
-  /** `01`–`12` (month) or `year`. */
-  period: string;
-  figure: string;
-  workloadClass: string;
-  acclimatization: string;
-  exposure: string;
-  method: string;
-  statistic: string;
-  /** The value in `unit` [h or °C]; NaN when the table has none. */
-  value: number;
-  /** `h` or `degC`. */
-  unit: string;
-  /** Years behind the statistic [count]. */
-  yearsUsed: number;
-  /** `2021-2022` (baseline) or the latest year. */
-  baseline: string;
-}
+export type { RegionTableRow, RowFilter } from './region-row.ts';
+import type { RegionTableRow, RowFilter } from './region-row.ts';
 
 const PERIOD = /^(0[1-9]|1[0-2]|year)$/;
 
@@ -44,9 +27,6 @@ export function regionTablePath(dataDir: string, regionId: string, scenarioId?: 
 export function regionTableHref(regionId: string): string {
   return `data/regions/${regionId}.csv`;
 }
-
-/** Which rows to keep, decided from the period, figure and statistic alone (before the row is split). */
-export type RowFilter = (period: string, figure: string, statistic: string) => boolean;
 
 /** Start of field `k` (0-based) of `line`, or −1. */
 function fieldStart(line: string, k: number): number {

@@ -17,7 +17,7 @@ import { join } from 'node:path';
 import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST } from '../lib/report/region-figures.ts';
 import { WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
 import type { ManifestLayer } from './manifest-layers.ts';
-import type { RegionTableRow, RowFilter } from './region-table.ts';
+import type { RegionTableRow, RowFilter } from './region-row.ts';
 
 /** The environment variable naming the folder of the gathered rows and values. */
 export const SITE_DIGEST_ENV = 'HEATHOURS_SITE_DIGEST_DIR';

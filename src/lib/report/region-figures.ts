@@ -2,7 +2,7 @@
  * Looking up values in a region's tidy table (src/data/region-table.ts) by what they mean: figure,
  * period, workload class, acclimatization, exposure and statistic. Pure.
  */
-import type { RegionTableRow } from '../../data/region-table.ts';
+import type { RegionTableRow } from '../../data/region-row.ts';
 
 /** The figures the report shows (ids as in the manifest and the table's `figure` column). */
 export const FIGURE_HOURS_ABOVE = 'hours-above-limit-shift';
