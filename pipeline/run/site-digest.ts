@@ -4,11 +4,11 @@
  * the summary and the home page show, and each map layer's value per region. Pages would
  * otherwise read every region table three or four times (a report, its summary, the map's values
  * in every part of a site built in parts), about 0.5 MB of text each. Large atlases gather on the
- * build's worker threads, slices of {@link SLICE} regions at a time; memory holds one slice's
- * values per worker plus the values of every layer and region (the map's values files are that
- * large anyway).
+ * build's worker threads, slices of {@link SLICE} regions at a time. The layers' values are
+ * written as each slice comes back, at the slice's place in one binary file per layer, so memory
+ * holds at most {@link FLUSH_REGIONS} regions' values, whatever the number of regions.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { closeSync, mkdirSync, openSync, writeFileSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import { runInWorkers } from '../infra/worker-pool.ts';
 import { loadManifestLayers } from '../../src/data/manifest-layers.ts';
@@ -21,8 +21,21 @@ import { SITE_PARTS_MIN_REGIONS } from './site-parts.ts';
 /** Regions per task [count]. */
 const SLICE = 64;
 
+/** Regions whose layer values are held before they are written to the layers' files [count]. */
+const FLUSH_REGIONS = 1024;
+
+/** Sizes of the gathering (tests make them small, to cross slices and writes on a small atlas). */
+export interface GatherSizes {
+  /** Regions per task [count]; default {@link SLICE}. */
+  slice?: number;
+  /** Regions whose values are held before they are written [count]; default {@link FLUSH_REGIONS}. */
+  flushRegions?: number;
+}
+
 /** Gathers `dataDir`'s region tables into `digestDir` (see the file comment); `jobs` worker threads for large atlases. */
-export async function gatherSiteDigest(dataDir: string, digestDir: string, jobs: number, quiet?: boolean): Promise<void> {
+export async function gatherSiteDigest(dataDir: string, digestDir: string, jobs: number, quiet?: boolean, sizes: GatherSizes = {}): Promise<void> {
+  const slice = sizes.slice ?? SLICE;
+  const flushRegions = sizes.flushRegions ?? FLUSH_REGIONS;
   const manifest = loadManifestLayers(dataDir);
   // Without the atlas figures there are no region tables to read (an inventory-only folder).
   if (!manifest) return;
@@ -31,12 +44,47 @@ export async function gatherSiteDigest(dataDir: string, digestDir: string, jobs:
     { regionsDir: 'data/regions', layers: manifest.layers },
     ...(manifest.scenarios ?? []).map((sc) => ({ scenarioId: sc.id, regionsDir: `${sc.dataPath.replace(/\/$/, '')}/regions`, layers: sc.layers })),
   ];
-  // Each layer's value per region [units of the layer], NaN where none (null in the files).
-  const values = tables.map((t) => t.layers.map(() => new Float64Array(ids.length)));
+  // One file per layer: each region's value [units of the layer] as a float64 at 8 × its index, NaN where none.
+  const dir = join(digestDir, 'values');
+  mkdirSync(dir, { recursive: true });
+  const index: Record<string, string> = {};
+  const files = tables.map((t) => t.layers.map(() => ''));
+  let n = 0;
+  tables.forEach((t, ti) =>
+    t.layers.forEach((l, li) => {
+      const file = `${n++}.f64`;
+      writeFileSync(join(dir, file), new Uint8Array(0));
+      files[ti][li] = join(dir, file);
+      index[layerValuesKey(t.regionsDir, l.tif)] = file;
+    }),
+  );
   const slices: Array<{ from: number; ids: string[] }> = [];
-  for (let i = 0; i < ids.length; i += SLICE) slices.push({ from: i, ids: ids.slice(i, i + SLICE) });
-  const keep = (from: number, n: number, got: Float64Array[]) =>
-    got.forEach((v, ti) => values[ti].forEach((perRegion, li) => perRegion.set(v.subarray(li * n, (li + 1) * n), from)));
+  for (let i = 0; i < ids.length; i += slice) slices.push({ from: i, ids: ids.slice(i, i + slice) });
+  // Slices back from the workers, not yet written: [first region, regions, values per table].
+  let held: Array<{ from: number; n: number; got: Float64Array[] }> = [];
+  let heldRegions = 0;
+  const flush = () => {
+    files.forEach((perLayer, ti) =>
+      perLayer.forEach((path, li) => {
+        const fd = openSync(path, 'r+');
+        try {
+          for (const h of held) {
+            const v = h.got[ti].subarray(li * h.n, (li + 1) * h.n);
+            writeSync(fd, new Uint8Array(v.buffer, v.byteOffset, v.byteLength), 0, v.byteLength, h.from * 8);
+          }
+        } finally {
+          closeSync(fd);
+        }
+      }),
+    );
+    held = [];
+    heldRegions = 0;
+  };
+  const keep = (from: number, count: number, got: Float64Array[]) => {
+    held.push({ from, n: count, got });
+    heldRegions += count;
+    if (heldRegions >= flushRegions) flush();
+  };
   const progress = startProgress('site: region tables', ids.length, { quiet, unit: 'regions' });
   if (jobs > 1 && ids.length >= SITE_PARTS_MIN_REGIONS) {
     await runInWorkers<string[], Float64Array[]>(
@@ -58,18 +106,7 @@ export async function gatherSiteDigest(dataDir: string, digestDir: string, jobs:
       progress.tick(s.ids.length);
     }
   }
+  flush();
   progress.done();
-  // One small file per layer (no file built as one string of every layer), and their index.
-  const dir = join(digestDir, 'values');
-  mkdirSync(dir, { recursive: true });
-  const index: Record<string, string> = {};
-  let n = 0;
-  tables.forEach((t, ti) =>
-    t.layers.forEach((l, li) => {
-      const file = `${n++}.json`;
-      writeFileSync(join(dir, file), JSON.stringify(Array.from(values[ti][li], (v) => (Number.isNaN(v) ? null : v))));
-      index[layerValuesKey(t.regionsDir, l.tif)] = file;
-    }),
-  );
   writeFileSync(join(dir, 'index.json'), JSON.stringify(index));
 }

@@ -174,24 +174,31 @@ export function readRegionSummary(dataDir: string, regionsDir: string, id: strin
  */
 export function regionValuesReader(layers: readonly ManifestLayer[]): {
   statistics: ReadonlySet<string>;
+  /** Each layer's key in the table (`period|figure|class|acclimatization|exposure|method|statistic`), '' for a layer from the summary. */
+  keys: readonly string[];
   values: (table: Map<string, number>, summary: z.infer<typeof regionSummarySchema>) => Array<number | null>;
+  /** {@link values} from each layer's table value already looked up (`byLayer[li]`, NaN where none) [units of each layer]. */
+  valuesOf: (byLayer: Float64Array, summary: z.infer<typeof regionSummarySchema>) => Array<number | null>;
 } {
   const keys = layers.map((layer) => {
     if (layer.figure === 'mean-annual-temperature' || layer.figure === 'niche-class') return '';
     const cc = comboColumns(layer.figure, layer.combo);
     return key(layer.period, layer.figure, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, layer.statistic);
   });
+  const pick = (tableValue: (li: number) => number | undefined, summary: z.infer<typeof regionSummarySchema>) =>
+    layers.map((layer, li) => {
+      let v: number | null | undefined;
+      if (layer.figure === 'mean-annual-temperature') v = summary.niche.baselineMat;
+      else if (layer.figure === 'niche-class') {
+        const c = summary.niche.baselineClass;
+        v = c === null ? null : NICHE_CLASSES.indexOf(c);
+      } else v = tableValue(li);
+      return v === undefined || v === null || !Number.isFinite(v) ? null : v;
+    });
   return {
     statistics: new Set(layers.map((l) => l.statistic)),
-    values: (table, summary) =>
-      layers.map((layer, li) => {
-        let v: number | null | undefined;
-        if (layer.figure === 'mean-annual-temperature') v = summary.niche.baselineMat;
-        else if (layer.figure === 'niche-class') {
-          const c = summary.niche.baselineClass;
-          v = c === null ? null : NICHE_CLASSES.indexOf(c);
-        } else v = table.get(keys[li]);
-        return v === undefined || v === null || !Number.isFinite(v) ? null : v;
-      }),
+    keys,
+    values: (table, summary) => pick((li) => table.get(keys[li]), summary),
+    valuesOf: (byLayer, summary) => pick((li) => byLayer[li], summary),
   };
 }

@@ -7,8 +7,9 @@
  * - `rows/<table>/<region-id>.json`: the rows of the region's table (`<table>` is `record` or a
  *   scenario's id) that {@link DIGEST_KEEP} accepts, in the table's order, each as
  *   `[period, figure, class, acclimatization, exposure, method, statistic, value|null, unit, years_used, baseline]`;
- * - `values/index.json` and `values/<n>.json`: each map layer's value per region (in the order of
- *   regions.geojson), by the folder of the region tables and the layer's GeoTIFF path.
+ * - `values/index.json` and `values/<n>.f64`: each map layer's value per region, by the folder of
+ *   the region tables and the layer's GeoTIFF path: a float64 (this machine's byte order) per
+ *   region in the order of regions.geojson, NaN where none.
  * Unset (Astro's dev server, tests of a page's data alone), pages read the tables themselves; both
  * ways give the same rows and values (test/site/site-digest.test.ts).
  */
@@ -117,5 +118,9 @@ export function loadGatheredLayerValues(regionsDir: string, layers: readonly Man
   const index = JSON.parse(readFileSync(indexPath, 'utf8')) as Record<string, string>;
   const files = layers.map((l) => index[layerValuesKey(regionsDir, l.tif)]);
   if (files.some((f) => f === undefined)) return undefined;
-  return files.map((f) => JSON.parse(readFileSync(join(dir, 'values', f), 'utf8')) as Array<number | null>);
+  return files.map((f) => {
+    const bytes = readFileSync(join(dir, 'values', f));
+    const v = new Float64Array(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength));
+    return Array.from(v, (x) => (Number.isNaN(x) ? null : x));
+  });
 }

@@ -89,8 +89,12 @@ async function withDigest<T>(dir: string | undefined, fn: () => Promise<T>): Pro
 describe('the digest of the region tables', () => {
   it('gives the pages the same rows and values as the tables themselves (record, scenario, workforce)', async () => {
     const digestDir = join(work, 'digest');
-    await gatherSiteDigest(dataDir, digestDir, 2, true);
+    // Slices of 2 regions, values written every 3 regions: each layer's file is written in pieces.
+    await gatherSiteDigest(dataDir, digestDir, 2, true, { slice: 2, flushRegions: 3 });
     expect(existsSync(join(digestDir, 'values', 'index.json'))).toBe(true);
+    const regionCount = (JSON.parse(readFileSync(join(dataDir, 'data', 'regions.geojson'), 'utf8')) as { features: unknown[] }).features.length;
+    expect(regionCount).toBeGreaterThan(4);
+    expect(statSync(join(digestDir, 'values', '0.f64')).size).toBe(regionCount * 8);
     // Each load in a fresh module graph: the explorer's values are cached per data folder.
     const load = async () => {
       const { vi } = await import('vitest');
