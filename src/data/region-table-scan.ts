@@ -13,6 +13,7 @@
  * table with the careful readers, whose catalogued errors name the file and row; so both ways
  * give the same rows, values and errors.
  */
+import { isAscii } from 'node:buffer';
 import { REGION_TABLE_COLUMNS } from '../../pipeline/publish/region-table.ts';
 import type { RegionTableRow, RowFilter } from './region-row.ts';
 
@@ -113,6 +114,9 @@ export function scanRegionTable(buf: Buffer, length: number, regionId: string, k
   if (length < HEADER.length || buf.compare(HEADER, 0, HEADER.length, 0, HEADER.length) !== 0) return undefined;
   const id = Buffer.from(regionId, 'latin1');
   if (id.toString('latin1') !== regionId) return undefined;
+  // A quote, a carriage return or a byte past ASCII anywhere leaves the table to the careful readers.
+  const body = buf.subarray(0, length);
+  if (!isAscii(body) || body.indexOf(QUOTE) >= 0 || body.indexOf(CR) >= 0) return undefined;
   // One interner per text column (period, figure, class, acclimatization, exposure, method, statistic, unit, baseline).
   const col = Array.from({ length: N_FIELDS }, () => new Interner());
   const c = new Int32Array(N_FIELDS - 1);
@@ -126,14 +130,13 @@ export function scanRegionTable(buf: Buffer, length: number, regionId: string, k
     const from = pos;
     pos = end + 1;
     if (end === from) continue;
-    // The commas of the line; a quote, a carriage return or a byte past ASCII leaves it to the careful readers.
+    // The commas of the line (quotes, carriage returns and bytes past ASCII were ruled out above).
     let k = 0;
     for (let i = from; i < end; i++) {
-      const b = buf[i];
-      if (b === COMMA) {
+      if (buf[i] === COMMA) {
         if (k === N_FIELDS - 1) return undefined;
         c[k++] = i;
-      } else if (b === QUOTE || b === CR || b > 127) return undefined;
+      }
     }
     if (k !== N_FIELDS - 1) return undefined;
     const period = col[1].of(buf, c[0] + 1, c[1]);
