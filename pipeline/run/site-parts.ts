@@ -68,8 +68,16 @@ interface PartRun {
   cwd: string;
 }
 
+/** What one part's Astro process took. */
+export interface PartOutcome {
+  /** Peak resident memory [MB]; NaN when the part did not say. */
+  peakRssMB: number;
+  /** Wall time from start to exit [s]. */
+  seconds: number;
+}
+
 /** Builds the site in `parts` Astro processes side by side and joins them into `outDir` (see the file comment). */
-export async function buildSiteInParts(o: SitePartsOptions): Promise<number[]> {
+export async function buildSiteInParts(o: SitePartsOptions): Promise<PartOutcome[]> {
   const runs: PartRun[] = [];
   try {
     for (let k = 0; k < o.parts; k++) {
@@ -90,7 +98,7 @@ export async function buildSiteInParts(o: SitePartsOptions): Promise<number[]> {
       throw (outcomes[failed] as PromiseRejectedResult).reason;
     }
     for (const r of runs.slice(1)) await joinPart(o.outDir, r, o.parts);
-    return outcomes.map((x) => (x as PromiseFulfilledResult<number>).value);
+    return outcomes.map((x) => (x as PromiseFulfilledResult<PartOutcome>).value);
   } finally {
     for (const r of runs) {
       await rm(r.cacheDir, { recursive: true, force: true });
@@ -102,9 +110,10 @@ export async function buildSiteInParts(o: SitePartsOptions): Promise<number[]> {
 
 /**
  * Starts one part's Astro process; `done` settles when it ends, with the part's peak resident
- * memory [MB] (NaN when it did not say), or a catalogued SiteBuildFailed naming the part.
+ * memory and wall time, or a catalogued SiteBuildFailed naming the part.
  */
-function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<number>; stop: () => void } {
+function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<PartOutcome>; stop: () => void } {
+  const started = performance.now();
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     [DATA_DIR_ENV]: o.dataDir,
@@ -128,11 +137,11 @@ function runPart(r: PartRun, o: SitePartsOptions): { done: Promise<number>; stop
     if (!o.quiet && r.index === 0) process.stderr.write(s);
     stderr = (stderr + s).slice(-STDERR_KEPT);
   });
-  const done = new Promise<number>((resolve, reject) => {
+  const done = new Promise<PartOutcome>((resolve, reject) => {
     child.on('error', (e) => reject(SiteBuildFailed({ detail: `site part ${r.index + 1} of ${o.parts} did not start: ${e.message}` })));
     child.on('close', (code, signal) => {
       const last = stderr.trim().split('\n').pop() ?? '';
-      if (code === 0) return resolve(Number(/"sitePartPeakRssMB":(\d+)/.exec(last)?.[1] ?? NaN));
+      if (code === 0) return resolve({ peakRssMB: Number(/"sitePartPeakRssMB":(\d+)/.exec(last)?.[1] ?? NaN), seconds: (performance.now() - started) / 1000 });
       let detail: string;
       try {
         detail = (JSON.parse(last) as { siteBuildFailed: string }).siteBuildFailed;

@@ -78,6 +78,10 @@ export interface SiteBuildReport {
   parts: number;
   /** Peak resident memory of each Astro process of a build in parts [MB]; empty for one. */
   partPeakRssMB: number[];
+  /** Wall time of each Astro process of a build in parts [s]; empty for one. */
+  partSeconds: number[];
+  /** Reading the region tables into the digest before Astro starts [s]. */
+  gatherSeconds: number;
 }
 
 /** Builds the static site from `dataDir` into `outDir` (see the file comment). */
@@ -90,17 +94,23 @@ export async function buildSite(opts: BuildSiteOptions): Promise<SiteBuildReport
   const jobs = opts.jobs ?? availableParallelism();
   const parts = siteParts(regions, jobs);
   let partPeakRssMB: number[] = [];
+  let partSeconds: number[] = [];
+  let gatherSeconds = 0;
   await replaceDirAtomic(outDir, async (tmp) => {
     // What the pages need from the region tables, read once (pipeline/run/site-digest.ts).
     const digestDir = await mkdtemp(join(tmpdir(), 'heathours-site-digest-'));
     try {
+      const gatherStart = performance.now();
       await gatherSiteDigest(dataDir, digestDir, jobs, opts.quiet);
+      gatherSeconds = (performance.now() - gatherStart) / 1000;
       if (parts > 1) {
-        partPeakRssMB = await withProcessLock(
+        const outcomes = await withProcessLock(
           join(PROJECT_ROOT, '.astro-build.lock'),
           () => buildSiteInParts({ dataDir, digestDir, outDir: tmp, parts, base: opts.base ?? '/', quiet: opts.quiet }),
           { onWait: (pid) => waiting(pid, opts) },
         );
+        partPeakRssMB = outcomes.map((x) => x.peakRssMB);
+        partSeconds = outcomes.map((x) => x.seconds);
       } else await buildInProcess(tmp, dataDir, digestDir, opts);
     } finally {
       await rm(digestDir, { recursive: true, force: true });
@@ -112,7 +122,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<SiteBuildReport
   });
   if (!opts.quiet)
     process.stderr.write(`site: built ${outDir} in ${((Date.now() - started) / 1000).toFixed(1)} s${parts > 1 ? ` by ${parts} Astro processes` : ''}\n`);
-  return { parts, partPeakRssMB };
+  return { parts, partPeakRssMB, partSeconds, gatherSeconds };
 }
 
 function waiting(pid: number, opts: BuildSiteOptions): void {
