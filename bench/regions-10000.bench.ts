@@ -68,6 +68,8 @@ export const bench: Bench = {
       sitePeakRssMB: Math.round(Number(s.peakRssMB)),
       siteParts: Number(s.parts),
       sitePartPeakRssMB: (s.partPeakRssMB as number[]).join('/'),
+      sitePartSeconds: (s.partSeconds as number[]).map(round1).join('/'),
+      siteGatherSeconds: round1(s.gatherSeconds),
       regionPages: Number(s.regionPages),
       mapFirstViewKB: kB(view.map.bytes),
       mapFirstViewGzipKB: kB(view.map.gzipBytes),
