@@ -10,8 +10,10 @@ import { loadHistogramIndex, loadPooledHistograms, type HistogramIndex } from '.
 import { loadRegionTable } from './region-table.ts';
 import { siteDataDir } from './data-dir.ts';
 import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST, indexRegionTable, type RegionFigures } from '../lib/report/region-figures.ts';
+
 import { typicalWbgtMatrix, type HourMatrix } from '../lib/report/hour-matrix.ts';
-import { DIGEST_KEEP, withinDigest } from './site-digest.ts';
+import { DIGEST_KEEP, gatheredFigures, withinDigest } from './site-digest.ts';
+import type { RowFilter } from './region-row.ts';
 import type { ReportScenario } from '../lib/report/scenarios.ts';
 
 export interface RegionReport {
@@ -33,6 +35,11 @@ const keep = DIGEST_KEEP;
 /** A scenario's table: its means only (the side-by-side comparison). */
 const keepScenario = withinDigest((period, figure, statistic) => DIGEST_KEEP(period, figure, statistic) && statistic === 'mean');
 
+/** The figures of a region's table among the rows `keep` accepts: gathered by the site stage when it did, else read from the table. */
+function loadFigures(regionId: string, dataDir: string, keep: RowFilter, scenarioId?: string): RegionFigures {
+  return gatheredFigures(regionId, keep, scenarioId) ?? indexRegionTable(loadRegionTable(regionId, dataDir, keep, scenarioId));
+}
+
 let indexCache: { dir: string; index: HistogramIndex } | undefined;
 
 /** What a region's one-page summary shows: the manifest, the region's summary and its table (no hour matrix, no scenarios). */
@@ -50,7 +57,7 @@ const keepSummary = withinDigest((_period, figure, statistic) => SUMMARY_FIGURES
 export function loadRegionSummary(regionId: string, dataDir: string = siteDataDir()): RegionSummaryData {
   const manifest = loadAtlasManifest(dataDir);
   const detail = loadRegionDetail(regionId, dataDir);
-  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, keepSummary));
+  const figures = loadFigures(regionId, dataDir, keepSummary);
   return { id: regionId, name: detail.name, manifest, detail, figures };
 }
 
@@ -58,14 +65,14 @@ export function loadRegionSummary(regionId: string, dataDir: string = siteDataDi
 export function loadRegionReport(regionId: string, dataDir: string = siteDataDir()): RegionReport {
   const manifest = loadAtlasManifest(dataDir);
   const detail = loadRegionDetail(regionId, dataDir);
-  const figures = indexRegionTable(loadRegionTable(regionId, dataDir, keep));
+  const figures = loadFigures(regionId, dataDir, keep);
   const scenarios: ReportScenario[] = (manifest.scenarios ?? []).map((s) => ({
     id: s.id,
     name: s.name,
     kind: s.words.kind,
     what: s.words.what,
     source: s.words.source,
-    figures: indexRegionTable(loadRegionTable(regionId, dataDir, keepScenario, s.id)),
+    figures: loadFigures(regionId, dataDir, keepScenario, s.id),
   }));
   if (indexCache?.dir !== dataDir) indexCache = { dir: dataDir, index: loadHistogramIndex(dataDir) };
   const matrix = typicalWbgtMatrix(loadPooledHistograms(regionId, dataDir, indexCache.index, 'sun'));

@@ -13,7 +13,7 @@ import type { ManifestLayer } from './manifest-layers.ts';
 import { parseRegionTable, regionTablePath } from './region-table.ts';
 import { readRegionSummary, regionTableValues, regionValuesReader } from './region-values.ts';
 import { SiteDataMissing } from './errors.ts';
-import { DIGEST_KEEP, digestRowOf, digestTableName } from './site-digest.ts';
+import { DIGEST_KEEP, digestFigureGroups, digestRowOf, digestTableName } from './site-digest.ts';
 import { scanRegionTable, WantedKeys } from './region-table-scan.ts';
 
 type RegionSummary = ReturnType<typeof readRegionSummary>;
@@ -36,7 +36,9 @@ export interface DigestTable {
 export function gatherRegionSlice(dataDir: string, digestDir: string, tables: readonly DigestTable[], ids: readonly string[]): Float64Array[] {
   return tables.map((t) => {
     const dir = join(digestDir, 'rows', digestTableName(t.scenarioId));
+    const figuresDir = join(digestDir, 'figures', digestTableName(t.scenarioId));
     mkdirSync(dir, { recursive: true });
+    mkdirSync(figuresDir, { recursive: true });
     const reader = regionValuesReader(t.layers);
     const wanted = new WantedKeys(reader.keys);
     const values = new Float64Array(t.layers.length * ids.length).fill(NaN);
@@ -59,6 +61,7 @@ export function gatherRegionSlice(dataDir: string, digestDir: string, tables: re
         valuesOf = (summary: RegionSummary) => reader.values(table, summary);
       }
       writeFileSync(join(dir, `${id}.json`), JSON.stringify(rows.map(digestRowOf)));
+      writeFileSync(join(figuresDir, `${id}.json`), JSON.stringify(digestFigureGroups(rows)));
       if (t.layers.length > 0) {
         const v = valuesOf(readRegionSummary(dataDir, t.regionsDir, id));
         for (let li = 0; li < v.length; li++) values[li * ids.length + r] = v[li] ?? NaN;

@@ -7,6 +7,10 @@
  * - `rows/<table>/<region-id>.json`: the rows of the region's table (`<table>` is `record` or a
  *   scenario's id) that {@link DIGEST_KEEP} accepts, in the table's order, each as
  *   `[period, figure, class, acclimatization, exposure, method, statistic, value|null, unit, years_used, baseline]`;
+ * - `figures/<table>/<region-id>.json`: the same rows as the report's figures (the `limit` method
+ *   and blank methods, src/lib/report/region-figures.ts), grouped by period, figure and statistic,
+ *   each group `[figure, period, statistic, ["class|acclimatization|exposure", …], [value|null, …]]`,
+ *   so a report indexes a few hundred groups instead of a thousand rows;
  * - `values/index.json` and `values/<n>.f64`: each map layer's value per region, by the folder of
  *   the region tables and the layer's GeoTIFF path: a float64 (this machine's byte order) per
  *   region in the order of regions.geojson, NaN where none.
@@ -15,7 +19,16 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { FIGURE_HOURS_ABOVE, FIGURE_HOURS_LOST } from '../lib/report/region-figures.ts';
+import {
+  FIGURE_HOURS_ABOVE,
+  FIGURE_HOURS_LOST,
+  figureGroupKey,
+  figureMemberKey,
+  groupedRegionFigures,
+  isFigureMethod,
+  type FigureGroups,
+  type RegionFigures,
+} from '../lib/report/region-figures.ts';
 import { WORKFORCE_FIGURES } from '../lib/report/workforce.ts';
 import type { ManifestLayer } from './manifest-layers.ts';
 import type { RegionTableRow, RowFilter } from './region-row.ts';
@@ -99,6 +112,45 @@ export function gatheredRows(regionId: string, keep: RowFilter, scenarioId?: str
   const out: RegionTableRow[] = [];
   for (const r of JSON.parse(readFileSync(path, 'utf8')) as DigestRow[]) if (keep(r[0], r[1], r[6])) out.push(rowOf(r));
   return out;
+}
+
+/** A group of the figures file: figure, period, statistic, member keys, values (null: empty). */
+export type DigestFigureGroup = [string, string, string, string[], Array<number | null>];
+
+/** The figures of `rows` (a table's rows in its order) grouped as the figures file stores them. */
+export function digestFigureGroups(rows: readonly RegionTableRow[]): DigestFigureGroup[] {
+  const groups = new Map<string, { head: [string, string, string]; members: Map<string, number> }>();
+  for (const r of rows) {
+    if (!isFigureMethod(r.method)) continue;
+    const key = figureGroupKey(r.figure, r.period, r.statistic);
+    let g = groups.get(key);
+    if (!g) {
+      g = { head: [r.figure, r.period, r.statistic], members: new Map() };
+      groups.set(key, g);
+    }
+    g.members.set(figureMemberKey(r.workloadClass, r.acclimatization, r.exposure), r.value);
+  }
+  return [...groups.values()].map((g) => [...g.head, [...g.members.keys()], [...g.members.values()].map((v) => (Number.isNaN(v) ? null : v))]);
+}
+
+/**
+ * The report's figures of region `regionId`'s table (a scenario's with `scenarioId`) among the
+ * rows `keep` accepts, from the gathered figures; undefined when the build gathered none or
+ * `keep` is not marked {@link withinDigest}. The same values as indexing {@link gatheredRows}.
+ */
+export function gatheredFigures(regionId: string, keep: RowFilter, scenarioId?: string): RegionFigures | undefined {
+  const dir = siteDigestDir();
+  if (dir === undefined || !within.has(keep)) return undefined;
+  const path = join(dir, 'figures', digestTableName(scenarioId), `${regionId}.json`);
+  if (!existsSync(path)) return undefined;
+  const groups: FigureGroups = new Map();
+  for (const [figure, period, statistic, members, values] of JSON.parse(readFileSync(path, 'utf8')) as DigestFigureGroup[]) {
+    if (!keep(period, figure, statistic)) continue;
+    const m = new Map<string, number>();
+    for (let i = 0; i < members.length; i++) m.set(members[i], values[i] ?? NaN);
+    groups.set(figureGroupKey(figure, period, statistic), m);
+  }
+  return groupedRegionFigures(groups);
 }
 
 /** Key of a layer's values in `values/index.json`. */

@@ -21,8 +21,7 @@ import { SITE_PARTS_ENV, SITE_PARTS_MIN_REGIONS, siteParts } from '../../pipelin
 import { gatherSiteDigest } from '../../pipeline/run/site-digest.ts';
 import { SITE_DIGEST_ENV } from '../../src/data/site-digest.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
-import { FIGURE_HOURS_LOST } from '../../src/lib/report/region-figures.ts';
-import type { RegionTableRow } from '../../src/data/region-table.ts';
+import { FIGURE_HOURS_LOST, type FigureKey, type RegionFigures } from '../../src/lib/report/region-figures.ts';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildTestSite, PROJECT_ROOT } from './browser.ts';
 
@@ -99,15 +98,26 @@ describe('the digest of the region tables', () => {
     const regionCount = (JSON.parse(readFileSync(join(dataDir, 'data', 'regions.geojson'), 'utf8')) as { features: unknown[] }).features.length;
     expect(regionCount).toBeGreaterThan(4);
     expect(statSync(join(digestDir, 'values', '0.f64')).size).toBe(regionCount * 8);
+    expect(readdirSync(join(digestDir, 'figures', 'record')).length).toBe(regionCount);
+    // Every key of every row of a region's tables, and one that no table has: the figures are compared by what they answer.
+    const { parseRegionTable, regionTablePath } = await import('../../src/data/region-table.ts');
+    const probes = (id: string, scenarioId?: string): FigureKey[] => {
+      const path = regionTablePath(dataDir, id, scenarioId);
+      const rows = parseRegionTable(readFileSync(path, 'utf8'), path, id);
+      return [...rows, { ...rows[0], figure: 'no-such-figure' }].map((r) => ({
+        figure: r.figure,
+        period: r.period,
+        workloadClass: r.workloadClass,
+        acclimatization: r.acclimatization,
+        exposure: r.exposure,
+        statistic: r.statistic,
+      }));
+    };
+    const answers = (f: RegionFigures, keys: FigureKey[]) => keys.map((k) => [f.has(k), f.get(k)]);
     // Each load in a fresh module graph: the explorer's values are cached per data folder.
     const load = async () => {
       const { vi } = await import('vitest');
       vi.resetModules();
-      // The indexed figures keep their rows in a closure: expose them, so the comparison sees them.
-      vi.doMock('../../src/lib/report/region-figures.ts', async (actual) => {
-        const real = (await actual()) as typeof import('../../src/lib/report/region-figures.ts');
-        return { ...real, indexRegionTable: (rows: RegionTableRow[]) => ({ ...real.indexRegionTable(rows), rows: rows.map((r) => ({ ...r })) }) };
-      });
       const { loadRegions } = await import('../../src/data/regions.ts');
       const { loadRegionReport, loadRegionSummary } = await import('../../src/data/region-report.ts');
       const { loadRegionAnnuals } = await import('../../src/data/region-annual.ts');
@@ -116,8 +126,18 @@ describe('the digest of the region tables', () => {
       const scenarios = loadExplorerScenarios(dataDir);
       expect(scenarios.length).toBeGreaterThan(0);
       return {
-        reports: regions.map((r) => loadRegionReport(r.id, dataDir)),
-        summaries: regions.map((r) => loadRegionSummary(r.id, dataDir)),
+        reports: regions.map((r) => {
+          const report = loadRegionReport(r.id, dataDir);
+          return {
+            ...report,
+            figures: answers(report.figures, probes(r.id)),
+            scenarios: report.scenarios.map((sc) => ({ ...sc, figures: answers(sc.figures, probes(r.id, sc.id)) })),
+          };
+        }),
+        summaries: regions.map((r) => {
+          const summary = loadRegionSummary(r.id, dataDir);
+          return { ...summary, figures: answers(summary.figures, probes(r.id)) };
+        }),
         annuals: loadRegionAnnuals(regions, dataDir, true),
         scenarioAnnuals: loadRegionAnnuals(regions, dataDir, true, scenarios[0].id),
         values: loadExplorerValues(dataDir),
@@ -127,10 +147,13 @@ describe('the digest of the region tables', () => {
     const plain = await withDigest(undefined, load);
     const digested = await withDigest(digestDir, load);
     // The report shows workforce rows and the scenario's means: the digest must carry them.
-    expect(plain.reports[0].scenarios[0].figures).toBeDefined();
+    expect(plain.reports[0].scenarios[0].figures.filter(([has]) => has).length).toBeGreaterThan(50);
     expect(plain.annuals[0].workforce?.size).toBeGreaterThan(2);
-    expect(plain.reports[0].figures).toHaveProperty('rows');
-    expect((plain.reports[0].figures as unknown as { rows: unknown[] }).rows.length).toBeGreaterThan(100);
+    // The report's figures answer for hundreds of keys, the summary's for fewer, and neither for every row of the table.
+    const held = (a: Array<Array<unknown>>) => a.filter(([has]) => has).length;
+    expect(held(plain.reports[0].figures)).toBeGreaterThan(100);
+    expect(held(plain.summaries[0].figures)).toBeLessThan(held(plain.reports[0].figures));
+    expect(held(plain.reports[0].figures)).toBeLessThan(plain.reports[0].figures.length);
     // Plain data on both sides (the loads come from separate module graphs, so their classes differ).
     expect(plainOf(digested)).toEqual(plainOf(plain));
   });

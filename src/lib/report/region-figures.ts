@@ -35,11 +35,42 @@ export interface RegionFigures {
   has(k: FigureKey): boolean;
 }
 
+/** Whether a row of method `method` is a figure here: the `limit` method and blank methods. */
+export function isFigureMethod(method: string): boolean {
+  return method === 'limit' || method === '';
+}
+
+/**
+ * The figures of one region's table grouped as the site's digest stores them (src/data/site-digest.ts):
+ * one group per period, figure and statistic, holding `workloadClass|acclimatization|exposure`
+ * → value [h or °C] (NaN for an empty value). A later row of the same key replaces an earlier one, as in {@link indexRegionTable}.
+ */
+export type FigureGroups = Map<string, Map<string, number>>;
+
+/** Key of a group of {@link FigureGroups}. */
+export function figureGroupKey(figure: string, period: string, statistic: string): string {
+  return `${figure}|${period}|${statistic}`;
+}
+
+/** Key of a value inside a group of {@link FigureGroups}. */
+export function figureMemberKey(workloadClass = '', acclimatization = '', exposure = ''): string {
+  return `${workloadClass}|${acclimatization}|${exposure}`;
+}
+
+/** {@link RegionFigures} over figures already grouped: the same values as {@link indexRegionTable} of the same rows. */
+export function groupedRegionFigures(groups: FigureGroups): RegionFigures {
+  const group = (k: FigureKey) => groups.get(figureGroupKey(k.figure, k.period, k.statistic));
+  return {
+    get: (k) => group(k)?.get(figureMemberKey(k.workloadClass, k.acclimatization, k.exposure)) ?? NaN,
+    has: (k) => group(k)?.has(figureMemberKey(k.workloadClass, k.acclimatization, k.exposure)) ?? false,
+  };
+}
+
 /** Indexes the rows of one region's table. Only the `limit` method and blank methods are figures here. */
 export function indexRegionTable(rows: readonly RegionTableRow[]): RegionFigures {
   const map = new Map<string, number>();
   for (const r of rows) {
-    if (r.method !== 'limit' && r.method !== '') continue;
+    if (!isFigureMethod(r.method)) continue;
     map.set(
       keyOf({
         figure: r.figure,
