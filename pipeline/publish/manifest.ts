@@ -106,24 +106,41 @@ export const STATISTIC_RULES: Record<string, string> = {
 /** SHA-256 of a file [hex] (pipeline/model/file-sha256.ts). */
 export { sha256OfFile };
 
-/** Lists every file under `root/data` as artefacts, with kinds guessed from the path. */
+/** Files hashed at once [count]: the reads and the hashing of several files overlap on libuv's threads. */
+const HASHED_AT_ONCE = 4;
+
+/**
+ * Lists every file under `root/data` as artefacts, with kinds guessed from the path, in the
+ * order of a sorted walk; {@link HASHED_AT_ONCE} files are read and hashed at a time.
+ */
 export async function listArtefacts(
   root: string,
   describe: (path: string) => { kind: ArtefactEntry['kind']; description: string; units?: string },
 ): Promise<ArtefactEntry[]> {
-  const out: ArtefactEntry[] = [];
+  const files: Array<{ p: string; path: string }> = [];
   async function walk(dir: string): Promise<void> {
-    for (const name of (await readdir(dir)).sort()) {
-      const p = join(dir, name);
-      const s = await stat(p);
-      if (s.isDirectory()) await walk(p);
+    const entries = (await readdir(dir, { withFileTypes: true })).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+    for (const e of entries) {
+      const p = join(dir, e.name);
+      // A link or other entry is looked at as the old walk did: by what it points to.
+      const isDir = e.isDirectory() || (!e.isFile() && (await stat(p)).isDirectory());
+      if (isDir) await walk(p);
       else {
         const path = relative(root, p).split('\\').join('/');
         if (path === 'data/manifest.json') continue;
-        out.push({ path, ...describe(path), bytes: s.size, sha256: await sha256OfFile(p) });
+        files.push({ p, path });
       }
     }
   }
   await walk(join(root, 'data'));
-  return out;
+  const facts = new Array<{ bytes: number; sha256: string }>(files.length);
+  let next = 0;
+  const worker = async () => {
+    for (let i = next++; i < files.length; i = next++) {
+      const p = files[i].p;
+      facts[i] = { bytes: (await stat(p)).size, sha256: await sha256OfFile(p) };
+    }
+  };
+  await Promise.all(Array.from({ length: Math.min(HASHED_AT_ONCE, files.length) }, worker));
+  return files.map((f, i) => ({ path: f.path, ...describe(f.path), bytes: facts[i].bytes, sha256: facts[i].sha256 }));
 }
