@@ -148,8 +148,8 @@ export function loadRegionYearRows(regionId: string, dataDir: string = siteDataD
   const rel = scenarioId ? `data/scenarios/${scenarioId}/regions/${regionId}.csv` : `data/regions/${regionId}.csv`;
   if (!existsSync(path)) throw SiteDataMissing({ path, what: `table of region "${regionId}" (${rel})` }, { file: path });
   const yearOnly: RowFilter = (period, figure, statistic) => period === 'year' && (keep ? keep(period, figure, statistic) : true);
-  const gathered = keep && gatheredRows(regionId, keep, scenarioId);
-  if (gathered) return gathered.filter((r) => r.period === 'year');
+  const gathered = keep && gatheredRows(regionId, keep, scenarioId, true);
+  if (gathered) return gathered;
   const fd = openSync(path, 'r');
   let head: string;
   let tail: string;

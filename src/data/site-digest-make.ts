@@ -37,7 +37,9 @@ export function gatherRegionSlice(dataDir: string, digestDir: string, tables: re
   return tables.map((t) => {
     const dir = join(digestDir, 'rows', digestTableName(t.scenarioId));
     const figuresDir = join(digestDir, 'figures', digestTableName(t.scenarioId));
+    const yearDir = join(digestDir, 'year-rows', digestTableName(t.scenarioId));
     mkdirSync(dir, { recursive: true });
+    mkdirSync(yearDir, { recursive: true });
     mkdirSync(figuresDir, { recursive: true });
     const reader = regionValuesReader(t.layers);
     const wanted = new WantedKeys(reader.keys);
@@ -61,6 +63,7 @@ export function gatherRegionSlice(dataDir: string, digestDir: string, tables: re
         valuesOf = (summary: RegionSummary) => reader.values(table, summary);
       }
       writeFileSync(join(dir, `${id}.json`), JSON.stringify(rows.map(digestRowOf)));
+      writeFileSync(join(yearDir, `${id}.json`), JSON.stringify(rows.filter((r) => r.period === 'year').map(digestRowOf)));
       writeFileSync(join(figuresDir, `${id}.json`), JSON.stringify(digestFigureGroups(rows)));
       if (t.layers.length > 0) {
         const v = valuesOf(readRegionSummary(dataDir, t.regionsDir, id));

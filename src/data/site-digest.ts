@@ -7,6 +7,8 @@
  * - `rows/<table>/<region-id>.json`: the rows of the region's table (`<table>` is `record` or a
  *   scenario's id) that {@link DIGEST_KEEP} accepts, in the table's order, each as
  *   `[period, figure, class, acclimatization, exposure, method, statistic, value|null, unit, years_used, baseline]`;
+ * - `year-rows/<table>/<region-id>.json`: the same, only the rows of period `year` (the home page's
+ *   annual figures of every region read these, a thirteenth of the rows);
  * - `figures/<table>/<region-id>.json`: the same rows as the report's figures (the `limit` method
  *   and blank methods, src/lib/report/region-figures.ts), grouped by period, figure and statistic,
  *   each group `[figure, period, statistic, ["class|acclimatization|exposure", …], [value|null, …]]`,
@@ -102,12 +104,13 @@ export function digestRowOf(r: RegionTableRow): DigestRow {
 
 /**
  * The gathered rows of region `regionId`'s table (a scenario's with `scenarioId`) that `keep`
- * accepts, or undefined when the build gathered none or `keep` is not marked {@link withinDigest}.
+ * accepts (with `yearOnly`, only those of period `year`), or undefined when the build gathered
+ * none or `keep` is not marked {@link withinDigest}.
  */
-export function gatheredRows(regionId: string, keep: RowFilter, scenarioId?: string): RegionTableRow[] | undefined {
+export function gatheredRows(regionId: string, keep: RowFilter, scenarioId?: string, yearOnly = false): RegionTableRow[] | undefined {
   const dir = siteDigestDir();
   if (dir === undefined || !within.has(keep)) return undefined;
-  const path = join(dir, 'rows', digestTableName(scenarioId), `${regionId}.json`);
+  const path = join(dir, yearOnly ? 'year-rows' : 'rows', digestTableName(scenarioId), `${regionId}.json`);
   if (!existsSync(path)) return undefined;
   const out: RegionTableRow[] = [];
   for (const r of JSON.parse(readFileSync(path, 'utf8')) as DigestRow[]) if (keep(r[0], r[1], r[6])) out.push(rowOf(r));
