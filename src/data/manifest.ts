@@ -16,12 +16,12 @@
  * latitude [°] in ±90, every legend has a stop, the shift has a work day.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
 import type { Manifest } from '../../pipeline/publish/manifest.ts';
 import { siteDataDir } from './data-dir.ts';
-import { readValidatedJson } from './read-json.ts';
+import { readValidatedJsonOnce } from './read-json.ts';
 
 const isoInstant = z.string().refine((s) => !Number.isNaN(Date.parse(s)), 'not an ISO 8601 date-time');
 const yearRange = z.tuple([z.number().int(), z.number().int()]).refine(([a, b]) => a <= b, 'first year after last year');
@@ -236,8 +236,6 @@ export function hasManifest(dataDir: string = siteDataDir()): boolean {
   return existsSync(manifestPath(dataDir));
 }
 
-const cache = new Map<string, { stamp: string; manifest: SiteManifest }>();
-
 /**
  * Reads and validates the manifest of `dataDir` (default: the build's data folder). Catalogued
  * errors: SiteDataMissing, SiteDataUnreadable, SiteDataInvalid (with the key). Every page reads
@@ -245,14 +243,7 @@ const cache = new Map<string, { stamp: string; manifest: SiteManifest }>();
  * result is shared by every caller: read it, never change it.
  */
 export function loadManifest(dataDir: string = siteDataDir()): SiteManifest {
-  const path = manifestPath(dataDir);
-  const info = statSync(path, { throwIfNoEntry: false });
-  const stamp = info ? `${info.size}:${info.mtimeMs}` : '';
-  const hit = cache.get(path);
-  if (hit && info && hit.stamp === stamp) return hit.manifest;
-  const manifest = readValidatedJson(path, manifestSchema, 'build manifest (data/manifest.json)');
-  cache.set(path, { stamp, manifest });
-  return manifest;
+  return readValidatedJsonOnce(manifestPath(dataDir), manifestSchema, 'build manifest (data/manifest.json)');
 }
 
 /** Size [bytes] and SHA-256 of the manifest file itself (it cannot list its own digest). */

@@ -1,5 +1,5 @@
 /** Reads one JSON file of the data folder and validates it with a zod schema, with catalogued errors. */
-import { readFileSync, existsSync } from 'node:fs';
+import { readFileSync, existsSync, statSync } from 'node:fs';
 import type { z } from 'zod';
 import { SiteDataInvalid, SiteDataMissing, SiteDataUnreadable } from './errors.ts';
 
@@ -19,4 +19,21 @@ export function readValidatedJson<S extends z.ZodTypeAny>(path: string, schema: 
     throw SiteDataInvalid({ path, problems }, { file: path, key: first ? first.path.join('.') : undefined });
   }
   return parsed.data;
+}
+
+const stamped = new Map<string, { stamp: string; value: unknown }>();
+
+/**
+ * {@link readValidatedJson}, parsed and checked once per path, size and modification time: for
+ * files every page reads (the manifest, the inventory). The result is shared by every caller:
+ * read it, never change it.
+ */
+export function readValidatedJsonOnce<S extends z.ZodTypeAny>(path: string, schema: S, what: string): z.infer<S> {
+  const info = statSync(path, { throwIfNoEntry: false });
+  const stamp = info ? `${info.size}:${info.mtimeMs}` : '';
+  const hit = stamped.get(path);
+  if (hit && info && hit.stamp === stamp) return hit.value as z.infer<S>;
+  const value = readValidatedJson(path, schema, what);
+  stamped.set(path, { stamp, value });
+  return value;
 }

@@ -21,7 +21,7 @@ import { SITE_PARTS_ENV, SITE_PARTS_MIN_REGIONS, siteParts } from '../../pipelin
 import { gatherSiteDigest } from '../../pipeline/run/site-digest.ts';
 import { SITE_DIGEST_ENV } from '../../src/data/site-digest.ts';
 import { HeathoursError } from '../../pipeline/model/errors.ts';
-import { FIGURE_HOURS_LOST, type FigureKey, type RegionFigures } from '../../src/lib/report/region-figures.ts';
+import { FIGURE_HOURS_LOST, figureKeyOf, type FigureKey, type RegionFigures } from '../../src/lib/report/region-figures.ts';
 import { buildPipelineData } from './pipeline-data.ts';
 import { buildTestSite, PROJECT_ROOT } from './browser.ts';
 
@@ -104,14 +104,7 @@ describe('the digest of the region tables', () => {
     const probes = (id: string, scenarioId?: string): FigureKey[] => {
       const path = regionTablePath(dataDir, id, scenarioId);
       const rows = parseRegionTable(readFileSync(path, 'utf8'), path, id);
-      return [...rows, { ...rows[0], figure: 'no-such-figure' }].map((r) => ({
-        figure: r.figure,
-        period: r.period,
-        workloadClass: r.workloadClass,
-        acclimatization: r.acclimatization,
-        exposure: r.exposure,
-        statistic: r.statistic,
-      }));
+      return [...rows, { ...rows[0], figure: 'no-such-figure' }].map(figureKeyOf);
     };
     const answers = (f: RegionFigures, keys: FigureKey[]) => keys.map((k) => [f.has(k), f.get(k)]);
     // Each load in a fresh module graph: the explorer's values are cached per data folder.

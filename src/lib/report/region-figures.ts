@@ -66,22 +66,24 @@ export function groupedRegionFigures(groups: FigureGroups): RegionFigures {
   };
 }
 
+/** What a row of a region's table is, as a key of {@link RegionFigures}. */
+export function figureKeyOf(r: RegionTableRow): FigureKey {
+  return {
+    figure: r.figure,
+    period: r.period,
+    workloadClass: r.workloadClass,
+    acclimatization: r.acclimatization,
+    exposure: r.exposure,
+    statistic: r.statistic,
+  };
+}
+
 /** Indexes the rows of one region's table. Only the `limit` method and blank methods are figures here. */
 export function indexRegionTable(rows: readonly RegionTableRow[]): RegionFigures {
   const map = new Map<string, number>();
   for (const r of rows) {
     if (!isFigureMethod(r.method)) continue;
-    map.set(
-      keyOf({
-        figure: r.figure,
-        period: r.period,
-        workloadClass: r.workloadClass,
-        acclimatization: r.acclimatization,
-        exposure: r.exposure,
-        statistic: r.statistic,
-      }),
-      r.value,
-    );
+    map.set(keyOf(figureKeyOf(r)), r.value);
   }
   return {
     get: (k) => map.get(keyOf(k)) ?? NaN,
