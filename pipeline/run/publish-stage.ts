@@ -14,6 +14,7 @@ import { CODE_VERSION } from '../model/version.ts';
 import type { Logger } from '../model/effects.ts';
 import { startProgress } from '../model/progress.ts';
 import { closePieces, readGridField } from '../formats/grid-pieces.ts';
+import { writeJsonFile } from '../formats/json-file.ts';
 import { addFieldRange, countLayers, emptyFieldRange, writeAtlasLayers } from '../publish/atlas-layers.ts';
 import { writeCellNetcdf } from '../publish/cell-netcdf.ts';
 import { gridFieldUnits } from '../publish/grid-fields.ts';
@@ -111,7 +112,7 @@ async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): 
     ),
     regionNames: new Map(plan.regions.map((rg) => [rg.id, rg.name])),
   });
-  await writeFile(join(dataDir, 'changes.json'), JSON.stringify(changes, null, 1));
+  await writeJsonFile(join(dataDir, 'changes.json'), changes);
   if (changes.hasPrevious) {
     log.info(
       `since the previous build: ${changes.yearsAdded.length} year(s) added, inputs ${changes.inputs.added.length} added / ${changes.inputs.changed.length} changed / ${changes.inputs.removed.length} removed, ${changes.normals.moved} of ${changes.normals.compared} normals of hours lost and hours above the limit moved`,
@@ -187,7 +188,8 @@ async function publishIndexes(p: PublishInput, layersOf: Manifest['layers'][]): 
       };
     }),
   };
-  await writeFile(join(dataDir, 'manifest.json'), JSON.stringify(manifest, null, 1));
+  // Written in pieces: ~45 MB of JSON at 10,000 regions (pipeline/formats/json-file.ts).
+  await writeJsonFile(join(dataDir, 'manifest.json'), manifest);
   return manifest;
 }
 
@@ -259,13 +261,15 @@ async function publishVariant(p: PublishInput, v: BuildVariant, tiles: readonly 
     DEFAULT_CELL_TILE,
     tables,
   );
-  await writeFile(
+  await writeJsonFile(
     join(dataDir, 'cells', 'index.json'),
-    JSON.stringify({ ...index, chunks: index.chunks.map((c) => ({ ...c, path: at(c.path) })), netcdf: at(index.netcdf) }),
+    { ...index, chunks: index.chunks.map((c) => ({ ...c, path: at(c.path) })), netcdf: at(index.netcdf) },
+    0,
   );
   await writePointTileIndex(dataDir, { years: plan.years, grid, chunks: tiles.flatMap((t) => t.pointChunks.map((c) => ({ ...c, path: at(c.path) }))) });
   const hist = histogramIndex(plan.years, cfg.baseline, plan.regions);
-  await writeFile(join(dataDir, 'calculator', 'index.json'), JSON.stringify({ ...hist, regions: hist.regions.map((r) => ({ ...r, path: at(r.path) })) }));
+  // One entry per region: written in pieces (pipeline/formats/json-file.ts).
+  await writeJsonFile(join(dataDir, 'calculator', 'index.json'), { ...hist, regions: hist.regions.map((r) => ({ ...r, path: at(r.path) })) }, 0);
   await joinFiles(
     join(dataDir, 'niche.json'),
     nicheJsonHead(),
