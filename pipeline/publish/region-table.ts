@@ -47,6 +47,12 @@ export function periodLabel(p: number): string {
   return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');
 }
 
+/**
+ * One record of the region table, its fields in {@link REGION_TABLE_COLUMNS} order as the CSV
+ * writer gets them (a value NaN, a count NaN are written empty).
+ */
+export type RegionTableRecord = [string, string, string, string, string, string, string, string, number, string, number, string];
+
 /** The table of one region (its figures' normals hold that region alone: items period · nCombo + combo). */
 export function regionTableCsv(
   regionId: string,
@@ -55,7 +61,26 @@ export function regionTableCsv(
   latestYear: number,
   built?: readonly [number, number],
 ): string {
+  return regionTable(regionId, figures, baseline, latestYear, built).text;
+}
+
+/**
+ * The table of one region as its CSV text and as its records in the same order (the wide tables,
+ * region-wide-table.ts, are made from the records instead of parsing the text again).
+ */
+export function regionTable(
+  regionId: string,
+  figures: readonly RegionFigureNormals[],
+  baseline: [number, number],
+  latestYear: number,
+  built?: readonly [number, number],
+): { text: string; records: RegionTableRecord[] } {
+  const records: RegionTableRecord[] = [];
   let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
+  const put = (r: RegionTableRecord) => {
+    records.push(r);
+    out += csvLine(r);
+  };
   const base = `${baseline[0]}-${baseline[1]}`;
   for (let p = 0; p < PERIODS; p++) {
     for (const fn of figures) {
@@ -76,7 +101,7 @@ export function regionTableCsv(
           'worst-cell-mean': fn.worstValue[i],
         };
         for (const s of STATISTICS) {
-          out += csvLine([
+          put([
             regionId,
             periodLabel(p),
             def.id,
@@ -94,7 +119,7 @@ export function regionTableCsv(
         const tr = fn.trend;
         if (tr && p === ANNUAL) {
           const span = built ? `${built[0]}-${built[1]}` : base;
-          out += csvLine([
+          put([
             regionId,
             'year',
             def.id,
@@ -108,7 +133,7 @@ export function regionTableCsv(
             tr.years[k],
             span,
           ]);
-          out += csvLine([
+          put([
             regionId,
             'year',
             def.id,
@@ -126,5 +151,5 @@ export function regionTableCsv(
       }
     }
   }
-  return out;
+  return { text: out, records };
 }
