@@ -118,7 +118,14 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
   try {
     plan = await planBuild(
       rc,
-      { jobs, memory: o.memory, mergeSlice: o.mergeSlice, noMerge: o.assembleDir !== undefined, maxMissingHours: o.maxMissingHours },
+      {
+        jobs,
+        memory: o.memory,
+        mergeSlice: o.mergeSlice,
+        noMerge: o.assembleDir !== undefined,
+        maxMissingHours: o.maxMissingHours,
+        site: !o.dataOnly && o.shard === undefined && o.mergeDir === undefined,
+      },
       log,
     );
   } catch (e) {
@@ -222,7 +229,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         await replaceDirAtomic(outDir, async (tmp) => rename(dataDir, join(tmp, 'data')));
       } else {
         log.info('building the site');
-        await buildSite({ dataDir: stage, outDir, quiet: o.quiet, moveData: true, base: cfg.site.base, jobs: o.jobs });
+        await buildSite({ dataDir: stage, outDir, quiet: o.quiet, moveData: true, base: cfg.site.base, jobs: o.jobs, parts: plan.memory.siteParts });
       }
       const totalSeconds = (Date.now() - t0) / 1000;
       log.info(`atlas written to ${outDir} in ${totalSeconds.toFixed(1)} s (estimated ${plan.estimate.seconds.total.toFixed(0)} s)`);

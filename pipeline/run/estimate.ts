@@ -15,11 +15,18 @@ const COMPUTE_S_PER_CELL_HOUR = 1.15e-6;
 const MERGE_S_PER_CELL_YEAR = 0.6e-3;
 /** Time to assemble and write one gridded field per grid cell (NetCDF slab and layer image) [s]. */
 const PUBLISH_S_PER_FIELD_CELL = 0.15e-6;
-/** Time per region (its table, summary, calculator tile) [s], and the site's pages per region [s]. */
+/** Time per region (its table, summary, calculator tile) [s]. */
 const REGION_S = 0.05;
-const SITE_S_PER_REGION = 0.06;
-/** The site's fixed build time (Astro, bundling) [s]. */
-const SITE_S = 25;
+/**
+ * The site (site-stage.ts): CPU per region of reading its tables into the digest, spread over the
+ * workers [s]; CPU per region of its pages, spread over the Astro processes [s]; the fixed time
+ * (each process's start and bundling, joining the parts) [s]. Measured by `site-10000-regions`
+ * (2026-12-05, 2 cores): digest 25.7 s, parts 152 s and 148 s for 10,000 regions in two parts,
+ * site 184 s in all.
+ */
+const DIGEST_S_PER_REGION = 0.005;
+const SITE_S_PER_REGION = 0.028;
+const SITE_S = 18;
 
 /** Bytes of a partial file per land cell-year [B] (sparse histograms, DEFLATE). */
 const PARTIAL_B_PER_CELL_YEAR = 5_900;
@@ -63,7 +70,8 @@ export function estimateBuild(input: EstimateInput): BuildEstimate {
   const compute = (cellHours * COMPUTE_S_PER_CELL_HOUR) / e.jobs;
   const merge = (v * e.cells * e.years * MERGE_S_PER_CELL_YEAR) / e.jobs;
   const publish = v * (e.fields * e.nGrid * PUBLISH_S_PER_FIELD_CELL + e.regions * REGION_S);
-  const site = SITE_S + e.regions * SITE_S_PER_REGION;
+  const parts = Math.max(1, e.memory.siteParts);
+  const site = SITE_S + (e.regions * DIGEST_S_PER_REGION) / e.jobs + (e.regions * SITE_S_PER_REGION) / parts;
   const total = compute + merge + publish + site;
   const partials = v * e.cells * e.years * PARTIAL_B_PER_CELL_YEAR;
   const output =
@@ -73,11 +81,11 @@ export function estimateBuild(input: EstimateInput): BuildEstimate {
       e.regions * (OUTPUT_B_PER_REGION + e.years * OUTPUT_B_PER_REGION_YEAR) +
       e.nGrid * e.fields * 5);
   const scratch = e.nGrid * e.fields * 4 + v * e.regions * e.years * SCRATCH_B_PER_REGION_YEAR;
-  const peakMemory = Math.max(e.memory.computePeak, e.memory.mergePeak);
+  const peakMemory = Math.max(e.memory.computePeak, e.memory.mergePeak, e.memory.sitePeak);
   const min = (s: number) => (s >= 90 ? `${(s / 60).toFixed(1)} min` : `${s.toFixed(0)} s`);
   const text =
     `${(cellHours / 1e6).toFixed(1)} M land cell-hours; about ${min(total)} on ${e.jobs} worker(s) if nothing is cached ` +
-    `(computing ${min(compute)}, merging ${min(merge)}, publishing ${min(publish)}, site ${min(site)}); ` +
+    `(computing ${min(compute)}, merging ${min(merge)}, publishing ${min(publish)}, site ${min(site)}${parts > 1 ? ` in ${parts} Astro processes` : ''}); ` +
     `disk: ${formatBytes(output)} published, ${formatBytes(partials)} of partials, ${formatBytes(scratch)} of scratch; peak memory ${formatBytes(peakMemory)}`;
   return { cellHours, seconds: { compute, merge, publish, site, total }, bytes: { partials, output, scratch }, peakMemory, text };
 }

@@ -30,6 +30,23 @@ export const DEFAULT_MEMORY_BUDGET = 3 * 1024 * MB;
 const MAIN_BASE = 300 * MB;
 /** Resident memory of a worker thread before its task's arrays (isolate, modules, an open dataset) [B]. */
 const WORKER_BASE = 110 * MB;
+/**
+ * Peak resident memory of the site's Astro processes: a base (the pages' modules, bundling) plus
+ * an amount per region of the atlas (the manifest lists each region's files; the pages that list
+ * every region are held by part 0) [B]. Fitted to the peaks of sites built in two parts by
+ * `site-10000-regions` (2026-12-05, 2 cores): part 0 1,093 MB at 1,000 regions and 1,434 MB at
+ * 10,000; part 1 718 MB and 1,210 MB. The first process (part 0, or the only one) and each other.
+ */
+const SITE_FIRST_BASE = 1_055 * MB;
+const SITE_FIRST_PER_REGION = 39 * 1024;
+const SITE_OTHER_BASE = 663 * MB;
+const SITE_OTHER_PER_REGION = 56 * 1024;
+
+/** Peak resident memory of the site's Astro processes for an atlas of `regions` regions in `parts` processes, together [B]. */
+export function siteProcessesBytes(regions: number, parts: number): number {
+  return SITE_FIRST_BASE + regions * SITE_FIRST_PER_REGION + Math.max(0, parts - 1) * (SITE_OTHER_BASE + regions * SITE_OTHER_PER_REGION);
+}
+
 /** Input fields of a block the reader hands over (canonical float32 fields, with their raw buffers) [–]. */
 const BLOCK_FIELDS = 12;
 /** Float32 arrays per land cell-hour the tile's physics and reduction use (compute-task.ts) [–]. */
@@ -74,6 +91,11 @@ export interface MemoryInput {
    * of them together as fit ({@link MemoryPlan.variantsPerTask}).
    */
   variants?: number;
+  /**
+   * The site the build ends with: its regions and the Astro processes it would use (site-parts.ts
+   * `siteParts`); absent when the build makes no site (data only, a shard or merge task).
+   */
+  site?: { regions: number; parts: number };
 }
 
 export interface MemoryPlan {
@@ -89,6 +111,23 @@ export interface MemoryPlan {
   /** Estimated peak of the compute phase and of the merge phase [B]. */
   computePeak: number;
   mergePeak: number;
+  /** Astro processes the site is built in: as many as asked that fit the budget (1 without a site) [–]. */
+  siteParts: number;
+  /** Estimated peak while the site is built: this process and the site's Astro processes (0 without a site) [B]. */
+  sitePeak: number;
+}
+
+/**
+ * How the site fits the budget `budget` [B]: the Astro processes asked for, fewer when their peaks
+ * together do not fit, and a catalogued MemoryBudgetTooSmall when one does not fit.
+ */
+export function planSite(budget: number, site: { regions: number; parts: number } | undefined): { siteParts: number; sitePeak: number } {
+  if (!site) return { siteParts: 1, sitePeak: 0 };
+  const need = (parts: number) => MAIN_BASE + siteProcessesBytes(site.regions, parts);
+  let parts = Math.max(1, site.parts);
+  while (parts > 1 && need(parts) > budget) parts--;
+  if (need(1) > budget) throw MemoryBudgetTooSmall({ budget, need: need(1), what: `building the site of ${site.regions} regions (one Astro process)` });
+  return { siteParts: parts, sitePeak: need(parts) };
 }
 
 /**
@@ -213,6 +252,7 @@ export function planMemory(m: MemoryInput): MemoryPlan {
     mergeBands,
     computePeak: MAIN_BASE + m.jobs * (WORKER_BASE + computePeakTask),
     mergePeak: MAIN_BASE + m.jobs * (WORKER_BASE + mergePeakTile),
+    ...planSite(m.budget, m.site),
   };
 }
 

@@ -27,6 +27,7 @@ import { shardProvenance } from './shard-key.ts';
 import type { KeyedShard } from './shard-sources.ts';
 import { BLOCK_HOURS, type ComputeTask, type ShardContext } from './compute-task.ts';
 import { DEFAULT_MEMORY_BUDGET, formatBytes, parseMemorySize, planMemory, publicationBlocks, type MemoryPlan } from './memory-plan.ts';
+import { siteParts } from './site-parts.ts';
 import { estimateBuild, type BuildEstimate } from './estimate.ts';
 import { rowsId } from './rows-id.ts';
 import { planWorkforce, type WorkforcePlan } from './workforce-plan.ts';
@@ -53,6 +54,8 @@ export interface PlanOptions {
   mergeSlice?: { k: number; n: number };
   /** Plan no merge bands (the assemble step of a distributed run merges nothing). */
   noMerge?: boolean;
+  /** The build ends with the site (not data only, not a shard or merge task): its memory and time are planned too. */
+  site?: boolean;
   /**
    * The completeness rule of the coverage check: hours a built year may miss per variable
    * [h]; default 0 (every hour of every built year).
@@ -243,6 +246,7 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
       blocks,
       maxBlockHours: BLOCK_HOURS,
       variants: variants.length,
+      ...(o.site ? { site: { regions: regions.length, parts: siteParts(regions.length, jobs) } } : {}),
     });
     const tasks = computeTasks(
       variants.map((v) => v.shards),
@@ -267,8 +271,9 @@ export async function planBuild(rc: ResolvedConfig, o: PlanOptions, log: Logger)
         `(${memory.groups.length} group(s) of tiles read together, blocks of ${memory.blockHours} h), ${bands.length} merge band(s), ${jobs} worker(s)`,
     );
     log.info(
-      `memory budget ${formatBytes(budget)}: estimated peak ${formatBytes(Math.max(memory.computePeak, memory.mergePeak))} ` +
-        `(computing ${formatBytes(memory.computePeak)}, merging ${formatBytes(memory.mergePeak)})`,
+      `memory budget ${formatBytes(budget)}: estimated peak ${formatBytes(Math.max(memory.computePeak, memory.mergePeak, memory.sitePeak))} ` +
+        `(computing ${formatBytes(memory.computePeak)}, merging ${formatBytes(memory.mergePeak)}` +
+        `${o.site ? `, site ${formatBytes(memory.sitePeak)} in ${memory.siteParts} Astro process(es)` : ''})`,
     );
     log.info(`estimate: ${estimate.text}`);
     return {

@@ -45,6 +45,8 @@ export interface BuildSiteOptions {
    * disk as `outDir`): no second copy of a large atlas's data.
    */
   moveData?: boolean;
+  /** Astro processes to build in, as the build's memory plan chose (memory-plan.ts); default: site-parts.ts `siteParts`. */
+  parts?: number;
   /** Cores the build may use [count]; default all. Large atlases are built by that many Astro processes (site-parts.ts). */
   jobs?: number;
 }
@@ -92,7 +94,7 @@ export async function buildSite(opts: BuildSiteOptions): Promise<SiteBuildReport
   await checkOutput(outDir);
   const started = Date.now();
   const jobs = opts.jobs ?? availableParallelism();
-  const parts = siteParts(regions, jobs);
+  const parts = opts.parts ?? siteParts(regions, jobs);
   let partPeakRssMB: number[] = [];
   let partSeconds: number[] = [];
   let gatherSeconds = 0;
