@@ -11,8 +11,7 @@
 import { join } from 'node:path';
 import { writeFileAtomic } from '../model/effects.ts';
 import type { Caution } from '../work/cautions.ts';
-import { regionWideTables, regionWideTablesOfRecords, wideCsv, type WideTable } from './region-wide-table.ts';
-import type { RegionTableRecord } from './region-table.ts';
+import { regionWideTables, wideCsv, type WideTable } from './region-wide-table.ts';
 import { workbookBytes, type CellValue, type SheetSpec } from './workbook.ts';
 
 /** What the assumptions sheet says about the atlas. */
@@ -125,17 +124,16 @@ export function regionWorkbookSheets(region: { id: string; name: string }, table
 
 /**
  * Writes `<id>.wide.csv` and, unless `workbook` is false (config `regionWorkbooks`), `<id>.xlsx`
- * under `dataDir/regions/` from the region's tidy table: its CSV text, or its records as
- * region-table.ts `regionTable` gives them with the text (the same tables, without parsing).
+ * under `dataDir/regions/` from the region's tidy CSV text.
  */
 export async function writeRegionSpreadsheets(
   dataDir: string,
   region: { id: string; name: string },
-  tidy: string | readonly RegionTableRecord[],
+  tidy: string,
   info: RegionSheetInfo,
   workbook = true,
 ): Promise<void> {
-  const tables = typeof tidy === 'string' ? regionWideTables(tidy, info.figureLabels) : regionWideTablesOfRecords(tidy, info.figureLabels);
+  const tables = regionWideTables(tidy, info.figureLabels);
   const hours = tables.find((t) => t.unit === 'h');
   if (hours) await writeFileAtomic(join(dataDir, regionWidePath(region.id)), wideCsv(hours));
   if (!workbook) return;

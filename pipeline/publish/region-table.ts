@@ -47,12 +47,6 @@ export function periodLabel(p: number): string {
   return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');
 }
 
-/**
- * One record of the region table, its fields in {@link REGION_TABLE_COLUMNS} order as the CSV
- * writer gets them (a value NaN, a count NaN are written empty).
- */
-export type RegionTableRecord = [string, string, string, string, string, string, string, string, number, string, number, string];
-
 /** The table of one region (its figures' normals hold that region alone: items period · nCombo + combo). */
 export function regionTableCsv(
   regionId: string,
@@ -61,26 +55,7 @@ export function regionTableCsv(
   latestYear: number,
   built?: readonly [number, number],
 ): string {
-  return regionTable(regionId, figures, baseline, latestYear, built).text;
-}
-
-/**
- * The table of one region as its CSV text and as its records in the same order (the wide tables,
- * region-wide-table.ts, are made from the records instead of parsing the text again).
- */
-export function regionTable(
-  regionId: string,
-  figures: readonly RegionFigureNormals[],
-  baseline: [number, number],
-  latestYear: number,
-  built?: readonly [number, number],
-): { text: string; records: RegionTableRecord[] } {
-  const records: RegionTableRecord[] = [];
   let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
-  const put = (r: RegionTableRecord) => {
-    records.push(r);
-    out += csvLine(r);
-  };
   const base = `${baseline[0]}-${baseline[1]}`;
   for (let p = 0; p < PERIODS; p++) {
     for (const fn of figures) {
@@ -101,7 +76,7 @@ export function regionTable(
           'worst-cell-mean': fn.worstValue[i],
         };
         for (const s of STATISTICS) {
-          put([
+          out += csvLine([
             regionId,
             periodLabel(p),
             def.id,
@@ -119,7 +94,7 @@ export function regionTable(
         const tr = fn.trend;
         if (tr && p === ANNUAL) {
           const span = built ? `${built[0]}-${built[1]}` : base;
-          put([
+          out += csvLine([
             regionId,
             'year',
             def.id,
@@ -133,7 +108,7 @@ export function regionTable(
             tr.years[k],
             span,
           ]);
-          put([
+          out += csvLine([
             regionId,
             'year',
             def.id,
@@ -151,5 +126,5 @@ export function regionTable(
       }
     }
   }
-  return { text: out, records };
+  return out;
 }

@@ -8,7 +8,7 @@
  * region-spreadsheets.ts.
  */
 import { csvLine, splitCsvRecord } from '../formats/csv.ts';
-import { REGION_TABLE_COLUMNS, type RegionTableRecord } from './region-table.ts';
+import { REGION_TABLE_COLUMNS } from './region-table.ts';
 
 const MONTH_ABBR = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 const PERIODS = [...MONTH_ABBR.map((_, i) => String(i + 1).padStart(2, '0')), 'year'];
@@ -121,42 +121,6 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
     if (p >= 0) row.values[p] = f[cValue] === '' ? NaN : Number(f[cValue]);
     const y = Number(f[cYears]);
     if (Number.isFinite(y)) row.yearsUsed = Math.min(row.yearsUsed, y);
-  }
-  for (const t of tables.values()) for (const r of t.rows) if (!Number.isFinite(r.yearsUsed)) r.yearsUsed = NaN;
-  return [...tables.values()].sort((a, b) => (a.unit === 'h' ? -1 : b.unit === 'h' ? 1 : a.unit.localeCompare(b.unit)));
-}
-
-/**
- * {@link regionWideTables} of the table's records as region-table.ts writes them (the same tables
- * as from its CSV text, without parsing it: a number is what its text reads back as, an empty
- * value NaN, an empty count 0, as `Number('')` gives for the text).
- */
-export function regionWideTablesOfRecords(records: readonly RegionTableRecord[], labels: ReadonlyMap<string, string>): WideTable[] {
-  const tables = new Map<string, WideTable>();
-  const index = new Map<string, WideTable['rows'][number]>();
-  for (const [, period, figure, cls, accl, exp, method, stat, value, unit, years, baseline] of records) {
-    let t = tables.get(unit);
-    if (!t) {
-      t = { unit, header: wideHeader(unit), rows: [] };
-      tables.set(unit, t);
-    }
-    const id = `${unit}|${figure},${cls},${accl},${exp},${method},${stat}`;
-    let row = index.get(id);
-    if (!row) {
-      row = {
-        keys: [figure, labels.get(figure) ?? figure, cls, accl, exp, method, stat],
-        values: new Array(PERIODS.length).fill(NaN),
-        yearsUsed: Infinity,
-        baseline,
-      };
-      index.set(id, row);
-      t.rows.push(row);
-    }
-    const p = PERIODS.indexOf(period);
-    if (p >= 0) row.values[p] = Number.isFinite(value) ? value : NaN;
-    // A count written empty (NaN) reads back as 0.
-    const y = Number.isFinite(years) ? years : 0;
-    row.yearsUsed = Math.min(row.yearsUsed, y);
   }
   for (const t of tables.values()) for (const r of t.rows) if (!Number.isFinite(r.yearsUsed)) r.yearsUsed = NaN;
   return [...tables.values()].sort((a, b) => (a.unit === 'h' ? -1 : b.unit === 'h' ? 1 : a.unit.localeCompare(b.unit)));

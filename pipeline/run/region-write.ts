@@ -28,7 +28,7 @@ import {
 } from '../formats/region-parts.ts';
 import { regionWorkforceYears } from '../regions/person-hours.ts';
 import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE, type ShareProfile } from '../regions/workforce-shares.ts';
-import { regionTable } from '../publish/region-table.ts';
+import { regionTableCsv } from '../publish/region-table.ts';
 import { writeRegionSpreadsheets, type RegionSheetInfo } from '../publish/region-spreadsheets.ts';
 import { encodeHistogramTileYearPairs, HISTOGRAM_TILE_YEAR_MAX_BYTES } from '../publish/histogram-tiles.ts';
 import { HIST_LEN } from '../reduce/layout.ts';
@@ -182,12 +182,12 @@ async function writeRegionFiles(ctx: RegionContext, task: RegionTask, scratch: R
       ['Full-time equivalent', `${wf.annualHours} h: a year of the shift pattern (hours per shift × days per week × 52)`],
     ];
   }
-  const table = regionTable(region.id, figures, baseline, latestYear, [years[0], years[nY - 1]]);
-  writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table.text);
+  const table = regionTableCsv(region.id, figures, baseline, latestYear, [years[0], years[nY - 1]]);
+  writeFileSync(join(dataDir, 'regions', `${region.id}.csv`), table);
   await writeRegionSpreadsheets(
     dataDir,
     region,
-    table.records,
+    table,
     workforceRows.length > 0 ? { ...ctx.sheetInfo, workforce: workforceRows } : ctx.sheetInfo,
     ctx.regionWorkbooks,
   );

@@ -50,30 +50,3 @@ describe('trend rows of the region table', () => {
     ]);
   });
 });
-
-describe('the wide tables of a region', () => {
-  it('are the same made from the table records as from its CSV text, with empty values, missing years, two units and trend rows', async () => {
-    const { regionTable } = await import('../../pipeline/publish/region-table.ts');
-    const { regionWideTables, regionWideTablesOfRecords } = await import('../../pipeline/publish/region-wide-table.ts');
-    const years = Array.from({ length: 16 }, (_, i) => 2001 + i);
-    const nItems = PERIODS * 2;
-    const defs = [
-      { id: 'hours-lost-shift', label: 'Hours lost', units: 'h', combos: ['moderate.acclimatized.sun', 'heavy.unacclimatized.shade'], annual: 'sum' },
-      { id: 'air-temperature-mean', label: 'Air temperature', units: 'degC', combos: ['', ''], annual: 'mean' },
-    ] as FigureDef[];
-    const figures = defs.map((def, d) => {
-      const values = new Float64Array(years.length * nItems);
-      // Invented values with gaps: every seventh value missing, one combination empty in some months.
-      values.forEach((_, i) => (values[i] = i % 7 === 3 || (i % nItems === 5 && d === 0) ? NaN : ((i * 37) % 101) / 7 + d * 20));
-      const region = computeNormals({ years, values, nItems }, { baseline: [2001, 2010], latestYear: 2016 });
-      const trend = computeTrends({ years, values, nItems }, [(PERIODS - 1) * 2, (PERIODS - 1) * 2 + 1]);
-      return { def, region, worstValue: new Float64Array(nItems).fill(NaN).map((_, i) => (i % 3 ? i / 3 : NaN)), trend };
-    });
-    const t = regionTable('r1', figures, [2001, 2010], 2016, [2001, 2016]);
-    const labels = new Map([['hours-lost-shift', 'Hours lost']]);
-    const fromText = regionWideTables(t.text, labels);
-    expect(new Set(fromText.map((w) => w.unit))).toEqual(new Set(['h', 'degC', 'h decade-1', 'degC decade-1', '1']));
-    expect(fromText.flatMap((w) => w.rows).some((r) => r.values.some((v) => Number.isNaN(v)))).toBe(true);
-    expect(regionWideTablesOfRecords(t.records, labels)).toEqual(fromText);
-  });
-});
