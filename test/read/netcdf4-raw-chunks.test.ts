@@ -191,6 +191,10 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
         const want: number[] = [];
         for (let t = 4; t < 21; t++) for (let y = 2; y < 9; y++) for (let x = 6; x < 17; x++) want.push(ref[(t * 10 + y) * 17 + x]);
         expect(await slab(sf, v, [4, 2, 6], [17, 7, 11])).toEqual(want);
+        // Consecutive slabs of 3 hours over chunks of 5: most start in a chunk the slab before ended in.
+        const steps: number[] = [];
+        for (let t0 = 0; t0 < v.shape[0]; t0 += 3) steps.push(...(await slab(sf, v, [t0, 0, 0], [Math.min(3, v.shape[0] - t0), v.shape[1], v.shape[2]])));
+        expect(steps).toEqual(ref);
       }
     } finally {
       await sf.close();
