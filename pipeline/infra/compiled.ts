@@ -22,6 +22,7 @@ export const WORKER_ENTRIES = {
   digest: 'read/digest-worker',
   'site-digest': 'run/site-digest-worker',
   region: 'run/region-worker',
+  inflate: 'read/inflate-worker',
 } as const;
 
 export type WorkerName = keyof typeof WORKER_ENTRIES;

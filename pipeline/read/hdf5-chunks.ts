@@ -1,10 +1,11 @@
 /**
  * Hyperslabs of chunked NetCDF-4 variables read without the HDF5 library: the chunks a slab
  * touches are found in the variable's chunk index (hdf5-layout.ts), their stored bytes read with
- * plain file reads, inflated by node:zlib (one reused stream and output buffer in this thread;
- * or, on request, on libuv's thread pool with several chunks in flight), the byte shuffle undone
- * in JS, and the values copied into a dense row-major array of the slab's shape, exactly what the
- * HDF5 library returns.
+ * plain file reads, inflated by node:zlib (one reused stream and output buffer per thread), the
+ * byte shuffle undone in JS, and the values copied into a dense row-major array of the slab's
+ * shape, exactly what the HDF5 library returns. A slab of several chunks is shared with a helper
+ * thread when this one reads alone on a machine of several cores (inflate-helper.ts): both take
+ * chunks from one shared counter and write into the slab's shared memory.
  *
  * Filters: HDF5's deflate filter stores a zlib stream (RFC 1950) per chunk (H5Zdeflate.c); its
  * shuffle filter stores byte k of every value together, plane after plane, with the bytes of a
@@ -12,26 +13,17 @@
  * A chunk that does not inflate, inflates to the wrong size, or lies outside the file is
  * `NetcdfChunkDamaged` naming the file, the variable and the chunk; nothing is handed out then.
  */
-import { endianness } from 'node:os';
-import { Inflate, constants as zlibConstants, inflate, inflateSync } from 'node:zlib';
+import { readSync } from 'node:fs';
+import { availableParallelism, endianness } from 'node:os';
+import { isMainThread } from 'node:worker_threads';
+import { Inflate, constants as zlibConstants, inflateSync } from 'node:zlib';
 import type { FileHandle } from 'node:fs/promises';
 import { NetcdfChunkDamaged } from './errors.ts';
 import { FILTER_DEFLATE, type ChunkIndex } from './hdf5-layout.ts';
-
-/** Chunks read and inflated at once (libuv's thread pool has 4 threads unless UV_THREADPOOL_SIZE says otherwise). */
-export const CHUNKS_IN_FLIGHT = 6;
+import { helperReady, runOnHelper } from './inflate-helper.ts';
 
 /** Whether values can be copied as bytes into typed arrays of this machine (little-endian files only). */
 export const LITTLE_ENDIAN_HOST = endianness() === 'LE';
-
-function inflateChunk(b: Uint8Array, expected: number): Promise<Buffer> {
-  return new Promise((resolve, reject) => {
-    // One output buffer of the chunk's size; a stream that would inflate to more stops there.
-    inflate(b, { chunkSize: Math.max(64, Math.min(expected + 64, 1 << 30)), maxOutputLength: Math.max(1, expected) }, (e, out) =>
-      e ? reject(e) : resolve(out),
-    );
-  });
-}
 
 /**
  * One zlib inflate stream reused for every chunk of this thread, writing into one reused buffer:
@@ -86,7 +78,7 @@ export function inflateChunkSync(src: Uint8Array, expected: number): Uint8Array 
 }
 
 /** Where the chunk of linear index `lin` starts along each dimension [values]. */
-export function chunkOrigin(idx: ChunkIndex, lin: number): number[] {
+export function chunkOrigin(idx: Pick<ChunkIndex, 'grid' | 'chunk'>, lin: number): number[] {
   const o = new Array<number>(idx.grid.length);
   for (let d = idx.grid.length - 1; d >= 0; d--) {
     o[d] = (lin % idx.grid[d]) * idx.chunk[d];
@@ -150,7 +142,7 @@ export function unshuffle(src: Uint8Array, dst: Uint8Array, size: number): void 
  * are copied as one.
  */
 export function scatterChunk(
-  idx: ChunkIndex,
+  idx: Pick<ChunkIndex, 'chunk' | 'elementBytes'>,
   origin: number[],
   chunk: Uint8Array,
   off: number[],
@@ -270,24 +262,81 @@ export interface RawSlabRead {
 const MAX_SPAN = 64 << 20;
 
 /**
- * How chunks are inflated: `sync` (the default: one reused zlib stream in this thread inflating
- * into one reused buffer, {@link inflateChunkSync}; least CPU per chunk) or `pool` (node:zlib's
- * asynchronous inflate on libuv's thread pool, {@link CHUNKS_IN_FLIGHT} at once, the copying in
- * this thread meanwhile; more CPU per chunk, a new buffer each). HEATHOURS_NETCDF4_INFLATE=pool
- * picks the latter.
+ * Who inflates a slab's chunks: `sync` (this thread alone: one reused zlib stream inflating into
+ * one reused buffer, {@link inflateChunkSync}) or `helper` (this thread and one helper thread,
+ * inflate-helper.ts, each taking the next chunk from a shared counter). The default is `helper`
+ * in a process's main thread on a machine of two or more cores, where the reader is alone (the
+ * pipeline's workers, which already fill the cores, read alone in theirs); an environment
+ * HEATHOURS_NETCDF4_INFLATE of `sync` or `helper` says which.
  */
-export type InflateMode = 'pool' | 'sync';
-export const inflateMode = (): InflateMode => (process.env.HEATHOURS_NETCDF4_INFLATE === 'pool' ? 'pool' : 'sync');
+export type InflateMode = 'helper' | 'sync';
+export const inflateMode = (): InflateMode => {
+  const e = process.env.HEATHOURS_NETCDF4_INFLATE;
+  if (e === 'sync' || e === 'helper') return e;
+  return isMainThread && availableParallelism() > 1 ? 'helper' : 'sync';
+};
+
+/** Why a chunk's bytes cannot be a chunk of the variable; the caller names the chunk. */
+class ChunkFault extends Error {}
+
+/** The filters of a chunked variable, as far as undoing them goes. */
+type ChunkFilters = Pick<ChunkIndex, 'filters' | 'elementBytes'>;
+
+/**
+ * The stored bytes of one chunk with its filters undone (filter k skipped where bit k of `mask`
+ * is set), in the reverse of the order they were applied: its bytes [bytes] (a view of this
+ * thread's reused inflate buffer when deflate was last undone) and whether a shuffle is left to
+ * undo while copying. Throws {@link ChunkFault} saying what is wrong.
+ */
+function unfilterChunk(idx: ChunkFilters, mask: number, stored: Uint8Array, chunkBytes: number): { b: Uint8Array; shuffledLast: boolean } {
+  let b = stored;
+  let shuffledLast = false;
+  for (let k = idx.filters.length - 1; k >= 0; k--) {
+    if (mask & (1 << k)) continue;
+    if (idx.filters[k].id === FILTER_DEFLATE) {
+      try {
+        b = inflateChunkSync(b, chunkBytes);
+      } catch (e) {
+        throw new ChunkFault(
+          (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE'
+            ? `it inflates to more than the ${chunkBytes} bytes of a chunk`
+            : `it does not inflate (${(e as Error).message})`,
+        );
+      }
+    } else if (idx.elementBytes > 1) {
+      // A shuffle undone last is undone while copying into the slab.
+      if (k === 0) shuffledLast = true;
+      else {
+        if (b.length !== chunkBytes) throw new ChunkFault(`it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
+        const dst = new Uint8Array(chunkBytes);
+        unshuffle(b, dst, idx.elementBytes);
+        b = dst;
+      }
+    }
+  }
+  if (b.length !== chunkBytes) throw new ChunkFault(`it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
+  return { b, shuffledLast };
+}
 
 /**
  * Reads the slab [off, off + cnt) of a variable into `out`. Returns false, having written
  * nothing that counts, when a chunk it needs was never written (HDF5 then gives the fill value,
  * so the caller reads through the library).
  */
-export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
+export function readRawSlab(r: RawSlabRead): Promise<boolean> {
+  return beginRawSlab(r)();
+}
+
+/**
+ * Starts reading the slab [off, off + cnt) of a variable into `out` and returns the call that
+ * finishes it ({@link readRawSlab}'s answer). With a helper thread, the helper starts taking the
+ * slab's chunks at once, so the caller can do other work (decode the slab before) in between;
+ * this thread takes its share when the call is made. Errors surface from that call.
+ */
+export function beginRawSlab(r: RawSlabRead): () => Promise<boolean> {
   const { idx } = r;
   const list = chunksOfSlab(idx, r.off, r.cnt);
-  for (const lin of list) if (idx.address[lin] < 0) return false;
+  for (const lin of list) if (idx.address[lin] < 0) return async () => false;
   const chunkBytes = idx.chunk.reduce((a, b) => a * b, 1) * idx.elementBytes;
   const damaged = (lin: number, detail: string) =>
     NetcdfChunkDamaged(
@@ -301,26 +350,165 @@ export async function readRawSlab(r: RawSlabRead): Promise<boolean> {
   for (const lin of list) {
     const at = idx.address[lin];
     const size = idx.size[lin];
-    if (at + size > r.fileBytes) throw damaged(lin, `its ${size} bytes end past the end of the file (${r.fileBytes} bytes)`);
-    if (size > 4 * chunkBytes + (1 << 20)) throw damaged(lin, `it is recorded as ${size} bytes, more than a chunk of ${chunkBytes} bytes can take compressed`);
+    if (at + size > r.fileBytes) {
+      const e = damaged(lin, `its ${size} bytes end past the end of the file (${r.fileBytes} bytes)`);
+      return () => Promise.reject(e);
+    }
+    if (size > 4 * chunkBytes + (1 << 20)) {
+      const e = damaged(lin, `it is recorded as ${size} bytes, more than a chunk of ${chunkBytes} bytes can take compressed`);
+      return () => Promise.reject(e);
+    }
     lo = Math.min(lo, at);
     hi = Math.max(hi, at + size);
     stored += size;
   }
-  let span: Buffer | null = null;
-  let taken: Buffer | null = null;
-  if (list.length > 1 && hi - lo <= MAX_SPAN && hi - lo <= 2 * stored + (1 << 20)) {
-    taken = takeSpan(hi - lo);
-    span = taken.subarray(0, hi - lo);
-    const { bytesRead } = await r.fh.read(span, 0, hi - lo, lo);
-    if (bytesRead < hi - lo) span = null;
+  const decodeOne = (lin: number, b: Uint8Array): void => {
+    try {
+      const u = unfilterChunk(idx, idx.mask[lin], b, chunkBytes);
+      scatterChunk(idx, chunkOrigin(idx, lin), u.b, r.off, r.cnt, r.out, u.shuffledLast);
+    } catch (e) {
+      throw e instanceof ChunkFault ? damaged(lin, e.message) : e;
+    }
+  };
+  const readOne = async (lin: number): Promise<Uint8Array> => {
+    const size = idx.size[lin];
+    const b = Buffer.allocUnsafe(size);
+    const { bytesRead } = await r.fh.read(b, 0, size, idx.address[lin]);
+    if (bytesRead < size) throw damaged(lin, `only ${bytesRead} of its ${size} bytes could be read`);
+    return b;
+  };
+  if (list.length > 1 && r.out.buffer instanceof SharedArrayBuffer && inflateMode() === 'helper' && helperReady()) {
+    const n = list.length;
+    const job: SharedSlab = {
+      fd: r.fh.fd,
+      chunk: idx.chunk,
+      grid: idx.grid,
+      elementBytes: idx.elementBytes,
+      filters: idx.filters,
+      chunkBytes,
+      off: r.off,
+      cnt: r.cnt,
+      out: r.out,
+      lins: Float64Array.from(list),
+      at: Float64Array.from(list, (lin) => idx.address[lin]),
+      size: Float64Array.from(list, (lin) => idx.size[lin]),
+      mask: Uint32Array.from(list, (lin) => idx.mask[lin]),
+      ctrl: new Int32Array(new SharedArrayBuffer(4 * (n + 1))),
+    };
+    const helped = runOnHelper(job);
+    begun.add(job);
+    return async () => {
+      try {
+        claimChunks(job);
+        // While the helper finishes its last chunks of this slab, this thread takes chunks of
+        // slabs begun after it rather than wait.
+        while (!settled(job)) {
+          let stole = false;
+          for (const other of begun) if (other !== job && (stole = claimChunk(other))) break;
+          if (!stole) {
+            await helped;
+            break;
+          }
+        }
+      } finally {
+        begun.delete(job);
+      }
+      // What the helper could not do (a damaged chunk, or the helper stopped) is done here, with
+      // the chunk's catalogued error.
+      for (let k = 0; k < n; k++) if (Atomics.load(job.ctrl, k + 1) !== CHUNK_DONE) decodeOne(list[k], await readOne(list[k]));
+      return true;
+    };
   }
-  try {
-    return await inflateSlab(r, list, chunkBytes, damaged, span, lo);
-  } finally {
-    if (taken) giveSpan(taken);
-  }
+  return async () => {
+    let span: Buffer | null = null;
+    let taken: Buffer | null = null;
+    if (list.length > 1 && hi - lo <= MAX_SPAN && hi - lo <= 2 * stored + (1 << 20)) {
+      taken = takeSpan(hi - lo);
+      span = taken.subarray(0, hi - lo);
+      const { bytesRead } = await r.fh.read(span, 0, hi - lo, lo);
+      if (bytesRead < hi - lo) span = null;
+    }
+    try {
+      for (const lin of list) {
+        const at = idx.address[lin];
+        decodeOne(lin, span ? span.subarray(at - lo, at - lo + idx.size[lin]) : await readOne(lin));
+      }
+      return true;
+    } finally {
+      if (taken) giveSpan(taken);
+    }
+  };
 }
+
+/** A chunk's state in {@link SharedSlab.ctrl}: done, or failed (its thread goes on with the next). */
+export const CHUNK_DONE = 1;
+const CHUNK_FAILED = 2;
+
+/**
+ * A slab whose chunks two threads share (structured-clone safe: `out` and `ctrl` are views of
+ * shared memory). Per listed chunk: its linear index, file offset [bytes], stored size [bytes]
+ * and filter mask.
+ */
+export interface SharedSlab extends Pick<ChunkIndex, 'chunk' | 'grid' | 'elementBytes' | 'filters'> {
+  /** The file's descriptor, open in this process (readable from any of its threads). */
+  fd: number;
+  /** Bytes of one chunk [bytes]. */
+  chunkBytes: number;
+  off: number[];
+  cnt: number[];
+  /** The slab's dense bytes, on a SharedArrayBuffer. */
+  out: Uint8Array;
+  lins: Float64Array;
+  at: Float64Array;
+  size: Float64Array;
+  mask: Uint32Array;
+  /** [0]: the next chunk to take; [1 + k]: chunk k's state (0 while not done). */
+  ctrl: Int32Array;
+}
+
+/** Stored bytes of one chunk, read into a buffer kept for this thread's next chunk. */
+let storedBuf = Buffer.alloc(0);
+
+/**
+ * Takes chunks of `job` from its shared counter until none is left: reads each one's stored bytes
+ * (a synchronous read from the descriptor), undoes its filters and copies it into the slab,
+ * marking it done, or failed without a word (the reading thread does it again and says why).
+ * Runs in the reading thread and in the helper; returns how many chunks it took.
+ */
+export function claimChunks(job: SharedSlab): number {
+  let taken = 0;
+  while (claimChunk(job)) taken++;
+  return taken;
+}
+
+/** Takes the next chunk of `job` and does it (see {@link claimChunks}); false when none was left. */
+function claimChunk(job: SharedSlab): boolean {
+  const k = Atomics.add(job.ctrl, 0, 1);
+  if (k >= job.lins.length) return false;
+  let state = CHUNK_FAILED;
+  try {
+    const size = job.size[k];
+    if (storedBuf.length < size) storedBuf = Buffer.allocUnsafe(Math.ceil(size * 1.25));
+    if (readSync(job.fd, storedBuf, 0, size, job.at[k]) === size) {
+      const u = unfilterChunk(job, job.mask[k], storedBuf.subarray(0, size), job.chunkBytes);
+      scatterChunk(job, chunkOrigin(job, job.lins[k]), u.b, job.off, job.cnt, job.out, u.shuffledLast);
+      state = CHUNK_DONE;
+    }
+  } catch {
+    // failed: the reading thread does it again and names the chunk
+  }
+  Atomics.store(job.ctrl, k + 1, state);
+  return true;
+}
+
+/** Whether every chunk of `job` is done or failed. */
+function settled(job: SharedSlab): boolean {
+  for (let k = 1; k <= job.lins.length; k++) if (Atomics.load(job.ctrl, k) === 0) return false;
+  return true;
+}
+
+/** Slabs of this thread shared with the helper and not yet finished, oldest first. */
+const begun = new Set<SharedSlab>();
 
 /**
  * One span buffer kept for the next slab of this thread (at most {@link SPAN_KEPT} bytes): a
@@ -340,80 +528,4 @@ function takeSpan(bytes: number): Buffer {
 
 function giveSpan(b: Buffer): void {
   if (b.length <= SPAN_KEPT && (spare === null || spare.length < b.length)) spare = b;
-}
-
-/** The chunks `list` of slab `r` inflated, unshuffled and scattered into `r.out`; `span` holds their stored bytes from file offset `lo` when read in one go. */
-async function inflateSlab(
-  r: RawSlabRead,
-  list: number[],
-  chunkBytes: number,
-  damaged: (lin: number, detail: string) => Error,
-  span: Buffer | null,
-  lo: number,
-): Promise<boolean> {
-  const { idx } = r;
-  const storedBytes = async (lin: number): Promise<Uint8Array> => {
-    const at = idx.address[lin];
-    const size = idx.size[lin];
-    if (span) return span.subarray(at - lo, at - lo + size);
-    const b = Buffer.allocUnsafe(size);
-    const { bytesRead } = await r.fh.read(b, 0, size, at);
-    if (bytesRead < size) throw damaged(lin, `only ${bytesRead} of its ${size} bytes could be read`);
-    return b;
-  };
-  const sync = inflateMode() === 'sync';
-  let scratch: Uint8Array | undefined;
-  const one = async (lin: number): Promise<void> => {
-    let b = await storedBytes(lin);
-    const mask = idx.mask[lin];
-    // Filters are undone in the reverse of the order they were applied; a shuffle undone last
-    // is undone while copying into the slab.
-    let shuffledLast = false;
-    for (let k = idx.filters.length - 1; k >= 0; k--) {
-      if (mask & (1 << k)) continue;
-      if (idx.filters[k].id === FILTER_DEFLATE) {
-        try {
-          b = sync ? inflateChunkSync(b, chunkBytes) : await inflateChunk(b, chunkBytes);
-        } catch (e) {
-          const why =
-            (e as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE'
-              ? `it inflates to more than the ${chunkBytes} bytes of a chunk`
-              : `it does not inflate (${(e as Error).message})`;
-          throw damaged(lin, why);
-        }
-      } else if (idx.elementBytes > 1) {
-        if (k === 0) shuffledLast = true;
-        else {
-          if (b.length !== chunkBytes) throw damaged(lin, `it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
-          const dst = new Uint8Array(chunkBytes);
-          unshuffle(b, dst, idx.elementBytes);
-          b = dst;
-        }
-      }
-    }
-    if (b.length !== chunkBytes) throw damaged(lin, `it holds ${b.length} bytes where a chunk has ${chunkBytes}`);
-    if (shuffledLast && idx.elementBytes !== 2 && idx.elementBytes !== 4) scratch ??= new Uint8Array(chunkBytes);
-    scatterChunk(idx, chunkOrigin(idx, lin), b, r.off, r.cnt, r.out, shuffledLast, scratch);
-  };
-  if (sync) {
-    for (const lin of list) await one(lin);
-    return true;
-  }
-  let next = 0;
-  let failure: unknown;
-  const lane = async (): Promise<void> => {
-    while (failure === undefined && next < list.length) {
-      const lin = list[next++];
-      try {
-        await one(lin);
-      } catch (e) {
-        failure ??= e;
-      }
-    }
-  };
-  const lanes: Promise<void>[] = [];
-  for (let k = 0; k < Math.min(CHUNKS_IN_FLIGHT, list.length); k++) lanes.push(lane());
-  await Promise.all(lanes);
-  if (failure !== undefined) throw failure;
-  return true;
 }

@@ -24,14 +24,14 @@ let h5module: H5Module;
 /** Set when HDF5 aborted in this thread: its WebAssembly instance cannot be used again. */
 let stopped = '';
 import { NetcdfFileTruncated, NetcdfReadFailed } from './errors.ts';
-import { LITTLE_ENDIAN_HOST, readRawSlab } from './hdf5-chunks.ts';
+import { LITTLE_ENDIAN_HOST, beginRawSlab, inflateMode } from './hdf5-chunks.ts';
 import { RawLayoutRefused, readChunkIndex, superblockSizes, type ChunkIndex, type Hdf5Sizes } from './hdf5-layout.ts';
 import { superblockEndOfFile } from './hdf5-struct.ts';
 import { describeNetcdf4, readNetcdf4Strings } from './hdf5-meta.ts';
 import type { Hdf5Variable } from './hdf5-describe.ts';
 import { hdf5Reason, isAbort, quietly } from './hdf5-quiet.ts';
 import { denseStrides, product, type RawArray, type RawType, type SlabRequest, type SlabSink, type SourceFile, type SourceVariable } from './source.ts';
-import { ChunkCarry } from './chunk-carry.ts';
+import { ChunkCarry, type CarryPlan, type CarrySink } from './chunk-carry.ts';
 
 /** Typed-array constructor for values read straight from the wasm heap, by raw type. */
 const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => RawArray>> = {
@@ -46,7 +46,7 @@ const HEAP_VIEW: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: 
 };
 
 /** 64-bit integer arrays, read from the raw chunks and handed out as doubles (as the library path does). */
-const WIDE: Partial<Record<RawType, new (b: ArrayBuffer, o: number, n: number) => BigInt64Array | BigUint64Array>> = {
+const WIDE: Partial<Record<RawType, new (b: ArrayBufferLike, o: number, n: number) => BigInt64Array | BigUint64Array>> = {
   int64: BigInt64Array,
   uint64: BigUint64Array,
 };
@@ -246,7 +246,9 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
   let fh: Promise<FileHandle> | undefined;
   const handle = (): Promise<FileHandle> => (fh ??= open(path, 'r'));
   const indexes = new Map<SourceVariable, Promise<ChunkIndex | string>>();
-  let rawBuf = new ArrayBuffer(0);
+  // Two reused output buffers (a slab is read into one while the one before is decoded), on
+  // shared memory when a helper thread may write chunks into them (hdf5-chunks.ts inflateMode).
+  const rawBufs: Array<ArrayBuffer | SharedArrayBuffer> = [new ArrayBuffer(0), new ArrayBuffer(0)];
   const libraryOnly = rawOff();
   const readAt = async (at: number, n: number): Promise<Uint8Array> => {
     const b = Buffer.allocUnsafe(n);
@@ -281,52 +283,92 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
    * caller keeps it, and reads may run side by side), or null (the HDF5 library reads it).
    */
   async function readRaw(v: SourceVariable, off: number[], cnt: number[], fresh = false): Promise<RawArray | null> {
+    return (await beginRaw(v, off, cnt, fresh ? -1 : 0))();
+  }
+
+  /**
+   * Starts {@link readRaw} into reused buffer `slot` (0 or 1; -1: a new one) and returns the call
+   * that finishes it (hdf5-chunks.ts beginRawSlab: a helper thread starts on the chunks at once).
+   */
+  async function beginRaw(v: SourceVariable, off: number[], cnt: number[], slot: number): Promise<() => Promise<RawArray | null>> {
     const idx = await indexOf(v);
-    if (typeof idx === 'string') return null;
+    if (typeof idx === 'string') return async () => null;
     // 64-bit integers (ERA5's `valid_time`, `number`) become doubles, as the library path gives them.
     const wide = WIDE[v.type];
     const View = HEAP_VIEW[v.type];
-    const typed = (buf: ArrayBuffer, n: number): RawArray =>
+    const typed = (buf: ArrayBuffer | SharedArrayBuffer, n: number): RawArray =>
       wide ? Float64Array.from(new wide(buf, 0, n), (x) => Number(x)) : new (View as NonNullable<typeof View>)(buf, 0, n);
     if (v.shape.length === 0) {
       // A scalar: one value at the address of its contiguous or compact storage.
-      if (!idx.contiguous || idx.address[0] < 0) return null;
+      if (!idx.contiguous || idx.address[0] < 0) return async () => null;
       const b = await readAt(idx.address[0], idx.elementBytes);
-      if (b.length < idx.elementBytes) return null;
+      if (b.length < idx.elementBytes) return async () => null;
       const one = new ArrayBuffer(idx.elementBytes);
       new Uint8Array(one).set(b);
-      return typed(one, 1);
+      return async () => typed(one, 1);
     }
     const nbytes = product(cnt) * idx.elementBytes;
-    const own = fresh || wide !== undefined;
-    if (!own && rawBuf.byteLength < nbytes) rawBuf = new ArrayBuffer(nbytes);
-    const buf = own ? new ArrayBuffer(nbytes) : rawBuf;
+    const own = slot < 0 || wide !== undefined;
+    const shared = inflateMode() === 'helper';
+    if (!own && (rawBufs[slot].byteLength < nbytes || (shared && !(rawBufs[slot] instanceof SharedArrayBuffer))))
+      rawBufs[slot] = shared ? new SharedArrayBuffer(nbytes) : new ArrayBuffer(nbytes);
+    const buf = own ? new ArrayBuffer(nbytes) : rawBufs[slot];
     const out = new Uint8Array(buf, 0, nbytes);
-    const ok = await readRawSlab({ fh: await handle(), path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
-    return ok ? typed(buf, nbytes / idx.elementBytes) : null;
+    const finish = beginRawSlab({ fh: await handle(), path, fileBytes: bytes, variable: v.name, dims: v.dims, idx, off, cnt, out });
+    return async () => ((await finish()) ? typed(buf, nbytes / idx.elementBytes) : null);
   }
 
+  /**
+   * Reads each request's slab and hands it to `sink`, request after request. Whole chunks along
+   * the first dimension: each chunk is inflated once per block, and the last one is kept for the
+   * block after (blocks rarely end on a chunk boundary). The raw read of the next request starts
+   * (into the other reused buffer) before this one is finished, so a helper thread goes on to its
+   * chunks while this thread finishes this one and `sink` decodes it.
+   */
   async function readSlabs(reqs: SlabRequest[], sink: SlabSink): Promise<void> {
-    for (let i = 0; i < reqs.length; i++) {
+    interface Started {
+      plan: CarryPlan<SourceVariable>;
+      finish: () => Promise<RawArray | null>;
+    }
+    const sinkOf =
+      (i: number): CarrySink =>
+      (data, base, strides, at, n) =>
+        sink(i, { data, view: null, type: reqs[i].v.type, base, strides }, at, n);
+    let slot = 0;
+    /** Serves request i from the kept chunk and starts the raw read of the rest, or null when nothing is left to read. */
+    const begin = async (i: number): Promise<Started | null> => {
       const { v, start, count } = reqs[i];
       if (v.shape.length === 0 || count.some((c) => c === 0)) {
         if (v.shape.length === 0) sink(i, { data: await read(v, start, count), view: null, type: v.type, base: 0, strides: [] }, 0, 1);
-        continue;
+        return null;
       }
-      // Whole chunks along the first dimension: each chunk is inflated once per block, and the
-      // last one is kept for the block after (blocks rarely end on a chunk boundary).
-      await carry.read(
-        v,
-        start,
-        count,
-        infoOf(v).chunk0,
-        v.shape[0],
-        async (off, cnt) => ({
-          data: (await readRaw(v, off, cnt)) ?? (await readDirect(v, off, cnt)) ?? (await read(v, off, cnt)),
-          strides: denseStrides(cnt),
-        }),
-        (data, base, strides, at, n) => sink(i, { data, view: null, type: v.type, base, strides }, at, n),
-      );
+      // A request of the variable of the one begun before it sees the chunk kept from the one
+      // before that: at worst it decodes a chunk again.
+      const plan = carry.begin(v, start, count, infoOf(v).chunk0, v.shape[0], sinkOf(i));
+      if (!plan) return null;
+      // Without a helper, chunks are written only when a read is finished, after the one before
+      // was handed out: one buffer serves.
+      slot = inflateMode() === 'helper' ? 1 - slot : 0;
+      return { plan, finish: await beginRaw(v, plan.start, plan.count, slot) };
+    };
+    // Two requests begun at a time: while this thread finishes one, the helper goes on to the next.
+    const started: Array<Started | null> = [];
+    for (let i = 0; i < Math.min(2, reqs.length); i++) started.push(await begin(i));
+    for (let i = 0; i < reqs.length; i++) {
+      const cur = started[i];
+      started[i] = null;
+      if (cur) {
+        const { v } = reqs[i];
+        const { plan } = cur;
+        const raw = await cur.finish();
+        const slab = {
+          data: raw ?? (await readDirect(v, plan.start, plan.count)) ?? (await read(v, plan.start, plan.count)),
+          strides: denseStrides(plan.count),
+        };
+        carry.finish(plan, slab, sinkOf(i));
+      }
+      // Its buffer is free again: the request after next begins in it.
+      if (i + 2 < reqs.length) started.push(await begin(i + 2));
     }
   }
 
@@ -356,7 +398,7 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
     },
     async close() {
       indexes.clear();
-      rawBuf = new ArrayBuffer(0);
+      rawBufs.fill(new ArrayBuffer(0));
       const h = fh;
       fh = undefined;
       if (h) await (await h.catch(() => undefined))?.close();

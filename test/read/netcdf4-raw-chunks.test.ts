@@ -19,6 +19,7 @@ import { netcdf4ReadPath } from '../../pipeline/read/hdf5-file.ts';
 import { describeNetcdf4 } from '../../pipeline/read/hdf5-meta.ts';
 import { readChunkIndex, superblockSizes } from '../../pipeline/read/hdf5-layout.ts';
 import { inflateChunkSync, unshuffle } from '../../pipeline/read/hdf5-chunks.ts';
+import { helperChunksTaken, inflateHelperReady, stopInflateHelper } from '../../pipeline/read/inflate-helper.ts';
 import type { RawArray, SourceFile, SourceVariable } from '../../pipeline/read/source.ts';
 import { fixturePath } from '../helpers/fixtures.ts';
 import { openDataset } from '../../pipeline/read/index.ts';
@@ -71,11 +72,18 @@ async function libraryValues(file: string, name: string, start: number[], count:
 
 /** A slab read through `readSlabs`, gathered into a dense row-major array of `count`. */
 async function slab(sf: SourceFile, v: SourceVariable, start: number[], count: number[]): Promise<number[]> {
-  const inner = count.slice(1).reduce((a, b) => a * b, 1);
-  const out = new Array<number>(count[0] * inner).fill(Number.NaN);
+  return (await slabs(sf, [{ v, start, count }]))[0];
+}
+
+/** The values of several requests read by one `readSlabs` call, one dense array per request. */
+async function slabs(sf: SourceFile, reqs: Array<{ v: SourceVariable; start: number[]; count: number[] }>): Promise<number[][]> {
+  const outs = reqs.map(({ count }) => new Array<number>(count.reduce((a, b) => a * b, 1)).fill(Number.NaN));
   let calls = 0;
-  await sf.readSlabs([{ v, start, count }], (_i, s, from, n) => {
+  await sf.readSlabs(reqs, (i, s, from, n) => {
     calls++;
+    const { count } = reqs[i];
+    const inner = count.slice(1).reduce((a, b) => a * b, 1);
+    const out = outs[i];
     const idx = new Array<number>(count.length).fill(0);
     for (let k = 0; k < n * inner; k++) {
       let rem = k;
@@ -89,8 +97,19 @@ async function slab(sf: SourceFile, v: SourceVariable, start: number[], count: n
       out[(from + idx[0]) * inner + (k % inner)] = s.data[at];
     }
   });
-  expect(calls).toBeGreaterThan(0);
-  return out;
+  expect(calls).toBeGreaterThanOrEqual(reqs.length);
+  return outs;
+}
+
+/** Runs `body` with the slabs' chunks inflated in this thread alone (`sync`) or shared with the helper thread (`helper`, once it is ready). */
+async function inflatedBy<T>(mode: 'helper' | 'sync', body: () => Promise<T>): Promise<T> {
+  process.env.HEATHOURS_NETCDF4_INFLATE = mode;
+  try {
+    if (mode === 'helper') expect(await inflateHelperReady()).toBe(true);
+    return await body();
+  } finally {
+    delete process.env.HEATHOURS_NETCDF4_INFLATE;
+  }
 }
 
 /**
@@ -165,14 +184,61 @@ describe('NetCDF-4 chunks read and inflated without the HDF5 library', () => {
     }
   });
 
-  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs, inflated in this thread (reused stream) or on the pool', async () => {
-    for (const file of [packed, copied]) await sameAsReference(file);
-    // The same with every chunk inflated on libuv's thread pool (HEATHOURS_NETCDF4_INFLATE=pool).
-    process.env.HEATHOURS_NETCDF4_INFLATE = 'pool';
+  it('deflate 1 + shuffle with edge chunks (23 × 10 × 17 in chunks 5 × 3 × 7, python3-netcdf4) and nccopy -d1 -s copies: float32, int16, float64, int32, int8 equal python3-netcdf4 in whole and in odd slabs, inflated in this thread alone or shared with the helper thread', async () => {
+    await inflatedBy('sync', async () => {
+      for (const file of [packed, copied]) await sameAsReference(file);
+    });
+    const before = helperChunksTaken();
+    await inflatedBy('helper', () => sameAsReference(packed));
+    // The helper did take chunks (the test would pass on this thread alone otherwise).
+    expect(helperChunksTaken()).toBeGreaterThan(before);
+  });
+
+  it('one readSlabs call of several requests (the chunks of the next one inflated by the helper while this one is handed out; the same variable twice, in consecutive hours that share a chunk) equals python3-netcdf4', async () => {
+    const sf = await openSourceFile(packed);
     try {
-      await sameAsReference(packed);
+      const names = ['f4', 'i2', 'f8', 'i4', 'u1'];
+      const refs = new Map<string, number[]>();
+      for (const name of names) refs.set(name, asArray(referenceBytes(packed, name), (await sf.read(varOf(sf, name), [0, 0, 0], [1, 1, 1])) as RawArray));
+      const reqs = [
+        ...names.map((name) => ({ v: varOf(sf, name), start: [2, 0, 0], count: [11, 10, 17] })),
+        // Hours 13-15 then 16-22 of f4: the second starts in the chunk (hours 15-19) the first ended in.
+        { v: varOf(sf, 'f4'), start: [13, 0, 0], count: [3, 10, 17] },
+        { v: varOf(sf, 'f4'), start: [16, 0, 0], count: [7, 10, 17] },
+      ];
+      const hours = (name: string, t0: number, nt: number) => refs.get(name)!.slice(t0 * 170, (t0 + nt) * 170);
+      const want = reqs.map((r) => hours(r.v.name, r.start[0], r.count[0]));
+      for (const mode of ['sync', 'helper'] as const) {
+        const before = helperChunksTaken();
+        // Several rounds: on a busy machine the helper may start too late to take a chunk of one.
+        for (let round = 0; round < (mode === 'helper' ? 10 : 1); round++) {
+          const got = await inflatedBy(mode, () => slabs(sf, reqs));
+          for (let i = 0; i < reqs.length; i++) expect(got[i], `${mode}: request ${i} (${reqs[i].v.name})`).toEqual(want[i]);
+        }
+        if (mode === 'helper') expect(helperChunksTaken()).toBeGreaterThan(before);
+      }
     } finally {
-      delete process.env.HEATHOURS_NETCDF4_INFLATE;
+      await sf.close();
+    }
+  });
+
+  it('a helper thread that stops is not started again: the reader does every chunk itself, values unchanged', async () => {
+    const sf = await openSourceFile(packed);
+    try {
+      const v = varOf(sf, 'f4');
+      const ref = asArray(referenceBytes(packed, 'f4'), new Float32Array(0));
+      expect(await inflatedBy('helper', () => slab(sf, v, [0, 0, 0], v.shape))).toEqual(ref);
+      await stopInflateHelper();
+      const before = helperChunksTaken();
+      process.env.HEATHOURS_NETCDF4_INFLATE = 'helper';
+      try {
+        expect(await slab(sf, v, [0, 0, 0], v.shape)).toEqual(ref);
+      } finally {
+        delete process.env.HEATHOURS_NETCDF4_INFLATE;
+      }
+      expect(helperChunksTaken()).toBe(before);
+    } finally {
+      await sf.close();
     }
   });
 
@@ -279,7 +345,7 @@ describe('NetCDF-4 variables stored contiguously', () => {
 });
 
 describe('damaged chunks', () => {
-  it('a chunk whose deflate stream is overwritten is NetcdfChunkDamaged naming the file, variable and chunk, and nothing is handed out', async () => {
+  it('a chunk whose deflate stream is overwritten is NetcdfChunkDamaged naming the file, variable and chunk, and nothing is handed out, in this thread alone and shared with the helper', async () => {
     const file = join(dir, 'bad-inflate.nc');
     copyFileSync(packed, file);
     // Chunk (time 5, lat 0, lon 7): linear index (1 · 4 + 0) · 3 + 1 = 13 on the 5 × 4 × 3 chunk grid.
@@ -288,14 +354,18 @@ describe('damaged chunks', () => {
     const sf = await openSourceFile(file);
     try {
       const v = varOf(sf, 'f4');
-      let pieces = 0;
-      const e = await expectCataloguedAsync(
-        sf.readSlabs([{ v, start: [0, 0, 0], count: v.shape }], () => pieces++),
-        'NetcdfChunkDamaged',
-        /variable f4, the chunk starting at time 5, lat 0, lon 7 .*does not inflate/,
-      );
-      expect(e.message).toContain(file);
-      expect(pieces).toBe(0);
+      for (const mode of ['sync', 'helper'] as const) {
+        let pieces = 0;
+        const e = await inflatedBy(mode, () =>
+          expectCataloguedAsync(
+            sf.readSlabs([{ v, start: [0, 0, 0], count: v.shape }], () => pieces++),
+            'NetcdfChunkDamaged',
+            /variable f4, the chunk starting at time 5, lat 0, lon 7 .*does not inflate/,
+          ),
+        );
+        expect(e.message).toContain(file);
+        expect(pieces).toBe(0);
+      }
       // Chunks before the damage still read.
       const ok = await slab(sf, v, [0, 0, 0], [5, 10, 17]);
       expect(ok).toEqual(asArray(referenceBytes(packed, 'f4'), new Float32Array(0)).slice(0, 5 * 10 * 17));
@@ -329,7 +399,7 @@ describe('damaged chunks', () => {
     expect(Buffer.compare(Buffer.from(inflateChunkSync(z, a.length)), Buffer.from(a))).toBe(0);
   });
 
-  it('a chunk that inflates to more bytes than a chunk holds is NetcdfChunkDamaged saying so, in this thread and on the pool', async () => {
+  it('a chunk that inflates to more bytes than a chunk holds is NetcdfChunkDamaged saying so, in this thread alone and shared with the helper', async () => {
     const file = join(dir, 'too-long.nc');
     copyFileSync(packed, file);
     const { at, size, idx } = await chunkAt(file, 'i2', 0);
@@ -337,18 +407,19 @@ describe('damaged chunks', () => {
     const long = deflateSync(new Uint8Array(chunkBytes + 6));
     expect(long.length).toBeLessThanOrEqual(size);
     patch(file, at, long);
-    for (const mode of ['sync', 'pool']) {
-      process.env.HEATHOURS_NETCDF4_INFLATE = mode;
+    for (const mode of ['sync', 'helper'] as const) {
       const sf = await openSourceFile(file);
       try {
         const v = varOf(sf, 'i2');
-        await expectCataloguedAsync(
-          sf.readSlabs([{ v, start: [0, 0, 0], count: [5, 3, 7] }], () => undefined),
-          'NetcdfChunkDamaged',
-          new RegExp(`variable i2, the chunk starting at time 0, lat 0, lon 0 .*inflates to more than the ${chunkBytes} bytes of a chunk`),
+        // The whole variable: several chunks, so the helper takes some (the damaged one is redone here, named).
+        await inflatedBy(mode, () =>
+          expectCataloguedAsync(
+            sf.readSlabs([{ v, start: [0, 0, 0], count: v.shape }], () => undefined),
+            'NetcdfChunkDamaged',
+            new RegExp(`variable i2, the chunk starting at time 0, lat 0, lon 0 .*inflates to more than the ${chunkBytes} bytes of a chunk`),
+          ),
         );
       } finally {
-        delete process.env.HEATHOURS_NETCDF4_INFLATE;
         await sf.close();
       }
     }
