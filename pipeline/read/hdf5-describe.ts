@@ -52,6 +52,18 @@ export interface Hdf5Variable {
   header: number | null;
 }
 
+/** What names and shapes a variable, found the same way by both describers. */
+export type Hdf5VariableNaming = Pick<Hdf5Variable, 'name' | 'dims' | 'shape' | 'type' | 'attrs' | 'attrTypes'>;
+
+/**
+ * A variable's description from what a describer found: its naming, the chunk length along its
+ * first dimension [values] (1 unless a whole positive number), the bytes per value [bytes],
+ * whether those are plain little-endian numbers, and its object header's address [bytes].
+ */
+export function describedVariable(naming: Hdf5VariableNaming, chunk0: number, valueBytes: number, plain: boolean, header: number | null): Hdf5Variable {
+  return { ...naming, chunk0: Number.isSafeInteger(chunk0) && chunk0 >= 1 ? chunk0 : 1, valueBytes, plain, header };
+}
+
 export interface Hdf5Description {
   /** Whether the file carries NetCDF-4 markers (dimension scales or netCDF attributes). */
   netcdf: boolean;
@@ -150,19 +162,10 @@ export function describeHdf5(f: H5File, h5: H5Classes): Hdf5Description {
     const nameAttr = isScale ? plainValue(safe(() => raw.NAME.value)) : undefined;
     if (typeof nameAttr === 'string' && nameAttr.startsWith(PURE_DIMENSION)) continue;
     const type = rawType(meta);
-    const chunk0 = Number(meta.chunks?.[0] ?? 1);
-    variables.push({
-      name,
-      dims,
-      shape,
-      type,
-      attrs,
-      attrTypes,
-      chunk0: Number.isSafeInteger(chunk0) && chunk0 >= 1 ? chunk0 : 1,
-      valueBytes: Number(meta.size) || 0,
-      plain: PLAIN.has(type) && meta.vlen !== true && meta.littleEndian !== false,
-      header: headerAddress(ds),
-    });
+    const plain = PLAIN.has(type) && meta.vlen !== true && meta.littleEndian !== false;
+    variables.push(
+      describedVariable({ name, dims, shape, type, attrs, attrTypes }, Number(meta.chunks?.[0] ?? 1), Number(meta.size) || 0, plain, headerAddress(ds)),
+    );
   }
   const globalAttrs: Record<string, AttrValue> = {};
   for (const [an, a] of Object.entries(rootAttrs)) {

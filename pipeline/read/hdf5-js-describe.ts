@@ -16,7 +16,7 @@
  */
 import { open } from 'node:fs/promises';
 import { attributeValue, dimensionList, rawTypeOf } from './hdf5-attr-values.ts';
-import type { Hdf5Description, Hdf5Variable } from './hdf5-describe.ts';
+import { describedVariable, type Hdf5Description, type Hdf5Variable } from './hdf5-describe.ts';
 import { btree2Records, FractalHeap } from './hdf5-dense.ts';
 import { GlobalHeap } from './hdf5-global-heap.ts';
 import { groupMembers, isGroup, type WalkBudget } from './hdf5-groups.ts';
@@ -237,18 +237,8 @@ async function describe(read: ReadAt, bytes: number): Promise<Hdf5Description> {
     }
     const chunk0 = layout.kind === 'chunked' ? layout.dims[0] : 1;
     const littleEndian = dtype.cls === 'int' || dtype.cls === 'float' ? dtype.littleEndian : false;
-    variables.push({
-      name,
-      dims,
-      shape,
-      type,
-      attrs,
-      attrTypes,
-      chunk0: Number.isSafeInteger(chunk0) && chunk0 >= 1 ? chunk0 : 1,
-      valueBytes: dtype.cls === 'vstring' ? VLEN_STRING_BYTES : dtype.size,
-      plain: PLAIN.has(type) && littleEndian,
-      header: at,
-    });
+    const valueBytes = dtype.cls === 'vstring' ? VLEN_STRING_BYTES : dtype.size;
+    variables.push(describedVariable({ name, dims, shape, type, attrs, attrTypes }, chunk0, valueBytes, PLAIN.has(type) && littleEndian, at));
   }
   const globalAttrs: Record<string, AttrValue> = {};
   for (const a of rootAttrs) {
