@@ -6,12 +6,13 @@
  *   assumptions (the atlas build, its data, the work settings, what the statistics mean) and the
  *   cautions (workbook.ts, exceljs).
  * The build calls {@link writeRegionSpreadsheets} for one region at a time, right after it writes
- * that region's tidy table, so memory holds one region's table.
+ * that region's tidy table, with the wide tables made from the same figures, so memory holds one
+ * region's tables.
  */
 import { join } from 'node:path';
 import { writeFileAtomic } from '../model/effects.ts';
 import type { Caution } from '../work/cautions.ts';
-import { regionWideTables, wideCsv, type WideTable } from './region-wide-table.ts';
+import { wideCsv, type WideTable } from './region-wide-table.ts';
 import { workbookBytes, type CellValue, type SheetSpec } from './workbook.ts';
 
 /** What the assumptions sheet says about the atlas. */
@@ -124,16 +125,16 @@ export function regionWorkbookSheets(region: { id: string; name: string }, table
 
 /**
  * Writes `<id>.wide.csv` and, unless `workbook` is false (config `regionWorkbooks`), `<id>.xlsx`
- * under `dataDir/regions/` from the region's tidy CSV text.
+ * under `dataDir/regions/` from the region's wide tables (region-wide-table.ts: made from its
+ * figures, `regionWideTablesOf`, or read from its tidy table, `regionWideTables`).
  */
 export async function writeRegionSpreadsheets(
   dataDir: string,
   region: { id: string; name: string },
-  tidy: string,
+  tables: readonly WideTable[],
   info: RegionSheetInfo,
   workbook = true,
 ): Promise<void> {
-  const tables = regionWideTables(tidy, info.figureLabels);
   const hours = tables.find((t) => t.unit === 'h');
   if (hours) await writeFileAtomic(join(dataDir, regionWidePath(region.id)), wideCsv(hours));
   if (!workbook) return;

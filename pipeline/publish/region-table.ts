@@ -13,7 +13,8 @@
 import type { RegionFigureNormals } from './figure-normals.ts';
 import { PERIODS, ANNUAL } from '../reduce/figures.ts';
 import { comboColumns } from './combo.ts';
-import { csvLine, roundTo } from '../formats/csv.ts';
+import { csvField, csvLine, roundTo } from '../formats/csv.ts';
+import type { FigureDef } from '../reduce/figures.ts';
 
 export const REGION_TABLE_COLUMNS = [
   'region_id',
@@ -47,6 +48,78 @@ export function periodLabel(p: number): string {
   return p === ANNUAL ? 'year' : String(p + 1).padStart(2, '0');
 }
 
+/**
+ * The fixed middle of every row of one figure (period, figure, workload class, acclimatization,
+ * exposure, method, statistic, each as a CSV field with its comma after): made once per figure
+ * and thread, so a region's rows only add their values. Index (period · nCombo + combo) ·
+ * (statistics + 2) + statistic; the two after the statistics are `trend` and `trend-p`.
+ */
+const rowMiddles = new WeakMap<FigureDef, string[]>();
+
+function middlesOf(def: FigureDef): string[] {
+  let m = rowMiddles.get(def);
+  if (m) return m;
+  m = [];
+  const stats = [...STATISTICS, ...TREND_STATISTICS];
+  for (let p = 0; p < PERIODS; p++)
+    for (const combo of def.combos) {
+      const cc = comboColumns(def.id, combo);
+      const keys = `${csvField(periodLabel(p))},${csvField(def.id)},${csvField(cc.workload_class)},${csvField(cc.acclimatization)},${csvField(cc.exposure)},${csvField(cc.method)},`;
+      for (const s of stats) m.push(`${keys}${csvField(s)},`);
+    }
+  rowMiddles.set(def, m);
+  return m;
+}
+
+/** Where `latest` is in {@link STATISTICS}: its row says 1 year used, the latest year as baseline. */
+const LATEST = STATISTICS.indexOf('latest');
+
+/** A number as a CSV field: empty when not finite (as csvField). */
+const num = (v: number): string => (Number.isFinite(v) ? String(v) : '');
+
+/**
+ * Receives one row of a region's table: figure `f` of the list, period `p`, combination `k`, and
+ * statistic `s` (an index of {@link STATISTICS}, then `trend` and `trend-p`); its value as the
+ * table writes it (rounded; NaN written empty) [figure's unit] and its years_used (NaN written
+ * empty) [years].
+ */
+export type RegionRowSink = (f: number, p: number, k: number, s: number, value: number, yearsUsed: number) => void;
+
+/** The rows of a region's table in the table's order (period, figure, combination, statistic), to `sink`. */
+export function regionRows(figures: readonly RegionFigureNormals[], sink: RegionRowSink): void {
+  const nS = STATISTICS.length;
+  for (let p = 0; p < PERIODS; p++) {
+    for (let f = 0; f < figures.length; f++) {
+      const fn = figures[f];
+      const nC = fn.def.combos.length;
+      const digits = DIGITS[fn.def.units] ?? 3;
+      const r = fn.region;
+      const columns = STATISTICS.map((st) => (st === 'worst-cell-mean' ? fn.worstValue : r[st]));
+      for (let k = 0; k < nC; k++) {
+        const i = p * nC + k;
+        for (let s = 0; s < nS; s++) sink(f, p, k, s, roundTo(columns[s][i], digits), s === LATEST ? 1 : r.yearsUsed[i]);
+        const tr = fn.trend;
+        if (tr && p === ANNUAL) {
+          sink(f, p, k, nS, roundTo(tr.slopePerDecade[k], digits), tr.years[k]);
+          sink(f, p, k, nS + 1, pValueText(tr.pValue[k]), tr.years[k]);
+        }
+      }
+    }
+  }
+}
+
+/** The unit column of statistic `s` (as {@link RegionRowSink}) of a figure in `units`. */
+export function rowUnit(units: string, s: number): string {
+  return s < STATISTICS.length ? units : s === STATISTICS.length ? trendUnit(units) : '1';
+}
+
+/** The baseline column of statistic `s` (as {@link RegionRowSink}): the latest year, the years built (trends) or the baseline. */
+export function rowBaseline(s: number, baseline: readonly [number, number], latestYear: number, built?: readonly [number, number]): string {
+  if (s === LATEST) return String(latestYear);
+  if (s >= STATISTICS.length && built) return `${built[0]}-${built[1]}`;
+  return `${baseline[0]}-${baseline[1]}`;
+}
+
 /** The table of one region (its figures' normals hold that region alone: items period · nCombo + combo). */
 export function regionTableCsv(
   regionId: string,
@@ -56,75 +129,14 @@ export function regionTableCsv(
   built?: readonly [number, number],
 ): string {
   let out = csvLine(REGION_TABLE_COLUMNS as unknown as string[]);
-  const base = `${baseline[0]}-${baseline[1]}`;
-  for (let p = 0; p < PERIODS; p++) {
-    for (const fn of figures) {
-      const def = fn.def;
-      const nC = def.combos.length;
-      const digits = DIGITS[def.units] ?? 3;
-      for (let k = 0; k < nC; k++) {
-        const i = p * nC + k;
-        const cc = comboColumns(def.id, def.combos[k]);
-        const r = fn.region;
-        const stats: Record<(typeof STATISTICS)[number], number> = {
-          mean: r.mean[i],
-          median: r.median[i],
-          p90: r.p90[i],
-          min: r.min[i],
-          max: r.max[i],
-          latest: r.latest[i],
-          'worst-cell-mean': fn.worstValue[i],
-        };
-        for (const s of STATISTICS) {
-          out += csvLine([
-            regionId,
-            periodLabel(p),
-            def.id,
-            cc.workload_class,
-            cc.acclimatization,
-            cc.exposure,
-            cc.method,
-            s,
-            roundTo(stats[s], digits),
-            def.units,
-            s === 'latest' ? 1 : r.yearsUsed[i],
-            s === 'latest' ? String(latestYear) : base,
-          ]);
-        }
-        const tr = fn.trend;
-        if (tr && p === ANNUAL) {
-          const span = built ? `${built[0]}-${built[1]}` : base;
-          out += csvLine([
-            regionId,
-            'year',
-            def.id,
-            cc.workload_class,
-            cc.acclimatization,
-            cc.exposure,
-            cc.method,
-            'trend',
-            roundTo(tr.slopePerDecade[k], digits),
-            trendUnit(def.units),
-            tr.years[k],
-            span,
-          ]);
-          out += csvLine([
-            regionId,
-            'year',
-            def.id,
-            cc.workload_class,
-            cc.acclimatization,
-            cc.exposure,
-            cc.method,
-            'trend-p',
-            pValueText(tr.pValue[k]),
-            '1',
-            tr.years[k],
-            span,
-          ]);
-        }
-      }
-    }
-  }
+  const rid = `${csvField(regionId)},`;
+  const nS = STATISTICS.length + TREND_STATISTICS.length;
+  // Per statistic: the columns after the value (unit, years used, baseline) but the years.
+  const ends = Array.from({ length: nS }, (_, s) => `,${csvField(rowBaseline(s, baseline, latestYear, built))}\n`);
+  const mids = figures.map((fn) => middlesOf(fn.def));
+  const units = figures.map((fn) => Array.from({ length: nS }, (_, s) => `,${csvField(rowUnit(fn.def.units, s))},`));
+  regionRows(figures, (f, p, k, s, value, yearsUsed) => {
+    out += `${rid}${mids[f][(p * figures[f].def.combos.length + k) * nS + s]}${num(value)}${units[f][s]}${num(yearsUsed)}${ends[s]}`;
+  });
   return out;
 }

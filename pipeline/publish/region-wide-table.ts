@@ -8,7 +8,10 @@
  * region-spreadsheets.ts.
  */
 import { csvLine, splitCsvRecord } from '../formats/csv.ts';
-import { REGION_TABLE_COLUMNS } from './region-table.ts';
+import { REGION_TABLE_COLUMNS, STATISTICS, TREND_STATISTICS, regionRows, rowBaseline, rowUnit } from './region-table.ts';
+import type { RegionFigureNormals } from './figure-normals.ts';
+import type { FigureDef } from '../reduce/figures.ts';
+import { comboColumns } from './combo.ts';
 
 const MONTH_ABBR = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 const PERIODS = [...MONTH_ABBR.map((_, i) => String(i + 1).padStart(2, '0')), 'year'];
@@ -122,6 +125,71 @@ export function regionWideTables(tidy: string, labels: ReadonlyMap<string, strin
     const y = Number(f[cYears]);
     if (Number.isFinite(y)) row.yearsUsed = Math.min(row.yearsUsed, y);
   }
+  for (const t of tables.values()) for (const r of t.rows) if (!Number.isFinite(r.yearsUsed)) r.yearsUsed = NaN;
+  return [...tables.values()].sort((a, b) => (a.unit === 'h' ? -1 : b.unit === 'h' ? 1 : a.unit.localeCompare(b.unit)));
+}
+
+/**
+ * Per figure (and thread): each row's key as {@link regionWideTables} forms it from a table line
+ * (unit, then the figure to the statistic), and its key columns, by combination · (statistics + 2)
+ * + statistic (region-table.ts `regionRows`).
+ */
+const figureKeys = new WeakMap<ReadonlyMap<string, string>, WeakMap<FigureDef, Array<{ id: string; keys: string[] }>>>();
+
+function keysOf(def: FigureDef, labels: ReadonlyMap<string, string>): Array<{ id: string; keys: string[] }> {
+  let byDef = figureKeys.get(labels);
+  if (!byDef) figureKeys.set(labels, (byDef = new WeakMap()));
+  let m = byDef.get(def);
+  if (m) return m;
+  m = [];
+  const stats = [...STATISTICS, ...TREND_STATISTICS];
+  for (const combo of def.combos) {
+    const cc = comboColumns(def.id, combo);
+    stats.forEach((st, s) => {
+      const cols = [def.id, cc.workload_class, cc.acclimatization, cc.exposure, cc.method, st];
+      m!.push({ id: `${rowUnit(def.units, s)}|${cols.join(',')}`, keys: [def.id, labels.get(def.id) ?? def.id, ...cols.slice(1)] });
+    });
+  }
+  byDef.set(def, m);
+  return m;
+}
+
+/**
+ * The wide tables of one region made from its figures, without writing and re-reading its tidy
+ * table: the same tables {@link regionWideTables} reads from the text `regionTableCsv` writes of
+ * the same figures (the values as the table rounds them, an empty years_used read as 0, as
+ * `Number('')` does). Row keys are kept per label map and figure.
+ */
+export function regionWideTablesOf(
+  figures: readonly RegionFigureNormals[],
+  labels: ReadonlyMap<string, string>,
+  baseline: readonly [number, number],
+  latestYear: number,
+  built?: readonly [number, number],
+): WideTable[] {
+  const nS = STATISTICS.length + TREND_STATISTICS.length;
+  const tables = new Map<string, WideTable>();
+  const index = new Map<string, WideTable['rows'][number]>();
+  const keys = figures.map((fn) => keysOf(fn.def, labels));
+  const bases = Array.from({ length: nS }, (_, s) => rowBaseline(s, baseline, latestYear, built));
+  regionRows(figures, (f, p, k, s, value, yearsUsed) => {
+    const key = keys[f][k * nS + s];
+    let row = index.get(key.id);
+    if (!row) {
+      const unit = rowUnit(figures[f].def.units, s);
+      let t = tables.get(unit);
+      if (!t) {
+        t = { unit, header: wideHeader(unit), rows: [] };
+        tables.set(unit, t);
+      }
+      row = { keys: key.keys, values: new Array(PERIODS.length).fill(NaN), yearsUsed: Infinity, baseline: bases[s] };
+      index.set(key.id, row);
+      t.rows.push(row);
+    }
+    // As the text reads back: -0 is written 0.
+    row.values[p] = Number.isFinite(value) ? value + 0 : NaN;
+    row.yearsUsed = Math.min(row.yearsUsed, Number.isFinite(yearsUsed) ? yearsUsed : 0);
+  });
   for (const t of tables.values()) for (const r of t.rows) if (!Number.isFinite(r.yearsUsed)) r.yearsUsed = NaN;
   return [...tables.values()].sort((a, b) => (a.unit === 'h' ? -1 : b.unit === 'h' ? 1 : a.unit.localeCompare(b.unit)));
 }

@@ -30,6 +30,7 @@ import { regionWorkforceYears } from '../regions/person-hours.ts';
 import { DEFAULT_ACCLIMATIZED_SHARE, DEFAULT_SUN_SHARE, type ShareProfile } from '../regions/workforce-shares.ts';
 import { regionTableCsv } from '../publish/region-table.ts';
 import { writeRegionSpreadsheets, type RegionSheetInfo } from '../publish/region-spreadsheets.ts';
+import { regionWideTablesOf } from '../publish/region-wide-table.ts';
 import { encodeHistogramTileYearPairs, HISTOGRAM_TILE_YEAR_MAX_BYTES } from '../publish/histogram-tiles.ts';
 import { HIST_LEN } from '../reduce/layout.ts';
 import type { RegionFigureNormals } from '../publish/figure-normals.ts';
@@ -187,7 +188,7 @@ async function writeRegionFiles(ctx: RegionContext, task: RegionTask, scratch: R
   await writeRegionSpreadsheets(
     dataDir,
     region,
-    table,
+    regionWideTablesOf(figures, ctx.sheetInfo.figureLabels, baseline, latestYear, [years[0], years[nY - 1]]),
     workforceRows.length > 0 ? { ...ctx.sheetInfo, workforce: workforceRows } : ctx.sheetInfo,
     ctx.regionWorkbooks,
   );

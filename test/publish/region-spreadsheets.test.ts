@@ -13,7 +13,10 @@ import { promisify } from 'node:util';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildPipelineData } from '../site/pipeline-data.ts';
 import { splitCsvRecord } from '../../pipeline/formats/csv.ts';
-import { regionWideTables } from '../../pipeline/publish/region-wide-table.ts';
+import { regionWideTables, regionWideTablesOf, wideCsv } from '../../pipeline/publish/region-wide-table.ts';
+import { regionTableCsv } from '../../pipeline/publish/region-table.ts';
+import { PERIODS } from '../../pipeline/reduce/figures.ts';
+import type { RegionFigureNormals } from '../../pipeline/publish/figure-normals.ts';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { writeRegionSpreadsheets, type RegionSheetInfo } from '../../pipeline/publish/region-spreadsheets.ts';
@@ -170,6 +173,59 @@ describe('region spreadsheets', () => {
     expect(regionWideTables(moved, labels)).toEqual(own);
   });
 
+  it('the wide tables made from the figures (the build) equal those read back from the tidy table written of them: empty values, -0, missing years and trends included', () => {
+    let seed = 11;
+    const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+    const value = () => {
+      const x = rnd();
+      return x < 0.1 ? Number.NaN : x < 0.15 ? Number.POSITIVE_INFINITY : (rnd() - 0.3) * 10 ** Math.floor(rnd() * 8 - 3);
+    };
+    const defs = [
+      { id: 'hours-above-limit', units: 'h', combos: ['light.acclimatized.sun', 'heavy.unacclimatized.shade'] },
+      { id: 'mean-temperature', units: 'degC', combos: ['air', 'sun'] },
+      { id: 'capacity-loss-shift', units: '%', combos: ['iso.sun'] },
+      { id: 'person-hours-lost', units: 'person-h', combos: ['all', 'light'] },
+      { id: 'hours-lost-shift', units: 'h', combos: ['light.acclimatized.sun'] },
+    ];
+    const labels = new Map([
+      ['hours-above-limit', 'Hours above'],
+      ['mean-temperature', 'Mean "air", °C'],
+    ]);
+    for (let t = 0; t < 40; t++) {
+      const figures = defs.map((def) => {
+        const n = PERIODS * def.combos.length;
+        const arr = () => Float64Array.from({ length: n }, value);
+        const nC = def.combos.length;
+        return {
+          def,
+          region: {
+            mean: arr(),
+            median: arr(),
+            p90: arr(),
+            min: arr(),
+            max: arr(),
+            latest: arr(),
+            yearsUsed: Float64Array.from({ length: n }, () => (rnd() < 0.1 ? Number.NaN : Math.floor(rnd() * 30))),
+          },
+          worstValue: arr(),
+          trend:
+            rnd() < 0.3
+              ? undefined
+              : {
+                  slopePerDecade: Float64Array.from({ length: nC }, value),
+                  pValue: Float64Array.from({ length: nC }, () => rnd() ** 8),
+                  years: Float64Array.from({ length: nC }, () => Math.floor(rnd() * 30)),
+                },
+        } as unknown as RegionFigureNormals;
+      });
+      const built = t % 2 ? ([1980, 2023] as const) : undefined;
+      const read = regionWideTables(regionTableCsv(`r-${t}`, figures, [1991, 2020], 2023, built), labels);
+      const made = regionWideTablesOf(figures, labels, [1991, 2020], 2023, built);
+      expect(made).toStrictEqual(read);
+      expect(made.map(wideCsv)).toEqual(read.map(wideCsv));
+    }
+  });
+
   it('with regionWorkbooks false (config), a region gets its wide CSV and no workbook; with the default it gets both', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'hh-wb-'));
     try {
@@ -191,10 +247,10 @@ describe('region spreadsheets', () => {
         statistics: {},
         cautions: [],
       };
-      await writeRegionSpreadsheets(dir, { id: 'a', name: 'A' }, text, info, false);
+      await writeRegionSpreadsheets(dir, { id: 'a', name: 'A' }, regionWideTables(text, info.figureLabels), info, false);
       expect(existsSync(join(dir, 'regions/a.wide.csv'))).toBe(true);
       expect(existsSync(join(dir, 'regions/a.xlsx'))).toBe(false);
-      await writeRegionSpreadsheets(dir, { id: 'b', name: 'B' }, text, info);
+      await writeRegionSpreadsheets(dir, { id: 'b', name: 'B' }, regionWideTables(text, info.figureLabels), info);
       expect(existsSync(join(dir, 'regions/b.wide.csv'))).toBe(true);
       expect(existsSync(join(dir, 'regions/b.xlsx'))).toBe(true);
     } finally {
