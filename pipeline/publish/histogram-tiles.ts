@@ -97,24 +97,36 @@ export function encodeHistogramTileYearPairs(pairs: Float64Array, touched: Uint8
   return p;
 }
 
-/** Decodes a tile into per-year Float64Arrays of MONTHS × HOURS × N_EXPOSURES × HIST_LEN [h]. */
-export function decodeHistogramTile(bytes: Uint8Array, nYears: number): Float64Array[] {
+/**
+ * Decodes a tile into per-year Float64Arrays of MONTHS × HOURS × N_EXPOSURES × HIST_LEN [h]. With
+ * `into` (arrays of that length from an earlier call), those are zeroed and filled instead of new
+ * ones (no fresh memory per tile). Throws RangeError when the bytes end early, a slot's bins run
+ * past the histogram, or bytes are left over.
+ */
+export function decodeHistogramTile(bytes: Uint8Array, nYears: number, into?: Float64Array[]): Float64Array[] {
   const slots = MONTHS * HOURS * N_EXPOSURES;
   const out: Float64Array[] = [];
+  const end = bytes.length;
   let p = 0;
   for (let y = 0; y < nYears; y++) {
-    const hist = new Float64Array(slots * HIST_LEN);
+    const kept = into?.[y];
+    const hist = kept && kept.length === slots * HIST_LEN ? kept.fill(0) : new Float64Array(slots * HIST_LEN);
     for (let s = 0; s < slots; s++) {
+      if (p + 2 > end) throw new RangeError(`histogram tile ends early (${end} bytes: year ${y + 1} of ${nYears}, slot ${s + 1} of ${slots})`);
       const first = bytes[p++];
       const n = bytes[p++];
+      if (first + n > HIST_LEN)
+        throw new RangeError(`histogram tile slot ${s + 1} of year ${y + 1} has bins ${first}–${first + n - 1}, past the ${HIST_LEN} bins`);
+      if (p + 2 * n > end) throw new RangeError(`histogram tile ends early (${end} bytes: year ${y + 1} of ${nYears}, slot ${s + 1} of ${slots})`);
+      const at = s * HIST_LEN + first;
       for (let b = 0; b < n; b++) {
-        hist[s * HIST_LEN + first + b] = (bytes[p] | (bytes[p + 1] << 8)) / HISTOGRAM_SCALE;
+        hist[at + b] = (bytes[p] | (bytes[p + 1] << 8)) / HISTOGRAM_SCALE;
         p += 2;
       }
     }
     out.push(hist);
   }
-  if (p !== bytes.length) throw new RangeError(`histogram tile has ${bytes.length - p} trailing bytes (expected ${nYears} years)`);
+  if (p !== end) throw new RangeError(`histogram tile has ${end - p} trailing bytes (expected ${nYears} years)`);
   return out;
 }
 

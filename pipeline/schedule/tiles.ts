@@ -7,19 +7,15 @@ import { decodeHistogramTile } from '../publish/histogram-tiles.ts';
 import type { EstimateContext } from './context.ts';
 import { EstimateDataUnavailable } from './errors.ts';
 
-/** A region tile's years. Catalogued error: EstimateDataUnavailable (not a tile of this many years). */
-export function regionTileHistograms(bytes: Uint8Array, path: string, ctx: EstimateContext): Float64Array[] {
-  let years: Float64Array[];
+/**
+ * A region tile's years, decoded into `into` when given (decodeHistogramTile). Catalogued error:
+ * EstimateDataUnavailable (not a tile of this many years: it ends early, its bins run past the
+ * histogram, or bytes are left over).
+ */
+export function regionTileHistograms(bytes: Uint8Array, path: string, ctx: EstimateContext, into?: Float64Array[]): Float64Array[] {
   try {
-    years = decodeHistogramTile(bytes, ctx.years.length);
+    return decodeHistogramTile(bytes, ctx.years.length, into);
   } catch (e) {
     throw EstimateDataUnavailable({ path, detail: `not a region tile of ${ctx.years.length} years (${(e as Error).message})` }, { file: path });
   }
-  for (const h of years) {
-    for (let i = 0; i < h.length; i++) {
-      if (Number.isNaN(h[i]))
-        throw EstimateDataUnavailable({ path, detail: `the tile ends early; it is not a region tile of ${ctx.years.length} years` }, { file: path });
-    }
-  }
-  return years;
 }

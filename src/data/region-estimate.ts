@@ -80,5 +80,9 @@ function computeDifference(
   } catch {
     throw SiteDataMissing({ path, what: `histogram tile of region "${regionId}" (${entry.path})` }, { file: path });
   }
-  return estimateDifference(regionId, regionTileHistograms(bytes, entry.path, loaded.ctx), loaded.ctx, figures);
+  scratch = regionTileHistograms(bytes, entry.path, loaded.ctx, scratch);
+  return estimateDifference(regionId, scratch, loaded.ctx, figures);
 }
+
+/** The histograms of the last tile read, reused for the next (the comparison keeps none of them). */
+let scratch: Float64Array[] | undefined;

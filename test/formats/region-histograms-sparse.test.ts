@@ -78,6 +78,24 @@ describe("sparse region histograms give the dense encoders' bytes", () => {
     expect(back.some((h) => h.some((v) => v === 0.01))).toBe(true);
   });
 
+  it('a tile decoded into the arrays of an earlier one gives the same values; one cut short, with bins past the histogram or with bytes left over is refused saying which', () => {
+    const years = [11, 12, 13].map(sparseYear);
+    const dense = years.map(({ pairs }) => Float32Array.from({ length: CELL_YEAR_HIST }, (_, i) => pairs[2 * i] + pairs[2 * i + 1]));
+    const tile = encodeHistogramTile(dense);
+    const fresh = decodeHistogramTile(tile, 3);
+    // Arrays of another tile (every bin set) are zeroed and refilled, not returned as they were.
+    const other = [0, 1, 2].map(() => new Float64Array(CELL_YEAR_HIST).fill(7));
+    const again = decodeHistogramTile(tile, 3, other);
+    expect(again[0]).toBe(other[0]);
+    expect(again).toEqual(fresh);
+    expect(() => decodeHistogramTile(tile.subarray(0, 50), 3)).toThrow(/ends early \(50 bytes: year 1 of 3/);
+    expect(() => decodeHistogramTile(tile.subarray(0, tile.length - 1), 3)).toThrow(/ends early/);
+    expect(() => decodeHistogramTile(Uint8Array.of(...tile, 0, 0), 3)).toThrow(/2 trailing bytes/);
+    // Slot 1 claiming bins from HIST_LEN − 1 on, two of them: past the histogram.
+    const bad = Uint8Array.of(HIST_LEN - 1, 2, 1, 0, 1, 0);
+    expect(() => decodeHistogramTile(bad, 1)).toThrow(new RegExp(`slot 1 of year 1 has bins ${HIST_LEN - 1}–${HIST_LEN}, past the ${HIST_LEN} bins`));
+  });
+
   it('an unmarked slot is written empty, and a tile year without room is refused', () => {
     const { pairs } = sparseYear(5);
     const none = new Uint8Array(SLOTS);
