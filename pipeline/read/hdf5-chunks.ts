@@ -20,7 +20,7 @@ import { Inflate, constants as zlibConstants, inflateSync } from 'node:zlib';
 import type { FileHandle } from 'node:fs/promises';
 import { NetcdfChunkDamaged } from './errors.ts';
 import { FILTER_DEFLATE, type ChunkIndex } from './hdf5-layout.ts';
-import { helperReady, runOnHelper } from './inflate-helper.ts';
+import { helperReady, runOnHelper, type SharedSlab } from './inflate-helper.ts';
 
 /** Whether values can be copied as bytes into typed arrays of this machine (little-endian files only). */
 export const LITTLE_ENDIAN_HOST = endianness() === 'LE';
@@ -443,28 +443,6 @@ export function beginRawSlab(r: RawSlabRead): () => Promise<boolean> {
 /** A chunk's state in {@link SharedSlab.ctrl}: done, or failed (its thread goes on with the next). */
 export const CHUNK_DONE = 1;
 const CHUNK_FAILED = 2;
-
-/**
- * A slab whose chunks two threads share (structured-clone safe: `out` and `ctrl` are views of
- * shared memory). Per listed chunk: its linear index, file offset [bytes], stored size [bytes]
- * and filter mask.
- */
-export interface SharedSlab extends Pick<ChunkIndex, 'chunk' | 'grid' | 'elementBytes' | 'filters'> {
-  /** The file's descriptor, open in this process (readable from any of its threads). */
-  fd: number;
-  /** Bytes of one chunk [bytes]. */
-  chunkBytes: number;
-  off: number[];
-  cnt: number[];
-  /** The slab's dense bytes, on a SharedArrayBuffer. */
-  out: Uint8Array;
-  lins: Float64Array;
-  at: Float64Array;
-  size: Float64Array;
-  mask: Uint32Array;
-  /** [0]: the next chunk to take; [1 + k]: chunk k's state (0 while not done). */
-  ctrl: Int32Array;
-}
 
 /** Stored bytes of one chunk, read into a buffer kept for this thread's next chunk. */
 let storedBuf = Buffer.alloc(0);

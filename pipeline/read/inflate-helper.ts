@@ -1,6 +1,6 @@
 /**
  * The helper thread that shares the chunks of NetCDF-4 slabs with the thread reading them
- * (hdf5-chunks.ts `claimChunks`, run in inflate-worker.ts): on a machine of two cores a reader
+ * (hdf5-chunks.ts `claimChunks`, run in inflate-worker.ts; the slab's description, {@link SharedSlab}, is here): on a machine of two cores a reader
  * alone leaves one idle, and inflating is most of its work. One helper per process, started on
  * first use and used once it has said it is ready (a slab never waits for it to start); idle, it
  * does not keep the process alive. A helper that fails or exits is not started again: the reading
@@ -8,7 +8,29 @@
  */
 import type { Worker } from 'node:worker_threads';
 import { startWorker } from '../infra/worker-pool.ts';
-import type { SharedSlab } from './hdf5-chunks.ts';
+import type { ChunkIndex } from './hdf5-layout.ts';
+
+/**
+ * A slab whose chunks two threads share (structured-clone safe: `out` and `ctrl` are views of
+ * shared memory). Per listed chunk: its linear index, file offset [bytes], stored size [bytes]
+ * and filter mask.
+ */
+export interface SharedSlab extends Pick<ChunkIndex, 'chunk' | 'grid' | 'elementBytes' | 'filters'> {
+  /** The file's descriptor, open in this process (readable from any of its threads). */
+  fd: number;
+  /** Bytes of one chunk [bytes]. */
+  chunkBytes: number;
+  off: number[];
+  cnt: number[];
+  /** The slab's dense bytes, on a SharedArrayBuffer. */
+  out: Uint8Array;
+  lins: Float64Array;
+  at: Float64Array;
+  size: Float64Array;
+  mask: Uint32Array;
+  /** [0]: the next chunk to take; [1 + k]: chunk k's state (0 while not done). */
+  ctrl: Int32Array;
+}
 
 /** What the helper posts: that it is ready, or that it has finished taking chunks of job `id` (`taken` of them). */
 export type HelperMessage = { ready: true } | { id: number; taken: number };

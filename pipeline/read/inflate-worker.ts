@@ -3,8 +3,8 @@
  * shared counter (hdf5-chunks.ts `claimChunks`) until none is left, then says so.
  */
 import { parentPort } from 'node:worker_threads';
-import { claimChunks, type SharedSlab } from './hdf5-chunks.ts';
-import type { HelperMessage } from './inflate-helper.ts';
+import { claimChunks } from './hdf5-chunks.ts';
+import type { HelperMessage, SharedSlab } from './inflate-helper.ts';
 
 const port = parentPort!;
 port.on('message', (m: { id: number; job: SharedSlab }) => {
