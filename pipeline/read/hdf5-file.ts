@@ -354,21 +354,27 @@ function buildHdf5File(path: string, bytes: number, d: Awaited<ReturnType<typeof
     // Two requests begun at a time: while this thread finishes one, the helper goes on to the next.
     const started: Array<Started | null> = [];
     for (let i = 0; i < Math.min(2, reqs.length); i++) started.push(await begin(i));
-    for (let i = 0; i < reqs.length; i++) {
-      const cur = started[i];
-      started[i] = null;
-      if (cur) {
-        const { v } = reqs[i];
-        const { plan } = cur;
-        const raw = await cur.finish();
-        const slab = {
-          data: raw ?? (await readDirect(v, plan.start, plan.count)) ?? (await read(v, plan.start, plan.count)),
-          strides: denseStrides(plan.count),
-        };
-        carry.finish(plan, slab, sinkOf(i));
+    try {
+      for (let i = 0; i < reqs.length; i++) {
+        const cur = started[i];
+        started[i] = null;
+        if (cur) {
+          const { v } = reqs[i];
+          const { plan } = cur;
+          const raw = await cur.finish();
+          const slab = {
+            data: raw ?? (await readDirect(v, plan.start, plan.count)) ?? (await read(v, plan.start, plan.count)),
+            strides: denseStrides(plan.count),
+          };
+          carry.finish(plan, slab, sinkOf(i));
+        }
+        // Its buffer is free again: the request after next begins in it.
+        if (i + 2 < reqs.length) started.push(await begin(i + 2));
       }
-      // Its buffer is free again: the request after next begins in it.
-      if (i + 2 < reqs.length) started.push(await begin(i + 2));
+    } finally {
+      // After a failure, a request begun and not finished is finished (its result dropped), so no
+      // thread still writes into a reused buffer when the next read takes it.
+      for (const left of started) if (left) await left.finish().catch(() => undefined);
     }
   }
 
