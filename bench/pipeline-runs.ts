@@ -25,10 +25,26 @@ export async function ensureDemoData(): Promise<void> {
 /** A child build's report: the build report, the process's peak RSS [kB], a checksum of the region tables. */
 export type ChildReport = BuildReport & { maxRssKb: number; checksum: string };
 
-/** Runs one `build --data-only` of `config` into `out` in a child process; `options` go to buildAtlas (default: no cache). */
-export function buildInChild(config: string, out: string, jobs: number, options?: Record<string, unknown>): ChildReport {
+let compiled = false;
+
+/** Compiles the shipped JavaScript (`npm run compile`) once per bench run, so the children time today's sources. */
+function ensureCompiled(): void {
+  if (compiled) return;
+  const r = spawnSync(process.execPath, ['--import', 'tsx', join(BENCH_ROOT, 'scripts/compile.ts')], { cwd: BENCH_ROOT, encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(`npm run compile failed: ${r.stderr}`);
+  compiled = true;
+}
+
+/**
+ * Runs one `build --data-only` of `config` into `out` in a child process; `options` go to
+ * buildAtlas (default: no cache). `code`: the shipped compiled JavaScript (default, what
+ * `heathours build` runs) or the TypeScript sources under tsx.
+ */
+export function buildInChild(config: string, out: string, jobs: number, options?: Record<string, unknown>, code: 'compiled' | 'sources' = 'compiled'): ChildReport {
+  if (code === 'compiled') ensureCompiled();
   const args = [join(BENCH_ROOT, 'bench/pipeline-child.mjs'), config, out, String(jobs), ...(options ? [JSON.stringify(options)] : [])];
-  const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 24 });
+  const env = { ...process.env, HEATHOURS_BENCH_CODE: code };
+  const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 24, env });
   if (r.status !== 0) throw new Error(`bench build child failed (${config}): ${r.stderr}`);
   return JSON.parse(r.stdout.trim().split('\n').pop()!) as ChildReport;
 }

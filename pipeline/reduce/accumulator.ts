@@ -338,21 +338,24 @@ function accumulateFused(p: ShardPartial, block: ReduceBlock, nE: number, groups
         const gx = groupX[gi];
         const w = (gx === 0 ? ws : gx === 1 ? wd : wh) + gCav[gi];
         if (!(w > gLowest[gi])) continue;
-        // allowedMetabolicRate and memberWorkFraction (pipeline/work/evaluation-groups.ts), inline.
-        const mLim = Math.exp(gC0[gi] - gC1[gi] * w);
         const members = gMembers[gi];
         const limits = gLimits[gi];
+        if (!shift) {
+          // Outside the shift only the hours above each limit are counted: no work fraction.
+          for (let j = 0; j < members.length; j++) if (w > limits[j]) aboveAll[eBase + members[j]]++;
+          continue;
+        }
+        // allowedMetabolicRate and memberWorkFraction (pipeline/work/evaluation-groups.ts), inline.
+        const mLim = Math.exp(gC0[gi] - gC1[gi] * w);
         const rest = gRest[gi];
         const invDelta = gInvDelta[gi];
         for (let j = 0; j < members.length; j++) {
           if (!(w > limits[j])) continue;
           const e = eBase + members[j];
           aboveAll[e]++;
-          if (shift) {
-            aboveShift[e]++;
-            const f = (mLim - rest[j]) * invDelta[j];
-            lostShift[e] += Math.round((1 - (f > 0 ? f : 0)) * MILLI);
-          }
+          aboveShift[e]++;
+          const f = (mLim - rest[j]) * invDelta[j];
+          lostShift[e] += Math.round((1 - (f > 0 ? f : 0)) * MILLI);
         }
       }
       if (shift) {
