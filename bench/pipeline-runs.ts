@@ -8,6 +8,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { writeDemoDataset } from '../pipeline/demo/index.ts';
+import { ensureCompiled } from './compiled-code.ts';
 import type { BuildReport } from '../pipeline/run/build-atlas.ts';
 
 export const BENCH_ROOT = fileURLToPath(new URL('../', import.meta.url));
@@ -24,16 +25,6 @@ export async function ensureDemoData(): Promise<void> {
 
 /** A child build's report: the build report, the process's peak RSS [kB], a checksum of the region tables. */
 export type ChildReport = BuildReport & { maxRssKb: number; checksum: string };
-
-let compiled = false;
-
-/** Compiles the shipped JavaScript (`npm run compile`) once per bench run, so the children time today's sources. */
-function ensureCompiled(): void {
-  if (compiled) return;
-  const r = spawnSync(process.execPath, ['--import', 'tsx', join(BENCH_ROOT, 'scripts/compile.ts')], { cwd: BENCH_ROOT, encoding: 'utf8' });
-  if (r.status !== 0) throw new Error(`npm run compile failed: ${r.stderr}`);
-  compiled = true;
-}
 
 /**
  * Runs one `build --data-only` of `config` into `out` in a child process; `options` go to

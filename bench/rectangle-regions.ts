@@ -12,6 +12,7 @@ import { fileURLToPath } from 'node:url';
 import { writeDemoDataset } from '../pipeline/demo/index.ts';
 import { makeCellClimate } from '../pipeline/demo/cell-climate.ts';
 import { SMALL_GRID, placeGrid } from '../pipeline/demo/territory.ts';
+import { ensureCompiled } from './compiled-code.ts';
 
 /** This folder (bench/). */
 const BENCH_DIR = dirname(fileURLToPath(import.meta.url));
@@ -106,6 +107,7 @@ export function buildDataAndSite(
   jobs: number,
   name: string,
 ): { pipeline: Record<string, unknown>; site: Record<string, unknown> } {
+  ensureCompiled();
   const child = (args: string[]): Record<string, unknown> => {
     const r = spawnSync(process.execPath, [join(BENCH_DIR, 'regions-1000-child.mjs'), ...args], {
       encoding: 'utf8',

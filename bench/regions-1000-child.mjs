@@ -1,17 +1,20 @@
-// Child process of bench/regions-1000.bench.ts and bench/regions-10000.bench.ts. Runs the TypeScript
-// sources through pipeline/infra/ts-boot.mjs.
+// Child process of bench/regions-1000.bench.ts and bench/regions-10000.bench.ts. Runs the shipped
+// compiled JavaScript (compiled/build-atlas.js, compiled/site-stage.js: what `heathours build`
+// runs; the parent compiles first, bench/compiled-code.ts), or with HEATHOURS_BENCH_CODE=sources
+// the TypeScript sources through pipeline/infra/ts-boot.mjs.
 //   node bench/regions-1000-child.mjs pipeline CONFIG OUT JOBS  → `heathours build --data-only`, with the
 //       time of each logged stage
 //   node bench/regions-1000-child.mjs site DATA_DIR DIST        → the Astro site from that data folder (its
 //       data/ moved into DIST, as `heathours build` does), with the first-view bytes of the home, map, downloads and first region page (bench/first-view.mjs)
 // Prints one JSON line: wall and CPU seconds (all threads), peak resident memory, and details.
-import '../pipeline/infra/ts-boot.mjs';
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { firstViewBytes } from './first-view.mjs';
 
 const [mode, a, b, jobs] = process.argv.slice(2);
+const sources = process.env.HEATHOURS_BENCH_CODE === 'sources';
+if (sources) await import('../pipeline/infra/ts-boot.mjs');
 const t0 = performance.now();
 /** CPU time of this process, all threads (getrusage) [s]. */
 const cpu = () => {
@@ -32,7 +35,7 @@ const childrenCpu = () => {
   }
 };
 if (mode === 'pipeline') {
-  const { buildAtlas } = await import('../pipeline/run/build-atlas.ts');
+  const { buildAtlas } = sources ? await import('../pipeline/run/build-atlas.ts') : await import('../compiled/build-atlas.js');
   const marks = [];
   // Build log lines start with the elapsed time, `[  1.2 s] `: drop it before matching.
   const bare = (m) => m.replace(/^\[[^\]]*\] /, '');
@@ -67,7 +70,7 @@ if (mode === 'pipeline') {
     })}\n`,
   );
 } else if (mode === 'site') {
-  const { buildSite } = await import('../pipeline/run/site-stage.ts');
+  const { buildSite } = sources ? await import('../pipeline/run/site-stage.ts') : await import('../compiled/site-stage.js');
   // The data folder is moved into the site, as `heathours build` does (pipeline/run/build-atlas.ts):
   // the bench builds data and site in two processes only to time them apart. (Copying it instead
   // took ~3.3 s at 1,000 regions and ~30 s at 10,000: the site's time, not the build's.)

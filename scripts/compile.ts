@@ -4,8 +4,8 @@
  * so the shipped command transpiles nothing when it starts. Writes `compiled/` (git-ignored):
  * - `cli.js`: pipeline/cli.ts, the module bin/heathours.mjs runs;
  * - `workers/<name>.js`: each entry of pipeline/infra/compiled.ts `WORKER_ENTRIES`;
- * - `build-atlas.js`: pipeline/run/build-atlas.ts, the build as a function (the whole-build
- *   benchmarks time the shipped code through it);
+ * - `build-atlas.js`, `site-stage.js`: pipeline/run/build-atlas.ts and site-stage.ts, the build
+ *   and the site stage as functions (the whole-build benchmarks time the shipped code through them);
  * - `chunks/*.js`: code shared between them, and the parts each command imports only when it
  *   runs (`import()`), so `--help` loads little;
  * - `sources.json`: the source files that went in, for bin/heathours.mjs's check that the
@@ -31,8 +31,9 @@ interface CompiledSources {
 /** Compiles into `outDir` (default compiled/); returns the number of source files and output bytes. */
 async function compile(outDir = COMPILED_DIR): Promise<{ sources: number; bytes: number }> {
   const compiledAtMs = Date.now();
-  // `build-atlas.js`: the build as a function, for the benchmarks that time the shipped code.
-  const entryPoints: Record<string, string> = { cli: join(PACKAGE_ROOT, 'pipeline/cli.ts'), 'build-atlas': join(PACKAGE_ROOT, 'pipeline/run/build-atlas.ts') };
+  // `build-atlas.js`, `site-stage.js`: the build and the site stage as functions, for the
+  // benchmarks that time the shipped code (bench/compiled-code.ts).
+  const entryPoints: Record<string, string> = { cli: join(PACKAGE_ROOT, 'pipeline/cli.ts'), 'build-atlas': join(PACKAGE_ROOT, 'pipeline/run/build-atlas.ts'), 'site-stage': join(PACKAGE_ROOT, 'pipeline/run/site-stage.ts') };
   for (const [name, entry] of Object.entries(WORKER_ENTRIES)) entryPoints[`workers/${name}`] = join(PACKAGE_ROOT, 'pipeline', `${entry}.ts`);
   let result: { sources: number; bytes: number } = { sources: 0, bytes: 0 };
   await replaceDirAtomic(outDir, async (tmp) => {
