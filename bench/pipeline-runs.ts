@@ -31,7 +31,13 @@ export type ChildReport = BuildReport & { maxRssKb: number; checksum: string };
  * buildAtlas (default: no cache). `code`: the shipped compiled JavaScript (default, what
  * `heathours build` runs) or the TypeScript sources under tsx.
  */
-export function buildInChild(config: string, out: string, jobs: number, options?: Record<string, unknown>, code: 'compiled' | 'sources' = 'compiled'): ChildReport {
+export function buildInChild(
+  config: string,
+  out: string,
+  jobs: number,
+  options?: Record<string, unknown>,
+  code: 'compiled' | 'sources' = 'compiled',
+): ChildReport {
   if (code === 'compiled') ensureCompiled();
   const args = [join(BENCH_ROOT, 'bench/pipeline-child.mjs'), config, out, String(jobs), ...(options ? [JSON.stringify(options)] : [])];
   const env = { ...process.env, HEATHOURS_BENCH_CODE: code };

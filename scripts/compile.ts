@@ -33,7 +33,11 @@ async function compile(outDir = COMPILED_DIR): Promise<{ sources: number; bytes:
   const compiledAtMs = Date.now();
   // `build-atlas.js`, `site-stage.js`: the build and the site stage as functions, for the
   // benchmarks that time the shipped code (bench/compiled-code.ts).
-  const entryPoints: Record<string, string> = { cli: join(PACKAGE_ROOT, 'pipeline/cli.ts'), 'build-atlas': join(PACKAGE_ROOT, 'pipeline/run/build-atlas.ts'), 'site-stage': join(PACKAGE_ROOT, 'pipeline/run/site-stage.ts') };
+  const entryPoints: Record<string, string> = {
+    cli: join(PACKAGE_ROOT, 'pipeline/cli.ts'),
+    'build-atlas': join(PACKAGE_ROOT, 'pipeline/run/build-atlas.ts'),
+    'site-stage': join(PACKAGE_ROOT, 'pipeline/run/site-stage.ts'),
+  };
   for (const [name, entry] of Object.entries(WORKER_ENTRIES)) entryPoints[`workers/${name}`] = join(PACKAGE_ROOT, 'pipeline', `${entry}.ts`);
   let result: { sources: number; bytes: number } = { sources: 0, bytes: 0 };
   await replaceDirAtomic(outDir, async (tmp) => {

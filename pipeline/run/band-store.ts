@@ -18,7 +18,7 @@ import type { BuildPlan, BuildVariant } from './plan-stage.ts';
 import { rowsId } from './rows-id.ts';
 import { BandsDuplicated, BandsForeign, BandsIncomplete } from './errors.ts';
 
-export const BAND_FORMAT = 1;
+export const BAND_FORMAT = 2;
 
 /** Key of the merged bands of a build: the configuration, the code, every shard's cache key and the blocks [hex]. */
 export function bandsKey(plan: BuildPlan): string {
@@ -63,7 +63,7 @@ export function writeBand(dir: string, key: string, blocks: Array<[number, numbe
       fieldMin: toJson(s.fieldMin),
       fieldMax: toJson(s.fieldMax),
       piece: { ...s.piece, path: rel(s.piece.path) },
-      regionParts: { ...s.regionParts, path: rel(s.regionParts.path) },
+      regionParts: s.regionParts.map((r) => ({ ...r, path: rel(r.path) })),
       nicheFragment: rel(s.nicheFragment),
     },
   };
@@ -126,7 +126,7 @@ export function readBands(dir: string, plan: BuildPlan, variant?: BuildVariant):
         fieldMin: fromJson(f.summary.fieldMin),
         fieldMax: fromJson(f.summary.fieldMax),
         piece: { ...f.summary.piece, path: abs(f.summary.piece.path) },
-        regionParts: { ...f.summary.regionParts, path: abs(f.summary.regionParts.path) },
+        regionParts: f.summary.regionParts.map((r) => ({ ...r, path: abs(r.path) })),
         nicheFragment: abs(f.summary.nicheFragment),
       },
     });

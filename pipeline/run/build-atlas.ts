@@ -27,7 +27,7 @@ import { buildSite } from './site-stage.ts';
 import { planBuild, type BuildPlan } from './plan-stage.ts';
 import { computeStage, workerInit, type ComputeMode } from './compute-stage.ts';
 import { startShardPool, type ShardPool, type WorkerInit } from './shard-pool.ts';
-import { mergeStage, stagingTarget } from './merge-stage.ts';
+import { mergeStage, stagingTarget, type RegionSlicing } from './merge-stage.ts';
 import type { MergeTileSummary } from './merge-tile.ts';
 import { bandDir, bandDone, bandsKey, bandsRootOf, linkBandData, readBands, writeBand } from './band-store.ts';
 import { regionStage } from './region-stage.ts';
@@ -62,6 +62,8 @@ export interface BuildAtlasOptions {
   maxMissingHours?: number;
   /** Fewest regions the region stage runs on the worker threads (default REGION_POOL_MIN; tests lower it). */
   regionPoolMin?: number;
+  /** When the merge shares a band's regions out among workers (default DEFAULT_REGION_SLICING of merge-stage.ts; tests lower it). */
+  regionSlicing?: RegionSlicing;
 }
 
 export interface BuildReport {
@@ -181,6 +183,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
         },
         log,
         o.quiet,
+        o.regionSlicing,
       );
       log.info(`merge slice ${o.mergeSlice.k}/${o.mergeSlice.n} done: ${plan.bands.length} band(s) of ${plan.blocks.length} blocks of rows in all`);
       return report(0, merged.seconds);
@@ -206,7 +209,7 @@ async function runBuild(o: BuildAtlasOptions, rc: ResolvedConfig, outDir: string
           return bands.map((b) => b.summary);
         });
       } else {
-        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet);
+        const merged = await mergeStage(plan, compute.partials, stagingTarget(dataDir, join(scratch, 'bands')), log, o.quiet, o.regionSlicing);
         tiles = merged.tiles;
         mergeSeconds = merged.seconds;
       }

@@ -10,7 +10,7 @@ import { startProgress } from '../model/progress.ts';
 import type { Logger } from '../model/effects.ts';
 import { runTasks, type PoolTask } from './shard-pool.ts';
 import type { BuildPlan, BuildVariant, MergeBand } from './plan-stage.ts';
-import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
+import type { MergeTileInput, MergeTileSummary, RegionPartsRef } from './merge-tile.ts';
 import { workerInit } from './compute-stage.ts';
 
 export interface MergeOutcome {
@@ -52,6 +52,7 @@ export async function mergeStage(
   target: BandTarget,
   log: Logger,
   quiet?: boolean,
+  slicing: RegionSlicing = DEFAULT_REGION_SLICING,
 ): Promise<MergeOutcome> {
   const cfg = plan.rc.config;
   const todo = plan.variants.flatMap((variant, vi) => plan.bands.filter((b) => !target.done?.(b, variant)).map((band) => ({ band, variant, vi })));
@@ -82,22 +83,42 @@ export async function mergeStage(
     dataDir: target.dataDir(band, variant),
     scratchDir: target.scratchDir(band, variant),
   }));
+  // Fewer bands than workers, and bands whose regions are the bulk of the work: each such band's
+  // regions go to several tasks (its first slice stays with the band's own task).
+  const slices = regionSlices(inputs, plan.jobs, slicing);
+  if (slices.tasks.length > 0)
+    log.info(`${slices.tasks.length} more merge task(s) share out the regions of ${inputs.length} band(s) among ${plan.jobs} workers`);
   const byId = new Map<string, MergeTileSummary>();
+  const sliceParts = new Map<string, RegionPartsRef>();
   const progress = startProgress('merge', inputs.length, { quiet });
+  // A band is finished when its own task and every slice of its regions are done.
+  const finish = (id: string) => {
+    const main = byId.get(id);
+    const mine = slices.tasks.filter((s) => s.of === id);
+    if (!main || mine.some((s) => !sliceParts.has(s.tile.id))) return;
+    const summary: MergeTileSummary = { ...main, regionParts: [...main.regionParts, ...mine.map((s) => sliceParts.get(s.tile.id)!)] };
+    byId.set(id, summary);
+    const t = todo.find((x) => mergeTaskId(x.band, x.variant) === id)!;
+    target.finished?.(t.band, t.variant, summary);
+    progress.tick();
+  };
   const t0 = Date.now();
   log.info(
     `merging ${inputs.length} band(s) of rows${plan.variants.length > 1 ? ` (the record and ${plan.variants.length - 1} scenario(s))` : ''} on ${plan.jobs} worker(s): normals, trends, niche, cell tables, map chunks, calculator tiles`,
   );
   await runTasks(
-    inputs.map((tile): PoolTask => ({ kind: 'merge', tile })),
+    [...slices.inputs.map((tile): PoolTask => ({ kind: 'merge', tile })), ...slices.tasks.map((s): PoolTask => ({ kind: 'merge-regions', tile: s.tile }))],
     workerInit(plan),
     plan.jobs,
     {
       onTask: (id, summary) => {
-        byId.set(id, summary!);
-        const t = todo.find((x) => mergeTaskId(x.band, x.variant) === id)!;
-        target.finished?.(t.band, t.variant, summary!);
-        progress.tick();
+        if (summary === undefined) return;
+        byId.set(id, summary);
+        finish(id);
+      },
+      onRegionParts: (id, parts) => {
+        sliceParts.set(id, parts);
+        finish(slices.tasks.find((s) => s.tile.id === id)!.of);
       },
     },
   );
@@ -107,4 +128,54 @@ export async function mergeStage(
   const tiles: MergeTileSummary[][] = plan.variants.map(() => []);
   todo.forEach((t, i) => tiles[t.vi].push(byId.get(inputs[i].id)!));
   return { tiles, seconds };
+}
+
+/** When a band's regions are shared out among workers ({@link regionSlices}). */
+export interface RegionSlicing {
+  /** Fewest regions a slice holds [count]. */
+  minRegions: number;
+  /** Times over that a band's regions must overlap its cells before they are sliced [1]. */
+  overlap: number;
+}
+
+/** Slices of at least 256 regions, for bands whose regions overlap their cells 4 times over or more. */
+export const DEFAULT_REGION_SLICING: RegionSlicing = { minRegions: 256, overlap: 4 };
+
+/**
+ * How the bands' regions are shared out when there are fewer bands than workers: a band whose
+ * region parts outweigh its own merge (its regions overlap its cells at least `slicing.overlap`
+ * times over, as with thousands of small districts on a coarse grid) gets up to ⌈workers /
+ * bands⌉ slices of at least `slicing.minRegions` regions, in region order.
+ * Each slice beyond the first is a task of its own, which merges the band's partials again (cheap
+ * beside its regions' work) and writes only its regions' parts; the band's own task keeps the
+ * first slice and the workforce's people-weighted sums of every region. The parts of each region
+ * are the same whichever task writes them, so the published output does not depend on the slicing.
+ */
+export function regionSlices(
+  bands: readonly MergeTileInput[],
+  jobs: number,
+  slicing: RegionSlicing = DEFAULT_REGION_SLICING,
+): { inputs: MergeTileInput[]; tasks: Array<{ of: string; tile: MergeTileInput }> } {
+  if (bands.length === 0 || bands.length >= jobs) return { inputs: [...bands], tasks: [] };
+  const per = Math.ceil(jobs / bands.length);
+  const inputs: MergeTileInput[] = [];
+  const tasks: Array<{ of: string; tile: MergeTileInput }> = [];
+  for (const b of bands) {
+    let overlaps = 0;
+    for (const rc of b.regions) overlaps += rc.cells.length;
+    const k = Math.min(per, Math.floor(b.regions.length / slicing.minRegions));
+    if (k < 2 || overlaps < slicing.overlap * b.cells.length) {
+      inputs.push(b);
+      continue;
+    }
+    const size = Math.ceil(b.regions.length / k);
+    inputs.push({ ...b, regions: b.regions.slice(0, size) });
+    for (let j = 1; j * size < b.regions.length; j++) {
+      tasks.push({
+        of: b.id,
+        tile: { ...b, id: `${b.id}-regions-${j}`, regions: b.regions.slice(j * size, (j + 1) * size), regionsOnly: true },
+      });
+    }
+  }
+  return { inputs, tasks };
 }

@@ -84,6 +84,19 @@ export interface MergeTileInput {
   /** The staging `data` folder and the build's scratch folder. */
   dataDir: string;
   scratchDir: string;
+  /**
+   * A slice of a band's regions only (./merge-stage.ts hands a band's regions to several workers
+   * when there are fewer bands than workers): the band's partials are merged for these regions'
+   * figure sums and means, and nothing per cell (nor the workforce's people-weighted sums, which
+   * the band's own task writes) is written ({@link runMergeRegions}).
+   */
+  regionsOnly?: boolean;
+}
+
+/** A file of region parts (pipeline/formats/region-parts.ts) and the records it holds. */
+export interface RegionPartsRef {
+  path: string;
+  records: RegionRecordRef[];
 }
 
 /** What the main thread keeps of a merged tile (small). */
@@ -95,7 +108,8 @@ export interface MergeTileSummary {
   /** Smallest and largest finite value per gridded field over the tile [unit of the field]. */
   fieldMin: Float64Array;
   fieldMax: Float64Array;
-  regionParts: { path: string; records: RegionRecordRef[] };
+  /** The band's region parts: one file, or one per slice of its regions merged apart. */
+  regionParts: RegionPartsRef[];
   cellChunks: Array<CellChunkEntry & { firstCell: number }>;
   pointChunks: PointChunkEntry[];
   /** One per publication block: the table's path below the site and its rows. */
@@ -150,13 +164,28 @@ function sliceNormals(n: Normals, a: number, b: number): Normals {
   };
 }
 
+/** Merges one band (see the file comment): its cell outputs, region parts and summary. */
 export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary> {
+  if (t.regionsOnly) throw new RangeError(`merge task ${t.id} is a slice of a band's regions: run it with runMergeRegions`);
+  return (await mergeBand(t)) as MergeTileSummary;
+}
+
+/**
+ * Merges one band for a slice of its regions (`t.regionsOnly`, `t.regions` the slice): the same
+ * region parts as the whole band's merge writes for those regions, and nothing else.
+ */
+export async function runMergeRegions(t: MergeTileInput): Promise<RegionPartsRef> {
+  if (!t.regionsOnly) throw new RangeError(`merge task ${t.id} is not a slice of a band's regions`);
+  return (await mergeBand(t)) as RegionPartsRef;
+}
+
+async function mergeBand(t: MergeTileInput): Promise<MergeTileSummary | RegionPartsRef> {
   const nCells = t.cells.length;
   const nY = t.years.length;
   const rule = MONTHLY_COMPLETENESS;
   // The cells of each publication block: positions [c0, c1) in the tile's cells.
   const nLon = t.grid.lon.length;
-  const blockCells = t.blocks.map((rows) => {
+  const blockCells = (t.regionsOnly ? [] : t.blocks).map((rows) => {
     const [c0, c1] = idsInRows(t.grid, t.cells, rows[0], rows[1]);
     return { rows, c0, c1, point: new PointTileStore(t.cells.slice(c0, c1)) };
   });
@@ -253,8 +282,8 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       addWeightedMeans(pairs, mats, 2, rc);
       regionFile.means(rc.region, pairs);
     }
-    if (wf) {
-      // People-weighted sums of hours above the limit, hours lost and shift hours per worker.
+    if (wf && !t.regionsOnly) {
+      // People-weighted sums (the band's own task writes them for every region of the band). of hours above the limit, hours lost and shift hours per worker.
       const above = defs.findIndex((d) => d.id === 'hours-above-limit-shift');
       const lost = defs.findIndex((d) => d.id === 'hours-lost-shift');
       for (const rc of wf.regions) {
@@ -270,6 +299,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       }
     }
     stacks = [];
+    if (t.regionsOnly) return { path: regionFile.path, records: regionFile.records };
 
     // Cell outputs: the table, the map's chunks, the niche entries, the calculator's point tiles.
     mkdirSync(join(t.dataDir, 'cell-tables'), { recursive: true });
@@ -340,7 +370,7 @@ export async function runMergeTile(t: MergeTileInput): Promise<MergeTileSummary>
       piece: pieceRef,
       fieldMin,
       fieldMax,
-      regionParts: { path: regionFile.path, records: regionFile.records },
+      regionParts: [{ path: regionFile.path, records: regionFile.records }],
       cellChunks,
       pointChunks,
       cellTables,

@@ -87,7 +87,7 @@ export async function regionStage(
   };
   // Which records of which band files belong to each region.
   const refs = plan.regions.map(() => [] as Array<{ path: string; ref: RegionRecordRef }>);
-  for (const t of tiles) for (const ref of t.regionParts.records) refs[ref.region].push({ path: t.regionParts.path, ref });
+  for (const t of tiles) for (const part of t.regionParts) for (const ref of part.records) refs[ref.region].push({ path: part.path, ref });
   const taskOf = (r: number): RegionTask => {
     const w = plan.weights[r];
     return {

@@ -10,7 +10,7 @@ import type { ChangeCounts, KernelCounts } from '../physics/index.ts';
 import type { OpenDatasetOptions, SummaryPart } from '../read/index.ts';
 import type { ComputeTask, ShardContext } from './compute-task.ts';
 import type { PartialMeta } from '../formats/partial-file.ts';
-import type { MergeTileInput, MergeTileSummary } from './merge-tile.ts';
+import type { MergeTileInput, MergeTileSummary, RegionPartsRef } from './merge-tile.ts';
 
 /** What every worker is started with: the input files, how to open them, the shard context. */
 export interface WorkerInit {
@@ -26,6 +26,8 @@ export type ShardStores = Record<string, { path: string; meta: Omit<PartialMeta,
 export type PoolTask =
   | { kind: 'compute'; task: ComputeTask; stores: ShardStores }
   | { kind: 'merge'; tile: MergeTileInput }
+  /** A slice of a band's regions merged apart (`tile.regionsOnly`; ./merge-stage.ts). */
+  | { kind: 'merge-regions'; tile: MergeTileInput }
   /** One chunk of the inventory's summary of the inputs (hours [c0, c1) of the whole grid; pipeline/read/dataset.ts). */
   | { kind: 'summary'; hours: [number, number]; key: string };
 
@@ -47,6 +49,7 @@ export interface ShardReport {
 export type PoolResult =
   | { kind: 'compute'; shards: ShardReport[] }
   | { kind: 'merge'; summary: MergeTileSummary }
+  | { kind: 'merge-regions'; parts: RegionPartsRef }
   | { kind: 'summary'; key: string; part: SummaryPart };
 
 export interface PoolHandlers {
@@ -56,11 +59,14 @@ export interface PoolHandlers {
   onShardProgress?: () => void;
   /** A task is done (a merge band's summary with it). */
   onTask?: (taskId: string, summary: MergeTileSummary | undefined) => void;
+  /** A slice of a band's regions is merged: its region parts. */
+  onRegionParts?: (taskId: string, parts: RegionPartsRef) => void;
   /** A chunk of the inputs' summary is done. */
   onSummaryPart?: (key: string, part: SummaryPart) => void;
 }
 
-export const taskId = (t: PoolTask): string => (t.kind === 'compute' ? t.task.id : t.kind === 'merge' ? t.tile.id : `summary-${t.hours[0]}-${t.hours[1]}`);
+export const taskId = (t: PoolTask): string =>
+  t.kind === 'compute' ? t.task.id : t.kind === 'merge' || t.kind === 'merge-regions' ? t.tile.id : `summary-${t.hours[0]}-${t.hours[1]}`;
 
 /** A pool the caller keeps across runs (the compute stage's, started before the plan is made). */
 export interface ShardPool {
@@ -81,7 +87,10 @@ export function startShardPool(jobs: number, init: WorkerInit | Promise<WorkerIn
 }
 
 function describe(t: PoolTask): string {
-  return `${t.kind === 'compute' ? 'compute task' : t.kind === 'merge' ? 'merge band' : 'summary of the inputs'} ${taskId(t)}`;
+  const what = { compute: 'compute task', merge: 'merge band', 'merge-regions': "merge of a slice of a band's regions", summary: 'summary of the inputs' }[
+    t.kind
+  ];
+  return `${what} ${taskId(t)}`;
 }
 
 /**
@@ -107,6 +116,7 @@ export async function runTasks(
     onResult: (t, r) => {
       if (r.kind === 'compute') for (const s of r.shards) handlers.onShard?.(s.shardId, s);
       if (r.kind === 'summary') handlers.onSummaryPart?.(r.key, r.part);
+      if (r.kind === 'merge-regions') handlers.onRegionParts?.(taskId(t), r.parts);
       handlers.onTask?.(taskId(t), r.kind === 'merge' ? r.summary : undefined);
     },
     // The caller gave up (its own work failed): no more tasks, the workers are stopped.

@@ -10,7 +10,7 @@ import { openDataset, type Dataset } from '../read/index.ts';
 import { computeTask } from './compute-task.ts';
 import type { PoolResult, PoolTask, ShardReport, WorkerInit } from './shard-pool.ts';
 import { writePartialFile } from './partial-store.ts';
-import { runMergeTile } from './merge-tile.ts';
+import { runMergeRegions, runMergeTile } from './merge-tile.ts';
 import { serveTasks } from '../infra/worker-side.ts';
 import { DiskFull } from './errors.ts';
 
@@ -24,6 +24,7 @@ serveTasks<WorkerInit, PoolTask, PoolResult>({
   async run(t, progress) {
     try {
       if (t.kind === 'merge') return { kind: 'merge', summary: await runMergeTile(t.tile) };
+      if (t.kind === 'merge-regions') return { kind: 'merge-regions', parts: await runMergeRegions(t.tile) };
       ds ??= await openDataset(init!.files, { ...init!.datasetOptions });
       if (t.kind === 'summary') return { kind: 'summary', key: t.key, part: await ds.summariseChunk(t.hours[0], t.hours[1]) };
       const shards: ShardReport[] = [];

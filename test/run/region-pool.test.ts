@@ -1,7 +1,9 @@
 /**
  * The region stage on worker threads: an invented atlas of 24 regions over the small demo grid,
- * with a scenario and the demo's invented workforce raster, built with 1 and with 2 workers gives
- * the same bytes in every file under data/ (each region is made whole by one thread); a failure
+ * with a scenario and the demo's invented workforce raster, built with 1 and with 2 workers, and
+ * with 2 workers and the merge's regions shared out in slices (pipeline/run/merge-stage.ts
+ * regionSlices), gives the same bytes in every file under data/ (each region is made whole by one
+ * thread, its parts written by one merge task); a failure
  * in a worker is the catalogued RegionWriteFailed naming the region, as in the main thread.
  * Outside check: none beyond the project's own one-thread output (the reference for the bytes).
  */
@@ -83,15 +85,26 @@ describe('the region stage on worker threads', () => {
       const common = { configPath: join(dir, 'atlas.yaml'), quiet: true, dataOnly: true, cache: false as const };
       await buildAtlas({ ...common, outDir: join(dir, 'one'), jobs: 1 });
       await buildAtlas({ ...common, outDir: join(dir, 'two'), jobs: 2, regionPoolMin: 1 });
+      // The merge shares the regions of each band (the record's and the scenario's) out in 2
+      // slices: 4 tasks on 3 workers.
+      const logged: string[] = [];
+      const logger = { info: (m: string) => logged.push(m), warn: (m: string) => logged.push(m) };
+      await buildAtlas({ ...common, logger, outDir: join(dir, 'sliced'), jobs: 3, regionSlicing: { minRegions: 5, overlap: 0 } });
+      expect(
+        logged.some((m) => /2 more merge task\(s\) share out the regions of 2 band\(s\) among 3 workers/.test(m)),
+        logged.join('\n'),
+      ).toBe(true);
     } finally {
       delete process.env.HEATHOURS_BUILD_TIME;
     }
     const a = files(join(dir, 'one', 'data'));
-    const b = files(join(dir, 'two', 'data'));
-    expect([...b.keys()].sort()).toEqual([...a.keys()].sort());
     const regionFiles = [...a.keys()].filter((k) => /(^|\/)regions\/box-\d\d\.csv$/.test(k));
     expect(regionFiles.length, 'the record and the scenario each have 24 region tables').toBe(48);
-    for (const [k, v] of a) expect(b.get(k)!.equals(v), `${k} is the same bytes`).toBe(true);
+    for (const other of ['two', 'sliced']) {
+      const b = files(join(dir, other, 'data'));
+      expect([...b.keys()].sort()).toEqual([...a.keys()].sort());
+      for (const [k, v] of a) expect(b.get(k)!.equals(v), `${other}: ${k} is the same bytes`).toBe(true);
+    }
   }, 600_000);
 
   it('ends a failure in a worker in the catalogued RegionWriteFailed naming the region, as in the main thread', async () => {
