@@ -78,6 +78,39 @@ export function wind2mStep(inp: WindStepInputs, out: Float32Array | Float64Array
   const atRef = height === REF_HEIGHT;
   // The floor as a local: the loop reads no module binding (a getter call under the tests' TypeScript loader).
   const minSpeed = MIN_SPEED;
+  if (stabilityOut === undefined && !atRef) {
+    // Without the classes asked for: the factor straight from tables of the class table's rows
+    // and columns, the row and column counted from the bounds passed (whole-number arithmetic on
+    // the comparisons, no chain of branches per cell-hour). Same factors as stabilityClass gives
+    // (test/physics/wind.test.ts); a NaN speed may take another row's factor and still gives NaN.
+    const day = new Float64Array(40);
+    for (let k = 0; k < 20; k++) {
+      day[k] = factor[DAY_TABLE[k] - 1];
+      day[20 + k] = factor[DAY_TABLE[k] - 1 + 6];
+    }
+    const nightClasses = dT >= 0 ? NIGHT_STABLE : NIGHT_UNSTABLE;
+    const night = new Float64Array(6);
+    for (let k = 0; k < 3; k++) {
+      night[k] = factor[nightClasses[k] - 1];
+      night[3 + k] = factor[nightClasses[k] - 1 + 6];
+    }
+    for (let i = 0; i < n; i++) {
+      const u = W[i];
+      const urban = urbanAll ?? urbanCells![i % nCells] !== 0;
+      let f: number;
+      if (CZ[i] > 0) {
+        const s = S[i];
+        // Row: speed bounds 2, 3, 5, 6 m s⁻¹; column: solar bounds 925, 675, 175 W m⁻² (stabilityClass).
+        const row = +(u >= 2) + +(u >= 3) + +(u >= 5) + +(u >= 6);
+        const col = 3 - +(s >= 175) - +(s >= 675) - +(s >= 925);
+        f = day[(urban ? 20 : 0) + 4 * row + col];
+      } else f = night[(urban ? 3 : 0) + +(u >= 2) + +(u >= 2.5)];
+      const v = u * f;
+      // Floor at 0.13 m/s; a negative or NaN speed passes through so the kernel rejects it.
+      out[i] = v > minSpeed ? v : v >= 0 ? minSpeed : v;
+    }
+    return;
+  }
   for (let i = 0; i < n; i++) {
     const u = W[i];
     const cls = stabilityClass(CZ[i] > 0, u, S[i], dT);
