@@ -7,17 +7,7 @@
  */
 import { describe, it, expect } from 'vitest';
 import { stabilityClass, windAt2m, wind2mStep } from '../../pipeline/physics/wind.ts';
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from './stratified-states.ts';
 
 /** Speeds and solar values on, just below and just above every class bound, and odd values. */
 const SPEEDS = [-1, 0, 0.1, 1.999999, 2, 2.000001, 2.4999999, 2.5, 2.75, 2.9999999, 3, 4.99999, 5, 5.5, 5.999999, 6, 7, 12, 40, Infinity, NaN];
@@ -60,7 +50,7 @@ describe('2 m wind step', () => {
     }
   });
   it('the factor tables give the class path wind on 200,000 seeded random cell-hours with per-cell urban flags', () => {
-    const rnd = mulberry32(7);
+    const rnd = rng(7);
     const n = 200_000;
     const speed = Array.from({ length: n }, () => (rnd() < 0.001 ? Number.NaN : 14 * rnd()));
     const solar = Array.from({ length: n }, () => 1200 * rnd());
