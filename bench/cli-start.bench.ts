@@ -16,6 +16,7 @@ import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { ensureCompiled } from './compiled-code.ts';
 import { benchInputs } from './decode.bench.ts';
 import type { Bench, BenchFigure } from './types.ts';
 
@@ -60,8 +61,7 @@ const digest = (s: string) => createHash('sha256').update(s).digest('hex').slice
 export const bench: Bench = {
   names: ['cli-start'],
   async run() {
-    const compile = spawnSync(process.execPath, ['--import', 'tsx', join(ROOT, 'scripts/compile.ts')], { cwd: ROOT, encoding: 'utf8' });
-    if (compile.status !== 0) throw new Error(`npm run compile failed: ${compile.stderr}`);
+    ensureCompiled();
     const [classic] = benchInputs('classic', [2021]);
     const [netcdf4] = benchInputs('netcdf4', [2021]);
     const reference = spawnSync(PYTHON, ['-c', 'import netCDF4, numpy'], { encoding: 'utf8' }).status === 0;
