@@ -101,7 +101,10 @@ export async function writeJsonFile(path: string, value: unknown, indent = 1): P
     await Promise.race([once(out, 'finish'), failed]);
     await rename(part, path);
   } catch (e) {
+    // The stream opens its file asynchronously: wait until it is closed, or the part could be
+    // created after it was removed (a value that fails at once, on a loaded machine).
     out.destroy();
+    if (!out.closed) await once(out, 'close').catch(() => undefined);
     await rm(part, { force: true });
     throw e;
   }
